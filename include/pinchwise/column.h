@@ -1,0 +1,106 @@
+/* Binary distillation column: constant molal overflow, total condenser, partial reboiler.
+ *
+ * The column module knows nothing of thermodynamics: it works on an equilibrium curve y*(x)
+ * supplied as a callback (from a fitted model at fixed pressure, or a closed form in tests).
+ * Mole fractions are of component 1, the light key; xd > zf > xb. q is the feed's liquid
+ * fraction (q > 1 subcooled liquid, q < 0 superheated vapor).
+ * Methods: McCabe-Thiele operating lines; global feed/tangent pinch search; stepping. See
+ * docs/column.md for the equations and sources. */
+#ifndef PINCHWISE_COLUMN_H
+#define PINCHWISE_COLUMN_H
+
+#include <pinchwise/status.h>
+#include <stdbool.h>
+#include <stddef.h>
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/* y*(x) in equilibrium with liquid x in [0,1]; returns a status (never NaN). */
+typedef pw_status (*pw_curve_fn)(void *ctx, double x, double *y);
+
+typedef struct pw_curve {
+    pw_curve_fn y_of_x;
+    void *ctx;
+} pw_curve;
+
+typedef struct pw_column_spec {
+    double xd, xb, zf, q;
+} pw_column_spec;
+
+typedef enum { PW_PINCH_FEED = 0, PW_PINCH_TANGENT = 1 } pw_pinch_kind;
+typedef enum { PW_SECTION_RECTIFYING = 0, PW_SECTION_STRIPPING = 1 } pw_section;
+
+typedef struct pw_pinch {
+    pw_pinch_kind kind;
+    pw_section section;
+    double x, y;
+} pw_pinch;
+
+#define PW_COLUMN_MAX_FACTORS 8
+
+/* One row of the design table: stage-by-stage stepping at R = factor * R_min. */
+typedef struct pw_design_row {
+    double factor, R, boilup;   /* boilup = Vbar/B */
+    double stages;              /* equilibrium stages incl. the partial reboiler, fractional last */
+    int feed_stage;             /* optimal feed stage, counted from the top (1 = top stage) */
+    double gilliland_stages;    /* Molokanov et al. (1972) form of the Gilliland correlation */
+} pw_design_row;
+
+typedef struct pw_column_options {
+    double rtol;          /* relative tolerance on R_min; default 1e-10 */
+    size_t grid;          /* points of the global pinch scan; default 2000 */
+    double factors[PW_COLUMN_MAX_FACTORS]; /* R/R_min for the design table; default 1.2, 1.3, 1.5 */
+    size_t n_factors;
+    size_t max_stages;    /* stepping gives up beyond this; default 500 */
+} pw_column_options;
+
+pw_column_options pw_column_default_options(void);
+
+#define PW_REASON_MAX 320
+
+typedef struct pw_column_result {
+    bool feasible;
+    char reason[PW_REASON_MAX]; /* why not, in words; empty when feasible */
+    double x_q, y_q;            /* q-line meets the equilibrium curve */
+    double r_min;               /* minimum reflux ratio L/D */
+    double s_min;               /* boil-up ratio Vbar/B at R_min */
+    double r_feed;              /* the R a feed-pinch-only search would give (diagnostic) */
+    pw_pinch pinch;
+    double n_min;               /* stages at total reflux, stepped on the curve */
+    double n_fenske;            /* Fenske with the geometric-mean relative volatility */
+    double alpha_top, alpha_bottom;
+    pw_design_row design[PW_COLUMN_MAX_FACTORS];
+    size_t n_design;
+} pw_column_result;
+
+/* The whole analysis: feasibility, R_min with the limiting pinch (global search in both
+ * sections), N_min by stepping at total reflux, Fenske, and the design table. Infeasible
+ * specifications are not an error: the status is PW_OK with feasible = false and a reason.
+ * Errors: PW_EINVAL for an inconsistent spec (not 0 <= xb < zf < xd <= 1), curve failures. */
+pw_status pw_column_solve(const pw_curve *curve, const pw_column_spec *spec,
+                          const pw_column_options *opt, pw_column_result *out);
+
+/* Steps stages from the top at reflux R with the optimal feed stage. */
+pw_status pw_column_step(const pw_curve *curve, const pw_column_spec *spec, double R,
+                         size_t max_stages, double *stages, int *feed_stage);
+
+/* Stages at total reflux from xd down to xb (partial reboiler counted, fractional last). */
+pw_status pw_column_total_reflux(const pw_curve *curve, double xd, double xb, size_t max_stages,
+                                 double *stages);
+
+/* Closed forms for constant relative volatility alpha (tests and near-ideal checks):
+ * Underwood (1948) R_min for any q, Fenske (1932) N_min. */
+pw_status pw_underwood_rmin(double alpha, double zf, double xd, double q, double *r_min);
+double pw_fenske_nmin(double alpha, double xd, double xb);
+
+/* Gilliland-type correlations: stages N from N_min, R, R_min. Molokanov et al. (1972) and
+ * Eduljee (1975). */
+double pw_gilliland_molokanov(double n_min, double R, double r_min);
+double pw_gilliland_eduljee(double n_min, double R, double r_min);
+
+#ifdef __cplusplus
+}
+#endif
+#endif

@@ -1,0 +1,52 @@
+/* Binary vapor-liquid equilibrium with modified Raoult's law: y_i P = x_i gamma_i P_i^sat.
+ *
+ * A pw_system is a plain value: two components, an activity model and its parameters. All
+ * solvers are bracketed and safeguarded (GSL roots); each returns a status and never a silent
+ * unconverged number. T in K, P in Pa, mole fractions of component 1. */
+#ifndef PINCHWISE_EQUILIBRIUM_H
+#define PINCHWISE_EQUILIBRIUM_H
+
+#include <pinchwise/component.h>
+#include <pinchwise/model.h>
+#include <pinchwise/status.h>
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+typedef struct pw_system {
+    pw_component comp[2];
+    const pw_model_type *model;
+    double params[PW_MAX_PARAMS];
+    double T_ref_K; /* reference temperature of the Margules / van Laar temperature form */
+} pw_system;
+
+/* One equilibrium state. */
+typedef struct pw_eq_point {
+    double x1, y1, T_K, P_Pa;
+    double gamma[2], Psat_Pa[2];
+    int iterations;
+} pw_eq_point;
+
+/* Activity of the liquid at (x1, T); forwards the model's status. */
+pw_status pw_system_activity(const pw_system *s, double x1, double T_K, pw_activity *out);
+
+/* Bubble temperature at P for liquid x1 (and the vapor y1). PW_ENOBRACKET when no temperature
+ * in the search range satisfies the equation, PW_EMAXITER / PW_ENOCONV otherwise. */
+pw_status pw_bubble_T(const pw_system *s, double P_Pa, double x1, pw_eq_point *out);
+/* Bubble pressure at T for liquid x1 (explicit; no iteration). */
+pw_status pw_bubble_P(const pw_system *s, double T_K, double x1, pw_eq_point *out);
+/* Dew temperature at P for vapor y1 (and the liquid x1). */
+pw_status pw_dew_T(const pw_system *s, double P_Pa, double y1, pw_eq_point *out);
+/* Dew pressure at T for vapor y1. */
+pw_status pw_dew_P(const pw_system *s, double T_K, double y1, pw_eq_point *out);
+
+/* Liquid-phase stability at T: scans D(x1) = d^2(G_mix/RT)/dx1^2 = 1/(x1 x2) + d^2(G^E/RT)/dx1^2
+ * over 0 < x1 < 1 (grid of at least 400 points, refined at the minimum) and returns the
+ * minimum and where it is. min_D < 0 means the model predicts a liquid-liquid split. */
+pw_status pw_stability_min(const pw_system *s, double T_K, double *min_D, double *x_at_min);
+
+#ifdef __cplusplus
+}
+#endif
+#endif

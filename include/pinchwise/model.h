@@ -1,0 +1,67 @@
+/* Activity-coefficient models for binary liquids, as const type descriptors.
+ *
+ * Every model gives, at (x1, T) and parameter vector p, ln gamma_i with their derivatives in x1
+ * (at constant T, x2 = 1 - x1), in T (at constant x) and in each parameter, G^E/RT, its second
+ * composition derivative (for the phase-stability test) and H^E from Gibbs-Helmholtz.
+ * Parameter sets and temperature forms (see docs/thermo.md):
+ *   margules  A12, A21 [-] at T_ref;  A_ij(T) = A_ij * T_ref / T
+ *   vanlaar   A12, A21 [-] at T_ref;  A_ij(T) = A_ij * T_ref / T
+ *   wilson    a12_K, a21_K [K], V2_V1 [-] (fixed);  L12 = V2_V1 exp(-a12/T), L21 = exp(-a21/T)/V2_V1
+ *   nrtl      b12_K, b21_K [K], alpha [-] (fixed by default); tau_ij = b_ij/T, G_ij = exp(-alpha tau_ij)
+ * Adding a model means one new file in src/thermo/models and one line in the table. */
+#ifndef PINCHWISE_MODEL_H
+#define PINCHWISE_MODEL_H
+
+#include <pinchwise/status.h>
+#include <stdbool.h>
+#include <stddef.h>
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+#define PW_MAX_PARAMS 4
+#define PW_GAS_CONSTANT 8.314462618 /* J/(mol K), CODATA 2018 exact value */
+
+typedef struct pw_activity {
+    double lngamma[2];
+    double dlngamma_dx1[2];                 /* at constant T */
+    double dlngamma_dT[2];                  /* at constant x, 1/K */
+    double dlngamma_dp[2][PW_MAX_PARAMS];   /* at constant x and T */
+    double gE_RT;                           /* G^E/(RT) */
+    double d2gE_dx2;                        /* d^2(G^E/RT)/dx1^2 */
+    double hE_Jmol;                         /* H^E = -R T^2 d(G^E/RT)/dT, J/mol */
+} pw_activity;
+
+typedef struct pw_model_type {
+    const char *name;   /* command-line name: "margules", "vanlaar", "wilson", "nrtl" */
+    const char *title;  /* for reports, with its published origin */
+    size_t n_params;
+    const char *const *param_names;
+    const char *const *param_units;
+    const double *defaults;       /* start or fixed values */
+    const bool *fitted_default;   /* which parameters a fit adjusts by default */
+    /* PW_OK when p is in the model's domain (e.g. van Laar A12, A21 of one sign, alpha > 0). */
+    pw_status (*check)(const double *p);
+    /* Evaluates at x1 in [0,1], T > 0; PW_EDOM outside or for p outside the domain. */
+    pw_status (*eval)(const double *p, double T_ref_K, double x1, double T_K, pw_activity *out);
+} pw_model_type;
+
+extern const pw_model_type pw_model_margules;
+extern const pw_model_type pw_model_vanlaar;
+extern const pw_model_type pw_model_wilson;
+extern const pw_model_type pw_model_nrtl;
+
+/* The model called name (exact, lower case), or NULL. */
+const pw_model_type *pw_model_find(const char *name);
+
+/* All models, in a fixed order; *n receives their count. */
+const pw_model_type *const *pw_model_all(size_t *n);
+
+/* Index of a parameter by name, or -1. */
+int pw_model_param_index(const pw_model_type *m, const char *name);
+
+#ifdef __cplusplus
+}
+#endif
+#endif

@@ -1,0 +1,70 @@
+/* pinchwise status codes and error detail.
+ *
+ * Every fallible library function returns a pw_status (PW_OK == 0 is success). Functions that
+ * can say more (file, line, what was expected) also fill a caller-owned pw_error. The library
+ * never prints and never exits; only the command-line program talks to the user. */
+#ifndef PINCHWISE_STATUS_H
+#define PINCHWISE_STATUS_H
+
+#include <stddef.h>
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/* The one list of status codes: enum name, exit code of the CLI, message. */
+#define PW_STATUS_LIST(X)                                                          \
+    X(PW_OK, 0, "success")                                                         \
+    X(PW_EINVAL, 2, "invalid argument")                                            \
+    X(PW_EPARSE, 3, "malformed input")                                             \
+    X(PW_EIO, 4, "file input/output error")                                        \
+    X(PW_ENOTFOUND, 3, "not found")                                                \
+    X(PW_EEXIST, 4, "output file exists")                                          \
+    X(PW_ENOMEM, 5, "out of memory")                                               \
+    X(PW_EDOM, 6, "argument outside the domain of the model")                      \
+    X(PW_ERANGE, 6, "value outside the validity range")                            \
+    X(PW_ETOOFEW, 3, "too few data points")                                        \
+    X(PW_ENOBRACKET, 6, "no root inside the search bracket")                       \
+    X(PW_EMAXITER, 6, "iteration limit reached before convergence")                \
+    X(PW_ENOCONV, 6, "solver did not converge")                                    \
+    X(PW_ESINGULAR, 6, "singular or ill-conditioned matrix")                       \
+    X(PW_EINFEASIBLE, 7, "specification cannot be met")
+
+typedef enum {
+#define PW_STATUS_ENUM(name, exit_code, msg) name,
+    PW_STATUS_LIST(PW_STATUS_ENUM)
+#undef PW_STATUS_ENUM
+        PW_STATUS_COUNT
+} pw_status;
+
+/* Static message for a status; never NULL, never to be freed. */
+const char *pw_strerror(pw_status status);
+
+/* The CLI's exit code for a status (0 for PW_OK; a small positive number otherwise). */
+int pw_status_exit_code(pw_status status);
+
+#define PW_ERROR_MSG_MAX 640
+#define PW_PATH_MAX 512
+
+/* Detail of a failure, owned by the caller. line is 0 when there is none. */
+typedef struct pw_error {
+    pw_status status;
+    char file[PW_PATH_MAX];
+    long line;
+    char msg[PW_ERROR_MSG_MAX]; /* "what is wrong (what was expected)", no file/line prefix */
+} pw_error;
+
+/* Clears an error record (status PW_OK, empty strings). Accepts NULL. */
+void pw_error_clear(pw_error *err);
+
+/* Fills err (when not NULL) and returns status. file may be NULL, line 0 for none. */
+pw_status pw_error_set(pw_error *err, pw_status status, const char *file, long line,
+                       const char *fmt, ...) __attribute__((format(printf, 5, 6)));
+
+/* Formats "file:line: msg" (or "file: msg", or "msg") into buf; returns buf. */
+const char *pw_error_format(const pw_error *err, char *buf, size_t len);
+
+#ifdef __cplusplus
+}
+#endif
+#endif

@@ -1,0 +1,74 @@
+#include <pinchwise/status.h>
+
+#include <stdarg.h>
+#include <stdio.h>
+#include <string.h>
+
+static const char *const messages[] = {
+#define PW_STATUS_MSG(name, exit_code, msg) msg,
+    PW_STATUS_LIST(PW_STATUS_MSG)
+#undef PW_STATUS_MSG
+};
+
+static const int exit_codes[] = {
+#define PW_STATUS_EXIT(name, exit_code, msg) exit_code,
+    PW_STATUS_LIST(PW_STATUS_EXIT)
+#undef PW_STATUS_EXIT
+};
+
+const char *pw_strerror(pw_status status)
+{
+    if ((int)status < 0 || status >= PW_STATUS_COUNT)
+        return "unknown status";
+    return messages[status];
+}
+
+int pw_status_exit_code(pw_status status)
+{
+    if ((int)status < 0 || status >= PW_STATUS_COUNT)
+        return 1;
+    return exit_codes[status];
+}
+
+void pw_error_clear(pw_error *err)
+{
+    if (!err)
+        return;
+    err->status = PW_OK;
+    err->file[0] = '\0';
+    err->line = 0;
+    err->msg[0] = '\0';
+}
+
+pw_status pw_error_set(pw_error *err, pw_status status, const char *file, long line,
+                       const char *fmt, ...)
+{
+    if (!err)
+        return status;
+    err->status = status;
+    snprintf(err->file, sizeof err->file, "%s", file ? file : "");
+    err->line = line;
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(err->msg, sizeof err->msg, fmt, ap);
+    va_end(ap);
+    return status;
+}
+
+const char *pw_error_format(const pw_error *err, char *buf, size_t len)
+{
+    if (!buf || len == 0)
+        return buf;
+    if (!err) {
+        snprintf(buf, len, "unknown error");
+        return buf;
+    }
+    const char *msg = err->msg[0] ? err->msg : pw_strerror(err->status);
+    if (err->file[0] && err->line > 0)
+        snprintf(buf, len, "%s:%ld: %s", err->file, err->line, msg);
+    else if (err->file[0])
+        snprintf(buf, len, "%s: %s", err->file, msg);
+    else
+        snprintf(buf, len, "%s", msg);
+    return buf;
+}

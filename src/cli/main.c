@@ -1,0 +1,46 @@
+/* pinchwise command-line front end: dispatches to one file per command. */
+#include "cli.h"
+
+#include <gsl/gsl_errno.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "pinchwise_version.h"
+
+static const pw_cli_command commands[] = {
+    {"fit", "fit an activity model to a measured VLE file", pw_cli_fit},
+};
+
+static void usage(FILE *f)
+{
+    fprintf(f, "usage: pinchwise COMMAND [ARGS] [--json]\n\ncommands:\n");
+    for (size_t i = 0; i < sizeof commands / sizeof commands[0]; i++)
+        fprintf(f, "  %-10s %s\n", commands[i].name, commands[i].summary);
+    fprintf(f, "\n  pinchwise COMMAND --help   options of one command\n"
+               "  pinchwise --version\n");
+}
+
+int main(int argc, char **argv)
+{
+    gsl_set_error_handler_off();
+    if (argc < 2) {
+        usage(stderr);
+        return PW_EXIT_USAGE;
+    }
+    if (!strcmp(argv[1], "--help") || !strcmp(argv[1], "-h") || !strcmp(argv[1], "help")) {
+        usage(stdout);
+        return 0;
+    }
+    if (!strcmp(argv[1], "--version")) {
+        printf("pinchwise %s\n", PINCHWISE_VERSION_STRING);
+        return 0;
+    }
+    for (size_t i = 0; i < sizeof commands / sizeof commands[0]; i++)
+        if (!strcmp(argv[1], commands[i].name))
+            return commands[i].run(argc - 1, argv + 1);
+    fprintf(stderr, "pinchwise: unknown command '%s' (expected one of: ", argv[1]);
+    for (size_t i = 0; i < sizeof commands / sizeof commands[0]; i++)
+        fprintf(stderr, "%s%s", i ? ", " : "", commands[i].name);
+    fprintf(stderr, ")\n");
+    return PW_EXIT_USAGE;
+}

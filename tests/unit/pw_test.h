@@ -1,0 +1,25 @@
+/* Shared helpers for the cmocka unit tests. */
+#ifndef PW_TEST_H
+#define PW_TEST_H
+
+#include <setjmp.h>
+#include <stdarg.h>
+#include <stddef.h>
+#include <stdint.h>
+#include <cmocka.h>
+
+/* Asserts |got - want| <= rtol*|want| + atol. NaN or Inf in either value fails unless both are
+ * the same non-finite value. Prints both numbers, the tolerance and the label on failure. */
+void pw_assert_close_impl(double got, double want, double rtol, double atol, const char *label,
+                          const char *file, int line);
+#define pw_assert_close(got, want, rtol, atol, label) \
+    pw_assert_close_impl((got), (want), (rtol), (atol), (label), __FILE__, __LINE__)
+
+/* Absolute path of a file under the source tree (static buffer per call site is not used:
+ * the caller passes a buffer). Returns buf. */
+const char *pw_test_path(char *buf, size_t len, const char *relative);
+
+/* Switches GSL's aborting error handler off; call once at the start of every test main(). */
+void pw_test_init(void);
+
+#endif
