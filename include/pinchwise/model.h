@@ -20,7 +20,7 @@
 extern "C" {
 #endif
 
-#define PW_MAX_PARAMS 4
+#define PW_MAX_PARAMS 6
 #define PW_GAS_CONSTANT 8.314462618 /* J/(mol K), CODATA 2018 exact value */
 
 typedef struct pw_activity {
