@@ -1,17 +1,62 @@
-/* Private header of the command-line program. */
+/* Private header of the command-line program: the command table and shared helpers.
+ * Every command lives in its own src/cli/cmd_<name>.c and is listed in main.c. */
 #ifndef PW_CLI_H
 #define PW_CLI_H
 
+#include <jansson.h>
+#include <pinchwise/component.h>
 #include <pinchwise/status.h>
+#include <pinchwise/units.h>
+#include <stdbool.h>
 
 #define PW_EXIT_USAGE 2
 
 typedef struct pw_cli_command {
     const char *name;
     const char *summary;
-    int (*run)(int argc, char **argv);
+    int (*run)(int argc, char **argv); /* argv[0] is the command name */
 } pw_cli_command;
 
 int pw_cli_fit(int argc, char **argv);
+int pw_cli_check(int argc, char **argv);
+int pw_cli_azeotrope(int argc, char **argv);
+int pw_cli_reflux(int argc, char **argv);
+int pw_cli_screen(int argc, char **argv);
+int pw_cli_report(int argc, char **argv);
+
+/* Prints "pinchwise CMD: file:line: message" as one line on stderr and returns the exit code
+ * for err->status. */
+int pw_cli_fail(const char *cmd, const pw_error *err);
+
+/* Prints "pinchwise CMD: message" (printf format) on stderr; returns code. */
+int pw_cli_failf(const char *cmd, int code, const char *fmt, ...) __attribute__((format(printf, 3, 4)));
+
+/* Prints a warning line "pinchwise CMD: warning: ..." on stderr (never on stdout). */
+void pw_cli_warnf(const char *cmd, const char *fmt, ...) __attribute__((format(printf, 2, 3)));
+
+/* Loads the shipped component library, then extra_path (may be NULL) whose rows take precedence.
+ * The shipped library is found at $PINCHWISE_COMPONENTS, then beside the source tree the
+ * program was built from, then the installed data directory. */
+pw_status pw_cli_load_components(pw_complib *lib, const char *extra_path, pw_error *err);
+
+/* Parses a command-line quantity with its unit ("101.325kPa") for option opt; on failure fills
+ * err with a message that names the option and lists the units. */
+pw_status pw_cli_quantity(pw_quantity q, const char *opt, const char *text, double *si,
+                          pw_error *err);
+
+/* Parses a plain number (a mole fraction, q, a factor) for option opt; rejects trailing junk,
+ * NaN and Inf. */
+pw_status pw_cli_number(const char *opt, const char *text, double *value, pw_error *err);
+
+/* Writes obj to stdout as one JSON object followed by a newline (17 significant digits);
+ * steals the reference. Returns 0, or the I/O exit code. */
+int pw_cli_print_json(json_t *obj);
+
+/* A JSON number, or null when v is not finite. New reference. */
+json_t *pw_cli_json_num(double v);
+
+/* True when argv[i] equals the option name; then *value is argv[i+1] (and i is advanced) when
+ * takes_value. Returns false with *missing set when the value is absent. */
+bool pw_cli_opt(int argc, char **argv, int *i, const char *name, const char **value, bool *missing);
 
 #endif

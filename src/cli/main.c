@@ -8,7 +8,12 @@
 #include "pinchwise_version.h"
 
 static const pw_cli_command commands[] = {
-    {"fit", "fit an activity model to a measured VLE file", pw_cli_fit},
+    {"fit", "fit an activity model to a measured VLE file (or a folder of them)", pw_cli_fit},
+    {"check", "thermodynamic consistency tests of a measured VLE file", pw_cli_check},
+    {"azeotrope", "azeotropes of a fitted model at a pressure or temperature", pw_cli_azeotrope},
+    {"reflux", "minimum reflux, pinch, and stages of a binary column", pw_cli_reflux},
+    {"screen", "quick feasibility verdict for a split", pw_cli_screen},
+    {"report", "self-contained HTML report of a fit (and a column)", pw_cli_report},
 };
 
 static void usage(FILE *f)

@@ -1,0 +1,113 @@
+#include "cli.h"
+
+#include <errno.h>
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <unistd.h>
+
+int pw_cli_fail(const char *cmd, const pw_error *err)
+{
+    char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 32];
+    fprintf(stderr, "pinchwise %s: %s\n", cmd, pw_error_format(err, buf, sizeof buf));
+    int code = err ? pw_status_exit_code(err->status) : 1;
+    return code ? code : 1;
+}
+
+int pw_cli_failf(const char *cmd, int code, const char *fmt, ...)
+{
+    va_list ap;
+    fprintf(stderr, "pinchwise %s: ", cmd);
+    va_start(ap, fmt);
+    vfprintf(stderr, fmt, ap);
+    va_end(ap);
+    fputc('\n', stderr);
+    return code ? code : 1;
+}
+
+void pw_cli_warnf(const char *cmd, const char *fmt, ...)
+{
+    va_list ap;
+    fprintf(stderr, "pinchwise %s: warning: ", cmd);
+    va_start(ap, fmt);
+    vfprintf(stderr, fmt, ap);
+    va_end(ap);
+    fputc('\n', stderr);
+}
+
+pw_status pw_cli_load_components(pw_complib *lib, const char *extra_path, pw_error *err)
+{
+    const char *candidates[3] = {getenv("PINCHWISE_COMPONENTS"), PW_DEFAULT_COMPONENTS,
+                                 PW_INSTALLED_COMPONENTS};
+    const char *found = NULL;
+    for (size_t i = 0; i < 3 && !found; i++)
+        if (candidates[i] && candidates[i][0] && access(candidates[i], R_OK) == 0)
+            found = candidates[i];
+    pw_complib_init(lib);
+    if (!found)
+        return pw_error_set(err, PW_ENOTFOUND, NULL, 0,
+                            "the component library components.csv was not found (set "
+                            "PINCHWISE_COMPONENTS to its path)");
+    pw_status st = pw_complib_read(lib, found, err);
+    if (st == PW_OK && extra_path)
+        st = pw_complib_read(lib, extra_path, err);
+    if (st != PW_OK)
+        pw_complib_free(lib);
+    return st;
+}
+
+pw_status pw_cli_quantity(pw_quantity q, const char *opt, const char *text, double *si,
+                          pw_error *err)
+{
+    pw_status st = pw_units_parse_quantity(q, text, si, err);
+    if (st != PW_OK && err) {
+        char inner[PW_ERROR_MSG_MAX];
+        snprintf(inner, sizeof inner, "%s", err->msg);
+        pw_error_set(err, st, NULL, 0, "%s %s: %s", opt, text, inner);
+    }
+    return st;
+}
+
+pw_status pw_cli_number(const char *opt, const char *text, double *value, pw_error *err)
+{
+    char *end = NULL;
+    errno = 0;
+    double v = strtod(text, &end);
+    if (end == text || *end != '\0' || errno == ERANGE || !isfinite(v))
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: not a finite number", opt, text);
+    *value = v;
+    return PW_OK;
+}
+
+int pw_cli_print_json(json_t *obj)
+{
+    int rc = json_dumpf(obj, stdout, JSON_INDENT(2) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER);
+    json_decref(obj);
+    if (rc != 0 || fputc('\n', stdout) == EOF || fflush(stdout) != 0)
+        return pw_status_exit_code(PW_EIO);
+    return 0;
+}
+
+json_t *pw_cli_json_num(double v)
+{
+    return isfinite(v) ? json_real(v) : json_null();
+}
+
+bool pw_cli_opt(int argc, char **argv, int *i, const char *name, const char **value, bool *missing)
+{
+    if (strcmp(argv[*i], name) != 0)
+        return false;
+    if (missing)
+        *missing = false;
+    if (value) {
+        if (*i + 1 >= argc) {
+            if (missing)
+                *missing = true;
+            return true;
+        }
+        *value = argv[++*i];
+    }
+    return true;
+}
