@@ -142,7 +142,7 @@ static pw_status fixed_state(pw_ds_reader *rd, bool is_T, const char *value, lon
                             "both '# pressure:' and '# temperature:' are given (expected exactly "
                             "one: pressure for T-x-y data, temperature for P-x-y data)");
     double v, si;
-    char unit[PW_UNIT_MAX];
+    char unit[32];
     if (!pw_dataset_split_quantity(value, &v, unit, sizeof unit))
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s: '%s' is not a number with a unit (expected e.g. %s; units: %s)",
@@ -155,6 +155,8 @@ static pw_status fixed_state(pw_ds_reader *rd, bool is_T, const char *value, lon
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s: %s is not positive (expected an absolute %s above zero)", key,
                             value, key);
+    if (strlen(unit) >= PW_UNIT_MAX)
+        return pw_error_set(err, PW_EPARSE, rd->name, line, "%s: unit '%s' is too long", key, unit);
     memcpy(rd->fixed_unit, unit, strlen(unit) + 1);
     if (is_T) {
         rd->ds.kind = PW_DATA_ISOTHERMAL;
@@ -174,21 +176,24 @@ static pw_status sigma(pw_ds_reader *rd, const char *key, const char *value, lon
                        pw_error *err)
 {
     double v;
-    char unit[PW_UNIT_MAX];
+    char unit[32];
+    const char *shown = strcmp(key, "sigma_t") == 0   ? "sigma_T"
+                        : strcmp(key, "sigma_p") == 0 ? "sigma_P"
+                                                      : key;
     bool fraction = strcasecmp(key, "sigma_y") == 0 || strcasecmp(key, "sigma_x") == 0;
     if (fraction) {
         if (!pw_csvrows_number(value, &v) || !(v > 0.0 && v < 1.0))
             return pw_error_set(err, PW_EPARSE, rd->name, line,
                                 "%s: '%s' (expected a mole-fraction uncertainty, a number "
                                 "between 0 and 1 without unit, e.g. 0.004)",
-                                key, value);
+                                shown, value);
         *(strcasecmp(key, "sigma_y") == 0 ? &rd->ds.sigma_y : &rd->ds.sigma_x) = v;
         return PW_OK;
     }
     bool is_T = strcasecmp(key, "sigma_T") == 0;
     if (!pw_dataset_split_quantity(value, &v, unit, sizeof unit) || !(v > 0.0))
         return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "%s: '%s' (expected a positive number with a unit, e.g. %s)", key,
+                            "%s: '%s' (expected a positive number with a unit, e.g. %s)", shown,
                             value, is_T ? "0.05 K" : "0.2 % or 0.03 kPa");
     if (is_T) {
         /* a temperature difference: K and C have the same size, F is 5/9 K */
