@@ -310,6 +310,26 @@ static void test_tangent_any_q(void **state)
     assert_non_null(strstr(r.reason, "q-line"));
 }
 
+/* The answer does not depend on the scan grid, because the extrema are refined by minimisation:
+ * coarse and fine grids give the same R_min (identity to 1e-9). */
+static void test_grid_independence(void **state)
+{
+    (void)state;
+    tc_alpha a = {3.0, 1.0};
+    pw_curve c = alpha_curve(&a);
+    pw_column_spec s = {.xd = 0.95, .xb = 0.05, .zf = 0.30, .q = 1.0};
+    pw_column_result fine, coarse;
+    pw_column_options o = pw_column_default_options();
+    o.grid = 20000;
+    assert_int_equal(pw_column_solve(&c, &s, &o, &fine), PW_OK);
+    o.grid = 60;
+    o.n_factors = 0;
+    assert_int_equal(pw_column_solve(&c, &s, &o, &coarse), PW_OK);
+    assert_int_equal(coarse.n_design, 0);
+    pw_assert_close(coarse.r_min, fine.r_min, 1e-9, 0, "R_min coarse vs fine grid");
+    pw_assert_close(coarse.pinch.x, fine.pinch.x, 0, 1e-6, "pinch x coarse vs fine grid");
+}
+
 int main(void)
 {
     pw_test_init();
@@ -323,6 +343,7 @@ int main(void)
         cmocka_unit_test(test_tangent_rectifying),
         cmocka_unit_test(test_tangent_stripping),
         cmocka_unit_test(test_tangent_any_q),
+        cmocka_unit_test(test_grid_independence),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
