@@ -3,6 +3,8 @@
 #include <pinchwise/equilibrium.h>
 #include <pinchwise/units.h>
 
+#include "thermo_internal.h"
+
 #include <float.h>
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_min.h>
@@ -200,7 +202,7 @@ static pw_status brent_bubble(const pw_system *s, double P, double x1, double a,
 /* Bubble T at P for liquid x1, starting from T_guess (NAN: from the pure Tsat). Fills tp at
  * the returned T. */
 static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T_guess,
-                               double *T_out, tpoint *tp, int *iters)
+                               bool newton, double *T_out, tpoint *tp, int *iters)
 {
     double Ts[2];
     for (int i = 0; i < 2; i++) {
@@ -219,7 +221,7 @@ static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T
      * the largest T seen with f < 0 and the smallest with f > 0. */
     double neg = -INFINITY, pos = INFINITY;
     *iters = 0;
-    for (int it = 0; it < NEWTON_MAXIT; it++) {
+    for (int it = 0; newton && it < NEWTON_MAXIT; it++) {
         (*iters)++;
         if (eval_point(s, x1, T, P, tp) != PW_OK)
             break;
@@ -267,7 +269,8 @@ static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T
     return PW_OK;
 }
 
-pw_status pw_bubble_T(const pw_system *s, double P_Pa, double x1, pw_eq_point *out)
+static pw_status bubble_T(const pw_system *s, double P_Pa, double x1, bool newton,
+                          pw_eq_point *out)
 {
     if (!state_ok(s) || !out)
         return PW_EINVAL;
@@ -276,12 +279,21 @@ pw_status pw_bubble_T(const pw_system *s, double P_Pa, double x1, pw_eq_point *o
     tpoint tp;
     double T;
     int iters;
-    pw_status st = bubble_T_core(s, P_Pa, x1, NAN, &T, &tp, &iters);
+    pw_status st = bubble_T_core(s, P_Pa, x1, NAN, newton, &T, &tp, &iters);
     if (st != PW_OK)
         return st;
     fill_point(&tp, x1, T, P_Pa, iters, out);
-    out->P_Pa = P_Pa;
     return PW_OK;
+}
+
+pw_status pw_bubble_T(const pw_system *s, double P_Pa, double x1, pw_eq_point *out)
+{
+    return bubble_T(s, P_Pa, x1, true, out);
+}
+
+pw_status pw_thermo_bubble_T_brent(const pw_system *s, double P_Pa, double x1, pw_eq_point *out)
+{
+    return bubble_T(s, P_Pa, x1, false, out);
 }
 
 pw_status pw_bubble_P(const pw_system *s, double T_K, double x1, pw_eq_point *out)
@@ -315,7 +327,7 @@ static pw_status dew_eval(dew_ctx *c, double x1, double *y1, double *dy1)
     double x2 = 1.0 - x1;
     if (c->isobaric) {
         int its = 0;
-        st = bubble_T_core(c->s, c->P, x1, c->T, &c->T, tp, &its);
+        st = bubble_T_core(c->s, c->P, x1, c->T, true, &c->T, tp, &its);
         c->iters += its;
     } else {
         st = eval_point(c->s, x1, c->T, 1.0, tp);
