@@ -62,6 +62,10 @@ typedef struct pw_consistency_options {
     double outlier_floor_P_rel; /* ... for the Barker relative P residual (default 5e-4) */
     double dilution_min_lngamma; /* below this |ln gamma_inf| the dilution test is not run
                                     (ill-conditioned division; default 0.05) */
+    bool strict_verdict;        /* false (default): the verdict rests on legendre_point and
+                                   pure_endpoints (the area and Kojima tests when the point test
+                                   cannot run), other failures are warnings; true: every test that
+                                   ran must pass */
 } pw_consistency_options;
 
 /* The defaults above. */
@@ -125,7 +129,8 @@ typedef struct pw_consistency_result {
     pw_cpoint *pts;                 /* owned; n_pts entries */
     size_t n_pts, n_flagged;
     pw_cquality quality;
-    bool consistent;
+    bool consistent;                /* verdict, rule as in pw_consistency_options.strict_verdict */
+    bool primary[PW_CTEST_COUNT];   /* which tests the verdict rested on */
     char reasons[PW_CONSISTENCY_MAX_REASONS][PW_CONSISTENCY_REASON_MAX];
     size_t n_reasons;
 } pw_consistency_result;

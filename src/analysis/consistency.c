@@ -26,6 +26,7 @@ pw_consistency_options pw_consistency_default_options(void)
         .outlier_floor_T_K = 0.05,
         .outlier_floor_P_rel = 5e-4,
         .dilution_min_lngamma = 0.05,
+        .strict_verdict = false,
     };
 }
 
@@ -61,18 +62,37 @@ static void add_reason(pw_consistency_result *r, const char *fmt, ...)
     va_end(ap);
 }
 
+/* The verdict (docs/consistency.md). Primary tests: the point test, which alone compares the
+ * redundant measured quantity y with what Gibbs-Duhem implies from P-x or T-x (Van Ness, Byer &
+ * Gibbs 1973), and the end points. When the point test cannot run, the area and Kojima tests
+ * take its place. Secondary failures are reported as warnings and lower the quality factor;
+ * with strict_verdict every test that ran must pass. */
+static bool is_primary(const pw_consistency_result *r, int i, bool strict)
+{
+    if (strict || i == PW_CTEST_ENDPOINT || i == PW_CTEST_POINT)
+        return true;
+    return !r->tests[PW_CTEST_POINT].ran;
+}
+
 static void verdict(const cs_data *d, pw_consistency_result *r)
 {
-    size_t n_ran = 0, n_fail = 0, n_gd = 0;
+    size_t n_ran = 0, n_fail = 0, n_gd = 0, n_warn = 0;
+    bool strict = d->opt->strict_verdict;
     for (int i = 0; i < PW_CTEST_COUNT; i++) {
         const pw_ctest *t = &r->tests[i];
         if (!t->ran)
             continue;
         n_ran++;
-        n_gd += i != PW_CTEST_ENDPOINT;
-        if (!t->pass) {
+        bool primary = is_primary(r, i, strict);
+        r->primary[i] = primary;
+        n_gd += primary && i != PW_CTEST_ENDPOINT;
+        if (!t->pass && primary) {
             n_fail++;
             add_reason(r, "%s failed (%.4g, limit %.4g): %s", t->name, t->value, t->limit, t->meaning);
+        } else if (!t->pass) {
+            n_warn++;
+            add_reason(r, "warning: %s failed (%.4g, limit %.4g), a secondary test: %s", t->name,
+                       t->value, t->limit, t->meaning);
         }
     }
     r->consistent = n_gd > 0 && n_fail == 0;
@@ -80,7 +100,11 @@ static void verdict(const cs_data *d, pw_consistency_result *r)
         add_reason(r, "no Gibbs-Duhem test could run (%s): the data can be reduced but not tested",
                    d->ds->has_y ? "too few points" : "no y column");
     else if (n_fail == 0)
-        add_reason(r, "all %zu tests that ran passed", n_ran);
+        add_reason(r, "%s (%zu of %zu tests that ran passed)",
+                   r->tests[PW_CTEST_POINT].ran
+                       ? "the measured y agree with the y implied by Gibbs-Duhem from the P-x or T-x data"
+                       : "the area and Kojima tests passed (the point test could not run)",
+                   n_ran - n_warn, n_ran);
     if (r->n_flagged > 0) {
         char lines[160] = "";
         size_t len = 0;

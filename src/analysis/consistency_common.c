@@ -98,7 +98,7 @@ pw_status pw_cs_prepare(cs_data *d, const pw_dataset *ds, const pw_component *c1
         cs_point *q = &d->in[d->n_in];
         q->line = p->line;
         q->x1 = p->x1;
-        q->y1 = ds->has_y ? p->y1 : NAN;
+        q->y1 = ds->has_y ? p->y1 : (double)NAN;
         q->T_K = p->T_K;
         q->P_Pa = p->P_Pa;
         for (int c = 0; c < 2; c++) {
