@@ -72,7 +72,7 @@ typedef struct pw_consistency_options {
 pw_consistency_options pw_consistency_default_options(void);
 
 #define PW_CONSISTENCY_MAX_TERMS 5
-#define PW_CONSISTENCY_REASON_MAX 240
+#define PW_CONSISTENCY_REASON_MAX 400
 #define PW_CONSISTENCY_MAX_REASONS 12
 
 /* One test. name, title, source, criterion and meaning are static strings. */
