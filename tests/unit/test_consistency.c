@@ -468,6 +468,7 @@ static void no_y_runs_endpoint_only(void **state)
     assert_false(r.consistent);
     assert_false(r.quality.ran);
     pw_consistency_result_free(&r);
+    free(ds.pts);
     /* too few points: keep x1 = 0, 0.05, 0.1, 1 */
     ds.has_y = true;
     generate(&ds, &cases[0], PW_DATA_ISOTHERMAL, &c1, &c2);
