@@ -135,6 +135,10 @@ int pw_cli_reflux(int argc, char **argv)
             usage(stderr);
         return pw_cli_fail("reflux", &err);
     }
+    if (a.uncertainty || a.n_extra)
+        return pw_cli_failf("reflux", PW_EXIT_USAGE,
+                            "--uncertainty, --samples, --seed and --compare are not available in "
+                            "this build yet");
     pw_reflux_run run;
     rc = pw_reflux_compute(&a, &run, &err);
     if (rc != 0)
