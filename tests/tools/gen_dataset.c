@@ -17,6 +17,10 @@
 #include <stdlib.h>
 #include <string.h>
 
+#ifndef M_PI
+#define M_PI 3.14159265358979323846
+#endif
+
 static int die(const char *msg)
 {
     fprintf(stderr, "pw-gen-dataset: %s\n", msg);
