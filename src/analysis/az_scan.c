@@ -96,8 +96,10 @@ static pw_status add_boundary(const pw_system *s, pw_az_mode mode, pw_az_scan *s
 {
     if (sc->n_boundaries >= sc->max_boundaries)
         return PW_OK;
-    double v;
-    pw_status st = locate(s, mode, end, sc->at[k], sc->at[k + 1], o, &v);
+    double v = sc->at[k + 1];
+    pw_status st = PW_OK;
+    if (sc->points[k + 1].ln_alpha_end[end] != 0.0)
+        st = locate(s, mode, end, sc->at[k], sc->at[k + 1], o, &v);
     if (st != PW_OK)
         return st;
     pw_az_boundary *b = &sc->boundaries[sc->n_boundaries++];
@@ -107,8 +109,12 @@ static pw_status add_boundary(const pw_system *s, pw_az_mode mode, pw_az_scan *s
     st = pw_az_end_ln_alpha(s, mode, v, end, &f, &b->T_K, &b->P_Pa);
     if (st != PW_OK)
         return st;
-    /* which side of `at` holds more azeotropes */
-    size_t lo = sc->at[k] < sc->at[k + 1] ? k : k + 1, hi = lo == k ? k + 1 : k;
+    /* which side of `at` holds more azeotropes (when the crossing falls on point k+1, compare
+     * its neighbours k and k+2) */
+    size_t ia = k, ib = k + 1;
+    if (sc->points[k + 1].ln_alpha_end[end] == 0.0 && k + 2 < sc->n_points)
+        ib = k + 2;
+    size_t lo = sc->at[ia] < sc->at[ib] ? ia : ib, hi = lo == ia ? ib : ia;
     b->present_above = sc->points[hi].n > sc->points[lo].n;
     return PW_OK;
 }
@@ -148,7 +154,8 @@ pw_status pw_azeotrope_scan(const pw_system *s, pw_az_mode mode, double from, do
             break;
         for (int e = 0; e < 2; e++) {
             double f0 = scan->points[k].ln_alpha_end[e], f1 = scan->points[k + 1].ln_alpha_end[e];
-            if ((f0 < 0.0 && f1 > 0.0) || (f0 > 0.0 && f1 < 0.0)) {
+            /* a strict sign change, or an exact zero on point k+1 (counted once) */
+            if ((f0 < 0.0 && f1 > 0.0) || (f0 > 0.0 && f1 < 0.0) || (f0 != 0.0 && f1 == 0.0)) {
                 pw_status st = add_boundary(s, mode, scan, k, e, &o);
                 if (st != PW_OK)
                     return st;
