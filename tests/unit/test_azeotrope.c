@@ -307,6 +307,29 @@ static void scan_isobaric(void **state)
     pw_az_scan_free(sc);
 }
 
+/* [5.4] Wrewsky's rule (from memory) on a published system: 1-propanol/water, SVNA NRTL. The
+ * heat of vaporisation from the Antoine rows (Clausius-Clapeyron, R T^2 dlnP/dT at T_az) is larger
+ * for 1-propanol, so raising P must enrich the minimum-boiling azeotrope in 1-propanol. */
+static void wrewsky_propanol_water(void **state)
+{
+    (void)state;
+    pw_system s = propanol_water(&pw_model_nrtl);
+    pw_az_scan *sc = pw_az_scan_alloc(6);
+    assert_non_null(sc);
+    assert_int_equal(pw_azeotrope_scan(&s, PW_AZ_ISOBARIC, 20e3, 300e3, NULL, sc), PW_OK);
+    for (size_t k = 0; k < sc->n_points; k++) {
+        assert_int_equal(sc->points[k].n, 1);
+        double T = sc->points[k].az[0].T_K, P, d1, d2;
+        assert_int_equal(pw_psat(&s.comp[0], T, &P, &d1), PW_OK);
+        assert_int_equal(pw_psat(&s.comp[1], T, &P, &d2), PW_OK);
+        assert_true(d1 > d2); /* 1-propanol has the larger heat of vaporisation here */
+        if (k > 0)
+            assert_true(sc->points[k].az[0].x1 > sc->points[k - 1].az[0].x1);
+    }
+    assert_int_equal(sc->n_boundaries, 0);
+    pw_az_scan_free(sc);
+}
+
 static void bad_arguments(void **state)
 {
     (void)state;
@@ -337,7 +360,8 @@ int main(void)
         cmocka_unit_test(one_param_margules), cmocka_unit_test(double_azeotrope),
         cmocka_unit_test(tangential),         cmocka_unit_test(propanol_water_1atm),
         cmocka_unit_test(maximum_boiling),    cmocka_unit_test(scan_isothermal),
-        cmocka_unit_test(scan_isobaric),      cmocka_unit_test(bad_arguments),
+        cmocka_unit_test(scan_isobaric),      cmocka_unit_test(wrewsky_propanol_water),
+        cmocka_unit_test(bad_arguments),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
