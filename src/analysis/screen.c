@@ -149,14 +149,14 @@ static void swing_reasons(const pw_screen_options *o, pw_screen_result *r)
     if (isfinite(r->shift) && r->shift >= o->shift_low)
         reason(r, PW_REASON_SWING,
                "the azeotrope moves by %.3f in x1 between %.4g and %.4g kPa: pressure swing is "
-               "worth a look (%.2f-%.2f in mole fraction, METHODS 5.4 rule of thumb, common "
+               "worth a look (%.2f-%.2f in mole fraction, rule of thumb, common "
                "practice)%s",
                r->shift, lo, hi, o->shift_low, o->shift_high,
                r->shift >= o->shift_high ? "; above the upper end" : "");
     else if (isfinite(r->shift))
         reason(r, PW_REASON_SWING_SMALL,
                "the azeotrope moves only %.3f in x1 between %.4g and %.4g kPa: below %.2f, "
-               "pressure swing is unlikely to pay (METHODS 5.4 rule of thumb, common practice); "
+               "pressure swing is unlikely to pay (rule of thumb, common practice; docs/screen.md); "
                "consider an entrainer",
                r->shift, lo, hi, o->shift_low);
 }
