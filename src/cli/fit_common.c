@@ -233,9 +233,13 @@ int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_o
                 continue;
             }
             const pw_fit_result *r = &res[i].r;
-            printf("  %-4zu %-9s %9.2f %10.4f %10.3f %10.4f  %s%s\n", i + 1, r->sys.model->name,
-                   r->aicc - best_aicc, r->dev_y.aad, r->dev_T_K.aad, r->dev_P_Pa.aad / 1e3,
-                   r->converged ? "" : "not converged ", r->split ? "liquid split predicted" : "");
+            char cy[16], cT[16], cP[16];
+            snprintf(cy, sizeof cy, isfinite(r->dev_y.aad) ? "%.4f" : "-", r->dev_y.aad);
+            snprintf(cT, sizeof cT, isfinite(r->dev_T_K.aad) ? "%.3f" : "-", r->dev_T_K.aad);
+            snprintf(cP, sizeof cP, isfinite(r->dev_P_Pa.aad) ? "%.4f" : "-", r->dev_P_Pa.aad / 1e3);
+            printf("  %-4zu %-9s %9.2f %10s %10s %10s  %s%s\n", i + 1, r->sys.model->name,
+                   r->aicc - best_aicc, cy, cT, cP, r->converged ? "" : "not converged ",
+                   r->split ? "liquid split predicted" : "");
         }
         for (size_t i = 0; i < n; i++)
             if (res[i].rc == 0)
