@@ -4,7 +4,7 @@
  *
  *   pw-gen-dataset --components FILE --names NAME1,NAME2 --model MODEL --params p1,p2[,p3]
  *                  (--pressure 101.325kPa | --temperature 50C) [--points N] [--no-y]
- *                  [--noise-T K] [--noise-P REL] [--noise-y DY] [--seed N] [--note TEXT] */
+ *                  [--with-pure] [--noise-T K] [--noise-P REL] [--noise-y DY] [--seed N] [--note TEXT] */
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_randist.h>
 #include <gsl/gsl_rng.h>
@@ -32,13 +32,17 @@ int main(int argc, char **argv)
     gsl_set_error_handler_off();
     const char *comp_file = NULL, *names = NULL, *model_name = NULL, *params = NULL, *note = "";
     const char *pressure = NULL, *temperature = NULL;
-    int n = 25, no_y = 0;
+    int n = 25, no_y = 0, with_pure = 0;
     double noise_T = 0.1, noise_P = 0.001, noise_y = 0.004;
     unsigned long seed = 1;
     for (int i = 1; i < argc; i++) {
         const char *o = argv[i], *v = i + 1 < argc ? argv[i + 1] : NULL;
         if (!strcmp(o, "--no-y")) {
             no_y = 1;
+            continue;
+        }
+        if (!strcmp(o, "--with-pure")) {
+            with_pure = 1;
             continue;
         }
         if (!v)
@@ -120,15 +124,16 @@ int main(int argc, char **argv)
     if (!no_y)
         printf("# sigma_y: %g\n", noise_y > 0 ? noise_y : 0.004);
     printf(isobaric ? (no_y ? "x1,T[K]\n" : "x1,y1,T[K]\n") : (no_y ? "x1,P[kPa]\n" : "x1,y1,P[kPa]\n"));
-    for (int i = 0; i < n; i++) {
+    int first = with_pure ? -1 : 0, last = with_pure ? n + 1 : n;
+    for (int i = first; i < last; i++) {
         /* compositions denser near the ends, where the data matter most for gamma_inf */
         double t = (double)(i + 1) / (n + 1);
-        double x = 0.5 - 0.5 * cos(M_PI * t);
+        double x = i < 0 ? 0.0 : (i >= n ? 1.0 : 0.5 - 0.5 * cos(M_PI * t));
         pw_eq_point e;
         pw_status st = isobaric ? pw_bubble_T(&s, fixed, x, &e) : pw_bubble_P(&s, fixed, x, &e);
         if (st != PW_OK)
             continue;
-        double y = e.y1 + gsl_ran_gaussian(rng, noise_y);
+        double y = x <= 0.0 || x >= 1.0 ? x : e.y1 + gsl_ran_gaussian(rng, noise_y);
         y = y < 0.0 ? 0.0 : (y > 1.0 ? 1.0 : y);
         if (isobaric) {
             double T = e.T_K + gsl_ran_gaussian(rng, noise_T);
