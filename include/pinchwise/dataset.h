@@ -46,10 +46,22 @@ typedef struct pw_dataset {
     unsigned char sha256[32]; /* of the file's bytes */
 } pw_dataset;
 
+/* Limits of the reader (see docs/inputs.md): a dataset file holds at most PW_DATASET_MAX_POINTS
+ * data rows and PW_DATASET_MAX_BYTES bytes; a measured T lies in [PW_DATASET_T_MIN_K,
+ * PW_DATASET_T_MAX_K] and a measured or fixed P in [PW_DATASET_P_MIN_PA, PW_DATASET_P_MAX_PA].
+ * The text must be valid UTF-8. Larger or stranger files are refused with a message. */
+#define PW_DATASET_MAX_POINTS 100000
+#define PW_DATASET_MAX_BYTES (64u * 1024u * 1024u)
+#define PW_DATASET_T_MIN_K 1.0
+#define PW_DATASET_T_MAX_K 5000.0
+#define PW_DATASET_P_MIN_PA 1e-6
+#define PW_DATASET_P_MAX_PA 1e10
+
 /* Reads and validates a dataset file. On failure ds is left empty (nothing to free) and err
  * says "what is wrong (what was expected)" with file and line. Rejects: mole fractions outside
  * [0,1], y on some rows only, non-positive or non-finite T/P, NaN/Inf, duplicate or unknown
- * required columns, unknown units, missing or contradictory metadata, no data rows. */
+ * required columns, unknown units, missing or contradictory metadata, no data rows, invalid
+ * UTF-8, and anything beyond the limits above. */
 pw_status pw_dataset_read(const char *path, pw_dataset *ds, pw_error *err);
 
 /* Same from a buffer; name is used as the file name in messages and in ds->path. */

@@ -61,6 +61,89 @@ static void warn_ranges(const pw_fit_result *r, const char *input)
     }
 }
 
+/* Pure-component points (x1 = 0 or 1) against the vapor-pressure correlations: a large miss at
+ * both ends that vanishes when the names are exchanged means the components are listed in the
+ * wrong order. */
+static double pure_miss(const pw_fit_result *r, const pw_point *m, int comp)
+{
+    const pw_component *c = &r->sys.comp[comp];
+    if (r->kind == PW_DATA_ISOBARIC) {
+        double T;
+        return pw_tsat(c, m->P_Pa, &T) == PW_OK ? fabs(T - m->T_K) : (double)NAN;
+    }
+    double P;
+    return pw_psat(c, m->T_K, &P, NULL) == PW_OK ? fabs(log(P / m->P_Pa)) * 100.0 : (double)NAN;
+}
+
+static void warn_pure_points(const pw_fit_result *r, const char *input)
+{
+    /* miss[as labelled / exchanged]: largest deviation in K (isobaric) or % (isothermal) */
+    double miss[2] = {0.0, 0.0};
+    long line = 0;
+    for (size_t i = 0; i < r->n_pts; i++) {
+        const pw_point *m = &r->pts[i].meas;
+        if (m->x1 > 0.0 && m->x1 < 1.0)
+            continue;
+        int comp = m->x1 >= 1.0 ? 0 : 1;
+        double a = pure_miss(r, m, comp), b = pure_miss(r, m, 1 - comp);
+        if (isfinite(a) && a > miss[0]) {
+            miss[0] = a;
+            line = m->line;
+        }
+        if (isfinite(b))
+            miss[1] = fmax(miss[1], b);
+    }
+    bool isobaric = r->kind == PW_DATA_ISOBARIC;
+    double limit = isobaric ? 2.0 : 5.0; /* K or %: well beyond measurement error (common practice) */
+    if (!(miss[0] > limit))
+        return;
+    pw_cli_warnf("fit", "%s:%ld: a pure-component point misses the vapor pressure by %.1f %s%s",
+                 input, line, miss[0], isobaric ? "K" : "%",
+                 miss[1] < 0.25 * miss[0]
+                     ? "; the components look swapped (x1 must be the mole fraction of the first "
+                       "name in '# components:')"
+                     : "; check the component names and their vapor-pressure constants");
+}
+
+/* Points that repeat another point exactly are kept and fitted as replicate measurements. */
+static int cmp_point(const void *a, const void *b)
+{
+    const pw_point *p = &((const pw_fit_point *)a)->meas, *q = &((const pw_fit_point *)b)->meas;
+    double d[4] = {p->x1 - q->x1, p->T_K - q->T_K, p->P_Pa - q->P_Pa,
+                   (isnan(p->y1) ? -1.0 : p->y1) - (isnan(q->y1) ? -1.0 : q->y1)};
+    for (int k = 0; k < 4; k++)
+        if (d[k] != 0.0)
+            return d[k] < 0.0 ? -1 : 1;
+    return (p->line > q->line) - (p->line < q->line);
+}
+
+static void warn_duplicates(const pw_fit_result *r, const char *input)
+{
+    if (r->n_pts < 2)
+        return;
+    pw_fit_point *c = malloc(r->n_pts * sizeof *c);
+    if (!c)
+        return;
+    memcpy(c, r->pts, r->n_pts * sizeof *c);
+    qsort(c, r->n_pts, sizeof *c, cmp_point);
+    size_t dup = 0;
+    long first = 0, of = 0;
+    for (size_t i = 1; i < r->n_pts; i++) {
+        const pw_point *p = &c[i - 1].meas, *q = &c[i].meas;
+        bool same = p->x1 == q->x1 && p->T_K == q->T_K && p->P_Pa == q->P_Pa &&
+                    (p->y1 == q->y1 || (isnan(p->y1) && isnan(q->y1)));
+        if (same && dup++ == 0) {
+            first = q->line;
+            of = p->line;
+        }
+    }
+    free(c);
+    if (dup)
+        pw_cli_warnf("fit", "%s:%ld: %zu duplicated point%s (line %ld repeats line %ld); fitted as "
+                     "replicate measurements, each with full weight",
+                     input, first, dup, dup == 1 ? "" : "s", first, of);
+}
+
 static void warn_fit(const pw_fit_result *r, const char *input)
 {
     if (!r->converged)
@@ -136,6 +219,8 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
         return pw_status_exit_code(st);
     if (!co->quiet) {
         warn_ranges(r, input);
+        warn_pure_points(r, input);
+        warn_duplicates(r, input);
         warn_fit(r, input);
     }
     st = pw_fitfile_write(path, r, co->force, err);

@@ -5,6 +5,7 @@
 
 #include <ctype.h>
 #include <math.h>
+#include <pinchwise/dataset.h>
 #include <pinchwise/units.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -214,6 +215,9 @@ pw_status pw_complib_parse_chunked(pw_complib *lib, const char *buf, size_t len,
     reader rd;
     memset(&rd, 0, sizeof rd);
     rd.name = name ? name : "(components)";
+    pw_status ust = pw_check_utf8(buf, len, rd.name, err);
+    if (ust != PW_OK)
+        return ust;
     pw_csvrows r;
     pw_status st = pw_csvrows_init(&r, rd.name, NULL, on_row, &rd, err);
     if (chunk == 0)
@@ -268,7 +272,7 @@ pw_status pw_complib_read(pw_complib *lib, const char *path, pw_error *err)
 {
     char *buf;
     size_t len;
-    pw_status st = pw_csvrows_slurp(path, &buf, &len, err);
+    pw_status st = pw_csvrows_slurp(path, PW_DATASET_MAX_BYTES, &buf, &len, err);
     if (st != PW_OK)
         return st;
     st = pw_complib_parse(lib, buf, len, path, err);

@@ -286,7 +286,39 @@ bool pw_csvrows_number(const char *text, double *out)
     return true;
 }
 
-pw_status pw_csvrows_slurp(const char *path, char **buf, size_t *len, pw_error *err)
+pw_status pw_check_utf8(const char *buf, size_t len, const char *name, pw_error *err)
+{
+    const unsigned char *u = (const unsigned char *)buf;
+    long line = 1;
+    size_t col = 1;
+    for (size_t i = 0; i < len;) {
+        unsigned c = u[i];
+        size_t n = c < 0x80 ? 1 : (c >= 0xC2 && c <= 0xDF) ? 2 : (c >= 0xE0 && c <= 0xEF) ? 3
+                                : (c >= 0xF0 && c <= 0xF4) ? 4 : 0;
+        bool ok = n > 0 && i + n <= len;
+        for (size_t k = 1; ok && k < n; k++)
+            ok = (u[i + k] & 0xC0) == 0x80;
+        if (ok && n == 3)
+            ok = !(c == 0xE0 && u[i + 1] < 0xA0) && !(c == 0xED && u[i + 1] >= 0xA0);
+        if (ok && n == 4)
+            ok = !(c == 0xF0 && u[i + 1] < 0x90) && !(c == 0xF4 && u[i + 1] >= 0x90);
+        if (!ok)
+            return pw_error_set(err, PW_EPARSE, name, line,
+                                "byte 0x%02X at column %zu is not valid UTF-8 (expected UTF-8 text; "
+                                "re-save the file as UTF-8)",
+                                c, col);
+        if (c == '\n') {
+            line++;
+            col = 0;
+        }
+        i += n;
+        col++;
+    }
+    return PW_OK;
+}
+
+pw_status pw_csvrows_slurp(const char *path, size_t max_bytes, char **buf, size_t *len,
+                           pw_error *err)
 {
     *buf = NULL;
     *len = 0;
@@ -303,6 +335,12 @@ pw_status pw_csvrows_slurp(const char *path, char **buf, size_t *len, pw_error *
         }
         size_t got = fread(data + n, 1, cap - n - 1, f);
         n += got;
+        if (max_bytes && n > max_bytes) {
+            free(data);
+            fclose(f);
+            return pw_error_set(err, PW_EPARSE, path, 0,
+                                "the file is larger than %zu bytes, the reader's limit", max_bytes);
+        }
         if (got == 0)
             break;
     }

@@ -75,7 +75,13 @@ void pw_csvrows_free(pw_csvrows *r);
 bool pw_csvrows_number(const char *text, double *out);
 
 /* Reads a whole file into a malloc'd buffer (*buf, owned by the caller; NUL-terminated for
- * convenience, *len excludes the NUL). PW_EIO with the system's reason when it cannot be read. */
-pw_status pw_csvrows_slurp(const char *path, char **buf, size_t *len, pw_error *err);
+ * convenience, *len excludes the NUL). PW_EIO with the system's reason when it cannot be read;
+ * PW_EPARSE when it is longer than max_bytes (0 = no limit). */
+pw_status pw_csvrows_slurp(const char *path, size_t max_bytes, char **buf, size_t *len,
+                           pw_error *err);
+
+/* PW_OK when buf[0..len) is valid UTF-8 (RFC 3629: no overlong forms, no surrogates, nothing
+ * above U+10FFFF); otherwise PW_EPARSE naming the line and byte. */
+pw_status pw_check_utf8(const char *buf, size_t len, const char *name, pw_error *err);
 
 #endif

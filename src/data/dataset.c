@@ -103,17 +103,27 @@ static pw_status header_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_
     return PW_OK;
 }
 
+/* A field as quoted in a message: at most 40 characters, longer ones cut with "...". */
+static const char *shown(const char *text, char buf[48])
+{
+    if (strlen(text) <= 40)
+        return text;
+    snprintf(buf, 48, "%.37s...", text);
+    return buf;
+}
+
 static pw_status fraction(pw_ds_reader *rd, const char *text, const char *what, long line,
                           double *out, pw_error *err)
 {
     if (text[0] == '\0')
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s is empty (expected a mole fraction between 0 and 1)", what);
+    char sb[48];
     if (!pw_csvrows_number(text, out))
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s = '%s' is not a number (expected a mole fraction between 0 and "
                             "1)",
-                            what, text);
+                            what, shown(text, sb));
     if (*out < 0.0 || *out > 1.0)
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s = %s is outside [0, 1] (expected a mole fraction)", what, text);
@@ -159,14 +169,27 @@ static pw_status data_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_er
     if (text[0] == '\0')
         return pw_error_set(err, PW_EPARSE, rd->name, line, "%s is empty (expected a number in %s)",
                             what, unit);
+    char sb[48];
     if (!pw_csvrows_number(text, &v))
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s = '%s' is not a number (expected a finite decimal number in %s)",
-                            what, text, unit);
+                            what, shown(text, sb), unit);
     if (pw_units_to_si(isobaric ? PW_QTY_TEMPERATURE : PW_QTY_PRESSURE, v, unit, &si) != PW_OK)
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s = %s %s is not positive (expected an absolute %s above zero)",
                             what, text, unit, isobaric ? "temperature" : "pressure");
+    double lo = isobaric ? PW_DATASET_T_MIN_K : PW_DATASET_P_MIN_PA;
+    double hi = isobaric ? PW_DATASET_T_MAX_K : PW_DATASET_P_MAX_PA;
+    if (si < lo || si > hi)
+        return pw_error_set(err, PW_EPARSE, rd->name, line,
+                            "%s = %s %s is outside the plausible range of measured VLE data "
+                            "(expected %g to %g %s)",
+                            what, text, unit, lo, hi, isobaric ? "K" : "Pa");
+    if (ds->n >= PW_DATASET_MAX_POINTS)
+        return pw_error_set(err, PW_EPARSE, rd->name, line,
+                            "more than %d data rows (the reader's limit; a measured VLE data set "
+                            "has tens to hundreds of points: split or thin the file)",
+                            PW_DATASET_MAX_POINTS);
     p.T_K = isobaric ? si : ds->T_fixed_K;
     p.P_Pa = isobaric ? ds->P_fixed_Pa : si;
     p.line = line;
@@ -196,8 +219,16 @@ pw_status pw_dataset_parse_chunked(const char *buf, size_t len, const char *name
     memset(ds, 0, sizeof *ds);
     if (!buf && len)
         return pw_error_set(err, PW_EINVAL, name, 0, "no buffer given");
+    const char *nm = name ? name : "(dataset)";
+    if (len > PW_DATASET_MAX_BYTES)
+        return pw_error_set(err, PW_EPARSE, nm, 0,
+                            "the file has %zu bytes (expected at most %u, the reader's limit)", len,
+                            PW_DATASET_MAX_BYTES);
+    pw_status ust = pw_check_utf8(buf, len, nm, err);
+    if (ust != PW_OK)
+        return ust;
     pw_ds_reader rd;
-    pw_ds_reader_init(&rd, name ? name : "(dataset)");
+    pw_ds_reader_init(&rd, nm);
     pw_csvrows r;
     pw_status st = pw_csvrows_init(&r, rd.name, on_line, on_row, &rd, err);
     if (chunk == 0)
@@ -244,7 +275,7 @@ pw_status pw_dataset_read(const char *path, pw_dataset *ds, pw_error *err)
         memset(ds, 0, sizeof *ds);
     char *buf;
     size_t len;
-    pw_status st = pw_csvrows_slurp(path, &buf, &len, err);
+    pw_status st = pw_csvrows_slurp(path, PW_DATASET_MAX_BYTES, &buf, &len, err);
     if (st != PW_OK)
         return st;
     st = pw_dataset_parse(buf, len, path, ds, err);

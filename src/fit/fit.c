@@ -494,5 +494,14 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     free(J);
     gsl_rng_free(rng);
     gsl_multifit_nlinear_free(w);
-    return pw_fit_evaluate(out);
+    st = pw_fit_evaluate(out);
+    if (st != PW_OK) {
+        /* No start gave parameters the model accepts (for instance with absurd data). */
+        pw_fit_result_free(out);
+        return pw_error_set(err, st, ds->path, 0,
+                            "the %s model cannot be evaluated with the fitted parameters: %s "
+                            "(check the data's temperatures and pressures)",
+                            model->name, pw_strerror(st));
+    }
+    return PW_OK;
 }
