@@ -6,6 +6,7 @@
 
 #include <dirent.h>
 #include <errno.h>
+#include <math.h>
 #include <pthread.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -21,6 +22,8 @@ typedef struct job {
     char path[PW_PATH_MAX];
     int rc;
     bool converged;
+    size_t n_pts;
+    double chi2_red, aad_y, aad_T_K, aad_P_Pa;
     pw_error err;
 } job;
 
@@ -55,8 +58,14 @@ static void *worker(void *arg)
         j->rc = pw_fit_one(j->input, b->model, NULL, b->out_dir, b->co, &r, j->path,
                            sizeof j->path, &j->err);
         j->converged = j->rc == 0 && r.converged;
-        if (j->rc == 0)
+        if (j->rc == 0) {
+            j->n_pts = r.n_pts;
+            j->chi2_red = r.chi2_red;
+            j->aad_y = r.dev_y.aad;
+            j->aad_T_K = r.dev_T_K.aad;
+            j->aad_P_Pa = r.dev_P_Pa.aad;
             pw_fit_result_free(&r);
+        }
         pthread_mutex_lock(&b->lock);
         b->done++;
         if (b->progress)
@@ -136,9 +145,11 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
     if (b.progress)
         fputc('\n', stderr);
 
-    size_t ok = 0;
-    for (size_t i = 0; i < n; i++)
+    size_t ok = 0, conv = 0;
+    for (size_t i = 0; i < n; i++) {
         ok += jobs[i].rc == 0;
+        conv += jobs[i].converged;
+    }
     if (co->json) {
         json_t *o = json_object(), *fits = json_array(), *failed = json_array();
         for (size_t i = 0; i < n; i++) {
@@ -147,6 +158,11 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
             if (jobs[i].rc == 0) {
                 json_object_set_new(e, "converged", json_boolean(jobs[i].converged));
                 json_object_set_new(e, "fit_file", json_string(jobs[i].path));
+                json_object_set_new(e, "points", json_integer((json_int_t)jobs[i].n_pts));
+                json_object_set_new(e, "chi2_per_dof", pw_cli_json_num(jobs[i].chi2_red));
+                json_object_set_new(e, "aad_y", pw_cli_json_num(jobs[i].aad_y));
+                json_object_set_new(e, "aad_T_K", pw_cli_json_num(jobs[i].aad_T_K));
+                json_object_set_new(e, "aad_P_kPa", pw_cli_json_num(jobs[i].aad_P_Pa / 1e3));
                 json_array_append_new(fits, e);
             } else {
                 char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
@@ -157,17 +173,30 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
         }
         json_object_set_new(o, "fits", fits);
         json_object_set_new(o, "failed", failed);
+        json_object_set_new(o, "summary",
+                            json_pack("{s:I,s:I,s:I,s:I,s:s}", "datasets", (json_int_t)n, "fitted",
+                                      (json_int_t)ok, "converged", (json_int_t)conv, "failed",
+                                      (json_int_t)(n - ok), "model", model->name));
         rc = pw_cli_print_json(o);
     } else {
-        printf("%zu of %zu datasets fitted with %s into %s\n", ok, n, model->name, out_dir);
+        printf("%zu of %zu datasets fitted with %s into %s (%zu converged, %zu failed)\n", ok, n,
+               model->name, out_dir, conv, n - ok);
+        printf("  %-32s %-13s %6s %9s %8s %8s %9s  %s\n", "dataset", "status", "points",
+               "chi2/dof", "AAD y", "AAD T/K", "AAD P/kPa", "fit file");
         for (size_t i = 0; i < n; i++) {
             char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
-            if (jobs[i].rc == 0)
-                printf("  %-32s %-14s %s\n", jobs[i].name,
-                       jobs[i].converged ? "converged" : "NOT converged", jobs[i].path);
-            else
-                printf("  %-32s failed: %s\n", jobs[i].name,
-                       pw_error_format(&jobs[i].err, buf, sizeof buf));
+            const job *j = &jobs[i];
+            if (j->rc == 0) {
+                char cy[16], cT[16], cP[16];
+                snprintf(cy, sizeof cy, isfinite(j->aad_y) ? "%.4f" : "-", j->aad_y);
+                snprintf(cT, sizeof cT, isfinite(j->aad_T_K) ? "%.3f" : "-", j->aad_T_K);
+                snprintf(cP, sizeof cP, isfinite(j->aad_P_Pa) ? "%.4f" : "-", j->aad_P_Pa / 1e3);
+                printf("  %-32s %-13s %6zu %9.3g %8s %8s %9s  %s\n", j->name,
+                       j->converged ? "converged" : "NOT converged", j->n_pts, j->chi2_red, cy, cT,
+                       cP, j->path);
+            } else {
+                printf("  %-32s failed: %s\n", j->name, pw_error_format(&j->err, buf, sizeof buf));
+            }
         }
     }
     if (!co->json)
