@@ -1,0 +1,145 @@
+/* Benchmark driver (not a test; run by tools/bench.sh). Times the library in-process.
+ *   pw-bench fit [--starts N] [--reps R] FILE...   one line per file: name, median seconds of
+ *                                                 pw_fit_run over R repetitions, converged, chi2
+ *   pw-bench reflux FIT.json P_kPa xd xb zf q N     median seconds per pw_column_solve call
+ *   pw-bench scale FILE                            seconds of one fit and peak resident set */
+#include <gsl/gsl_errno.h>
+#include <math.h>
+#include <pinchwise/column.h>
+#include <pinchwise/curve.h>
+#include <pinchwise/fit.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <sys/resource.h>
+#include <time.h>
+
+static double now(void)
+{
+    struct timespec ts;
+    clock_gettime(CLOCK_MONOTONIC, &ts);
+    return (double)ts.tv_sec + 1e-9 * (double)ts.tv_nsec;
+}
+
+static int cmp_d(const void *a, const void *b)
+{
+    double x = *(const double *)a, y = *(const double *)b;
+    return (x > y) - (x < y);
+}
+
+static double median(double *v, size_t n)
+{
+    qsort(v, n, sizeof *v, cmp_d);
+    return n % 2 ? v[n / 2] : 0.5 * (v[n / 2 - 1] + v[n / 2]);
+}
+
+static int fail(const pw_error *e)
+{
+    fprintf(stderr, "pw-bench: %s:%ld: %s\n", e->file, e->line, e->msg);
+    return 1;
+}
+
+static int fit_one(const pw_complib *lib, const char *path, size_t starts, size_t reps,
+                   bool scale)
+{
+    pw_dataset ds;
+    pw_error err;
+    if (pw_dataset_read(path, &ds, &err) != PW_OK)
+        return fail(&err);
+    const pw_component *c1 = pw_complib_find(lib, ds.names[0]), *c2 = pw_complib_find(lib, ds.names[1]);
+    if (!c1 || !c2) {
+        fprintf(stderr, "pw-bench: %s: unknown component\n", path);
+        return 1;
+    }
+    pw_fit_options o = pw_fit_default_options();
+    if (starts)
+        o.n_starts = starts;
+    double t[64];
+    bool conv = false;
+    double chi2 = NAN;
+    for (size_t r = 0; r < reps; r++) {
+        pw_fit_result res;
+        double t0 = now();
+        pw_status st = pw_fit_run(&ds, c1, c2, &pw_model_nrtl, &o, &res, &err);
+        t[r] = now() - t0;
+        if (st != PW_OK) {
+            pw_dataset_free(&ds);
+            return fail(&err);
+        }
+        conv = res.converged;
+        chi2 = res.chi2;
+        pw_fit_result_free(&res);
+    }
+    const char *base = strrchr(path, '/');
+    if (scale) {
+        struct rusage ru;
+        getrusage(RUSAGE_SELF, &ru);
+        printf("%zu\t%.6g\t%ld\t%d\n", ds.n, median(t, reps), ru.ru_maxrss, conv);
+    } else {
+        printf("%s\t%.6g\t%d\t%.10g\n", base ? base + 1 : path, median(t, reps), conv, chi2);
+    }
+    pw_dataset_free(&ds);
+    return 0;
+}
+
+int main(int argc, char **argv)
+{
+    gsl_set_error_handler_off();
+    if (argc < 3) {
+        fprintf(stderr, "usage: see the header of tests/bench/bench_fit.c\n");
+        return 2;
+    }
+    pw_complib lib;
+    pw_complib_init(&lib);
+    pw_error err;
+    if (pw_complib_read(&lib, PW_BENCH_COMPONENTS, &err) != PW_OK)
+        return fail(&err);
+    int rc = 0;
+    if (!strcmp(argv[1], "fit") || !strcmp(argv[1], "scale")) {
+        bool scale = !strcmp(argv[1], "scale");
+        size_t starts = 0, reps = scale ? 1 : 5;
+        int i = 2;
+        for (; i + 1 < argc && argv[i][0] == '-'; i += 2) {
+            if (!strcmp(argv[i], "--starts"))
+                starts = strtoul(argv[i + 1], NULL, 10);
+            else if (!strcmp(argv[i], "--reps"))
+                reps = strtoul(argv[i + 1], NULL, 10);
+        }
+        if (reps < 1 || reps > 64)
+            reps = 5;
+        for (; i < argc && rc == 0; i++)
+            rc = fit_one(&lib, argv[i], starts, reps, scale);
+    } else if (!strcmp(argv[1], "reflux") && argc == 9) {
+        pw_fit_result r;
+        if (pw_fitfile_read(argv[2], &r, &err) != PW_OK)
+            return fail(&err);
+        pw_system_curve sc;
+        pw_system_curve_init(&sc, &r.sys, atof(argv[3]) * 1e3);
+        pw_curve curve = pw_system_curve_bind(&sc);
+        pw_column_spec sp = {atof(argv[4]), atof(argv[5]), atof(argv[6]), atof(argv[7])};
+        pw_column_options opt = pw_column_default_options();
+        size_t n = strtoul(argv[8], NULL, 10);
+        double *t = malloc((n ? n : 1) * sizeof *t);
+        pw_column_result res;
+        unsigned long ev0 = sc.n_eval;
+        for (size_t i = 0; i < n && t; i++) {
+            double t0 = now();
+            if (pw_column_solve(&curve, &sp, &opt, &res) != PW_OK) {
+                rc = 1;
+                break;
+            }
+            t[i] = now() - t0;
+        }
+        if (rc == 0 && t && n)
+            printf("reflux\t%.6g\t%s\tR_min=%.10g\tevaluations_per_call=%lu\n", median(t, n),
+                   res.pinch.kind == PW_PINCH_TANGENT ? "tangent" : "feed", res.r_min,
+                   (sc.n_eval - ev0) / n);
+        free(t);
+        pw_fit_result_free(&r);
+    } else {
+        fprintf(stderr, "pw-bench: unknown mode %s\n", argv[1]);
+        rc = 2;
+    }
+    pw_complib_free(&lib);
+    return rc;
+}
