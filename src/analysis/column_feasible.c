@@ -1,0 +1,202 @@
+/* Feasibility of a binary split by ordinary distillation (METHODS 6.3 step 1): the equilibrium
+ * curve must lie strictly above the diagonal, y*(x) - x > 0, on the whole of [xb, xd]. When it
+ * does not, a reason is written in words: an azeotrope between the products, a product beyond an
+ * azeotrope, a curve that touches the diagonal, or a pinch at a product composition. */
+#include "analysis/column_internal.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#define MAX_ROOTS 3
+#define MAX_REFINE 4
+#define MIN_MAX_ITER 100
+
+static pw_status excess(pw_column_ws *w, void *p, double x, double *f)
+{
+    (void)p;
+    double y;
+    pw_status st = pw_column_y(w, x, &y);
+    if (st == PW_OK)
+        *f = y - x;
+    return st;
+}
+
+static double min_trampoline(double x, void *params)
+{
+    pw_column_ws *w = params;
+    double f;
+    pw_status st = excess(w, NULL, x, &f);
+    if (st != PW_OK) {
+        if (w->cb_status == PW_OK)
+            w->cb_status = st;
+        return GSL_NAN;
+    }
+    return f;
+}
+
+/* Refines a grid local minimum of f = y* - x in [a, b] around m (f(m) < f(a), f(b)). */
+static pw_status refine_min(pw_column_ws *w, double a, double m, double b, double fa, double fm,
+                            double fb, double *xmin, double *fmin)
+{
+    gsl_function F = {min_trampoline, w};
+    w->cb_status = PW_OK;
+    if (gsl_min_fminimizer_set_with_values(w->min, &F, m, fm, a, fa, b, fb) != GSL_SUCCESS)
+        return PW_ENOCONV;
+    for (int it = 0; it < MIN_MAX_ITER; it++) {
+        int gs = gsl_min_fminimizer_iterate(w->min);
+        if (w->cb_status != PW_OK)
+            return w->cb_status;
+        if (gs != GSL_SUCCESS)
+            return PW_ENOCONV;
+        double lo = gsl_min_fminimizer_x_lower(w->min), hi = gsl_min_fminimizer_x_upper(w->min);
+        if (gsl_min_test_interval(lo, hi, w->min_xtol, 0.0) == GSL_SUCCESS)
+            break;
+    }
+    *xmin = gsl_min_fminimizer_x_minimum(w->min);
+    *fmin = gsl_min_fminimizer_f_minimum(w->min);
+    return PW_OK;
+}
+
+/* The smallest interior grid minima of f, refined; reports the lowest. */
+static pw_status lowest_interior(pw_column_ws *w, const double *xg, const double *fg, size_t n,
+                                 double *xmin, double *fmin)
+{
+    size_t pick[MAX_REFINE];
+    size_t np = 0;
+    for (size_t j = 1; j + 1 < n; j++) {
+        if (!(fg[j] < fg[j - 1] && fg[j] < fg[j + 1]))
+            continue;
+        if (np < MAX_REFINE) {
+            pick[np++] = j;
+        } else {
+            size_t worst = 0;
+            for (size_t k = 1; k < np; k++)
+                if (fg[pick[k]] > fg[pick[worst]])
+                    worst = k;
+            if (fg[j] < fg[pick[worst]])
+                pick[worst] = j;
+        }
+    }
+    *fmin = INFINITY;
+    *xmin = NAN;
+    for (size_t k = 0; k < np; k++) {
+        size_t j = pick[k];
+        double xm, fm;
+        pw_status st = refine_min(w, xg[j - 1], xg[j], xg[j + 1], fg[j - 1], fg[j], fg[j + 1],
+                                  &xm, &fm);
+        if (st != PW_OK)
+            return st;
+        if (fm < *fmin) {
+            *fmin = fm;
+            *xmin = xm;
+        }
+    }
+    return PW_OK;
+}
+
+static void append(char *buf, size_t len, const char *text)
+{
+    size_t used = strlen(buf);
+    if (used + 1 < len)
+        snprintf(buf + used, len - used, "%s", text);
+}
+
+pw_status pw_column_check_feasible(pw_column_ws *w, const double *xg, const double *yg, double *fg,
+                                   size_t n, bool *ok, char *reason, size_t len)
+{
+    const double tol = PW_COLUMN_TOUCH_TOL;
+    size_t n_bad = 0;
+    for (size_t j = 0; j < n; j++) {
+        fg[j] = yg[j] - xg[j];
+        if (!(fg[j] > tol))
+            n_bad++;
+    }
+    reason[0] = '\0';
+    *ok = false;
+    const double xb = xg[0], xd = xg[n - 1], fb = fg[0], fd = fg[n - 1];
+    char tmp[160];
+
+    if (n_bad == 0) {
+        double xm, fm;
+        pw_status st = lowest_interior(w, xg, fg, n, &xm, &fm);
+        if (st != PW_OK)
+            return st;
+        if (fm > tol) {
+            *ok = true;
+            return PW_OK;
+        }
+        snprintf(reason, len,
+                 "the equilibrium curve touches the diagonal at x = %.4g (y* - x = %.2g there): "
+                 "a pinch with no driving force lies between xb and xd",
+                 xm, fm);
+        return PW_OK;
+    }
+    if (n_bad == n) {
+        snprintf(reason, len,
+                 "y* <= x on the whole range [%.4g, %.4g]: component 1 is not the more volatile "
+                 "component there (check the component order)",
+                 xb, xd);
+        return PW_OK;
+    }
+    /* Azeotropes: strict sign changes of f between neighbouring grid points. */
+    double roots[MAX_ROOTS];
+    size_t nr = 0, n_changes = 0;
+    for (size_t j = 0; j + 1 < n; j++) {
+        if (!((fg[j] > 0.0 && fg[j + 1] < 0.0) || (fg[j] < 0.0 && fg[j + 1] > 0.0)))
+            continue;
+        n_changes++;
+        if (nr < MAX_ROOTS) {
+            pw_status st = pw_column_root(w, excess, NULL, xg[j], xg[j + 1], fg[j], fg[j + 1],
+                                          &roots[nr]);
+            if (st != PW_OK)
+                return st;
+            nr++;
+        }
+    }
+    if (fabs(fb) <= tol || fabs(fd) <= tol) {
+        bool at_b = fabs(fb) <= tol;
+        snprintf(reason, len,
+                 "pinch at a product composition: the equilibrium curve meets the diagonal at "
+                 "the %s composition x = %.6g (a product at a pure component or an azeotrope "
+                 "needs infinitely many stages)",
+                 at_b ? "bottoms" : "distillate", at_b ? xb : xd);
+        if (nr == 0)
+            return PW_OK;
+        append(reason, len, "; also ");
+    }
+    if (nr == 0) {
+        /* f <= tol at interior grid points without a strict sign change: a touch. */
+        size_t jmin = 1;
+        for (size_t j = 1; j + 1 < n; j++)
+            if (fg[j] < fg[jmin])
+                jmin = j;
+        if (fabs(fb) > tol && fabs(fd) > tol) {
+            snprintf(tmp, sizeof tmp,
+                     "the equilibrium curve touches the diagonal at x = %.4g: a pinch with no "
+                     "driving force lies between xb and xd",
+                     xg[jmin]);
+            append(reason, len, tmp);
+        }
+        return PW_OK;
+    }
+    if (n_changes == 1)
+        snprintf(tmp, sizeof tmp, "an azeotrope near x = %.4g lies between xb and xd", roots[0]);
+    else if (nr == 2)
+        snprintf(tmp, sizeof tmp, "azeotropes near x = %.4g and x = %.4g lie between xb and xd",
+                 roots[0], roots[1]);
+    else
+        snprintf(tmp, sizeof tmp, "%zu azeotropes, the first near x = %.4g, lie between xb and xd",
+                 n_changes, roots[0]);
+    append(reason, len, tmp);
+    if (fd < -tol && fb > tol)
+        append(reason, len, "; the distillate target lies beyond the azeotrope");
+    else if (fb < -tol && fd > tol)
+        append(reason, len, "; the bottoms target lies beyond the azeotrope");
+    else if (fb < -tol && fd < -tol)
+        append(reason, len, "; both product targets lie beyond an azeotrope");
+    append(reason, len,
+           " (not reachable by ordinary distillation at this pressure; pressure swing or an "
+           "entrainer may help)");
+    return PW_OK;
+}

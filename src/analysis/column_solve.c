@@ -1,0 +1,208 @@
+/* The whole binary column analysis: feasibility, q-line, global minimum-reflux search in both
+ * sections, total-reflux stages (stepped and Fenske) and the design table. See docs/column.md. */
+#include "analysis/column_internal.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+pw_column_options pw_column_default_options(void)
+{
+    pw_column_options o = {.rtol = 1e-10, .grid = 2000, .n_factors = 3, .max_stages = 500};
+    /* R/R_min = 1.2-1.5: common practice (METHODS 6.7). */
+    o.factors[0] = 1.2;
+    o.factors[1] = 1.3;
+    o.factors[2] = 1.5;
+    return o;
+}
+
+static pw_status check_options(const pw_column_options *o)
+{
+    if (!(o->rtol > 0.0 && o->rtol <= 1e-4) || o->grid < 16 || o->grid > 10000000 ||
+        o->n_factors > PW_COLUMN_MAX_FACTORS || o->max_stages == 0)
+        return PW_EINVAL;
+    for (size_t i = 0; i < o->n_factors; i++)
+        if (!(o->factors[i] > 1.0) || !isfinite(o->factors[i]))
+            return PW_EINVAL;
+    return PW_OK;
+}
+
+static void clear_result(pw_column_result *r)
+{
+    memset(r, 0, sizeof *r);
+    r->feasible = false;
+    r->x_q = r->y_q = r->r_min = r->s_min = r->r_feed = NAN;
+    r->pinch.x = r->pinch.y = NAN;
+    r->n_min = r->n_fenske = r->alpha_top = r->alpha_bottom = NAN;
+}
+
+typedef struct col_buffers {
+    double *xg, *yg, *fg, *px, *py;
+} col_buffers;
+
+static pw_status tabulate(pw_column_ws *w, const pw_column_spec *s, size_t n, col_buffers *b)
+{
+    for (size_t j = 0; j < n; j++) {
+        b->xg[j] = j + 1 == n ? s->xd : s->xb + (s->xd - s->xb) * (double)j / (double)(n - 1);
+        pw_status st = pw_column_y(w, b->xg[j], &b->yg[j]);
+        if (st != PW_OK)
+            return st;
+    }
+    return PW_OK;
+}
+
+/* Limiting slopes of both sections; the larger R limits. */
+static pw_status find_rmin(pw_column_ws *w, const pw_column_spec *s, size_t n, col_buffers *b,
+                           pw_column_result *out)
+{
+    const double xq = out->x_q, yq = out->y_q;
+    /* Rectifying points: the q-line point, then grid points in (x_q, xd). */
+    size_t k = 0;
+    b->px[k] = xq;
+    b->py[k++] = yq;
+    for (size_t j = 0; j + 1 < n; j++)
+        if (b->xg[j] > xq) {
+            b->px[k] = b->xg[j];
+            b->py[k++] = b->yg[j];
+        }
+    if (k < 2) { /* x_q within one grid step of xd: add a midpoint */
+        b->px[k] = 0.5 * (xq + s->xd);
+        pw_status st = pw_column_y(w, b->px[k], &b->py[k]);
+        if (st != PW_OK)
+            return st;
+        k++;
+    }
+    double m_lim, xr, yr;
+    bool feed_r;
+    pw_status st =
+        pw_column_section_limit(w, s, PW_SECTION_RECTIFYING, b->px, b->py, k, &m_lim, &xr, &yr,
+                                &feed_r);
+    if (st != PW_OK)
+        return st;
+    /* Stripping points: grid points in (xb, x_q), then the q-line point. */
+    k = 0;
+    for (size_t j = 1; j < n; j++)
+        if (b->xg[j] < xq) {
+            b->px[k] = b->xg[j];
+            b->py[k++] = b->yg[j];
+        }
+    if (k == 0) {
+        b->px[k] = 0.5 * (s->xb + xq);
+        st = pw_column_y(w, b->px[k], &b->py[k]);
+        if (st != PW_OK)
+            return st;
+        k++;
+    }
+    b->px[k] = xq;
+    b->py[k++] = yq;
+    double s_lim, xs, ys;
+    bool feed_s;
+    st = pw_column_section_limit(w, s, PW_SECTION_STRIPPING, b->px, b->py, k, &s_lim, &xs, &ys,
+                                 &feed_s);
+    if (st != PW_OK)
+        return st;
+
+    const double r_rect = m_lim / (1.0 - m_lim);
+    const double r_strip = pw_column_reflux_of_boilup(s, 1.0 / (s_lim - 1.0));
+    const double m_feed = (s->xd - yq) / (s->xd - xq);
+    out->r_feed = m_feed / (1.0 - m_feed);
+    /* A feed pinch is shared by both sections; it is reported as rectifying. */
+    bool rect = r_rect >= r_strip || (feed_r && feed_s);
+    out->r_min = fmax(r_rect, r_strip);
+    out->pinch.section = rect ? PW_SECTION_RECTIFYING : PW_SECTION_STRIPPING;
+    out->pinch.kind = (rect ? feed_r : feed_s) ? PW_PINCH_FEED : PW_PINCH_TANGENT;
+    out->pinch.x = rect ? xr : xs;
+    out->pinch.y = rect ? yr : ys;
+    out->s_min = pw_column_boilup(s, out->r_min);
+    if (!(out->r_min > 0.0) || !(out->s_min > 0.0)) {
+        snprintf(out->reason, sizeof out->reason,
+                 "no pinch limits this split (the operating lines clear the curve at zero %s): "
+                 "outside the range of this method",
+                 out->r_min > 0.0 ? "boil-up" : "reflux");
+        return PW_ERANGE;
+    }
+    return PW_OK;
+}
+
+static pw_status design_table(pw_column_ws *w, const pw_column_spec *s,
+                              const pw_column_options *o, pw_column_result *out)
+{
+    for (size_t i = 0; i < o->n_factors; i++) {
+        pw_design_row *row = &out->design[i];
+        row->factor = o->factors[i];
+        row->R = o->factors[i] * out->r_min;
+        row->boilup = pw_column_boilup(s, row->R);
+        row->gilliland_stages = pw_gilliland_molokanov(out->n_min, row->R, out->r_min);
+        pw_status st = pw_column_step_ws(w, s, false, row->R, o->max_stages, &row->stages,
+                                         &row->feed_stage);
+        if (st != PW_OK)
+            return st;
+        out->n_design = i + 1;
+    }
+    return PW_OK;
+}
+
+static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
+                                const pw_column_options *o, col_buffers *b,
+                                pw_column_result *out)
+{
+    const size_t n = o->grid;
+    pw_status st = tabulate(w, s, n, b);
+    if (st != PW_OK)
+        return st;
+    out->alpha_bottom = pw_column_alpha(b->xg[0], b->yg[0]);
+    out->alpha_top = pw_column_alpha(b->xg[n - 1], b->yg[n - 1]);
+    bool ok;
+    st = pw_column_check_feasible(w, b->xg, b->yg, b->fg, n, &ok, out->reason, sizeof out->reason);
+    if (st != PW_OK || !ok)
+        return st;
+    st = pw_column_qline(w, s, b->xg, b->yg, n, &out->x_q, &out->y_q);
+    if (st == PW_ERANGE) {
+        snprintf(out->reason, sizeof out->reason,
+                 "the q-line (q = %g) meets the equilibrium curve outside (xb, xd): the feed's "
+                 "thermal condition is outside the range of this method",
+                 s->q);
+        return st;
+    }
+    if (st != PW_OK)
+        return st;
+    st = find_rmin(w, s, n, b, out);
+    if (st != PW_OK)
+        return st;
+    st = pw_column_step_ws(w, s, true, INFINITY, o->max_stages, &out->n_min, NULL);
+    if (st != PW_OK)
+        return st;
+    out->n_fenske = pw_fenske_nmin(sqrt(out->alpha_top * out->alpha_bottom), s->xd, s->xb);
+    out->feasible = true;
+    return design_table(w, s, o, out);
+}
+
+pw_status pw_column_solve(const pw_curve *curve, const pw_column_spec *spec,
+                          const pw_column_options *opt, pw_column_result *out)
+{
+    if (!curve || !curve->y_of_x || !spec || !out)
+        return PW_EINVAL;
+    clear_result(out);
+    const pw_column_spec s = *spec;
+    if (!(s.xb >= 0.0 && s.xb < s.zf && s.zf < s.xd && s.xd <= 1.0) || !isfinite(s.q))
+        return PW_EINVAL;
+    const pw_column_options o = opt ? *opt : pw_column_default_options();
+    pw_status st = check_options(&o);
+    if (st != PW_OK)
+        return st;
+    const size_t n = o.grid;
+    double *mem = malloc((5 * n + 2) * sizeof *mem);
+    if (!mem)
+        return PW_ENOMEM;
+    col_buffers b = {mem, mem + n, mem + 2 * n, mem + 3 * n, mem + 4 * n + 1};
+    pw_column_ws w = {0};
+    st = pw_column_ws_init(&w, curve, o.rtol);
+    if (st == PW_OK)
+        st = solve_feasible(&w, &s, &o, &b, out);
+    pw_column_ws_free(&w);
+    free(mem);
+    if (st != PW_OK)
+        out->feasible = false;
+    return st;
+}

@@ -1,0 +1,161 @@
+/* Column workspace: GSL solvers reused by every inner loop, safe curve evaluation, x*(y), and
+ * the constant-molal-overflow balances (McCabe & Thiele 1925). */
+#include "analysis/column_internal.h"
+
+#include <float.h>
+#include <gsl/gsl_errno.h>
+#include <math.h>
+
+#define ROOT_MAX_ITER 200
+
+pw_status pw_column_ws_init(pw_column_ws *w, const pw_curve *curve, double rtol)
+{
+    w->curve = curve;
+    w->cb_status = PW_OK;
+    w->n_eval = 0;
+    /* x tolerances: roots to well below rtol (a root error enters R linearly); minimisers to
+     * about sqrt of that, since the extremal value is quadratic in the x error. */
+    w->root_xtol = fmax(4.0 * DBL_EPSILON, 1e-3 * rtol);
+    w->min_xtol = fmax(2.0 * sqrt(DBL_EPSILON), 1e-3 * sqrt(rtol));
+    w->root = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+    w->min = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
+    if (!w->root || !w->min) {
+        pw_column_ws_free(w);
+        return PW_ENOMEM;
+    }
+    return PW_OK;
+}
+
+void pw_column_ws_free(pw_column_ws *w)
+{
+    if (w->root)
+        gsl_root_fsolver_free(w->root);
+    if (w->min)
+        gsl_min_fminimizer_free(w->min);
+    w->root = NULL;
+    w->min = NULL;
+}
+
+pw_status pw_column_y(pw_column_ws *w, double x, double *y)
+{
+    if (!(x >= 0.0 && x <= 1.0))
+        return PW_EDOM;
+    w->n_eval++;
+    pw_status st = w->curve->y_of_x(w->curve->ctx, x, y);
+    if (st != PW_OK)
+        return st;
+    if (!isfinite(*y))
+        return PW_EDOM;
+    return PW_OK;
+}
+
+typedef struct root_ctx {
+    pw_column_ws *w;
+    pw_column_scalar_fn f;
+    void *p;
+} root_ctx;
+
+static double root_trampoline(double x, void *params)
+{
+    root_ctx *c = params;
+    double v;
+    pw_status st = c->f(c->w, c->p, x, &v);
+    if (st != PW_OK) {
+        if (c->w->cb_status == PW_OK)
+            c->w->cb_status = st;
+        return GSL_NAN;
+    }
+    return v;
+}
+
+pw_status pw_column_root(pw_column_ws *w, pw_column_scalar_fn f, void *p, double a, double b,
+                         double fa, double fb, double *x)
+{
+    if (fa == 0.0) {
+        *x = a;
+        return PW_OK;
+    }
+    if (fb == 0.0) {
+        *x = b;
+        return PW_OK;
+    }
+    if ((fa > 0.0) == (fb > 0.0))
+        return PW_ENOBRACKET;
+    root_ctx c = {w, f, p};
+    gsl_function F = {root_trampoline, &c};
+    if (a > b) {
+        double t = a;
+        a = b;
+        b = t;
+    }
+    w->cb_status = PW_OK;
+    if (gsl_root_fsolver_set(w->root, &F, a, b) != GSL_SUCCESS)
+        return w->cb_status != PW_OK ? w->cb_status : PW_ENOBRACKET;
+    for (int it = 0; it < ROOT_MAX_ITER; it++) {
+        int gs = gsl_root_fsolver_iterate(w->root);
+        if (w->cb_status != PW_OK)
+            return w->cb_status;
+        if (gs != GSL_SUCCESS)
+            return PW_ENOCONV;
+        double lo = gsl_root_fsolver_x_lower(w->root);
+        double hi = gsl_root_fsolver_x_upper(w->root);
+        if (gsl_root_test_interval(lo, hi, w->root_xtol, 4.0 * DBL_EPSILON) == GSL_SUCCESS) {
+            *x = gsl_root_fsolver_root(w->root);
+            return PW_OK;
+        }
+    }
+    return PW_EMAXITER;
+}
+
+static pw_status curve_minus_target(pw_column_ws *w, void *p, double x, double *f)
+{
+    double y;
+    pw_status st = pw_column_y(w, x, &y);
+    if (st != PW_OK)
+        return st;
+    *f = y - *(const double *)p;
+    return PW_OK;
+}
+
+pw_status pw_column_x_of_y(pw_column_ws *w, double y, double xlo, double *x)
+{
+    if (!(y > 0.0 && y <= 1.0) || !(xlo >= 0.0 && xlo < y))
+        return PW_EDOM;
+    double target = y, flo, fhi;
+    pw_status st = curve_minus_target(w, &target, xlo, &flo);
+    if (st != PW_OK)
+        return st;
+    if (flo <= 0.0) {
+        st = curve_minus_target(w, &target, y, &fhi);
+        if (st != PW_OK)
+            return st;
+        return pw_column_root(w, curve_minus_target, &target, xlo, y, flo, fhi, x);
+    }
+    /* The equilibrium liquid lies below xlo (a last step that overshoots xb). */
+    double f0;
+    st = curve_minus_target(w, &target, 0.0, &f0);
+    if (st != PW_OK)
+        return st;
+    return pw_column_root(w, curve_minus_target, &target, 0.0, xlo, f0, flo, x);
+}
+
+double pw_column_d_frac(const pw_column_spec *s) { return (s->zf - s->xb) / (s->xd - s->xb); }
+
+double pw_column_b_frac(const pw_column_spec *s) { return (s->xd - s->zf) / (s->xd - s->xb); }
+
+double pw_column_boilup(const pw_column_spec *s, double R)
+{
+    return ((R + 1.0) * pw_column_d_frac(s) - (1.0 - s->q)) / pw_column_b_frac(s);
+}
+
+double pw_column_reflux_of_boilup(const pw_column_spec *s, double S)
+{
+    return (S * pw_column_b_frac(s) + (1.0 - s->q)) / pw_column_d_frac(s) - 1.0;
+}
+
+double pw_column_alpha(double x, double y)
+{
+    if (!(x > 0.0 && x < 1.0 && y > 0.0 && y < 1.0))
+        return NAN;
+    return y * (1.0 - x) / (x * (1.0 - y));
+}

@@ -1,0 +1,40 @@
+/* Adapter from a fitted binary system to the column module's equilibrium-curve callback. */
+#include <pinchwise/curve.h>
+
+#include <math.h>
+
+pw_status pw_system_curve_init(pw_system_curve *sc, const pw_system *sys, double P_Pa)
+{
+    if (!sc || !sys || !sys->model || !(P_Pa > 0.0) || !isfinite(P_Pa))
+        return PW_EINVAL;
+    sc->sys = *sys;
+    sc->P_Pa = P_Pa;
+    sc->n_eval = 0;
+    sc->last_status = PW_OK;
+    return PW_OK;
+}
+
+pw_status pw_system_curve_y(void *ctx, double x, double *y)
+{
+    pw_system_curve *sc = ctx;
+    if (!sc || !y)
+        return PW_EINVAL;
+    if (!(x >= 0.0 && x <= 1.0))
+        return PW_EDOM;
+    pw_eq_point eq;
+    sc->n_eval++;
+    pw_status st = pw_bubble_T(&sc->sys, sc->P_Pa, x, &eq);
+    sc->last_status = st;
+    if (st != PW_OK)
+        return st;
+    if (!isfinite(eq.y1))
+        return PW_EDOM;
+    *y = eq.y1;
+    return PW_OK;
+}
+
+pw_curve pw_system_curve_bind(pw_system_curve *sc)
+{
+    pw_curve c = {pw_system_curve_y, sc};
+    return c;
+}

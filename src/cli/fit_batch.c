@@ -1,0 +1,183 @@
+/* Batch fitting: every *.csv of a folder, two worker threads (the library keeps no global
+ * state, so fits run side by side), results reported in file-name order. */
+#include "fit_batch.h"
+
+#include "cli.h"
+
+#include <dirent.h>
+#include <errno.h>
+#include <pthread.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <sys/stat.h>
+#include <unistd.h>
+
+#define BATCH_THREADS 2
+
+typedef struct job {
+    char name[256];
+    char input[PW_PATH_MAX];
+    char path[PW_PATH_MAX];
+    int rc;
+    bool converged;
+    pw_error err;
+} job;
+
+typedef struct batch {
+    job *jobs;
+    size_t n, next;
+    pthread_mutex_t lock;
+    const pw_model_type *model;
+    const char *out_dir;
+    const pw_fit_cli_opts *co;
+    size_t done;
+    bool progress;
+} batch;
+
+static int cmp_names(const void *a, const void *b)
+{
+    return strcmp(((const job *)a)->name, ((const job *)b)->name);
+}
+
+static void *worker(void *arg)
+{
+    batch *b = arg;
+    for (;;) {
+        pthread_mutex_lock(&b->lock);
+        size_t i = b->next++;
+        pthread_mutex_unlock(&b->lock);
+        if (i >= b->n)
+            return NULL;
+        job *j = &b->jobs[i];
+        pw_fit_result r;
+        pw_error_clear(&j->err);
+        j->rc = pw_fit_one(j->input, b->model, NULL, b->out_dir, b->co, &r, j->path,
+                           sizeof j->path, &j->err);
+        j->converged = j->rc == 0 && r.converged;
+        if (j->rc == 0)
+            pw_fit_result_free(&r);
+        pthread_mutex_lock(&b->lock);
+        b->done++;
+        if (b->progress)
+            fprintf(stderr, "\rpinchwise fit: %zu/%zu datasets", b->done, b->n);
+        pthread_mutex_unlock(&b->lock);
+    }
+}
+
+static int list_csv(const char *dir, job **jobs, size_t *n)
+{
+    DIR *d = opendir(dir);
+    if (!d)
+        return pw_cli_failf("fit", pw_status_exit_code(PW_EIO), "%s: cannot open folder: %s", dir,
+                            strerror(errno));
+    size_t cap = 16;
+    *n = 0;
+    *jobs = malloc(cap * sizeof **jobs);
+    struct dirent *e;
+    while (*jobs && (e = readdir(d))) {
+        size_t len = strlen(e->d_name);
+        if (len < 5 || strcmp(e->d_name + len - 4, ".csv") != 0 || e->d_name[0] == '.')
+            continue;
+        if (*n == cap) {
+            job *nj = realloc(*jobs, 2 * cap * sizeof **jobs);
+            if (!nj) {
+                free(*jobs);
+                *jobs = NULL;
+                break;
+            }
+            *jobs = nj;
+            cap *= 2;
+        }
+        job *j = &(*jobs)[(*n)++];
+        memset(j, 0, sizeof *j);
+        snprintf(j->name, sizeof j->name, "%s", e->d_name);
+        snprintf(j->input, sizeof j->input, "%s/%s", dir, e->d_name);
+    }
+    closedir(d);
+    if (!*jobs)
+        return pw_cli_failf("fit", pw_status_exit_code(PW_ENOMEM), "out of memory");
+    qsort(*jobs, *n, sizeof **jobs, cmp_names);
+    return 0;
+}
+
+int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *model,
+                 const pw_fit_cli_opts *co)
+{
+    job *jobs = NULL;
+    size_t n = 0;
+    int rc = list_csv(dir, &jobs, &n);
+    if (rc != 0)
+        return rc;
+    if (n == 0) {
+        free(jobs);
+        return pw_cli_failf("fit", pw_status_exit_code(PW_ENOTFOUND), "%s: no *.csv files", dir);
+    }
+    if (mkdir(out_dir, 0755) != 0 && errno != EEXIST) {
+        free(jobs);
+        return pw_cli_failf("fit", pw_status_exit_code(PW_EIO), "%s: cannot create folder: %s",
+                            out_dir, strerror(errno));
+    }
+    pw_fit_cli_opts wco = *co;
+    wco.quiet = true;
+    batch b = {.jobs = jobs, .n = n, .model = model, .out_dir = out_dir, .co = &wco,
+               .progress = isatty(STDERR_FILENO) != 0};
+    pthread_mutex_init(&b.lock, NULL);
+    pthread_t th[BATCH_THREADS];
+    size_t started = 0;
+    for (size_t t = 0; t < BATCH_THREADS && t < n; t++)
+        if (pthread_create(&th[t], NULL, worker, &b) == 0)
+            started++;
+    if (started == 0)
+        worker(&b);
+    for (size_t t = 0; t < started; t++)
+        pthread_join(th[t], NULL);
+    pthread_mutex_destroy(&b.lock);
+    if (b.progress)
+        fputc('\n', stderr);
+
+    size_t ok = 0;
+    for (size_t i = 0; i < n; i++)
+        ok += jobs[i].rc == 0;
+    if (co->json) {
+        json_t *o = json_object(), *fits = json_array(), *failed = json_array();
+        for (size_t i = 0; i < n; i++) {
+            json_t *e = json_object();
+            json_object_set_new(e, "dataset", json_string(jobs[i].name));
+            if (jobs[i].rc == 0) {
+                json_object_set_new(e, "converged", json_boolean(jobs[i].converged));
+                json_object_set_new(e, "fit_file", json_string(jobs[i].path));
+                json_array_append_new(fits, e);
+            } else {
+                char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
+                json_object_set_new(e, "error",
+                                    json_string(pw_error_format(&jobs[i].err, buf, sizeof buf)));
+                json_array_append_new(failed, e);
+            }
+        }
+        json_object_set_new(o, "fits", fits);
+        json_object_set_new(o, "failed", failed);
+        rc = pw_cli_print_json(o);
+    } else {
+        printf("%zu of %zu datasets fitted with %s into %s\n", ok, n, model->name, out_dir);
+        for (size_t i = 0; i < n; i++) {
+            char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
+            if (jobs[i].rc == 0)
+                printf("  %-32s %-14s %s\n", jobs[i].name,
+                       jobs[i].converged ? "converged" : "NOT converged", jobs[i].path);
+            else
+                printf("  %-32s failed: %s\n", jobs[i].name,
+                       pw_error_format(&jobs[i].err, buf, sizeof buf));
+        }
+    }
+    if (!co->json)
+        for (size_t i = 0; i < n; i++)
+            if (jobs[i].rc != 0) {
+                char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
+                fprintf(stderr, "pinchwise fit: %s\n", pw_error_format(&jobs[i].err, buf, sizeof buf));
+            }
+    free(jobs);
+    if (ok == 0)
+        return rc ? rc : pw_status_exit_code(PW_EPARSE);
+    return rc;
+}

@@ -1,0 +1,255 @@
+#include "fit_common.h"
+
+#include "cli.h"
+
+#include <errno.h>
+#include <math.h>
+#include <pinchwise/dataset.h>
+#include <pinchwise/fitjson.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <sys/stat.h>
+
+/* File name without folder and extension. */
+static void file_stem(const char *path, char *out, size_t n)
+{
+    const char *base = strrchr(path, '/');
+    base = base ? base + 1 : path;
+    snprintf(out, n, "%s", base);
+    char *dot = strrchr(out, '.');
+    if (dot && dot != out)
+        *dot = '\0';
+}
+
+static pw_status find_component(const pw_complib *lib, const pw_dataset *ds, int i,
+                                const pw_component **c, pw_error *err)
+{
+    *c = pw_complib_find(lib, ds->names[i]);
+    if (*c)
+        return PW_OK;
+    const char *sugg[3];
+    size_t n = pw_complib_suggest(lib, ds->names[i], sugg, 3);
+    char hint[300] = "";
+    if (n > 0) {
+        size_t len = (size_t)snprintf(hint, sizeof hint, "; did you mean ");
+        for (size_t k = 0; k < n && len < sizeof hint; k++)
+            len += (size_t)snprintf(hint + len, sizeof hint - len, "%s'%s'",
+                                    k == 0 ? "" : (k + 1 == n ? " or " : ", "), sugg[k]);
+        if (len < sizeof hint)
+            snprintf(hint + len, sizeof hint - len, "?");
+    }
+    return pw_error_set(err, PW_ENOTFOUND, ds->path, 0,
+                        "component '%s' is not in the component library (add it with --components "
+                        "FILE%s)",
+                        ds->names[i], hint);
+}
+
+static void warn_ranges(const pw_fit_result *r, const char *input)
+{
+    for (int i = 0; i < 2; i++) {
+        const pw_component *c = &r->sys.comp[i];
+        double lo = pw_component_range_excess_K(c, r->T_min_K);
+        double hi = pw_component_range_excess_K(c, r->T_max_K);
+        if (lo < 0.0)
+            pw_cli_warnf("fit", "%s: the data reach %.1f K below the vapor-pressure range of %s",
+                         input, -lo, c->name);
+        if (hi > 0.0)
+            pw_cli_warnf("fit", "%s: the data reach %.1f K above the vapor-pressure range of %s",
+                         input, hi, c->name);
+    }
+}
+
+static void warn_fit(const pw_fit_result *r, const char *input)
+{
+    if (!r->converged)
+        pw_cli_warnf("fit", "%s: the %s fit did NOT converge (%s); do not design with it", input,
+                     r->sys.model->name, pw_fit_stop_name(r->stop));
+    if (r->split)
+        pw_cli_warnf("fit",
+                     "%s: the %s parameters predict a liquid-liquid split (d2(Gmix/RT)/dx1^2 = %.3g "
+                     "at x1 = %.3f, %.1f K); if the liquids are known to mix, the fit is spurious",
+                     input, r->sys.model->name, r->split_min_D, r->split_x, r->split_T_K);
+    size_t competing = 0;
+    for (size_t i = 0; i < r->n_minima; i++)
+        competing += r->minima[i].chi2 <= r->minima[0].chi2 * fmax(1.01, exp(2.0 / (double)r->n_residuals));
+    if (competing > 1)
+        pw_cli_warnf("fit", "%s: %zu distinct minima fit the data about equally well (delta-AICc < 2); "
+                     "the one without a liquid split and lowest chi2 is used, all are in the fit file",
+                     input, competing);
+    for (size_t a = 0; a < r->sys.model->n_params; a++)
+        for (size_t b = a + 1; b < r->sys.model->n_params; b++)
+            if (r->fitted[a] && r->fitted[b] && fabs(r->corr[a][b]) > 0.95)
+                pw_cli_warnf("fit", "%s: parameters %s and %s are correlated (%.3f): poorly "
+                             "identifiable from these data",
+                             input, r->sys.model->param_names[a], r->sys.model->param_names[b],
+                             r->corr[a][b]);
+}
+
+static int ensure_dir(const char *dir, pw_error *err)
+{
+    if (mkdir(dir, 0755) == 0 || errno == EEXIST)
+        return 0;
+    pw_error_set(err, PW_EIO, dir, 0, "cannot create folder: %s", strerror(errno));
+    return pw_status_exit_code(PW_EIO);
+}
+
+int pw_fit_one(const char *input, const pw_model_type *model, const char *out, const char *out_dir,
+               const pw_fit_cli_opts *co, pw_fit_result *r, char *path, size_t path_len,
+               pw_error *err)
+{
+    memset(r, 0, sizeof *r);
+    pw_dataset ds;
+    pw_status st = pw_dataset_read(input, &ds, err);
+    if (st != PW_OK)
+        return pw_status_exit_code(st);
+    const pw_component *c1 = NULL, *c2 = NULL;
+    st = find_component(co->lib, &ds, 0, &c1, err);
+    if (st == PW_OK)
+        st = find_component(co->lib, &ds, 1, &c2, err);
+    if (st == PW_OK) {
+        char stem[PW_PATH_MAX];
+        file_stem(input, stem, sizeof stem);
+        int n;
+        if (out)
+            n = snprintf(path, path_len, "%s", out);
+        else
+            n = snprintf(path, path_len, "%s/%s.%s.json", out_dir ? out_dir : "fits", stem,
+                         model->name);
+        if (n < 0 || (size_t)n >= path_len)
+            st = pw_error_set(err, PW_EINVAL, input, 0, "output path too long");
+    }
+    if (st == PW_OK && !out && ensure_dir(out_dir ? out_dir : "fits", err) != 0)
+        st = err->status;
+    /* Refuse early, before the work, when the fit file exists. */
+    if (st == PW_OK && !co->force) {
+        struct stat sb;
+        if (stat(path, &sb) == 0)
+            st = pw_error_set(err, PW_EEXIST, path, 0,
+                              "fit file exists (pass --force to replace it, or choose another --out)");
+    }
+    if (st == PW_OK)
+        st = pw_fit_run(&ds, c1, c2, model, &co->fit, r, err);
+    pw_dataset_free(&ds);
+    if (st != PW_OK)
+        return pw_status_exit_code(st);
+    if (!co->quiet) {
+        warn_ranges(r, input);
+        warn_fit(r, input);
+    }
+    st = pw_fitfile_write(path, r, co->force, err);
+    if (st != PW_OK) {
+        pw_fit_result_free(r);
+        return pw_status_exit_code(st);
+    }
+    return 0;
+}
+
+json_t *pw_fit_cli_json(const pw_fit_result *r, const char *path)
+{
+    json_t *o = pw_fitfile_to_json(r);
+    json_object_del(o, "data");
+    json_object_del(o, "component_data");
+    json_object_del(o, "format");
+    json_object_del(o, "format_version");
+    json_object_set_new(o, "fit_file", json_string(path));
+    return o;
+}
+
+typedef struct ranked {
+    const pw_model_type *model;
+    pw_fit_result r;
+    char path[PW_PATH_MAX];
+    int rc;
+    pw_error err;
+} ranked;
+
+static int cmp_aicc(const void *a, const void *b)
+{
+    const ranked *x = a, *y = b;
+    if (x->rc != y->rc)
+        return x->rc == 0 ? -1 : 1;
+    if (x->rc != 0)
+        return 0;
+    /* non-converged or split fits rank after the sound ones */
+    int bx = !x->r.converged || x->r.split, by = !y->r.converged || y->r.split;
+    if (bx != by)
+        return bx - by;
+    double ax = x->r.aicc, ay = y->r.aicc;
+    return (ax > ay) - (ax < ay);
+}
+
+int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_opts *co)
+{
+    size_t n;
+    const pw_model_type *const *models = pw_model_all(&n);
+    ranked *res = calloc(n, sizeof *res);
+    if (!res)
+        return pw_cli_failf("fit", pw_status_exit_code(PW_ENOMEM), "out of memory");
+    size_t ok = 0;
+    for (size_t i = 0; i < n; i++) {
+        res[i].model = models[i];
+        pw_error_clear(&res[i].err);
+        res[i].rc = pw_fit_one(input, models[i], NULL, out_dir, co, &res[i].r, res[i].path,
+                               sizeof res[i].path, &res[i].err);
+        ok += res[i].rc == 0;
+    }
+    qsort(res, n, sizeof *res, cmp_aicc);
+    int rc = 0;
+    double best_aicc = res[0].rc == 0 ? res[0].r.aicc : (double)NAN;
+    if (co->json) {
+        json_t *o = json_object();
+        json_object_set_new(o, "ranking", json_string("AICc (Hurvich & Tsai 1989); fits that did not "
+                                                      "converge or predict a liquid split rank last"));
+        json_t *arr = json_array(), *failed = json_array();
+        for (size_t i = 0; i < n; i++) {
+            if (res[i].rc != 0) {
+                char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
+                json_t *f = json_object();
+                json_object_set_new(f, "model", json_string(res[i].model->name));
+                json_object_set_new(f, "error", json_string(pw_error_format(&res[i].err, buf, sizeof buf)));
+                json_array_append_new(failed, f);
+                continue;
+            }
+            json_t *m = pw_fit_cli_json(&res[i].r, res[i].path);
+            json_object_set_new(m, "rank", json_integer((json_int_t)i + 1));
+            json_object_set_new(m, "delta_aicc", pw_cli_json_num(res[i].r.aicc - best_aicc));
+            json_array_append_new(arr, m);
+        }
+        json_object_set_new(o, "models", arr);
+        json_object_set_new(o, "failed", failed);
+        json_object_set_new(o, "best", ok ? json_string(res[0].model->name) : json_null());
+        rc = pw_cli_print_json(o);
+    } else {
+        printf("models ranked by AICc (lower is better; delta < 2: indistinguishable, > 10: no "
+               "support; Burnham & Anderson 2002)\n");
+        printf("  %-4s %-9s %9s %10s %10s %10s  %s\n", "rank", "model", "dAICc", "AAD y", "AAD T/K",
+               "AAD P/kPa", "notes");
+        for (size_t i = 0; i < n; i++) {
+            if (res[i].rc != 0) {
+                char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
+                printf("  %-4s %-9s  failed: %s\n", "-", res[i].model->name,
+                       pw_error_format(&res[i].err, buf, sizeof buf));
+                continue;
+            }
+            const pw_fit_result *r = &res[i].r;
+            char cy[16], cT[16], cP[16];
+            snprintf(cy, sizeof cy, isfinite(r->dev_y.aad) ? "%.4f" : "-", r->dev_y.aad);
+            snprintf(cT, sizeof cT, isfinite(r->dev_T_K.aad) ? "%.3f" : "-", r->dev_T_K.aad);
+            snprintf(cP, sizeof cP, isfinite(r->dev_P_Pa.aad) ? "%.4f" : "-", r->dev_P_Pa.aad / 1e3);
+            printf("  %-4zu %-9s %9.2f %10s %10s %10s  %s%s\n", i + 1, r->sys.model->name,
+                   r->aicc - best_aicc, cy, cT, cP, r->converged ? "" : "not converged ",
+                   r->split ? "liquid split predicted" : "");
+        }
+        for (size_t i = 0; i < n; i++)
+            if (res[i].rc == 0)
+                printf("  fit file: %s\n", res[i].path);
+    }
+    if (ok == 0) {
+        rc = pw_cli_fail("fit", &res[0].err);
+    }
+    for (size_t i = 0; i < n; i++)
+        pw_fit_result_free(&res[i].r);
+    free(res);
+    return rc;
+}

@@ -1,0 +1,32 @@
+/* Shared pieces of the fit command (single, all models, batch). */
+#ifndef PW_CLI_FIT_COMMON_H
+#define PW_CLI_FIT_COMMON_H
+
+#include <jansson.h>
+#include <pinchwise/component.h>
+#include <pinchwise/fit.h>
+#include <stdbool.h>
+#include <stddef.h>
+
+typedef struct pw_fit_cli_opts {
+    pw_fit_options fit;
+    const pw_complib *lib;
+    bool force, json;
+    bool quiet; /* no warnings on stderr (batch workers collect them instead) */
+} pw_fit_cli_opts;
+
+/* Reads input, fits model, writes the fit file (out, else out_dir/<stem>.<model>.json, else
+ * fits/<stem>.<model>.json) and leaves the result in r (caller frees) and its path in path.
+ * Returns 0, or the exit code with err filled (nothing written then). */
+int pw_fit_one(const char *input, const pw_model_type *model, const char *out, const char *out_dir,
+               const pw_fit_cli_opts *co, pw_fit_result *r, char *path, size_t path_len,
+               pw_error *err);
+
+/* The --json object of one fit: the fit file without the data and component blocks, plus
+ * "fit_file". New reference. */
+json_t *pw_fit_cli_json(const pw_fit_result *r, const char *path);
+
+/* --model all: fits every model, ranks them by AICc, prints table or JSON. Returns exit code. */
+int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_opts *co);
+
+#endif

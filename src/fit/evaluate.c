@@ -1,0 +1,162 @@
+/* Model values at the measured points, deviation statistics, information criteria, infinite-
+ * dilution activity coefficients and the liquid-stability screen of a fit result. */
+#include "fit_internal.h"
+
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+static bool is_pure(const pw_point *p) { return p->x1 <= 0.0 || p->x1 >= 1.0; }
+
+static void stat_init(pw_fit_stat *s)
+{
+    s->aad = s->bias = s->max_abs = 0.0;
+    s->max_line = 0;
+}
+
+static void stat_add(pw_fit_stat *s, double d, long line)
+{
+    s->aad += fabs(d);
+    s->bias += d;
+    if (fabs(d) > s->max_abs) {
+        s->max_abs = fabs(d);
+        s->max_line = line;
+    }
+}
+
+static void stat_done(pw_fit_stat *s, size_t n, bool measured)
+{
+    if (!measured || n == 0) {
+        s->aad = s->bias = s->max_abs = NAN;
+        s->max_line = 0;
+        return;
+    }
+    s->aad /= (double)n;
+    s->bias /= (double)n;
+}
+
+/* ln gamma_i from one measurement, modified Raoult's law: gamma_i = y_i P / (x_i P_i^sat(T)). */
+static void lngamma_from_point(const pw_system *s, const pw_point *p, bool has_y, double out[2])
+{
+    out[0] = out[1] = NAN;
+    if (!has_y)
+        return;
+    double x[2] = {p->x1, 1.0 - p->x1}, y[2] = {p->y1, 1.0 - p->y1};
+    for (int i = 0; i < 2; i++) {
+        double Ps;
+        if (x[i] > 0.0 && y[i] > 0.0 && pw_psat(&s->comp[i], p->T_K, &Ps, NULL) == PW_OK)
+            out[i] = log(y[i] * p->P_Pa / (x[i] * Ps));
+    }
+}
+
+pw_status pw_fit_evaluate(pw_fit_result *r)
+{
+    if (!r || !r->sys.model)
+        return PW_EINVAL;
+    pw_status st = r->sys.model->check(r->sys.params);
+    if (st != PW_OK)
+        return st;
+    bool isobaric = r->kind == PW_DATA_ISOBARIC;
+    pw_fit_stat dy, dT, dP;
+    stat_init(&dy);
+    stat_init(&dT);
+    stat_init(&dP);
+    size_t n_used = 0;
+    pw_status first_failure = PW_OK;
+    for (size_t i = 0; i < r->n_pts; i++) {
+        pw_fit_point *fpnt = &r->pts[i];
+        const pw_point *m = &fpnt->meas;
+        pw_eq_point eq;
+        pw_status pst = isobaric ? pw_bubble_T(&r->sys, m->P_Pa, m->x1, &eq)
+                                 : pw_bubble_P(&r->sys, m->T_K, m->x1, &eq);
+        fpnt->T_calc_K = pst == PW_OK ? eq.T_K : (double)NAN;
+        fpnt->P_calc_Pa = pst == PW_OK ? eq.P_Pa : (double)NAN;
+        fpnt->y_calc = pst == PW_OK ? eq.y1 : (double)NAN;
+        lngamma_from_point(&r->sys, m, r->has_y, fpnt->lngamma_exp);
+        if (fpnt->excluded || is_pure(m))
+            continue;
+        if (pst != PW_OK) {
+            if (first_failure == PW_OK)
+                first_failure = pst;
+            continue;
+        }
+        n_used++;
+        if (r->has_y)
+            stat_add(&dy, eq.y1 - m->y1, m->line);
+        if (isobaric)
+            stat_add(&dT, eq.T_K - m->T_K, m->line);
+        else
+            stat_add(&dP, eq.P_Pa - m->P_Pa, m->line);
+    }
+    stat_done(&dy, n_used, r->has_y);
+    stat_done(&dT, n_used, isobaric);
+    stat_done(&dP, n_used, !isobaric);
+    r->dev_y = dy;
+    r->dev_T_K = dT;
+    r->dev_P_Pa = dP;
+
+    /* Information criteria (least squares, variance estimated: k = fitted parameters + 1;
+     * Akaike 1974, Hurvich & Tsai 1989, Schwarz 1978). */
+    double n = (double)r->n_residuals, k = (double)r->n_fitted + 1.0;
+    if (r->n_residuals > 0 && r->chi2 > 0.0 && isfinite(r->chi2)) {
+        r->aic = n * log(r->chi2 / n) + 2.0 * k;
+        r->aicc = n - k - 1.0 > 0.0 ? r->aic + 2.0 * k * (k + 1.0) / (n - k - 1.0) : (double)INFINITY;
+        r->bic = n * log(r->chi2 / n) + k * log(n);
+    } else {
+        r->aic = r->aicc = r->bic = NAN;
+    }
+    r->chi2_red = r->dof > 0 ? r->chi2 / (double)r->dof : (double)NAN;
+
+    pw_activity a0, a1;
+    if (pw_system_activity(&r->sys, 0.0, r->sys.T_ref_K, &a0) == PW_OK &&
+        pw_system_activity(&r->sys, 1.0, r->sys.T_ref_K, &a1) == PW_OK) {
+        r->lngamma_inf[0] = a0.lngamma[0];
+        r->lngamma_inf[1] = a1.lngamma[1];
+    } else {
+        r->lngamma_inf[0] = r->lngamma_inf[1] = NAN;
+    }
+
+    /* Liquid-stability screen (METHODS 1.6) at five temperatures over the data's range. */
+    r->split = false;
+    r->split_min_D = INFINITY;
+    r->split_x = NAN;
+    r->split_T_K = NAN;
+    double lo = isfinite(r->T_min_K) ? r->T_min_K : r->sys.T_ref_K;
+    double hi = isfinite(r->T_max_K) ? r->T_max_K : r->sys.T_ref_K;
+    for (int i = 0; i < 5; i++) {
+        double T = lo + (hi - lo) * i / 4.0, D, x;
+        if (pw_stability_min(&r->sys, T, &D, &x) != PW_OK)
+            continue;
+        if (D < r->split_min_D) {
+            r->split_min_D = D;
+            r->split_x = x;
+            r->split_T_K = T;
+        }
+    }
+    r->split = r->split_min_D < 0.0;
+    return first_failure;
+}
+
+void pw_fit_result_free(pw_fit_result *r)
+{
+    if (!r)
+        return;
+    free(r->pts);
+    r->pts = NULL;
+    r->n_pts = 0;
+}
+
+pw_status pw_fit_result_copy(pw_fit_result *dst, const pw_fit_result *src)
+{
+    *dst = *src;
+    dst->pts = NULL;
+    if (src->n_pts) {
+        dst->pts = malloc(sizeof *dst->pts * src->n_pts);
+        if (!dst->pts) {
+            dst->n_pts = 0;
+            return PW_ENOMEM;
+        }
+        memcpy(dst->pts, src->pts, sizeof *dst->pts * src->n_pts);
+    }
+    return PW_OK;
+}

@@ -1,0 +1,39 @@
+/* Private interface of the fitting module. */
+#ifndef PW_FIT_INTERNAL_H
+#define PW_FIT_INTERNAL_H
+
+#include <pinchwise/fit.h>
+
+/* The regression problem: which points and parameters, the weights, the fixed values. */
+typedef struct fit_problem {
+    pw_system sys;              /* parameters here are the current full vector */
+    pw_objective objective;
+    const pw_point *pts;        /* the used points only */
+    size_t n_pts;
+    size_t idx[PW_MAX_PARAMS];  /* full-vector index of each fitted parameter */
+    double scale[PW_MAX_PARAMS];/* fitted value = scale * internal unknown */
+    size_t n_fit;
+    size_t n_res;               /* residuals: 1 or 2 per point */
+    double sigma_T_K, sigma_P_rel, sigma_P_abs_Pa, sigma_y;
+    double P_fixed_Pa, T_fixed_K;
+} fit_problem;
+
+/* Residual count of one point for the objective. */
+size_t fit_residuals_per_point(pw_objective obj);
+
+/* Full parameter vector from the internal unknowns u (n_fit values). */
+void fit_unpack(const fit_problem *fp, const double *u, double *params);
+
+/* Weighted residuals f (n_res) and, when J is not NULL, their Jacobian in the internal
+ * unknowns, row-major n_res x n_fit. Returns the first failing status of a point. */
+pw_status fit_eval(const fit_problem *fp, const double *params, double *f, double *J);
+
+/* Sum of squares of the weighted residuals at params; INFINITY when a point fails. */
+double fit_chi2(const fit_problem *fp, const double *params, double *work);
+
+/* Covariance (J^T J)^-1 in the full parameter space from the Jacobian J (row-major n x p, in
+ * internal unknowns) through an SVD (LAPACK dgesdd). PW_ESINGULAR when J is rank-deficient. */
+pw_status fit_covariance(const fit_problem *fp, const double *J, size_t n, double s2,
+                         double cov[PW_MAX_PARAMS][PW_MAX_PARAMS]);
+
+#endif

@@ -1,0 +1,355 @@
+/* Reading fit files back into a pw_fit_result, validating structure, names and numbers.
+ * Every problem is reported as "FILE: what is wrong (what was expected)"; JSON syntax errors
+ * carry jansson's line number. */
+#include "fitfile_internal.h"
+
+#include <math.h>
+#include <pinchwise/fitjson.h>
+#include <stdarg.h>
+#include <pinchwise/fileio.h>
+#include <pinchwise/units.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define FITFILE_MAX_BYTES (256u * 1024u * 1024u)
+
+typedef struct reader {
+    const char *name;
+    pw_error *err;
+    pw_status st;
+} reader;
+
+static void fail(reader *rd, const char *fmt, ...) __attribute__((format(printf, 2, 3)));
+
+static void fail(reader *rd, const char *fmt, ...)
+{
+    if (rd->st != PW_OK)
+        return;
+    char msg[PW_ERROR_MSG_MAX];
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(msg, sizeof msg, fmt, ap);
+    va_end(ap);
+    rd->st = pw_error_set(rd->err, PW_EPARSE, rd->name, 0, "%s", msg);
+}
+
+/* A number (or null meaning NAN when nullable). */
+static double get_num(reader *rd, const json_t *obj, const char *key, bool nullable)
+{
+    const json_t *v = json_object_get(obj, key);
+    if (v && json_is_number(v)) {
+        double d = json_number_value(v);
+        if (isfinite(d))
+            return d;
+    }
+    if (nullable && (!v || json_is_null(v)))
+        return NAN;
+    fail(rd, "key \"%s\" must be a finite number%s", key, nullable ? " or null" : "");
+    return NAN;
+}
+
+static const char *get_str(reader *rd, const json_t *obj, const char *key)
+{
+    const json_t *v = json_object_get(obj, key);
+    if (v && json_is_string(v))
+        return json_string_value(v);
+    fail(rd, "key \"%s\" must be a string", key);
+    return "";
+}
+
+static void copy_str(char *dst, size_t n, const char *src) { snprintf(dst, n, "%s", src); }
+
+static void read_component(reader *rd, const json_t *c, pw_component *out)
+{
+    memset(out, 0, sizeof *out);
+    if (!json_is_object(c)) {
+        fail(rd, "\"component_data\" entries must be objects");
+        return;
+    }
+    copy_str(out->name, sizeof out->name, get_str(rd, c, "name"));
+    const char *eq = get_str(rd, c, "equation");
+    if (!strcmp(eq, "iapws-if97"))
+        out->equation = PW_PSAT_IAPWS_IF97;
+    else if (!strcmp(eq, "antoine"))
+        out->equation = PW_PSAT_ANTOINE;
+    else
+        fail(rd, "component equation \"%s\" is unknown (expected antoine or iapws-if97)", eq);
+    out->A = get_num(rd, c, "A", false);
+    out->B = get_num(rd, c, "B", false);
+    out->C = get_num(rd, c, "C", false);
+    const char *lg = get_str(rd, c, "log");
+    if (!strcmp(lg, "ln"))
+        out->log = PW_LN;
+    else if (!strcmp(lg, "log10"))
+        out->log = PW_LOG10;
+    else
+        fail(rd, "component log \"%s\" is unknown (expected log10 or ln)", lg);
+    copy_str(out->P_unit, sizeof out->P_unit, get_str(rd, c, "P_unit"));
+    copy_str(out->T_unit, sizeof out->T_unit, get_str(rd, c, "T_unit"));
+    if (rd->st == PW_OK && !pw_units_known(PW_QTY_PRESSURE, out->P_unit))
+        fail(rd, "component P_unit \"%s\" is unknown (expected %s)", out->P_unit,
+             pw_units_list(PW_QTY_PRESSURE));
+    if (rd->st == PW_OK && !pw_units_known(PW_QTY_TEMPERATURE, out->T_unit))
+        fail(rd, "component T_unit \"%s\" is unknown (expected %s)", out->T_unit,
+             pw_units_list(PW_QTY_TEMPERATURE));
+    out->T_min_K = get_num(rd, c, "T_min_K", false);
+    out->T_max_K = get_num(rd, c, "T_max_K", false);
+    out->V_L_cm3mol = get_num(rd, c, "V_L_cm3mol", true);
+    copy_str(out->source, sizeof out->source, get_str(rd, c, "source"));
+    if (rd->st == PW_OK && !(out->T_min_K < out->T_max_K))
+        fail(rd, "component \"%s\": T_min_K must be below T_max_K", out->name);
+}
+
+static void read_params(reader *rd, const json_t *obj, const pw_model_type *m, double *v,
+                        bool required)
+{
+    if (!json_is_object(obj)) {
+        fail(rd, "\"parameters\" must be an object");
+        return;
+    }
+    for (size_t k = 0; k < m->n_params; k++) {
+        const json_t *p = json_object_get(obj, m->param_names[k]);
+        if (!p) {
+            if (required)
+                fail(rd, "parameter \"%s\" of model %s is missing", m->param_names[k], m->name);
+            continue;
+        }
+        v[k] = get_num(rd, obj, m->param_names[k], !required);
+    }
+}
+
+static void read_points(reader *rd, const json_t *data, pw_fit_result *r)
+{
+    const json_t *pts = json_object_get(data, "points");
+    if (!json_is_array(pts) || json_array_size(pts) == 0) {
+        fail(rd, "\"data.points\" must be a non-empty array");
+        return;
+    }
+    r->n_pts = json_array_size(pts);
+    r->pts = calloc(r->n_pts, sizeof *r->pts);
+    if (!r->pts) {
+        r->n_pts = 0;
+        rd->st = pw_error_set(rd->err, PW_ENOMEM, rd->name, 0, "out of memory");
+        return;
+    }
+    for (size_t i = 0; i < r->n_pts && rd->st == PW_OK; i++) {
+        const json_t *p = json_array_get(pts, i);
+        pw_fit_point *fp = &r->pts[i];
+        if (!json_is_object(p)) {
+            fail(rd, "\"data.points\" entries must be objects");
+            return;
+        }
+        const json_t *line = json_object_get(p, "line");
+        fp->meas.line = json_is_integer(line) ? (long)json_integer_value(line) : 0;
+        fp->meas.x1 = get_num(rd, p, "x1", false);
+        fp->meas.y1 = get_num(rd, p, "y1", true);
+        fp->meas.T_K = get_num(rd, p, "T_K", false);
+        fp->meas.P_Pa = get_num(rd, p, "P_Pa", false);
+        fp->excluded = json_is_true(json_object_get(p, "excluded"));
+        if (rd->st == PW_OK && (!(fp->meas.x1 >= 0.0 && fp->meas.x1 <= 1.0) ||
+                                !(fp->meas.T_K > 0.0) || !(fp->meas.P_Pa > 0.0)))
+            fail(rd, "a data point has x1 outside [0, 1] or non-positive T or P");
+        if (rd->st == PW_OK && r->has_y && !(fp->meas.y1 >= 0.0 && fp->meas.y1 <= 1.0))
+            fail(rd, "a data point has y1 missing or outside [0, 1]");
+    }
+}
+
+static void read_matrix(reader *rd, const json_t *o, const char *key, size_t n,
+                        double out[PW_MAX_PARAMS][PW_MAX_PARAMS])
+{
+    const json_t *m = json_object_get(o, key);
+    if (!json_is_array(m) || json_array_size(m) != n) {
+        fail(rd, "\"%s\" must be a square array of the model's parameter count", key);
+        return;
+    }
+    for (size_t a = 0; a < n; a++) {
+        const json_t *row = json_array_get(m, a);
+        if (!json_is_array(row) || json_array_size(row) != n) {
+            fail(rd, "\"%s\" must be a square array of the model's parameter count", key);
+            return;
+        }
+        for (size_t b = 0; b < n; b++) {
+            const json_t *v = json_array_get(row, b);
+            out[a][b] = json_is_number(v) ? json_number_value(v) : (double)NAN;
+        }
+    }
+}
+
+static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
+{
+    if (!json_is_object(root)) {
+        fail(rd, "not a pinchwise fit file (expected a JSON object)");
+        return;
+    }
+    const char *fmt = get_str(rd, root, "format");
+    if (rd->st == PW_OK && strcmp(fmt, PW_FITFILE_FORMAT) != 0)
+        fail(rd, "not a pinchwise fit file (format \"%s\", expected \"%s\")", fmt, PW_FITFILE_FORMAT);
+    const json_t *ver = json_object_get(root, "format_version");
+    if (rd->st == PW_OK && (!json_is_integer(ver) || json_integer_value(ver) != PW_FITFILE_VERSION))
+        fail(rd, "unsupported fit-file format_version (expected 1)");
+    const char *mname = get_str(rd, root, "model");
+    const pw_model_type *m = pw_model_find(mname);
+    if (rd->st == PW_OK && !m)
+        fail(rd, "unknown model \"%s\" (expected margules, vanlaar, wilson or nrtl)", mname);
+    if (rd->st != PW_OK)
+        return;
+    r->sys.model = m;
+    const json_t *comps = json_object_get(root, "component_data");
+    if (!json_is_array(comps) || json_array_size(comps) != 2) {
+        fail(rd, "\"component_data\" must hold exactly two components");
+        return;
+    }
+    read_component(rd, json_array_get(comps, 0), &r->sys.comp[0]);
+    read_component(rd, json_array_get(comps, 1), &r->sys.comp[1]);
+    for (size_t k = 0; k < PW_MAX_PARAMS; k++) {
+        r->stderr_[k] = NAN;
+        r->ci95[k][0] = r->ci95[k][1] = NAN;
+    }
+    read_params(rd, json_object_get(root, "parameters"), m, r->sys.params, true);
+    const json_t *se = json_object_get(root, "stderr");
+    if (json_is_object(se))
+        read_params(rd, se, m, r->stderr_, false);
+    const json_t *fixed = json_object_get(root, "fixed");
+    for (size_t k = 0; k < m->n_params; k++)
+        r->fitted[k] = true;
+    if (json_is_array(fixed)) {
+        size_t i;
+        const json_t *f;
+        json_array_foreach(fixed, i, f) {
+            int k = json_is_string(f) ? pw_model_param_index(m, json_string_value(f)) : -1;
+            if (k < 0)
+                fail(rd, "\"fixed\" names an unknown parameter");
+            else
+                r->fitted[k] = false;
+        }
+    }
+    r->n_fitted = 0;
+    for (size_t k = 0; k < m->n_params; k++)
+        r->n_fitted += r->fitted[k];
+    const json_t *ci = json_object_get(root, "ci95");
+    for (size_t k = 0; k < m->n_params && json_is_object(ci); k++) {
+        const json_t *pair = json_object_get(ci, m->param_names[k]);
+        if (json_is_array(pair) && json_array_size(pair) == 2) {
+            const json_t *lo = json_array_get(pair, 0), *hi = json_array_get(pair, 1);
+            r->ci95[k][0] = json_is_number(lo) ? json_number_value(lo) : (double)NAN;
+            r->ci95[k][1] = json_is_number(hi) ? json_number_value(hi) : (double)NAN;
+        }
+    }
+    read_matrix(rd, root, "covariance", m->n_params, r->cov);
+    read_matrix(rd, root, "correlation", m->n_params, r->corr);
+    r->sys.T_ref_K = get_num(rd, root, "T_ref_K", false);
+    r->converged = json_is_true(json_object_get(root, "converged"));
+    if (rd->st == PW_OK && m->check(r->sys.params) != PW_OK)
+        fail(rd, "the parameters lie outside the domain of model %s", m->name);
+    if (rd->st == PW_OK && !(r->sys.T_ref_K > 0.0))
+        fail(rd, "T_ref_K must be positive");
+
+    const json_t *data = json_object_get(root, "data");
+    if (!json_is_object(data)) {
+        fail(rd, "\"data\" must be an object");
+        return;
+    }
+    const char *kind = get_str(rd, data, "kind");
+    if (!strcmp(kind, "isobaric"))
+        r->kind = PW_DATA_ISOBARIC;
+    else if (!strcmp(kind, "isothermal"))
+        r->kind = PW_DATA_ISOTHERMAL;
+    else
+        fail(rd, "data kind \"%s\" is unknown (expected isobaric or isothermal)", kind);
+    r->P_fixed_Pa = get_num(rd, data, "P_fixed_Pa", r->kind != PW_DATA_ISOBARIC);
+    r->T_fixed_K = get_num(rd, data, "T_fixed_K", r->kind != PW_DATA_ISOTHERMAL);
+    r->has_y = json_is_true(json_object_get(data, "has_y"));
+    r->objective = r->kind == PW_DATA_ISOBARIC ? (r->has_y ? PW_OBJ_TXY : PW_OBJ_TX)
+                                               : (r->has_y ? PW_OBJ_PXY : PW_OBJ_PX);
+    read_points(rd, data, r);
+
+    const json_t *st = json_object_get(root, "statistics");
+    if (json_is_object(st)) {
+        r->chi2 = get_num(rd, st, "chi2", true);
+        const json_t *n = json_object_get(st, "residuals"), *d = json_object_get(st, "dof");
+        r->n_residuals = json_is_integer(n) ? (size_t)json_integer_value(n) : 0;
+        r->dof = json_is_integer(d) ? (size_t)json_integer_value(d) : 0;
+    }
+    const json_t *sig = json_object_get(root, "sigmas");
+    if (json_is_object(sig)) {
+        r->sigma_T_K = get_num(rd, sig, "T_K", true);
+        r->sigma_P_rel = get_num(rd, sig, "P_relative", true);
+        r->sigma_y = get_num(rd, sig, "y", true);
+    }
+    const json_t *mins = json_object_get(root, "minima");
+    if (json_is_array(mins)) {
+        size_t i;
+        const json_t *mi;
+        json_array_foreach(mins, i, mi) {
+            if (i >= PW_FIT_MAX_MINIMA || !json_is_object(mi))
+                break;
+            memcpy(r->minima[i].params, r->sys.params, sizeof r->sys.params);
+            read_params(rd, json_object_get(mi, "parameters"), m, r->minima[i].params, false);
+            r->minima[i].chi2 = get_num(rd, mi, "chi2", true);
+            const json_t *h = json_object_get(mi, "starts");
+            r->minima[i].hits = json_is_integer(h) ? (size_t)json_integer_value(h) : 0;
+            r->n_minima = i + 1;
+        }
+    }
+    const json_t *range = json_object_get(root, "data_range");
+    r->T_min_K = json_is_object(range) ? get_num(rd, range, "T_min_K", true) : (double)NAN;
+    r->T_max_K = json_is_object(range) ? get_num(rd, range, "T_max_K", true) : (double)NAN;
+    const json_t *ex = json_object_get(root, "excluded");
+    if (json_is_object(ex) && json_is_string(json_object_get(ex, "reason")))
+        copy_str(r->exclude_reason, sizeof r->exclude_reason,
+                 json_string_value(json_object_get(ex, "reason")));
+    const json_t *prov = json_object_get(root, "provenance");
+    if (json_is_object(prov)) {
+        copy_str(r->dataset_path, sizeof r->dataset_path, get_str(rd, prov, "dataset"));
+        copy_str(r->dataset_sha256, sizeof r->dataset_sha256, get_str(rd, prov, "dataset_sha256"));
+        copy_str(r->source, sizeof r->source, get_str(rd, prov, "source"));
+        copy_str(r->version, sizeof r->version, get_str(rd, prov, "version"));
+        copy_str(r->created, sizeof r->created, get_str(rd, prov, "created"));
+    }
+    const char *stop = json_is_string(json_object_get(root, "stop_reason"))
+                           ? json_string_value(json_object_get(root, "stop_reason"))
+                           : "";
+    for (int s = PW_STOP_NONE; s <= PW_STOP_FAILED; s++)
+        if (!strcmp(stop, pw_fit_stop_name((pw_stop_reason)s)))
+            r->stop = (pw_stop_reason)s;
+}
+
+pw_status pw_fitfile_parse(const char *buf, size_t len, const char *name, pw_fit_result *r,
+                           pw_error *err)
+{
+    memset(r, 0, sizeof *r);
+    json_error_t jerr;
+    json_t *root = json_loadb(buf, len, JSON_REJECT_DUPLICATES, &jerr);
+    if (!root)
+        return pw_error_set(err, PW_EPARSE, name, jerr.line > 0 ? jerr.line : 0,
+                            "not valid JSON: %s (expected a pinchwise fit file)", jerr.text);
+    reader rd = {.name = name, .err = err, .st = PW_OK};
+    read_body(&rd, root, r);
+    json_decref(root);
+    if (rd.st == PW_OK) {
+        /* Recompute the derived values so that they always match the parameters. */
+        double chi2 = r->chi2;
+        pw_status st = pw_fit_evaluate(r);
+        r->chi2 = chi2;
+        if (st != PW_OK && st != PW_ENOBRACKET && st != PW_EMAXITER && st != PW_ENOCONV)
+            rd.st = pw_error_set(err, st, name, 0, "the fitted model cannot be evaluated: %s",
+                                 pw_strerror(st));
+    }
+    if (rd.st != PW_OK)
+        pw_fit_result_free(r);
+    return rd.st;
+}
+
+pw_status pw_fitfile_read(const char *path, pw_fit_result *r, pw_error *err)
+{
+    char *buf;
+    size_t len;
+    memset(r, 0, sizeof *r);
+    pw_status st = pw_read_file(path, FITFILE_MAX_BYTES, &buf, &len, err);
+    if (st != PW_OK)
+        return st;
+    st = pw_fitfile_parse(buf, len, path, r, err);
+    free(buf);
+    return st;
+}

@@ -1,0 +1,256 @@
+/* Fit files: JSON documents (jansson) that hold everything needed to compute the phase
+ * equilibrium again, the measured points with their residuals, and the provenance.
+ * The layout is described in docs/fit-file.md. Writes are atomic: a temporary file in the same
+ * folder, fsync, then link (no clobber) or rename (with force). */
+#include "fitfile_internal.h"
+
+#include <pinchwise/fileio.h>
+#include <pinchwise/fitjson.h>
+
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+static json_t *num(double v) { return isfinite(v) ? json_real(v) : json_null(); }
+
+static const char *objective_name(pw_objective o)
+{
+    switch (o) {
+    case PW_OBJ_TXY: return "T-x-y";
+    case PW_OBJ_PXY: return "P-x-y";
+    case PW_OBJ_PX: return "P-x (Barker)";
+    case PW_OBJ_TX: return "T-x (Barker)";
+    }
+    return "unknown";
+}
+
+const char *pw_fit_stop_name(pw_stop_reason s)
+{
+    switch (s) {
+    case PW_STOP_NONE: return "not run";
+    case PW_STOP_STEP: return "step below tolerance";
+    case PW_STOP_GRADIENT: return "gradient below tolerance";
+    case PW_STOP_MAXITER: return "iteration limit reached";
+    case PW_STOP_FAILED: return "model evaluation failed";
+    }
+    return "unknown";
+}
+
+static json_t *component_json(const pw_component *c)
+{
+    json_t *o = json_object();
+    json_object_set_new(o, "name", json_string(c->name));
+    json_object_set_new(o, "equation",
+                        json_string(c->equation == PW_PSAT_IAPWS_IF97 ? "iapws-if97" : "antoine"));
+    json_object_set_new(o, "A", num(c->A));
+    json_object_set_new(o, "B", num(c->B));
+    json_object_set_new(o, "C", num(c->C));
+    json_object_set_new(o, "log", json_string(c->log == PW_LN ? "ln" : "log10"));
+    json_object_set_new(o, "P_unit", json_string(c->P_unit));
+    json_object_set_new(o, "T_unit", json_string(c->T_unit));
+    json_object_set_new(o, "T_min_K", num(c->T_min_K));
+    json_object_set_new(o, "T_max_K", num(c->T_max_K));
+    json_object_set_new(o, "V_L_cm3mol", num(c->V_L_cm3mol));
+    json_object_set_new(o, "source", json_string(c->source));
+    return o;
+}
+
+static json_t *stat_json(const pw_fit_stat *s, double scale)
+{
+    json_t *o = json_object();
+    json_object_set_new(o, "aad", num(s->aad * scale));
+    json_object_set_new(o, "bias", num(s->bias * scale));
+    json_object_set_new(o, "max_abs", num(s->max_abs * scale));
+    json_object_set_new(o, "max_line", s->max_line ? json_integer(s->max_line) : json_null());
+    return o;
+}
+
+static json_t *param_object(const pw_fit_result *r, const double *v, bool fitted_only)
+{
+    json_t *o = json_object();
+    for (size_t k = 0; k < r->sys.model->n_params; k++)
+        if (!fitted_only || r->fitted[k])
+            json_object_set_new(o, r->sys.model->param_names[k], num(v[k]));
+    return o;
+}
+
+json_t *pw_fitfile_summary_json(const pw_fit_result *r)
+{
+    const pw_model_type *m = r->sys.model;
+    json_t *o = json_object();
+    json_object_set_new(o, "model", json_string(m->name));
+    json_object_set_new(o, "converged", json_boolean(r->converged));
+    json_t *names = json_array();
+    json_array_append_new(names, json_string(r->sys.comp[0].name));
+    json_array_append_new(names, json_string(r->sys.comp[1].name));
+    json_object_set_new(o, "components", names);
+    json_object_set_new(o, "parameters", param_object(r, r->sys.params, false));
+    json_object_set_new(o, "stderr", param_object(r, r->stderr_, false));
+    json_t *fixed = json_array();
+    for (size_t k = 0; k < m->n_params; k++)
+        if (!r->fitted[k])
+            json_array_append_new(fixed, json_string(m->param_names[k]));
+    json_object_set_new(o, "fixed", fixed);
+    json_t *lgi = json_array();
+    json_array_append_new(lgi, num(r->lngamma_inf[0]));
+    json_array_append_new(lgi, num(r->lngamma_inf[1]));
+    json_object_set_new(o, "ln_gamma_inf", lgi);
+    json_object_set_new(o, "T_ref_K", num(r->sys.T_ref_K));
+    json_object_set_new(o, "aad_y", r->has_y ? num(r->dev_y.aad) : json_null());
+    json_object_set_new(o, "aad_T_K", r->kind == PW_DATA_ISOBARIC ? num(r->dev_T_K.aad) : json_null());
+    json_object_set_new(o, "aad_P_kPa",
+                        r->kind == PW_DATA_ISOTHERMAL ? num(r->dev_P_Pa.aad / 1000.0) : json_null());
+    return o;
+}
+
+json_t *pw_fitfile_to_json(const pw_fit_result *r)
+{
+    const pw_model_type *m = r->sys.model;
+    json_t *o = pw_fitfile_summary_json(r);
+    json_object_set_new(o, "format", json_string(PW_FITFILE_FORMAT));
+    json_object_set_new(o, "format_version", json_integer(PW_FITFILE_VERSION));
+    json_object_set_new(o, "objective", json_string(objective_name(r->objective)));
+    json_object_set_new(o, "stop_reason", json_string(pw_fit_stop_name(r->stop)));
+
+    json_t *ci = json_object();
+    for (size_t k = 0; k < m->n_params; k++)
+        if (r->fitted[k]) {
+            json_t *pair = json_array();
+            json_array_append_new(pair, num(r->ci95[k][0]));
+            json_array_append_new(pair, num(r->ci95[k][1]));
+            json_object_set_new(ci, m->param_names[k], pair);
+        }
+    json_object_set_new(o, "ci95", ci);
+    json_t *cov = json_array(), *cor = json_array();
+    for (size_t a = 0; a < m->n_params; a++) {
+        json_t *rc = json_array(), *rr = json_array();
+        for (size_t b = 0; b < m->n_params; b++) {
+            json_array_append_new(rc, num(r->cov[a][b]));
+            json_array_append_new(rr, num(r->corr[a][b]));
+        }
+        json_array_append_new(cov, rc);
+        json_array_append_new(cor, rr);
+    }
+    json_object_set_new(o, "covariance", cov);
+    json_object_set_new(o, "correlation", cor);
+
+    json_t *st = json_object();
+    json_object_set_new(st, "chi2", num(r->chi2));
+    json_object_set_new(st, "chi2_per_dof", num(r->chi2_red));
+    json_object_set_new(st, "residuals", json_integer((json_int_t)r->n_residuals));
+    json_object_set_new(st, "dof", json_integer((json_int_t)r->dof));
+    json_object_set_new(st, "aic", num(r->aic));
+    json_object_set_new(st, "aicc", num(r->aicc));
+    json_object_set_new(st, "bic", num(r->bic));
+    json_object_set_new(st, "iterations", json_integer((json_int_t)r->iterations));
+    json_object_set_new(st, "function_evaluations", json_integer((json_int_t)r->n_fev));
+    json_object_set_new(st, "jacobian_evaluations", json_integer((json_int_t)r->n_jev));
+    json_object_set_new(st, "deviation_y", stat_json(&r->dev_y, 1.0));
+    json_object_set_new(st, "deviation_T_K", stat_json(&r->dev_T_K, 1.0));
+    json_object_set_new(st, "deviation_P_kPa", stat_json(&r->dev_P_Pa, 1e-3));
+    json_object_set_new(o, "statistics", st);
+
+    json_t *sig = json_object();
+    json_object_set_new(sig, "T_K", num(r->sigma_T_K));
+    json_object_set_new(sig, "P_relative", num(r->sigma_P_rel));
+    json_object_set_new(sig, "y", num(r->sigma_y));
+    json_object_set_new(o, "sigmas", sig);
+
+    json_t *mins = json_array();
+    for (size_t i = 0; i < r->n_minima; i++) {
+        json_t *mi = json_object();
+        json_object_set_new(mi, "parameters", param_object(r, r->minima[i].params, true));
+        json_object_set_new(mi, "chi2", num(r->minima[i].chi2));
+        json_object_set_new(mi, "starts", json_integer((json_int_t)r->minima[i].hits));
+        json_array_append_new(mins, mi);
+    }
+    json_object_set_new(o, "minima", mins);
+
+    json_t *split = json_object();
+    json_object_set_new(split, "predicted", json_boolean(r->split));
+    json_object_set_new(split, "min_D", num(r->split_min_D));
+    json_object_set_new(split, "x1_at_min", num(r->split_x));
+    json_object_set_new(split, "T_K_at_min", num(r->split_T_K));
+    json_object_set_new(o, "liquid_split", split);
+
+    json_t *range = json_object();
+    json_object_set_new(range, "T_min_K", num(r->T_min_K));
+    json_object_set_new(range, "T_max_K", num(r->T_max_K));
+    json_object_set_new(o, "data_range", range);
+
+    json_t *comps = json_array();
+    json_array_append_new(comps, component_json(&r->sys.comp[0]));
+    json_array_append_new(comps, component_json(&r->sys.comp[1]));
+    json_object_set_new(o, "component_data", comps);
+
+    json_t *data = json_object();
+    json_object_set_new(data, "kind", json_string(r->kind == PW_DATA_ISOBARIC ? "isobaric" : "isothermal"));
+    json_object_set_new(data, "P_fixed_Pa", num(r->P_fixed_Pa));
+    json_object_set_new(data, "T_fixed_K", num(r->T_fixed_K));
+    json_object_set_new(data, "has_y", json_boolean(r->has_y));
+    json_t *pts = json_array();
+    for (size_t i = 0; i < r->n_pts; i++) {
+        const pw_fit_point *p = &r->pts[i];
+        json_t *pj = json_object();
+        json_object_set_new(pj, "line", json_integer(p->meas.line));
+        json_object_set_new(pj, "x1", num(p->meas.x1));
+        json_object_set_new(pj, "y1", num(p->meas.y1));
+        json_object_set_new(pj, "T_K", num(p->meas.T_K));
+        json_object_set_new(pj, "P_Pa", num(p->meas.P_Pa));
+        json_object_set_new(pj, "excluded", json_boolean(p->excluded));
+        json_object_set_new(pj, "T_calc_K", num(p->T_calc_K));
+        json_object_set_new(pj, "P_calc_Pa", num(p->P_calc_Pa));
+        json_object_set_new(pj, "y1_calc", num(p->y_calc));
+        json_object_set_new(pj, "ln_gamma1_exp", num(p->lngamma_exp[0]));
+        json_object_set_new(pj, "ln_gamma2_exp", num(p->lngamma_exp[1]));
+        json_array_append_new(pts, pj);
+    }
+    json_object_set_new(data, "points", pts);
+    json_object_set_new(o, "data", data);
+
+    json_t *ex = json_object();
+    json_t *lines = json_array();
+    for (size_t i = 0; i < r->n_pts; i++)
+        if (r->pts[i].excluded)
+            json_array_append_new(lines, json_integer(r->pts[i].meas.line));
+    json_object_set_new(ex, "lines", lines);
+    json_object_set_new(ex, "reason", json_string(r->exclude_reason));
+    json_object_set_new(o, "excluded", ex);
+
+    json_t *prov = json_object();
+    json_object_set_new(prov, "dataset", json_string(r->dataset_path));
+    json_object_set_new(prov, "dataset_sha256", json_string(r->dataset_sha256));
+    json_object_set_new(prov, "source", json_string(r->source));
+    json_object_set_new(prov, "program", json_string("pinchwise"));
+    json_object_set_new(prov, "version", json_string(r->version));
+    json_object_set_new(prov, "created", json_string(r->created));
+    json_object_set_new(o, "provenance", prov);
+    json_object_set_new(o, "caution",
+                        json_string("Screening estimate from a correlation fitted to laboratory data. "
+                                    "Verify with rigorous simulation and plant or pilot data; design "
+                                    "equipment and relief per local codes under licensed engineering "
+                                    "review."));
+    return o;
+}
+
+pw_status pw_fitfile_write(const char *path, const pw_fit_result *r, bool force, pw_error *err)
+{
+    json_t *o = pw_fitfile_to_json(r);
+    char *text = o ? json_dumps(o, JSON_INDENT(1) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER)
+                   : NULL;
+    json_decref(o);
+    if (!text)
+        return pw_error_set(err, PW_ENOMEM, path, 0, "out of memory");
+    size_t len = strlen(text);
+    char *withnl = realloc(text, len + 2);
+    if (!withnl) {
+        free(text);
+        return pw_error_set(err, PW_ENOMEM, path, 0, "out of memory");
+    }
+    withnl[len] = '\n';
+    withnl[len + 1] = '\0';
+    pw_status st = pw_atomic_write(path, withnl, len + 1, force, err);
+    free(withnl);
+    return st;
+}

@@ -1,0 +1,516 @@
+/* Binary VLE by modified Raoult's law, y_i P = x_i gamma_i(x, T) P_i^sat(T): bubble and dew
+ * points and the liquid-stability scan. Solvers, brackets and tolerances: docs/thermo.md. */
+#include <pinchwise/equilibrium.h>
+#include <pinchwise/units.h>
+
+#include "thermo_internal.h"
+
+#include <float.h>
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_min.h>
+#include <gsl/gsl_roots.h>
+#include <math.h>
+
+/* Bubble T converged when the Newton step (or the Brent bracket) is below
+ * T_EPSABS + T_EPSREL |T|. */
+#define T_EPSABS 1e-10
+#define T_EPSREL (4.0 * DBL_EPSILON)
+#define NEWTON_MAXIT 30
+#define NEWTON_MAX_STEP_K 25.0
+#define BRENT_MAXIT 200
+#define BRACKET_BELOW_K 60.0 /* search from min pure Tsat - 60 K ... */
+#define BRACKET_ABOVE_K 10.0 /* ... to max pure Tsat + 10 K */
+#define BRACKET_WIDEN_STEPS 8
+/* |ln(sum x gamma Psat / P)| accepted at a Brent root; larger means a discontinuity. */
+#define BUBBLE_RESID_MAX 1e-8
+/* Dew points: Newton-bisection on x1 stops when the step or the bracket is below X_EPS. */
+#define X_EPS 1e-13
+#define DEW_MAXIT 100
+#define DEW_RESID_MAX 1e-9
+#define STAB_GRID 499
+#define STAB_MAXIT 100
+
+/* Everything evaluated at one (x1, T). */
+typedef struct {
+    pw_activity act;
+    double Ps[2], dlnPs[2];
+    double k[2]; /* x_i gamma_i Psat_i */
+    double sum;  /* k1 + k2 = bubble pressure */
+    double f;    /* ln(sum / P) */
+    double df;   /* df/dT at constant x */
+} tpoint;
+
+static bool state_ok(const pw_system *s) { return s && s->model && s->model->eval; }
+
+static bool frac_ok(double x) { return isfinite(x) && x >= 0.0 && x <= 1.0; }
+
+pw_status pw_system_activity(const pw_system *s, double x1, double T_K, pw_activity *out)
+{
+    if (!state_ok(s) || !out)
+        return PW_EINVAL;
+    return s->model->eval(s->params, s->T_ref_K, x1, T_K, out);
+}
+
+/* Evaluates at (x1, T); P is used only for f. */
+static pw_status eval_point(const pw_system *s, double x1, double T, double P, tpoint *tp)
+{
+    pw_status st = pw_system_activity(s, x1, T, &tp->act);
+    if (st != PW_OK)
+        return st;
+    double x[2] = {x1, 1.0 - x1};
+    double dsum = 0.0;
+    tp->sum = 0.0;
+    for (int i = 0; i < 2; i++) {
+        st = pw_psat(&s->comp[i], T, &tp->Ps[i], &tp->dlnPs[i]);
+        if (st != PW_OK)
+            return st;
+        tp->k[i] = x[i] * exp(tp->act.lngamma[i]) * tp->Ps[i];
+        tp->sum += tp->k[i];
+        dsum += tp->k[i] * (tp->act.dlngamma_dT[i] + tp->dlnPs[i]);
+    }
+    if (!(tp->sum > 0.0) || !isfinite(tp->sum) || !isfinite(dsum))
+        return PW_EDOM;
+    tp->f = log(tp->sum / P);
+    tp->df = dsum / tp->sum;
+    return PW_OK;
+}
+
+static void fill_point(const tpoint *tp, double x1, double T, double P, int iters,
+                       pw_eq_point *out)
+{
+    out->x1 = x1;
+    out->y1 = tp->k[0] / tp->sum;
+    out->T_K = T;
+    out->P_Pa = P;
+    for (int i = 0; i < 2; i++) {
+        out->gamma[i] = exp(tp->act.lngamma[i]);
+        out->Psat_Pa[i] = tp->Ps[i];
+    }
+    out->iterations = iters;
+}
+
+/* Temperatures where every component's vapor pressure can be evaluated. */
+static void eval_limits(const pw_system *s, double *lo, double *hi)
+{
+    *lo = 1.0;
+    *hi = INFINITY;
+    for (int i = 0; i < 2; i++) {
+        const pw_component *c = &s->comp[i];
+        if (c->equation == PW_PSAT_IAPWS_IF97) {
+            *lo = fmax(*lo, 273.15);
+            *hi = fmin(*hi, 647.096);
+        } else {
+            double pole;
+            if (pw_units_to_si(PW_QTY_TEMPERATURE, -c->C, c->T_unit, &pole) == PW_OK)
+                *lo = fmax(*lo, pole + 1.0);
+        }
+    }
+}
+
+typedef struct {
+    const pw_system *s;
+    double P, x1;
+    pw_status status;
+} brent_ctx;
+
+static double brent_f(double T, void *vp)
+{
+    brent_ctx *c = vp;
+    tpoint tp;
+    pw_status st = eval_point(c->s, c->x1, T, c->P, &tp);
+    if (st != PW_OK) {
+        c->status = st;
+        return GSL_NAN;
+    }
+    return tp.f;
+}
+
+/* Moves the end *end of the bracket until f has the wanted sign there (sign -1 below the
+ * root, +1 above). Where f cannot be evaluated (beyond an Antoine pole, outside IF97) it first
+ * steps halfway towards inner; then, while f has the wrong sign, it widens by step, clipped to
+ * [lim_lo, lim_hi], at most BRACKET_WIDEN_STEPS times. */
+static pw_status bracket_end(brent_ctx *c, double *end, double inner, double step, int sign,
+                             double lim_lo, double lim_hi)
+{
+    double T = *end, f = NAN;
+    for (int k = 0; k < 40; k++) {
+        c->status = PW_OK;
+        f = brent_f(T, c);
+        if (c->status == PW_OK && isfinite(f))
+            break;
+        T = 0.5 * (T + inner);
+    }
+    if (c->status != PW_OK || !isfinite(f))
+        return c->status != PW_OK ? c->status : PW_EDOM;
+    for (int w = 0;; w++) {
+        if (f == 0.0 || (sign < 0) == (f < 0.0)) {
+            *end = T;
+            return PW_OK;
+        }
+        double next = fmin(fmax(T + step, lim_lo), lim_hi);
+        if (next == T || w >= BRACKET_WIDEN_STEPS)
+            return PW_ENOBRACKET;
+        T = next;
+        c->status = PW_OK;
+        f = brent_f(T, c);
+        if (c->status != PW_OK || !isfinite(f))
+            return PW_ENOBRACKET;
+    }
+}
+
+static pw_status brent_bubble(const pw_system *s, double P, double x1, double a, double b,
+                              double lim_lo, double lim_hi, bool a_ok, bool b_ok, double *root,
+                              int *iters)
+{
+    brent_ctx c = {s, P, x1, PW_OK};
+    double mid = 0.5 * (a + b);
+    pw_status st;
+    if (!a_ok && (st = bracket_end(&c, &a, mid, -BRACKET_BELOW_K, -1, lim_lo, lim_hi)) != PW_OK)
+        return st;
+    if (!b_ok && (st = bracket_end(&c, &b, fmax(mid, a), BRACKET_ABOVE_K * 3.0, +1, lim_lo,
+                                   lim_hi)) != PW_OK)
+        return st;
+    if (!(a < b))
+        return PW_ENOBRACKET;
+    gsl_root_fsolver *sv = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+    if (!sv)
+        return PW_ENOMEM;
+    gsl_function F = {brent_f, &c};
+    c.status = PW_OK;
+    if (gsl_root_fsolver_set(sv, &F, a, b) != GSL_SUCCESS) {
+        gsl_root_fsolver_free(sv);
+        return c.status != PW_OK ? c.status : PW_ENOBRACKET;
+    }
+    st = PW_EMAXITER;
+    for (int it = 1; it <= BRENT_MAXIT; it++) {
+        (*iters)++;
+        if (gsl_root_fsolver_iterate(sv) != GSL_SUCCESS) {
+            st = c.status != PW_OK ? c.status : PW_ENOCONV;
+            break;
+        }
+        double lo = gsl_root_fsolver_x_lower(sv), hi = gsl_root_fsolver_x_upper(sv);
+        if (gsl_root_test_interval(lo, hi, T_EPSABS, T_EPSREL) == GSL_SUCCESS) {
+            *root = gsl_root_fsolver_root(sv);
+            st = PW_OK;
+            break;
+        }
+    }
+    gsl_root_fsolver_free(sv);
+    return st;
+}
+
+/* Bubble T at P for liquid x1, starting from T_guess (NAN: from the pure Tsat). Fills tp at
+ * the returned T. */
+static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T_guess,
+                               bool newton, double *T_out, tpoint *tp, int *iters)
+{
+    double Ts[2];
+    for (int i = 0; i < 2; i++) {
+        pw_status st = pw_tsat(&s->comp[i], P, &Ts[i]);
+        if (st != PW_OK)
+            return st;
+    }
+    double lim_lo, lim_hi;
+    eval_limits(s, &lim_lo, &lim_hi);
+    double lo = fmax(fmin(Ts[0], Ts[1]) - BRACKET_BELOW_K, lim_lo);
+    double hi = fmin(fmax(Ts[0], Ts[1]) + BRACKET_ABOVE_K, lim_hi);
+    double T = isfinite(T_guess) ? T_guess : x1 * Ts[0] + (1.0 - x1) * Ts[1];
+    T = fmin(fmax(T, lo), hi);
+
+    /* Fast path: Newton on f(T) = ln(sum x_i gamma_i Psat_i / P), step-limited, remembering
+     * the largest T seen with f < 0 and the smallest with f > 0. */
+    double neg = -INFINITY, pos = INFINITY;
+    *iters = 0;
+    for (int it = 0; newton && it < NEWTON_MAXIT; it++) {
+        (*iters)++;
+        if (eval_point(s, x1, T, P, tp) != PW_OK)
+            break;
+        if (tp->f == 0.0) {
+            *T_out = T;
+            return PW_OK;
+        }
+        if (tp->f < 0.0)
+            neg = fmax(neg, T);
+        else
+            pos = fmin(pos, T);
+        if (!(tp->df > 0.0) || !isfinite(tp->df))
+            break;
+        double dT = -tp->f / tp->df;
+        if (fabs(dT) <= T_EPSABS + T_EPSREL * fabs(T)) {
+            *T_out = T;
+            return PW_OK;
+        }
+        dT = fmax(fmin(dT, NEWTON_MAX_STEP_K), -NEWTON_MAX_STEP_K);
+        double Tn = T + dT;
+        if (Tn <= neg || Tn >= pos) {
+            if (!isfinite(neg) || !isfinite(pos))
+                break;
+            Tn = 0.5 * (neg + pos);
+        }
+        if (Tn < lim_lo || Tn > lim_hi)
+            break;
+        T = Tn;
+    }
+
+    /* Fallback: Brent (GSL) inside a bracket that is checked and widened if needed. */
+    bool a_ok = isfinite(neg), b_ok = isfinite(pos);
+    double a = a_ok ? neg : fmin(lo, b_ok ? pos : lo);
+    double b = b_ok ? pos : fmax(hi, a_ok ? neg : hi);
+    double root = NAN;
+    pw_status st = brent_bubble(s, P, x1, a, b, lim_lo, lim_hi, a_ok, b_ok, &root, iters);
+    if (st != PW_OK)
+        return st;
+    st = eval_point(s, x1, root, P, tp);
+    if (st != PW_OK)
+        return st;
+    if (!(fabs(tp->f) <= BUBBLE_RESID_MAX))
+        return PW_ENOCONV;
+    *T_out = root;
+    return PW_OK;
+}
+
+static pw_status bubble_T(const pw_system *s, double P_Pa, double x1, bool newton,
+                          pw_eq_point *out)
+{
+    if (!state_ok(s) || !out)
+        return PW_EINVAL;
+    if (!isfinite(P_Pa) || P_Pa <= 0.0 || !frac_ok(x1))
+        return PW_EDOM;
+    tpoint tp;
+    double T;
+    int iters;
+    pw_status st = bubble_T_core(s, P_Pa, x1, NAN, newton, &T, &tp, &iters);
+    if (st != PW_OK)
+        return st;
+    fill_point(&tp, x1, T, P_Pa, iters, out);
+    return PW_OK;
+}
+
+pw_status pw_bubble_T(const pw_system *s, double P_Pa, double x1, pw_eq_point *out)
+{
+    return bubble_T(s, P_Pa, x1, true, out);
+}
+
+pw_status pw_thermo_bubble_T_brent(const pw_system *s, double P_Pa, double x1, pw_eq_point *out)
+{
+    return bubble_T(s, P_Pa, x1, false, out);
+}
+
+pw_status pw_bubble_P(const pw_system *s, double T_K, double x1, pw_eq_point *out)
+{
+    if (!state_ok(s) || !out)
+        return PW_EINVAL;
+    if (!isfinite(T_K) || T_K <= 0.0 || !frac_ok(x1))
+        return PW_EDOM;
+    tpoint tp;
+    pw_status st = eval_point(s, x1, T_K, 1.0, &tp);
+    if (st != PW_OK)
+        return st;
+    fill_point(&tp, x1, T_K, tp.sum, 0, out);
+    return PW_OK;
+}
+
+/* Dew points as a root in x1 of h(x1) = y1_bubble(x1) - y1 on [0, 1]. */
+typedef struct {
+    const pw_system *s;
+    bool isobaric;
+    double P, T; /* the fixed one is the specification; the other is the latest result */
+    tpoint tp;
+    int iters;
+} dew_ctx;
+
+/* y1 on the bubble curve at x1 and dy1/dx1 along it (implicit differentiation; docs). */
+static pw_status dew_eval(dew_ctx *c, double x1, double *y1, double *dy1)
+{
+    tpoint *tp = &c->tp;
+    pw_status st;
+    double x2 = 1.0 - x1;
+    if (c->isobaric) {
+        int its = 0;
+        st = bubble_T_core(c->s, c->P, x1, c->T, true, &c->T, tp, &its);
+        c->iters += its;
+    } else {
+        st = eval_point(c->s, x1, c->T, 1.0, tp);
+        if (st == PW_OK)
+            c->P = tp->sum;
+    }
+    if (st != PW_OK)
+        return st;
+    double g1Ps1 = exp(tp->act.lngamma[0]) * tp->Ps[0];
+    double g2Ps2 = exp(tp->act.lngamma[1]) * tp->Ps[1];
+    double dk1 = g1Ps1 * (1.0 + x1 * tp->act.dlngamma_dx1[0]); /* at constant T */
+    double dk2 = g2Ps2 * (-1.0 + x2 * tp->act.dlngamma_dx1[1]);
+    *y1 = tp->k[0] / tp->sum;
+    if (c->isobaric) {
+        /* On the bubble curve sum = P, so dy1/dx1 = (dk1 + k1 dln k1/dT dT/dx1) / P with
+         * dT/dx1 = -(dk1 + dk2) / (sum df/dT). */
+        double dT_dx = -(dk1 + dk2) / (tp->sum * tp->df);
+        *dy1 = (dk1 + tp->k[0] * (tp->act.dlngamma_dT[0] + tp->dlnPs[0]) * dT_dx) / tp->sum;
+    } else {
+        *dy1 = (dk1 - *y1 * (dk1 + dk2)) / tp->sum;
+    }
+    return PW_OK;
+}
+
+/* Newton on h(x1) = y1(x1) - y1_spec, safeguarded by bisection inside [lo, hi], which starts
+ * as [0, 1] with h(0) = -y1_spec < 0 < h(1) = 1 - y1_spec. */
+static pw_status dew_solve(dew_ctx *c, double y1_spec, double x_guess, double *x_out)
+{
+    double lo = 0.0, hi = 1.0, x = x_guess, y, dy;
+    if (y1_spec == 0.0 || y1_spec == 1.0) {
+        *x_out = y1_spec;
+        return dew_eval(c, y1_spec, &y, &dy);
+    }
+    for (int it = 0; it < DEW_MAXIT; it++) {
+        c->iters++;
+        pw_status st = dew_eval(c, x, &y, &dy);
+        if (st != PW_OK)
+            return st;
+        double h = y - y1_spec;
+        if (h == 0.0) {
+            *x_out = x;
+            return PW_OK;
+        }
+        if (h < 0.0)
+            lo = x;
+        else
+            hi = x;
+        double xn = x - h / dy;
+        bool newton = isfinite(xn) && xn > lo && xn < hi;
+        if (!newton)
+            xn = 0.5 * (lo + hi);
+        if ((newton && fabs(xn - x) <= X_EPS) || hi - lo <= X_EPS) {
+            if (!(fabs(h) <= DEW_RESID_MAX))
+                return PW_ENOCONV;
+            *x_out = x;
+            return PW_OK;
+        }
+        x = xn;
+    }
+    return PW_EMAXITER;
+}
+
+/* Raoult's-law estimate of the liquid in equilibrium with vapor y1 at T. */
+static pw_status raoult_x(const pw_system *s, double T, double y1, double *x1)
+{
+    double Ps[2];
+    for (int i = 0; i < 2; i++) {
+        pw_status st = pw_psat(&s->comp[i], T, &Ps[i], NULL);
+        if (st != PW_OK)
+            return st;
+    }
+    double a = y1 / Ps[0], b = (1.0 - y1) / Ps[1];
+    *x1 = fmin(fmax(a / (a + b), 1e-6), 1.0 - 1e-6);
+    return PW_OK;
+}
+
+pw_status pw_dew_T(const pw_system *s, double P_Pa, double y1, pw_eq_point *out)
+{
+    if (!state_ok(s) || !out)
+        return PW_EINVAL;
+    if (!isfinite(P_Pa) || P_Pa <= 0.0 || !frac_ok(y1))
+        return PW_EDOM;
+    double Ts[2];
+    for (int i = 0; i < 2; i++) {
+        pw_status st = pw_tsat(&s->comp[i], P_Pa, &Ts[i]);
+        if (st != PW_OK)
+            return st;
+    }
+    double T0 = y1 * Ts[0] + (1.0 - y1) * Ts[1], x0;
+    if (raoult_x(s, T0, y1, &x0) != PW_OK)
+        x0 = y1;
+    dew_ctx c = {.s = s, .isobaric = true, .P = P_Pa, .T = T0, .iters = 0};
+    double x1;
+    pw_status st = dew_solve(&c, y1, x0, &x1);
+    if (st != PW_OK)
+        return st;
+    fill_point(&c.tp, x1, c.T, P_Pa, c.iters, out);
+    out->y1 = y1;
+    return PW_OK;
+}
+
+pw_status pw_dew_P(const pw_system *s, double T_K, double y1, pw_eq_point *out)
+{
+    if (!state_ok(s) || !out)
+        return PW_EINVAL;
+    if (!isfinite(T_K) || T_K <= 0.0 || !frac_ok(y1))
+        return PW_EDOM;
+    double x0;
+    pw_status st = raoult_x(s, T_K, y1, &x0);
+    if (st != PW_OK)
+        return st;
+    dew_ctx c = {.s = s, .isobaric = false, .P = NAN, .T = T_K, .iters = 0};
+    double x1;
+    st = dew_solve(&c, y1, x0, &x1);
+    if (st != PW_OK)
+        return st;
+    fill_point(&c.tp, x1, T_K, c.P, c.iters, out);
+    out->y1 = y1;
+    return PW_OK;
+}
+
+typedef struct {
+    const pw_system *s;
+    double T;
+    pw_status status;
+} stab_ctx;
+
+static double stab_D(double x1, void *vp)
+{
+    stab_ctx *c = vp;
+    pw_activity a;
+    pw_status st = pw_system_activity(c->s, x1, c->T, &a);
+    if (st != PW_OK) {
+        c->status = st;
+        return GSL_NAN;
+    }
+    return 1.0 / (x1 * (1.0 - x1)) + a.d2gE_dx2;
+}
+
+pw_status pw_stability_min(const pw_system *s, double T_K, double *min_D, double *x_at_min)
+{
+    if (!state_ok(s) || !min_D || !x_at_min)
+        return PW_EINVAL;
+    if (!isfinite(T_K) || T_K <= 0.0)
+        return PW_EDOM;
+    stab_ctx c = {s, T_K, PW_OK};
+    const double h = 1.0 / (STAB_GRID + 1);
+    int kmin = 1;
+    double Dmin = INFINITY;
+    for (int k = 1; k <= STAB_GRID; k++) {
+        double D = stab_D(k * h, &c);
+        if (c.status != PW_OK)
+            return c.status;
+        if (D < Dmin) {
+            Dmin = D;
+            kmin = k;
+        }
+    }
+    *min_D = Dmin;
+    *x_at_min = kmin * h;
+    if (kmin == 1 || kmin == STAB_GRID)
+        return PW_OK; /* D rises to +inf at both ends; the grid point is the answer */
+    double a = (kmin - 1) * h, b = (kmin + 1) * h;
+    if (!(Dmin < stab_D(a, &c) && Dmin < stab_D(b, &c)))
+        return PW_OK; /* flat: the grid value stands */
+    gsl_min_fminimizer *m = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
+    if (!m)
+        return PW_ENOMEM;
+    gsl_function F = {stab_D, &c};
+    if (gsl_min_fminimizer_set(m, &F, kmin * h, a, b) == GSL_SUCCESS) {
+        for (int it = 0; it < STAB_MAXIT; it++) {
+            if (gsl_min_fminimizer_iterate(m) != GSL_SUCCESS)
+                break;
+            double lo = gsl_min_fminimizer_x_lower(m), hi = gsl_min_fminimizer_x_upper(m);
+            if (gsl_min_test_interval(lo, hi, 1e-10, 0.0) == GSL_SUCCESS)
+                break;
+        }
+        double fm = gsl_min_fminimizer_f_minimum(m);
+        if (c.status == PW_OK && isfinite(fm) && fm <= Dmin) {
+            *min_D = fm;
+            *x_at_min = gsl_min_fminimizer_x_minimum(m);
+        }
+    }
+    gsl_min_fminimizer_free(m);
+    return c.status;
+}

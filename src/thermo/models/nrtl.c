@@ -1,0 +1,75 @@
+/* NRTL equation (Renon & Prausnitz 1968, AIChE J. 14:135), index convention of Renon-Prausnitz
+ * and SVNA: tau12 = (g12 - g22)/RT = b12_K/T, tau21 = (g21 - g11)/RT = b21_K/T,
+ * G_ij = exp(-alpha tau_ij), one alpha for the pair:
+ *   g = x1 x2 [tau21 G21/(x1 + x2 G21) + tau12 G12/(x2 + x1 G12)].
+ * Derivations in docs/thermo.md. */
+#include "model_common.h"
+
+#include <math.h>
+#include <string.h>
+
+static const char *const names[] = {"b12_K", "b21_K", "alpha"};
+static const char *const units[] = {"K", "K", "-"};
+static const double defaults[] = {0.0, 0.0, 0.3};
+static const bool fitted[] = {true, true, false};
+
+static pw_status check(const double *p)
+{
+    if (!pw_model_params_finite(p, 3) || !(p[2] > 0.0))
+        return PW_EDOM;
+    return PW_OK;
+}
+
+static pw_status eval(const double *p, double T_ref_K, double x1, double T_K, pw_activity *out)
+{
+    (void)T_ref_K;
+    if (!out || check(p) != PW_OK || !pw_model_state_ok(x1, T_K))
+        return PW_EDOM;
+    memset(out, 0, sizeof *out);
+    double x2 = 1.0 - x1;
+    double al = p[2];
+    double t12 = p[0] / T_K, t21 = p[1] / T_K;
+    double G12 = exp(-al * t12), G21 = exp(-al * t21);
+    if (!isfinite(G12) || !isfinite(G21) || !(G12 > 0.0) || !(G21 > 0.0))
+        return PW_EDOM;
+    double D1 = x1 + x2 * G21, D2 = x2 + x1 * G12;
+    double D1s = D1 * D1, D2s = D2 * D2, D1c = D1s * D1, D2c = D2s * D2;
+    double xx1 = x1 * x1, xx2 = x2 * x2;
+
+    out->lngamma[0] = xx2 * (t21 * G21 * G21 / D1s + t12 * G12 / D2s);
+    out->lngamma[1] = xx1 * (t12 * G12 * G12 / D2s + t21 * G21 / D1s);
+    out->gE_RT = x1 * x2 * (t21 * G21 / D1 + t12 * G12 / D2);
+    out->d2gE_dx2 = -2.0 * t21 * G21 * G21 / D1c - 2.0 * t12 * G12 * G12 / D2c;
+
+    /* Partial derivatives at constant x in tau_ij and G_ij taken as independent. */
+    double g1_t21 = xx2 * G21 * G21 / D1s, g1_G21 = xx2 * 2.0 * t21 * G21 * x1 / D1c;
+    double g1_t12 = xx2 * G12 / D2s, g1_G12 = xx2 * t12 * (x2 - G12 * x1) / D2c;
+    double g2_t12 = xx1 * G12 * G12 / D2s, g2_G12 = xx1 * 2.0 * t12 * G12 * x2 / D2c;
+    double g2_t21 = xx1 * G21 / D1s, g2_G21 = xx1 * t21 * (x1 - G21 * x2) / D1c;
+    /* Total derivatives in tau_ij at fixed alpha (dG_ij/dtau_ij = -alpha G_ij), and in alpha
+     * (dG_ij/dalpha = -tau_ij G_ij). */
+    double d1_t12 = g1_t12 - al * G12 * g1_G12, d1_t21 = g1_t21 - al * G21 * g1_G21;
+    double d2_t12 = g2_t12 - al * G12 * g2_G12, d2_t21 = g2_t21 - al * G21 * g2_G21;
+    out->dlngamma_dp[0][0] = d1_t12 / T_K;
+    out->dlngamma_dp[0][1] = d1_t21 / T_K;
+    out->dlngamma_dp[0][2] = -t12 * G12 * g1_G12 - t21 * G21 * g1_G21;
+    out->dlngamma_dp[1][0] = d2_t12 / T_K;
+    out->dlngamma_dp[1][1] = d2_t21 / T_K;
+    out->dlngamma_dp[1][2] = -t12 * G12 * g2_G12 - t21 * G21 * g2_G21;
+    /* dtau_ij/dT = -tau_ij/T. */
+    out->dlngamma_dT[0] = -(t12 * d1_t12 + t21 * d1_t21) / T_K;
+    out->dlngamma_dT[1] = -(t12 * d2_t12 + t21 * d2_t21) / T_K;
+    return pw_model_finish(out, x1, T_K);
+}
+
+const pw_model_type pw_model_nrtl = {
+    .name = "nrtl",
+    .title = "NRTL (Renon & Prausnitz 1968), tau_ij = b_ij/T, one alpha",
+    .n_params = 3,
+    .param_names = names,
+    .param_units = units,
+    .defaults = defaults,
+    .fitted_default = fitted,
+    .check = check,
+    .eval = eval,
+};

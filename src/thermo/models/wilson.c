@@ -1,0 +1,71 @@
+/* Wilson equation (G. M. Wilson 1964, J. Am. Chem. Soc. 86:127):
+ *   g = -x1 ln(x1 + L12 x2) - x2 ln(x2 + L21 x1)
+ *   L12 = V2_V1 exp(-a12_K/T),  L21 = exp(-a21_K/T) / V2_V1,
+ * a_ij_K = (lambda_ij - lambda_ii)/R in kelvin, V2_V1 the ratio of pure-liquid molar volumes
+ * (held constant). Derivations in docs/thermo.md. */
+#include "model_common.h"
+
+#include <math.h>
+#include <string.h>
+
+static const char *const names[] = {"a12_K", "a21_K", "V2_V1"};
+static const char *const units[] = {"K", "K", "-"};
+static const double defaults[] = {0.0, 0.0, 1.0};
+static const bool fitted[] = {true, true, false};
+
+static pw_status check(const double *p)
+{
+    if (!pw_model_params_finite(p, 3) || !(p[2] > 0.0))
+        return PW_EDOM;
+    return PW_OK;
+}
+
+static pw_status eval(const double *p, double T_ref_K, double x1, double T_K, pw_activity *out)
+{
+    (void)T_ref_K;
+    if (!out || check(p) != PW_OK || !pw_model_state_ok(x1, T_K))
+        return PW_EDOM;
+    memset(out, 0, sizeof *out);
+    double x2 = 1.0 - x1;
+    double r = p[2];
+    double L12 = r * exp(-p[0] / T_K), L21 = exp(-p[1] / T_K) / r;
+    if (!isfinite(L12) || !isfinite(L21) || !(L12 > 0.0) || !(L21 > 0.0))
+        return PW_EDOM;
+    double S1 = x1 + L12 * x2, S2 = x2 + L21 * x1;
+    double C = L12 / S1 - L21 / S2;
+    double v = 1.0 - L12, u = L21 - 1.0;
+
+    out->lngamma[0] = -log(S1) + x2 * C;
+    out->lngamma[1] = -log(S2) - x1 * C;
+    out->gE_RT = -x1 * log(S1) - x2 * log(S2);
+    out->d2gE_dx2 = -2.0 * v / S1 + x1 * v * v / (S1 * S1) + 2.0 * u / S2
+                    + x2 * u * u / (S2 * S2);
+
+    /* Partial derivatives of ln gamma_i in L12 and L21 at constant x. */
+    double g1_L12 = -L12 * x2 * x2 / (S1 * S1), g1_L21 = -x2 * x2 / (S2 * S2);
+    double g2_L12 = -x1 * x1 / (S1 * S1), g2_L21 = -L21 * x1 * x1 / (S2 * S2);
+    /* dL12/dT = L12 a12/T^2, dL21/dT = L21 a21/T^2. */
+    double L12_T = L12 * p[0] / (T_K * T_K), L21_T = L21 * p[1] / (T_K * T_K);
+    out->dlngamma_dT[0] = g1_L12 * L12_T + g1_L21 * L21_T;
+    out->dlngamma_dT[1] = g2_L12 * L12_T + g2_L21 * L21_T;
+    /* dL12/da12 = -L12/T, dL21/da21 = -L21/T, dL12/dr = L12/r, dL21/dr = -L21/r. */
+    out->dlngamma_dp[0][0] = -g1_L12 * L12 / T_K;
+    out->dlngamma_dp[0][1] = -g1_L21 * L21 / T_K;
+    out->dlngamma_dp[0][2] = (g1_L12 * L12 - g1_L21 * L21) / r;
+    out->dlngamma_dp[1][0] = -g2_L12 * L12 / T_K;
+    out->dlngamma_dp[1][1] = -g2_L21 * L21 / T_K;
+    out->dlngamma_dp[1][2] = (g2_L12 * L12 - g2_L21 * L21) / r;
+    return pw_model_finish(out, x1, T_K);
+}
+
+const pw_model_type pw_model_wilson = {
+    .name = "wilson",
+    .title = "Wilson (Wilson 1964), L12 = V2_V1 exp(-a12/T), L21 = exp(-a21/T)/V2_V1",
+    .n_params = 3,
+    .param_names = names,
+    .param_units = units,
+    .defaults = defaults,
+    .fitted_default = fitted,
+    .check = check,
+    .eval = eval,
+};
