@@ -91,6 +91,10 @@ pw_status pw_plot_xy(pw_sbuf *b, const pw_plot_xy_in *in)
     pw_status st = pw_frame_init(&f, "plot-xy", W_SQUARE, H_SQUARE, 0.0, 1.0, 0.0, 1.0, 10, 10);
     if (st != PW_OK)
         return st;
+    /* the legend goes below the square: inside it would cover the construction */
+    size_t n_leg = 1 + (in->column && in->feasible ? 4 : 0) + (in->measured.n ? 1 : 0) +
+                   (in->azeotropes.n ? 1 : 0);
+    pw_frame_reserve_legend(&f, n_leg);
     char title[PW_SVG_LABEL_MAX], xl[PW_SVG_LABEL_MAX], yl[PW_SVG_LABEL_MAX], lab[PW_SVG_LABEL_MAX];
     snprintf(title, sizeof title, "Vapor against liquid, %s%s", in->column ? "column at " : "",
              in->condition ? in->condition : "");
@@ -112,7 +116,7 @@ pw_status pw_plot_xy(pw_sbuf *b, const pw_plot_xy_in *in)
         for (int i = 0; i < 3; i++)
             pw_svg_segment(b, &f, tx[i], 0.0, tx[i], tx[i], &tgt, "pw-target");
         if (in->feasible) {
-            pw_style steps = st_line(C_TEAL, 1.3, NULL);
+            pw_style steps = st_line(C_TEAL, 1.6, NULL);
             draw_set(b, &f, &in->steps, &steps, true, "pw-curve pw-steps");
             pw_style qline = st_line(C_GRAPHITE, 1.6, "2 3");
             pw_svg_segment(b, &f, sp->zf, sp->zf, in->x_q, in->y_q, &qline, "pw-curve pw-qline");
@@ -155,17 +159,21 @@ pw_status pw_plot_xy(pw_sbuf *b, const pw_plot_xy_in *in)
             double px = pw_frame_px(&f, in->pinch.x), py = pw_frame_py(&f, in->pinch.y);
             snprintf(lab, sizeof lab, "%s pinch x = %.3f (%s)", pinch_kind_name(in->pinch.kind),
                      in->pinch.x, section_name(in->pinch.section));
-            /* put the label on the open side of the curve: below-right of it */
-            pw_svg_annotate(b, &f, in->pinch.x, in->pinch.y, in->pinch.x > 0.6 ? -24.0 : 26.0, 44.0,
-                            lab, C_BRICK);
+            /* the label goes into the empty triangle below the diagonal */
+            bool right = in->pinch.x > 0.5;
+            double lx = right ? fmin(0.97, in->pinch.x + 0.15) : in->pinch.x + 0.1;
+            double ly = fmax(0.06, in->pinch.y - 0.35);
+            pw_svg_annotate(b, &f, in->pinch.x, in->pinch.y, pw_frame_px(&f, lx) - px,
+                            pw_frame_py(&f, ly) - py, right ? "end" : "start", lab, C_BRICK);
             pw_svg_marker_px(b, px, py, &pin);
         }
     }
     for (size_t i = 0; i < in->azeotropes.n; i++) {
         snprintf(lab, sizeof lab, "azeotrope x = %.3f", in->azeotropes.x[i]);
-        pw_svg_annotate(b, &f, in->azeotropes.x[i], in->azeotropes.y[i], -20.0, -30.0, lab, C_GRAPHITE);
+        pw_svg_annotate(b, &f, in->azeotropes.x[i], in->azeotropes.y[i], 30.0, 60.0, "start", lab,
+                        C_GRAPHITE);
     }
-    pw_svg_legend(b, &f, &lg, PW_CORNER_BR);
+    pw_svg_legend(b, &f, &lg, PW_LEGEND_BELOW);
     pw_svg_end(b, &f);
     return pw_sbuf_status(b);
 }
@@ -218,7 +226,7 @@ pw_status pw_plot_phase(pw_sbuf *b, const pw_plot_phase_in *in)
         snprintf(lab, sizeof lab, "azeotrope x = %.3f, %s = %.2f %s", in->azeotropes.x[i],
                  in->isothermal ? "P" : "T", in->azeotropes.y[i], in->isothermal ? "kPa" : "K");
         pw_svg_annotate(b, &f, in->azeotropes.x[i], in->azeotropes.y[i],
-                        in->azeotropes.x[i] > 0.5 ? -20.0 : 20.0, in->isothermal ? 34.0 : -34.0, lab,
+                        in->azeotropes.x[i] > 0.5 ? -20.0 : 20.0, in->isothermal ? 34.0 : -34.0, NULL, lab,
                         C_GRAPHITE);
     }
     /* a minimum-boiling (T) or maximum-pressure (P) system has its curves high at the ends */

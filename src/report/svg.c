@@ -427,7 +427,7 @@ pw_status pw_svg_begin(pw_sbuf *b, const pw_frame *f, const char *title, const c
         pw_svg_text_px(b, x0 - 8.0, pw_frame_py(f, f->yt.v[i]) + 4.0, "end", 12.0, false, PW_INK,
                        pw_svg_format_tick(f->yt.v[i], f->yt.decimals, lab, sizeof lab), "pw-tick");
     /* axis labels */
-    pw_svg_text_px(b, (x0 + x1) / 2.0, f->height - 14.0, "middle", 13.0, false, PW_INK, xlabel,
+    pw_svg_text_px(b, (x0 + x1) / 2.0, y1 + 44.0, "middle", 13.0, false, PW_INK, xlabel,
                    "pw-axis-label pw-axis-x");
     double cy = (y0 + y1) / 2.0;
     pw_sbuf_printf(b, "<g transform=\"translate(18 %.2f) rotate(-90)\">\n", cy);
@@ -602,7 +602,7 @@ pw_status pw_svg_markers(pw_sbuf *b, const pw_frame *f, const double *x, const d
 }
 
 pw_status pw_svg_annotate(pw_sbuf *b, const pw_frame *f, double x, double y, double dx, double dy,
-                          const char *text, const char *colour)
+                          const char *anchor, const char *text, const char *colour)
 {
     if (!isfinite(x) || !isfinite(y))
         return pw_sbuf_status(b);
@@ -610,11 +610,14 @@ pw_status pw_svg_annotate(pw_sbuf *b, const pw_frame *f, double x, double y, dou
     double tx = px + dx, ty = py + dy;
     /* keep the label inside the picture */
     double est = 6.6 * (double)strlen(text ? text : "");
-    const char *anchor = dx < 0 ? "end" : "start";
-    if (dx >= 0 && tx + est > f->width - 4.0)
-        tx = f->width - 4.0 - est;
-    if (dx < 0 && tx - est < 4.0)
-        tx = 4.0 + est;
+    if (!anchor)
+        anchor = dx < 0 ? "end" : "start";
+    bool end = !strcmp(anchor, "end"), mid = !strcmp(anchor, "middle");
+    double left = end ? tx - est : mid ? tx - est / 2.0 : tx, right = left + est;
+    if (right > f->width - 4.0)
+        tx -= right - (f->width - 4.0);
+    else if (left < 4.0)
+        tx += 4.0 - left;
     if (ty < f->mt + 12.0)
         ty = f->mt + 12.0;
     if (ty > f->height - f->mb - 4.0)
@@ -659,10 +662,54 @@ void pw_legend_add(pw_legend *l, const char *label, const pw_style *s, bool line
     e->line = line;
 }
 
+#define LEGEND_ROW 18.0
+
+double pw_legend_below_height(size_t n)
+{
+    return n ? LEGEND_ROW * (double)n + 12.0 : 0.0;
+}
+
+void pw_frame_reserve_legend(pw_frame *f, size_t n)
+{
+    double h = pw_legend_below_height(n);
+    f->height += h;
+    f->mb += h;
+}
+
+static pw_status legend_below(pw_sbuf *b, const pw_frame *f, const pw_legend *l)
+{
+    double x0 = f->ml;
+    double top = f->height - pw_legend_below_height(l->n) + 2.0;
+    pw_sbuf_puts(b, "<g class=\"pw-legend pw-legend-below\">\n");
+    for (size_t i = 0; i < l->n; i++) {
+        const pw_legend_entry *e = &l->e[i];
+        double lx = x0, cy = top + LEGEND_ROW * (double)i + 6.0;
+        if (e->line) {
+            pw_sbuf_puts(b, "<line x1=\"");
+            pw_sbuf_coord(b, lx);
+            pw_sbuf_puts(b, "\" y1=\"");
+            pw_sbuf_coord(b, cy);
+            pw_sbuf_puts(b, "\" x2=\"");
+            pw_sbuf_coord(b, lx + 30.0);
+            pw_sbuf_puts(b, "\" y2=\"");
+            pw_sbuf_coord(b, cy);
+            pw_sbuf_puts(b, "\"");
+            style_attrs(b, &e->style, false);
+            pw_sbuf_puts(b, "/>\n");
+        }
+        pw_svg_marker_px(b, lx + 15.0, cy, &e->style);
+        pw_svg_text_px(b, lx + 38.0, cy + 4.0, "start", 11.5, false, PW_INK, e->label,
+                       "pw-legend-label");
+    }
+    return pw_sbuf_puts(b, "</g>\n");
+}
+
 pw_status pw_svg_legend(pw_sbuf *b, const pw_frame *f, const pw_legend *l, pw_corner corner)
 {
     if (l->n == 0)
         return pw_sbuf_status(b);
+    if (corner == PW_LEGEND_BELOW)
+        return legend_below(b, f, l);
     double row = 18.0, pad = 8.0, sample = 30.0;
     size_t longest = 0;
     for (size_t i = 0; i < l->n; i++) {

@@ -149,9 +149,10 @@ pw_status pw_svg_text_px(pw_sbuf *b, double px, double py, const char *anchor, d
                          bool bold, const char *fill, const char *text, const char *cls);
 
 /* An annotation: a ring at data point (x, y), a leader line and the label placed dx, dy px
- * away (on a white halo so it stays readable over curves). Skipped for a non-finite point. */
+ * away (on a white halo so it stays readable over curves). anchor "start"/"end"/"middle", or
+ * NULL to choose by the sign of dx. Skipped for a non-finite point. */
 pw_status pw_svg_annotate(pw_sbuf *b, const pw_frame *f, double x, double y, double dx, double dy,
-                          const char *text, const char *colour);
+                          const char *anchor, const char *text, const char *colour);
 
 /* ---- legend ---- */
 
@@ -171,9 +172,15 @@ typedef struct pw_legend {
 /* Adds an entry (ignored once full). */
 void pw_legend_add(pw_legend *l, const char *label, const pw_style *s, bool line);
 
-typedef enum { PW_CORNER_TL, PW_CORNER_TR, PW_CORNER_BL, PW_CORNER_BR } pw_corner;
+typedef enum { PW_CORNER_TL, PW_CORNER_TR, PW_CORNER_BL, PW_CORNER_BR, PW_LEGEND_BELOW } pw_corner;
 
-/* Draws the legend as a boxed list inside the plot area at the given corner. */
+/* Extra height (px) that pw_frame_reserve_legend adds for a legend of n entries below the plot. */
+double pw_legend_below_height(size_t n);
+/* Grows the picture and its bottom margin so a PW_LEGEND_BELOW legend of n entries fits. */
+void pw_frame_reserve_legend(pw_frame *f, size_t n);
+
+/* Draws the legend as a boxed list inside the plot area at the given corner, or (BELOW) in one
+ * column under the axis label, in the room made by pw_frame_reserve_legend. */
 pw_status pw_svg_legend(pw_sbuf *b, const pw_frame *f, const pw_legend *l, pw_corner corner);
 
 #endif

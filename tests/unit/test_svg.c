@@ -120,7 +120,7 @@ static void non_finite_never_reaches_the_output(void **state)
     pw_svg_polyline(&b, &f, x, y, 7, &s, "curve");
     pw_svg_markers(&b, &f, x, y, 7, &s, NULL);
     pw_svg_segment(&b, &f, NAN, 0.0, 1.0, 1.0, &s, NULL);
-    pw_svg_annotate(&b, &f, NAN, 0.5, 10, -10, "pinch", NULL);
+    pw_svg_annotate(&b, &f, NAN, 0.5, 10, -10, NULL, "pinch", NULL);
     pw_svg_text_px(&b, INFINITY, 3.0, "start", 12, false, NULL, "x", NULL);
     pw_svg_end_data(&b);
     pw_svg_end(&b, &f);
