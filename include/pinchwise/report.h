@@ -64,6 +64,12 @@ pw_status pw_report_save_svg(const pw_report *rep, const char *dir, bool force, 
 pw_status pw_report_save_csv(const pw_report *rep, const char *dir, bool force, size_t *n_files,
                              pw_error *err);
 
+/* Checks, before anything is written, that none of the files the three save functions would
+ * write exists (html_path, svg_dir and csv_dir may each be NULL to leave them out): PW_EEXIST
+ * naming the first one found. Use it without force so a refusal leaves no partial output. */
+pw_status pw_report_check_targets(const pw_report *rep, const char *html_path, const char *svg_dir,
+                                  const char *csv_dir, pw_error *err);
+
 /* Frees rep; accepts NULL. */
 void pw_report_free(pw_report *rep);
 

@@ -201,7 +201,9 @@ int pw_cli_report(int argc, char **argv)
     if (st != PW_OK)
         return pw_cli_fail("report", &err);
     progress("writing");
-    st = pw_report_save_html(rep, a.out, a.force, &err);
+    st = a.force ? PW_OK : pw_report_check_targets(rep, a.out, a.svg, a.csv, &err);
+    if (st == PW_OK)
+        st = pw_report_save_html(rep, a.out, a.force, &err);
     if (st == PW_OK && a.svg)
         st = pw_report_save_svg(rep, a.svg, a.force, NULL, &err);
     if (st == PW_OK && a.csv)

@@ -179,6 +179,29 @@ pw_status pw_report_save_csv(const pw_report *rep, const char *dir, bool force, 
     return save_files(rep->csv, rep->n_csv, "", dir, force, n_files, err);
 }
 
+static pw_status check_dir(const pw_report_file *files, size_t n, const char *dir, pw_error *err)
+{
+    char path[PW_PATH_MAX];
+    for (size_t i = 0; dir && i < n; i++) {
+        int k = snprintf(path, sizeof path, "%s/%s", dir, files[i].name);
+        if (k < 0 || (size_t)k >= sizeof path)
+            return pw_error_set(err, PW_EINVAL, dir, 0, "path too long");
+        if (access(path, F_OK) == 0)
+            return pw_error_set(err, PW_EEXIST, path, 0, "file exists (pass --force to replace it)");
+    }
+    return PW_OK;
+}
+
+pw_status pw_report_check_targets(const pw_report *rep, const char *html_path, const char *svg_dir,
+                                  const char *csv_dir, pw_error *err)
+{
+    if (html_path && access(html_path, F_OK) == 0)
+        return pw_error_set(err, PW_EEXIST, html_path, 0,
+                            "file exists (pass --force to replace it, or choose another --out)");
+    pw_status st = check_dir(rep->svg, rep->n_svg, svg_dir, err);
+    return st == PW_OK ? check_dir(rep->csv, rep->n_csv, csv_dir, err) : st;
+}
+
 pw_status pw_report_write(const char *path, const pw_report_input *in, bool force, size_t *n_plots,
                           pw_error *err)
 {

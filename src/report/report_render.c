@@ -200,13 +200,17 @@ pw_status pw_report_render_plots(struct pw_report *rep, const pw_report_curves *
 
 /* ---- CSV ---- */
 
-/* One header field quoted by libcsv's writer. */
+/* One header field; quoted by libcsv's writer when it holds a comma, quote or line break. */
 static void csv_field(pw_sbuf *b, const char *s, bool first)
 {
     char out[256];
-    size_t need = csv_write(out, sizeof out, s, strlen(s));
     if (!first)
         pw_sbuf_puts(b, ",");
+    if (!strpbrk(s, ",\"\r\n")) {
+        pw_sbuf_puts(b, s);
+        return;
+    }
+    size_t need = csv_write(out, sizeof out, s, strlen(s));
     if (need <= sizeof out)
         pw_sbuf_putn(b, out, need);
     else

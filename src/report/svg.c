@@ -433,9 +433,9 @@ pw_status pw_svg_begin(pw_sbuf *b, const pw_frame *f, const char *title, const c
     pw_sbuf_printf(b, "<g transform=\"translate(18 %.2f) rotate(-90)\">\n", cy);
     pw_svg_text_px(b, 0.0, 0.0, "middle", 13.0, false, PW_INK, ylabel, "pw-axis-label pw-axis-y");
     pw_sbuf_puts(b, "</g>\n");
-    pw_sbuf_printf(b, "<g class=\"pw-data\" clip-path=\"url(#%s-clip)\" stroke-linejoin=\"round\" "
-                      "stroke-linecap=\"round\">\n",
-                   f->id);
+    /* lines are clipped to the plot area one by one; markers are not, so points on the frame
+     * (pure components at x = 0 and 1) show whole */
+    pw_sbuf_puts(b, "<g class=\"pw-data\" stroke-linejoin=\"round\" stroke-linecap=\"round\">\n");
     return pw_sbuf_status(b);
 }
 
@@ -485,7 +485,7 @@ pw_status pw_svg_polyline(pw_sbuf *b, const pw_frame *f, const double *x, const 
         }
         i = j;
     }
-    pw_sbuf_puts(b, "\"");
+    pw_sbuf_printf(b, "\" clip-path=\"url(#%s-clip)\"", f->id);
     style_attrs(b, s, true);
     if (cls)
         pw_sbuf_printf(b, " class=\"%s\"", cls);

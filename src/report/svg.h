@@ -122,10 +122,10 @@ double pw_frame_py(const pw_frame *f, double y);
 
 /* Opens the <svg> element (with title for screen readers) and draws the background, grid,
  * ticks, tick labels and the axis labels (which should carry their units, e.g. "T / K").
- * Then opens the clipped group where series go. */
+ * Then opens the group where series go (lines are clipped to the plot area, markers not). */
 pw_status pw_svg_begin(pw_sbuf *b, const pw_frame *f, const char *title, const char *xlabel,
                        const char *ylabel);
-/* Closes the clipped group (call once, after the series and before legend/annotations). */
+/* Closes the series group (call once, after the series and before legend/annotations). */
 pw_status pw_svg_end_data(pw_sbuf *b);
 /* Draws the frame border and closes </svg>. */
 pw_status pw_svg_end(pw_sbuf *b, const pw_frame *f);
