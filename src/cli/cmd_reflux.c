@@ -45,6 +45,13 @@ json_t *pw_reflux_json(const pw_reflux_run *run)
         json_object_set_new(o, "pinch", json_null());
     }
     json_object_set_new(o, "n_min", c->feasible ? pw_cli_json_num(c->n_min) : json_null());
+    json_object_set_new(o, "limit",
+                        !c->feasible ? json_null()
+                        : c->boilup_limited && c->pinch.kind == PW_PINCH_FEED
+                            ? json_string("zero boil-up: the feed's vapor is all the rectifying "
+                                          "section gets; the operating lines meet on the q-line "
+                                          "at xb")
+                            : json_string("pinch"));
     json_object_set_new(o, "boilup_min", c->feasible ? pw_cli_json_num(c->s_min) : json_null());
     json_object_set_new(o, "r_min_feed_point_only", c->feasible ? pw_cli_json_num(c->r_feed) : json_null());
     json_object_set_new(o, "q_line_point", json_pack("{s:o,s:o}", "x", pw_cli_json_num(c->x_q), "y",
@@ -99,9 +106,14 @@ static void print_table(const pw_reflux_run *run)
         return;
     }
     printf("  minimum reflux R_min      %.6g  (minimum boil-up Vbar/B %.6g)\n", c->r_min, c->s_min);
-    printf("  limiting pinch            %s pinch in the %s section at x = %.5f, y = %.5f\n",
-           pinch_kind(c->pinch.kind), section(c->pinch.section), c->pinch.x, c->pinch.y);
-    if (c->pinch.kind == PW_PINCH_TANGENT)
+    if (c->boilup_limited && c->pinch.kind == PW_PINCH_FEED)
+        printf("  limited by zero boil-up   the q-line meets the curve below xb: the feed brings\n"
+               "                            more vapor than the rectifying section needs, so R\n"
+               "                            cannot fall below this without cooling the feed\n");
+    else
+        printf("  limiting pinch            %s pinch in the %s section at x = %.5f, y = %.5f\n",
+               pinch_kind(c->pinch.kind), section(c->pinch.section), c->pinch.x, c->pinch.y);
+    if (c->pinch.kind == PW_PINCH_TANGENT && !c->boilup_limited)
         printf("  (a search at the q-line alone would give R = %.6g: %.0f %% too low)\n", c->r_feed,
                100.0 * (c->r_min - c->r_feed) / c->r_min);
     printf("  stages at total reflux    %.3f stepped (Fenske %.3f, alpha top %.3f, bottom %.3f)\n",
