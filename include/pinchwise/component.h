@@ -19,7 +19,7 @@ extern "C" {
 #endif
 
 #define PW_NAME_MAX 80
-#define PW_SOURCE_MAX 320
+#define PW_SOURCE_MAX 1024
 #define PW_UNIT_MAX 8
 
 typedef enum { PW_PSAT_ANTOINE = 0, PW_PSAT_IAPWS_IF97 = 1 } pw_psat_equation;

@@ -1,7 +1,8 @@
 /* Temperature and pressure units. Conversions: K = C + 273.15 (ITS-90 convention),
  * K = (F + 459.67) * 5/9; 1 atm = 101325 Pa exactly, 1 bar = 1e5 Pa, 1 mmHg = 101325/760 Pa
  * (the conventional millimetre of mercury taken as 1/760 atm, i.e. the torr), 1 psi =
- * 6894.757293168 Pa (NIST SP 811, Appendix B.8). */
+ * 0.45359237 kg * 9.80665 m/s2 / (0.0254 m)^2 = 6894.757293168... Pa
+ * (NIST SP 811, Appendix B.8). */
 #include <pinchwise/units.h>
 
 #include <ctype.h>
@@ -26,7 +27,7 @@ static const unit_def pressure_units[] = {
     {"Pa", 1.0, 0.0},          {"kPa", 1e3, 0.0},
     {"MPa", 1e6, 0.0},         {"bar", 1e5, 0.0},
     {"atm", 101325.0, 0.0},    {"mmHg", 101325.0 / 760.0, 0.0},
-    {"psia", 6894.757293168, 0.0},
+    {"psia", 0.45359237 * 9.80665 / (0.0254 * 0.0254), 0.0}, /* lbf/in2, exact */
 };
 
 static const unit_def *find_unit(pw_quantity q, const char *unit)

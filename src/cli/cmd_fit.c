@@ -103,7 +103,8 @@ static void print_table(const pw_fit_result *r, const char *path)
                r->dev_P_Pa.max_line);
     printf("  chi2/dof %.4g, AICc %.4g\n", r->chi2_red, r->aicc);
     if (r->n_minima > 1)
-        printf("  %zu distinct minima found by the multistart (see the fit file)\n", r->n_minima);
+        printf("  %zu distinct local minima found by the multistart (best chi2 %.4g, next %.4g)\n",
+               r->n_minima, r->minima[0].chi2, r->minima[1].chi2);
     printf("  fit file: %s\n", path);
 }
 

@@ -70,9 +70,13 @@ static void warn_fit(const pw_fit_result *r, const char *input)
                      "%s: the %s parameters predict a liquid-liquid split (d2(Gmix/RT)/dx1^2 = %.3g "
                      "at x1 = %.3f, %.1f K); if the liquids are known to mix, the fit is spurious",
                      input, r->sys.model->name, r->split_min_D, r->split_x, r->split_T_K);
-    if (r->n_minima > 1)
-        pw_cli_warnf("fit", "%s: %zu distinct minima found; the best is used, all are in the fit file",
-                     input, r->n_minima);
+    size_t competing = 0;
+    for (size_t i = 0; i < r->n_minima; i++)
+        competing += r->minima[i].chi2 <= r->minima[0].chi2 * fmax(1.01, exp(2.0 / (double)r->n_residuals));
+    if (competing > 1)
+        pw_cli_warnf("fit", "%s: %zu distinct minima fit the data about equally well (delta-AICc < 2); "
+                     "the one without a liquid split and lowest chi2 is used, all are in the fit file",
+                     input, competing);
     for (size_t a = 0; a < r->sys.model->n_params; a++)
         for (size_t b = a + 1; b < r->sys.model->n_params; b++)
             if (r->fitted[a] && r->fitted[b] && fabs(r->corr[a][b]) > 0.95)
@@ -229,9 +233,13 @@ int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_o
                 continue;
             }
             const pw_fit_result *r = &res[i].r;
-            printf("  %-4zu %-9s %9.2f %10.4f %10.3f %10.4f  %s%s\n", i + 1, r->sys.model->name,
-                   r->aicc - best_aicc, r->dev_y.aad, r->dev_T_K.aad, r->dev_P_Pa.aad / 1e3,
-                   r->converged ? "" : "not converged ", r->split ? "liquid split predicted" : "");
+            char cy[16], cT[16], cP[16];
+            snprintf(cy, sizeof cy, isfinite(r->dev_y.aad) ? "%.4f" : "-", r->dev_y.aad);
+            snprintf(cT, sizeof cT, isfinite(r->dev_T_K.aad) ? "%.3f" : "-", r->dev_T_K.aad);
+            snprintf(cP, sizeof cP, isfinite(r->dev_P_Pa.aad) ? "%.4f" : "-", r->dev_P_Pa.aad / 1e3);
+            printf("  %-4zu %-9s %9.2f %10s %10s %10s  %s%s\n", i + 1, r->sys.model->name,
+                   r->aicc - best_aicc, cy, cT, cP, r->converged ? "" : "not converged ",
+                   r->split ? "liquid split predicted" : "");
         }
         for (size_t i = 0; i < n; i++)
             if (res[i].rc == 0)

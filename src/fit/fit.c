@@ -15,6 +15,7 @@
 #include "pinchwise_version.h"
 
 #define PENALTY_RESIDUAL 1e8 /* stands in for a residual where the model cannot be evaluated */
+#define RUNAWAY_LIMIT 100.0  /* internal units: 100 for A_ij, 10 000 K for energies */
 
 pw_fit_options pw_fit_default_options(void)
 {
@@ -312,9 +313,21 @@ static pw_status init_result(const pw_dataset *ds, const pw_component *c1, const
     return PW_OK;
 }
 
+/* A run that drifted to an asymptote (an energy of tens of thousands of kelvin, a Lambda or G
+ * of essentially zero) has not found a minimum but a flat plateau of the objective. */
+static bool runaway(const fit_problem *fp, const double *params)
+{
+    for (size_t j = 0; j < fp->n_fit; j++)
+        if (fabs(params[fp->idx[j]]) > RUNAWAY_LIMIT * fp->scale[j])
+            return true;
+    return false;
+}
+
 /* Records a converged run among the distinct minima (sorted by chi2 on output). */
 static void add_minimum(pw_fit_result *r, const fit_problem *fp, const run_result *run)
 {
+    if (runaway(fp, run->params))
+        return;
     for (size_t i = 0; i < r->n_minima; i++)
         if (same_minimum(fp, r->minima[i].params, run->params)) {
             r->minima[i].hits++;
@@ -417,7 +430,8 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
         run_result run;
         run_lm(w, &fdf, &ctx, start, &o, &run);
         out->iterations += run.iterations;
-        bool conv = run.stop == PW_STOP_STEP || run.stop == PW_STOP_GRADIENT;
+        bool conv = (run.stop == PW_STOP_STEP || run.stop == PW_STOP_GRADIENT) &&
+                    !runaway(&fp, run.params);
         if (conv)
             add_minimum(out, &fp, &run);
         /* prefer converged runs; among equals the lower chi2 */

@@ -1,0 +1,183 @@
+#include "reflux_common.h"
+
+#include "cli.h"
+
+#include <math.h>
+#include <pinchwise/curve.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+static int parse_factors(const char *text, pw_column_options *o, pw_error *err)
+{
+    o->n_factors = 0;
+    const char *p = text;
+    while (*p) {
+        char *end;
+        double f = strtod(p, &end);
+        if (end == p || !isfinite(f) || f <= 1.0)
+            return pw_error_set(err, PW_EINVAL, NULL, 0,
+                                "--factors %s: expected multiples of R_min above 1, e.g. 1.2,1.3,1.5",
+                                text);
+        if (o->n_factors == PW_COLUMN_MAX_FACTORS)
+            return pw_error_set(err, PW_EINVAL, NULL, 0, "--factors: at most %d values",
+                                PW_COLUMN_MAX_FACTORS);
+        o->factors[o->n_factors++] = f;
+        p = end;
+        if (*p == ',')
+            p++;
+        else if (*p)
+            return pw_error_set(err, PW_EINVAL, NULL, 0,
+                                "--factors %s: expected comma-separated numbers", text);
+    }
+    return o->n_factors ? 0 : pw_error_set(err, PW_EINVAL, NULL, 0, "--factors: no values");
+}
+
+static int fraction(const char *opt, const char *v, double *out, pw_error *err)
+{
+    if (pw_cli_number(opt, v, out, err) != PW_OK)
+        return PW_EXIT_USAGE;
+    if (!(*out >= 0.0 && *out <= 1.0)) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: a mole fraction must lie in [0, 1]", opt, v);
+        return PW_EXIT_USAGE;
+    }
+    return 0;
+}
+
+int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err)
+{
+    memset(a, 0, sizeof *a);
+    a->spec.q = 1.0;
+    a->opt = pw_column_default_options();
+    for (int i = 1; i < argc; i++) {
+        const char *v = NULL;
+        bool missing = false;
+        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
+            return -1;
+        if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
+            a->json = true;
+            continue;
+        }
+        if (pw_cli_opt(argc, argv, &i, "--uncertainty", NULL, NULL)) {
+            a->uncertainty = true;
+            continue;
+        }
+        if (!strncmp(argv[i], "--", 2)) {
+            const char *opt = argv[i];
+            if (!(pw_cli_opt(argc, argv, &i, opt, &v, &missing)) || missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
+                return PW_EXIT_USAGE;
+            }
+            int rc = 0;
+            if (!strcmp(opt, "--pressure")) {
+                if (pw_cli_quantity(PW_QTY_PRESSURE, opt, v, &a->P_Pa, err) != PW_OK)
+                    return PW_EXIT_USAGE;
+                a->have_P = true;
+            } else if (!strcmp(opt, "--xd")) {
+                rc = fraction(opt, v, &a->spec.xd, err);
+                a->have_xd = true;
+            } else if (!strcmp(opt, "--xb")) {
+                rc = fraction(opt, v, &a->spec.xb, err);
+                a->have_xb = true;
+            } else if (!strcmp(opt, "--zf")) {
+                rc = fraction(opt, v, &a->spec.zf, err);
+                a->have_zf = true;
+            } else if (!strcmp(opt, "--q")) {
+                rc = pw_cli_number(opt, v, &a->spec.q, err) == PW_OK ? 0 : PW_EXIT_USAGE;
+            } else if (!strcmp(opt, "--factors")) {
+                rc = parse_factors(v, &a->opt, err) ? PW_EXIT_USAGE : 0;
+            } else if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") ||
+                       !strcmp(opt, "--compare")) {
+                /* options of the uncertainty extension: kept for it to read */
+                if (a->n_extra + 2 > (int)(sizeof a->extra / sizeof a->extra[0])) {
+                    pw_error_set(err, PW_EINVAL, NULL, 0, "too many options");
+                    return PW_EXIT_USAGE;
+                }
+                a->extra[a->n_extra++] = opt;
+                a->extra[a->n_extra++] = v;
+            } else {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", opt);
+                return PW_EXIT_USAGE;
+            }
+            if (rc)
+                return rc;
+            continue;
+        }
+        if (a->fit_path) {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", argv[i]);
+            return PW_EXIT_USAGE;
+        }
+        a->fit_path = argv[i];
+    }
+    if (!a->fit_path || !a->have_P || !a->have_xd || !a->have_xb || !a->have_zf) {
+        pw_error_set(err, PW_EINVAL, NULL, 0,
+                     "a fit file and --pressure, --xd, --xb, --zf are required");
+        return PW_EXIT_USAGE;
+    }
+    if (!(a->spec.xb < a->spec.zf && a->spec.zf < a->spec.xd)) {
+        pw_error_set(err, PW_EINVAL, NULL, 0,
+                     "the targets must satisfy xb < zf < xd (got xb %g, zf %g, xd %g; x is the mole "
+                     "fraction of %s)",
+                     a->spec.xb, a->spec.zf, a->spec.xd, "component 1");
+        return PW_EXIT_USAGE;
+    }
+    return 0;
+}
+
+int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err)
+{
+    memset(run, 0, sizeof *run);
+    pw_status st = pw_fitfile_read(a->fit_path, &run->fit, err);
+    if (st != PW_OK)
+        return pw_status_exit_code(st);
+    run->P_Pa = a->P_Pa;
+    run->spec = a->spec;
+    pw_system_curve sc;
+    st = pw_system_curve_init(&sc, &run->fit.sys, a->P_Pa);
+    if (st == PW_OK) {
+        pw_curve curve = pw_system_curve_bind(&sc);
+        st = pw_column_solve(&curve, &a->spec, &a->opt, &run->col);
+    }
+    if (st != PW_OK) {
+        pw_error_set(err, st, a->fit_path, 0, "%s%s%s", pw_strerror(st),
+                     run->col.reason[0] ? ": " : "", run->col.reason);
+        pw_fit_result_free(&run->fit);
+        return pw_status_exit_code(st);
+    }
+    pw_eq_point e;
+    run->T_top_K = pw_bubble_T(&run->fit.sys, a->P_Pa, a->spec.xd, &e) == PW_OK ? e.T_K : (double)NAN;
+    run->T_bottom_K = pw_bubble_T(&run->fit.sys, a->P_Pa, a->spec.xb, &e) == PW_OK ? e.T_K : (double)NAN;
+    return 0;
+}
+
+void pw_reflux_warn(const pw_reflux_run *run)
+{
+    const pw_fit_result *r = &run->fit;
+    double Ts[2] = {run->T_top_K, run->T_bottom_K};
+    for (int i = 0; i < 2; i++) {
+        const pw_component *c = &r->sys.comp[i];
+        for (int k = 0; k < 2; k++) {
+            double ex = isfinite(Ts[k]) ? pw_component_range_excess_K(c, Ts[k]) : 0.0;
+            if (ex != 0.0)
+                pw_cli_warnf("reflux", "the column %s at %.1f K lies %.1f K %s the vapor-pressure "
+                             "range of %s",
+                             k == 0 ? "top" : "bottom", Ts[k], fabs(ex), ex < 0 ? "below" : "above",
+                             c->name);
+        }
+    }
+    if (isfinite(r->T_min_K) && isfinite(run->T_top_K) &&
+        (fmin(run->T_top_K, run->T_bottom_K) < r->T_min_K - 5.0 ||
+         fmax(run->T_top_K, run->T_bottom_K) > r->T_max_K + 5.0))
+        pw_cli_warnf("reflux", "the column runs at %.1f-%.1f K, outside the fitted data's %.1f-%.1f K "
+                     "by more than 5 K: the model is extrapolated",
+                     fmin(run->T_top_K, run->T_bottom_K), fmax(run->T_top_K, run->T_bottom_K),
+                     r->T_min_K, r->T_max_K);
+    if (!r->converged)
+        pw_cli_warnf("reflux", "%s: the fit did not converge; do not design with it", r->dataset_path);
+    if (r->split)
+        pw_cli_warnf("reflux", "the fitted model predicts a liquid-liquid split (x1 = %.3f at %.1f K)",
+                     r->split_x, r->split_T_K);
+    if (run->col.feasible && run->col.pinch.kind == PW_PINCH_TANGENT)
+        pw_cli_warnf("reflux", "tangent pinch: stage counts near R_min are very sensitive to the "
+                     "model; consider --uncertainty");
+}

@@ -1,0 +1,45 @@
+/* The reflux command's argument parsing and computation, shared with options that extend it. */
+#ifndef PW_CLI_REFLUX_COMMON_H
+#define PW_CLI_REFLUX_COMMON_H
+
+#include <jansson.h>
+#include <pinchwise/column.h>
+#include <pinchwise/fit.h>
+#include <stdbool.h>
+
+typedef struct pw_reflux_args {
+    const char *fit_path;
+    double P_Pa;
+    pw_column_spec spec;
+    pw_column_options opt;
+    bool json;
+    bool have_P, have_xd, have_xb, have_zf;
+    /* options other commands add; unknown ones are rejected */
+    bool uncertainty;
+    const char *extra[16];
+    int n_extra;
+} pw_reflux_args;
+
+typedef struct pw_reflux_run {
+    pw_fit_result fit;
+    double P_Pa;
+    pw_column_spec spec;
+    pw_column_result col;
+    double T_top_K, T_bottom_K;
+} pw_reflux_run;
+
+/* Returns 0, -1 for --help, or an exit code with err filled. */
+int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err);
+
+/* Reads the fit file and runs the column analysis. Returns 0 or an exit code with err. The caller
+ * frees run->fit. */
+int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err);
+
+/* Warnings on stderr: temperatures outside a component's vapor-pressure range or the fit's data
+ * range, non-converged fit, predicted liquid split. */
+void pw_reflux_warn(const pw_reflux_run *run);
+
+/* The --json object of CONTRACT.md plus the design table. New reference. */
+json_t *pw_reflux_json(const pw_reflux_run *run);
+
+#endif

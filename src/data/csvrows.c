@@ -1,0 +1,320 @@
+/* Row reader on top of libcsv with physical line numbers; see csvrows.h. */
+#include "data/csvrows.h"
+
+#include <ctype.h>
+#include <errno.h>
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+static const unsigned char utf8_bom[3] = {0xEF, 0xBB, 0xBF};
+
+static bool grow(void **buf, size_t *cap, size_t need, size_t elem)
+{
+    if (need <= *cap)
+        return true;
+    size_t n = *cap ? *cap : 16;
+    while (n < need)
+        n *= 2;
+    void *p = realloc(*buf, n * elem);
+    if (!p)
+        return false;
+    *buf = p;
+    *cap = n;
+    return true;
+}
+
+static void fail(pw_csvrows *r, pw_status st, long line, const char *msg)
+{
+    if (r->status != PW_OK)
+        return;
+    r->status = pw_error_set(r->err, st, r->name, line, "%s", msg);
+}
+
+static void reset_row(pw_csvrows *r)
+{
+    r->row_len = 0;
+    r->nfields = 0;
+    r->row_newlines = 0;
+}
+
+static void on_field(void *s, size_t len, void *data)
+{
+    pw_csvrows *r = data;
+    if (r->status != PW_OK)
+        return;
+    const char *f = s ? s : "";
+    if (len && memchr(f, '\0', len)) {
+        fail(r, PW_EPARSE, r->line, "NUL byte inside a field (expected text)");
+        return;
+    }
+    if (!grow((void **)&r->rowbuf, &r->row_cap, r->row_len + len + 1, 1) ||
+        !grow((void **)&r->offs, &r->offs_cap, r->nfields + 1, sizeof *r->offs)) {
+        fail(r, PW_ENOMEM, 0, "out of memory while reading a row");
+        return;
+    }
+    for (size_t i = 0; i < len; i++)
+        if (f[i] == '\n')
+            r->row_newlines++;
+    r->offs[r->nfields++] = r->row_len;
+    memcpy(r->rowbuf + r->row_len, f, len);
+    r->row_len += len;
+    r->rowbuf[r->row_len++] = '\0';
+}
+
+static void on_row(int c, void *data)
+{
+    (void)c;
+    pw_csvrows *r = data;
+    long line = r->line - r->row_newlines;
+    if (r->status != PW_OK) {
+        reset_row(r);
+        return;
+    }
+    if (!grow((void **)&r->ptrs, &r->ptrs_cap, r->nfields + 1, sizeof *r->ptrs)) {
+        fail(r, PW_ENOMEM, 0, "out of memory while reading a row");
+        reset_row(r);
+        return;
+    }
+    bool all_empty = true;
+    for (size_t i = 0; i < r->nfields; i++) {
+        r->ptrs[i] = r->rowbuf + r->offs[i];
+        if (r->ptrs[i][0] != '\0')
+            all_empty = false;
+    }
+    if (!all_empty) {
+        pw_status st = r->row_fn(r->ctx, r->ptrs, r->nfields, line, r->err);
+        if (st != PW_OK && r->status == PW_OK)
+            r->status = st;
+    }
+    reset_row(r);
+}
+
+/* Passes one piece of CSV text that holds at most one LF, at its end. */
+static void csv_segment(pw_csvrows *r, const char *s, size_t len)
+{
+    if (r->status != PW_OK || len == 0)
+        return;
+    size_t done = csv_parse(&r->parser, s, len, on_field, on_row, r);
+    if (r->status == PW_OK && done != len) {
+        char msg[200];
+        snprintf(msg, sizeof msg,
+                 "malformed CSV: %s (a quote may only open or close a whole field; a quote "
+                 "inside a quoted field is written twice)",
+                 csv_strerror(csv_error(&r->parser)));
+        fail(r, PW_EPARSE, r->line, msg);
+    }
+    if (s[len - 1] == '\n')
+        r->line++;
+}
+
+static void csv_bytes(pw_csvrows *r, const char *s, size_t len)
+{
+    while (len && r->status == PW_OK) {
+        const char *nl = memchr(s, '\n', len);
+        size_t n = nl ? (size_t)(nl - s) + 1 : len;
+        csv_segment(r, s, n);
+        s += n;
+        len -= n;
+    }
+}
+
+static bool blank(const char *s, size_t len)
+{
+    for (size_t i = 0; i < len; i++)
+        if (s[i] != ' ' && s[i] != '\t')
+            return false;
+    return true;
+}
+
+/* A whole preamble line is in r->pre (without LF). */
+static void preamble_line(pw_csvrows *r)
+{
+    size_t len = r->pre_len;
+    if (len && r->pre[len - 1] == '\r')
+        len--;
+    r->pre[len] = '\0';
+    if (blank(r->pre, len)) {
+        r->line++;
+        return;
+    }
+    bool is_csv = false;
+    pw_status st = r->line_fn(r->ctx, r->pre, len, r->line, &is_csv, r->err);
+    if (st != PW_OK) {
+        if (r->status == PW_OK)
+            r->status = st;
+        return;
+    }
+    if (is_csv) {
+        r->in_csv = true;
+        r->pre[len] = '\n';
+        csv_segment(r, r->pre, len + 1);
+    } else {
+        r->line++;
+    }
+}
+
+static void process(pw_csvrows *r, const char *s, size_t len)
+{
+    while (len && r->status == PW_OK) {
+        if (r->in_csv) {
+            csv_bytes(r, s, len);
+            return;
+        }
+        const char *nl = memchr(s, '\n', len);
+        size_t n = nl ? (size_t)(nl - s) : len;
+        if (!grow((void **)&r->pre, &r->pre_cap, r->pre_len + n + 2, 1)) {
+            fail(r, PW_ENOMEM, 0, "out of memory while reading a line");
+            return;
+        }
+        memcpy(r->pre + r->pre_len, s, n);
+        r->pre_len += n;
+        if (!nl)
+            return;
+        preamble_line(r);
+        r->pre_len = 0;
+        s += n + 1;
+        len -= n + 1;
+    }
+}
+
+pw_status pw_csvrows_init(pw_csvrows *r, const char *name, pw_csvrows_line_fn line_fn,
+                          pw_csvrows_row_fn row_fn, void *ctx, pw_error *err)
+{
+    memset(r, 0, sizeof *r);
+    r->name = name;
+    r->line_fn = line_fn;
+    r->row_fn = row_fn;
+    r->ctx = ctx;
+    r->err = err;
+    r->line = 1;
+    r->in_csv = line_fn == NULL;
+    if (csv_init(&r->parser, CSV_STRICT | CSV_STRICT_FINI | CSV_APPEND_NULL) != 0)
+        return r->status = pw_error_set(err, PW_ENOMEM, name, 0, "out of memory (CSV parser)");
+    r->parser_ready = true;
+    return PW_OK;
+}
+
+pw_status pw_csvrows_feed(pw_csvrows *r, const char *buf, size_t len)
+{
+    while (len && r->bytes_seen < 3 && r->status == PW_OK) {
+        r->bom[r->bom_len++] = (unsigned char)*buf;
+        r->bytes_seen++;
+        buf++;
+        len--;
+        if (r->bom[r->bom_len - 1] != utf8_bom[r->bom_len - 1]) {
+            process(r, (const char *)r->bom, r->bom_len); /* not a BOM: ordinary bytes */
+            r->bytes_seen = 3;
+        } else if (r->bom_len == 3) {
+            r->bytes_seen = 3; /* a complete BOM: dropped */
+        }
+    }
+    if (r->status == PW_OK)
+        process(r, buf, len);
+    return r->status;
+}
+
+pw_status pw_csvrows_finish(pw_csvrows *r)
+{
+    if (r->status == PW_OK && r->bytes_seen < 3 && r->bom_len)
+        process(r, (const char *)r->bom, r->bom_len); /* a short input that began like a BOM */
+    r->bytes_seen = 3;
+    if (r->status == PW_OK && !r->in_csv && r->pre_len) {
+        preamble_line(r);
+        r->pre_len = 0;
+    }
+    if (r->parser_ready) {
+        int rc = csv_fini(&r->parser, on_field, on_row, r);
+        if (rc != 0 && r->status == PW_OK)
+            fail(r, PW_EPARSE, r->line - r->row_newlines,
+                 "malformed CSV: a quoted field opened on or before this line is never closed "
+                 "(expected a closing '\"')");
+    }
+    return r->status;
+}
+
+void pw_csvrows_free(pw_csvrows *r)
+{
+    if (!r)
+        return;
+    if (r->parser_ready)
+        csv_free(&r->parser);
+    free(r->pre);
+    free(r->rowbuf);
+    free(r->offs);
+    free(r->ptrs);
+    memset(r, 0, sizeof *r);
+}
+
+bool pw_csvrows_number(const char *text, double *out)
+{
+    const char *p = text;
+    bool digits = false;
+    if (!p)
+        return false;
+    if (*p == '+' || *p == '-')
+        p++;
+    while (isdigit((unsigned char)*p)) {
+        p++;
+        digits = true;
+    }
+    if (*p == '.') {
+        p++;
+        while (isdigit((unsigned char)*p)) {
+            p++;
+            digits = true;
+        }
+    }
+    if (!digits)
+        return false;
+    if (*p == 'e' || *p == 'E') {
+        p++;
+        if (*p == '+' || *p == '-')
+            p++;
+        if (!isdigit((unsigned char)*p))
+            return false;
+        while (isdigit((unsigned char)*p))
+            p++;
+    }
+    if (*p != '\0')
+        return false;
+    double v = strtod(text, NULL);
+    if (!isfinite(v))
+        return false;
+    *out = v;
+    return true;
+}
+
+pw_status pw_csvrows_slurp(const char *path, char **buf, size_t *len, pw_error *err)
+{
+    *buf = NULL;
+    *len = 0;
+    FILE *f = fopen(path, "rb");
+    if (!f)
+        return pw_error_set(err, PW_EIO, path, 0, "cannot open: %s", strerror(errno));
+    size_t cap = 0, n = 0;
+    char *data = NULL;
+    for (;;) {
+        if (!grow((void **)&data, &cap, n + 65536 + 1, 1)) {
+            free(data);
+            fclose(f);
+            return pw_error_set(err, PW_ENOMEM, path, 0, "out of memory while reading the file");
+        }
+        size_t got = fread(data + n, 1, cap - n - 1, f);
+        n += got;
+        if (got == 0)
+            break;
+    }
+    int bad = ferror(f);
+    int saved = errno;
+    fclose(f);
+    if (bad) {
+        free(data);
+        return pw_error_set(err, PW_EIO, path, 0, "read error: %s", strerror(saved));
+    }
+    data[n] = '\0';
+    *buf = data;
+    *len = n;
+    return PW_OK;
+}

@@ -1,0 +1,261 @@
+/* Dataset files (measured binary VLE): reading and validation with libcsv.
+ * Format and rules: include/pinchwise/dataset.h and docs/inputs.md. Metadata lines are taken
+ * whole (see dataset_meta.c); from the header row on, everything goes through libcsv. */
+#include "data/csvrows.h"
+#include "data/dataset_io.h"
+#include "data/dataset_meta.h"
+
+#include <math.h>
+#include <pinchwise/units.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <strings.h>
+
+static pw_status on_line(void *ctx, const char *text, size_t len, long line, bool *is_csv,
+                         pw_error *err)
+{
+    pw_ds_reader *rd = ctx;
+    if (text[0] != '#') {
+        *is_csv = true;
+        return PW_OK;
+    }
+    return pw_ds_meta_line(rd, text, len, line, err);
+}
+
+/* Header column "T[UNIT]" or "P[UNIT]": returns 'T' or 'P' and copies the unit, 0 otherwise. */
+static char tp_column(const char *f, char *unit, size_t cap)
+{
+    char c = f[0];
+    if (c != 'T' && c != 't' && c != 'P' && c != 'p')
+        return 0;
+    if (f[1] == '\0')
+        return c == 'T' || c == 't' ? 't' : 'p'; /* a bare T or P: no unit */
+    size_t len = strlen(f);
+    if (f[1] != '[' || f[len - 1] != ']' || len - 3 >= cap)
+        return 0;
+    memcpy(unit, f + 2, len - 3);
+    unit[len - 3] = '\0';
+    return c == 'T' || c == 't' ? 'T' : 'P';
+}
+
+static pw_status header_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_error *err)
+{
+    pw_status st = pw_ds_meta_complete(rd, line, err);
+    if (st != PW_OK)
+        return st;
+    bool isobaric = rd->ds.kind == PW_DATA_ISOBARIC;
+    rd->col_x = rd->col_y = rd->col_m = -1;
+    for (size_t i = 0; i < n; i++) {
+        char unit[PW_UNIT_MAX] = "";
+        char tp = tp_column(f[i], unit, sizeof unit);
+        long *slot = NULL;
+        if (strcasecmp(f[i], "x1") == 0)
+            slot = &rd->col_x;
+        else if (strcasecmp(f[i], "y1") == 0)
+            slot = &rd->col_y;
+        else if (tp == 't' || tp == 'p')
+            return pw_error_set(err, PW_EPARSE, rd->name, line,
+                                "column '%s' has no unit (expected %s[UNIT] with UNIT one of %s)",
+                                f[i], tp == 't' ? "T" : "P",
+                                pw_units_list(tp == 't' ? PW_QTY_TEMPERATURE : PW_QTY_PRESSURE));
+        else if (tp == 'T' || tp == 'P') {
+            bool is_T = tp == 'T';
+            pw_quantity q = is_T ? PW_QTY_TEMPERATURE : PW_QTY_PRESSURE;
+            if (!pw_units_known(q, unit))
+                return pw_error_set(err, PW_EPARSE, rd->name, line,
+                                    "unknown %s unit '%s' in column '%s' (expected one of %s)",
+                                    is_T ? "temperature" : "pressure", unit, f[i],
+                                    pw_units_list(q));
+            if (is_T != isobaric)
+                return pw_error_set(
+                    err, PW_EPARSE, rd->name, line,
+                    "column '%s' contradicts the metadata: the %s is fixed by '# %s:' (expected "
+                    "a %s column; use '# %s:' instead for %s data)",
+                    f[i], is_T ? "temperature" : "pressure", is_T ? "temperature" : "pressure",
+                    is_T ? "P[UNIT]" : "T[UNIT]", is_T ? "pressure" : "temperature",
+                    is_T ? "T-x-y" : "P-x-y");
+            slot = &rd->col_m;
+            memcpy(is_T ? rd->ds.T_unit : rd->ds.P_unit, unit, strlen(unit) + 1);
+        }
+        if (!slot)
+            continue; /* further columns are allowed and ignored */
+        if (*slot >= 0)
+            return pw_error_set(err, PW_EPARSE, rd->name, line,
+                                "column '%s' appears twice (columns %ld and %zu; expected once)",
+                                f[i], *slot + 1, i + 1);
+        *slot = (long)i;
+    }
+    if (rd->col_x < 0)
+        return pw_error_set(err, PW_EPARSE, rd->name, line,
+                            "no x1 column in the header row (expected x1, optional y1, and %s)",
+                            isobaric ? "T[UNIT]" : "P[UNIT]");
+    if (rd->col_m < 0)
+        return pw_error_set(err, PW_EPARSE, rd->name, line,
+                            "no %s column in the header row (expected one for %s data, as the "
+                            "metadata fixes the %s)",
+                            isobaric ? "T[UNIT]" : "P[UNIT]",
+                            isobaric ? "isobaric T-x-y" : "isothermal P-x-y",
+                            isobaric ? "pressure" : "temperature");
+    rd->ncols = n;
+    rd->header_line = line;
+    rd->header_seen = true;
+    return PW_OK;
+}
+
+static pw_status fraction(pw_ds_reader *rd, const char *text, const char *what, long line,
+                          double *out, pw_error *err)
+{
+    if (text[0] == '\0')
+        return pw_error_set(err, PW_EPARSE, rd->name, line,
+                            "%s is empty (expected a mole fraction between 0 and 1)", what);
+    if (!pw_csvrows_number(text, out))
+        return pw_error_set(err, PW_EPARSE, rd->name, line,
+                            "%s = '%s' is not a number (expected a mole fraction between 0 and "
+                            "1)",
+                            what, text);
+    if (*out < 0.0 || *out > 1.0)
+        return pw_error_set(err, PW_EPARSE, rd->name, line,
+                            "%s = %s is outside [0, 1] (expected a mole fraction)", what, text);
+    return PW_OK;
+}
+
+static pw_status data_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_error *err)
+{
+    pw_dataset *ds = &rd->ds;
+    pw_point p;
+    pw_status st;
+    if (f[0][0] == '#')
+        return pw_error_set(err, PW_EPARSE, rd->name, line,
+                            "metadata line after the header row (expected '# key: value' lines "
+                            "before the header only)");
+    if (n != rd->ncols)
+        return pw_error_set(err, PW_EPARSE, rd->name, line,
+                            "row has %zu fields (expected %zu, as in the header on line %ld)", n,
+                            rd->ncols, rd->header_line);
+    if ((st = fraction(rd, f[rd->col_x], "x1", line, &p.x1, err)))
+        return st;
+    p.y1 = NAN;
+    if (rd->col_y >= 0) {
+        bool given = f[rd->col_y][0] != '\0';
+        if (rd->y_first_line == 0) {
+            rd->y_given = given;
+            rd->y_first_line = line;
+        } else if (given != rd->y_given) {
+            return pw_error_set(err, PW_EPARSE, rd->name, line,
+                                "y1 is %s here but %s on line %ld (expected y1 on every row or "
+                                "on none)",
+                                given ? "given" : "empty", given ? "empty" : "given",
+                                rd->y_first_line);
+        }
+        if (given && (st = fraction(rd, f[rd->col_y], "y1", line, &p.y1, err)))
+            return st;
+    }
+    bool isobaric = ds->kind == PW_DATA_ISOBARIC;
+    const char *what = isobaric ? "T" : "P";
+    const char *unit = isobaric ? ds->T_unit : ds->P_unit;
+    const char *text = f[rd->col_m];
+    double v, si;
+    if (text[0] == '\0')
+        return pw_error_set(err, PW_EPARSE, rd->name, line, "%s is empty (expected a number in %s)",
+                            what, unit);
+    if (!pw_csvrows_number(text, &v))
+        return pw_error_set(err, PW_EPARSE, rd->name, line,
+                            "%s = '%s' is not a number (expected a finite decimal number in %s)",
+                            what, text, unit);
+    if (pw_units_to_si(isobaric ? PW_QTY_TEMPERATURE : PW_QTY_PRESSURE, v, unit, &si) != PW_OK)
+        return pw_error_set(err, PW_EPARSE, rd->name, line,
+                            "%s = %s %s is not positive (expected an absolute %s above zero)",
+                            what, text, unit, isobaric ? "temperature" : "pressure");
+    p.T_K = isobaric ? si : ds->T_fixed_K;
+    p.P_Pa = isobaric ? ds->P_fixed_Pa : si;
+    p.line = line;
+    if (ds->n == rd->cap) {
+        size_t cap = rd->cap ? 2 * rd->cap : 32;
+        pw_point *pts = realloc(ds->pts, cap * sizeof *pts);
+        if (!pts)
+            return pw_error_set(err, PW_ENOMEM, rd->name, line, "out of memory");
+        ds->pts = pts;
+        rd->cap = cap;
+    }
+    ds->pts[ds->n++] = p;
+    return PW_OK;
+}
+
+static pw_status on_row(void *ctx, char **f, size_t n, long line, pw_error *err)
+{
+    pw_ds_reader *rd = ctx;
+    return rd->header_seen ? data_row(rd, f, n, line, err) : header_row(rd, f, n, line, err);
+}
+
+pw_status pw_dataset_parse_chunked(const char *buf, size_t len, const char *name, size_t chunk,
+                                   pw_dataset *ds, pw_error *err)
+{
+    if (!ds)
+        return pw_error_set(err, PW_EINVAL, name, 0, "no dataset given");
+    memset(ds, 0, sizeof *ds);
+    if (!buf && len)
+        return pw_error_set(err, PW_EINVAL, name, 0, "no buffer given");
+    pw_ds_reader rd;
+    pw_ds_reader_init(&rd, name ? name : "(dataset)");
+    pw_csvrows r;
+    pw_status st = pw_csvrows_init(&r, rd.name, on_line, on_row, &rd, err);
+    if (chunk == 0)
+        chunk = len ? len : 1;
+    for (size_t off = 0; st == PW_OK && off < len; off += chunk)
+        st = pw_csvrows_feed(&r, buf + off, len - off < chunk ? len - off : chunk);
+    if (st == PW_OK)
+        st = pw_csvrows_finish(&r);
+    long last_line = r.line;
+    pw_csvrows_free(&r);
+    if (st == PW_OK && !rd.header_seen) {
+        st = pw_ds_meta_complete(&rd, last_line, err);
+        if (st == PW_OK)
+            st = pw_error_set(err, PW_EPARSE, rd.name, last_line,
+                              "no header row (expected x1, optional y1, and %s after the "
+                              "metadata)",
+                              rd.ds.kind == PW_DATA_ISOBARIC ? "T[UNIT]" : "P[UNIT]");
+    } else if (st == PW_OK && rd.ds.n == 0) {
+        st = pw_error_set(err, PW_EPARSE, rd.name, rd.header_line,
+                          "no data rows after the header row (expected at least one)");
+    }
+    if (st != PW_OK) {
+        pw_ds_reader_free(&rd);
+        return st;
+    }
+    rd.ds.has_y = rd.col_y >= 0 && rd.y_given;
+    snprintf(rd.ds.path, sizeof rd.ds.path, "%s", rd.name);
+    pw_sha256(buf, len, rd.ds.sha256);
+    *ds = rd.ds;
+    rd.ds.pts = NULL;
+    pw_ds_reader_free(&rd);
+    return PW_OK;
+}
+
+pw_status pw_dataset_parse(const char *buf, size_t len, const char *name, pw_dataset *ds,
+                           pw_error *err)
+{
+    return pw_dataset_parse_chunked(buf, len, name, 0, ds, err);
+}
+
+pw_status pw_dataset_read(const char *path, pw_dataset *ds, pw_error *err)
+{
+    if (ds)
+        memset(ds, 0, sizeof *ds);
+    char *buf;
+    size_t len;
+    pw_status st = pw_csvrows_slurp(path, &buf, &len, err);
+    if (st != PW_OK)
+        return st;
+    st = pw_dataset_parse(buf, len, path, ds, err);
+    free(buf);
+    return st;
+}
+
+void pw_dataset_free(pw_dataset *ds)
+{
+    if (!ds)
+        return;
+    free(ds->pts);
+    memset(ds, 0, sizeof *ds);
+}
