@@ -5,6 +5,7 @@
 
 #include <jansson.h>
 #include <pinchwise/component.h>
+#include <pinchwise/equilibrium.h>
 #include <pinchwise/status.h>
 #include <pinchwise/units.h>
 #include <stdbool.h>
@@ -38,6 +39,12 @@ void pw_cli_warnf(const char *cmd, const char *fmt, ...) __attribute__((format(p
  * The shipped library is found at $PINCHWISE_COMPONENTS, then beside the source tree the
  * program was built from, then the installed data directory. */
 pw_status pw_cli_load_components(pw_complib *lib, const char *extra_path, pw_error *err);
+
+/* For commands that read a fit file: when path is not NULL, reads that component file and replaces
+ * the vapor-pressure data of each of the system's components that it names (a warning on stderr
+ * says so, since the activity parameters were fitted with the fit file's own). */
+pw_status pw_cli_override_components(const char *cmd, pw_system *sys, const char *path,
+                                     pw_error *err);
 
 /* Parses a command-line quantity with its unit ("101.325kPa") for option opt; on failure fills
  * err with a message that names the option and lists the units. */

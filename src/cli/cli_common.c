@@ -111,3 +111,25 @@ bool pw_cli_opt(int argc, char **argv, int *i, const char *name, const char **va
     }
     return true;
 }
+
+pw_status pw_cli_override_components(const char *cmd, pw_system *sys, const char *path,
+                                     pw_error *err)
+{
+    if (!path)
+        return PW_OK;
+    pw_complib lib;
+    pw_complib_init(&lib);
+    pw_status st = pw_complib_read(&lib, path, err);
+    if (st != PW_OK)
+        return st;
+    for (int i = 0; i < 2; i++) {
+        const pw_component *c = pw_complib_find(&lib, sys->comp[i].name);
+        if (!c)
+            continue;
+        sys->comp[i] = *c;
+        pw_cli_warnf(cmd, "vapor pressure of %s taken from %s; the activity parameters were fitted "
+                     "with the fit file's own correlation", c->name, path);
+    }
+    pw_complib_free(&lib);
+    return PW_OK;
+}

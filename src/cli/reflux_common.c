@@ -84,6 +84,8 @@ int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err
                 a->have_zf = true;
             } else if (!strcmp(opt, "--q")) {
                 rc = pw_cli_number(opt, v, &a->spec.q, err) == PW_OK ? 0 : PW_EXIT_USAGE;
+            } else if (!strcmp(opt, "--components")) {
+                a->components = v;
             } else if (!strcmp(opt, "--factors")) {
                 rc = parse_factors(v, &a->opt, err) ? PW_EXIT_USAGE : 0;
             } else if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") ||
@@ -130,6 +132,11 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
     pw_status st = pw_fitfile_read(a->fit_path, &run->fit, err);
     if (st != PW_OK)
         return pw_status_exit_code(st);
+    st = pw_cli_override_components("reflux", &run->fit.sys, a->components, err);
+    if (st != PW_OK) {
+        pw_fit_result_free(&run->fit);
+        return pw_status_exit_code(st);
+    }
     run->P_Pa = a->P_Pa;
     run->spec = a->spec;
     pw_system_curve sc;

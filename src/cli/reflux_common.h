@@ -9,6 +9,7 @@
 
 typedef struct pw_reflux_args {
     const char *fit_path;
+    const char *components; /* --components FILE: replaces vapor-pressure rows */
     double P_Pa;
     pw_column_spec spec;
     pw_column_options opt;
