@@ -143,6 +143,14 @@ pw_status pw_unc_sampler_draw(const pw_unc_sampler *s, gsl_rng *rng, size_t max_
 pw_status pw_unc_draw_params(const pw_unc_problem *pb, unsigned long seed, size_t n,
                              double (*out)[PW_MAX_PARAMS], size_t *redrawn);
 
+/* Equilibrium curves y*(x) at pressure P_Pa for n_curves parameter sets drawn with seed (for a
+ * band of curves near a pinch): x has n_x points evenly on [x_lo, x_hi] (0 <= x_lo < x_hi <= 1),
+ * y receives n_curves rows of n_x values (caller-owned, row-major), NAN where a bubble point
+ * failed. Errors as pw_unc_draw_params, PW_EINVAL for a bad window. */
+pw_status pw_unc_curve_band(const pw_unc_problem *pb, unsigned long seed, double P_Pa,
+                            size_t n_curves, double x_lo, double x_hi, size_t n_x, double *x,
+                            double *y);
+
 /* ---- Column results ------------------------------------------------------------------------ */
 
 /* Outputs of pw_unc_column_fn, in this order. */

@@ -11,6 +11,7 @@
 #include <gsl/gsl_randist.h>
 #include <lapacke.h>
 #include <math.h>
+#include <stdlib.h>
 #include <string.h>
 
 #define NEG_EIG_TOL 1e-8   /* relative: eigenvalues below -tol * lambda_max are refused */
@@ -142,5 +143,30 @@ pw_status pw_unc_draw_params(const pw_unc_problem *pb, unsigned long seed, size_
     gsl_rng_free(rng);
     if (redrawn)
         *redrawn = rej;
+    return st;
+}
+
+pw_status pw_unc_curve_band(const pw_unc_problem *pb, unsigned long seed, double P_Pa,
+                            size_t n_curves, double x_lo, double x_hi, size_t n_x, double *x,
+                            double *y)
+{
+    if (!pb || !pb->sys.model || !x || !y || n_x < 2 || n_curves == 0 ||
+        !(x_lo >= 0.0 && x_lo < x_hi && x_hi <= 1.0) || !(P_Pa > 0.0))
+        return PW_EINVAL;
+    double (*draws)[PW_MAX_PARAMS] = malloc(sizeof *draws * n_curves);
+    if (!draws)
+        return PW_ENOMEM;
+    pw_status st = pw_unc_draw_params(pb, seed, n_curves, draws, NULL);
+    for (size_t j = 0; j < n_x; j++)
+        x[j] = x_lo + (x_hi - x_lo) * (double)j / (double)(n_x - 1);
+    for (size_t c = 0; c < n_curves && st == PW_OK; c++) {
+        pw_system s = pb->sys;
+        memcpy(s.params, draws[c], sizeof s.params);
+        for (size_t j = 0; j < n_x; j++) {
+            pw_eq_point e;
+            y[c * n_x + j] = pw_bubble_T(&s, P_Pa, x[j], &e) == PW_OK ? e.y1 : (double)NAN;
+        }
+    }
+    free(draws);
     return st;
 }
