@@ -19,6 +19,7 @@
 #define PINCHWISE_UNCERTAINTY_H
 
 #include <gsl/gsl_rng.h>
+#include <pinchwise/azeotrope.h>
 #include <pinchwise/column.h>
 #include <pinchwise/equilibrium.h>
 #include <pinchwise/fit.h>
@@ -173,6 +174,27 @@ pw_status pw_unc_column_fn(void *ctx, const pw_system *sys, double *out);
 /* The feasibility risk in words into buf, e.g. "in 12 % of parameter sets drawn from the fit's
  * uncertainty the split cannot be made: ...". Returns buf. */
 const char *pw_unc_risk_words(const pw_unc_result *r, char *buf, size_t len);
+
+/* ---- Azeotropes --------------------------------------------------------------------------- */
+
+/* Outputs of pw_unc_azeo_fn: composition, and T [K] at fixed P or P [kPa] at fixed T. */
+enum { PW_UNC_AZ_X1 = 0, PW_UNC_AZ_TP = 1, PW_UNC_AZ_NOUT = 2 };
+
+typedef struct pw_unc_azeo_ctx {
+    pw_az_mode mode;
+    double fixed;          /* P in Pa (isobaric) or T in K (isothermal) */
+    pw_az_options opt;
+    double x_ref;          /* the azeotrope followed: at the estimate */
+    pw_az_kind kind;
+} pw_unc_azeo_ctx;
+
+/* Follows the azeotrope az of the estimate (search options opt, NULL = defaults). */
+pw_unc_azeo_ctx pw_unc_azeo_ctx_make(pw_az_mode mode, double fixed, const pw_az_options *opt,
+                                     const pw_azeotrope *az);
+
+/* The azeotrope of the same kind nearest x_ref; PW_EINFEASIBLE when the parameter set has none
+ * of that kind (the azeotrope has vanished). ctx is a pw_unc_azeo_ctx. */
+pw_status pw_unc_azeo_fn(void *ctx, const pw_system *sys, double *out);
 
 /* ---- Model risk ---------------------------------------------------------------------------- */
 
