@@ -118,24 +118,24 @@ int pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_r
     return u->n_compare ? compare_models(a, run, u, err) : 0;
 }
 
-static json_t *pair(const double v[2])
+json_t *pw_cli_json_pair(const double v[2])
 {
     if (!isfinite(v[0]) || !isfinite(v[1]))
         return json_null();
     return json_pack("[o,o]", pw_cli_json_num(v[0]), pw_cli_json_num(v[1]));
 }
 
-static json_t *output_json(const pw_unc_output *o)
+json_t *pw_cli_unc_output_json(const pw_unc_output *o)
 {
     json_t *j = json_object();
     json_object_set_new(j, "value", pw_cli_json_num(o->value));
-    json_object_set_new(j, "ci95", pair(o->ci));
+    json_object_set_new(j, "ci95", pw_cli_json_pair(o->ci));
     json_object_set_new(j, "ci95_from", json_string(!isfinite(o->ci[0]) ? "none"
                                                     : o->ci_sampled    ? "sampled"
                                                                        : "linearised"));
-    json_object_set_new(j, "ci95_linearised", o->lin_ok ? pair(o->ci_lin) : json_null());
+    json_object_set_new(j, "ci95_linearised", o->lin_ok ? pw_cli_json_pair(o->ci_lin) : json_null());
     json_object_set_new(j, "sd_linearised", o->lin_ok ? pw_cli_json_num(o->sd_lin) : json_null());
-    json_object_set_new(j, "ci95_sampled", o->mc_ok ? pair(o->ci_mc) : json_null());
+    json_object_set_new(j, "ci95_sampled", o->mc_ok ? pw_cli_json_pair(o->ci_mc) : json_null());
     json_object_set_new(j, "sd_sampled", o->mc_ok ? pw_cli_json_num(o->sd_mc) : json_null());
     json_object_set_new(j, "intervals_disagree", json_boolean(o->disagree));
     return j;
@@ -176,7 +176,7 @@ static json_t *models_json(const pw_reflux_uncert *u)
         json_array_append_new(rows, o);
     }
     json_object_set_new(j, "models", rows);
-    json_object_set_new(j, "r_min_range", pair((const double[2]){m->lo[PW_UNC_RMIN],
+    json_object_set_new(j, "r_min_range", pw_cli_json_pair((const double[2]){m->lo[PW_UNC_RMIN],
                                                                  m->hi[PW_UNC_RMIN]}));
     json_object_set_new(j, "feasibility_differs", json_boolean(m->feasibility_differs));
     json_object_set_new(j, "operating_factor", pw_cli_json_num(u->col.factor));
@@ -190,12 +190,12 @@ void pw_reflux_uncert_json(const pw_reflux_uncert *u, json_t *o)
 {
     if (u->propagate) {
         const pw_unc_result *r = &u->res;
-        json_object_set_new(o, "r_min_ci95", pair(r->out[PW_UNC_RMIN].ci));
+        json_object_set_new(o, "r_min_ci95", pw_cli_json_pair(r->out[PW_UNC_RMIN].ci));
         json_object_set_new(o, "feasible_probability", pw_cli_json_num(r->p_feasible));
         json_t *j = json_object();
-        json_object_set_new(j, "r_min", output_json(&r->out[PW_UNC_RMIN]));
-        json_object_set_new(j, "boilup_min", output_json(&r->out[PW_UNC_SMIN]));
-        json_t *st = output_json(&r->out[PW_UNC_STAGES]);
+        json_object_set_new(j, "r_min", pw_cli_unc_output_json(&r->out[PW_UNC_RMIN]));
+        json_object_set_new(j, "boilup_min", pw_cli_unc_output_json(&r->out[PW_UNC_SMIN]));
+        json_t *st = pw_cli_unc_output_json(&r->out[PW_UNC_STAGES]);
         json_object_set_new(st, "reflux_factor", pw_cli_json_num(u->col.factor));
         json_object_set_new(j, "stages_operating", st);
         json_object_set_new(j, "draws", json_pack("{s:I,s:I,s:I,s:I,s:I,s:I,s:s}",
@@ -210,7 +210,7 @@ void pw_reflux_uncert_json(const pw_reflux_uncert *u, json_t *o)
         if (u->plan_status == PW_OK) {
             const pw_unc_plan_bin *b = &u->plan.bins[u->plan.best];
             json_object_set_new(j, "next_measurements", json_pack("{s:o,s:I,s:o,s:s}",
-                "x1_range", pair((const double[2]){b->x_lo, b->x_hi}),
+                "x1_range", pw_cli_json_pair((const double[2]){b->x_lo, b->x_hi}),
                 "points", (json_int_t)u->plan.points_per_bin,
                 "r_min_sd_reduction", pw_cli_json_num(b->reduction),
                 "advice", pw_unc_plan_words(&u->plan, "R_min", words, sizeof words)));

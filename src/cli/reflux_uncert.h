@@ -33,6 +33,12 @@ int pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_r
  * "uncertainty" and "model_comparison" objects to o. */
 void pw_reflux_uncert_json(const pw_reflux_uncert *u, json_t *o);
 
+/* [a, b] as a JSON array, or null when either is not finite. New reference. */
+json_t *pw_cli_json_pair(const double v[2]);
+
+/* One propagated output: value, ci95 (and where from), both intervals, sds, disagreement. */
+json_t *pw_cli_unc_output_json(const pw_unc_output *o);
+
 /* The same as text on stdout. */
 void pw_reflux_uncert_print(const pw_reflux_uncert *u, const pw_reflux_run *run);
 

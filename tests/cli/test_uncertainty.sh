@@ -64,4 +64,18 @@ grep -q "delta AICc" c.txt || fail "no model table in text output"
 grep -q "same data set" err.txt || fail "message: $(cat err.txt)"
 "$pw" reflux mw.nrtl.json $col --samples 2.5 > /dev/null 2>err.txt && fail "accepted --samples 2.5"
 grep -q "whole number" err.txt || fail "message: $(cat err.txt)"
+# 5. azeotrope --uncertainty: x1_ci95 and T_K_ci95 (fixed P) or P_kPa_ci95 (fixed T) on each azeotrope.
+"$pw" azeotrope ew.nrtl.json --pressure 1atm --uncertainty --samples 60 --json > a.json 2>/dev/null || fail "azeotrope --uncertainty"
+"$pw" azeotrope ew.nrtl.json --temperature 70C --samples 60 --json > b.json 2>/dev/null || fail "azeotrope --samples at fixed T"
+python3 - <<'PY' || fail "azeotrope keys"
+import json
+a = json.load(open("a.json"))["azeotropes"]
+assert len(a) == 1
+lo, hi = a[0]["x1_ci95"]; assert lo < a[0]["x1"] < hi
+lo, hi = a[0]["T_K_ci95"]; assert lo < a[0]["T_K"] < hi
+assert 0 <= a[0]["uncertainty"]["present_probability"] <= 1
+b = json.load(open("b.json"))["azeotropes"]
+lo, hi = b[0]["P_kPa_ci95"]; assert lo < b[0]["P_kPa"] < hi and "T_K_ci95" not in b[0]
+PY
+"$pw" azeotrope ew.nrtl.json --pressure 1atm --samples -3 > /dev/null 2>&1 && fail "accepted --samples -3"
 echo "ok"
