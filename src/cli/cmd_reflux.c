@@ -2,6 +2,7 @@
  * table at 1.2, 1.3 and 1.5 times R_min, for a fitted model at a pressure. */
 #include "cli.h"
 #include "reflux_common.h"
+#include "reflux_uncert.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -18,6 +19,12 @@ static void usage(FILE *f)
             "  --q Q               feed liquid fraction (1 saturated liquid, 0 saturated vapor,\n"
             "                      > 1 subcooled, < 0 superheated; default 1)\n"
             "  --factors F,F,...   design reflux as multiples of R_min (default 1.2,1.3,1.5)\n"
+            "  --uncertainty       intervals of R_min, boil-up and stages from the fit's parameter\n"
+            "                      covariance, feasibility risk, where to measure next\n"
+            "  --samples N         parameter sets drawn for --uncertainty (default 400)\n"
+            "  --seed N            random seed of the draws (default 1)\n"
+            "  --compare FIT.json  another model's fit of the same data (repeatable): R_min\n"
+            "                      side by side, ranked by AICc\n"
             "  --json              print one JSON object on stdout\n");
 }
 
@@ -147,19 +154,27 @@ int pw_cli_reflux(int argc, char **argv)
             usage(stderr);
         return pw_cli_fail("reflux", &err);
     }
-    if (a.uncertainty || a.n_extra)
-        return pw_cli_failf("reflux", PW_EXIT_USAGE,
-                            "--uncertainty, --samples, --seed and --compare are not available in "
-                            "this build yet");
     pw_reflux_run run;
     rc = pw_reflux_compute(&a, &run, &err);
     if (rc != 0)
         return pw_cli_fail("reflux", &err);
+    pw_reflux_uncert unc;
+    bool with_unc = a.uncertainty || a.n_extra;
+    if (with_unc && (rc = pw_reflux_uncert_run(&a, &run, &unc, &err)) != 0) {
+        pw_fit_result_free(&run.fit);
+        return pw_cli_fail("reflux", &err);
+    }
     pw_reflux_warn(&run);
-    if (a.json)
-        rc = pw_cli_print_json(pw_reflux_json(&run));
-    else
+    if (a.json) {
+        json_t *o = pw_reflux_json(&run);
+        if (with_unc)
+            pw_reflux_uncert_json(&unc, o);
+        rc = pw_cli_print_json(o);
+    } else {
         print_table(&run);
+        if (with_unc)
+            pw_reflux_uncert_print(&unc, &run);
+    }
     pw_fit_result_free(&run.fit);
     return rc;
 }
