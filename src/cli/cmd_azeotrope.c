@@ -37,6 +37,7 @@ typedef struct args {
     double fixed, from, to;
     size_t n;
     pw_azeo_uncert unc;
+    const char *components;
 } args;
 
 static int parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
@@ -104,6 +105,12 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
                 return PW_EXIT_USAGE;
             }
             scan_text = v;
+        } else if (pw_cli_opt(argc, argv, &i, "--components", &v, &missing)) {
+            if (missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "--components needs a file");
+                return PW_EXIT_USAGE;
+            }
+            a->components = v;
         } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
             pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", argv[i]);
             return PW_EXIT_USAGE;
@@ -246,8 +253,12 @@ int pw_cli_azeotrope(int argc, char **argv)
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
     pw_status st = pw_fitfile_read(a.fit_path, &fit, &err);
-    if (st != PW_OK)
+    if (st == PW_OK)
+        st = pw_cli_override_components(CMD, &fit.sys, a.components, &err);
+    if (st != PW_OK) {
+        pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
+    }
     pw_az_result r;
     pw_az_scan *sc = NULL;
     st = pw_azeotrope_find(&fit.sys, a.mode, a.fixed, NULL, &r);
