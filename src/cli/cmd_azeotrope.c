@@ -1,9 +1,322 @@
+/* pinchwise azeotrope: every azeotrope of a fitted model at a pressure or a temperature, and
+ * optionally a scan over pressures (or temperatures) for the pressure-swing question. */
+#include "analysis_common.h"
+#include "azeo_uncert.h"
 #include "cli.h"
 
-/* Placeholder until the azeotrope command lands: refuses to run rather than print anything. */
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define CMD "azeotrope"
+
+static void usage(FILE *f)
+{
+    fprintf(f,
+            "usage: pinchwise azeotrope FIT.json (--pressure P | --temperature T) [--scan FROM:TO:N]\n"
+            "                           [--json]\n"
+            "\n"
+            "Azeotropes of the fitted model: where y1 = x1, found on a fine composition grid and\n"
+            "refined by Brent's method; classified from the extremum of the bubble curve.\n"
+            "  --pressure P        fixed pressure with its unit, e.g. 101.325kPa, 1atm\n"
+            "  --temperature T     fixed temperature with its unit, e.g. 50C, 350K\n"
+            "  --scan FROM:TO:N    also solve at N values from FROM to TO (pressures with\n"
+            "                      --pressure, geometric; temperatures with --temperature, linear)\n"
+            "                      and report where the azeotrope reaches a pure end\n"
+            "  --uncertainty       95 %% intervals of each azeotrope from the fit's parameter\n"
+            "                      covariance (linearised and sampled)\n"
+            "  --samples N         parameter sets drawn (default 400); --seed N (default 1)\n"
+            "  --json              print one JSON object on stdout\n");
+}
+
+typedef struct args {
+    const char *fit_path;
+    pw_az_mode mode;
+    bool have_fixed, json, scan;
+    double fixed, from, to;
+    size_t n;
+    pw_azeo_uncert unc;
+    const char *components;
+} args;
+
+static int parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
+{
+    char buf[256];
+    snprintf(buf, sizeof buf, "%s", text);
+    char *c1 = strchr(buf, ':'), *c2 = c1 ? strchr(c1 + 1, ':') : NULL;
+    if (!c1 || !c2 || strchr(c2 + 1, ':')) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "--scan %s: expected FROM:TO:N, e.g. 10kPa:500kPa:12",
+                     text);
+        return PW_EXIT_USAGE;
+    }
+    *c1 = *c2 = '\0';
+    double n;
+    if (pw_cli_quantity(q, "--scan FROM", buf, &a->from, err) != PW_OK ||
+        pw_cli_quantity(q, "--scan TO", c1 + 1, &a->to, err) != PW_OK ||
+        pw_cli_number("--scan N", c2 + 1, &n, err) != PW_OK)
+        return PW_EXIT_USAGE;
+    if (!(n >= 2.0 && n <= 1000.0) || n != floor(n) || a->from == a->to) {
+        pw_error_set(err, PW_EINVAL, NULL, 0,
+                     "--scan %s: N must be a whole number from 2 to 1000 and FROM differ from TO",
+                     text);
+        return PW_EXIT_USAGE;
+    }
+    a->n = (size_t)n;
+    a->scan = true;
+    return 0;
+}
+
+static int parse(int argc, char **argv, args *a, pw_error *err)
+{
+    memset(a, 0, sizeof *a);
+    const char *scan_text = NULL;
+    int urc;
+    for (int i = 1; i < argc; i++) {
+        const char *v = NULL;
+        bool missing = false;
+        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
+            return -1;
+        if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
+            a->json = true;
+        } else if ((urc = pw_azeo_uncert_opt(argc, argv, &i, &a->unc, err)) != 0) {
+            if (urc > 1)
+                return urc;
+        } else if (!strcmp(argv[i], "--pressure") || !strcmp(argv[i], "--temperature")) {
+            bool isP = !strcmp(argv[i], "--pressure");
+            pw_cli_opt(argc, argv, &i, argv[i], &v, &missing);
+            if (missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", argv[i]);
+                return PW_EXIT_USAGE;
+            }
+            if (a->have_fixed) {
+                pw_error_set(err, PW_EINVAL, NULL, 0,
+                             "give one of --pressure or --temperature, once");
+                return PW_EXIT_USAGE;
+            }
+            a->mode = isP ? PW_AZ_ISOBARIC : PW_AZ_ISOTHERMAL;
+            if (pw_cli_quantity(isP ? PW_QTY_PRESSURE : PW_QTY_TEMPERATURE,
+                                isP ? "--pressure" : "--temperature", v, &a->fixed, err) != PW_OK)
+                return PW_EXIT_USAGE;
+            a->have_fixed = true;
+        } else if (pw_cli_opt(argc, argv, &i, "--scan", &v, &missing)) {
+            if (missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "--scan needs FROM:TO:N");
+                return PW_EXIT_USAGE;
+            }
+            scan_text = v;
+        } else if (pw_cli_opt(argc, argv, &i, "--components", &v, &missing)) {
+            if (missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "--components needs a file");
+                return PW_EXIT_USAGE;
+            }
+            a->components = v;
+        } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", argv[i]);
+            return PW_EXIT_USAGE;
+        } else if (a->fit_path) {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", argv[i]);
+            return PW_EXIT_USAGE;
+        } else {
+            a->fit_path = argv[i];
+        }
+    }
+    if (!a->fit_path || !a->have_fixed) {
+        pw_error_set(err, PW_EINVAL, NULL, 0,
+                     "a fit file and one of --pressure or --temperature are required");
+        return PW_EXIT_USAGE;
+    }
+    if (scan_text)
+        return parse_scan(scan_text, a->mode == PW_AZ_ISOBARIC ? PW_QTY_PRESSURE
+                                                               : PW_QTY_TEMPERATURE, a, err);
+    return 0;
+}
+
+static json_t *result_json(const pw_az_result *r)
+{
+    json_t *list = json_array();
+    for (size_t i = 0; i < r->n; i++)
+        json_array_append_new(list, pw_cli_azeotrope_json(&r->az[i]));
+    return list;
+}
+
+static json_t *touch_json(const pw_az_result *r)
+{
+    json_t *list = json_array();
+    for (size_t i = 0; i < r->n_touch; i++)
+        json_array_append_new(list, json_pack("{s:o,s:o,s:o,s:o}", "x1",
+                                              pw_cli_json_num(r->touch[i].x1), "ln_alpha",
+                                              pw_cli_json_num(r->touch[i].ln_alpha), "T_K",
+                                              pw_cli_json_num(r->touch[i].T_K), "P_kPa",
+                                              pw_cli_json_num(r->touch[i].P_Pa / 1000.0)));
+    return list;
+}
+
+static json_t *scan_json(const pw_az_scan *sc)
+{
+    bool isP = sc->mode == PW_AZ_ISOBARIC;
+    json_t *o = json_object(), *pts = json_array(), *bnd = json_array();
+    json_object_set_new(o, "variable", json_string(isP ? "P_kPa" : "T_K"));
+    for (size_t k = 0; k < sc->n_points; k++) {
+        json_t *p = json_object();
+        json_object_set_new(p, isP ? "P_kPa" : "T_K",
+                            pw_cli_json_num(isP ? sc->at[k] / 1000.0 : sc->at[k]));
+        json_object_set_new(p, "azeotropes", result_json(&sc->points[k]));
+        json_array_append_new(pts, p);
+    }
+    for (size_t k = 0; k < sc->n_boundaries; k++) {
+        const pw_az_boundary *b = &sc->boundaries[k];
+        json_array_append_new(
+            bnd, json_pack("{s:o,s:i,s:o,s:o,s:s}", isP ? "P_kPa" : "T_K",
+                           pw_cli_json_num(isP ? b->at / 1000.0 : b->at), "end", b->end, "T_K_end",
+                           pw_cli_json_num(b->T_K), "P_kPa_end", pw_cli_json_num(b->P_Pa / 1000.0),
+                           "present", b->present_above ? "above" : "below"));
+    }
+    json_object_set_new(o, "points", pts);
+    json_object_set_new(o, "boundaries", bnd);
+    json_object_set_new(o, "x1_shift", pw_cli_json_num(sc->x1_shift));
+    return o;
+}
+
+static void print_table(const pw_az_result *r)
+{
+    if (r->n == 0) {
+        printf("  no azeotrope in 0 < x1 < 1\n");
+        return;
+    }
+    printf("  %-10s %-10s %-10s %-11s %-16s %s\n", "x1", "T [K]", "T [C]", "P [kPa]", "kind",
+           "gamma1, gamma2");
+    for (size_t i = 0; i < r->n; i++) {
+        const pw_azeotrope *z = &r->az[i];
+        printf("  %-10.6f %-10.3f %-10.3f %-11.4f %-16s %.4f, %.4f%s\n", z->x1, z->T_K,
+               z->T_K - 273.15, z->P_Pa / 1000.0, pw_az_kind_name(z->kind), z->gamma[0],
+               z->gamma[1], z->tangential ? "  (tangential: a double root)" : "");
+    }
+}
+
+static void print_text(const pw_fit_result *fit, const args *a, const pw_az_result *r,
+                       const pw_az_scan *sc)
+{
+    const pw_system *s = &fit->sys;
+    if (a->mode == PW_AZ_ISOBARIC)
+        printf("Azeotropes of %s (1) / %s (2), %s model, at %.6g kPa\n", s->comp[0].name,
+               s->comp[1].name, s->model->name, a->fixed / 1000.0);
+    else
+        printf("Azeotropes of %s (1) / %s (2), %s model, at %.6g K (%.3f C)\n", s->comp[0].name,
+               s->comp[1].name, s->model->name, a->fixed, a->fixed - 273.15);
+    print_table(r);
+    for (size_t i = 0; i < r->n_touch; i++)
+        printf("  near-tangential: alpha12 reaches within %.2g of 1 at x1 = %.6f without crossing\n",
+               fabs(expm1(r->touch[i].ln_alpha)), r->touch[i].x1);
+    printf("  relative volatility at the pure ends: alpha12(x1 -> 0) = %.5g, alpha12(x1 -> 1) = "
+           "%.5g\n",
+           exp(r->ln_alpha_end[0]), exp(r->ln_alpha_end[1]));
+    if (sc) {
+        bool isP = sc->mode == PW_AZ_ISOBARIC;
+        printf("\nScan over %s:\n  %-12s %-10s %-10s %s\n", isP ? "pressure" : "temperature",
+               isP ? "P [kPa]" : "T [K]", "x1", isP ? "T [K]" : "P [kPa]", "kind");
+        for (size_t k = 0; k < sc->n_points; k++) {
+            const pw_az_result *p = &sc->points[k];
+            double v = isP ? sc->at[k] / 1000.0 : sc->at[k];
+            if (p->n == 0)
+                printf("  %-12.5g %s\n", v, "none");
+            for (size_t i = 0; i < p->n; i++)
+                printf("  %-12.5g %-10.6f %-10.4f %s\n", v, p->az[i].x1,
+                       isP ? p->az[i].T_K : p->az[i].P_Pa / 1000.0, pw_az_kind_name(p->az[i].kind));
+        }
+        for (size_t k = 0; k < sc->n_boundaries; k++) {
+            const pw_az_boundary *b = &sc->boundaries[k];
+            printf("  the azeotrope reaches x1 = %d at %s = %.5g %s; it exists %s that\n", b->end,
+                   isP ? "P" : "T", isP ? b->at / 1000.0 : b->at, isP ? "kPa" : "K",
+                   b->present_above ? "above" : "below");
+        }
+        if (isfinite(sc->x1_shift))
+            printf("  the azeotrope moves by %.4f in x1 over the scan (pressure swing is worth a look "
+                   "from about 0.05-0.10: rule of thumb, common practice)\n",
+                   sc->x1_shift);
+    }
+    pw_cli_print_caution(stdout);
+}
+
 int pw_cli_azeotrope(int argc, char **argv)
 {
-    (void)argc;
-    (void)argv;
-    return pw_cli_failf("azeotrope", 1, "this command is not available in this build yet");
+    args a;
+    pw_error err;
+    pw_error_clear(&err);
+    int rc = parse(argc, argv, &a, &err);
+    if (rc == -1) {
+        usage(stdout);
+        return 0;
+    }
+    if (rc)
+        return pw_cli_fail(CMD, &err);
+    pw_fit_result fit;
+    memset(&fit, 0, sizeof fit);
+    pw_status st = pw_fitfile_read(a.fit_path, &fit, &err);
+    if (st == PW_OK)
+        st = pw_cli_override_components(CMD, &fit.sys, a.components, &err);
+    if (st != PW_OK) {
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
+    pw_az_result r;
+    pw_az_scan *sc = NULL;
+    st = pw_azeotrope_find(&fit.sys, a.mode, a.fixed, NULL, &r);
+    if (st != PW_OK) {
+        pw_error_set(&err, st, a.fit_path, 0, "azeotrope search failed near x1 = %.4g: %s",
+                     r.fail_x1, pw_strerror(st));
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
+    if (a.unc.on && (rc = pw_azeo_uncert_run(&fit, &r, &a.unc, &err)) != 0) {
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
+    if (a.scan) {
+        sc = pw_az_scan_alloc(a.n);
+        st = sc ? pw_azeotrope_scan(&fit.sys, a.mode, a.from, a.to, NULL, sc) : PW_ENOMEM;
+        if (st != PW_OK) {
+            pw_error_set(&err, st, a.fit_path, 0, "azeotrope scan failed: %s", pw_strerror(st));
+            pw_az_scan_free(sc);
+            pw_fit_result_free(&fit);
+            return pw_cli_fail(CMD, &err);
+        }
+    }
+    double Tlo = r.T_lo_K, Thi = r.T_hi_K;
+    for (size_t k = 0; sc && k < sc->n_points; k++) {
+        Tlo = fmin(Tlo, sc->points[k].T_lo_K);
+        Thi = fmax(Thi, sc->points[k].T_hi_K);
+    }
+    pw_cli_warn_fit(CMD, &fit);
+    pw_cli_warn_T_range(CMD, &fit, Tlo, Thi, "the bubble temperatures used");
+    if (a.json) {
+        json_t *o = json_object();
+        json_t *list = result_json(&r);
+        if (a.unc.on)
+            pw_azeo_uncert_json(&a.unc, &r, list);
+        json_object_set_new(o, "azeotropes", list);
+        json_object_set_new(o, "mode", json_string(a.mode == PW_AZ_ISOBARIC ? "isobaric"
+                                                                            : "isothermal"));
+        if (a.mode == PW_AZ_ISOBARIC)
+            json_object_set_new(o, "P_kPa", pw_cli_json_num(a.fixed / 1000.0));
+        else
+            json_object_set_new(o, "T_K", pw_cli_json_num(a.fixed));
+        json_object_set_new(o, "components", json_pack("[s,s]", fit.sys.comp[0].name,
+                                                       fit.sys.comp[1].name));
+        json_object_set_new(o, "model", json_string(fit.sys.model->name));
+        json_object_set_new(o, "near_tangential", touch_json(&r));
+        json_object_set_new(o, "ln_alpha_ends", json_pack("[o,o]", pw_cli_json_num(r.ln_alpha_end[0]),
+                                                          pw_cli_json_num(r.ln_alpha_end[1])));
+        json_object_set_new(o, "scan", sc ? scan_json(sc) : json_null());
+        json_object_set_new(o, "caution", json_string(pw_cli_caution_text()));
+        rc = pw_cli_print_json(o);
+    } else {
+        print_text(&fit, &a, &r, sc);
+        if (a.unc.on)
+            pw_azeo_uncert_print(&a.unc, &r);
+        rc = fflush(stdout) ? 4 : 0;
+    }
+    pw_az_scan_free(sc);
+    pw_fit_result_free(&fit);
+    return rc;
 }

@@ -1,9 +1,308 @@
+/* pinchwise screen: quick feasibility verdict for a split by simple distillation. */
+#include "analysis_common.h"
 #include "cli.h"
+#include "reflux_uncert.h"
 
-/* Placeholder until the screen command lands: refuses to run rather than print anything. */
+#include <math.h>
+#include <pinchwise/screen.h>
+#include <stdio.h>
+#include <string.h>
+
+#define CMD "screen"
+
+static void usage(FILE *f)
+{
+    fprintf(f,
+            "usage: pinchwise screen FIT.json --pressure P --xd X --xb X [--zf X] [--json]\n"
+            "  --uncertainty       propagate the fit's uncertainty (--samples N, --seed N)\n"
+            "  --components FILE   vapor-pressure rows replacing the fit file's\n"
+            "\n"
+            "Verdict (feasible / difficult / infeasible by simple distillation) with its reasons:\n"
+            "lowest relative volatility on [xb, xd], azeotrope barrier, azeotrope shift over\n"
+            "20-500 kPa, rough minimum reflux (q = 1) and stages at total reflux.\n"
+            "  --pressure P        column pressure with its unit, e.g. 101.325kPa, 1atm\n"
+            "  --xd, --xb          distillate and bottoms mole fractions of component 1\n"
+            "  --zf X              feed mole fraction (default 0.5, or (xb+xd)/2 when 0.5 is\n"
+            "                      outside (xb, xd))\n"
+            "  --swing-range LO:HI pressure range of the azeotrope-shift scan (default 20kPa:500kPa)\n"
+            "  --json              print one JSON object on stdout\n");
+}
+
+typedef struct args {
+    const char *fit_path;
+    double P_Pa, xd, xb, zf;
+    bool have_P, have_xd, have_xb, json;
+    bool uncertainty;
+    const char *components;
+    const char *extra[4]; /* --samples N, --seed N for the uncertainty extension */
+    int n_extra;
+    pw_screen_options opt;
+} args;
+
+static int fraction(const char *opt, const char *v, double *out, pw_error *err)
+{
+    if (pw_cli_number(opt, v, out, err) != PW_OK)
+        return PW_EXIT_USAGE;
+    if (!(*out > 0.0 && *out < 1.0)) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: a mole fraction strictly between 0 and 1",
+                     opt, v);
+        return PW_EXIT_USAGE;
+    }
+    return 0;
+}
+
+static int swing_range(const char *text, args *a, pw_error *err)
+{
+    char buf[128];
+    snprintf(buf, sizeof buf, "%s", text);
+    char *c = strchr(buf, ':');
+    if (!c) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "--swing-range %s: expected LO:HI, e.g. 20kPa:5bar",
+                     text);
+        return PW_EXIT_USAGE;
+    }
+    *c = '\0';
+    if (pw_cli_quantity(PW_QTY_PRESSURE, "--swing-range LO", buf, &a->opt.P_lo_Pa, err) != PW_OK ||
+        pw_cli_quantity(PW_QTY_PRESSURE, "--swing-range HI", c + 1, &a->opt.P_hi_Pa, err) != PW_OK)
+        return PW_EXIT_USAGE;
+    if (!(a->opt.P_hi_Pa > a->opt.P_lo_Pa)) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "--swing-range %s: HI must exceed LO", text);
+        return PW_EXIT_USAGE;
+    }
+    return 0;
+}
+
+static int parse(int argc, char **argv, args *a, pw_error *err)
+{
+    memset(a, 0, sizeof *a);
+    a->zf = NAN;
+    a->opt = pw_screen_default_options();
+    for (int i = 1; i < argc; i++) {
+        const char *v = NULL, *opt = argv[i];
+        bool missing = false;
+        int rc = 0;
+        if (!strcmp(opt, "--help") || !strcmp(opt, "-h"))
+            return -1;
+        if (!strcmp(opt, "--json")) {
+            a->json = true;
+            continue;
+        }
+        if (!strcmp(opt, "--uncertainty")) {
+            a->uncertainty = true;
+            continue;
+        }
+        if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") || !strcmp(opt, "--components")) {
+            pw_cli_opt(argc, argv, &i, opt, &v, &missing);
+            if (missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
+                return PW_EXIT_USAGE;
+            }
+            if (!strcmp(opt, "--components")) {
+                a->components = v;
+            } else {
+                if (a->n_extra + 2 > 4) {
+                    pw_error_set(err, PW_EINVAL, NULL, 0, "%s given twice", opt);
+                    return PW_EXIT_USAGE;
+                }
+                a->extra[a->n_extra++] = opt;
+                a->extra[a->n_extra++] = v;
+                a->uncertainty = true;
+            }
+            continue;
+        }
+        if (opt[0] == '-' && opt[1] != '\0') {
+            if (strcmp(opt, "--pressure") && strcmp(opt, "--xd") && strcmp(opt, "--xb") &&
+                strcmp(opt, "--zf") && strcmp(opt, "--swing-range")) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", opt);
+                return PW_EXIT_USAGE;
+            }
+            pw_cli_opt(argc, argv, &i, opt, &v, &missing);
+            if (missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
+                return PW_EXIT_USAGE;
+            }
+            if (!strcmp(opt, "--pressure")) {
+                if (pw_cli_quantity(PW_QTY_PRESSURE, opt, v, &a->P_Pa, err) != PW_OK)
+                    return PW_EXIT_USAGE;
+                a->have_P = true;
+            } else if (!strcmp(opt, "--xd")) {
+                rc = fraction(opt, v, &a->xd, err);
+                a->have_xd = true;
+            } else if (!strcmp(opt, "--xb")) {
+                rc = fraction(opt, v, &a->xb, err);
+                a->have_xb = true;
+            } else if (!strcmp(opt, "--zf")) {
+                rc = fraction(opt, v, &a->zf, err);
+            } else {
+                rc = swing_range(v, a, err);
+            }
+            if (rc)
+                return rc;
+            continue;
+        }
+        if (a->fit_path) {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", opt);
+            return PW_EXIT_USAGE;
+        }
+        a->fit_path = opt;
+    }
+    if (!a->fit_path || !a->have_P || !a->have_xd || !a->have_xb) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file and --pressure, --xd, --xb are required");
+        return PW_EXIT_USAGE;
+    }
+    if (!(a->xb < a->xd) || (!isnan(a->zf) && !(a->xb < a->zf && a->zf < a->xd))) {
+        pw_error_set(err, PW_EINVAL, NULL, 0,
+                     "the targets must satisfy xb < zf < xd (mole fractions of component 1)");
+        return PW_EXIT_USAGE;
+    }
+    return 0;
+}
+
+static json_t *to_json(const pw_fit_result *fit, const pw_screen_result *r,
+                       const pw_screen_options *o)
+{
+    json_t *j = json_object(), *reasons = json_array(), *az = json_array();
+    json_object_set_new(j, "verdict", json_string(pw_verdict_name(r->verdict)));
+    for (size_t i = 0; i < r->n_reasons; i++)
+        json_array_append_new(reasons, json_pack("{s:s,s:s}", "key",
+                                                 pw_screen_reason_key(r->reasons[i].code), "text",
+                                                 r->reasons[i].text));
+    json_object_set_new(j, "reasons", reasons);
+    json_object_set_new(
+        j, "thresholds",
+        json_pack("{s:{s:o,s:s},s:{s:[o,o],s:s}}", "alpha_difficult", "value",
+                  pw_cli_json_num(o->alpha_difficult), "origin", "common practice",
+                  "azeotrope_shift_for_pressure_swing", "value", pw_cli_json_num(o->shift_low),
+                  pw_cli_json_num(o->shift_high), "origin",
+                  "rule of thumb (common practice), see docs/screen.md"));
+    json_object_set_new(j, "components", json_pack("[s,s]", fit->sys.comp[0].name,
+                                                   fit->sys.comp[1].name));
+    json_object_set_new(j, "P_kPa", pw_cli_json_num(r->P_Pa / 1000.0));
+    json_object_set_new(j, "xd", pw_cli_json_num(r->xd));
+    json_object_set_new(j, "xb", pw_cli_json_num(r->xb));
+    json_object_set_new(j, "zf", pw_cli_json_num(r->zf));
+    json_object_set_new(j, "zf_default", json_boolean(r->zf_default));
+    json_object_set_new(j, "alpha_min", pw_cli_json_num(r->alpha_min));
+    json_object_set_new(j, "x_alpha_min", pw_cli_json_num(r->x_alpha_min));
+    json_object_set_new(j, "alpha_top", pw_cli_json_num(r->alpha_top));
+    json_object_set_new(j, "alpha_bottom", pw_cli_json_num(r->alpha_bottom));
+    for (size_t i = 0; i < r->az.n; i++)
+        json_array_append_new(az, pw_cli_azeotrope_json(&r->az.az[i]));
+    json_object_set_new(j, "azeotropes", az);
+    json_object_set_new(j, "barrier_x1", pw_cli_json_num(r->x_barrier));
+    json_object_set_new(
+        j, "pressure_shift",
+        r->scanned ? json_pack("{s:o,s:o,s:o,s:o,s:o,s:o}", "P_lo_kPa",
+                               pw_cli_json_num(r->P_lo_Pa / 1000.0), "P_hi_kPa",
+                               pw_cli_json_num(r->P_hi_Pa / 1000.0), "x1_at_lo",
+                               pw_cli_json_num(r->x_az_lo), "x1_at_hi", pw_cli_json_num(r->x_az_hi),
+                               "shift", pw_cli_json_num(r->shift), "vanishes_at_kPa",
+                               pw_cli_json_num(r->P_vanish_Pa / 1000.0))
+                   : json_null());
+    bool col = r->column_ran && r->column.feasible;
+    json_object_set_new(j, "r_min", col ? pw_cli_json_num(r->column.r_min) : json_null());
+    json_object_set_new(j, "pinch_kind", col ? json_string(r->column.pinch.kind == PW_PINCH_FEED
+                                                               ? "feed"
+                                                               : "tangent")
+                                             : json_null());
+    json_object_set_new(j, "n_min", col ? pw_cli_json_num(r->column.n_min) : json_null());
+    json_object_set_new(j, "r_min_underwood_mean_alpha", pw_cli_json_num(r->r_min_underwood));
+    json_object_set_new(j, "n_fenske_mean_alpha", pw_cli_json_num(r->n_fenske));
+    json_object_set_new(j, "caution", json_string(pw_cli_caution_text()));
+    return j;
+}
+
+static void print_text(const pw_fit_result *fit, const pw_screen_result *r)
+{
+    printf("Split screen: %s (1) / %s (2), %s model, at %.6g kPa\n", fit->sys.comp[0].name,
+           fit->sys.comp[1].name, fit->sys.model->name, r->P_Pa / 1000.0);
+    printf("  targets: xd = %.4g, xb = %.4g, zf = %.4g%s\n", r->xd, r->xb, r->zf,
+           r->zf_default ? " (default)" : "");
+    printf("  verdict: %s\n", pw_verdict_name(r->verdict));
+    for (size_t i = 0; i < r->n_reasons; i++)
+        printf("   - %s\n", r->reasons[i].text);
+    printf("  relative volatility: lowest %.4f at x1 = %.4f; %.4f at xd, %.4f at xb\n",
+           r->alpha_min, r->x_alpha_min, r->alpha_top, r->alpha_bottom);
+    if (r->column_ran && r->column.feasible)
+        printf("  rough minimum reflux (q = 1): %.4g (%s pinch); stages at total reflux %.3g\n",
+               r->column.r_min, r->column.pinch.kind == PW_PINCH_FEED ? "feed" : "tangent",
+               r->column.n_min);
+    if (isfinite(r->r_min_underwood))
+        printf("  with the mean alpha %.4f: Underwood R_min %.4g, Fenske N_min %.3g\n",
+               r->alpha_mean, r->r_min_underwood, r->n_fenske);
+    printf("  thresholds: alpha below 1.1 is difficult (common practice); an azeotrope shift of\n"
+           "  0.05-0.10 in x1 makes pressure swing worth a look (rule of thumb, common practice)\n");
+    pw_cli_print_caution(stdout);
+}
+
 int pw_cli_screen(int argc, char **argv)
 {
-    (void)argc;
-    (void)argv;
-    return pw_cli_failf("screen", 1, "this command is not available in this build yet");
+    args a;
+    pw_error err;
+    pw_error_clear(&err);
+    int rc = parse(argc, argv, &a, &err);
+    if (rc == -1) {
+        usage(stdout);
+        return 0;
+    }
+    if (rc)
+        return pw_cli_fail(CMD, &err);
+    pw_fit_result fit;
+    memset(&fit, 0, sizeof fit);
+    if (pw_fitfile_read(a.fit_path, &fit, &err) != PW_OK)
+        return pw_cli_fail(CMD, &err);
+    if (pw_cli_override_components(CMD, &fit.sys, a.components, &err) != PW_OK) {
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
+    pw_screen_result r;
+    pw_status st = pw_screen_run(&fit.sys, a.P_Pa, a.xd, a.xb, a.zf, &a.opt, &r);
+    if (st != PW_OK) {
+        pw_error_set(&err, st, a.fit_path, 0, "screen failed: %s", pw_strerror(st));
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
+    pw_cli_warn_fit(CMD, &fit);
+    pw_cli_warn_T_range(CMD, &fit, r.T_lo_K, r.T_hi_K, "the temperatures used");
+    /* --uncertainty: the reflux command's propagation, for the screen's rough column (q = 1). */
+    pw_reflux_uncert u;
+    pw_reflux_run run;
+    memset(&u, 0, sizeof u);
+    memset(&run, 0, sizeof run);
+    bool unc = a.uncertainty && r.column_ran;
+    if (a.uncertainty && !r.column_ran)
+        pw_cli_warnf(CMD, "no column was solved for this split, so there is nothing to propagate");
+    if (unc) {
+        pw_reflux_args ra;
+        memset(&ra, 0, sizeof ra);
+        ra.fit_path = a.fit_path;
+        ra.P_Pa = a.P_Pa;
+        ra.spec = (pw_column_spec){.xd = r.xd, .xb = r.xb, .zf = r.zf, .q = 1.0};
+        ra.opt = pw_column_default_options();
+        ra.uncertainty = true;
+        for (int k = 0; k < a.n_extra; k++)
+            ra.extra[k] = a.extra[k];
+        ra.n_extra = a.n_extra;
+        run.fit = fit; /* borrowed: freed once below */
+        run.P_Pa = a.P_Pa;
+        run.spec = ra.spec;
+        run.col = r.column;
+        if ((rc = pw_reflux_uncert_run(&ra, &run, &u, &err)) != 0) {
+            pw_fit_result_free(&fit);
+            return pw_cli_fail(CMD, &err);
+        }
+    }
+    if (a.json) {
+        json_t *j = to_json(&fit, &r, &a.opt);
+        if (unc)
+            pw_reflux_uncert_json(&u, j);
+        rc = pw_cli_print_json(j);
+    } else {
+        print_text(&fit, &r);
+        if (unc)
+            pw_reflux_uncert_print(&u, &run);
+        rc = fflush(stdout) ? 4 : 0;
+    }
+    pw_fit_result_free(&fit);
+    return rc;
 }

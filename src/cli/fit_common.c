@@ -4,6 +4,7 @@
 
 #include <errno.h>
 #include <math.h>
+#include <pinchwise/azeotrope.h>
 #include <pinchwise/dataset.h>
 #include <pinchwise/fitjson.h>
 #include <stdio.h>
@@ -159,6 +160,8 @@ json_t *pw_fit_cli_json(const pw_fit_result *r, const char *path)
 typedef struct ranked {
     const pw_model_type *model;
     pw_fit_result r;
+    pw_az_result az;
+    bool az_ok;
     char path[PW_PATH_MAX];
     int rc;
     pw_error err;
@@ -194,7 +197,38 @@ int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_o
                                sizeof res[i].path, &res[i].err);
         ok += res[i].rc == 0;
     }
+    for (size_t i = 0; i < n; i++)
+        if (res[i].rc == 0) {
+            const pw_fit_result *r = &res[i].r;
+            bool isobaric = r->kind == PW_DATA_ISOBARIC;
+            res[i].az_ok = pw_azeotrope_find(&r->sys, isobaric ? PW_AZ_ISOBARIC : PW_AZ_ISOTHERMAL,
+                                             isobaric ? r->P_fixed_Pa : r->T_fixed_K, NULL,
+                                             &res[i].az) == PW_OK;
+        }
     qsort(res, n, sizeof *res, cmp_aicc);
+    /* Judge the models where the design is decided: the azeotrope. Models within delta-AICc < 10
+     * of the best that place it more than 0.01 apart in x1 (or disagree on its existence) are a
+     * model risk worth a warning. */
+    double xlo = INFINITY, xhi = -INFINITY;
+    size_t with = 0, without = 0;
+    for (size_t i = 0; i < n; i++) {
+        if (res[i].rc != 0 || !res[i].az_ok || !(res[i].r.aicc - res[0].r.aicc < 10.0))
+            continue;
+        if (res[i].az.n == 0)
+            without++;
+        for (size_t k = 0; k < res[i].az.n; k++) {
+            with += k == 0;
+            xlo = fmin(xlo, res[i].az.az[k].x1);
+            xhi = fmax(xhi, res[i].az.az[k].x1);
+        }
+    }
+    if (with && without)
+        pw_cli_warnf("fit", "%s: models that fit about equally well disagree on whether an azeotrope "
+                     "exists at the data's condition", input);
+    else if (with > 1 && xhi - xlo > 0.01)
+        pw_cli_warnf("fit", "%s: models that fit about equally well place the azeotrope between x1 = "
+                     "%.3f and %.3f: judge them near the azeotrope, not by AAD alone",
+                     input, xlo, xhi);
     int rc = 0;
     double best_aicc = res[0].rc == 0 ? res[0].r.aicc : (double)NAN;
     if (co->json) {
@@ -214,6 +248,18 @@ int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_o
             json_t *m = pw_fit_cli_json(&res[i].r, res[i].path);
             json_object_set_new(m, "rank", json_integer((json_int_t)i + 1));
             json_object_set_new(m, "delta_aicc", pw_cli_json_num(res[i].r.aicc - best_aicc));
+            json_t *azs = json_array();
+            for (size_t k = 0; res[i].az_ok && k < res[i].az.n; k++)
+                json_array_append_new(azs, json_pack("{s:o,s:o,s:o,s:s}", "x1",
+                                                     pw_cli_json_num(res[i].az.az[k].x1), "T_K",
+                                                     pw_cli_json_num(res[i].az.az[k].T_K), "P_kPa",
+                                                     pw_cli_json_num(res[i].az.az[k].P_Pa / 1e3),
+                                                     "kind",
+                                                     res[i].az.az[k].kind == PW_AZ_MINIMUM_BOILING
+                                                         ? "minimum-boiling"
+                                                         : "maximum-boiling"));
+            json_object_set_new(m, "azeotropes_at_data_condition",
+                                res[i].az_ok ? azs : (json_decref(azs), json_null()));
             json_array_append_new(arr, m);
         }
         json_object_set_new(o, "models", arr);
@@ -223,8 +269,8 @@ int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_o
     } else {
         printf("models ranked by AICc (lower is better; delta < 2: indistinguishable, > 10: no "
                "support; Burnham & Anderson 2002)\n");
-        printf("  %-4s %-9s %9s %10s %10s %10s  %s\n", "rank", "model", "dAICc", "AAD y", "AAD T/K",
-               "AAD P/kPa", "notes");
+        printf("  %-4s %-9s %9s %10s %10s %10s %10s  %s\n", "rank", "model", "dAICc", "AAD y",
+               "AAD T/K", "AAD P/kPa", "x1 azeo.", "notes");
         for (size_t i = 0; i < n; i++) {
             if (res[i].rc != 0) {
                 char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
@@ -237,8 +283,15 @@ int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_o
             snprintf(cy, sizeof cy, isfinite(r->dev_y.aad) ? "%.4f" : "-", r->dev_y.aad);
             snprintf(cT, sizeof cT, isfinite(r->dev_T_K.aad) ? "%.3f" : "-", r->dev_T_K.aad);
             snprintf(cP, sizeof cP, isfinite(r->dev_P_Pa.aad) ? "%.4f" : "-", r->dev_P_Pa.aad / 1e3);
-            printf("  %-4zu %-9s %9.2f %10s %10s %10s  %s%s\n", i + 1, r->sys.model->name,
-                   r->aicc - best_aicc, cy, cT, cP, r->converged ? "" : "not converged ",
+            char ca[32] = "none";
+            if (!res[i].az_ok)
+                snprintf(ca, sizeof ca, "?");
+            else if (res[i].az.n == 1)
+                snprintf(ca, sizeof ca, "%.4f", res[i].az.az[0].x1);
+            else if (res[i].az.n > 1)
+                snprintf(ca, sizeof ca, "%.3f,%.3f", res[i].az.az[0].x1, res[i].az.az[1].x1);
+            printf("  %-4zu %-9s %9.2f %10s %10s %10s %10s  %s%s\n", i + 1, r->sys.model->name,
+                   r->aicc - best_aicc, cy, cT, cP, ca, r->converged ? "" : "not converged ",
                    r->split ? "liquid split predicted" : "");
         }
         for (size_t i = 0; i < n; i++)

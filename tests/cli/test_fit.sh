@@ -73,4 +73,16 @@ python3 -c 'import json; d=json.load(open("all.json")); assert len(d["models"]) 
 
 # 9. Quantities without units are refused where options take them.
 "$pw" fit "$src/datasets/ethanol_water_1atm.csv" --model nrtl --sigma-T 0.1 --out x.json 2>err.txt && fail "accepted a bare sigma-T"
+# 10. --exclude drops rows by file line and records them with the reason.
+"$pw" fit "$src/datasets/ethanol_water_1atm.csv" --model wilson --exclude 8,10-11 --exclude-reason "suspected leak" --out ex.json > /dev/null || fail "--exclude"
+python3 - <<'PY' || fail "exclusions not recorded"
+import json
+d = json.load(open("ex.json"))
+assert d["excluded"]["lines"] == [8, 10, 11], d["excluded"]
+assert d["excluded"]["reason"] == "suspected leak"
+assert sum(p["excluded"] for p in d["data"]["points"]) == 3
+PY
+"$pw" fit "$src/datasets/ethanol_water_1atm.csv" --model wilson --exclude 2 --out ex2.json 2>err.txt && fail "excluded a line without data"
+grep -q ":2:" err.txt || fail "exclude error lacks the line: $(cat err.txt)"
+[ ! -e ex2.json ] || fail "wrote a fit file after a refused --exclude"
 echo "fit CLI tests passed"

@@ -1,0 +1,168 @@
+/* Azeotrope over a range of pressures (or temperatures), and where it enters or leaves the
+ * composition range: the value at which ln alpha12 at a pure end crosses zero, by GSL Brent.
+ * See include/pinchwise/azeotrope.h and docs/azeotrope.md (pressure dependence). */
+#include <pinchwise/azeotrope.h>
+
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_roots.h>
+#include <math.h>
+#include <stdlib.h>
+
+#include "analysis/az_internal.h"
+
+pw_az_scan *pw_az_scan_alloc(size_t n_points)
+{
+    if (n_points < 2 || n_points > 100000)
+        return NULL;
+    pw_az_scan *sc = calloc(1, sizeof *sc);
+    if (!sc)
+        return NULL;
+    sc->n_points = n_points;
+    sc->max_boundaries = 2 * n_points;
+    sc->at = calloc(n_points, sizeof *sc->at);
+    sc->points = calloc(n_points, sizeof *sc->points);
+    sc->boundaries = calloc(sc->max_boundaries, sizeof *sc->boundaries);
+    if (!sc->at || !sc->points || !sc->boundaries) {
+        pw_az_scan_free(sc);
+        return NULL;
+    }
+    return sc;
+}
+
+void pw_az_scan_free(pw_az_scan *scan)
+{
+    if (!scan)
+        return;
+    free(scan->at);
+    free(scan->points);
+    free(scan->boundaries);
+    free(scan);
+}
+
+typedef struct end_ctx {
+    const pw_system *s;
+    pw_az_mode mode;
+    int end;
+    pw_status status;
+} end_ctx;
+
+static double end_fn(double v, void *params)
+{
+    end_ctx *c = params;
+    double f;
+    pw_status st = pw_az_end_ln_alpha(c->s, c->mode, v, c->end, &f, NULL, NULL);
+    if (st != PW_OK) {
+        if (c->status == PW_OK)
+            c->status = st;
+        return NAN;
+    }
+    return f;
+}
+
+/* Brent on the scanned variable v in [a, b] for ln alpha12(end; v) = 0. */
+static pw_status locate(const pw_system *s, pw_az_mode mode, int end, double a, double b,
+                        const pw_az_options *o, double *v)
+{
+    end_ctx c = {s, mode, end, PW_OK};
+    gsl_root_fsolver *sol = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+    if (!sol)
+        return PW_ENOMEM;
+    gsl_function F = {end_fn, &c};
+    double lo = fmin(a, b), hi = fmax(a, b);
+    int gs = gsl_root_fsolver_set(sol, &F, lo, hi);
+    size_t it = 0;
+    while (gs == GSL_SUCCESS) {
+        gs = gsl_root_fsolver_iterate(sol);
+        if (gs != GSL_SUCCESS)
+            break;
+        /* relative tolerance on P or T: 1e-12 is far below any Antoine uncertainty */
+        if (gsl_root_test_interval(gsl_root_fsolver_x_lower(sol), gsl_root_fsolver_x_upper(sol),
+                                   0.0, 1e-12) == GSL_SUCCESS)
+            break;
+        if (++it >= o->max_iter) {
+            gs = GSL_EMAXITER;
+            break;
+        }
+    }
+    *v = gsl_root_fsolver_root(sol);
+    gsl_root_fsolver_free(sol);
+    if (c.status != PW_OK)
+        return c.status;
+    return gs == GSL_SUCCESS ? PW_OK : gs == GSL_EMAXITER ? PW_EMAXITER : PW_ENOCONV;
+}
+
+static pw_status add_boundary(const pw_system *s, pw_az_mode mode, pw_az_scan *sc, size_t k,
+                              int end, const pw_az_options *o)
+{
+    if (sc->n_boundaries >= sc->max_boundaries)
+        return PW_OK;
+    double v = sc->at[k + 1];
+    pw_status st = PW_OK;
+    if (sc->points[k + 1].ln_alpha_end[end] != 0.0)
+        st = locate(s, mode, end, sc->at[k], sc->at[k + 1], o, &v);
+    if (st != PW_OK)
+        return st;
+    pw_az_boundary *b = &sc->boundaries[sc->n_boundaries++];
+    b->at = v;
+    b->end = end;
+    double f;
+    st = pw_az_end_ln_alpha(s, mode, v, end, &f, &b->T_K, &b->P_Pa);
+    if (st != PW_OK)
+        return st;
+    /* which side of `at` holds more azeotropes (when the crossing falls on point k+1, compare
+     * its neighbours k and k+2) */
+    size_t ia = k, ib = k + 1;
+    if (sc->points[k + 1].ln_alpha_end[end] == 0.0 && k + 2 < sc->n_points)
+        ib = k + 2;
+    size_t lo = sc->at[ia] < sc->at[ib] ? ia : ib, hi = lo == ia ? ib : ia;
+    b->present_above = sc->points[hi].n > sc->points[lo].n;
+    return PW_OK;
+}
+
+pw_status pw_azeotrope_scan(const pw_system *s, pw_az_mode mode, double from, double to,
+                            const pw_az_options *opt, pw_az_scan *scan)
+{
+    if (!s || !scan || !scan->at || !scan->points || scan->n_points < 2 || !(from > 0.0) ||
+        !(to > 0.0) || !isfinite(from) || !isfinite(to) || from == to ||
+        (mode != PW_AZ_ISOBARIC && mode != PW_AZ_ISOTHERMAL))
+        return PW_EINVAL;
+    pw_az_options o = opt ? *opt : pw_azeotrope_default_options();
+    const size_t n = scan->n_points;
+    scan->mode = mode;
+    scan->n_boundaries = 0;
+    scan->x1_shift = NAN;
+    for (size_t k = 0; k < n; k++) {
+        double t = (double)k / (double)(n - 1);
+        scan->at[k] = mode == PW_AZ_ISOBARIC ? from * pow(to / from, t) : from + (to - from) * t;
+        pw_az_result_clear(&scan->points[k], mode, scan->at[k]);
+    }
+    scan->at[n - 1] = to;
+    for (size_t k = 0; k < n; k++) {
+        pw_status st = pw_azeotrope_find(s, mode, scan->at[k], &o, &scan->points[k]);
+        if (st != PW_OK)
+            return st;
+    }
+    double xmin = INFINITY, xmax = -INFINITY;
+    size_t n_single = 0;
+    for (size_t k = 0; k < n; k++) {
+        if (scan->points[k].n == 1) {
+            xmin = fmin(xmin, scan->points[k].az[0].x1);
+            xmax = fmax(xmax, scan->points[k].az[0].x1);
+            n_single++;
+        }
+        if (k + 1 == n)
+            break;
+        for (int e = 0; e < 2; e++) {
+            double f0 = scan->points[k].ln_alpha_end[e], f1 = scan->points[k + 1].ln_alpha_end[e];
+            /* a strict sign change, or an exact zero on point k+1 (counted once) */
+            if ((f0 < 0.0 && f1 > 0.0) || (f0 > 0.0 && f1 < 0.0) || (f0 != 0.0 && f1 == 0.0)) {
+                pw_status st = add_boundary(s, mode, scan, k, e, &o);
+                if (st != PW_OK)
+                    return st;
+            }
+        }
+    }
+    if (n_single >= 2)
+        scan->x1_shift = xmax - xmin;
+    return PW_OK;
+}

@@ -1,0 +1,280 @@
+/* Feasibility screen of a binary split: relative volatility along the column, azeotrope
+ * barrier, azeotrope shift with pressure, rough R_min and stage counts.
+ * See include/pinchwise/screen.h and docs/screen.md. */
+#include <pinchwise/curve.h>
+#include <pinchwise/screen.h>
+
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <string.h>
+
+pw_screen_options pw_screen_default_options(void)
+{
+    pw_screen_options o;
+    o.alpha_difficult = 1.1; /* common practice */
+    o.shift_low = 0.05;      /* METHODS 5.4 rule of thumb (common practice) */
+    o.shift_high = 0.10;
+    o.P_lo_Pa = 20e3;
+    o.P_hi_Pa = 500e3;
+    o.scan_points = 9;
+    o.grid = 400;
+    o.az = pw_azeotrope_default_options();
+    o.column = pw_column_default_options();
+    return o;
+}
+
+const char *pw_verdict_name(pw_verdict v)
+{
+    switch (v) {
+    case PW_VERDICT_FEASIBLE:
+        return "feasible";
+    case PW_VERDICT_DIFFICULT:
+        return "difficult";
+    default:
+        return "infeasible";
+    }
+}
+
+const char *pw_screen_reason_key(pw_screen_reason_code c)
+{
+    static const char *const keys[] = {"azeotrope-barrier", "beyond-azeotrope", "low-volatility",
+                                       "near-pinch",        "pressure-swing",   "shift-small",
+                                       "azeotrope-vanishes", "tangent-pinch",   "volatility-ok"};
+    return (size_t)c < sizeof keys / sizeof keys[0] ? keys[c] : "unknown";
+}
+
+static void reason(pw_screen_result *r, pw_screen_reason_code code, const char *fmt, ...)
+    __attribute__((format(printf, 3, 4)));
+static void reason(pw_screen_result *r, pw_screen_reason_code code, const char *fmt, ...)
+{
+    if (r->n_reasons >= PW_SCREEN_MAX_REASONS)
+        return;
+    pw_screen_reason *q = &r->reasons[r->n_reasons++];
+    q->code = code;
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(q->text, sizeof q->text, fmt, ap);
+    va_end(ap);
+}
+
+static void note_T(pw_screen_result *r, double lo, double hi)
+{
+    if (isfinite(lo) && (isnan(r->T_lo_K) || lo < r->T_lo_K))
+        r->T_lo_K = lo;
+    if (isfinite(hi) && (isnan(r->T_hi_K) || hi > r->T_hi_K))
+        r->T_hi_K = hi;
+}
+
+static pw_status check(const pw_screen_options *o, double P, double xd, double xb, double zf)
+{
+    if (!(xb > 0.0 && xb < xd && xd < 1.0) || !(zf > xb && zf < xd) || !(P > 0.0) || !isfinite(P))
+        return PW_EINVAL;
+    if (!(o->alpha_difficult > 1.0) || !(o->shift_low > 0.0) || !(o->shift_high >= o->shift_low))
+        return PW_EINVAL;
+    if (!(o->P_lo_Pa > 0.0) || !(o->P_hi_Pa > o->P_lo_Pa) || o->scan_points < 2 || o->grid < 10)
+        return PW_EINVAL;
+    return PW_OK;
+}
+
+/* alpha12 along [xb, xd] on o->grid points. */
+static pw_status alpha_profile(const pw_system *s, pw_screen_result *r, size_t n)
+{
+    r->alpha_min = INFINITY;
+    for (size_t i = 0; i < n; i++) {
+        double x = r->xb + (r->xd - r->xb) * (double)i / (double)(n - 1), f;
+        pw_eq_point eq;
+        pw_status st = pw_azeotrope_ln_alpha(s, PW_AZ_ISOBARIC, r->P_Pa, x, &f, &eq);
+        if (st != PW_OK)
+            return st;
+        note_T(r, eq.T_K, eq.T_K);
+        double a = exp(f);
+        if (a < r->alpha_min) {
+            r->alpha_min = a;
+            r->x_alpha_min = x;
+        }
+        if (i == 0)
+            r->alpha_bottom = a;
+        if (i + 1 == n)
+            r->alpha_top = a;
+    }
+    r->alpha_mean = sqrt(r->alpha_top * r->alpha_bottom);
+    return PW_OK;
+}
+
+/* x1 of the azeotrope of res nearest to x_ref, NAN when res has none. */
+static double nearest(const pw_az_result *res, double x_ref)
+{
+    double best = NAN;
+    for (size_t i = 0; i < res->n; i++)
+        if (isnan(best) || fabs(res->az[i].x1 - x_ref) < fabs(best - x_ref))
+            best = res->az[i].x1;
+    return best;
+}
+
+static void pressure_scan(const pw_system *s, const pw_screen_options *o, pw_screen_result *r,
+                          double x_ref)
+{
+    pw_az_scan *sc = pw_az_scan_alloc(o->scan_points);
+    if (!sc)
+        return;
+    if (pw_azeotrope_scan(s, PW_AZ_ISOBARIC, o->P_lo_Pa, o->P_hi_Pa, &o->az, sc) == PW_OK) {
+        r->scanned = true;
+        r->x_az_lo = nearest(&sc->points[0], x_ref);
+        r->x_az_hi = nearest(&sc->points[sc->n_points - 1], x_ref);
+        if (isfinite(r->x_az_lo) && isfinite(r->x_az_hi))
+            r->shift = fabs(r->x_az_hi - r->x_az_lo);
+        else
+            r->shift = sc->x1_shift;
+        if (sc->n_boundaries > 0) {
+            r->vanishes = true;
+            r->P_vanish_Pa = sc->boundaries[0].at;
+        }
+        for (size_t k = 0; k < sc->n_points; k++)
+            note_T(r, sc->points[k].T_lo_K, sc->points[k].T_hi_K);
+    }
+    pw_az_scan_free(sc);
+}
+
+static void swing_reasons(const pw_screen_options *o, pw_screen_result *r)
+{
+    if (!r->scanned)
+        return;
+    double lo = r->P_lo_Pa / 1e3, hi = r->P_hi_Pa / 1e3;
+    if (r->vanishes)
+        reason(r, PW_REASON_VANISHES,
+               "the azeotrope reaches a pure end at about %.4g kPa within %.4g-%.4g kPa: a column "
+               "pressure beyond that point avoids it",
+               r->P_vanish_Pa / 1e3, lo, hi);
+    if (isfinite(r->shift) && r->shift >= o->shift_low)
+        reason(r, PW_REASON_SWING,
+               "the azeotrope moves by %.3f in x1 between %.4g and %.4g kPa: pressure swing is "
+               "worth a look (%.2f-%.2f in mole fraction, rule of thumb, common "
+               "practice)%s",
+               r->shift, lo, hi, o->shift_low, o->shift_high,
+               r->shift >= o->shift_high ? "; above the upper end" : "");
+    else if (isfinite(r->shift))
+        reason(r, PW_REASON_SWING_SMALL,
+               "the azeotrope moves only %.3f in x1 between %.4g and %.4g kPa: below %.2f, "
+               "pressure swing is unlikely to pay (rule of thumb, common practice; docs/screen.md); "
+               "consider an entrainer",
+               r->shift, lo, hi, o->shift_low);
+}
+
+static pw_status rough_column(const pw_system *s, const pw_screen_options *o, pw_screen_result *r)
+{
+    pw_system_curve sc;
+    pw_status st = pw_system_curve_init(&sc, s, r->P_Pa);
+    if (st != PW_OK)
+        return st;
+    pw_curve curve = pw_system_curve_bind(&sc);
+    pw_column_spec spec = {r->xd, r->xb, r->zf, 1.0};
+    st = pw_column_solve(&curve, &spec, &o->column, &r->column);
+    if (st != PW_OK)
+        return st;
+    r->column_ran = true;
+    if (r->alpha_mean > 1.0) {
+        double rm;
+        if (pw_underwood_rmin(r->alpha_mean, r->zf, r->xd, 1.0, &rm) == PW_OK)
+            r->r_min_underwood = rm;
+        r->n_fenske = pw_fenske_nmin(r->alpha_mean, r->xd, r->xb);
+    }
+    return PW_OK;
+}
+
+static void init_result(pw_screen_result *r, double P, double xd, double xb, double zf,
+                        const pw_screen_options *o)
+{
+    memset(r, 0, sizeof *r);
+    r->P_Pa = P;
+    r->xd = xd;
+    r->xb = xb;
+    r->zf = zf;
+    r->x_barrier = r->x_az_lo = r->x_az_hi = r->shift = r->P_vanish_Pa = NAN;
+    r->r_min_underwood = r->n_fenske = NAN;
+    r->T_lo_K = r->T_hi_K = NAN;
+    r->P_lo_Pa = o->P_lo_Pa;
+    r->P_hi_Pa = o->P_hi_Pa;
+}
+
+pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, double zf,
+                        const pw_screen_options *opt, pw_screen_result *out)
+{
+    if (!s || !out)
+        return PW_EINVAL;
+    const pw_screen_options o = opt ? *opt : pw_screen_default_options();
+    bool zf_default = isnan(zf);
+    if (zf_default)
+        zf = (xb < 0.5 && xd > 0.5) ? 0.5 : 0.5 * (xb + xd);
+    pw_status st = check(&o, P_Pa, xd, xb, zf);
+    if (st != PW_OK)
+        return st;
+    init_result(out, P_Pa, xd, xb, zf, &o);
+    out->zf_default = zf_default;
+    st = pw_azeotrope_find(s, PW_AZ_ISOBARIC, P_Pa, &o.az, &out->az);
+    if (st == PW_OK)
+        st = alpha_profile(s, out, o.grid);
+    if (st != PW_OK)
+        return st;
+    note_T(out, out->az.T_lo_K, out->az.T_hi_K);
+
+    for (size_t i = 0; i < out->az.n; i++)
+        if (out->az.az[i].x1 > xb && out->az.az[i].x1 < xd) {
+            out->barrier = true;
+            out->x_barrier = out->az.az[i].x1;
+            reason(out, PW_REASON_BARRIER,
+                   "%s azeotrope at x1 = %.4f (T = %.2f K) lies between xb = %.4g and xd = %.4g: "
+                   "simple distillation cannot cross it",
+                   pw_az_kind_name(out->az.az[i].kind), out->az.az[i].x1, out->az.az[i].T_K, xb,
+                   xd);
+            break;
+        }
+    bool beyond = !out->barrier && out->alpha_min <= 1.0;
+    if (beyond)
+        reason(out, PW_REASON_BEYOND,
+               "alpha12 = %.4f <= 1 at x1 = %.4f: component 1 is not the lighter one over that part "
+               "of [xb, xd], so the target lies beyond an azeotrope (or past the pure end)",
+               out->alpha_min, out->x_alpha_min);
+    bool infeasible = out->barrier || beyond;
+    bool touch = false;
+    for (size_t i = 0; i < out->az.n_touch; i++)
+        if (out->az.touch[i].x1 > xb && out->az.touch[i].x1 < xd) {
+            touch = true;
+            reason(out, PW_REASON_NEAR_PINCH,
+                   "alpha12 comes within %.2g of 1 at x1 = %.4f without crossing: a near-azeotrope "
+                   "(tangential pinch) that needs very many stages",
+                   fabs(expm1(out->az.touch[i].ln_alpha)), out->az.touch[i].x1);
+        }
+    bool low = !infeasible && out->alpha_min < o.alpha_difficult;
+    if (low)
+        reason(out, PW_REASON_LOW_ALPHA,
+               "lowest alpha12 = %.4f at x1 = %.4f is below %.2f (threshold: common practice)",
+               out->alpha_min, out->x_alpha_min, o.alpha_difficult);
+    else if (!infeasible)
+        reason(out, PW_REASON_EASY,
+               "lowest alpha12 = %.4f at x1 = %.4f is at or above %.2f (threshold: common practice)",
+               out->alpha_min, out->x_alpha_min, o.alpha_difficult);
+
+    if (out->az.n > 0) {
+        pressure_scan(s, &o, out, out->barrier ? out->x_barrier : out->az.az[0].x1);
+        swing_reasons(&o, out);
+    }
+    if (!infeasible) {
+        st = rough_column(s, &o, out);
+        if (st != PW_OK)
+            return st;
+        if (!out->column.feasible) {
+            infeasible = true;
+            reason(out, PW_REASON_BEYOND, "column check: %s", out->column.reason);
+        } else if (out->column.pinch.kind == PW_PINCH_TANGENT) {
+            reason(out, PW_REASON_TANGENT_PINCH,
+                   "R_min is set by a tangent pinch at x1 = %.4f, not at the feed: stage counts "
+                   "near R_min are very sensitive to the model",
+                   out->column.pinch.x);
+        }
+    }
+    out->verdict = infeasible           ? PW_VERDICT_INFEASIBLE
+                   : (low || touch)     ? PW_VERDICT_DIFFICULT
+                                        : PW_VERDICT_FEASIBLE;
+    return PW_OK;
+}

@@ -1,0 +1,72 @@
+#include "analysis_common.h"
+
+#include "cli.h"
+
+#include <math.h>
+
+void pw_cli_warn_T_range(const char *cmd, const pw_fit_result *fit, double T_lo_K, double T_hi_K,
+                         const char *what)
+{
+    if (!isfinite(T_lo_K) || !isfinite(T_hi_K))
+        return;
+    for (int i = 0; i < 2; i++) {
+        const pw_component *c = &fit->sys.comp[i];
+        double lo = pw_component_range_excess_K(c, T_lo_K);
+        double hi = pw_component_range_excess_K(c, T_hi_K);
+        if (lo < 0.0)
+            pw_cli_warnf(cmd, "%s reach %.2f K, %.1f K below the vapor-pressure range of %s "
+                         "(%.2f-%.2f K): extrapolated",
+                         what, T_lo_K, -lo, c->name, c->T_min_K, c->T_max_K);
+        if (hi > 0.0)
+            pw_cli_warnf(cmd, "%s reach %.2f K, %.1f K above the vapor-pressure range of %s "
+                         "(%.2f-%.2f K): extrapolated",
+                         what, T_hi_K, hi, c->name, c->T_min_K, c->T_max_K);
+    }
+    if (isfinite(fit->T_min_K) && isfinite(fit->T_max_K) &&
+        (T_lo_K < fit->T_min_K - 1.0 || T_hi_K > fit->T_max_K + 1.0))
+        pw_cli_warnf(cmd, "%s span %.2f-%.2f K, outside the fitted data's %.2f-%.2f K: the model "
+                     "parameters are extrapolated in temperature",
+                     what, T_lo_K, T_hi_K, fit->T_min_K, fit->T_max_K);
+}
+
+void pw_cli_warn_fit(const char *cmd, const pw_fit_result *fit)
+{
+    if (!fit->converged)
+        pw_cli_warnf(cmd, "the fit in this file did not converge; do not design with it");
+    if (fit->split)
+        pw_cli_warnf(cmd, "the fitted model predicts a liquid-liquid split (x1 = %.3f at %.1f K); "
+                     "homogeneous results may be wrong there",
+                     fit->split_x, fit->split_T_K);
+}
+
+const char *pw_cli_caution_text(void)
+{
+    return "Screening estimate from a correlation fitted to limited laboratory data, not a design. "
+           "Verify with rigorous simulation and laboratory or pilot data; many solvents here are "
+           "flammable or toxic (see the Safety Data Sheet); pressure equipment and relief must follow "
+           "local codes and regulations; any design must be reviewed by a qualified, licensed "
+           "engineer.";
+}
+
+void pw_cli_print_caution(FILE *f)
+{
+    fprintf(f,
+            "\nCaution: screening estimate from a correlation fitted to limited laboratory data,\n"
+            "not a design. Verify with rigorous simulation and laboratory or pilot data. Many\n"
+            "solvents are flammable or toxic (see the Safety Data Sheet). Pressure equipment and\n"
+            "relief follow local codes and regulations; defer to licensed engineering review.\n");
+}
+
+json_t *pw_cli_azeotrope_json(const pw_azeotrope *az)
+{
+    json_t *o = json_object();
+    json_object_set_new(o, "x1", pw_cli_json_num(az->x1));
+    json_object_set_new(o, "T_K", pw_cli_json_num(az->T_K));
+    json_object_set_new(o, "P_kPa", pw_cli_json_num(az->P_Pa / 1000.0));
+    json_object_set_new(o, "kind", json_string(pw_az_kind_name(az->kind)));
+    json_object_set_new(o, "gamma", json_pack("[o,o]", pw_cli_json_num(az->gamma[0]),
+                                              pw_cli_json_num(az->gamma[1])));
+    json_object_set_new(o, "slope_ln_alpha", pw_cli_json_num(az->slope));
+    json_object_set_new(o, "tangential", json_boolean(az->tangential));
+    return o;
+}
