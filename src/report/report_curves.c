@@ -3,6 +3,7 @@
 #include "report/report_internal.h"
 
 #include <math.h>
+#include <pinchwise/azeotrope.h>
 #include <pinchwise/curve.h>
 #include <pinchwise/equilibrium.h>
 #include <stdio.h>
@@ -24,7 +25,7 @@ static double y_minus_x(const pw_system *s, bool isothermal, double fixed, doubl
     return *ok ? e.y1 - x : PW_NAN;
 }
 
-/* Azeotropes: interior sign changes of y - x on the grid values ymx, refined by bisection on
+/* Fallback azeotrope search: interior sign changes of y - x on the grid values ymx, refined by bisection on
  * the bubble point. y - x going from + to - with rising x is a minimum-boiling (maximum-
  * pressure) azeotrope, from - to + a maximum-boiling one. */
 static size_t find_azeotropes(const pw_system *s, bool isothermal, double fixed, const double *x,
@@ -59,6 +60,28 @@ static size_t find_azeotropes(const pw_system *s, bool isothermal, double fixed,
         out[k].P_Pa = e.P_Pa;
         out[k].min_boiling = ymx[i] > 0.0;
         k++;
+    }
+    return k;
+}
+
+/* The azeotropes: from the azeotrope module (Brent on ln alpha12, see azeotrope.h); should it fail,
+ * from the bisection above on the plotted grid, and *from_module says which. */
+static size_t azeotropes(const pw_system *s, bool isothermal, double fixed, const double *x,
+                         const double *ymx, pw_report_az *out, size_t max, bool *from_module)
+{
+    pw_az_result res;
+    pw_status st = pw_azeotrope_find(s, isothermal ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC, fixed, NULL,
+                                     &res);
+    *from_module = st == PW_OK;
+    if (st != PW_OK)
+        return find_azeotropes(s, isothermal, fixed, x, ymx, PW_REPORT_GRID, out, max);
+    size_t k = 0;
+    for (size_t i = 0; i < res.n && k < max; i++, k++) {
+        out[k].x1 = res.az[i].x1;
+        out[k].T_K = res.az[i].T_K;
+        out[k].P_Pa = res.az[i].P_Pa;
+        out[k].min_boiling = res.az[i].kind == PW_AZ_MINIMUM_BOILING;
+        out[k].tangential = res.az[i].tangential;
     }
     return k;
 }
@@ -100,10 +123,8 @@ static void data_curves(pw_report_curves *c)
             c->n_failed++;
         }
     }
-    /* HOOK(azeotrope): when include/pinchwise/azeotrope.h lands, take the azeotropes from it;
-     * until then they are located here on the model curve (bisection on bubble points). */
-    c->n_az = find_azeotropes(s, c->isothermal, fixed, c->x, ymx, PW_REPORT_GRID, c->az,
-                              PW_REPORT_MAX_AZ);
+    c->n_az = azeotropes(s, c->isothermal, fixed, c->x, ymx, c->az, PW_REPORT_MAX_AZ,
+                         &c->az_from_module);
 }
 
 /* Rectifying and stripping lines at R meet on the q-line at (xi, yi). */
@@ -164,8 +185,10 @@ static pw_status column(pw_report_curves *c, const pw_report_input *in)
             c->n_failed++;
         }
     }
-    c->n_col_az = find_azeotropes(s, false, c->P_col_Pa, c->x, ymx, PW_REPORT_GRID, c->col_az,
-                                  PW_REPORT_MAX_AZ);
+    bool from_module = false;
+    c->n_col_az = azeotropes(s, false, c->P_col_Pa, c->x, ymx, c->col_az, PW_REPORT_MAX_AZ,
+                             &from_module);
+    c->az_from_module = c->az_from_module && from_module;
     pw_eq_point e;
     c->T_top_K = pw_bubble_T(s, c->P_col_Pa, c->spec.xd, &e) == PW_OK ? e.T_K : PW_NAN;
     c->T_bottom_K = pw_bubble_T(s, c->P_col_Pa, c->spec.xb, &e) == PW_OK ? e.T_K : PW_NAN;

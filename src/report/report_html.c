@@ -263,7 +263,7 @@ static const char *verdict_cls(const pw_ctest *t)
     return !t->ran ? "verdict-skip" : t->pass ? "verdict-pass" : "verdict-fail";
 }
 
-/* HOOK(consistency): the tests of include/pinchwise/consistency.h on the fit file's points. */
+/* The tests of include/pinchwise/consistency.h, run on the points the fit file carries. */
 static void consistency_section(pw_sbuf *b, const pw_report_curves *c)
 {
     pw_sbuf_puts(b, "<section id=\"consistency\"><h2>Thermodynamic consistency of the measurements"
@@ -333,13 +333,13 @@ static void az_table(pw_sbuf *b, const pw_report_az *az, size_t n, const char *w
         num(b, az[i].x1, 4);
         num(b, az[i].T_K, 5);
         num(b, az[i].P_Pa / 1000.0, 5);
-        pw_sbuf_printf(b, "<td>%s</td></tr>\n", az[i].min_boiling ? "minimum-boiling" : "maximum-boiling");
+        pw_sbuf_printf(b, "<td>%s%s</td></tr>\n", az[i].min_boiling ? "minimum-boiling" : "maximum-boiling",
+                       az[i].tangential ? " (near-tangential: a double root, sensitive to the model)" : "");
     }
     pw_sbuf_puts(b, "</table>\n");
 }
 
-/* HOOK(azeotrope): the values come from the report's own bisection on the model's bubble points
- * until the azeotrope module (include/pinchwise/azeotrope.h) is available. */
+/* Azeotropes from the azeotrope module (include/pinchwise/azeotrope.h). */
 static void azeotropes(pw_sbuf *b, const pw_report_curves *c, const char *cond)
 {
     char where[128];
@@ -350,8 +350,14 @@ static void azeotropes(pw_sbuf *b, const pw_report_curves *c, const char *cond)
         snprintf(where, sizeof where, "At the column pressure, %.4g kPa", c->P_col_Pa / 1000.0);
         az_table(b, c->col_az, c->n_col_az, where);
     }
-    pw_sbuf_puts(b, "<p class=\"note\">Located where y\xe2\x82\x81 \xe2\x88\x92 x\xe2\x82\x81 of the "
-                    "model's bubble points changes sign, refined by bisection.</p></section>\n");
+    if (c->az_from_module)
+        pw_sbuf_puts(b, "<p class=\"note\">Roots of ln \xce\xb1\xe2\x82\x81\xe2\x82\x82 = 0 at "
+                        "the model's bubble points (Brent's method), classified by the extremum of "
+                        "the bubble curve; see docs/azeotrope.md.</p></section>\n");
+    else
+        pw_sbuf_puts(b, "<p class=\"note\">The azeotrope search did not complete; these values "
+                        "are where y\xe2\x82\x81 \xe2\x88\x92 x\xe2\x82\x81 of the plotted bubble "
+                        "points changes sign, refined by bisection.</p></section>\n");
 }
 
 static void column_section(pw_sbuf *b, const pw_report_curves *c)

@@ -29,6 +29,7 @@ typedef struct pw_report_file {
 typedef struct pw_report_az {
     double x1, T_K, P_Pa;
     bool min_boiling;
+    bool tangential;   /* a double root (the azeotrope module's flag) */
 } pw_report_az;
 
 /* Everything computed from the fit (arrays of PW_REPORT_GRID points; NAN where a solve failed). */
@@ -42,6 +43,7 @@ typedef struct pw_report_curves {
     size_t n_failed;                 /* equilibrium solves that failed (gaps) */
     pw_report_az az[PW_REPORT_MAX_AZ];
     size_t n_az;
+    bool az_from_module;             /* false: the report's fallback search was used */
     /* column (when requested) */
     bool column;
     pw_column_spec spec;
