@@ -68,6 +68,10 @@ typedef struct pw_column_result {
     double s_min;               /* boil-up ratio Vbar/B at R_min */
     double r_feed;              /* the R a feed-pinch-only search would give (diagnostic) */
     pw_pinch pinch;
+    bool boilup_limited;        /* the q-line meets the curve below xb (vapor-rich, dilute feed):
+                                 * R_min is where the boil-up falls to zero, or a rectifying
+                                 * tangent pinch above it; pinch then reports (xb, y on the q-line)
+                                 * with kind feed and section stripping when zero boil-up limits */
     double n_min;               /* stages at total reflux, stepped on the curve */
     double n_fenske;            /* Fenske with the geometric-mean relative volatility */
     double alpha_top, alpha_bottom;

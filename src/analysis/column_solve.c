@@ -125,6 +125,48 @@ static pw_status find_rmin(pw_column_ws *w, const pw_column_spec *s, size_t n, c
     return PW_OK;
 }
 
+/* The q-line meets the curve below xb: every admissible intersection of the operating lines lies
+ * on the q-line right of the curve, and the least reflux puts it at x = xb, where the stripping
+ * line turns vertical (zero boil-up: the feed's vapor is all the rectifying section receives).
+ * A rectifying tangent pinch over [xb, xd) may still limit; the scan includes the point
+ * (xb, y_i) as its "feed" end. */
+static pw_status boilup_limited_rmin(pw_column_ws *w, const pw_column_spec *s, size_t n,
+                                     col_buffers *b, double y_i, pw_column_result *out)
+{
+    size_t k = 0;
+    b->px[k] = s->xb;
+    b->py[k++] = y_i;
+    for (size_t j = 1; j + 1 < n; j++) {
+        b->px[k] = b->xg[j];
+        b->py[k++] = b->yg[j];
+    }
+    double m_lim, xr, yr;
+    bool at_end;
+    pw_status st = pw_column_section_limit(w, s, PW_SECTION_RECTIFYING, b->px, b->py, k, &m_lim,
+                                           &xr, &yr, &at_end);
+    if (st != PW_OK)
+        return st;
+    out->x_q = NAN;
+    out->y_q = NAN;
+    out->boilup_limited = true;
+    out->r_min = m_lim / (1.0 - m_lim);
+    out->r_feed = pw_column_reflux_of_boilup(s, 0.0);
+    if (at_end) {
+        out->r_min = out->r_feed; /* exactly the zero-boil-up reflux */
+        out->pinch.kind = PW_PINCH_FEED;
+        out->pinch.section = PW_SECTION_STRIPPING;
+        out->pinch.x = s->xb;
+        out->pinch.y = y_i;
+    } else {
+        out->pinch.kind = PW_PINCH_TANGENT;
+        out->pinch.section = PW_SECTION_RECTIFYING;
+        out->pinch.x = xr;
+        out->pinch.y = yr;
+    }
+    out->s_min = fmax(pw_column_boilup(s, out->r_min), 0.0);
+    return out->r_min > 0.0 ? PW_OK : PW_ERANGE;
+}
+
 static pw_status design_table(pw_column_ws *w, const pw_column_spec *s,
                               const pw_column_options *o, pw_column_result *out)
 {
@@ -158,6 +200,19 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
     if (st != PW_OK || !ok)
         return st;
     st = pw_column_qline(w, s, b->xg, b->yg, n, &out->x_q, &out->y_q);
+    if (st == PW_ERANGE && s->q < 1.0) {
+        double y_i = (s->q * s->xb - s->zf) / (s->q - 1.0); /* q-line at x = xb */
+        if (y_i > s->xb && y_i < b->yg[0]) {
+            st = boilup_limited_rmin(w, s, n, b, y_i, out);
+            if (st == PW_OK)
+                st = pw_column_step_ws(w, s, true, INFINITY, o->max_stages, &out->n_min, NULL);
+            if (st != PW_OK)
+                return st;
+            out->n_fenske = pw_fenske_nmin(sqrt(out->alpha_top * out->alpha_bottom), s->xd, s->xb);
+            out->feasible = true;
+            return design_table(w, s, o, out);
+        }
+    }
     if (st == PW_ERANGE) {
         snprintf(out->reason, sizeof out->reason,
                  "the q-line (q = %g) meets the equilibrium curve outside (xb, xd): the feed's "

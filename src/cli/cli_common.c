@@ -126,7 +126,13 @@ pw_status pw_cli_override_components(const char *cmd, pw_system *sys, const char
         const pw_component *c = pw_complib_find(&lib, sys->comp[i].name);
         if (!c)
             continue;
+        const pw_component *o = &sys->comp[i];
+        bool same = c->equation == o->equation && c->A == o->A && c->B == o->B && c->C == o->C &&
+                    c->log == o->log && !strcmp(c->P_unit, o->P_unit) &&
+                    !strcmp(c->T_unit, o->T_unit);
         sys->comp[i] = *c;
+        if (same)
+            continue;
         pw_cli_warnf(cmd, "vapor pressure of %s taken from %s; the activity parameters were fitted "
                      "with the fit file's own correlation", c->name, path);
     }

@@ -1,6 +1,7 @@
 /* pinchwise azeotrope: every azeotrope of a fitted model at a pressure or a temperature, and
  * optionally a scan over pressures (or temperatures) for the pressure-swing question. */
 #include "analysis_common.h"
+#include "azeo_uncert.h"
 #include "cli.h"
 
 #include <math.h>
@@ -23,6 +24,9 @@ static void usage(FILE *f)
             "  --scan FROM:TO:N    also solve at N values from FROM to TO (pressures with\n"
             "                      --pressure, geometric; temperatures with --temperature, linear)\n"
             "                      and report where the azeotrope reaches a pure end\n"
+            "  --uncertainty       95 %% intervals of each azeotrope from the fit's parameter\n"
+            "                      covariance (linearised and sampled)\n"
+            "  --samples N         parameter sets drawn (default 400); --seed N (default 1)\n"
             "  --json              print one JSON object on stdout\n");
 }
 
@@ -32,6 +36,8 @@ typedef struct args {
     bool have_fixed, json, scan;
     double fixed, from, to;
     size_t n;
+    pw_azeo_uncert unc;
+    const char *components;
 } args;
 
 static int parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
@@ -65,6 +71,7 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
     const char *scan_text = NULL;
+    int urc;
     for (int i = 1; i < argc; i++) {
         const char *v = NULL;
         bool missing = false;
@@ -72,10 +79,9 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
             return -1;
         if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
             a->json = true;
-        } else if (pw_cli_opt(argc, argv, &i, "--uncertainty", NULL, NULL)) {
-            pw_error_set(err, PW_EINVAL, NULL, 0,
-                         "--uncertainty is not available for azeotrope in this build; run without it");
-            return PW_EXIT_USAGE;
+        } else if ((urc = pw_azeo_uncert_opt(argc, argv, &i, &a->unc, err)) != 0) {
+            if (urc > 1)
+                return urc;
         } else if (!strcmp(argv[i], "--pressure") || !strcmp(argv[i], "--temperature")) {
             bool isP = !strcmp(argv[i], "--pressure");
             pw_cli_opt(argc, argv, &i, argv[i], &v, &missing);
@@ -99,6 +105,12 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
                 return PW_EXIT_USAGE;
             }
             scan_text = v;
+        } else if (pw_cli_opt(argc, argv, &i, "--components", &v, &missing)) {
+            if (missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "--components needs a file");
+                return PW_EXIT_USAGE;
+            }
+            a->components = v;
         } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
             pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", argv[i]);
             return PW_EXIT_USAGE;
@@ -241,14 +253,22 @@ int pw_cli_azeotrope(int argc, char **argv)
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
     pw_status st = pw_fitfile_read(a.fit_path, &fit, &err);
-    if (st != PW_OK)
+    if (st == PW_OK)
+        st = pw_cli_override_components(CMD, &fit.sys, a.components, &err);
+    if (st != PW_OK) {
+        pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
+    }
     pw_az_result r;
     pw_az_scan *sc = NULL;
     st = pw_azeotrope_find(&fit.sys, a.mode, a.fixed, NULL, &r);
     if (st != PW_OK) {
         pw_error_set(&err, st, a.fit_path, 0, "azeotrope search failed near x1 = %.4g: %s",
                      r.fail_x1, pw_strerror(st));
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
+    if (a.unc.on && (rc = pw_azeo_uncert_run(&fit, &r, &a.unc, &err)) != 0) {
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
@@ -271,7 +291,10 @@ int pw_cli_azeotrope(int argc, char **argv)
     pw_cli_warn_T_range(CMD, &fit, Tlo, Thi, "the bubble temperatures used");
     if (a.json) {
         json_t *o = json_object();
-        json_object_set_new(o, "azeotropes", result_json(&r));
+        json_t *list = result_json(&r);
+        if (a.unc.on)
+            pw_azeo_uncert_json(&a.unc, &r, list);
+        json_object_set_new(o, "azeotropes", list);
         json_object_set_new(o, "mode", json_string(a.mode == PW_AZ_ISOBARIC ? "isobaric"
                                                                             : "isothermal"));
         if (a.mode == PW_AZ_ISOBARIC)
@@ -289,6 +312,8 @@ int pw_cli_azeotrope(int argc, char **argv)
         rc = pw_cli_print_json(o);
     } else {
         print_text(&fit, &a, &r, sc);
+        if (a.unc.on)
+            pw_azeo_uncert_print(&a.unc, &r);
         rc = fflush(stdout) ? 4 : 0;
     }
     pw_az_scan_free(sc);

@@ -65,6 +65,27 @@ static int parse_lines(const char *text, pw_fit_options *o, pw_error *err)
     return PW_OK;
 }
 
+/* A temperature difference with its unit (K and C have the same size, F is 5/9 K): "0.05K". */
+static pw_status temperature_difference(const char *opt, const char *text, double *K, pw_error *err)
+{
+    char *end;
+    double v = strtod(text, &end);
+    double scale = 0.0;
+    if (end != text && isfinite(v) && v > 0.0) {
+        if (!strcmp(end, "K") || !strcmp(end, "C"))
+            scale = 1.0;
+        else if (!strcmp(end, "F"))
+            scale = 5.0 / 9.0;
+    }
+    if (scale == 0.0)
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "%s %s: expected a positive temperature difference with its unit "
+                            "(K, C, F), e.g. 0.05K",
+                            opt, text);
+    *K = v * scale;
+    return PW_OK;
+}
+
 static void print_table(const pw_fit_result *r, const char *path)
 {
     const pw_model_type *m = r->sys.model;
@@ -158,20 +179,7 @@ int pw_cli_fit(int argc, char **argv)
             else if (!strcmp(opt, "--exclude"))
                 st = parse_lines(v, &co.fit, &err);
             else if (!strcmp(opt, "--sigma-T")) {
-                st = pw_units_parse_quantity(PW_QTY_TEMPERATURE, v, &d, &err);
-                /* a temperature difference: K and C have the same size; F is 5/9 K */
-                char *end;
-                double raw = strtod(v, &end);
-                if (st == PW_OK || (end != v && raw > 0.0)) {
-                    st = PW_OK;
-                    d = (*end == 'F' || *end == 'f') ? raw * 5.0 / 9.0 : raw;
-                    if (!(*end == 'K' || *end == 'k' || *end == 'C' || *end == 'c' || *end == 'F' ||
-                          *end == 'f') || end[1] != '\0')
-                        st = pw_error_set(&err, PW_EINVAL, NULL, 0,
-                                          "--sigma-T %s: expected a temperature difference with "
-                                          "its unit (K, C, F), e.g. 0.05K", v);
-                }
-                co.fit.sigma_T_K = d;
+                st = temperature_difference(opt, v, &co.fit.sigma_T_K, &err);
             } else {
                 st = pw_cli_number(opt, v, &d, &err);
                 if (st == PW_OK && !(d > 0.0))

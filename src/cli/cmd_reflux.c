@@ -2,6 +2,7 @@
  * table at 1.2, 1.3 and 1.5 times R_min, for a fitted model at a pressure. */
 #include "cli.h"
 #include "reflux_common.h"
+#include "reflux_uncert.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -18,6 +19,12 @@ static void usage(FILE *f)
             "  --q Q               feed liquid fraction (1 saturated liquid, 0 saturated vapor,\n"
             "                      > 1 subcooled, < 0 superheated; default 1)\n"
             "  --factors F,F,...   design reflux as multiples of R_min (default 1.2,1.3,1.5)\n"
+            "  --uncertainty       intervals of R_min, boil-up and stages from the fit's parameter\n"
+            "                      covariance, feasibility risk, where to measure next\n"
+            "  --samples N         parameter sets drawn for --uncertainty (default 400)\n"
+            "  --seed N            random seed of the draws (default 1)\n"
+            "  --compare FIT.json  another model's fit of the same data (repeatable): R_min\n"
+            "                      side by side, ranked by AICc\n"
             "  --json              print one JSON object on stdout\n");
 }
 
@@ -45,6 +52,13 @@ json_t *pw_reflux_json(const pw_reflux_run *run)
         json_object_set_new(o, "pinch", json_null());
     }
     json_object_set_new(o, "n_min", c->feasible ? pw_cli_json_num(c->n_min) : json_null());
+    json_object_set_new(o, "limit",
+                        !c->feasible ? json_null()
+                        : c->boilup_limited && c->pinch.kind == PW_PINCH_FEED
+                            ? json_string("zero boil-up: the feed's vapor is all the rectifying "
+                                          "section gets; the operating lines meet on the q-line "
+                                          "at xb")
+                            : json_string("pinch"));
     json_object_set_new(o, "boilup_min", c->feasible ? pw_cli_json_num(c->s_min) : json_null());
     json_object_set_new(o, "r_min_feed_point_only", c->feasible ? pw_cli_json_num(c->r_feed) : json_null());
     json_object_set_new(o, "q_line_point", json_pack("{s:o,s:o}", "x", pw_cli_json_num(c->x_q), "y",
@@ -99,9 +113,14 @@ static void print_table(const pw_reflux_run *run)
         return;
     }
     printf("  minimum reflux R_min      %.6g  (minimum boil-up Vbar/B %.6g)\n", c->r_min, c->s_min);
-    printf("  limiting pinch            %s pinch in the %s section at x = %.5f, y = %.5f\n",
-           pinch_kind(c->pinch.kind), section(c->pinch.section), c->pinch.x, c->pinch.y);
-    if (c->pinch.kind == PW_PINCH_TANGENT)
+    if (c->boilup_limited && c->pinch.kind == PW_PINCH_FEED)
+        printf("  limited by zero boil-up   the q-line meets the curve below xb: the feed brings\n"
+               "                            more vapor than the rectifying section needs, so R\n"
+               "                            cannot fall below this without cooling the feed\n");
+    else
+        printf("  limiting pinch            %s pinch in the %s section at x = %.5f, y = %.5f\n",
+               pinch_kind(c->pinch.kind), section(c->pinch.section), c->pinch.x, c->pinch.y);
+    if (c->pinch.kind == PW_PINCH_TANGENT && !c->boilup_limited)
         printf("  (a search at the q-line alone would give R = %.6g: %.0f %% too low)\n", c->r_feed,
                100.0 * (c->r_min - c->r_feed) / c->r_min);
     printf("  stages at total reflux    %.3f stepped (Fenske %.3f, alpha top %.3f, bottom %.3f)\n",
@@ -135,19 +154,27 @@ int pw_cli_reflux(int argc, char **argv)
             usage(stderr);
         return pw_cli_fail("reflux", &err);
     }
-    if (a.uncertainty || a.n_extra)
-        return pw_cli_failf("reflux", PW_EXIT_USAGE,
-                            "--uncertainty, --samples, --seed and --compare are not available in "
-                            "this build yet");
     pw_reflux_run run;
     rc = pw_reflux_compute(&a, &run, &err);
     if (rc != 0)
         return pw_cli_fail("reflux", &err);
+    pw_reflux_uncert unc;
+    bool with_unc = a.uncertainty || a.n_extra;
+    if (with_unc && (rc = pw_reflux_uncert_run(&a, &run, &unc, &err)) != 0) {
+        pw_fit_result_free(&run.fit);
+        return pw_cli_fail("reflux", &err);
+    }
     pw_reflux_warn(&run);
-    if (a.json)
-        rc = pw_cli_print_json(pw_reflux_json(&run));
-    else
+    if (a.json) {
+        json_t *o = pw_reflux_json(&run);
+        if (with_unc)
+            pw_reflux_uncert_json(&unc, o);
+        rc = pw_cli_print_json(o);
+    } else {
         print_table(&run);
+        if (with_unc)
+            pw_reflux_uncert_print(&unc, &run);
+    }
     pw_fit_result_free(&run.fit);
     return rc;
 }

@@ -1,9 +1,222 @@
+/* pinchwise report: one self-contained HTML page of a fit (and a column), optionally the plots
+ * as separate SVG files and the curves behind them as CSV. */
 #include "cli.h"
 
-/* Placeholder until the report command lands: refuses to run rather than print anything. */
+#include <math.h>
+#include <pinchwise/report.h>
+#include <stdio.h>
+#include <string.h>
+#include <sys/stat.h>
+#include <unistd.h>
+
+static void usage(FILE *f)
+{
+    fprintf(f,
+            "usage: pinchwise report FIT.json --out REPORT.html [options]\n"
+            "\n"
+            "Writes one self-contained HTML page (inline SVG plots, no scripts, nothing fetched).\n"
+            "  --out FILE              the page to write (refused if it exists, unless --force)\n"
+            "  --pressure P --xd X --xb X --zf X [--q Q]\n"
+            "                          add the column section: x-y construction at pressure P\n"
+            "                          (with its unit, e.g. 1atm), mole fractions of component 1\n"
+            "  --operating-factor F    R / R_min of the drawn operating line (default 1.3)\n"
+            "  --svg DIR               also write each plot as DIR/<name>.svg\n"
+            "  --csv DIR               also write the curves behind the plots as DIR/<name>.csv\n"
+            "  --components FILE       vapor-pressure rows that replace the fit file's\n"
+            "  --force                 replace existing output files\n"
+            "  --json                  print {\"report\": path, \"plots\": N} on stdout\n");
+}
+
+typedef struct report_args {
+    const char *fit, *out, *svg, *csv, *components;
+    bool json, force;
+    bool have_P, have_xd, have_xb, have_zf;
+    double P_Pa, factor;
+    pw_column_spec spec;
+} report_args;
+
+static int fraction(const char *opt, const char *v, double *out, pw_error *err)
+{
+    if (pw_cli_number(opt, v, out, err) != PW_OK)
+        return PW_EXIT_USAGE;
+    if (!(*out >= 0.0 && *out <= 1.0)) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: a mole fraction must lie in [0, 1]", opt, v);
+        return PW_EXIT_USAGE;
+    }
+    return 0;
+}
+
+/* Returns 0, -1 for --help, or an exit code with err filled. */
+static int parse(int argc, char **argv, report_args *a, pw_error *err)
+{
+    memset(a, 0, sizeof *a);
+    a->spec.q = 1.0;
+    for (int i = 1; i < argc; i++) {
+        const char *v = NULL;
+        bool missing = false;
+        int rc = 0;
+        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
+            return -1;
+        if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
+            a->json = true;
+        } else if (pw_cli_opt(argc, argv, &i, "--force", NULL, NULL)) {
+            a->force = true;
+        } else if (!strncmp(argv[i], "--", 2)) {
+            const char *opt = argv[i];
+            static const char *const known[] = {"--out", "--pressure", "--xd", "--xb", "--zf", "--q",
+                                                "--operating-factor", "--svg", "--csv",
+                                                "--components"};
+            bool ok = false;
+            for (size_t k = 0; k < sizeof known / sizeof known[0]; k++)
+                ok = ok || !strcmp(opt, known[k]);
+            if (!ok) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s (see --help)", opt);
+                return PW_EXIT_USAGE;
+            }
+            if (!pw_cli_opt(argc, argv, &i, opt, &v, &missing) || missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
+                return PW_EXIT_USAGE;
+            }
+            if (!strcmp(opt, "--out"))
+                a->out = v;
+            else if (!strcmp(opt, "--svg"))
+                a->svg = v;
+            else if (!strcmp(opt, "--csv"))
+                a->csv = v;
+            else if (!strcmp(opt, "--components"))
+                a->components = v;
+            else if (!strcmp(opt, "--pressure")) {
+                if (pw_cli_quantity(PW_QTY_PRESSURE, opt, v, &a->P_Pa, err) != PW_OK)
+                    return PW_EXIT_USAGE;
+                a->have_P = true;
+            } else if (!strcmp(opt, "--xd")) {
+                rc = fraction(opt, v, &a->spec.xd, err);
+                a->have_xd = true;
+            } else if (!strcmp(opt, "--xb")) {
+                rc = fraction(opt, v, &a->spec.xb, err);
+                a->have_xb = true;
+            } else if (!strcmp(opt, "--zf")) {
+                rc = fraction(opt, v, &a->spec.zf, err);
+                a->have_zf = true;
+            } else if (!strcmp(opt, "--q")) {
+                rc = pw_cli_number(opt, v, &a->spec.q, err) == PW_OK ? 0 : PW_EXIT_USAGE;
+            } else if (!strcmp(opt, "--operating-factor")) {
+                rc = pw_cli_number(opt, v, &a->factor, err) == PW_OK ? 0 : PW_EXIT_USAGE;
+                if (!rc && !(a->factor > 1.0)) {
+                    pw_error_set(err, PW_EINVAL, NULL, 0,
+                                 "--operating-factor %s: R / R_min must be greater than 1", v);
+                    rc = PW_EXIT_USAGE;
+                }
+            }
+        } else if (a->fit) {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", argv[i]);
+            return PW_EXIT_USAGE;
+        } else {
+            a->fit = argv[i];
+        }
+        if (rc)
+            return rc;
+    }
+    if (!a->fit || !a->out) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file and --out REPORT.html are required");
+        return PW_EXIT_USAGE;
+    }
+    int n_col = a->have_P + a->have_xd + a->have_xb + a->have_zf;
+    if (n_col != 0 && n_col != 4) {
+        pw_error_set(err, PW_EINVAL, NULL, 0,
+                     "the column section needs all of --pressure, --xd, --xb and --zf");
+        return PW_EXIT_USAGE;
+    }
+    if (n_col == 4 && !(a->spec.xb < a->spec.zf && a->spec.zf < a->spec.xd)) {
+        pw_error_set(err, PW_EINVAL, NULL, 0,
+                     "the targets must satisfy xb < zf < xd (got xb %g, zf %g, xd %g)", a->spec.xb,
+                     a->spec.zf, a->spec.xd);
+        return PW_EXIT_USAGE;
+    }
+    if (a->factor != 0.0 && n_col == 0) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "--operating-factor needs the column options");
+        return PW_EXIT_USAGE;
+    }
+    return 0;
+}
+
+/* The output must never be the input. */
+static bool same_file(const char *a, const char *b)
+{
+    struct stat sa, sb;
+    return stat(a, &sa) == 0 && stat(b, &sb) == 0 && sa.st_dev == sb.st_dev && sa.st_ino == sb.st_ino;
+}
+
+static void progress(const char *what)
+{
+    if (isatty(STDERR_FILENO))
+        fprintf(stderr, "pinchwise report: %s\n", what);
+}
+
 int pw_cli_report(int argc, char **argv)
 {
-    (void)argc;
-    (void)argv;
-    return pw_cli_failf("report", 1, "this command is not available in this build yet");
+    report_args a;
+    pw_error err;
+    pw_error_clear(&err);
+    int rc = parse(argc, argv, &a, &err);
+    if (rc < 0) {
+        usage(stdout);
+        return 0;
+    }
+    if (rc)
+        return pw_cli_fail("report", &err);
+    if (same_file(a.out, a.fit))
+        return pw_cli_failf("report", PW_EXIT_USAGE, "%s: --out names the fit file itself; refusing "
+                                                     "to overwrite the input", a.out);
+    if (!a.force && access(a.out, F_OK) == 0)
+        return pw_cli_failf("report", pw_status_exit_code(PW_EEXIST),
+                            "%s: file exists (pass --force to replace it, or choose another --out)",
+                            a.out);
+
+    pw_fit_result fit;
+    progress("reading the fit file");
+    pw_status st = pw_fitfile_read(a.fit, &fit, &err);
+    if (st != PW_OK)
+        return pw_cli_fail("report", &err);
+    st = pw_cli_override_components("report", &fit.sys, a.components, &err);
+    if (st != PW_OK) {
+        pw_fit_result_free(&fit);
+        return pw_cli_fail("report", &err);
+    }
+    if (!fit.converged)
+        pw_cli_warnf("report", "%s: the fit did not converge; the report says so on every page", a.fit);
+
+    pw_report_input in = pw_report_default_input();
+    in.fit = &fit;
+    in.fit_path = a.fit;
+    if (a.have_P) {
+        in.column = &a.spec;
+        in.column_P_Pa = a.P_Pa;
+        in.operating_factor = a.factor;
+    }
+    pw_report *rep = NULL;
+    progress("computing curves, tables and plots");
+    st = pw_report_build(&in, &rep, &err);
+    pw_fit_result_free(&fit);
+    if (st != PW_OK)
+        return pw_cli_fail("report", &err);
+    progress("writing");
+    st = a.force ? PW_OK : pw_report_check_targets(rep, a.out, a.svg, a.csv, &err);
+    if (st == PW_OK)
+        st = pw_report_save_html(rep, a.out, a.force, &err);
+    if (st == PW_OK && a.svg)
+        st = pw_report_save_svg(rep, a.svg, a.force, NULL, &err);
+    if (st == PW_OK && a.csv)
+        st = pw_report_save_csv(rep, a.csv, a.force, NULL, &err);
+    size_t plots = pw_report_plot_count(rep);
+    pw_report_free(rep);
+    if (st != PW_OK)
+        return pw_cli_fail("report", &err);
+    if (a.json)
+        return pw_cli_print_json(json_pack("{s:s,s:I}", "report", a.out, "plots", (json_int_t)plots));
+    progress("done");
+    if (!isatty(STDERR_FILENO))
+        return 0;
+    fprintf(stderr, "pinchwise report: wrote %s with %zu plots\n", a.out, plots);
+    return 0;
 }

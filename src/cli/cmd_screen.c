@@ -1,6 +1,7 @@
 /* pinchwise screen: quick feasibility verdict for a split by simple distillation. */
 #include "analysis_common.h"
 #include "cli.h"
+#include "reflux_uncert.h"
 
 #include <math.h>
 #include <pinchwise/screen.h>
@@ -13,6 +14,8 @@ static void usage(FILE *f)
 {
     fprintf(f,
             "usage: pinchwise screen FIT.json --pressure P --xd X --xb X [--zf X] [--json]\n"
+            "  --uncertainty       propagate the fit's uncertainty (--samples N, --seed N)\n"
+            "  --components FILE   vapor-pressure rows replacing the fit file's\n"
             "\n"
             "Verdict (feasible / difficult / infeasible by simple distillation) with its reasons:\n"
             "lowest relative volatility on [xb, xd], azeotrope barrier, azeotrope shift over\n"
@@ -29,6 +32,10 @@ typedef struct args {
     const char *fit_path;
     double P_Pa, xd, xb, zf;
     bool have_P, have_xd, have_xb, json;
+    bool uncertainty;
+    const char *components;
+    const char *extra[4]; /* --samples N, --seed N for the uncertainty extension */
+    int n_extra;
     pw_screen_options opt;
 } args;
 
@@ -81,9 +88,27 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
             continue;
         }
         if (!strcmp(opt, "--uncertainty")) {
-            pw_error_set(err, PW_EINVAL, NULL, 0,
-                         "--uncertainty is not available for screen in this build; run without it");
-            return PW_EXIT_USAGE;
+            a->uncertainty = true;
+            continue;
+        }
+        if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") || !strcmp(opt, "--components")) {
+            pw_cli_opt(argc, argv, &i, opt, &v, &missing);
+            if (missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
+                return PW_EXIT_USAGE;
+            }
+            if (!strcmp(opt, "--components")) {
+                a->components = v;
+            } else {
+                if (a->n_extra + 2 > 4) {
+                    pw_error_set(err, PW_EINVAL, NULL, 0, "%s given twice", opt);
+                    return PW_EXIT_USAGE;
+                }
+                a->extra[a->n_extra++] = opt;
+                a->extra[a->n_extra++] = v;
+                a->uncertainty = true;
+            }
+            continue;
         }
         if (opt[0] == '-' && opt[1] != '\0') {
             if (strcmp(opt, "--pressure") && strcmp(opt, "--xd") && strcmp(opt, "--xb") &&
@@ -226,6 +251,10 @@ int pw_cli_screen(int argc, char **argv)
     memset(&fit, 0, sizeof fit);
     if (pw_fitfile_read(a.fit_path, &fit, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if (pw_cli_override_components(CMD, &fit.sys, a.components, &err) != PW_OK) {
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
     pw_screen_result r;
     pw_status st = pw_screen_run(&fit.sys, a.P_Pa, a.xd, a.xb, a.zf, &a.opt, &r);
     if (st != PW_OK) {
@@ -235,10 +264,43 @@ int pw_cli_screen(int argc, char **argv)
     }
     pw_cli_warn_fit(CMD, &fit);
     pw_cli_warn_T_range(CMD, &fit, r.T_lo_K, r.T_hi_K, "the temperatures used");
-    if (a.json)
-        rc = pw_cli_print_json(to_json(&fit, &r, &a.opt));
-    else {
+    /* --uncertainty: the reflux command's propagation, for the screen's rough column (q = 1). */
+    pw_reflux_uncert u;
+    pw_reflux_run run;
+    memset(&u, 0, sizeof u);
+    memset(&run, 0, sizeof run);
+    bool unc = a.uncertainty && r.column_ran;
+    if (a.uncertainty && !r.column_ran)
+        pw_cli_warnf(CMD, "no column was solved for this split, so there is nothing to propagate");
+    if (unc) {
+        pw_reflux_args ra;
+        memset(&ra, 0, sizeof ra);
+        ra.fit_path = a.fit_path;
+        ra.P_Pa = a.P_Pa;
+        ra.spec = (pw_column_spec){.xd = r.xd, .xb = r.xb, .zf = r.zf, .q = 1.0};
+        ra.opt = pw_column_default_options();
+        ra.uncertainty = true;
+        for (int k = 0; k < a.n_extra; k++)
+            ra.extra[k] = a.extra[k];
+        ra.n_extra = a.n_extra;
+        run.fit = fit; /* borrowed: freed once below */
+        run.P_Pa = a.P_Pa;
+        run.spec = ra.spec;
+        run.col = r.column;
+        if ((rc = pw_reflux_uncert_run(&ra, &run, &u, &err)) != 0) {
+            pw_fit_result_free(&fit);
+            return pw_cli_fail(CMD, &err);
+        }
+    }
+    if (a.json) {
+        json_t *j = to_json(&fit, &r, &a.opt);
+        if (unc)
+            pw_reflux_uncert_json(&u, j);
+        rc = pw_cli_print_json(j);
+    } else {
         print_text(&fit, &r);
+        if (unc)
+            pw_reflux_uncert_print(&u, &run);
         rc = fflush(stdout) ? 4 : 0;
     }
     pw_fit_result_free(&fit);

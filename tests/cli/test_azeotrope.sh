@@ -81,7 +81,7 @@ assert d["r_min"] > 0 and d["n_min"] > 1, d
 assert d["azeotropes"] == []
 PY
 
-# Errors: bare number, both modes, missing mode, --uncertainty refused; stdout stays empty.
+# Errors: bare number, both modes, missing mode, bad --samples; stdout stays empty.
 expect_fail() {
     "$@" > "$TMP/o" 2> "$TMP/e" && fail "should fail: $*"
     [ -s "$TMP/o" ] && fail "stdout not empty on failure: $*"
@@ -93,10 +93,10 @@ expect_fail "$PW" azeotrope "$F" --pressure 101.325
 grep -q "kPa" "$TMP/e" || fail "the bare-number message should list the units"
 expect_fail "$PW" azeotrope "$F" --pressure 1atm --temperature 50C
 expect_fail "$PW" azeotrope "$F"
-expect_fail "$PW" azeotrope "$F" --pressure 1atm --uncertainty
-grep -q "uncertainty" "$TMP/e" || fail "--uncertainty refusal should say so"
+expect_fail "$PW" azeotrope "$F" --pressure 1atm --samples many
+grep -q "samples" "$TMP/e" || fail "a bad --samples value should be named"
 expect_fail "$PW" azeotrope "$F" --pressure 1atm --scan 10kPa:20kPa
 expect_fail "$PW" azeotrope "$TMP/missing.json" --pressure 1atm
 expect_fail "$PW" screen "$F" --pressure 1atm --xd 0.2 --xb 0.5
-expect_fail "$PW" screen "$F" --pressure 1atm --xd 0.9 --xb 0.1 --uncertainty
+expect_fail "$PW" screen "$F" --pressure 1atm --xd 0.9 --xb 0.1 --samples
 echo "ok"

@@ -31,6 +31,14 @@ done
 "$pw" fit "$src/datasets/mek_toluene_50C_px.csv" --model margules --json --out px.json > out.json || fail "P-x fit"
 python3 -c 'import json; d=json.load(open("out.json")); assert d["aad_y"] is None and d["aad_T_K"] is None and d["aad_P_kPa"] > 0' || fail "P-x keys"
 
+# 2b. Every model on the published isothermal P-x-y and P-x sets (SVNA 7th ed. Ex. 12.1, from memory).
+for f in mek_toluene_50C_pxy mek_toluene_50C_px; do
+  for m in margules vanlaar wilson nrtl; do
+    "$pw" fit "$src/datasets/$f.csv" --model $m --json --out $f.$m.json > o.json 2>/dev/null || fail "fit $f $m"
+    python3 -c 'import json,sys; d=json.load(open("o.json")); assert d["converged"] and d["aad_P_kPa"] < 0.5 and d["aad_T_K"] is None and (d["aad_y"] is None) == sys.argv[1].endswith("_px"), d' "$f" || fail "keys $f $m"
+  done
+done
+
 # 3. An existing fit file is not overwritten without --force; with --force it is.
 cp px.json px.before
 "$pw" fit "$src/datasets/mek_toluene_50C_px.csv" --model margules --out px.json 2>err.txt && fail "overwrote without --force"

@@ -4,6 +4,7 @@
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
+#include <string.h>
 
 void pw_assert_close_impl(double got, double want, double rtol, double atol, const char *label,
                           const char *file, int line)
@@ -34,3 +35,43 @@ const char *pw_test_path(char *buf, size_t len, const char *relative)
 }
 
 void pw_test_init(void) { gsl_set_error_handler_off(); }
+
+pw_component pw_test_antoine(const char *name, double A, double B, double C, pw_log_base log,
+                             const char *P_unit, const char *T_unit, double T_min_K,
+                             double T_max_K)
+{
+    pw_component c;
+    memset(&c, 0, sizeof c);
+    snprintf(c.name, sizeof c.name, "%s", name);
+    c.equation = PW_PSAT_ANTOINE;
+    c.A = A;
+    c.B = B;
+    c.C = C;
+    c.log = log;
+    snprintf(c.P_unit, sizeof c.P_unit, "%s", P_unit);
+    snprintf(c.T_unit, sizeof c.T_unit, "%s", T_unit);
+    c.T_min_K = T_min_K;
+    c.T_max_K = T_max_K;
+    c.V_L_cm3mol = NAN;
+    return c;
+}
+
+pw_component pw_test_svna(const char *name)
+{
+    static const struct {
+        const char *name;
+        double A, B, C;
+    } rows[] = {
+        {"water", 16.3872, 3885.70, 230.170},
+        {"1-propanol", 16.1154, 3483.67, 205.807},
+        {"acetone", 14.3145, 2756.22, 228.060},
+        {"methanol", 16.5785, 3638.27, 239.500},
+    };
+    for (size_t i = 0; i < sizeof rows / sizeof rows[0]; i++)
+        if (!strcmp(rows[i].name, name))
+            return pw_test_antoine(name, rows[i].A, rows[i].B, rows[i].C, PW_LN, "kPa", "C", NAN,
+                                   NAN);
+    print_error("pw_test_svna: no Table B.2 row for %s\n", name);
+    fail();
+    return pw_test_antoine(name, NAN, NAN, NAN, PW_LN, "kPa", "C", NAN, NAN);
+}

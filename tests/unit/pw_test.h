@@ -7,6 +7,7 @@
 #include <stddef.h>
 #include <stdint.h>
 #include <cmocka.h>
+#include <pinchwise/component.h>
 
 /* Asserts |got - want| <= rtol*|want| + atol. NaN or Inf in either value fails unless both are
  * the same non-finite value. Prints both numbers, the tolerance and the label on failure. */
@@ -21,5 +22,16 @@ const char *pw_test_path(char *buf, size_t len, const char *relative);
 
 /* Switches GSL's aborting error handler off; call once at the start of every test main(). */
 void pw_test_init(void);
+
+/* An Antoine component as a component file would give it: log base, P and T units as written
+ * there, validity range in K (NAN for none). */
+pw_component pw_test_antoine(const char *name, double A, double B, double C, pw_log_base log,
+                             const char *P_unit, const char *T_unit, double T_min_K,
+                             double T_max_K);
+
+/* Smith, Van Ness & Abbott, 7th ed. (2005), Table B.2 rows, ln(P/kPa) = A - B/(t/C + C), for
+ * water, 1-propanol (confirmed), acetone and methanol (from memory; methods brief 2.5). Any other
+ * name fails the test. No validity range. */
+pw_component pw_test_svna(const char *name);
 
 #endif

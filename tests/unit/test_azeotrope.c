@@ -20,20 +20,7 @@
 /* Antoine row ln(P/kPa) = A - B/(T + C) with T in T_unit ("K" or "C"). */
 static pw_component antoine(const char *name, double A, double B, double C, const char *T_unit)
 {
-    pw_component c;
-    memset(&c, 0, sizeof c);
-    snprintf(c.name, sizeof c.name, "%s", name);
-    c.equation = PW_PSAT_ANTOINE;
-    c.A = A;
-    c.B = B;
-    c.C = C;
-    c.log = PW_LN;
-    snprintf(c.P_unit, sizeof c.P_unit, "kPa");
-    snprintf(c.T_unit, sizeof c.T_unit, "%s", T_unit);
-    c.T_min_K = NAN;
-    c.T_max_K = NAN;
-    c.V_L_cm3mol = NAN;
-    return c;
+    return pw_test_antoine(name, A, B, C, PW_LN, "kPa", T_unit, NAN, NAN);
 }
 
 /* Two-parameter Margules g = x1 x2 (A21 x1 + A12 x2) at T_ref = T, with constant vapor

@@ -30,18 +30,7 @@
 
 static pw_component antoine(const char *name, double A, double B, double C)
 {
-    pw_component c;
-    memset(&c, 0, sizeof c);
-    snprintf(c.name, sizeof c.name, "%s", name);
-    c.equation = PW_PSAT_ANTOINE;
-    c.A = A, c.B = B, c.C = C;
-    c.log = PW_LN;
-    snprintf(c.P_unit, sizeof c.P_unit, "kPa");
-    snprintf(c.T_unit, sizeof c.T_unit, "C");
-    c.T_min_K = 250.0, c.T_max_K = 450.0;
-    c.V_L_cm3mol = NAN;
-    snprintf(c.source, sizeof c.source, "SVNA 7th ed. Table B.2 via METHODS 2.5");
-    return c;
+    return pw_test_antoine(name, A, B, C, PW_LN, "kPa", "C", 250.0, 450.0);
 }
 
 static pw_component methanol(void) { return antoine("methanol", 16.5785, 3638.27, 239.500); }

@@ -13,34 +13,12 @@
 
 static pw_component antoine(const char *name, double A, double B, double C)
 {
-    pw_component c;
-    memset(&c, 0, sizeof c);
-    snprintf(c.name, sizeof c.name, "%s", name);
-    c.equation = PW_PSAT_ANTOINE;
-    c.A = A;
-    c.B = B;
-    c.C = C;
-    c.log = PW_LN;
-    snprintf(c.P_unit, sizeof c.P_unit, "kPa");
-    snprintf(c.T_unit, sizeof c.T_unit, "C");
-    c.T_min_K = NAN;
-    c.T_max_K = NAN;
-    c.V_L_cm3mol = NAN;
-    return c;
+    return pw_test_antoine(name, A, B, C, PW_LN, "kPa", "C", NAN, NAN);
 }
 
 /* SVNA 7th ed. Table B.2, ln(P/kPa) = A - B/(t/C + C) (METHODS 2.5: water and 1-propanol
  * confirmed, acetone and methanol from memory). */
-static pw_component svna(const char *name)
-{
-    if (strcmp(name, "water") == 0)
-        return antoine(name, 16.3872, 3885.70, 230.170);
-    if (strcmp(name, "1-propanol") == 0)
-        return antoine(name, 16.1154, 3483.67, 205.807);
-    if (strcmp(name, "acetone") == 0)
-        return antoine(name, 14.3145, 2756.22, 228.060);
-    return antoine(name, 16.5785, 3638.27, 239.500); /* methanol */
-}
+static pw_component svna(const char *name) { return pw_test_svna(name); }
 
 /* SVNA 7th ed. Table 12.5 parameters (METHODS 7.1; 1-propanol/water NRTL confirmed, the rest
  * from memory), cal/mol converted to K with R = 1.987. light(1)/water(2). */

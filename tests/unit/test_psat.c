@@ -9,34 +9,12 @@
 static pw_component antoine(const char *name, double A, double B, double C, pw_log_base lb,
                             const char *P_unit, const char *T_unit)
 {
-    pw_component c;
-    memset(&c, 0, sizeof c);
-    snprintf(c.name, sizeof c.name, "%s", name);
-    c.equation = PW_PSAT_ANTOINE;
-    c.A = A;
-    c.B = B;
-    c.C = C;
-    c.log = lb;
-    snprintf(c.P_unit, sizeof c.P_unit, "%s", P_unit);
-    snprintf(c.T_unit, sizeof c.T_unit, "%s", T_unit);
-    c.T_min_K = NAN;
-    c.T_max_K = NAN;
-    c.V_L_cm3mol = NAN;
-    return c;
+    return pw_test_antoine(name, A, B, C, lb, P_unit, T_unit, NAN, NAN);
 }
 
 /* SVNA 7th ed. Table B.2, ln(P/kPa) = A - B/(t/C + C); water and 1-propanol confirmed, acetone
  * and methanol from memory (METHODS 2.5). */
-static pw_component svna(const char *name)
-{
-    if (strcmp(name, "water") == 0)
-        return antoine(name, 16.3872, 3885.70, 230.170, PW_LN, "kPa", "C");
-    if (strcmp(name, "1-propanol") == 0)
-        return antoine(name, 16.1154, 3483.67, 205.807, PW_LN, "kPa", "C");
-    if (strcmp(name, "acetone") == 0)
-        return antoine(name, 14.3145, 2756.22, 228.060, PW_LN, "kPa", "C");
-    return antoine(name, 16.5785, 3638.27, 239.500, PW_LN, "kPa", "C"); /* methanol */
-}
+static pw_component svna(const char *name) { return pw_test_svna(name); }
 
 /* IAPWS R7-97(2012), Table 35 (psat) and Table 36 (Tsat) verification values. */
 static void if97_verification_values(void **state)

@@ -1,0 +1,263 @@
+/* Design results under parameter uncertainty: how sure is a minimum reflux ratio, a boil-up,
+ * a stage count or an azeotrope computed from a fitted model?
+ *
+ * The fitted parameters theta (the fit's `fitted[]` entries only) are uncertain with covariance C
+ * (pw_fit_result.cov). Any result computed from a pw_system is propagated two ways:
+ *   linearised   Var f = g^T C g, g = df/dtheta by central finite differences of the whole
+ *                calculation (the delta method; Bates & Watts 1988, sec. 2.3; Seber & Wild 1989)
+ *   sampled      theta drawn from N(theta_hat, C) (or the multivariate t with the fit's degrees
+ *                of freedom), C factored by Cholesky (LAPACK dpotrf) or, when only positive
+ *                semi-definite, by its eigen-decomposition (dsyev); the result recomputed for every
+ *                draw; 95 % interval from the 2.5 / 97.5 % sample percentiles (JCGM 101:2008).
+ * The two intervals "disagree" when either end differs by more than disagree_frac (default 25 %)
+ * of the sampled interval's width; the quoted interval is then the sampled one.
+ * See docs/uncertainty.md for the methods, their limits and their sources.
+ *
+ * Nothing here prints, exits or keeps global state; each call owns its random-number generator,
+ * so calls may run in parallel threads. */
+#ifndef PINCHWISE_UNCERTAINTY_H
+#define PINCHWISE_UNCERTAINTY_H
+
+#include <gsl/gsl_rng.h>
+#include <pinchwise/azeotrope.h>
+#include <pinchwise/column.h>
+#include <pinchwise/equilibrium.h>
+#include <pinchwise/fit.h>
+#include <pinchwise/status.h>
+#include <stdbool.h>
+#include <stddef.h>
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+#define PW_UNC_MAX_OUTPUTS 8
+
+/* A result computed from one parameter set. Fills out[0 .. n_out-1] and returns PW_OK; returns
+ * PW_EINFEASIBLE when the result does not exist for this set (the split cannot be made, the
+ * azeotrope has vanished): this is an outcome, counted, not an error. Any other status is a
+ * failed evaluation. sys is the caller's; the callback must not keep it. ctx is the callback's
+ * own (read-only during a call is not required: calls are sequential within one propagation). */
+typedef pw_status (*pw_unc_fn)(void *ctx, const pw_system *sys, double *out);
+
+/* What to propagate: the estimate, which parameters are uncertain, their covariance (full
+ * parameter space, units of the parameters), and the result function. */
+typedef struct pw_unc_problem {
+    pw_system sys;                             /* parameters at the estimate theta_hat */
+    bool fitted[PW_MAX_PARAMS];                /* uncertain parameters; the others stay fixed */
+    double cov[PW_MAX_PARAMS][PW_MAX_PARAMS];  /* rows/columns of fixed parameters are ignored */
+    double dof;      /* residual degrees of freedom of the fit (t quantiles, multivariate t);
+                        0 = C known exactly (normal quantiles and draws) */
+    size_t n_out;    /* 1 .. PW_UNC_MAX_OUTPUTS */
+    pw_unc_fn fn;
+    void *ctx;
+} pw_unc_problem;
+
+/* Fills pb from a fit (sys, fitted[], cov, dof) and the result function. PW_EINVAL for NULL
+ * arguments, n_out out of range, or a fit without a model. */
+pw_status pw_unc_problem_from_fit(pw_unc_problem *pb, const pw_fit_result *fit, pw_unc_fn fn,
+                                  void *ctx, size_t n_out);
+
+typedef struct pw_unc_options {
+    size_t samples;        /* Monte Carlo draws; default 400; 0 = linearised only */
+    unsigned long seed;    /* GSL mt19937 seed; default 1 (documented in docs/uncertainty.md) */
+    bool linearised;       /* compute the delta-method interval (default true) */
+    double fd_step;        /* central-difference step as a fraction of each parameter's
+                              standard error; default 0.05 */
+    double level;          /* coverage of the intervals; default 0.95 */
+    double disagree_frac;  /* disagreement rule (see above); default 0.25 */
+    size_t max_redraws;    /* draws outside the model's domain are redrawn; at most this many
+                              redraws in total (default 10 * samples + 100), then PW_EDOM */
+} pw_unc_options;
+
+pw_unc_options pw_unc_default_options(void);
+
+/* One propagated result. Entries that could not be computed are NAN (and the *_ok flag false). */
+typedef struct pw_unc_output {
+    double value;                  /* at the estimate */
+    double grad[PW_MAX_PARAMS];    /* d value / d theta_k for fitted k; 0 for fixed ones */
+    bool lin_ok;
+    double sd_lin, ci_lin[2];      /* value -/+ q sd_lin, q = t(dof) or normal quantile */
+    bool mc_ok;                    /* at least 20 feasible draws */
+    size_t n_mc;                   /* feasible draws that gave this output */
+    double mean_mc, sd_mc, ci_mc[2]; /* sample mean, sd, percentile interval (feasible draws) */
+    bool disagree;                 /* the rule above fired (both intervals available) */
+    bool ci_sampled;               /* ci below is the sampled one */
+    double ci[2];                  /* the interval to quote */
+} pw_unc_output;
+
+typedef struct pw_unc_result {
+    size_t n_out;
+    pw_unc_output out[PW_UNC_MAX_OUTPUTS];
+    pw_status point_status;  /* the function at the estimate: PW_OK or PW_EINFEASIBLE */
+    pw_status lin_status;    /* PW_OK, or why there is no linearised interval */
+    size_t n_samples;        /* draws evaluated */
+    size_t n_feasible, n_infeasible, n_failed; /* outcomes of the draws */
+    size_t n_redrawn;        /* draws rejected for being outside the model's domain */
+    double p_feasible;       /* n_feasible / (n_feasible + n_infeasible); NAN without draws */
+    bool sampler_eigen;      /* C was only semi-definite: eigen-decomposition used */
+    size_t rank;             /* rank of C used for drawing */
+} pw_unc_result;
+
+/* Propagates pb's covariance into its outputs (linearised and/or sampled, per opt; NULL =
+ * defaults). A point estimate that is infeasible is not an error: point_status says so, the
+ * linearised interval is skipped (lin_status = PW_EINFEASIBLE) and the draws still give
+ * p_feasible. Errors: PW_EINVAL (bad problem or options, C not positive semi-definite),
+ * PW_EDOM (draws kept falling outside the model's domain), PW_ENOMEM, and any failure of the
+ * function at the estimate itself. */
+pw_status pw_unc_propagate(const pw_unc_problem *pb, const pw_unc_options *opt,
+                           pw_unc_result *res);
+
+/* sqrt(g^T C g) over the fitted parameters: the delta-method standard deviation for another
+ * covariance (used by measurement planning). cov points to a PW_MAX_PARAMS x PW_MAX_PARAMS
+ * row-major matrix (pass &c[0][0]). */
+double pw_unc_delta_sd(const double grad[PW_MAX_PARAMS], const bool fitted[PW_MAX_PARAMS],
+                       const double *cov);
+
+/* ---- Drawing parameter sets ---------------------------------------------------------------- */
+
+/* theta = center + sqrt(w) * L z, z ~ N(0, I) (w = dof / chi^2_dof for the t form, else 1). */
+typedef struct pw_unc_sampler {
+    const pw_model_type *model;
+    double center[PW_MAX_PARAMS];
+    size_t p, idx[PW_MAX_PARAMS];   /* fitted parameters with non-zero variance */
+    double L[PW_MAX_PARAMS][PW_MAX_PARAMS]; /* p x p factor, L L^T = C (reduced) */
+    size_t rank;
+    bool eigen;
+    double dof;
+} pw_unc_sampler;
+
+/* Factors C. Cholesky (dpotrf) of the correlation form D^-1 C D^-1 first; on failure the
+ * eigen-decomposition (dsyev), with eigenvalues below -1e-8 (relative to the largest) refused
+ * (PW_EINVAL: not a covariance) and small negative ones set to zero. cov as for
+ * pw_unc_delta_sd (full space, row-major). */
+pw_status pw_unc_sampler_init(pw_unc_sampler *s, const pw_system *sys,
+                              const bool fitted[PW_MAX_PARAMS], const double *cov, double dof);
+
+/* One draw into params (full vector). Draws outside the model's domain (model->check) are
+ * redrawn, at most max_tries times; *redrawn (may be NULL) is incremented per rejection.
+ * PW_EDOM when every try was rejected. rng is the caller's. */
+pw_status pw_unc_sampler_draw(const pw_unc_sampler *s, gsl_rng *rng, size_t max_tries,
+                              double params[PW_MAX_PARAMS], size_t *redrawn);
+
+/* n parameter sets drawn with seed (for plotting bands of curves): out is caller-owned, n rows. */
+pw_status pw_unc_draw_params(const pw_unc_problem *pb, unsigned long seed, size_t n,
+                             double (*out)[PW_MAX_PARAMS], size_t *redrawn);
+
+/* Equilibrium curves y*(x) at pressure P_Pa for n_curves parameter sets drawn with seed (for a
+ * band of curves near a pinch): x has n_x points evenly on [x_lo, x_hi] (0 <= x_lo < x_hi <= 1),
+ * y receives n_curves rows of n_x values (caller-owned, row-major), NAN where a bubble point
+ * failed. Errors as pw_unc_draw_params, PW_EINVAL for a bad window. */
+pw_status pw_unc_curve_band(const pw_unc_problem *pb, unsigned long seed, double P_Pa,
+                            size_t n_curves, double x_lo, double x_hi, size_t n_x, double *x,
+                            double *y);
+
+/* ---- Column results ------------------------------------------------------------------------ */
+
+/* Outputs of pw_unc_column_fn, in this order. */
+enum { PW_UNC_RMIN = 0, PW_UNC_SMIN = 1, PW_UNC_STAGES = 2, PW_UNC_COLUMN_NOUT = 3 };
+
+typedef struct pw_unc_column_ctx {
+    double P_Pa;                 /* column pressure */
+    pw_column_spec spec;
+    pw_column_options opt;       /* grid, tolerances; the design factor is set from factor */
+    double factor;               /* operating reflux R = factor * R_min (default 1.3) */
+} pw_unc_column_ctx;
+
+/* Defaults: column defaults, factor 1.3 (common practice, R/R_min 1.2-1.5). */
+pw_unc_column_ctx pw_unc_column_ctx_make(double P_Pa, const pw_column_spec *spec);
+
+/* R_min, boil-up at R_min, stages at factor * R_min; PW_EINFEASIBLE when pw_column_solve finds
+ * the split infeasible. ctx is a pw_unc_column_ctx. */
+pw_status pw_unc_column_fn(void *ctx, const pw_system *sys, double *out);
+
+/* The feasibility risk in words into buf, e.g. "in 12 % of parameter sets drawn from the fit's
+ * uncertainty the split cannot be made: ...". Returns buf. */
+const char *pw_unc_risk_words(const pw_unc_result *r, char *buf, size_t len);
+
+/* ---- Azeotropes --------------------------------------------------------------------------- */
+
+/* Outputs of pw_unc_azeo_fn: composition, and T [K] at fixed P or P [kPa] at fixed T. */
+enum { PW_UNC_AZ_X1 = 0, PW_UNC_AZ_TP = 1, PW_UNC_AZ_NOUT = 2 };
+
+typedef struct pw_unc_azeo_ctx {
+    pw_az_mode mode;
+    double fixed;          /* P in Pa (isobaric) or T in K (isothermal) */
+    pw_az_options opt;
+    double x_ref;          /* the azeotrope followed: at the estimate */
+    pw_az_kind kind;
+} pw_unc_azeo_ctx;
+
+/* Follows the azeotrope az of the estimate (search options opt, NULL = defaults). */
+pw_unc_azeo_ctx pw_unc_azeo_ctx_make(pw_az_mode mode, double fixed, const pw_az_options *opt,
+                                     const pw_azeotrope *az);
+
+/* The azeotrope of the same kind nearest x_ref; PW_EINFEASIBLE when the parameter set has none
+ * of that kind (the azeotrope has vanished). ctx is a pw_unc_azeo_ctx. */
+pw_status pw_unc_azeo_fn(void *ctx, const pw_system *sys, double *out);
+
+/* ---- Model risk ---------------------------------------------------------------------------- */
+
+/* AICc classes (Burnham & Anderson 2002): delta < 2 indistinguishable, < 10 considered. */
+typedef enum { PW_UNC_MODEL_BEST = 0, PW_UNC_MODEL_EQUAL = 1, PW_UNC_MODEL_CONSIDERED = 2,
+               PW_UNC_MODEL_DROPPED = 3 } pw_unc_model_class;
+
+#define PW_UNC_MAX_MODELS 16
+
+typedef struct pw_unc_model_row {
+    const pw_model_type *model;
+    double aicc, delta_aicc, weight;  /* Akaike weight among the considered models */
+    pw_unc_model_class cls;
+    pw_status status;                 /* of the result function: PW_OK, PW_EINFEASIBLE, ... */
+    double out[PW_UNC_MAX_OUTPUTS];   /* NAN unless status == PW_OK */
+} pw_unc_model_row;
+
+typedef struct pw_unc_models {
+    size_t n, n_out;
+    pw_unc_model_row rows[PW_UNC_MAX_MODELS]; /* in the order given */
+    size_t best;
+    double lo[PW_UNC_MAX_OUTPUTS], hi[PW_UNC_MAX_OUTPUTS]; /* spread over considered models */
+    size_t n_considered, n_considered_ok;
+    bool feasibility_differs;  /* some considered models find it feasible, others not */
+} pw_unc_models;
+
+/* Evaluates fn for every fit (same data: equal residual counts, and equal dataset hashes when
+ * both are recorded; else PW_EINVAL) and classifies them by delta-AICc. */
+pw_status pw_unc_compare_models(const pw_fit_result *const *fits, size_t n, pw_unc_fn fn,
+                                void *ctx, size_t n_out, pw_unc_models *out);
+
+/* ---- Measurement planning ------------------------------------------------------------------ */
+
+#define PW_UNC_MAX_BINS 20
+
+typedef struct pw_unc_plan_bin {
+    double x_lo, x_hi;
+    bool ok;            /* hypothetical points could be evaluated */
+    double sd_new;      /* delta-method sd of the output with the added points */
+    double reduction;   /* 1 - sd_new / sd_now */
+} pw_unc_plan_bin;
+
+typedef struct pw_unc_plan {
+    size_t n_bins, points_per_bin, best;   /* best = index of the largest reduction */
+    double sd_now;
+    pw_unc_plan_bin bins[PW_UNC_MAX_BINS];
+    bool have_best;
+} pw_unc_plan;
+
+/* For each of n_bins equal bins of x1 in (0,1), adds points_per_bin hypothetical measurements
+ * (evenly inside the bin, at the fit's fixed P or T, with the fit's sigmas) to the information
+ * matrix, C_new = (C^-1 + J_new^T J_new / s^2)^-1 with s^2 = the fit's chi2_red, and evaluates
+ * sqrt(g^T C_new g) for the gradient grad of one output (from pw_unc_propagate). Errors:
+ * PW_EINVAL, PW_ESINGULAR (C not invertible), PW_ENOMEM. */
+pw_status pw_unc_plan_measurements(const pw_fit_result *fit, const double grad[PW_MAX_PARAMS],
+                                   size_t n_bins, size_t points_per_bin, pw_unc_plan *out);
+
+/* The recommendation as one sentence into buf, naming the composition range; quantity names
+ * the output (e.g. "R_min"). Returns buf. */
+const char *pw_unc_plan_words(const pw_unc_plan *plan, const char *quantity, char *buf,
+                              size_t len);
+
+#ifdef __cplusplus
+}
+#endif
+#endif

@@ -1,0 +1,82 @@
+/* Column results as a propagation function (R_min, boil-up at R_min, stages at the operating
+ * reflux), and the feasibility risk in words. */
+#include <pinchwise/curve.h>
+#include <pinchwise/uncertainty.h>
+
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+pw_unc_column_ctx pw_unc_column_ctx_make(double P_Pa, const pw_column_spec *spec)
+{
+    pw_unc_column_ctx c;
+    memset(&c, 0, sizeof c);
+    c.P_Pa = P_Pa;
+    if (spec)
+        c.spec = *spec;
+    c.opt = pw_column_default_options();
+    c.factor = 1.3; /* common practice: R = 1.2-1.5 R_min */
+    return c;
+}
+
+pw_status pw_unc_column_fn(void *ctx, const pw_system *sys, double *out)
+{
+    const pw_unc_column_ctx *c = ctx;
+    if (!c || !sys || !out || !(c->factor > 1.0))
+        return PW_EINVAL;
+    pw_system_curve sc;
+    pw_status st = pw_system_curve_init(&sc, sys, c->P_Pa);
+    if (st != PW_OK)
+        return st;
+    pw_curve curve = pw_system_curve_bind(&sc);
+    pw_column_options o = c->opt;
+    o.factors[0] = c->factor;
+    o.n_factors = 1;
+    pw_column_result r;
+    st = pw_column_solve(&curve, &c->spec, &o, &r);
+    /* An infeasible split is an outcome; so is a split no pinch limits (PW_ERANGE with a
+     * reason): both mean the design basis does not hold for this parameter set. */
+    if ((st == PW_OK && !r.feasible) || (st == PW_ERANGE && r.reason[0]))
+        return PW_EINFEASIBLE;
+    if (st != PW_OK)
+        return st;
+    out[PW_UNC_RMIN] = r.r_min;
+    out[PW_UNC_SMIN] = r.s_min;
+    out[PW_UNC_STAGES] = r.n_design > 0 ? r.design[0].stages : (double)NAN;
+    return PW_OK;
+}
+
+const char *pw_unc_risk_words(const pw_unc_result *r, char *buf, size_t len)
+{
+    if (!buf || len == 0)
+        return buf;
+    buf[0] = '\0';
+    if (!r)
+        return buf;
+    size_t decided = r->n_feasible + r->n_infeasible;
+    if (decided == 0) {
+        snprintf(buf, len, "no parameter sets were drawn, so the feasibility risk is unknown");
+        return buf;
+    }
+    double share = 100.0 * (double)r->n_infeasible / (double)decided;
+    const char *failed = r->n_failed ? " (draws whose calculation failed are left out)" : "";
+    if (r->n_infeasible == 0)
+        snprintf(buf, len,
+                 "in all %zu parameter sets drawn from the fit's uncertainty the split can be "
+                 "made%s",
+                 decided, failed);
+    else if (r->n_feasible == 0)
+        snprintf(buf, len,
+                 "in none of the %zu parameter sets drawn from the fit's uncertainty can the "
+                 "split be made%s",
+                 decided, failed);
+    else
+        snprintf(buf, len,
+                 "in %.0f %% of parameter sets drawn from the fit's uncertainty (%zu of %zu) the "
+                 "split cannot be made: within the data's uncertainty the equilibrium curve may "
+                 "meet the diagonal (an azeotrope) or lose its driving force between xb and xd, "
+                 "so a design at these purities rests on the fitted model alone%s",
+                 share < 1.0 ? ceil(share) : (share > 99.0 ? floor(share) : round(share)),
+                 r->n_infeasible, decided, failed);
+    return buf;
+}

@@ -1,0 +1,116 @@
+/* The azeotrope command's uncertainty options. */
+#include "azeo_uncert.h"
+
+#include "cli.h"
+#include "reflux_uncert.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+static int count_value(const char *opt, const char *v, double hi, double *out, pw_error *err)
+{
+    if (pw_cli_number(opt, v, out, err) != PW_OK)
+        return PW_EXIT_USAGE;
+    if (*out != floor(*out) || *out < 0.0 || *out > hi) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected a whole number from 0 to %.0f", opt,
+                     v, hi);
+        return PW_EXIT_USAGE;
+    }
+    return 0;
+}
+
+int pw_azeo_uncert_opt(int argc, char **argv, int *i, pw_azeo_uncert *u, pw_error *err)
+{
+    if (!u->on && u->opt.samples == 0 && u->opt.seed == 0)
+        u->opt = pw_unc_default_options();
+    if (pw_cli_opt(argc, argv, i, "--uncertainty", NULL, NULL)) {
+        u->on = true;
+        return 1;
+    }
+    const char *v = NULL;
+    bool missing = false;
+    bool samples = pw_cli_opt(argc, argv, i, "--samples", &v, &missing);
+    bool seed = !samples && pw_cli_opt(argc, argv, i, "--seed", &v, &missing);
+    if (!samples && !seed)
+        return 0;
+    if (missing) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", samples ? "--samples" : "--seed");
+        return PW_EXIT_USAGE;
+    }
+    double d;
+    int rc = count_value(samples ? "--samples" : "--seed", v, samples ? 100000.0 : 4294967295.0,
+                         &d, err);
+    if (rc)
+        return rc;
+    if (samples)
+        u->opt.samples = (size_t)d;
+    else
+        u->opt.seed = (unsigned long)d;
+    u->on = true;
+    return 1;
+}
+
+int pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_uncert *u,
+                       pw_error *err)
+{
+    u->n = r->n;
+    for (size_t i = 0; i < r->n; i++) {
+        pw_unc_azeo_ctx c = pw_unc_azeo_ctx_make(r->mode, r->fixed, NULL, &r->az[i]);
+        pw_unc_problem pb;
+        pw_status st = pw_unc_problem_from_fit(&pb, fit, pw_unc_azeo_fn, &c, PW_UNC_AZ_NOUT);
+        if (st == PW_OK)
+            st = pw_unc_propagate(&pb, &u->opt, &u->res[i]);
+        if (st != PW_OK)
+            return pw_status_exit_code(pw_error_set(
+                err, st, fit->dataset_path[0] ? fit->dataset_path : NULL, 0,
+                "uncertainty of the azeotrope at x1 = %.4f failed: %s", r->az[i].x1,
+                pw_strerror(st)));
+    }
+    return 0;
+}
+
+void pw_azeo_uncert_json(const pw_azeo_uncert *u, const pw_az_result *r, json_t *list)
+{
+    bool isP = r->mode == PW_AZ_ISOBARIC;
+    for (size_t i = 0; i < u->n && i < json_array_size(list); i++) {
+        json_t *az = json_array_get(list, i);
+        const pw_unc_result *res = &u->res[i];
+        json_object_set_new(az, "x1_ci95", pw_cli_json_pair(res->out[PW_UNC_AZ_X1].ci));
+        json_object_set_new(az, isP ? "T_K_ci95" : "P_kPa_ci95",
+                            pw_cli_json_pair(res->out[PW_UNC_AZ_TP].ci));
+        json_t *j = json_object();
+        json_object_set_new(j, "x1", pw_cli_unc_output_json(&res->out[PW_UNC_AZ_X1]));
+        json_object_set_new(j, isP ? "T_K" : "P_kPa",
+                            pw_cli_unc_output_json(&res->out[PW_UNC_AZ_TP]));
+        json_object_set_new(j, "present_probability", pw_cli_json_num(res->p_feasible));
+        json_object_set_new(j, "draws", json_pack("{s:I,s:I,s:I,s:I,s:I}",
+            "evaluated", (json_int_t)res->n_samples, "present", (json_int_t)res->n_feasible,
+            "absent", (json_int_t)res->n_infeasible, "failed", (json_int_t)res->n_failed,
+            "redrawn_outside_domain", (json_int_t)res->n_redrawn));
+        json_object_set_new(j, "seed", json_integer((json_int_t)u->opt.seed));
+        json_object_set_new(az, "uncertainty", j);
+    }
+}
+
+void pw_azeo_uncert_print(const pw_azeo_uncert *u, const pw_az_result *r)
+{
+    bool isP = r->mode == PW_AZ_ISOBARIC;
+    if (u->n)
+        printf("\nUncertainty from the fit's parameter covariance (%zu draws, seed %lu):\n",
+               u->opt.samples, u->opt.seed);
+    for (size_t i = 0; i < u->n; i++) {
+        const pw_unc_result *res = &u->res[i];
+        const pw_unc_output *x = &res->out[PW_UNC_AZ_X1], *t = &res->out[PW_UNC_AZ_TP];
+        printf("  azeotrope at x1 = %.4f: 95 %% interval x1 %.4f to %.4f, %s %.5g to %.5g %s (%s)\n",
+               x->value, x->ci[0], x->ci[1], isP ? "T" : "P", t->ci[0], t->ci[1],
+               isP ? "K" : "kPa", x->ci_sampled ? "sampled" : "linearised");
+        if (res->n_infeasible)
+            printf("    it is absent in %.0f %% of the parameter sets drawn from the fit's "
+                   "uncertainty\n", 100.0 * (1.0 - res->p_feasible));
+        if (x->disagree || t->disagree)
+            printf("    linearised and sampled intervals differ: strongly non-linear here\n");
+    }
+    if (u->on && u->n == 0)
+        printf("\nNo azeotrope at the estimate, so there is no interval to give.\n");
+}

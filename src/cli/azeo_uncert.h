@@ -1,0 +1,31 @@
+/* --uncertainty, --samples, --seed on the azeotrope command: intervals of each azeotrope's
+ * composition and temperature (fixed P) or pressure (fixed T) from the fit's covariance. */
+#ifndef PW_CLI_AZEO_UNCERT_H
+#define PW_CLI_AZEO_UNCERT_H
+
+#include <jansson.h>
+#include <pinchwise/uncertainty.h>
+
+typedef struct pw_azeo_uncert {
+    bool on;
+    pw_unc_options opt;
+    size_t n;
+    pw_unc_result res[PW_AZ_MAX];
+} pw_azeo_uncert;
+
+/* Handles argv[*i] when it is --uncertainty, --samples N or --seed N (advancing *i past a value):
+ * returns 1 when taken, 0 when not one of these, or an exit code (> 1) with err filled. */
+int pw_azeo_uncert_opt(int argc, char **argv, int *i, pw_azeo_uncert *u, pw_error *err);
+
+/* Propagates every azeotrope of r. Returns 0 or an exit code with err. */
+int pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_uncert *u,
+                       pw_error *err);
+
+/* Adds x1_ci95 and T_K_ci95 / P_kPa_ci95 (CONTRACT) and an "uncertainty" object to each element
+ * of the azeotrope list. */
+void pw_azeo_uncert_json(const pw_azeo_uncert *u, const pw_az_result *r, json_t *list);
+
+/* Text lines after the azeotrope table. */
+void pw_azeo_uncert_print(const pw_azeo_uncert *u, const pw_az_result *r);
+
+#endif

@@ -1,0 +1,292 @@
+/* The reflux command's uncertainty options: design results under the fit's parameter
+ * uncertainty, the feasibility risk, where to measure next, and other models of the same data. */
+#include "reflux_uncert.h"
+
+#include "cli.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define PLAN_BINS 10
+#define PLAN_POINTS 5
+#define MAX_SAMPLES 100000
+
+static int whole_number(const char *opt, const char *v, double lo, double hi, double *out,
+                        pw_error *err)
+{
+    if (pw_cli_number(opt, v, out, err) != PW_OK)
+        return PW_EXIT_USAGE;
+    if (*out != floor(*out) || *out < lo || *out > hi) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected a whole number from %.0f to %.0f",
+                     opt, v, lo, hi);
+        return PW_EXIT_USAGE;
+    }
+    return 0;
+}
+
+static int parse_extra(const pw_reflux_args *a, pw_reflux_uncert *u, pw_error *err)
+{
+    for (int i = 0; i + 1 < a->n_extra; i += 2) {
+        const char *opt = a->extra[i], *v = a->extra[i + 1];
+        double d;
+        if (!strcmp(opt, "--samples")) {
+            if (whole_number(opt, v, 0.0, MAX_SAMPLES, &d, err))
+                return PW_EXIT_USAGE;
+            u->opt.samples = (size_t)d;
+            u->propagate = true;
+        } else if (!strcmp(opt, "--seed")) {
+            if (whole_number(opt, v, 0.0, 4294967295.0, &d, err))
+                return PW_EXIT_USAGE;
+            u->opt.seed = (unsigned long)d;
+            u->propagate = true;
+        } else if (!strcmp(opt, "--compare")) {
+            if (u->n_compare == PW_CLI_MAX_COMPARE) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
+                             PW_CLI_MAX_COMPARE);
+                return PW_EXIT_USAGE;
+            }
+            u->compare_paths[u->n_compare++] = v;
+        }
+    }
+    return 0;
+}
+
+static int compare_models(const pw_reflux_args *a, const pw_reflux_run *run, pw_reflux_uncert *u,
+                          pw_error *err)
+{
+    pw_fit_result *fits = calloc(u->n_compare, sizeof *fits);
+    const pw_fit_result *ptr[PW_CLI_MAX_COMPARE + 1];
+    if (!fits)
+        return pw_status_exit_code(pw_error_set(err, PW_ENOMEM, NULL, 0, "out of memory"));
+    ptr[0] = &run->fit;
+    snprintf(u->paths[0], sizeof u->paths[0], "%s", a->fit_path);
+    pw_status st = PW_OK;
+    size_t n_read = 0;
+    for (size_t i = 0; i < u->n_compare && st == PW_OK; i++) {
+        st = pw_fitfile_read(u->compare_paths[i], &fits[i], err);
+        if (st != PW_OK)
+            break;
+        n_read++;
+        st = pw_cli_override_components("reflux", &fits[i].sys, a->components, err);
+        ptr[i + 1] = &fits[i];
+        snprintf(u->paths[i + 1], sizeof u->paths[i + 1], "%s", u->compare_paths[i]);
+    }
+    if (st == PW_OK) {
+        st = pw_unc_compare_models(ptr, u->n_compare + 1, pw_unc_column_fn, &u->col,
+                                   PW_UNC_COLUMN_NOUT, &u->models);
+        if (st == PW_EINVAL)
+            pw_error_set(err, st, NULL, 0,
+                         "--compare: the fit files must be fits of the same data set (same points "
+                         "and objective) with a usable AICc");
+        else if (st != PW_OK)
+            pw_error_set(err, st, NULL, 0, "model comparison failed: %s", pw_strerror(st));
+    }
+    for (size_t i = 0; i < n_read; i++)
+        pw_fit_result_free(&fits[i]);
+    free(fits);
+    return st == PW_OK ? 0 : pw_status_exit_code(st);
+}
+
+int pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_reflux_uncert *u,
+                         pw_error *err)
+{
+    memset(u, 0, sizeof *u);
+    u->opt = pw_unc_default_options();
+    u->propagate = a->uncertainty;
+    int rc = parse_extra(a, u, err);
+    if (rc)
+        return rc;
+    u->col = pw_unc_column_ctx_make(run->P_Pa, &run->spec);
+    u->col.opt = a->opt;
+    u->plan_status = PW_EINVAL;
+    if (u->propagate) {
+        pw_unc_problem pb;
+        pw_status st = pw_unc_problem_from_fit(&pb, &run->fit, pw_unc_column_fn, &u->col,
+                                               PW_UNC_COLUMN_NOUT);
+        if (st == PW_OK)
+            st = pw_unc_propagate(&pb, &u->opt, &u->res);
+        if (st != PW_OK)
+            return pw_status_exit_code(pw_error_set(
+                err, st, a->fit_path, 0, "uncertainty propagation failed: %s%s", pw_strerror(st),
+                st == PW_EINVAL ? " (is the fit's covariance available?)" : ""));
+        if (u->res.out[PW_UNC_RMIN].lin_ok)
+            u->plan_status = pw_unc_plan_measurements(&run->fit, u->res.out[PW_UNC_RMIN].grad,
+                                                      PLAN_BINS, PLAN_POINTS, &u->plan);
+    }
+    return u->n_compare ? compare_models(a, run, u, err) : 0;
+}
+
+json_t *pw_cli_json_pair(const double v[2])
+{
+    if (!isfinite(v[0]) || !isfinite(v[1]))
+        return json_null();
+    return json_pack("[o,o]", pw_cli_json_num(v[0]), pw_cli_json_num(v[1]));
+}
+
+json_t *pw_cli_unc_output_json(const pw_unc_output *o)
+{
+    json_t *j = json_object();
+    json_object_set_new(j, "value", pw_cli_json_num(o->value));
+    json_object_set_new(j, "ci95", pw_cli_json_pair(o->ci));
+    json_object_set_new(j, "ci95_from", json_string(!isfinite(o->ci[0]) ? "none"
+                                                    : o->ci_sampled    ? "sampled"
+                                                                       : "linearised"));
+    json_object_set_new(j, "ci95_linearised", o->lin_ok ? pw_cli_json_pair(o->ci_lin) : json_null());
+    json_object_set_new(j, "sd_linearised", o->lin_ok ? pw_cli_json_num(o->sd_lin) : json_null());
+    json_object_set_new(j, "ci95_sampled", o->mc_ok ? pw_cli_json_pair(o->ci_mc) : json_null());
+    json_object_set_new(j, "sd_sampled", o->mc_ok ? pw_cli_json_num(o->sd_mc) : json_null());
+    json_object_set_new(j, "intervals_disagree", json_boolean(o->disagree));
+    return j;
+}
+
+static const char *class_name(pw_unc_model_class c)
+{
+    switch (c) {
+    case PW_UNC_MODEL_BEST: return "best";
+    case PW_UNC_MODEL_EQUAL: return "indistinguishable";
+    case PW_UNC_MODEL_CONSIDERED: return "less supported";
+    default: return "not supported";
+    }
+}
+
+static json_t *models_json(const pw_reflux_uncert *u)
+{
+    const pw_unc_models *m = &u->models;
+    json_t *j = json_object(), *rows = json_array();
+    for (size_t i = 0; i < m->n; i++) {
+        const pw_unc_model_row *r = &m->rows[i];
+        json_t *o = json_object();
+        json_object_set_new(o, "model", json_string(r->model->name));
+        json_object_set_new(o, "fit_file", json_string(u->paths[i]));
+        json_object_set_new(o, "aicc", pw_cli_json_num(r->aicc));
+        json_object_set_new(o, "delta_aicc", pw_cli_json_num(r->delta_aicc));
+        json_object_set_new(o, "akaike_weight", pw_cli_json_num(r->weight));
+        json_object_set_new(o, "support", json_string(class_name(r->cls)));
+        json_object_set_new(o, "feasible", r->status == PW_OK        ? json_true()
+                                           : r->status == PW_EINFEASIBLE ? json_false()
+                                                                         : json_null());
+        json_object_set_new(o, "error", r->status == PW_OK || r->status == PW_EINFEASIBLE
+                                            ? json_null()
+                                            : json_string(pw_strerror(r->status)));
+        json_object_set_new(o, "r_min", pw_cli_json_num(r->out[PW_UNC_RMIN]));
+        json_object_set_new(o, "boilup_min", pw_cli_json_num(r->out[PW_UNC_SMIN]));
+        json_object_set_new(o, "stages_operating", pw_cli_json_num(r->out[PW_UNC_STAGES]));
+        json_array_append_new(rows, o);
+    }
+    json_object_set_new(j, "models", rows);
+    json_object_set_new(j, "r_min_range", pw_cli_json_pair((const double[2]){m->lo[PW_UNC_RMIN],
+                                                                 m->hi[PW_UNC_RMIN]}));
+    json_object_set_new(j, "feasibility_differs", json_boolean(m->feasibility_differs));
+    json_object_set_new(j, "operating_factor", pw_cli_json_num(u->col.factor));
+    json_object_set_new(j, "basis",
+                        json_string("models within delta AICc < 10 of the best are compared; "
+                                    "< 2: indistinguishable (Burnham & Anderson 2002)"));
+    return j;
+}
+
+void pw_reflux_uncert_json(const pw_reflux_uncert *u, json_t *o)
+{
+    if (u->propagate) {
+        const pw_unc_result *r = &u->res;
+        json_object_set_new(o, "r_min_ci95", pw_cli_json_pair(r->out[PW_UNC_RMIN].ci));
+        json_object_set_new(o, "feasible_probability", pw_cli_json_num(r->p_feasible));
+        json_t *j = json_object();
+        json_object_set_new(j, "r_min", pw_cli_unc_output_json(&r->out[PW_UNC_RMIN]));
+        json_object_set_new(j, "boilup_min", pw_cli_unc_output_json(&r->out[PW_UNC_SMIN]));
+        json_t *st = pw_cli_unc_output_json(&r->out[PW_UNC_STAGES]);
+        json_object_set_new(st, "reflux_factor", pw_cli_json_num(u->col.factor));
+        json_object_set_new(j, "stages_operating", st);
+        json_object_set_new(j, "draws", json_pack("{s:I,s:I,s:I,s:I,s:I,s:I,s:s}",
+            "requested", (json_int_t)u->opt.samples, "evaluated", (json_int_t)r->n_samples,
+            "feasible", (json_int_t)r->n_feasible, "infeasible", (json_int_t)r->n_infeasible,
+            "failed", (json_int_t)r->n_failed, "redrawn_outside_domain", (json_int_t)r->n_redrawn,
+            "factor", r->sampler_eigen ? "eigen-decomposition" : "Cholesky"));
+        json_object_set_new(j, "seed", json_integer((json_int_t)u->opt.seed));
+        char words[PW_REASON_MAX * 2];
+        json_object_set_new(j, "feasibility_risk", json_string(pw_unc_risk_words(r, words,
+                                                                                sizeof words)));
+        if (u->plan_status == PW_OK) {
+            const pw_unc_plan_bin *b = &u->plan.bins[u->plan.best];
+            json_object_set_new(j, "next_measurements", json_pack("{s:o,s:I,s:o,s:s}",
+                "x1_range", pw_cli_json_pair((const double[2]){b->x_lo, b->x_hi}),
+                "points", (json_int_t)u->plan.points_per_bin,
+                "r_min_sd_reduction", pw_cli_json_num(b->reduction),
+                "advice", pw_unc_plan_words(&u->plan, "R_min", words, sizeof words)));
+        } else {
+            json_object_set_new(j, "next_measurements", json_null());
+        }
+        json_object_set_new(j, "method",
+                            json_string("fitted-parameter covariance: delta method with central "
+                                        "differences, and Monte Carlo with 2.5/97.5 % percentiles "
+                                        "(JCGM 101:2008); sampled interval quoted when the two "
+                                        "disagree by more than 25 % of its width"));
+        json_object_set_new(j, "scope",
+                            json_string("covers the scatter of the fitted data only, not the "
+                                        "choice of model, the vapor-pressure constants or the "
+                                        "constant-molal-overflow assumption"));
+        json_object_set_new(o, "uncertainty", j);
+    }
+    if (u->n_compare)
+        json_object_set_new(o, "model_comparison", models_json(u));
+}
+
+static void print_output(const char *label, const pw_unc_output *o)
+{
+    if (!isfinite(o->ci[0])) {
+        printf("  %-28s no interval (too few feasible parameter sets)\n", label);
+        return;
+    }
+    printf("  %-28s %.5g, 95 %% interval %.5g to %.5g (%s)\n", label, o->value, o->ci[0], o->ci[1],
+           o->ci_sampled ? "sampled" : "linearised");
+    if (o->disagree)
+        printf("  %-28s linearised %.5g to %.5g differs: the result is not linear in the "
+               "parameters over this range\n", "", o->ci_lin[0], o->ci_lin[1]);
+}
+
+void pw_reflux_uncert_print(const pw_reflux_uncert *u, const pw_reflux_run *run)
+{
+    (void)run;
+    char words[PW_REASON_MAX * 2];
+    if (u->propagate) {
+        const pw_unc_result *r = &u->res;
+        printf("\nuncertainty from the fit's parameter covariance (%zu draws, seed %lu):\n",
+               r->n_samples, u->opt.seed);
+        print_output("minimum reflux R_min", &r->out[PW_UNC_RMIN]);
+        print_output("minimum boil-up Vbar/B", &r->out[PW_UNC_SMIN]);
+        char label[64];
+        snprintf(label, sizeof label, "stages at %.2g R_min", u->col.factor);
+        print_output(label, &r->out[PW_UNC_STAGES]);
+        printf("  feasibility: %s\n", pw_unc_risk_words(r, words, sizeof words));
+        if (r->n_redrawn)
+            printf("  (%zu draws fell outside the model's parameter domain and were redrawn)\n",
+                   r->n_redrawn);
+        if (u->plan_status == PW_OK)
+            printf("  next measurements: %s\n", pw_unc_plan_words(&u->plan, "R_min", words,
+                                                                 sizeof words));
+        printf("  These intervals cover the scatter of the fitted data only, not the choice of\n"
+               "  model, the vapor-pressure constants or constant molal overflow.\n");
+    }
+    if (u->n_compare) {
+        const pw_unc_models *m = &u->models;
+        printf("\nother models of the same data (delta AICc; Burnham & Anderson 2002):\n");
+        printf("  %-10s %9s %8s %-18s %10s %10s\n", "model", "dAICc", "weight", "support", "R_min",
+               "stages");
+        for (size_t i = 0; i < m->n; i++) {
+            const pw_unc_model_row *r = &m->rows[i];
+            if (r->status == PW_OK)
+                printf("  %-10s %9.2f %8.3f %-18s %10.5g %10.4g\n", r->model->name, r->delta_aicc,
+                       r->weight, class_name(r->cls), r->out[PW_UNC_RMIN], r->out[PW_UNC_STAGES]);
+            else
+                printf("  %-10s %9.2f %8.3f %-18s %21s\n", r->model->name, r->delta_aicc,
+                       r->weight, class_name(r->cls),
+                       r->status == PW_EINFEASIBLE ? "split not feasible" : pw_strerror(r->status));
+        }
+        if (m->n_considered_ok > 1)
+            printf("  R_min over the supported models: %.5g to %.5g\n", m->lo[PW_UNC_RMIN],
+                   m->hi[PW_UNC_RMIN]);
+        if (m->feasibility_differs)
+            printf("  WARNING: supported models disagree on whether the split can be made.\n");
+    }
+}

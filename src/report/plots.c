@@ -1,0 +1,377 @@
+/* The report's plots: x-y diagram with the column construction, T-x-y / P-x-y, residuals,
+ * ln gamma, and a band of sampled curves. See plots.h. */
+#include "report/plots.h"
+
+#include <math.h>
+
+#define PW_NAN ((double)NAN)
+#include <stdio.h>
+#include <string.h>
+
+#define W_SQUARE 540.0
+#define H_SQUARE 540.0
+#define W_WIDE 640.0
+#define H_WIDE 440.0
+#define H_SHORT 320.0
+
+/* Named roles drawn from the palette (see docs/report.md). */
+static pw_style st_line(const char *colour, double width, const char *dash)
+{
+    pw_style s = {colour, width, dash, PW_MARK_NONE, false, 0.0, 1.0};
+    return s;
+}
+
+static pw_style st_mark(const char *colour, pw_marker m, bool filled, double size)
+{
+    pw_style s = {colour, 1.4, NULL, m, filled, size, 1.0};
+    return s;
+}
+
+#define C_INK pw_palette[0]
+#define C_AMBER pw_palette[1]
+#define C_TEAL pw_palette[2]
+#define C_BRICK pw_palette[3]
+#define C_SKY pw_palette[4]
+#define C_GRAPHITE pw_palette[5]
+
+/* Extends [*lo, *hi] by the finite y values of s. */
+static void span_y(const pw_xyset *s, double *lo, double *hi)
+{
+    for (size_t i = 0; i < s->n; i++)
+        if (isfinite(s->x[i]) && isfinite(s->y[i])) {
+            if (s->y[i] < *lo)
+                *lo = s->y[i];
+            if (s->y[i] > *hi)
+                *hi = s->y[i];
+        }
+}
+
+static void draw_set(pw_sbuf *b, const pw_frame *f, const pw_xyset *s, const pw_style *st,
+                     bool line, const char *cls)
+{
+    if (s->n == 0 || !s->x || !s->y)
+        return;
+    if (line)
+        pw_svg_polyline(b, f, s->x, s->y, s->n, st, cls);
+    else
+        pw_svg_markers(b, f, s->x, s->y, s->n, st, cls);
+}
+
+static const char *pinch_kind_name(pw_pinch_kind k)
+{
+    return k == PW_PINCH_TANGENT ? "tangent" : "feed";
+}
+
+static const char *section_name(pw_section s)
+{
+    return s == PW_SECTION_STRIPPING ? "stripping" : "rectifying";
+}
+
+/* Where the rectifying line at reflux R meets the q-line. */
+static void rect_q_meet(const pw_column_spec *sp, double R, double *x, double *y)
+{
+    *x = ((R + 1.0) * sp->zf + (sp->q - 1.0) * sp->xd) / (R + sp->q);
+    *y = (R * *x + sp->xd) / (R + 1.0);
+}
+
+static void operating_lines(pw_sbuf *b, const pw_frame *f, const pw_column_spec *sp, double R,
+                            const pw_style *st, const char *cls)
+{
+    if (!(R > 0.0) || !isfinite(R) || !(R + sp->q != 0.0))
+        return;
+    double xi, yi;
+    rect_q_meet(sp, R, &xi, &yi);
+    double x[3] = {sp->xd, xi, sp->xb}, y[3] = {sp->xd, yi, sp->xb};
+    pw_svg_polyline(b, f, x, y, 3, st, cls);
+}
+
+pw_status pw_plot_xy(pw_sbuf *b, const pw_plot_xy_in *in)
+{
+    pw_frame f;
+    pw_status st = pw_frame_init(&f, "plot-xy", W_SQUARE, H_SQUARE, 0.0, 1.0, 0.0, 1.0, 10, 10);
+    if (st != PW_OK)
+        return st;
+    /* the legend goes below the square: inside it would cover the construction */
+    size_t n_leg = 1 + (in->column && in->feasible ? 4 : 0) + (in->measured.n ? 1 : 0) +
+                   (in->azeotropes.n ? 1 : 0);
+    pw_frame_reserve_legend(&f, n_leg);
+    char title[PW_SVG_LABEL_MAX], xl[PW_SVG_LABEL_MAX], yl[PW_SVG_LABEL_MAX], lab[PW_SVG_LABEL_MAX];
+    snprintf(title, sizeof title, "Vapor against liquid, %s%s", in->column ? "column at " : "",
+             in->condition ? in->condition : "");
+    snprintf(xl, sizeof xl, "x\xe2\x82\x81, liquid mole fraction of %s / (mol/mol)", in->name1);
+    snprintf(yl, sizeof yl, "y\xe2\x82\x81, vapor mole fraction of %s / (mol/mol)", in->name1);
+    pw_svg_begin(b, &f, title, xl, yl);
+    pw_legend lg = {0};
+
+    pw_style diag = st_line("#9aa1ab", 1.0, NULL);
+    pw_svg_segment(b, &f, 0.0, 0.0, 1.0, 1.0, &diag, "pw-diagonal");
+    pw_style curve = st_line(C_INK, 2.4, NULL);
+    draw_set(b, &f, &in->curve, &curve, true, "pw-curve pw-equilibrium");
+    pw_legend_add(&lg, "model equilibrium curve", &curve, true);
+
+    if (in->column) {
+        const pw_column_spec *sp = &in->spec;
+        pw_style tgt = st_line("#9aa1ab", 1.0, "1 3");
+        double tx[3] = {sp->xb, sp->zf, sp->xd};
+        for (int i = 0; i < 3; i++)
+            pw_svg_segment(b, &f, tx[i], 0.0, tx[i], tx[i], &tgt, "pw-target");
+        if (in->feasible) {
+            pw_style steps = st_line(C_TEAL, 1.6, NULL);
+            draw_set(b, &f, &in->steps, &steps, true, "pw-curve pw-steps");
+            pw_style qline = st_line(C_GRAPHITE, 1.6, "2 3");
+            pw_svg_segment(b, &f, sp->zf, sp->zf, in->x_q, in->y_q, &qline, "pw-curve pw-qline");
+            pw_style rmin = st_line(C_BRICK, 1.8, "7 3");
+            operating_lines(b, &f, sp, in->r_min, &rmin, "pw-curve pw-oplines-rmin");
+            pw_style rop = st_line(C_AMBER, 2.2, NULL);
+            operating_lines(b, &f, sp, in->r_op, &rop, "pw-curve pw-oplines-rop");
+            snprintf(lab, sizeof lab, "stage steps at R = %.3g (%.1f stages)", in->r_op, in->stages);
+            pw_legend_add(&lg, lab, &steps, true);
+            pw_legend_add(&lg, "q-line", &qline, true);
+            snprintf(lab, sizeof lab, "operating lines at R_min = %.3g", in->r_min);
+            pw_legend_add(&lg, lab, &rmin, true);
+            snprintf(lab, sizeof lab, "operating lines at R = %.3g (%.2f R_min)", in->r_op, in->factor);
+            pw_legend_add(&lg, lab, &rop, true);
+        }
+    }
+    pw_style meas = st_mark(C_BRICK, PW_MARK_CIRCLE, false, 7.5);
+    if (in->measured.n) {
+        draw_set(b, &f, &in->measured, &meas, false, "pw-points pw-measured");
+        pw_legend_add(&lg, in->measured_label ? in->measured_label : "measured", &meas, false);
+    }
+    pw_style az = st_mark(C_GRAPHITE, PW_MARK_DIAMOND, true, 9.0);
+    if (in->azeotropes.n) {
+        draw_set(b, &f, &in->azeotropes, &az, false, "pw-points pw-azeotrope");
+        pw_legend_add(&lg, "azeotrope (model)", &az, false);
+    }
+    pw_svg_end_data(b);
+    if (in->column) {
+        const pw_column_spec *sp = &in->spec;
+        char t[32];
+        const char *nm[3] = {"xB", "zF", "xD"};
+        double tx[3] = {sp->xb, sp->zf, sp->xd};
+        for (int i = 0; i < 3; i++) {
+            snprintf(t, sizeof t, "%s", nm[i]);
+            pw_svg_text_px(b, pw_frame_px(&f, tx[i]), pw_frame_py(&f, 0.0) - 6.0, "middle", 11.0,
+                           true, C_GRAPHITE, t, "pw-target-label");
+        }
+        if (in->feasible) {
+            pw_style pin = st_mark(C_BRICK, PW_MARK_STAR, true, 11.0);
+            double px = pw_frame_px(&f, in->pinch.x), py = pw_frame_py(&f, in->pinch.y);
+            snprintf(lab, sizeof lab, "%s pinch x = %.3f (%s)", pinch_kind_name(in->pinch.kind),
+                     in->pinch.x, section_name(in->pinch.section));
+            /* the label goes into the empty triangle below the diagonal */
+            bool right = in->pinch.x > 0.5;
+            double lx = right ? fmin(0.97, in->pinch.x + 0.15) : in->pinch.x + 0.1;
+            double ly = fmax(0.06, in->pinch.y - 0.35);
+            pw_svg_annotate(b, &f, in->pinch.x, in->pinch.y, pw_frame_px(&f, lx) - px,
+                            pw_frame_py(&f, ly) - py, right ? "end" : "start", lab, C_BRICK);
+            pw_svg_marker_px(b, px, py, &pin);
+        }
+    }
+    for (size_t i = 0; i < in->azeotropes.n; i++) {
+        snprintf(lab, sizeof lab, "azeotrope x = %.3f", in->azeotropes.x[i]);
+        pw_svg_annotate(b, &f, in->azeotropes.x[i], in->azeotropes.y[i], 30.0, 60.0, "start", lab,
+                        C_GRAPHITE);
+    }
+    pw_svg_legend(b, &f, &lg, PW_LEGEND_BELOW);
+    pw_svg_end(b, &f);
+    return pw_sbuf_status(b);
+}
+
+pw_status pw_plot_phase(pw_sbuf *b, const pw_plot_phase_in *in)
+{
+    double lo = INFINITY, hi = -INFINITY;
+    span_y(&in->bubble, &lo, &hi);
+    span_y(&in->dew, &lo, &hi);
+    span_y(&in->meas_liquid, &lo, &hi);
+    span_y(&in->meas_vapor, &lo, &hi);
+    if (!(hi >= lo))
+        return PW_EINVAL;
+    pw_svg_nice_range(&lo, &hi, 6);
+    pw_frame f;
+    pw_status st = pw_frame_init(&f, in->isothermal ? "plot-pxy" : "plot-txy", W_WIDE, H_WIDE, 0.0,
+                                 1.0, lo, hi, 10, 6);
+    if (st != PW_OK)
+        return st;
+    char title[PW_SVG_LABEL_MAX], xl[PW_SVG_LABEL_MAX], lab[PW_SVG_LABEL_MAX];
+    snprintf(title, sizeof title, "%s %s", in->isothermal ? "Pressure-composition" :
+                                                           "Temperature-composition",
+             in->condition ? in->condition : "");
+    snprintf(xl, sizeof xl, "x\xe2\x82\x81 or y\xe2\x82\x81, mole fraction of %s / (mol/mol)",
+             in->name1);
+    pw_svg_begin(b, &f, title, xl, in->isothermal ? "P / kPa" : "T / K");
+    pw_legend lg = {0};
+    pw_style bub = st_line(C_INK, 2.4, NULL), dew = st_line(C_AMBER, 2.4, "8 4");
+    draw_set(b, &f, &in->bubble, &bub, true, "pw-curve pw-bubble");
+    draw_set(b, &f, &in->dew, &dew, true, "pw-curve pw-dew");
+    pw_legend_add(&lg, "bubble curve (model)", &bub, true);
+    pw_legend_add(&lg, "dew curve (model)", &dew, true);
+    pw_style ml = st_mark(C_INK, PW_MARK_CIRCLE, true, 7.0);
+    pw_style mv = st_mark(C_BRICK, PW_MARK_TRIANGLE, false, 8.0);
+    if (in->meas_liquid.n) {
+        draw_set(b, &f, &in->meas_liquid, &ml, false, "pw-points pw-measured-liquid");
+        pw_legend_add(&lg, "measured liquid x\xe2\x82\x81", &ml, false);
+    }
+    if (in->meas_vapor.n) {
+        draw_set(b, &f, &in->meas_vapor, &mv, false, "pw-points pw-measured-vapor");
+        pw_legend_add(&lg, "measured vapor y\xe2\x82\x81", &mv, false);
+    }
+    pw_style az = st_mark(C_GRAPHITE, PW_MARK_DIAMOND, true, 10.0);
+    if (in->azeotropes.n) {
+        draw_set(b, &f, &in->azeotropes, &az, false, "pw-points pw-azeotrope");
+        pw_legend_add(&lg, "azeotrope (model)", &az, false);
+    }
+    pw_svg_end_data(b);
+    for (size_t i = 0; i < in->azeotropes.n; i++) {
+        snprintf(lab, sizeof lab, "azeotrope x = %.3f, %s = %.2f %s", in->azeotropes.x[i],
+                 in->isothermal ? "P" : "T", in->azeotropes.y[i], in->isothermal ? "kPa" : "K");
+        pw_svg_annotate(b, &f, in->azeotropes.x[i], in->azeotropes.y[i],
+                        in->azeotropes.x[i] > 0.5 ? -20.0 : 20.0, in->isothermal ? 34.0 : -34.0, NULL, lab,
+                        C_GRAPHITE);
+    }
+    /* a minimum-boiling (T) or maximum-pressure (P) system has its curves high at the ends */
+    pw_svg_legend(b, &f, &lg, in->isothermal ? PW_CORNER_BR : PW_CORNER_TR);
+    pw_svg_end(b, &f);
+    return pw_sbuf_status(b);
+}
+
+pw_status pw_plot_residuals(pw_sbuf *b, const pw_plot_resid_in *in)
+{
+    double lo = INFINITY, hi = -INFINITY;
+    span_y(&in->used, &lo, &hi);
+    span_y(&in->excluded, &lo, &hi);
+    if (isfinite(in->band)) {
+        lo = fmin(lo, -in->band);
+        hi = fmax(hi, in->band);
+    }
+    if (!(hi >= lo))
+        return PW_EINVAL;
+    /* symmetric about zero so the sign of the bias is easy to read */
+    double m = fmax(fabs(lo), fabs(hi)) * 1.1;
+    if (!(m > 0.0))
+        m = 1.0;
+    lo = -m;
+    hi = m;
+    pw_svg_nice_range(&lo, &hi, 6);
+    pw_frame f;
+    pw_status st = pw_frame_init(&f, in->id, W_WIDE, H_SHORT, 0.0, 1.0, lo, hi, 10, 6);
+    if (st != PW_OK)
+        return st;
+    char xl[PW_SVG_LABEL_MAX];
+    snprintf(xl, sizeof xl, "x\xe2\x82\x81, liquid mole fraction of %s / (mol/mol)", in->name1);
+    pw_svg_begin(b, &f, in->title, xl, in->ylabel);
+    pw_legend lg = {0};
+    if (isfinite(in->band) && in->band > 0.0) {
+        double y0 = pw_frame_py(&f, in->band), y1 = pw_frame_py(&f, -in->band);
+        pw_sbuf_printf(b, "<rect class=\"pw-band\" x=\"%.2f\" y=\"%.2f\" width=\"%.2f\" height=\"%.2f\" "
+                          "fill=\"%s\" fill-opacity=\"0.35\"/>\n",
+                       f.ml, y0, f.width - f.ml - f.mr, y1 - y0, C_SKY);
+        pw_style band = {C_SKY, 8.0, NULL, PW_MARK_NONE, false, 0.0, 0.5};
+        char lab[PW_SVG_LABEL_MAX];
+        snprintf(lab, sizeof lab, "\xc2\xb1 one measurement standard deviation (%.3g)", in->band);
+        pw_legend_add(&lg, lab, &band, true);
+    }
+    pw_style zero = st_line(C_GRAPHITE, 1.2, NULL);
+    pw_svg_segment(b, &f, 0.0, 0.0, 1.0, 0.0, &zero, "pw-zero");
+    pw_style used = st_mark(C_INK, PW_MARK_CIRCLE, true, 7.0);
+    pw_style excl = st_mark(C_BRICK, PW_MARK_CROSS, false, 9.0);
+    draw_set(b, &f, &in->used, &used, false, "pw-points pw-residual");
+    pw_legend_add(&lg, "calculated \xe2\x88\x92 measured", &used, false);
+    if (in->excluded.n) {
+        draw_set(b, &f, &in->excluded, &excl, false, "pw-points pw-residual-excluded");
+        pw_legend_add(&lg, "left out of the fit", &excl, false);
+    }
+    pw_svg_end_data(b);
+    pw_svg_legend(b, &f, &lg, PW_CORNER_TR);
+    pw_svg_end(b, &f);
+    return pw_sbuf_status(b);
+}
+
+pw_status pw_plot_lngamma(pw_sbuf *b, const pw_plot_lngamma_in *in)
+{
+    double lo = 0.0, hi = 0.0;
+    span_y(&in->model1, &lo, &hi);
+    span_y(&in->model2, &lo, &hi);
+    span_y(&in->exp1, &lo, &hi);
+    span_y(&in->exp2, &lo, &hi);
+    pw_svg_nice_range(&lo, &hi, 6);
+    pw_frame f;
+    pw_status st = pw_frame_init(&f, "plot-lngamma", W_WIDE, H_WIDE, 0.0, 1.0, lo, hi, 10, 6);
+    if (st != PW_OK)
+        return st;
+    char title[PW_SVG_LABEL_MAX], xl[PW_SVG_LABEL_MAX], lab[PW_SVG_LABEL_MAX];
+    snprintf(title, sizeof title, "Activity coefficients %s", in->condition ? in->condition : "");
+    snprintf(xl, sizeof xl, "x\xe2\x82\x81, liquid mole fraction of %s / (mol/mol)", in->name1);
+    pw_svg_begin(b, &f, title, xl, "ln \xce\xb3 / (dimensionless)");
+    pw_legend lg = {0};
+    pw_style zero = st_line("#9aa1ab", 1.0, NULL);
+    pw_svg_segment(b, &f, 0.0, 0.0, 1.0, 0.0, &zero, "pw-zero");
+    pw_style m1 = st_line(C_INK, 2.4, NULL), m2 = st_line(C_BRICK, 2.4, "8 4");
+    pw_style e1 = st_mark(C_INK, PW_MARK_CIRCLE, true, 7.0);
+    pw_style e2 = st_mark(C_BRICK, PW_MARK_TRIANGLE, false, 8.0);
+    draw_set(b, &f, &in->model1, &m1, true, "pw-curve pw-lngamma1");
+    draw_set(b, &f, &in->model2, &m2, true, "pw-curve pw-lngamma2");
+    draw_set(b, &f, &in->exp1, &e1, false, "pw-points pw-lngamma1-exp");
+    draw_set(b, &f, &in->exp2, &e2, false, "pw-points pw-lngamma2-exp");
+    snprintf(lab, sizeof lab, "ln \xce\xb3\xe2\x82\x81 (%s), model", in->name1);
+    pw_legend_add(&lg, lab, &m1, true);
+    snprintf(lab, sizeof lab, "ln \xce\xb3\xe2\x82\x82 (%s), model", in->name2);
+    pw_legend_add(&lg, lab, &m2, true);
+    if (in->exp1.n) {
+        pw_legend_add(&lg, "ln \xce\xb3\xe2\x82\x81 from each measured point", &e1, false);
+        pw_legend_add(&lg, "ln \xce\xb3\xe2\x82\x82 from each measured point", &e2, false);
+    }
+    pw_svg_end_data(b);
+    pw_svg_legend(b, &f, &lg, PW_CORNER_TR);
+    pw_svg_end(b, &f);
+    return pw_sbuf_status(b);
+}
+
+pw_status pw_plot_band(pw_sbuf *b, const pw_plot_band_in *in)
+{
+    double xlo = in->x_lo, xhi = in->x_hi, ylo = in->y_lo, yhi = in->y_hi;
+    if (!isfinite(ylo) || !isfinite(yhi)) {
+        double lo = INFINITY, hi = -INFINITY;
+        for (size_t k = 0; k < in->n_curves; k++)
+            span_y(&in->curves[k], &lo, &hi);
+        span_y(&in->central, &lo, &hi);
+        if (!(hi >= lo))
+            return PW_EINVAL;
+        pw_svg_nice_range(&lo, &hi, 6);
+        ylo = isfinite(ylo) ? ylo : lo;
+        yhi = isfinite(yhi) ? yhi : hi;
+    }
+    if (!isfinite(xlo))
+        xlo = 0.0;
+    if (!isfinite(xhi))
+        xhi = 1.0;
+    pw_frame f;
+    pw_status st = pw_frame_init(&f, in->id ? in->id : "plot-band", W_WIDE, H_WIDE, xlo, xhi, ylo,
+                                 yhi, 8, 6);
+    if (st != PW_OK)
+        return st;
+    pw_svg_begin(b, &f, in->title, in->xlabel, in->ylabel);
+    pw_legend lg = {0};
+    pw_style thin = {C_SKY, 1.0, NULL, PW_MARK_NONE, false, 0.0, 0.45};
+    for (size_t k = 0; k < in->n_curves; k++)
+        draw_set(b, &f, &in->curves[k], &thin, true, "pw-curve pw-sample");
+    if (in->n_curves) {
+        char lab[PW_SVG_LABEL_MAX];
+        snprintf(lab, sizeof lab, "%zu sampled curves", in->n_curves);
+        pw_legend_add(&lg, lab, &thin, true);
+    }
+    pw_style mid = st_line(C_INK, 2.4, NULL);
+    if (in->central.n) {
+        draw_set(b, &f, &in->central, &mid, true, "pw-curve pw-central");
+        pw_legend_add(&lg, "best fit", &mid, true);
+    }
+    pw_style mk = st_mark(C_BRICK, PW_MARK_STAR, true, 10.0);
+    if (in->marks.n) {
+        draw_set(b, &f, &in->marks, &mk, false, "pw-points pw-marks");
+        pw_legend_add(&lg, in->mark_label ? in->mark_label : "marked points", &mk, false);
+    }
+    pw_svg_end_data(b);
+    pw_svg_legend(b, &f, &lg, PW_CORNER_BR);
+    pw_svg_end(b, &f);
+    return pw_sbuf_status(b);
+}

@@ -1,0 +1,217 @@
+/* The report's lifecycle: build (compute and render into memory), save (atomic files), free. */
+#include "report/report_internal.h"
+
+#include <errno.h>
+#include <math.h>
+#include <pinchwise/fileio.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <sys/stat.h>
+#include <time.h>
+#include <unistd.h>
+
+pw_report_input pw_report_default_input(void)
+{
+    pw_report_input in;
+    memset(&in, 0, sizeof in);
+    in.column_P_Pa = PW_NAN;
+    return in;
+}
+
+void pw_report_free(pw_report *rep)
+{
+    if (!rep)
+        return;
+    pw_sbuf_free(&rep->html);
+    for (size_t i = 0; i < rep->n_svg; i++)
+        pw_sbuf_free(&rep->svg[i].text);
+    for (size_t i = 0; i < rep->n_csv; i++)
+        pw_sbuf_free(&rep->csv[i].text);
+    free(rep);
+}
+
+static pw_status check_input(const pw_report_input *in, pw_error *err)
+{
+    if (!in || !in->fit || !in->fit->sys.model)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "the report needs a fit result with a model");
+    if (in->operating_factor != 0.0 && !(in->operating_factor > 1.0 && isfinite(in->operating_factor)))
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "operating factor %g: R / R_min must be greater than 1",
+                            in->operating_factor);
+    if (in->column) {
+        const pw_column_spec *s = in->column;
+        if (!(isfinite(in->column_P_Pa) && in->column_P_Pa > 0.0))
+            return pw_error_set(err, PW_EINVAL, NULL, 0, "a column needs a positive pressure");
+        if (!(s->xb >= 0.0 && s->xb < s->zf && s->zf < s->xd && s->xd <= 1.0) || !isfinite(s->q))
+            return pw_error_set(err, PW_EINVAL, NULL, 0,
+                                "the column targets must satisfy 0 <= xb < zf < xd <= 1 (got xb %g, "
+                                "zf %g, xd %g)",
+                                s->xb, s->zf, s->xd);
+    }
+    return PW_OK;
+}
+
+pw_status pw_report_build(const pw_report_input *in, pw_report **out, pw_error *err)
+{
+    *out = NULL;
+    pw_status st = check_input(in, err);
+    if (st != PW_OK)
+        return st;
+    pw_report *rep = calloc(1, sizeof *rep);
+    pw_report_curves *c = malloc(sizeof *c);
+    if (!rep || !c) {
+        free(rep);
+        free(c);
+        return pw_error_set(err, PW_ENOMEM, NULL, 0, "out of memory");
+    }
+    pw_sbuf_init(&rep->html);
+    pw_report_input local = *in;
+    char date[40];
+    if (!local.date_utc) {
+        time_t now = time(NULL);
+        struct tm tm;
+        if (now != (time_t)-1 && gmtime_r(&now, &tm) && strftime(date, sizeof date, "%Y-%m-%dT%H:%M:%SZ", &tm))
+            local.date_utc = date;
+        else
+            local.date_utc = "unknown";
+    }
+    st = pw_report_curves_compute(c, &local);
+    if (st == PW_OK)
+        st = pw_report_render_plots(rep, c);
+    if (st == PW_OK)
+        st = pw_report_render_csv(rep, c);
+    if (st == PW_OK)
+        st = pw_report_render_html(rep, c, &local);
+    pw_report_curves_free(c);
+    free(c);
+    if (st != PW_OK) {
+        pw_report_free(rep);
+        return pw_error_set(err, st, NULL, 0, "cannot build the report: %s", pw_strerror(st));
+    }
+    *out = rep;
+    return PW_OK;
+}
+
+size_t pw_report_plot_count(const pw_report *rep)
+{
+    return rep ? rep->n_svg : 0;
+}
+
+const char *pw_report_html(const pw_report *rep)
+{
+    return pw_sbuf_str(&rep->html);
+}
+
+pw_status pw_report_save_html(const pw_report *rep, const char *path, bool force, pw_error *err)
+{
+    return pw_atomic_write(path, pw_sbuf_str(&rep->html), rep->html.len, force, err);
+}
+
+static pw_status ensure_dir(const char *dir, pw_error *err)
+{
+    struct stat sb;
+    if (stat(dir, &sb) == 0)
+        return S_ISDIR(sb.st_mode) ? PW_OK
+                                   : pw_error_set(err, PW_EIO, dir, 0, "exists and is not a folder");
+    if (mkdir(dir, 0755) != 0 && errno != EEXIST)
+        return pw_error_set(err, PW_EIO, dir, 0, "cannot create the folder: %s", strerror(errno));
+    return PW_OK;
+}
+
+/* Writes files into dir; without force checks every target first so nothing is half-done. */
+static pw_status save_files(const pw_report_file *files, size_t n, const char *prefix,
+                            const char *dir, bool force, size_t *n_files, pw_error *err)
+{
+    if (n_files)
+        *n_files = 0;
+    pw_status st = ensure_dir(dir, err);
+    if (st != PW_OK)
+        return st;
+    char path[PW_PATH_MAX];
+    for (size_t i = 0; i < n && !force; i++) {
+        int k = snprintf(path, sizeof path, "%s/%s%s", dir, prefix, files[i].name);
+        if (k < 0 || (size_t)k >= sizeof path)
+            return pw_error_set(err, PW_EINVAL, dir, 0, "path too long");
+        if (access(path, F_OK) == 0)
+            return pw_error_set(err, PW_EEXIST, path, 0, "file exists (pass --force to replace it)");
+    }
+    for (size_t i = 0; i < n; i++) {
+        int k = snprintf(path, sizeof path, "%s/%s%s", dir, prefix, files[i].name);
+        if (k < 0 || (size_t)k >= sizeof path)
+            return pw_error_set(err, PW_EINVAL, dir, 0, "path too long");
+        const pw_sbuf *t = &files[i].text;
+        st = pw_atomic_write(path, pw_sbuf_str(t), t->len, force, err);
+        if (st != PW_OK)
+            return st;
+        if (n_files)
+            (*n_files)++;
+    }
+    return PW_OK;
+}
+
+pw_status pw_report_save_svg(const pw_report *rep, const char *dir, bool force, size_t *n_files,
+                             pw_error *err)
+{
+    /* standalone files need the XML declaration the inline copies do without */
+    pw_report_file files[PW_REPORT_MAX_FILES];
+    pw_status st = PW_OK;
+    size_t n = 0;
+    for (; n < rep->n_svg && st == PW_OK; n++) {
+        files[n] = rep->svg[n];
+        pw_sbuf_init(&files[n].text);
+        pw_sbuf_puts(&files[n].text, "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n");
+        pw_sbuf_puts(&files[n].text, pw_sbuf_str(&rep->svg[n].text));
+        st = pw_sbuf_status(&files[n].text);
+    }
+    if (st == PW_OK)
+        st = save_files(files, n, "", dir, force, n_files, err);
+    else
+        pw_error_set(err, st, dir, 0, "out of memory");
+    for (size_t i = 0; i < n; i++)
+        pw_sbuf_free(&files[i].text);
+    return st;
+}
+
+pw_status pw_report_save_csv(const pw_report *rep, const char *dir, bool force, size_t *n_files,
+                             pw_error *err)
+{
+    return save_files(rep->csv, rep->n_csv, "", dir, force, n_files, err);
+}
+
+static pw_status check_dir(const pw_report_file *files, size_t n, const char *dir, pw_error *err)
+{
+    char path[PW_PATH_MAX];
+    for (size_t i = 0; dir && i < n; i++) {
+        int k = snprintf(path, sizeof path, "%s/%s", dir, files[i].name);
+        if (k < 0 || (size_t)k >= sizeof path)
+            return pw_error_set(err, PW_EINVAL, dir, 0, "path too long");
+        if (access(path, F_OK) == 0)
+            return pw_error_set(err, PW_EEXIST, path, 0, "file exists (pass --force to replace it)");
+    }
+    return PW_OK;
+}
+
+pw_status pw_report_check_targets(const pw_report *rep, const char *html_path, const char *svg_dir,
+                                  const char *csv_dir, pw_error *err)
+{
+    if (html_path && access(html_path, F_OK) == 0)
+        return pw_error_set(err, PW_EEXIST, html_path, 0,
+                            "file exists (pass --force to replace it, or choose another --out)");
+    pw_status st = check_dir(rep->svg, rep->n_svg, svg_dir, err);
+    return st == PW_OK ? check_dir(rep->csv, rep->n_csv, csv_dir, err) : st;
+}
+
+pw_status pw_report_write(const char *path, const pw_report_input *in, bool force, size_t *n_plots,
+                          pw_error *err)
+{
+    pw_report *rep = NULL;
+    pw_status st = pw_report_build(in, &rep, err);
+    if (st != PW_OK)
+        return st;
+    st = pw_report_save_html(rep, path, force, err);
+    if (st == PW_OK && n_plots)
+        *n_plots = pw_report_plot_count(rep);
+    pw_report_free(rep);
+    return st;
+}

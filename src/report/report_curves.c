@@ -1,0 +1,285 @@
+/* The report's numbers: model curves from the fitted system, azeotropes located on them, the
+ * column analysis with its stage steps, and the consistency tests of the measured points. */
+#include "report/report_internal.h"
+
+#include <math.h>
+#include <pinchwise/azeotrope.h>
+#include <pinchwise/curve.h>
+#include <pinchwise/equilibrium.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+static const double PI = 3.14159265358979323846;
+
+/* Bubble point of liquid x at the fixed pressure (isobaric) or temperature (isothermal). */
+static pw_status bubble(const pw_system *s, bool isothermal, double fixed, double x, pw_eq_point *e)
+{
+    return isothermal ? pw_bubble_P(s, fixed, x, e) : pw_bubble_T(s, fixed, x, e);
+}
+
+static double y_minus_x(const pw_system *s, bool isothermal, double fixed, double x, bool *ok)
+{
+    pw_eq_point e;
+    *ok = bubble(s, isothermal, fixed, x, &e) == PW_OK && isfinite(e.y1);
+    return *ok ? e.y1 - x : PW_NAN;
+}
+
+/* Fallback azeotrope search: interior sign changes of y - x on the grid values ymx, refined by bisection on
+ * the bubble point. y - x going from + to - with rising x is a minimum-boiling (maximum-
+ * pressure) azeotrope, from - to + a maximum-boiling one. */
+static size_t find_azeotropes(const pw_system *s, bool isothermal, double fixed, const double *x,
+                              const double *ymx, size_t n, pw_report_az *out, size_t max)
+{
+    size_t k = 0;
+    for (size_t i = 1; i + 2 < n && k < max; i++) {
+        double a = x[i], b = x[i + 1], fa = ymx[i], fb = ymx[i + 1];
+        if (!isfinite(fa) || !isfinite(fb) || fa == 0.0 || (fa > 0.0) == (fb > 0.0))
+            continue;
+        bool ok = true;
+        for (int it = 0; it < 60 && ok && b - a > 1e-13; it++) {
+            double m = 0.5 * (a + b);
+            double fm = y_minus_x(s, isothermal, fixed, m, &ok);
+            if (!ok)
+                break;
+            if ((fm > 0.0) == (fa > 0.0)) {
+                a = m;
+                fa = fm;
+            } else {
+                b = m;
+            }
+        }
+        if (!ok)
+            continue;
+        pw_eq_point e;
+        double xa = 0.5 * (a + b);
+        if (bubble(s, isothermal, fixed, xa, &e) != PW_OK)
+            continue;
+        out[k].x1 = xa;
+        out[k].T_K = e.T_K;
+        out[k].P_Pa = e.P_Pa;
+        out[k].min_boiling = ymx[i] > 0.0;
+        k++;
+    }
+    return k;
+}
+
+/* The azeotropes: from the azeotrope module (Brent on ln alpha12, see azeotrope.h); should it fail,
+ * from the bisection above on the plotted grid, and *from_module says which. */
+static size_t azeotropes(const pw_system *s, bool isothermal, double fixed, const double *x,
+                         const double *ymx, pw_report_az *out, size_t max, bool *from_module)
+{
+    pw_az_result res;
+    pw_status st = pw_azeotrope_find(s, isothermal ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC, fixed, NULL,
+                                     &res);
+    *from_module = st == PW_OK;
+    if (st != PW_OK)
+        return find_azeotropes(s, isothermal, fixed, x, ymx, PW_REPORT_GRID, out, max);
+    size_t k = 0;
+    for (size_t i = 0; i < res.n && k < max; i++, k++) {
+        out[k].x1 = res.az[i].x1;
+        out[k].T_K = res.az[i].T_K;
+        out[k].P_Pa = res.az[i].P_Pa;
+        out[k].min_boiling = res.az[i].kind == PW_AZ_MINIMUM_BOILING;
+        out[k].tangential = res.az[i].tangential;
+    }
+    return k;
+}
+
+static void data_curves(pw_report_curves *c)
+{
+    const pw_fit_result *r = c->fit;
+    const pw_system *s = &r->sys;
+    double fixed = c->isothermal ? r->T_fixed_K : r->P_fixed_Pa;
+    double ymx[PW_REPORT_GRID];
+    for (size_t i = 0; i < PW_REPORT_GRID; i++) {
+        double x = c->x[i];
+        pw_eq_point e;
+        c->bub_T[i] = c->bub_P[i] = c->bub_y[i] = ymx[i] = PW_NAN;
+        c->lg1[i] = c->lg2[i] = PW_NAN;
+        if (bubble(s, c->isothermal, fixed, x, &e) == PW_OK) {
+            c->bub_T[i] = e.T_K;
+            c->bub_P[i] = e.P_Pa;
+            c->bub_y[i] = e.y1;
+            ymx[i] = e.y1 - x;
+        } else {
+            c->n_failed++;
+        }
+        double T = c->isothermal ? r->T_fixed_K : c->bub_T[i];
+        pw_activity act;
+        if (isfinite(T) && pw_system_activity(s, x, T, &act) == PW_OK) {
+            c->lg1[i] = act.lngamma[0];
+            c->lg2[i] = act.lngamma[1];
+        }
+        /* dew curve on the same spacing of y */
+        double y = x;
+        c->dew_y[i] = y;
+        c->dew_T[i] = c->dew_P[i] = PW_NAN;
+        pw_status st = c->isothermal ? pw_dew_P(s, fixed, y, &e) : pw_dew_T(s, fixed, y, &e);
+        if (st == PW_OK) {
+            c->dew_T[i] = e.T_K;
+            c->dew_P[i] = e.P_Pa;
+        } else {
+            c->n_failed++;
+        }
+    }
+    c->n_az = azeotropes(s, c->isothermal, fixed, c->x, ymx, c->az, PW_REPORT_MAX_AZ,
+                         &c->az_from_module);
+}
+
+/* Rectifying and stripping lines at R meet on the q-line at (xi, yi). */
+static void op_meet(const pw_column_spec *sp, double R, double *xi, double *yi)
+{
+    *xi = ((R + 1.0) * sp->zf + (sp->q - 1.0) * sp->xd) / (R + sp->q);
+    *yi = (R * *xi + sp->xd) / (R + 1.0);
+}
+
+/* The staircase at reflux R from the top, switching to the stripping line at the feed (the
+ * optimal feed stage: the step that crosses the lines' meeting point). Liquid in equilibrium
+ * with vapor y from the dew point at the column pressure. */
+static void staircase(pw_report_curves *c, double R)
+{
+    const pw_column_spec *sp = &c->spec;
+    double xi, yi;
+    op_meet(sp, R, &xi, &yi);
+    if (!isfinite(xi) || !(xi > sp->xb))
+        return;
+    double slope_s = (yi - sp->xb) / (xi - sp->xb);
+    size_t k = 0;
+    double y = sp->xd, xprev = sp->xd;
+    c->step_x[k] = sp->xd;
+    c->step_y[k++] = sp->xd;
+    for (size_t stage = 0; stage < PW_REPORT_MAX_STEPS; stage++) {
+        pw_eq_point e;
+        if (pw_dew_T(&c->fit->sys, c->P_col_Pa, y, &e) != PW_OK || !isfinite(e.x1))
+            break;
+        double x = e.x1;
+        c->step_x[k] = x;
+        c->step_y[k++] = y;
+        if (x <= sp->xb || x >= xprev)
+            break;
+        y = x > xi ? (R * x + sp->xd) / (R + 1.0) : sp->xb + slope_s * (x - sp->xb);
+        c->step_x[k] = x;
+        c->step_y[k++] = y;
+        xprev = x;
+    }
+    c->n_step = k;
+}
+
+static pw_status column(pw_report_curves *c, const pw_report_input *in)
+{
+    const pw_system *s = &c->fit->sys;
+    pw_system_curve sc;
+    pw_status st = pw_system_curve_init(&sc, s, c->P_col_Pa);
+    if (st != PW_OK)
+        return st;
+    pw_curve curve = pw_system_curve_bind(&sc);
+    double ymx[PW_REPORT_GRID];
+    for (size_t i = 0; i < PW_REPORT_GRID; i++) {
+        double y;
+        c->col_y[i] = ymx[i] = PW_NAN;
+        if (curve.y_of_x(curve.ctx, c->x[i], &y) == PW_OK && isfinite(y)) {
+            c->col_y[i] = y;
+            ymx[i] = y - c->x[i];
+        } else {
+            c->n_failed++;
+        }
+    }
+    bool from_module = false;
+    c->n_col_az = azeotropes(s, false, c->P_col_Pa, c->x, ymx, c->col_az, PW_REPORT_MAX_AZ,
+                             &from_module);
+    c->az_from_module = c->az_from_module && from_module;
+    pw_eq_point e;
+    c->T_top_K = pw_bubble_T(s, c->P_col_Pa, c->spec.xd, &e) == PW_OK ? e.T_K : PW_NAN;
+    c->T_bottom_K = pw_bubble_T(s, c->P_col_Pa, c->spec.xb, &e) == PW_OK ? e.T_K : PW_NAN;
+
+    pw_column_options opt = pw_column_default_options();
+    bool have = false;
+    for (size_t i = 0; i < opt.n_factors; i++)
+        have = have || fabs(opt.factors[i] - c->factor) < 1e-12;
+    if (!have && opt.n_factors < PW_COLUMN_MAX_FACTORS)
+        opt.factors[opt.n_factors++] = c->factor;
+    c->col_status = pw_column_solve(&curve, &c->spec, &opt, &c->col);
+    c->stages_op = PW_NAN;
+    c->feed_stage_op = 0;
+    if (c->col_status == PW_OK && c->col.feasible) {
+        c->r_op = c->factor * c->col.r_min;
+        if (pw_column_step(&curve, &c->spec, c->r_op, opt.max_stages, &c->stages_op,
+                           &c->feed_stage_op) != PW_OK)
+            c->stages_op = PW_NAN;
+        staircase(c, c->r_op);
+    }
+    (void)in;
+    return PW_OK;
+}
+
+/* The measured points as a dataset again, for the consistency tests. */
+static void consistency(pw_report_curves *c)
+{
+    const pw_fit_result *r = c->fit;
+    pw_dataset ds;
+    memset(&ds, 0, sizeof ds);
+    snprintf(ds.path, sizeof ds.path, "%s", r->dataset_path[0] ? r->dataset_path : "(fit file)");
+    snprintf(ds.names[0], sizeof ds.names[0], "%s", r->sys.comp[0].name);
+    snprintf(ds.names[1], sizeof ds.names[1], "%s", r->sys.comp[1].name);
+    ds.kind = r->kind;
+    ds.P_fixed_Pa = r->P_fixed_Pa;
+    ds.T_fixed_K = r->T_fixed_K;
+    ds.has_y = r->has_y;
+    snprintf(ds.source, sizeof ds.source, "%s", r->source);
+    ds.sigma_T_K = r->sigma_T_K;
+    ds.sigma_P_rel = r->sigma_P_rel;
+    ds.sigma_P_abs_Pa = PW_NAN;
+    ds.sigma_y = r->sigma_y;
+    ds.sigma_x = 0.001;
+    snprintf(ds.T_unit, sizeof ds.T_unit, "K");
+    snprintf(ds.P_unit, sizeof ds.P_unit, "kPa");
+    ds.n = r->n_pts;
+    ds.pts = malloc((r->n_pts ? r->n_pts : 1) * sizeof *ds.pts);
+    if (!ds.pts) {
+        c->cons_status = PW_ENOMEM;
+        snprintf(c->cons_error, sizeof c->cons_error, "%s", pw_strerror(PW_ENOMEM));
+        return;
+    }
+    for (size_t i = 0; i < r->n_pts; i++)
+        ds.pts[i] = r->pts[i].meas;
+    pw_error err;
+    pw_error_clear(&err);
+    c->cons_status = pw_consistency_run(&ds, &r->sys.comp[0], &r->sys.comp[1], NULL, &c->cons, &err);
+    c->cons_ran = c->cons_status == PW_OK;
+    if (!c->cons_ran)
+        snprintf(c->cons_error, sizeof c->cons_error, "%s", err.msg[0] ? err.msg : pw_strerror(c->cons_status));
+    free(ds.pts);
+}
+
+pw_status pw_report_curves_compute(pw_report_curves *c, const pw_report_input *in)
+{
+    memset(c, 0, sizeof *c);
+    c->fit = in->fit;
+    c->isothermal = in->fit->kind == PW_DATA_ISOTHERMAL;
+    for (size_t i = 0; i < PW_REPORT_GRID; i++)
+        c->x[i] = 0.5 * (1.0 - cos(PI * (double)i / (double)(PW_REPORT_GRID - 1)));
+    c->x[0] = 0.0;
+    c->x[PW_REPORT_GRID - 1] = 1.0;
+    data_curves(c);
+    consistency(c);
+    if (in->column) {
+        c->column = true;
+        c->spec = *in->column;
+        c->P_col_Pa = in->column_P_Pa;
+        c->factor = in->operating_factor > 0.0 ? in->operating_factor : 1.3;
+        pw_status st = column(c, in);
+        if (st != PW_OK)
+            return st;
+    }
+    return PW_OK;
+}
+
+void pw_report_curves_free(pw_report_curves *c)
+{
+    if (!c)
+        return;
+    if (c->cons_ran)
+        pw_consistency_result_free(&c->cons);
+    c->cons_ran = false;
+}

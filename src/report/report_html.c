@@ -1,0 +1,519 @@
+/* The report page: header, provenance, plots, tables and cautions, with an inline stylesheet
+ * (screen and print). Every string that comes from data is escaped. */
+#include "report/report_internal.h"
+
+#include <math.h>
+#include <pinchwise/fitjson.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "pinchwise_version.h"
+
+static const char *const STYLE =
+    ":root{--ink:#1e2430;--muted:#56606e;--rule:#d5d9df;--band:#17324d;--paper:#ffffff;"
+    "--tint:#f3f1ec;--warn:#8c2d19}\n"
+    "*{box-sizing:border-box}\n"
+    "body{margin:0;background:#e9e7e1;color:var(--ink);font:15px/1.5 'DejaVu Sans','Liberation Sans',"
+    "Arial,sans-serif}\n"
+    "main{max-width:1060px;margin:0 auto;background:var(--paper);padding:0 40px 40px}\n"
+    "header.pw-head{background:var(--band);color:#fff;margin:0 -40px 24px;padding:26px 40px 20px;"
+    "border-bottom:6px solid #e08e2b}\n"
+    "header.pw-head h1{margin:0 0 4px;font-size:25px;font-weight:600;letter-spacing:.2px}\n"
+    "header.pw-head p{margin:0;color:#cdd6e2;font-size:14px}\n"
+    "h2{font-size:19px;margin:34px 0 10px;padding-bottom:4px;border-bottom:2px solid var(--ink)}\n"
+    "h3{font-size:16px;margin:22px 0 8px}\n"
+    "p.note{color:var(--muted);font-size:13.5px;margin:6px 0}\n"
+    "table{border-collapse:collapse;margin:8px 0 14px;font-size:14px}\n"
+    "th,td{padding:4px 10px;border-bottom:1px solid var(--rule);text-align:left;vertical-align:top}\n"
+    "th{background:var(--tint);font-weight:600}\n"
+    "td.num{text-align:right;font-variant-numeric:tabular-nums;white-space:nowrap}\n"
+    "table.kv th{width:15em}\n"
+    "code,.mono{font-family:'DejaVu Sans Mono','Liberation Mono',monospace;font-size:12.5px;"
+    "word-break:break-all}\n"
+    ".verdict-pass::before{content:'\\2713\\00a0'}\n"
+    ".verdict-fail{color:var(--warn);font-weight:600}\n"
+    ".verdict-fail::before{content:'\\2717\\00a0'}\n"
+    ".verdict-skip{color:var(--muted)}\n"
+    ".verdict-skip::before{content:'\\2013\\00a0'}\n"
+    "aside.pw-caution{border:2px solid var(--warn);border-left-width:10px;background:#fbf3ef;"
+    "padding:10px 18px;margin:18px 0}\n"
+    "aside.pw-caution h2{border:0;margin:6px 0;font-size:17px;color:var(--warn)}\n"
+    "aside.pw-caution li{margin:4px 0}\n"
+    "figure{margin:18px 0 26px;break-inside:avoid;page-break-inside:avoid}\n"
+    "figure svg{max-width:100%;height:auto;display:block;border:1px solid var(--rule)}\n"
+    "figcaption{font-size:13.5px;color:var(--muted);margin-top:6px;max-width:640px}\n"
+    ".pw-grid2{display:flex;flex-wrap:wrap;gap:10px 28px}\n"
+    "footer{margin-top:34px;color:var(--muted);font-size:12.5px;border-top:1px solid var(--rule);"
+    "padding-top:8px}\n"
+    "@media print{body{background:#fff;font-size:11pt}main{max-width:none;padding:0}"
+    "header.pw-head{margin:0 0 14pt;padding:10pt 0;background:#fff;color:#000;border-bottom:3pt solid "
+    "#000}header.pw-head p{color:#333}"
+    "table,figure,aside{break-inside:avoid;page-break-inside:avoid}h2{break-after:avoid;"
+    "page-break-after:avoid}figure svg{border:0;max-width:16cm}@page{margin:16mm 14mm}}\n";
+
+static void esc(pw_sbuf *b, const char *s)
+{
+    pw_sbuf_escape(b, s);
+}
+
+/* A number cell: %.*g, or an en dash for a missing value. */
+static void num(pw_sbuf *b, double v, int digits)
+{
+    if (isfinite(v))
+        pw_sbuf_printf(b, "<td class=\"num\">%.*g</td>", digits, v);
+    else
+        pw_sbuf_puts(b, "<td class=\"num\">\xe2\x80\x93</td>");
+}
+
+static void kv(pw_sbuf *b, const char *k, const char *v, bool mono)
+{
+    pw_sbuf_puts(b, "<tr><th>");
+    esc(b, k);
+    pw_sbuf_puts(b, mono ? "</th><td class=\"mono\">" : "</th><td>");
+    esc(b, v && v[0] ? v : "\xe2\x80\x93");
+    pw_sbuf_puts(b, "</td></tr>\n");
+}
+
+static const char *base_name(const char *p)
+{
+    const char *s = strrchr(p, '/');
+    return s ? s + 1 : p;
+}
+
+static void provenance(pw_sbuf *b, const pw_fit_result *r, const pw_report_input *in)
+{
+    char t[PW_PATH_MAX + 64];
+    pw_sbuf_puts(b, "<section id=\"provenance\"><h2>Where these numbers come from</h2>\n"
+                    "<table class=\"kv\">\n");
+    kv(b, "Data file", r->dataset_path[0] ? base_name(r->dataset_path) : "", false);
+    kv(b, "Data file SHA-256", r->dataset_sha256, true);
+    kv(b, "Data source (as stated in the file)", r->source, false);
+    kv(b, "Fit file", in->fit_path ? base_name(in->fit_path) : "", false);
+    snprintf(t, sizeof t, "pinchwise %s, %s", r->version[0] ? r->version : "?", r->created);
+    kv(b, "Fitted with", t, false);
+    snprintf(t, sizeof t, "pinchwise %s", PINCHWISE_VERSION_STRING);
+    kv(b, "Report made with", t, false);
+    kv(b, "Report made on (UTC)", in->date_utc, false);
+    pw_sbuf_puts(b, "</table></section>\n");
+}
+
+static void cautions(pw_sbuf *b)
+{
+    pw_sbuf_puts(
+        b,
+        "<aside class=\"pw-caution\" id=\"cautions\"><h2>Read before using these results</h2><ul>\n"
+        "<li>These are <strong>screening results</strong> from an activity-coefficient model fitted "
+        "to a limited set of measurements, with an ideal vapor phase and constant molal overflow. "
+        "They are not a design.</li>\n"
+        "<li>Verify with rigorous simulation and with plant, pilot or laboratory data before any "
+        "decision; stage counts near minimum reflux, and above all near a tangent pinch, are very "
+        "sensitive to the model. Do not extrapolate beyond the measured temperature range.</li>\n"
+        "<li>The solvents may be flammable and toxic: consult the safety data sheet (SDS) of every "
+        "substance and mixture for flash points, explosion limits, exposure limits and "
+        "handling.</li>\n"
+        "<li>Pressure relief, vessels, piping and all equipment must be designed to the local codes "
+        "and reviewed by licensed, qualified engineers.</li>\n"
+        "<li>A formal hazard review (for example a HAZOP) is needed before anything is built or "
+        "operated.</li>\n"
+        "</ul></aside>\n");
+}
+
+static void parameters(pw_sbuf *b, const pw_fit_result *r)
+{
+    const pw_model_type *m = r->sys.model;
+    pw_sbuf_puts(b, "<section id=\"parameters\"><h2>Fitted model</h2>\n<p>");
+    esc(b, m ? m->title : "unknown model");
+    pw_sbuf_printf(b, "; reference temperature T_ref = %.2f K.</p>\n", r->sys.T_ref_K);
+    pw_sbuf_puts(b, "<table><tr><th>Parameter</th><th>Unit</th><th>Value</th><th>Standard error</th>"
+                    "<th>95 % interval, low</th><th>high</th><th>Role</th></tr>\n");
+    size_t np = m ? m->n_params : 0;
+    for (size_t i = 0; i < np; i++) {
+        pw_sbuf_puts(b, "<tr><td>");
+        esc(b, m->param_names[i]);
+        pw_sbuf_puts(b, "</td><td>");
+        esc(b, m->param_units[i]);
+        pw_sbuf_puts(b, "</td>");
+        num(b, r->sys.params[i], 6);
+        num(b, r->fitted[i] ? r->stderr_[i] : PW_NAN, 3);
+        num(b, r->fitted[i] ? r->ci95[i][0] : PW_NAN, 6);
+        num(b, r->fitted[i] ? r->ci95[i][1] : PW_NAN, 6);
+        pw_sbuf_printf(b, "<td>%s</td></tr>\n", r->fitted[i] ? "fitted" : "held fixed");
+    }
+    pw_sbuf_puts(b, "</table>\n");
+    if (r->n_fitted >= 2) {
+        pw_sbuf_puts(b, "<h3>Correlation of the fitted parameters</h3><table><tr><th></th>");
+        for (size_t j = 0; j < np; j++)
+            if (r->fitted[j]) {
+                pw_sbuf_puts(b, "<th>");
+                esc(b, m->param_names[j]);
+                pw_sbuf_puts(b, "</th>");
+            }
+        pw_sbuf_puts(b, "</tr>\n");
+        for (size_t i = 0; i < np; i++) {
+            if (!r->fitted[i])
+                continue;
+            pw_sbuf_puts(b, "<tr><th>");
+            esc(b, m->param_names[i]);
+            pw_sbuf_puts(b, "</th>");
+            for (size_t j = 0; j < np; j++)
+                if (r->fitted[j])
+                    num(b, r->corr[i][j], 3);
+            pw_sbuf_puts(b, "</tr>\n");
+        }
+        pw_sbuf_puts(b, "</table>\n<p class=\"note\">Correlations near \xc2\xb1" "1 mean the data fix "
+                        "a combination of the parameters better than each one alone.</p>\n");
+    }
+    pw_sbuf_puts(b, "<h3>Regression</h3><table class=\"kv\">\n");
+    char t[400];
+    snprintf(t, sizeof t, "%s (%s)", r->converged ? "yes" : "NO", pw_fit_stop_name(r->stop));
+    kv(b, "Converged", t, false);
+    snprintf(t, sizeof t, "%zu iterations, %zu residual and %zu Jacobian evaluations", r->iterations,
+             r->n_fev, r->n_jev);
+    kv(b, "Work", t, false);
+    snprintf(t, sizeof t, "%.4g over %zu residuals, %zu degrees of freedom (%.3g per degree)", r->chi2,
+             r->n_residuals, r->dof, r->chi2_red);
+    kv(b, "Weighted sum of squares", t, false);
+    snprintf(t, sizeof t, "AIC %.4g, AICc %.4g, BIC %.4g", r->aic, r->aicc, r->bic);
+    kv(b, "Information criteria", t, false);
+    size_t ex = 0;
+    for (size_t i = 0; i < r->n_pts; i++)
+        ex += r->pts[i].excluded;
+    snprintf(t, sizeof t, "%zu measured, %zu left out%s%s", r->n_pts, ex, ex && r->exclude_reason[0] ? ": " : "",
+             ex ? r->exclude_reason : "");
+    kv(b, "Points", t, false);
+    snprintf(t, sizeof t, "%.2f K to %.2f K", r->T_min_K, r->T_max_K);
+    kv(b, "Temperature range of the data", t, false);
+    pw_sbuf_puts(b, "</table></section>\n");
+}
+
+static void dev_row(pw_sbuf *b, const char *name, const pw_fit_stat *s, double scale)
+{
+    if (!isfinite(s->aad))
+        return;
+    pw_sbuf_puts(b, "<tr><td>");
+    esc(b, name);
+    pw_sbuf_puts(b, "</td>");
+    num(b, s->aad * scale, 3);
+    num(b, s->bias * scale, 3);
+    num(b, s->max_abs * scale, 3);
+    pw_sbuf_printf(b, "<td class=\"num\">%ld</td></tr>\n", s->max_line);
+}
+
+static void deviations(pw_sbuf *b, const pw_fit_result *r)
+{
+    pw_sbuf_puts(b, "<section id=\"deviations\"><h2>How closely the model follows the data</h2>\n"
+                    "<table><tr><th>Quantity (calculated \xe2\x88\x92 measured)</th><th>Mean |deviation|"
+                    "</th><th>Mean deviation (bias)</th><th>Largest |deviation|</th><th>at file line</th>"
+                    "</tr>\n");
+    dev_row(b, "vapor mole fraction y\xe2\x82\x81 / (mol/mol)", &r->dev_y, 1.0);
+    dev_row(b, "bubble temperature / K", &r->dev_T_K, 1.0);
+    dev_row(b, "bubble pressure / kPa", &r->dev_P_Pa, 1e-3);
+    pw_sbuf_puts(b, "</table>\n");
+    pw_sbuf_printf(b, "<h3>Infinite dilution (at T_ref = %.2f K)</h3>\n<table><tr><th>Limit</th>"
+                      "<th>ln \xce\xb3\xe2\x88\x9e</th><th>\xce\xb3\xe2\x88\x9e</th></tr>\n",
+                   r->sys.T_ref_K);
+    const char *lim[2] = {"ln \xce\xb3\xe2\x82\x81 as x\xe2\x82\x81 \xe2\x86\x92 0",
+                          "ln \xce\xb3\xe2\x82\x82 as x\xe2\x82\x81 \xe2\x86\x92 1"};
+    for (int i = 0; i < 2; i++) {
+        pw_sbuf_printf(b, "<tr><td>%s (", lim[i]);
+        esc(b, r->sys.comp[i].name);
+        pw_sbuf_puts(b, " dilute)</td>");
+        num(b, r->lngamma_inf[i], 4);
+        num(b, exp(r->lngamma_inf[i]), 4);
+        pw_sbuf_puts(b, "</tr>\n");
+    }
+    pw_sbuf_puts(b, "</table>\n<h3>Liquid-liquid split screen</h3><p>");
+    if (r->split)
+        pw_sbuf_printf(b, "<span class=\"verdict-fail\">The fitted parameters predict two liquid "
+                          "phases</span> (d\xc2\xb2(\xce\x94G/RT)/dx\xc2\xb2 = %.3g at x\xe2\x82\x81 = %.3f, "
+                          "T = %.2f K). A model fitted to vapor-liquid data alone is not reliable "
+                          "for liquid-liquid behaviour; check for a split experimentally.",
+                       r->split_min_D, r->split_x, r->split_T_K);
+    else
+        pw_sbuf_printf(b, "<span class=\"verdict-pass\">No liquid-liquid split predicted</span> "
+                          "(smallest d\xc2\xb2(\xce\x94G/RT)/dx\xc2\xb2 = %.3g at x\xe2\x82\x81 = %.3f, "
+                          "T = %.2f K).",
+                       r->split_min_D, r->split_x, r->split_T_K);
+    pw_sbuf_puts(b, "</p>\n<h3>Distinct minima found by the multistart</h3>\n<table><tr><th>#</th>");
+    const pw_model_type *m = r->sys.model;
+    for (size_t j = 0; m && j < m->n_params; j++)
+        if (r->fitted[j]) {
+            pw_sbuf_puts(b, "<th>");
+            esc(b, m->param_names[j]);
+            pw_sbuf_puts(b, "</th>");
+        }
+    pw_sbuf_puts(b, "<th>Weighted sum of squares</th><th>Starts ending here</th></tr>\n");
+    for (size_t k = 0; k < r->n_minima; k++) {
+        pw_sbuf_printf(b, "<tr><td class=\"num\">%zu</td>", k + 1);
+        for (size_t j = 0; m && j < m->n_params; j++)
+            if (r->fitted[j])
+                num(b, r->minima[k].params[j], 6);
+        num(b, r->minima[k].chi2, 5);
+        pw_sbuf_printf(b, "<td class=\"num\">%zu</td></tr>\n", r->minima[k].hits);
+    }
+    pw_sbuf_puts(b, "</table>\n");
+    if (r->n_minima > 1)
+        pw_sbuf_puts(b, "<p class=\"note\">More than one minimum: the parameters are not unique; "
+                        "compare the predictions of each before relying on one.</p>\n");
+    pw_sbuf_puts(b, "</section>\n");
+}
+
+static const char *verdict_cls(const pw_ctest *t)
+{
+    return !t->ran ? "verdict-skip" : t->pass ? "verdict-pass" : "verdict-fail";
+}
+
+/* The tests of include/pinchwise/consistency.h, run on the points the fit file carries. */
+static void consistency_section(pw_sbuf *b, const pw_report_curves *c)
+{
+    pw_sbuf_puts(b, "<section id=\"consistency\"><h2>Thermodynamic consistency of the measurements"
+                    "</h2>\n");
+    if (!c->cons_ran) {
+        pw_sbuf_puts(b, "<p>The tests could not be run: ");
+        esc(b, c->cons_error);
+        pw_sbuf_puts(b, "</p></section>\n");
+        return;
+    }
+    const pw_consistency_result *k = &c->cons;
+    pw_sbuf_printf(b, "<p><strong>Verdict: <span class=\"%s\">%s</span></strong></p>\n",
+                   k->consistent ? "verdict-pass" : "verdict-fail",
+                   k->consistent ? "consistent" : "not shown to be consistent");
+    pw_sbuf_puts(b, "<table><tr><th>Test</th><th>Value</th><th>Limit</th><th>Result</th>"
+                    "<th>Published source</th></tr>\n");
+    for (int i = 0; i < PW_CTEST_COUNT; i++) {
+        const pw_ctest *t = &k->tests[i];
+        pw_sbuf_puts(b, "<tr><td>");
+        esc(b, t->title);
+        if (k->primary[i])
+            pw_sbuf_puts(b, " <em>(verdict rests on it)</em>");
+        pw_sbuf_puts(b, "</td>");
+        num(b, t->ran ? t->value : PW_NAN, 4);
+        num(b, t->ran ? t->limit : PW_NAN, 4);
+        pw_sbuf_printf(b, "<td class=\"%s\">", verdict_cls(t));
+        if (t->ran)
+            pw_sbuf_puts(b, t->pass ? "passes" : "fails");
+        else {
+            pw_sbuf_puts(b, "not run: ");
+            esc(b, t->why_not);
+        }
+        pw_sbuf_puts(b, "</td><td>");
+        esc(b, t->source);
+        pw_sbuf_puts(b, "</td></tr>\n");
+    }
+    pw_sbuf_puts(b, "</table>\n");
+    if (k->n_reasons) {
+        pw_sbuf_puts(b, "<ul>\n");
+        for (size_t i = 0; i < k->n_reasons; i++) {
+            pw_sbuf_puts(b, "<li>");
+            esc(b, k->reasons[i]);
+            pw_sbuf_puts(b, "</li>\n");
+        }
+        pw_sbuf_puts(b, "</ul>\n");
+    }
+    if (k->n_flagged)
+        pw_sbuf_printf(b, "<p class=\"note\">%zu point(s) flagged as possible outliers by the "
+                          "point test.</p>\n",
+                       k->n_flagged);
+    pw_sbuf_puts(b, "</section>\n");
+}
+
+static void az_table(pw_sbuf *b, const pw_report_az *az, size_t n, const char *where)
+{
+    pw_sbuf_puts(b, "<h3>");
+    esc(b, where);
+    pw_sbuf_puts(b, "</h3>\n");
+    if (n == 0) {
+        pw_sbuf_puts(b, "<p>None predicted for 0 &lt; x\xe2\x82\x81 &lt; 1.</p>\n");
+        return;
+    }
+    pw_sbuf_puts(b, "<table><tr><th>x\xe2\x82\x81 = y\xe2\x82\x81</th><th>T / K</th><th>P / kPa</th>"
+                    "<th>Kind</th></tr>\n");
+    for (size_t i = 0; i < n; i++) {
+        pw_sbuf_puts(b, "<tr>");
+        num(b, az[i].x1, 4);
+        num(b, az[i].T_K, 5);
+        num(b, az[i].P_Pa / 1000.0, 5);
+        pw_sbuf_printf(b, "<td>%s%s</td></tr>\n", az[i].min_boiling ? "minimum-boiling" : "maximum-boiling",
+                       az[i].tangential ? " (near-tangential: a double root, sensitive to the model)" : "");
+    }
+    pw_sbuf_puts(b, "</table>\n");
+}
+
+/* Azeotropes from the azeotrope module (include/pinchwise/azeotrope.h). */
+static void azeotropes(pw_sbuf *b, const pw_report_curves *c, const char *cond)
+{
+    char where[128];
+    pw_sbuf_puts(b, "<section id=\"azeotropes\"><h2>Azeotropes of the model</h2>\n");
+    snprintf(where, sizeof where, "At the data's condition, %s", cond);
+    az_table(b, c->az, c->n_az, where);
+    if (c->column) {
+        snprintf(where, sizeof where, "At the column pressure, %.4g kPa", c->P_col_Pa / 1000.0);
+        az_table(b, c->col_az, c->n_col_az, where);
+    }
+    if (c->az_from_module)
+        pw_sbuf_puts(b, "<p class=\"note\">Roots of ln \xce\xb1\xe2\x82\x81\xe2\x82\x82 = 0 at "
+                        "the model's bubble points (Brent's method), classified by the extremum of "
+                        "the bubble curve; see docs/azeotrope.md.</p></section>\n");
+    else
+        pw_sbuf_puts(b, "<p class=\"note\">The azeotrope search did not complete; these values "
+                        "are where y\xe2\x82\x81 \xe2\x88\x92 x\xe2\x82\x81 of the plotted bubble "
+                        "points changes sign, refined by bisection.</p></section>\n");
+}
+
+static void column_section(pw_sbuf *b, const pw_report_curves *c)
+{
+    const pw_column_spec *sp = &c->spec;
+    const pw_column_result *k = &c->col;
+    pw_sbuf_puts(b, "<section id=\"column\"><h2>Column targets: reflux and stages</h2>\n");
+    pw_sbuf_printf(b, "<p>Binary column with total condenser and partial reboiler at %.4g kPa: "
+                      "x<sub>D</sub> = %.4g, z<sub>F</sub> = %.4g, x<sub>B</sub> = %.4g, q = %.3g "
+                      "(mole fractions of ",
+                   c->P_col_Pa / 1000.0, sp->xd, sp->zf, sp->xb, sp->q);
+    esc(b, c->fit->sys.comp[0].name);
+    pw_sbuf_puts(b, "); constant molal overflow.</p>\n");
+    if (c->col_status != PW_OK) {
+        pw_sbuf_puts(b, "<p class=\"verdict-fail\">The column analysis failed: ");
+        esc(b, pw_strerror(c->col_status));
+        if (k->reason[0]) {
+            pw_sbuf_puts(b, ": ");
+            esc(b, k->reason);
+        }
+        pw_sbuf_puts(b, "</p></section>\n");
+        return;
+    }
+    if (!k->feasible) {
+        pw_sbuf_puts(b, "<p><strong class=\"verdict-fail\">This split cannot be made by ordinary "
+                        "distillation at this pressure:</strong> ");
+        esc(b, k->reason);
+        pw_sbuf_puts(b, "</p></section>\n");
+        return;
+    }
+    pw_sbuf_puts(b, "<table class=\"kv\">\n");
+    char t[200];
+    snprintf(t, sizeof t, "%.4g (boil-up ratio %.4g)", k->r_min, k->s_min);
+    kv(b, "Minimum reflux ratio R_min = L/D", t, false);
+    snprintf(t, sizeof t, "%s pinch in the %s section at x = %.4f, y = %.4f",
+             k->pinch.kind == PW_PINCH_TANGENT ? "tangent" : "feed",
+             k->pinch.section == PW_SECTION_STRIPPING ? "stripping" : "rectifying", k->pinch.x,
+             k->pinch.y);
+    kv(b, "Limiting pinch", t, false);
+    snprintf(t, sizeof t, "x = %.4f, y = %.4f", k->x_q, k->y_q);
+    kv(b, "q-line meets the equilibrium curve", t, false);
+    if (k->pinch.kind == PW_PINCH_TANGENT) {
+        snprintf(t, sizeof t, "%.4g (would underestimate R_min)", k->r_feed);
+        kv(b, "R from the feed point alone", t, false);
+    }
+    snprintf(t, sizeof t, "%.3g stepped on the curve (partial reboiler counted)", k->n_min);
+    kv(b, "Minimum stages N_min (total reflux)", t, false);
+    snprintf(t, sizeof t, "%.3g with \xce\xb1 = \xe2\x88\x9a(%.3g \xc3\x97 %.3g) (Fenske 1932)", k->n_fenske,
+             k->alpha_top, k->alpha_bottom);
+    kv(b, "Fenske estimate", t, false);
+    snprintf(t, sizeof t, "top %.2f K, bottom %.2f K (data span %.2f K to %.2f K)", c->T_top_K,
+             c->T_bottom_K, c->fit->T_min_K, c->fit->T_max_K);
+    kv(b, "Bubble temperatures", t, false);
+    pw_sbuf_puts(b, "</table>\n");
+    if (c->T_top_K < c->fit->T_min_K - 1.0 || c->T_bottom_K > c->fit->T_max_K + 1.0 ||
+        c->T_bottom_K < c->fit->T_min_K - 1.0 || c->T_top_K > c->fit->T_max_K + 1.0)
+        pw_sbuf_puts(b, "<p class=\"verdict-fail\">The column runs outside the temperature range of "
+                        "the data: the model is extrapolated.</p>\n");
+    pw_sbuf_puts(b, "<h3>Design table</h3><table><tr><th>R / R_min</th><th>R</th><th>Boil-up "
+                    "V\xcc\x84/B</th><th>Stages, stepped</th><th>Feed stage (from top)</th>"
+                    "<th>Stages, Gilliland (Molokanov form)</th></tr>\n");
+    for (size_t i = 0; i < k->n_design; i++) {
+        const pw_design_row *d = &k->design[i];
+        pw_sbuf_puts(b, "<tr>");
+        num(b, d->factor, 3);
+        num(b, d->R, 4);
+        num(b, d->boilup, 4);
+        num(b, d->stages, 3);
+        pw_sbuf_printf(b, "<td class=\"num\">%d</td>", d->feed_stage);
+        num(b, d->gilliland_stages, 3);
+        pw_sbuf_puts(b, "</tr>\n");
+    }
+    pw_sbuf_puts(b, "</table>\n<p class=\"note\">Stages are equilibrium stages including the partial "
+                    "reboiler, with a fractional last step; Gilliland's correlation (Molokanov et al. "
+                    "1972) is a shortcut check on the stepped count. Add tray efficiency before "
+                    "thinking of real trays.</p></section>\n");
+}
+
+static void figure(pw_sbuf *b, const pw_report_file *f, const char *caption)
+{
+    pw_sbuf_puts(b, "<figure>\n");
+    pw_sbuf_puts(b, pw_sbuf_str(&f->text));
+    pw_sbuf_puts(b, "<figcaption>");
+    esc(b, caption);
+    pw_sbuf_puts(b, "</figcaption></figure>\n");
+}
+
+static const char *caption_for(const char *name, bool column)
+{
+    if (!strcmp(name, "xy.svg"))
+        return column ? "Equilibrium curve at the column pressure with the construction: q-line, "
+                        "operating lines at minimum reflux (dashed) and at the operating reflux "
+                        "(solid), stage steps, and the limiting pinch (star)."
+                      : "Equilibrium curve of the fitted model with the measured points.";
+    if (!strcmp(name, "txy.svg") || !strcmp(name, "pxy.svg"))
+        return "Bubble (solid) and dew (dashed) curves of the model with the measured liquid "
+               "(filled circles) and vapor (open triangles) compositions.";
+    if (!strncmp(name, "residual", 8))
+        return "Calculated minus measured at each point; the shaded band is one assumed "
+               "measurement standard deviation either side of zero.";
+    return "ln \xce\xb3 of the model (lines) and from each measured point (markers), from "
+           "y P = x \xce\xb3 P\xcb\xa2\xe1\xb5\x83\xe1\xb5\x97.";
+}
+
+pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c,
+                                const pw_report_input *in)
+{
+    const pw_fit_result *r = c->fit;
+    pw_sbuf *b = &rep->html;
+    char cond[64];
+    pw_report_condition(r, cond, sizeof cond);
+    pw_sbuf_puts(b, "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">\n"
+                    "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n"
+                    "<meta http-equiv=\"Content-Security-Policy\" content=\"default-src 'none'; "
+                    "style-src 'unsafe-inline'; img-src data:\">\n<title>");
+    esc(b, r->sys.comp[0].name);
+    pw_sbuf_puts(b, " + ");
+    esc(b, r->sys.comp[1].name);
+    pw_sbuf_puts(b, ": vapor-liquid equilibrium screening report</title>\n<style>\n");
+    pw_sbuf_puts(b, STYLE);
+    pw_sbuf_puts(b, "</style></head>\n<body><main>\n<header class=\"pw-head\"><h1>");
+    esc(b, r->sys.comp[0].name);
+    pw_sbuf_puts(b, " + ");
+    esc(b, r->sys.comp[1].name);
+    pw_sbuf_puts(b, "</h1><p>Vapor-liquid equilibrium screening report \xc2\xb7 ");
+    esc(b, r->sys.model ? r->sys.model->name : "?");
+    pw_sbuf_puts(b, " model \xc2\xb7 data ");
+    pw_sbuf_puts(b, r->kind == PW_DATA_ISOTHERMAL ? "isothermal at " : "isobaric at ");
+    esc(b, cond);
+    if (c->column)
+        pw_sbuf_printf(b, " \xc2\xb7 column at %.4g kPa", c->P_col_Pa / 1000.0);
+    pw_sbuf_puts(b, "</p></header>\n");
+    pw_sbuf_puts(b, "<p class=\"note\"><strong>Screening only.</strong> See the cautions at the end "
+                    "before using any number on this page.</p>\n");
+    provenance(b, r, in);
+    if (c->n_failed)
+        pw_sbuf_printf(b, "<p class=\"note\">%zu equilibrium solves on the plotted grids did not "
+                          "converge; the curves have gaps there.</p>\n",
+                       c->n_failed);
+    if (!r->converged)
+        pw_sbuf_puts(b, "<p class=\"verdict-fail\">The fit did not converge: treat every number "
+                        "below as provisional.</p>\n");
+    pw_sbuf_puts(b, "<section id=\"plots\"><h2>Plots</h2>\n");
+    for (size_t i = 0; i < rep->n_svg; i++)
+        figure(b, &rep->svg[i], caption_for(rep->svg[i].name, c->column));
+    pw_sbuf_puts(b, "</section>\n");
+    parameters(b, r);
+    deviations(b, r);
+    consistency_section(b, c);
+    azeotropes(b, c, cond);
+    if (c->column)
+        column_section(b, c);
+    cautions(b);
+    pw_sbuf_puts(b, "<footer>Made by pinchwise ");
+    esc(b, PINCHWISE_VERSION_STRING);
+    pw_sbuf_puts(b, ". The page is self-contained: no scripts, no external styles, fonts or "
+                    "images.</footer>\n</main></body></html>\n");
+    return pw_sbuf_status(b);
+}
