@@ -21,6 +21,7 @@ typedef struct pw_system_curve {
     double P_Pa;            /* fixed pressure, Pa */
     unsigned long n_eval;   /* bubble-point solves so far */
     pw_status last_status;  /* status of the most recent solve */
+    double last_x, last_T_K; /* the most recent bubble point, to start the next one from */
 } pw_system_curve;
 
 /* Fills sc for system sys at pressure P_Pa. PW_EINVAL for NULL arguments, a system without a

@@ -34,6 +34,10 @@ pw_status pw_system_activity(const pw_system *s, double x1, double T_K, pw_activ
 /* Bubble temperature at P for liquid x1 (and the vapor y1). PW_ENOBRACKET when no temperature
  * in the search range satisfies the equation, PW_EMAXITER / PW_ENOCONV otherwise. */
 pw_status pw_bubble_T(const pw_system *s, double P_Pa, double x1, pw_eq_point *out);
+/* The same, with the Newton iteration started at T_guess_K (e.g. a measured temperature or the
+ * previous point of a curve); NAN or a non-positive guess means none. Same result, fewer steps. */
+pw_status pw_bubble_T_from(const pw_system *s, double P_Pa, double x1, double T_guess_K,
+                           pw_eq_point *out);
 /* Bubble pressure at T for liquid x1 (explicit; no iteration). */
 pw_status pw_bubble_P(const pw_system *s, double T_K, double x1, pw_eq_point *out);
 /* Dew temperature at P for vapor y1 (and the liquid x1). */

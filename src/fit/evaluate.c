@@ -67,7 +67,7 @@ pw_status pw_fit_evaluate(pw_fit_result *r)
         pw_fit_point *fpnt = &r->pts[i];
         const pw_point *m = &fpnt->meas;
         pw_eq_point eq;
-        pw_status pst = isobaric ? pw_bubble_T(&r->sys, m->P_Pa, m->x1, &eq)
+        pw_status pst = isobaric ? pw_bubble_T_from(&r->sys, m->P_Pa, m->x1, m->T_K, &eq)
                                  : pw_bubble_P(&r->sys, m->T_K, m->x1, &eq);
         fpnt->T_calc_K = pst == PW_OK ? eq.T_K : (double)NAN;
         fpnt->P_calc_Pa = pst == PW_OK ? eq.P_Pa : (double)NAN;

@@ -33,7 +33,7 @@ static pw_status eval_isobaric(const fit_problem *fp, const pw_system *s, const 
                                double *f, double *J)
 {
     pw_eq_point eq;
-    pw_status st = pw_bubble_T(s, pt->P_Pa, pt->x1, &eq);
+    pw_status st = pw_bubble_T_from(s, pt->P_Pa, pt->x1, pt->T_K, &eq);
     if (st != PW_OK)
         return st;
     bool with_y = fp->objective == PW_OBJ_TXY;

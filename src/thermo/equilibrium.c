@@ -270,7 +270,7 @@ static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T
 }
 
 static pw_status bubble_T(const pw_system *s, double P_Pa, double x1, bool newton,
-                          pw_eq_point *out)
+                          double T_guess, pw_eq_point *out)
 {
     if (!state_ok(s) || !out)
         return PW_EINVAL;
@@ -279,7 +279,7 @@ static pw_status bubble_T(const pw_system *s, double P_Pa, double x1, bool newto
     tpoint tp;
     double T;
     int iters;
-    pw_status st = bubble_T_core(s, P_Pa, x1, NAN, newton, &T, &tp, &iters);
+    pw_status st = bubble_T_core(s, P_Pa, x1, T_guess, newton, &T, &tp, &iters);
     if (st != PW_OK)
         return st;
     fill_point(&tp, x1, T, P_Pa, iters, out);
@@ -288,12 +288,19 @@ static pw_status bubble_T(const pw_system *s, double P_Pa, double x1, bool newto
 
 pw_status pw_bubble_T(const pw_system *s, double P_Pa, double x1, pw_eq_point *out)
 {
-    return bubble_T(s, P_Pa, x1, true, out);
+    return bubble_T(s, P_Pa, x1, true, NAN, out);
+}
+
+pw_status pw_bubble_T_from(const pw_system *s, double P_Pa, double x1, double T_guess_K,
+                           pw_eq_point *out)
+{
+    return bubble_T(s, P_Pa, x1, true, isfinite(T_guess_K) && T_guess_K > 0.0 ? T_guess_K : (double)NAN,
+                    out);
 }
 
 pw_status pw_thermo_bubble_T_brent(const pw_system *s, double P_Pa, double x1, pw_eq_point *out)
 {
-    return bubble_T(s, P_Pa, x1, false, out);
+    return bubble_T(s, P_Pa, x1, false, NAN, out);
 }
 
 pw_status pw_bubble_P(const pw_system *s, double T_K, double x1, pw_eq_point *out)
