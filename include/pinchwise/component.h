@@ -36,7 +36,15 @@ typedef struct pw_component {
     double T_min_K, T_max_K; /* validity range, converted to K */
     double V_L_cm3mol;       /* liquid molar volume, NAN when unknown */
     char source[PW_SOURCE_MAX];
+    /* The units as affine maps to SI (si = (value + offset) * scale), filled by
+     * pw_component_prepare so that pw_psat needs no unit lookup; 0 means not prepared (pw_psat
+     * then looks the units up). The readers prepare every component they return. */
+    double T_scale, T_offset, P_scale, P_offset;
 } pw_component;
+
+/* Fills the cached unit maps of c from its T_unit and P_unit; PW_EINVAL for an unknown unit.
+ * Call again after changing the units. */
+pw_status pw_component_prepare(pw_component *c);
 
 /* Saturation pressure P [Pa] at T [K] and d(ln P)/dT [1/K] (either output may be NULL).
  * Evaluates outside the validity range too (use pw_component_range_excess_K to know);

@@ -39,7 +39,8 @@ typedef struct pw_fit_options {
     bool fit_alpha;        /* NRTL: fit alpha too (default false) */
     double alpha;          /* NRTL fixed alpha (default 0.3, Renon & Prausnitz 1968) */
     double V2_V1;          /* Wilson volume ratio; NAN = from the components' V_L, else 1 */
-    size_t n_starts;       /* multistart count (default 24) */
+    size_t n_starts;       /* candidate starts screened by one evaluation each (default 32);
+                              LM runs from the best until 4 runs in a row add nothing */
     unsigned long seed;    /* for the start points (default 1) */
     double sigma_T_K, sigma_P_rel, sigma_y; /* NAN = from the dataset (its metadata or defaults) */
     size_t max_iter;       /* per start (default 200) */
@@ -88,6 +89,7 @@ typedef struct pw_fit_result {
     bool converged;
     pw_stop_reason stop;
     size_t iterations, n_fev, n_jev;
+    size_t n_runs;             /* LM runs of the multistart */
     double chi2, chi2_red;     /* weighted sum of squares and per degree of freedom */
     size_t n_residuals, dof;
     double aic, aicc, bic;

@@ -21,6 +21,9 @@ pw_status pw_units_to_si(pw_quantity q, double value, const char *unit, double *
 /* Converts an SI value to unit. Returns PW_EINVAL for an unknown unit. */
 pw_status pw_units_from_si(pw_quantity q, double si, const char *unit, double *value);
 
+/* The unit as an affine map to SI: si = (value + offset) * scale. PW_EINVAL for an unknown unit. */
+pw_status pw_units_affine(pw_quantity q, const char *unit, double *scale, double *offset);
+
 /* True when unit names a known unit of quantity q. */
 int pw_units_known(pw_quantity q, const char *unit);
 

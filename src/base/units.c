@@ -35,12 +35,25 @@ static const unit_def *find_unit(pw_quantity q, const char *unit)
     const unit_def *table = q == PW_QTY_TEMPERATURE ? temperature_units : pressure_units;
     size_t n = q == PW_QTY_TEMPERATURE ? sizeof temperature_units / sizeof *temperature_units
                                        : sizeof pressure_units / sizeof *pressure_units;
-    if (!unit)
+    if (!unit || !unit[0])
         return NULL;
+    /* The first letter settles most candidates before the full comparison (this sits on the
+     * vapor-pressure hot path). */
+    int c0 = tolower((unsigned char)unit[0]);
     for (size_t i = 0; i < n; i++)
-        if (strcasecmp(table[i].name, unit) == 0)
+        if (tolower((unsigned char)table[i].name[0]) == c0 && strcasecmp(table[i].name, unit) == 0)
             return &table[i];
     return NULL;
+}
+
+pw_status pw_units_affine(pw_quantity q, const char *unit, double *scale, double *offset)
+{
+    const unit_def *u = find_unit(q, unit);
+    if (!u)
+        return PW_EINVAL;
+    *scale = u->scale;
+    *offset = u->offset;
+    return PW_OK;
 }
 
 int pw_units_known(pw_quantity q, const char *unit) { return find_unit(q, unit) != NULL; }

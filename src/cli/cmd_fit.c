@@ -23,7 +23,7 @@ static void usage(FILE *f)
             "  --force               replace an existing fit file\n"
             "  --alpha A             NRTL non-randomness when fixed (default 0.3)\n"
             "  --fit-alpha           NRTL: fit alpha as well\n"
-            "  --starts N            multistart count (default 16)\n"
+            "  --starts N            candidate starts screened (default 32)\n"
             "  --seed N              seed of the start points (default 1)\n"
             "  --sigma-T DT          temperature uncertainty, e.g. 0.05K (default: file or 0.1 K)\n"
             "  --sigma-P PCT         pressure uncertainty in percent, e.g. 0.2 (default: file or 0.1)\n"

@@ -44,6 +44,8 @@ static pw_status add_row(reader *rd, const pw_component *c, long line, pw_error 
         rd->cap = cap;
     }
     rd->rows[rd->n] = *c;
+    if (pw_component_prepare(&rd->rows[rd->n]) != PW_OK)
+        return pw_error_set(err, PW_EPARSE, rd->name, line, "unknown unit");
     rd->lines[rd->n] = line;
     rd->n++;
     return PW_OK;

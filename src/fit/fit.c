@@ -24,7 +24,7 @@ pw_fit_options pw_fit_default_options(void)
     o.fit_alpha = false;
     o.alpha = 0.3; /* Renon & Prausnitz (1968): typical value for most mixtures */
     o.V2_V1 = NAN;
-    o.n_starts = 16;
+    o.n_starts = 32;
     o.seed = 1;
     o.sigma_T_K = NAN;
     o.sigma_P_rel = NAN;
@@ -111,6 +111,20 @@ static int lm_df(const gsl_vector *u, void *data, gsl_matrix *J)
         for (size_t j = 0; j < fp->n_fit; j++)
             gsl_matrix_set(J, i, j, c->J_cache[i * fp->n_fit + j]);
     return GSL_SUCCESS;
+}
+
+#define MULTISTART_MIN 4   /* LM runs before the stopping rule may act */
+#define MULTISTART_STALL 4 /* runs in a row without a new minimum or a lower chi2 */
+
+typedef struct start_cand {
+    double p[PW_MAX_PARAMS];
+    double chi2; /* at the start; -1 for the model's default start so that it runs first */
+} start_cand;
+
+static int cmp_cand(const void *a, const void *b)
+{
+    double ca = ((const start_cand *)a)->chi2, cb = ((const start_cand *)b)->chi2;
+    return (ca > cb) - (ca < cb);
 }
 
 typedef struct run_result {
@@ -421,24 +435,48 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     gsl_multifit_nlinear_fdf fdf = {.f = lm_f, .df = lm_df, .fvv = NULL, .n = fp.n_res,
                                     .p = fp.n_fit, .params = &ctx};
     run_result best = {.chi2 = INFINITY, .stop = PW_STOP_NONE};
+    /* Multistart with screening: every candidate start costs one objective evaluation; LM then
+     * runs from the candidates in order of increasing chi2 and stops once MULTISTART_STALL runs
+     * in a row found neither a new minimum nor a lower chi2 (after at least MULTISTART_MIN runs).
+     * The default start always runs. See docs/fitting.md. */
     size_t n_starts = o.n_starts ? o.n_starts : 1;
-    for (size_t s = 0; s < n_starts; s++) {
-        double start[PW_MAX_PARAMS];
-        make_start(out, &fp, rng, s, start);
-        if (model->check(start) != PW_OK)
+    start_cand *cand = malloc(sizeof *cand * n_starts);
+    double *work = malloc(sizeof(double) * fp.n_res);
+    size_t n_cand = 0;
+    for (size_t s = 0; cand && work && s < n_starts; s++) {
+        make_start(out, &fp, rng, s, cand[n_cand].p);
+        if (model->check(cand[n_cand].p) != PW_OK)
             continue;
+        cand[n_cand].chi2 = s == 0 ? -1.0 : fit_chi2(&fp, cand[n_cand].p, work);
+        if (isfinite(cand[n_cand].chi2))
+            n_cand++;
+    }
+    ctx.n_fev += n_starts;
+    if (cand)
+        qsort(cand, n_cand, sizeof *cand, cmp_cand);
+    size_t stall = 0;
+    for (size_t c = 0; c < n_cand; c++) {
+        if (c >= MULTISTART_MIN && stall >= MULTISTART_STALL)
+            break;
         run_result run;
-        run_lm(w, &fdf, &ctx, start, &o, &run);
+        run_lm(w, &fdf, &ctx, cand[c].p, &o, &run);
         out->iterations += run.iterations;
+        out->n_runs++;
         bool conv = (run.stop == PW_STOP_STEP || run.stop == PW_STOP_GRADIENT) &&
                     !runaway(&fp, run.params);
+        size_t before = out->n_minima;
         if (conv)
             add_minimum(out, &fp, &run);
         /* prefer converged runs; among equals the lower chi2 */
         bool best_conv = best.stop == PW_STOP_STEP || best.stop == PW_STOP_GRADIENT;
-        if ((conv && !best_conv) || (conv == best_conv && run.chi2 < best.chi2))
+        bool better = (conv && !best_conv) ||
+                      (conv == best_conv && run.chi2 < best.chi2 * (1.0 - 1e-9));
+        if (better || (conv == best_conv && run.chi2 < best.chi2))
             best = run;
+        stall = (better || out->n_minima > before) ? 0 : stall + 1;
     }
+    free(cand);
+    free(work);
     out->n_fev = ctx.n_fev;
     out->n_jev = ctx.n_jev;
     qsort(out->minima, out->n_minima, sizeof out->minima[0], cmp_minima);

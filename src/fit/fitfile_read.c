@@ -97,6 +97,8 @@ static void read_component(reader *rd, const json_t *c, pw_component *out)
     out->T_max_K = get_num(rd, c, "T_max_K", false);
     out->V_L_cm3mol = get_num(rd, c, "V_L_cm3mol", true);
     copy_str(out->source, sizeof out->source, get_str(rd, c, "source"));
+    if (rd->st == PW_OK)
+        pw_component_prepare(out); /* units were checked above */
     if (rd->st == PW_OK && !(out->T_min_K < out->T_max_K))
         fail(rd, "component \"%s\": T_min_K must be below T_max_K", out->name);
 }

@@ -70,6 +70,29 @@ pw_status pw_iapws97_tsat(double P_Pa, double *T_K)
     return PW_OK;
 }
 
+pw_status pw_component_prepare(pw_component *c)
+{
+    if (!c)
+        return PW_EINVAL;
+    pw_status st = pw_units_affine(PW_QTY_TEMPERATURE, c->T_unit, &c->T_scale, &c->T_offset);
+    if (st == PW_OK)
+        st = pw_units_affine(PW_QTY_PRESSURE, c->P_unit, &c->P_scale, &c->P_offset);
+    if (st != PW_OK)
+        c->T_scale = c->T_offset = c->P_scale = c->P_offset = 0.0;
+    return st;
+}
+
+/* The unit maps of c: cached when prepared, looked up otherwise. */
+static pw_status unit_maps(const pw_component *c, double *Ts, double *To, double *Ps, double *Po)
+{
+    if (c->T_scale > 0.0 && c->P_scale > 0.0) {
+        *Ts = c->T_scale, *To = c->T_offset, *Ps = c->P_scale, *Po = c->P_offset;
+        return PW_OK;
+    }
+    pw_status st = pw_units_affine(PW_QTY_TEMPERATURE, c->T_unit, Ts, To);
+    return st == PW_OK ? pw_units_affine(PW_QTY_PRESSURE, c->P_unit, Ps, Po) : st;
+}
+
 pw_status pw_psat(const pw_component *c, double T_K, double *P_Pa, double *dlnP_dT)
 {
     if (!c)
@@ -79,12 +102,11 @@ pw_status pw_psat(const pw_component *c, double T_K, double *P_Pa, double *dlnP_
     if (c->equation == PW_PSAT_IAPWS_IF97)
         return if97_psat(T_K, P_Pa, dlnP_dT);
 
-    double T_u, T_u1;
-    pw_status st = pw_units_from_si(PW_QTY_TEMPERATURE, T_K, c->T_unit, &T_u);
-    if (st == PW_OK)
-        st = pw_units_from_si(PW_QTY_TEMPERATURE, T_K + 1.0, c->T_unit, &T_u1);
+    double Ts, To, Ps, Po;
+    pw_status st = unit_maps(c, &Ts, &To, &Ps, &Po);
     if (st != PW_OK)
         return st;
+    double T_u = T_K / Ts - To; /* T_K = (T_u + To) * Ts */
     double den = T_u + c->C;
     if (!(den > 0.0))
         return PW_EDOM; /* at or beyond the Antoine pole */
@@ -93,15 +115,13 @@ pw_status pw_psat(const pw_component *c, double T_K, double *P_Pa, double *dlnP_
     double P_u = exp(lnP_u);
     if (!isfinite(P_u) || P_u <= 0.0)
         return PW_EDOM;
-    double P;
-    st = pw_units_to_si(PW_QTY_PRESSURE, P_u, c->P_unit, &P);
-    if (st != PW_OK)
-        return st;
+    double P = (P_u + Po) * Ps;
+    if (!isfinite(P) || P <= 0.0)
+        return PW_EDOM;
     if (P_Pa)
         *P_Pa = P;
     if (dlnP_dT) {
-        /* T_u is affine in T_K, so dT_u/dT_K = T_u(T_K + 1) - T_u(T_K) exactly (1 or 9/5). */
-        double dTu_dTK = T_u1 - T_u;
+        double dTu_dTK = 1.0 / Ts; /* 1 for K and C, 9/5 for F */
         *dlnP_dT = base * c->B / (den * den) * dTu_dTK;
     }
     return PW_OK;
@@ -115,10 +135,13 @@ pw_status pw_tsat(const pw_component *c, double P_Pa, double *T_K)
         return PW_EDOM;
     if (c->equation == PW_PSAT_IAPWS_IF97)
         return pw_iapws97_tsat(P_Pa, T_K);
-    double P_u;
-    pw_status st = pw_units_from_si(PW_QTY_PRESSURE, P_Pa, c->P_unit, &P_u);
+    double Ts, To, Ps, Po;
+    pw_status st = unit_maps(c, &Ts, &To, &Ps, &Po);
     if (st != PW_OK)
         return st;
+    double P_u = P_Pa / Ps - Po;
+    if (!(P_u > 0.0))
+        return PW_EDOM;
     double lg = c->log == PW_LN ? log(P_u) : log10(P_u);
     double den = c->A - lg;
     if (!(den != 0.0) || !isfinite(den))
@@ -126,7 +149,11 @@ pw_status pw_tsat(const pw_component *c, double P_Pa, double *T_K)
     double q = c->B / den; /* = T_u + C, must be > 0 */
     if (!(q > 0.0) || !isfinite(q))
         return PW_EDOM;
-    return pw_units_to_si(PW_QTY_TEMPERATURE, q - c->C, c->T_unit, T_K);
+    double T = (q - c->C + To) * Ts;
+    if (!isfinite(T) || T <= 0.0)
+        return PW_EDOM;
+    *T_K = T;
+    return PW_OK;
 }
 
 double pw_component_range_excess_K(const pw_component *c, double T_K)

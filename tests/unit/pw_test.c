@@ -53,6 +53,7 @@ pw_component pw_test_antoine(const char *name, double A, double B, double C, pw_
     c.T_min_K = T_min_K;
     c.T_max_K = T_max_K;
     c.V_L_cm3mol = NAN;
+    pw_component_prepare(&c);
     return c;
 }
 
