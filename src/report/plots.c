@@ -365,6 +365,11 @@ pw_status pw_plot_band(pw_sbuf *b, const pw_plot_band_in *in)
         draw_set(b, &f, &in->central, &mid, true, "pw-curve pw-central");
         pw_legend_add(&lg, "best fit", &mid, true);
     }
+    pw_style ln = st_line(C_BRICK, 1.8, "7 3");
+    if (in->line.n) {
+        draw_set(b, &f, &in->line, &ln, true, "pw-curve pw-band-line");
+        pw_legend_add(&lg, in->line_label ? in->line_label : "construction", &ln, true);
+    }
     pw_style mk = st_mark(C_BRICK, PW_MARK_STAR, true, 10.0);
     if (in->marks.n) {
         draw_set(b, &f, &in->marks, &mk, false, "pw-points pw-marks");
