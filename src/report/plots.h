@@ -82,6 +82,7 @@ typedef struct pw_plot_band_in {
     const char *id, *title, *xlabel, *ylabel;
     const pw_xyset *curves;       /* sampled curves (e.g. from parameter draws) */
     size_t n_curves;
+    const char *curves_label;     /* legend text of the sampled curves; NULL = "N sampled curves" */
     pw_xyset central;             /* the best-fit curve drawn on top; n = 0 for none */
     double x_lo, x_hi, y_lo, y_hi;/* window; NAN = from the data */
     pw_xyset marks;               /* points to mark (e.g. pinch points); n = 0 for none */

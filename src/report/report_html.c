@@ -320,7 +320,10 @@ static void consistency_section(pw_sbuf *b, const pw_report_curves *c)
 /* "low to high", or an en dash when the interval is missing. */
 static void interval_cell(pw_sbuf *b, const double ci[2], int digits)
 {
-    if (isfinite(ci[0]) && isfinite(ci[1]))
+    if (isfinite(ci[0]) && isfinite(ci[1]) && digits < 0) /* -digits decimals */
+        pw_sbuf_printf(b, "<td class=\"num\">%.*f \xe2\x80\x93 %.*f</td>", -digits, ci[0],
+                       -digits, ci[1]);
+    else if (isfinite(ci[0]) && isfinite(ci[1]))
         pw_sbuf_printf(b, "<td class=\"num\">%.*g \xe2\x80\x93 %.*g</td>", digits, ci[0], digits,
                        ci[1]);
     else
@@ -369,7 +372,7 @@ static void az_table(pw_sbuf *b, const pw_report_az *az, size_t n, const char *w
         pw_sbuf_puts(b, "</td>");
         if (unc) {
             interval_cell(b, unc[i].out[PW_UNC_AZ_X1].ci, 4);
-            interval_cell(b, unc[i].out[PW_UNC_AZ_TP].ci, 5);
+            interval_cell(b, unc[i].out[PW_UNC_AZ_TP].ci, tp_isP ? 5 : -2); /* T: 0.01 K */
             pw_sbuf_puts(b, "<td>");
             esc(b, interval_source(&unc[i].out[PW_UNC_AZ_X1]));
             pw_sbuf_puts(b, "</td>");

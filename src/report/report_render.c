@@ -100,8 +100,21 @@ static pw_status band_plot(struct pw_report *rep, const pw_report_curves *c)
     snprintf(ll, sizeof ll, "operating lines at R_min = %.3g", R);
     snprintf(ml, sizeof ml, "%s pinch x = %.3f",
              c->col.pinch.kind == PW_PINCH_TANGENT ? "tangent" : "feed", c->col.pinch.x);
+    /* the widest spread of the draws about the best fit, so a band thinner than a line is
+     * still stated */
+    double spread = 0.0;
+    for (size_t j = 0; j < PW_REPORT_BAND_NX; j++)
+        for (size_t k = 0; k < c->band_n; k++) {
+            double d = fabs(c->band_y[k * PW_REPORT_BAND_NX + j] - c->band_best[j]);
+            if (isfinite(d) && d > spread)
+                spread = d;
+        }
+    char cl[PW_SVG_LABEL_MAX];
+    snprintf(cl, sizeof cl, "%zu sampled curves (up to %.2g from the best fit in y)", c->band_n,
+             spread);
     pw_plot_band_in bi;
     memset(&bi, 0, sizeof bi);
+    bi.curves_label = cl;
     bi.id = "plot-pinch-band";
     bi.title = title;
     bi.xlabel = xl;
