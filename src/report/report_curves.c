@@ -260,6 +260,8 @@ static void consistency(pw_report_curves *c)
 pw_status pw_report_curves_compute(pw_report_curves *c, const pw_report_input *in)
 {
     memset(c, 0, sizeof *c);
+    /* nothing of the uncertainty content exists until pw_report_unc_compute makes it */
+    c->unc_col_status = c->unc_az_status = c->unc_col_az_status = c->band_status = PW_EINVAL;
     c->fit = in->fit;
     c->isothermal = in->fit->kind == PW_DATA_ISOTHERMAL;
     for (size_t i = 0; i < PW_REPORT_GRID; i++)
