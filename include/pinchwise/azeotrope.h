@@ -107,6 +107,10 @@ typedef struct pw_az_scan {
     pw_az_boundary *boundaries;
     double x1_shift;             /* max minus min x1 of the azeotrope over the points that have
                                   * exactly one; NAN when fewer than two such points */
+    pw_progress_fn progress;     /* set by the caller (NULL after pw_az_scan_alloc): called after
+                                  * each point with (points done, n_points); a status other than
+                                  * PW_OK stops the scan with it */
+    void *progress_ctx;
 } pw_az_scan;
 
 /* Allocates a scan of n_points (>= 2) with room for 2*n_points boundaries; NULL on failure. */

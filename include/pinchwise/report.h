@@ -17,6 +17,7 @@
 #include <pinchwise/column.h>
 #include <pinchwise/fit.h>
 #include <pinchwise/status.h>
+#include <pinchwise/uncertainty.h>
 #include <stdbool.h>
 #include <stddef.h>
 
@@ -31,9 +32,16 @@ typedef struct pw_report_input {
     double column_P_Pa;            /* column pressure, Pa (required with column) */
     double operating_factor;       /* R / R_min of the drawn operating line; 0 = 1.3 */
     const char *date_utc;          /* ISO 8601 date shown as "made on"; NULL = now */
+    bool uncertainty;              /* add the fit's parameter uncertainty: 95 % intervals of the
+                                      azeotropes, and with a column the "how sure" table (R_min,
+                                      boil-up, stages at the operating factor, feasibility share,
+                                      where to measure next) and the band of sampled equilibrium
+                                      curves near the limiting pinch (one more plot) */
+    pw_unc_options unc;            /* draws, seed, progress callback (with uncertainty) */
+    size_t band_curves;            /* sampled curves in the band plot; 0 = 40 */
 } pw_report_input;
 
-/* Plain defaults: everything NULL/0. */
+/* Plain defaults: everything NULL/0, unc = pw_unc_default_options(). */
 pw_report_input pw_report_default_input(void);
 
 typedef struct pw_report pw_report;

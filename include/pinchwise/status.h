@@ -54,6 +54,11 @@ typedef struct pw_error {
     char msg[PW_ERROR_MSG_MAX]; /* "what is wrong (what was expected)", no file/line prefix */
 } pw_error;
 
+/* Progress of long work, reported by the library through a callback the caller installs (the
+ * library itself never prints): done of total units are finished, 1 <= done <= total. Return
+ * PW_OK to go on; any other status stops the work, which then returns that status. */
+typedef pw_status (*pw_progress_fn)(void *ctx, size_t done, size_t total);
+
 /* Clears an error record (status PW_OK, empty strings). Accepts NULL. */
 void pw_error_clear(pw_error *err);
 

@@ -68,6 +68,9 @@ typedef struct pw_unc_options {
     double disagree_frac;  /* disagreement rule (see above); default 0.25 */
     size_t max_redraws;    /* draws outside the model's domain are redrawn; at most this many
                               redraws in total (default 10 * samples + 100), then PW_EDOM */
+    pw_progress_fn progress; /* called after each draw with (draws done, samples); NULL = none.
+                                A status other than PW_OK stops pw_unc_propagate with it. */
+    void *progress_ctx;
 } pw_unc_options;
 
 pw_unc_options pw_unc_default_options(void);
@@ -196,6 +199,13 @@ pw_unc_azeo_ctx pw_unc_azeo_ctx_make(pw_az_mode mode, double fixed, const pw_az_
  * of that kind (the azeotrope has vanished). ctx is a pw_unc_azeo_ctx. */
 pw_status pw_unc_azeo_fn(void *ctx, const pw_system *sys, double *out);
 
+/* Propagates every azeotrope of r (found at the estimate of fit) into res[0 .. r->n - 1]
+ * (outputs PW_UNC_AZ_X1, PW_UNC_AZ_TP). On failure *failed (may be NULL) is the index of the
+ * azeotrope that failed; the results before it are filled. Errors as pw_unc_propagate. */
+pw_status pw_unc_azeo_assess(const pw_fit_result *fit, const pw_az_result *r,
+                             const pw_unc_options *opt, pw_unc_result res[PW_AZ_MAX],
+                             size_t *failed);
+
 /* ---- Model risk ---------------------------------------------------------------------------- */
 
 /* AICc classes (Burnham & Anderson 2002): delta < 2 indistinguishable, < 10 considered. */
@@ -256,6 +266,25 @@ pw_status pw_unc_plan_measurements(const pw_fit_result *fit, const double grad[P
  * the output (e.g. "R_min"). Returns buf. */
 const char *pw_unc_plan_words(const pw_unc_plan *plan, const char *quantity, char *buf,
                               size_t len);
+
+/* ---- Column results with their measurement plan ------------------------------------------ */
+
+/* The column propagation with its measurement plan, in one call (as the reflux command and the
+ * report use it). */
+typedef struct pw_unc_column_assessment {
+    pw_unc_result res;         /* outputs PW_UNC_RMIN, PW_UNC_SMIN, PW_UNC_STAGES */
+    pw_status plan_status;     /* PW_OK when plan holds a recommendation for R_min; else why not
+                                  (PW_EINVAL when R_min has no linearised gradient) */
+    pw_unc_plan plan;
+} pw_unc_column_assessment;
+
+/* Propagates the fit's covariance into the column results of col (pw_unc_column_fn), then, when
+ * R_min has a linearised gradient, plans plan_bins bins of plan_points hypothetical points each
+ * (pw_unc_plan_measurements). col must stay valid during the call. Errors as pw_unc_propagate;
+ * a failed plan is not an error (plan_status). */
+pw_status pw_unc_column_assess(const pw_fit_result *fit, const pw_unc_column_ctx *col,
+                               const pw_unc_options *opt, size_t plan_bins, size_t plan_points,
+                               pw_unc_column_assessment *out);
 
 #ifdef __cplusplus
 }

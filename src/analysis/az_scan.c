@@ -139,6 +139,8 @@ pw_status pw_azeotrope_scan(const pw_system *s, pw_az_mode mode, double from, do
     scan->at[n - 1] = to;
     for (size_t k = 0; k < n; k++) {
         pw_status st = pw_azeotrope_find(s, mode, scan->at[k], &o, &scan->points[k]);
+        if (st == PW_OK && scan->progress)
+            st = scan->progress(scan->progress_ctx, k + 1, n);
         if (st != PW_OK)
             return st;
     }

@@ -39,3 +39,24 @@ pw_status pw_unc_azeo_fn(void *ctx, const pw_system *sys, double *out)
     out[PW_UNC_AZ_TP] = c->mode == PW_AZ_ISOBARIC ? r.az[best].T_K : r.az[best].P_Pa / 1e3;
     return PW_OK;
 }
+
+pw_status pw_unc_azeo_assess(const pw_fit_result *fit, const pw_az_result *r,
+                             const pw_unc_options *opt, pw_unc_result res[PW_AZ_MAX],
+                             size_t *failed)
+{
+    if (!fit || !r || !res || r->n > PW_AZ_MAX)
+        return PW_EINVAL;
+    for (size_t i = 0; i < r->n; i++) {
+        pw_unc_azeo_ctx c = pw_unc_azeo_ctx_make(r->mode, r->fixed, NULL, &r->az[i]);
+        pw_unc_problem pb;
+        pw_status st = pw_unc_problem_from_fit(&pb, fit, pw_unc_azeo_fn, &c, PW_UNC_AZ_NOUT);
+        if (st == PW_OK)
+            st = pw_unc_propagate(&pb, opt, &res[i]);
+        if (st != PW_OK) {
+            if (failed)
+                *failed = i;
+            return st;
+        }
+    }
+    return PW_OK;
+}

@@ -80,3 +80,24 @@ const char *pw_unc_risk_words(const pw_unc_result *r, char *buf, size_t len)
                  r->n_infeasible, decided, failed);
     return buf;
 }
+
+pw_status pw_unc_column_assess(const pw_fit_result *fit, const pw_unc_column_ctx *col,
+                               const pw_unc_options *opt, size_t plan_bins, size_t plan_points,
+                               pw_unc_column_assessment *out)
+{
+    if (!fit || !col || !out)
+        return PW_EINVAL;
+    memset(out, 0, sizeof *out);
+    out->plan_status = PW_EINVAL;
+    pw_unc_column_ctx c = *col;
+    pw_unc_problem pb;
+    pw_status st = pw_unc_problem_from_fit(&pb, fit, pw_unc_column_fn, &c, PW_UNC_COLUMN_NOUT);
+    if (st == PW_OK)
+        st = pw_unc_propagate(&pb, opt, &out->res);
+    if (st != PW_OK)
+        return st;
+    if (out->res.out[PW_UNC_RMIN].lin_ok)
+        out->plan_status = pw_unc_plan_measurements(fit, out->res.out[PW_UNC_RMIN].grad, plan_bins,
+                                                    plan_points, &out->plan);
+    return PW_OK;
+}

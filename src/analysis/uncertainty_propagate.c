@@ -137,6 +137,8 @@ static pw_status sample(const pw_unc_problem *pb, const pw_unc_options *o, pw_un
         } else {
             res->n_failed++;
         }
+        if (o->progress && (st = o->progress(o->progress_ctx, d + 1, n)) != PW_OK)
+            break;
     }
     gsl_rng_free(rng);
     if (st != PW_OK) {

@@ -55,12 +55,19 @@ int pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_
                        pw_error *err)
 {
     u->n = r->n;
+    char what[64];
+    pw_cli_progress_ctx pc = {"azeotrope", what};
+    pw_unc_options o = u->opt;
     for (size_t i = 0; i < r->n; i++) {
-        pw_unc_azeo_ctx c = pw_unc_azeo_ctx_make(r->mode, r->fixed, NULL, &r->az[i]);
-        pw_unc_problem pb;
-        pw_status st = pw_unc_problem_from_fit(&pb, fit, pw_unc_azeo_fn, &c, PW_UNC_AZ_NOUT);
-        if (st == PW_OK)
-            st = pw_unc_propagate(&pb, &u->opt, &u->res[i]);
+        pw_az_result one = *r;
+        one.n = 1;
+        one.az[0] = r->az[i];
+        snprintf(what, sizeof what, "parameter sets sampled (azeotrope %zu of %zu)", i + 1, r->n);
+        if (pw_cli_progress_wanted()) {
+            o.progress = pw_cli_progress_tenths;
+            o.progress_ctx = &pc;
+        }
+        pw_status st = pw_unc_azeo_assess(fit, &one, &o, &u->res[i], NULL);
         if (st != PW_OK)
             return pw_status_exit_code(pw_error_set(
                 err, st, fit->dataset_path[0] ? fit->dataset_path : NULL, 0,

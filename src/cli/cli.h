@@ -66,4 +66,23 @@ json_t *pw_cli_json_num(double v);
  * takes_value. Returns false with *missing set when the value is absent. */
 bool pw_cli_opt(int argc, char **argv, int *i, const char *name, const char **value, bool *missing);
 
+/* True when stderr is a terminal: only then is progress shown. */
+bool pw_cli_progress_wanted(void);
+
+/* Progress of long work on stderr, only when stderr is a terminal (silent otherwise): rewrites
+ * the line "pinchwise CMD: DONE/TOTAL WHAT" in place and ends it when done == total. */
+void pw_cli_progress(const char *cmd, const char *what, size_t done, size_t total);
+
+/* The same, but each call ends its line (one line per finished unit, e.g. per model). */
+void pw_cli_progress_line(const char *cmd, const char *what, size_t done, size_t total);
+
+/* Context of pw_cli_progress_tenths. */
+typedef struct pw_cli_progress_ctx {
+    const char *cmd, *what;
+} pw_cli_progress_ctx;
+
+/* A pw_progress_fn for library calls (ctx is a pw_cli_progress_ctx): pw_cli_progress at the
+ * first unit, at every tenth of total and at the end. Always PW_OK. */
+pw_status pw_cli_progress_tenths(void *ctx, size_t done, size_t total);
+
 #endif

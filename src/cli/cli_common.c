@@ -139,3 +139,39 @@ pw_status pw_cli_override_components(const char *cmd, pw_system *sys, const char
     pw_complib_free(&lib);
     return PW_OK;
 }
+
+bool pw_cli_progress_wanted(void)
+{
+    return isatty(STDERR_FILENO) != 0;
+}
+
+static void progress_print(const char *cmd, const char *what, size_t done, size_t total,
+                           bool end_line)
+{
+    if (!pw_cli_progress_wanted())
+        return;
+    /* \r and the erase-to-end sequence rewrite the line in place on a terminal */
+    fprintf(stderr, "\rpinchwise %s: %zu/%zu %s\x1b[K%s", cmd, done, total, what ? what : "",
+            end_line ? "\n" : "");
+    fflush(stderr);
+}
+
+void pw_cli_progress(const char *cmd, const char *what, size_t done, size_t total)
+{
+    progress_print(cmd, what, done, total, done >= total);
+}
+
+void pw_cli_progress_line(const char *cmd, const char *what, size_t done, size_t total)
+{
+    progress_print(cmd, what, done, total, true);
+}
+
+pw_status pw_cli_progress_tenths(void *ctx, size_t done, size_t total)
+{
+    const pw_cli_progress_ctx *c = ctx;
+    if (!c || total == 0)
+        return PW_OK;
+    if (done == 1 || done >= total || (10 * done) / total != (10 * (done - 1)) / total)
+        pw_cli_progress(c->cmd, c->what, done, total);
+    return PW_OK;
+}

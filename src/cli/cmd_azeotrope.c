@@ -132,6 +132,14 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
     return 0;
 }
 
+/* Every point of the scan: the scan's progress callback. */
+static pw_status scan_progress(void *ctx, size_t done, size_t total)
+{
+    (void)ctx;
+    pw_cli_progress(CMD, "scan points", done, total);
+    return PW_OK;
+}
+
 static json_t *result_json(const pw_az_result *r)
 {
     json_t *list = json_array();
@@ -274,6 +282,10 @@ int pw_cli_azeotrope(int argc, char **argv)
     }
     if (a.scan) {
         sc = pw_az_scan_alloc(a.n);
+        if (sc && pw_cli_progress_wanted()) {
+            sc->progress = scan_progress;
+            sc->progress_ctx = NULL;
+        }
         st = sc ? pw_azeotrope_scan(&fit.sys, a.mode, a.from, a.to, NULL, sc) : PW_ENOMEM;
         if (st != PW_OK) {
             pw_error_set(&err, st, a.fit_path, 0, "azeotrope scan failed: %s", pw_strerror(st));

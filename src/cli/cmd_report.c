@@ -1,5 +1,6 @@
 /* pinchwise report: one self-contained HTML page of a fit (and a column), optionally the plots
  * as separate SVG files and the curves behind them as CSV. */
+#include "azeo_uncert.h"
 #include "cli.h"
 
 #include <math.h>
@@ -20,6 +21,10 @@ static void usage(FILE *f)
             "                          add the column section: x-y construction at pressure P\n"
             "                          (with its unit, e.g. 1atm), mole fractions of component 1\n"
             "  --operating-factor F    R / R_min of the drawn operating line (default 1.3)\n"
+            "  --uncertainty           add the fit's parameter uncertainty: azeotrope intervals,\n"
+            "                          and with the column a \"how sure\" table and a band of\n"
+            "                          sampled equilibrium curves near the pinch\n"
+            "  --samples N             parameter sets drawn (default 400); --seed N (default 1)\n"
             "  --svg DIR               also write each plot as DIR/<name>.svg\n"
             "  --csv DIR               also write the curves behind the plots as DIR/<name>.csv\n"
             "  --components FILE       vapor-pressure rows that replace the fit file's\n"
@@ -33,6 +38,7 @@ typedef struct report_args {
     bool have_P, have_xd, have_xb, have_zf;
     double P_Pa, factor;
     pw_column_spec spec;
+    pw_azeo_uncert unc;   /* --uncertainty, --samples, --seed (parsed as the azeotrope command) */
 } report_args;
 
 static int fraction(const char *opt, const char *v, double *out, pw_error *err)
@@ -57,10 +63,14 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
         int rc = 0;
         if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
             return -1;
+        int urc;
         if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
             a->json = true;
         } else if (pw_cli_opt(argc, argv, &i, "--force", NULL, NULL)) {
             a->force = true;
+        } else if ((urc = pw_azeo_uncert_opt(argc, argv, &i, &a->unc, err)) != 0) {
+            if (urc > 1)
+                return urc;
         } else if (!strncmp(argv[i], "--", 2)) {
             const char *opt = argv[i];
             static const char *const known[] = {"--out", "--pressure", "--xd", "--xb", "--zf", "--q",
@@ -194,6 +204,15 @@ int pw_cli_report(int argc, char **argv)
         in.column_P_Pa = a.P_Pa;
         in.operating_factor = a.factor;
     }
+    pw_cli_progress_ctx pc = {"report", "parameter sets sampled"};
+    if (a.unc.on) {
+        in.uncertainty = true;
+        in.unc = a.unc.opt;
+        if (pw_cli_progress_wanted()) {
+            in.unc.progress = pw_cli_progress_tenths;
+            in.unc.progress_ctx = &pc;
+        }
+    }
     pw_report *rep = NULL;
     progress("computing curves, tables and plots");
     st = pw_report_build(&in, &rep, &err);
@@ -213,7 +232,10 @@ int pw_cli_report(int argc, char **argv)
     if (st != PW_OK)
         return pw_cli_fail("report", &err);
     if (a.json)
-        return pw_cli_print_json(json_pack("{s:s,s:I}", "report", a.out, "plots", (json_int_t)plots));
+        return pw_cli_print_json(a.unc.on ? json_pack("{s:s,s:I,s:b}", "report", a.out, "plots",
+                                                      (json_int_t)plots, "uncertainty", 1)
+                                          : json_pack("{s:s,s:I}", "report", a.out, "plots",
+                                                      (json_int_t)plots));
     progress("done");
     if (!isatty(STDERR_FILENO))
         return 0;

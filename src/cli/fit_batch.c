@@ -35,7 +35,6 @@ typedef struct batch {
     const char *out_dir;
     const pw_fit_cli_opts *co;
     size_t done;
-    bool progress;
 } batch;
 
 static int cmp_names(const void *a, const void *b)
@@ -68,8 +67,7 @@ static void *worker(void *arg)
         }
         pthread_mutex_lock(&b->lock);
         b->done++;
-        if (b->progress)
-            fprintf(stderr, "\rpinchwise fit: %zu/%zu datasets", b->done, b->n);
+        pw_cli_progress("fit", "datasets", b->done, b->n);
         pthread_mutex_unlock(&b->lock);
     }
 }
@@ -129,8 +127,7 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
     }
     pw_fit_cli_opts wco = *co;
     wco.quiet = true;
-    batch b = {.jobs = jobs, .n = n, .model = model, .out_dir = out_dir, .co = &wco,
-               .progress = isatty(STDERR_FILENO) != 0};
+    batch b = {.jobs = jobs, .n = n, .model = model, .out_dir = out_dir, .co = &wco};
     pthread_mutex_init(&b.lock, NULL);
     pthread_t th[BATCH_THREADS];
     size_t started = 0;
@@ -142,8 +139,6 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
     for (size_t t = 0; t < started; t++)
         pthread_join(th[t], NULL);
     pthread_mutex_destroy(&b.lock);
-    if (b.progress)
-        fputc('\n', stderr);
 
     size_t ok = 0, conv = 0;
     for (size_t i = 0; i < n; i++) {

@@ -281,6 +281,10 @@ int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_o
         res[i].rc = pw_fit_one(input, models[i], NULL, out_dir, co, &res[i].r, res[i].path,
                                sizeof res[i].path, &res[i].err);
         ok += res[i].rc == 0;
+        char what[64];
+        snprintf(what, sizeof what, "models (%s %s)", models[i]->name,
+                 res[i].rc == 0 ? "fitted" : "failed");
+        pw_cli_progress_line("fit", what, i + 1, n);
     }
     for (size_t i = 0; i < n; i++)
         if (res[i].rc == 0) {

@@ -102,18 +102,23 @@ int pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_r
     u->col.opt = a->opt;
     u->plan_status = PW_EINVAL;
     if (u->propagate) {
-        pw_unc_problem pb;
-        pw_status st = pw_unc_problem_from_fit(&pb, &run->fit, pw_unc_column_fn, &u->col,
-                                               PW_UNC_COLUMN_NOUT);
-        if (st == PW_OK)
-            st = pw_unc_propagate(&pb, &u->opt, &u->res);
+        pw_cli_progress_ctx pc = {"reflux", "parameter sets sampled"};
+        if (pw_cli_progress_wanted()) {
+            u->opt.progress = pw_cli_progress_tenths;
+            u->opt.progress_ctx = &pc;
+        }
+        pw_unc_column_assessment as;
+        pw_status st = pw_unc_column_assess(&run->fit, &u->col, &u->opt, PLAN_BINS, PLAN_POINTS,
+                                            &as);
+        u->opt.progress = NULL;
+        u->opt.progress_ctx = NULL;
         if (st != PW_OK)
             return pw_status_exit_code(pw_error_set(
                 err, st, a->fit_path, 0, "uncertainty propagation failed: %s%s", pw_strerror(st),
                 st == PW_EINVAL ? " (is the fit's covariance available?)" : ""));
-        if (u->res.out[PW_UNC_RMIN].lin_ok)
-            u->plan_status = pw_unc_plan_measurements(&run->fit, u->res.out[PW_UNC_RMIN].grad,
-                                                      PLAN_BINS, PLAN_POINTS, &u->plan);
+        u->res = as.res;
+        u->plan_status = as.plan_status;
+        u->plan = as.plan;
     }
     return u->n_compare ? compare_models(a, run, u, err) : 0;
 }

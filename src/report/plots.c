@@ -350,20 +350,28 @@ pw_status pw_plot_band(pw_sbuf *b, const pw_plot_band_in *in)
                                  yhi, 8, 6);
     if (st != PW_OK)
         return st;
+    /* the legend goes below the plot: inside, it would cover the curves it explains */
+    pw_frame_reserve_legend(&f, (in->n_curves ? 1u : 0u) + (in->central.n ? 1u : 0u) +
+                                    (in->line.n ? 1u : 0u) + (in->marks.n ? 1u : 0u));
     pw_svg_begin(b, &f, in->title, in->xlabel, in->ylabel);
     pw_legend lg = {0};
-    pw_style thin = {C_SKY, 1.0, NULL, PW_MARK_NONE, false, 0.0, 0.45};
+    pw_style thin = {C_SKY, 1.2, NULL, PW_MARK_NONE, false, 0.0, 0.6};
     for (size_t k = 0; k < in->n_curves; k++)
         draw_set(b, &f, &in->curves[k], &thin, true, "pw-curve pw-sample");
     if (in->n_curves) {
         char lab[PW_SVG_LABEL_MAX];
         snprintf(lab, sizeof lab, "%zu sampled curves", in->n_curves);
-        pw_legend_add(&lg, lab, &thin, true);
+        pw_legend_add(&lg, in->curves_label ? in->curves_label : lab, &thin, true);
     }
-    pw_style mid = st_line(C_INK, 2.4, NULL);
+    pw_style mid = st_line(C_INK, 1.6, NULL);
     if (in->central.n) {
         draw_set(b, &f, &in->central, &mid, true, "pw-curve pw-central");
         pw_legend_add(&lg, "best fit", &mid, true);
+    }
+    pw_style ln = st_line(C_BRICK, 1.8, "7 3");
+    if (in->line.n) {
+        draw_set(b, &f, &in->line, &ln, true, "pw-curve pw-band-line");
+        pw_legend_add(&lg, in->line_label ? in->line_label : "construction", &ln, true);
     }
     pw_style mk = st_mark(C_BRICK, PW_MARK_STAR, true, 10.0);
     if (in->marks.n) {
@@ -371,7 +379,7 @@ pw_status pw_plot_band(pw_sbuf *b, const pw_plot_band_in *in)
         pw_legend_add(&lg, in->mark_label ? in->mark_label : "marked points", &mk, false);
     }
     pw_svg_end_data(b);
-    pw_svg_legend(b, &f, &lg, PW_CORNER_BR);
+    pw_svg_legend(b, &f, &lg, PW_LEGEND_BELOW);
     pw_svg_end(b, &f);
     return pw_sbuf_status(b);
 }

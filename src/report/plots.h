@@ -82,10 +82,14 @@ typedef struct pw_plot_band_in {
     const char *id, *title, *xlabel, *ylabel;
     const pw_xyset *curves;       /* sampled curves (e.g. from parameter draws) */
     size_t n_curves;
+    const char *curves_label;     /* legend text of the sampled curves; NULL = "N sampled curves" */
     pw_xyset central;             /* the best-fit curve drawn on top; n = 0 for none */
     double x_lo, x_hi, y_lo, y_hi;/* window; NAN = from the data */
     pw_xyset marks;               /* points to mark (e.g. pinch points); n = 0 for none */
     const char *mark_label;
+    pw_xyset line;                /* a straight-line construction (e.g. the operating lines at
+                                     R_min), dashed, clipped to the window; n = 0 for none */
+    const char *line_label;
 } pw_plot_band_in;
 
 /* A band of sampled curves (thin, translucent) with the central curve on top, in a window

@@ -16,6 +16,7 @@ pw_report_input pw_report_default_input(void)
     pw_report_input in;
     memset(&in, 0, sizeof in);
     in.column_P_Pa = PW_NAN;
+    in.unc = pw_unc_default_options();
     return in;
 }
 
@@ -77,6 +78,8 @@ pw_status pw_report_build(const pw_report_input *in, pw_report **out, pw_error *
             local.date_utc = "unknown";
     }
     st = pw_report_curves_compute(c, &local);
+    if (st == PW_OK && local.uncertainty)
+        st = pw_report_unc_compute(c, &local);
     if (st == PW_OK)
         st = pw_report_render_plots(rep, c);
     if (st == PW_OK)

@@ -67,12 +67,15 @@ static size_t find_azeotropes(const pw_system *s, bool isothermal, double fixed,
 /* The azeotropes: from the azeotrope module (Brent on ln alpha12, see azeotrope.h); should it fail,
  * from the bisection above on the plotted grid, and *from_module says which. */
 static size_t azeotropes(const pw_system *s, bool isothermal, double fixed, const double *x,
-                         const double *ymx, pw_report_az *out, size_t max, bool *from_module)
+                         const double *ymx, pw_report_az *out, size_t max, bool *from_module,
+                         pw_az_result *kept)
 {
     pw_az_result res;
     pw_status st = pw_azeotrope_find(s, isothermal ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC, fixed, NULL,
                                      &res);
     *from_module = st == PW_OK;
+    if (st == PW_OK)
+        *kept = res;
     if (st != PW_OK)
         return find_azeotropes(s, isothermal, fixed, x, ymx, PW_REPORT_GRID, out, max);
     size_t k = 0;
@@ -124,7 +127,8 @@ static void data_curves(pw_report_curves *c)
         }
     }
     c->n_az = azeotropes(s, c->isothermal, fixed, c->x, ymx, c->az, PW_REPORT_MAX_AZ,
-                         &c->az_from_module);
+                         &c->az_from_module, &c->az_res);
+    c->az_res_ok = c->az_from_module;
 }
 
 /* Rectifying and stripping lines at R meet on the q-line at (xi, yi). */
@@ -187,7 +191,8 @@ static pw_status column(pw_report_curves *c, const pw_report_input *in)
     }
     bool from_module = false;
     c->n_col_az = azeotropes(s, false, c->P_col_Pa, c->x, ymx, c->col_az, PW_REPORT_MAX_AZ,
-                             &from_module);
+                             &from_module, &c->col_az_res);
+    c->col_az_res_ok = from_module;
     c->az_from_module = c->az_from_module && from_module;
     pw_eq_point e;
     c->T_top_K = pw_bubble_T(s, c->P_col_Pa, c->spec.xd, &e) == PW_OK ? e.T_K : PW_NAN;
@@ -255,6 +260,8 @@ static void consistency(pw_report_curves *c)
 pw_status pw_report_curves_compute(pw_report_curves *c, const pw_report_input *in)
 {
     memset(c, 0, sizeof *c);
+    /* nothing of the uncertainty content exists until pw_report_unc_compute makes it */
+    c->unc_col_status = c->unc_az_status = c->unc_col_az_status = c->band_status = PW_EINVAL;
     c->fit = in->fit;
     c->isothermal = in->fit->kind == PW_DATA_ISOTHERMAL;
     for (size_t i = 0; i < PW_REPORT_GRID; i++)
@@ -282,4 +289,6 @@ void pw_report_curves_free(pw_report_curves *c)
     if (c->cons_ran)
         pw_consistency_result_free(&c->cons);
     c->cons_ran = false;
+    free(c->band_y);
+    c->band_y = NULL;
 }

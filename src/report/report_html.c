@@ -317,7 +317,33 @@ static void consistency_section(pw_sbuf *b, const pw_report_curves *c)
     pw_sbuf_puts(b, "</section>\n");
 }
 
-static void az_table(pw_sbuf *b, const pw_report_az *az, size_t n, const char *where)
+/* "low to high", or an en dash when the interval is missing. */
+static void interval_cell(pw_sbuf *b, const double ci[2], int digits)
+{
+    if (isfinite(ci[0]) && isfinite(ci[1]) && digits < 0) /* -digits decimals */
+        pw_sbuf_printf(b, "<td class=\"num\">%.*f \xe2\x80\x93 %.*f</td>", -digits, ci[0],
+                       -digits, ci[1]);
+    else if (isfinite(ci[0]) && isfinite(ci[1]))
+        pw_sbuf_printf(b, "<td class=\"num\">%.*g \xe2\x80\x93 %.*g</td>", digits, ci[0], digits,
+                       ci[1]);
+    else
+        pw_sbuf_puts(b, "<td class=\"num\">\xe2\x80\x93</td>");
+}
+
+/* Which interval is quoted, and why (the rule of include/pinchwise/uncertainty.h). */
+static const char *interval_source(const pw_unc_output *o)
+{
+    if (!isfinite(o->ci[0]))
+        return "none (too few usable draws)";
+    if (!o->ci_sampled)
+        return "linearised (the two agree)";
+    return o->lin_ok ? "sampled (the linearised one differs by more than 25 % of its width)"
+                     : "sampled (no linearised interval)";
+}
+
+/* unc: intervals of each row (NULL: none); tp_isP: the second interval is a pressure. */
+static void az_table(pw_sbuf *b, const pw_report_az *az, size_t n, const char *where,
+                     const pw_unc_result *unc, bool tp_isP)
 {
     pw_sbuf_puts(b, "<h3>");
     esc(b, where);
@@ -327,14 +353,31 @@ static void az_table(pw_sbuf *b, const pw_report_az *az, size_t n, const char *w
         return;
     }
     pw_sbuf_puts(b, "<table><tr><th>x\xe2\x82\x81 = y\xe2\x82\x81</th><th>T / K</th><th>P / kPa</th>"
-                    "<th>Kind</th></tr>\n");
+                    "<th>Kind</th>");
+    if (unc)
+        pw_sbuf_printf(b, "<th>x\xe2\x82\x81, 95 %% interval</th><th>%s, 95 %% interval</th>"
+                          "<th>Interval quoted</th>",
+                       tp_isP ? "P / kPa" : "T / K");
+    pw_sbuf_puts(b, "</tr>\n");
     for (size_t i = 0; i < n; i++) {
         pw_sbuf_puts(b, "<tr>");
         num(b, az[i].x1, 4);
         num(b, az[i].T_K, 5);
         num(b, az[i].P_Pa / 1000.0, 5);
-        pw_sbuf_printf(b, "<td>%s%s</td></tr>\n", az[i].min_boiling ? "minimum-boiling" : "maximum-boiling",
+        pw_sbuf_printf(b, "<td>%s%s", az[i].min_boiling ? "minimum-boiling" : "maximum-boiling",
                        az[i].tangential ? " (near-tangential: a double root, sensitive to the model)" : "");
+        if (unc && unc[i].n_infeasible && isfinite(unc[i].p_feasible))
+            pw_sbuf_printf(b, "; absent in %.0f %% of the parameter sets drawn",
+                           100.0 * (1.0 - unc[i].p_feasible));
+        pw_sbuf_puts(b, "</td>");
+        if (unc) {
+            interval_cell(b, unc[i].out[PW_UNC_AZ_X1].ci, 4);
+            interval_cell(b, unc[i].out[PW_UNC_AZ_TP].ci, tp_isP ? 5 : -2); /* T: 0.01 K */
+            pw_sbuf_puts(b, "<td>");
+            esc(b, interval_source(&unc[i].out[PW_UNC_AZ_X1]));
+            pw_sbuf_puts(b, "</td>");
+        }
+        pw_sbuf_puts(b, "</tr>\n");
     }
     pw_sbuf_puts(b, "</table>\n");
 }
@@ -345,10 +388,21 @@ static void azeotropes(pw_sbuf *b, const pw_report_curves *c, const char *cond)
     char where[128];
     pw_sbuf_puts(b, "<section id=\"azeotropes\"><h2>Azeotropes of the model</h2>\n");
     snprintf(where, sizeof where, "At the data's condition, %s", cond);
-    az_table(b, c->az, c->n_az, where);
+    bool u1 = c->unc && c->unc_az_status == PW_OK, u2 = c->unc && c->unc_col_az_status == PW_OK;
+    az_table(b, c->az, c->n_az, where, u1 ? c->unc_az : NULL, c->isothermal);
     if (c->column) {
         snprintf(where, sizeof where, "At the column pressure, %.4g kPa", c->P_col_Pa / 1000.0);
-        az_table(b, c->col_az, c->n_col_az, where);
+        az_table(b, c->col_az, c->n_col_az, where, u2 ? c->unc_col_az : NULL, false);
+    }
+    if (c->unc && (c->n_az || (c->column && c->n_col_az))) {
+        if ((c->n_az && !u1) || (c->column && c->n_col_az && !u2))
+            pw_sbuf_printf(b, "<p class=\"verdict-fail\">No interval for some azeotropes: %s.</p>\n",
+                           pw_strerror(c->n_az && !u1 ? c->unc_az_status : c->unc_col_az_status));
+        pw_sbuf_printf(b, "<p class=\"note\">95 %% intervals from the fit's parameter covariance: "
+                          "linearised (delta method) and from %zu parameter sets drawn with seed %lu "
+                          "(percentiles, JCGM 101:2008); see docs/uncertainty.md. They cover the "
+                          "scatter of the fitted data only, not the choice of model.</p>\n",
+                       c->unc_opt.samples, c->unc_opt.seed);
     }
     if (c->az_from_module)
         pw_sbuf_puts(b, "<p class=\"note\">Roots of ln \xce\xb1\xe2\x82\x81\xe2\x82\x82 = 0 at "
@@ -436,6 +490,85 @@ static void column_section(pw_sbuf *b, const pw_report_curves *c)
                     "thinking of real trays.</p></section>\n");
 }
 
+static void unc_row(pw_sbuf *b, const char *label, const pw_unc_output *o)
+{
+    pw_sbuf_puts(b, "<tr><td>");
+    esc(b, label);
+    pw_sbuf_puts(b, "</td>");
+    num(b, o->value, 4);
+    num(b, o->ci[0], 4);
+    num(b, o->ci[1], 4);
+    pw_sbuf_puts(b, "<td>");
+    esc(b, interval_source(o));
+    pw_sbuf_puts(b, "</td>");
+    if (o->lin_ok)
+        interval_cell(b, o->ci_lin, 4);
+    else
+        pw_sbuf_puts(b, "<td class=\"num\">\xe2\x80\x93</td>");
+    if (o->mc_ok)
+        interval_cell(b, o->ci_mc, 4);
+    else
+        pw_sbuf_puts(b, "<td class=\"num\">\xe2\x80\x93</td>");
+    pw_sbuf_puts(b, "</tr>\n");
+}
+
+/* "How sure": the column results under the fit's parameter uncertainty. */
+static void how_sure_section(pw_sbuf *b, const pw_report_curves *c)
+{
+    pw_sbuf_puts(b, "<section id=\"how-sure\"><h2>How sure: the column under the fit's "
+                    "uncertainty</h2>\n");
+    if (c->unc_col_status != PW_OK) {
+        pw_sbuf_puts(b, "<p class=\"verdict-fail\">The uncertainty could not be propagated: ");
+        esc(b, pw_strerror(c->unc_col_status));
+        pw_sbuf_puts(b, c->unc_col_status == PW_EINVAL ? " (is the fit's covariance available?)"
+                                                      : "");
+        pw_sbuf_puts(b, ".</p></section>\n");
+        return;
+    }
+    const pw_unc_result *r = &c->unc_col.res;
+    char words[PW_REASON_MAX * 2], label[64];
+    pw_sbuf_printf(b, "<p>The fitted parameters were drawn %zu times from their covariance (seed "
+                      "%lu) and the column solved again for each set; the linearised interval "
+                      "comes from the gradient of each result (delta method).</p>\n",
+                   r->n_samples, c->unc_opt.seed);
+    if (r->point_status == PW_OK) {
+        pw_sbuf_puts(b, "<table id=\"how-sure-table\"><tr><th>Result</th><th>Value</th>"
+                        "<th>95 % interval, low</th><th>high</th><th>Interval quoted</th>"
+                        "<th>Linearised</th><th>Sampled</th></tr>\n");
+        unc_row(b, "Minimum reflux ratio R_min", &r->out[PW_UNC_RMIN]);
+        unc_row(b, "Minimum boil-up ratio V\xcc\x84/B", &r->out[PW_UNC_SMIN]);
+        snprintf(label, sizeof label, "Stages at %.2g R_min", c->unc_factor);
+        unc_row(b, label, &r->out[PW_UNC_STAGES]);
+        pw_sbuf_puts(b, "</table>\n");
+    }
+    pw_sbuf_puts(b, "<table class=\"kv\">\n");
+    kv(b, "Can the split be made?", pw_unc_risk_words(r, words, sizeof words), false);
+    if (c->unc_col.plan_status == PW_OK)
+        kv(b, "Where to measure next",
+           pw_unc_plan_words(&c->unc_col.plan, "R_min", words, sizeof words), false);
+    else
+        kv(b, "Where to measure next", "no recommendation (R_min has no linearised gradient)",
+           false);
+    if (r->n_redrawn) {
+        snprintf(words, sizeof words, "%zu (outside the model's parameter domain, drawn again)",
+                 r->n_redrawn);
+        kv(b, "Draws rejected", words, false);
+    }
+    pw_sbuf_puts(b, "</table>\n");
+    if (c->band_status != PW_OK && r->point_status == PW_OK)
+        pw_sbuf_printf(b, "<p class=\"note\">The band of curves near the pinch could not be drawn: "
+                          "%s.</p>\n",
+                       pw_strerror(c->band_status));
+    pw_sbuf_puts(b, "<p class=\"note\">Interval rule: the linearised interval is quoted unless it "
+                    "and the sampled one (2.5 and 97.5 % percentiles of the draws, JCGM 101:2008) "
+                    "differ at either end by more than 25 % of the sampled width; then the result "
+                    "is not linear in the parameters over their uncertainty and the sampled one is "
+                    "quoted. These intervals cover the scatter of the fitted data only, not the "
+                    "choice of model, the vapor-pressure constants or constant molal overflow. "
+                    "Operating reflux of 1.2\xe2\x80\x93" "1.5 R_min is common practice.</p>"
+                    "</section>\n");
+}
+
 static void figure(pw_sbuf *b, const pw_report_file *f, const char *caption)
 {
     pw_sbuf_puts(b, "<figure>\n");
@@ -452,6 +585,11 @@ static const char *caption_for(const char *name, bool column)
                         "operating lines at minimum reflux (dashed) and at the operating reflux "
                         "(solid), stage steps, and the limiting pinch (star)."
                       : "Equilibrium curve of the fitted model with the measured points.";
+    if (!strcmp(name, "pinch_band.svg"))
+        return "Equilibrium curves at the column pressure near the limiting pinch for parameter "
+               "sets drawn from the fit's covariance (thin), the best fit (thick), the operating "
+               "lines at minimum reflux of the best fit (dashed) and the pinch (star). Where the "
+               "thin curves cross the dashed line, that parameter set needs more reflux.";
     if (!strcmp(name, "txy.svg") || !strcmp(name, "pxy.svg"))
         return "Bubble (solid) and dew (dashed) curves of the model with the measured liquid "
                "(filled circles) and vapor (open triangles) compositions.";
@@ -510,6 +648,8 @@ pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c
     azeotropes(b, c, cond);
     if (c->column)
         column_section(b, c);
+    if (c->column && c->unc)
+        how_sure_section(b, c);
     cautions(b);
     pw_sbuf_puts(b, "<footer>Made by pinchwise ");
     esc(b, PINCHWISE_VERSION_STRING);

@@ -9,6 +9,7 @@
 #include <pinchwise/consistency.h>
 #include <pinchwise/fit.h>
 #include <pinchwise/report.h>
+#include <pinchwise/uncertainty.h>
 
 /* NAN as a double (the macro is a float, which -Wdouble-promotion flags in ?: ). */
 #define PW_NAN ((double)NAN)
@@ -17,6 +18,9 @@
 #define PW_REPORT_MAX_AZ 4
 #define PW_REPORT_GRID 161
 #define PW_REPORT_MAX_STEPS 120
+#define PW_REPORT_BAND_NX 61
+#define PW_REPORT_BAND_CURVES 40
+#define PW_REPORT_BAND_HALF 0.15
 
 /* One output file held in memory: a plot (svg) or a table of numbers (csv). */
 typedef struct pw_report_file {
@@ -58,6 +62,21 @@ typedef struct pw_report_curves {
     double step_x[2 * PW_REPORT_MAX_STEPS + 2], step_y[2 * PW_REPORT_MAX_STEPS + 2];
     size_t n_step;
     double T_top_K, T_bottom_K;      /* bubble T of xd and xb at the column pressure */
+    pw_az_result az_res, col_az_res; /* the azeotrope module's results behind az / col_az */
+    bool az_res_ok, col_az_res_ok;
+    /* uncertainty (pw_report_input.uncertainty); see report_unc.c */
+    bool unc;
+    pw_unc_options unc_opt;
+    pw_status unc_col_status;        /* of pw_unc_column_assess; PW_EINVAL when not run */
+    pw_unc_column_assessment unc_col;
+    double unc_factor;               /* stages at unc_factor * R_min */
+    pw_status unc_az_status, unc_col_az_status;
+    pw_unc_result unc_az[PW_AZ_MAX], unc_col_az[PW_AZ_MAX];
+    pw_status band_status;           /* PW_OK when the band below is drawn */
+    size_t band_n;                   /* sampled curves */
+    double band_x[PW_REPORT_BAND_NX], band_best[PW_REPORT_BAND_NX];
+    double *band_y;                  /* band_n rows of PW_REPORT_BAND_NX (owned) */
+    double band_lo, band_hi;         /* window in x */
     /* consistency of the measured points */
     bool cons_ran;
     pw_status cons_status;
@@ -76,6 +95,11 @@ struct pw_report {
     pw_report_file csv[PW_REPORT_MAX_FILES];
     size_t n_csv;
 };
+
+/* The uncertainty content of c (when in->uncertainty): column intervals and plan, azeotrope
+ * intervals, the band of curves near the pinch. Failures other than PW_ENOMEM are recorded in c
+ * for the page, not returned. */
+pw_status pw_report_unc_compute(pw_report_curves *c, const pw_report_input *in);
 
 /* Renders the plots of c into rep->svg. */
 pw_status pw_report_render_plots(struct pw_report *rep, const pw_report_curves *c);

@@ -75,6 +75,67 @@ static pw_xyset set(const double *x, const double *y, size_t n)
     return s;
 }
 
+/* The band of equilibrium curves drawn from the fit's covariance around the pinch, with the
+ * operating lines at R_min and the pinch marked. */
+static pw_status band_plot(struct pw_report *rep, const pw_report_curves *c)
+{
+    const char *n1 = c->fit->sys.comp[0].name;
+    pw_xyset *curves = malloc(sizeof *curves * c->band_n);
+    if (!curves)
+        return PW_ENOMEM;
+    for (size_t k = 0; k < c->band_n; k++)
+        curves[k] = set(c->band_x, c->band_y + k * PW_REPORT_BAND_NX, PW_REPORT_BAND_NX);
+    const pw_column_spec *sp = &c->spec;
+    double R = c->col.r_min;
+    double xi = ((R + 1.0) * sp->zf + (sp->q - 1.0) * sp->xd) / (R + sp->q);
+    double yi = (R * xi + sp->xd) / (R + 1.0);
+    double lx[3] = {sp->xd, xi, sp->xb}, ly[3] = {sp->xd, yi, sp->xb};
+    double mx[1] = {c->col.pinch.x}, my[1] = {c->col.pinch.y};
+    char title[PW_SVG_LABEL_MAX], xl[PW_SVG_LABEL_MAX], yl[PW_SVG_LABEL_MAX],
+        ll[PW_SVG_LABEL_MAX], ml[PW_SVG_LABEL_MAX];
+    snprintf(title, sizeof title, "Equilibrium curves near the pinch, column at %.4g kPa",
+             c->P_col_Pa / 1000.0);
+    snprintf(xl, sizeof xl, "x\xe2\x82\x81, liquid mole fraction of %s / (mol/mol)", n1);
+    snprintf(yl, sizeof yl, "y\xe2\x82\x81, vapor mole fraction of %s / (mol/mol)", n1);
+    snprintf(ll, sizeof ll, "operating lines at R_min = %.3g", R);
+    snprintf(ml, sizeof ml, "%s pinch x = %.3f",
+             c->col.pinch.kind == PW_PINCH_TANGENT ? "tangent" : "feed", c->col.pinch.x);
+    /* the widest spread of the draws about the best fit, so a band thinner than a line is
+     * still stated */
+    double spread = 0.0;
+    for (size_t j = 0; j < PW_REPORT_BAND_NX; j++)
+        for (size_t k = 0; k < c->band_n; k++) {
+            double d = fabs(c->band_y[k * PW_REPORT_BAND_NX + j] - c->band_best[j]);
+            if (isfinite(d) && d > spread)
+                spread = d;
+        }
+    char cl[PW_SVG_LABEL_MAX];
+    snprintf(cl, sizeof cl, "%zu sampled curves (up to %.2g from the best fit in y)", c->band_n,
+             spread);
+    pw_plot_band_in bi;
+    memset(&bi, 0, sizeof bi);
+    bi.curves_label = cl;
+    bi.id = "plot-pinch-band";
+    bi.title = title;
+    bi.xlabel = xl;
+    bi.ylabel = yl;
+    bi.curves = curves;
+    bi.n_curves = c->band_n;
+    bi.central = set(c->band_x, c->band_best, PW_REPORT_BAND_NX);
+    bi.x_lo = c->band_lo;
+    bi.x_hi = c->band_hi;
+    bi.y_lo = bi.y_hi = PW_NAN;
+    bi.marks = set(mx, my, 1);
+    bi.mark_label = ml;
+    bi.line = set(lx, ly, 3);
+    bi.line_label = ll;
+    pw_report_file *f = new_file(rep->svg, &rep->n_svg, "pinch_band.svg",
+                                 "Equilibrium curves near the pinch under the fit's uncertainty");
+    pw_status st = f ? pw_plot_band(&f->text, &bi) : PW_ENOMEM;
+    free(curves);
+    return st;
+}
+
 pw_status pw_report_render_plots(struct pw_report *rep, const pw_report_curves *c)
 {
     const pw_fit_result *r = c->fit;
@@ -194,6 +255,9 @@ pw_status pw_report_render_plots(struct pw_report *rep, const pw_report_curves *
         f = new_file(rep->svg, &rep->n_svg, "lngamma.svg", "Activity coefficients");
         st = f ? pw_plot_lngamma(&f->text, &lg) : PW_ENOMEM;
     }
+    /* 6. with --uncertainty and a feasible column: sampled curves near the limiting pinch */
+    if (st == PW_OK && c->band_status == PW_OK)
+        st = band_plot(rep, c);
     free(p.block);
     return st;
 }
@@ -310,6 +374,28 @@ pw_status pw_report_render_csv(struct pw_report *rep, const pw_report_curves *c)
                 csv_row(&f->text, v, 3);
             }
         }
+    }
+    if (c->band_status == PW_OK) {
+        f = new_file(rep->csv, &rep->n_csv, "pinch_band.csv",
+                     "Equilibrium curves near the pinch: best fit and sampled parameter sets");
+        if (!f)
+            return PW_ENOMEM;
+        csv_field(&f->text, "x1", true);
+        csv_field(&f->text, "y1_best_fit", false);
+        for (size_t k = 0; k < c->band_n; k++)
+            pw_sbuf_printf(&f->text, ",y1_draw_%zu", k + 1);
+        pw_sbuf_puts(&f->text, "\n");
+        double *row = malloc(sizeof *row * (c->band_n + 2));
+        if (!row)
+            return PW_ENOMEM;
+        for (size_t j = 0; j < PW_REPORT_BAND_NX; j++) {
+            row[0] = c->band_x[j];
+            row[1] = c->band_best[j];
+            for (size_t k = 0; k < c->band_n; k++)
+                row[k + 2] = c->band_y[k * PW_REPORT_BAND_NX + j];
+            csv_row(&f->text, row, c->band_n + 2);
+        }
+        free(row);
     }
     for (size_t i = 0; i < rep->n_csv; i++)
         if (pw_sbuf_status(&rep->csv[i].text) != PW_OK)

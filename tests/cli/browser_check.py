@@ -140,6 +140,11 @@ def main():
                     fail("plot %s shows %d data markers" % (pid, svg["markers"]))
             elif not curves or not any(len(d) > 20 for d in curves):
                 fail("plot %s has no curve with path data" % pid)
+            if "band" in pid:
+                # a band plot: several sampled curves, each with path data, under the best fit
+                drawn = [d for cls, d in svg["paths"] if "pw-sample" in cls and len(d) > 20]
+                if len(drawn) < 5 or not any("pw-central" in cls for cls, _ in svg["paths"]):
+                    fail("plot %s shows %d sampled curves and no best fit" % (pid, len(drawn)))
             for d in (d for _, d in svg["paths"]):
                 if re.search(r"nan|inf", d, re.I):
                     fail("plot %s has a path with NaN/Inf: %.80s" % (pid, d))

@@ -34,6 +34,19 @@ PY
 python3 "$SRC/tests/cli/browser_check.py" "$CHROMIUM" "$TMP/report.html" "$ART/report_isobaric.png" \
     plot-xy plot-txy plot-residual-y plot-residual-t plot-lngamma || exit 1
 
+# With --uncertainty: the band of sampled equilibrium curves near the pinch as a sixth plot.
+"$PW" report "$TMP/fit.json" --out "$TMP/report_unc.html" --pressure 1atm --xd 0.95 --xb 0.02 \
+    --zf 0.3 --uncertainty --samples 100 --json > "$TMP/repu.json" 2> "$TMP/repu.err" \
+    || fail "report --uncertainty failed: $(cat "$TMP/repu.err")"
+python3 - "$TMP/repu.json" "$TMP/report_unc.html" <<'PY' || exit 1
+import json, sys
+o = json.load(open(sys.argv[1]))
+assert o == {"report": sys.argv[2], "plots": 6, "uncertainty": True}, o
+PY
+python3 "$SRC/tests/cli/browser_check.py" "$CHROMIUM" "$TMP/report_unc.html" \
+    "$ART/report_uncertainty.png" plot-xy plot-txy plot-residual-y plot-residual-t plot-lngamma \
+    plot-pinch-band || exit 1
+
 # Isothermal P-x-y data (SVNA MEK/toluene set shipped in datasets/), no column: P-x-y plot.
 "$PW" fit "$SRC/datasets/mek_toluene_50C_pxy.csv" --model margules --out "$TMP/fit2.json" \
     > /dev/null 2> "$TMP/fit2.err" || fail "fit of the P-x-y set failed: $(cat "$TMP/fit2.err")"

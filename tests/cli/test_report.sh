@@ -120,4 +120,123 @@ assert abs(x - 0.894) < 0.01, x
 assert abs(T - (78.15 + 273.15)) < 0.5, T
 assert abs(P - 101.325) < 0.01, P
 PY
+# 8. --uncertainty: the "how sure" table, the band plot near the pinch, azeotrope intervals.
+#    Cross-checks against the reflux and azeotrope commands (same draws, same seed) and the
+#    handbook azeotrope of section 7; the band's plot and its numbers are checked for content.
+"$PW" report "$TMP/fit.json" --out "$TMP/u.html" --pressure 101.325kPa --xd 0.95 --xb 0.02 --zf 0.3 \
+    --uncertainty --samples 200 --seed 7 --csv "$TMP/ucsv" --json > "$TMP/u.json" 2> "$TMP/err" \
+    || fail "report --uncertainty: $(cat "$TMP/err")"
+[ -s "$TMP/err" ] && fail "report --uncertainty wrote to a non-terminal stderr: $(cat "$TMP/err")"
+"$PW" reflux "$TMP/fit.json" --pressure 101.325kPa --xd 0.95 --xb 0.02 --zf 0.3 --uncertainty \
+    --samples 200 --seed 7 --json > "$TMP/ur.json" 2> /dev/null || fail "reflux --uncertainty failed"
+python3 - "$TMP/u.json" "$TMP/u.html" "$TMP/ur.json" "$TMP/ucsv/pinch_band.csv" <<'PY' || fail "uncertainty report content"
+import csv, json, math, re, sys
+o = json.load(open(sys.argv[1]))
+assert o == {"report": sys.argv[2], "plots": 6, "uncertainty": True}, o
+page = open(sys.argv[2]).read()
+r = json.load(open(sys.argv[3]))["uncertainty"]
+# the band plot: 40 sampled curves with path data, the best fit, the R_min line, the pinch
+m = re.search(r'<svg[^>]*id="plot-pinch-band".*?</svg>', page, re.S)
+assert m, "no band plot"
+svg = m.group(0)
+def attr(tag, name):
+    m = re.search(r'\b%s="([^"]*)"' % name, tag)
+    return m.group(1) if m else ""
+paths = [(attr(t, "class"), attr(t, "d")) for t in re.findall(r"<path\b[^>]*>", svg)]
+samples = [d for c, d in paths if "pw-sample" in c]
+assert len(samples) == 40 and all(len(d) > 100 for d in samples), (len(samples), samples[:1])
+for cls in ("pw-central", "pw-band-line"):
+    assert any(cls in c and d.startswith("M") and len(d) > 20 for c, d in paths), cls + " missing"
+assert "pw-marks" in svg and "tangent pinch x = " in svg, "pinch not marked"
+labels = re.findall(r'<text[^>]*pw-axis-label[^>]*>([^<]*)<', svg)
+assert len(labels) == 2 and all("/ (mol/mol)" in l for l in labels), labels
+assert not re.search(r'nan|inf', svg, re.I)
+# the window: pinch x +/- 0.15 inside [xb, xd]
+rows = list(csv.reader(open(sys.argv[4])))
+assert rows[0][:3] == ["x1", "y1_best_fit", "y1_draw_1"] and len(rows[0]) == 42, rows[0][:3]
+xs = [float(row[0]) for row in rows[1:]]
+pinch = float(re.search(r"tangent pinch x = ([0-9.]+)", svg).group(1))
+assert abs(xs[0] - max(0.02, pinch - 0.15)) < 2e-3 and abs(xs[-1] - min(0.95, pinch + 0.15)) < 2e-3, (xs[0], xs[-1], pinch)
+# the how-sure table: finite intervals around each value, equal to the reflux command's
+sec = page[page.index('id="how-sure"'):]
+sec = sec[:sec.index("</section>")]
+for label, key in (("Minimum reflux ratio R_min", "r_min"), ("Minimum boil-up ratio", "boilup_min"),
+                   ("Stages at 1.3 R_min", "stages_operating")):
+    m = re.search(re.escape(label) + r'.*?</td><td class="num">([^<]+)</td><td class="num">([^<]+)</td>'
+                  r'<td class="num">([^<]+)</td><td>([^<]+)</td>', sec)
+    assert m, label + " row missing"
+    v, lo, hi = (float(m.group(i)) for i in (1, 2, 3))
+    assert all(math.isfinite(t) for t in (v, lo, hi)) and lo < v < hi, (label, v, lo, hi)
+    ref = r[key]
+    assert abs(lo - ref["ci95"][0]) <= 5e-4 * abs(ref["ci95"][0]), (label, lo, ref["ci95"])
+    assert abs(hi - ref["ci95"][1]) <= 5e-4 * abs(ref["ci95"][1]), (label, hi, ref["ci95"])
+    assert m.group(4).startswith(ref["ci95_from"]), (label, m.group(4), ref["ci95_from"])
+assert "parameter sets drawn from the fit" in sec and "split can be made" in sec, "feasibility share missing"
+assert "more points with x1 between" in sec, "measurement recommendation missing"
+assert r["next_measurements"]["advice"].replace("'", "&#39;") in sec, "advice differs from reflux"
+PY
+# same seed, same page (apart from the creation time); another seed, another page
+"$PW" report "$TMP/fit.json" --out "$TMP/u2.html" --pressure 101.325kPa --xd 0.95 --xb 0.02 --zf 0.3 \
+    --uncertainty --samples 200 --seed 7 2> /dev/null || fail "second --uncertainty report"
+"$PW" report "$TMP/fit.json" --out "$TMP/u3.html" --pressure 101.325kPa --xd 0.95 --xb 0.02 --zf 0.3 \
+    --uncertainty --samples 200 --seed 8 2> /dev/null || fail "--seed 8 report"
+for f in u u2 u3; do grep -v 'Report made on (UTC)' "$TMP/$f.html" > "$TMP/$f.cmp"; done
+cmp -s "$TMP/u.cmp" "$TMP/u2.cmp" || fail "the same seed gave a different page: $(diff "$TMP/u.cmp" "$TMP/u2.cmp" | head -4)"
+cmp -s "$TMP/u.cmp" "$TMP/u3.cmp" && fail "a different seed gave the same page (the seed is ignored?)"
+grep -q 'id="how-sure"\|plot-pinch-band' "$TMP/r.html" && fail "the page without --uncertainty changed"
+"$PW" report "$TMP/fit.json" --out "$TMP/u4.html" --samples 12x 2> "$TMP/err" && fail "accepted --samples 12x"
+[ -e "$TMP/u4.html" ] && fail "a refused --samples left a page behind"
+
+# 9. azeotrope intervals (ethanol/water of section 7, no column): as the azeotrope command gives them
+"$PW" report "$TMP/ew.json" --out "$TMP/ewu.html" --uncertainty --samples 200 --json > "$TMP/ewu.json" \
+    2> "$TMP/err" || fail "report --uncertainty of ethanol/water: $(cat "$TMP/err")"
+"$PW" azeotrope "$TMP/ew.json" --pressure 1atm --uncertainty --samples 200 --json > "$TMP/ewa.json" \
+    2> /dev/null || fail "azeotrope --uncertainty failed"
+python3 - "$TMP/ewu.json" "$TMP/ewu.html" "$TMP/ewa.json" <<'PY' || fail "azeotrope intervals in the page"
+import json, re, sys
+o = json.load(open(sys.argv[1]))
+assert o["uncertainty"] is True and o["plots"] == 5, o   # no column: no band
+page = open(sys.argv[2]).read()
+assert 'id="how-sure"' not in page
+az = json.load(open(sys.argv[3]))["azeotropes"][0]
+sec = page[page.index('id="azeotropes"'):]
+m = re.search(r'minimum-boiling</td><td class="num">([0-9.]+) \u2013 ([0-9.]+)</td>'
+              r'<td class="num">([0-9.]+) \u2013 ([0-9.]+)</td>', sec)
+assert m, "no interval cells in the azeotrope table"
+x_lo, x_hi, T_lo, T_hi = (float(v) for v in m.groups())
+assert abs(x_lo - az["x1_ci95"][0]) < 1e-4 and abs(x_hi - az["x1_ci95"][1]) < 1e-4, (m.groups(), az)
+assert abs(T_lo - az["T_K_ci95"][0]) < 0.006 and abs(T_hi - az["T_K_ci95"][1]) < 0.006, (m.groups(), az)
+# sanity check, not a coverage claim: the handbook azeotrope x = 0.894 (Perry's, 6th ed.,
+# p. 13-12) lies inside the interval of this fit to the data that table reproduces
+assert x_lo < 0.894 < x_hi, (x_lo, x_hi)
+PY
+
+# 10. progress: on a terminal (util-linux `script` gives one) there are progress lines; tests
+#     otherwise run without a terminal, where sections 1 and 8 check that stderr stays empty.
+if command -v script > /dev/null; then
+    script -qec "'$PW' report '$TMP/fit.json' --out '$TMP/tty.html' --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.3 --uncertainty --samples 50 > /dev/null" \
+        /dev/null > "$TMP/tty.out" 2>&1 || fail "report under script failed: $(cat "$TMP/tty.out")"
+    grep -q 'pinchwise report: 50/50 parameter sets sampled' "$TMP/tty.out" \
+        || fail "no sampling progress on a terminal: $(head -c 300 "$TMP/tty.out")"
+    grep -q 'pinchwise report: 5/50 parameter sets sampled' "$TMP/tty.out" \
+        || fail "no progress at 10 %: $(head -c 300 "$TMP/tty.out")"
+    grep -q 'pinchwise report: 7/50' "$TMP/tty.out" && fail "progress not limited to tenths"
+    script -qec "'$PW' fit '$DEMO' --model all --out-dir '$TMP/all' > /dev/null" /dev/null \
+        > "$TMP/tty2.out" 2>&1 || fail "fit --model all under script failed"
+    [ "$(grep -c 'pinchwise fit: [1-4]/4 models' "$TMP/tty2.out")" -eq 4 ] \
+        || fail "fit --model all: expected one progress line per model: $(cat "$TMP/tty2.out")"
+    "$PW" fit "$DEMO" --model all --out-dir "$TMP/all2" > /dev/null 2> "$TMP/err"
+    grep -q 'models' "$TMP/err" && fail "fit --model all printed progress to a non-terminal"
+    script -qec "'$PW' azeotrope '$TMP/ew.json' --pressure 1atm --scan 50kPa:200kPa:6 > /dev/null" \
+        /dev/null > "$TMP/tty3.out" 2>&1 || fail "azeotrope --scan under script failed"
+    for k in 1 2 3 4 5 6; do
+        grep -q "pinchwise azeotrope: $k/6 scan points" "$TMP/tty3.out" || fail "scan step $k not shown"
+    done
+    "$PW" azeotrope "$TMP/ew.json" --pressure 1atm --scan 50kPa:200kPa:6 --uncertainty --samples 20 \
+        > /dev/null 2> "$TMP/err" || fail "azeotrope --scan --uncertainty failed"
+    grep -q 'scan points\|parameter sets sampled' "$TMP/err" \
+        && fail "azeotrope wrote progress to a non-terminal: $(cat "$TMP/err")"
+else
+    echo "NOTE: util-linux script is not installed: progress on a terminal not tested (only its absence)"
+fi
 echo PASS

@@ -191,6 +191,52 @@ static void linear_function_exact(void **state)
     pw_assert_close(r.out[0].ci_lin[1] - r.out[0].value, 2.228139 * sd, 1e-6, 0.0, "t quantile");
 }
 
+/* The progress callback: called once per draw, in order; a status other than PW_OK stops the
+ * propagation with that status. */
+typedef struct progress_log {
+    size_t calls, last_done, total, stop_at;
+} progress_log;
+
+static pw_status count_progress(void *ctx, size_t done, size_t total)
+{
+    progress_log *p = ctx;
+    if (done != p->last_done + 1)
+        return PW_EDOM; /* out of order: fails the test through the status below */
+    p->calls++;
+    p->last_done = done;
+    p->total = total;
+    return p->stop_at && done == p->stop_at ? PW_EINVAL : PW_OK;
+}
+
+static void progress_called_per_draw(void **state)
+{
+    (void)state;
+    lin_ctx c = {{2.0, -1.0, 0.5}};
+    pw_unc_problem pb;
+    memset(&pb, 0, sizeof pb);
+    pb.sys = model_system(&pw_model_nrtl, 100.0, 300.0, 0.3);
+    pb.fitted[0] = pb.fitted[1] = true;
+    pb.cov[0][0] = 400.0;
+    pb.cov[1][1] = 900.0;
+    pb.fn = linear_fn;
+    pb.ctx = &c;
+    pb.n_out = 1;
+    pw_unc_options o = pw_unc_default_options();
+    o.samples = 30;
+    progress_log log = {0};
+    o.progress = count_progress;
+    o.progress_ctx = &log;
+    pw_unc_result r;
+    assert_int_equal(pw_unc_propagate(&pb, &o, &r), PW_OK);
+    assert_int_equal(log.calls, 30);
+    assert_int_equal(log.total, 30);
+    memset(&log, 0, sizeof log);
+    log.stop_at = 7;
+    assert_int_equal(pw_unc_propagate(&pb, &o, &r), PW_EINVAL);
+    assert_int_equal(log.calls, 7);
+    assert_int_equal(r.n_samples, 7);
+}
+
 /* Zero covariance: both intervals collapse onto the value. */
 static void zero_covariance_collapses(void **state)
 {
@@ -337,6 +383,7 @@ int main(void)
         cmocka_unit_test(draws_outside_domain_are_redrawn),
         cmocka_unit_test(linear_function_exact),
         cmocka_unit_test(zero_covariance_collapses),
+        cmocka_unit_test(progress_called_per_draw),
         cmocka_unit_test(disagreement_rule_fires_when_nonlinear),
         cmocka_unit_test(infeasible_share_counted),
         cmocka_unit_test(model_classes_by_aicc),
