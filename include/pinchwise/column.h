@@ -50,7 +50,7 @@ typedef struct pw_design_row {
 
 typedef struct pw_column_options {
     double rtol;          /* relative tolerance on R_min; default 1e-10 */
-    size_t grid;          /* points of the global pinch scan; default 2000 */
+    size_t grid;          /* points of the global pinch scan; default 200 (extrema are refined) */
     double factors[PW_COLUMN_MAX_FACTORS]; /* R/R_min for the design table; default 1.2, 1.3, 1.5 */
     size_t n_factors;
     size_t max_stages;    /* stepping gives up beyond this; default 500 */

@@ -9,7 +9,7 @@
 
 pw_column_options pw_column_default_options(void)
 {
-    pw_column_options o = {.rtol = 1e-10, .grid = 2000, .n_factors = 3, .max_stages = 500};
+    pw_column_options o = {.rtol = 1e-10, .grid = 200, .n_factors = 3, .max_stages = 500};
     /* R/R_min = 1.2-1.5: common practice (METHODS 6.7). */
     o.factors[0] = 1.2;
     o.factors[1] = 1.3;
