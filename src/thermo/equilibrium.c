@@ -101,8 +101,13 @@ static void eval_limits(const pw_system *s, double *lo, double *hi)
             *hi = fmin(*hi, 647.096);
         } else {
             double pole;
-            if (pw_units_to_si(PW_QTY_TEMPERATURE, -c->C, c->T_unit, &pole) == PW_OK)
+            if (c->T_scale > 0.0) { /* prepared component: no unit lookup */
+                pole = (-c->C + c->T_offset) * c->T_scale;
+                if (pole > 0.0)
+                    *lo = fmax(*lo, pole + 1.0);
+            } else if (pw_units_to_si(PW_QTY_TEMPERATURE, -c->C, c->T_unit, &pole) == PW_OK) {
                 *lo = fmax(*lo, pole + 1.0);
+            }
         }
     }
 }
@@ -199,21 +204,37 @@ static pw_status brent_bubble(const pw_system *s, double P, double x1, double a,
     return st;
 }
 
-/* Bubble T at P for liquid x1, starting from T_guess (NAN: from the pure Tsat). Fills tp at
- * the returned T. */
-static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T_guess,
-                               bool newton, double *T_out, tpoint *tp, int *iters)
+/* The pure-component boiling points at P and the bracket [lo, hi] they give (METHODS 2.5). */
+static pw_status pure_bracket(const pw_system *s, double P, double Ts[2], double *lo, double *hi,
+                              double lim_lo, double lim_hi)
 {
-    double Ts[2];
     for (int i = 0; i < 2; i++) {
         pw_status st = pw_tsat(&s->comp[i], P, &Ts[i]);
         if (st != PW_OK)
             return st;
     }
+    *lo = fmax(fmin(Ts[0], Ts[1]) - BRACKET_BELOW_K, lim_lo);
+    *hi = fmin(fmax(Ts[0], Ts[1]) + BRACKET_ABOVE_K, lim_hi);
+    return PW_OK;
+}
+
+/* Bubble T at P for liquid x1, starting from T_guess (NAN: from the pure Tsat). Fills tp at
+ * the returned T. */
+static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T_guess,
+                               bool newton, double *T_out, tpoint *tp, int *iters)
+{
     double lim_lo, lim_hi;
     eval_limits(s, &lim_lo, &lim_hi);
-    double lo = fmax(fmin(Ts[0], Ts[1]) - BRACKET_BELOW_K, lim_lo);
-    double hi = fmin(fmax(Ts[0], Ts[1]) + BRACKET_ABOVE_K, lim_hi);
+    /* The pure boiling points set the start (without a guess) and the fallback bracket; with a
+     * guess they are needed only if Newton fails. */
+    double Ts[2] = {NAN, NAN}, lo = lim_lo, hi = lim_hi;
+    bool have_Ts = false;
+    if (!isfinite(T_guess) || !newton) {
+        pw_status st = pure_bracket(s, P, Ts, &lo, &hi, lim_lo, lim_hi);
+        if (st != PW_OK)
+            return st;
+        have_Ts = true;
+    }
     double T = isfinite(T_guess) ? T_guess : x1 * Ts[0] + (1.0 - x1) * Ts[1];
     T = fmin(fmax(T, lo), hi);
 
@@ -253,6 +274,11 @@ static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T
     }
 
     /* Fallback: Brent (GSL) inside a bracket that is checked and widened if needed. */
+    if (!have_Ts) {
+        pw_status st = pure_bracket(s, P, Ts, &lo, &hi, lim_lo, lim_hi);
+        if (st != PW_OK)
+            return st;
+    }
     bool a_ok = isfinite(neg), b_ok = isfinite(pos);
     double a = a_ok ? neg : fmin(lo, b_ok ? pos : lo);
     double b = b_ok ? pos : fmax(hi, a_ok ? neg : hi);
