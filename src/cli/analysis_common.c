@@ -33,6 +33,7 @@ void pw_cli_warn_fit(const char *cmd, const pw_fit_result *fit)
 {
     if (!fit->converged)
         pw_cli_warnf(cmd, "the fit in this file did not converge; do not design with it");
+    pw_cli_warn_vapor_association(cmd, &fit->sys);
     if (fit->split)
         pw_cli_warnf(cmd, "the fitted model predicts a liquid-liquid split (x1 = %.3f at %.1f K); "
                      "homogeneous results may be wrong there",

@@ -46,6 +46,10 @@ pw_status pw_cli_load_components(pw_complib *lib, const char *extra_path, pw_err
 pw_status pw_cli_override_components(const char *cmd, pw_system *sys, const char *path,
                                      pw_error *err);
 
+/* Warns on stderr when a component associates in the vapor (a carboxylic acid): modified
+ * Raoult's law, which pinchwise uses, is then unreliable even at 1 atm. */
+void pw_cli_warn_vapor_association(const char *cmd, const pw_system *sys);
+
 /* Parses a command-line quantity with its unit ("101.325kPa") for option opt; on failure fills
  * err with a message that names the option and lists the units. */
 pw_status pw_cli_quantity(pw_quantity q, const char *opt, const char *text, double *si,

@@ -6,6 +6,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <strings.h>
 #include <unistd.h>
 
 int pw_cli_fail(const char *cmd, const pw_error *err)
@@ -174,4 +175,19 @@ pw_status pw_cli_progress_tenths(void *ctx, size_t done, size_t total)
     if (done == 1 || done >= total || (10 * done) / total != (10 * (done - 1)) / total)
         pw_cli_progress(c->cmd, c->what, done, total);
     return PW_OK;
+}
+
+void pw_cli_warn_vapor_association(const char *cmd, const pw_system *sys)
+{
+    for (int i = 0; i < 2; i++) {
+        const char *n = sys->comp[i].name;
+        bool acid = false;
+        for (const char *p = n; *p && !acid; p++)
+            acid = strncasecmp(p, "acid", 4) == 0;
+        if (acid)
+            pw_cli_warnf(cmd, "%s dimerises in the vapor; the ideal-vapor model used here can be off "
+                         "by tens of percent even at 1 atm (chemical theory: Marek & Standart 1954; "
+                         "Hayden & O'Connell 1975): treat the results as rough",
+                         n);
+    }
 }

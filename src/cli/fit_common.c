@@ -146,6 +146,7 @@ static void warn_duplicates(const pw_fit_result *r, const char *input)
 
 static void warn_fit(const pw_fit_result *r, const char *input)
 {
+    pw_cli_warn_vapor_association("fit", &r->sys);
     if (!r->converged)
         pw_cli_warnf("fit", "%s: the %s fit did NOT converge (%s); do not design with it", input,
                      r->sys.model->name, pw_fit_stop_name(r->stop));

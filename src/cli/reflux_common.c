@@ -181,6 +181,7 @@ void pw_reflux_warn(const pw_reflux_run *run)
                      r->T_min_K, r->T_max_K);
     if (!r->converged)
         pw_cli_warnf("reflux", "%s: the fit did not converge; do not design with it", r->dataset_path);
+    pw_cli_warn_vapor_association("reflux", &r->sys);
     if (r->split)
         pw_cli_warnf("reflux", "the fitted model predicts a liquid-liquid split (x1 = %.3f at %.1f K)",
                      r->split_x, r->split_T_K);
