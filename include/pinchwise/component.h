@@ -5,6 +5,7 @@
  * and optional further columns after these, which pinchwise reads when present:
  *     equation   "antoine" (default) or "iapws-if97" (water only: IAPWS-IF97 region 4)
  *     V_L        liquid molar volume in cm3/mol near 25 C (used by Wilson's volume ratio)
+ *     aliases    other names the component is found by, ";"-separated (e.g. "IPA; isopropanol")
  *     Tc_K, Pc_bar, omega   critical constants (informational; for later vapor corrections)
  * Antoine: log10(P) = A - B/(T + C) or ln(P) = A - B/(T + C), P in P_unit, T in T_unit. */
 #ifndef PINCHWISE_COMPONENT_H
@@ -36,6 +37,7 @@ typedef struct pw_component {
     double T_min_K, T_max_K; /* validity range, converted to K */
     double V_L_cm3mol;       /* liquid molar volume, NAN when unknown */
     char source[PW_SOURCE_MAX];
+    char aliases[256];       /* other names, ";"-separated (optional column "aliases") */
     /* The units as affine maps to SI (si = (value + offset) * scale), filled by
      * pw_component_prepare so that pw_psat needs no unit lookup; 0 means not prepared (pw_psat
      * then looks the units up). The readers prepare every component they return. */
@@ -82,7 +84,8 @@ pw_status pw_complib_read(pw_complib *lib, const char *path, pw_error *err);
 pw_status pw_complib_parse(pw_complib *lib, const char *buf, size_t len, const char *name,
                            pw_error *err);
 
-/* The component called name (case-insensitive; the last row read wins), or NULL. */
+/* The component called name (case-insensitive; the last row read wins), else the last row that
+ * lists name among its aliases, or NULL. */
 const pw_component *pw_complib_find(const pw_complib *lib, const char *name);
 
 /* Up to max names closest to name (edit distance), written to out (pointers into lib).

@@ -24,11 +24,17 @@ static void file_stem(const char *path, char *out, size_t n)
 }
 
 static pw_status find_component(const pw_complib *lib, const pw_dataset *ds, int i,
-                                const pw_component **c, pw_error *err)
+                                pw_component out[2], const pw_component **c, pw_error *err)
 {
     *c = pw_complib_find(lib, ds->names[i]);
-    if (*c)
+    if (*c) {
+        /* Keep the dataset's spelling (it may be an alias or differ in case): the fit file and
+         * every later output then name the components as the user did. */
+        out[i] = **c;
+        snprintf(out[i].name, sizeof out[i].name, "%s", ds->names[i]);
+        *c = &out[i];
         return PW_OK;
+    }
     const char *sugg[3];
     size_t n = pw_complib_suggest(lib, ds->names[i], sugg, 3);
     char hint[300] = "";
@@ -189,9 +195,10 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
     if (st != PW_OK)
         return pw_status_exit_code(st);
     const pw_component *c1 = NULL, *c2 = NULL;
-    st = find_component(co->lib, &ds, 0, &c1, err);
+    pw_component found[2];
+    st = find_component(co->lib, &ds, 0, found, &c1, err);
     if (st == PW_OK)
-        st = find_component(co->lib, &ds, 1, &c2, err);
+        st = find_component(co->lib, &ds, 1, found, &c2, err);
     if (st == PW_OK) {
         char stem[PW_PATH_MAX];
         file_stem(input, stem, sizeof stem);

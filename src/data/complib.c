@@ -24,6 +24,7 @@ typedef struct {
     bool header_seen;
     size_t ncols;
     long opt[N_OPTIONAL]; /* column index of each optional column, -1 when absent */
+    long aliases_col;     /* column index of "aliases" (other names, ";"-separated), -1 if none */
     pw_component *rows;
     long *lines;
     size_t n, cap;
@@ -74,6 +75,14 @@ static pw_status header_row(reader *rd, char **f, size_t n, long line, pw_error 
             rd->opt[k] = (long)i;
         }
     }
+    rd->aliases_col = -1;
+    for (size_t i = N_REQUIRED; i < n; i++)
+        if (strcmp(f[i], "aliases") == 0) {
+            if (rd->aliases_col >= 0)
+                return pw_error_set(err, PW_EPARSE, rd->name, line,
+                                    "column 'aliases' appears twice (expected it at most once)");
+            rd->aliases_col = (long)i;
+        }
     rd->ncols = n;
     rd->header_seen = true;
     return PW_OK;
@@ -194,6 +203,9 @@ static pw_status component_row(reader *rd, char **f, size_t n, long line, pw_err
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "V_L = %g (expected a positive molar volume in cm3/mol, or empty)",
                             c.V_L_cm3mol);
+    if (rd->aliases_col >= 0 &&
+        (st = copy_text(rd, c.aliases, sizeof c.aliases, f[rd->aliases_col], "aliases", line, err)))
+        return st;
     double ignored;
     for (int k = COL_TC; k < N_OPTIONAL; k++)
         if ((st = optional_number(rd, f, k, line, &ignored, err)))
@@ -282,12 +294,35 @@ pw_status pw_complib_read(pw_complib *lib, const char *path, pw_error *err)
     return st;
 }
 
+/* True when name is one of the ';'-separated aliases (surrounding blanks ignored, any case). */
+static bool is_alias(const char *aliases, const char *name)
+{
+    size_t nl = strlen(name);
+    for (const char *p = aliases; *p;) {
+        while (*p == ' ' || *p == ';')
+            p++;
+        const char *e = p;
+        while (*e && *e != ';')
+            e++;
+        const char *t = e;
+        while (t > p && t[-1] == ' ')
+            t--;
+        if ((size_t)(t - p) == nl && nl > 0 && strncasecmp(p, name, nl) == 0)
+            return true;
+        p = e;
+    }
+    return false;
+}
+
 const pw_component *pw_complib_find(const pw_complib *lib, const char *name)
 {
     if (!lib || !name)
         return NULL;
     for (size_t i = lib->n; i-- > 0;)
         if (strcasecmp(lib->items[i].name, name) == 0)
+            return &lib->items[i];
+    for (size_t i = lib->n; i-- > 0;)
+        if (is_alias(lib->items[i].aliases, name))
             return &lib->items[i];
     return NULL;
 }

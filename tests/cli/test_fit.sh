@@ -93,4 +93,8 @@ PY
 "$pw" fit "$src/datasets/ethanol_water_1atm.csv" --model wilson --exclude 2 --out ex2.json 2>err.txt && fail "excluded a line without data"
 grep -q ":2:" err.txt || fail "exclude error lacks the line: $(cat err.txt)"
 [ ! -e ex2.json ] || fail "wrote a fit file after a refused --exclude"
+# 11. Names are found by alias and in any case; outputs keep the dataset's spelling.
+sed 's/# components: ethanol, water/# components: EtOH, Water/' "$src/datasets/ethanol_water_1atm.csv" > alias.csv
+"$pw" fit alias.csv --model wilson --out alias.json --json > o.json 2>/dev/null || fail "alias fit"
+python3 -c 'import json; d=json.load(open("o.json")); assert d["components"] == ["EtOH", "Water"], d["components"]' || fail "alias names"
 echo "fit CLI tests passed"

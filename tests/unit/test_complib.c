@@ -210,6 +210,30 @@ static void shipped_library(void **state)
     pw_complib_free(&lib);
 }
 
+/* The optional aliases column: names are found by alias, case-insensitively, exact names first. */
+static void aliases_find_components(void **state)
+{
+    (void)state;
+    static const char text[] =
+        "name,A,B,C,log,P_unit,T_unit,T_min,T_max,source,aliases\n"
+        "2-propanol,16.6796,3640.20,219.610,ln,kPa,C,8,100,from memory,IPA; isopropanol ;propan-2-ol\n"
+        "ipa-solvent,16.0,3600.0,220.0,ln,kPa,C,8,100,invented,\n";
+    pw_complib lib;
+    pw_error err;
+    pw_complib_init(&lib);
+    assert_int_equal(pw_complib_parse(&lib, text, sizeof text - 1, "aliases.csv", &err), PW_OK);
+    const char *names[] = {"IPA", "isopropanol", "Propan-2-ol", "2-PROPANOL"};
+    for (int i = 0; i < 4; i++) {
+        const pw_component *c = pw_complib_find(&lib, names[i]);
+        assert_non_null(c);
+        assert_string_equal(c->name, "2-propanol");
+    }
+    assert_null(pw_complib_find(&lib, "iso"));   /* no prefix matches */
+    assert_null(pw_complib_find(&lib, "IPA;"));  /* separators are not part of a name */
+    assert_string_equal(pw_complib_find(&lib, "ipa-solvent")->name, "ipa-solvent");
+    pw_complib_free(&lib);
+}
+
 int main(void)
 {
     pw_test_init();
@@ -220,6 +244,7 @@ int main(void)
         cmocka_unit_test(missing_file),
         cmocka_unit_test(suggestions_for_misspelled_names),
         cmocka_unit_test(shipped_library),
+        cmocka_unit_test(aliases_find_components),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
