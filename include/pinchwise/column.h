@@ -72,6 +72,9 @@ typedef struct pw_column_result {
                                  * R_min is where the boil-up falls to zero, or a rectifying
                                  * tangent pinch above it; pinch then reports (xb, y on the q-line)
                                  * with kind feed and section stripping when zero boil-up limits */
+    bool reflux_limited;        /* R_min = 0: no reflux is needed (a stripping column with the feed
+                                 * on top makes the distillate); no pinch limits, pinch holds the
+                                 * stripping section's closest approach, the design table is empty */
     double n_min;               /* stages at total reflux, stepped on the curve */
     double n_fenske;            /* Fenske with the geometric-mean relative volatility */
     double alpha_top, alpha_bottom;

@@ -52,6 +52,62 @@ static pw_status tabulate(pw_column_ws *w, const pw_column_spec *s, size_t n, co
     return PW_OK;
 }
 
+/* Reflux and boil-up cannot be negative. When the pinch limits give an R below zero, or a boil-up
+ * below zero, the limit is a flow, not a pinch: R_min is 0 (a stripping column with the feed on
+ * top makes the distillate) or the R at which the boil-up vanishes (the feed brings all the vapor
+ * the rectifying section needs). gap(R) grows with R, so the largest of these bounds is R_min. */
+static void apply_flow_limits(const pw_column_spec *s, pw_column_result *out)
+{
+    if (!(out->r_min > 0.0)) {
+        out->r_min = 0.0;
+        out->reflux_limited = true;
+    }
+    if (pw_column_boilup(s, out->r_min) < 0.0) {
+        out->r_min = pw_column_reflux_of_boilup(s, 0.0);
+        out->reflux_limited = false;
+        out->boilup_limited = true;
+        out->pinch.kind = PW_PINCH_FEED;
+        out->pinch.section = PW_SECTION_STRIPPING;
+        out->pinch.x = s->xb;
+        out->pinch.y = (s->q * s->xb - s->zf) / (s->q - 1.0);
+    }
+    out->s_min = fmax(pw_column_boilup(s, out->r_min), 0.0);
+}
+
+/* The q-line meets the curve above xd (a subcooled feed rich in component 1): at R = 0 the
+ * operating lines meet on the q-line at y = xd; the stripping section, scanned up to that point,
+ * decides whether any reflux is needed. */
+static pw_status reflux_limited_rmin(pw_column_ws *w, const pw_column_spec *s, size_t n,
+                                     col_buffers *b, double x_i0, pw_column_result *out)
+{
+    size_t k = 0;
+    for (size_t j = 1; j + 1 < n; j++)
+        if (b->xg[j] < x_i0) {
+            b->px[k] = b->xg[j];
+            b->py[k++] = b->yg[j];
+        }
+    b->px[k] = x_i0;
+    b->py[k++] = s->xd;
+    if (k < 2)
+        return PW_ERANGE;
+    double s_lim, xs, ys;
+    bool at_end;
+    pw_status st = pw_column_section_limit(w, s, PW_SECTION_STRIPPING, b->px, b->py, k, &s_lim,
+                                           &xs, &ys, &at_end);
+    if (st != PW_OK)
+        return st;
+    out->x_q = NAN;
+    out->y_q = NAN;
+    out->r_feed = NAN;
+    out->r_min = at_end ? 0.0 : pw_column_reflux_of_boilup(s, 1.0 / (s_lim - 1.0));
+    out->pinch.kind = PW_PINCH_TANGENT;
+    out->pinch.section = PW_SECTION_STRIPPING;
+    out->pinch.x = xs;
+    out->pinch.y = ys;
+    apply_flow_limits(s, out);
+    return PW_OK;
+}
+
 /* Limiting slopes of both sections; the larger R limits. */
 static pw_status find_rmin(pw_column_ws *w, const pw_column_spec *s, size_t n, col_buffers *b,
                            pw_column_result *out)
@@ -114,14 +170,7 @@ static pw_status find_rmin(pw_column_ws *w, const pw_column_spec *s, size_t n, c
     out->pinch.kind = (rect ? feed_r : feed_s) ? PW_PINCH_FEED : PW_PINCH_TANGENT;
     out->pinch.x = rect ? xr : xs;
     out->pinch.y = rect ? yr : ys;
-    out->s_min = pw_column_boilup(s, out->r_min);
-    if (!(out->r_min > 0.0) || !(out->s_min > 0.0)) {
-        snprintf(out->reason, sizeof out->reason,
-                 "no pinch limits this split (the operating lines clear the curve at zero %s): "
-                 "outside the range of this method",
-                 out->r_min > 0.0 ? "boil-up" : "reflux");
-        return PW_ERANGE;
-    }
+    apply_flow_limits(s, out);
     return PW_OK;
 }
 
@@ -170,6 +219,8 @@ static pw_status boilup_limited_rmin(pw_column_ws *w, const pw_column_spec *s, s
 static pw_status design_table(pw_column_ws *w, const pw_column_spec *s,
                               const pw_column_options *o, pw_column_result *out)
 {
+    if (!(out->r_min > 0.0))
+        return PW_OK; /* no reflux needed: multiples of zero make no design table */
     for (size_t i = 0; i < o->n_factors; i++) {
         pw_design_row *row = &out->design[i];
         row->factor = o->factors[i];
@@ -200,6 +251,20 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
     if (st != PW_OK || !ok)
         return st;
     st = pw_column_qline(w, s, b->xg, b->yg, n, &out->x_q, &out->y_q);
+    if (st == PW_ERANGE && s->q > 1.0) {
+        double x_i0 = ((s->q - 1.0) * s->xd + s->zf) / s->q; /* q-line at y = xd */
+        double y_i0;
+        if (pw_column_y(w, x_i0, &y_i0) == PW_OK && y_i0 > s->xd) {
+            st = reflux_limited_rmin(w, s, n, b, x_i0, out);
+            if (st == PW_OK)
+                st = pw_column_step_ws(w, s, true, INFINITY, o->max_stages, &out->n_min, NULL);
+            if (st != PW_OK)
+                return st;
+            out->n_fenske = pw_fenske_nmin(sqrt(out->alpha_top * out->alpha_bottom), s->xd, s->xb);
+            out->feasible = true;
+            return design_table(w, s, o, out);
+        }
+    }
     if (st == PW_ERANGE && s->q < 1.0) {
         double y_i = (s->q * s->xb - s->zf) / (s->q - 1.0); /* q-line at x = xb */
         if (y_i > s->xb && y_i < b->yg[0]) {

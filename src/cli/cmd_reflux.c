@@ -41,7 +41,7 @@ json_t *pw_reflux_json(const pw_reflux_run *run)
     json_object_set_new(o, "feasible", json_boolean(c->feasible));
     json_object_set_new(o, "reason", c->feasible ? json_null() : json_string(c->reason));
     json_object_set_new(o, "r_min", c->feasible ? pw_cli_json_num(c->r_min) : json_null());
-    if (c->feasible) {
+    if (c->feasible && !c->reflux_limited) {
         json_t *p = json_object();
         json_object_set_new(p, "kind", json_string(pinch_kind(c->pinch.kind)));
         json_object_set_new(p, "section", json_string(section(c->pinch.section)));
@@ -54,6 +54,10 @@ json_t *pw_reflux_json(const pw_reflux_run *run)
     json_object_set_new(o, "n_min", c->feasible ? pw_cli_json_num(c->n_min) : json_null());
     json_object_set_new(o, "limit",
                         !c->feasible ? json_null()
+                        : c->reflux_limited
+                            ? json_string("no reflux needed: at R = 0 the operating lines clear the "
+                                          "equilibrium curve (a stripping column with the feed on "
+                                          "top makes the distillate); no pinch limits")
                         : c->boilup_limited && c->pinch.kind == PW_PINCH_FEED
                             ? json_string("zero boil-up: the feed's vapor is all the rectifying "
                                           "section gets; the operating lines meet on the q-line "
@@ -113,7 +117,11 @@ static void print_table(const pw_reflux_run *run)
         return;
     }
     printf("  minimum reflux R_min      %.6g  (minimum boil-up Vbar/B %.6g)\n", c->r_min, c->s_min);
-    if (c->boilup_limited && c->pinch.kind == PW_PINCH_FEED)
+    if (c->reflux_limited)
+        printf("  no reflux needed          at R = 0 the operating lines clear the curve: a\n"
+               "                            stripping column with the feed on top makes this\n"
+               "                            distillate; no pinch limits, no design table\n");
+    else if (c->boilup_limited && c->pinch.kind == PW_PINCH_FEED)
         printf("  limited by zero boil-up   the q-line meets the curve below xb: the feed brings\n"
                "                            more vapor than the rectifying section needs, so R\n"
                "                            cannot fall below this without cooling the feed\n");

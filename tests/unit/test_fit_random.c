@@ -275,7 +275,9 @@ static bool check_column(const pw_fit_result *r, size_t icase, gsl_rng *rng, col
                res.r_min, worst_above);
         return false;
     }
-    if (!(best_cross > 0.0)) {
+    /* R_min = 0 (no reflux needed): nothing below it to cross; the lines at R = 0 were checked
+     * to stay on or below the curve just above. */
+    if (!(best_cross > 0.0) && !res.reflux_limited) {
         printf("case %zu: at 0.999 R_min = %.9g the operating line does not cross y* (%.3g)\n",
                icase, res.r_min, best_cross);
         return false;
