@@ -39,6 +39,10 @@ typedef struct pw_report_input {
                                       curves near the limiting pinch (one more plot) */
     pw_unc_options unc;            /* draws, seed, progress callback (with uncertainty) */
     size_t band_curves;            /* sampled curves in the band plot; 0 = 40 */
+    const pw_fit_result *const *others; /* other models fitted to the same data (may be NULL):
+                                      the page ranks all by AICc beside their azeotrope and,
+                                      with a column, their R_min */
+    size_t n_others;
 } pw_report_input;
 
 /* Plain defaults: everything NULL/0, unc = pw_unc_default_options(). */

@@ -28,6 +28,9 @@ static void usage(FILE *f)
             "  --svg DIR               also write each plot as DIR/<name>.svg\n"
             "  --csv DIR               also write the curves behind the plots as DIR/<name>.csv\n"
             "  --components FILE       vapor-pressure rows that replace the fit file's\n"
+            "  --compare FIT.json      another model of the same data for the side-by-side table\n"
+            "                          (repeatable; default: the <stem>.<model>.json files beside\n"
+            "                          FIT.json that `fit --model all` writes)\n"
             "  --force                 replace existing output files\n"
             "  --json                  print {\"report\": path, \"plots\": N} on stdout\n");
 }
@@ -39,7 +42,56 @@ typedef struct report_args {
     double P_Pa, factor;
     pw_column_spec spec;
     pw_azeo_uncert unc;   /* --uncertainty, --samples, --seed (parsed as the azeotrope command) */
+    const char *compare[8]; /* --compare FIT.json (repeatable): other models of the same data */
+    size_t n_compare;
 } report_args;
+
+#define REPORT_MAX_OTHERS 8
+
+/* Other fit files of the same data: those named by --compare, else the siblings that `fit
+ * --model all` writes (<dir>/<stem>.<model>.json beside the fit file). Only files whose dataset
+ * SHA-256 equals the report's are kept (a stale sibling would mislead). Returns how many. */
+static size_t load_others(const report_args *a, const pw_fit_result *fit, pw_fit_result *out)
+{
+    char paths[REPORT_MAX_OTHERS][PW_PATH_MAX];
+    size_t np = 0;
+    bool explicit_list = a->n_compare > 0;
+    for (size_t i = 0; i < a->n_compare; i++)
+        snprintf(paths[np++], PW_PATH_MAX, "%s", a->compare[i]);
+    if (!explicit_list) {
+        const char *model = fit->sys.model->name;
+        size_t len = strlen(a->fit), ml = strlen(model);
+        /* ".<model>.json" at the end of the fit file's name */
+        if (len > ml + 6 && !strcmp(a->fit + len - 5, ".json") && a->fit[len - ml - 6] == '.' &&
+            !strncmp(a->fit + len - ml - 5, model, ml)) {
+            size_t nm;
+            const pw_model_type *const *all = pw_model_all(&nm);
+            for (size_t k = 0; k < nm && np < REPORT_MAX_OTHERS; k++)
+                if (all[k] != fit->sys.model)
+                    snprintf(paths[np++], PW_PATH_MAX, "%.*s.%s.json", (int)(len - ml - 6), a->fit,
+                             all[k]->name);
+        }
+    }
+    size_t n = 0;
+    for (size_t i = 0; i < np; i++) {
+        if (!explicit_list && access(paths[i], R_OK) != 0)
+            continue;
+        pw_error err;
+        if (pw_fitfile_read(paths[i], &out[n], &err) != PW_OK) {
+            char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
+            pw_cli_warnf("report", "%s", pw_error_format(&err, buf, sizeof buf));
+            continue;
+        }
+        if (strcmp(out[n].dataset_sha256, fit->dataset_sha256) != 0) {
+            pw_cli_warnf("report", "%s was fitted to other data (dataset SHA-256 differs): left out",
+                         paths[i]);
+            pw_fit_result_free(&out[n]);
+            continue;
+        }
+        n++;
+    }
+    return n;
+}
 
 static int fraction(const char *opt, const char *v, double *out, pw_error *err)
 {
@@ -75,7 +127,7 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
             const char *opt = argv[i];
             static const char *const known[] = {"--out", "--pressure", "--xd", "--xb", "--zf", "--q",
                                                 "--operating-factor", "--svg", "--csv",
-                                                "--components"};
+                                                "--components", "--compare"};
             bool ok = false;
             for (size_t k = 0; k < sizeof known / sizeof known[0]; k++)
                 ok = ok || !strcmp(opt, known[k]);
@@ -95,6 +147,14 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
                 a->csv = v;
             else if (!strcmp(opt, "--components"))
                 a->components = v;
+            else if (!strcmp(opt, "--compare")) {
+                if (a->n_compare == REPORT_MAX_OTHERS) {
+                    pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
+                                 REPORT_MAX_OTHERS);
+                    return PW_EXIT_USAGE;
+                }
+                a->compare[a->n_compare++] = v;
+            }
             else if (!strcmp(opt, "--pressure")) {
                 if (pw_cli_quantity(PW_QTY_PRESSURE, opt, v, &a->P_Pa, err) != PW_OK)
                     return PW_EXIT_USAGE;
@@ -213,10 +273,19 @@ int pw_cli_report(int argc, char **argv)
             in.unc.progress_ctx = &pc;
         }
     }
+    pw_fit_result others[REPORT_MAX_OTHERS];
+    const pw_fit_result *other_ptr[REPORT_MAX_OTHERS];
+    size_t n_others = load_others(&a, &fit, others);
+    for (size_t i = 0; i < n_others; i++)
+        other_ptr[i] = &others[i];
+    in.others = other_ptr;
+    in.n_others = n_others;
     pw_report *rep = NULL;
     progress("computing curves, tables and plots");
     st = pw_report_build(&in, &rep, &err);
     pw_fit_result_free(&fit);
+    for (size_t i = 0; i < n_others; i++)
+        pw_fit_result_free(&others[i]);
     if (st != PW_OK)
         return pw_cli_fail("report", &err);
     progress("writing");

@@ -239,4 +239,24 @@ if command -v script > /dev/null; then
 else
     echo "NOTE: util-linux script is not installed: progress on a terminal not tested (only its absence)"
 fi
+# Model comparison: the siblings that `fit --model all` writes are ranked on the page; a stale
+# sibling (other data) is left out with a warning; --compare names files explicitly.
+mkdir -p "$TMP/rank"
+"$PW" fit "$DEMO" --model all --out-dir "$TMP/rank" > /dev/null 2>&1 || fail "fit --model all"
+"$PW" report "$TMP/rank/demo_acetone_water.nrtl.json" --out "$TMP/rank.html" --pressure 101.325kPa \
+    --xd 0.95 --xb 0.02 --zf 0.1 > /dev/null 2> "$TMP/err" || fail "report with siblings: $(cat "$TMP/err")"
+python3 - "$TMP/rank.html" <<'PY' || fail "ranking table"
+import re, sys
+s = open(sys.argv[1]).read()
+i = s.index('id="ranking"'); j = s.index("</section>", i)
+rows = re.findall(r"<tr><td class=\"num\">(\d+)</td><td>(\w+)", s[i:j])
+assert [int(r[0]) for r in rows] == [1, 2, 3, 4], rows
+assert sorted(r[1] for r in rows) == ["margules", "nrtl", "vanlaar", "wilson"], rows
+PY
+"$PW" fit "$SRC/datasets/ethanol_water_1atm.csv" --model wilson --out "$TMP/rank/demo_acetone_water.wilson.json" --force > /dev/null 2>&1
+"$PW" report "$TMP/rank/demo_acetone_water.nrtl.json" --out "$TMP/rank2.html" > /dev/null 2> "$TMP/err" || fail "report, stale sibling"
+grep -q "other data" "$TMP/err" || fail "stale sibling not reported: $(cat "$TMP/err")"
+"$PW" report "$TMP/fit.json" --out "$TMP/rank3.html" --compare "$TMP/rank/demo_acetone_water.vanlaar.json" > /dev/null 2>&1 || fail "--compare"
+grep -q 'id="ranking"' "$TMP/rank3.html" || fail "--compare gave no ranking table"
+grep -q 'id="ranking"' "$TMP/r.html" && fail "a ranking table without other fits"
 echo PASS
