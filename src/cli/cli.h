@@ -59,6 +59,20 @@ pw_status pw_cli_quantity(pw_quantity q, const char *opt, const char *text, doub
  * NaN and Inf. */
 pw_status pw_cli_number(const char *opt, const char *text, double *value, pw_error *err);
 
+/* A mole fraction for option opt: a finite number in [0, 1]. Returns 0 or PW_EXIT_USAGE with err. */
+int pw_cli_fraction(const char *opt, const char *text, double *out, pw_error *err);
+
+/* Column targets shared by reflux and report. */
+typedef struct pw_cli_targets {
+    double P_Pa;
+    double xd, xb, zf, q; /* q defaults to 1 */
+    bool have_P, have_xd, have_xb, have_zf;
+} pw_cli_targets;
+
+/* When opt is one of --pressure, --xd, --xb, --zf, --q, parses value into t and returns 0 (or
+ * PW_EXIT_USAGE with err on a bad value); returns -1 for any other option. */
+int pw_cli_target_opt(const char *opt, const char *value, pw_cli_targets *t, pw_error *err);
+
 /* Writes obj to stdout as one JSON object followed by a newline (17 significant digits);
  * steals the reference. Returns 0, or the I/O exit code. */
 int pw_cli_print_json(json_t *obj);

@@ -191,3 +191,40 @@ void pw_cli_warn_vapor_association(const char *cmd, const pw_system *sys)
                          n);
     }
 }
+
+int pw_cli_fraction(const char *opt, const char *text, double *out, pw_error *err)
+{
+    if (pw_cli_number(opt, text, out, err) != PW_OK)
+        return PW_EXIT_USAGE;
+    if (!(*out >= 0.0 && *out <= 1.0)) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: a mole fraction must lie in [0, 1]", opt,
+                     text);
+        return PW_EXIT_USAGE;
+    }
+    return 0;
+}
+
+int pw_cli_target_opt(const char *opt, const char *value, pw_cli_targets *t, pw_error *err)
+{
+    if (!strcmp(opt, "--pressure")) {
+        if (pw_cli_quantity(PW_QTY_PRESSURE, opt, value, &t->P_Pa, err) != PW_OK)
+            return PW_EXIT_USAGE;
+        t->have_P = true;
+        return 0;
+    }
+    if (!strcmp(opt, "--xd")) {
+        t->have_xd = true;
+        return pw_cli_fraction(opt, value, &t->xd, err);
+    }
+    if (!strcmp(opt, "--xb")) {
+        t->have_xb = true;
+        return pw_cli_fraction(opt, value, &t->xb, err);
+    }
+    if (!strcmp(opt, "--zf")) {
+        t->have_zf = true;
+        return pw_cli_fraction(opt, value, &t->zf, err);
+    }
+    if (!strcmp(opt, "--q"))
+        return pw_cli_number(opt, value, &t->q, err) == PW_OK ? 0 : PW_EXIT_USAGE;
+    return -1;
+}

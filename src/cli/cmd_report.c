@@ -93,26 +93,15 @@ static size_t load_others(const report_args *a, const pw_fit_result *fit, pw_fit
     return n;
 }
 
-static int fraction(const char *opt, const char *v, double *out, pw_error *err)
-{
-    if (pw_cli_number(opt, v, out, err) != PW_OK)
-        return PW_EXIT_USAGE;
-    if (!(*out >= 0.0 && *out <= 1.0)) {
-        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: a mole fraction must lie in [0, 1]", opt, v);
-        return PW_EXIT_USAGE;
-    }
-    return 0;
-}
-
 /* Returns 0, -1 for --help, or an exit code with err filled. */
 static int parse(int argc, char **argv, report_args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
-    a->spec.q = 1.0;
+    pw_cli_targets tg = {.q = 1.0};
     for (int i = 1; i < argc; i++) {
         const char *v = NULL;
         bool missing = false;
-        int rc = 0;
+        int rc = 0, trc;
         if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
             return -1;
         int urc;
@@ -155,21 +144,8 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
                 }
                 a->compare[a->n_compare++] = v;
             }
-            else if (!strcmp(opt, "--pressure")) {
-                if (pw_cli_quantity(PW_QTY_PRESSURE, opt, v, &a->P_Pa, err) != PW_OK)
-                    return PW_EXIT_USAGE;
-                a->have_P = true;
-            } else if (!strcmp(opt, "--xd")) {
-                rc = fraction(opt, v, &a->spec.xd, err);
-                a->have_xd = true;
-            } else if (!strcmp(opt, "--xb")) {
-                rc = fraction(opt, v, &a->spec.xb, err);
-                a->have_xb = true;
-            } else if (!strcmp(opt, "--zf")) {
-                rc = fraction(opt, v, &a->spec.zf, err);
-                a->have_zf = true;
-            } else if (!strcmp(opt, "--q")) {
-                rc = pw_cli_number(opt, v, &a->spec.q, err) == PW_OK ? 0 : PW_EXIT_USAGE;
+            else if ((trc = pw_cli_target_opt(opt, v, &tg, err)) >= 0) {
+                rc = trc; /* --pressure, --xd, --xb, --zf, --q: parsed into tg */
             } else if (!strcmp(opt, "--operating-factor")) {
                 rc = pw_cli_number(opt, v, &a->factor, err) == PW_OK ? 0 : PW_EXIT_USAGE;
                 if (!rc && !(a->factor > 1.0)) {
@@ -187,6 +163,10 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
         if (rc)
             return rc;
     }
+    a->P_Pa = tg.P_Pa;
+    a->spec = (pw_column_spec){.xd = tg.xd, .xb = tg.xb, .zf = tg.zf, .q = tg.q};
+    a->have_P = tg.have_P, a->have_xd = tg.have_xd, a->have_xb = tg.have_xb;
+    a->have_zf = tg.have_zf;
     if (!a->fit || !a->out) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file and --out REPORT.html are required");
         return PW_EXIT_USAGE;

@@ -39,18 +39,6 @@ typedef struct args {
     pw_screen_options opt;
 } args;
 
-static int fraction(const char *opt, const char *v, double *out, pw_error *err)
-{
-    if (pw_cli_number(opt, v, out, err) != PW_OK)
-        return PW_EXIT_USAGE;
-    if (!(*out > 0.0 && *out < 1.0)) {
-        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: a mole fraction strictly between 0 and 1",
-                     opt, v);
-        return PW_EXIT_USAGE;
-    }
-    return 0;
-}
-
 static int swing_range(const char *text, args *a, pw_error *err)
 {
     char buf[128];
@@ -126,13 +114,13 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
                     return PW_EXIT_USAGE;
                 a->have_P = true;
             } else if (!strcmp(opt, "--xd")) {
-                rc = fraction(opt, v, &a->xd, err);
+                rc = pw_cli_fraction(opt, v, &a->xd, err);
                 a->have_xd = true;
             } else if (!strcmp(opt, "--xb")) {
-                rc = fraction(opt, v, &a->xb, err);
+                rc = pw_cli_fraction(opt, v, &a->xb, err);
                 a->have_xb = true;
             } else if (!strcmp(opt, "--zf")) {
-                rc = fraction(opt, v, &a->zf, err);
+                rc = pw_cli_fraction(opt, v, &a->zf, err);
             } else {
                 rc = swing_range(v, a, err);
             }

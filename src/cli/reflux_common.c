@@ -33,22 +33,11 @@ static int parse_factors(const char *text, pw_column_options *o, pw_error *err)
     return o->n_factors ? 0 : pw_error_set(err, PW_EINVAL, NULL, 0, "--factors: no values");
 }
 
-static int fraction(const char *opt, const char *v, double *out, pw_error *err)
-{
-    if (pw_cli_number(opt, v, out, err) != PW_OK)
-        return PW_EXIT_USAGE;
-    if (!(*out >= 0.0 && *out <= 1.0)) {
-        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: a mole fraction must lie in [0, 1]", opt, v);
-        return PW_EXIT_USAGE;
-    }
-    return 0;
-}
-
 int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
-    a->spec.q = 1.0;
     a->opt = pw_column_default_options();
+    pw_cli_targets tg = {.q = 1.0};
     for (int i = 1; i < argc; i++) {
         const char *v = NULL;
         bool missing = false;
@@ -68,22 +57,9 @@ int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err
                 pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
                 return PW_EXIT_USAGE;
             }
-            int rc = 0;
-            if (!strcmp(opt, "--pressure")) {
-                if (pw_cli_quantity(PW_QTY_PRESSURE, opt, v, &a->P_Pa, err) != PW_OK)
-                    return PW_EXIT_USAGE;
-                a->have_P = true;
-            } else if (!strcmp(opt, "--xd")) {
-                rc = fraction(opt, v, &a->spec.xd, err);
-                a->have_xd = true;
-            } else if (!strcmp(opt, "--xb")) {
-                rc = fraction(opt, v, &a->spec.xb, err);
-                a->have_xb = true;
-            } else if (!strcmp(opt, "--zf")) {
-                rc = fraction(opt, v, &a->spec.zf, err);
-                a->have_zf = true;
-            } else if (!strcmp(opt, "--q")) {
-                rc = pw_cli_number(opt, v, &a->spec.q, err) == PW_OK ? 0 : PW_EXIT_USAGE;
+            int rc = 0, trc;
+            if ((trc = pw_cli_target_opt(opt, v, &tg, err)) >= 0) {
+                rc = trc; /* --pressure, --xd, --xb, --zf, --q: parsed into tg */
             } else if (!strcmp(opt, "--components")) {
                 a->components = v;
             } else if (!strcmp(opt, "--factors")) {
@@ -111,6 +87,10 @@ int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err
         }
         a->fit_path = argv[i];
     }
+    a->P_Pa = tg.P_Pa;
+    a->spec = (pw_column_spec){.xd = tg.xd, .xb = tg.xb, .zf = tg.zf, .q = tg.q};
+    a->have_P = tg.have_P, a->have_xd = tg.have_xd, a->have_xb = tg.have_xb;
+    a->have_zf = tg.have_zf;
     if (!a->fit_path || !a->have_P || !a->have_xd || !a->have_xb || !a->have_zf) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "a fit file and --pressure, --xd, --xb, --zf are required");
