@@ -244,7 +244,6 @@ int pw_cli_check(int argc, char **argv)
         } else if (pw_cli_opt(argc, argv, &i, "--strict", NULL, NULL)) {
             strict = true;
         } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
-            usage(stderr);
             return pw_cli_failf("check", PW_EXIT_USAGE, "unknown option '%s'", argv[i]);
         } else if (data) {
             return pw_cli_failf("check", PW_EXIT_USAGE, "more than one data file ('%s' and '%s')",
@@ -254,7 +253,6 @@ int pw_cli_check(int argc, char **argv)
         }
     }
     if (!data) {
-        usage(stderr);
         return pw_cli_failf("check", PW_EXIT_USAGE, "no data file given");
     }
     pw_error err;

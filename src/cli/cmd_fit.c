@@ -200,7 +200,6 @@ int pw_cli_fit(int argc, char **argv)
             if (st != PW_OK)
                 return pw_cli_fail("fit", &err);
         } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
-            usage(stderr);
             return pw_cli_failf("fit", PW_EXIT_USAGE, "unknown option %s", argv[i]);
         } else if (!input) {
             input = argv[i];
@@ -210,7 +209,6 @@ int pw_cli_fit(int argc, char **argv)
         }
     }
     if (!input || !model_name) {
-        usage(stderr);
         return pw_cli_failf("fit", PW_EXIT_USAGE, "a dataset (or folder) and --model are required");
     }
     bool all = !strcmp(model_name, "all");

@@ -157,11 +157,8 @@ int pw_cli_reflux(int argc, char **argv)
         usage(stdout);
         return 0;
     }
-    if (rc != 0) {
-        if (rc == PW_EXIT_USAGE)
-            usage(stderr);
+    if (rc != 0)
         return pw_cli_fail("reflux", &err);
-    }
     pw_reflux_run run;
     rc = pw_reflux_compute(&a, &run, &err);
     if (rc != 0)

@@ -29,7 +29,7 @@ int main(int argc, char **argv)
 {
     gsl_set_error_handler_off();
     if (argc < 2) {
-        usage(stderr);
+        fprintf(stderr, "pinchwise: no command given (see pinchwise --help)\n");
         return PW_EXIT_USAGE;
     }
     if (!strcmp(argv[1], "--help") || !strcmp(argv[1], "-h") || !strcmp(argv[1], "help")) {
