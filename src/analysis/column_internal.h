@@ -20,6 +20,8 @@ typedef struct pw_column_ws {
     double min_xtol;          /* absolute x tolerance of minimisations */
     pw_status cb_status;      /* first failure inside a GSL callback */
     unsigned long n_eval;     /* curve evaluations (benchmarks, diagnostics) */
+    const double *tab_x, *tab_y; /* y*(x) tabulated on [xb, xd] (NULL when not yet): brackets */
+    size_t tab_n;                /* the inversions x*(y) between neighbouring grid points */
 } pw_column_ws;
 
 /* Allocates the solvers; rtol is the relative tolerance on R_min (see docs/column.md for how

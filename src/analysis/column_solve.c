@@ -244,6 +244,9 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
     pw_status st = tabulate(w, s, n, b);
     if (st != PW_OK)
         return st;
+    w->tab_x = b->xg;
+    w->tab_y = b->yg;
+    w->tab_n = n;
     out->alpha_bottom = pw_column_alpha(b->xg[0], b->yg[0]);
     out->alpha_top = pw_column_alpha(b->xg[n - 1], b->yg[n - 1]);
     bool ok;

@@ -117,10 +117,48 @@ static pw_status curve_minus_target(pw_column_ws *w, void *p, double x, double *
     return PW_OK;
 }
 
+/* With the tabulated curve: the grid cell [x_j, x_j+1] whose y* values straddle y, found by
+ * bisection on the table. The table is increasing on a feasible range; a cell that does not
+ * straddle (a non-monotone stretch) makes the caller fall back to the wide bracket. */
+static bool table_bracket(const pw_column_ws *w, double y, double xlo, size_t *j)
+{
+    const double *ty = w->tab_y;
+    size_t n = w->tab_n;
+    if (!ty || n < 2 || !(y >= ty[0] && y <= ty[n - 1]))
+        return false;
+    size_t lo = 0, hi = n - 1;
+    while (hi - lo > 1) {
+        size_t mid = lo + (hi - lo) / 2;
+        if (ty[mid] <= y)
+            lo = mid;
+        else
+            hi = mid;
+    }
+    if (!(ty[lo] <= y && y <= ty[lo + 1]) || w->tab_x[lo] < xlo)
+        return false;
+    *j = lo;
+    return true;
+}
+
 pw_status pw_column_x_of_y(pw_column_ws *w, double y, double xlo, double *x)
 {
     if (!(y > 0.0 && y <= 1.0) || !(xlo >= 0.0 && xlo < y))
         return PW_EDOM;
+    size_t j;
+    if (table_bracket(w, y, xlo, &j)) {
+        double fa = w->tab_y[j] - y, fb = w->tab_y[j + 1] - y;
+        if (fa == 0.0) {
+            *x = w->tab_x[j];
+            return PW_OK;
+        }
+        if (fb == 0.0) {
+            *x = w->tab_x[j + 1];
+            return PW_OK;
+        }
+        double target0 = y;
+        return pw_column_root(w, curve_minus_target, &target0, w->tab_x[j], w->tab_x[j + 1], fa,
+                              fb, x);
+    }
     double target = y, flo, fhi;
     pw_status st = curve_minus_target(w, &target, xlo, &flo);
     if (st != PW_OK)
