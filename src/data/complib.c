@@ -234,12 +234,8 @@ pw_status pw_complib_parse_chunked(pw_complib *lib, const char *buf, size_t len,
         return ust;
     pw_csvrows r;
     pw_status st = pw_csvrows_init(&r, rd.name, NULL, on_row, &rd, err);
-    if (chunk == 0)
-        chunk = len ? len : 1;
-    for (size_t off = 0; st == PW_OK && off < len; off += chunk)
-        st = pw_csvrows_feed(&r, buf + off, len - off < chunk ? len - off : chunk);
     if (st == PW_OK)
-        st = pw_csvrows_finish(&r);
+        st = pw_csvrows_feed_all(&r, buf, len, chunk);
     long last_line = r.line;
     pw_csvrows_free(&r);
     if (st == PW_OK && !rd.header_seen)

@@ -356,3 +356,13 @@ pw_status pw_csvrows_slurp(const char *path, size_t max_bytes, char **buf, size_
     *len = n;
     return PW_OK;
 }
+
+pw_status pw_csvrows_feed_all(pw_csvrows *r, const char *buf, size_t len, size_t chunk)
+{
+    if (chunk == 0)
+        chunk = len ? len : 1;
+    pw_status st = PW_OK;
+    for (size_t off = 0; st == PW_OK && off < len; off += chunk)
+        st = pw_csvrows_feed(r, buf + off, len - off < chunk ? len - off : chunk);
+    return st == PW_OK ? pw_csvrows_finish(r) : st;
+}

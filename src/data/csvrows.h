@@ -67,6 +67,10 @@ pw_status pw_csvrows_feed(pw_csvrows *r, const char *buf, size_t len);
 /* Ends the input: flushes a last line without terminator and the last row. */
 pw_status pw_csvrows_finish(pw_csvrows *r);
 
+/* Feeds the whole buffer in pieces of chunk bytes (0: all at once), then finishes: the same rows
+ * and errors whatever the chunk size (the readers' tests replay every size). */
+pw_status pw_csvrows_feed_all(pw_csvrows *r, const char *buf, size_t len, size_t chunk);
+
 /* Releases everything (csv_fini was done by finish; csv_free here). Accepts a zeroed reader. */
 void pw_csvrows_free(pw_csvrows *r);
 
