@@ -76,7 +76,8 @@ pw_status pw_unc_sampler_init(pw_unc_sampler *s, const pw_system *sys,
     double a[PW_MAX_PARAMS * PW_MAX_PARAMS];
     memcpy(a, r, sizeof(double) * p * p);
     lapack_int info = LAPACKE_dpotrf(LAPACK_ROW_MAJOR, 'L', (lapack_int)p, a, (lapack_int)p);
-    double L0[PW_MAX_PARAMS][PW_MAX_PARAMS] = {{0.0}};
+    double L0[PW_MAX_PARAMS][PW_MAX_PARAMS];
+    memset(L0, 0, sizeof L0);
     if (info == 0) {
         for (size_t i = 0; i < p; i++)
             for (size_t j = 0; j <= i; j++)
