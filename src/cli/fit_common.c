@@ -226,7 +226,8 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
     if (st != PW_OK)
         return pw_status_exit_code(st);
     if (!co->quiet) {
-        warn_ranges(r, input);
+        if (!co->no_range_warning)
+            warn_ranges(r, input);
         warn_pure_points(r, input);
         warn_duplicates(r, input);
         warn_fit(r, input);
@@ -286,7 +287,9 @@ int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_o
     for (size_t i = 0; i < n; i++) {
         res[i].model = models[i];
         pw_error_clear(&res[i].err);
-        res[i].rc = pw_fit_one(input, models[i], NULL, out_dir, co, &res[i].r, res[i].path,
+        pw_fit_cli_opts one = *co;
+        one.no_range_warning = ok > 0; /* the data's range is the same for every model */
+        res[i].rc = pw_fit_one(input, models[i], NULL, out_dir, &one, &res[i].r, res[i].path,
                                sizeof res[i].path, &res[i].err);
         ok += res[i].rc == 0;
         char what[64];

@@ -13,6 +13,7 @@ typedef struct pw_fit_cli_opts {
     const pw_complib *lib;
     bool force, json;
     bool quiet; /* no warnings on stderr (batch workers collect them instead) */
+    bool no_range_warning; /* data-range warnings already given (--model all: once, not per model) */
 } pw_fit_cli_opts;
 
 /* Reads input, fits model, writes the fit file (out, else out_dir/<stem>.<model>.json, else
