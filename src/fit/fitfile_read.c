@@ -272,6 +272,15 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
         const json_t *n = json_object_get(st, "residuals"), *d = json_object_get(st, "dof");
         r->n_residuals = json_is_integer(n) ? (size_t)json_integer_value(n) : 0;
         r->dof = json_is_integer(d) ? (size_t)json_integer_value(d) : 0;
+        const char *counts[] = {"iterations", "function_evaluations", "jacobian_evaluations",
+                                "lm_runs"};
+        size_t *dst[] = {&r->iterations, &r->n_fev, &r->n_jev, &r->n_runs};
+        for (int k = 0; k < 4; k++) {
+            const json_t *c = json_object_get(st, counts[k]);
+            *dst[k] = json_is_integer(c) && json_integer_value(c) >= 0
+                          ? (size_t)json_integer_value(c)
+                          : 0;
+        }
     }
     const json_t *sig = json_object_get(root, "sigmas");
     if (json_is_object(sig)) {

@@ -146,6 +146,7 @@ json_t *pw_fitfile_to_json(const pw_fit_result *r)
     json_object_set_new(st, "iterations", json_integer((json_int_t)r->iterations));
     json_object_set_new(st, "function_evaluations", json_integer((json_int_t)r->n_fev));
     json_object_set_new(st, "jacobian_evaluations", json_integer((json_int_t)r->n_jev));
+    json_object_set_new(st, "lm_runs", json_integer((json_int_t)r->n_runs));
     json_object_set_new(st, "deviation_y", stat_json(&r->dev_y, 1.0));
     json_object_set_new(st, "deviation_T_K", stat_json(&r->dev_T_K, 1.0));
     json_object_set_new(st, "deviation_P_kPa", stat_json(&r->dev_P_Pa, 1e-3));

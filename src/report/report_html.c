@@ -170,8 +170,10 @@ static void parameters(pw_sbuf *b, const pw_fit_result *r)
     char t[400];
     snprintf(t, sizeof t, "%s (%s)", r->converged ? "yes" : "NO", pw_fit_stop_name(r->stop));
     kv(b, "Converged", t, false);
-    snprintf(t, sizeof t, "%zu iterations, %zu residual and %zu Jacobian evaluations", r->iterations,
-             r->n_fev, r->n_jev);
+    snprintf(t, sizeof t,
+             "%zu LM runs of the multistart, %zu iterations, %zu residual and %zu Jacobian "
+             "evaluations",
+             r->n_runs, r->iterations, r->n_fev, r->n_jev);
     kv(b, "Work", t, false);
     snprintf(t, sizeof t, "%.4g over %zu residuals, %zu degrees of freedom (%.3g per degree)", r->chi2,
              r->n_residuals, r->dof, r->chi2_red);
