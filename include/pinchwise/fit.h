@@ -123,6 +123,10 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
  * current parameters (used after reading a fit file or perturbing parameters). */
 pw_status pw_fit_evaluate(pw_fit_result *r);
 
+/* How many of r->minima (sorted by chi2) fit as well as the best: chi2 within a factor
+ * max(1.01, exp(2/n)) of it, i.e. delta-AICc < 2 for one model (docs/fitting.md). */
+size_t pw_fit_competing_minima(const pw_fit_result *r);
+
 /* Frees r->pts; accepts NULL. */
 void pw_fit_result_free(pw_fit_result *r);
 

@@ -161,9 +161,7 @@ static void warn_fit(const pw_fit_result *r, const char *input)
                      "%s: the %s parameters predict a liquid-liquid split (d2(Gmix/RT)/dx1^2 = %.3g "
                      "at x1 = %.3f, %.1f K); if the liquids are known to mix, the fit is spurious",
                      input, r->sys.model->name, r->split_min_D, r->split_x, r->split_T_K);
-    size_t competing = 0;
-    for (size_t i = 0; i < r->n_minima; i++)
-        competing += r->minima[i].chi2 <= r->minima[0].chi2 * fmax(1.01, exp(2.0 / (double)r->n_residuals));
+    size_t competing = pw_fit_competing_minima(r);
     if (competing > 1)
         pw_cli_warnf("fit", "%s: %zu distinct minima fit the data about equally well (delta-AICc < 2); "
                      "the one without a liquid split and lowest chi2 is used, all are in the fit file",

@@ -6,8 +6,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-static bool is_pure(const pw_point *p) { return p->x1 <= 0.0 || p->x1 >= 1.0; }
-
 static void stat_init(pw_fit_stat *s)
 {
     s->aad = s->bias = s->max_abs = 0.0;
@@ -73,7 +71,7 @@ pw_status pw_fit_evaluate(pw_fit_result *r)
         fpnt->P_calc_Pa = pst == PW_OK ? eq.P_Pa : (double)NAN;
         fpnt->y_calc = pst == PW_OK ? eq.y1 : (double)NAN;
         lngamma_from_point(&r->sys, m, r->has_y, fpnt->lngamma_exp);
-        if (fpnt->excluded || is_pure(m))
+        if (fpnt->excluded || fit_is_pure(m))
             continue;
         if (pst != PW_OK) {
             if (first_failure == PW_OK)
@@ -116,25 +114,42 @@ pw_status pw_fit_evaluate(pw_fit_result *r)
         r->lngamma_inf[0] = r->lngamma_inf[1] = NAN;
     }
 
-    /* Liquid-stability screen (METHODS 1.6) at five temperatures over the data's range. */
-    r->split = false;
-    r->split_min_D = INFINITY;
-    r->split_x = NAN;
-    r->split_T_K = NAN;
+    /* Liquid-stability screen (METHODS 1.6) over the data's temperature range. */
     double lo = isfinite(r->T_min_K) ? r->T_min_K : r->sys.T_ref_K;
     double hi = isfinite(r->T_max_K) ? r->T_max_K : r->sys.T_ref_K;
-    for (int i = 0; i < 5; i++) {
-        double T = lo + (hi - lo) * i / 4.0, D, x;
-        if (pw_stability_min(&r->sys, T, &D, &x) != PW_OK)
-            continue;
-        if (D < r->split_min_D) {
-            r->split_min_D = D;
-            r->split_x = x;
-            r->split_T_K = T;
-        }
-    }
+    fit_stability_screen(&r->sys, lo, hi, &r->split_min_D, &r->split_x, &r->split_T_K);
     r->split = r->split_min_D < 0.0;
     return first_failure;
+}
+
+void fit_stability_screen(const pw_system *s, double T_lo, double T_hi, double *min_D,
+                          double *x_at_min, double *T_at_min)
+{
+    *min_D = INFINITY;
+    *x_at_min = NAN;
+    *T_at_min = NAN;
+    for (int i = 0; i < 5; i++) {
+        double T = T_lo + (T_hi - T_lo) * i / 4.0, D, x;
+        if (pw_stability_min(s, T, &D, &x) != PW_OK)
+            continue;
+        if (D < *min_D) {
+            *min_D = D;
+            *x_at_min = x;
+            *T_at_min = T;
+        }
+    }
+}
+
+size_t pw_fit_competing_minima(const pw_fit_result *r)
+{
+    if (!r || r->n_minima == 0)
+        return 0;
+    double n = r->n_residuals > 0 ? (double)r->n_residuals : 1.0;
+    double limit = r->minima[0].chi2 * fmax(1.01, exp(2.0 / n));
+    size_t k = 0;
+    while (k < r->n_minima && r->minima[k].chi2 <= limit)
+        k++;
+    return k;
 }
 
 void pw_fit_result_free(pw_fit_result *r)

@@ -35,8 +35,6 @@ pw_fit_options pw_fit_default_options(void)
     return o;
 }
 
-static bool is_pure(const pw_point *p) { return p->x1 <= 0.0 || p->x1 >= 1.0; }
-
 static bool is_excluded(const pw_fit_options *o, long line)
 {
     for (size_t i = 0; i < o->n_exclude; i++)
@@ -182,16 +180,6 @@ static bool same_minimum(const fit_problem *fp, const double *a, const double *b
     return true;
 }
 
-static bool stable_over_range(const pw_system *s, double T_lo, double T_hi)
-{
-    for (int i = 0; i < 5; i++) {
-        double T = T_lo + (T_hi - T_lo) * i / 4.0, D, x;
-        if (pw_stability_min(s, T, &D, &x) == PW_OK && D < 0.0)
-            return false;
-    }
-    return true;
-}
-
 /* Fills the problem's used points and weights from r (which holds all points). The caller
  * frees *used. */
 static pw_status build_problem(const pw_fit_result *r, fit_problem *fp, pw_point **used)
@@ -216,7 +204,7 @@ static pw_status build_problem(const pw_fit_result *r, fit_problem *fp, pw_point
         return PW_ENOMEM;
     size_t n = 0;
     for (size_t i = 0; i < r->n_pts; i++)
-        if (!r->pts[i].excluded && !is_pure(&r->pts[i].meas))
+        if (!r->pts[i].excluded && !fit_is_pure(&r->pts[i].meas))
             (*used)[n++] = r->pts[i].meas;
     fp->pts = *used;
     fp->n_pts = n;
@@ -299,7 +287,7 @@ static pw_status init_result(const pw_dataset *ds, const pw_component *c1, const
         nT++;
         r->T_min_K = fmin(r->T_min_K, ds->pts[i].T_K);
         r->T_max_K = fmax(r->T_max_K, ds->pts[i].T_K);
-        n_binary += !is_pure(&ds->pts[i]);
+        n_binary += !fit_is_pure(&ds->pts[i]);
     }
     for (size_t e = 0; e < o->n_exclude; e++) {
         bool found = false;
@@ -482,23 +470,23 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     qsort(out->minima, out->n_minima, sizeof out->minima[0], cmp_minima);
     /* Among minima as good as the best (METHODS 3.5: S <= 1.01 S_best or delta-AICc < 2), take
      * the first that predicts no liquid split over the data's temperature range. */
-    if (out->n_minima > 1) {
-        double limit = out->minima[0].chi2 * fmax(1.01, exp(2.0 / (double)fp.n_res));
-        for (size_t i = 0; i < out->n_minima && out->minima[i].chi2 <= limit; i++) {
-            pw_system s = out->sys;
-            memcpy(s.params, out->minima[i].params, sizeof s.params);
-            if (stable_over_range(&s, out->T_min_K, out->T_max_K)) {
-                memcpy(best.params, out->minima[i].params, sizeof best.params);
-                best.chi2 = out->minima[i].chi2;
-                break;
-            }
+    out->n_residuals = fp.n_res;
+    size_t competing = pw_fit_competing_minima(out);
+    for (size_t i = 0; competing > 1 && i < competing; i++) {
+        pw_system s = out->sys;
+        memcpy(s.params, out->minima[i].params, sizeof s.params);
+        double D, x, T;
+        fit_stability_screen(&s, out->T_min_K, out->T_max_K, &D, &x, &T);
+        if (!(D < 0.0)) {
+            memcpy(best.params, out->minima[i].params, sizeof best.params);
+            best.chi2 = out->minima[i].chi2;
+            break;
         }
     }
     memcpy(out->sys.params, best.params, sizeof best.params);
     out->stop = best.stop;
     out->converged = best.stop == PW_STOP_STEP || best.stop == PW_STOP_GRADIENT;
     out->chi2 = best.chi2;
-    out->n_residuals = fp.n_res;
     out->dof = fp.n_res > fp.n_fit ? fp.n_res - fp.n_fit : 0;
 
     /* Covariance, standard errors, confidence intervals, correlation at the chosen optimum. */

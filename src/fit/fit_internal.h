@@ -18,6 +18,15 @@ typedef struct fit_problem {
     double P_fixed_Pa, T_fixed_K;
 } fit_problem;
 
+/* A pure-component row (x1 = 0 or 1): no information on the activity parameters. */
+static inline bool fit_is_pure(const pw_point *p) { return p->x1 <= 0.0 || p->x1 >= 1.0; }
+
+/* Liquid-stability screen (METHODS 1.6): the smallest d2(Gmix/RT)/dx1^2 over 0 < x1 < 1 at five
+ * temperatures spanning [T_lo, T_hi], where it lies, and at which temperature. *min_D is
+ * INFINITY (x, T NAN) when no temperature could be screened. */
+void fit_stability_screen(const pw_system *s, double T_lo, double T_hi, double *min_D,
+                          double *x_at_min, double *T_at_min);
+
 /* Residual count of one point for the objective. */
 size_t fit_residuals_per_point(pw_objective obj);
 
