@@ -6,6 +6,7 @@
 #include <jansson.h>
 #include <pinchwise/component.h>
 #include <pinchwise/equilibrium.h>
+#include <pinchwise/fit.h>
 #include <pinchwise/status.h>
 #include <pinchwise/units.h>
 #include <stdbool.h>
@@ -49,6 +50,11 @@ pw_status pw_cli_override_components(const char *cmd, pw_system *sys, const char
 /* Warns on stderr when a component associates in the vapor (a carboxylic acid): modified
  * Raoult's law, which pinchwise uses, is then unreliable even at 1 atm. */
 void pw_cli_warn_vapor_association(const char *cmd, const pw_system *sys);
+
+/* Reads a fit file and, when components is not NULL, applies pw_cli_override_components. On
+ * failure fit is left freed and err filled. */
+pw_status pw_cli_read_fit(const char *cmd, const char *path, const char *components,
+                          pw_fit_result *fit, pw_error *err);
 
 /* Parses a command-line quantity with its unit ("101.325kPa") for option opt; on failure fills
  * err with a message that names the option and lists the units. */

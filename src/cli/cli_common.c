@@ -228,3 +228,15 @@ int pw_cli_target_opt(const char *opt, const char *value, pw_cli_targets *t, pw_
         return pw_cli_number(opt, value, &t->q, err) == PW_OK ? 0 : PW_EXIT_USAGE;
     return -1;
 }
+
+pw_status pw_cli_read_fit(const char *cmd, const char *path, const char *components,
+                          pw_fit_result *fit, pw_error *err)
+{
+    pw_status st = pw_fitfile_read(path, fit, err);
+    if (st != PW_OK)
+        return st;
+    st = pw_cli_override_components(cmd, &fit->sys, components, err);
+    if (st != PW_OK)
+        pw_fit_result_free(fit);
+    return st;
+}

@@ -260,13 +260,9 @@ int pw_cli_azeotrope(int argc, char **argv)
         return pw_cli_fail(CMD, &err);
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
-    pw_status st = pw_fitfile_read(a.fit_path, &fit, &err);
-    if (st == PW_OK)
-        st = pw_cli_override_components(CMD, &fit.sys, a.components, &err);
-    if (st != PW_OK) {
-        pw_fit_result_free(&fit);
+    pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
+    if (st != PW_OK)
         return pw_cli_fail(CMD, &err);
-    }
     pw_az_result r;
     pw_az_scan *sc = NULL;
     st = pw_azeotrope_find(&fit.sys, a.mode, a.fixed, NULL, &r);

@@ -225,14 +225,9 @@ int pw_cli_report(int argc, char **argv)
 
     pw_fit_result fit;
     progress("reading the fit file");
-    pw_status st = pw_fitfile_read(a.fit, &fit, &err);
+    pw_status st = pw_cli_read_fit("report", a.fit, a.components, &fit, &err);
     if (st != PW_OK)
         return pw_cli_fail("report", &err);
-    st = pw_cli_override_components("report", &fit.sys, a.components, &err);
-    if (st != PW_OK) {
-        pw_fit_result_free(&fit);
-        return pw_cli_fail("report", &err);
-    }
     if (!fit.converged)
         pw_cli_warnf("report", "%s: the fit did not converge; the report says so on every page", a.fit);
 

@@ -237,12 +237,8 @@ int pw_cli_screen(int argc, char **argv)
         return pw_cli_fail(CMD, &err);
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
-    if (pw_fitfile_read(a.fit_path, &fit, &err) != PW_OK)
+    if (pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
-    if (pw_cli_override_components(CMD, &fit.sys, a.components, &err) != PW_OK) {
-        pw_fit_result_free(&fit);
-        return pw_cli_fail(CMD, &err);
-    }
     pw_screen_result r;
     pw_status st = pw_screen_run(&fit.sys, a.P_Pa, a.xd, a.xb, a.zf, &a.opt, &r);
     if (st != PW_OK) {

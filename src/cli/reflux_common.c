@@ -109,14 +109,9 @@ int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err
 int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err)
 {
     memset(run, 0, sizeof *run);
-    pw_status st = pw_fitfile_read(a->fit_path, &run->fit, err);
+    pw_status st = pw_cli_read_fit("reflux", a->fit_path, a->components, &run->fit, err);
     if (st != PW_OK)
         return pw_status_exit_code(st);
-    st = pw_cli_override_components("reflux", &run->fit.sys, a->components, err);
-    if (st != PW_OK) {
-        pw_fit_result_free(&run->fit);
-        return pw_status_exit_code(st);
-    }
     run->P_Pa = a->P_Pa;
     run->spec = a->spec;
     pw_system_curve sc;
