@@ -12,21 +12,7 @@
 
 static pw_component invented(const char *name, double A)
 {
-    pw_component c;
-    memset(&c, 0, sizeof c);
-    snprintf(c.name, sizeof c.name, "%s", name);
-    c.equation = PW_PSAT_ANTOINE;
-    c.A = A;
-    c.B = 3000.0;
-    c.C = -50.0;
-    c.log = PW_LN;
-    snprintf(c.P_unit, sizeof c.P_unit, "kPa");
-    snprintf(c.T_unit, sizeof c.T_unit, "K");
-    c.T_min_K = 250.0;
-    c.T_max_K = 500.0;
-    c.V_L_cm3mol = NAN;
-    snprintf(c.source, sizeof c.source, "invented for a unit test");
-    return c;
+    return pw_test_antoine(name, A, 3000.0, -50.0, PW_LN, "kPa", "K", 250.0, 500.0);
 }
 
 static pw_system ideal_system(double alpha)

@@ -16,20 +16,9 @@
 
 static pw_component invented(const char *name, double P_kPa)
 {
-    pw_component c;
-    memset(&c, 0, sizeof c);
-    snprintf(c.name, sizeof c.name, "%s", name);
-    c.equation = PW_PSAT_ANTOINE;
-    c.B = 3000.0;
-    c.C = -50.0;
-    c.A = log(P_kPa) + c.B / (T_FIX + c.C);
-    c.log = PW_LN;
-    snprintf(c.P_unit, sizeof c.P_unit, "kPa");
-    snprintf(c.T_unit, sizeof c.T_unit, "K");
-    c.T_min_K = 250.0;
-    c.T_max_K = 500.0;
-    c.V_L_cm3mol = NAN;
-    return c;
+    /* B and C as the other invented rows; A sets P^sat(T_FIX) = P_kPa */
+    return pw_test_antoine(name, log(P_kPa) + 3000.0 / (T_FIX - 50.0), 3000.0, -50.0, PW_LN,
+                           "kPa", "K", 250.0, 500.0);
 }
 
 static void one_parameter_problem(pw_unc_problem *pb, double A, double sd)

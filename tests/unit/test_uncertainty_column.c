@@ -169,20 +169,7 @@ static void linearised_and_sampled_agree_when_nearly_linear(void **state)
  * With sd(A) = 0.03 the azeotrope falls below xd in a fair share of the draws. */
 static pw_component invented(const char *name, double A)
 {
-    pw_component c;
-    memset(&c, 0, sizeof c);
-    snprintf(c.name, sizeof c.name, "%s", name);
-    c.equation = PW_PSAT_ANTOINE;
-    c.A = A;
-    c.B = 3000.0;
-    c.C = -50.0;
-    c.log = PW_LN;
-    snprintf(c.P_unit, sizeof c.P_unit, "kPa");
-    snprintf(c.T_unit, sizeof c.T_unit, "K");
-    c.T_min_K = 250.0;
-    c.T_max_K = 500.0;
-    c.V_L_cm3mol = NAN;
-    return c;
+    return pw_test_antoine(name, A, 3000.0, -50.0, PW_LN, "kPa", "K", 250.0, 500.0);
 }
 
 static void straddling_feasibility_gives_intermediate_risk(void **state)
