@@ -639,14 +639,23 @@ static void ranking(pw_sbuf *b, const pw_report_curves *c, const pw_report_input
         w->r = r;
         bool iso = r->kind == PW_DATA_ISOTHERMAL;
         pw_az_result az;
-        w->az_ok = pw_azeotrope_find(&r->sys, iso ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC,
-                                     iso ? r->T_fixed_K : r->P_fixed_Pa, NULL, &az) == PW_OK;
+        if (i == 0 && c->az_res_ok) { /* the report's own fit: already searched */
+            az = c->az_res;
+            w->az_ok = true;
+        } else {
+            w->az_ok = pw_azeotrope_find(&r->sys, iso ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC,
+                                         iso ? r->T_fixed_K : r->P_fixed_Pa, NULL, &az) == PW_OK;
+        }
         w->n_az = w->az_ok ? az.n : 0;
         w->x_az = w->az_ok && az.n ? az.az[0].x1 : (double)NAN;
         w->r_min = NAN;
         w->feasible = false;
         w->col_ok = false;
-        if (c->column) {
+        if (c->column && i == 0 && c->col_status == PW_OK) { /* already solved for this page */
+            w->col_ok = true;
+            w->feasible = c->col.feasible;
+            w->r_min = c->col.feasible ? c->col.r_min : (double)NAN;
+        } else if (c->column) {
             pw_system_curve sc;
             pw_column_result col;
             if (pw_system_curve_init(&sc, &r->sys, c->P_col_Pa) == PW_OK) {
