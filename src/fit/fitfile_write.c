@@ -53,6 +53,13 @@ static json_t *component_json(const pw_component *c)
     json_object_set_new(o, "T_max_K", num(c->T_max_K));
     json_object_set_new(o, "V_L_cm3mol", num(c->V_L_cm3mol));
     json_object_set_new(o, "source", json_string(c->source));
+    /* the optional constants it was fitted with, in the component file's columns and units */
+    json_t *props = json_object();
+    for (int p = 0; p < PW_PROP_COUNT; p++)
+        if (pw_component_require(c, (pw_comp_prop)p, NULL, NULL) == PW_OK)
+            json_object_set_new(props, pw_comp_prop_column((pw_comp_prop)p),
+                                num(c->prop[p] / pw_comp_prop_to_si((pw_comp_prop)p)));
+    json_object_set_new(o, "constants", props);
     return o;
 }
 
