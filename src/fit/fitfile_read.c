@@ -135,6 +135,22 @@ static void read_component(reader *rd, const json_t *c, pw_component *out)
         fail(rd, "component \"%s\": T_min_K must be below T_max_K", out->name);
 }
 
+/* The optional "vapor" key (absent in older fit files: the ideal vapor). A virial vapor needs the
+ * components' critical data, which the file must then carry. */
+static void read_vapor(reader *rd, const json_t *v, pw_system *sys)
+{
+    sys->vapor = PW_VAPOR_IDEAL;
+    if (!v || rd->st != PW_OK)
+        return;
+    if (!json_is_string(v) || pw_vapor_parse(json_string_value(v), &sys->vapor) != PW_OK) {
+        fail(rd, "key \"vapor\" must be \"ideal\" or \"virial\"");
+        return;
+    }
+    pw_error e;
+    if (pw_vapor_check(sys->vapor, &sys->comp[0], &sys->comp[1], &e) != PW_OK)
+        fail(rd, "\"vapor\" is virial but %s", e.msg);
+}
+
 static void read_params(reader *rd, const json_t *obj, const pw_model_type *m, double *v,
                         bool required)
 {
@@ -273,6 +289,7 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
     read_matrix(rd, root, "covariance", m->n_params, r->cov);
     read_matrix(rd, root, "correlation", m->n_params, r->corr);
     r->sys.T_ref_K = get_num(rd, root, "T_ref_K", false);
+    read_vapor(rd, json_object_get(root, "vapor"), &r->sys);
     r->converged = json_is_true(json_object_get(root, "converged"));
     if (rd->st == PW_OK && m->check(r->sys.params) != PW_OK)
         fail(rd, "the parameters lie outside the domain of model %s", m->name);

@@ -104,6 +104,7 @@ json_t *pw_fitfile_summary_json(const pw_fit_result *r)
     json_array_append_new(lgi, num(r->lngamma_inf[1]));
     json_object_set_new(o, "ln_gamma_inf", lgi);
     json_object_set_new(o, "T_ref_K", num(r->sys.T_ref_K));
+    json_object_set_new(o, "vapor", json_string(pw_vapor_name(r->sys.vapor)));
     json_object_set_new(o, "aad_y", r->has_y ? num(r->dev_y.aad) : json_null());
     json_object_set_new(o, "aad_T_K", r->kind == PW_DATA_ISOBARIC ? num(r->dev_T_K.aad) : json_null());
     json_object_set_new(o, "aad_P_kPa",
