@@ -414,9 +414,9 @@ static void azeotropes(pw_sbuf *b, const pw_report_curves *c, const char *cond)
                         "the model's bubble points (Brent's method), classified by the extremum of "
                         "the bubble curve; see docs/azeotrope.md.</p></section>\n");
     else
-        pw_sbuf_puts(b, "<p class=\"note\">The azeotrope search did not complete; these values "
-                        "are where y\xe2\x82\x81 \xe2\x88\x92 x\xe2\x82\x81 of the plotted bubble "
-                        "points changes sign, refined by bisection.</p></section>\n");
+        pw_sbuf_puts(b, "<p class=\"verdict-fail\">The azeotrope search did not complete at one of "
+                        "these conditions: no azeotrope is shown there, which does not mean there is "
+                        "none.</p></section>\n");
 }
 
 static void column_section(pw_sbuf *b, const pw_report_curves *c)
@@ -605,121 +605,61 @@ static const char *caption_for(const char *name, bool column)
            "y P = x \xce\xb3 P\xcb\xa2\xe1\xb5\x83\xe1\xb5\x97.";
 }
 
-typedef struct rank_row {
-    const pw_fit_result *r;
-    double x_az;   /* first azeotrope at the data's condition, NAN for none */
-    size_t n_az;
-    bool az_ok;
-    double r_min;  /* at the column targets, NAN when not asked or infeasible */
-    bool feasible, col_ok;
-} rank_row;
-
-static int cmp_rank(const void *a, const void *b)
+/* Model comparison: every fit of the same data as ranked by the library (pw_rank_assess), with
+ * the design numbers beside the deviations, since equal deviations can hide different azeotropes. */
+static void ranking(pw_sbuf *b, const pw_report_curves *c)
 {
-    const rank_row *x = a, *y = b;
-    int bx = !x->r->converged || x->r->split, by = !y->r->converged || y->r->split;
-    if (bx != by)
-        return bx - by;
-    return (x->r->aicc > y->r->aicc) - (x->r->aicc < y->r->aicc);
-}
-
-/* Model comparison: every fit of the same data, ranked by AICc (Hurvich & Tsai 1989), with the
- * design numbers beside the deviations, since equal deviations can hide different azeotropes. */
-static void ranking(pw_sbuf *b, const pw_report_curves *c, const pw_report_input *in)
-{
-    if (!in->others || in->n_others == 0)
+    const pw_ranking *rk = c->rank;
+    if (!rk || c->rank_status != PW_OK)
         return;
-    size_t n = in->n_others + 1;
-    rank_row rows[9];
-    if (n > 9)
-        n = 9;
-    for (size_t i = 0; i < n; i++) {
-        const pw_fit_result *r = i == 0 ? c->fit : in->others[i - 1];
-        rank_row *w = &rows[i];
-        w->r = r;
-        bool iso = r->kind == PW_DATA_ISOTHERMAL;
-        pw_az_result az;
-        if (i == 0 && c->az_res_ok) { /* the report's own fit: already searched */
-            az = c->az_res;
-            w->az_ok = true;
-        } else {
-            w->az_ok = pw_azeotrope_find(&r->sys, iso ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC,
-                                         iso ? r->T_fixed_K : r->P_fixed_Pa, NULL, &az) == PW_OK;
-        }
-        w->n_az = w->az_ok ? az.n : 0;
-        w->x_az = w->az_ok && az.n ? az.az[0].x1 : (double)NAN;
-        w->r_min = NAN;
-        w->feasible = false;
-        w->col_ok = false;
-        if (c->column && i == 0 && c->col_status == PW_OK) { /* already solved for this page */
-            w->col_ok = true;
-            w->feasible = c->col.feasible;
-            w->r_min = c->col.feasible ? c->col.r_min : (double)NAN;
-        } else if (c->column) {
-            pw_system_curve sc;
-            pw_column_result col;
-            if (pw_system_curve_init(&sc, &r->sys, c->P_col_Pa) == PW_OK) {
-                pw_curve cv = pw_system_curve_bind(&sc);
-                w->col_ok = pw_column_solve(&cv, &c->spec, NULL, &col) == PW_OK;
-                w->feasible = w->col_ok && col.feasible;
-                w->r_min = w->feasible ? col.r_min : (double)NAN;
-            }
-        }
-    }
-    qsort(rows, n, sizeof rows[0], cmp_rank);
-    double best = rows[0].r->aicc;
     pw_sbuf_puts(b, "<section id=\"ranking\"><h2>Models fitted to these data, side by side</h2>\n"
-                    "<table><tr><th>Rank</th><th>Model</th><th>\xce\x94" "AICc</th><th>Mean |\xce\x94" "y|"
+                    "<table><tr><th>Rank</th><th>Model</th><th>\xce\x94" "AICc (0 = best; lower is better)</th>"
+                    "<th>Support</th><th>Mean |\xce\x94" "y|"
                     "</th><th>Mean |\xce\x94T| / K</th><th>Mean |\xce\x94P| / kPa</th>"
                     "<th>Azeotrope x\xe2\x82\x81 at the data's condition</th>");
     if (c->column)
         pw_sbuf_puts(b, "<th>R_min at the column targets</th>");
     pw_sbuf_puts(b, "<th>Notes</th></tr>\n");
-    double xlo = INFINITY, xhi = -INFINITY, rlo = INFINITY, rhi = -INFINITY;
-    for (size_t i = 0; i < n; i++) {
-        const rank_row *w = &rows[i];
+    for (size_t i = 0; i < rk->n; i++) {
+        const pw_rank_row *w = &rk->rows[i];
         pw_sbuf_printf(b, "<tr><td class=\"num\">%zu</td><td>", i + 1);
-        esc(b, w->r->sys.model->name);
-        pw_sbuf_puts(b, w->r == c->fit ? " (this report)</td>" : "</td>");
-        num(b, w->r->aicc - best, 3);
-        num(b, w->r->dev_y.aad, 3);
-        num(b, w->r->dev_T_K.aad, 3);
-        num(b, w->r->dev_P_Pa.aad / 1000.0, 3);
-        if (!w->az_ok)
+        esc(b, w->fit->sys.model->name);
+        pw_sbuf_puts(b, w->fit == c->fit ? " (this report)</td>" : "</td>");
+        num(b, w->delta_aicc, 3);
+        pw_sbuf_printf(b, "<td>%s</td>", pw_rank_class_name(w->cls));
+        num(b, w->fit->dev_y.aad, 3);
+        num(b, w->fit->dev_T_K.aad, 3);
+        num(b, w->fit->dev_P_Pa.aad / 1000.0, 3);
+        if (w->az_status != PW_OK)
             pw_sbuf_puts(b, "<td>search failed</td>");
-        else if (w->n_az == 0)
+        else if (w->az.n == 0)
             pw_sbuf_puts(b, "<td>none</td>");
         else
-            num(b, w->x_az, 4);
+            num(b, w->az.az[0].x1, 4);
         if (c->column) {
-            if (w->feasible)
-                num(b, w->r_min, 4);
+            if (w->col_status == PW_OK && w->col.feasible)
+                num(b, w->col.r_min, 4);
             else
-                pw_sbuf_puts(b, w->col_ok ? "<td>infeasible</td>" : "<td>not solved</td>");
+                pw_sbuf_puts(b, w->col_status == PW_OK ? "<td>infeasible</td>" : "<td>not solved</td>");
         }
-        pw_sbuf_printf(b, "<td>%s%s</td></tr>\n", w->r->converged ? "" : "did not converge. ",
-                       w->r->split ? "predicts a liquid split." : "");
-        bool considered = w->r->aicc - best < 10.0;
-        if (considered && isfinite(w->x_az)) {
-            xlo = fmin(xlo, w->x_az);
-            xhi = fmax(xhi, w->x_az);
-        }
-        if (considered && isfinite(w->r_min)) {
-            rlo = fmin(rlo, w->r_min);
-            rhi = fmax(rhi, w->r_min);
-        }
+        pw_sbuf_printf(b, "<td>%s%s</td></tr>\n", w->fit->converged ? "" : "did not converge. ",
+                       w->fit->split ? "predicts a liquid split." : "");
     }
     pw_sbuf_puts(b, "</table>\n<p class=\"note\">Ranked by AICc (Hurvich &amp; Tsai 1989): "
-                    "\xce\x94" "AICc below 2 means the data cannot tell the models apart, above 10 "
+                    "\xce\x94" "AICc below 2 means the data cannot tell the models apart, 10 or more "
                     "that a model has essentially no support (Burnham &amp; Anderson 2002). Fits that "
                     "did not converge or predict a liquid split rank last.");
-    if (xhi > xlo)
-        pw_sbuf_printf(b, " Models within \xce\x94" "AICc 10 place the azeotrope between x\xe2\x82\x81 = "
-                          "%.3f and %.3f.", xlo, xhi);
-    if (rhi > rlo)
+    if (rk->az_existence_differs)
+        pw_sbuf_puts(b, " Models with support disagree on whether an azeotrope exists.");
+    else if (rk->az_x_hi > rk->az_x_lo)
+        pw_sbuf_printf(b, " Models with support place the azeotrope between x\xe2\x82\x81 = "
+                          "%.3f and %.3f.", rk->az_x_lo, rk->az_x_hi);
+    if (rk->feasibility_differs)
+        pw_sbuf_puts(b, " They disagree on whether the split is feasible.");
+    if (rk->rmin_hi > rk->rmin_lo)
         pw_sbuf_printf(b, " Their R_min spans %.4g to %.4g (%.0f %% of the lowest): that spread is "
                           "model risk the parameter intervals do not show.",
-                       rlo, rhi, 100.0 * (rhi - rlo) / rlo);
+                       rk->rmin_lo, rk->rmin_hi, 100.0 * (rk->rmin_hi - rk->rmin_lo) / rk->rmin_lo);
     pw_sbuf_puts(b, "</p>\n</section>\n");
 }
 
@@ -767,7 +707,7 @@ pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c
     pw_sbuf_puts(b, "</section>\n");
     parameters(b, r);
     deviations(b, r);
-    ranking(b, c, in);
+    ranking(b, c);
     consistency_section(b, c);
     azeotropes(b, c, cond);
     if (c->column)
