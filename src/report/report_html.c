@@ -43,7 +43,12 @@ static const char *const STYLE =
     "aside.pw-caution h2{border:0;margin:6px 0;font-size:17px;color:var(--warn)}\n"
     "aside.pw-caution li{margin:4px 0}\n"
     "figure{margin:18px 0 26px;break-inside:avoid;page-break-inside:avoid}\n"
-    "figure svg{max-width:100%;height:auto;display:block;border:1px solid var(--rule)}\n"
+    "figure svg{width:100%;max-width:100%;height:auto;display:block;border:1px solid var(--rule)}\n"
+    "section#answers{border:2px solid var(--band);background:var(--tint);padding:4px 20px 10px;"
+    "margin:0 0 18px}\n"
+    "section#answers h2{border:0;margin:10px 0 6px}\n"
+    "dl.answers{display:grid;grid-template-columns:11em 1fr;gap:4px 16px;margin:0}\n"
+    "dl.answers dt{font-weight:600}dl.answers dd{margin:0}\n"
     "figcaption{font-size:13.5px;color:var(--muted);margin-top:6px;max-width:640px}\n"
     ".pw-grid2{display:flex;flex-wrap:wrap;gap:10px 28px}\n"
     "footer{margin-top:34px;color:var(--muted);font-size:12.5px;border-top:1px solid var(--rule);"
@@ -387,6 +392,13 @@ static void az_table(pw_sbuf *b, const pw_report_az *az, size_t n, const char *w
     pw_sbuf_puts(b, "</table>\n");
 }
 
+/* True when the column runs at the data's own (isobaric) pressure: one set of azeotropes then. */
+static bool column_at_data_pressure(const pw_report_curves *c)
+{
+    return c->column && !c->isothermal &&
+           fabs(c->P_col_Pa - c->fit->P_fixed_Pa) <= 1e-9 * c->fit->P_fixed_Pa;
+}
+
 /* Azeotropes from the azeotrope module (include/pinchwise/azeotrope.h). */
 static void azeotropes(pw_sbuf *b, const pw_report_curves *c, const char *cond)
 {
@@ -394,8 +406,10 @@ static void azeotropes(pw_sbuf *b, const pw_report_curves *c, const char *cond)
     pw_sbuf_puts(b, "<section id=\"azeotropes\"><h2>Azeotropes of the model</h2>\n");
     snprintf(where, sizeof where, "At the data's condition, %s", cond);
     bool u1 = c->unc && c->unc_az_status == PW_OK, u2 = c->unc && c->unc_col_az_status == PW_OK;
+    if (column_at_data_pressure(c))
+        snprintf(where, sizeof where, "At the data's condition and the column pressure, %s", cond);
     az_table(b, c->az, c->n_az, where, u1 ? c->unc_az : NULL, c->isothermal);
-    if (c->column) {
+    if (c->column && !column_at_data_pressure(c)) {
         snprintf(where, sizeof where, "At the column pressure, %.4g kPa", c->P_col_Pa / 1000.0);
         az_table(b, c->col_az, c->n_col_az, where, u2 ? c->unc_col_az : NULL, false);
     }
@@ -663,6 +677,187 @@ static void ranking(pw_sbuf *b, const pw_report_curves *c)
     pw_sbuf_puts(b, "</p>\n</section>\n");
 }
 
+/* One line of the answers block: a term, then text the caller writes, closed by answer_end. */
+static void answer(pw_sbuf *b, const char *term)
+{
+    pw_sbuf_puts(b, "<dt>");
+    esc(b, term);
+    pw_sbuf_puts(b, "</dt><dd>");
+}
+
+static void answer_end(pw_sbuf *b) { pw_sbuf_puts(b, "</dd>\n"); }
+
+/* A temperature in kelvin and in degrees Celsius. */
+static void temp(pw_sbuf *b, double T_K)
+{
+    pw_sbuf_printf(b, "%.2f K (%.2f \xc2\xb0" "C)", T_K, T_K - 273.15);
+}
+
+static void az_answer(pw_sbuf *b, const pw_report_az *az, size_t n, bool ok, bool isothermal,
+                      const pw_unc_result *unc)
+{
+    if (!ok) {
+        pw_sbuf_puts(b, "<span class=\"verdict-fail\">search did not complete</span>");
+        return;
+    }
+    if (n == 0) {
+        pw_sbuf_puts(b, "none");
+        return;
+    }
+    for (size_t i = 0; i < n; i++) {
+        pw_sbuf_printf(b, "%s%s at x\xe2\x82\x81 = %.4f", i ? "; " : "",
+                       az[i].min_boiling ? "minimum-boiling" : "maximum-boiling", az[i].x1);
+        if (unc && unc[i].out[0].ci[0] < unc[i].out[0].ci[1])
+            pw_sbuf_printf(b, " (95 %% %.4f to %.4f)", unc[i].out[0].ci[0], unc[i].out[0].ci[1]);
+        if (isothermal) {
+            pw_sbuf_printf(b, ", %.4g kPa", az[i].P_Pa / 1000.0);
+        } else {
+            pw_sbuf_puts(b, ", ");
+            temp(b, az[i].T_K);
+        }
+    }
+}
+
+/* The answers first: what an engineer opens the page for, each linked to its section below.
+ * Every number here is one the sections below show; nothing is computed for this block. */
+static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
+{
+    const pw_fit_result *r = c->fit;
+    pw_sbuf_puts(b, "<section id=\"answers\"><h2>Answers</h2>\n<dl class=\"answers\">\n");
+    answer(b, "Measured data");
+    if (!c->cons_ran) {
+        pw_sbuf_puts(b, "consistency tests could not run: ");
+        esc(b, c->cons_error);
+    } else {
+        size_t run = 0, pass = 0;
+        for (int i = 0; i < PW_CTEST_COUNT; i++)
+            if (c->cons.tests[i].ran) {
+                run++;
+                pass += c->cons.tests[i].pass;
+            }
+        pw_sbuf_printf(b, "<span class=\"%s\">%s</span> (%zu of %zu consistency tests pass) "
+                          "<a href=\"#consistency\">details</a>",
+                       c->cons.consistent ? "verdict-pass" : "verdict-fail",
+                       c->cons.consistent ? "consistent" : "not shown consistent", pass, run);
+    }
+    answer_end(b);
+    answer(b, "Model");
+    esc(b, r->sys.model->name);
+    pw_sbuf_puts(b, r->converged ? ", converged" : ", <span class=\"verdict-fail\">did not converge</span>");
+    if (c->rank && c->rank_status == PW_OK) {
+        size_t pos = 0;
+        while (pos < c->rank->n && c->rank->rows[pos].fit != r)
+            pos++;
+        if (pos < c->rank->n) {
+            const pw_rank_row *w = &c->rank->rows[pos];
+            pw_sbuf_printf(b, "; rank %zu of %zu by AICc (%s", pos + 1, c->rank->n,
+                           pw_rank_class_name(w->cls));
+            if (pos > 0 && isfinite(w->delta_aicc))
+                pw_sbuf_printf(b, ", \xce\x94" "AICc %.2f above the best", w->delta_aicc);
+            pw_sbuf_puts(b, ") <a href=\"#ranking\">side by side</a>");
+        }
+    }
+    pw_sbuf_printf(b, "; mean |\xce\x94y| %.4f", r->dev_y.aad);
+    answer_end(b);
+    answer(b, "Azeotropes");
+    pw_sbuf_puts(b, "at ");
+    esc(b, cond);
+    pw_sbuf_puts(b, ": ");
+    bool u1 = c->unc && c->unc_az_status == PW_OK, u2 = c->unc && c->unc_col_az_status == PW_OK;
+    az_answer(b, c->az, c->n_az, c->az_res_ok, c->isothermal, u1 ? c->unc_az : NULL);
+    if (c->column && !column_at_data_pressure(c)) {
+        pw_sbuf_printf(b, "; at the column pressure %.4g kPa: ", c->P_col_Pa / 1000.0);
+        az_answer(b, c->col_az, c->n_col_az, c->col_az_res_ok, false, u2 ? c->unc_col_az : NULL);
+    }
+    pw_sbuf_puts(b, " <a href=\"#azeotropes\">details</a>");
+    answer_end(b);
+    if (c->column) {
+        const pw_column_result *k = &c->col;
+        answer(b, "Split");
+        if (c->col_status != PW_OK) {
+            pw_sbuf_puts(b, "<span class=\"verdict-fail\">the column analysis failed: ");
+            esc(b, pw_strerror(c->col_status));
+            pw_sbuf_puts(b, "</span>");
+        } else if (!k->feasible) {
+            pw_sbuf_puts(b, "<span class=\"verdict-fail\">not feasible by ordinary distillation at "
+                            "this pressure</span>: ");
+            esc(b, k->reason);
+        } else {
+            pw_sbuf_printf(b, "<span class=\"verdict-pass\">feasible</span>: x<sub>D</sub> %.4g, "
+                              "x<sub>B</sub> %.4g from z<sub>F</sub> %.4g (q = %.3g)",
+                           c->spec.xd, c->spec.xb, c->spec.zf, c->spec.q);
+        }
+        answer_end(b);
+        if (c->col_status == PW_OK && k->feasible) {
+            answer(b, "Minimum reflux");
+            pw_sbuf_printf(b, "R<sub>min</sub> = %.4g, %s pinch in the %s section at x = %.4f",
+                           k->r_min, k->pinch.kind == PW_PINCH_TANGENT ? "tangent" : "feed",
+                           k->pinch.section == PW_SECTION_STRIPPING ? "stripping" : "rectifying",
+                           k->pinch.x);
+            if (k->reflux_limited)
+                pw_sbuf_puts(b, " (no reflux is needed)");
+            pw_sbuf_puts(b, " <a href=\"#column\">details</a>");
+            answer_end(b);
+            answer(b, "Stages");
+            if (isfinite(c->stages_op))
+                pw_sbuf_printf(b, "%.3g equilibrium stages at %.2g R<sub>min</sub> (R = %.4g), feed "
+                                  "on stage %d; ",
+                               c->stages_op, c->factor, c->r_op, c->feed_stage_op);
+            else
+                pw_sbuf_printf(b, "the column cannot be stepped at %.2g R<sub>min</sub>; ", c->factor);
+            pw_sbuf_printf(b, "N<sub>min</sub> %.3g at total reflux (partial reboiler counted)",
+                           k->n_min);
+            answer_end(b);
+        }
+        if (c->unc) {
+            answer(b, "How sure");
+            if (c->unc_col_status != PW_OK) {
+                pw_sbuf_puts(b, "not propagated: ");
+                esc(b, pw_strerror(c->unc_col_status));
+            } else {
+                const pw_unc_result *u = &c->unc_col.res;
+                const pw_unc_output *o = &u->out[PW_UNC_RMIN];
+                if (u->point_status == PW_OK && o->ci[0] < o->ci[1])
+                    pw_sbuf_printf(b, "R<sub>min</sub> 95 %% interval %.4g to %.4g; ", o->ci[0], o->ci[1]);
+                if (isfinite(u->p_feasible))
+                    pw_sbuf_printf(b, "the split is feasible for %.1f %% of %zu parameter sets drawn "
+                                      "from the fit",
+                                   100.0 * u->p_feasible, u->n_samples);
+                pw_sbuf_puts(b, " <a href=\"#how-sure\">details</a>");
+            }
+            answer_end(b);
+        }
+    }
+    /* the warnings that change a decision */
+    size_t nw = 0;
+    const char *warn[6];
+    if (!r->converged)
+        warn[nw++] = "the fit did not converge: every number is provisional";
+    if (r->split)
+        warn[nw++] = "the fitted parameters predict a liquid-liquid split: one-liquid results may be wrong";
+    if (c->cons_ran && !c->cons.consistent)
+        warn[nw++] = "the measured data are not shown consistent: check them before designing";
+    if (c->rank && c->rank_status == PW_OK && (c->rank->az_place_differs || c->rank->az_existence_differs))
+        warn[nw++] = "models that fit about equally well disagree on the azeotrope";
+    if (c->rank && c->rank_status == PW_OK && (c->rank->rmin_differs || c->rank->feasibility_differs))
+        warn[nw++] = "models that fit about equally well disagree on R_min or on feasibility";
+    if (c->column && c->col_status == PW_OK && c->col.feasible && c->col.pinch.kind == PW_PINCH_TANGENT)
+        warn[nw++] = "tangent pinch: stage counts near minimum reflux are very sensitive to the model";
+    answer(b, "Warnings");
+    if (nw == 0)
+        pw_sbuf_puts(b, "none beyond the cautions at the end");
+    for (size_t i = 0; i < nw; i++) {
+        pw_sbuf_puts(b, i ? "; " : "<span class=\"verdict-fail\">");
+        esc(b, warn[i]);
+    }
+    if (nw)
+        pw_sbuf_puts(b, "</span>");
+    answer_end(b);
+    pw_sbuf_puts(b, "</dl>\n<p class=\"note\"><strong>Screening only.</strong> Read the "
+                    "<a href=\"#cautions\">cautions</a> before using any number on this page.</p>"
+                    "\n</section>\n");
+}
+
 pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c,
                                 const pw_report_input *in)
 {
@@ -691,8 +886,7 @@ pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c
     if (c->column)
         pw_sbuf_printf(b, " \xc2\xb7 column at %.4g kPa", c->P_col_Pa / 1000.0);
     pw_sbuf_puts(b, "</p></header>\n");
-    pw_sbuf_puts(b, "<p class=\"note\"><strong>Screening only.</strong> See the cautions at the end "
-                    "before using any number on this page.</p>\n");
+    answers(b, c, cond);
     provenance(b, r, in);
     if (c->n_failed)
         pw_sbuf_printf(b, "<p class=\"note\">%zu equilibrium solves on the plotted grids did not "
