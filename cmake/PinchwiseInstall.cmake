@@ -20,6 +20,8 @@ target_include_directories(pinchwise_shared
 target_link_libraries(pinchwise_shared PUBLIC GSL::gsl Jansson::Jansson
   PRIVATE LAPACKE::LAPACKE ${LAPACK_LIBRARIES} CSV::CSV OpenSSL::Crypto m)
 set_target_properties(pinchwise_lib PROPERTIES EXPORT_NAME pinchwise_static)
+# The program is exported too (pinchwise::cli), so the library can take the plain name.
+set_target_properties(pinchwise PROPERTIES EXPORT_NAME cli)
 
 install(TARGETS pinchwise_shared EXPORT pinchwiseTargets
   LIBRARY DESTINATION ${CMAKE_INSTALL_LIBDIR} NAMELINK_COMPONENT Development)

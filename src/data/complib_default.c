@@ -38,8 +38,14 @@ static bool beside_code(const char *rel, char *path, size_t len)
         !strchr(info.dli_fname, '/'))
         return false;
     const char *slash = strrchr(info.dli_fname, '/');
-    int n = snprintf(path, len, "%.*s/%s", (int)(slash - info.dli_fname), info.dli_fname, rel);
-    return n > 0 && (size_t)n < len && readable(path);
+    char joined[PW_PATH_MAX], *canon;
+    int n = snprintf(joined, sizeof joined, "%.*s/%s", (int)(slash - info.dli_fname),
+                     info.dli_fname, rel);
+    if (n <= 0 || (size_t)n >= sizeof joined || !readable(joined) || !(canon = realpath(joined, NULL)))
+        return false;
+    n = snprintf(path, len, "%s", canon);
+    free(canon);
+    return n > 0 && (size_t)n < len;
 }
 
 bool pw_complib_default_path(char *path, size_t len)
