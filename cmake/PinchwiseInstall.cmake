@@ -42,3 +42,8 @@ file(RELATIVE_PATH PW_PC_TO_PREFIX /${CMAKE_INSTALL_LIBDIR}/pkgconfig /)
 string(REGEX REPLACE "/$" "" PW_PC_TO_PREFIX "${PW_PC_TO_PREFIX}")
 configure_file(${CMAKE_CURRENT_SOURCE_DIR}/cmake/pinchwise.pc.in ${CMAKE_CURRENT_BINARY_DIR}/pinchwise.pc @ONLY)
 install(FILES ${CMAKE_CURRENT_BINARY_DIR}/pinchwise.pc DESTINATION ${CMAKE_INSTALL_LIBDIR}/pkgconfig)
+
+# The Python module, beside the library it loads (<libdir>/python3/dist-packages/pinchwise finds
+# <libdir>/libpinchwise.so): PYTHONPATH=<libdir>/python3/dist-packages.
+install(DIRECTORY python/pinchwise DESTINATION ${CMAKE_INSTALL_LIBDIR}/python3/dist-packages
+  PATTERN "__pycache__" EXCLUDE)

@@ -63,4 +63,15 @@ ldd exbuild/fit_and_reflux_static | grep -q libpinchwise && fail "static example
 #    from its reach (PINCHWISE_COMPONENTS unset; run from elsewhere).
 unset PINCHWISE_COMPONENTS
 "$prefix/bin/pinchwise" check "$src/datasets/demo_acetone_water.csv" --json > inst_check.json 2>/dev/null || fail "installed program"
-echo "install tree, pkg-config and CMake package work"
+
+# 6. The installed Python module loads the installed library by itself.
+PYTHONPATH=$libdir/python3/dist-packages env -u PINCHWISE_LIBRARY python3 - "$libdir" "$src" <<'PY' || fail "installed Python module"
+import json, os, sys
+import pinchwise
+libdir, src = sys.argv[1:]
+assert pinchwise.library_path().startswith(os.path.realpath(libdir)), pinchwise.library_path()
+assert pinchwise.__file__.startswith(libdir), pinchwise.__file__
+got = pinchwise.reflux("demo.json", "101.325kPa", 0.95, 0.02, 0.10)
+assert got == json.load(open("cli.json"))
+PY
+echo "install tree, pkg-config, CMake package and Python module work"
