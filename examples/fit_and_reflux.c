@@ -4,7 +4,8 @@
  * finds the minimum reflux of a column, then prints the same reflux document that
  * `pinchwise reflux --json` prints.
  *
- *     fit_and_reflux DATA.csv PRESSURE XD XB ZF      e.g. demo_acetone_water.csv 101.325kPa 0.95 0.02 0.10
+ *     fit_and_reflux DATA.csv PRESSURE XD XB ZF      e.g. demo_acetone_water.csv 101.325kPa 0.95
+ * 0.02 0.10
  *
  * Build against an installed pinchwise with pkg-config:
  *     cc -std=c17 fit_and_reflux.c $(pkg-config --cflags --libs pinchwise) -o fit_and_reflux

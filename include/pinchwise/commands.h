@@ -67,8 +67,8 @@ json_t *pw_azeotrope_entry_json(const pw_azeotrope *az);
 
 /* The `azeotrope --json` document for sys at the fixed condition (P in Pa or T in K by mode);
  * sc may be NULL (no scan: "scan" is null). */
-json_t *pw_azeotrope_doc(const pw_system *sys, pw_az_mode mode, double fixed,
-                         const pw_az_result *r, const pw_az_scan *sc);
+json_t *pw_azeotrope_doc(const pw_system *sys, pw_az_mode mode, double fixed, const pw_az_result *r,
+                         const pw_az_scan *sc);
 
 /* ---- reflux ---- */
 

@@ -94,7 +94,8 @@ pw_status pw_api_fit(const char *data, const char *model, const char *components
     const pw_model_type *m = pw_model_find(model);
     if (!m)
         return pw_error_set(err, PW_EINVAL, NULL, 0,
-                            "unknown model '%s' (expected margules, vanlaar, wilson or nrtl)", model);
+                            "unknown model '%s' (expected margules, vanlaar, wilson or nrtl)",
+                            model);
     pw_complib lib;
     st = pw_complib_load_default(&lib, components, err);
     if (st != PW_OK)
@@ -120,9 +121,10 @@ pw_status pw_api_fit(const char *data, const char *model, const char *components
         st = pw_fitfile_write(out, &r, force != 0, err);
     if (st == PW_OK && fit_file) {
         json_t *whole = pw_fitfile_to_json(&r);
-        *fit_file = whole ? json_dumps(whole, JSON_INDENT(1) | JSON_REAL_PRECISION(17) |
-                                                  JSON_PRESERVE_ORDER)
-                          : NULL;
+        *fit_file =
+            whole
+                ? json_dumps(whole, JSON_INDENT(1) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER)
+                : NULL;
         json_decref(whole);
         if (!*fit_file)
             st = pw_error_set(err, PW_ENOMEM, NULL, 0, "out of memory");

@@ -34,14 +34,14 @@ static bool readable(const char *p)
 static bool beside_code(const char *rel, char *path, size_t len)
 {
     Dl_info info;
-    if (!dladdr(&anchor, &info) || !info.dli_fname ||
-        !strchr(info.dli_fname, '/'))
+    if (!dladdr(&anchor, &info) || !info.dli_fname || !strchr(info.dli_fname, '/'))
         return false;
     const char *slash = strrchr(info.dli_fname, '/');
     char joined[PW_PATH_MAX], *canon;
     int n = snprintf(joined, sizeof joined, "%.*s/%s", (int)(slash - info.dli_fname),
                      info.dli_fname, rel);
-    if (n <= 0 || (size_t)n >= sizeof joined || !readable(joined) || !(canon = realpath(joined, NULL)))
+    if (n <= 0 || (size_t)n >= sizeof joined || !readable(joined) ||
+        !(canon = realpath(joined, NULL)))
         return false;
     n = snprintf(path, len, "%s", canon);
     free(canon);

@@ -19,13 +19,16 @@
 #define REPEATS 2
 
 static const char *const datasets[] = {
-    "datasets/demo_acetone_water.csv", "datasets/ethanol_water_1atm.csv",
-    "datasets/mek_toluene_50C_px.csv", "datasets/mek_toluene_50C_pxy.csv",
+    "datasets/demo_acetone_water.csv",  "datasets/ethanol_water_1atm.csv",
+    "datasets/mek_toluene_50C_px.csv",  "datasets/mek_toluene_50C_pxy.csv",
     "datasets/methanol_water_1atm.csv",
 };
 static const char *const models[] = {"nrtl", "wilson", "margules"};
-enum { N_DATA = sizeof datasets / sizeof datasets[0], N_MODELS = sizeof models / sizeof models[0],
-       N_JOBS = N_DATA * N_MODELS };
+enum {
+    N_DATA = sizeof datasets / sizeof datasets[0],
+    N_MODELS = sizeof models / sizeof models[0],
+    N_JOBS = N_DATA * N_MODELS
+};
 
 typedef struct outcome {
     pw_status fit_st, az_st;
