@@ -7,7 +7,7 @@
  * ("101.325kPa", "1atm", "350K"); compositions are mole fractions of component 1.
  *
  * Every function returns a pw_status; on failure err (caller-owned, may be NULL) carries file,
- * line and what is wrong, and *doc is NULL. On success *doc is malloc'd text that the caller
+ * line and what is wrong, and *doc is NULL (doc itself must not be NULL: PW_EINVAL). On success *doc is malloc'd text that the caller
  * releases with pw_api_free. Nothing is printed; nothing is written except the fit file that
  * pw_api_fit is asked to write (atomically). Threads: the functions keep no state and may run
  * at the same time on different inputs, once pw_api_init has run. */

@@ -180,8 +180,14 @@ def _b(value):
     if value is None:
         return None
     if isinstance(value, bytes):
-        return value
-    return os.fsencode(value) if isinstance(value, os.PathLike) else str(value).encode("utf-8")
+        b = value
+    elif isinstance(value, os.PathLike):
+        b = os.fsencode(value)
+    else:
+        b = str(value).encode("utf-8")
+    if b"\0" in b:  # C would see only the part before it
+        raise PinchwiseError("%r: contains a NUL character" % (value,), status="invalid argument")
+    return b
 
 
 def _raise(lib, status, e):

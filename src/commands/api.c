@@ -83,6 +83,8 @@ static const char *fit_where(const char *fit_path, const char *name)
 pw_status pw_api_fit(const char *data, const char *model, const char *components, const char *out,
                      int force, char **doc, char **fit_file, pw_error *err)
 {
+    if (!doc)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
     *doc = NULL;
     if (fit_file)
         *fit_file = NULL;
@@ -142,6 +144,8 @@ pw_status pw_api_fit(const char *data, const char *model, const char *components
 pw_status pw_api_check(const char *data, const char *components, int strict, char **doc,
                        pw_error *err)
 {
+    if (!doc)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
     *doc = NULL;
     pw_status st = need(data, "a dataset file", err);
     if (st != PW_OK)
@@ -176,6 +180,8 @@ pw_status pw_api_azeotrope(const char *fit_path, const char *fit_text, const cha
                            const char *components, const char *pressure, const char *temperature,
                            char **doc, pw_error *err)
 {
+    if (!doc)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
     *doc = NULL;
     if (pressure && temperature)
         return pw_error_set(err, PW_EINVAL, NULL, 0, "give a pressure or a temperature, not both");
@@ -212,6 +218,8 @@ pw_status pw_api_reflux(const char *fit_path, const char *fit_text, const char *
                         const char *components, const char *pressure, double xd, double xb,
                         double zf, double q, char **doc, pw_error *err)
 {
+    if (!doc)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
     *doc = NULL;
     pw_status st = need(pressure, "a pressure", err);
     double P_Pa = 0.0;
@@ -239,6 +247,8 @@ pw_status pw_api_screen(const char *fit_path, const char *fit_text, const char *
                         const char *components, const char *pressure, double xd, double xb,
                         double zf, char **doc, pw_error *err)
 {
+    if (!doc)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
     *doc = NULL;
     pw_status st = need(pressure, "a pressure", err);
     double P_Pa = 0.0;

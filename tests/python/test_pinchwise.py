@@ -202,6 +202,29 @@ class Errors(unittest.TestCase):
                     call()
                 self.assertIn(words, str(cm.exception))
 
+    def test_awkward_paths(self):
+        """Names with spaces and non-ASCII letters, pathlib paths, and a NUL (refused: C would
+        read only the part before it)."""
+        import pathlib
+        import shutil
+        data = os.path.join(SRC, "datasets", "methanol_water_1atm.csv")
+        with tempfile.TemporaryDirectory() as d:
+            odd = os.path.join(d, "Lab files (Mörtel)", "méthanol eau.csv")
+            os.mkdir(os.path.dirname(odd))
+            shutil.copy(data, odd)
+            out = pathlib.Path(d) / "fït out.json"
+            got = pinchwise.fit(pathlib.Path(odd), "wilson", out=out)
+            self.assertEqual(got["fit_file"], str(out))
+            self.assertEqual(without_created(got),
+                             without_created(cli("fit", odd, "--model", "wilson", "--out",
+                                                 str(out), "--force", "--json")))
+            with self.assertRaises(pinchwise.PinchwiseError) as cm:
+                pinchwise.check(odd + "\0.csv")
+            self.assertIn("NUL", str(cm.exception))
+            with self.assertRaises(pinchwise.PinchwiseError) as cm:
+                pinchwise.check(os.path.join(d, "Lab files (Mörtel)", "missing ü.csv"))
+            self.assertIn("missing ü.csv", str(cm.exception))
+
     def test_existing_fit_file_is_kept(self):
         data = os.path.join(SRC, "datasets", "demo_acetone_water.csv")
         with tempfile.TemporaryDirectory() as d:
