@@ -49,16 +49,21 @@ pw_status pw_api_check(const char *data, const char *components, int strict, cha
 /* The fit is fit_path (a fit file) or, when fit_path is NULL, fit_text (a fit file's text, as
  * pw_api_fit returns it; name is used in messages). components: as --components. */
 
-/* `azeotrope FIT (--pressure P | --temperature T) --json`; both NULL: the condition of the
- * fit's own data. */
+/* Uncertainty (--uncertainty --samples N --seed N): uncertainty 0 for none; samples and seed
+ * below 0 for the defaults (400 draws, seed 1); samples 0..100000, seed 0..4294967295. Giving
+ * samples or seed switches the propagation on, as on the command line. */
+
+/* `azeotrope FIT (--pressure P | --temperature T) [--uncertainty ...] --json`; both NULL: the
+ * condition of the fit's own data. */
 pw_status pw_api_azeotrope(const char *fit_path, const char *fit_text, const char *name,
                            const char *components, const char *pressure, const char *temperature,
-                           char **doc, pw_error *err);
+                           int uncertainty, long samples, long seed, char **doc, pw_error *err);
 
-/* `reflux FIT --pressure P --xd X --xb X --zf X --q Q --json`. */
+/* `reflux FIT --pressure P --xd X --xb X --zf X --q Q [--uncertainty ...] --json`. */
 pw_status pw_api_reflux(const char *fit_path, const char *fit_text, const char *name,
                         const char *components, const char *pressure, double xd, double xb,
-                        double zf, double q, char **doc, pw_error *err);
+                        double zf, double q, int uncertainty, long samples, long seed, char **doc,
+                        pw_error *err);
 
 /* `screen FIT --pressure P --xd X --xb X [--zf X] --json`; zf NAN: the default feed. */
 pw_status pw_api_screen(const char *fit_path, const char *fit_text, const char *name,

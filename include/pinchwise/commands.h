@@ -15,6 +15,7 @@
 #include <pinchwise/dataset.h>
 #include <pinchwise/fit.h>
 #include <pinchwise/screen.h>
+#include <pinchwise/uncertainty.h>
 #include <stdbool.h>
 
 #ifdef __cplusplus
@@ -87,6 +88,36 @@ json_t *pw_reflux_doc(const pw_column_result *c, double P_Pa, const pw_column_sp
 
 /* The `screen --json` document. */
 json_t *pw_screen_doc(const pw_system *sys, const pw_screen_result *r, const pw_screen_options *o);
+
+/* ---- --uncertainty (reflux, azeotrope) ---- */
+
+/* [a, b] as a JSON array, or null when either is not finite. */
+json_t *pw_json_pair(const double v[2]);
+
+/* One propagated output: value, ci95 (and where from), both intervals, sds, disagreement. */
+json_t *pw_unc_output_doc(const pw_unc_output *o);
+
+/* The reflux command's propagation: pw_unc_column_assess with its measurement plan (10 bins of
+ * 5 points). On failure err names where (the fit file). */
+pw_status pw_reflux_unc_run(const pw_fit_result *fit, const pw_unc_column_ctx *col,
+                            const pw_unc_options *opt, const char *where,
+                            pw_unc_column_assessment *out, pw_error *err);
+
+/* Adds r_min_ci95, feasible_probability and the "uncertainty" object to a reflux document;
+ * factor is the operating factor of the stage count propagated. */
+void pw_reflux_unc_doc(json_t *doc, const pw_unc_result *r, const pw_unc_options *opt,
+                       double factor, pw_status plan_status, const pw_unc_plan *plan);
+
+/* The azeotrope command's propagation: one pw_unc_azeo_assess per azeotrope of r, into
+ * res[0 .. r->n - 1] (res holds at least r->n results). */
+pw_status pw_azeotrope_unc_run(const pw_fit_result *fit, const pw_az_result *r,
+                               const pw_unc_options *opt, pw_unc_result *res,
+                               pw_error *err);
+
+/* Adds x1_ci95, T_K_ci95 (fixed P) or P_kPa_ci95 (fixed T) and an "uncertainty" object to each
+ * of the first n entries of the document's "azeotropes" list. */
+void pw_azeotrope_unc_doc(json_t *list, const pw_az_result *r, const pw_unc_result *res, size_t n,
+                          unsigned long seed);
 
 #ifdef __cplusplus
 }

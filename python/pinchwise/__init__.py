@@ -141,6 +141,7 @@ def _load():
 
 def _declare(lib):
     c_str, c_int, c_double, c_void_p = ctypes.c_char_p, ctypes.c_int, ctypes.c_double, ctypes.c_void_p
+    c_long = ctypes.c_long
     out = ctypes.POINTER(c_void_p)
     err = ctypes.POINTER(_Error)
     sigs = {
@@ -152,9 +153,10 @@ def _declare(lib):
         "pw_error_format": (c_str, [err, ctypes.c_char_p, ctypes.c_size_t]),
         "pw_api_fit": (c_int, [c_str, c_str, c_str, c_str, c_int, out, out, err]),
         "pw_api_check": (c_int, [c_str, c_str, c_int, out, err]),
-        "pw_api_azeotrope": (c_int, [c_str, c_str, c_str, c_str, c_str, c_str, out, err]),
+        "pw_api_azeotrope": (c_int, [c_str, c_str, c_str, c_str, c_str, c_str, c_int, c_long,
+                                     c_long, out, err]),
         "pw_api_reflux": (c_int, [c_str, c_str, c_str, c_str, c_str, c_double, c_double,
-                                  c_double, c_double, out, err]),
+                                  c_double, c_double, c_int, c_long, c_long, out, err]),
         "pw_api_screen": (c_int, [c_str, c_str, c_str, c_str, c_str, c_double, c_double,
                                   c_double, out, err]),
     }
@@ -233,6 +235,16 @@ def _fraction(name, v):
     return v
 
 
+def _count(name, v):
+    """samples or seed: a whole number >= 0, or None for the default (passed as -1)."""
+    if v is None:
+        return -1
+    if isinstance(v, bool) or not isinstance(v, int) or v < 0:
+        raise PinchwiseError("%s %r: expected a whole number >= 0" % (name, v),
+                             status="invalid argument")
+    return v
+
+
 def _fit_source(fit):
     """(fit_path, fit_text, name) for the library from a path, a Fit or a fit file's dict."""
     if isinstance(fit, (str, bytes, os.PathLike)):
@@ -272,32 +284,41 @@ def check(path, components=None, strict=False):
     return _call("pw_api_check", _b(path), _b(components), 1 if strict else 0)
 
 
-def azeotrope(fit, pressure=None, temperature=None, components=None):
+def azeotrope(fit, pressure=None, temperature=None, components=None, uncertainty=False,
+              samples=None, seed=None):
     """Azeotropes of a fitted model; like ``pinchwise azeotrope --json``.
 
     fit: a fit-file path or the dict :func:`fit` returned. Give a pressure (e.g. "1atm") or a
     temperature (e.g. "50C"); with neither, the condition of the fit's own data.
     components: a component file whose vapor pressures replace the fit file's.
+    uncertainty, samples, seed: as ``--uncertainty --samples N --seed N`` (giving samples or
+    seed switches it on): each azeotrope then has x1_ci95 and T_K_ci95 (or P_kPa_ci95) from the
+    fit's parameter covariance.
 
     Returns a dict with ``azeotropes`` (x1, T_K, P_kPa, kind, ...)."""
     fit_path, fit_text, name = _fit_source(fit)
     return _call("pw_api_azeotrope", fit_path, fit_text, name, _b(components), _b(pressure),
-                 _b(temperature))
+                 _b(temperature), 1 if uncertainty else 0, _count("samples", samples),
+                 _count("seed", seed))
 
 
-def reflux(fit, pressure, xd, xb, zf, q=1.0, components=None):
+def reflux(fit, pressure, xd, xb, zf, q=1.0, components=None, uncertainty=False, samples=None,
+           seed=None):
     """Minimum reflux, limiting pinch and stages of a binary column; like
     ``pinchwise reflux --json``.
 
     fit: a fit-file path or the dict :func:`fit` returned. pressure: with its unit
     ("101.325kPa"). xd, xb, zf: distillate, bottoms and feed mole fractions of component 1.
     q: the feed's liquid fraction (1 saturated liquid).
+    uncertainty, samples, seed: as ``--uncertainty --samples N --seed N`` (giving samples or
+    seed switches it on): adds r_min_ci95, feasible_probability and "uncertainty".
 
     Returns a dict with feasible, reason, r_min, pinch (kind, section, x, y), n_min, design, ..."""
     fit_path, fit_text, name = _fit_source(fit)
     return _call("pw_api_reflux", fit_path, fit_text, name, _b(components), _b(pressure),
                  _fraction("xd", xd), _fraction("xb", xb), _fraction("zf", zf),
-                 _fraction("q", q))
+                 _fraction("q", q), 1 if uncertainty else 0, _count("samples", samples),
+                 _count("seed", seed))
 
 
 def screen(fit, pressure, xd, xb, zf=None, components=None):

@@ -75,6 +75,25 @@ static pw_status read_fit(const char *fit_path, const char *fit_text, const char
     return st;
 }
 
+/* The uncertainty options of the command line: on when asked or when samples or seed is given. */
+static pw_status unc_options(int uncertainty, long samples, long seed, bool *on, pw_unc_options *o,
+                             pw_error *err)
+{
+    *o = pw_unc_default_options();
+    *on = uncertainty != 0 || samples >= 0 || seed >= 0;
+    if (samples > 100000)
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "samples %ld: expected a whole number from 0 to 100000", samples);
+    if (seed > 4294967295L)
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "seed %ld: expected a whole number from 0 to 4294967295", seed);
+    if (samples >= 0)
+        o->samples = (size_t)samples;
+    if (seed >= 0)
+        o->seed = (unsigned long)seed;
+    return PW_OK;
+}
+
 static const char *fit_where(const char *fit_path, const char *name)
 {
     return fit_path ? fit_path : name ? name : "fit";
@@ -178,7 +197,7 @@ pw_status pw_api_check(const char *data, const char *components, int strict, cha
 
 pw_status pw_api_azeotrope(const char *fit_path, const char *fit_text, const char *name,
                            const char *components, const char *pressure, const char *temperature,
-                           char **doc, pw_error *err)
+                           int uncertainty, long samples, long seed, char **doc, pw_error *err)
 {
     if (!doc)
         return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
@@ -208,15 +227,27 @@ pw_status pw_api_azeotrope(const char *fit_path, const char *fit_text, const cha
             pw_error_set(err, st, fit_where(fit_path, name), 0,
                          "azeotrope search failed near x1 = %.4g: %s", r.fail_x1, pw_strerror(st));
     }
+    bool unc = false;
+    pw_unc_options uo;
+    pw_unc_result res[PW_AZ_MAX];
     if (st == PW_OK)
-        st = finish(pw_azeotrope_doc(&fit.sys, mode, fixed, &r, NULL), doc, err);
+        st = unc_options(uncertainty, samples, seed, &unc, &uo, err);
+    if (st == PW_OK && unc)
+        st = pw_azeotrope_unc_run(&fit, &r, &uo, res, err);
+    if (st == PW_OK) {
+        json_t *o = pw_azeotrope_doc(&fit.sys, mode, fixed, &r, NULL);
+        if (o && unc)
+            pw_azeotrope_unc_doc(json_object_get(o, "azeotropes"), &r, res, r.n, uo.seed);
+        st = finish(o, doc, err);
+    }
     pw_fit_result_free(&fit);
     return st;
 }
 
 pw_status pw_api_reflux(const char *fit_path, const char *fit_text, const char *name,
                         const char *components, const char *pressure, double xd, double xb,
-                        double zf, double q, char **doc, pw_error *err)
+                        double zf, double q, int uncertainty, long samples, long seed, char **doc,
+                        pw_error *err)
 {
     if (!doc)
         return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
@@ -237,8 +268,23 @@ pw_status pw_api_reflux(const char *fit_path, const char *fit_text, const char *
     double T_top_K, T_bottom_K;
     st = pw_reflux_solve(&fit.sys, P_Pa, &spec, &opt, fit_where(fit_path, name), &col, &T_top_K,
                          &T_bottom_K, err);
+    bool unc = false;
+    pw_unc_options uo;
+    pw_unc_column_ctx uc;
+    pw_unc_column_assessment as;
     if (st == PW_OK)
-        st = finish(pw_reflux_doc(&col, P_Pa, &spec, T_top_K, T_bottom_K), doc, err);
+        st = unc_options(uncertainty, samples, seed, &unc, &uo, err);
+    if (st == PW_OK && unc) {
+        uc = pw_unc_column_ctx_make(P_Pa, &spec);
+        uc.opt = opt;
+        st = pw_reflux_unc_run(&fit, &uc, &uo, fit_where(fit_path, name), &as, err);
+    }
+    if (st == PW_OK) {
+        json_t *o = pw_reflux_doc(&col, P_Pa, &spec, T_top_K, T_bottom_K);
+        if (o && unc)
+            pw_reflux_unc_doc(o, &as.res, &uo, uc.factor, as.plan_status, &as.plan);
+        st = finish(o, doc, err);
+    }
     pw_fit_result_free(&fit);
     return st;
 }

@@ -132,6 +132,29 @@ class EqualToCommandLine(unittest.TestCase):
                                  cli("screen", out, "--pressure", "1atm", "--xd", "0.9", "--xb",
                                      "0.05", "--zf", "0.3", "--json"))
 
+    def test_uncertainty(self):
+        """--uncertainty --samples --seed: the same draws, the same intervals."""
+        for data in DATASETS:
+            kind, value = condition(data)
+            out, _ = self.fits[data, "nrtl"]
+            f = pinchwise.fit(data, "nrtl")
+            with self.subTest(data=os.path.basename(data)):
+                want = cli("azeotrope", out, "--" + kind, value, "--uncertainty", "--samples",
+                           "60", "--seed", "3", "--json")
+                self.assertEqual(pinchwise.azeotrope(f, **{kind: value}, uncertainty=True,
+                                                     samples=60, seed=3), want)
+                want = cli("reflux", out, "--pressure", "1atm", "--xd", "0.8", "--xb", "0.05",
+                           "--zf", "0.3", "--samples", "60", "--json")
+                got = pinchwise.reflux(f, "1atm", 0.8, 0.05, 0.3, samples=60)
+                self.assertEqual(got, want)
+                self.assertIn("r_min_ci95", got)
+        ethanol = [d for d in DATASETS if "ethanol" in d][0]
+        az = pinchwise.azeotrope(self.fits[ethanol, "nrtl"][0], pressure="1atm", uncertainty=True,
+                                 samples=40)
+        self.assertIn("x1_ci95", az["azeotropes"][0])
+        with self.assertRaises(pinchwise.PinchwiseError):
+            pinchwise.reflux(self.fits[ethanol, "nrtl"][0], "1atm", 0.8, 0.05, 0.3, samples=-2)
+
     def test_components_override(self):
         """--components on a fit file: the rows of the file replace the fit file's."""
         data = os.path.join(SRC, "datasets", "demo_acetone_water.csv")

@@ -41,18 +41,34 @@ static void test_text_and_file_agree(void **state)
     pw_api_free(doc);
     /* the same split from the file written and from the text returned */
     char *a = NULL, *b = NULL;
+    assert_int_equal(pw_api_reflux(out, NULL, NULL, NULL, "101.325kPa", 0.95, 0.02, 0.10, 1.0, 0,
+                                   -1, -1, &a, &err),
+                     PW_OK);
     assert_int_equal(
-        pw_api_reflux(out, NULL, NULL, NULL, "101.325kPa", 0.95, 0.02, 0.10, 1.0, &a, &err), PW_OK);
-    assert_int_equal(
-        pw_api_reflux(NULL, text, "demo", NULL, "1atm", 0.95, 0.02, 0.10, 1.0, &b, &err), PW_OK);
+        pw_api_reflux(NULL, text, "demo", NULL, "1atm", 0.95, 0.02, 0.10, 1.0, 0, -1, -1, &b, &err),
+        PW_OK);
     assert_string_equal(a, b);
     assert_non_null(strstr(a, "\"r_min\": "));
     pw_api_free(a);
     pw_api_free(b);
     /* azeotrope: the data's own condition (101.325 kPa) when none is given */
-    assert_int_equal(pw_api_azeotrope(NULL, text, "demo", NULL, NULL, NULL, &a, &err), PW_OK);
-    assert_int_equal(pw_api_azeotrope(out, NULL, NULL, NULL, "760mmHg", NULL, &b, &err), PW_OK);
+    assert_int_equal(pw_api_azeotrope(NULL, text, "demo", NULL, NULL, NULL, 0, -1, -1, &a, &err),
+                     PW_OK);
+    assert_int_equal(pw_api_azeotrope(out, NULL, NULL, NULL, "760mmHg", NULL, 0, -1, -1, &b, &err),
+                     PW_OK);
     assert_string_equal(a, b);
+    pw_api_free(a);
+    pw_api_free(b);
+    /* --uncertainty: the same draws from the text and from the file (seeded) */
+    assert_int_equal(
+        pw_api_reflux(out, NULL, NULL, NULL, "1atm", 0.95, 0.02, 0.10, 1.0, 1, 30, 7, &a, &err),
+        PW_OK);
+    assert_int_equal(
+        pw_api_reflux(NULL, text, "demo", NULL, "1atm", 0.95, 0.02, 0.10, 1.0, 0, 30, 7, &b, &err),
+        PW_OK);
+    assert_string_equal(a, b);
+    assert_non_null(strstr(a, "\"r_min_ci95\": ["));
+    assert_non_null(strstr(a, "\"seed\": 7"));
     pw_api_free(a);
     pw_api_free(b);
     /* without an output file nothing is written and fit_file is null */
@@ -86,18 +102,24 @@ static void test_refusals(void **state)
 
     char fit[1100];
     snprintf(fit, sizeof fit, "%s/demo.json", tmpdir);
-    assert_int_equal(
-        pw_api_reflux(fit, NULL, NULL, NULL, "101.325", 0.95, 0.02, 0.1, 1.0, &doc, &err),
-        PW_EINVAL);
+    assert_int_equal(pw_api_reflux(fit, NULL, NULL, NULL, "101.325", 0.95, 0.02, 0.1, 1.0, 0, -1,
+                                   -1, &doc, &err),
+                     PW_EINVAL);
     assert_non_null(strstr(err.msg, "pressure 101.325"));
     assert_int_equal(
-        pw_api_reflux(NULL, NULL, NULL, NULL, "1atm", 0.95, 0.02, 0.1, 1.0, &doc, &err), PW_EINVAL);
+        pw_api_reflux(NULL, NULL, NULL, NULL, "1atm", 0.95, 0.02, 0.1, 1.0, 0, -1, -1, &doc, &err),
+        PW_EINVAL);
     assert_int_equal(pw_api_reflux(NULL, "{\"format\": 1", "broken", NULL, "1atm", 0.95, 0.02, 0.1,
-                                   1.0, &doc, &err),
+                                   1.0, 0, -1, -1, &doc, &err),
                      PW_EPARSE);
     assert_string_equal(err.file, "broken");
-    assert_int_equal(pw_api_azeotrope(NULL, "{}", "x", NULL, "1atm", "50C", &doc, &err), PW_EINVAL);
+    assert_int_equal(pw_api_azeotrope(NULL, "{}", "x", NULL, "1atm", "50C", 0, -1, -1, &doc, &err),
+                     PW_EINVAL);
     assert_null(doc);
+    assert_int_equal(pw_api_reflux(fit, NULL, NULL, NULL, "1atm", 0.95, 0.02, 0.1, 1.0, 1, 100001,
+                                   -1, &doc, &err),
+                     PW_EINVAL);
+    assert_non_null(strstr(err.msg, "samples 100001"));
     assert_true(pw_api_error_size() == sizeof(pw_error));
     pw_api_free(NULL);
 }

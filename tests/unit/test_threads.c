@@ -71,7 +71,8 @@ static void run_job(const job *j, outcome *o)
         o->chi2 = r.chi2;
         pw_fit_result_free(&r);
     }
-    o->az_st = pw_api_azeotrope(NULL, o->fit_text, "fit", NULL, NULL, NULL, &o->az_doc, &err);
+    o->az_st =
+        pw_api_azeotrope(NULL, o->fit_text, "fit", NULL, NULL, NULL, 0, -1, -1, &o->az_doc, &err);
 }
 
 static void free_outcome(outcome *o)
