@@ -6,6 +6,7 @@
 #include <pinchwise/commands.h>
 #include <pinchwise/fitjson.h>
 #include <pinchwise/units.h>
+#include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 
