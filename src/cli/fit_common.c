@@ -24,35 +24,6 @@ static void file_stem(const char *path, char *out, size_t n)
         *dot = '\0';
 }
 
-static pw_status find_component(const pw_complib *lib, const pw_dataset *ds, int i,
-                                pw_component out[2], const pw_component **c, pw_error *err)
-{
-    *c = pw_complib_find(lib, ds->names[i]);
-    if (*c) {
-        /* Keep the dataset's spelling (it may be an alias or differ in case): the fit file and
-         * every later output then name the components as the user did. */
-        out[i] = **c;
-        snprintf(out[i].name, sizeof out[i].name, "%s", ds->names[i]);
-        *c = &out[i];
-        return PW_OK;
-    }
-    const char *sugg[3];
-    size_t n = pw_complib_suggest(lib, ds->names[i], sugg, 3);
-    char hint[300] = "";
-    if (n > 0) {
-        size_t len = (size_t)snprintf(hint, sizeof hint, "; did you mean ");
-        for (size_t k = 0; k < n && len < sizeof hint; k++)
-            len += (size_t)snprintf(hint + len, sizeof hint - len, "%s'%s'",
-                                    k == 0 ? "" : (k + 1 == n ? " or " : ", "), sugg[k]);
-        if (len < sizeof hint)
-            snprintf(hint + len, sizeof hint - len, "?");
-    }
-    return pw_error_set(err, PW_ENOTFOUND, ds->path, 0,
-                        "component '%s' is not in the component library (add it with --components "
-                        "FILE%s)",
-                        ds->names[i], hint);
-}
-
 static void warn_ranges(const pw_fit_result *r, const char *input)
 {
     for (int i = 0; i < 2; i++) {
@@ -193,11 +164,9 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
     pw_status st = pw_dataset_read(input, &ds, err);
     if (st != PW_OK)
         return pw_status_exit_code(st);
-    const pw_component *c1 = NULL, *c2 = NULL;
     pw_component found[2];
-    st = find_component(co->lib, &ds, 0, found, &c1, err);
-    if (st == PW_OK)
-        st = find_component(co->lib, &ds, 1, found, &c2, err);
+    const pw_component *c1 = &found[0], *c2 = &found[1];
+    st = pw_dataset_components(co->lib, &ds, found, err);
     if (st == PW_OK) {
         char stem[PW_PATH_MAX];
         file_stem(input, stem, sizeof stem);
@@ -241,13 +210,7 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
 
 json_t *pw_fit_cli_json(const pw_fit_result *r, const char *path)
 {
-    json_t *o = pw_fitfile_to_json(r);
-    json_object_del(o, "data");
-    json_object_del(o, "component_data");
-    json_object_del(o, "format");
-    json_object_del(o, "format_version");
-    json_object_set_new(o, "fit_file", json_string(path));
-    return o;
+    return pw_fit_doc(r, path);
 }
 
 typedef struct ranked {
