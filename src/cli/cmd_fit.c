@@ -23,7 +23,7 @@ static void usage(FILE *f)
             "  --force               replace an existing fit file\n"
             "  --alpha A             NRTL non-randomness when fixed (default 0.3)\n"
             "  --fit-alpha           NRTL: fit alpha as well\n"
-            "  --starts N            candidate starts screened (default 32)\n"
+            "  --starts N            LM runs, each from its own start (default 8)\n"
             "  --seed N              seed of the start points (default 1)\n"
             "  --sigma-T DT          temperature uncertainty, e.g. 0.05K (default: file or 0.1 K)\n"
             "  --sigma-P PCT         pressure uncertainty in percent, e.g. 0.2 (default: file or 0.1)\n"
@@ -91,8 +91,9 @@ static void print_table(const pw_fit_result *r, const char *path)
     const pw_model_type *m = r->sys.model;
     printf("%s fit of %s (1) / %s (2), %s data, %zu points\n", m->name, r->sys.comp[0].name,
            r->sys.comp[1].name, r->kind == PW_DATA_ISOBARIC ? "isobaric" : "isothermal", r->n_pts);
-    printf("  converged: %s (%s), %zu LM iterations over the starts\n", r->converged ? "yes" : "NO",
-           pw_fit_stop_name(r->stop), r->iterations);
+    printf("  converged: %s (%s; %s), %zu LM iterations over %zu starts\n",
+           r->converged ? "yes" : "NO", pw_fit_class_name(r->fit_class), pw_fit_stop_name(r->stop),
+           r->iterations, r->n_runs);
     printf("  %-10s %14s %12s %27s\n", "parameter", "value", "std. error", "95% interval");
     for (size_t k = 0; k < m->n_params; k++) {
         if (r->fitted[k])
