@@ -52,6 +52,9 @@ typedef enum {
 /* A combination of parameters is not identifiable when its singular value of the weighted
  * Jacobian is below this fraction of the largest (condition of J^T J above 1e12). */
 #define PW_FIT_IDENT_SV_RATIO 1e-6
+/* ... or when its 95 % half-width for some parameter exceeds 10 in ln-gamma units (|A_ij|, or an
+ * energy in K divided by T_ref): gamma_inf would be unknown within a factor e^10 = 22 000. */
+#define PW_FIT_UNFIXED_HALFWIDTH 10.0
 /* Runaway bounds: |A_ij| <= 30 for dimensionless constants; |a_ij/T_ref|, |b_ij/T_ref| <= 30 for
  * energies in K; van Laar: 1/100 <= A12/A21 <= 100. */
 #define PW_FIT_BOUND_LNGAMMA 30.0
@@ -120,6 +123,9 @@ typedef struct pw_fit_result {
     double sv_ratio;           /* smallest / largest singular value of the weighted Jacobian */
     bool stderr_meaningful[PW_MAX_PARAMS]; /* false: stderr_ is NAN, the data do not fix it */
     int runaway_param;         /* index of the parameter beyond its bound, -1 if none */
+    size_t n_runaway_runs;     /* LM runs that ended beyond a runaway bound */
+    double runaway_chi2;       /* lowest chi2 among them (NAN when none); it may lie below chi2:
+                                  a runaway is never chosen over a bounded answer */
     size_t iterations, n_fev, n_jev;
     size_t n_runs;             /* LM runs of the multistart */
     double chi2, chi2_red;     /* weighted sum of squares and per degree of freedom */

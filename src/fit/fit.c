@@ -480,7 +480,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
      * best of 4 n_starts seeded draws, each screened by one evaluation; LM runs from exactly
      * n_starts of them (fewer only when fewer draws can be evaluated at all). */
     size_t n_runs = o.n_starts ? o.n_starts : 1;
-    size_t n_draw = n_runs > 2 ? 4 * n_runs : 0;
+    size_t n_draw = n_runs > 1 ? 4 * n_runs : 0;
     if (n_runs > ((size_t)-1) / (8 * sizeof(start_cand)))
         n_runs = n_draw = 0, st = st == PW_OK ? PW_ENOMEM : st;
     start_cand *cand = st == PW_OK ? malloc(sizeof *cand * (n_draw + 2)) : NULL;
@@ -527,6 +527,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     if (n_cand > n_runs)
         n_cand = n_runs;
     run_result best = {.chi2 = INFINITY, .stop = PW_STOP_NONE, .cls = RUN_FAILED};
+    out->runaway_chi2 = NAN;
     memcpy(best.params, out->sys.params, sizeof best.params);
     for (size_t c = 0; c < n_cand; c++) {
         run_result run;
@@ -535,6 +536,11 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
         out->n_runs++;
         if (run.cls == RUN_STATIONARY)
             add_minimum(out, &fp, &run);
+        if (run.cls == RUN_RUNAWAY) {
+            out->n_runaway_runs++;
+            if (!(run.chi2 >= out->runaway_chi2))
+                out->runaway_chi2 = run.chi2;
+        }
         if (out->n_runs == 1 || run_better(&run, &best))
             best = run;
     }
@@ -586,13 +592,13 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     if (cst == PW_OK && out->dof > 0) {
         double s2 = out->fit_class == PW_FIT_EXACT ? 1.0 : out->chi2 / (double)out->dof;
         fit_info info;
-        cst = fit_identify(&fp, J, fp.n_res, s2, &info);
+        double t = gsl_cdf_tdist_Pinv(0.975, (double)out->dof);
+        cst = fit_identify(&fp, J, fp.n_res, s2, t, &info);
         if (cst == PW_OK) {
             memcpy(out->cov, info.cov, sizeof out->cov);
             out->sv_ratio = info.sv_ratio;
             out->identifiable = info.rank == fp.n_fit;
             memcpy(out->weak_dir, info.weak_dir, sizeof out->weak_dir);
-            double t = gsl_cdf_tdist_Pinv(0.975, (double)out->dof);
             for (size_t j = 0; j < fp.n_fit; j++) {
                 size_t k = fp.idx[j];
                 if (!info.meaningful[k])

@@ -51,10 +51,10 @@ typedef struct fit_info {
 } fit_info;
 
 /* Covariance and identifiability from the weighted Jacobian J (row-major n x p, in internal
- * unknowns) through an SVD (LAPACK dgesdd). PW_ESINGULAR when J is zero or the SVD fails;
- * PW_ENOMEM. */
-pw_status fit_identify(const fit_problem *fp, const double *J, size_t n, double s2,
-                          fit_info *info);
+ * unknowns) through an SVD (LAPACK dgesdd); s2 the variance factor, t95 the 97.5 % t quantile.
+ * PW_ESINGULAR when J is zero or the SVD fails; PW_ENOMEM. */
+pw_status fit_identify(const fit_problem *fp, const double *J, size_t n, double s2, double t95,
+                      fit_info *info);
 
 /* The model's ideal-solution point (G^E = 0 at T_ref) with s's fixed parameters: zero
  * interaction constants and energies, Wilson a12 = T_ref ln(V2_V1) = -a21. false when the model

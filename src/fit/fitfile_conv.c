@@ -17,6 +17,8 @@ bool pw_fitfile_read_convergence(const json_t *root, pw_fit_result *r, char *why
     for (size_t k = 0; k < PW_MAX_PARAMS; k++)
         r->stderr_meaningful[k] = r->fitted[k] && isfinite(r->stderr_[k]);
     r->runaway_param = -1;
+    r->runaway_chi2 = NAN;
+    r->n_runaway_runs = 0;
     r->identifiable = true;
     r->sv_ratio = NAN;
     const json_t *c = json_object_get(root, "convergence");
@@ -75,6 +77,18 @@ bool pw_fitfile_read_convergence(const json_t *root, pw_fit_result *r, char *why
         }
     } else if (weak && !json_is_null(weak)) {
         snprintf(why, n, "key \"convergence.weak_direction\" must be an object or null");
+        return false;
+    }
+    const json_t *nr = json_object_get(c, "runaway_runs");
+    if (nr && !(json_is_integer(nr) && json_integer_value(nr) >= 0)) {
+        snprintf(why, n, "key \"convergence.runaway_runs\" must be a non-negative integer");
+        return false;
+    }
+    r->n_runaway_runs = nr ? (size_t)json_integer_value(nr) : 0;
+    const json_t *rc = json_object_get(c, "runaway_best_chi2");
+    r->runaway_chi2 = json_is_number(rc) ? json_number_value(rc) : (double)NAN;
+    if (rc && !json_is_null(rc) && !(json_is_number(rc) && json_number_value(rc) >= 0.0)) {
+        snprintf(why, n, "key \"convergence.runaway_best_chi2\" must be a number >= 0 or null");
         return false;
     }
     const json_t *rp = json_object_get(c, "runaway_parameter");

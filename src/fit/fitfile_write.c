@@ -126,6 +126,8 @@ static json_t *convergence_json(const pw_fit_result *r)
             json_array_append_new(unfixed, json_string(m->param_names[k]));
     json_object_set_new(c, "weak_direction", weak);
     json_object_set_new(c, "stderr_not_meaningful", unfixed);
+    json_object_set_new(c, "runaway_runs", json_integer((json_int_t)r->n_runaway_runs));
+    json_object_set_new(c, "runaway_best_chi2", num(r->runaway_chi2));
     json_object_set_new(c, "runaway_parameter",
                         r->runaway_param >= 0 && (size_t)r->runaway_param < m->n_params
                             ? json_string(m->param_names[r->runaway_param])
