@@ -1,4 +1,4 @@
-/* pinchwise check DATA.csv [--components FILE] [--strict] [--json]
+/* pinchwise check DATA.csv [--components FILE] [--strict] [--sigma-y S] [--json]
  * Runs the consistency tests of the library (pinchwise/consistency.h) and prints a table or
  * one JSON object. Exit 0 when the check ran, whatever the verdict. */
 #include "cli.h"
@@ -20,10 +20,13 @@ static const char *const cautions[] = {
 
 static void usage(FILE *f)
 {
-    fprintf(f, "usage: pinchwise check DATA.csv [--components FILE] [--strict] [--json]\n"
+    fprintf(f, "usage: pinchwise check DATA.csv [--components FILE] [--strict] [--sigma-y S] [--json]\n"
                "  thermodynamic consistency tests of a measured binary VLE data file\n"
                "  --components FILE  extra component file (its rows take precedence)\n"
                "  --strict           every test that ran must pass for a 'consistent' verdict\n"
+               "  --sigma-y S        standard uncertainty of y1 (0 < S < 1), overriding the file's\n"
+               "                     '# sigma_y:'; with either, the point test's limit follows it\n"
+               "                     (docs/consistency.md); without, the classic 0.01 applies\n"
                "  --json             print one JSON object on stdout\n");
 }
 
@@ -53,6 +56,7 @@ static json_t *test_details(const pw_consistency_result *r, const pw_ctest *t)
         json_object_set_new(d, "area_above", pw_cli_json_num(r->area_A));
         json_object_set_new(d, "area_below", pw_cli_json_num(r->area_B));
         json_object_set_new(d, "smoothing_degree", json_integer(r->area_degree));
+        json_object_set_new(d, "areas_at_rounding_level", json_boolean(r->areas_at_rounding));
         break;
     case PW_CTEST_HERINGTON:
         json_object_set_new(d, "D", pw_cli_json_num(r->herington_D));
@@ -61,11 +65,20 @@ static json_t *test_details(const pw_consistency_result *r, const pw_ctest *t)
         json_object_set_new(d, "T_min_K", pw_cli_json_num(r->herington_Tmin_K));
         json_object_set_new(d, "area_above", pw_cli_json_num(r->area_A));
         json_object_set_new(d, "area_below", pw_cli_json_num(r->area_B));
+        json_object_set_new(d, "areas_at_rounding_level", json_boolean(r->areas_at_rounding));
         break;
     case PW_CTEST_POINT:
+        json_object_set_new(d, "limit_from_sigma", pw_cli_json_num(r->point_dy_limit_sigma));
         json_object_set_new(d, "legendre_terms", json_integer((json_int_t)r->legendre_terms));
         json_object_set_new(d, "rms_dln_gamma_ratio", pw_cli_json_num(r->rms_dlnratio));
         json_object_set_new(d, "van_ness_index", json_integer(r->van_ness_index));
+        break;
+    case PW_CTEST_SCATTER:
+        json_object_set_new(d, "chi2", pw_cli_json_num(r->scatter_chi2));
+        json_object_set_new(d, "dof", json_integer((json_int_t)r->scatter_dof));
+        break;
+    case PW_CTEST_SLOPE:
+        json_object_set_new(d, "at_rounding_level", json_boolean(r->slope_at_rounding));
         break;
     case PW_CTEST_DILUTION:
         json_object_set_new(d, "I1", pw_cli_json_num(r->I1));
@@ -118,9 +131,17 @@ static json_t *result_json(const pw_dataset *ds, const pw_consistency_result *r,
     json_object_set_new(o, "components", json_pack("[ss]", ds->names[0], ds->names[1]));
     json_object_set_new(o, "kind", json_string(ds->kind == PW_DATA_ISOTHERMAL ? "isothermal" : "isobaric"));
     json_object_set_new(o, "not_run", not_run);
+    json_t *unc = json_object();
+    json_object_set_new(unc, "used", json_boolean(r->uncertainty_based));
+    json_object_set_new(unc, "sigma_y", pw_cli_json_num(r->sigma_y_used));
+    json_object_set_new(unc, "sigma_x", pw_cli_json_num(r->sigma_x_used));
+    json_object_set_new(unc, "sigma_T_K", pw_cli_json_num(r->sigma_T_used_K));
+    json_object_set_new(unc, "sigma_P_relative", pw_cli_json_num(r->sigma_P_used_rel));
+    json_object_set_new(o, "uncertainties", unc);
     json_object_set_new(o, "verdict_rule",
                         json_string(strict ? "strict: every test that ran must pass"
-                                           : "primary: legendre_point and pure_endpoints decide "
+                                           : "primary: legendre_point, point_scatter and "
+                                             "pure_endpoints decide "
                                              "(area and Kojima tests when the point test cannot run); "
                                              "other failures are warnings"));
     json_t *reasons = json_array();
@@ -200,6 +221,14 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
     for (int i = 0; i < PW_CTEST_COUNT; i++)
         if (!r->tests[i].ran)
             printf("  %-16s not run: %s\n", r->tests[i].name, r->tests[i].why_not);
+    if (r->uncertainty_based)
+        printf("  limits from the stated uncertainties: sigma_y %.3g, sigma_x %.3g, %s %.3g%s\n",
+               r->sigma_y_used, r->sigma_x_used,
+               r->kind == PW_DATA_ISOTHERMAL ? "sigma_P" : "sigma_T",
+               r->kind == PW_DATA_ISOTHERMAL ? 100.0 * r->sigma_P_used_rel : r->sigma_T_used_K,
+               r->kind == PW_DATA_ISOTHERMAL ? " %" : " K");
+    else
+        printf("  no sigma_y stated: the point test uses the classic limit (docs/consistency.md)\n");
     printf("\n  => %s\n", r->consistent ? "CONSISTENT" : "NOT SHOWN CONSISTENT");
     for (size_t i = 0; i < r->n_reasons; i++)
         printf("     - %s\n", r->reasons[i]);
@@ -230,7 +259,7 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
 
 int pw_cli_check(int argc, char **argv)
 {
-    const char *data = NULL, *comp_file = NULL;
+    const char *data = NULL, *comp_file = NULL, *sigma_y = NULL;
     bool json = false, strict = false, missing = false;
     for (int i = 1; i < argc; i++) {
         if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h")) {
@@ -243,6 +272,9 @@ int pw_cli_check(int argc, char **argv)
             json = true;
         } else if (pw_cli_opt(argc, argv, &i, "--strict", NULL, NULL)) {
             strict = true;
+        } else if (pw_cli_opt(argc, argv, &i, "--sigma-y", &sigma_y, &missing)) {
+            if (missing)
+                return pw_cli_failf("check", PW_EXIT_USAGE, "--sigma-y needs a value");
         } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
             return pw_cli_failf("check", PW_EXIT_USAGE, "unknown option '%s'", argv[i]);
         } else if (data) {
@@ -257,6 +289,18 @@ int pw_cli_check(int argc, char **argv)
     }
     pw_error err;
     pw_error_clear(&err);
+    pw_consistency_options o = pw_consistency_default_options();
+    o.strict_verdict = strict;
+    if (sigma_y) {
+        double v = NAN;
+        if (pw_cli_number("--sigma-y", sigma_y, &v, &err) != PW_OK)
+            return pw_cli_fail("check", &err);
+        if (!(v > 0.0 && v < 1.0))
+            return pw_cli_failf("check", PW_EXIT_USAGE,
+                                "--sigma-y %s: expected a mole-fraction uncertainty between 0 and 1 "
+                                "(e.g. 0.002)", sigma_y);
+        o.sigma_y = v;
+    }
     pw_complib lib;
     pw_dataset ds;
     memset(&ds, 0, sizeof ds);
@@ -272,8 +316,6 @@ int pw_cli_check(int argc, char **argv)
         st = find_component(&lib, &ds, 1, &c[1], &err);
     pw_consistency_result r;
     memset(&r, 0, sizeof r);
-    pw_consistency_options o = pw_consistency_default_options();
-    o.strict_verdict = strict;
     if (st == PW_OK)
         st = pw_consistency_run(&ds, c[0], c[1], &o, &r, &err);
     int code = 0;
