@@ -162,6 +162,10 @@ static void warn_fit(const pw_fit_result *r, const char *input)
     else if (!r->converged)
         pw_cli_warnf("fit", "%s: the %s fit did NOT converge (%s, %s); do not design with it", input,
                      m->name, pw_fit_class_name(r->fit_class), pw_fit_stop_name(r->stop));
+    if (r->fit_class == PW_FIT_EXACT)
+        pw_cli_warnf("fit", "%s: the %s model reproduces the data to rounding level (noise-free or "
+                     "generated data?); standard errors are those the stated uncertainties imply",
+                     input, m->name);
     if (r->converged && !r->identifiable) {
         char combo[256] = "";
         size_t len = 0;

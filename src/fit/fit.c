@@ -166,8 +166,9 @@ static pw_stop_reason map_stop(int status, int info)
     }
 }
 
-/* GSL's gradient test evaluated by us at params: max_j |g_j| max(|u_j|, 1) <= gtol max(f.f, 1),
- * g = J^T f in the internal unknowns u. Used where GSL stopped without testing (no progress). */
+/* GSL's gradient test (multifit_nlinear/convergence.c) evaluated by us at params:
+ * max_j |g_j| max(|u_j|, 1) <= gtol max(f.f/2, 1), g = J^T f in the internal unknowns u. Used
+ * where GSL stopped without testing (no progress on the first iteration). */
 static bool gradient_small(const fit_problem *fp, const double *params, double gtol)
 {
     double *f = malloc(sizeof(double) * fp->n_res * (1 + fp->n_fit));
@@ -186,7 +187,7 @@ static bool gradient_small(const fit_problem *fp, const double *params, double g
         gmax = fmax(gmax, fabs(g) * fmax(fabs(u), 1.0));
     }
     free(f);
-    return ok && isfinite(gmax) && gmax <= gtol * fmax(ff, 1.0);
+    return ok && isfinite(gmax) && gmax <= gtol * fmax(0.5 * ff, 1.0);
 }
 
 static bool chi2_exact(double chi2, size_t n_res)
