@@ -76,13 +76,16 @@ pw_status pw_cs_scatter_test(const cs_data *d, pw_consistency_result *r)
     pw_ctest *pt = &r->tests[PW_CTEST_POINT];
     t->limit = NAN;
     if (!ds->has_y) {
-        pw_cs_not_run(t, "the data set has no y column (P-x or T-x data can be reduced, not tested)");
+        pw_cs_not_run(t,
+                      "the data set has no y column (P-x or T-x data can be reduced, not tested)");
         return PW_OK;
     }
     double sy = pick(o->sigma_y, ds->sigma_y_stated, ds->sigma_y);
     if (!isfinite(sy)) {
-        pw_cs_not_run(t, "no sigma_y stated (a '# sigma_y:' line or check --sigma-y): the point "
-                         "test keeps the classic limit %.3g", o->point_dy_max);
+        pw_cs_not_run(t,
+                      "no sigma_y stated (a '# sigma_y:' line or check --sigma-y): the point "
+                      "test keeps the classic limit %.3g",
+                      o->point_dy_max);
         return PW_OK;
     }
     r->uncertainty_based = true;

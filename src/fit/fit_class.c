@@ -6,12 +6,9 @@
 #include <string.h>
 
 static const char *const class_names[] = {
-    [PW_FIT_NOT_RUN] = "not-run",
-    [PW_FIT_MINIMUM] = "minimum",
-    [PW_FIT_EXACT] = "exact",
-    [PW_FIT_UNIDENTIFIABLE] = "not-identifiable",
-    [PW_FIT_RUNAWAY] = "runaway",
-    [PW_FIT_MAXITER] = "iteration-limit",
+    [PW_FIT_NOT_RUN] = "not-run", [PW_FIT_MINIMUM] = "minimum",
+    [PW_FIT_EXACT] = "exact",     [PW_FIT_UNIDENTIFIABLE] = "not-identifiable",
+    [PW_FIT_RUNAWAY] = "runaway", [PW_FIT_MAXITER] = "iteration-limit",
     [PW_FIT_FAILED] = "failed",
 };
 

@@ -23,7 +23,7 @@ bool pw_fitfile_read_convergence(const json_t *root, pw_fit_result *r, char *why
     r->sv_ratio = NAN;
     const json_t *c = json_object_get(root, "convergence");
     if (!c || json_is_null(c)) {
-        r->fit_class = r->converged ? PW_FIT_MINIMUM
+        r->fit_class = r->converged                 ? PW_FIT_MINIMUM
                        : r->stop == PW_STOP_MAXITER ? PW_FIT_MAXITER
                                                     : PW_FIT_FAILED;
         return true;
@@ -35,8 +35,9 @@ bool pw_fitfile_read_convergence(const json_t *root, pw_fit_result *r, char *why
     const json_t *cls = json_object_get(c, "class");
     int k = json_is_string(cls) ? pw_fit_class_from_name(json_string_value(cls)) : -1;
     if (k < 0 || k == PW_FIT_NOT_RUN) {
-        snprintf(why, n, "key \"convergence.class\" must be one of minimum, exact, "
-                         "not-identifiable, runaway, iteration-limit, failed");
+        snprintf(why, n,
+                 "key \"convergence.class\" must be one of minimum, exact, "
+                 "not-identifiable, runaway, iteration-limit, failed");
         return false;
     }
     r->fit_class = (pw_fit_class)k;
@@ -52,8 +53,9 @@ bool pw_fitfile_read_convergence(const json_t *root, pw_fit_result *r, char *why
     }
     r->identifiable = json_is_true(id);
     if (r->fit_class == PW_FIT_UNIDENTIFIABLE && r->identifiable) {
-        snprintf(why, n, "key \"convergence.identifiable\" must be false for class "
-                         "not-identifiable");
+        snprintf(why, n,
+                 "key \"convergence.identifiable\" must be false for class "
+                 "not-identifiable");
         return false;
     }
     const json_t *sv = json_object_get(c, "singular_value_ratio");
@@ -69,8 +71,10 @@ bool pw_fitfile_read_convergence(const json_t *root, pw_fit_result *r, char *why
             const json_t *v = json_object_get(weak, m->param_names[j]);
             if (v && !(json_is_number(v) && isfinite(json_number_value(v)) &&
                        fabs(json_number_value(v)) <= 1.0 + 1e-12)) {
-                snprintf(why, n, "key \"convergence.weak_direction.%s\" must be a number in "
-                                 "[-1, 1]", m->param_names[j]);
+                snprintf(why, n,
+                         "key \"convergence.weak_direction.%s\" must be a number in "
+                         "[-1, 1]",
+                         m->param_names[j]);
                 return false;
             }
             r->weak_dir[j] = v ? json_number_value(v) : 0.0;

@@ -4,8 +4,8 @@
  * Data are generated here from modified Raoult's law with a temperature-independent Margules G^E
  * (H^E = 0, so the isobaric data obey the isothermal Gibbs-Duhem area rule too): Gibbs-Duhem
  * consistent by construction (METHODS 4.9 self-test recipe). A12 = A21 = 0 is Raoult's law
- * (ideal). Vapor pressures: the Antoine rows of datasets/components.csv, ln(P/kPa) = A - B/(t/C + C)
- * (Smith, Van Ness & Abbott, 7th ed. 2005, Table B.2, from memory). All generated data are
+ * (ideal). Vapor pressures: the Antoine rows of datasets/components.csv, ln(P/kPa) = A - B/(t/C +
+ * C) (Smith, Van Ness & Abbott, 7th ed. 2005, Table B.2, from memory). All generated data are
  * INVENTED round-trip data; the offsets and the noise are deliberate. */
 #include "pw_test.h"
 
@@ -36,8 +36,18 @@ typedef struct sys {
 static const sys systems[] = {
     {"benzene", "toluene", {13.7819, 2726.81, 217.572}, {13.932, 3056.96, 217.625}, 0.0, 0.0},
     {"benzene", "toluene", {13.7819, 2726.81, 217.572}, {13.932, 3056.96, 217.625}, 0.3, 0.5},
-    {"methanol", "water-antoine", {16.5785, 3638.27, 239.500}, {16.3872, 3885.70, 230.170}, 0.8, 0.45},
-    {"acetone", "water-antoine", {14.3145, 2756.22, 228.060}, {16.3872, 3885.70, 230.170}, 2.0, 1.5},
+    {"methanol",
+     "water-antoine",
+     {16.5785, 3638.27, 239.500},
+     {16.3872, 3885.70, 230.170},
+     0.8,
+     0.45},
+    {"acetone",
+     "water-antoine",
+     {14.3145, 2756.22, 228.060},
+     {16.3872, 3885.70, 230.170},
+     2.0,
+     1.5},
     {"chloroform", "acetone", {13.7324, 2548.74, 218.552}, {14.3145, 2756.22, 228.060}, -0.7, -0.5},
 };
 
@@ -51,8 +61,14 @@ typedef struct gen {
     double sigma_y, sigma_T_K; /* stated in the "file" (NAN: not stated) */
 } gen;
 
-static double lng1(const sys *s, double x) { return (1 - x) * (1 - x) * (s->A12 + 2 * (s->A21 - s->A12) * x); }
-static double lng2(const sys *s, double x) { return x * x * (s->A21 + 2 * (s->A12 - s->A21) * (1 - x)); }
+static double lng1(const sys *s, double x)
+{
+    return (1 - x) * (1 - x) * (s->A12 + 2 * (s->A21 - s->A12) * x);
+}
+static double lng2(const sys *s, double x)
+{
+    return x * x * (s->A21 + 2 * (s->A12 - s->A21) * (1 - x));
+}
 
 static double ptot(const sys *s, const pw_component *c, double x, double T)
 {
@@ -107,7 +123,8 @@ static void make(pw_dataset *ds, const sys *s, pw_component *c, const gen *g)
             y = fmin(fmax(y, 1e-6), 1.0 - 1e-6);
         }
         double Tm = T + (pure ? 0.0 : g->dT_K + g->noise_T_K * gsl_ran_gaussian(rng, 1.0));
-        double Pm = g->kind == PW_DATA_ISOBARIC ? ds->P_fixed_Pa : P * (pure ? 1.0 : 1.0 + g->dP_rel);
+        double Pm =
+            g->kind == PW_DATA_ISOBARIC ? ds->P_fixed_Pa : P * (pure ? 1.0 : 1.0 + g->dP_rel);
         ds->pts[i] = (pw_point){x, pure ? x : y, Tm, Pm, (long)i + 6};
     }
     gsl_rng_free(rng);
@@ -137,8 +154,16 @@ static void exact_data_consistent_with_and_without_strict(void **state)
     for (size_t k = 0; k < sizeof systems / sizeof systems[0]; k++)
         for (int kind = 0; kind < 2; kind++)
             for (int stated = 0; stated < 2; stated++) {
-                gen g = {kind ? PW_DATA_ISOTHERMAL : PW_DATA_ISOBARIC, 333.15, 15, 0, 0, 0, 0, 1,
-                         stated ? 0.002 : NAN, stated ? 0.05 : NAN};
+                gen g = {kind ? PW_DATA_ISOTHERMAL : PW_DATA_ISOBARIC,
+                         333.15,
+                         15,
+                         0,
+                         0,
+                         0,
+                         0,
+                         1,
+                         stated ? 0.002 : NAN,
+                         stated ? 0.05 : NAN};
                 pw_dataset ds;
                 pw_component c[2];
                 make(&ds, &systems[k], c, &g);
@@ -186,7 +211,7 @@ static void point_limit_follows_sigma_y(void **state)
     pw_consistency_result_free(&r);
     const double sig[] = {0.001, 0.002, 0.003};
     for (size_t i = 0; i < 3; i++) {
-        r = check(&ds, c, false, sig[i]); /* the option, the file states nothing */
+        r = check(&ds, c, false, sig[i]);        /* the option, the file states nothing */
         double n = 15.0, z = 2.3263478740408408; /* normal 0.99 quantile */
         double lo = sig[i] * (sqrt(2.0 / M_PI) + z * sqrt((1.0 - 2.0 / M_PI) / n));
         double lim = r.tests[PW_CTEST_POINT].limit;
@@ -227,10 +252,10 @@ static void offset_caught_with_stated_uncertainties(void **state)
             make(&ds, &systems[k], c, &g);
             pw_consistency_result r = check(&ds, c, false, NAN);
             print_message("offset %+.1f K %s/%s A12 %g: mean|dy| %.4g (limit %.4g), scatter %.3g "
-                          "(limit %.3g) -> %s\n", 0.5 * sign, systems[k].n1, systems[k].n2,
-                          systems[k].A12, r.tests[PW_CTEST_POINT].value,
-                          r.tests[PW_CTEST_POINT].limit, r.tests[PW_CTEST_SCATTER].value,
-                          r.tests[PW_CTEST_SCATTER].limit,
+                          "(limit %.3g) -> %s\n",
+                          0.5 * sign, systems[k].n1, systems[k].n2, systems[k].A12,
+                          r.tests[PW_CTEST_POINT].value, r.tests[PW_CTEST_POINT].limit,
+                          r.tests[PW_CTEST_SCATTER].value, r.tests[PW_CTEST_SCATTER].limit,
                           r.consistent ? "consistent" : "caught");
             pw_consistency_result_free(&r);
             pw_dataset_free(&ds);
@@ -274,8 +299,16 @@ static void consistent_noisy_data_rarely_fail(void **state)
         for (int kind = 0; kind < 2; kind++) {
             size_t fail_point = 0, fail_scatter = 0, n_seeds = 40;
             for (unsigned long seed = 100; seed < 100 + n_seeds; seed++) {
-                gen g = {kind ? PW_DATA_ISOTHERMAL : PW_DATA_ISOBARIC, 333.15, 15, 0, 0, 0.002,
-                         kind ? 0.0 : 0.05, seed, 0.002, 0.05};
+                gen g = {kind ? PW_DATA_ISOTHERMAL : PW_DATA_ISOBARIC,
+                         333.15,
+                         15,
+                         0,
+                         0,
+                         0.002,
+                         kind ? 0.0 : 0.05,
+                         seed,
+                         0.002,
+                         0.05};
                 pw_dataset ds;
                 pw_component c[2];
                 make(&ds, &systems[k], c, &g);

@@ -64,8 +64,11 @@ static void make_data(pw_dataset *ds, const pw_system *s, const gen *g)
         assert_int_equal(st, PW_OK);
         ds->pts[i].x1 = x;
         ds->pts[i].y1 = g->has_y ? e.y1 + g->noise_y * gsl_ran_gaussian(rng, 1.0) : NAN;
-        ds->pts[i].T_K = e.T_K + (g->kind == PW_DATA_ISOBARIC ? g->noise_T * gsl_ran_gaussian(rng, 1.0) : 0.0);
-        ds->pts[i].P_Pa = e.P_Pa * (g->kind == PW_DATA_ISOTHERMAL ? 1.0 + g->noise_P * gsl_ran_gaussian(rng, 1.0) : 1.0);
+        ds->pts[i].T_K =
+            e.T_K + (g->kind == PW_DATA_ISOBARIC ? g->noise_T * gsl_ran_gaussian(rng, 1.0) : 0.0);
+        ds->pts[i].P_Pa =
+            e.P_Pa *
+            (g->kind == PW_DATA_ISOTHERMAL ? 1.0 + g->noise_P * gsl_ran_gaussian(rng, 1.0) : 1.0);
         ds->pts[i].line = (long)i + 5;
         if (g->printed) {
             ds->pts[i].y1 = round(ds->pts[i].y1 * 1e4) / 1e4;
@@ -220,10 +223,11 @@ static void nrtl_alpha_not_identifiable(void **state)
     o.fit_alpha = true;
     pw_fit_result r;
     fit(&ds, &s, "nrtl", &o, &r);
-    print_message("NRTL + alpha: class %s, b = %g, %g, alpha %g, se %g %g %g, sv ratio %g, weak %g %g %g\n",
-                  pw_fit_class_name(r.fit_class), r.sys.params[0], r.sys.params[1], r.sys.params[2],
-                  r.stderr_[0], r.stderr_[1], r.stderr_[2], r.sv_ratio, r.weak_dir[0],
-                  r.weak_dir[1], r.weak_dir[2]);
+    print_message(
+        "NRTL + alpha: class %s, b = %g, %g, alpha %g, se %g %g %g, sv ratio %g, weak %g %g %g\n",
+        pw_fit_class_name(r.fit_class), r.sys.params[0], r.sys.params[1], r.sys.params[2],
+        r.stderr_[0], r.stderr_[1], r.stderr_[2], r.sv_ratio, r.weak_dir[0], r.weak_dir[1],
+        r.weak_dir[2]);
     assert_true(r.converged);
     assert_int_equal(r.fit_class, PW_FIT_UNIDENTIFIABLE);
     assert_false(r.identifiable);
@@ -245,14 +249,15 @@ static pw_dataset two_azeotropes(double dA, double dA_fit, pw_system *s)
 {
     *s = ideal_system();
     s->comp[0] = pw_test_antoine("invented-one", 14.0, 3000.0, 220.0, PW_LN, "kPa", "C", NAN, NAN);
-    s->comp[1] = pw_test_antoine("invented-two", 14.0 + dA, 3000.0, 220.0, PW_LN, "kPa", "C", NAN, NAN);
+    s->comp[1] =
+        pw_test_antoine("invented-two", 14.0 + dA, 3000.0, 220.0, PW_LN, "kPa", "C", NAN, NAN);
     s->params[0] = 0.3, s->params[1] = -0.3;
     s->T_ref_K = 333.15; /* the fit's T_ref for isothermal data */
     gen g = {PW_DATA_ISOTHERMAL, true, 333.15, 19, 0, 0, 0, 1};
     pw_dataset ds;
     make_data(&ds, s, &g);
-    s->comp[1] = pw_test_antoine("invented-two", 14.0 + dA_fit, 3000.0, 220.0, PW_LN, "kPa", "C",
-                                 NAN, NAN);
+    s->comp[1] =
+        pw_test_antoine("invented-two", 14.0 + dA_fit, 3000.0, 220.0, PW_LN, "kPa", "C", NAN, NAN);
     return ds;
 }
 
@@ -294,17 +299,18 @@ static void bounded_minimum_beats_runaway(void **state)
     o.n_starts = 12;
     pw_fit_result r;
     fit(&ds, &s, "vanlaar", &o, &r);
-    print_message("van Laar, dA 0.05: class %s, A = %g, %g, runaway runs %zu (best chi2 %g), chi2 %g\n",
-                  pw_fit_class_name(r.fit_class), r.sys.params[0], r.sys.params[1],
-                  r.n_runaway_runs, r.runaway_chi2, r.chi2);
+    print_message(
+        "van Laar, dA 0.05: class %s, A = %g, %g, runaway runs %zu (best chi2 %g), chi2 %g\n",
+        pw_fit_class_name(r.fit_class), r.sys.params[0], r.sys.params[1], r.n_runaway_runs,
+        r.runaway_chi2, r.chi2);
     assert_true(r.converged);
     assert_int_equal(r.fit_class, PW_FIT_MINIMUM);
     assert_int_equal(r.runaway_param, -1);
     assert_true(r.n_runaway_runs >= 1);
     assert_true(r.n_minima >= 1);
     for (size_t i = 0; i < r.n_minima; i++)
-        assert_int_equal(pw_fit_runaway_param(r.sys.model, r.fitted, r.minima[i].params,
-                                              r.sys.T_ref_K), -1);
+        assert_int_equal(
+            pw_fit_runaway_param(r.sys.model, r.fitted, r.minima[i].params, r.sys.T_ref_K), -1);
     pw_fit_result_free(&r);
     pw_dataset_free(&ds);
 }
