@@ -1,4 +1,4 @@
-/* pinchwise check DATA.csv [--components FILE] [--strict] [--json]
+/* pinchwise check DATA.csv [--components FILE] [--strict] [--sigma-y S] [--json]
  * Runs the consistency tests of the library (pinchwise/consistency.h) and prints a table or
  * one JSON object. Exit 0 when the check ran, whatever the verdict. */
 #include "cli.h"
@@ -12,10 +12,13 @@
 
 static void usage(FILE *f)
 {
-    fprintf(f, "usage: pinchwise check DATA.csv [--components FILE] [--strict] [--json]\n"
+    fprintf(f, "usage: pinchwise check DATA.csv [--components FILE] [--strict] [--sigma-y S] [--json]\n"
                "  thermodynamic consistency tests of a measured binary VLE data file\n"
                "  --components FILE  extra component file (its rows take precedence)\n"
                "  --strict           every test that ran must pass for a 'consistent' verdict\n"
+               "  --sigma-y S        standard uncertainty of y1 (0 < S < 1), overriding the file's\n"
+               "                     '# sigma_y:'; with either, the point test's limit follows it\n"
+               "                     (docs/consistency.md); without, the classic 0.01 applies\n"
                "  --json             print one JSON object on stdout\n");
 }
 
@@ -34,6 +37,14 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
     for (int i = 0; i < PW_CTEST_COUNT; i++)
         if (!r->tests[i].ran)
             printf("  %-16s not run: %s\n", r->tests[i].name, r->tests[i].why_not);
+    if (r->uncertainty_based)
+        printf("  limits from the stated uncertainties: sigma_y %.3g, sigma_x %.3g, %s %.3g%s\n",
+               r->sigma_y_used, r->sigma_x_used,
+               r->kind == PW_DATA_ISOTHERMAL ? "sigma_P" : "sigma_T",
+               r->kind == PW_DATA_ISOTHERMAL ? 100.0 * r->sigma_P_used_rel : r->sigma_T_used_K,
+               r->kind == PW_DATA_ISOTHERMAL ? " %" : " K");
+    else
+        printf("  no sigma_y stated: the point test uses the classic limit (docs/consistency.md)\n");
     printf("\n  => %s\n", r->consistent ? "CONSISTENT" : "NOT SHOWN CONSISTENT");
     for (size_t i = 0; i < r->n_reasons; i++)
         printf("     - %s\n", r->reasons[i]);
@@ -67,6 +78,7 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
 int pw_cli_check(int argc, char **argv)
 {
     const char *data = NULL, *comp_file = NULL;
+    const char *sigma_y = NULL;
     bool json = false, strict = false, missing = false;
     for (int i = 1; i < argc; i++) {
         if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h")) {
@@ -79,6 +91,9 @@ int pw_cli_check(int argc, char **argv)
             json = true;
         } else if (pw_cli_opt(argc, argv, &i, "--strict", NULL, NULL)) {
             strict = true;
+        } else if (pw_cli_opt(argc, argv, &i, "--sigma-y", &sigma_y, &missing)) {
+            if (missing)
+                return pw_cli_failf("check", PW_EXIT_USAGE, "--sigma-y needs a value");
         } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
             return pw_cli_failf("check", PW_EXIT_USAGE, "unknown option '%s'", argv[i]);
         } else if (data) {
@@ -109,6 +124,16 @@ int pw_cli_check(int argc, char **argv)
     memset(&r, 0, sizeof r);
     pw_consistency_options o = pw_consistency_default_options();
     o.strict_verdict = strict;
+    if (sigma_y) {
+        double v = NAN;
+        if (pw_cli_number("--sigma-y", sigma_y, &v, &err) != PW_OK)
+            return pw_cli_fail("check", &err);
+        if (!(v > 0.0 && v < 1.0))
+            return pw_cli_failf("check", PW_EXIT_USAGE,
+                                "--sigma-y %s: expected a mole-fraction uncertainty between 0 and 1 "
+                                "(e.g. 0.002)", sigma_y);
+        o.sigma_y = v;
+    }
     if (st == PW_OK)
         st = pw_consistency_run(&ds, c[0], c[1], &o, &r, &err);
     int code = 0;

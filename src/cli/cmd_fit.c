@@ -25,7 +25,7 @@ static void usage(FILE *f)
             "  --fit-alpha           NRTL: fit alpha as well\n"
             "  --vapor MODEL         ideal (default) or virial (Tsonopoulos second virial\n"
             "                        coefficients; needs Tc_K, Pc_kPa, omega, Zc, Vc_cm3_mol)\n"
-            "  --starts N            candidate starts screened (default 32)\n"
+            "  --starts N            LM runs, each from its own start (default 8)\n"
             "  --seed N              seed of the start points (default 1)\n"
             "  --sigma-T DT          temperature uncertainty, e.g. 0.05K (default: file or 0.1 K)\n"
             "  --sigma-P PCT         pressure uncertainty in percent, e.g. 0.2 (default: file or 0.1)\n"
@@ -93,8 +93,9 @@ static void print_table(const pw_fit_result *r, const char *path)
     const pw_model_type *m = r->sys.model;
     printf("%s fit of %s (1) / %s (2), %s data, %zu points\n", m->name, r->sys.comp[0].name,
            r->sys.comp[1].name, r->kind == PW_DATA_ISOBARIC ? "isobaric" : "isothermal", r->n_pts);
-    printf("  converged: %s (%s), %zu LM iterations over the starts\n", r->converged ? "yes" : "NO",
-           pw_fit_stop_name(r->stop), r->iterations);
+    printf("  converged: %s (%s; %s), %zu LM iterations over %zu starts\n",
+           r->converged ? "yes" : "NO", pw_fit_class_name(r->fit_class), pw_fit_stop_name(r->stop),
+           r->iterations, r->n_runs);
     printf("  %-10s %14s %12s %27s\n", "parameter", "value", "std. error", "95% interval");
     for (size_t k = 0; k < m->n_params; k++) {
         if (r->fitted[k])

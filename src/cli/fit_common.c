@@ -125,9 +125,32 @@ static void warn_duplicates(const pw_fit_result *r, const char *input)
 static void warn_fit(const pw_fit_result *r, const char *input)
 {
     pw_cli_warn_vapor_association("fit", &r->sys);
-    if (!r->converged)
-        pw_cli_warnf("fit", "%s: the %s fit did NOT converge (%s); do not design with it", input,
-                     r->sys.model->name, pw_fit_stop_name(r->stop));
+    const pw_model_type *m = r->sys.model;
+    if (r->fit_class == PW_FIT_RUNAWAY)
+        pw_cli_warnf("fit", "%s: the %s fit did NOT converge: %s ran beyond its physical bound "
+                     "(docs/fitting.md) and no bounded minimum was found; do not design with it",
+                     input, m->name,
+                     r->runaway_param >= 0 ? m->param_names[r->runaway_param] : "a parameter");
+    else if (!r->converged)
+        pw_cli_warnf("fit", "%s: the %s fit did NOT converge (%s, %s); do not design with it", input,
+                     m->name, pw_fit_class_name(r->fit_class), pw_fit_stop_name(r->stop));
+    if (r->fit_class == PW_FIT_EXACT)
+        pw_cli_warnf("fit", "%s: the %s model reproduces the data to rounding level (noise-free or "
+                     "generated data?); standard errors are those the stated uncertainties imply",
+                     input, m->name);
+    if (r->converged && !r->identifiable) {
+        char combo[256] = "";
+        size_t len = 0;
+        for (size_t k = 0; k < m->n_params && len < sizeof combo - 40; k++)
+            if (r->fitted[k] && fabs(r->weak_dir[k]) > 1e-3)
+                len += (size_t)snprintf(combo + len, sizeof combo - len, "%s%s%.3g %s",
+                                        len ? (r->weak_dir[k] < 0 ? " - " : " + ") : "",
+                                        len == 0 && r->weak_dir[k] < 0 ? "-" : "",
+                                        fabs(r->weak_dir[k]), m->param_names[k]);
+        pw_cli_warnf("fit", "%s: the data do not fix the parameter combination along (%s): moving "
+                     "the parameters that way leaves the fit unchanged; the standard errors of the "
+                     "parameters it involves are not meaningful (null)", input, combo);
+    }
     if (r->split)
         pw_cli_warnf("fit",
                      "%s: the %s parameters predict a liquid-liquid split (d2(Gmix/RT)/dx1^2 = %.3g "
@@ -140,7 +163,7 @@ static void warn_fit(const pw_fit_result *r, const char *input)
                      input, competing);
     for (size_t a = 0; a < r->sys.model->n_params; a++)
         for (size_t b = a + 1; b < r->sys.model->n_params; b++)
-            if (r->fitted[a] && r->fitted[b] && fabs(r->corr[a][b]) > 0.95)
+            if (r->identifiable && r->fitted[a] && r->fitted[b] && fabs(r->corr[a][b]) > 0.95)
                 pw_cli_warnf("fit", "%s: parameters %s and %s are correlated (%.3f): poorly "
                              "identifiable from these data",
                              input, r->sys.model->param_names[a], r->sys.model->param_names[b],

@@ -26,6 +26,7 @@ static json_t *test_details(const pw_consistency_result *r, const pw_ctest *t)
         json_object_set_new(d, "area_above", pw_json_num(r->area_A));
         json_object_set_new(d, "area_below", pw_json_num(r->area_B));
         json_object_set_new(d, "smoothing_degree", json_integer(r->area_degree));
+        json_object_set_new(d, "areas_at_rounding_level", json_boolean(r->areas_at_rounding));
         break;
     case PW_CTEST_HERINGTON:
         json_object_set_new(d, "D", pw_json_num(r->herington_D));
@@ -34,11 +35,20 @@ static json_t *test_details(const pw_consistency_result *r, const pw_ctest *t)
         json_object_set_new(d, "T_min_K", pw_json_num(r->herington_Tmin_K));
         json_object_set_new(d, "area_above", pw_json_num(r->area_A));
         json_object_set_new(d, "area_below", pw_json_num(r->area_B));
+        json_object_set_new(d, "areas_at_rounding_level", json_boolean(r->areas_at_rounding));
         break;
     case PW_CTEST_POINT:
+        json_object_set_new(d, "limit_from_sigma", pw_json_num(r->point_dy_limit_sigma));
         json_object_set_new(d, "legendre_terms", json_integer((json_int_t)r->legendre_terms));
         json_object_set_new(d, "rms_dln_gamma_ratio", pw_json_num(r->rms_dlnratio));
         json_object_set_new(d, "van_ness_index", json_integer(r->van_ness_index));
+        break;
+    case PW_CTEST_SCATTER:
+        json_object_set_new(d, "chi2", pw_json_num(r->scatter_chi2));
+        json_object_set_new(d, "dof", json_integer((json_int_t)r->scatter_dof));
+        break;
+    case PW_CTEST_SLOPE:
+        json_object_set_new(d, "at_rounding_level", json_boolean(r->slope_at_rounding));
         break;
     case PW_CTEST_DILUTION:
         json_object_set_new(d, "I1", pw_json_num(r->I1));
@@ -91,9 +101,17 @@ json_t *pw_check_doc(const pw_dataset *ds, const pw_consistency_result *r, bool 
     json_object_set_new(o, "components", json_pack("[ss]", ds->names[0], ds->names[1]));
     json_object_set_new(o, "kind", json_string(ds->kind == PW_DATA_ISOTHERMAL ? "isothermal" : "isobaric"));
     json_object_set_new(o, "not_run", not_run);
+    json_t *unc = json_object();
+    json_object_set_new(unc, "used", json_boolean(r->uncertainty_based));
+    json_object_set_new(unc, "sigma_y", pw_json_num(r->sigma_y_used));
+    json_object_set_new(unc, "sigma_x", pw_json_num(r->sigma_x_used));
+    json_object_set_new(unc, "sigma_T_K", pw_json_num(r->sigma_T_used_K));
+    json_object_set_new(unc, "sigma_P_relative", pw_json_num(r->sigma_P_used_rel));
+    json_object_set_new(o, "uncertainties", unc);
     json_object_set_new(o, "verdict_rule",
                         json_string(strict ? "strict: every test that ran must pass"
-                                           : "primary: legendre_point and pure_endpoints decide "
+                                           : "primary: legendre_point, point_scatter and "
+                                             "pure_endpoints decide "
                                              "(area and Kojima tests when the point test cannot run); "
                                              "other failures are warnings"));
     json_t *reasons = json_array();

@@ -370,9 +370,12 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
     const char *stop = json_is_string(json_object_get(root, "stop_reason"))
                            ? json_string_value(json_object_get(root, "stop_reason"))
                            : "";
-    for (int s = PW_STOP_NONE; s <= PW_STOP_FAILED; s++)
+    for (int s = PW_STOP_NONE; s <= PW_STOP_MACHINE; s++)
         if (!strcmp(stop, pw_fit_stop_name((pw_stop_reason)s)))
             r->stop = (pw_stop_reason)s;
+    char why[PW_ERROR_MSG_MAX];
+    if (rd->st == PW_OK && !pw_fitfile_read_convergence(root, r, why, sizeof why))
+        fail(rd, "%s", why);
 }
 
 pw_status pw_fitfile_parse(const char *buf, size_t len, const char *name, pw_fit_result *r,

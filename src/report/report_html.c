@@ -173,7 +173,8 @@ static void parameters(pw_sbuf *b, const pw_fit_result *r)
     }
     pw_sbuf_puts(b, "<h3>Regression</h3><table class=\"kv\">\n");
     char t[400];
-    snprintf(t, sizeof t, "%s (%s)", r->converged ? "yes" : "NO", pw_fit_stop_name(r->stop));
+    snprintf(t, sizeof t, "%s (%s; %s)", r->converged ? "yes" : "NO", pw_fit_class_name(r->fit_class),
+             pw_fit_stop_name(r->stop));
     kv(b, "Converged", t, false);
     snprintf(t, sizeof t,
              "%zu LM runs of the multistart, %zu iterations, %zu residual and %zu Jacobian "
