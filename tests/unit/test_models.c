@@ -360,7 +360,18 @@ static void model_table(void **state)
         for (size_t j = 0; j < all[i]->n_params; j++)
             assert_int_equal(pw_model_param_index(all[i], all[i]->param_names[j]), (int)j);
     }
-    assert_null(pw_model_find("NRTL"));
+    /* model names are case-insensitive (issue 12, item 4) */
+    assert_ptr_equal(pw_model_find("NRTL"), &pw_model_nrtl);
+    assert_ptr_equal(pw_model_find("Wilson"), &pw_model_wilson);
+    char list[256];
+    assert_string_equal(pw_model_names(list, sizeof list), "margules, vanlaar, wilson, nrtl");
+    assert_string_equal(pw_model_names(list, 9), "margules");
+    /* every descriptor gives its start ranges */
+    for (size_t i = 0; i < n; i++) {
+        assert_non_null(all[i]->start_range);
+        for (size_t j = 0; j < all[i]->n_params; j++)
+            assert_true(all[i]->start_range[j][0] < all[i]->start_range[j][1]);
+    }
     assert_null(pw_model_find("uniquac"));
     assert_null(pw_model_find(NULL));
     assert_int_equal(pw_model_param_index(&pw_model_nrtl, "alpha"), 2);

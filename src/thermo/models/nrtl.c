@@ -12,6 +12,9 @@ static const char *const names[] = {"b12_K", "b21_K", "alpha"};
 static const char *const units[] = {"K", "K", "-"};
 static const double defaults[] = {0.0, 0.0, 0.3};
 static const bool fitted[] = {true, true, false};
+/* Starts for the multistart fit: tau_ij from about -2 to 7 near 350 K; alpha over the range
+ * Renon & Prausnitz (1968) found for real mixtures. */
+static const double starts[][2] = {{-700.0, 2500.0}, {-700.0, 2500.0}, {0.1, 0.6}};
 
 static pw_status check(const double *p)
 {
@@ -72,4 +75,5 @@ const pw_model_type pw_model_nrtl = {
     .fitted_default = fitted,
     .check = check,
     .eval = eval,
+    .start_range = starts,
 };

@@ -12,6 +12,20 @@ static const char *const names[] = {"a12_K", "a21_K", "V2_V1"};
 static const char *const units[] = {"K", "K", "-"};
 static const double defaults[] = {0.0, 0.0, 1.0};
 static const bool fitted[] = {true, true, false};
+/* Starts for the multistart fit (Lambda_ij from about exp(-7) to exp(2) near 350 K); the volume
+ * ratio is taken from the components and held fixed. */
+static const double starts[][2] = {{-700.0, 2500.0}, {-700.0, 2500.0}, {0.2, 5.0}};
+
+/* V2_V1 from the components' liquid molar volumes (V_L); 1 when either is unknown. */
+static pw_status from_components(const pw_component *c1, const pw_component *c2, double *p,
+                                 pw_error *err)
+{
+    (void)err;
+    double v1 = c1 ? c1->V_L_cm3mol : (double)NAN, v2 = c2 ? c2->V_L_cm3mol : (double)NAN;
+    double r = v2 / v1;
+    p[2] = isfinite(r) && r > 0.0 ? r : 1.0;
+    return PW_OK;
+}
 
 static pw_status check(const double *p)
 {
@@ -68,4 +82,6 @@ const pw_model_type pw_model_wilson = {
     .fitted_default = fitted,
     .check = check,
     .eval = eval,
+    .start_range = starts,
+    .from_components = from_components,
 };
