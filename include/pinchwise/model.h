@@ -8,6 +8,8 @@
  *   vanlaar   A12, A21 [-] at T_ref;  A_ij(T) = A_ij * T_ref / T
  *   wilson    a12_K, a21_K [K], V2_V1 [-] (fixed);  L12 = V2_V1 exp(-a12/T), L21 = exp(-a21/T)/V2_V1
  *   nrtl      b12_K, b21_K [K], alpha [-] (fixed by default); tau_ij = b_ij/T, G_ij = exp(-alpha tau_ij)
+ *   uniquac   du12_K, du21_K [K], r1, q1, r2, q2 [-] (fixed, from the components' r and q);
+ *             z = 10, tau_ij = exp(-du_ij/T)
  * Everything the rest of the program needs to know of a model comes from its descriptor: names,
  * units, defaults, start ranges of the fit, parameters taken from component data, older names
  * accepted in fit files. Adding a model means one new file in src/thermo/models and one line in
@@ -68,6 +70,7 @@ extern const pw_model_type pw_model_margules;
 extern const pw_model_type pw_model_vanlaar;
 extern const pw_model_type pw_model_wilson;
 extern const pw_model_type pw_model_nrtl;
+extern const pw_model_type pw_model_uniquac;
 
 /* The model called name (any case), or NULL. */
 const pw_model_type *pw_model_find(const char *name);

@@ -10,6 +10,7 @@ static const pw_model_type *const all_models[] = {
     &pw_model_vanlaar,
     &pw_model_wilson,
     &pw_model_nrtl,
+    &pw_model_uniquac,
 };
 
 const pw_model_type *const *pw_model_all(size_t *n)

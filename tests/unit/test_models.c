@@ -350,8 +350,8 @@ static void model_table(void **state)
     (void)state;
     size_t n = 0;
     const pw_model_type *const *all = pw_model_all(&n);
-    assert_int_equal(n, 4);
-    static const char *names[] = {"margules", "vanlaar", "wilson", "nrtl"};
+    assert_int_equal(n, 5);
+    static const char *names[] = {"margules", "vanlaar", "wilson", "nrtl", "uniquac"};
     for (size_t i = 0; i < n; i++) {
         assert_string_equal(all[i]->name, names[i]);
         assert_ptr_equal(pw_model_find(names[i]), all[i]);
@@ -364,7 +364,8 @@ static void model_table(void **state)
     assert_ptr_equal(pw_model_find("NRTL"), &pw_model_nrtl);
     assert_ptr_equal(pw_model_find("Wilson"), &pw_model_wilson);
     char list[256];
-    assert_string_equal(pw_model_names(list, sizeof list), "margules, vanlaar, wilson, nrtl");
+    assert_string_equal(pw_model_names(list, sizeof list),
+                        "margules, vanlaar, wilson, nrtl, uniquac");
     assert_string_equal(pw_model_names(list, 9), "margules");
     /* every descriptor gives its start ranges */
     for (size_t i = 0; i < n; i++) {
@@ -372,7 +373,8 @@ static void model_table(void **state)
         for (size_t j = 0; j < all[i]->n_params; j++)
             assert_true(all[i]->start_range[j][0] < all[i]->start_range[j][1]);
     }
-    assert_null(pw_model_find("uniquac"));
+    assert_ptr_equal(pw_model_find("uniquac"), &pw_model_uniquac);
+    assert_null(pw_model_find("unifac"));
     assert_null(pw_model_find(NULL));
     assert_int_equal(pw_model_param_index(&pw_model_nrtl, "alpha"), 2);
     assert_false(pw_model_nrtl.fitted_default[2]);
