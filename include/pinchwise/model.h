@@ -6,8 +6,11 @@
  * Parameter sets and temperature forms (see docs/thermo.md):
  *   margules  A12, A21 [-] at T_ref;  A_ij(T) = A_ij * T_ref / T
  *   vanlaar   A12, A21 [-] at T_ref;  A_ij(T) = A_ij * T_ref / T
- *   wilson    a12_K, a21_K [K], V2_V1 [-] (fixed);  L12 = V2_V1 exp(-a12/T), L21 = exp(-a21/T)/V2_V1
- *   nrtl      b12_K, b21_K [K], alpha [-] (fixed by default); tau_ij = b_ij/T, G_ij = exp(-alpha tau_ij)
+ *   wilson    dlambda12_K, dlambda21_K [K] (Delta lambda_ij/R), V2_V1 [-] (fixed, from V_L);
+ *             L12 = V2_V1 exp(-dlambda12/T), L21 = exp(-dlambda21/T)/V2_V1
+ *   nrtl      dg12_K, dg21_K [K] (Delta g_ij/R), alpha [-] (fixed by default);
+ *             tau_ij = dg_ij/T, G_ij = exp(-alpha tau_ij)
+ * (fit files written before the rename hold a12_K, a21_K and b12_K, b21_K; they still read)
  *   uniquac   du12_K, du21_K [K], r1, q1, r2, q2 [-] (fixed, from the components' r and q);
  *             z = 10, tau_ij = exp(-du_ij/T)
  * Everything the rest of the program needs to know of a model comes from its descriptor: names,

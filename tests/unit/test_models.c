@@ -381,7 +381,24 @@ static void model_table(void **state)
     pw_assert_close(pw_model_nrtl.defaults[2], 0.3, 0.0, 0.0, "NRTL default alpha");
     assert_int_equal(pw_model_param_index(&pw_model_wilson, "V2_V1"), 2);
     assert_false(pw_model_wilson.fitted_default[2]);
-    assert_int_equal(pw_model_param_index(&pw_model_wilson, "b12_K"), -1);
+    assert_int_equal(pw_model_param_index(&pw_model_wilson, "dg12_K"), -1);
+    /* the parameter names of the project's own (issue 12, item 10), and the older names that
+     * fit files written before the rename hold, still found by pw_model_param_lookup */
+    assert_int_equal(pw_model_param_index(&pw_model_nrtl, "dg12_K"), 0);
+    assert_int_equal(pw_model_param_index(&pw_model_nrtl, "dg21_K"), 1);
+    assert_int_equal(pw_model_param_index(&pw_model_wilson, "dlambda12_K"), 0);
+    assert_int_equal(pw_model_param_index(&pw_model_wilson, "dlambda21_K"), 1);
+    assert_int_equal(pw_model_param_index(&pw_model_nrtl, "b12_K"), -1);
+    assert_int_equal(pw_model_param_lookup(&pw_model_nrtl, "b12_K"), 0);
+    assert_int_equal(pw_model_param_lookup(&pw_model_nrtl, "b21_K"), 1);
+    assert_int_equal(pw_model_param_lookup(&pw_model_wilson, "a12_K"), 0);
+    assert_int_equal(pw_model_param_lookup(&pw_model_wilson, "a21_K"), 1);
+    assert_int_equal(pw_model_param_lookup(&pw_model_wilson, "b12_K"), -1);
+    assert_int_equal(pw_model_param_lookup(&pw_model_nrtl, "alpha"), 2);
+    /* every binary interaction parameter's name holds its index pair (CONTRACT) */
+    for (size_t i = 0; i < n; i++)
+        for (size_t j = 0; j < 2; j++)
+            assert_non_null(strstr(all[i]->param_names[j], j ? "21" : "12"));
 }
 
 int main(void)
