@@ -64,9 +64,9 @@ static void every_row_has_the_constants(void **state)
     pw_complib lib;
     load(&lib);
     assert_int_equal(lib.n, 35);
-    static const pw_comp_prop required[] = {PW_PROP_M,     PW_PROP_TC,  PW_PROP_PC,  PW_PROP_OMEGA,
-                                            PW_PROP_ZC,    PW_PROP_VC,  PW_PROP_DHVAP,
-                                            PW_PROP_CPL,   PW_PROP_CPV, PW_PROP_R,   PW_PROP_Q};
+    static const pw_comp_prop required[] = {PW_PROP_M,   PW_PROP_TC, PW_PROP_PC,    PW_PROP_OMEGA,
+                                            PW_PROP_ZC,  PW_PROP_VC, PW_PROP_DHVAP, PW_PROP_CPL,
+                                            PW_PROP_CPV, PW_PROP_R,  PW_PROP_Q};
     for (size_t i = 0; i < lib.n; i++)
         for (size_t k = 0; k < sizeof required / sizeof *required; k++)
             (void)need(&lib.items[i], required[k]);
@@ -81,31 +81,48 @@ static void molar_mass_matches_formula(void **state)
         const char *name;
         int C, H, O, N, Cl;
     } f[] = {
-        {"water", 0, 2, 1, 0, 0},         {"methanol", 1, 4, 1, 0, 0},
-        {"ethanol", 2, 6, 1, 0, 0},       {"1-propanol", 3, 8, 1, 0, 0},
-        {"2-propanol", 3, 8, 1, 0, 0},    {"1-butanol", 4, 10, 1, 0, 0},
-        {"2-butanol", 4, 10, 1, 0, 0},    {"isobutanol", 4, 10, 1, 0, 0},
-        {"tert-butanol", 4, 10, 1, 0, 0}, {"acetone", 3, 6, 1, 0, 0},
-        {"2-butanone", 4, 8, 1, 0, 0},    {"methyl acetate", 3, 6, 2, 0, 0},
-        {"ethyl acetate", 4, 8, 2, 0, 0}, {"benzene", 6, 6, 0, 0, 0},
-        {"toluene", 7, 8, 0, 0, 0},       {"o-xylene", 8, 10, 0, 0, 0},
-        {"m-xylene", 8, 10, 0, 0, 0},     {"p-xylene", 8, 10, 0, 0, 0},
-        {"ethylbenzene", 8, 10, 0, 0, 0}, {"n-pentane", 5, 12, 0, 0, 0},
-        {"n-hexane", 6, 14, 0, 0, 0},     {"n-heptane", 7, 16, 0, 0, 0},
-        {"n-octane", 8, 18, 0, 0, 0},     {"cyclohexane", 6, 12, 0, 0, 0},
-        {"chloroform", 1, 1, 0, 0, 3},    {"dichloromethane", 1, 2, 0, 0, 2},
-        {"carbon tetrachloride", 1, 0, 0, 0, 4}, {"1,4-dioxane", 4, 8, 2, 0, 0},
-        {"tetrahydrofuran", 4, 8, 1, 0, 0}, {"acetonitrile", 2, 3, 0, 1, 0},
-        {"acetic acid", 2, 4, 2, 0, 0},   {"diethyl ether", 4, 10, 1, 0, 0},
-        {"chlorobenzene", 6, 5, 0, 0, 1}, {"nitromethane", 1, 3, 2, 1, 0},
+        {"water", 0, 2, 1, 0, 0},
+        {"methanol", 1, 4, 1, 0, 0},
+        {"ethanol", 2, 6, 1, 0, 0},
+        {"1-propanol", 3, 8, 1, 0, 0},
+        {"2-propanol", 3, 8, 1, 0, 0},
+        {"1-butanol", 4, 10, 1, 0, 0},
+        {"2-butanol", 4, 10, 1, 0, 0},
+        {"isobutanol", 4, 10, 1, 0, 0},
+        {"tert-butanol", 4, 10, 1, 0, 0},
+        {"acetone", 3, 6, 1, 0, 0},
+        {"2-butanone", 4, 8, 1, 0, 0},
+        {"methyl acetate", 3, 6, 2, 0, 0},
+        {"ethyl acetate", 4, 8, 2, 0, 0},
+        {"benzene", 6, 6, 0, 0, 0},
+        {"toluene", 7, 8, 0, 0, 0},
+        {"o-xylene", 8, 10, 0, 0, 0},
+        {"m-xylene", 8, 10, 0, 0, 0},
+        {"p-xylene", 8, 10, 0, 0, 0},
+        {"ethylbenzene", 8, 10, 0, 0, 0},
+        {"n-pentane", 5, 12, 0, 0, 0},
+        {"n-hexane", 6, 14, 0, 0, 0},
+        {"n-heptane", 7, 16, 0, 0, 0},
+        {"n-octane", 8, 18, 0, 0, 0},
+        {"cyclohexane", 6, 12, 0, 0, 0},
+        {"chloroform", 1, 1, 0, 0, 3},
+        {"dichloromethane", 1, 2, 0, 0, 2},
+        {"carbon tetrachloride", 1, 0, 0, 0, 4},
+        {"1,4-dioxane", 4, 8, 2, 0, 0},
+        {"tetrahydrofuran", 4, 8, 1, 0, 0},
+        {"acetonitrile", 2, 3, 0, 1, 0},
+        {"acetic acid", 2, 4, 2, 0, 0},
+        {"diethyl ether", 4, 10, 1, 0, 0},
+        {"chlorobenzene", 6, 5, 0, 0, 1},
+        {"nitromethane", 1, 3, 2, 1, 0},
         {"pyridine", 5, 5, 0, 1, 0},
     };
     pw_complib lib;
     load(&lib);
     assert_int_equal(sizeof f / sizeof *f, lib.n);
     for (size_t i = 0; i < sizeof f / sizeof *f; i++) {
-        double M = 12.011 * f[i].C + 1.008 * f[i].H + 15.999 * f[i].O + 14.007 * f[i].N +
-                   35.45 * f[i].Cl;
+        double M =
+            12.011 * f[i].C + 1.008 * f[i].H + 15.999 * f[i].O + 14.007 * f[i].N + 35.45 * f[i].Cl;
         char what[120];
         snprintf(what, sizeof what, "%s: M against its formula (IUPAC atomic weights)", f[i].name);
         /* 0.015 g/mol: tables computed with Cl = 35.453 differ by 0.012 for CCl4 */
@@ -130,9 +147,9 @@ static void spot_values_from_other_sources(void **state)
         const char *name;
         double Tc, Pc_bar, omega;
     } svna[] = {
-        {"benzene", 562.2, 48.98, 0.210},  {"toluene", 591.8, 41.06, 0.262},
-        {"ethanol", 513.9, 61.48, 0.645},  {"methanol", 512.6, 80.97, 0.564},
-        {"acetone", 508.2, 47.01, 0.307},  {"n-hexane", 507.6, 30.25, 0.301},
+        {"benzene", 562.2, 48.98, 0.210},   {"toluene", 591.8, 41.06, 0.262},
+        {"ethanol", 513.9, 61.48, 0.645},   {"methanol", 512.6, 80.97, 0.564},
+        {"acetone", 508.2, 47.01, 0.307},   {"n-hexane", 507.6, 30.25, 0.301},
         {"1-butanol", 563.1, 44.23, 0.594},
     };
     /* Not listed: chloroform, whose Pc in SVNA (54.72 bar, from memory) is 2.7 % above the
@@ -153,9 +170,9 @@ static void spot_values_from_other_sources(void **state)
         const char *name;
         double r, q;
     } uq[] = {
-        {"water", 0.92, 1.40},   {"methanol", 1.43, 1.43}, {"ethanol", 2.11, 1.97},
-        {"1-butanol", 3.45, 3.05}, {"acetone", 2.57, 2.34}, {"benzene", 3.19, 2.40},
-        {"toluene", 3.92, 2.97}, {"n-hexane", 4.50, 3.86}, {"n-heptane", 5.17, 4.40},
+        {"water", 0.92, 1.40},     {"methanol", 1.43, 1.43}, {"ethanol", 2.11, 1.97},
+        {"1-butanol", 3.45, 3.05}, {"acetone", 2.57, 2.34},  {"benzene", 3.19, 2.40},
+        {"toluene", 3.92, 2.97},   {"n-hexane", 4.50, 3.86}, {"n-heptane", 5.17, 4.40},
     };
     for (size_t i = 0; i < sizeof uq / sizeof *uq; i++) {
         const pw_component *c = get(&lib, uq[i].name);

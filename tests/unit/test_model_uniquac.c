@@ -23,10 +23,10 @@ static const pw_model_type *const M = &pw_model_uniquac;
 
 /* du12_K, du21_K, r1, q1, r2, q2 */
 static const double cases[][6] = {
-    {-50.0, 400.0, 2.1055, 1.972, 0.92, 1.40},   /* ethanol / water r, q */
-    {300.0, 150.0, 2.5735, 2.336, 0.92, 1.40},   /* acetone / water r, q */
+    {-50.0, 400.0, 2.1055, 1.972, 0.92, 1.40},     /* ethanol / water r, q */
+    {300.0, 150.0, 2.5735, 2.336, 0.92, 1.40},     /* acetone / water r, q */
     {-120.0, 180.0, 3.1878, 2.400, 5.1742, 4.396}, /* benzene / n-heptane r, q */
-    {0.0, 0.0, 2.0, 1.8, 2.0, 1.8},              /* identical molecules, no interaction */
+    {0.0, 0.0, 2.0, 1.8, 2.0, 1.8},                /* identical molecules, no interaction */
     {900.0, -250.0, 1.4311, 1.432, 4.4998, 3.856}, /* methanol / n-hexane r, q */
 };
 enum { N_CASES = sizeof cases / sizeof cases[0] };
@@ -43,9 +43,18 @@ static pw_activity ev(const double *p, double x1, double T)
 }
 
 typedef double (*pick_fn)(const pw_activity *a);
-static double q_lng1(const pw_activity *a) { return a->lngamma[0]; }
-static double q_lng2(const pw_activity *a) { return a->lngamma[1]; }
-static double q_gp(const pw_activity *a) { return a->lngamma[0] - a->lngamma[1]; }
+static double q_lng1(const pw_activity *a)
+{
+    return a->lngamma[0];
+}
+static double q_lng2(const pw_activity *a)
+{
+    return a->lngamma[1];
+}
+static double q_gp(const pw_activity *a)
+{
+    return a->lngamma[0] - a->lngamma[1];
+}
 
 /* three-point stencil in x1 with step h, one-sided at the ends of [0, 1] (second order) */
 static double fd_step(const double *p, double x, double T, pick_fn q, double h)
@@ -121,8 +130,7 @@ static void derivatives_match_finite_differences(void **state)
                                 label);
                 pw_assert_close(x * fd_x(p, x, T, q_lng1) + x2 * fd_x(p, x, T, q_lng2), 0.0, 0.0,
                                 1e-6, label);
-                pw_assert_close(a.gE_RT, x * a.lngamma[0] + x2 * a.lngamma[1], 1e-12, 1e-14,
-                                label);
+                pw_assert_close(a.gE_RT, x * a.lngamma[0] + x2 * a.lngamma[1], 1e-12, 1e-14, label);
             }
         }
     }
@@ -147,8 +155,8 @@ static void reference_lngamma(const double *p, double x1, double T, double out[2
         double s_i = th[0] * tau[0][i] + th[1] * tau[1][i], sum = 0.0;
         for (int j = 0; j < 2; j++)
             sum += th[j] * tau[i][j] / (th[0] * tau[0][j] + th[1] * tau[1][j]);
-        out[i] = log(phi[i] / x[i]) + 5.0 * q[i] * log(th[i] / phi[i]) + l[i]
-                 - phi[i] / x[i] * sxl - q[i] * log(s_i) + q[i] - q[i] * sum;
+        out[i] = log(phi[i] / x[i]) + 5.0 * q[i] * log(th[i] / phi[i]) + l[i] -
+                 phi[i] / x[i] * sxl - q[i] * log(s_i) + q[i] - q[i] * sum;
     }
 }
 
@@ -177,10 +185,10 @@ static void infinite_dilution_closed_forms(void **state)
         double l1 = 5.0 * (r1 - q1) - (r1 - 1.0), l2 = 5.0 * (r2 - q2) - (r2 - 1.0);
         for (size_t ti = 0; ti < 3; ti++) {
             double T = Ts[ti], t12 = exp(-p[0] / T), t21 = exp(-p[1] / T);
-            double want1 = log(r1 / r2) + 5.0 * q1 * log(q1 * r2 / (q2 * r1)) + l1 - r1 / r2 * l2
-                           + q1 * (1.0 - log(t21) - t12);
-            double want2 = log(r2 / r1) + 5.0 * q2 * log(q2 * r1 / (q1 * r2)) + l2 - r2 / r1 * l1
-                           + q2 * (1.0 - log(t12) - t21);
+            double want1 = log(r1 / r2) + 5.0 * q1 * log(q1 * r2 / (q2 * r1)) + l1 - r1 / r2 * l2 +
+                           q1 * (1.0 - log(t21) - t12);
+            double want2 = log(r2 / r1) + 5.0 * q2 * log(q2 * r1 / (q1 * r2)) + l2 - r2 / r1 * l1 +
+                           q2 * (1.0 - log(t12) - t21);
             pw_assert_close(ev(p, 0.0, T).lngamma[0], want1, 1e-12, 1e-13, "ln gamma1 inf");
             pw_assert_close(ev(p, 1.0, T).lngamma[1], want2, 1e-12, 1e-13, "ln gamma2 inf");
             pw_assert_close(ev(p, 1.0, T).lngamma[0], 0.0, 0.0, 1e-14, "pure 1 reference");
@@ -225,9 +233,9 @@ static void r_and_q_from_components(void **state)
     pw_complib_init(&lib);
     char path[1024];
     pw_error err;
-    assert_int_equal(pw_complib_read(&lib, pw_test_path(path, sizeof path, "datasets/components.csv"),
-                                     &err),
-                     PW_OK);
+    assert_int_equal(
+        pw_complib_read(&lib, pw_test_path(path, sizeof path, "datasets/components.csv"), &err),
+        PW_OK);
     const pw_component *e = pw_complib_find(&lib, "ethanol"), *w = pw_complib_find(&lib, "water");
     double p[PW_MAX_PARAMS] = {0};
     assert_int_equal(M->from_components(e, w, p, &err), PW_OK);

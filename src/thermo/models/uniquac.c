@@ -1,7 +1,8 @@
 /* UNIQUAC equation (Abrams & Prausnitz 1975, AIChE J. 21:116), binary, coordination number
  * z = 10, in the Staverman-Guggenheim form of the combinatorial part:
- *   ln gamma_i = ln(J_i) + 1 - J_i - (z/2) q_i [ln(J_i/L_i) + 1 - J_i/L_i]            (C)
- *              + q_i [1 - ln(sum_j theta_j tau_ji) - sum_j theta_j tau_ij / sum_k theta_k tau_kj] (R)
+ *   ln gamma_i = ln(J_i) + 1 - J_i - (z/2) q_i [ln(J_i/L_i) + 1 - J_i/L_i]       (combinatorial)
+ *              + q_i [1 - ln(sum_j theta_j tau_ji)
+ *                     - sum_j theta_j tau_ij / sum_k theta_k tau_kj]                (residual)
  * with J_i = r_i / sum_j r_j x_j (= Phi_i/x_i), L_i = q_i / sum_j q_j x_j (= theta_i/x_i),
  * tau_ij = exp(-du_ij_K/T), du_ij_K = (u_ij - u_jj)/R in kelvin (fitted), and the pure-component
  * volume and area parameters r_i, q_i taken from the component data and held fixed.
@@ -76,10 +77,10 @@ static pw_status eval(const double *p, double T_ref_K, double x1, double T_K, pw
     /* d2(G^E/RT)/dx1^2: G^E/RT = linear(x) - ln Rb + (z/2) Qb (ln Rb - ln Qb)
      * - q1 x1 ln A - q2 x2 ln B + Qb ln Qb (docs/thermo.md). */
     double dR = r1 - r2, dQ = q1 - q2, dA = q1 - q2 * t21, dB = q1 * t12 - q2;
-    double comb = dR * dR / (Rb * Rb)
-                  + Z_HALF * (2.0 * dQ * dR / Rb - Qb * dR * dR / (Rb * Rb) - dQ * dQ / Qb);
-    double res = -2.0 * q1 * dA / A + q1 * x1 * dA * dA / (A * A) + 2.0 * q2 * dB / B
-                 + q2 * x2 * dB * dB / (B * B) + dQ * dQ / Qb;
+    double comb = dR * dR / (Rb * Rb) +
+                  Z_HALF * (2.0 * dQ * dR / Rb - Qb * dR * dR / (Rb * Rb) - dQ * dQ / Qb);
+    double res = -2.0 * q1 * dA / A + q1 * x1 * dA * dA / (A * A) + 2.0 * q2 * dB / B +
+                 q2 * x2 * dB * dB / (B * B) + dQ * dQ / Qb;
     out->d2gE_dx2 = comb + res;
 
     /* in tau12 and tau21 */
@@ -98,30 +99,30 @@ static pw_status eval(const double *p, double T_ref_K, double x1, double T_K, pw
 
     /* in r1 and r2 (combinatorial part only; dRb/dr_i = x_i) */
     double R2 = Rb * Rb;
-    out->dlngamma_dp[0][2] = 1.0 / r1 - x1 / Rb - 1.0 / Rb + r1 * x1 / R2
-                             - Z_HALF * q1 * (1.0 / r1 - x1 / Rb - Qb / (q1 * Rb)
-                                              + r1 * Qb * x1 / (q1 * R2));
-    out->dlngamma_dp[1][2] = -x1 / Rb + r2 * x1 / R2
-                             - Z_HALF * q2 * (-x1 / Rb + r2 * Qb * x1 / (q2 * R2));
-    out->dlngamma_dp[0][4] = -x2 / Rb + r1 * x2 / R2
-                             - Z_HALF * q1 * (-x2 / Rb + r1 * Qb * x2 / (q1 * R2));
-    out->dlngamma_dp[1][4] = 1.0 / r2 - x2 / Rb - 1.0 / Rb + r2 * x2 / R2
-                             - Z_HALF * q2 * (1.0 / r2 - x2 / Rb - Qb / (q2 * Rb)
-                                              + r2 * Qb * x2 / (q2 * R2));
+    out->dlngamma_dp[0][2] =
+        1.0 / r1 - x1 / Rb - 1.0 / Rb + r1 * x1 / R2 -
+        Z_HALF * q1 * (1.0 / r1 - x1 / Rb - Qb / (q1 * Rb) + r1 * Qb * x1 / (q1 * R2));
+    out->dlngamma_dp[1][2] =
+        -x1 / Rb + r2 * x1 / R2 - Z_HALF * q2 * (-x1 / Rb + r2 * Qb * x1 / (q2 * R2));
+    out->dlngamma_dp[0][4] =
+        -x2 / Rb + r1 * x2 / R2 - Z_HALF * q1 * (-x2 / Rb + r1 * Qb * x2 / (q1 * R2));
+    out->dlngamma_dp[1][4] =
+        1.0 / r2 - x2 / Rb - 1.0 / Rb + r2 * x2 / R2 -
+        Z_HALF * q2 * (1.0 / r2 - x2 / Rb - Qb / (q2 * Rb) + r2 * Qb * x2 / (q2 * R2));
     /* in q1 (dQb = x1, dA = x1, dB = x1 tau12) and q2 (dQb = x2, dA = x2 tau21, dB = x2) */
     double A2 = A * A, B2 = B * B;
     double F1_q1 = -x1 / A + x1 / Qb - x1 * (A - q1 * x1) / A2 + q2 * x2 * x1 * t12 * t12 / B2;
-    double F2_q1 = -x1 * t12 / B + x1 / Qb + q2 * x2 * x1 * t12 / B2
-                   - x1 * t21 * (A - q1 * x1) / A2;
-    double F1_q2 = -x2 * t21 / A + x2 / Qb + q1 * x1 * x2 * t21 / A2
-                   - x2 * t12 * (B - q2 * x2) / B2;
+    double F2_q1 =
+        -x1 * t12 / B + x1 / Qb + q2 * x2 * x1 * t12 / B2 - x1 * t21 * (A - q1 * x1) / A2;
+    double F1_q2 =
+        -x2 * t21 / A + x2 / Qb + q1 * x1 * x2 * t21 / A2 - x2 * t12 * (B - q2 * x2) / B2;
     double F2_q2 = -x2 / B + x2 / Qb - x2 * (B - q2 * x2) / B2 + q1 * x1 * x2 * t21 * t21 / A2;
-    out->dlngamma_dp[0][3] = -Z_HALF * (S1 + q1 * x1 / Qb - 1.0 - r1 * x1 / Rb + JL1) + F1
-                             + q1 * F1_q1;
+    out->dlngamma_dp[0][3] =
+        -Z_HALF * (S1 + q1 * x1 / Qb - 1.0 - r1 * x1 / Rb + JL1) + F1 + q1 * F1_q1;
     out->dlngamma_dp[1][3] = -Z_HALF * q2 * (x1 / Qb - r2 * x1 / (q2 * Rb)) + q2 * F2_q1;
     out->dlngamma_dp[0][5] = -Z_HALF * q1 * (x2 / Qb - r1 * x2 / (q1 * Rb)) + q1 * F1_q2;
-    out->dlngamma_dp[1][5] = -Z_HALF * (S2 + q2 * x2 / Qb - 1.0 - r2 * x2 / Rb + JL2) + F2
-                             + q2 * F2_q2;
+    out->dlngamma_dp[1][5] =
+        -Z_HALF * (S2 + q2 * x2 / Qb - 1.0 - r2 * x2 / Rb + JL2) + F2 + q2 * F2_q2;
     return pw_model_finish(out, x1, T_K);
 }
 
