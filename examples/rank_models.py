@@ -13,7 +13,7 @@ import sys
 
 import pinchwise
 
-MODELS = ["margules", "vanlaar", "wilson", "nrtl"]
+MODELS = pinchwise.models()  # every model of the library
 
 
 def fit_all(path):

@@ -150,6 +150,7 @@ def _declare(lib):
         "pw_api_free": (None, [c_void_p]),
         "pw_api_error_size": (ctypes.c_size_t, []),
         "pw_strerror": (c_str, [c_int]),
+        "pw_model_names": (c_str, [ctypes.c_char_p, ctypes.c_size_t]),
         "pw_error_format": (c_str, [err, ctypes.c_char_p, ctypes.c_size_t]),
         "pw_api_fit": (c_int, [c_str, c_str, c_str, c_str, c_int, out, out, err]),
         "pw_api_check": (c_int, [c_str, c_str, c_int, out, err]),
@@ -175,6 +176,13 @@ def library_path():
 def version():
     """The library's version string."""
     return _load().pw_api_version().decode()
+
+
+def models():
+    """The activity models the library offers, in its table order (the names ``fit`` takes)."""
+    buf = ctypes.create_string_buffer(512)
+    _load().pw_model_names(buf, len(buf))
+    return [m.strip() for m in buf.value.decode().split(",") if m.strip()]
 
 
 def _b(value):
@@ -265,7 +273,8 @@ def fit(path, model, components=None, out=None, force=False):
     """Fits an activity model to a measured binary VLE file; like ``pinchwise fit --json``.
 
     path: the dataset (CSV with ``# components:`` and ``# pressure:`` or ``# temperature:``).
-    model: ``"margules"``, ``"vanlaar"``, ``"wilson"`` or ``"nrtl"``.
+    model: one of ``models()`` (``"margules"``, ``"vanlaar"``, ``"wilson"``, ``"nrtl"``,
+    ``"uniquac"``), any case.
     components: an extra component file whose rows take precedence over the shipped library.
     out: where to write the fit file (atomically; an existing file is replaced only with
     force=True). Without out nothing is written and the result's ``"fit_file"`` is None.

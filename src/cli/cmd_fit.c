@@ -8,15 +8,17 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <strings.h>
 #include <sys/stat.h>
 
 static void usage(FILE *f)
 {
+    char names[256];
     fprintf(f,
             "usage: pinchwise fit DATA.csv --model MODEL [options]\n"
             "       pinchwise fit DIR --model MODEL --out-dir OUTDIR [options]   (every *.csv in DIR)\n"
             "\n"
-            "MODEL: margules, vanlaar, wilson, nrtl, or all (fit every model, rank by AICc)\n"
+            "MODEL: %s, or all (fit every model, rank by AICc)\n"
             "  --components FILE     extra component rows (take precedence over the library)\n"
             "  --out FIT.json        fit file to write (default fits/<stem>.<model>.json)\n"
             "  --out-dir DIR         folder for the fit files (batch, or --model all)\n"
@@ -32,7 +34,8 @@ static void usage(FILE *f)
             "  --sigma-y DY          vapor mole fraction uncertainty (default: file or 0.004)\n"
             "  --exclude LINES       file line numbers to leave out, e.g. 12,15-17\n"
             "  --exclude-reason TEXT why they are left out (recorded in the fit file)\n"
-            "  --json                print one JSON object on stdout\n");
+            "  --json                print one JSON object on stdout\n",
+            pw_model_names(names, sizeof names));
 }
 
 static int parse_lines(const char *text, pw_fit_options *o, pw_error *err)
@@ -220,12 +223,12 @@ int pw_cli_fit(int argc, char **argv)
     if (!input || !model_name) {
         return pw_cli_failf("fit", PW_EXIT_USAGE, "a dataset (or folder) and --model are required");
     }
-    bool all = !strcmp(model_name, "all");
+    bool all = !strcasecmp(model_name, "all");
     const pw_model_type *model = all ? NULL : pw_model_find(model_name);
+    char names[256];
     if (!all && !model)
-        return pw_cli_failf("fit", PW_EXIT_USAGE,
-                            "unknown model '%s' (expected margules, vanlaar, wilson, nrtl or all)",
-                            model_name);
+        return pw_cli_failf("fit", PW_EXIT_USAGE, "unknown model '%s' (expected %s or all)",
+                            model_name, pw_model_names(names, sizeof names));
     struct stat sb;
     if (stat(input, &sb) != 0)
         return pw_cli_failf("fit", pw_status_exit_code(PW_EIO), "%s: no such file or folder", input);

@@ -48,18 +48,11 @@ static double param_scale(const pw_model_type *m, size_t k)
     return strcmp(m->param_units[k], "K") == 0 ? 100.0 : 1.0;
 }
 
-/* Start ranges per model and parameter, wide enough to reach the branches met in practice
- * (METHODS-style multistart: tau in about [-3, 10] for NRTL). */
+/* Start ranges per model and parameter: the model's descriptor gives them (pw_model_type). */
 static void start_range(const pw_model_type *m, size_t k, double *lo, double *hi)
 {
-    const char *n = m->param_names[k];
-    if (!strcmp(n, "alpha")) {
-        *lo = 0.1, *hi = 0.6;
-    } else if (!strcmp(m->param_units[k], "K")) {
-        *lo = -700.0, *hi = 2500.0;
-    } else {
-        *lo = -2.5, *hi = 3.0;
-    }
+    *lo = m->start_range ? m->start_range[k][0] : -1.0;
+    *hi = m->start_range ? m->start_range[k][1] : 1.0;
 }
 
 typedef struct lm_ctx {
@@ -318,14 +311,15 @@ static pw_status init_result(const pw_dataset *ds, const pw_component *c1, const
         r->sys.params[ia] = o->alpha;
         r->fitted[ia] = o->fit_alpha;
     }
-    int iv = pw_model_param_index(model, "V2_V1");
-    if (iv >= 0) {
-        double v = o->V2_V1;
-        if (!isfinite(v) && isfinite(c1->V_L_cm3mol) && isfinite(c2->V_L_cm3mol) &&
-            c1->V_L_cm3mol > 0.0)
-            v = c2->V_L_cm3mol / c1->V_L_cm3mol;
-        r->sys.params[iv] = isfinite(v) && v > 0.0 ? v : 1.0;
+    /* parameters from component data (Wilson's volume ratio, UNIQUAC's r and q) */
+    if (model->from_components) {
+        pw_status st = model->from_components(c1, c2, r->sys.params, err);
+        if (st != PW_OK)
+            return st;
     }
+    int iv = pw_model_param_index(model, "V2_V1");
+    if (iv >= 0 && isfinite(o->V2_V1) && o->V2_V1 > 0.0)
+        r->sys.params[iv] = o->V2_V1;
     r->sys.vapor = o->vapor;
     pw_status vst = pw_vapor_check(o->vapor, c1, c2, err);
     if (vst != PW_OK) {
@@ -446,14 +440,14 @@ static void make_start(const pw_fit_result *r, const fit_problem *fp, gsl_rng *r
     memcpy(start, r->sys.params, sizeof(double) * PW_MAX_PARAMS);
     if (s == 0)
         return;
-    bool vanlaar = !strcmp(r->sys.model->name, "vanlaar");
+    bool same_sign = r->sys.model->starts_same_sign;
     double sign = gsl_rng_uniform(rng) < 0.5 ? -1.0 : 1.0;
     for (size_t j = 0; j < fp->n_fit; j++) {
         size_t k = fp->idx[j];
         double lo, hi;
         start_range(r->sys.model, k, &lo, &hi);
         double v = lo + (hi - lo) * gsl_rng_uniform(rng);
-        if (vanlaar) /* both constants of one sign, away from zero */
+        if (same_sign) /* all fitted constants of one sign, away from zero */
             v = sign * (0.05 + fabs(v));
         start[k] = v;
     }

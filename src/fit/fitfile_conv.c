@@ -67,17 +67,26 @@ bool pw_fitfile_read_convergence(const json_t *root, pw_fit_result *r, char *why
     }
     const json_t *weak = json_object_get(c, "weak_direction");
     if (json_is_object(weak)) {
-        for (size_t j = 0; j < m->n_params; j++) {
-            const json_t *v = json_object_get(weak, m->param_names[j]);
-            if (v && !(json_is_number(v) && isfinite(json_number_value(v)) &&
-                       fabs(json_number_value(v)) <= 1.0 + 1e-12)) {
+        for (size_t j = 0; j < m->n_params; j++)
+            r->weak_dir[j] = 0.0;
+        const char *key;
+        const json_t *v;
+        json_object_foreach((json_t *)weak, key, v) {
+            int j = pw_model_param_lookup(m, key);
+            if (j < 0) {
+                snprintf(why, n, "key \"convergence.weak_direction.%s\" is not a parameter of model %s",
+                         key, m->name);
+                return false;
+            }
+            if (!(json_is_number(v) && isfinite(json_number_value(v)) &&
+                  fabs(json_number_value(v)) <= 1.0 + 1e-12)) {
                 snprintf(why, n,
                          "key \"convergence.weak_direction.%s\" must be a number in "
                          "[-1, 1]",
-                         m->param_names[j]);
+                         key);
                 return false;
             }
-            r->weak_dir[j] = v ? json_number_value(v) : 0.0;
+            r->weak_dir[j] = json_number_value(v);
         }
     } else if (weak && !json_is_null(weak)) {
         snprintf(why, n, "key \"convergence.weak_direction\" must be an object or null");
