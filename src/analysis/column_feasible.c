@@ -3,6 +3,7 @@
  * does not, a reason is written in words: an azeotrope between the products, a product beyond an
  * azeotrope, a curve that touches the diagonal, or a pinch at a product composition. */
 #include "analysis/column_internal.h"
+#include "base/solve1d.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -22,40 +23,18 @@ static pw_status excess(pw_column_ws *w, void *p, double x, double *f)
     return st;
 }
 
-static double min_trampoline(double x, void *params)
-{
-    pw_column_ws *w = params;
-    double f;
-    pw_status st = excess(w, NULL, x, &f);
-    if (st != PW_OK) {
-        if (w->cb_status == PW_OK)
-            w->cb_status = st;
-        return GSL_NAN;
-    }
-    return f;
-}
+static pw_status excess_fn(void *ctx, double x, double *f) { return excess(ctx, NULL, x, f); }
 
 /* Refines a grid local minimum of f = y* - x in [a, b] around m (f(m) < f(a), f(b)). */
 static pw_status refine_min(pw_column_ws *w, double a, double m, double b, double fa, double fm,
                             double fb, double *xmin, double *fmin)
 {
-    gsl_function F = {min_trampoline, w};
-    w->cb_status = PW_OK;
-    if (gsl_min_fminimizer_set_with_values(w->min, &F, m, fm, a, fa, b, fb) != GSL_SUCCESS)
-        return PW_ENOCONV;
-    for (int it = 0; it < MIN_MAX_ITER; it++) {
-        int gs = gsl_min_fminimizer_iterate(w->min);
-        if (w->cb_status != PW_OK)
-            return w->cb_status;
-        if (gs != GSL_SUCCESS)
-            return PW_ENOCONV;
-        double lo = gsl_min_fminimizer_x_lower(w->min), hi = gsl_min_fminimizer_x_upper(w->min);
-        if (gsl_min_test_interval(lo, hi, w->min_xtol, 0.0) == GSL_SUCCESS)
-            break;
-    }
-    *xmin = gsl_min_fminimizer_x_minimum(w->min);
-    *fmin = gsl_min_fminimizer_f_minimum(w->min);
-    return PW_OK;
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = w->min_xtol;
+    o.xtol_rel = 0.0;
+    o.max_iter = MIN_MAX_ITER;
+    pw_status st = pw_min1d(excess_fn, w, a, m, b, fa, fm, fb, &o, xmin, fmin, NULL);
+    return st == PW_EMAXITER ? PW_OK : st; /* the best point so far stands, as before */
 }
 
 /* The smallest interior grid minima of f, refined; reports the lowest. */

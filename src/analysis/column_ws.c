@@ -1,40 +1,31 @@
-/* Column workspace: GSL solvers reused by every inner loop, safe curve evaluation, x*(y), and
+/* Column workspace: tolerances, safe curve evaluation, bracketed roots (base/solve1d), x*(y), and
  * the constant-molal-overflow balances (McCabe & Thiele 1925). */
 #include "analysis/column_internal.h"
+#include "base/solve1d.h"
 
 #include <float.h>
-#include <gsl/gsl_errno.h>
 #include <math.h>
 
 #define ROOT_MAX_ITER 200
+/* Absolute precision assumed of a curve value y*(x): a bubble point converged by Newton gives
+ * y to a few units of DBL_EPSILON; this leaves a wide margin (docs/column.md). */
+#define CURVE_Y_NOISE 1e-13
 
 pw_status pw_column_ws_init(pw_column_ws *w, const pw_curve *curve, double rtol)
 {
     w->curve = curve;
-    w->cb_status = PW_OK;
+    w->rtol = rtol;
     w->n_eval = 0;
     /* x tolerances: roots to well below rtol (a root error enters R linearly); minimisers to
      * about sqrt of that, since the extremal value is quadratic in the x error. */
     w->root_xtol = fmax(4.0 * DBL_EPSILON, 1e-3 * rtol);
     w->min_xtol = fmax(2.0 * sqrt(DBL_EPSILON), 1e-3 * sqrt(rtol));
-    w->root = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    w->min = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
-    if (!w->root || !w->min) {
-        pw_column_ws_free(w);
-        return PW_ENOMEM;
-    }
+    w->conv_bound = NAN;
+    w->y_noise = CURVE_Y_NOISE;
     return PW_OK;
 }
 
-void pw_column_ws_free(pw_column_ws *w)
-{
-    if (w->root)
-        gsl_root_fsolver_free(w->root);
-    if (w->min)
-        gsl_min_fminimizer_free(w->min);
-    w->root = NULL;
-    w->min = NULL;
-}
+void pw_column_ws_free(pw_column_ws *w) { (void)w; }
 
 pw_status pw_column_y(pw_column_ws *w, double x, double *y)
 {
@@ -55,17 +46,10 @@ typedef struct root_ctx {
     void *p;
 } root_ctx;
 
-static double root_trampoline(double x, void *params)
+static pw_status root_adapter(void *ctx, double x, double *v)
 {
-    root_ctx *c = params;
-    double v;
-    pw_status st = c->f(c->w, c->p, x, &v);
-    if (st != PW_OK) {
-        if (c->w->cb_status == PW_OK)
-            c->w->cb_status = st;
-        return GSL_NAN;
-    }
-    return v;
+    root_ctx *c = ctx;
+    return c->f(c->w, c->p, x, v);
 }
 
 pw_status pw_column_root(pw_column_ws *w, pw_column_scalar_fn f, void *p, double a, double b,
@@ -81,30 +65,18 @@ pw_status pw_column_root(pw_column_ws *w, pw_column_scalar_fn f, void *p, double
     }
     if ((fa > 0.0) == (fb > 0.0))
         return PW_ENOBRACKET;
-    root_ctx c = {w, f, p};
-    gsl_function F = {root_trampoline, &c};
     if (a > b) {
-        double t = a;
+        double t = a, tf = fa;
         a = b;
+        fa = fb;
         b = t;
+        fb = tf;
     }
-    w->cb_status = PW_OK;
-    if (gsl_root_fsolver_set(w->root, &F, a, b) != GSL_SUCCESS)
-        return w->cb_status != PW_OK ? w->cb_status : PW_ENOBRACKET;
-    for (int it = 0; it < ROOT_MAX_ITER; it++) {
-        int gs = gsl_root_fsolver_iterate(w->root);
-        if (w->cb_status != PW_OK)
-            return w->cb_status;
-        if (gs != GSL_SUCCESS)
-            return PW_ENOCONV;
-        double lo = gsl_root_fsolver_x_lower(w->root);
-        double hi = gsl_root_fsolver_x_upper(w->root);
-        if (gsl_root_test_interval(lo, hi, w->root_xtol, 4.0 * DBL_EPSILON) == GSL_SUCCESS) {
-            *x = gsl_root_fsolver_root(w->root);
-            return PW_OK;
-        }
-    }
-    return PW_EMAXITER;
+    root_ctx c = {w, f, p};
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = w->root_xtol;
+    o.max_iter = ROOT_MAX_ITER;
+    return pw_root1d(root_adapter, &c, a, b, fa, fb, &o, x, NULL);
 }
 
 static pw_status curve_minus_target(pw_column_ws *w, void *p, double x, double *f)
