@@ -167,6 +167,19 @@ static pw_status boilup_limited_rmin(pw_column_ws *w, const pw_column_spec *s, s
     return out->r_min > 0.0 ? PW_OK : PW_ERANGE;
 }
 
+/* N_min by stepping at total reflux; more than max_stages is reported in n_min_status. */
+static pw_status total_reflux(pw_column_ws *w, const pw_column_spec *s, const pw_column_options *o,
+                              pw_column_result *out)
+{
+    pw_status st = pw_column_step_ws(w, s, true, INFINITY, o->max_stages, &out->n_min, NULL);
+    out->n_min_status = st;
+    if (st == PW_EMAXITER) {
+        out->n_min = NAN;
+        return PW_OK;
+    }
+    return st;
+}
+
 static pw_status design_table(pw_column_ws *w, const pw_column_spec *s,
                               const pw_column_options *o, pw_column_result *out)
 {
@@ -180,8 +193,13 @@ static pw_status design_table(pw_column_ws *w, const pw_column_spec *s,
         row->gilliland_stages = pw_gilliland_molokanov(out->n_min, row->R, out->r_min);
         pw_status st = pw_column_step_ws(w, s, false, row->R, o->max_stages, &row->stages,
                                          &row->feed_stage);
-        if (st != PW_OK)
+        if (st == PW_ENOMEM)
             return st;
+        row->status = st; /* a row the stepping cannot reach is reported, not fatal */
+        if (st != PW_OK) {
+            row->stages = NAN;
+            row->feed_stage = 0;
+        }
         out->n_design = i + 1;
     }
     return PW_OK;
@@ -212,7 +230,7 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
         if (pw_column_y(w, x_i0, &y_i0) == PW_OK && y_i0 > s->xd) {
             st = reflux_limited_rmin(w, s, b, x_i0, y_i0, out);
             if (st == PW_OK)
-                st = pw_column_step_ws(w, s, true, INFINITY, o->max_stages, &out->n_min, NULL);
+                st = total_reflux(w, s, o, out);
             if (st != PW_OK)
                 return st;
             out->n_fenske = pw_fenske_nmin(sqrt(out->alpha_top * out->alpha_bottom), s->xd, s->xb);
@@ -224,8 +242,13 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
         double y_i = (s->q * s->xb - s->zf) / (s->q - 1.0); /* q-line at x = xb */
         if (y_i > s->xb && y_i < b->yg[0]) {
             st = boilup_limited_rmin(w, s, n, b, y_i, out);
+            if (st == PW_ERANGE)
+                snprintf(out->reason, sizeof out->reason,
+                         "the feed (q = %g) brings more vapor than the rectifying section needs "
+                         "and no boil-up is needed: no pinch limits this split",
+                         s->q);
             if (st == PW_OK)
-                st = pw_column_step_ws(w, s, true, INFINITY, o->max_stages, &out->n_min, NULL);
+                st = total_reflux(w, s, o, out);
             if (st != PW_OK)
                 return st;
             out->n_fenske = pw_fenske_nmin(sqrt(out->alpha_top * out->alpha_bottom), s->xd, s->xb);
@@ -245,7 +268,7 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
     st = find_rmin(w, s, n, b, out);
     if (st != PW_OK)
         return st;
-    st = pw_column_step_ws(w, s, true, INFINITY, o->max_stages, &out->n_min, NULL);
+    st = total_reflux(w, s, o, out);
     if (st != PW_OK)
         return st;
     out->n_fenske = pw_fenske_nmin(sqrt(out->alpha_top * out->alpha_bottom), s->xd, s->xb);

@@ -52,6 +52,8 @@ json_t *pw_reflux_json(const pw_reflux_run *run)
         json_object_set_new(o, "pinch", json_null());
     }
     json_object_set_new(o, "n_min", c->feasible ? pw_cli_json_num(c->n_min) : json_null());
+    if (c->feasible && c->n_min_status != PW_OK)
+        json_object_set_new(o, "n_min_note", json_string(pw_strerror(c->n_min_status)));
     json_object_set_new(o, "limit",
                         !c->feasible ? json_null()
                         : c->reflux_limited
@@ -80,6 +82,9 @@ json_t *pw_reflux_json(const pw_reflux_run *run)
         json_object_set_new(row, "stages", pw_cli_json_num(r->stages));
         json_object_set_new(row, "feed_stage", json_integer(r->feed_stage));
         json_object_set_new(row, "gilliland_stages", pw_cli_json_num(r->gilliland_stages));
+        json_object_set_new(row, "reached", json_boolean(r->status == PW_OK));
+        if (r->status != PW_OK)
+            json_object_set_new(row, "note", json_string(pw_strerror(r->status)));
         json_array_append_new(d, row);
     }
     json_object_set_new(o, "design", d);
@@ -131,12 +136,22 @@ static void print_table(const pw_reflux_run *run)
     if (c->pinch.kind == PW_PINCH_TANGENT && !c->boilup_limited)
         printf("  (a search at the q-line alone would give R = %.6g: %.0f %% too low)\n", c->r_feed,
                100.0 * (c->r_min - c->r_feed) / c->r_min);
-    printf("  stages at total reflux    %.3f stepped (Fenske %.3f, alpha top %.3f, bottom %.3f)\n",
-           c->n_min, c->n_fenske, c->alpha_top, c->alpha_bottom);
+    if (c->n_min_status != PW_OK)
+        printf("  stages at total reflux    not reached by stepping (%s; Fenske %.3f)\n",
+               pw_strerror(c->n_min_status), c->n_fenske);
+    else
+        printf("  stages at total reflux    %.3f stepped (Fenske %.3f, alpha top %.3f, bottom "
+               "%.3f)\n",
+               c->n_min, c->n_fenske, c->alpha_top, c->alpha_bottom);
     printf("\n  %-8s %9s %9s %9s %6s %12s\n", "R/R_min", "R", "Vbar/B", "stages", "feed",
            "Gilliland*");
     for (size_t i = 0; i < c->n_design; i++) {
         const pw_design_row *r = &c->design[i];
+        if (r->status != PW_OK) {
+            printf("  %-8.3g %9.4f %9.4f   stages not reached: %s\n", r->factor, r->R, r->boilup,
+                   pw_strerror(r->status));
+            continue;
+        }
         printf("  %-8.3g %9.4f %9.4f %9.3f %6d %12.2f\n", r->factor, r->R, r->boilup, r->stages,
                r->feed_stage, r->gilliland_stages);
     }
