@@ -97,12 +97,44 @@ static void test_bottoms_beside_max_boiling_azeotrope(void **state)
     assert_true(st.n_near_product >= st.n / 2);
 }
 
+/* A stage limit the stepping cannot meet: R_min stands, N_min and every design row are flagged
+ * (PW_EMAXITER, stages NAN), the solve succeeds. Constant alpha 2.5, xd 0.95, xb 0.05: Fenske
+ * gives N_min = ln(19^2)/ln(2.5) = 6.4, so a limit of 3 stages cannot be met. */
+static void test_unreachable_rows_are_flagged(void **state)
+{
+    (void)state;
+    tc_alpha a = {2.5, 0.0};
+    pw_curve c = {tc_alpha_fn, &a};
+    pw_column_spec s = {.xd = 0.95, .xb = 0.05, .zf = 0.5, .q = 1.0};
+    pw_column_options o = pw_column_default_options();
+    o.max_stages = 3;
+    pw_column_result r;
+    assert_int_equal(pw_column_solve(&c, &s, &o, &r), PW_OK);
+    assert_true(r.feasible);
+    double ru;
+    assert_int_equal(pw_underwood_rmin(2.5, 0.5, 0.95, 1.0, &ru), PW_OK);
+    pw_assert_close(r.r_min, ru, 1e-8, 0, "R_min vs Underwood (1948)");
+    assert_int_equal(r.n_min_status, PW_EMAXITER);
+    assert_true(isnan(r.n_min));
+    assert_int_equal(r.n_design, 3);
+    for (size_t i = 0; i < r.n_design; i++) {
+        assert_int_equal(r.design[i].status, PW_EMAXITER);
+        assert_true(isnan(r.design[i].stages));
+    }
+    o.max_stages = 500;
+    assert_int_equal(pw_column_solve(&c, &s, &o, &r), PW_OK);
+    assert_int_equal(r.n_min_status, PW_OK);
+    for (size_t i = 0; i < r.n_design; i++)
+        assert_int_equal(r.design[i].status, PW_OK);
+}
+
 int main(void)
 {
     pw_test_init();
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_distillate_beside_min_boiling_azeotrope),
         cmocka_unit_test(test_bottoms_beside_max_boiling_azeotrope),
+        cmocka_unit_test(test_unreachable_rows_are_flagged),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
