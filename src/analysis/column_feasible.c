@@ -74,6 +74,73 @@ static pw_status lowest_interior(pw_column_ws *w, const double *xg, const double
     return PW_OK;
 }
 
+typedef struct fcell {
+    double a, fa, b, fb;
+} fcell;
+
+/* Proves f = y* - x > tol on every cell of the table, under the convexity bound K of the pinch
+ * search (f'' = y*''): on [a, b], f >= chord - K (x - a)(b - x)/2 - eps >= min(fa, fb) - K h^2/8
+ * - eps. Cells without that proof are halved (Brent on a bracketed dip); a point with f <= tol
+ * is returned in (*x_low, *f_low). A midpoint further below its chord than K allows raises K and
+ * the proof starts again. See docs/column.md, section 1. */
+static pw_status certify_positive(pw_column_ws *w, const double *xg, const double *fg, size_t n,
+                                  double tol, double *x_low, double *f_low)
+{
+    const double eps = w->y_noise, min_width = 1e-13 * (xg[n - 1] - xg[0]);
+    for (int round = 0; round < 8; round++) {
+        bool restart = false;
+        for (size_t j = 0; j + 1 < n && !restart; j++) {
+            fcell stack[128];
+            size_t top = 0;
+            stack[top++] = (fcell){xg[j], fg[j], xg[j + 1], fg[j + 1]};
+            while (top > 0 && !restart) {
+                fcell e = stack[--top];
+                const double h = e.b - e.a, K = w->conv_bound;
+                if (fmin(e.fa, e.fb) - K * h * h / 8.0 - eps > tol || h < min_width)
+                    continue;
+                double xm = e.a + 0.5 * h, fm;
+                pw_status st = excess(w, NULL, xm, &fm);
+                if (st != PW_OK)
+                    return st;
+                if (fm <= tol) {
+                    *x_low = xm;
+                    *f_low = fm;
+                    return PW_OK;
+                }
+                /* f's chord minus f equals y*'s: the same check as the pinch search's */
+                double below = 0.5 * (e.fa + e.fb) - fm;
+                if (below > K * h * h / 8.0 + 2.0 * eps) {
+                    w->conv_bound = fmax(2.0 * K, 32.0 * below / (h * h));
+                    restart = true;
+                    break;
+                }
+                double xs = xm, fs = fm;
+                if (fm < e.fa && fm < e.fb) {
+                    st = refine_min(w, e.a, xm, e.b, e.fa, fm, e.fb, &xs, &fs);
+                    if (st != PW_OK)
+                        return st;
+                    if (fs <= tol) {
+                        *x_low = xs;
+                        *f_low = fs;
+                        return PW_OK;
+                    }
+                    if (!(xs > e.a && xs < e.b)) {
+                        xs = xm;
+                        fs = fm;
+                    }
+                }
+                if (top + 2 > sizeof stack / sizeof stack[0])
+                    return PW_ENOCONV;
+                stack[top++] = (fcell){e.a, e.fa, xs, fs};
+                stack[top++] = (fcell){xs, fs, e.b, e.fb};
+            }
+        }
+        if (!restart)
+            return PW_OK;
+    }
+    return PW_ENOCONV;
+}
+
 static void append(char *buf, size_t len, const char *text)
 {
     size_t used = strlen(buf);
@@ -101,6 +168,11 @@ pw_status pw_column_check_feasible(pw_column_ws *w, const double *xg, const doub
         pw_status st = lowest_interior(w, xg, fg, n, &xm, &fm);
         if (st != PW_OK)
             return st;
+        if (fm > tol) {
+            st = certify_positive(w, xg, fg, n, tol, &xm, &fm);
+            if (st != PW_OK)
+                return st;
+        }
         if (fm > tol) {
             *ok = true;
             return PW_OK;

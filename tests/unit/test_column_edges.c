@@ -13,6 +13,7 @@
 #include <math.h>
 #include <pinchwise/column.h>
 #include <stdio.h>
+#include <string.h>
 
 #define ENV_N 200000
 #define GRID_N 100000
@@ -128,6 +129,23 @@ static void test_unreachable_rows_are_flagged(void **state)
         assert_int_equal(r.design[i].status, PW_OK);
 }
 
+/* A curve that touches the diagonal inside the last cell of the table, where the table shows no
+ * interior minimum (y* - x falls all the way to xd): alpha = 1 + c (x - x0)^2 with x0 0.3 of a
+ * cell below xd. The split needs infinitely many stages; the feasibility proof of section 1 finds
+ * the touch (the grid minima alone would not). */
+static void test_touch_inside_the_product_cell(void **state)
+{
+    (void)state;
+    const double xb = 0.05, xd = 0.95, h = (xd - xb) / 199.0;
+    tc_touch t = {10.0, xd - 0.3 * h};
+    pw_curve c = {tc_touch_fn, &t};
+    pw_column_spec s = {.xd = xd, .xb = xb, .zf = 0.5, .q = 1.0};
+    pw_column_result r;
+    assert_int_equal(pw_column_solve(&c, &s, NULL, &r), PW_OK);
+    assert_false(r.feasible);
+    assert_non_null(strstr(r.reason, "touches the diagonal"));
+}
+
 int main(void)
 {
     pw_test_init();
@@ -135,6 +153,7 @@ int main(void)
         cmocka_unit_test(test_distillate_beside_min_boiling_azeotrope),
         cmocka_unit_test(test_bottoms_beside_max_boiling_azeotrope),
         cmocka_unit_test(test_unreachable_rows_are_flagged),
+        cmocka_unit_test(test_touch_inside_the_product_cell),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
