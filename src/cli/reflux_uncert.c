@@ -202,6 +202,12 @@ void pw_reflux_uncert_json(const pw_reflux_uncert *u, json_t *o)
         json_object_set_new(j, "boilup_min", pw_cli_unc_output_json(&r->out[PW_UNC_SMIN]));
         json_t *st = pw_cli_unc_output_json(&r->out[PW_UNC_STAGES]);
         json_object_set_new(st, "reflux_factor", pw_cli_json_num(u->col.factor));
+        /* feasible draws whose column needs more than the stage limit at this reflux: reported,
+         * left out of the stage interval */
+        size_t counted = r->out[PW_UNC_STAGES].n_mc;
+        json_object_set_new(st, "draws_not_reached",
+                            json_integer((json_int_t)(r->n_feasible > counted
+                                                          ? r->n_feasible - counted : 0)));
         json_object_set_new(j, "stages_operating", st);
         json_object_set_new(j, "draws", json_pack("{s:I,s:I,s:I,s:I,s:I,s:I,s:s}",
             "requested", (json_int_t)u->opt.samples, "evaluated", (json_int_t)r->n_samples,

@@ -39,5 +39,7 @@ import json
 d = json.load(open("u.json"))
 assert "r_min_ci95" in d and "feasible_probability" in d
 assert 0.0 <= d["feasible_probability"] <= 1.0
+st = d["uncertainty"]["stages_operating"]
+assert isinstance(st["draws_not_reached"], int) and st["draws_not_reached"] >= 0, st
 PY
 echo ok
