@@ -112,6 +112,88 @@ static bool table_bracket(const pw_column_ws *w, double y, double xlo, size_t *j
     return true;
 }
 
+#define NEWTON_MAX 6
+
+/* x*(y) inside table cell j (ty[j] < y < ty[j+1]): Newton from the table. The start is the
+ * inverse cubic through up to four neighbouring table points, the first step uses the slope of
+ * the forward cubic there, later steps are secant steps; with a start good to about h^4 the answer
+ * usually costs two curve evaluations. Every iterate stays inside the cell's bracket, which is
+ * narrowed by the signs seen; anything else falls back to GSL Brent on that bracket. */
+static pw_status invert_in_cell(pw_column_ws *w, double y, size_t j, double flo, double fhi,
+                                double *x)
+{
+    const double *tx = w->tab_x, *ty = w->tab_y;
+    const size_t n = w->tab_n;
+    double lo = tx[j], hi = tx[j + 1];
+    size_t a = j > 0 ? j - 1 : j, b = j + 2 < n ? j + 2 : j + 1;
+    for (size_t k = a; k < b; k++)
+        if (!(ty[k + 1] > ty[k])) {
+            a = j;
+            b = j + 1;
+            break;
+        }
+    double x0 = 0.0, s0 = 0.0;
+    for (size_t k = a; k <= b; k++) {
+        double lk = 1.0;
+        for (size_t m = a; m <= b; m++)
+            if (m != k)
+                lk *= (y - ty[m]) / (ty[k] - ty[m]);
+        x0 += lk * tx[k];
+    }
+    if (!(x0 > lo && x0 < hi))
+        x0 = lo + (hi - lo) * (-flo) / (fhi - flo);
+    for (size_t k = a; k <= b; k++) { /* d/dx of the forward interpolant at x0 */
+        double dk = 0.0;
+        for (size_t i = a; i <= b; i++) {
+            if (i == k)
+                continue;
+            double term = 1.0 / (tx[k] - tx[i]);
+            for (size_t m = a; m <= b; m++)
+                if (m != k && m != i)
+                    term *= (x0 - tx[m]) / (tx[k] - tx[m]);
+            dk += term;
+        }
+        s0 += dk * ty[k];
+    }
+    double target = y, f0;
+    pw_status st = curve_minus_target(w, &target, x0, &f0);
+    if (st != PW_OK)
+        return st;
+    double x1 = x0, f1 = f0;
+    for (int it = 0; it < NEWTON_MAX; it++) {
+        if (f1 == 0.0) {
+            *x = x1;
+            return PW_OK;
+        }
+        if (f1 < 0.0) {
+            lo = x1;
+            flo = f1;
+        } else {
+            hi = x1;
+            fhi = f1;
+        }
+        double step = it == 0 ? -f1 / s0 : -f1 * (x1 - x0) / (f1 - f0);
+        double x2 = x1 + step;
+        if (!isfinite(x2) || !(x2 >= lo && x2 <= hi))
+            break;
+        if (fabs(step) <= w->root_xtol) {
+            *x = x2;
+            return PW_OK;
+        }
+        x0 = x1;
+        f0 = f1;
+        x1 = x2;
+        st = curve_minus_target(w, &target, x1, &f1);
+        if (st != PW_OK)
+            return st;
+    }
+    if (flo == 0.0 || fhi == 0.0) {
+        *x = flo == 0.0 ? lo : hi;
+        return PW_OK;
+    }
+    return pw_column_root(w, curve_minus_target, &target, lo, hi, flo, fhi, x);
+}
+
 pw_status pw_column_x_of_y(pw_column_ws *w, double y, double xlo, double *x)
 {
     if (!(y > 0.0 && y <= 1.0) || !(xlo >= 0.0 && xlo < y))
@@ -127,9 +209,7 @@ pw_status pw_column_x_of_y(pw_column_ws *w, double y, double xlo, double *x)
             *x = w->tab_x[j + 1];
             return PW_OK;
         }
-        double target0 = y;
-        return pw_column_root(w, curve_minus_target, &target0, w->tab_x[j], w->tab_x[j + 1], fa,
-                              fb, x);
+        return invert_in_cell(w, y, j, fa, fb, x);
     }
     double target = y, flo, fhi;
     pw_status st = curve_minus_target(w, &target, xlo, &flo);
