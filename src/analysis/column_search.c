@@ -10,12 +10,12 @@
 #include <math.h>
 #include <stdbool.h>
 
-#define CONV_SAFETY 4.0      /* K = 4 x the largest second difference of the table ... */
-#define CONV_FLOOR 1e-6      /* ... plus this (a straight table still gets a bound) */
-#define STACK_MAX 256        /* depth-first cells pending; the depth is at most ~50 halvings */
-#define MAX_RESTARTS 8       /* K raised when a midpoint shows more convexity than K allows */
-#define MAX_EVALS 20000      /* per section: a safety net, far above any case met */
-#define MIN_CELL_REL 1e-13   /* cells narrower than this (relative to xd - xb) are not halved */
+#define CONV_SAFETY 4.0    /* K = 4 x the largest second difference of the table ... */
+#define CONV_FLOOR 1e-6    /* ... plus this (a straight table still gets a bound) */
+#define STACK_MAX 256      /* depth-first cells pending; the depth is at most ~50 halvings */
+#define MAX_RESTARTS 8     /* K raised when a midpoint shows more convexity than K allows */
+#define MAX_EVALS 20000    /* per section: a safety net, far above any case met */
+#define MIN_CELL_REL 1e-13 /* cells narrower than this (relative to xd - xb) are not halved */
 #define MIN_MAX_ITER 100
 
 void pw_column_set_conv_bound(pw_column_ws *w)
@@ -35,14 +35,14 @@ void pw_column_set_conv_bound(pw_column_ws *w)
 typedef struct sect {
     pw_column_ws *w;
     const pw_column_spec *spec;
-    double p;       /* pole: xd (rectifying, right of the cells) or xb (stripping, left) */
-    double dir;     /* +1: pole on the right, -1: on the left */
-    double K;       /* convexity bound in use */
-    double eps;     /* curve value precision */
+    double p;   /* pole: xd (rectifying, right of the cells) or xb (stripping, left) */
+    double dir; /* +1: pole on the right, -1: on the left */
+    double K;   /* convexity bound in use */
+    double eps; /* curve value precision */
     double best, x_best, y_best;
-    double v_end;   /* value of the end candidate */
-    bool feed;      /* the end candidate is the best */
-    bool restart;   /* K was raised: search again */
+    double v_end; /* value of the end candidate */
+    bool feed;    /* the end candidate is the best */
+    bool restart; /* K was raised: search again */
     unsigned long evals;
     /* the best point the current Brent run has seen */
     double brent_x, brent_y, brent_v;
@@ -100,7 +100,7 @@ static pw_status eval(sect *c, double x, double *y, double *v)
 static double cell_bound(const sect *c, const cell *e)
 {
     const double a = e->a, b = e->b, h = b - a, sl = (e->yb - e->ya) / h, K = c->K, p = c->p;
-#define PW_N(x) (p - (e->ya + sl * ((x) - a)) + 0.5 * K * ((x) - a) * (b - (x)) + c->eps)
+#define PW_N(x) (p - (e->ya + sl * ((x)-a)) + 0.5 * K * ((x)-a) * (b - (x)) + c->eps)
     const double ua = fabs(p - a), ub = fabs(p - b);
     const double alpha = PW_N(p);
     if (alpha >= 0.0 && (ua == 0.0 || ub == 0.0))
@@ -214,8 +214,12 @@ pw_status pw_column_section_search(pw_column_ws *w, const pw_column_spec *s, pw_
     if (isnan(w->conv_bound))
         pw_column_set_conv_bound(w);
     const bool rect = sec == PW_SECTION_RECTIFYING;
-    sect c = {.w = w, .spec = s, .p = rect ? s->xd : s->xb, .dir = rect ? 1.0 : -1.0,
-              .K = w->conv_bound, .eps = w->y_noise};
+    sect c = {.w = w,
+              .spec = s,
+              .p = rect ? s->xd : s->xb,
+              .dir = rect ? 1.0 : -1.0,
+              .K = w->conv_bound,
+              .eps = w->y_noise};
     c.v_end = value(&c, xe, ye);
     c.best = c.v_end;
     c.x_best = xe;
@@ -232,8 +236,8 @@ pw_status pw_column_section_search(pw_column_ws *w, const pw_column_spec *s, pw_
         j1++;
     /* points: lo, tx[j0 .. j1-1], hi */
     const size_t np = (j1 - j0) + 2;
-#define PT_X(i) ((i) == 0 ? lo : (i) == np - 1 ? hi : tx[j0 + (i) - 1])
-#define PT_Y(i) ((i) == 0 ? ylo : (i) == np - 1 ? yhi : ty[j0 + (i) - 1])
+#define PT_X(i) ((i) == 0 ? lo : (i) == np - 1 ? hi : tx[j0 + (i)-1])
+#define PT_Y(i) ((i) == 0 ? ylo : (i) == np - 1 ? yhi : ty[j0 + (i)-1])
     for (size_t i = 0; i < np; i++)
         offer(&c, PT_X(i), PT_Y(i), value(&c, PT_X(i), PT_Y(i)));
     /* Brent first on the highest interior local maximum of the table, so that the bounds prune. */
@@ -251,8 +255,8 @@ pw_status pw_column_section_search(pw_column_ws *w, const pw_column_spec *s, pw_
         double vb = value(&c, PT_X(ibest + 1), PT_Y(ibest + 1));
         if (vbest > va && vbest > vb && isfinite(va) && isfinite(vb)) {
             double xs, ys;
-            pw_status st = refine(&c, PT_X(ibest - 1), PT_X(ibest), PT_X(ibest + 1), va, vbest,
-                                  vb, PT_Y(ibest), &xs, &ys);
+            pw_status st = refine(&c, PT_X(ibest - 1), PT_X(ibest), PT_X(ibest + 1), va, vbest, vb,
+                                  PT_Y(ibest), &xs, &ys);
             if (st != PW_OK)
                 return st;
         }

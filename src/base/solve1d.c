@@ -16,8 +16,8 @@
 
 pw_solve1d_opts pw_solve1d_default_opts(void)
 {
-    pw_solve1d_opts o = {.xtol_abs = 0.0, .xtol_rel = 4.0 * DBL_EPSILON, .max_iter = 200,
-                         .f_stop = -INFINITY};
+    pw_solve1d_opts o = {
+        .xtol_abs = 0.0, .xtol_rel = 4.0 * DBL_EPSILON, .max_iter = 200, .f_stop = -INFINITY};
     return o;
 }
 
@@ -90,8 +90,8 @@ static bool opts_ok(const pw_solve1d_opts *o)
 /* GSL's gsl_root_test_interval / gsl_min_test_interval, without its error paths. */
 static bool interval_done(double lo, double hi, const pw_solve1d_opts *o)
 {
-    double min_abs = (lo > 0.0 && hi > 0.0) || (lo < 0.0 && hi < 0.0) ? fmin(fabs(lo), fabs(hi))
-                                                                      : 0.0;
+    double min_abs =
+        (lo > 0.0 && hi > 0.0) || (lo < 0.0 && hi < 0.0) ? fmin(fabs(lo), fabs(hi)) : 0.0;
     return fabs(hi - lo) < o->xtol_abs + o->xtol_rel * min_abs;
 }
 
@@ -125,8 +125,8 @@ pw_status pw_root1d(pw_fn1d f, void *ctx, double a, double b, double fa, double 
     if (T->size > sizeof state)
         return PW_ENOMEM;
     gsl_function F = {tramp_fn, &t};
-    gsl_root_fsolver s = {.type = T, .function = &F, .root = 0.0, .x_lower = a, .x_upper = b,
-                          .state = state};
+    gsl_root_fsolver s = {
+        .type = T, .function = &F, .root = 0.0, .x_lower = a, .x_upper = b, .state = state};
     /* What gsl_root_fsolver_set does, on a solver that lives here. The values at the ends are
      * evaluated again by GSL; a callback that fails now answers 0, which never trips GSL's
      * straddle check, and the recorded failure is returned. */
@@ -152,13 +152,12 @@ pw_status pw_root1d(pw_fn1d f, void *ctx, double a, double b, double fa, double 
 }
 
 pw_status pw_min1d(pw_fn1d f, void *ctx, double a, double m, double b, double fa, double fm,
-                   double fb, const pw_solve1d_opts *o, double *xmin, double *fmin,
-                   unsigned *iters)
+                   double fb, const pw_solve1d_opts *o, double *xmin, double *fmin, unsigned *iters)
 {
     if (iters)
         *iters = 0;
-    if (!f || !xmin || !fmin || !o || !opts_ok(o) || !isfinite(a) || !isfinite(m) ||
-        !isfinite(b) || !(a < m && m < b))
+    if (!f || !xmin || !fmin || !o || !opts_ok(o) || !isfinite(a) || !isfinite(m) || !isfinite(b) ||
+        !(a < m && m < b))
         return PW_EINVAL;
     tramp t = {f, ctx, PW_OK, 0.0};
     pw_status st;
@@ -180,8 +179,14 @@ pw_status pw_min1d(pw_fn1d f, void *ctx, double a, double m, double b, double fa
         return PW_ENOMEM;
     t.fallback = fm;
     gsl_function F = {tramp_fn, &t};
-    gsl_min_fminimizer s = {.type = T, .function = &F, .x_minimum = m, .f_minimum = fm,
-                            .x_lower = a, .f_lower = fa, .x_upper = b, .f_upper = fb,
+    gsl_min_fminimizer s = {.type = T,
+                            .function = &F,
+                            .x_minimum = m,
+                            .f_minimum = fm,
+                            .x_lower = a,
+                            .f_lower = fa,
+                            .x_upper = b,
+                            .f_upper = fb,
                             .state = state};
     /* What gsl_min_fminimizer_set_with_values does once its checks (made above) pass. */
     int gs = T->set(s.state, s.function, m, fm, a, fa, b, fb);

@@ -118,8 +118,8 @@ static inline env_result env_rmin(env_curve y, const void *c, const pw_column_sp
     double D = (s->zf - s->xb) / (s->xd - s->xb), B = 1.0 - D;
     double m = env_max(y, c, s->xd, e.x_q, s->xd, n, &e.x_rect);
     double sl = -env_max(y, c, s->xb, s->xb, e.x_q, n, &e.x_strip);
-    e.r_rect = m / (1.0 - m);               /* L/D from L/V */
-    double S = 1.0 / (sl - 1.0);              /* Vbar/B from Lbar/Vbar = (S + 1)/S */
+    e.r_rect = m / (1.0 - m);                     /* L/D from L/V */
+    double S = 1.0 / (sl - 1.0);                  /* Vbar/B from Lbar/Vbar = (S + 1)/S */
     e.r_strip = (S * B + (1.0 - s->q)) / D - 1.0; /* V = Vbar + (1 - q) F, R = V/D - 1 */
     e.r_min = fmax(e.r_rect, e.r_strip);
     return e;

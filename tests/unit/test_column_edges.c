@@ -18,9 +18,15 @@
 #define ENV_N 200000
 #define GRID_N 100000
 
-static double curve_y(const void *c, double x) { return tc_alpha_y(c, x); }
+static double curve_y(const void *c, double x)
+{
+    return tc_alpha_y(c, x);
+}
 
-static double azeotrope_x(const tc_alpha *c) { return 0.5 * (1.0 + log(c->r) / c->A); }
+static double azeotrope_x(const tc_alpha *c)
+{
+    return 0.5 * (1.0 + log(c->r) / c->A);
+}
 
 typedef struct edge_stats {
     int n, n_tangent, n_near_product;
@@ -48,8 +54,8 @@ static void check_case(const tc_alpha *a, const pw_column_spec *s, edge_stats *s
     st->n++;
     if (r.pinch.kind == PW_PINCH_TANGENT) {
         st->n_tangent++;
-        double edge = r.pinch.section == PW_SECTION_RECTIFYING ? s->xd - r.pinch.x
-                                                                : r.pinch.x - s->xb;
+        double edge =
+            r.pinch.section == PW_SECTION_RECTIFYING ? s->xd - r.pinch.x : r.pinch.x - s->xb;
         if (edge < 0.02 * (s->xd - s->xb))
             st->n_near_product++;
     }
@@ -66,8 +72,7 @@ static void test_distillate_beside_min_boiling_azeotrope(void **state)
         double xaz = azeotrope_x(&curves[k]);
         for (size_t g = 0; g < 3; g++)
             for (size_t i = 0; i < 2; i++) {
-                pw_column_spec s = {.xd = xaz - gaps[g], .xb = 0.02, .zf = 0.45 * xaz,
-                                    .q = qs[i]};
+                pw_column_spec s = {.xd = xaz - gaps[g], .xb = 0.02, .zf = 0.45 * xaz, .q = qs[i]};
                 check_case(&curves[k], &s, &st);
             }
     }
@@ -88,8 +93,8 @@ static void test_bottoms_beside_max_boiling_azeotrope(void **state)
         double xaz = azeotrope_x(&curves[k]);
         for (size_t g = 0; g < 3; g++)
             for (size_t i = 0; i < 2; i++) {
-                pw_column_spec s = {.xd = 0.98, .xb = xaz + gaps[g],
-                                    .zf = xaz + 0.55 * (0.98 - xaz), .q = qs[i]};
+                pw_column_spec s = {
+                    .xd = 0.98, .xb = xaz + gaps[g], .zf = xaz + 0.55 * (0.98 - xaz), .q = qs[i]};
                 check_case(&curves[k], &s, &st);
             }
     }

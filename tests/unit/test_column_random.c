@@ -91,7 +91,10 @@ static double unif(void)
     rng_state ^= rng_state >> 27;
     return (double)((rng_state * 0x2545F4914F6CDD1Dull) >> 11) * 0x1.0p-53;
 }
-static double unif_in(double a, double b) { return a + (b - a) * unif(); }
+static double unif_in(double a, double b)
+{
+    return a + (b - a) * unif();
+}
 
 static void draw_curve(rand_curve *c)
 {
@@ -175,7 +178,8 @@ static bool draw_spec(const rand_curve *c, pw_column_spec *s, int *beside)
     if (!(b - a > 0.05))
         return false;
     *beside = 0;
-    bool az_top = b < 1.0, az_bot = a > 0.0;
+    bool az_top = (b < 1.0);
+    bool az_bot = (a > 0.0);
     if (az_top && unif() < 0.5) {
         s->xd = b - pow(10.0, unif_in(-5.5, -2.0));
         (*beside)++;
