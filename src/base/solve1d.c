@@ -54,6 +54,7 @@ typedef struct tramp {
     void *ctx;
     pw_status st;    /* first failure */
     double fallback; /* finite value handed to GSL after a failure */
+    double xa, fa, xb, fb; /* known values (GSL's set evaluates the ends again): not recomputed */
 } tramp;
 
 static double tramp_fn(double x, void *p)
@@ -61,6 +62,10 @@ static double tramp_fn(double x, void *p)
     tramp *t = p;
     if (t->st != PW_OK)
         return t->fallback;
+    if (x == t->xa)
+        return t->fa;
+    if (x == t->xb)
+        return t->fb;
     double v = 0.0;
     pw_status st = isfinite(x) ? t->f(t->ctx, x, &v) : PW_EDOM;
     if (st == PW_OK && !isfinite(v))
@@ -102,7 +107,7 @@ pw_status pw_root1d(pw_fn1d f, void *ctx, double a, double b, double fa, double 
         *iters = 0;
     if (!f || !root || !o || !opts_ok(o) || !isfinite(a) || !isfinite(b) || !(a < b))
         return PW_EINVAL;
-    tramp t = {f, ctx, PW_OK, 0.0};
+    tramp t = {f, ctx, PW_OK, 0.0, NAN, NAN, NAN, NAN};
     pw_status st;
     if (isnan(fa) && (st = eval(&t, a, &fa)) != PW_OK)
         return st;
@@ -124,12 +129,16 @@ pw_status pw_root1d(pw_fn1d f, void *ctx, double a, double b, double fa, double 
     alignas(max_align_t) unsigned char state[STATE_BYTES];
     if (T->size > sizeof state)
         return PW_ENOMEM;
+    t.xa = a;
+    t.fa = fa;
+    t.xb = b;
+    t.fb = fb;
     gsl_function F = {tramp_fn, &t};
     gsl_root_fsolver s = {
         .type = T, .function = &F, .root = 0.0, .x_lower = a, .x_upper = b, .state = state};
-    /* What gsl_root_fsolver_set does, on a solver that lives here. The values at the ends are
-     * evaluated again by GSL; a callback that fails now answers 0, which never trips GSL's
-     * straddle check, and the recorded failure is returned. */
+    /* What gsl_root_fsolver_set does, on a solver that lives here. GSL asks for the values at the
+     * ends again: they are answered from what is known. A callback that fails answers 0, which
+     * never trips GSL's straddle check, and the recorded failure is returned. */
     int gs = T->set(s.state, s.function, &s.root, a, b);
     if (t.st != PW_OK)
         return t.st;
@@ -159,7 +168,7 @@ pw_status pw_min1d(pw_fn1d f, void *ctx, double a, double m, double b, double fa
     if (!f || !xmin || !fmin || !o || !opts_ok(o) || !isfinite(a) || !isfinite(m) || !isfinite(b) ||
         !(a < m && m < b))
         return PW_EINVAL;
-    tramp t = {f, ctx, PW_OK, 0.0};
+    tramp t = {f, ctx, PW_OK, 0.0, NAN, NAN, NAN, NAN};
     pw_status st;
     if (isnan(fm) && (st = eval(&t, m, &fm)) != PW_OK)
         return st;
