@@ -143,7 +143,7 @@ static double bisect_az(const rand_curve *c, double a, double b)
 }
 
 /* Picks a region of [0, 1] where y* > x, and products inside it. false: none usable. */
-static bool draw_spec(const rand_curve *c, pw_column_spec *s, int *beside)
+static bool draw_spec(const rand_curve *c, pw_column_spec *s, int *beside, bool *azeotropic)
 {
     enum { NS = 2000 };
     double lo[8], hi[8];
@@ -173,6 +173,7 @@ static bool draw_spec(const rand_curve *c, pw_column_spec *s, int *beside)
     }
     if (nreg == 0)
         return false;
+    *azeotropic = nreg > 1 || lo[0] > 0.0 || hi[0] < 1.0;
     int k = (int)(unif() * nreg);
     double a = lo[k], b = hi[k];
     if (!(b - a > 0.05))
@@ -204,14 +205,15 @@ static void test_random_specifications(void **state)
     (void)state;
     double *ytab = malloc((GRID_N + 1) * sizeof *ytab);
     assert_non_null(ytab);
-    int checked = 0, tries = 0, flow = 0, beside_az = 0, tangent = 0, skipped = 0;
+    int checked = 0, tries = 0, flow = 0, beside_az = 0, tangent = 0, skipped = 0, with_az = 0;
     while (checked < N_SPECS && tries < MAX_TRIES) {
         tries++;
         rand_curve c;
         draw_curve(&c);
         pw_column_spec s;
         int beside;
-        if (!draw_spec(&c, &s, &beside))
+        bool azeotropic;
+        if (!draw_spec(&c, &s, &beside, &azeotropic))
             continue;
         /* the dense table: the margin y* - x must be clear of the library's feasibility floor */
         double f_lo = INFINITY;
@@ -256,14 +258,17 @@ static void test_random_specifications(void **state)
                      r.r_min, above, below);
         checked++;
         beside_az += beside > 0;
+        with_az += azeotropic;
         tangent += r.pinch.kind == PW_PINCH_TANGENT;
     }
     free(ytab);
-    print_message("%d specifications checked (%d beside an azeotrope, %d tangent pinches), %d "
-                  "flow-limited, %d too close to the feasibility floor, %d draws\n",
-                  checked, beside_az, tangent, flow, skipped, tries);
+    print_message("%d specifications checked (%d on curves with an azeotrope, %d beside one, %d "
+                  "tangent pinches), %d flow-limited, %d too close to the feasibility floor, %d "
+                  "draws\n",
+                  checked, with_az, beside_az, tangent, flow, skipped, tries);
     assert_int_equal(checked, N_SPECS);
     assert_true(beside_az >= N_SPECS / 5);
+    assert_true(with_az >= N_SPECS / 5 && N_SPECS - with_az >= N_SPECS / 5);
     assert_true(tangent >= N_SPECS / 10);
 }
 
