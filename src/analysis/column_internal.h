@@ -1,6 +1,7 @@
-/* Private to the column module: a workspace holding the GSL solvers (allocated once per call,
- * reused in every inner loop), safe curve evaluation, the inverse curve x*(y), and the
- * constant-molal-overflow mass balances. Not installed. */
+/* Private to the column module: a workspace (tolerances, the table of the curve, the convexity
+ * bound the pinch search relies on), safe curve evaluation, bracketed roots through
+ * base/solve1d, the inverse curve x*(y), and the constant-molal-overflow mass balances. Not
+ * installed. */
 #ifndef PW_ANALYSIS_COLUMN_INTERNAL_H
 #define PW_ANALYSIS_COLUMN_INTERNAL_H
 
