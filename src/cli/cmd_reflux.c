@@ -64,12 +64,22 @@ static void print_table(const pw_reflux_run *run)
     if (c->pinch.kind == PW_PINCH_TANGENT && !c->boilup_limited)
         printf("  (a search at the q-line alone would give R = %.6g: %.0f %% too low)\n", c->r_feed,
                100.0 * (c->r_min - c->r_feed) / c->r_min);
-    printf("  stages at total reflux    %.3f stepped (Fenske %.3f, alpha top %.3f, bottom %.3f)\n",
-           c->n_min, c->n_fenske, c->alpha_top, c->alpha_bottom);
+    if (c->n_min_status != PW_OK)
+        printf("  stages at total reflux    not reached by stepping (%s; Fenske %.3f)\n",
+               pw_strerror(c->n_min_status), c->n_fenske);
+    else
+        printf("  stages at total reflux    %.3f stepped (Fenske %.3f, alpha top %.3f, bottom "
+               "%.3f)\n",
+               c->n_min, c->n_fenske, c->alpha_top, c->alpha_bottom);
     printf("\n  %-8s %9s %9s %9s %6s %12s\n", "R/R_min", "R", "Vbar/B", "stages", "feed",
            "Gilliland*");
     for (size_t i = 0; i < c->n_design; i++) {
         const pw_design_row *r = &c->design[i];
+        if (r->status != PW_OK) {
+            printf("  %-8.3g %9.4f %9.4f   stages not reached: %s\n", r->factor, r->R, r->boilup,
+                   pw_strerror(r->status));
+            continue;
+        }
         printf("  %-8.3g %9.4f %9.4f %9.3f %6d %12.2f\n", r->factor, r->R, r->boilup, r->stages,
                r->feed_stage, r->gilliland_stages);
     }
