@@ -62,6 +62,9 @@ typedef struct pw_lle_result {
  * system without a model), PW_EDOM (T not positive or model failures), PW_ERANGE (a layer
  * closer than PW_LLE_X_MIN to a pure end), PW_ENOCONV (the pair failed its verification). */
 pw_status pw_lle_solve(const pw_system *s, double T_K, pw_lle_result *out);
+/* The same with the tangent-plane verification on tpd_points (>= 100) points: inner loops that
+ * only bracket (temperature searches) use fewer and solve their final state with 20,000. */
+pw_status pw_lle_solve_n(const pw_system *s, double T_K, size_t tpd_points, pw_lle_result *out);
 
 /* Smallest tangent-plane distance of Gmix/RT above the line through (x_I, G(x_I)) and
  * (x_II, G(x_II)), over n points (>= 100) spaced uniformly and geometrically towards both ends. */
@@ -119,6 +122,19 @@ pw_status pw_bubble_T_het(const pw_system *s, double P_Pa, double x1, pw_eq_poin
                           bool *three_phase);
 pw_status pw_bubble_P_het(const pw_system *s, double T_K, double x1, pw_eq_point *out,
                           bool *three_phase);
+
+/* Heterogeneous azeotropes (METHODS2 3.2). Given the homogeneous search result r of
+ * pw_azeotrope_find at the same condition (mode/fixed as there: P in Pa or T in K), removes
+ * every root whose liquid lies inside the two-liquid region at its own temperature (the bubble
+ * curve of an unstable liquid crosses y = x there: an artefact, not an azeotrope) and fills tp
+ * with the three-phase state at the condition (tp->exists false when there is none). The
+ * three-phase line is a heterogeneous azeotrope when tp->heterogeneous_azeotrope; otherwise
+ * (vapor outside the layers) it is no azeotrope. *n_removed (may be NULL) counts the roots
+ * dropped. mode is 0 for fixed pressure, 1 for fixed temperature (pw_az_mode). */
+struct pw_az_result;
+pw_status pw_azeotrope_heterogeneous(const pw_system *s, int mode, double fixed,
+                                     struct pw_az_result *r, pw_three_phase *tp,
+                                     size_t *n_removed);
 
 #ifdef __cplusplus
 }

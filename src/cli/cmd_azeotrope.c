@@ -5,6 +5,7 @@
 #include "cli.h"
 
 #include <math.h>
+#include <pinchwise/lle.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -140,12 +141,31 @@ static pw_status scan_progress(void *ctx, size_t done, size_t total)
     return PW_OK;
 }
 
-static json_t *result_json(const pw_az_result *r)
+static json_t *result_json(const pw_az_result *r, const pw_three_phase *tp)
 {
     json_t *list = json_array();
-    for (size_t i = 0; i < r->n; i++)
-        json_array_append_new(list, pw_cli_azeotrope_json(&r->az[i]));
+    for (size_t i = 0; i < r->n; i++) {
+        json_t *e = pw_cli_azeotrope_json(&r->az[i]);
+        json_object_set_new(e, "heterogeneous", json_false());
+        json_array_append_new(list, e);
+    }
+    if (tp && tp->exists && tp->heterogeneous_azeotrope) /* layers with the vapor between them */
+        json_array_append_new(
+            list, json_pack("{s:o,s:o,s:o,s:s,s:b,s:[o,o]}", "x1", pw_cli_json_num(tp->y1), "T_K",
+                            pw_cli_json_num(tp->T_K), "P_kPa", pw_cli_json_num(tp->P_Pa / 1000.0),
+                            "kind", "minimum-boiling", "heterogeneous", 1, "x1_liquids",
+                            pw_cli_json_num(tp->x[0]), pw_cli_json_num(tp->x[1])));
     return list;
+}
+
+static json_t *three_phase_json(const pw_three_phase *tp)
+{
+    if (!tp->exists)
+        return json_null();
+    return json_pack("{s:o,s:o,s:[o,o],s:o,s:b}", "T_K", pw_cli_json_num(tp->T_K), "P_kPa",
+                     pw_cli_json_num(tp->P_Pa / 1000.0), "x1_liquids", pw_cli_json_num(tp->x[0]),
+                     pw_cli_json_num(tp->x[1]), "y1", pw_cli_json_num(tp->y1),
+                     "heterogeneous_azeotrope", tp->heterogeneous_azeotrope);
 }
 
 static json_t *touch_json(const pw_az_result *r)
@@ -160,7 +180,7 @@ static json_t *touch_json(const pw_az_result *r)
     return list;
 }
 
-static json_t *scan_json(const pw_az_scan *sc)
+static json_t *scan_json(const pw_az_scan *sc, const pw_three_phase *tps)
 {
     bool isP = sc->mode == PW_AZ_ISOBARIC;
     json_t *o = json_object(), *pts = json_array(), *bnd = json_array();
@@ -169,7 +189,7 @@ static json_t *scan_json(const pw_az_scan *sc)
         json_t *p = json_object();
         json_object_set_new(p, isP ? "P_kPa" : "T_K",
                             pw_cli_json_num(isP ? sc->at[k] / 1000.0 : sc->at[k]));
-        json_object_set_new(p, "azeotropes", result_json(&sc->points[k]));
+        json_object_set_new(p, "azeotropes", result_json(&sc->points[k], tps ? &tps[k] : NULL));
         json_array_append_new(pts, p);
     }
     for (size_t k = 0; k < sc->n_boundaries; k++) {
@@ -186,8 +206,18 @@ static json_t *scan_json(const pw_az_scan *sc)
     return o;
 }
 
-static void print_table(const pw_az_result *r)
+static void print_table(const pw_az_result *r, const pw_three_phase *tp)
 {
+    if (tp->exists)
+        printf("  three liquids-and-vapor line at T = %.3f K, P = %.4f kPa: layers x1 = %.6f and %.6f,"
+               " vapor y1 = %.6f\n  -> %s\n",
+               tp->T_K, tp->P_Pa / 1000.0, tp->x[0], tp->x[1], tp->y1,
+               tp->heterogeneous_azeotrope
+                   ? "a heterogeneous (minimum-boiling) azeotrope: the vapor lies between the layers"
+                   : "no azeotrope on it: the vapor lies outside the layers (heterogeneous "
+                     "non-azeotrope)");
+    if (r->n == 0 && tp->exists && tp->heterogeneous_azeotrope)
+        return;
     if (r->n == 0) {
         printf("  no azeotrope in 0 < x1 < 1\n");
         return;
@@ -203,7 +233,8 @@ static void print_table(const pw_az_result *r)
 }
 
 static void print_text(const pw_fit_result *fit, const args *a, const pw_az_result *r,
-                       const pw_az_scan *sc)
+                       const pw_three_phase *tp, size_t n_removed, const pw_az_scan *sc,
+                       const pw_three_phase *tps)
 {
     const pw_system *s = &fit->sys;
     if (a->mode == PW_AZ_ISOBARIC)
@@ -212,7 +243,10 @@ static void print_text(const pw_fit_result *fit, const args *a, const pw_az_resu
     else
         printf("Azeotropes of %s (1) / %s (2), %s model, at %.6g K (%.3f C)\n", s->comp[0].name,
                s->comp[1].name, s->model->name, a->fixed, a->fixed - 273.15);
-    print_table(r);
+    print_table(r, tp);
+    if (n_removed)
+        printf("  %zu crossing(s) of y1 = x1 inside the two-liquid region ignored: not azeotropes\n",
+               n_removed);
     for (size_t i = 0; i < r->n_touch; i++)
         printf("  near-tangential: alpha12 reaches within %.2g of 1 at x1 = %.6f without crossing\n",
                fabs(expm1(r->touch[i].ln_alpha)), r->touch[i].x1);
@@ -226,8 +260,13 @@ static void print_text(const pw_fit_result *fit, const args *a, const pw_az_resu
         for (size_t k = 0; k < sc->n_points; k++) {
             const pw_az_result *p = &sc->points[k];
             double v = isP ? sc->at[k] / 1000.0 : sc->at[k];
-            if (p->n == 0)
+            bool het = tps && tps[k].exists && tps[k].heterogeneous_azeotrope;
+            if (p->n == 0 && !het)
                 printf("  %-12.5g %s\n", v, "none");
+            if (het)
+                printf("  %-12.5g %-10.6f %-10.4f %s, heterogeneous (layers %.4f, %.4f)\n", v,
+                       tps[k].y1, isP ? tps[k].T_K : tps[k].P_Pa / 1000.0, "minimum-boiling",
+                       tps[k].x[0], tps[k].x[1]);
             for (size_t i = 0; i < p->n; i++)
                 printf("  %-12.5g %-10.6f %-10.4f %s\n", v, p->az[i].x1,
                        isP ? p->az[i].T_K : p->az[i].P_Pa / 1000.0, pw_az_kind_name(p->az[i].kind));
@@ -272,6 +311,16 @@ int pw_cli_azeotrope(int argc, char **argv)
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
+    pw_three_phase tp;
+    size_t n_removed = 0;
+    pw_three_phase *tps = NULL;
+    st = pw_azeotrope_heterogeneous(&fit.sys, (int)a.mode, a.fixed, &r, &tp, &n_removed);
+    if (st != PW_OK) {
+        pw_error_set(&err, st, a.fit_path, 0, "three-phase (two liquids and vapor) search failed: %s",
+                     pw_strerror(st));
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
     if (a.unc.on && (rc = pw_azeo_uncert_run(&fit, &r, &a.unc, &err)) != 0) {
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
@@ -289,6 +338,19 @@ int pw_cli_azeotrope(int argc, char **argv)
             pw_fit_result_free(&fit);
             return pw_cli_fail(CMD, &err);
         }
+        tps = calloc(a.n, sizeof *tps);
+        st = tps ? PW_OK : PW_ENOMEM;
+        for (size_t k = 0; st == PW_OK && k < a.n; k++)
+            st = pw_azeotrope_heterogeneous(&fit.sys, (int)a.mode, sc->at[k], &sc->points[k],
+                                            &tps[k], NULL);
+        if (st != PW_OK) {
+            pw_error_set(&err, st, a.fit_path, 0, "three-phase search in the scan failed: %s",
+                         pw_strerror(st));
+            free(tps);
+            pw_az_scan_free(sc);
+            pw_fit_result_free(&fit);
+            return pw_cli_fail(CMD, &err);
+        }
     }
     double Tlo = r.T_lo_K, Thi = r.T_hi_K;
     for (size_t k = 0; sc && k < sc->n_points; k++) {
@@ -299,7 +361,7 @@ int pw_cli_azeotrope(int argc, char **argv)
     pw_cli_warn_T_range(CMD, &fit, Tlo, Thi, "the bubble temperatures used");
     if (a.json) {
         json_t *o = json_object();
-        json_t *list = result_json(&r);
+        json_t *list = result_json(&r, &tp);
         if (a.unc.on)
             pw_azeo_uncert_json(&a.unc, &r, list);
         json_object_set_new(o, "azeotropes", list);
@@ -315,15 +377,17 @@ int pw_cli_azeotrope(int argc, char **argv)
         json_object_set_new(o, "near_tangential", touch_json(&r));
         json_object_set_new(o, "ln_alpha_ends", json_pack("[o,o]", pw_cli_json_num(r.ln_alpha_end[0]),
                                                           pw_cli_json_num(r.ln_alpha_end[1])));
-        json_object_set_new(o, "scan", sc ? scan_json(sc) : json_null());
+        json_object_set_new(o, "scan", sc ? scan_json(sc, tps) : json_null());
+        json_object_set_new(o, "three_phase", three_phase_json(&tp));
         json_object_set_new(o, "caution", json_string(pw_cli_caution_text()));
         rc = pw_cli_print_json(o);
     } else {
-        print_text(&fit, &a, &r, sc);
+        print_text(&fit, &a, &r, &tp, n_removed, sc, tps);
         if (a.unc.on)
             pw_azeo_uncert_print(&a.unc, &r);
         rc = fflush(stdout) ? 4 : 0;
     }
+    free(tps);
     pw_az_scan_free(sc);
     pw_fit_result_free(&fit);
     return rc;

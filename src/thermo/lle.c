@@ -356,7 +356,7 @@ typedef struct region {
 } region;
 
 static pw_status solve_impl(const pw_system *s, double T, pw_lle_result *out, xpt *grid,
-                            double *G, double *D, size_t *hull)
+                            double *G, double *D, size_t *hull, size_t tpd_points)
 {
     pw_status st;
     make_grid(grid);
@@ -481,7 +481,7 @@ static pw_status solve_impl(const pw_system *s, double T, pw_lle_result *out, xp
     out->min_tpd = INFINITY;
     for (size_t p = 0; p < out->n_pairs; p++) {
         double tpd;
-        st = pw_lle_tpd_min(s, T, out->pairs[p][0], out->pairs[p][1], TPD_POINTS, &tpd, NULL);
+        st = pw_lle_tpd_min(s, T, out->pairs[p][0], out->pairs[p][1], tpd_points, &tpd, NULL);
         if (st != PW_OK)
             return st;
         out->min_tpd = fmin(out->min_tpd, tpd);
@@ -502,6 +502,13 @@ static pw_status solve_impl(const pw_system *s, double T, pw_lle_result *out, xp
 
 pw_status pw_lle_solve(const pw_system *s, double T_K, pw_lle_result *out)
 {
+    return pw_lle_solve_n(s, T_K, TPD_POINTS, out);
+}
+
+pw_status pw_lle_solve_n(const pw_system *s, double T_K, size_t tpd_points, pw_lle_result *out)
+{
+    if (tpd_points < 100)
+        return PW_EINVAL;
     if (!s || !s->model || !s->model->eval || !out)
         return PW_EINVAL;
     memset(out, 0, sizeof *out);
@@ -518,7 +525,7 @@ pw_status pw_lle_solve(const pw_system *s, double T_K, pw_lle_result *out)
     size_t *hull = malloc(GRID_N * sizeof *hull);
     pw_status st = PW_ENOMEM;
     if (grid && G && D && hull)
-        st = solve_impl(s, T_K, out, grid, G, D, hull);
+        st = solve_impl(s, T_K, out, grid, G, D, hull, tpd_points);
     free(grid);
     free(G);
     free(D);

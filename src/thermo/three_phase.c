@@ -7,12 +7,13 @@
 
 #define T3_STEP_K 1.0
 #define T3_BELOW_K 80.0
+#define TPD_QUICK 1000
 
 /* Sign test for the critical point: true when D < 0 somewhere (the model splits at T). */
 static pw_status splits_at(const pw_system *s, double T, bool *split, double *x_min_D)
 {
     pw_lle_result r;
-    pw_status st = pw_lle_solve(s, T, &r);
+    pw_status st = pw_lle_solve_n(s, T, TPD_QUICK, &r);
     /* min_D is set before any later failure of the pair search */
     if (!isfinite(r.min_D))
         return st == PW_OK ? PW_EDOM : st;
@@ -69,7 +70,15 @@ pw_status pw_lle_scan(const pw_system *s, double T_from, double T_to, size_t n,
     return PW_OK;
 }
 
+
+static pw_status three_phase_T(const pw_system *s, double T_K, size_t tpd, pw_three_phase *out);
+
 pw_status pw_three_phase_at_T(const pw_system *s, double T_K, pw_three_phase *out)
+{
+    return three_phase_T(s, T_K, 20000, out);
+}
+
+static pw_status three_phase_T(const pw_system *s, double T_K, size_t tpd, pw_three_phase *out)
 {
     if (!s || !s->model || !out)
         return PW_EINVAL;
@@ -78,7 +87,7 @@ pw_status pw_three_phase_at_T(const pw_system *s, double T_K, pw_three_phase *ou
     out->P_Pa = out->y1 = NAN;
     out->x[0] = out->x[1] = NAN;
     pw_lle_result r;
-    pw_status st = pw_lle_solve(s, T_K, &r);
+    pw_status st = pw_lle_solve_n(s, T_K, tpd, &r);
     if (st != PW_OK)
         return st;
     if (!r.split)
@@ -104,7 +113,17 @@ pw_status pw_three_phase_at_T(const pw_system *s, double T_K, pw_three_phase *ou
 static pw_status p3_minus(const pw_system *s, double P, double T, double *f, bool *split,
                           pw_three_phase *tp)
 {
-    pw_status st = pw_three_phase_at_T(s, T, tp);
+    pw_status st = three_phase_T(s, T, TPD_QUICK, tp);
+    if (st == PW_ERANGE) {
+        /* layers beyond the solubility floor: practically immiscible here, a1 = a2 = 1 to
+         * within 1e-12, enough to bracket (the final state is solved exactly, or refused) */
+        double p1, p2;
+        if (pw_psat(&s->comp[0], T, &p1, NULL) != PW_OK || pw_psat(&s->comp[1], T, &p2, NULL) != PW_OK)
+            return st;
+        *split = true;
+        *f = p1 + p2 - P;
+        return PW_OK;
+    }
     if (st != PW_OK)
         return st;
     *split = tp->exists;
