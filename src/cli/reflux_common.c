@@ -4,6 +4,7 @@
 
 #include <math.h>
 #include <pinchwise/curve.h>
+#include <pinchwise/decanter.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -119,6 +120,18 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
     if (st == PW_OK) {
         pw_curve curve = pw_system_curve_bind(&sc);
         st = pw_column_solve(&curve, &a->spec, &a->opt, &run->col);
+    }
+    if (st == PW_OK) { /* a heterogeneous azeotrope between the targets: the decanter scheme */
+        pw_three_phase tp;
+        bool blocked = false;
+        char why[PW_REASON_MAX];
+        st = pw_column_hetero_block(&run->fit.sys, a->P_Pa, a->spec.xb, a->spec.xd, &tp, &blocked,
+                                    why, sizeof why);
+        if (st == PW_OK && blocked) {
+            memcpy(run->col.reason, why, sizeof why);
+            run->col.feasible = false;
+            run->col.n_design = 0;
+        }
     }
     if (st != PW_OK) {
         pw_error_set(err, st, a->fit_path, 0, "%s%s%s", pw_strerror(st),
