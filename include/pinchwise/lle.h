@@ -115,6 +115,13 @@ pw_status pw_three_phase_at_T(const pw_system *s, double T_K, pw_three_phase *ou
  * split vanishes first, or there is no split). */
 pw_status pw_three_phase_at_P(const pw_system *s, double P_Pa, pw_three_phase *out);
 
+/* The same from a temperature guess (e.g. a measured three-phase temperature): the root of
+ * P3(T) = P is bracketed by steps of 1, 2, 4, ... K away from T_guess_K and refined by GSL
+ * Brent; the LLE at each trial uses a 1000-point tangent-plane check. Falls back to
+ * pw_three_phase_at_P when the split vanishes inside the stepping. For inner loops (fitting). */
+pw_status pw_three_phase_at_P_near(const pw_system *s, double P_Pa, double T_guess_K,
+                                   pw_three_phase *out);
+
 /* Bubble point of an overall liquid x1 at fixed P (isobaric) or T: inside the two-liquid region
  * at its three-phase condition it is the three-phase state (*three_phase true, out->y1 = y3);
  * otherwise the homogeneous bubble point. */

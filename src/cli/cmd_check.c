@@ -3,6 +3,8 @@
  * one JSON object. Exit 0 when the check ran, whatever the verdict. */
 #include "cli.h"
 
+#include <pinchwise/hetcheck.h>
+
 #include <math.h>
 #include <pinchwise/consistency.h>
 #include <pinchwise/dataset.h>
@@ -228,6 +230,37 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
         printf("  Caution: %s\n", cautions[i]);
 }
 
+#define HET_REASON                                                                           \
+    "inside the two-liquid region (a plateau of equal T or P and equal y over a range of x): "  \
+    "left out of the consistency tests, which assume one liquid (METHODS2 3.7); checked "     \
+    "instead against the activity bound y_i P <= P_i^sat(T) (METHODS2 3.6)"
+
+static json_t *het_json(const pw_het_check *h)
+{
+    json_t *pts = json_array();
+    for (size_t i = 0; i < h->n; i++)
+        json_array_append_new(pts, json_pack("{s:I,s:o,s:o,s:[o,o]}", "line",
+                                             (json_int_t)h->pts[i].line, "x1",
+                                             pw_cli_json_num(h->pts[i].x1), "y1",
+                                             pw_cli_json_num(h->pts[i].y1), "activity_bound",
+                                             pw_cli_json_num(h->pts[i].bound[0]),
+                                             pw_cli_json_num(h->pts[i].bound[1])));
+    return json_pack("{s:o,s:s,s:o,s:b}", "points", pts, "reason", HET_REASON, "max_activity",
+                     pw_cli_json_num(h->max_bound), "activity_bound_ok", h->bound_ok);
+}
+
+static void print_het(const pw_het_check *h)
+{
+    if (!h->n)
+        return;
+    printf("Three-phase points (lines");
+    for (size_t i = 0; i < h->n; i++)
+        printf("%s %ld", i ? "," : "", h->pts[i].line);
+    printf("): %s.\n", HET_REASON);
+    printf("  largest apparent activity y_i P / P_i^sat: %.4f (%s)\n\n", h->max_bound,
+           h->bound_ok ? "within the bound 1" : "ABOVE 1: y, T or P of these points is doubtful");
+}
+
 int pw_cli_check(int argc, char **argv)
 {
     const char *data = NULL, *comp_file = NULL;
@@ -274,8 +307,15 @@ int pw_cli_check(int argc, char **argv)
     memset(&r, 0, sizeof r);
     pw_consistency_options o = pw_consistency_default_options();
     o.strict_verdict = strict;
+    /* points inside the two-liquid region: out of the one-liquid tests (docs/heterogeneous.md) */
+    pw_het_check het;
+    pw_dataset one;
+    memset(&het, 0, sizeof het);
+    memset(&one, 0, sizeof one);
+    if (st == PW_OK && pw_het_check_run(&ds, c[0], c[1], &one, &het) != PW_OK)
+        st = pw_error_set(&err, PW_ENOMEM, ds.path, 0, "out of memory");
     if (st == PW_OK)
-        st = pw_consistency_run(&ds, c[0], c[1], &o, &r, &err);
+        st = pw_consistency_run(het.n ? &one : &ds, c[0], c[1], &o, &r, &err);
     int code = 0;
     if (st != PW_OK) {
         code = pw_cli_fail("check", &err);
@@ -289,11 +329,16 @@ int pw_cli_check(int argc, char **argv)
                              "range %.2f-%.2f K of the %s vapor-pressure correlation", ds.path, Tlo,
                              Thi, c[i]->T_min_K, c[i]->T_max_K, c[i]->name);
         }
-        if (json)
-            code = pw_cli_print_json(result_json(&ds, &r, strict));
-        else
+        if (json) {
+            json_t *oj = result_json(&ds, &r, strict);
+            json_object_set_new(oj, "three_phase_points", het_json(&het));
+            code = pw_cli_print_json(oj);
+        } else {
+            print_het(&het);
             print_text(&ds, &r);
+        }
     }
+    pw_het_check_free(&het, &one);
     pw_consistency_result_free(&r);
     pw_dataset_free(&ds);
     pw_complib_free(&lib);

@@ -2,6 +2,8 @@
  * of a liquid inside the two-liquid region. See include/pinchwise/lle.h, docs/heterogeneous.md. */
 #include <pinchwise/lle.h>
 
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_roots.h>
 #include <math.h>
 #include <string.h>
 
@@ -192,6 +194,93 @@ pw_status pw_three_phase_at_P(const pw_system *s, double P_Pa, pw_three_phase *o
     }
     out->exists = false;
     return PW_OK;
+}
+
+typedef struct near_ctx {
+    const pw_system *s;
+    double P;
+    pw_status st;
+    bool lost; /* the split vanished at a trial temperature */
+} near_ctx;
+
+static double near_fn(double T, void *p)
+{
+    near_ctx *c = p;
+    pw_three_phase tp;
+    double f;
+    bool split;
+    pw_status st = p3_minus(c->s, c->P, T, &f, &split, &tp);
+    if (st != PW_OK || !split) {
+        if (st != PW_OK && c->st == PW_OK)
+            c->st = st;
+        c->lost = c->lost || !split;
+        return GSL_NAN;
+    }
+    return f;
+}
+
+pw_status pw_three_phase_at_P_near(const pw_system *s, double P_Pa, double T_guess_K,
+                                   pw_three_phase *out)
+{
+    if (!s || !s->model || !out)
+        return PW_EINVAL;
+    if (!(P_Pa > 0.0) || !isfinite(P_Pa) || !(T_guess_K > 0.0) || !isfinite(T_guess_K))
+        return PW_EDOM;
+    near_ctx c = {s, P_Pa, PW_OK, false};
+    double a = T_guess_K, fa = near_fn(a, &c);
+    if (c.st != PW_OK)
+        return c.st;
+    if (c.lost)
+        return pw_three_phase_at_P(s, P_Pa, out);
+    double b = a, fb = fa;
+    double dir = fa < 0.0 ? 1.0 : -1.0;
+    bool found = fa == 0.0;
+    for (double step = 1.0; !found && step <= 64.0; step *= 2.0) {
+        b = a + dir * step;
+        fb = near_fn(b, &c);
+        if (c.st != PW_OK)
+            return c.st;
+        if (c.lost)
+            return pw_three_phase_at_P(s, P_Pa, out);
+        if ((fa < 0.0) != (fb < 0.0) || fb == 0.0) {
+            found = true;
+            break;
+        }
+        a = b;
+        fa = fb;
+    }
+    if (!found)
+        return pw_three_phase_at_P(s, P_Pa, out);
+    double T = fa == 0.0 ? a : b;
+    if (fa != 0.0 && fb != 0.0) {
+        gsl_root_fsolver *rs = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+        if (!rs)
+            return PW_ENOMEM;
+        gsl_function F = {near_fn, &c};
+        gsl_root_fsolver_set(rs, &F, fmin(a, b), fmax(a, b));
+        pw_status st = PW_EMAXITER;
+        for (int it = 0; it < 100; it++) {
+            if (gsl_root_fsolver_iterate(rs) != GSL_SUCCESS || c.st != PW_OK || c.lost) {
+                st = c.st != PW_OK ? c.st : PW_ENOCONV;
+                break;
+            }
+            if (gsl_root_test_interval(gsl_root_fsolver_x_lower(rs), gsl_root_fsolver_x_upper(rs),
+                                       1e-9, 0.0) == GSL_SUCCESS) {
+                st = PW_OK;
+                break;
+            }
+        }
+        T = gsl_root_fsolver_root(rs);
+        gsl_root_fsolver_free(rs);
+        if (c.lost)
+            return pw_three_phase_at_P(s, P_Pa, out);
+        if (st != PW_OK)
+            return st;
+    }
+    pw_status st = three_phase_T(s, T, TPD_QUICK, out);
+    if (st == PW_OK)
+        out->P_Pa = P_Pa;
+    return st;
 }
 
 pw_status pw_bubble_T_het(const pw_system *s, double P_Pa, double x1, pw_eq_point *out,

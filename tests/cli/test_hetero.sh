@@ -120,4 +120,41 @@ grep -q "Column A" "$TMP/dec.txt" && grep -qi "licensed" "$TMP/dec.txt" || fail 
 "$PW" decanter "$TMP/bw.json" --pressure 1atm --zf 0.2 --x1-rich 0.995 > /dev/null 2> "$TMP/err.txt" \
     && fail "missing --x1-lean accepted"
 grep -q "x1-lean" "$TMP/err.txt" || fail "missing option not named"
+# fit --lle: tie lines with the VLE data; the three-phase points are modelled as such;
+# T_ref_K stays the mean T of the VLE data
+"$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model nrtl --lle "$SRC/datasets/butanol_water_lle.csv" \
+    --out "$TMP/bwl.json" --json > "$TMP/fitl.json" 2> "$TMP/err.txt" || fail "fit --lle: $(cat "$TMP/err.txt")"
+python3 - "$TMP/fitl.json" "$SRC/datasets/butanol_water_1atm.csv" <<'PY' || fail "fit --lle JSON"
+import json, sys, csv
+d = json.load(open(sys.argv[1]))
+assert d["converged"] is True, d
+assert d["lle"]["tie_lines"] == 1 and d["lle"]["sigma_x"] == 0.003, d
+assert d["three_phase_points"] == 7, d
+rows = [r for r in csv.reader(l for l in open(sys.argv[2]) if not l.startswith("#"))][1:]
+T = [float(r[2]) for r in rows]
+assert abs(d["T_ref_K"] - sum(T) / len(T)) < 1e-9, (d["T_ref_K"], sum(T) / len(T))
+PY
+# Wilson is refused with tie lines, with the reason
+"$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model wilson --lle "$SRC/datasets/butanol_water_lle.csv" \
+    --out "$TMP/bwlw.json" > /dev/null 2> "$TMP/err.txt" && fail "wilson accepted with --lle"
+grep -q "cannot" "$TMP/err.txt" || fail "wilson refusal message: $(cat "$TMP/err.txt")"
+# a bad LLE file: file and line named
+printf '# components: 1-butanol, water\nT[C],x1_I,x1_II\n25,0.5,0.1\n' > "$TMP/bad_lle.csv"
+"$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model nrtl --lle "$TMP/bad_lle.csv" --out "$TMP/no.json" \
+    > /dev/null 2> "$TMP/err.txt" && fail "bad LLE file accepted"
+grep -q "bad_lle.csv:3:" "$TMP/err.txt" || fail "bad LLE message: $(cat "$TMP/err.txt")"
+[ ! -e "$TMP/no.json" ] || fail "a fit file was written after a bad LLE file"
+
+# check: the three-phase points are named and kept out of the one-liquid tests
+"$PW" check "$SRC/datasets/butanol_water_1atm.csv" --json > "$TMP/chk.json" 2> /dev/null || fail "check exited $?"
+python3 - "$TMP/chk.json" <<'PY' || fail "check JSON"
+import json, sys
+d = json.load(open(sys.argv[1]))
+h = d["three_phase_points"]
+assert len(h["points"]) == 7 and "two-liquid" in h["reason"], h
+assert h["activity_bound_ok"] is True and h["max_activity"] < 1.0, h
+assert all("pass" in t for t in d["tests"]), d
+PY
+"$PW" check "$SRC/datasets/butanol_water_1atm.csv" 2> /dev/null | grep -q "Three-phase points" \
+    || fail "check text names no three-phase points"
 echo "ok"
