@@ -87,6 +87,12 @@ assert d["feasible"] is False and d["r_min"] is None and d["pinch"] is None and 
 assert "decanter" in d["reason"], d
 PY
 
+# screen proposes the decanter scheme for the same targets
+"$PW" screen "$TMP/bw.json" --pressure 1atm --xd 0.99 --xb 0.001 --json > "$TMP/scr.json" 2> /dev/null \
+    || fail "screen exited $?"
+python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); assert d["verdict"]=="infeasible" and any("decanter" in r["text"] for r in d["reasons"]), d' \
+    "$TMP/scr.json" || fail "screen does not propose the decanter scheme"
+
 # decanter: CONTRACT keys, mass balance, rows at 1.2/1.3/1.5
 "$PW" decanter "$TMP/bw.json" --pressure 1atm --zf 0.2 --x1-rich 0.995 --x1-lean 0.001 --json \
     > "$TMP/dec.json" 2> "$TMP/err.txt" || fail "decanter exited $?: $(cat "$TMP/err.txt")"
