@@ -163,4 +163,14 @@ assert all("pass" in t for t in d["tests"]), d
 PY
 "$PW" check "$SRC/datasets/butanol_water_1atm.csv" 2> /dev/null | grep -q "Three-phase points" \
     || fail "check text names no three-phase points"
+# report: the azeotrope marked is the heterogeneous one (the flat three-phase line crosses y = x
+# there), not the crossing of the unstable one-liquid curve inside the gap
+"$PW" report "$TMP/bw.json" --out "$TMP/r.html" --json > "$TMP/rep.json" 2> /dev/null || fail "report exited $?"
+python3 - "$TMP/r.html" "$TMP/az.json" <<'PY' || fail "report azeotrope"
+import json, re, sys
+html = open(sys.argv[1]).read()
+z = [a for a in json.load(open(sys.argv[2]))["azeotropes"] if a["heterogeneous"]][0]
+xs = [float(v) for v in re.findall(r"azeotrope x = ([0-9.]+)", html)]
+assert xs and all(abs(x - z["x1"]) < 0.002 for x in xs), (xs, z)
+PY
 echo "ok"
