@@ -189,6 +189,13 @@ pw_status pw_stripper_solve(const pw_curve *curve, const pw_stripper_spec *sp,
         || sp->x_top == sp->x_bottom)
         return PW_EINVAL;
     pw_column_options o = opt ? *opt : pw_column_default_options();
+    if (sp->x_bottom <= 0.0 || sp->x_bottom >= 1.0) {
+        snprintf(out->reason, sizeof out->reason,
+                 "a pure bottoms product (x1 = %g) needs infinitely many stages: give a purity "
+                 "short of 0 or 1",
+                 sp->x_bottom);
+        return PW_OK;
+    }
     size_t n = o.grid > MIN_GRID ? o.grid : MIN_GRID;
     double dir = sp->x_bottom > sp->x_top ? 1.0 : -1.0;
     sctx c = {curve, sp->x_bottom, PW_OK};
@@ -271,19 +278,24 @@ pw_status pw_stripper_solve(const pw_curve *curve, const pw_stripper_spec *sp,
         return st;
     out->y_top_min = sp->x_top + (sp->x_top - sp->x_bottom) / best_r;
     st = pw_stripper_stages(curve, sp, INFINITY, o.max_stages, &out->n_min);
-    if (st != PW_OK)
-        return st;
-    for (size_t i = 0; i < o.n_factors && i < PW_COLUMN_MAX_FACTORS; i++) {
+    for (size_t i = 0; st == PW_OK && i < o.n_factors && i < PW_COLUMN_MAX_FACTORS; i++) {
         double S = o.factors[i] * best_r;
         out->design[i].factor = o.factors[i];
         out->design[i].boilup = S;
         out->design[i].y_top = sp->x_top + (sp->x_top - sp->x_bottom) / S;
         st = pw_stripper_stages(curve, sp, S, o.max_stages, &out->design[i].stages);
-        if (st != PW_OK)
-            return st;
-        out->n_design++;
+        if (st == PW_OK)
+            out->n_design++;
     }
-    return PW_OK;
+    if (st == PW_EMAXITER || st == PW_EINFEASIBLE) {
+        out->feasible = false;
+        snprintf(out->reason, sizeof out->reason,
+                 "%s: the bottoms x1 = %.6g is out of reach within %zu stages",
+                 st == PW_EMAXITER ? "too many stages" : "the stepping stalls",
+                 sp->x_bottom, o.max_stages);
+        return PW_OK;
+    }
+    return st;
 }
 
 pw_status pw_column_hetero_block(const pw_system *s, double P_Pa, double x_a, double x_b,

@@ -229,6 +229,24 @@ static void refusals(void **state)
     sp.zf = 0.999;
     assert_int_equal(pw_decanter_solve(&s, &sp, NULL, &r), PW_OK);
     assert_false(r.feasible);
+    /* pure products: infinitely many stages, refused with a reason (exit 0 in the CLI) */
+    sp.zf = 0.2;
+    sp.x_rich = 1.0;
+    assert_int_equal(pw_decanter_solve(&s, &sp, NULL, &r), PW_OK);
+    assert_false(r.feasible);
+    assert_non_null(strstr(r.reason, "pure"));
+    /* products right beside the layers: feasible, tiny boil-up, a fraction of a stage */
+    pw_three_phase t3;
+    assert_int_equal(pw_three_phase_at_P(&s, 101325.0, &t3), PW_OK);
+    sp.x_rich = t3.x[1] + 1e-6;
+    sp.x_lean = t3.x[0] - 1e-6;
+    assert_int_equal(pw_decanter_solve(&s, &sp, NULL, &r), PW_OK);
+    assert_true(r.feasible);
+    for (int i = 0; i < 2; i++) {
+        assert_true(r.col[i].boilup_min > 0.0 && r.col[i].boilup_min < 1e-3);
+        assert_true(r.col[i].n_min > 0.0 && r.col[i].n_min < 1.0);
+    }
+    sp.x_lean = 0.001;
     /* Wilson cannot split */
     pw_system w = s;
     w.model = &pw_model_wilson;
