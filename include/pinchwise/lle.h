@@ -2,11 +2,12 @@
  *
  * Liquid-liquid split at fixed T: the common tangent of Gmix/RT = x ln x + (1-x) ln(1-x) + G^E/RT,
  * i.e. equal activities of both components in the two layers, for any activity-model descriptor
- * (the code never looks at which model it is, except pw_model_can_split). The search cannot miss
- * a split and never returns the trivial solution:
+ * (the code never looks at which model it is, except pw_model_can_split). The search depends on
+ * no start value and never returns the trivial solution:
  *   1. D(x) = d2(Gmix/RT)/dx^2 is scanned on a grid of fixed size (uniform in x plus geometric
  *      towards both ends, 1e-12 .. 1 - 1e-12) and every local minimum is refined (Brent); the
- *      model splits at T iff D < 0 somewhere (a binary at fixed T: METHODS2 2.2).
+ *      model splits at T iff D < 0 somewhere (a binary at fixed T: METHODS2 2.2). A dip of D
+ *      below zero is found when it makes a grid-local minimum (at most one minimum per cell).
  *   2. With one region of D < 0 (spinodal s1 < s2, refined by Brent), the common tangent is found
  *      by bisection on its slope m in [G'(s2), G'(s1)]: the two tangent points x_L(m) < s1 and
  *      x_R(m) > s2 are unique there, and h(m) = [G - m x](x_L) - [G - m x](x_R) is strictly
