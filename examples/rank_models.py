@@ -24,10 +24,16 @@ def fit_all(path):
             fits.append(pinchwise.fit(path, model))
         except pinchwise.PinchwiseError as e:
             failed.append("%s: %s" % (model, e))
-    # the rule of `pinchwise fit --model all`: fits that did not converge or predict a liquid
-    # split rank last, the rest by AICc (Hurvich & Tsai 1989)
-    fits.sort(key=lambda f: (not f["converged"] or f["liquid_split"]["predicted"],
-                             f["statistics"]["aicc"]))
+    # the rule of `pinchwise fit --model all` (docs/assess.md): fits that did not converge, or
+    # predict a liquid split the data do not show, rank last; the rest by AICc (Hurvich & Tsai 1989)
+    most = max((f["statistics"]["residuals"] for f in fits), default=0)
+
+    def group(f):
+        if f["statistics"]["residuals"] < most:  # fewer points fitted: AICc not comparable
+            return 2
+        measured_split = f.get("three_phase_points", 0) > 0 or "lle" in f
+        return 1 if not f["converged"] or (f["liquid_split"]["predicted"] and not measured_split) else 0
+    fits.sort(key=lambda f: (group(f), f["statistics"]["aicc"]))
     return path, fits, failed
 
 

@@ -2,7 +2,7 @@
  * plain results (they only render them).
  *
  * Model ranking. Every fit of the same data is ranked by one rule: sound fits first (converged,
- * and no liquid split predicted), then by AICc (Hurvich & Tsai 1989). delta = AICc - AICc of the
+ * and no liquid split predicted unless the data hold three-phase points or tie lines), then by AICc (Hurvich & Tsai 1989). delta = AICc - AICc of the
  * best sound fit; the classes follow Burnham & Anderson (2002, Model Selection and Multimodel
  * Inference, 2nd ed., sec. 2.6): delta < 2 the data cannot tell the model from the best, < 10
  * considered, >= 10 essentially no support. Akaike weights exp(-delta/2), normalised over the
@@ -36,10 +36,13 @@ typedef enum {
     PW_RANK_EQUAL = 1,      /* delta < 2 */
     PW_RANK_CONSIDERED = 2, /* 2 <= delta < 10 */
     PW_RANK_DROPPED = 3,    /* delta >= 10 */
-    PW_RANK_UNSOUND = 4     /* did not converge, or predicts a liquid split */
+    PW_RANK_UNSOUND = 4,    /* did not converge, or predicts a liquid split */
+    PW_RANK_FEWER = 5       /* fitted fewer residuals than the others (a model that cannot split
+                               leaves three-phase points out): its AICc is not comparable */
 } pw_rank_class;
 
-/* Short words for a class: "best", "indistinguishable", "considered", "no support", "unsound". */
+/* Short words for a class: "best", "indistinguishable", "considered", "no support", "unsound",
+ * "not comparable". */
 const char *pw_rank_class_name(pw_rank_class c);
 
 /* Column targets for the ranking: the same split solved with every model. */
@@ -75,8 +78,9 @@ typedef struct pw_ranking {
 } pw_ranking;
 
 /* Ranks n fits of the same data (1 <= n <= PW_RANK_MAX; PW_EINVAL otherwise, or for fits of
- * different data: unequal residual counts or dataset hashes). Classes and weights only; no
- * equilibrium is computed. */
+ * different data: other objectives or unequal dataset hashes). A fit with fewer residuals than
+ * the most any fit has is ranked last as PW_RANK_FEWER (AICc compares fits of the same points
+ * only). Classes and weights only; no equilibrium is computed. */
 pw_status pw_rank_fits(const pw_fit_result *const *fits, size_t n, pw_ranking *out);
 
 /* pw_rank_fits, then each fit's azeotropes at its data's condition and, with col, its column;

@@ -9,6 +9,7 @@
 
 #include <jansson.h>
 #include <pinchwise/azeotrope.h>
+#include <pinchwise/lle.h>
 #include <pinchwise/column.h>
 #include <pinchwise/component.h>
 #include <pinchwise/consistency.h>
@@ -56,7 +57,10 @@ json_t *pw_fit_doc(const pw_fit_result *r, const char *fit_file);
 /* ---- check ---- */
 
 /* The `check --json` document of a consistency result. strict: the verdict rule used. */
-json_t *pw_check_doc(const pw_dataset *ds, const pw_consistency_result *r, bool strict);
+struct pw_het_check;
+/* het (may be NULL): the three-phase points left out of the tests ("three_phase_points"). */
+json_t *pw_check_doc(const pw_dataset *ds, const pw_consistency_result *r, bool strict,
+                     const struct pw_het_check *het);
 
 /* The cautions the check document carries; *n receives how many. Static strings. */
 const char *const *pw_check_cautions(size_t *n);
@@ -66,10 +70,12 @@ const char *const *pw_check_cautions(size_t *n);
 /* One azeotrope with the keys x1, T_K, P_kPa, kind and more. */
 json_t *pw_azeotrope_entry_json(const pw_azeotrope *az);
 
-/* The `azeotrope --json` document for sys at the fixed condition (P in Pa or T in K by mode);
- * sc may be NULL (no scan: "scan" is null). */
+/* The `azeotrope --json` document for sys at the fixed condition (P in Pa or T in K by mode):
+ * the homogeneous azeotropes of r (as left by pw_azeotrope_heterogeneous) and the heterogeneous
+ * one of tp, each entry with "heterogeneous"; "three_phase" from tp (NULL: null). sc may be NULL
+ * (no scan: "scan" is null); tps, when not NULL, holds the three-phase state at each scan point. */
 json_t *pw_azeotrope_doc(const pw_system *sys, pw_az_mode mode, double fixed, const pw_az_result *r,
-                         const pw_az_scan *sc);
+                         const pw_az_scan *sc, const pw_three_phase *tp, const pw_three_phase *tps);
 
 /* ---- reflux ---- */
 

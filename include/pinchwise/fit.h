@@ -13,6 +13,7 @@
 
 #include <pinchwise/dataset.h>
 #include <pinchwise/equilibrium.h>
+#include <pinchwise/lledata.h>
 #include <pinchwise/model.h>
 #include <pinchwise/status.h>
 #include <stdbool.h>
@@ -78,6 +79,13 @@ typedef struct pw_fit_options {
     size_t n_exclude;
     char exclude_reason[256];
     pw_vapor_model vapor;  /* PW_VAPOR_IDEAL (default) or PW_VAPOR_VIRIAL (needs critical data) */
+    /* Partly miscible liquids (docs/heterogeneous.md): measured tie lines fitted together with
+     * the VLE data, residuals (x_calc - x)/sigma_x_lle for both layers (NULL / 0: none), and
+     * whether three-phase points of the VLE set are detected and modelled (default true). */
+    const pw_tie_line *tie_lines;
+    size_t n_tie_lines;
+    double sigma_x_lle;    /* NAN: PW_LLE_SIGMA_X_DEFAULT */
+    bool three_phase_points;
 } pw_fit_options;
 
 /* Defaults as documented above. */
@@ -89,6 +97,8 @@ typedef struct pw_fit_point {
     bool excluded;
     double T_calc_K, P_calc_Pa, y_calc;   /* NAN when the solve failed */
     double lngamma_exp[2];                /* from y, T, P and P^sat; NAN when not derivable */
+    bool three_phase;                     /* a point inside the two-liquid region: modelled as
+                                           * the three-phase state (T3 or P3 and y3) */
 } pw_fit_point;
 
 /* A distinct local minimum found by the multistart. */
@@ -148,6 +158,10 @@ typedef struct pw_fit_result {
     char source[PW_SOURCE_MAX];
     char version[32];
     char created[40];          /* ISO 8601 UTC */
+    size_t n_three_phase;      /* points modelled as three-phase points */
+    size_t n_tie_lines;        /* tie lines fitted together with the VLE points */
+    double sigma_x_lle;
+    double aad_x_lle;          /* mean |x_calc - x| over both layers of every tie line; NAN */
 } pw_fit_result;
 
 /* Fits model to ds with components c1, c2 (in the dataset's order). out is filled even when

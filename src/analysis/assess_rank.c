@@ -19,26 +19,37 @@ const char *pw_rank_class_name(pw_rank_class c)
         return "no support";
     case PW_RANK_UNSOUND:
         return "unsound";
+    case PW_RANK_FEWER:
+        return "not comparable";
     }
     return "unknown";
 }
 
 static bool same_data(const pw_fit_result *a, const pw_fit_result *b)
 {
-    if (a->n_residuals != b->n_residuals || a->objective != b->objective)
+    if (a->objective != b->objective)
         return false;
     if (a->dataset_sha256[0] && b->dataset_sha256[0])
         return strcmp(a->dataset_sha256, b->dataset_sha256) == 0;
     return true;
 }
 
-static bool is_sound(const pw_fit_result *r) { return r->converged && !r->split && isfinite(r->aicc); }
+/* Sound: converged, a finite AICc, and no predicted liquid split unless the data themselves show
+ * two liquids (three-phase points or tie lines fitted: the split is then measured, not spurious). */
+static bool is_sound(const pw_fit_result *r)
+{
+    bool measured_split = r->n_three_phase > 0 || r->n_tie_lines > 0;
+    return r->converged && (!r->split || measured_split) && isfinite(r->aicc);
+}
+
+/* Order: sound, then unsound, then fits of fewer residuals; by AICc within each. */
+static int group(const pw_rank_row *r) { return r->cls == PW_RANK_FEWER ? 2 : r->sound ? 0 : 1; }
 
 static int cmp_rows(const void *a, const void *b)
 {
     const pw_rank_row *x = a, *y = b;
-    if (x->sound != y->sound)
-        return x->sound ? -1 : 1;
+    if (group(x) != group(y))
+        return group(x) - group(y);
     double ax = isfinite(x->fit->aicc) ? x->fit->aicc : (double)INFINITY;
     double ay = isfinite(y->fit->aicc) ? y->fit->aicc : (double)INFINITY;
     if (ax != ay)
@@ -54,11 +65,15 @@ pw_status pw_rank_fits(const pw_fit_result *const *fits, size_t n, pw_ranking *o
     for (size_t i = 0; i < n; i++)
         if (!fits[i] || !fits[i]->sys.model || !same_data(fits[i], fits[0]))
             return PW_EINVAL;
+    size_t most = 0;
+    for (size_t i = 0; i < n; i++)
+        most = fits[i]->n_residuals > most ? fits[i]->n_residuals : most;
     for (size_t i = 0; i < n; i++) {
         pw_rank_row *r = &out->rows[i];
         r->index = i;
         r->fit = fits[i];
-        r->sound = is_sound(fits[i]);
+        r->cls = fits[i]->n_residuals < most ? PW_RANK_FEWER : PW_RANK_BEST; /* refined below */
+        r->sound = r->cls != PW_RANK_FEWER && is_sound(fits[i]);
         r->az_status = r->col_status = PW_EINVAL; /* not searched */
     }
     out->n = n;
@@ -67,7 +82,11 @@ pw_status pw_rank_fits(const pw_fit_result *const *fits, size_t n, pw_ranking *o
     double wsum = 0.0;
     for (size_t i = 0; i < n; i++) {
         pw_rank_row *r = &out->rows[i];
-        r->delta_aicc = isfinite(best) && isfinite(r->fit->aicc) ? r->fit->aicc - best : (double)NAN;
+        r->delta_aicc = isfinite(best) && isfinite(r->fit->aicc) && r->cls != PW_RANK_FEWER
+                            ? r->fit->aicc - best
+                            : (double)NAN;
+        if (r->cls == PW_RANK_FEWER)
+            continue;
         if (!r->sound)
             r->cls = PW_RANK_UNSOUND;
         else if (i == 0)

@@ -5,6 +5,7 @@
 #include <pinchwise/screen.h>
 
 #include <math.h>
+#include <pinchwise/lle.h>
 #include <stdarg.h>
 #include <stdio.h>
 #include <string.h>
@@ -218,7 +219,23 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
         return st;
     note_T(out, out->az.T_lo_K, out->az.T_hi_K);
 
-    for (size_t i = 0; i < out->az.n; i++)
+    /* partly miscible liquids: crossings inside the two-liquid region are no azeotropes; a
+     * heterogeneous azeotrope between the targets calls for the decanter scheme */
+    pw_three_phase het;
+    if (pw_model_can_split(s->model)) {
+        st = pw_azeotrope_heterogeneous(s, PW_AZ_ISOBARIC, P_Pa, &out->az, &het, NULL);
+        if (st != PW_OK)
+            return st;
+        if (het.exists && het.heterogeneous_azeotrope && het.y1 > xb && het.y1 < xd) {
+            out->barrier = true;
+            out->x_barrier = het.y1;
+            reason(out, PW_REASON_BARRIER,
+                   "heterogeneous azeotrope at x1 = %.4f (T = %.2f K, liquid layers %.4f and %.4f) "
+                   "lies between xb and xd: use the decanter scheme (pinchwise decanter)",
+                   het.y1, het.T_K, het.x[0], het.x[1]);
+        }
+    }
+    for (size_t i = 0; !out->barrier && i < out->az.n; i++)
         if (out->az.az[i].x1 > xb && out->az.az[i].x1 < xd) {
             out->barrier = true;
             out->x_barrier = out->az.az[i].x1;

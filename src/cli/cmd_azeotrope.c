@@ -5,6 +5,7 @@
 #include "cli.h"
 
 #include <math.h>
+#include <pinchwise/lle.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -140,8 +141,18 @@ static pw_status scan_progress(void *ctx, size_t done, size_t total)
     return PW_OK;
 }
 
-static void print_table(const pw_az_result *r)
+static void print_table(const pw_az_result *r, const pw_three_phase *tp)
 {
+    if (tp->exists)
+        printf("  three liquids-and-vapor line at T = %.3f K, P = %.4f kPa: layers x1 = %.6f and %.6f,"
+               " vapor y1 = %.6f\n  -> %s\n",
+               tp->T_K, tp->P_Pa / 1000.0, tp->x[0], tp->x[1], tp->y1,
+               tp->heterogeneous_azeotrope
+                   ? "a heterogeneous (minimum-boiling) azeotrope: the vapor lies between the layers"
+                   : "no azeotrope on it: the vapor lies outside the layers (heterogeneous "
+                     "non-azeotrope)");
+    if (r->n == 0 && tp->exists && tp->heterogeneous_azeotrope)
+        return;
     if (r->n == 0) {
         printf("  no azeotrope in 0 < x1 < 1\n");
         return;
@@ -157,7 +168,8 @@ static void print_table(const pw_az_result *r)
 }
 
 static void print_text(const pw_fit_result *fit, const args *a, const pw_az_result *r,
-                       const pw_az_scan *sc)
+                       const pw_three_phase *tp, size_t n_removed, const pw_az_scan *sc,
+                       const pw_three_phase *tps)
 {
     const pw_system *s = &fit->sys;
     if (a->mode == PW_AZ_ISOBARIC)
@@ -166,7 +178,10 @@ static void print_text(const pw_fit_result *fit, const args *a, const pw_az_resu
     else
         printf("Azeotropes of %s (1) / %s (2), %s model, at %.6g K (%.3f C)\n", s->comp[0].name,
                s->comp[1].name, s->model->name, a->fixed, a->fixed - 273.15);
-    print_table(r);
+    print_table(r, tp);
+    if (n_removed)
+        printf("  %zu crossing(s) of y1 = x1 inside the two-liquid region ignored: not azeotropes\n",
+               n_removed);
     for (size_t i = 0; i < r->n_touch; i++)
         printf("  near-tangential: alpha12 reaches within %.2g of 1 at x1 = %.6f without crossing\n",
                fabs(expm1(r->touch[i].ln_alpha)), r->touch[i].x1);
@@ -180,8 +195,13 @@ static void print_text(const pw_fit_result *fit, const args *a, const pw_az_resu
         for (size_t k = 0; k < sc->n_points; k++) {
             const pw_az_result *p = &sc->points[k];
             double v = isP ? sc->at[k] / 1000.0 : sc->at[k];
-            if (p->n == 0)
+            bool het = tps && tps[k].exists && tps[k].heterogeneous_azeotrope;
+            if (p->n == 0 && !het)
                 printf("  %-12.5g %s\n", v, "none");
+            if (het)
+                printf("  %-12.5g %-10.6f %-10.4f %s, heterogeneous (layers %.4f, %.4f)\n", v,
+                       tps[k].y1, isP ? tps[k].T_K : tps[k].P_Pa / 1000.0, "minimum-boiling",
+                       tps[k].x[0], tps[k].x[1]);
             for (size_t i = 0; i < p->n; i++)
                 printf("  %-12.5g %-10.6f %-10.4f %s\n", v, p->az[i].x1,
                        isP ? p->az[i].T_K : p->az[i].P_Pa / 1000.0, pw_az_kind_name(p->az[i].kind));
@@ -226,6 +246,16 @@ int pw_cli_azeotrope(int argc, char **argv)
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
+    pw_three_phase tp;
+    size_t n_removed = 0;
+    pw_three_phase *tps = NULL;
+    st = pw_azeotrope_heterogeneous(&fit.sys, (int)a.mode, a.fixed, &r, &tp, &n_removed);
+    if (st != PW_OK) {
+        pw_error_set(&err, st, a.fit_path, 0, "three-phase (two liquids and vapor) search failed: %s",
+                     pw_strerror(st));
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
     if (a.unc.on && (rc = pw_azeo_uncert_run(&fit, &r, &a.unc, &err)) != 0) {
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
@@ -243,6 +273,19 @@ int pw_cli_azeotrope(int argc, char **argv)
             pw_fit_result_free(&fit);
             return pw_cli_fail(CMD, &err);
         }
+        tps = calloc(a.n, sizeof *tps);
+        st = tps ? PW_OK : PW_ENOMEM;
+        for (size_t k = 0; st == PW_OK && k < a.n; k++)
+            st = pw_azeotrope_heterogeneous(&fit.sys, (int)a.mode, sc->at[k], &sc->points[k],
+                                            &tps[k], NULL);
+        if (st != PW_OK) {
+            pw_error_set(&err, st, a.fit_path, 0, "three-phase search in the scan failed: %s",
+                         pw_strerror(st));
+            free(tps);
+            pw_az_scan_free(sc);
+            pw_fit_result_free(&fit);
+            return pw_cli_fail(CMD, &err);
+        }
     }
     double Tlo = r.T_lo_K, Thi = r.T_hi_K;
     for (size_t k = 0; sc && k < sc->n_points; k++) {
@@ -252,16 +295,17 @@ int pw_cli_azeotrope(int argc, char **argv)
     pw_cli_warn_fit(CMD, &fit);
     pw_cli_warn_T_range(CMD, &fit, Tlo, Thi, "the bubble temperatures used");
     if (a.json) {
-        json_t *o = pw_azeotrope_doc(&fit.sys, a.mode, a.fixed, &r, sc);
+        json_t *o = pw_azeotrope_doc(&fit.sys, a.mode, a.fixed, &r, sc, &tp, tps);
         if (a.unc.on)
             pw_azeo_uncert_json(&a.unc, &r, json_object_get(o, "azeotropes"));
         rc = pw_cli_print_json(o);
     } else {
-        print_text(&fit, &a, &r, sc);
+        print_text(&fit, &a, &r, &tp, n_removed, sc, tps);
         if (a.unc.on)
             pw_azeo_uncert_print(&a.unc, &r);
         rc = fflush(stdout) ? 4 : 0;
     }
+    free(tps);
     pw_az_scan_free(sc);
     pw_fit_result_free(&fit);
     return rc;

@@ -3,6 +3,8 @@
  * one JSON object. Exit 0 when the check ran, whatever the verdict. */
 #include "cli.h"
 
+#include <pinchwise/hetcheck.h>
+
 #include <math.h>
 #include <pinchwise/consistency.h>
 #include <pinchwise/dataset.h>
@@ -75,6 +77,18 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
         printf("  Caution: %s\n", cautions[i]);
 }
 
+static void print_het(const pw_het_check *h)
+{
+    if (!h->n)
+        return;
+    printf("Three-phase points (lines");
+    for (size_t i = 0; i < h->n; i++)
+        printf("%s %ld", i ? "," : "", h->pts[i].line);
+    printf("): %s.\n", pw_het_check_reason());
+    printf("  largest apparent activity y_i P / P_i^sat: %.4f (%s)\n\n", h->max_bound,
+           h->bound_ok ? "within the bound 1" : "ABOVE 1: y, T or P of these points is doubtful");
+}
+
 int pw_cli_check(int argc, char **argv)
 {
     const char *data = NULL, *comp_file = NULL;
@@ -126,16 +140,23 @@ int pw_cli_check(int argc, char **argv)
     o.strict_verdict = strict;
     if (sigma_y) {
         double v = NAN;
-        if (pw_cli_number("--sigma-y", sigma_y, &v, &err) != PW_OK)
-            return pw_cli_fail("check", &err);
-        if (!(v > 0.0 && v < 1.0))
-            return pw_cli_failf("check", PW_EXIT_USAGE,
-                                "--sigma-y %s: expected a mole-fraction uncertainty between 0 and 1 "
-                                "(e.g. 0.002)", sigma_y);
+        if (pw_cli_number("--sigma-y", sigma_y, &v, &err) == PW_OK && !(v > 0.0 && v < 1.0))
+            pw_error_set(&err, PW_EINVAL, NULL, 0,
+                         "--sigma-y %s: expected a mole-fraction uncertainty between 0 and 1 "
+                         "(e.g. 0.002)", sigma_y);
+        if (err.status != PW_OK && st == PW_OK)
+            st = err.status;
         o.sigma_y = v;
     }
+    /* points inside the two-liquid region: out of the one-liquid tests (docs/heterogeneous.md) */
+    pw_het_check het;
+    pw_dataset one;
+    memset(&het, 0, sizeof het);
+    memset(&one, 0, sizeof one);
+    if (st == PW_OK && pw_het_check_run(&ds, c[0], c[1], &one, &het) != PW_OK)
+        st = pw_error_set(&err, PW_ENOMEM, ds.path, 0, "out of memory");
     if (st == PW_OK)
-        st = pw_consistency_run(&ds, c[0], c[1], &o, &r, &err);
+        st = pw_consistency_run(het.n ? &one : &ds, c[0], c[1], &o, &r, &err);
     int code = 0;
     if (st != PW_OK) {
         code = pw_cli_fail("check", &err);
@@ -149,11 +170,14 @@ int pw_cli_check(int argc, char **argv)
                              "range %.2f-%.2f K of the %s vapor-pressure correlation", ds.path, Tlo,
                              Thi, c[i]->T_min_K, c[i]->T_max_K, c[i]->name);
         }
-        if (json)
-            code = pw_cli_print_json(pw_check_doc(&ds, &r, strict));
-        else
+        if (json) {
+            code = pw_cli_print_json(pw_check_doc(&ds, &r, strict, &het));
+        } else {
+            print_het(&het);
             print_text(&ds, &r);
+        }
     }
+    pw_het_check_free(&het, &one);
     pw_consistency_result_free(&r);
     pw_dataset_free(&ds);
     pw_complib_free(&lib);

@@ -34,6 +34,8 @@ static void usage(FILE *f)
             "  --sigma-y DY          vapor mole fraction uncertainty (default: file or 0.004)\n"
             "  --exclude LINES       file line numbers to leave out, e.g. 12,15-17\n"
             "  --exclude-reason TEXT why they are left out (recorded in the fit file)\n"
+            "  --lle LLE.csv         measured tie lines (T[UNIT], x1_I, x1_II) fitted together with\n"
+            "                        the VLE data (not with wilson, which cannot split)\n"
             "  --json                print one JSON object on stdout\n",
             pw_model_names(names, sizeof names));
 }
@@ -138,6 +140,7 @@ static void print_table(const pw_fit_result *r, const char *path)
 int pw_cli_fit(int argc, char **argv)
 {
     const char *input = NULL, *model_name = NULL, *components = NULL, *out = NULL, *out_dir = NULL;
+    const char *lle_path = NULL;
     bool json = false;
     pw_fit_cli_opts co = {.force = false};
     co.fit = pw_fit_default_options();
@@ -172,7 +175,8 @@ int pw_cli_fit(int argc, char **argv)
                    pw_cli_opt(argc, argv, &i, "--sigma-P", &v, &missing) ||
                    pw_cli_opt(argc, argv, &i, "--sigma-y", &v, &missing) ||
                    pw_cli_opt(argc, argv, &i, "--exclude", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--exclude-reason", &v, &missing)) {
+                   pw_cli_opt(argc, argv, &i, "--exclude-reason", &v, &missing) ||
+                   pw_cli_opt(argc, argv, &i, "--lle", &v, &missing)) {
             const char *opt = argv[missing ? i : i - 1];
             if (missing)
                 return pw_cli_failf("fit", PW_EXIT_USAGE, "%s needs a value", opt);
@@ -190,6 +194,8 @@ int pw_cli_fit(int argc, char **argv)
                 snprintf(co.fit.exclude_reason, sizeof co.fit.exclude_reason, "%s", v);
             else if (!strcmp(opt, "--exclude"))
                 st = parse_lines(v, &co.fit, &err);
+            else if (!strcmp(opt, "--lle"))
+                lle_path = v;
             else if (!strcmp(opt, "--sigma-T")) {
                 st = temperature_difference(opt, v, &co.fit.sigma_T_K, &err);
             } else {
@@ -237,6 +243,15 @@ int pw_cli_fit(int argc, char **argv)
         return pw_cli_fail("fit", &err);
     co.lib = &lib;
     co.json = json;
+    pw_lle_dataset lle;
+    memset(&lle, 0, sizeof lle);
+    if (lle_path) {
+        if (pw_lle_dataset_read(lle_path, &lle, &err) != PW_OK) {
+            pw_complib_free(&lib);
+            return pw_cli_fail("fit", &err);
+        }
+        co.lle = &lle;
+    }
     int rc;
     if (S_ISDIR(sb.st_mode)) {
         if (!out_dir) {
@@ -266,6 +281,7 @@ int pw_cli_fit(int argc, char **argv)
             rc = pw_cli_fail("fit", &err);
         }
     }
+    pw_lle_dataset_free(&lle);
     pw_complib_free(&lib);
     return rc;
 }

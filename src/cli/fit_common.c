@@ -151,7 +151,12 @@ static void warn_fit(const pw_fit_result *r, const char *input)
                      "the parameters that way leaves the fit unchanged; the standard errors of the "
                      "parameters it involves are not meaningful (null)", input, combo);
     }
-    if (r->split)
+    if (r->n_three_phase || r->n_tie_lines)
+        pw_cli_warnf("fit", "%s: partly miscible liquids: %zu three-phase point%s and %zu tie line%s "
+                     "fitted as such (docs/heterogeneous.md); see pinchwise lle and decanter",
+                     input, r->n_three_phase, r->n_three_phase == 1 ? "" : "s", r->n_tie_lines,
+                     r->n_tie_lines == 1 ? "" : "s");
+    else if (r->split)
         pw_cli_warnf("fit",
                      "%s: the %s parameters predict a liquid-liquid split (d2(Gmix/RT)/dx1^2 = %.3g "
                      "at x1 = %.3f, %.1f K); if the liquids are known to mix, the fit is spurious",
@@ -211,8 +216,13 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
             st = pw_error_set(err, PW_EEXIST, path, 0,
                               "fit file exists (pass --force to replace it, or choose another --out)");
     }
+    pw_fit_options fo = co->fit;
+    pw_tie_line *swapped = NULL;
+    if (st == PW_OK && co->lle) /* tie lines: same components, in either order */
+        st = pw_fit_cli_tie_lines(co->lle, &ds, &fo, &swapped, err);
     if (st == PW_OK)
-        st = pw_fit_run(&ds, c1, c2, model, &co->fit, r, err);
+        st = pw_fit_run(&ds, c1, c2, model, &fo, r, err);
+    free(swapped);
     pw_dataset_free(&ds);
     if (st != PW_OK)
         return pw_status_exit_code(st);

@@ -5,6 +5,7 @@
 #include <jansson.h>
 #include <pinchwise/component.h>
 #include <pinchwise/fit.h>
+#include <pinchwise/lledata.h>
 #include <stdbool.h>
 #include <stddef.h>
 
@@ -14,6 +15,7 @@ typedef struct pw_fit_cli_opts {
     bool force, json;
     bool quiet; /* no warnings on stderr (batch workers collect them instead) */
     bool no_range_warning; /* data-range warnings already given (--model all: once, not per model) */
+    const pw_lle_dataset *lle; /* --lle: tie lines fitted with the VLE data (NULL: none) */
 } pw_fit_cli_opts;
 
 /* Reads input, fits model, writes the fit file (out, else out_dir/<stem>.<model>.json, else
@@ -22,6 +24,11 @@ typedef struct pw_fit_cli_opts {
 int pw_fit_one(const char *input, const pw_model_type *model, const char *out, const char *out_dir,
                const pw_fit_cli_opts *co, pw_fit_result *r, char *path, size_t path_len,
                pw_error *err);
+
+/* fit --lle: points fo at the tie lines of lle in the dataset's component order (a swapped copy
+ * in *swapped, which the caller frees, when the file names them the other way round). */
+pw_status pw_fit_cli_tie_lines(const pw_lle_dataset *lle, const pw_dataset *ds,
+                               pw_fit_options *fo, pw_tie_line **swapped, pw_error *err);
 
 /* The --json object of one fit: the fit file without the data and component blocks, plus
  * "fit_file". New reference. */

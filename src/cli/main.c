@@ -14,6 +14,8 @@ static const pw_cli_command commands[] = {
     {"reflux", "minimum reflux, pinch, and stages of a binary column", pw_cli_reflux},
     {"screen", "quick feasibility verdict for a split", pw_cli_screen},
     {"report", "self-contained HTML report of a fit (and a column)", pw_cli_report},
+    {"lle", "liquid-liquid split (two layers) of a fitted model at a temperature", pw_cli_lle},
+    {"decanter", "decanter and two stripping columns for a partly miscible binary", pw_cli_decanter},
 };
 
 static void usage(FILE *f)

@@ -4,6 +4,7 @@
 
 #include <math.h>
 #include <pinchwise/curve.h>
+#include <pinchwise/decanter.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>

@@ -5,6 +5,7 @@
 #include <pinchwise/api.h>
 #include <pinchwise/commands.h>
 #include <pinchwise/fitjson.h>
+#include <pinchwise/hetcheck.h>
 #include <pinchwise/units.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -186,10 +187,18 @@ pw_status pw_api_check(const char *data, const char *components, int strict, cha
     pw_consistency_options o = pw_consistency_default_options();
     o.strict_verdict = strict != 0;
     st = pw_dataset_components(&lib, &ds, found, err);
+    /* points inside the two-liquid region: out of the one-liquid tests */
+    pw_het_check het;
+    pw_dataset one;
+    memset(&het, 0, sizeof het);
+    memset(&one, 0, sizeof one);
+    if (st == PW_OK && pw_het_check_run(&ds, &found[0], &found[1], &one, &het) != PW_OK)
+        st = pw_error_set(err, PW_ENOMEM, ds.path, 0, "out of memory");
     if (st == PW_OK)
-        st = pw_consistency_run(&ds, &found[0], &found[1], &o, &r, err);
+        st = pw_consistency_run(het.n ? &one : &ds, &found[0], &found[1], &o, &r, err);
     if (st == PW_OK)
-        st = finish(pw_check_doc(&ds, &r, strict != 0), doc, err);
+        st = finish(pw_check_doc(&ds, &r, strict != 0, &het), doc, err);
+    pw_het_check_free(&het, &one);
     pw_consistency_result_free(&r);
     pw_dataset_free(&ds);
     pw_complib_free(&lib);
@@ -228,6 +237,14 @@ pw_status pw_api_azeotrope(const char *fit_path, const char *fit_text, const cha
             pw_error_set(err, st, fit_where(fit_path, name), 0,
                          "azeotrope search failed near x1 = %.4g: %s", r.fail_x1, pw_strerror(st));
     }
+    pw_three_phase tp;
+    memset(&tp, 0, sizeof tp);
+    if (st == PW_OK) {
+        st = pw_azeotrope_heterogeneous(&fit.sys, (int)mode, fixed, &r, &tp, NULL);
+        if (st != PW_OK)
+            pw_error_set(err, st, fit_where(fit_path, name), 0,
+                         "three-phase (two liquids and vapor) search failed: %s", pw_strerror(st));
+    }
     bool unc = false;
     pw_unc_options uo;
     pw_unc_result res[PW_AZ_MAX];
@@ -236,7 +253,7 @@ pw_status pw_api_azeotrope(const char *fit_path, const char *fit_text, const cha
     if (st == PW_OK && unc)
         st = pw_azeotrope_unc_run(&fit, &r, &uo, res, err);
     if (st == PW_OK) {
-        json_t *o = pw_azeotrope_doc(&fit.sys, mode, fixed, &r, NULL);
+        json_t *o = pw_azeotrope_doc(&fit.sys, mode, fixed, &r, NULL, &tp, NULL);
         if (o && unc)
             pw_azeotrope_unc_doc(json_object_get(o, "azeotropes"), &r, res, r.n, uo.seed);
         st = finish(o, doc, err);

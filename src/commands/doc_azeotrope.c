@@ -1,6 +1,7 @@
 /* The `azeotrope --json` document (moved from src/cli/cmd_azeotrope.c and
  * src/cli/analysis_common.c). */
 #include <pinchwise/commands.h>
+#include <pinchwise/lle.h>
 
 json_t *pw_azeotrope_entry_json(const pw_azeotrope *az)
 {
@@ -16,12 +17,34 @@ json_t *pw_azeotrope_entry_json(const pw_azeotrope *az)
     return o;
 }
 
-static json_t *result_json(const pw_az_result *r)
+/* The azeotropes of r (homogeneous), then the heterogeneous one of tp (the three-phase line with
+ * the vapor between the layers) when there is one: x1 is then the vapor's composition, T_K and
+ * P_kPa the three-phase condition, x1_liquids the layers. */
+static json_t *result_json(const pw_az_result *r, const pw_three_phase *tp)
 {
     json_t *list = json_array();
-    for (size_t i = 0; i < r->n; i++)
-        json_array_append_new(list, pw_azeotrope_entry_json(&r->az[i]));
+    for (size_t i = 0; i < r->n; i++) {
+        json_t *e = pw_azeotrope_entry_json(&r->az[i]);
+        json_object_set_new(e, "heterogeneous", json_false());
+        json_array_append_new(list, e);
+    }
+    if (tp && tp->exists && tp->heterogeneous_azeotrope)
+        json_array_append_new(
+            list, json_pack("{s:o,s:o,s:o,s:s,s:b,s:[o,o]}", "x1", pw_json_num(tp->y1), "T_K",
+                            pw_json_num(tp->T_K), "P_kPa", pw_json_num(tp->P_Pa / 1000.0),
+                            "kind", "minimum-boiling", "heterogeneous", 1, "x1_liquids",
+                            pw_json_num(tp->x[0]), pw_json_num(tp->x[1])));
     return list;
+}
+
+static json_t *three_phase_json(const pw_three_phase *tp)
+{
+    if (!tp || !tp->exists)
+        return json_null();
+    return json_pack("{s:o,s:o,s:[o,o],s:o,s:b}", "T_K", pw_json_num(tp->T_K), "P_kPa",
+                     pw_json_num(tp->P_Pa / 1000.0), "x1_liquids", pw_json_num(tp->x[0]),
+                     pw_json_num(tp->x[1]), "y1", pw_json_num(tp->y1),
+                     "heterogeneous_azeotrope", tp->heterogeneous_azeotrope);
 }
 
 static json_t *touch_json(const pw_az_result *r)
@@ -36,7 +59,7 @@ static json_t *touch_json(const pw_az_result *r)
     return list;
 }
 
-static json_t *scan_json(const pw_az_scan *sc)
+static json_t *scan_json(const pw_az_scan *sc, const pw_three_phase *tps)
 {
     bool isP = sc->mode == PW_AZ_ISOBARIC;
     json_t *o = json_object(), *pts = json_array(), *bnd = json_array();
@@ -45,7 +68,7 @@ static json_t *scan_json(const pw_az_scan *sc)
         json_t *p = json_object();
         json_object_set_new(p, isP ? "P_kPa" : "T_K",
                             pw_json_num(isP ? sc->at[k] / 1000.0 : sc->at[k]));
-        json_object_set_new(p, "azeotropes", result_json(&sc->points[k]));
+        json_object_set_new(p, "azeotropes", result_json(&sc->points[k], tps ? &tps[k] : NULL));
         json_array_append_new(pts, p);
     }
     for (size_t k = 0; k < sc->n_boundaries; k++) {
@@ -63,10 +86,11 @@ static json_t *scan_json(const pw_az_scan *sc)
 }
 
 json_t *pw_azeotrope_doc(const pw_system *sys, pw_az_mode mode, double fixed,
-                         const pw_az_result *r, const pw_az_scan *sc)
+                         const pw_az_result *r, const pw_az_scan *sc, const pw_three_phase *tp,
+                         const pw_three_phase *tps)
 {
     json_t *o = json_object();
-    json_t *list = result_json(r);
+    json_t *list = result_json(r, tp);
     json_object_set_new(o, "azeotropes", list);
     json_object_set_new(o, "mode", json_string(mode == PW_AZ_ISOBARIC ? "isobaric"
                                                                         : "isothermal"));
@@ -80,7 +104,8 @@ json_t *pw_azeotrope_doc(const pw_system *sys, pw_az_mode mode, double fixed,
     json_object_set_new(o, "near_tangential", touch_json(r));
     json_object_set_new(o, "ln_alpha_ends", json_pack("[o,o]", pw_json_num(r->ln_alpha_end[0]),
                                                       pw_json_num(r->ln_alpha_end[1])));
-    json_object_set_new(o, "scan", sc ? scan_json(sc) : json_null());
+    json_object_set_new(o, "scan", sc ? scan_json(sc, tps) : json_null());
+    json_object_set_new(o, "three_phase", three_phase_json(tp));
     json_object_set_new(o, "caution", json_string(pw_caution_text()));
     return o;
 }

@@ -1,6 +1,7 @@
 /* The `check --json` document (moved from src/cli/cmd_check.c). */
 #include <math.h>
 #include <pinchwise/commands.h>
+#include <pinchwise/hetcheck.h>
 #include <stdio.h>
 
 static const char *const cautions[] = {
@@ -68,7 +69,29 @@ static json_t *test_details(const pw_consistency_result *r, const pw_ctest *t)
     return d;
 }
 
-json_t *pw_check_doc(const pw_dataset *ds, const pw_consistency_result *r, bool strict)
+const char *pw_het_check_reason(void)
+{
+    return "inside the two-liquid region (a plateau of equal T or P and equal y over a range of "
+           "x): left out of the consistency tests, which assume one liquid; checked instead "
+           "against the activity bound y_i P <= P_i^sat(T) (docs/heterogeneous.md)";
+}
+
+static json_t *het_json(const pw_het_check *h)
+{
+    json_t *pts = json_array();
+    for (size_t i = 0; i < h->n; i++)
+        json_array_append_new(pts, json_pack("{s:I,s:o,s:o,s:[o,o]}", "line",
+                                             (json_int_t)h->pts[i].line, "x1",
+                                             pw_json_num(h->pts[i].x1), "y1",
+                                             pw_json_num(h->pts[i].y1), "activity_bound",
+                                             pw_json_num(h->pts[i].bound[0]),
+                                             pw_json_num(h->pts[i].bound[1])));
+    return json_pack("{s:o,s:s,s:o,s:b}", "points", pts, "reason", pw_het_check_reason(),
+                     "max_activity", pw_json_num(h->max_bound), "activity_bound_ok", h->bound_ok);
+}
+
+json_t *pw_check_doc(const pw_dataset *ds, const pw_consistency_result *r, bool strict,
+                     const pw_het_check *het)
 {
     json_t *o = json_object(), *tests = json_array(), *not_run = json_array();
     for (int i = 0; i < PW_CTEST_COUNT; i++) {
@@ -173,5 +196,7 @@ json_t *pw_check_doc(const pw_dataset *ds, const pw_consistency_result *r, bool 
     for (size_t i = 0; i < sizeof cautions / sizeof cautions[0]; i++)
         json_array_append_new(cj, json_string(cautions[i]));
     json_object_set_new(o, "cautions", cj);
+    if (het)
+        json_object_set_new(o, "three_phase_points", het_json(het));
     return o;
 }

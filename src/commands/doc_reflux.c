@@ -2,6 +2,8 @@
  * and src/cli/reflux_common.c). */
 #include <math.h>
 #include <pinchwise/commands.h>
+#include <pinchwise/decanter.h>
+#include <pinchwise/lle.h>
 #include <pinchwise/curve.h>
 #include <pinchwise/equilibrium.h>
 #include <string.h>
@@ -24,6 +26,18 @@ pw_status pw_reflux_solve(const pw_system *sys, double P_Pa, const pw_column_spe
     if (st == PW_OK) {
         pw_curve curve = pw_system_curve_bind(&sc);
         st = pw_column_solve(&curve, spec, opt, col);
+    }
+    if (st == PW_OK) { /* a heterogeneous azeotrope between the targets: the decanter scheme */
+        pw_three_phase tp;
+        bool blocked = false;
+        char why[PW_REASON_MAX];
+        double lo = fmin(spec->xb, spec->xd), hi = fmax(spec->xb, spec->xd);
+        st = pw_column_hetero_block(sys, P_Pa, lo, hi, &tp, &blocked, why, sizeof why);
+        if (st == PW_OK && blocked) {
+            memcpy(col->reason, why, sizeof why);
+            col->feasible = false;
+            col->n_design = 0;
+        }
     }
     if (st != PW_OK) {
         pw_error_set(err, st, where, 0, "%s%s%s", pw_strerror(st),

@@ -3,6 +3,7 @@
 #include "fit_internal.h"
 
 #include <math.h>
+#include <pinchwise/lle.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -69,12 +70,33 @@ pw_status pw_fit_evaluate(pw_fit_result *r)
     stat_init(&dP);
     size_t n_used = 0;
     pw_status first_failure = PW_OK;
+    /* three-phase points (docs/heterogeneous.md): one three-phase state for all of them */
+    pw_three_phase tp = {.exists = false};
+    double T3 = 0.0;
+    size_t n3 = 0;
+    for (size_t i = 0; i < r->n_pts; i++)
+        if (r->pts[i].three_phase) {
+            T3 += r->pts[i].meas.T_K;
+            n3++;
+        }
+    if (n3 && (isobaric ? pw_three_phase_at_P_near(&r->sys, r->P_fixed_Pa, T3 / (double)n3, &tp)
+                        : pw_three_phase_at_T(&r->sys, r->T_fixed_K, &tp)) != PW_OK)
+        tp.exists = false;
     for (size_t i = 0; i < r->n_pts; i++) {
         pw_fit_point *fpnt = &r->pts[i];
         const pw_point *m = &fpnt->meas;
         pw_eq_point eq;
-        pw_status pst = isobaric ? pw_bubble_T_from(&r->sys, m->P_Pa, m->x1, m->T_K, &eq)
-                                 : pw_bubble_P(&r->sys, m->T_K, m->x1, &eq);
+        pw_status pst;
+        if (fpnt->three_phase && tp.exists) {
+            memset(&eq, 0, sizeof eq);
+            eq.T_K = tp.T_K;
+            eq.P_Pa = tp.P_Pa;
+            eq.y1 = tp.y1;
+            pst = PW_OK;
+        } else {
+            pst = isobaric ? pw_bubble_T_from(&r->sys, m->P_Pa, m->x1, m->T_K, &eq)
+                           : pw_bubble_P(&r->sys, m->T_K, m->x1, &eq);
+        }
         fpnt->T_calc_K = pst == PW_OK ? eq.T_K : (double)NAN;
         fpnt->P_calc_Pa = pst == PW_OK ? eq.P_Pa : (double)NAN;
         fpnt->y_calc = pst == PW_OK ? eq.y1 : (double)NAN;

@@ -31,6 +31,8 @@ pw_fit_options pw_fit_default_options(void)
     o.max_iter = 200;
     o.xtol = pow(DBL_EPSILON, 0.6);       /* about 4e-10 relative step */
     o.gtol = pow(DBL_EPSILON, 2.0 / 3.0); /* about 4e-11 scaled gradient */
+    o.sigma_x_lle = NAN;
+    o.three_phase_points = true;
     return o;
 }
 
@@ -272,15 +274,27 @@ static pw_status build_problem(const pw_fit_result *r, fit_problem *fp, pw_point
             fp->scale[fp->n_fit] = param_scale(r->sys.model, k);
             fp->n_fit++;
         }
-    *used = malloc(sizeof(pw_point) * (r->n_pts ? r->n_pts : 1));
+    /* one block: the used points, then their three-phase flags (freed together) */
+    size_t cap = r->n_pts ? r->n_pts : 1;
+    *used = malloc(sizeof(pw_point) * cap + sizeof(bool) * cap);
     if (!*used)
         return PW_ENOMEM;
-    size_t n = 0;
+    bool *tp = (bool *)(*used + cap);
+    size_t n = 0, n_tp = 0;
+    double T3 = 0.0;
     for (size_t i = 0; i < r->n_pts; i++)
-        if (!r->pts[i].excluded && !fit_is_pure(&r->pts[i].meas))
+        if (!r->pts[i].excluded && !fit_is_pure(&r->pts[i].meas)) {
+            tp[n] = r->pts[i].three_phase;
+            if (tp[n]) {
+                T3 += r->pts[i].meas.T_K;
+                n_tp++;
+            }
             (*used)[n++] = r->pts[i].meas;
+        }
     fp->pts = *used;
     fp->n_pts = n;
+    fp->three_phase = n_tp ? tp : NULL;
+    fp->T3_guess_K = n_tp ? T3 / (double)n_tp : (double)NAN;
     fp->n_res = n * fit_residuals_per_point(fp->objective);
     return PW_OK;
 }
@@ -463,6 +477,8 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     if (o.max_iter < 1)
         return pw_error_set(err, PW_EINVAL, ds->path, 0, "the iteration limit must be at least 1");
     pw_status st = init_result(ds, c1, c2, model, &o, out, err);
+    if (st == PW_OK)
+        st = fit_het_setup(ds, &o, out, err);
     if (st != PW_OK) {
         pw_fit_result_free(out);
         return st;
@@ -470,6 +486,12 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     fit_problem fp;
     pw_point *used = NULL;
     st = build_problem(out, &fp, &used);
+    if (st == PW_OK && o.n_tie_lines) {
+        fp.ties = o.tie_lines;
+        fp.n_ties = o.n_tie_lines;
+        fp.sigma_x_lle = out->sigma_x_lle;
+        fp.n_res += 2 * o.n_tie_lines;
+    }
     double *J = st == PW_OK ? malloc(sizeof(double) * fp.n_res * fp.n_fit) : NULL;
     gsl_rng *rng = gsl_rng_alloc(gsl_rng_mt19937);
     gsl_multifit_nlinear_parameters params = gsl_multifit_nlinear_default_parameters();
@@ -555,6 +577,9 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
      * the first that predicts no liquid split over the data's temperature range. */
     out->n_residuals = fp.n_res;
     size_t competing = best.cls == RUN_STATIONARY ? pw_fit_competing_minima(out) : 0;
+    /* (not for partly miscible data, where the split is measured) */
+    if (out->n_three_phase || out->n_tie_lines)
+        competing = 0;
     for (size_t i = 0; competing > 1 && i < competing; i++) {
         pw_system s = out->sys;
         memcpy(s.params, out->minima[i].params, sizeof s.params);
@@ -625,6 +650,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
         out->fit_class = PW_FIT_UNIDENTIFIABLE;
     out->converged = out->fit_class == PW_FIT_MINIMUM || out->fit_class == PW_FIT_EXACT ||
                      out->fit_class == PW_FIT_UNIDENTIFIABLE;
+    fit_het_finish(&fp, out);
     free(used);
     free(J);
     gsl_rng_free(rng);

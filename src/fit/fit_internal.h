@@ -16,6 +16,13 @@ typedef struct fit_problem {
     size_t n_res;               /* residuals: 1 or 2 per point */
     double sigma_T_K, sigma_P_rel, sigma_P_abs_Pa, sigma_y;
     double P_fixed_Pa, T_fixed_K;
+    /* Partly miscible liquids (objective_het.c): which used points are three-phase points
+     * (NULL: none) with a temperature guess for their three-phase state, and the tie lines. */
+    const bool *three_phase;
+    double T3_guess_K;
+    const pw_tie_line *ties;
+    size_t n_ties;
+    double sigma_x_lle;
 } fit_problem;
 
 /* A pure-component row (x1 = 0 or 1): no information on the activity parameters. */
@@ -36,6 +43,38 @@ void fit_unpack(const fit_problem *fp, const double *u, double *params);
 /* Weighted residuals f (n_res) and, when J is not NULL, their Jacobian in the internal
  * unknowns, row-major n_res x n_fit. Returns the first failing status of a point. */
 pw_status fit_eval(const fit_problem *fp, const double *params, double *f, double *J);
+
+/* The three-phase state of the system at the problem's fixed P (or T) with its parameter
+ * derivatives, computed once per evaluation. */
+typedef struct fit_het_state {
+    bool exists;
+    double T_K, P_Pa, y1;
+    double dM[PW_MAX_PARAMS];  /* d(T3)/du_j (isobaric) or d(P3)/du_j (isothermal) */
+    double dy[PW_MAX_PARAMS];  /* d(y3)/du_j */
+} fit_het_state;
+
+/* Fills h at params (with derivatives when want_J). A state that does not exist (no split) is
+ * PW_OK with h->exists false: the caller then uses the one-liquid bubble point. */
+pw_status fit_het_state_eval(const fit_problem *fp, const pw_system *s, bool want_J,
+                             fit_het_state *h);
+
+/* Residuals of one three-phase point from h: (T3 - T)/sigma_T or (P3 - P)/sigma_P, and
+ * (y3 - y)/sigma_y when the objective has y; rows of J when J is not NULL. */
+void fit_het_point(const fit_problem *fp, const fit_het_state *h, const pw_point *pt, double *f,
+                   double *J);
+
+/* Residuals of the tie lines (two per line, both layers) and their rows of J. A trial set that
+ * does not split at a tie line's T gets both layers at the composition of the smallest
+ * d2(Gmix/RT)/dx^2 (continuous at the critical point) and zero derivative rows. */
+pw_status fit_ties_eval(const fit_problem *fp, const pw_system *s, double *f, double *J);
+
+/* After init: refuses tie lines for a model that cannot split, sets sigma_x_lle, and marks the
+ * three-phase points of the data (pw_three_phase_detect; with a model that cannot split they are
+ * left out instead, and exclude_reason says so). */
+pw_status fit_het_setup(const pw_dataset *ds, const pw_fit_options *o, pw_fit_result *r,
+                        pw_error *err);
+/* After the fit: r->aad_x_lle from the tie lines. */
+void fit_het_finish(const fit_problem *fp, pw_fit_result *r);
 
 /* Sum of squares of the weighted residuals at params; INFINITY when a point fails. */
 double fit_chi2(const fit_problem *fp, const double *params, double *work);

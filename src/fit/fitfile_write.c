@@ -214,6 +214,11 @@ json_t *pw_fitfile_to_json(const pw_fit_result *r)
     json_object_set_new(split, "x1_at_min", num(r->split_x));
     json_object_set_new(split, "T_K_at_min", num(r->split_T_K));
     json_object_set_new(o, "liquid_split", split);
+    json_object_set_new(o, "three_phase_points", json_integer((json_int_t)r->n_three_phase));
+    if (r->n_tie_lines)
+        json_object_set_new(o, "lle", json_pack("{s:I,s:o,s:o}", "tie_lines",
+                                                (json_int_t)r->n_tie_lines, "sigma_x",
+                                                num(r->sigma_x_lle), "aad_x", num(r->aad_x_lle)));
 
     json_t *range = json_object();
     json_object_set_new(range, "T_min_K", num(r->T_min_K));
@@ -240,6 +245,8 @@ json_t *pw_fitfile_to_json(const pw_fit_result *r)
         json_object_set_new(pj, "T_K", num(p->meas.T_K));
         json_object_set_new(pj, "P_Pa", num(p->meas.P_Pa));
         json_object_set_new(pj, "excluded", json_boolean(p->excluded));
+        if (p->three_phase)
+            json_object_set_new(pj, "three_phase", json_true());
         json_object_set_new(pj, "T_calc_K", num(p->T_calc_K));
         json_object_set_new(pj, "P_calc_Pa", num(p->P_calc_Pa));
         json_object_set_new(pj, "y1_calc", num(p->y_calc));

@@ -109,13 +109,25 @@ pw_status fit_eval(const fit_problem *fp, const double *params, double *f, doubl
         return st;
     size_t m = fit_residuals_per_point(fp->objective);
     bool isobaric = fp->objective == PW_OBJ_TXY || fp->objective == PW_OBJ_TX;
+    fit_het_state het = {.exists = false};
+    if (fp->three_phase) { /* three-phase points: one state per evaluation (objective_het.c) */
+        st = fit_het_state_eval(fp, &s, J != NULL, &het);
+        if (st != PW_OK)
+            return st;
+    }
     for (size_t i = 0; i < fp->n_pts; i++) {
         double *Ji = J ? J + i * m * fp->n_fit : NULL;
+        if (fp->three_phase && fp->three_phase[i] && het.exists) {
+            fit_het_point(fp, &het, &fp->pts[i], f + i * m, Ji);
+            continue;
+        }
         st = isobaric ? eval_isobaric(fp, &s, &fp->pts[i], f + i * m, Ji)
                       : eval_isothermal(fp, &s, &fp->pts[i], f + i * m, Ji);
         if (st != PW_OK)
             return st;
     }
+    if (fp->n_ties)
+        return fit_ties_eval(fp, &s, f + fp->n_pts * m, J ? J + fp->n_pts * m * fp->n_fit : NULL);
     return PW_OK;
 }
 

@@ -6,6 +6,7 @@
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/curve.h>
 #include <pinchwise/equilibrium.h>
+#include <pinchwise/lle.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -31,6 +32,13 @@ static size_t azeotropes(const pw_system *s, bool isothermal, double fixed, pw_r
         *kept = res;
     if (st != PW_OK)
         return 0;
+    /* partly miscible liquids: drop crossings inside the two-liquid region, add a heterogeneous
+     * azeotrope (docs/heterogeneous.md) */
+    pw_three_phase tp = {.exists = false};
+    if (pw_model_can_split(s->model)
+        && pw_azeotrope_heterogeneous(s, isothermal ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC, fixed,
+                                      &res, &tp, NULL) == PW_OK)
+        *kept = res;
     size_t k = 0;
     for (size_t i = 0; i < res.n && k < max; i++, k++) {
         out[k].x1 = res.az[i].x1;
@@ -38,6 +46,14 @@ static size_t azeotropes(const pw_system *s, bool isothermal, double fixed, pw_r
         out[k].P_Pa = res.az[i].P_Pa;
         out[k].min_boiling = res.az[i].kind == PW_AZ_MINIMUM_BOILING;
         out[k].tangential = res.az[i].tangential;
+    }
+    if (tp.exists && tp.heterogeneous_azeotrope && k < max) {
+        out[k].x1 = tp.y1;
+        out[k].T_K = tp.T_K;
+        out[k].P_Pa = tp.P_Pa;
+        out[k].min_boiling = true;
+        out[k].tangential = false;
+        k++;
     }
     return k;
 }
@@ -47,12 +63,23 @@ static void data_curves(pw_report_curves *c)
     const pw_fit_result *r = c->fit;
     const pw_system *s = &r->sys;
     double fixed = c->isothermal ? r->T_fixed_K : r->P_fixed_Pa;
+    /* an overall liquid inside the two-liquid region boils at the three-phase condition: the
+     * bubble curve is flat there (docs/heterogeneous.md) */
+    pw_three_phase tp = {.exists = false};
+    if (pw_model_can_split(s->model)
+        && (c->isothermal ? pw_three_phase_at_T(s, fixed, &tp) : pw_three_phase_at_P(s, fixed, &tp))
+               != PW_OK)
+        tp.exists = false;
     for (size_t i = 0; i < PW_REPORT_GRID; i++) {
         double x = c->x[i];
         pw_eq_point e;
         c->bub_T[i] = c->bub_P[i] = c->bub_y[i] = PW_NAN;
         c->lg1[i] = c->lg2[i] = PW_NAN;
-        if (bubble(s, c->isothermal, fixed, x, &e) == PW_OK) {
+        if (tp.exists && x > tp.x[0] && x < tp.x[1]) {
+            c->bub_T[i] = tp.T_K;
+            c->bub_P[i] = tp.P_Pa;
+            c->bub_y[i] = tp.y1;
+        } else if (bubble(s, c->isothermal, fixed, x, &e) == PW_OK) {
             c->bub_T[i] = e.T_K;
             c->bub_P[i] = e.P_Pa;
             c->bub_y[i] = e.y1;

@@ -7,6 +7,7 @@
 #include <math.h>
 #include <pinchwise/assess.h>
 #include <pinchwise/dataset.h>
+#include <stdio.h>
 #include <string.h>
 
 static void classes_and_weights(void **state)
@@ -46,7 +47,18 @@ static void classes_and_weights(void **state)
     assert_int_equal(rk.rows[2].cls, PW_RANK_DROPPED);
     assert_int_equal(rk.rows[4].index, 2);
     assert_int_equal(rk.rows[4].cls, PW_RANK_UNSOUND);
-    f[3].n_residuals = 28; /* different data */
+    /* a fit of fewer residuals (a model that leaves three-phase points out) ranks last, whatever
+     * its AICc, and takes no weight */
+    f[1].n_residuals = 24;
+    assert_int_equal(pw_rank_fits(fp, 5, &rk), PW_OK);
+    assert_int_equal(rk.rows[4].index, 1);
+    assert_int_equal(rk.rows[4].cls, PW_RANK_FEWER);
+    assert_true(rk.rows[4].weight == 0.0 && isnan(rk.rows[4].delta_aicc));
+    assert_int_equal(rk.rows[0].index, 0);
+    assert_int_equal(rk.rows[0].cls, PW_RANK_BEST);
+    f[1].n_residuals = 30;
+    snprintf(f[0].dataset_sha256, sizeof f[0].dataset_sha256, "%064d", 1); /* different data */
+    snprintf(f[3].dataset_sha256, sizeof f[3].dataset_sha256, "%064d", 2);
     assert_int_equal(pw_rank_fits(fp, 5, &rk), PW_EINVAL);
     assert_int_equal(pw_rank_fits(fp, 0, &rk), PW_EINVAL);
 }

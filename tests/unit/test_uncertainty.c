@@ -376,7 +376,8 @@ static void model_classes_by_aicc(void **state)
     assert_int_equal(pw_unc_compare_models(fp, 4, first_param_fn, NULL, 1, &m), PW_OK);
     assert_int_equal(m.best, 1);
     assert_int_equal(m.rows[3].cls, PW_UNC_MODEL_DROPPED);
-    f[3].n_residuals = 28; /* different data */
+    snprintf(f[0].dataset_sha256, sizeof f[0].dataset_sha256, "%064d", 1); /* different data */
+    snprintf(f[3].dataset_sha256, sizeof f[3].dataset_sha256, "%064d", 2);
     assert_int_equal(pw_unc_compare_models(fp, 4, first_param_fn, NULL, 1, &m), PW_EINVAL);
 }
 

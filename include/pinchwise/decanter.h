@@ -1,0 +1,94 @@
+/* The two-column scheme for a partly miscible binary with a heterogeneous azeotrope, and the
+ * single column's refusal to cross one.
+ *
+ * Scheme (METHODS2 4.1, constant molal overflow): fresh feed F (x1 = z, thermal condition q) and
+ * both condensed overhead vapors enter one decanter at the three-phase temperature T3; the layer
+ * rich in component 1 (x_II) is the liquid top feed of stripping column A (bottoms x_rich > x_II),
+ * the other layer (x_I) tops stripping column B (bottoms x_lean < x_I). Each column has a partial
+ * reboiler and no condenser of its own. With boil-up ratio S = V/B the operating line of either
+ * column is y = x + (x - x_B)/S (x_B its bottoms), and
+ *     S_min = max over x between x_B and the top layer of (x - x_B)/(y*(x) - x),
+ * reached at the top (the layer's vapor is the three-phase vapor y3: a top pinch) or inside the
+ * column (a tangent pinch). The maximum is found on a grid of `grid` points per column with every
+ * interior grid maximum and the top end refined by GSL Brent minimisation. Stages are stepped from
+ * the top on the single-liquid branch of the curve (the partial reboiler counted, the last step
+ * fractional as in pw_column_total_reflux). q changes no flow (the feed enters the decanter).
+ * Methods and sources: docs/heterogeneous.md. */
+#ifndef PINCHWISE_DECANTER_H
+#define PINCHWISE_DECANTER_H
+
+#include <pinchwise/column.h>
+#include <pinchwise/equilibrium.h>
+#include <pinchwise/lle.h>
+#include <pinchwise/status.h>
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/* A stripping column fed with saturated liquid x_top on its top stage. */
+typedef struct pw_stripper_spec {
+    double x_top;     /* liquid fed to the top stage */
+    double x_bottom;  /* bottoms */
+} pw_stripper_spec;
+
+typedef struct pw_stripper_result {
+    bool feasible;
+    char reason[PW_REASON_MAX];
+    double boilup_min;          /* S_min = V/B */
+    bool tangent;               /* the limit lies inside the column, not at its top */
+    double x_pinch, y_pinch;    /* where the operating line at S_min touches the curve */
+    double n_min;               /* stages at total boil-up (S -> infinity) */
+    double y_top_min;           /* vapor leaving the top at S_min */
+    size_t n_design;
+    struct {
+        double factor, boilup, stages, y_top;
+    } design[PW_COLUMN_MAX_FACTORS];
+} pw_stripper_result;
+
+/* Minimum boil-up, n_min and the design rows (opt->factors) of one stripping column on the
+ * equilibrium curve y*(x) (any pw_curve: a fitted model, or a closed form in tests). The curve
+ * is evaluated on the side of x_top towards x_bottom and beyond to the pure end; it must not
+ * reach y* = x strictly between x_bottom and x_top (feasible false with a reason otherwise).
+ * opt may be NULL for the defaults (grid 2000 here at least). */
+pw_status pw_stripper_solve(const pw_curve *curve, const pw_stripper_spec *spec,
+                            const pw_column_options *opt, pw_stripper_result *out);
+
+/* Stages from the top at boil-up S (INFINITY for total boil-up), fractional last step.
+ * PW_EINFEASIBLE when S is at or below the minimum (no progress, or the operating line beyond
+ * the curve), PW_EMAXITER beyond max_stages. */
+pw_status pw_stripper_stages(const pw_curve *curve, const pw_stripper_spec *spec, double S,
+                             size_t max_stages, double *stages);
+
+typedef struct pw_decanter_spec {
+    double P_Pa, zf, q;
+    double x_rich, x_lean;      /* bottoms of column A (rich in 1) and of column B */
+} pw_decanter_spec;
+
+typedef struct pw_decanter_result {
+    bool feasible;
+    char reason[PW_REASON_MAX];
+    pw_three_phase decanter;    /* T3, layers x[0] < x[1], vapor y1 */
+    pw_stripper_result col[2];  /* [0]: column A (layer II -> x_rich), [1]: column B */
+    double top_x1[2];           /* x_II, x_I */
+    double bottoms_per_mol_feed[2]; /* B_A/F, B_B/F */
+    double closure;             /* |component balance of the decanter| at the first design row,
+                                 * per mole of feed */
+} pw_decanter_result;
+
+/* Sizes the scheme at P for the fitted system (its curve y*(x) by pw_system_curve). Infeasible
+ * specifications are PW_OK with feasible false and a reason. Errors: PW_EINVAL for values
+ * outside (0, 1) or P not positive; solver failures. */
+pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *spec,
+                            const pw_column_options *opt, pw_decanter_result *out);
+
+/* The single column's check: when a heterogeneous azeotrope at P lies strictly between x_a and
+ * x_b (either order), *blocked is true and reason says why and names the decanter scheme; tp
+ * receives the three-phase state (tp->exists false when there is none). */
+pw_status pw_column_hetero_block(const pw_system *s, double P_Pa, double x_a, double x_b,
+                                 pw_three_phase *tp, bool *blocked, char *reason, size_t len);
+
+#ifdef __cplusplus
+}
+#endif
+#endif

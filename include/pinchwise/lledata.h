@@ -1,0 +1,62 @@
+/* Measured liquid-liquid tie lines of a binary (the LLE file of `fit --lle`).
+ *
+ * CSV (libcsv) with the dataset file's "# key: value" metadata lines before the header row:
+ * "# components: NAME1, NAME2" is required; "# pressure: VALUE UNIT" is optional and only
+ * informational; "# source:" optional; "# sigma_x: VALUE" is the standard uncertainty of a layer
+ * mole fraction (default PW_LLE_SIGMA_X_DEFAULT). Header row: T[UNIT], x1_I, x1_II in any order
+ * (further columns ignored); each row one tie line, x1_I < x1_II mole fractions of NAME1 in the
+ * two layers, strictly between 0 and 1. Errors name the file and line. */
+#ifndef PINCHWISE_LLEDATA_H
+#define PINCHWISE_LLEDATA_H
+
+#include <pinchwise/component.h>
+#include <pinchwise/dataset.h>
+#include <pinchwise/status.h>
+#include <stdbool.h>
+#include <stddef.h>
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/* Default sigma_x of a tie-line composition: 0.005, the upper end of the 0.002-0.005 METHODS2
+ * 2.9 suggests (a suggestion of that brief, not a published rule). */
+#define PW_LLE_SIGMA_X_DEFAULT 0.005
+#define PW_LLE_MAX_ROWS 10000
+
+typedef struct pw_tie_line {
+    double T_K, x_I, x_II;
+    long line;
+} pw_tie_line;
+
+typedef struct pw_lle_dataset {
+    char path[PW_PATH_MAX];
+    char names[2][PW_NAME_MAX];
+    double P_Pa;               /* NAN when not given */
+    double sigma_x;
+    bool sigma_x_given;
+    char source[PW_SOURCE_MAX];
+    pw_tie_line *rows;
+    size_t n;
+} pw_lle_dataset;
+
+pw_status pw_lle_dataset_read(const char *path, pw_lle_dataset *out, pw_error *err);
+pw_status pw_lle_dataset_parse(const char *buf, size_t len, const char *name, pw_lle_dataset *out,
+                               pw_error *err);
+/* Swaps the components (x -> 1 - x, layers exchanged), for a file written in the other order. */
+void pw_lle_dataset_swap(pw_lle_dataset *d);
+void pw_lle_dataset_free(pw_lle_dataset *d);
+
+/* Three-phase points of a VLE set (METHODS2 3.7: a plateau of equal T, or P, and equal y over a
+ * range of x): two mixture points are linked when their measured T (isobaric; P when
+ * isothermal) differ by at most max(sigma_T, 0.05 K) (max(sigma_P, 0.01 %) relative) and their
+ * y by at most max(sigma_y, 0.002); every linked group whose x spans at least 0.05 is a
+ * plateau, and its points are three-phase points (flags[i] true). Needs y (returns 0
+ * without). Returns how many points were flagged. */
+size_t pw_three_phase_detect(const pw_point *pts, size_t n, bool isobaric, bool has_y,
+                             double sigma_T_K, double sigma_P_rel, double sigma_y, bool *flags);
+
+#ifdef __cplusplus
+}
+#endif
+#endif

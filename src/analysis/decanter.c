@@ -1,0 +1,414 @@
+/* Stripping columns fed on top, the decanter scheme for heterogeneous binaries, and the single
+ * column's refusal to cross a heterogeneous azeotrope. See include/pinchwise/decanter.h and
+ * docs/heterogeneous.md. */
+#include <pinchwise/curve.h>
+#include <pinchwise/decanter.h>
+
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_min.h>
+#include <gsl/gsl_roots.h>
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define MIN_GRID 2000
+#define PROBE_REL 1e-9
+
+typedef struct sctx {
+    const pw_curve *curve;
+    double xB;
+    pw_status st;
+} sctx;
+
+static pw_status curve_y(const pw_curve *c, double x, double *y)
+{
+    if (!(x >= 0.0 && x <= 1.0))
+        return PW_EDOM;
+    pw_status st = c->y_of_x(c->ctx, x, y);
+    if (st == PW_OK && !isfinite(*y))
+        return PW_EDOM;
+    return st;
+}
+
+/* r(x) = (x - xB)/(y*(x) - x); the minimiser works on -r. */
+static double neg_ratio(double x, void *p)
+{
+    sctx *c = p;
+    double y;
+    pw_status st = curve_y(c->curve, x, &y);
+    if (st != PW_OK) {
+        if (c->st == PW_OK)
+            c->st = st;
+        return GSL_NAN;
+    }
+    return -(x - c->xB) / (y - x);
+}
+
+static pw_status refine(sctx *c, gsl_min_fminimizer *mn, double a, double m, double b, double *x,
+                        double *r)
+{
+    gsl_function F = {neg_ratio, c};
+    if (a > b) {
+        double t = a;
+        a = b;
+        b = t;
+    }
+    double fa = neg_ratio(a, c), fm = neg_ratio(m, c), fb = neg_ratio(b, c);
+    if (c->st != PW_OK)
+        return c->st;
+    *x = m;
+    *r = -fm;
+    if (!(fm < fa && fm < fb))
+        return PW_OK;
+    if (gsl_min_fminimizer_set_with_values(mn, &F, m, fm, a, fa, b, fb) != GSL_SUCCESS)
+        return PW_OK;
+    for (int it = 0; it < 200; it++) {
+        if (gsl_min_fminimizer_iterate(mn) != GSL_SUCCESS)
+            break;
+        if (c->st != PW_OK)
+            return c->st;
+        if (gsl_min_test_interval(gsl_min_fminimizer_x_lower(mn), gsl_min_fminimizer_x_upper(mn),
+                                  1e-14, 1e-12) == GSL_SUCCESS)
+            break;
+    }
+    double f = gsl_min_fminimizer_f_minimum(mn);
+    if (isfinite(f) && -f > *r) {
+        *r = -f;
+        *x = gsl_min_fminimizer_x_minimum(mn);
+    }
+    return PW_OK;
+}
+
+typedef struct inv_ctx {
+    const pw_curve *curve;
+    double y;
+    pw_status st;
+} inv_ctx;
+
+static double inv_fn(double x, void *p)
+{
+    inv_ctx *c = p;
+    double y;
+    pw_status st = curve_y(c->curve, x, &y);
+    if (st != PW_OK) {
+        if (c->st == PW_OK)
+            c->st = st;
+        return GSL_NAN;
+    }
+    return y - c->y;
+}
+
+/* x*(y) on the branch from x_top towards the pure end beyond x_bottom: the first sign change of
+ * y*(x) - y met walking from x_top (cells of width h), refined by Brent. */
+static pw_status x_of_y(const pw_curve *curve, const pw_stripper_spec *sp, double y, double *x)
+{
+    double end = sp->x_bottom > sp->x_top ? 1.0 : 0.0;
+    double span = end - sp->x_top;
+    const int cells = 400;
+    inv_ctx c = {curve, y, PW_OK};
+    double xa = sp->x_top, fa = inv_fn(xa, &c);
+    if (c.st != PW_OK)
+        return c.st;
+    if (fa == 0.0) {
+        *x = xa;
+        return PW_OK;
+    }
+    for (int k = 1; k <= cells; k++) {
+        double xb = k == cells ? end : sp->x_top + span * k / cells;
+        double fb = inv_fn(xb, &c);
+        if (c.st != PW_OK)
+            return c.st;
+        if ((fa < 0.0) != (fb < 0.0) || fb == 0.0) {
+            if (fb == 0.0) {
+                *x = xb;
+                return PW_OK;
+            }
+            gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+            if (!s)
+                return PW_ENOMEM;
+            gsl_function F = {inv_fn, &c};
+            double lo = fmin(xa, xb), hi = fmax(xa, xb);
+            gsl_root_fsolver_set(s, &F, lo, hi);
+            pw_status st = PW_EMAXITER;
+            for (int it = 0; it < 200; it++) {
+                if (gsl_root_fsolver_iterate(s) != GSL_SUCCESS || c.st != PW_OK) {
+                    st = c.st != PW_OK ? c.st : PW_ENOCONV;
+                    break;
+                }
+                if (gsl_root_test_interval(gsl_root_fsolver_x_lower(s), gsl_root_fsolver_x_upper(s),
+                                           1e-15, 1e-13) == GSL_SUCCESS) {
+                    st = PW_OK;
+                    break;
+                }
+            }
+            *x = gsl_root_fsolver_root(s);
+            gsl_root_fsolver_free(s);
+            return st;
+        }
+        xa = xb;
+        fa = fb;
+    }
+    return PW_ENOBRACKET;
+}
+
+pw_status pw_stripper_stages(const pw_curve *curve, const pw_stripper_spec *sp, double S,
+                             size_t max_stages, double *stages)
+{
+    if (!curve || !sp || !stages || !(S > 0.0) || max_stages == 0)
+        return PW_EINVAL;
+    double dir = sp->x_bottom > sp->x_top ? 1.0 : -1.0;
+    double x = sp->x_top;
+    for (size_t n = 0; n < max_stages; n++) {
+        double y = isinf(S) ? x : x + (x - sp->x_bottom) / S;
+        double xn;
+        pw_status st = x_of_y(curve, sp, y, &xn);
+        if (st == PW_ENOBRACKET)
+            return PW_EINFEASIBLE; /* the operating line has crossed the curve: below S_min */
+        if (st != PW_OK)
+            return st;
+        if (!(dir * (xn - x) > 0.0))
+            return PW_EINFEASIBLE; /* no progress: at or below the minimum boil-up */
+        if (dir * (xn - sp->x_bottom) >= 0.0) {
+            *stages = (double)n + (x - sp->x_bottom) / (x - xn);
+            return PW_OK;
+        }
+        x = xn;
+    }
+    return PW_EMAXITER;
+}
+
+pw_status pw_stripper_solve(const pw_curve *curve, const pw_stripper_spec *sp,
+                            const pw_column_options *opt, pw_stripper_result *out)
+{
+    if (!curve || !curve->y_of_x || !sp || !out)
+        return PW_EINVAL;
+    memset(out, 0, sizeof *out);
+    out->boilup_min = out->n_min = out->x_pinch = out->y_pinch = out->y_top_min = NAN;
+    if (!(sp->x_top > 0.0 && sp->x_top < 1.0 && sp->x_bottom >= 0.0 && sp->x_bottom <= 1.0)
+        || sp->x_top == sp->x_bottom)
+        return PW_EINVAL;
+    pw_column_options o = opt ? *opt : pw_column_default_options();
+    if (sp->x_bottom <= 0.0 || sp->x_bottom >= 1.0) {
+        snprintf(out->reason, sizeof out->reason,
+                 "a pure bottoms product (x1 = %g) needs infinitely many stages: give a purity "
+                 "short of 0 or 1",
+                 sp->x_bottom);
+        return PW_OK;
+    }
+    size_t n = o.grid > MIN_GRID ? o.grid : MIN_GRID;
+    double dir = sp->x_bottom > sp->x_top ? 1.0 : -1.0;
+    sctx c = {curve, sp->x_bottom, PW_OK};
+    double *xs = malloc((n + 1) * sizeof *xs), *rs = malloc((n + 1) * sizeof *rs);
+    gsl_min_fminimizer *mn = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
+    pw_status st = xs && rs && mn ? PW_OK : PW_ENOMEM;
+    /* grid from the bottoms (k = 0, excluded: r = 0 there) to the top (k = n) */
+    for (size_t k = 1; st == PW_OK && k <= n; k++) {
+        xs[k] = sp->x_bottom + (sp->x_top - sp->x_bottom) * (double)k / (double)n;
+        if (k == n)
+            xs[k] = sp->x_top;
+        double y;
+        st = curve_y(curve, xs[k], &y);
+        if (st != PW_OK)
+            break;
+        double d = (y - xs[k]) * dir; /* must be < 0: the vapor leans away from the bottoms */
+        if (!(d < 0.0)) {
+            out->feasible = false;
+            snprintf(out->reason, sizeof out->reason,
+                     "the equilibrium curve reaches y = x at x1 = %.5g between the top layer (%.5g) "
+                     "and the bottoms (%.5g): a homogeneous azeotrope or pinch blocks this column",
+                     xs[k], sp->x_top, sp->x_bottom);
+            free(xs);
+            free(rs);
+            gsl_min_fminimizer_free(mn);
+            return PW_OK;
+        }
+        rs[k] = (xs[k] - sp->x_bottom) / (y - xs[k]);
+    }
+    double best_r = -INFINITY, best_x = NAN;
+    bool tangent = false;
+    for (size_t k = 1; st == PW_OK && k <= n; k++) {
+        bool up = k == 1 || rs[k] >= rs[k - 1];
+        bool down = k == n || rs[k] >= rs[k + 1];
+        if (!(up && down))
+            continue;
+        double xr = xs[k], rr = rs[k];
+        if (k > 1 && k < n) {
+            st = refine(&c, mn, xs[k - 1], xs[k], xs[k + 1], &xr, &rr);
+        } else if (k == n) {
+            /* the top: does r still rise just inside? */
+            double eps = -PROBE_REL * (sp->x_top - sp->x_bottom);
+            double rp = -neg_ratio(sp->x_top + eps, &c);
+            st = c.st;
+            if (st == PW_OK && rp > rr) {
+                /* r(x_top + eps) exceeds both r(x_top) and r(xs[n-1]): a maximum inside */
+                double xr2, rr2;
+                st = refine(&c, mn, xs[n - 1], sp->x_top + eps, sp->x_top, &xr2, &rr2);
+                if (st == PW_OK && rr2 > rr) {
+                    xr = xr2;
+                    rr = rr2;
+                }
+            }
+        }
+        if (st == PW_OK && rr > best_r) {
+            best_r = rr;
+            best_x = xr;
+            tangent = k < n || xr != sp->x_top;
+        }
+    }
+    free(xs);
+    free(rs);
+    gsl_min_fminimizer_free(mn);
+    if (st != PW_OK)
+        return st;
+    if (!(best_r > 0.0) || !isfinite(best_r)) {
+        out->feasible = false;
+        snprintf(out->reason, sizeof out->reason,
+                 "the equilibrium curve touches y = x between the top layer and the bottoms: no "
+                 "finite boil-up reaches x1 = %.5g",
+                 sp->x_bottom);
+        return PW_OK;
+    }
+    out->feasible = true;
+    out->boilup_min = best_r;
+    out->tangent = tangent;
+    out->x_pinch = best_x;
+    st = curve_y(curve, best_x, &out->y_pinch);
+    if (st != PW_OK)
+        return st;
+    out->y_top_min = sp->x_top + (sp->x_top - sp->x_bottom) / best_r;
+    st = pw_stripper_stages(curve, sp, INFINITY, o.max_stages, &out->n_min);
+    for (size_t i = 0; st == PW_OK && i < o.n_factors && i < PW_COLUMN_MAX_FACTORS; i++) {
+        double S = o.factors[i] * best_r;
+        out->design[i].factor = o.factors[i];
+        out->design[i].boilup = S;
+        out->design[i].y_top = sp->x_top + (sp->x_top - sp->x_bottom) / S;
+        st = pw_stripper_stages(curve, sp, S, o.max_stages, &out->design[i].stages);
+        if (st == PW_OK)
+            out->n_design++;
+    }
+    if (st == PW_EMAXITER || st == PW_EINFEASIBLE) {
+        out->feasible = false;
+        snprintf(out->reason, sizeof out->reason,
+                 "%s: the bottoms x1 = %.6g is out of reach within %zu stages",
+                 st == PW_EMAXITER ? "too many stages" : "the stepping stalls",
+                 sp->x_bottom, o.max_stages);
+        return PW_OK;
+    }
+    return st;
+}
+
+pw_status pw_column_hetero_block(const pw_system *s, double P_Pa, double x_a, double x_b,
+                                 pw_three_phase *tp, bool *blocked, char *reason, size_t len)
+{
+    if (!s || !tp || !blocked || !reason || len == 0)
+        return PW_EINVAL;
+    *blocked = false;
+    reason[0] = '\0';
+    if (!pw_model_can_split(s->model)) {
+        memset(tp, 0, sizeof *tp);
+        return PW_OK;
+    }
+    pw_status st = pw_three_phase_at_P(s, P_Pa, tp);
+    if (st != PW_OK)
+        return st;
+    double lo = fmin(x_a, x_b), hi = fmax(x_a, x_b);
+    if (tp->exists && tp->heterogeneous_azeotrope && lo < tp->y1 && tp->y1 < hi) {
+        *blocked = true;
+        snprintf(reason, len,
+                 "a heterogeneous azeotrope (x1 = %.4f at %.2f K, liquid layers x1 = %.4f and %.4f) "
+                 "lies between the bottoms and distillate targets: one column cannot cross it; use "
+                 "the decanter scheme (decanter plus two stripping columns: pinchwise decanter)",
+                 tp->y1, tp->T_K, tp->x[0], tp->x[1]);
+    }
+    return PW_OK;
+}
+
+pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
+                            const pw_column_options *opt, pw_decanter_result *out)
+{
+    if (!s || !sp || !out)
+        return PW_EINVAL;
+    memset(out, 0, sizeof *out);
+    out->closure = NAN;
+    for (int i = 0; i < 2; i++)
+        out->bottoms_per_mol_feed[i] = out->top_x1[i] = NAN;
+    if (!(sp->P_Pa > 0.0) || !isfinite(sp->P_Pa) || !(sp->zf > 0.0 && sp->zf < 1.0)
+        || !(sp->x_rich > 0.0 && sp->x_rich <= 1.0) || !(sp->x_lean >= 0.0 && sp->x_lean < 1.0)
+        || !isfinite(sp->q))
+        return PW_EINVAL;
+    if (!pw_model_can_split(s->model)) {
+        snprintf(out->reason, sizeof out->reason,
+                 "the %s model cannot predict two liquid layers (for any parameters), so it cannot "
+                 "describe a decanter; fit NRTL, UNIQUAC, Margules or van Laar",
+                 s->model->name);
+        return PW_OK;
+    }
+    pw_status st = pw_three_phase_at_P(s, sp->P_Pa, &out->decanter);
+    if (st != PW_OK)
+        return st;
+    const pw_three_phase *tp = &out->decanter;
+    if (!tp->exists) {
+        snprintf(out->reason, sizeof out->reason,
+                 "the model predicts no two-liquid region at its boiling temperatures at this "
+                 "pressure: there is nothing to decant");
+        return PW_OK;
+    }
+    out->top_x1[0] = tp->x[1];
+    out->top_x1[1] = tp->x[0];
+    if (!tp->heterogeneous_azeotrope) {
+        snprintf(out->reason, sizeof out->reason,
+                 "the three-phase vapor (x1 = %.4f) lies outside the liquid layers (%.4f, %.4f): a "
+                 "heterogeneous non-azeotrope, which one column separates",
+                 tp->y1, tp->x[0], tp->x[1]);
+        return PW_OK;
+    }
+    if (!(sp->x_rich > tp->x[1])) {
+        snprintf(out->reason, sizeof out->reason,
+                 "--x1-rich %.5g must exceed the layer rich in component 1 (x1 = %.5g at %.2f K)",
+                 sp->x_rich, tp->x[1], tp->T_K);
+        return PW_OK;
+    }
+    if (!(sp->x_lean < tp->x[0])) {
+        snprintf(out->reason, sizeof out->reason,
+                 "--x1-lean %.5g must lie below the layer lean in component 1 (x1 = %.5g at %.2f K)",
+                 sp->x_lean, tp->x[0], tp->T_K);
+        return PW_OK;
+    }
+    if (!(sp->x_lean < sp->zf && sp->zf < sp->x_rich)) {
+        snprintf(out->reason, sizeof out->reason,
+                 "the feed (x1 = %.5g) must lie between the two bottoms (%.5g and %.5g)", sp->zf,
+                 sp->x_lean, sp->x_rich);
+        return PW_OK;
+    }
+    pw_system_curve sc;
+    st = pw_system_curve_init(&sc, s, sp->P_Pa);
+    if (st != PW_OK)
+        return st;
+    pw_curve curve = pw_system_curve_bind(&sc);
+    pw_stripper_spec cs[2] = {{tp->x[1], sp->x_rich}, {tp->x[0], sp->x_lean}};
+    for (int i = 0; i < 2; i++) {
+        st = pw_stripper_solve(&curve, &cs[i], opt, &out->col[i]);
+        if (st != PW_OK)
+            return st;
+        if (!out->col[i].feasible) {
+            memcpy(out->reason, i == 0 ? "column A: " : "column B: ", 10);
+            snprintf(out->reason + 10, sizeof out->reason - 10, "%.*s",
+                     (int)(sizeof out->reason - 11), out->col[i].reason);
+            return PW_OK;
+        }
+    }
+    double span = sp->x_rich - sp->x_lean;
+    double BA = (sp->zf - sp->x_lean) / span, BB = (sp->x_rich - sp->zf) / span;
+    out->bottoms_per_mol_feed[0] = BA;
+    out->bottoms_per_mol_feed[1] = BB;
+    /* decanter component balance at the first design row (or the minimum) */
+    double SA = out->col[0].n_design ? out->col[0].design[0].boilup : out->col[0].boilup_min;
+    double SB = out->col[1].n_design ? out->col[1].design[0].boilup : out->col[1].boilup_min;
+    double yA = tp->x[1] - (sp->x_rich - tp->x[1]) / SA, yB = tp->x[0] + (tp->x[0] - sp->x_lean) / SB;
+    double in = sp->zf + SA * BA * yA + SB * BB * yB;
+    double outf = (SA + 1.0) * BA * tp->x[1] + (SB + 1.0) * BB * tp->x[0];
+    out->closure = fabs(in - outf);
+    out->feasible = true;
+    return PW_OK;
+}

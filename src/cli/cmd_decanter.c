@@ -1,0 +1,238 @@
+/* pinchwise decanter: the decanter and two stripping columns for a partly miscible binary with a
+ * heterogeneous azeotrope. Parses, calls src/analysis/decanter.c and prints. */
+#include "analysis_common.h"
+#include "cli.h"
+
+#include <math.h>
+#include <pinchwise/decanter.h>
+#include <stdio.h>
+#include <string.h>
+
+#define CMD "decanter"
+
+static void usage(FILE *f)
+{
+    fprintf(f,
+            "usage: pinchwise decanter FIT.json --pressure P --zf X --x1-rich X --x1-lean X [--q Q]\n"
+            "                          [--components FILE] [--json]\n"
+            "\n"
+            "Fresh feed and both condensed overheads enter one decanter at the three-phase\n"
+            "temperature; its layer rich in component 1 tops stripping column A (bottoms\n"
+            "--x1-rich), the other layer tops stripping column B (bottoms --x1-lean). Each column\n"
+            "has a partial reboiler and no condenser of its own; constant molal overflow.\n"
+            "  --pressure P        pressure with its unit, e.g. 1atm, 101.325kPa\n"
+            "  --zf X              feed mole fraction of component 1\n"
+            "  --x1-rich X         bottoms of column A (above the layer rich in component 1)\n"
+            "  --x1-lean X         bottoms of column B (below the other layer)\n"
+            "  --q Q               feed liquid fraction (default 1); the feed enters the decanter,\n"
+            "                      so q changes the condenser duty only, not the flows\n"
+            "  --factors F,F,...   design boil-up as multiples of the minimum (default 1.2,1.3,1.5)\n"
+            "  --json              print one JSON object on stdout\n");
+}
+
+typedef struct args {
+    const char *fit_path, *components;
+    pw_decanter_spec spec;
+    pw_column_options opt;
+    bool have_P, have_z, have_rich, have_lean, json;
+} args;
+
+static int parse_factors(const char *text, pw_column_options *o, pw_error *err)
+{
+    o->n_factors = 0;
+    const char *p = text;
+    while (*p) {
+        char buf[64];
+        size_t n = strcspn(p, ",");
+        if (n == 0 || n >= sizeof buf || o->n_factors == PW_COLUMN_MAX_FACTORS)
+            break;
+        memcpy(buf, p, n);
+        buf[n] = '\0';
+        double f;
+        if (pw_cli_number("--factors", buf, &f, err) != PW_OK || !(f > 1.0)) {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "--factors %s: expected numbers above 1", text);
+            return PW_EXIT_USAGE;
+        }
+        o->factors[o->n_factors++] = f;
+        p += n;
+        if (*p == ',')
+            p++;
+    }
+    if (*p || o->n_factors == 0) {
+        pw_error_set(err, PW_EINVAL, NULL, 0,
+                     "--factors %s: expected up to %d comma-separated numbers above 1", text,
+                     PW_COLUMN_MAX_FACTORS);
+        return PW_EXIT_USAGE;
+    }
+    return 0;
+}
+
+static int parse(int argc, char **argv, args *a, pw_error *err)
+{
+    memset(a, 0, sizeof *a);
+    a->spec.q = 1.0;
+    a->opt = pw_column_default_options();
+    pw_cli_targets tg = {.q = 1.0};
+    for (int i = 1; i < argc; i++) {
+        const char *v = NULL;
+        bool missing = false;
+        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
+            return -1;
+        if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
+            a->json = true;
+            continue;
+        }
+        if (!strncmp(argv[i], "--", 2)) {
+            const char *opt = argv[i];
+            if (!pw_cli_opt(argc, argv, &i, opt, &v, &missing) || missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
+                return PW_EXIT_USAGE;
+            }
+            int rc = 0;
+            if (!strcmp(opt, "--pressure") || !strcmp(opt, "--zf") || !strcmp(opt, "--q")) {
+                rc = pw_cli_target_opt(opt, v, &tg, err);
+            } else if (!strcmp(opt, "--x1-rich") || !strcmp(opt, "--x1-lean")) {
+                bool rich = !strcmp(opt, "--x1-rich");
+                rc = pw_cli_fraction(opt, v, rich ? &a->spec.x_rich : &a->spec.x_lean, err);
+                if (rich)
+                    a->have_rich = true;
+                else
+                    a->have_lean = true;
+            } else if (!strcmp(opt, "--components")) {
+                a->components = v;
+            } else if (!strcmp(opt, "--factors")) {
+                rc = parse_factors(v, &a->opt, err);
+            } else {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", opt);
+                rc = PW_EXIT_USAGE;
+            }
+            if (rc)
+                return rc;
+            continue;
+        }
+        if (a->fit_path) {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", argv[i]);
+            return PW_EXIT_USAGE;
+        }
+        a->fit_path = argv[i];
+    }
+    a->spec.P_Pa = tg.P_Pa;
+    a->spec.zf = tg.zf;
+    a->spec.q = tg.q;
+    if (!a->fit_path || !tg.have_P || !tg.have_zf || !a->have_rich || !a->have_lean) {
+        pw_error_set(err, PW_EINVAL, NULL, 0,
+                     "a fit file and --pressure, --zf, --x1-rich, --x1-lean are required");
+        return PW_EXIT_USAGE;
+    }
+    if (!(a->spec.zf > 0.0 && a->spec.zf < 1.0)) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "--zf must lie strictly between 0 and 1");
+        return PW_EXIT_USAGE;
+    }
+    return 0;
+}
+
+static json_t *column_json(const pw_stripper_result *c, double top, double bottom)
+{
+    json_t *d = json_array();
+    for (size_t i = 0; i < c->n_design; i++)
+        json_array_append_new(d, json_pack("{s:o,s:o,s:o,s:o}", "factor",
+                                           pw_cli_json_num(c->design[i].factor), "boilup",
+                                           pw_cli_json_num(c->design[i].boilup), "stages",
+                                           pw_cli_json_num(c->design[i].stages), "top_vapor_x1",
+                                           pw_cli_json_num(c->design[i].y_top)));
+    return json_pack("{s:o,s:o,s:o,s:o,s:o,s:{s:s,s:o,s:o}}", "bottoms_x1", pw_cli_json_num(bottom),
+                     "top_x1", pw_cli_json_num(top), "boilup_min",
+                     pw_cli_json_num(c->boilup_min), "n_min", pw_cli_json_num(c->n_min), "design", d,
+                     "pinch", "kind", c->tangent ? "tangent" : "top", "x",
+                     pw_cli_json_num(c->x_pinch), "y", pw_cli_json_num(c->y_pinch));
+}
+
+static void print_column(const char *name, const pw_stripper_result *c, double top, double bottom)
+{
+    printf("\n  Column %s: top feed x1 = %.5f, bottoms x1 = %.5g\n", name, top, bottom);
+    printf("    minimum boil-up V/B = %.5g (%s pinch at x1 = %.5f, y1 = %.5f)\n", c->boilup_min,
+           c->tangent ? "tangent" : "top", c->x_pinch, c->y_pinch);
+    printf("    stages at total boil-up: %.3f (partial reboiler counted)\n", c->n_min);
+    printf("    %-8s %-10s %-10s %s\n", "factor", "V/B", "stages", "top vapor x1");
+    for (size_t i = 0; i < c->n_design; i++)
+        printf("    %-8.2f %-10.5g %-10.3f %.5f\n", c->design[i].factor, c->design[i].boilup,
+               c->design[i].stages, c->design[i].y_top);
+}
+
+int pw_cli_decanter(int argc, char **argv)
+{
+    args a;
+    pw_error err;
+    pw_error_clear(&err);
+    int rc = parse(argc, argv, &a, &err);
+    if (rc == -1) {
+        usage(stdout);
+        return 0;
+    }
+    if (rc)
+        return pw_cli_fail(CMD, &err);
+    pw_fit_result fit;
+    memset(&fit, 0, sizeof fit);
+    pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
+    if (st != PW_OK)
+        return pw_cli_fail(CMD, &err);
+    pw_decanter_result r;
+    st = pw_decanter_solve(&fit.sys, &a.spec, &a.opt, &r);
+    if (st != PW_OK) {
+        pw_error_set(&err, st, a.fit_path, 0, "decanter scheme: %s", pw_strerror(st));
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
+    const pw_three_phase *tp = &r.decanter;
+    if (a.json) {
+        json_t *o = json_object();
+        json_object_set_new(o, "feasible", json_boolean(r.feasible));
+        json_object_set_new(o, "reason", r.feasible ? json_null() : json_string(r.reason));
+        json_object_set_new(o, "decanter",
+                            tp->exists ? json_pack("{s:o,s:[o,o],s:o}", "T_K",
+                                                   pw_cli_json_num(tp->T_K), "x1_layers",
+                                                   pw_cli_json_num(tp->x[0]),
+                                                   pw_cli_json_num(tp->x[1]), "vapor_x1",
+                                                   pw_cli_json_num(tp->y1))
+                                       : json_null());
+        if (r.feasible) {
+            json_object_set_new(o, "columns",
+                                json_pack("[o,o]", column_json(&r.col[0], r.top_x1[0], a.spec.x_rich),
+                                          column_json(&r.col[1], r.top_x1[1], a.spec.x_lean)));
+            json_object_set_new(o, "bottoms_per_mol_feed",
+                                json_pack("[o,o]", pw_cli_json_num(r.bottoms_per_mol_feed[0]),
+                                          pw_cli_json_num(r.bottoms_per_mol_feed[1])));
+            json_object_set_new(o, "balance_closure", pw_cli_json_num(r.closure));
+        } else {
+            json_object_set_new(o, "columns", json_null());
+            json_object_set_new(o, "bottoms_per_mol_feed", json_null());
+        }
+        json_object_set_new(o, "q", pw_cli_json_num(a.spec.q));
+        json_object_set_new(o, "caution", json_string(pw_cli_caution_text()));
+        rc = pw_cli_print_json(o);
+    } else {
+        const pw_system *s = &fit.sys;
+        printf("Decanter scheme for %s (1) / %s (2), %s model, at %.6g kPa\n", s->comp[0].name,
+               s->comp[1].name, s->model->name, a.spec.P_Pa / 1000.0);
+        if (tp->exists)
+            printf("  decanter at the three-phase temperature %.3f K (%.2f C): layers x1 = %.5f and "
+                   "%.5f, vapor x1 = %.5f\n",
+                   tp->T_K, tp->T_K - 273.15, tp->x[0], tp->x[1], tp->y1);
+        if (!r.feasible) {
+            printf("  not feasible: %s\n", r.reason);
+        } else {
+            print_column("A", &r.col[0], r.top_x1[0], a.spec.x_rich);
+            print_column("B", &r.col[1], r.top_x1[1], a.spec.x_lean);
+            printf("\n  bottoms per mole of feed: A %.6f, B %.6f (balance closes to %.1e)\n",
+                   r.bottoms_per_mol_feed[0], r.bottoms_per_mol_feed[1], r.closure);
+            printf("  q = %g: the feed enters the decanter, so q changes the condenser duty only.\n"
+                   "  The decanter is taken at the three-phase temperature; a cooled decanter has\n"
+                   "  other layers (check them with pinchwise lle at its temperature).\n",
+                   a.spec.q);
+        }
+        pw_cli_print_caution(stdout);
+        rc = fflush(stdout) ? 4 : 0;
+    }
+    pw_fit_result_free(&fit);
+    return rc;
+}

@@ -1,0 +1,234 @@
+/* pinchwise lle: the two coexisting liquid layers a fitted model predicts at a temperature, and
+ * optionally the binodal over a range of temperatures with its critical solution temperatures.
+ * Parses, calls src/thermo/lle.c and prints; computes nothing itself. */
+#include "analysis_common.h"
+#include "cli.h"
+
+#include <math.h>
+#include <pinchwise/lle.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define CMD "lle"
+
+static void usage(FILE *f)
+{
+    fprintf(f,
+            "usage: pinchwise lle FIT.json --temperature T [--scan FROM:TO:N] [--components FILE]\n"
+            "                     [--json]\n"
+            "\n"
+            "Liquid-liquid split of the fitted model: the two layers with equal activities of\n"
+            "both components (common tangent of Gmix/RT), checked by the tangent-plane test.\n"
+            "Wilson's equation can never split: a Wilson fit always answers 'no split'.\n"
+            "  --temperature T     temperature with its unit, e.g. 25C, 298.15K\n"
+            "  --scan FROM:TO:N    also the layers at N temperatures from FROM to TO (linear) and\n"
+            "                      the critical solution temperatures between them\n"
+            "  --json              print one JSON object on stdout\n");
+}
+
+typedef struct args {
+    const char *fit_path, *components, *scan_text;
+    double T, from, to;
+    size_t n;
+    bool have_T, json;
+} args;
+
+static int parse_scan(const char *text, args *a, pw_error *err)
+{
+    char buf[256];
+    snprintf(buf, sizeof buf, "%s", text);
+    char *c1 = strchr(buf, ':'), *c2 = c1 ? strchr(c1 + 1, ':') : NULL;
+    if (!c1 || !c2 || strchr(c2 + 1, ':')) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "--scan %s: expected FROM:TO:N, e.g. 20C:120C:11",
+                     text);
+        return PW_EXIT_USAGE;
+    }
+    *c1 = *c2 = '\0';
+    double n;
+    if (pw_cli_quantity(PW_QTY_TEMPERATURE, "--scan FROM", buf, &a->from, err) != PW_OK
+        || pw_cli_quantity(PW_QTY_TEMPERATURE, "--scan TO", c1 + 1, &a->to, err) != PW_OK
+        || pw_cli_number("--scan N", c2 + 1, &n, err) != PW_OK)
+        return PW_EXIT_USAGE;
+    if (!(n >= 2.0 && n <= 1000.0) || n != floor(n) || a->from == a->to) {
+        pw_error_set(err, PW_EINVAL, NULL, 0,
+                     "--scan %s: N must be a whole number from 2 to 1000 and FROM differ from TO",
+                     text);
+        return PW_EXIT_USAGE;
+    }
+    a->n = (size_t)n;
+    return 0;
+}
+
+static int parse(int argc, char **argv, args *a, pw_error *err)
+{
+    memset(a, 0, sizeof *a);
+    for (int i = 1; i < argc; i++) {
+        const char *v = NULL;
+        bool missing = false;
+        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
+            return -1;
+        if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
+            a->json = true;
+        } else if (pw_cli_opt(argc, argv, &i, "--temperature", &v, &missing)) {
+            if (missing || a->have_T) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "--temperature needs one value, once");
+                return PW_EXIT_USAGE;
+            }
+            if (pw_cli_quantity(PW_QTY_TEMPERATURE, "--temperature", v, &a->T, err) != PW_OK)
+                return PW_EXIT_USAGE;
+            a->have_T = true;
+        } else if (pw_cli_opt(argc, argv, &i, "--scan", &v, &missing)) {
+            if (missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "--scan needs FROM:TO:N");
+                return PW_EXIT_USAGE;
+            }
+            a->scan_text = v;
+        } else if (pw_cli_opt(argc, argv, &i, "--components", &v, &missing)) {
+            if (missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "--components needs a file");
+                return PW_EXIT_USAGE;
+            }
+            a->components = v;
+        } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", argv[i]);
+            return PW_EXIT_USAGE;
+        } else if (a->fit_path) {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", argv[i]);
+            return PW_EXIT_USAGE;
+        } else {
+            a->fit_path = argv[i];
+        }
+    }
+    if (!a->fit_path || !a->have_T) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file and --temperature are required");
+        return PW_EXIT_USAGE;
+    }
+    return a->scan_text ? parse_scan(a->scan_text, a, err) : 0;
+}
+
+static json_t *pair_json(bool split, const double *x)
+{
+    return split ? json_pack("[o,o]", pw_cli_json_num(x[0]), pw_cli_json_num(x[1])) : json_null();
+}
+
+int pw_cli_lle(int argc, char **argv)
+{
+    args a;
+    pw_error err;
+    pw_error_clear(&err);
+    int rc = parse(argc, argv, &a, &err);
+    if (rc == -1) {
+        usage(stdout);
+        return 0;
+    }
+    if (rc)
+        return pw_cli_fail(CMD, &err);
+    pw_fit_result fit;
+    memset(&fit, 0, sizeof fit);
+    pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
+    if (st != PW_OK)
+        return pw_cli_fail(CMD, &err);
+    const pw_system *s = &fit.sys;
+    pw_lle_result r;
+    st = pw_lle_solve(s, a.T, &r);
+    if (st != PW_OK) {
+        pw_error_set(&err, st, a.fit_path, 0, "liquid-liquid solve at %.3f K failed: %s%s", a.T,
+                     pw_strerror(st),
+                     st == PW_ERANGE ? " (a layer is within 1e-12 of a pure component: "
+                                       "practically immiscible)" : "");
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
+    pw_lle_scan_point *pts = NULL;
+    pw_lle_critical crit[PW_LLE_MAX_CRITICAL];
+    size_t n_crit = 0;
+    if (a.scan_text) {
+        pts = calloc(a.n, sizeof *pts);
+        st = pts ? pw_lle_scan(s, a.from, a.to, a.n, pts, crit, &n_crit) : PW_ENOMEM;
+        if (st != PW_OK) {
+            pw_error_set(&err, st, a.fit_path, 0, "binodal scan failed: %s", pw_strerror(st));
+            free(pts);
+            pw_fit_result_free(&fit);
+            return pw_cli_fail(CMD, &err);
+        }
+    }
+    bool can = pw_model_can_split(s->model);
+    if (a.json) {
+        json_t *o = json_object();
+        json_object_set_new(o, "split", json_boolean(r.split));
+        json_object_set_new(o, "x1", pair_json(r.split, r.x));
+        json_object_set_new(o, "T_K", pw_cli_json_num(a.T));
+        json_object_set_new(o, "components", json_pack("[s,s]", s->comp[0].name, s->comp[1].name));
+        json_object_set_new(o, "model", json_string(s->model->name));
+        json_object_set_new(o, "model_can_split", json_boolean(can));
+        json_object_set_new(o, "activities", r.split ? json_pack("[o,o]", pw_cli_json_num(r.a[0]),
+                                                                 pw_cli_json_num(r.a[1]))
+                                                     : json_null());
+        json_object_set_new(o, "min_tangent_plane_distance", pw_cli_json_num(r.min_tpd));
+        json_object_set_new(o, "min_d2G_dx2", pw_cli_json_num(r.min_D));
+        if (r.n_pairs > 1) {
+            json_t *more = json_array();
+            for (size_t p = 0; p < r.n_pairs; p++)
+                json_array_append_new(more, pair_json(true, r.pairs[p]));
+            json_object_set_new(o, "all_splits", more);
+        }
+        if (pts) {
+            json_t *sc = json_array(), *cr = json_array();
+            for (size_t k = 0; k < a.n; k++)
+                json_array_append_new(sc, json_pack("{s:o,s:b,s:o}", "T_K",
+                                                    pw_cli_json_num(pts[k].T_K), "split",
+                                                    pts[k].split, "x1",
+                                                    pair_json(pts[k].split, pts[k].x)));
+            for (size_t k = 0; k < n_crit; k++)
+                json_array_append_new(cr, json_pack("{s:o,s:o,s:s}", "T_K",
+                                                    pw_cli_json_num(crit[k].T_K), "x1",
+                                                    pw_cli_json_num(crit[k].x1), "kind",
+                                                    crit[k].upper ? "upper" : "lower"));
+            json_object_set_new(o, "scan", sc);
+            json_object_set_new(o, "critical", cr);
+        }
+        rc = pw_cli_print_json(o);
+    } else {
+        printf("Liquid-liquid equilibrium of %s (1) / %s (2), %s model, at %.3f K (%.2f C)\n",
+               s->comp[0].name, s->comp[1].name, s->model->name, a.T, a.T - 273.15);
+        if (!can)
+            printf("  the %s model cannot predict two liquids for any parameters; use NRTL, "
+                   "UNIQUAC, Margules or van Laar for partly miscible liquids\n",
+                   s->model->name);
+        if (r.split) {
+            printf("  two liquids: x1 = %.6g (layer I) and %.6g (layer II)\n", r.x[0], r.x[1]);
+            printf("  activities a1 = %.6g, a2 = %.6g; tangent-plane check: min distance %.2g\n",
+                   r.a[0], r.a[1], r.min_tpd);
+            for (size_t p = 1; p < r.n_pairs; p++)
+                printf("  another two-liquid region: %.6g and %.6g\n", r.pairs[p][0],
+                       r.pairs[p][1]);
+        } else {
+            printf("  one liquid at every composition (smallest d2(Gmix/RT)/dx1^2 = %.4g at x1 = "
+                   "%.4f)\n",
+                   r.min_D, r.x_min_D);
+        }
+        if (pts) {
+            printf("\n  %-10s %-10s %-12s %s\n", "T [K]", "T [C]", "x1 layer I", "x1 layer II");
+            for (size_t k = 0; k < a.n; k++) {
+                if (pts[k].split)
+                    printf("  %-10.3f %-10.3f %-12.6g %.6g\n", pts[k].T_K, pts[k].T_K - 273.15,
+                           pts[k].x[0], pts[k].x[1]);
+                else
+                    printf("  %-10.3f %-10.3f one liquid\n", pts[k].T_K, pts[k].T_K - 273.15);
+            }
+            for (size_t k = 0; k < n_crit; k++)
+                printf("  %s critical solution temperature %.4f K (%.3f C) at x1 = %.5f\n",
+                       crit[k].upper ? "upper" : "lower", crit[k].T_K, crit[k].T_K - 273.15,
+                       crit[k].x1);
+        }
+        printf("  Layers predicted from a fit to vapor-liquid data can be far from measured "
+               "solubilities, above all away from the fitted temperatures; check against\n"
+               "  measured tie lines before sizing a decanter.\n");
+        pw_cli_print_caution(stdout);
+        rc = fflush(stdout) ? 4 : 0;
+    }
+    free(pts);
+    pw_fit_result_free(&fit);
+    return rc;
+}

@@ -1,0 +1,336 @@
+/* Binodal scans, critical solution temperatures, three-phase (L-L-V) states and the bubble point
+ * of a liquid inside the two-liquid region. See include/pinchwise/lle.h, docs/heterogeneous.md. */
+#include <pinchwise/lle.h>
+
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_roots.h>
+#include <math.h>
+#include <string.h>
+
+#define T3_STEP_K 1.0
+#define T3_BELOW_K 80.0
+#define TPD_QUICK 1000
+
+/* Sign test for the critical point: true when D < 0 somewhere (the model splits at T). */
+static pw_status splits_at(const pw_system *s, double T, bool *split, double *x_min_D)
+{
+    pw_lle_result r;
+    pw_status st = pw_lle_solve_n(s, T, TPD_QUICK, &r);
+    /* min_D is set before any later failure of the pair search */
+    if (!isfinite(r.min_D))
+        return st == PW_OK ? PW_EDOM : st;
+    *split = r.min_D < 0.0;
+    *x_min_D = r.x_min_D;
+    return PW_OK;
+}
+
+pw_status pw_lle_scan(const pw_system *s, double T_from, double T_to, size_t n,
+                      pw_lle_scan_point *points, pw_lle_critical *crit, size_t *n_crit)
+{
+    if (!s || !s->model || !points || n < 2 || !n_crit)
+        return PW_EINVAL;
+    if (!(T_from > 0.0) || !(T_to > 0.0) || !isfinite(T_from) || !isfinite(T_to))
+        return PW_EDOM;
+    *n_crit = 0;
+    for (size_t k = 0; k < n; k++) {
+        double T = T_from + (T_to - T_from) * (double)k / (double)(n - 1);
+        pw_lle_result r;
+        pw_status st = pw_lle_solve(s, T, &r);
+        if (st != PW_OK)
+            return st;
+        points[k].T_K = T;
+        points[k].split = r.split;
+        points[k].x[0] = r.x[0];
+        points[k].x[1] = r.x[1];
+        if (k == 0 || points[k].split == points[k - 1].split || !crit
+            || *n_crit >= PW_LLE_MAX_CRITICAL)
+            continue;
+        /* bisection on the sign of min D between the two temperatures */
+        double a = points[k - 1].T_K, b = T, xc = NAN;
+        bool sa = points[k - 1].split;
+        for (int it = 0; it < 100 && fabs(b - a) > 1e-7; it++) {
+            double m = 0.5 * (a + b), xm;
+            bool sm;
+            st = splits_at(s, m, &sm, &xm);
+            if (st != PW_OK)
+                return st;
+            if (sm == sa)
+                a = m;
+            else
+                b = m;
+            xc = xm;
+        }
+        double Tc = 0.5 * (a + b);
+        bool sm;
+        double xm;
+        if (splits_at(s, Tc, &sm, &xm) == PW_OK)
+            xc = xm;
+        /* split below and not above: an upper critical solution temperature */
+        bool upper = (T_to > T_from) ? sa : !sa;
+        crit[(*n_crit)++] = (pw_lle_critical){Tc, xc, upper};
+    }
+    return PW_OK;
+}
+
+
+static pw_status three_phase_T(const pw_system *s, double T_K, size_t tpd, pw_three_phase *out);
+
+pw_status pw_three_phase_at_T(const pw_system *s, double T_K, pw_three_phase *out)
+{
+    return three_phase_T(s, T_K, 20000, out);
+}
+
+static pw_status three_phase_T(const pw_system *s, double T_K, size_t tpd, pw_three_phase *out)
+{
+    if (!s || !s->model || !out)
+        return PW_EINVAL;
+    memset(out, 0, sizeof *out);
+    out->T_K = T_K;
+    out->P_Pa = out->y1 = NAN;
+    out->x[0] = out->x[1] = NAN;
+    pw_lle_result r;
+    pw_status st = pw_lle_solve_n(s, T_K, tpd, &r);
+    if (st != PW_OK)
+        return st;
+    if (!r.split)
+        return PW_OK;
+    for (int i = 0; i < 2; i++) {
+        st = pw_psat(&s->comp[i], T_K, &out->Psat_Pa[i], NULL);
+        if (st != PW_OK)
+            return st;
+    }
+    double p1 = r.a[0] * out->Psat_Pa[0], p2 = r.a[1] * out->Psat_Pa[1];
+    out->exists = true;
+    out->P_Pa = p1 + p2;
+    out->y1 = p1 / out->P_Pa;
+    out->x[0] = r.x[0];
+    out->x[1] = r.x[1];
+    out->a[0] = r.a[0];
+    out->a[1] = r.a[1];
+    out->heterogeneous_azeotrope = out->x[0] < out->y1 && out->y1 < out->x[1];
+    return PW_OK;
+}
+
+/* f(T) = P3(T) - P where the model splits; *split false where it does not. */
+static pw_status p3_minus(const pw_system *s, double P, double T, double *f, bool *split,
+                          pw_three_phase *tp)
+{
+    pw_status st = three_phase_T(s, T, TPD_QUICK, tp);
+    if (st == PW_ERANGE) {
+        /* layers beyond the solubility floor: practically immiscible here, a1 = a2 = 1 to
+         * within 1e-12, enough to bracket (the final state is solved exactly, or refused) */
+        double p1, p2;
+        if (pw_psat(&s->comp[0], T, &p1, NULL) != PW_OK || pw_psat(&s->comp[1], T, &p2, NULL) != PW_OK)
+            return st;
+        *split = true;
+        *f = p1 + p2 - P;
+        return PW_OK;
+    }
+    if (st != PW_OK)
+        return st;
+    *split = tp->exists;
+    *f = tp->exists ? tp->P_Pa - P : (double)NAN;
+    return PW_OK;
+}
+
+pw_status pw_three_phase_at_P(const pw_system *s, double P_Pa, pw_three_phase *out)
+{
+    if (!s || !s->model || !out)
+        return PW_EINVAL;
+    if (!(P_Pa > 0.0) || !isfinite(P_Pa))
+        return PW_EDOM;
+    memset(out, 0, sizeof *out);
+    out->P_Pa = P_Pa;
+    out->T_K = out->y1 = NAN;
+    out->x[0] = out->x[1] = NAN;
+    double Tb[2];
+    for (int i = 0; i < 2; i++) {
+        pw_status st = pw_tsat(&s->comp[i], P_Pa, &Tb[i]);
+        if (st != PW_OK)
+            return st;
+    }
+    double T_lo = fmin(Tb[0], Tb[1]) - T3_BELOW_K, T_hi = fmax(Tb[0], Tb[1]);
+    /* start where both vapor pressures can be evaluated */
+    double dummy;
+    while (T_lo < T_hi && (pw_psat(&s->comp[0], T_lo, &dummy, NULL) != PW_OK
+                           || pw_psat(&s->comp[1], T_lo, &dummy, NULL) != PW_OK))
+        T_lo += T3_STEP_K;
+    size_t n = (size_t)ceil((T_hi - T_lo) / T3_STEP_K);
+    double T_prev = NAN, f_prev = NAN;
+    bool split_prev = false;
+    pw_three_phase tp;
+    for (size_t k = 0; k <= n; k++) {
+        double T = fmin(T_lo + (double)k * T3_STEP_K, T_hi), f;
+        bool split;
+        pw_status st = p3_minus(s, P_Pa, T, &f, &split, &tp);
+        if (st != PW_OK)
+            return st;
+        if (split && split_prev && f_prev < 0.0 && f >= 0.0) {
+            double a = T_prev, b = T;
+            for (int it = 0; it < 100 && b - a > 1e-10 * b; it++) {
+                double m = 0.5 * (a + b), fm;
+                bool sm;
+                st = p3_minus(s, P_Pa, m, &fm, &sm, &tp);
+                if (st != PW_OK)
+                    return st;
+                if (!sm)
+                    return PW_ENOCONV; /* the split cannot vanish inside a bracket of splits */
+                if (fm < 0.0)
+                    a = m;
+                else
+                    b = m;
+            }
+            st = pw_three_phase_at_T(s, 0.5 * (a + b), out);
+            if (st != PW_OK)
+                return st;
+            out->P_Pa = P_Pa; /* y1 from a1 P1sat / P3 equals it to the bisection tolerance */
+            return PW_OK;
+        }
+        if (split && f >= 0.0)
+            break; /* the split already boils below the grid start: none in range */
+        T_prev = T;
+        f_prev = f;
+        split_prev = split;
+    }
+    out->exists = false;
+    return PW_OK;
+}
+
+typedef struct near_ctx {
+    const pw_system *s;
+    double P;
+    pw_status st;
+    bool lost; /* the split vanished at a trial temperature */
+} near_ctx;
+
+static double near_fn(double T, void *p)
+{
+    near_ctx *c = p;
+    pw_three_phase tp;
+    double f;
+    bool split;
+    pw_status st = p3_minus(c->s, c->P, T, &f, &split, &tp);
+    if (st != PW_OK || !split) {
+        if (st != PW_OK && c->st == PW_OK)
+            c->st = st;
+        c->lost = c->lost || !split;
+        return GSL_NAN;
+    }
+    return f;
+}
+
+pw_status pw_three_phase_at_P_near(const pw_system *s, double P_Pa, double T_guess_K,
+                                   pw_three_phase *out)
+{
+    if (!s || !s->model || !out)
+        return PW_EINVAL;
+    if (!(P_Pa > 0.0) || !isfinite(P_Pa) || !(T_guess_K > 0.0) || !isfinite(T_guess_K))
+        return PW_EDOM;
+    near_ctx c = {s, P_Pa, PW_OK, false};
+    double a = T_guess_K, fa = near_fn(a, &c);
+    if (c.st != PW_OK)
+        return c.st;
+    if (c.lost)
+        return pw_three_phase_at_P(s, P_Pa, out);
+    double b = a, fb = fa;
+    double dir = fa < 0.0 ? 1.0 : -1.0;
+    bool found = fa == 0.0;
+    for (double step = 1.0; !found && step <= 64.0; step *= 2.0) {
+        b = a + dir * step;
+        fb = near_fn(b, &c);
+        if (c.st != PW_OK)
+            return c.st;
+        if (c.lost)
+            return pw_three_phase_at_P(s, P_Pa, out);
+        if ((fa < 0.0) != (fb < 0.0) || fb == 0.0) {
+            found = true;
+            break;
+        }
+        a = b;
+        fa = fb;
+    }
+    if (!found)
+        return pw_three_phase_at_P(s, P_Pa, out);
+    double T = fa == 0.0 ? a : b;
+    if (fa != 0.0 && fb != 0.0) {
+        gsl_root_fsolver *rs = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+        if (!rs)
+            return PW_ENOMEM;
+        gsl_function F = {near_fn, &c};
+        gsl_root_fsolver_set(rs, &F, fmin(a, b), fmax(a, b));
+        pw_status st = PW_EMAXITER;
+        for (int it = 0; it < 100; it++) {
+            if (gsl_root_fsolver_iterate(rs) != GSL_SUCCESS || c.st != PW_OK || c.lost) {
+                st = c.st != PW_OK ? c.st : PW_ENOCONV;
+                break;
+            }
+            if (gsl_root_test_interval(gsl_root_fsolver_x_lower(rs), gsl_root_fsolver_x_upper(rs),
+                                       1e-9, 0.0) == GSL_SUCCESS) {
+                st = PW_OK;
+                break;
+            }
+        }
+        T = gsl_root_fsolver_root(rs);
+        gsl_root_fsolver_free(rs);
+        if (c.lost)
+            return pw_three_phase_at_P(s, P_Pa, out);
+        if (st != PW_OK)
+            return st;
+    }
+    pw_status st = three_phase_T(s, T, TPD_QUICK, out);
+    if (st == PW_OK)
+        out->P_Pa = P_Pa;
+    return st;
+}
+
+pw_status pw_bubble_T_het(const pw_system *s, double P_Pa, double x1, pw_eq_point *out,
+                          bool *three_phase)
+{
+    if (!s || !out || !three_phase)
+        return PW_EINVAL;
+    *three_phase = false;
+    pw_three_phase tp;
+    pw_status st = pw_three_phase_at_P(s, P_Pa, &tp);
+    if (st != PW_OK)
+        return st;
+    if (tp.exists && x1 > tp.x[0] && x1 < tp.x[1]) {
+        memset(out, 0, sizeof *out);
+        out->x1 = x1;
+        out->y1 = tp.y1;
+        out->T_K = tp.T_K;
+        out->P_Pa = P_Pa;
+        for (int i = 0; i < 2; i++) {
+            out->Psat_Pa[i] = tp.Psat_Pa[i];
+            out->gamma[i] = tp.a[i] / (i == 0 ? x1 : 1.0 - x1); /* apparent, of the overall liquid */
+        }
+        *three_phase = true;
+        return PW_OK;
+    }
+    return pw_bubble_T(s, P_Pa, x1, out);
+}
+
+pw_status pw_bubble_P_het(const pw_system *s, double T_K, double x1, pw_eq_point *out,
+                          bool *three_phase)
+{
+    if (!s || !out || !three_phase)
+        return PW_EINVAL;
+    *three_phase = false;
+    pw_three_phase tp;
+    pw_status st = pw_three_phase_at_T(s, T_K, &tp);
+    if (st != PW_OK)
+        return st;
+    if (tp.exists && x1 > tp.x[0] && x1 < tp.x[1]) {
+        memset(out, 0, sizeof *out);
+        out->x1 = x1;
+        out->y1 = tp.y1;
+        out->T_K = T_K;
+        out->P_Pa = tp.P_Pa;
+        for (int i = 0; i < 2; i++) {
+            out->Psat_Pa[i] = tp.Psat_Pa[i];
+            out->gamma[i] = tp.a[i] / (i == 0 ? x1 : 1.0 - x1);
+        }
+        *three_phase = true;
+        return PW_OK;
+    }
+    return pw_bubble_P(s, T_K, x1, out);
+}

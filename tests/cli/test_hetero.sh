@@ -1,0 +1,176 @@
+#!/usr/bin/env bash
+# CLI test of the partly miscible liquids: `lle`, the heterogeneous entries of `azeotrope`,
+# `reflux` refusing to cross a heterogeneous azeotrope, and `decanter` (CONTRACT, "Heterogeneous
+# liquids"). Data: the shipped 1-butanol/water set at 1 atm (Stockhardt & Hull 1931, via the
+# Dortmund Data Bank's free pages). Handbook values: heterogeneous azeotrope 92.4 C, 55.5 wt%
+# 1-butanol (CRC 44th / Lange's 10th azeotrope table, as quoted in METHODS2 3.5) and 92.7 C,
+# 57.5 wt% (Horsley, from memory); the tolerances allow for a model fitted to one data set.
+# Usage: bash test_hetero.sh PATH_TO_pinchwise SOURCE_DIR
+set -u
+PW=$1
+SRC=$2
+TMP=$(mktemp -d)
+trap 'rm -rf "$TMP"' EXIT
+fail() { echo "FAIL: $*" >&2; exit 1; }
+
+"$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model nrtl --out "$TMP/bw.json" --json \
+    > /dev/null 2> "$TMP/err.txt" || fail "fit of butanol/water: $(cat "$TMP/err.txt")"
+"$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model wilson --out "$TMP/bw_wilson.json" \
+    --json > /dev/null 2> "$TMP/err.txt" || fail "wilson fit: $(cat "$TMP/err.txt")"
+
+# lle: CONTRACT keys, layers ordered, equal activities reported
+"$PW" lle "$TMP/bw.json" --temperature 25C --json > "$TMP/lle.json" 2> "$TMP/err.txt" \
+    || fail "lle exited $?: $(cat "$TMP/err.txt")"
+python3 - "$TMP/lle.json" <<'PY' || fail "lle JSON"
+import json, sys
+d = json.load(open(sys.argv[1]))
+assert d["split"] is True, d
+a, b = d["x1"]
+assert 0 < a < b < 1, d
+assert abs(d["T_K"] - 298.15) < 1e-9, d
+PY
+# Wilson cannot split: split false, x1 null
+"$PW" lle "$TMP/bw_wilson.json" --temperature 25C --json > "$TMP/lw.json" 2> /dev/null \
+    || fail "lle wilson exited $?"
+python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); assert d["split"] is False and d["x1"] is None, d' \
+    "$TMP/lw.json" || fail "wilson lle JSON"
+# --scan: a binodal and the text output
+"$PW" lle "$TMP/bw.json" --temperature 25C --scan 20C:120C:6 --json > "$TMP/scan.json" 2> /dev/null \
+    || fail "lle --scan exited $?"
+python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); assert len(d["scan"]) == 6 and all("split" in p for p in d["scan"]), d' \
+    "$TMP/scan.json" || fail "scan JSON"
+"$PW" lle "$TMP/bw.json" --temperature 25C > "$TMP/lle.txt" 2> /dev/null || fail "lle text"
+grep -q "two liquids" "$TMP/lle.txt" || fail "lle text has no layers"
+
+# bad input: a bare number and a missing temperature are refused with a message
+"$PW" lle "$TMP/bw.json" --temperature 25 > /dev/null 2> "$TMP/err.txt" && fail "bare number accepted"
+grep -q "temperature" "$TMP/err.txt" || fail "message does not name the option: $(cat "$TMP/err.txt")"
+"$PW" lle "$TMP/bw.json" > /dev/null 2> "$TMP/err.txt" && fail "missing --temperature accepted"
+[ -s "$TMP/err.txt" ] || fail "no message for a missing --temperature"
+
+# azeotrope: one heterogeneous entry at 1 atm, with the layers, near the handbook values
+"$PW" azeotrope "$TMP/bw.json" --pressure 1atm --json > "$TMP/az.json" 2> /dev/null \
+    || fail "azeotrope exited $?"
+python3 - "$TMP/az.json" <<'PY' || fail "heterogeneous azeotrope JSON"
+import json, sys
+d = json.load(open(sys.argv[1]))
+het = [a for a in d["azeotropes"] if a["heterogeneous"]]
+assert all("heterogeneous" in a for a in d["azeotropes"]), d
+assert len(het) == 1, d
+z = het[0]
+assert z["kind"] == "minimum-boiling", z
+xI, xII = z["x1_liquids"]
+assert xI < z["x1"] < xII, z
+# handbook 92.4-92.7 C; 55.5-57.5 wt% = 0.233-0.248 mole fraction
+assert abs(z["T_K"] - 365.70) < 0.6, z
+assert 0.22 < z["x1"] < 0.26, z
+assert abs(z["P_kPa"] - 101.325) < 1e-6, z
+# no homogeneous entry inside the two-liquid region
+for a in d["azeotropes"]:
+    if not a["heterogeneous"]:
+        assert not (xI < a["x1"] < xII), a
+PY
+# a homogeneous system keeps heterogeneous: false
+"$PW" fit "$SRC/datasets/ethanol_water_1atm.csv" --model nrtl --out "$TMP/ew.json" > /dev/null 2>&1 \
+    || fail "ethanol/water fit"
+"$PW" azeotrope "$TMP/ew.json" --pressure 1atm --json > "$TMP/ewaz.json" 2> /dev/null || fail "ew azeotrope"
+python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); a=d["azeotropes"]; assert len(a)==1 and a[0]["heterogeneous"] is False, a' \
+    "$TMP/ewaz.json" || fail "homogeneous azeotrope flag"
+
+# reflux across the heterogeneous azeotrope: infeasible, the reason names the decanter scheme
+"$PW" reflux "$TMP/bw.json" --pressure 1atm --xd 0.99 --xb 0.001 --zf 0.2 --json > "$TMP/rf.json" \
+    2> /dev/null || fail "reflux exited $?"
+python3 - "$TMP/rf.json" <<'PY' || fail "reflux JSON"
+import json, sys
+d = json.load(open(sys.argv[1]))
+assert d["feasible"] is False and d["r_min"] is None and d["pinch"] is None and d["n_min"] is None, d
+assert "decanter" in d["reason"], d
+PY
+
+# screen proposes the decanter scheme for the same targets
+"$PW" screen "$TMP/bw.json" --pressure 1atm --xd 0.99 --xb 0.001 --json > "$TMP/scr.json" 2> /dev/null \
+    || fail "screen exited $?"
+python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); assert d["verdict"]=="infeasible" and any("decanter" in r["text"] for r in d["reasons"]), d' \
+    "$TMP/scr.json" || fail "screen does not propose the decanter scheme"
+
+# decanter: CONTRACT keys, mass balance, rows at 1.2/1.3/1.5
+"$PW" decanter "$TMP/bw.json" --pressure 1atm --zf 0.2 --x1-rich 0.995 --x1-lean 0.001 --json \
+    > "$TMP/dec.json" 2> "$TMP/err.txt" || fail "decanter exited $?: $(cat "$TMP/err.txt")"
+python3 - "$TMP/dec.json" <<'PY' || fail "decanter JSON"
+import json, sys
+d = json.load(open(sys.argv[1]))
+assert d["feasible"] is True and d["reason"] is None, d
+xI, xII = d["decanter"]["x1_layers"]
+assert 0 < xI < xII < 1 and d["decanter"]["T_K"] > 300, d
+A, B = d["columns"]
+assert A["bottoms_x1"] == 0.995 and B["bottoms_x1"] == 0.001, d
+assert abs(A["top_x1"] - xII) < 1e-12 and abs(B["top_x1"] - xI) < 1e-12, d
+for c in (A, B):
+    assert c["boilup_min"] > 0 and c["n_min"] > 0, c
+    assert [r["factor"] for r in c["design"]] == [1.2, 1.3, 1.5], c
+    assert all(r["stages"] > c["n_min"] for r in c["design"]), c
+    assert all(abs(r["boilup"] - r["factor"] * c["boilup_min"]) < 1e-9 * r["boilup"] for r in c["design"]), c
+bA, bB = d["bottoms_per_mol_feed"]
+assert abs(bA + bB - 1) < 1e-12, d
+assert abs(bA * 0.995 + bB * 0.001 - 0.2) < 1e-12, d
+PY
+# an impossible specification: exit 0, feasible false with a reason
+"$PW" decanter "$TMP/bw.json" --pressure 1atm --zf 0.2 --x1-rich 0.3 --x1-lean 0.001 --json \
+    > "$TMP/dec2.json" 2> /dev/null || fail "impossible decanter spec exited $?"
+python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); assert d["feasible"] is False and d["reason"] and d["columns"] is None, d' \
+    "$TMP/dec2.json" || fail "impossible decanter JSON"
+# text output with the cautions
+"$PW" decanter "$TMP/bw.json" --pressure 1atm --zf 0.2 --x1-rich 0.995 --x1-lean 0.001 \
+    > "$TMP/dec.txt" 2> /dev/null || fail "decanter text"
+grep -q "Column A" "$TMP/dec.txt" && grep -qi "licensed" "$TMP/dec.txt" || fail "decanter text output"
+"$PW" decanter "$TMP/bw.json" --pressure 1atm --zf 0.2 --x1-rich 0.995 > /dev/null 2> "$TMP/err.txt" \
+    && fail "missing --x1-lean accepted"
+grep -q "x1-lean" "$TMP/err.txt" || fail "missing option not named"
+# fit --lle: tie lines with the VLE data; the three-phase points are modelled as such;
+# T_ref_K stays the mean T of the VLE data
+"$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model nrtl --lle "$SRC/datasets/lle/butanol_water_25C_ties.csv" \
+    --out "$TMP/bwl.json" --json > "$TMP/fitl.json" 2> "$TMP/err.txt" || fail "fit --lle: $(cat "$TMP/err.txt")"
+python3 - "$TMP/fitl.json" "$SRC/datasets/butanol_water_1atm.csv" <<'PY' || fail "fit --lle JSON"
+import json, sys, csv
+d = json.load(open(sys.argv[1]))
+assert d["converged"] is True, d
+assert d["lle"]["tie_lines"] == 1 and d["lle"]["sigma_x"] == 0.003, d
+assert d["three_phase_points"] == 7, d
+rows = [r for r in csv.reader(l for l in open(sys.argv[2]) if not l.startswith("#"))][1:]
+T = [float(r[2]) for r in rows]
+assert abs(d["T_ref_K"] - sum(T) / len(T)) < 1e-9, (d["T_ref_K"], sum(T) / len(T))
+PY
+# Wilson is refused with tie lines, with the reason
+"$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model wilson --lle "$SRC/datasets/lle/butanol_water_25C_ties.csv" \
+    --out "$TMP/bwlw.json" > /dev/null 2> "$TMP/err.txt" && fail "wilson accepted with --lle"
+grep -q "cannot" "$TMP/err.txt" || fail "wilson refusal message: $(cat "$TMP/err.txt")"
+# a bad LLE file: file and line named
+printf '# components: 1-butanol, water\nT[C],x1_I,x1_II\n25,0.5,0.1\n' > "$TMP/bad_lle.csv"
+"$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model nrtl --lle "$TMP/bad_lle.csv" --out "$TMP/no.json" \
+    > /dev/null 2> "$TMP/err.txt" && fail "bad LLE file accepted"
+grep -q "bad_lle.csv:3:" "$TMP/err.txt" || fail "bad LLE message: $(cat "$TMP/err.txt")"
+[ ! -e "$TMP/no.json" ] || fail "a fit file was written after a bad LLE file"
+
+# check: the three-phase points are named and kept out of the one-liquid tests
+"$PW" check "$SRC/datasets/butanol_water_1atm.csv" --json > "$TMP/chk.json" 2> /dev/null || fail "check exited $?"
+python3 - "$TMP/chk.json" <<'PY' || fail "check JSON"
+import json, sys
+d = json.load(open(sys.argv[1]))
+h = d["three_phase_points"]
+assert len(h["points"]) == 7 and "two-liquid" in h["reason"], h
+assert h["activity_bound_ok"] is True and h["max_activity"] < 1.0, h
+assert all("pass" in t for t in d["tests"]), d
+PY
+"$PW" check "$SRC/datasets/butanol_water_1atm.csv" 2> /dev/null | grep -q "Three-phase points" \
+    || fail "check text names no three-phase points"
+# report: the azeotrope marked is the heterogeneous one (the flat three-phase line crosses y = x
+# there), not the crossing of the unstable one-liquid curve inside the gap
+"$PW" report "$TMP/bw.json" --out "$TMP/r.html" --json > "$TMP/rep.json" 2> /dev/null || fail "report exited $?"
+python3 - "$TMP/r.html" "$TMP/az.json" <<'PY' || fail "report azeotrope"
+import json, re, sys
+html = open(sys.argv[1]).read()
+z = [a for a in json.load(open(sys.argv[2]))["azeotropes"] if a["heterogeneous"]][0]
+xs = [float(v) for v in re.findall(r"azeotrope x = ([0-9.]+)", html)]
+assert xs and all(abs(x - z["x1"]) < 0.002 for x in xs), (xs, z)
+PY
+echo "ok"
