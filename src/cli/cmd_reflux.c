@@ -3,6 +3,7 @@
 #include "cli.h"
 #include "reflux_common.h"
 #include "reflux_uncert.h"
+#include "design_out.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -19,6 +20,9 @@ static void usage(FILE *f)
             "  --q Q               feed liquid fraction (1 saturated liquid, 0 saturated vapor,\n"
             "                      > 1 subcooled, < 0 superheated; default 1)\n"
             "  --factors F,F,...   design reflux as multiples of R_min (default 1.2,1.3,1.5)\n"
+            "  --energy            energy balance on every stage (heats of vaporization and heat\n"
+            "                      capacities from the component data) instead of constant\n"
+            "                      molal overflow; adds condenser and reboiler duties\n"
             "  --uncertainty       intervals of R_min, boil-up and stages from the fit's parameter\n"
             "                      covariance, feasibility risk, where to measure next\n"
             "  --samples N         parameter sets drawn for --uncertainty (default 400)\n"
@@ -34,10 +38,45 @@ static const char *section(pw_section s)
     return s == PW_SECTION_RECTIFYING ? "rectifying" : "stripping";
 }
 
+/* With --energy the headline numbers are the energy balance's; the rest (q-line, Fenske,
+ * relative volatilities) stays the constant-overflow analysis of the same curve. */
+static pw_column_result headline(const pw_reflux_run *run)
+{
+    pw_column_result c = run->col;
+    if (!run->energy)
+        return c;
+    const pw_energy_result *e = &run->energy_res;
+    c.feasible = e->feasible;
+    snprintf(c.reason, sizeof c.reason, "%s", e->reason);
+    c.r_min = e->r_min;
+    c.s_min = e->s_min;
+    c.pinch = e->pinch;
+    c.n_min = e->n_min;
+    c.reflux_limited = e->reflux_limited;
+    c.boilup_limited = e->boilup_limited;
+    c.r_feed = NAN;
+    return c;
+}
+
+static const char *caution_text(bool energy)
+{
+    if (energy)
+        return "Screening estimate (energy balances with constant heat capacities, ideal-gas vapor "
+               "enthalpies and the fitted model's H^E, which VLE data fix poorly). Stage counts "
+               "near R_min, above all near a tangent pinch, are very sensitive to the model. "
+               "Verify with rigorous simulation and pilot data; design per local codes under "
+               "licensed review.";
+    return "Screening estimate (constant molal overflow, fitted model). Stage counts near R_min, "
+           "above all near a tangent pinch, are very sensitive to the model. Verify with rigorous "
+           "simulation and pilot data; design per local codes under licensed review.";
+}
+
 json_t *pw_reflux_json(const pw_reflux_run *run)
 {
-    const pw_column_result *c = &run->col;
+    const pw_column_result view = headline(run);
+    const pw_column_result *c = &view;
     json_t *o = json_object();
+    json_object_set_new(o, "balance", json_string(pw_balance_name(run->design.balance)));
     json_object_set_new(o, "feasible", json_boolean(c->feasible));
     json_object_set_new(o, "reason", c->feasible ? json_null() : json_string(c->reason));
     json_object_set_new(o, "r_min", c->feasible ? pw_cli_json_num(c->r_min) : json_null());
@@ -70,19 +109,10 @@ json_t *pw_reflux_json(const pw_reflux_run *run)
     json_object_set_new(o, "n_fenske", c->feasible ? pw_cli_json_num(c->n_fenske) : json_null());
     json_object_set_new(o, "alpha_top", pw_cli_json_num(c->alpha_top));
     json_object_set_new(o, "alpha_bottom", pw_cli_json_num(c->alpha_bottom));
-    json_t *d = json_array();
-    for (size_t i = 0; c->feasible && i < c->n_design; i++) {
-        const pw_design_row *r = &c->design[i];
-        json_t *row = json_object();
-        json_object_set_new(row, "factor", pw_cli_json_num(r->factor));
-        json_object_set_new(row, "R", pw_cli_json_num(r->R));
-        json_object_set_new(row, "boilup", pw_cli_json_num(r->boilup));
-        json_object_set_new(row, "stages", pw_cli_json_num(r->stages));
-        json_object_set_new(row, "feed_stage", json_integer(r->feed_stage));
-        json_object_set_new(row, "gilliland_stages", pw_cli_json_num(r->gilliland_stages));
-        json_array_append_new(d, row);
-    }
-    json_object_set_new(o, "design", d);
+    json_object_set_new(o, "design", c->feasible ? pw_cli_design_json(&run->design)
+                                                 : json_array());
+    if (run->energy)
+        json_object_set_new(o, "energy", pw_cli_energy_json(&run->energy_res, run->col.r_min));
     json_object_set_new(o, "stage_convention",
                         json_string("equilibrium stages counted from the top, the partial reboiler "
                                     "as one stage, last step fractional"));
@@ -98,17 +128,14 @@ json_t *pw_reflux_json(const pw_reflux_run *run)
     json_object_set_new(o, "spec", spec);
     json_object_set_new(o, "T_top_K", pw_cli_json_num(run->T_top_K));
     json_object_set_new(o, "T_bottom_K", pw_cli_json_num(run->T_bottom_K));
-    json_object_set_new(o, "caution",
-                        json_string("Screening estimate (constant molal overflow, fitted model). "
-                                    "Stage counts near R_min, above all near a tangent pinch, are "
-                                    "very sensitive to the model. Verify with rigorous simulation "
-                                    "and pilot data; design per local codes under licensed review."));
+    json_object_set_new(o, "caution", json_string(caution_text(run->energy)));
     return o;
 }
 
 static void print_table(const pw_reflux_run *run)
 {
-    const pw_column_result *c = &run->col;
+    const pw_column_result view = headline(run);
+    const pw_column_result *c = &view;
     printf("column at %.4g kPa: xd %.4g, xb %.4g, zf %.4g, q %.4g (%s / %s)\n", run->P_Pa / 1e3,
            run->spec.xd, run->spec.xb, run->spec.zf, run->spec.q, run->fit.sys.comp[0].name,
            run->fit.sys.comp[1].name);
@@ -128,21 +155,15 @@ static void print_table(const pw_reflux_run *run)
     else
         printf("  limiting pinch            %s pinch in the %s section at x = %.5f, y = %.5f\n",
                pinch_kind(c->pinch.kind), section(c->pinch.section), c->pinch.x, c->pinch.y);
-    if (c->pinch.kind == PW_PINCH_TANGENT && !c->boilup_limited)
+    if (c->pinch.kind == PW_PINCH_TANGENT && !c->boilup_limited && isfinite(c->r_feed))
         printf("  (a search at the q-line alone would give R = %.6g: %.0f %% too low)\n", c->r_feed,
                100.0 * (c->r_min - c->r_feed) / c->r_min);
     printf("  stages at total reflux    %.3f stepped (Fenske %.3f, alpha top %.3f, bottom %.3f)\n",
            c->n_min, c->n_fenske, c->alpha_top, c->alpha_bottom);
-    printf("\n  %-8s %9s %9s %9s %6s %12s\n", "R/R_min", "R", "Vbar/B", "stages", "feed",
-           "Gilliland*");
-    for (size_t i = 0; i < c->n_design; i++) {
-        const pw_design_row *r = &c->design[i];
-        printf("  %-8.3g %9.4f %9.4f %9.3f %6d %12.2f\n", r->factor, r->R, r->boilup, r->stages,
-               r->feed_stage, r->gilliland_stages);
-    }
-    printf("  stages include the partial reboiler; feed stage counted from the top.\n"
-           "  * Molokanov et al. (1972) form of the Gilliland correlation, for comparison only.\n"
-           "  Design reflux of 1.2-1.5 R_min is common practice.\n");
+    if (run->energy)
+        printf("  energy balances           R_min %.6g (constant molal overflow %.6g)\n",
+               c->r_min, run->col.r_min);
+    pw_cli_design_print(&run->design);
     printf("\n  Screening estimate only: verify with rigorous simulation and pilot data; size\n"
            "  equipment and relief per local codes under licensed engineering review.\n");
 }
@@ -159,6 +180,10 @@ int pw_cli_reflux(int argc, char **argv)
     }
     if (rc != 0)
         return pw_cli_fail("reflux", &err);
+    if (a.energy && (a.uncertainty || a.n_extra))
+        return pw_cli_failf("reflux", PW_EXIT_USAGE,
+                            "--energy does not combine with --uncertainty, --samples, --seed or "
+                            "--compare yet");
     pw_reflux_run run;
     rc = pw_reflux_compute(&a, &run, &err);
     if (rc != 0)
@@ -166,7 +191,7 @@ int pw_cli_reflux(int argc, char **argv)
     pw_reflux_uncert unc;
     bool with_unc = a.uncertainty || a.n_extra;
     if (with_unc && (rc = pw_reflux_uncert_run(&a, &run, &unc, &err)) != 0) {
-        pw_fit_result_free(&run.fit);
+        pw_reflux_run_free(&run);
         return pw_cli_fail("reflux", &err);
     }
     pw_reflux_warn(&run);
@@ -180,6 +205,6 @@ int pw_cli_reflux(int argc, char **argv)
         if (with_unc)
             pw_reflux_uncert_print(&unc, &run);
     }
-    pw_fit_result_free(&run.fit);
+    pw_reflux_run_free(&run);
     return rc;
 }

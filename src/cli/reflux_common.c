@@ -47,6 +47,10 @@ int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err
             a->json = true;
             continue;
         }
+        if (pw_cli_opt(argc, argv, &i, "--energy", NULL, NULL)) {
+            a->energy = true;
+            continue;
+        }
         if (pw_cli_opt(argc, argv, &i, "--uncertainty", NULL, NULL)) {
             a->uncertainty = true;
             continue;
@@ -116,11 +120,20 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
     run->spec = a->spec;
     pw_system_curve sc;
     st = pw_system_curve_init(&sc, &run->fit.sys, a->P_Pa);
+    /* The design rows come from pw_design_cmo / pw_energy_column_solve (with stage profiles,
+     * and a row the column cannot reach marked as such), not from pw_column_solve's table. */
+    pw_column_options o = a->opt;
+    o.n_factors = 0;
     if (st == PW_OK) {
         pw_curve curve = pw_system_curve_bind(&sc);
-        st = pw_column_solve(&curve, &a->spec, &a->opt, &run->col);
+        st = pw_column_solve(&curve, &a->spec, &o, &run->col);
+    }
+    if (st == PW_OK && run->col.feasible && run->col.r_min > 0.0) {
+        st = pw_design_cmo(&run->fit.sys, a->P_Pa, &a->spec, run->col.r_min, run->col.n_min,
+                           &a->opt, &run->design);
     }
     if (st != PW_OK) {
+        pw_design_table_free(&run->design);
         pw_error_set(err, st, a->fit_path, 0, "%s%s%s", pw_strerror(st),
                      run->col.reason[0] ? ": " : "", run->col.reason);
         pw_fit_result_free(&run->fit);
@@ -130,6 +143,12 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
     run->T_top_K = pw_bubble_T(&run->fit.sys, a->P_Pa, a->spec.xd, &e) == PW_OK ? e.T_K : (double)NAN;
     run->T_bottom_K = pw_bubble_T(&run->fit.sys, a->P_Pa, a->spec.xb, &e) == PW_OK ? e.T_K : (double)NAN;
     return 0;
+}
+
+void pw_reflux_run_free(pw_reflux_run *run)
+{
+    pw_design_table_free(&run->design);
+    pw_fit_result_free(&run->fit);
 }
 
 void pw_reflux_warn(const pw_reflux_run *run)
@@ -154,6 +173,12 @@ void pw_reflux_warn(const pw_reflux_run *run)
                      "by more than 5 K: the model is extrapolated",
                      fmin(run->T_top_K, run->T_bottom_K), fmax(run->T_top_K, run->T_bottom_K),
                      r->T_min_K, r->T_max_K);
+    double mis = pw_latent_heat_mismatch(&r->sys);
+    if (!run->energy && mis > 0.10)
+        pw_cli_warnf("reflux", "the heats of vaporization of %s and %s differ by %.0f %%: constant "
+                     "molal overflow is doubtful above about 10 %% (common practice); consider "
+                     "--energy",
+                     r->sys.comp[0].name, r->sys.comp[1].name, 100.0 * mis);
     if (!r->converged)
         pw_cli_warnf("reflux", "%s: the fit did not converge; do not design with it", r->dataset_path);
     pw_cli_warn_vapor_association("reflux", &r->sys);
