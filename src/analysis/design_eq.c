@@ -80,7 +80,11 @@ pw_status pw_eqp_bubble(pw_eqp *e, double x, double *y, double *T_K)
     if (!isfinite(p.y1) || !isfinite(p.T_K))
         return PW_EDOM;
     e->T_last = p.T_K;
-    *y = fmin(1.0, fmax(0.0, p.y1));
+    /* y from the normalised K-values at the converged T: the bubble solve's small residual in
+     * sum(y) then moves y only through the relative volatility's (weak) T dependence. */
+    double k1 = x * p.gamma[0] * p.Psat_Pa[0], k2 = (1.0 - x) * p.gamma[1] * p.Psat_Pa[1];
+    double yn = k1 / (k1 + k2);
+    *y = isfinite(yn) ? yn : fmin(1.0, fmax(0.0, p.y1));
     if (T_K)
         *T_K = p.T_K;
     return PW_OK;

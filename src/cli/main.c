@@ -14,6 +14,7 @@ static const pw_cli_command commands[] = {
     {"reflux", "minimum reflux, pinch, and stages of a binary column", pw_cli_reflux},
     {"screen", "quick feasibility verdict for a split", pw_cli_screen},
     {"report", "self-contained HTML report of a fit (and a column)", pw_cli_report},
+    {"rate", "products and stage profile of a given column", pw_cli_rate},
 };
 
 static void usage(FILE *f)
