@@ -143,7 +143,11 @@ static void print_table(const pw_reflux_run *run)
         printf("  NOT FEASIBLE by simple distillation: %s\n", c->reason);
         return;
     }
-    printf("  minimum reflux R_min      %.6g  (minimum boil-up Vbar/B %.6g)\n", c->r_min, c->s_min);
+    if (isfinite(c->s_min))
+        printf("  minimum reflux R_min      %.6g  (minimum boil-up Vbar/B %.6g)\n", c->r_min,
+               c->s_min);
+    else
+        printf("  minimum reflux R_min      %.6g\n", c->r_min);
     if (c->reflux_limited)
         printf("  no reflux needed          at R = 0 the operating lines clear the curve: a\n"
                "                            stripping column with the feed on top makes this\n"

@@ -128,7 +128,28 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
         pw_curve curve = pw_system_curve_bind(&sc);
         st = pw_column_solve(&curve, &a->spec, &o, &run->col);
     }
-    if (st == PW_OK && run->col.feasible && run->col.r_min > 0.0) {
+    if (st == PW_OK && a->energy) {
+        run->energy = true;
+        pw_heat_data heat;
+        st = pw_heat_data_from_system(&run->fit.sys, &heat, err);
+        if (st != PW_OK) {
+            char msg[PW_ERROR_MSG_MAX];
+            snprintf(msg, sizeof msg, "%s", err->msg);
+            pw_error_set(err, st, a->fit_path, 0, "--energy: %s", msg);
+            pw_fit_result_free(&run->fit);
+            return pw_status_exit_code(st);
+        }
+        if (run->col.feasible)
+            st = pw_energy_column_solve(&run->fit.sys, &heat, a->P_Pa, &a->spec, &a->opt,
+                                        &run->energy_res, &run->design);
+        else {
+            run->energy_res.feasible = false;
+            snprintf(run->energy_res.reason, sizeof run->energy_res.reason, "%s",
+                     run->col.reason);
+        }
+        if (st != PW_OK && run->energy_res.reason[0])
+            snprintf(run->col.reason, sizeof run->col.reason, "%s", run->energy_res.reason);
+    } else if (st == PW_OK && run->col.feasible && run->col.r_min > 0.0) {
         st = pw_design_cmo(&run->fit.sys, a->P_Pa, &a->spec, run->col.r_min, run->col.n_min,
                            &a->opt, &run->design);
     }
@@ -185,7 +206,8 @@ void pw_reflux_warn(const pw_reflux_run *run)
     if (r->split)
         pw_cli_warnf("reflux", "the fitted model predicts a liquid-liquid split (x1 = %.3f at %.1f K)",
                      r->split_x, r->split_T_K);
-    if (run->col.feasible && run->col.pinch.kind == PW_PINCH_TANGENT)
+    if (run->energy ? run->energy_res.feasible && run->energy_res.pinch.kind == PW_PINCH_TANGENT
+                    : run->col.feasible && run->col.pinch.kind == PW_PINCH_TANGENT)
         pw_cli_warnf("reflux", "tangent pinch: stage counts near R_min are very sensitive to the "
                      "model; consider --uncertainty");
 }
