@@ -186,11 +186,14 @@ static double ev(en *c, en_fn f, void *p, double x, pw_status *st)
     return v;
 }
 
-/* The liquid of the feed's tie line. PW_ERANGE when it lies outside (xb, xd). */
-static pw_status feed_liquid(en *c, double *xf)
+/* The liquid of the feed's tie line; *side = -1 when it lies at or below xb (a vapor-rich
+ * feed: no stripping tie line limits), +1 at or above xd (a cold feed: no rectifying tie line
+ * limits), 0 inside. */
+static pw_status feed_liquid(en *c, double *xf, int *side)
 {
     const pw_column_spec *s = &c->s;
     pw_status st;
+    *side = 0;
     if (s->q == 1.0) { /* the feed point is the saturated liquid z: its own tie line */
         *xf = s->zf;
         return PW_OK;
@@ -200,7 +203,8 @@ static pw_status feed_liquid(en *c, double *xf)
         return st;
     if (s->q == 0.0) { /* the saturated vapor z: the tie line ending there */
         *xf = xz;
-        return xz > s->xb && xz < s->xd ? PW_OK : PW_ERANGE;
+        *side = xz <= s->xb ? -1 : 0;
+        return PW_OK;
     }
     double a, b;
     if (s->q > 1.0) {
@@ -219,12 +223,16 @@ static pw_status feed_liquid(en *c, double *xf)
     double fb = ev(c, feed_tie, NULL, b, &st);
     if (st != PW_OK)
         return st;
-    if ((fa > 0.0) == (fb > 0.0) && fa != 0.0 && fb != 0.0)
-        return PW_ERANGE;
+    if ((fa > 0.0) == (fb > 0.0) && fa != 0.0 && fb != 0.0) {
+        *side = s->q > 1.0 ? 1 : -1; /* no crossing inside: beyond the end the q side points to */
+        *xf = s->q > 1.0 ? s->xd : s->xb;
+        return PW_OK;
+    }
     st = root(c, feed_tie, NULL, a, b, fa, fb, xf);
     if (st != PW_OK)
         return st;
-    return *xf > s->xb && *xf < s->xd ? PW_OK : PW_ERANGE;
+    *side = *xf <= s->xb ? -1 : *xf >= s->xd ? 1 : 0;
+    return PW_OK;
 }
 
 /* Extremum of sign * v over [a, b] (sign = +1 max, -1 min), the end `fe` (a or b) being the feed
@@ -510,26 +518,30 @@ static pw_status rmin_search(en *c, size_t grid, pw_energy_result *out)
 {
     const pw_column_spec *s = &c->s;
     double xf;
-    pw_status st = feed_liquid(c, &xf);
-    if (st == PW_ERANGE) {
-        snprintf(out->reason, sizeof out->reason,
-                 "the tie line through the feed point (q = %g) meets the saturated liquid outside "
-                 "(xb, xd): the feed's thermal condition is outside the range of this method",
-                 s->q);
-        return PW_OK;
-    }
+    int side;
+    pw_status st = feed_liquid(c, &xf, &side);
     if (st != PW_OK)
         return st;
-    out->x_feed = xf;
     double T;
-    if ((st = pw_eqp_bubble(&c->e, xf, &out->y_feed, &T)) != PW_OK)
+    if (side == 0) {
+        out->x_feed = xf;
+        if ((st = pw_eqp_bubble(&c->e, xf, &out->y_feed, &T)) != PW_OK)
+            return st;
+    }
+    /* A feed tie line below xb leaves the whole column to the rectifying section (the reboiler
+     * duty's floor, zero, may then limit: see below); above xd, to the stripping section (and
+     * R >= 0 may limit). */
+    double xr = xf, vr = -INFINITY, xs_ = xf, vs_ = INFINITY;
+    bool fr = false, fs = false;
+    if (side <= 0 &&
+        (st = section_extremum(c, s->xd, 1.0, xf, s->xd, true, grid, &xr, &vr, &fr)) != PW_OK)
         return st;
-    double xr, vr, xs_, vs_;
-    bool fr, fs;
-    if ((st = section_extremum(c, s->xd, 1.0, xf, s->xd, true, grid, &xr, &vr, &fr)) != PW_OK)
+    if (side >= 0 &&
+        (st = section_extremum(c, s->xb, -1.0, s->xb, xf, false, grid, &xs_, &vs_, &fs)) != PW_OK)
         return st;
-    if ((st = section_extremum(c, s->xb, -1.0, s->xb, xf, false, grid, &xs_, &vs_, &fs)) != PW_OK)
-        return st;
+    if (side != 0) {
+        fr = fs = false; /* the end of the scan is a product, not a feed point */
+    }
     /* The stepping check: a pinch the scan missed stops the staircase just above R_min. */
     for (int rep = 0;; rep++) {
         out->r_rect = reflux_of(c, vr);

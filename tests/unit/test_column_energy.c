@@ -122,6 +122,45 @@ static void test_equal_heats_random(void **state)
     assert_true(compared >= 16);
 }
 
+/* (a) where a flow, not a pinch, limits: a dilute vapor-rich feed whose tie line falls below xb
+ * (zero reboiler duty limits, as zero boil-up does with constant overflow), a cold feed rich in
+ * component 1 (no reflux needed), and rectifying tangent pinches above such feeds. */
+static void test_equal_heats_flow_limits(void **state)
+{
+    (void)state;
+    pw_system systems[2] = {design_ideal_system(4.0), wilson_athermal()};
+    struct { double xd, xb, zf, q; } c[] = {
+        {0.9, 0.02, 0.05, 0.5}, {0.9, 0.02, 0.05, 0.0}, {0.9, 0.02, 0.05, -0.3},
+        {0.98, 0.3, 0.95, 3.0}, {0.98, 0.3, 0.9, 6.0},  {0.9, 0.02, 0.05, 1.0},
+    };
+    int flow_limited = 0;
+    for (int k = 0; k < 2; k++) {
+        pw_heat_data h = heats(&systems[k], 30000.0, 30000.0, 0, 0, 0, 0);
+        for (size_t i = 0; i < sizeof c / sizeof c[0]; i++) {
+            pw_column_spec s = {c[i].xd, c[i].xb, c[i].zf, c[i].q};
+            pw_system_curve sc;
+            assert_int_equal(pw_system_curve_init(&sc, &systems[k], P_PA), PW_OK);
+            pw_curve cv = pw_system_curve_bind(&sc);
+            pw_column_result col;
+            pw_column_options o = pw_column_default_options();
+            o.n_factors = 0;
+            assert_int_equal(pw_column_solve(&cv, &s, &o, &col), PW_OK);
+            pw_energy_result r;
+            assert_int_equal(pw_energy_column_solve(&systems[k], &h, P_PA, &s, &o, &r, NULL),
+                             PW_OK);
+            assert_int_equal(r.feasible, col.feasible);
+            if (!col.feasible)
+                continue;
+            pw_assert_close(r.r_min, col.r_min, 1e-6, 1e-9, "R_min = column module's");
+            assert_int_equal(r.reflux_limited, col.reflux_limited);
+            if (col.boilup_limited && col.pinch.kind == PW_PINCH_FEED)
+                assert_true(r.boilup_limited);
+            flow_limited += r.boilup_limited || r.reflux_limited;
+        }
+    }
+    assert_true(flow_limited >= 4);
+}
+
 /* (b) Unequal heats, no heat capacities, H^E = 0: CMO in pseudo-moles x' = k x/(k x + 1 - x),
  * k = l1/l2 (METHODS2 5.4(b), derived): R_min = Underwood(alpha, z', xd', q). The brief's numbers
  * for alpha 2.5, z 0.5, xd 0.95, xb 0.05, l = 30 and 40 kJ/mol: 1.262295 (q = 1), 2.557377
@@ -308,6 +347,7 @@ int main(void)
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_equal_heats_constant_alpha),
         cmocka_unit_test(test_equal_heats_random),
+        cmocka_unit_test(test_equal_heats_flow_limits),
         cmocka_unit_test(test_unequal_heats_pseudo_moles),
         cmocka_unit_test(test_balances_close),
         cmocka_unit_test(test_hE_gibbs_helmholtz),
