@@ -132,6 +132,15 @@ typedef struct pw_rate_result {
 pw_status pw_rate_cmo(const pw_system *sys, double P_Pa, const pw_rate_spec *spec,
                       pw_rate_result *out, pw_error *err);
 
+/* The same with an energy balance on every stage (difference points, docs/column.md): DeltaD
+ * from R and the products, DeltaB from the overall energy balance. Energy balances can admit more
+ * than one steady state: the unknown is scanned on 48 points and every bracketed sign change
+ * solved; *n_roots says how many were found, out holds the first (lowest xd, or highest xb).
+ * *Q_C, *Q_R in J per mol feed. PW_EINFEASIBLE when no steady state is found. */
+pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double P_Pa,
+                         const pw_rate_spec *spec, pw_rate_result *out, double *Q_C, double *Q_R,
+                         size_t *n_roots, pw_error *err);
+
 void pw_rate_result_free(pw_rate_result *r);
 
 #ifdef __cplusplus

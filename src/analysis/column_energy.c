@@ -682,3 +682,262 @@ pw_status pw_energy_column_solve(const pw_system *sys, const pw_heat_data *heat,
     }
     return PW_OK;
 }
+
+/* ---- rating with energy balances ---- */
+
+/* The liquid on the line through DeltaB and the vapor (y, H): stage n-1's liquid from stage n's
+ * vapor in the stripping section. g(x) > 0 at xb (Q_R > 0), < 0 at y (H_V > h_L). */
+typedef struct liq_ctx {
+    double y, H, hdB;
+} liq_ctx;
+
+static double liq_fn(en *c, double x, void *p)
+{
+    liq_ctx *l = p;
+    double y, T, hL, HV;
+    pw_status st = tie(c, x, &y, &T, &hL, &HV);
+    if (st != PW_OK) {
+        if (c->cb == PW_OK)
+            c->cb = st;
+        return GSL_NAN;
+    }
+    return (hL - l->hdB) * (l->y - c->s.xb) - (l->H - l->hdB) * (x - c->s.xb);
+}
+
+typedef struct rate_en {
+    en c;
+    const pw_rate_spec *r;
+    bool by_xb;
+    pw_status status;
+    double Q_C, Q_R;
+} rate_en;
+
+static void rate_products(const rate_en *q, double w, double *xd, double *xb)
+{
+    const double D = q->r->d_frac, B = 1.0 - D, z = q->r->zf;
+    if (q->by_xb) {
+        *xb = w;
+        *xd = fmin(1.0, fmax(0.0, (z - B * w) / D));
+    } else {
+        *xd = w;
+        *xb = fmin(1.0, fmax(0.0, (z - D * w) / B));
+    }
+}
+
+/* Both sections at products (xd, xb): the feed stage's liquid from each; the profile when asked. */
+static pw_status rate_sections(rate_en *q, double xd, double xb, double *x_top, double *x_bot,
+                               pw_profile *prof)
+{
+    en *c = &q->c;
+    const pw_rate_spec *r = q->r;
+    const int N = r->n_stages, K = r->feed_stage;
+    const double D = r->d_frac, B = 1.0 - D;
+    c->s.xd = xd;
+    c->s.xb = xb;
+    pw_status st;
+    double y, T, hD, hB, Htop, xx;
+    if ((st = pw_eqp_bubble(&c->e, xd, &y, &T)) != PW_OK ||
+        (st = pw_enthalpy_liquid(c->e.sys, c->h, xd, T, &hD)) != PW_OK ||
+        (st = sat_vapor(c, xd, &Htop, &xx, &T)) != PW_OK)
+        return st;
+    if ((st = pw_eqp_bubble(&c->e, xb, &y, &T)) != PW_OK ||
+        (st = pw_enthalpy_liquid(c->e.sys, c->h, xb, T, &hB)) != PW_OK)
+        return st;
+    const double hdD = hD + (r->R + 1.0) * (Htop - hD);
+    const double hdB = (c->h_F - D * hdD) / B; /* overall energy balance, F = 1 */
+    q->Q_C = D * (hdD - hD);
+    q->Q_R = B * (hB - hdB);
+    if (!(q->Q_R > 0.0))
+        return PW_EINFEASIBLE; /* no reboiler duty at these products */
+    /* Top: stages 1..K. */
+    double yv = xd, V = (r->R + 1.0) * D, x = NAN;
+    size_t first = prof ? prof->n : 0;
+    for (int n = 1; n <= K; n++) {
+        pw_stage g = {.y = yv, .V = V};
+        if ((st = pw_eqp_x_of_y(&c->e, yv, &g.x, &g.T_K)) != PW_OK)
+            return st;
+        x = g.x;
+        if (n < K) {
+            double hn;
+            if ((st = pw_enthalpy_liquid(c->e.sys, c->h, g.x, g.T_K, &hn)) != PW_OK)
+                return st;
+            line_ctx l = {g.x, hn, xd, hdD, false};
+            double fa = ev(c, line_fn, &l, g.x, &st);
+            if (st != PW_OK)
+                return st;
+            double fb = ev(c, line_fn, &l, xd, &st);
+            if (st != PW_OK)
+                return st;
+            double yn;
+            if ((st = root(c, line_fn, &l, g.x, xd, fa, fb, &yn)) != PW_OK)
+                return st == PW_ENOBRACKET ? PW_EINFEASIBLE : st;
+            g.L = D * (xd - yn) / (yn - g.x);
+            V = g.L + D;
+            yv = yn;
+        }
+        if (prof && (st = pw_profile_push(prof, &g)) != PW_OK)
+            return st;
+    }
+    *x_top = x;
+    /* Bottom: stages N..K+1, upwards. */
+    double xs = xb;
+    size_t first_bottom = prof ? prof->n : 0;
+    for (int n = N; n > K; n--) {
+        pw_stage g = {.x = xs};
+        double hL, HV;
+        if ((st = tie(c, xs, &g.y, &g.T_K, &hL, &HV)) != PW_OK)
+            return st;
+        liq_ctx l = {g.y, HV, hdB};
+        double fa = ev(c, liq_fn, &l, xb, &st);
+        if (st != PW_OK)
+            return st;
+        double fb = ev(c, liq_fn, &l, g.y, &st);
+        if (st != PW_OK)
+            return st;
+        double xn;
+        if ((st = root(c, liq_fn, &l, xb, g.y, fa, fb, &xn)) != PW_OK)
+            return st == PW_ENOBRACKET ? PW_EINFEASIBLE : st;
+        g.V = B * (xn - xb) / (g.y - xn); /* vapor leaving stage n, from the balance below n-1 */
+        if (prof && (st = pw_profile_push(prof, &g)) != PW_OK)
+            return st;
+        xs = xn;
+    }
+    *x_bot = K == N ? xb : xs;
+    if (prof) {
+        /* Reverse the bottom stages, then the liquids leaving: L_n = V_{n+1} + B below the feed
+         * stage's top side, B from the reboiler. */
+        for (size_t i = first_bottom, j = prof->n - 1; i < j && j > 0; i++, j--) {
+            pw_stage t = prof->stage[i];
+            prof->stage[i] = prof->stage[j];
+            prof->stage[j] = t;
+        }
+        for (size_t i = first + (size_t)K - 1; i < prof->n; i++)
+            prof->stage[i].L = i + 1 < prof->n ? prof->stage[i + 1].V + B : B;
+    }
+    return PW_OK;
+}
+
+static double rate_residual(double w, void *p)
+{
+    rate_en *q = p;
+    double xd, xb, a, b;
+    rate_products(q, w, &xd, &xb);
+    pw_status st = rate_sections(q, xd, xb, &a, &b, NULL);
+    if (st != PW_OK) {
+        if (q->status == PW_OK)
+            q->status = st;
+        return GSL_NAN;
+    }
+    return q->by_xb ? b - a : a - b;
+}
+
+#define RATE_SCAN 48
+
+pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double P_Pa,
+                         const pw_rate_spec *spec, pw_rate_result *out, double *Q_C, double *Q_R,
+                         size_t *n_roots, pw_error *err)
+{
+    if (!out || !spec || !heat)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no specification");
+    memset(out, 0, sizeof *out);
+    out->xd = out->xb = out->residual = NAN;
+    *n_roots = 0;
+    pw_status st = pw_rate_check_spec(spec, err);
+    if (st != PW_OK)
+        return st;
+    const double D = spec->d_frac, B = 1.0 - D, z = spec->zf;
+    /* The feed enthalpy needs a spec; the products are set per evaluation. */
+    pw_column_spec s0 = {.xd = fmin(1.0, z + 0.5 * (1.0 - z)), .xb = 0.5 * z, .zf = z, .q = spec->q};
+    rate_en q = {.r = spec};
+    st = en_init(&q.c, sys, heat, P_Pa, &s0);
+    if (st != PW_OK) {
+        en_free(&q.c);
+        return pw_error_set(err, st, NULL, 0, "rating: %s", pw_strerror(st));
+    }
+    q.by_xb = z / D <= 1.0;
+    double lo, hi;
+    if (q.by_xb) {
+        lo = 0.0;
+        hi = fmin(1.0, z / B);
+    } else {
+        lo = fmax(0.0, (z - B) / D);
+        hi = 1.0;
+    }
+    /* Energy balances can give more than one steady state: scan the unknown, solve every
+     * bracketed sign change, report the first and how many there were. */
+    double wv[RATE_SCAN], rv[RATE_SCAN];
+    for (int i = 0; i < RATE_SCAN; i++) {
+        wv[i] = lo + (hi - lo) * (double)i / (RATE_SCAN - 1);
+        q.status = PW_OK;
+        rv[i] = rate_residual(wv[i], &q);
+        if (q.status != PW_OK && q.status != PW_EINFEASIBLE && q.status != PW_ENOBRACKET) {
+            st = q.status;
+            break;
+        }
+    }
+    double w_sol = NAN;
+    gsl_root_fsolver *outer = gsl_root_fsolver_alloc(gsl_root_fsolver_brent); /* the inner
+                                                                                 * solves use c.root */
+    if (!outer && st == PW_OK)
+        st = PW_ENOMEM;
+    for (int i = 0; st == PW_OK && i + 1 < RATE_SCAN; i++) {
+        if (!isfinite(rv[i]) || !isfinite(rv[i + 1]))
+            continue;
+        if (!((rv[i] <= 0.0 && rv[i + 1] > 0.0) || (rv[i] >= 0.0 && rv[i + 1] < 0.0)))
+            continue;
+        double w;
+        gsl_function F = {rate_residual, &q};
+        q.status = PW_OK;
+        if (rv[i] == 0.0) {
+            w = wv[i];
+        } else {
+            if (gsl_root_fsolver_set(outer, &F, wv[i], wv[i + 1]) != GSL_SUCCESS)
+                continue;
+            w = NAN;
+            for (int it = 0; it < ROOT_ITER; it++) {
+                if (gsl_root_fsolver_iterate(outer) != GSL_SUCCESS || q.status != PW_OK)
+                    break;
+                double a = gsl_root_fsolver_x_lower(outer), b = gsl_root_fsolver_x_upper(outer);
+                if (gsl_root_test_interval(a, b, 1e-300, 4.0 * DBL_EPSILON) == GSL_SUCCESS) {
+                    w = gsl_root_fsolver_root(outer);
+                    break;
+                }
+            }
+            if (!isfinite(w))
+                continue;
+        }
+        if (!isfinite(w_sol))
+            w_sol = w;
+        (*n_roots)++;
+    }
+    if (outer)
+        gsl_root_fsolver_free(outer);
+    if (st == PW_OK && !isfinite(w_sol))
+        st = PW_ENOBRACKET;
+    if (st == PW_OK) {
+        double xd, xb, a, b;
+        rate_products(&q, w_sol, &xd, &xb);
+        st = rate_sections(&q, xd, xb, &a, &b, &out->profile);
+        out->xd = xd;
+        out->xb = xb;
+        out->residual = a - b;
+        out->profile.stages = spec->n_stages;
+        out->profile.feed_stage = spec->feed_stage;
+        if (Q_C)
+            *Q_C = q.Q_C;
+        if (Q_R)
+            *Q_R = q.Q_R;
+    }
+    en_free(&q.c);
+    if (st != PW_OK) {
+        pw_rate_result_free(out);
+        if (st == PW_ENOBRACKET)
+            return pw_error_set(err, PW_EINFEASIBLE, NULL, 0,
+                                "rating with energy balances: no steady state found (no reboiler "
+                                "duty, or no products the stages can make at this reflux and "
+                                "distillate rate)");
+        return pw_error_set(err, st, NULL, 0, "rating with energy balances: %s",
+                            pw_strerror(st));
+    }
+    return PW_OK;
+}

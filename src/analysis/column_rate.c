@@ -100,7 +100,7 @@ static double residual_fn(double w, void *p)
     return c->by_xb ? b - a : a - b; /* increasing in the unknown */
 }
 
-static pw_status check_spec(const pw_rate_spec *s, pw_error *err)
+pw_status pw_rate_check_spec(const pw_rate_spec *s, pw_error *err)
 {
     if (!(s->n_stages >= 1 && s->n_stages <= RATE_MAX_STAGES))
         return pw_error_set(err, PW_EINVAL, NULL, 0, "--stages %d: expected 1 to %d", s->n_stages,
@@ -142,7 +142,7 @@ pw_status pw_rate_cmo(const pw_system *sys, double P_Pa, const pw_rate_spec *spe
         return pw_error_set(err, PW_EINVAL, NULL, 0, "no specification");
     memset(out, 0, sizeof *out);
     out->xd = out->xb = out->residual = NAN;
-    pw_status st = check_spec(spec, err);
+    pw_status st = pw_rate_check_spec(spec, err);
     if (st != PW_OK)
         return st;
     pw_eqp e;

@@ -26,6 +26,9 @@ pw_status pw_eqp_bubble(pw_eqp *e, double x, double *y, double *T_K);
  * curve is increasing for a stable liquid, so the root is unique; solved to about 1e-15. */
 pw_status pw_eqp_x_of_y(pw_eqp *e, double y, double *x, double *T_K);
 
+/* Validates a rating specification (both balances); err says what is impossible. */
+pw_status pw_rate_check_spec(const pw_rate_spec *s, pw_error *err);
+
 /* Appends a stage to a profile (grows the array). PW_ENOMEM on failure. */
 pw_status pw_profile_push(pw_profile *p, const pw_stage *s);
 

@@ -23,8 +23,15 @@ static void usage(FILE *f)
             "  --pressure P        column pressure with its unit, e.g. 101.325kPa, 1atm\n"
             "  --zf X              feed mole fraction of component 1\n"
             "  --q Q               feed liquid fraction (default 1, saturated liquid)\n"
+            "  --energy            energy balance on every stage (heat data from the component\n"
+            "                      file) instead of constant molal overflow; adds the duties\n"
             "  --json              print one JSON object on stdout\n");
 }
+
+typedef struct pw_rate_energy_out {
+    double Q_C, Q_R; /* J per mol feed */
+    size_t n_roots;
+} pw_rate_energy_out;
 
 typedef struct rate_args {
     const char *fit_path, *components;
@@ -115,13 +122,20 @@ static int parse(int argc, char **argv, rate_args *a, pw_error *err)
     return 0;
 }
 
-static json_t *to_json(const rate_args *a, const pw_fit_result *fit, const pw_rate_result *r)
+static json_t *to_json(const rate_args *a, const pw_fit_result *fit, const pw_rate_result *r,
+                       const pw_rate_energy_out *en)
 {
     json_t *o = json_object();
     json_object_set_new(o, "xd", pw_cli_json_num(r->xd));
     json_object_set_new(o, "xb", pw_cli_json_num(r->xb));
     json_object_set_new(o, "stages", pw_cli_profile_json(&r->profile));
-    json_object_set_new(o, "balance", json_string(pw_balance_name(PW_BALANCE_CMO)));
+    json_object_set_new(o, "balance",
+                        json_string(pw_balance_name(a->energy ? PW_BALANCE_ENERGY : PW_BALANCE_CMO)));
+    if (a->energy) {
+        json_object_set_new(o, "condenser_kJ_per_mol_feed", pw_cli_json_num(en->Q_C / 1e3));
+        json_object_set_new(o, "reboiler_kJ_per_mol_feed", pw_cli_json_num(en->Q_R / 1e3));
+        json_object_set_new(o, "steady_states_found", json_integer((json_int_t)en->n_roots));
+    }
     json_object_set_new(o, "components", json_pack("[s,s]", fit->sys.comp[0].name,
                                                    fit->sys.comp[1].name));
     json_t *spec = json_object();
@@ -158,20 +172,33 @@ int pw_cli_rate(int argc, char **argv)
     }
     if (rc)
         return pw_cli_fail(CMD, &err);
-    if (a.energy)
-        return pw_cli_failf(CMD, PW_EXIT_USAGE,
-                            "--energy is not available for rate yet (constant molal overflow "
-                            "only); reflux --energy designs with energy balances");
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
     if (pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
     pw_rate_result r;
-    pw_status st = pw_rate_cmo(&fit.sys, a.P_Pa, &a.spec, &r, &err);
+    pw_rate_energy_out en = {.Q_C = NAN, .Q_R = NAN};
+    pw_status st;
+    if (a.energy) {
+        pw_heat_data heat;
+        st = pw_heat_data_from_system(&fit.sys, &heat, &err);
+        if (st == PW_OK)
+            st = pw_rate_energy(&fit.sys, &heat, a.P_Pa, &a.spec, &r, &en.Q_C, &en.Q_R,
+                                &en.n_roots, &err);
+    } else {
+        st = pw_rate_cmo(&fit.sys, a.P_Pa, &a.spec, &r, &err);
+    }
     if (st != PW_OK) {
+        char msg[PW_ERROR_MSG_MAX];
+        snprintf(msg, sizeof msg, "%s", err.msg);
+        pw_error_set(&err, st, a.fit_path, 0, "%s%s", a.energy ? "--energy: " : "", msg);
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
+    if (en.n_roots > 1)
+        pw_cli_warnf(CMD, "%zu steady states satisfy this specification with energy balances; "
+                     "the one with the lowest distillate purity is shown",
+                     en.n_roots);
     pw_cli_warn_vapor_association(CMD, &fit.sys);
     if (!fit.converged)
         pw_cli_warnf(CMD, "%s: the fit did not converge; do not rate with it", a.fit_path);
@@ -187,16 +214,21 @@ int pw_cli_rate(int argc, char **argv)
         }
     }
     if (a.json) {
-        rc = pw_cli_print_json(to_json(&a, &fit, &r));
+        rc = pw_cli_print_json(to_json(&a, &fit, &r, &en));
     } else {
         printf("given column at %.4g kPa (%s / %s): %d stages, feed on stage %d, R %.4g, "
                "D/F %.4g, zf %.4g, q %.4g\n",
                a.P_Pa / 1e3, fit.sys.comp[0].name, fit.sys.comp[1].name, a.spec.n_stages,
                a.spec.feed_stage, a.spec.R, a.spec.d_frac, a.spec.zf, a.spec.q);
-        printf("  distillate x1 %.8f   bottoms x1 %.8f\n\n", r.xd, r.xb);
+        printf("  distillate x1 %.8f   bottoms x1 %.8f\n", r.xd, r.xb);
+        if (a.energy)
+            printf("  energy balances: condenser %.4f kJ, reboiler %.4f kJ per mol feed\n",
+                   en.Q_C / 1e3, en.Q_R / 1e3);
+        printf("\n");
         pw_cli_profile_print(&r.profile);
-        printf("\n  Screening estimate only (equilibrium stages, constant molal overflow): verify\n"
-               "  with rigorous simulation and plant data; operate per local codes under licensed\n"
+        printf("\n  Screening estimate only (equilibrium stages, %s): verify\n",
+               a.energy ? "energy balances" : "constant molal overflow");
+        printf("  with rigorous simulation and plant data; operate per local codes under licensed\n"
                "  engineering review.\n");
         rc = fflush(stdout) ? 4 : 0;
     }

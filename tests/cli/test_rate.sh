@@ -45,6 +45,21 @@ grep -q "boil-up" err.txt || fail "boil-up message: $(cat err.txt)"
 "$pw" rate demo.json --pressure 1atm --stages 2.5 --feed-stage 1 --reflux 1 --zf 0.1 --distillate 0.05 2>err.txt && fail "fractional stages accepted"
 "$pw" rate demo.json --pressure 1 --stages 10 --feed-stage 5 --reflux 1 --zf 0.1 --distillate 0.05 2>err.txt && fail "bare pressure accepted"
 "$pw" rate demo.json --pressure 1atm --stages 10 --feed-stage 5 --reflux 1 --zf 0.1 2>err.txt && fail "missing --distillate accepted"
-"$pw" rate demo.json --pressure 1atm --stages 10 --feed-stage 5 --reflux 1 --zf 0.1 --distillate 0.05 --energy 2>err.txt && fail "--energy accepted"
-grep -q "energy" err.txt || fail "--energy message"
+# 4. --energy: needs heat data (refused naming the column without it), then adds the duties.
+"$pw" rate demo.json --pressure 1atm --stages 10 --feed-stage 5 --reflux 1 --zf 0.1 --distillate 0.05 --energy 2>err.txt && fail "--energy without heat data accepted"
+grep -q "dHvap_kJ_mol" err.txt || fail "--energy message: $(cat err.txt)"
+# Heats: SVNA 7th ed. Table B.2 and the CRC Handbook (from memory; methods brief part 2, section 7).
+cat > heat.csv <<'CSV'
+name,A,B,C,log,P_unit,T_unit,T_min,T_max,source,equation,dHvap_kJ_mol,cpL_J_molK,cpV_J_molK
+water,16.3872,3885.70,230.170,ln,kPa,C,0,200,"SVNA 7th ed. Table B.2 (from memory); IAPWS-IF97; heats SVNA B.2, CRC (from memory)",iapws-if97,40.66,75.3,33.6
+acetone,14.3145,2756.22,228.060,ln,kPa,C,-26,77,"SVNA 7th ed. Table B.2 (from memory); heats SVNA B.2, CRC (from memory)",antoine,29.10,126.3,74.5
+CSV
+"$pw" rate demo.json --pressure 1atm --stages 12 --feed-stage 9 --reflux 0.8 --zf 0.1 --distillate 0.09 --components heat.csv --energy --json > e.json 2>/dev/null || fail "rate --energy"
+python3 - <<'PY' || fail "rate --energy keys"
+import json
+d = json.load(open("e.json"))
+assert d["balance"] == "energy" and d["condenser_kJ_per_mol_feed"] > 0 and d["reboiler_kJ_per_mol_feed"] > 0
+assert len(d["stages"]) == 12 and d["steady_states_found"] >= 1
+assert abs(0.09 * d["xd"] + 0.91 * d["xb"] - 0.1) < 1e-12
+PY
 echo "rate CLI tests passed"

@@ -96,9 +96,31 @@ static void test_worked_example(void **state)
     }
 }
 
+/* Rating (constant molal overflow) with the same model: METHODS2 6.4, computed there with two
+ * independent strategies agreeing to 1e-10. */
+static void test_rating_values(void **state)
+{
+    (void)state;
+    pw_system s = methanol_water();
+    struct { pw_rate_spec spec; double xd, xb; } c[] = {
+        {{10, 6, 1.0, 0.5, 1.0, 0.5}, 0.96812418, 0.03187582},
+        {{15, 8, 0.8, 0.5, 1.0, 0.45}, 0.96770513, 0.11733217},
+    };
+    for (size_t i = 0; i < 2; i++) {
+        pw_rate_result r;
+        pw_error err;
+        if (pw_rate_cmo(&s, P_PA, &c[i].spec, &r, &err) != PW_OK)
+            fail_msg("%s", err.msg);
+        pw_assert_close(r.xd, c[i].xd, 0, 5e-8, "xd (METHODS2 6.4)");
+        pw_assert_close(r.xb, c[i].xb, 0, 5e-8, "xb (METHODS2 6.4)");
+        pw_rate_result_free(&r);
+    }
+}
+
 int main(void)
 {
     pw_test_init();
-    const struct CMUnitTest tests[] = {cmocka_unit_test(test_worked_example)};
+    const struct CMUnitTest tests[] = {cmocka_unit_test(test_worked_example),
+                                       cmocka_unit_test(test_rating_values)};
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
