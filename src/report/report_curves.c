@@ -213,6 +213,9 @@ static pw_status column(pw_report_curves *c, const pw_report_input *in)
                            &c->feed_stage_op) != PW_OK)
             c->stages_op = PW_NAN;
         staircase(c, c->r_op);
+        if (pw_cmo_profile(s, c->P_col_Pa, &c->spec, c->r_op, opt.max_stages, &c->profile_op) !=
+            PW_OK)
+            pw_profile_free(&c->profile_op);
     }
     (void)in;
     return PW_OK;
@@ -291,4 +294,5 @@ void pw_report_curves_free(pw_report_curves *c)
     c->cons_ran = false;
     free(c->band_y);
     c->band_y = NULL;
+    pw_profile_free(&c->profile_op);
 }

@@ -492,7 +492,32 @@ static void column_section(pw_sbuf *b, const pw_report_curves *c)
     pw_sbuf_puts(b, "</table>\n<p class=\"note\">Stages are equilibrium stages including the partial "
                     "reboiler, with a fractional last step; Gilliland's correlation (Molokanov et al. "
                     "1972) is a shortcut check on the stepped count. Add tray efficiency before "
-                    "thinking of real trays.</p></section>\n");
+                    "thinking of real trays.</p>\n");
+    const pw_profile *p = &c->profile_op;
+    if (p->n) {
+        pw_sbuf_printf(b, "<h3>Stage profile at %.3g R_min (R = %.4g)</h3><table><tr><th>Stage"
+                          "</th><th>x1</th><th>y1</th><th>T (K)</th><th>L / F</th><th>V / F</th>"
+                          "<th></th></tr>\n",
+                       c->factor, c->r_op);
+        for (size_t i = 0; i < p->n; i++) {
+            const pw_stage *g = &p->stage[i];
+            pw_sbuf_printf(b, "<tr><td class=\"num\">%zu</td>", i + 1);
+            num(b, g->x, 5);
+            num(b, g->y, 5);
+            num(b, g->T_K, 5);
+            num(b, g->L, 4);
+            num(b, g->V, 4);
+            pw_sbuf_printf(b, "<td>%s</td></tr>\n",
+                           (int)i + 1 == p->feed_stage ? "feed"
+                           : i + 1 == p->n            ? "partial reboiler"
+                                                      : "");
+        }
+        pw_sbuf_puts(b, "</table>\n<p class=\"note\">Liquid and vapor leaving each equilibrium "
+                        "stage, counted from the top (total condenser not counted), constant "
+                        "molal overflow; flows per mole of feed. The last stage's liquid is the "
+                        "step that reaches the bottoms composition.</p>\n");
+    }
+    pw_sbuf_puts(b, "</section>\n");
 }
 
 static void unc_row(pw_sbuf *b, const char *label, const pw_unc_output *o)

@@ -7,6 +7,7 @@
 #include <math.h>
 #include <pinchwise/column.h>
 #include <pinchwise/consistency.h>
+#include <pinchwise/design.h>
 #include <pinchwise/fit.h>
 #include <pinchwise/report.h>
 #include <pinchwise/uncertainty.h>
@@ -59,6 +60,7 @@ typedef struct pw_report_curves {
     pw_status col_status;            /* of pw_column_solve */
     double stages_op;                /* at r_op (pw_column_step) */
     int feed_stage_op;
+    pw_profile profile_op;           /* stage profile at r_op (pw_cmo_profile); n = 0 if none */
     double step_x[2 * PW_REPORT_MAX_STEPS + 2], step_y[2 * PW_REPORT_MAX_STEPS + 2];
     size_t n_step;
     double T_top_K, T_bottom_K;      /* bubble T of xd and xb at the column pressure */
