@@ -15,8 +15,8 @@ m = re.search(r"<h3>Stage profile at ([0-9.]+) R_min.*?</table>", html, re.S)
 assert m, "no stage profile table"
 rows = re.findall(r"<tr><td class=\"num\">(\d+)</td>", m.group(0))
 d = json.load(open("d.json"))
-XX
-    assert len(rows) == len(d["design"][0]["profile"]), (len(rows), len(d["design"][0]["profile"]))
+assert float(m.group(1)) == 1.3   # the report's default operating factor (--operating-factor)
+assert len(rows) == len(d["design"][0]["profile"]), (len(rows), len(d["design"][0]["profile"]))
 assert rows == [str(i) for i in range(1, len(rows) + 1)] and len(rows) >= 3
 assert "partial reboiler" in m.group(0) and "feed" in m.group(0)
 PY
