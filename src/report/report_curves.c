@@ -217,7 +217,18 @@ static pw_status column(pw_report_curves *c, const pw_report_input *in)
             PW_OK)
             pw_profile_free(&c->profile_op);
     }
-    (void)in;
+    if (in->energy && c->col_status == PW_OK && c->col.feasible) {
+        c->energy = true;
+        pw_heat_data heat;
+        pw_error err;
+        pw_error_clear(&err);
+        c->energy_status = pw_heat_data_from_system(s, &heat, &err);
+        if (c->energy_status == PW_OK)
+            c->energy_status = pw_energy_column_solve(s, &heat, c->P_col_Pa, &c->spec, &opt,
+                                                      &c->energy_res, &c->energy_design);
+        else
+            snprintf(c->energy_error, sizeof c->energy_error, "%s", err.msg);
+    }
     return PW_OK;
 }
 
@@ -295,4 +306,5 @@ void pw_report_curves_free(pw_report_curves *c)
     free(c->band_y);
     c->band_y = NULL;
     pw_profile_free(&c->profile_op);
+    pw_design_table_free(&c->energy_design);
 }
