@@ -91,6 +91,12 @@ static void test_worked_example(void **state)
             pw_assert_close(r.h_D, 3294.4, 0, 0.05, "h_D");
             pw_assert_close(r.h_B, 5225.6, 0, 0.05, "h_B");
             pw_assert_close(t.row[1].stages, 18.47, 0, 5e-3, "stages at 1.02 R_min");
+            /* constant molal overflow at 1.3 R_min: R = 0.76591, N = 9.764 (METHODS2 5.6) */
+            pw_design_table cmo;
+            assert_int_equal(pw_design_cmo(&s, P_PA, &sp, col.r_min, col.n_min, &o, &cmo), PW_OK);
+            pw_assert_close(cmo.row[0].R, 0.76591, 0, 5e-6, "R, constant overflow");
+            pw_assert_close(cmo.row[0].stages, 9.764, 0, 5e-4, "stages, constant overflow");
+            pw_design_table_free(&cmo);
         }
         pw_design_table_free(&t);
     }
