@@ -130,8 +130,8 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
     }
     if (st == PW_OK && a->energy) {
         run->energy = true;
-        pw_heat_data heat;
-        st = pw_heat_data_from_system(&run->fit.sys, &heat, err);
+        pw_heat_data *heat = &run->heat;
+        st = pw_heat_data_from_system(&run->fit.sys, heat, err);
         if (st != PW_OK) {
             char msg[PW_ERROR_MSG_MAX];
             snprintf(msg, sizeof msg, "%s", err->msg);
@@ -140,7 +140,7 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
             return pw_status_exit_code(st);
         }
         if (run->col.feasible)
-            st = pw_energy_column_solve(&run->fit.sys, &heat, a->P_Pa, &a->spec, &a->opt,
+            st = pw_energy_column_solve(&run->fit.sys, heat, a->P_Pa, &a->spec, &a->opt,
                                         &run->energy_res, &run->design);
         else {
             run->energy_res.feasible = false;

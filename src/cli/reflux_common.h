@@ -31,6 +31,7 @@ typedef struct pw_reflux_run {
     pw_design_table design;     /* the design rows with stage profiles, of the balance used */
     bool energy;                /* --energy: energy_res holds the energy-balance answer */
     pw_energy_result energy_res;
+    pw_heat_data heat;          /* with energy: the heat data used */
     double T_top_K, T_bottom_K;
 } pw_reflux_run;
 

@@ -46,5 +46,15 @@ grep -q "heats of vaporization" warn2.txt && fail "latent-heat warning with --en
 grep -q "dHvap_kJ_mol" err.txt || fail "message lacks the column: $(cat err.txt)"
 "$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components nocpv.csv --energy 2>err.txt && fail "missing cpV accepted"
 grep -q "water" err.txt && grep -q "cpV_J_molK" err.txt || fail "message: $(cat err.txt)"
-"$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components heat.csv --energy --uncertainty 2>err.txt && fail "--energy --uncertainty accepted"
+# --uncertainty with --energy: the interval brackets the energy R_min (few draws: a smoke test of
+# the combination; the propagation itself is tested in test_uncertainty*).
+"$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components heat.csv --energy --uncertainty --samples 20 --json > u.json 2>/dev/null || fail "--energy --uncertainty"
+python3 - <<'PY' || fail "--energy --uncertainty keys"
+import json
+d = json.load(open("u.json")); e = json.load(open("e.json"))
+assert d["r_min"] == e["r_min"]
+lo, hi = d["r_min_ci95"]
+assert lo < d["r_min"] < hi and 0 <= d["feasible_probability"] <= 1
+PY
+"$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components heat.csv --energy --compare demo.json 2>err.txt && fail "--energy --compare accepted"
 echo "reflux --energy CLI tests passed"
