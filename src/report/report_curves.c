@@ -228,6 +228,12 @@ static pw_status column(pw_report_curves *c, const pw_report_input *in)
                                                       &c->energy_res, &c->energy_design);
         else
             snprintf(c->energy_error, sizeof c->energy_error, "%s", err.msg);
+        for (size_t i = 0; c->energy_status == PW_OK && i < PW_REPORT_GRID; i++) {
+            if (pw_enthalpy_sat_liquid(s, &heat, c->P_col_Pa, c->x[i], &c->en_hL[i], NULL) != PW_OK)
+                c->en_hL[i] = PW_NAN;
+            if (pw_enthalpy_sat_vapor(s, &heat, c->P_col_Pa, c->x[i], &c->en_HV[i], NULL) != PW_OK)
+                c->en_HV[i] = PW_NAN;
+        }
     }
     return PW_OK;
 }

@@ -66,6 +66,8 @@ typedef struct pw_report_curves {
     char energy_error[PW_ERROR_MSG_MAX];
     pw_energy_result energy_res;
     pw_design_table energy_design;   /* design rows at the factors and the operating factor */
+    double en_hL[PW_REPORT_GRID], en_HV[PW_REPORT_GRID]; /* saturated liquid at x, vapor at y = x,
+                                                            J/mol (NAN where a solve failed) */
     double step_x[2 * PW_REPORT_MAX_STEPS + 2], step_y[2 * PW_REPORT_MAX_STEPS + 2];
     size_t n_step;
     double T_top_K, T_bottom_K;      /* bubble T of xd and xb at the column pressure */

@@ -13,7 +13,14 @@ name,A,B,C,log,P_unit,T_unit,T_min,T_max,source,equation,dHvap_kJ_mol,cpL_J_molK
 water,16.3872,3885.70,230.170,ln,kPa,C,0,200,"SVNA 7th ed. Table B.2 (from memory); IAPWS-IF97; heats SVNA B.2, CRC (from memory)",iapws-if97,40.66,75.3,33.6
 acetone,14.3145,2756.22,228.060,ln,kPa,C,-26,77,"SVNA 7th ed. Table B.2 (from memory); heats SVNA B.2, CRC (from memory)",antoine,29.10,126.3,74.5
 CSV
-"$pw" report demo.json --out e.html --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components heat.csv --energy >/dev/null 2>&1 || fail "report --energy"
+"$pw" report demo.json --out e.html --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components heat.csv --energy --svg svg --json > ej.json 2>/dev/null || fail "report --energy"
+"$pw" report demo.json --out c.html --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components heat.csv --json > cj.json 2>/dev/null || fail "report"
+python3 -c '
+import json; e = json.load(open("ej.json")); c = json.load(open("cj.json"))
+assert e["plots"] == c["plots"] + 1, (e, c)' || fail "no enthalpy plot"
+[ -s svg/enthalpy.svg ] || fail "no enthalpy.svg"
+grep -q 'id="plot-enthalpy"' e.html || fail "enthalpy plot not in the page"
+grep -qi 'nan' svg/enthalpy.svg && fail "NaN in the enthalpy plot"
 "$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components heat.csv --energy --json > e.json 2>/dev/null || fail "reflux --energy"
 python3 - <<'PY' || fail "energy section"
 import json, re
