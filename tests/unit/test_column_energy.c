@@ -191,6 +191,66 @@ static void test_unequal_heats_pseudo_moles(void **state)
     }
 }
 
+/* (b) on seeded random specifications and a non-ideal (athermal Wilson) curve, tangent pinches
+ * included: the energy column with unequal heats equals the column module's constant-overflow
+ * search on the curve mapped to pseudo-moles, y'(x') = p(y*(p^-1(x'))), p(x) = k x/(k x + 1 - x)
+ * (METHODS2 5.4(b): exact for q = 1 and q = 0, which keep their q). */
+typedef struct pseudo_curve {
+    pw_system_curve sc;
+    double k;
+} pseudo_curve;
+
+static pw_status pseudo_y(void *ctx, double xp, double *yp)
+{
+    pseudo_curve *c = ctx;
+    double x = xp / (c->k - c->k * xp + xp), y;
+    pw_status st = pw_system_curve_y(&c->sc, x, &y);
+    if (st == PW_OK)
+        *yp = pseudo(c->k, y);
+    return st;
+}
+
+static void test_unequal_heats_random(void **state)
+{
+    (void)state;
+    srand(99991u);
+    pw_system sys = wilson_athermal();
+    const double l1 = 30000.0, l2 = 40000.0, k = l1 / l2;
+    pw_heat_data h = heats(&sys, l1, l2, 0, 0, 0, 0);
+    pseudo_curve pc = {.k = k};
+    assert_int_equal(pw_system_curve_init(&pc.sc, &sys, P_PA), PW_OK);
+    pw_curve cv = {pseudo_y, &pc};
+    int compared = 0, tangent = 0;
+    for (int t = 0; t < 20; t++) {
+        pw_column_spec s;
+        s.xb = 0.01 + 0.2 * rand() / (double)RAND_MAX;
+        s.xd = 0.75 + 0.24 * rand() / (double)RAND_MAX;
+        s.zf = s.xb + (s.xd - s.xb) * (0.15 + 0.7 * rand() / (double)RAND_MAX);
+        s.q = t % 2 ? 1.0 : 0.0;
+        pw_column_spec sp = {pseudo(k, s.xd), pseudo(k, s.xb), pseudo(k, s.zf), s.q};
+        pw_column_options o = pw_column_default_options();
+        o.n_factors = 0;
+        pw_column_result col;
+        assert_int_equal(pw_column_solve(&cv, &sp, &o, &col), PW_OK);
+        pw_energy_result r;
+        assert_int_equal(pw_energy_column_solve(&sys, &h, P_PA, &s, &o, &r, NULL), PW_OK);
+        assert_int_equal(r.feasible, col.feasible);
+        if (!col.feasible || col.reflux_limited || col.boilup_limited)
+            continue;
+        pw_assert_close(r.r_min, col.r_min, 1e-6, 1e-9, "R_min = CMO in pseudo-moles");
+        assert_int_equal(r.pinch.kind, col.pinch.kind);
+        if (col.pinch.kind == PW_PINCH_TANGENT) {
+            double x = col.pinch.x / (k - k * col.pinch.x + col.pinch.x);
+            pw_assert_close(r.pinch.x, x, 0, 1e-4, "tangent pinch liquid");
+            tangent++;
+        }
+        compared++;
+    }
+    print_message("unequal heats: %d random specifications compared, %d tangent pinches\n",
+                  compared, tangent);
+    assert_true(compared >= 14 && tangent >= 2);
+}
+
 /* An invented non-ideal liquid with H^E (NRTL b12 = 150 K, b21 = 100 K, alpha 0.3) and
  * invented heat data of the size of an alcohol and water. */
 static pw_system nrtl_system(void)
@@ -349,6 +409,7 @@ int main(void)
         cmocka_unit_test(test_equal_heats_random),
         cmocka_unit_test(test_equal_heats_flow_limits),
         cmocka_unit_test(test_unequal_heats_pseudo_moles),
+        cmocka_unit_test(test_unequal_heats_random),
         cmocka_unit_test(test_balances_close),
         cmocka_unit_test(test_hE_gibbs_helmholtz),
         cmocka_unit_test(test_pure_vapor_enthalpy),
