@@ -46,13 +46,13 @@ void pw_profile_free(pw_profile *p);
  * xb (a pinch at this reflux: why = PW_EINFEASIBLE, or more than max_stages: PW_EMAXITER); the
  * row is then reported as such, not as an error. */
 typedef struct pw_design_case {
-    double factor, R, boilup;  /* boilup = Vbar/B below the feed (at the reboiler) */
+    double factor, R, boilup; /* boilup = Vbar/B below the feed (at the reboiler) */
     bool reachable;
     pw_status why;
     double stages;
     int feed_stage;
-    double Q_C, Q_R;           /* J per mol feed (condenser removes, reboiler adds); NAN for CMO */
-    double gilliland_stages;   /* Molokanov et al. (1972) form, for comparison (column.h) */
+    double Q_C, Q_R;         /* J per mol feed (condenser removes, reboiler adds); NAN for CMO */
+    double gilliland_stages; /* Molokanov et al. (1972) form, for comparison (column.h) */
     pw_profile profile;
 } pw_design_case;
 
@@ -73,25 +73,24 @@ pw_status pw_cmo_profile(const pw_system *sys, double P_Pa, const pw_column_spec
 /* The design table of constant molal overflow at factors x r_min (opt's factors and
  * max_stages; NULL = defaults). r_min must be positive; n_min (stages at total reflux) feeds the
  * Gilliland comparison. Unreachable rows are marked, not errors. */
-pw_status pw_design_cmo(const pw_system *sys, double P_Pa, const pw_column_spec *spec,
-                        double r_min, double n_min, const pw_column_options *opt,
-                        pw_design_table *out);
+pw_status pw_design_cmo(const pw_system *sys, double P_Pa, const pw_column_spec *spec, double r_min,
+                        double n_min, const pw_column_options *opt, pw_design_table *out);
 
 /* ---- Energy balances (Ponchon 1921; Savarit 1922) ---- */
 
 typedef struct pw_energy_result {
     bool feasible;
     char reason[PW_REASON_MAX];
-    double r_min;               /* L/D at the top at minimum reflux */
-    double s_min;               /* Vbar/B at the reboiler at R_min */
-    pw_pinch pinch;             /* kind, section, x = liquid where the limit is reached, y = y*(x) */
-    bool reflux_limited;        /* R_min = 0: no tie line limits */
-    bool boilup_limited;        /* R_min set by a reboiler duty of zero */
-    double n_min;               /* total reflux (the energy balance plays no part there) */
-    double x_feed, y_feed;      /* the tie line through the feed point (x, y*) */
-    double h_F, h_D, h_B;       /* J/mol: feed, saturated-liquid distillate and bottoms */
-    double H_top;               /* J/mol: saturated vapor of composition xd (top vapor) */
-    double r_rect, r_strip;     /* the limits of each section alone (diagnostics) */
+    double r_min;           /* L/D at the top at minimum reflux */
+    double s_min;           /* Vbar/B at the reboiler at R_min */
+    pw_pinch pinch;         /* kind, section, x = liquid where the limit is reached, y = y*(x) */
+    bool reflux_limited;    /* R_min = 0: no tie line limits */
+    bool boilup_limited;    /* R_min set by a reboiler duty of zero */
+    double n_min;           /* total reflux (the energy balance plays no part there) */
+    double x_feed, y_feed;  /* the tie line through the feed point (x, y*) */
+    double h_F, h_D, h_B;   /* J/mol: feed, saturated-liquid distillate and bottoms */
+    double H_top;           /* J/mol: saturated vapor of composition xd (top vapor) */
+    double r_rect, r_strip; /* the limits of each section alone (diagnostics) */
 } pw_energy_result;
 
 /* Options: opt->rtol (R_min), opt->grid (scan points; the extrema are refined and then the
@@ -110,16 +109,16 @@ pw_status pw_energy_profile(const pw_system *sys, const pw_heat_data *heat, doub
 /* ---- Rating a given column ---- */
 
 typedef struct pw_rate_spec {
-    int n_stages;     /* N, the partial reboiler included (N >= 1) */
-    int feed_stage;   /* K in 1..N */
-    double R;         /* reflux ratio L/D >= 0 */
+    int n_stages;   /* N, the partial reboiler included (N >= 1) */
+    int feed_stage; /* K in 1..N */
+    double R;       /* reflux ratio L/D >= 0 */
     double zf, q;
-    double d_frac;    /* D/F in (0, 1) */
+    double d_frac; /* D/F in (0, 1) */
 } pw_rate_spec;
 
 typedef struct pw_rate_result {
     double xd, xb;
-    double residual;  /* mismatch of the two sections at the feed stage */
+    double residual; /* mismatch of the two sections at the feed stage */
     int iterations;
     pw_profile profile;
 } pw_rate_result;

@@ -20,8 +20,8 @@ extern "C" {
 #define PW_T0_ENTHALPY_K 298.15
 
 typedef struct pw_heat_data {
-    double Tb_K[2];     /* normal boiling points from the components' own equations */
-    double dHvap[2];    /* J/mol at Tb */
+    double Tb_K[2];        /* normal boiling points from the components' own equations */
+    double dHvap[2];       /* J/mol at Tb */
     double cpL[2], cpV[2]; /* J/(mol K) */
 } pw_heat_data;
 
@@ -41,8 +41,8 @@ double pw_enthalpy_vapor(const pw_heat_data *h, double y1, double T_K);
  * y1 at its dew point, at P. T_K (may be NULL) receives the temperature. */
 pw_status pw_enthalpy_sat_liquid(const pw_system *sys, const pw_heat_data *h, double P_Pa,
                                  double x1, double *h_Jmol, double *T_K);
-pw_status pw_enthalpy_sat_vapor(const pw_system *sys, const pw_heat_data *h, double P_Pa,
-                                double y1, double *H_Jmol, double *T_K);
+pw_status pw_enthalpy_sat_vapor(const pw_system *sys, const pw_heat_data *h, double P_Pa, double y1,
+                                double *H_Jmol, double *T_K);
 
 /* The feed's enthalpy from its thermal condition q: h_F = H_V - q (H_V - h_L), with h_L the
  * saturated liquid of composition z at its bubble point and H_V the saturated vapor of

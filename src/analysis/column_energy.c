@@ -27,7 +27,7 @@
 
 #define MIN_ITER 100
 #define ROOT_ITER 200
-#define CERT_REL 1e-5           /* stepping check at (1 + CERT_REL) R_min */
+#define CERT_REL 1e-5 /* stepping check at (1 + CERT_REL) R_min */
 #define CERT_MAX_STAGES 20000
 #define CERT_REPAIRS 4
 #define PROBE_REL 1e-9
@@ -506,7 +506,10 @@ pw_status pw_energy_profile(const pw_system *sys, const pw_heat_data *heat, doub
 }
 
 /* R from h_DeltaD. */
-static double reflux_of(const en *c, double hdD) { return (hdD - c->H_top) / (c->H_top - c->h_D); }
+static double reflux_of(const en *c, double hdD)
+{
+    return (hdD - c->H_top) / (c->H_top - c->h_D);
+}
 
 /* h_DeltaD from h_DeltaB through the feed point. */
 static double hdD_of_hdB(const en *c, double hdB)
@@ -847,7 +850,8 @@ pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double 
         return st;
     const double D = spec->d_frac, B = 1.0 - D, z = spec->zf;
     /* The feed enthalpy needs a spec; the products are set per evaluation. */
-    pw_column_spec s0 = {.xd = fmin(1.0, z + 0.5 * (1.0 - z)), .xb = 0.5 * z, .zf = z, .q = spec->q};
+    pw_column_spec s0 = {
+        .xd = fmin(1.0, z + 0.5 * (1.0 - z)), .xb = 0.5 * z, .zf = z, .q = spec->q};
     rate_en q = {.r = spec};
     st = en_init(&q.c, sys, heat, P_Pa, &s0);
     if (st != PW_OK) {
@@ -876,8 +880,9 @@ pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double 
         }
     }
     double w_sol = NAN;
-    gsl_root_fsolver *outer = gsl_root_fsolver_alloc(gsl_root_fsolver_brent); /* the inner
-                                                                                 * solves use c.root */
+    gsl_root_fsolver *outer =
+        gsl_root_fsolver_alloc(gsl_root_fsolver_brent); /* the inner
+                                                         * solves use c.root */
     if (!outer && st == PW_OK)
         st = PW_ENOMEM;
     for (int i = 0; st == PW_OK && i + 1 < RATE_SCAN; i++) {
@@ -936,8 +941,7 @@ pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double 
                                 "rating with energy balances: no steady state found (no reboiler "
                                 "duty, or no products the stages can make at this reflux and "
                                 "distillate rate)");
-        return pw_error_set(err, st, NULL, 0, "rating with energy balances: %s",
-                            pw_strerror(st));
+        return pw_error_set(err, st, NULL, 0, "rating with energy balances: %s", pw_strerror(st));
     }
     return PW_OK;
 }

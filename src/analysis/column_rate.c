@@ -216,8 +216,7 @@ pw_status pw_rate_cmo(const pw_system *sys, double P_Pa, const pw_rate_spec *spe
     pw_eqp_free(&e);
     if (st != PW_OK) {
         pw_rate_result_free(out);
-        return pw_error_set(err, st, NULL, 0,
-                            "rating: %s (shooting on the distillate composition)",
+        return pw_error_set(err, st, NULL, 0, "rating: %s (shooting on the distillate composition)",
                             pw_strerror(st));
     }
     return PW_OK;

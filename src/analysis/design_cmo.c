@@ -78,9 +78,8 @@ pw_status pw_cmo_profile(const pw_system *sys, double P_Pa, const pw_column_spec
     return st;
 }
 
-pw_status pw_design_cmo(const pw_system *sys, double P_Pa, const pw_column_spec *spec,
-                        double r_min, double n_min, const pw_column_options *opt,
-                        pw_design_table *out)
+pw_status pw_design_cmo(const pw_system *sys, double P_Pa, const pw_column_spec *spec, double r_min,
+                        double n_min, const pw_column_options *opt, pw_design_table *out)
 {
     if (!out)
         return PW_EINVAL;

@@ -10,8 +10,8 @@
 typedef struct pw_eqp {
     const pw_system *sys;
     double P_Pa;
-    double T_last;            /* the latest bubble temperature: Newton's next start */
-    gsl_root_fsolver *root;   /* Brent, for x*(y) when the dew-point solve needs polishing */
+    double T_last;          /* the latest bubble temperature: Newton's next start */
+    gsl_root_fsolver *root; /* Brent, for x*(y) when the dew-point solve needs polishing */
     pw_status cb_status;
     unsigned long n_bubble;
 } pw_eqp;

@@ -12,20 +12,21 @@
 
 static void usage(FILE *f)
 {
-    fprintf(f,
-            "usage: pinchwise rate FIT.json --pressure P --stages N --feed-stage K --reflux R\n"
-            "                      --zf X --distillate D [--q Q] [--components FILE] [--json]\n"
-            "\n"
-            "Products of a given binary column, constant molal overflow: N equilibrium stages\n"
-            "counted from the top with the partial reboiler as stage N (the total condenser is not\n"
-            "counted), the whole feed on stage K, reflux ratio R = L/D, distillate D moles per mole\n"
-            "of feed.\n"
-            "  --pressure P        column pressure with its unit, e.g. 101.325kPa, 1atm\n"
-            "  --zf X              feed mole fraction of component 1\n"
-            "  --q Q               feed liquid fraction (default 1, saturated liquid)\n"
-            "  --energy            energy balance on every stage (heat data from the component\n"
-            "                      file) instead of constant molal overflow; adds the duties\n"
-            "  --json              print one JSON object on stdout\n");
+    fprintf(
+        f,
+        "usage: pinchwise rate FIT.json --pressure P --stages N --feed-stage K --reflux R\n"
+        "                      --zf X --distillate D [--q Q] [--components FILE] [--json]\n"
+        "\n"
+        "Products of a given binary column, constant molal overflow: N equilibrium stages\n"
+        "counted from the top with the partial reboiler as stage N (the total condenser is not\n"
+        "counted), the whole feed on stage K, reflux ratio R = L/D, distillate D moles per mole\n"
+        "of feed.\n"
+        "  --pressure P        column pressure with its unit, e.g. 101.325kPa, 1atm\n"
+        "  --zf X              feed mole fraction of component 1\n"
+        "  --q Q               feed liquid fraction (default 1, saturated liquid)\n"
+        "  --energy            energy balance on every stage (heat data from the component\n"
+        "                      file) instead of constant molal overflow; adds the duties\n"
+        "  --json              print one JSON object on stdout\n");
 }
 
 typedef struct pw_rate_energy_out {
@@ -109,8 +110,8 @@ static int parse(int argc, char **argv, rate_args *a, pw_error *err)
         }
         a->fit_path = argv[i];
     }
-    if (!a->fit_path || !a->tg.have_P || !a->tg.have_zf || !a->have_N || !a->have_K ||
-        !a->have_R || !a->have_D) {
+    if (!a->fit_path || !a->tg.have_P || !a->tg.have_zf || !a->have_N || !a->have_K || !a->have_R ||
+        !a->have_D) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "a fit file and --pressure, --stages, --feed-stage, --reflux, --zf, "
                      "--distillate are required");
@@ -129,15 +130,15 @@ static json_t *to_json(const rate_args *a, const pw_fit_result *fit, const pw_ra
     json_object_set_new(o, "xd", pw_cli_json_num(r->xd));
     json_object_set_new(o, "xb", pw_cli_json_num(r->xb));
     json_object_set_new(o, "stages", pw_cli_profile_json(&r->profile));
-    json_object_set_new(o, "balance",
-                        json_string(pw_balance_name(a->energy ? PW_BALANCE_ENERGY : PW_BALANCE_CMO)));
+    json_object_set_new(
+        o, "balance", json_string(pw_balance_name(a->energy ? PW_BALANCE_ENERGY : PW_BALANCE_CMO)));
     if (a->energy) {
         json_object_set_new(o, "condenser_kJ_per_mol_feed", pw_cli_json_num(en->Q_C / 1e3));
         json_object_set_new(o, "reboiler_kJ_per_mol_feed", pw_cli_json_num(en->Q_R / 1e3));
         json_object_set_new(o, "steady_states_found", json_integer((json_int_t)en->n_roots));
     }
-    json_object_set_new(o, "components", json_pack("[s,s]", fit->sys.comp[0].name,
-                                                   fit->sys.comp[1].name));
+    json_object_set_new(o, "components",
+                        json_pack("[s,s]", fit->sys.comp[0].name, fit->sys.comp[1].name));
     json_t *spec = json_object();
     json_object_set_new(spec, "P_kPa", pw_cli_json_num(a->P_Pa / 1e3));
     json_object_set_new(spec, "stages", json_integer(a->spec.n_stages));
@@ -183,8 +184,8 @@ int pw_cli_rate(int argc, char **argv)
         pw_heat_data heat;
         st = pw_heat_data_from_system(&fit.sys, &heat, &err);
         if (st == PW_OK)
-            st = pw_rate_energy(&fit.sys, &heat, a.P_Pa, &a.spec, &r, &en.Q_C, &en.Q_R,
-                                &en.n_roots, &err);
+            st = pw_rate_energy(&fit.sys, &heat, a.P_Pa, &a.spec, &r, &en.Q_C, &en.Q_R, &en.n_roots,
+                                &err);
     } else {
         st = pw_rate_cmo(&fit.sys, a.P_Pa, &a.spec, &r, &err);
     }
@@ -196,7 +197,8 @@ int pw_cli_rate(int argc, char **argv)
         return pw_cli_fail(CMD, &err);
     }
     if (en.n_roots > 1)
-        pw_cli_warnf(CMD, "%zu steady states satisfy this specification with energy balances; "
+        pw_cli_warnf(CMD,
+                     "%zu steady states satisfy this specification with energy balances; "
                      "the one with the lowest distillate purity is shown",
                      en.n_roots);
     pw_cli_warn_vapor_association(CMD, &fit.sys);

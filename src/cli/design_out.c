@@ -67,9 +67,9 @@ json_t *pw_cli_energy_json(const pw_energy_result *e, double r_min_cmo)
     json_object_set_new(o, "r_min_constant_molal_overflow", pw_cli_json_num(r_min_cmo));
     json_object_set_new(o, "r_min_rectifying", pw_cli_json_num(e->r_rect));
     json_object_set_new(o, "r_min_stripping", pw_cli_json_num(e->r_strip));
-    json_object_set_new(o, "feed_tie_line",
-                        json_pack("{s:o,s:o}", "x", pw_cli_json_num(e->x_feed), "y",
-                                  pw_cli_json_num(e->y_feed)));
+    json_object_set_new(
+        o, "feed_tie_line",
+        json_pack("{s:o,s:o}", "x", pw_cli_json_num(e->x_feed), "y", pw_cli_json_num(e->y_feed)));
     json_object_set_new(o, "h_feed_J_mol", pw_cli_json_num(e->h_F));
     json_object_set_new(o, "h_distillate_J_mol", pw_cli_json_num(e->h_D));
     json_object_set_new(o, "h_bottoms_J_mol", pw_cli_json_num(e->h_B));
@@ -104,8 +104,9 @@ void pw_cli_design_print(const pw_design_table *t)
     if (energy)
         printf("  duties per mole of feed; Vbar/B at the reboiler. Stage profiles: --json.\n");
     else
-        printf("  * Molokanov et al. (1972) form of the Gilliland correlation, for comparison only.\n"
-               "  Stage profiles: --json.\n");
+        printf(
+            "  * Molokanov et al. (1972) form of the Gilliland correlation, for comparison only.\n"
+            "  Stage profiles: --json.\n");
     printf("  Design reflux of 1.2-1.5 R_min is common practice.\n");
 }
 
@@ -115,6 +116,8 @@ void pw_cli_profile_print(const pw_profile *p)
     for (size_t i = 0; i < p->n; i++) {
         const pw_stage *s = &p->stage[i];
         printf("  %5zu %10.6f %10.6f %9.3f %9.4f %9.4f%s\n", i + 1, s->x, s->y, s->T_K, s->L, s->V,
-               (int)i + 1 == p->feed_stage ? "  feed" : i + 1 == p->n ? "  reboiler" : "");
+               (int)i + 1 == p->feed_stage ? "  feed"
+               : i + 1 == p->n             ? "  reboiler"
+                                           : "");
     }
 }

@@ -65,8 +65,8 @@ pw_status pw_enthalpy_sat_liquid(const pw_system *sys, const pw_heat_data *h, do
     return pw_enthalpy_liquid(sys, h, x1, e.T_K, h_Jmol);
 }
 
-pw_status pw_enthalpy_sat_vapor(const pw_system *sys, const pw_heat_data *h, double P_Pa,
-                                double y1, double *H_Jmol, double *T_K)
+pw_status pw_enthalpy_sat_vapor(const pw_system *sys, const pw_heat_data *h, double P_Pa, double y1,
+                                double *H_Jmol, double *T_K)
 {
     pw_eq_point e;
     pw_status st = pw_dew_T(sys, P_Pa, y1, &e);

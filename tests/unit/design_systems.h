@@ -17,15 +17,21 @@ static inline pw_system design_ideal_system(double alpha)
     memset(&s, 0, sizeof s);
     s.comp[0] = pw_test_antoine("light (invented)", 14.0 + log(alpha), 3000.0, -50.0, PW_LN, "kPa",
                                 "K", 250.0, 500.0);
-    s.comp[1] = pw_test_antoine("heavy (invented)", 14.0, 3000.0, -50.0, PW_LN, "kPa", "K", 250.0,
-                                500.0);
+    s.comp[1] =
+        pw_test_antoine("heavy (invented)", 14.0, 3000.0, -50.0, PW_LN, "kPa", "K", 250.0, 500.0);
     s.model = &pw_model_margules;
     s.T_ref_K = 350.0;
     return s;
 }
 
 /* y* and its inverse for constant relative volatility. */
-static inline double design_crv_y(double a, double x) { return a * x / (1.0 + (a - 1.0) * x); }
-static inline double design_crv_x(double a, double y) { return y / (a - (a - 1.0) * y); }
+static inline double design_crv_y(double a, double x)
+{
+    return a * x / (1.0 + (a - 1.0) * x);
+}
+static inline double design_crv_x(double a, double y)
+{
+    return y / (a - (a - 1.0) * y);
+}
 
 #endif

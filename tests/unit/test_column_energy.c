@@ -129,7 +129,9 @@ static void test_equal_heats_flow_limits(void **state)
 {
     (void)state;
     pw_system systems[2] = {design_ideal_system(4.0), wilson_athermal()};
-    struct { double xd, xb, zf, q; } c[] = {
+    struct {
+        double xd, xb, zf, q;
+    } c[] = {
         {0.9, 0.02, 0.05, 0.5}, {0.9, 0.02, 0.05, 0.0}, {0.9, 0.02, 0.05, -0.3},
         {0.98, 0.3, 0.95, 3.0}, {0.98, 0.3, 0.9, 6.0},  {0.9, 0.02, 0.05, 1.0},
     };
@@ -165,7 +167,10 @@ static void test_equal_heats_flow_limits(void **state)
  * k = l1/l2 (METHODS2 5.4(b), derived): R_min = Underwood(alpha, z', xd', q). The brief's numbers
  * for alpha 2.5, z 0.5, xd 0.95, xb 0.05, l = 30 and 40 kJ/mol: 1.262295 (q = 1), 2.557377
  * (q = 0); at 1.2 R_min with q = 1, Q_C/F = Q_R/F = 38.35 kJ/mol (computed). */
-static double pseudo(double k, double x) { return k * x / (k * x + 1.0 - x); }
+static double pseudo(double k, double x)
+{
+    return k * x / (k * x + 1.0 - x);
+}
 
 static void test_unequal_heats_pseudo_moles(void **state)
 {
@@ -179,8 +184,7 @@ static void test_unequal_heats_pseudo_moles(void **state)
         pw_design_table t;
         solve_ok(&sys, &h, s, &r, &t);
         double ru;
-        assert_int_equal(pw_underwood_rmin(2.5, pseudo(k, s.zf), pseudo(k, s.xd), s.q, &ru),
-                         PW_OK);
+        assert_int_equal(pw_underwood_rmin(2.5, pseudo(k, s.zf), pseudo(k, s.xd), s.q, &ru), PW_OK);
         pw_assert_close(r.r_min, ru, 1e-7, 0, "R_min = Underwood in pseudo-moles");
         pw_assert_close(r.r_min, want[i], 0, 1e-6, "R_min (METHODS2 5.4(b))");
         if (i == 0) {
@@ -298,15 +302,15 @@ static void test_balances_close(void **state)
                 const pw_stage *g = &p->stage[n], *below = &p->stage[n + 1];
                 double Lin = n == 0 ? c->R * D : p->stage[n - 1].L;
                 double xin = n == 0 ? s.xd : p->stage[n - 1].x;
-                double hin = n == 0 ? r.h_D
-                                    : liquid_h(&sys, &h, p->stage[n - 1].x, p->stage[n - 1].T_K);
+                double hin =
+                    n == 0 ? r.h_D : liquid_h(&sys, &h, p->stage[n - 1].x, p->stage[n - 1].T_K);
                 double F = (int)n + 1 == p->feed_stage ? 1.0 : 0.0;
                 double Hb = pw_enthalpy_vapor(&h, below->y, below->T_K);
                 double Hg = pw_enthalpy_vapor(&h, g->y, g->T_K);
                 double hg = liquid_h(&sys, &h, g->x, g->T_K);
                 pw_assert_close(Lin + below->V + F, g->L + g->V, 1e-10, 1e-12, "stage total");
-                pw_assert_close(Lin * xin + below->V * below->y + F * s.zf, g->L * g->x + g->V * g->y,
-                                1e-9, 1e-11, "stage component");
+                pw_assert_close(Lin * xin + below->V * below->y + F * s.zf,
+                                g->L * g->x + g->V * g->y, 1e-9, 1e-11, "stage component");
                 pw_assert_close(Lin * hin + below->V * Hb + F * hF, g->L * hg + g->V * Hg, 1e-7,
                                 1e-4, "stage energy");
             }
@@ -320,9 +324,14 @@ static void test_balances_close(void **state)
 static void test_hE_gibbs_helmholtz(void **state)
 {
     (void)state;
-    struct { const pw_model_type *m; double p[3]; } cases[] = {
-        {&pw_model_margules, {0.8, 1.3, 0}}, {&pw_model_vanlaar, {1.1, 0.7, 0}},
-        {&pw_model_wilson, {250.0, 400.0, 2.2}}, {&pw_model_nrtl, {-120.0, 420.0, 0.3}},
+    struct {
+        const pw_model_type *m;
+        double p[3];
+    } cases[] = {
+        {&pw_model_margules, {0.8, 1.3, 0}},
+        {&pw_model_vanlaar, {1.1, 0.7, 0}},
+        {&pw_model_wilson, {250.0, 400.0, 2.2}},
+        {&pw_model_nrtl, {-120.0, 420.0, 0.3}},
     };
     for (size_t i = 0; i < 4; i++) {
         pw_system s = design_ideal_system(2.0);

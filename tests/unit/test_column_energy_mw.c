@@ -55,7 +55,9 @@ static void test_worked_example(void **state)
     pw_heat_data h = mw_heats(&s);
     pw_assert_close(h.Tb_K[0], 337.849, 0, 5e-4, "Tb methanol (METHODS2 5.6)");
     pw_assert_close(h.Tb_K[1], 373.124, 0, 5e-4, "Tb water (METHODS2 5.6)");
-    struct { double xd, xb, zf, q, cmo, energy, x_pinch; } c[] = {
+    struct {
+        double xd, xb, zf, q, cmo, energy, x_pinch;
+    } c[] = {
         {0.95, 0.05, 0.5, 1.0, 0.58916, 0.63893, 0.5},
         {0.99, 0.01, 0.3, 1.0, 0.89003, 1.00543, 0.3},
         {0.95, 0.05, 0.5, 0.0, 1.26743, 1.45080, 0.1450},
@@ -108,7 +110,10 @@ static void test_rating_values(void **state)
 {
     (void)state;
     pw_system s = methanol_water();
-    struct { pw_rate_spec spec; double xd, xb; } c[] = {
+    struct {
+        pw_rate_spec spec;
+        double xd, xb;
+    } c[] = {
         {{10, 6, 1.0, 0.5, 1.0, 0.5}, 0.96812418, 0.03187582},
         {{15, 8, 0.8, 0.5, 1.0, 0.45}, 0.96770513, 0.11733217},
     };

@@ -81,7 +81,8 @@ static void test_profile_closed_form(void **state)
     }
 }
 
-/* Same stepping as the column module on the same fitted curve (the design rows replace its table). */
+/* Same stepping as the column module on the same fitted curve (the design rows replace its table).
+ */
 static void test_design_matches_column_step(void **state)
 {
     (void)state;

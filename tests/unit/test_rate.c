@@ -26,7 +26,10 @@ static void test_constant_alpha_values(void **state)
 {
     (void)state;
     pw_system sys = design_ideal_system(2.5);
-    struct { int N, K; double R, D, q, xd, xb; } c[] = {
+    struct {
+        int N, K;
+        double R, D, q, xd, xb;
+    } c[] = {
         {10, 5, 1.5, 0.5, 1.0, 0.9256129418, 0.0743870582},
         {10, 5, 1.5, 0.5, 0.0, 0.8051516177, 0.1948483823},
         {20, 10, 2.0, 0.5, 1.0, 0.9951318069, 0.0048681931},
@@ -72,7 +75,8 @@ static void check_balances(const pw_rate_spec *s, const pw_rate_result *r)
     }
     pw_assert_close(p->stage[0].y, r->xd, 0, 0, "total condenser: y1 = xd");
     /* (feed on the reboiler: its liquid is the top section's, within the feed-stage mismatch) */
-    pw_assert_close(p->stage[p->n - 1].x, r->xb, 0, 1e-12 + fabs(r->residual), "reboiler = bottoms");
+    pw_assert_close(p->stage[p->n - 1].x, r->xb, 0, 1e-12 + fabs(r->residual),
+                    "reboiler = bottoms");
 }
 
 static void test_balances(void **state)
@@ -251,8 +255,10 @@ int main(void)
 {
     pw_test_init();
     const struct CMUnitTest tests[] = {
-        cmocka_unit_test(test_constant_alpha_values), cmocka_unit_test(test_balances),
-        cmocka_unit_test(test_design_round_trip),     cmocka_unit_test(test_random_columns),
+        cmocka_unit_test(test_constant_alpha_values),
+        cmocka_unit_test(test_balances),
+        cmocka_unit_test(test_design_round_trip),
+        cmocka_unit_test(test_random_columns),
         cmocka_unit_test(test_refusals),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);

@@ -164,7 +164,8 @@ static void test_round_trip_and_balances(void **state)
             double Hin = n + 1 < p->n ? pw_enthalpy_vapor(&h, yin, p->stage[n + 1].T_K) : 0.0;
             double F = (int)n + 1 == spec.feed_stage ? 1.0 : 0.0;
             double Q = n + 1 == p->n ? qr : 0.0;
-            double out_h = g->L * hl(&sys, &h, g->x, g->T_K) + g->V * pw_enthalpy_vapor(&h, g->y, g->T_K);
+            double out_h =
+                g->L * hl(&sys, &h, g->x, g->T_K) + g->V * pw_enthalpy_vapor(&h, g->y, g->T_K);
             pw_assert_close(Lin + Vin + F, g->L + g->V, 1e-9, 1e-11, "stage total");
             pw_assert_close(Lin * xin + Vin * yin + F * spec.zf, g->L * g->x + g->V * g->y, 1e-7,
                             1e-9, "stage component");
