@@ -61,7 +61,6 @@ static pw_status sections(rate_ctx *c, double xd, double xb, double *x_top, doub
     }
     *x_top = x;
     double xs = xb;
-    pw_stage tail[1];
     size_t first = prof ? prof->n : 0;
     for (int n = N; n > K; n--) {
         double yy;
@@ -69,8 +68,8 @@ static pw_status sections(rate_ctx *c, double xd, double xb, double *x_top, doub
         if (st != PW_OK)
             return st;
         if (prof) {
-            tail[0] = (pw_stage){xs, yy, T, n == N ? c->B : c->Lb, c->Vb};
-            if ((st = pw_profile_push(prof, tail)) != PW_OK)
+            pw_stage g = {xs, yy, T, n == N ? c->B : c->Lb, c->Vb};
+            if ((st = pw_profile_push(prof, &g)) != PW_OK)
                 return st;
         }
         xs = fmin(1.0, fmax(0.0, (c->Vb * yy + c->B * xb) / c->Lb));
