@@ -40,6 +40,7 @@ typedef struct pw_dataset {
     bool has_y;
     char source[PW_SOURCE_MAX];
     double sigma_T_K, sigma_P_rel, sigma_P_abs_Pa, sigma_y, sigma_x; /* sigma_P: one is NAN */
+    bool sigma_y_stated, sigma_x_stated; /* the file's metadata gave them (else defaults) */
     char T_unit[PW_UNIT_MAX], P_unit[PW_UNIT_MAX]; /* units the file used for the column */
     pw_point *pts;
     size_t n;
@@ -71,7 +72,7 @@ pw_status pw_dataset_parse(const char *buf, size_t len, const char *name, pw_dat
 /* Frees the points; ds is left empty. Accepts NULL. */
 void pw_dataset_free(pw_dataset *ds);
 
-/* The SHA-256 of a buffer (OpenSSL libcrypto) as 32 bytes, and as 64 lowercase hex chars + NUL. */
+/* The SHA-256 of a buffer (libmd) as 32 bytes, and as 64 lowercase hex chars + NUL. */
 void pw_sha256(const void *buf, size_t len, unsigned char out[32]);
 void pw_sha256_hex(const unsigned char digest[32], char out[65]);
 

@@ -178,7 +178,22 @@ static pw_status barker_run(const cs_data *d, size_t p, const double *a0, double
     if (gs == GSL_SUCCESS)
         gs = gsl_multifit_nlinear_driver(200, 1e3 * DBL_EPSILON, 1e3 * DBL_EPSILON, 0.0, NULL, NULL,
                                          &info, w);
+    /* GSL's codes mapped explicitly (as in src/fit/fit.c): success (any info: xtol, gtol, ftol
+     * or a tolerance at machine precision) is converged; GSL_EMAXITER with info GSL_ENOPROG means
+     * no step lowered the cost from the start, which is converged when the start already fits
+     * to rounding level (noise-free data from the start's model, e.g. ideal data at a_k = 0);
+     * GSL_EMAXITER otherwise is the iteration limit; anything else did not converge. */
     pw_status st = gs == GSL_SUCCESS ? PW_OK : gs == GSL_EMAXITER ? PW_EMAXITER : PW_ENOCONV;
+    if (gs == GSL_EMAXITER && info == GSL_ENOPROG) {
+        gsl_vector *f0 = gsl_multifit_nlinear_residual(w);
+        double s0 = 0.0, scale = 0.0;
+        for (size_t i = 0; i < n; i++) {
+            s0 += gsl_vector_get(f0, i) * gsl_vector_get(f0, i);
+            scale = fmax(scale, d->ds->kind == PW_DATA_ISOTHERMAL ? 1.0 : d->in[i].T_K);
+        }
+        double tol = 1e3 * DBL_EPSILON * scale;
+        st = s0 <= (double)n * tol * tol ? PW_OK : PW_ENOCONV;
+    }
     if (st == PW_OK) {
         gsl_vector *x = gsl_multifit_nlinear_position(w);
         gsl_vector *f = gsl_multifit_nlinear_residual(w);
@@ -300,4 +315,21 @@ pw_status pw_cs_point_test(const cs_data *d, pw_consistency_result *r)
     t->value = sum_abs_dy / (double)n_y;
     t->pass = t->value < t->limit;
     return PW_OK;
+}
+
+pw_status pw_cs_legendre_bubble(const cs_data *d, size_t terms, const double *a,
+                                const cs_point *q, double x1, double *y1, double *calc)
+{
+    const pw_model_type *m = pw_cs_legendre_model(terms);
+    if (!m || !(x1 > 0.0 && x1 < 1.0))
+        return PW_EDOM;
+    cs_point p = *q;
+    p.x1 = x1;
+    bubble_state b;
+    pw_status st = bubble(d, m, a, &p, &b, NULL);
+    if (st == PW_OK) {
+        *y1 = b.y1;
+        *calc = b.calc;
+    }
+    return st;
 }

@@ -4,6 +4,7 @@
 #define PW_CLI_H
 
 #include <jansson.h>
+#include <pinchwise/commands.h>
 #include <pinchwise/component.h>
 #include <pinchwise/equilibrium.h>
 #include <pinchwise/fit.h>

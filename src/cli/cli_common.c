@@ -40,23 +40,7 @@ void pw_cli_warnf(const char *cmd, const char *fmt, ...)
 
 pw_status pw_cli_load_components(pw_complib *lib, const char *extra_path, pw_error *err)
 {
-    const char *candidates[3] = {getenv("PINCHWISE_COMPONENTS"), PW_DEFAULT_COMPONENTS,
-                                 PW_INSTALLED_COMPONENTS};
-    const char *found = NULL;
-    for (size_t i = 0; i < 3 && !found; i++)
-        if (candidates[i] && candidates[i][0] && access(candidates[i], R_OK) == 0)
-            found = candidates[i];
-    pw_complib_init(lib);
-    if (!found)
-        return pw_error_set(err, PW_ENOTFOUND, NULL, 0,
-                            "the component library components.csv was not found (set "
-                            "PINCHWISE_COMPONENTS to its path)");
-    pw_status st = pw_complib_read(lib, found, err);
-    if (st == PW_OK && extra_path)
-        st = pw_complib_read(lib, extra_path, err);
-    if (st != PW_OK)
-        pw_complib_free(lib);
-    return st;
+    return pw_complib_load_default(lib, extra_path, err);
 }
 
 pw_status pw_cli_quantity(pw_quantity q, const char *opt, const char *text, double *si,
@@ -84,8 +68,10 @@ pw_status pw_cli_number(const char *opt, const char *text, double *value, pw_err
 
 int pw_cli_print_json(json_t *obj)
 {
-    int rc = json_dumpf(obj, stdout, JSON_INDENT(2) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER);
+    char *text = pw_json_text(obj); /* the library's text: the same as the Python module's */
     json_decref(obj);
+    int rc = text && fputs(text, stdout) != EOF ? 0 : -1;
+    free(text);
     if (rc != 0 || fputc('\n', stdout) == EOF || fflush(stdout) != 0)
         return pw_status_exit_code(PW_EIO);
     return 0;
@@ -93,7 +79,7 @@ int pw_cli_print_json(json_t *obj)
 
 json_t *pw_cli_json_num(double v)
 {
-    return isfinite(v) ? json_real(v) : json_null();
+    return pw_json_num(v);
 }
 
 bool pw_cli_opt(int argc, char **argv, int *i, const char *name, const char **value, bool *missing)
@@ -116,29 +102,13 @@ bool pw_cli_opt(int argc, char **argv, int *i, const char *name, const char **va
 pw_status pw_cli_override_components(const char *cmd, pw_system *sys, const char *path,
                                      pw_error *err)
 {
-    if (!path)
-        return PW_OK;
-    pw_complib lib;
-    pw_complib_init(&lib);
-    pw_status st = pw_complib_read(&lib, path, err);
-    if (st != PW_OK)
-        return st;
-    for (int i = 0; i < 2; i++) {
-        const pw_component *c = pw_complib_find(&lib, sys->comp[i].name);
-        if (!c)
-            continue;
-        const pw_component *o = &sys->comp[i];
-        bool same = c->equation == o->equation && c->A == o->A && c->B == o->B && c->C == o->C &&
-                    c->log == o->log && !strcmp(c->P_unit, o->P_unit) &&
-                    !strcmp(c->T_unit, o->T_unit);
-        sys->comp[i] = *c;
-        if (same)
-            continue;
-        pw_cli_warnf(cmd, "vapor pressure of %s taken from %s; the activity parameters were fitted "
-                     "with the fit file's own correlation", c->name, path);
-    }
-    pw_complib_free(&lib);
-    return PW_OK;
+    bool changed[2];
+    pw_status st = pw_system_override_components(sys, path, changed, err);
+    for (int i = 0; st == PW_OK && i < 2; i++)
+        if (changed[i])
+            pw_cli_warnf(cmd, "vapor pressure of %s taken from %s; the activity parameters were "
+                         "fitted with the fit file's own correlation", sys->comp[i].name, path);
+    return st;
 }
 
 bool pw_cli_progress_wanted(void)

@@ -8,29 +8,34 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <strings.h>
 #include <sys/stat.h>
 
 static void usage(FILE *f)
 {
+    char names[256];
     fprintf(f,
             "usage: pinchwise fit DATA.csv --model MODEL [options]\n"
             "       pinchwise fit DIR --model MODEL --out-dir OUTDIR [options]   (every *.csv in DIR)\n"
             "\n"
-            "MODEL: margules, vanlaar, wilson, nrtl, or all (fit every model, rank by AICc)\n"
+            "MODEL: %s, or all (fit every model, rank by AICc)\n"
             "  --components FILE     extra component rows (take precedence over the library)\n"
             "  --out FIT.json        fit file to write (default fits/<stem>.<model>.json)\n"
             "  --out-dir DIR         folder for the fit files (batch, or --model all)\n"
             "  --force               replace an existing fit file\n"
             "  --alpha A             NRTL non-randomness when fixed (default 0.3)\n"
             "  --fit-alpha           NRTL: fit alpha as well\n"
-            "  --starts N            candidate starts screened (default 32)\n"
+            "  --vapor MODEL         ideal (default) or virial (Tsonopoulos second virial\n"
+            "                        coefficients; needs Tc_K, Pc_kPa, omega, Zc, Vc_cm3_mol)\n"
+            "  --starts N            LM runs, each from its own start (default 8)\n"
             "  --seed N              seed of the start points (default 1)\n"
             "  --sigma-T DT          temperature uncertainty, e.g. 0.05K (default: file or 0.1 K)\n"
             "  --sigma-P PCT         pressure uncertainty in percent, e.g. 0.2 (default: file or 0.1)\n"
             "  --sigma-y DY          vapor mole fraction uncertainty (default: file or 0.004)\n"
             "  --exclude LINES       file line numbers to leave out, e.g. 12,15-17\n"
             "  --exclude-reason TEXT why they are left out (recorded in the fit file)\n"
-            "  --json                print one JSON object on stdout\n");
+            "  --json                print one JSON object on stdout\n",
+            pw_model_names(names, sizeof names));
 }
 
 static int parse_lines(const char *text, pw_fit_options *o, pw_error *err)
@@ -91,8 +96,9 @@ static void print_table(const pw_fit_result *r, const char *path)
     const pw_model_type *m = r->sys.model;
     printf("%s fit of %s (1) / %s (2), %s data, %zu points\n", m->name, r->sys.comp[0].name,
            r->sys.comp[1].name, r->kind == PW_DATA_ISOBARIC ? "isobaric" : "isothermal", r->n_pts);
-    printf("  converged: %s (%s), %zu LM iterations over the starts\n", r->converged ? "yes" : "NO",
-           pw_fit_stop_name(r->stop), r->iterations);
+    printf("  converged: %s (%s; %s), %zu LM iterations over %zu starts\n",
+           r->converged ? "yes" : "NO", pw_fit_class_name(r->fit_class), pw_fit_stop_name(r->stop),
+           r->iterations, r->n_runs);
     printf("  %-10s %14s %12s %27s\n", "parameter", "value", "std. error", "95% interval");
     for (size_t k = 0; k < m->n_params; k++) {
         if (r->fitted[k])
@@ -149,6 +155,12 @@ int pw_cli_fit(int argc, char **argv)
             co.force = true;
         } else if (pw_cli_opt(argc, argv, &i, "--fit-alpha", NULL, NULL)) {
             co.fit.fit_alpha = true;
+        } else if (pw_cli_opt(argc, argv, &i, "--vapor", &v, &missing)) {
+            if (missing)
+                return pw_cli_failf("fit", PW_EXIT_USAGE, "--vapor needs a value");
+            if (pw_vapor_parse(v, &co.fit.vapor) != PW_OK)
+                return pw_cli_failf("fit", PW_EXIT_USAGE,
+                                    "--vapor %s: unknown vapor model (expected ideal or virial)", v);
         } else if (pw_cli_opt(argc, argv, &i, "--model", &v, &missing) ||
                    pw_cli_opt(argc, argv, &i, "--components", &v, &missing) ||
                    pw_cli_opt(argc, argv, &i, "--out", &v, &missing) ||
@@ -211,12 +223,12 @@ int pw_cli_fit(int argc, char **argv)
     if (!input || !model_name) {
         return pw_cli_failf("fit", PW_EXIT_USAGE, "a dataset (or folder) and --model are required");
     }
-    bool all = !strcmp(model_name, "all");
+    bool all = !strcasecmp(model_name, "all");
     const pw_model_type *model = all ? NULL : pw_model_find(model_name);
+    char names[256];
     if (!all && !model)
-        return pw_cli_failf("fit", PW_EXIT_USAGE,
-                            "unknown model '%s' (expected margules, vanlaar, wilson, nrtl or all)",
-                            model_name);
+        return pw_cli_failf("fit", PW_EXIT_USAGE, "unknown model '%s' (expected %s or all)",
+                            model_name, pw_model_names(names, sizeof names));
     struct stat sb;
     if (stat(input, &sb) != 0)
         return pw_cli_failf("fit", pw_status_exit_code(PW_EIO), "%s: no such file or folder", input);

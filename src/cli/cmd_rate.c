@@ -4,7 +4,7 @@
 #include "design_out.h"
 
 #include <math.h>
-#include <pinchwise/design.h>
+#include <pinchwise/design_doc.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -129,7 +129,7 @@ static json_t *to_json(const rate_args *a, const pw_fit_result *fit, const pw_ra
     json_t *o = json_object();
     json_object_set_new(o, "xd", pw_cli_json_num(r->xd));
     json_object_set_new(o, "xb", pw_cli_json_num(r->xb));
-    json_object_set_new(o, "stages", pw_cli_profile_json(&r->profile));
+    json_object_set_new(o, "stages", pw_profile_doc(&r->profile));
     json_object_set_new(
         o, "balance", json_string(pw_balance_name(a->energy ? PW_BALANCE_ENERGY : PW_BALANCE_CMO)));
     if (a->energy) {

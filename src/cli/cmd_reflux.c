@@ -6,6 +6,7 @@
 #include "design_out.h"
 
 #include <math.h>
+#include <pinchwise/design_doc.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -38,98 +39,16 @@ static const char *section(pw_section s)
     return s == PW_SECTION_RECTIFYING ? "rectifying" : "stripping";
 }
 
-/* With --energy the headline numbers are the energy balance's; the rest (q-line, Fenske,
- * relative volatilities) stays the constant-overflow analysis of the same curve. */
+/* With --energy the headline numbers are the energy balance's (pw_energy_headline). */
 static pw_column_result headline(const pw_reflux_run *run)
 {
-    pw_column_result c = run->col;
-    if (!run->energy)
-        return c;
-    const pw_energy_result *e = &run->energy_res;
-    c.feasible = e->feasible;
-    snprintf(c.reason, sizeof c.reason, "%s", e->reason);
-    c.r_min = e->r_min;
-    c.s_min = e->s_min;
-    c.pinch = e->pinch;
-    c.n_min = e->n_min;
-    c.reflux_limited = e->reflux_limited;
-    c.boilup_limited = e->boilup_limited;
-    c.r_feed = NAN;
-    return c;
-}
-
-static const char *caution_text(bool energy)
-{
-    if (energy)
-        return "Screening estimate (energy balances with constant heat capacities, ideal-gas vapor "
-               "enthalpies and the fitted model's H^E, which VLE data fix poorly). Stage counts "
-               "near R_min, above all near a tangent pinch, are very sensitive to the model. "
-               "Verify with rigorous simulation and pilot data; design per local codes under "
-               "licensed review.";
-    return "Screening estimate (constant molal overflow, fitted model). Stage counts near R_min, "
-           "above all near a tangent pinch, are very sensitive to the model. Verify with rigorous "
-           "simulation and pilot data; design per local codes under licensed review.";
+    return pw_energy_headline(&run->col, run->energy ? &run->energy_res : NULL);
 }
 
 json_t *pw_reflux_json(const pw_reflux_run *run)
 {
-    const pw_column_result view = headline(run);
-    const pw_column_result *c = &view;
-    json_t *o = json_object();
-    json_object_set_new(o, "balance", json_string(pw_balance_name(run->design.balance)));
-    json_object_set_new(o, "feasible", json_boolean(c->feasible));
-    json_object_set_new(o, "reason", c->feasible ? json_null() : json_string(c->reason));
-    json_object_set_new(o, "r_min", c->feasible ? pw_cli_json_num(c->r_min) : json_null());
-    if (c->feasible && !c->reflux_limited) {
-        json_t *p = json_object();
-        json_object_set_new(p, "kind", json_string(pinch_kind(c->pinch.kind)));
-        json_object_set_new(p, "section", json_string(section(c->pinch.section)));
-        json_object_set_new(p, "x", pw_cli_json_num(c->pinch.x));
-        json_object_set_new(p, "y", pw_cli_json_num(c->pinch.y));
-        json_object_set_new(o, "pinch", p);
-    } else {
-        json_object_set_new(o, "pinch", json_null());
-    }
-    json_object_set_new(o, "n_min", c->feasible ? pw_cli_json_num(c->n_min) : json_null());
-    json_object_set_new(o, "limit",
-                        !c->feasible ? json_null()
-                        : c->reflux_limited
-                            ? json_string("no reflux needed: at R = 0 the operating lines clear the "
-                                          "equilibrium curve (a stripping column with the feed on "
-                                          "top makes the distillate); no pinch limits")
-                        : c->boilup_limited && c->pinch.kind == PW_PINCH_FEED
-                            ? json_string("zero boil-up: the feed's vapor is all the rectifying "
-                                          "section gets; the operating lines meet on the q-line "
-                                          "at xb")
-                            : json_string("pinch"));
-    json_object_set_new(o, "boilup_min", c->feasible ? pw_cli_json_num(c->s_min) : json_null());
-    json_object_set_new(o, "r_min_feed_point_only", c->feasible ? pw_cli_json_num(c->r_feed) : json_null());
-    json_object_set_new(o, "q_line_point", json_pack("{s:o,s:o}", "x", pw_cli_json_num(c->x_q), "y",
-                                                     pw_cli_json_num(c->y_q)));
-    json_object_set_new(o, "n_fenske", c->feasible ? pw_cli_json_num(c->n_fenske) : json_null());
-    json_object_set_new(o, "alpha_top", pw_cli_json_num(c->alpha_top));
-    json_object_set_new(o, "alpha_bottom", pw_cli_json_num(c->alpha_bottom));
-    json_object_set_new(o, "design", c->feasible ? pw_cli_design_json(&run->design)
-                                                 : json_array());
-    if (run->energy)
-        json_object_set_new(o, "energy", pw_cli_energy_json(&run->energy_res, run->col.r_min));
-    json_object_set_new(o, "stage_convention",
-                        json_string("equilibrium stages counted from the top, the partial reboiler "
-                                    "as one stage, last step fractional"));
-    json_object_set_new(o, "gilliland_form", json_string("Molokanov et al. (1972)"));
-    json_object_set_new(o, "design_factor_basis",
-                        json_string("operating reflux of 1.2-1.5 times R_min (common practice)"));
-    json_t *spec = json_object();
-    json_object_set_new(spec, "P_kPa", pw_cli_json_num(run->P_Pa / 1e3));
-    json_object_set_new(spec, "xd", pw_cli_json_num(run->spec.xd));
-    json_object_set_new(spec, "xb", pw_cli_json_num(run->spec.xb));
-    json_object_set_new(spec, "zf", pw_cli_json_num(run->spec.zf));
-    json_object_set_new(spec, "q", pw_cli_json_num(run->spec.q));
-    json_object_set_new(o, "spec", spec);
-    json_object_set_new(o, "T_top_K", pw_cli_json_num(run->T_top_K));
-    json_object_set_new(o, "T_bottom_K", pw_cli_json_num(run->T_bottom_K));
-    json_object_set_new(o, "caution", json_string(caution_text(run->energy)));
-    return o;
+    return pw_reflux_design_doc(&run->col, &run->design, run->energy ? &run->energy_res : NULL,
+                                run->P_Pa, &run->spec, run->T_top_K, run->T_bottom_K);
 }
 
 static void print_table(const pw_reflux_run *run)

@@ -4,6 +4,7 @@
 
 #include <errno.h>
 #include <math.h>
+#include <pinchwise/assess.h>
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/dataset.h>
 #include <pinchwise/fitjson.h>
@@ -21,35 +22,6 @@ static void file_stem(const char *path, char *out, size_t n)
     char *dot = strrchr(out, '.');
     if (dot && dot != out)
         *dot = '\0';
-}
-
-static pw_status find_component(const pw_complib *lib, const pw_dataset *ds, int i,
-                                pw_component out[2], const pw_component **c, pw_error *err)
-{
-    *c = pw_complib_find(lib, ds->names[i]);
-    if (*c) {
-        /* Keep the dataset's spelling (it may be an alias or differ in case): the fit file and
-         * every later output then name the components as the user did. */
-        out[i] = **c;
-        snprintf(out[i].name, sizeof out[i].name, "%s", ds->names[i]);
-        *c = &out[i];
-        return PW_OK;
-    }
-    const char *sugg[3];
-    size_t n = pw_complib_suggest(lib, ds->names[i], sugg, 3);
-    char hint[300] = "";
-    if (n > 0) {
-        size_t len = (size_t)snprintf(hint, sizeof hint, "; did you mean ");
-        for (size_t k = 0; k < n && len < sizeof hint; k++)
-            len += (size_t)snprintf(hint + len, sizeof hint - len, "%s'%s'",
-                                    k == 0 ? "" : (k + 1 == n ? " or " : ", "), sugg[k]);
-        if (len < sizeof hint)
-            snprintf(hint + len, sizeof hint - len, "?");
-    }
-    return pw_error_set(err, PW_ENOTFOUND, ds->path, 0,
-                        "component '%s' is not in the component library (add it with --components "
-                        "FILE%s)",
-                        ds->names[i], hint);
 }
 
 static void warn_ranges(const pw_fit_result *r, const char *input)
@@ -153,9 +125,32 @@ static void warn_duplicates(const pw_fit_result *r, const char *input)
 static void warn_fit(const pw_fit_result *r, const char *input)
 {
     pw_cli_warn_vapor_association("fit", &r->sys);
-    if (!r->converged)
-        pw_cli_warnf("fit", "%s: the %s fit did NOT converge (%s); do not design with it", input,
-                     r->sys.model->name, pw_fit_stop_name(r->stop));
+    const pw_model_type *m = r->sys.model;
+    if (r->fit_class == PW_FIT_RUNAWAY)
+        pw_cli_warnf("fit", "%s: the %s fit did NOT converge: %s ran beyond its physical bound "
+                     "(docs/fitting.md) and no bounded minimum was found; do not design with it",
+                     input, m->name,
+                     r->runaway_param >= 0 ? m->param_names[r->runaway_param] : "a parameter");
+    else if (!r->converged)
+        pw_cli_warnf("fit", "%s: the %s fit did NOT converge (%s, %s); do not design with it", input,
+                     m->name, pw_fit_class_name(r->fit_class), pw_fit_stop_name(r->stop));
+    if (r->fit_class == PW_FIT_EXACT)
+        pw_cli_warnf("fit", "%s: the %s model reproduces the data to rounding level (noise-free or "
+                     "generated data?); standard errors are those the stated uncertainties imply",
+                     input, m->name);
+    if (r->converged && !r->identifiable) {
+        char combo[256] = "";
+        size_t len = 0;
+        for (size_t k = 0; k < m->n_params && len < sizeof combo - 40; k++)
+            if (r->fitted[k] && fabs(r->weak_dir[k]) > 1e-3)
+                len += (size_t)snprintf(combo + len, sizeof combo - len, "%s%s%.3g %s",
+                                        len ? (r->weak_dir[k] < 0 ? " - " : " + ") : "",
+                                        len == 0 && r->weak_dir[k] < 0 ? "-" : "",
+                                        fabs(r->weak_dir[k]), m->param_names[k]);
+        pw_cli_warnf("fit", "%s: the data do not fix the parameter combination along (%s): moving "
+                     "the parameters that way leaves the fit unchanged; the standard errors of the "
+                     "parameters it involves are not meaningful (null)", input, combo);
+    }
     if (r->split)
         pw_cli_warnf("fit",
                      "%s: the %s parameters predict a liquid-liquid split (d2(Gmix/RT)/dx1^2 = %.3g "
@@ -168,7 +163,7 @@ static void warn_fit(const pw_fit_result *r, const char *input)
                      input, competing);
     for (size_t a = 0; a < r->sys.model->n_params; a++)
         for (size_t b = a + 1; b < r->sys.model->n_params; b++)
-            if (r->fitted[a] && r->fitted[b] && fabs(r->corr[a][b]) > 0.95)
+            if (r->identifiable && r->fitted[a] && r->fitted[b] && fabs(r->corr[a][b]) > 0.95)
                 pw_cli_warnf("fit", "%s: parameters %s and %s are correlated (%.3f): poorly "
                              "identifiable from these data",
                              input, r->sys.model->param_names[a], r->sys.model->param_names[b],
@@ -192,11 +187,9 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
     pw_status st = pw_dataset_read(input, &ds, err);
     if (st != PW_OK)
         return pw_status_exit_code(st);
-    const pw_component *c1 = NULL, *c2 = NULL;
     pw_component found[2];
-    st = find_component(co->lib, &ds, 0, found, &c1, err);
-    if (st == PW_OK)
-        st = find_component(co->lib, &ds, 1, found, &c2, err);
+    const pw_component *c1 = &found[0], *c2 = &found[1];
+    st = pw_dataset_components(co->lib, &ds, found, err);
     if (st == PW_OK) {
         char stem[PW_PATH_MAX];
         file_stem(input, stem, sizeof stem);
@@ -240,38 +233,30 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
 
 json_t *pw_fit_cli_json(const pw_fit_result *r, const char *path)
 {
-    json_t *o = pw_fitfile_to_json(r);
-    json_object_del(o, "data");
-    json_object_del(o, "component_data");
-    json_object_del(o, "format");
-    json_object_del(o, "format_version");
-    json_object_set_new(o, "fit_file", json_string(path));
-    return o;
+    return pw_fit_doc(r, path);
 }
 
 typedef struct ranked {
     const pw_model_type *model;
     pw_fit_result r;
-    pw_az_result az;
-    bool az_ok;
     char path[PW_PATH_MAX];
     int rc;
     pw_error err;
 } ranked;
 
-static int cmp_aicc(const void *a, const void *b)
+static json_t *az_json(const pw_rank_row *w)
 {
-    const ranked *x = a, *y = b;
-    if (x->rc != y->rc)
-        return x->rc == 0 ? -1 : 1;
-    if (x->rc != 0)
-        return 0;
-    /* non-converged or split fits rank after the sound ones */
-    int bx = !x->r.converged || x->r.split, by = !y->r.converged || y->r.split;
-    if (bx != by)
-        return bx - by;
-    double ax = x->r.aicc, ay = y->r.aicc;
-    return (ax > ay) - (ax < ay);
+    if (w->az_status != PW_OK)
+        return json_null();
+    json_t *azs = json_array();
+    for (size_t k = 0; k < w->az.n; k++)
+        json_array_append_new(azs, json_pack("{s:o,s:o,s:o,s:s}", "x1", pw_cli_json_num(w->az.az[k].x1),
+                                             "T_K", pw_cli_json_num(w->az.az[k].T_K), "P_kPa",
+                                             pw_cli_json_num(w->az.az[k].P_Pa / 1e3), "kind",
+                                             w->az.az[k].kind == PW_AZ_MINIMUM_BOILING
+                                                 ? "minimum-boiling"
+                                                 : "maximum-boiling"));
+    return azs;
 }
 
 int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_opts *co)
@@ -295,107 +280,99 @@ int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_o
                  res[i].rc == 0 ? "fitted" : "failed");
         pw_cli_progress_line("fit", what, i + 1, n);
     }
-    for (size_t i = 0; i < n; i++)
-        if (res[i].rc == 0) {
-            const pw_fit_result *r = &res[i].r;
-            bool isobaric = r->kind == PW_DATA_ISOBARIC;
-            res[i].az_ok = pw_azeotrope_find(&r->sys, isobaric ? PW_AZ_ISOBARIC : PW_AZ_ISOTHERMAL,
-                                             isobaric ? r->P_fixed_Pa : r->T_fixed_K, NULL,
-                                             &res[i].az) == PW_OK;
-        }
-    qsort(res, n, sizeof *res, cmp_aicc);
-    /* Judge the models where the design is decided: the azeotrope. Models within delta-AICc < 10
-     * of the best that place it more than 0.01 apart in x1 (or disagree on its existence) are a
-     * model risk worth a warning. */
-    double xlo = INFINITY, xhi = -INFINITY;
-    size_t with = 0, without = 0;
-    for (size_t i = 0; i < n; i++) {
-        if (res[i].rc != 0 || !res[i].az_ok || !(res[i].r.aicc - res[0].r.aicc < 10.0))
-            continue;
-        if (res[i].az.n == 0)
-            without++;
-        for (size_t k = 0; k < res[i].az.n; k++) {
-            with += k == 0;
-            xlo = fmin(xlo, res[i].az.az[k].x1);
-            xhi = fmax(xhi, res[i].az.az[k].x1);
-        }
+    /* One ranking rule (include/pinchwise/assess.h): sound fits by AICc, each model's azeotrope
+     * at the data's condition, and the model risk among the considered fits. */
+    const pw_fit_result *fits[PW_RANK_MAX];
+    size_t nf = 0;
+    for (size_t i = 0; i < n && nf < PW_RANK_MAX; i++)
+        if (res[i].rc == 0)
+            fits[nf++] = &res[i].r;
+    pw_ranking *rk = calloc(1, sizeof *rk);
+    if (!rk) {
+        for (size_t i = 0; i < n; i++)
+            pw_fit_result_free(&res[i].r);
+        free(res);
+        return pw_cli_failf("fit", pw_status_exit_code(PW_ENOMEM), "out of memory");
     }
-    if (with && without)
+    if (nf > 0 && pw_rank_assess(fits, nf, NULL, rk) != PW_OK)
+        rk->n = 0;
+    /* fits[k] is res[map[k]] */
+    size_t map[PW_RANK_MAX], k = 0;
+    for (size_t i = 0; i < n && k < PW_RANK_MAX; i++)
+        if (res[i].rc == 0)
+            map[k++] = i;
+    if (rk->az_existence_differs)
         pw_cli_warnf("fit", "%s: models that fit about equally well disagree on whether an azeotrope "
                      "exists at the data's condition", input);
-    else if (with > 1 && xhi - xlo > 0.01)
+    else if (rk->az_place_differs)
         pw_cli_warnf("fit", "%s: models that fit about equally well place the azeotrope between x1 = "
                      "%.3f and %.3f: judge them near the azeotrope, not by AAD alone",
-                     input, xlo, xhi);
+                     input, rk->az_x_lo, rk->az_x_hi);
     int rc = 0;
-    double best_aicc = res[0].rc == 0 ? res[0].r.aicc : (double)NAN;
     if (co->json) {
         json_t *o = json_object();
-        json_object_set_new(o, "ranking", json_string("AICc (Hurvich & Tsai 1989); fits that did not "
-                                                      "converge or predict a liquid split rank last"));
+        json_object_set_new(o, "ranking", json_string("sound fits (converged, no liquid split) by AICc "
+                                                      "(Hurvich & Tsai 1989), classes after Burnham & "
+                                                      "Anderson (2002); unsound fits rank last"));
         json_t *arr = json_array(), *failed = json_array();
-        for (size_t i = 0; i < n; i++) {
-            if (res[i].rc != 0) {
-                char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
-                json_t *f = json_object();
-                json_object_set_new(f, "model", json_string(res[i].model->name));
-                json_object_set_new(f, "error", json_string(pw_error_format(&res[i].err, buf, sizeof buf)));
-                json_array_append_new(failed, f);
-                continue;
-            }
-            json_t *m = pw_fit_cli_json(&res[i].r, res[i].path);
-            json_object_set_new(m, "rank", json_integer((json_int_t)i + 1));
-            json_object_set_new(m, "delta_aicc", pw_cli_json_num(res[i].r.aicc - best_aicc));
-            json_t *azs = json_array();
-            for (size_t k = 0; res[i].az_ok && k < res[i].az.n; k++)
-                json_array_append_new(azs, json_pack("{s:o,s:o,s:o,s:s}", "x1",
-                                                     pw_cli_json_num(res[i].az.az[k].x1), "T_K",
-                                                     pw_cli_json_num(res[i].az.az[k].T_K), "P_kPa",
-                                                     pw_cli_json_num(res[i].az.az[k].P_Pa / 1e3),
-                                                     "kind",
-                                                     res[i].az.az[k].kind == PW_AZ_MINIMUM_BOILING
-                                                         ? "minimum-boiling"
-                                                         : "maximum-boiling"));
-            json_object_set_new(m, "azeotropes_at_data_condition",
-                                res[i].az_ok ? azs : (json_decref(azs), json_null()));
+        for (size_t j = 0; j < rk->n; j++) {
+            const pw_rank_row *w = &rk->rows[j];
+            const ranked *q = &res[map[w->index]];
+            json_t *m = pw_fit_cli_json(&q->r, q->path);
+            json_object_set_new(m, "rank", json_integer((json_int_t)j + 1));
+            json_object_set_new(m, "delta_aicc", pw_cli_json_num(w->delta_aicc));
+            json_object_set_new(m, "class", json_string(pw_rank_class_name(w->cls)));
+            json_object_set_new(m, "akaike_weight", pw_cli_json_num(w->weight));
+            json_object_set_new(m, "azeotropes_at_data_condition", az_json(w));
             json_array_append_new(arr, m);
+        }
+        for (size_t i = 0; i < n; i++) {
+            if (res[i].rc == 0)
+                continue;
+            char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
+            json_t *f = json_object();
+            json_object_set_new(f, "model", json_string(res[i].model->name));
+            json_object_set_new(f, "error", json_string(pw_error_format(&res[i].err, buf, sizeof buf)));
+            json_array_append_new(failed, f);
         }
         json_object_set_new(o, "models", arr);
         json_object_set_new(o, "failed", failed);
-        json_object_set_new(o, "best", ok ? json_string(res[0].model->name) : json_null());
+        json_object_set_new(o, "best", rk->n ? json_string(rk->rows[0].fit->sys.model->name) : json_null());
         rc = pw_cli_print_json(o);
     } else {
-        printf("models ranked by AICc (lower is better; delta < 2: indistinguishable, > 10: no "
-               "support; Burnham & Anderson 2002)\n");
-        printf("  %-4s %-9s %9s %10s %10s %10s %10s  %s\n", "rank", "model", "dAICc", "AAD y",
-               "AAD T/K", "AAD P/kPa", "x1 azeo.", "notes");
-        for (size_t i = 0; i < n; i++) {
-            if (res[i].rc != 0) {
-                char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
-                printf("  %-4s %-9s  failed: %s\n", "-", res[i].model->name,
-                       pw_error_format(&res[i].err, buf, sizeof buf));
-                continue;
-            }
-            const pw_fit_result *r = &res[i].r;
-            char cy[16], cT[16], cP[16];
+        printf("models ranked by AICc (dAICc = AICc - AICc of the best; lower is better; < 2: the data "
+               "cannot tell them apart, >= 10: no support; Burnham & Anderson 2002)\n");
+        printf("  %-4s %-9s %9s %-17s %10s %10s %10s %10s  %s\n", "rank", "model", "dAICc", "class",
+               "AAD y", "AAD T/K", "AAD P/kPa", "x1 azeo.", "notes");
+        for (size_t j = 0; j < rk->n; j++) {
+            const pw_rank_row *w = &rk->rows[j];
+            const pw_fit_result *r = w->fit;
+            char cy[16], cT[16], cP[16], cd[16];
             snprintf(cy, sizeof cy, isfinite(r->dev_y.aad) ? "%.4f" : "-", r->dev_y.aad);
             snprintf(cT, sizeof cT, isfinite(r->dev_T_K.aad) ? "%.3f" : "-", r->dev_T_K.aad);
             snprintf(cP, sizeof cP, isfinite(r->dev_P_Pa.aad) ? "%.4f" : "-", r->dev_P_Pa.aad / 1e3);
+            snprintf(cd, sizeof cd, isfinite(w->delta_aicc) ? "%.2f" : "-", w->delta_aicc);
             char ca[32] = "none";
-            if (!res[i].az_ok)
+            if (w->az_status != PW_OK)
                 snprintf(ca, sizeof ca, "?");
-            else if (res[i].az.n == 1)
-                snprintf(ca, sizeof ca, "%.4f", res[i].az.az[0].x1);
-            else if (res[i].az.n > 1)
-                snprintf(ca, sizeof ca, "%.3f,%.3f", res[i].az.az[0].x1, res[i].az.az[1].x1);
-            printf("  %-4zu %-9s %9.2f %10s %10s %10s %10s  %s%s\n", i + 1, r->sys.model->name,
-                   r->aicc - best_aicc, cy, cT, cP, ca, r->converged ? "" : "not converged ",
+            else if (w->az.n == 1)
+                snprintf(ca, sizeof ca, "%.4f", w->az.az[0].x1);
+            else if (w->az.n > 1)
+                snprintf(ca, sizeof ca, "%.3f,%.3f", w->az.az[0].x1, w->az.az[1].x1);
+            printf("  %-4zu %-9s %9s %-17s %10s %10s %10s %10s  %s%s\n", j + 1, r->sys.model->name, cd,
+                   pw_rank_class_name(w->cls), cy, cT, cP, ca, r->converged ? "" : "not converged ",
                    r->split ? "liquid split predicted" : "");
         }
-        for (size_t i = 0; i < n; i++)
-            if (res[i].rc == 0)
-                printf("  fit file: %s\n", res[i].path);
+        for (size_t i = 0; i < n; i++) {
+            char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
+            if (res[i].rc != 0)
+                printf("  %-4s %-9s  failed: %s\n", "-", res[i].model->name,
+                       pw_error_format(&res[i].err, buf, sizeof buf));
+        }
+        for (size_t j = 0; j < rk->n; j++)
+            printf("  fit file: %s\n", res[map[rk->rows[j].index]].path);
     }
+    free(rk);
     if (ok == 0) {
         rc = pw_cli_fail("fit", &res[0].err);
     }

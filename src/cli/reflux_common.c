@@ -4,6 +4,7 @@
 
 #include <math.h>
 #include <pinchwise/curve.h>
+#include <pinchwise/design_doc.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -118,51 +119,33 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
         return pw_status_exit_code(st);
     run->P_Pa = a->P_Pa;
     run->spec = a->spec;
-    pw_system_curve sc;
-    st = pw_system_curve_init(&sc, &run->fit.sys, a->P_Pa);
-    /* The design rows come from pw_design_cmo / pw_energy_column_solve (with stage profiles,
-     * and a row the column cannot reach marked as such), not from pw_column_solve's table. */
+    /* The design rows come from pw_reflux_design (stage profiles, a row the column cannot
+     * reach marked as such), not from pw_column_solve's own table. */
     pw_column_options o = a->opt;
     o.n_factors = 0;
-    if (st == PW_OK) {
-        pw_curve curve = pw_system_curve_bind(&sc);
-        st = pw_column_solve(&curve, &a->spec, &o, &run->col);
-    }
+    st = pw_reflux_solve(&run->fit.sys, a->P_Pa, &a->spec, &o, a->fit_path, &run->col,
+                         &run->T_top_K, &run->T_bottom_K, err);
     if (st == PW_OK && a->energy) {
         run->energy = true;
-        pw_heat_data *heat = &run->heat;
-        st = pw_heat_data_from_system(&run->fit.sys, heat, err);
+        st = pw_heat_data_from_system(&run->fit.sys, &run->heat, err);
         if (st != PW_OK) {
             char msg[PW_ERROR_MSG_MAX];
             snprintf(msg, sizeof msg, "%s", err->msg);
             pw_error_set(err, st, a->fit_path, 0, "--energy: %s", msg);
-            pw_fit_result_free(&run->fit);
-            return pw_status_exit_code(st);
         }
-        if (run->col.feasible)
-            st = pw_energy_column_solve(&run->fit.sys, heat, a->P_Pa, &a->spec, &a->opt,
-                                        &run->energy_res, &run->design);
-        else {
-            run->energy_res.feasible = false;
-            snprintf(run->energy_res.reason, sizeof run->energy_res.reason, "%s",
-                     run->col.reason);
-        }
-        if (st != PW_OK && run->energy_res.reason[0])
-            snprintf(run->col.reason, sizeof run->col.reason, "%s", run->energy_res.reason);
-    } else if (st == PW_OK && run->col.feasible && run->col.r_min > 0.0) {
-        st = pw_design_cmo(&run->fit.sys, a->P_Pa, &a->spec, run->col.r_min, run->col.n_min,
-                           &a->opt, &run->design);
+    }
+    if (st == PW_OK) {
+        st = pw_reflux_design(&run->fit.sys, a->P_Pa, &a->spec, &a->opt, &run->col,
+                              run->energy ? &run->heat : NULL, &run->design, &run->energy_res);
+        if (st != PW_OK)
+            pw_error_set(err, st, a->fit_path, 0, "%s%s%s", pw_strerror(st),
+                         run->energy_res.reason[0] ? ": " : "", run->energy_res.reason);
     }
     if (st != PW_OK) {
         pw_design_table_free(&run->design);
-        pw_error_set(err, st, a->fit_path, 0, "%s%s%s", pw_strerror(st),
-                     run->col.reason[0] ? ": " : "", run->col.reason);
         pw_fit_result_free(&run->fit);
         return pw_status_exit_code(st);
     }
-    pw_eq_point e;
-    run->T_top_K = pw_bubble_T(&run->fit.sys, a->P_Pa, a->spec.xd, &e) == PW_OK ? e.T_K : (double)NAN;
-    run->T_bottom_K = pw_bubble_T(&run->fit.sys, a->P_Pa, a->spec.xb, &e) == PW_OK ? e.T_K : (double)NAN;
     return 0;
 }
 

@@ -46,7 +46,12 @@ grep -q "boil-up" err.txt || fail "boil-up message: $(cat err.txt)"
 "$pw" rate demo.json --pressure 1 --stages 10 --feed-stage 5 --reflux 1 --zf 0.1 --distillate 0.05 2>err.txt && fail "bare pressure accepted"
 "$pw" rate demo.json --pressure 1atm --stages 10 --feed-stage 5 --reflux 1 --zf 0.1 2>err.txt && fail "missing --distillate accepted"
 # 4. --energy: needs heat data (refused naming the column without it), then adds the duties.
-"$pw" rate demo.json --pressure 1atm --stages 10 --feed-stage 5 --reflux 1 --zf 0.1 --distillate 0.05 --energy 2>err.txt && fail "--energy without heat data accepted"
+cat > noheat.csv <<'CSV'
+name,A,B,C,log,P_unit,T_unit,T_min,T_max,source,equation
+water,16.3872,3885.70,230.170,ln,kPa,C,0,200,"SVNA 7th ed. Table B.2 (from memory); IAPWS-IF97",iapws-if97
+acetone,14.3145,2756.22,228.060,ln,kPa,C,-26,77,"SVNA 7th ed. Table B.2 (from memory)",antoine
+CSV
+"$pw" rate demo.json --pressure 1atm --stages 10 --feed-stage 5 --reflux 1 --zf 0.1 --distillate 0.05 --components noheat.csv --energy 2>err.txt && fail "--energy without heat data accepted"
 grep -q "dHvap_kJ_mol" err.txt || fail "--energy message: $(cat err.txt)"
 # Heats: SVNA 7th ed. Table B.2 and the CRC Handbook (from memory; methods brief part 2, section 7).
 cat > heat.csv <<'CSV'

@@ -42,7 +42,12 @@ grep -q "heats of vaporization" warn.txt || fail "no latent-heat warning without
 "$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components heat.csv --energy 2>warn2.txt >/dev/null || fail "text"
 grep -q "heats of vaporization" warn2.txt && fail "latent-heat warning with --energy"
 # No heat data: refused, naming the component and the column.
-"$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --energy 2>err.txt && fail "--energy without heat data accepted"
+cat > noheat.csv <<'CSV'
+name,A,B,C,log,P_unit,T_unit,T_min,T_max,source,equation
+water,16.3872,3885.70,230.170,ln,kPa,C,0,200,"SVNA 7th ed. Table B.2 (from memory); IAPWS-IF97",iapws-if97
+acetone,14.3145,2756.22,228.060,ln,kPa,C,-26,77,"SVNA 7th ed. Table B.2 (from memory)",antoine
+CSV
+"$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components noheat.csv --energy 2>err.txt && fail "--energy without heat data accepted"
 grep -q "dHvap_kJ_mol" err.txt || fail "message lacks the column: $(cat err.txt)"
 "$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components nocpv.csv --energy 2>err.txt && fail "missing cpV accepted"
 grep -q "water" err.txt && grep -q "cpV_J_molK" err.txt || fail "message: $(cat err.txt)"

@@ -22,6 +22,11 @@ assert e["feasible"] is True
 assert abs(e["r_min"] - r["r_min"]) <= 1e-9 * r["r_min"], (e["r_min"], r["r_min"])
 assert e["r_min_constant_molal_overflow"] == r["energy"]["r_min_constant_molal_overflow"]
 PY
-"$pw" screen demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.1 --energy 2>err.txt >/dev/null && fail "screen --energy without heat data accepted"
+cat > noheat.csv <<'CSV'
+name,A,B,C,log,P_unit,T_unit,T_min,T_max,source,equation
+water,16.3872,3885.70,230.170,ln,kPa,C,0,200,"SVNA 7th ed. Table B.2 (from memory); IAPWS-IF97",iapws-if97
+acetone,14.3145,2756.22,228.060,ln,kPa,C,-26,77,"SVNA 7th ed. Table B.2 (from memory)",antoine
+CSV
+"$pw" screen demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.1 --components noheat.csv --energy 2>err.txt >/dev/null && fail "screen --energy without heat data accepted"
 grep -q "dHvap_kJ_mol" err.txt || fail "message: $(cat err.txt)"
 echo "screen --energy tests passed"
