@@ -4,11 +4,11 @@
  * with the measured y. Residuals: isothermal (P_calc - P)/P, isobaric T_calc - T [K].
  * The number of terms (3-5 by default) is chosen by the lowest AICc (or lowest residual). */
 #include "consistency_internal.h"
+#include "base/solve1d.h"
 
 #include <float.h>
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_multifit_nlinear.h>
-#include <gsl/gsl_roots.h>
 #include <math.h>
 #include <string.h>
 
@@ -47,6 +47,16 @@ static double tb_fun(double T, void *vp)
     return log(s) - tp->lnP;
 }
 
+static pw_status tb_fn1d(void *vp, double T, double *f)
+{
+    tb_params *tp = vp;
+    double v = tb_fun(T, vp);
+    if (tp->st != PW_OK)
+        return tp->st;
+    *f = v;
+    return PW_OK;
+}
+
 /* T at which x1 g1 P1sat(T) + x2 g2 P2sat(T) = P, for T-independent gammas. The bracket is
  * exact: at min_i Tsat_i(P/(x_i g_i)) one term alone reaches P; at min_i Tsat_i(P/(2 x_i g_i))
  * (over the terms that can reach P/2) neither term exceeds P/2. */
@@ -63,29 +73,11 @@ static pw_status bubble_T(const cs_data *d, const double xg[2], double P, double
     if (!isfinite(hi) || !isfinite(lo) || !(lo < hi))
         return PW_ENOBRACKET;
     tb_params tp = {{d->comp[0], d->comp[1]}, {xg[0], xg[1]}, log(P), PW_OK};
-    gsl_function F = {tb_fun, &tp};
-    gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    if (!s)
-        return PW_ENOMEM;
-    if (gsl_root_fsolver_set(s, &F, lo, hi) != GSL_SUCCESS) {
-        gsl_root_fsolver_free(s);
-        return tp.st != PW_OK ? tp.st : PW_ENOBRACKET;
-    }
-    pw_status st = PW_EMAXITER;
-    for (int it = 0; it < 200; it++) {
-        if (gsl_root_fsolver_iterate(s) != GSL_SUCCESS || tp.st != PW_OK) {
-            st = tp.st != PW_OK ? tp.st : PW_ENOCONV;
-            break;
-        }
-        double a = gsl_root_fsolver_x_lower(s), b = gsl_root_fsolver_x_upper(s);
-        if (gsl_root_test_interval(a, b, 0.0, 4.0 * DBL_EPSILON) == GSL_SUCCESS) {
-            st = PW_OK;
-            break;
-        }
-    }
-    *T = gsl_root_fsolver_root(s);
-    gsl_root_fsolver_free(s);
-    return st;
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = 0.0;
+    o.xtol_rel = 4.0 * DBL_EPSILON;
+    o.max_iter = 200;
+    return pw_root1d(tb_fn1d, &tp, lo, hi, NAN, NAN, &o, T, NULL);
 }
 
 static pw_status bubble(const cs_data *d, const pw_model_type *m, const double *a,

@@ -81,8 +81,13 @@ static void print_table(const pw_reflux_run *run)
     if (c->pinch.kind == PW_PINCH_TANGENT && !c->boilup_limited && isfinite(c->r_feed))
         printf("  (a search at the q-line alone would give R = %.6g: %.0f %% too low)\n", c->r_feed,
                100.0 * (c->r_min - c->r_feed) / c->r_min);
-    printf("  stages at total reflux    %.3f stepped (Fenske %.3f, alpha top %.3f, bottom %.3f)\n",
-           c->n_min, c->n_fenske, c->alpha_top, c->alpha_bottom);
+    if (c->n_min_status != PW_OK)
+        printf("  stages at total reflux    not reached by stepping (%s; Fenske %.3f)\n",
+               pw_strerror(c->n_min_status), c->n_fenske);
+    else
+        printf("  stages at total reflux    %.3f stepped (Fenske %.3f, alpha top %.3f, bottom "
+               "%.3f)\n",
+               c->n_min, c->n_fenske, c->alpha_top, c->alpha_bottom);
     if (run->energy)
         printf("  energy balances           R_min %.6g (constant molal overflow %.6g)\n",
                c->r_min, run->col.r_min);

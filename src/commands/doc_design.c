@@ -81,12 +81,14 @@ json_t *pw_design_doc(const pw_design_table *t)
         json_object_set_new(row, "factor", pw_json_num(r->factor));
         json_object_set_new(row, "R", pw_json_num(r->R));
         json_object_set_new(row, "boilup", pw_json_num(r->boilup));
-        json_object_set_new(row, "reachable", json_boolean(r->reachable));
+        json_object_set_new(row, "reached", json_boolean(r->reachable));
         json_object_set_new(row, "stages", r->reachable ? pw_json_num(r->stages) : json_null());
         json_object_set_new(row, "feed_stage",
                             r->reachable ? json_integer(r->feed_stage) : json_null());
-        if (!r->reachable)
+        if (!r->reachable) {
+            json_object_set_new(row, "note", json_string(pw_strerror(r->why)));
             json_object_set_new(row, "limit", json_string(pw_design_unreachable_text(r->why)));
+        }
         if (t->balance == PW_BALANCE_CMO)
             json_object_set_new(row, "gilliland_stages", pw_json_num(r->gilliland_stages));
         if (t->balance == PW_BALANCE_ENERGY) {

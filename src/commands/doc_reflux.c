@@ -54,6 +54,8 @@ json_t *pw_reflux_doc(const pw_column_result *c, double P_Pa, const pw_column_sp
         json_object_set_new(o, "pinch", json_null());
     }
     json_object_set_new(o, "n_min", c->feasible ? pw_json_num(c->n_min) : json_null());
+    if (c->feasible && c->n_min_status != PW_OK)
+        json_object_set_new(o, "n_min_note", json_string(pw_strerror(c->n_min_status)));
     json_object_set_new(o, "limit",
                         !c->feasible ? json_null()
                         : c->reflux_limited
@@ -82,6 +84,9 @@ json_t *pw_reflux_doc(const pw_column_result *c, double P_Pa, const pw_column_sp
         json_object_set_new(row, "stages", pw_json_num(r->stages));
         json_object_set_new(row, "feed_stage", json_integer(r->feed_stage));
         json_object_set_new(row, "gilliland_stages", pw_json_num(r->gilliland_stages));
+        json_object_set_new(row, "reached", json_boolean(r->status == PW_OK));
+        if (r->status != PW_OK)
+            json_object_set_new(row, "note", json_string(pw_strerror(r->status)));
         json_array_append_new(d, row);
     }
     json_object_set_new(o, "design", d);

@@ -33,7 +33,6 @@ json_t *pw_unc_output_doc(const pw_unc_output *o)
 void pw_reflux_unc_doc(json_t *o, const pw_unc_result *r, const pw_unc_options *opt, double factor,
                        pw_status plan_status, const pw_unc_plan *plan)
 {
-    
     json_object_set_new(o, "r_min_ci95", pw_json_pair(r->out[PW_UNC_RMIN].ci));
     json_object_set_new(o, "feasible_probability", pw_json_num(r->p_feasible));
     json_t *j = json_object();
@@ -41,6 +40,12 @@ void pw_reflux_unc_doc(json_t *o, const pw_unc_result *r, const pw_unc_options *
     json_object_set_new(j, "boilup_min", pw_unc_output_doc(&r->out[PW_UNC_SMIN]));
     json_t *st = pw_unc_output_doc(&r->out[PW_UNC_STAGES]);
     json_object_set_new(st, "reflux_factor", pw_json_num(factor));
+    /* feasible draws whose column needs more than the stage limit at this reflux: reported,
+     * left out of the stage interval */
+    size_t counted = r->out[PW_UNC_STAGES].n_mc;
+    json_object_set_new(st, "draws_not_reached",
+                        json_integer((json_int_t)(r->n_feasible > counted ? r->n_feasible - counted
+                                                                          : 0)));
     json_object_set_new(j, "stages_operating", st);
     json_object_set_new(j, "draws", json_pack("{s:I,s:I,s:I,s:I,s:I,s:I,s:s}",
         "requested", (json_int_t)opt->samples, "evaluated", (json_int_t)r->n_samples,

@@ -17,7 +17,7 @@ assert d["balance"] == "constant-molal-overflow"
 rows = d["design"]
 assert [r["factor"] for r in rows] == [1.2, 1.3, 1.5]
 for r in rows:
-    assert r["reachable"] is True and r["stages"] > 0 and 1 <= r["feed_stage"] <= len(r["profile"])
+    assert r["reached"] is True and r["stages"] > 0 and 1 <= r["feed_stage"] <= len(r["profile"])
     p = r["profile"]
     import math
     assert len(p) == math.ceil(r["stages"]), (len(p), r["stages"])
@@ -37,8 +37,8 @@ python3 - <<'PY' || fail "unreachable row"
 import json
 d = json.load(open("u.json"))
 r0, r1 = d["design"]
-assert r0["reachable"] is False and r0["stages"] is None and r0["profile"] == [] and "not reached" in r0["limit"], r0
-assert r1["reachable"] is True
+assert r0["reached"] is False and r0["stages"] is None and r0["profile"] == [] and "not reached" in r0["limit"], r0
+assert r1["reached"] is True
 PY
 "$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --factors 1.0000001,1.5 > u.txt 2>/dev/null || fail "text output"
 grep -q "not reached" u.txt || fail "text output lacks the unreachable row"

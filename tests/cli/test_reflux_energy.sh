@@ -30,7 +30,7 @@ assert e["energy"]["r_min_constant_molal_overflow"] == c["r_min"]
 D = (0.10 - 0.02) / (0.95 - 0.02); B = 1 - D
 en = e["energy"]
 for r in e["design"]:
-    assert r["reachable"] and r["condenser_kJ_per_mol_feed"] > 0 and r["reboiler_kJ_per_mol_feed"] > 0
+    assert r["reached"] and r["condenser_kJ_per_mol_feed"] > 0 and r["reboiler_kJ_per_mol_feed"] > 0
     # overall balance: F h_F + Q_R = D h_D + B h_B + Q_C (kJ vs J converted once)
     lhs = en["h_feed_J_mol"] + 1e3 * r["reboiler_kJ_per_mol_feed"]
     rhs = D * en["h_distillate_J_mol"] + B * en["h_bottoms_J_mol"] + 1e3 * r["condenser_kJ_per_mol_feed"]
