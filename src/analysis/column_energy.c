@@ -16,9 +16,9 @@
  * missed stops the stepping, and the search is repeated around where it stopped. */
 #include "analysis/design_internal.h"
 
+#include "base/solve1d.h"
+
 #include <float.h>
-#include <gsl/gsl_errno.h>
-#include <gsl/gsl_min.h>
 #include <math.h>
 #include <pinchwise/curve.h>
 #include <stdio.h>
@@ -37,8 +37,6 @@ typedef struct en {
     const pw_heat_data *h;
     pw_column_spec s;
     double D, B, h_F, h_D, h_B, H_top;
-    gsl_root_fsolver *root;
-    gsl_min_fminimizer *min;
     pw_status cb;
 } en;
 
@@ -64,23 +62,29 @@ static pw_status sat_vapor(en *c, double y, double *H, double *x, double *T)
     return st;
 }
 
-/* ---- 1-D solvers over GSL with a status through the context ---- */
+/* ---- 1-D solves through the library's Brent driver (src/base/solve1d.h) ---- */
 
+/* The section functions return a value and leave a failure in c->cb; the adapter hands the
+ * driver a status and a finite value, times sign. */
 typedef double (*en_fn)(en *c, double x, void *p);
-typedef struct tramp {
+typedef struct adapt {
     en *c;
     en_fn f;
     void *p;
     double sign;
-} tramp;
+} adapt;
 
-static double tramp_fn(double x, void *params)
+static pw_status adapt_fn(void *ctx, double x, double *v)
 {
-    tramp *t = params;
-    double v = t->f(t->c, x, t->p);
+    adapt *t = ctx;
+    t->c->cb = PW_OK;
+    double r = t->f(t->c, x, t->p);
     if (t->c->cb != PW_OK)
-        return GSL_NAN;
-    return t->sign * v;
+        return t->c->cb;
+    if (!isfinite(r))
+        return PW_EDOM;
+    *v = t->sign * r;
+    return PW_OK;
 }
 
 static pw_status root(en *c, en_fn f, void *p, double a, double b, double fa, double fb, double *x)
@@ -91,33 +95,28 @@ static pw_status root(en *c, en_fn f, void *p, double a, double b, double fa, do
     }
     if ((fa > 0.0) == (fb > 0.0))
         return PW_ENOBRACKET;
-    tramp t = {c, f, p, 1.0};
-    gsl_function F = {tramp_fn, &t};
-    c->cb = PW_OK;
-    if (gsl_root_fsolver_set(c->root, &F, fmin(a, b), fmax(a, b)) != GSL_SUCCESS)
-        return c->cb != PW_OK ? c->cb : PW_ENOBRACKET;
-    for (int it = 0; it < ROOT_ITER; it++) {
-        int gs = gsl_root_fsolver_iterate(c->root);
-        if (c->cb != PW_OK)
-            return c->cb;
-        if (gs != GSL_SUCCESS)
-            return PW_ENOCONV;
-        double lo = gsl_root_fsolver_x_lower(c->root), hi = gsl_root_fsolver_x_upper(c->root);
-        if (gsl_root_test_interval(lo, hi, 1e-15, 4.0 * DBL_EPSILON) == GSL_SUCCESS) {
-            *x = gsl_root_fsolver_root(c->root);
-            return PW_OK;
-        }
+    if (a > b) {
+        double t = a, tv = fa;
+        a = b;
+        fa = fb;
+        b = t;
+        fb = tv;
     }
-    return PW_EMAXITER;
+    adapt t = {c, f, p, 1.0};
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = 1e-15;
+    o.xtol_rel = 4.0 * DBL_EPSILON;
+    o.max_iter = ROOT_ITER;
+    return pw_root1d(adapt_fn, &t, a, b, fa, fb, &o, x, NULL);
 }
 
-/* Maximises sign*f on [a, b] from m (values known, fm above both ends). */
+/* Maximises sign*f on [a, b] from m (values known, fm at least both ends'). A triple that does
+ * not strictly enclose a maximum (a flat stretch) or an iteration limit keeps the best point
+ * found: the answer is then that point's value, never above the true maximum. */
 static pw_status refine_max(en *c, en_fn f, void *p, double sign, double a, double m, double b,
                             double fa, double fm, double fb, double *x, double *v)
 {
-    tramp t = {c, f, p, -sign};
-    gsl_function F = {tramp_fn, &t};
-    c->cb = PW_OK;
+    adapt t = {c, f, p, -sign};
     if (a > b) {
         double tx = a, tv = fa;
         a = b;
@@ -125,21 +124,17 @@ static pw_status refine_max(en *c, en_fn f, void *p, double sign, double a, doub
         b = tx;
         fb = tv;
     }
-    if (gsl_min_fminimizer_set_with_values(c->min, &F, m, -sign * fm, a, -sign * fa, b,
-                                           -sign * fb) != GSL_SUCCESS)
-        return PW_ENOCONV;
-    for (int it = 0; it < MIN_ITER; it++) {
-        int gs = gsl_min_fminimizer_iterate(c->min);
-        if (c->cb != PW_OK)
-            return c->cb;
-        if (gs != GSL_SUCCESS)
-            return PW_ENOCONV;
-        double lo = gsl_min_fminimizer_x_lower(c->min), hi = gsl_min_fminimizer_x_upper(c->min);
-        if (gsl_min_test_interval(lo, hi, 1e-12, 0.0) == GSL_SUCCESS)
-            break;
-    }
-    *x = gsl_min_fminimizer_x_minimum(c->min);
-    *v = -gsl_min_fminimizer_f_minimum(c->min) * sign; /* the value of f itself */
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = 1e-12;
+    o.xtol_rel = 0.0;
+    o.max_iter = MIN_ITER;
+    double xm = m, fmin = -sign * fm;
+    pw_status st =
+        pw_min1d(adapt_fn, &t, a, m, b, -sign * fa, -sign * fm, -sign * fb, &o, &xm, &fmin, NULL);
+    if (st != PW_OK && st != PW_ENOBRACKET && st != PW_EMAXITER)
+        return st;
+    *x = xm;
+    *v = -fmin * sign; /* the value of f itself */
     return PW_OK;
 }
 
@@ -154,12 +149,12 @@ static double extended_tie(en *c, double x, void *p)
     if (st != PW_OK) {
         if (c->cb == PW_OK)
             c->cb = st;
-        return GSL_NAN;
+        return NAN;
     }
     if (!(y > x)) {
         if (c->cb == PW_OK)
             c->cb = PW_EINFEASIBLE;
-        return GSL_NAN;
+        return NAN;
     }
     return hL + (HV - hL) * (xe - x) / (y - x);
 }
@@ -173,7 +168,7 @@ static double feed_tie(en *c, double x, void *p)
     if (st != PW_OK) {
         if (c->cb == PW_OK)
             c->cb = st;
-        return GSL_NAN;
+        return NAN;
     }
     return (c->h_F - hL) * (y - x) - (HV - hL) * (c->s.zf - x);
 }
@@ -329,7 +324,7 @@ static double line_fn(en *c, double y, void *p)
     if (st != PW_OK) {
         if (c->cb == PW_OK)
             c->cb = st;
-        return GSL_NAN;
+        return NAN;
     }
     const double H = pw_enthalpy_vapor(c->h, y, d.T_K);
     if (l->strip)
@@ -350,7 +345,7 @@ static double int_fn(en *c, double x, void *p)
     if (st != PW_OK) {
         if (c->cb == PW_OK)
             c->cb = st;
-        return GSL_NAN;
+        return NAN;
     }
     return hL - (k->hdB + (k->hdD - k->hdB) * (x - c->s.xb) / (c->s.xd - c->s.xb));
 }
@@ -442,10 +437,6 @@ static pw_status en_init(en *c, const pw_system *sys, const pw_heat_data *heat, 
     c->s = *spec;
     c->D = (spec->zf - spec->xb) / (spec->xd - spec->xb);
     c->B = 1.0 - c->D;
-    c->root = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    c->min = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
-    if (!c->root || !c->min)
-        return PW_ENOMEM;
     /* h_F = H_V - q (H_V - h_L) (pw_enthalpy_feed), from this context's own saturated states so
      * that q = 1 puts the feed point exactly on the liquid curve and q = 0 on the vapor curve. */
     double T, y, hLz, HVz, HVz_T, xz;
@@ -466,12 +457,6 @@ static pw_status en_init(en *c, const pw_system *sys, const pw_heat_data *heat, 
 static void en_free(en *c)
 {
     pw_eqp_free(&c->e);
-    if (c->root)
-        gsl_root_fsolver_free(c->root);
-    if (c->min)
-        gsl_min_fminimizer_free(c->min);
-    c->root = NULL;
-    c->min = NULL;
 }
 
 static bool spec_ok(const pw_column_spec *s)
@@ -702,7 +687,7 @@ static double liq_fn(en *c, double x, void *p)
     if (st != PW_OK) {
         if (c->cb == PW_OK)
             c->cb = st;
-        return GSL_NAN;
+        return NAN;
     }
     return (hL - l->hdB) * (l->y - c->s.xb) - (l->H - l->hdB) * (x - c->s.xb);
 }
@@ -711,7 +696,6 @@ typedef struct rate_en {
     en c;
     const pw_rate_spec *r;
     bool by_xb;
-    pw_status status;
     double Q_C, Q_R;
 } rate_en;
 
@@ -820,18 +804,15 @@ static pw_status rate_sections(rate_en *q, double xd, double xb, double *x_top, 
     return PW_OK;
 }
 
-static double rate_residual(double w, void *p)
+static pw_status rate_residual(void *p, double w, double *f)
 {
     rate_en *q = p;
     double xd, xb, a, b;
     rate_products(q, w, &xd, &xb);
     pw_status st = rate_sections(q, xd, xb, &a, &b, NULL);
-    if (st != PW_OK) {
-        if (q->status == PW_OK)
-            q->status = st;
-        return GSL_NAN;
-    }
-    return q->by_xb ? b - a : a - b;
+    if (st == PW_OK)
+        *f = q->by_xb ? b - a : a - b;
+    return st;
 }
 
 #define RATE_SCAN 48
@@ -872,51 +853,32 @@ pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double 
     double wv[RATE_SCAN], rv[RATE_SCAN];
     for (int i = 0; i < RATE_SCAN; i++) {
         wv[i] = lo + (hi - lo) * (double)i / (RATE_SCAN - 1);
-        q.status = PW_OK;
-        rv[i] = rate_residual(wv[i], &q);
-        if (q.status != PW_OK && q.status != PW_EINFEASIBLE && q.status != PW_ENOBRACKET) {
-            st = q.status;
+        rv[i] = NAN;
+        pw_status si = rate_residual(&q, wv[i], &rv[i]);
+        if (si != PW_OK)
+            rv[i] = NAN;
+        if (si != PW_OK && si != PW_EINFEASIBLE && si != PW_ENOBRACKET) {
+            st = si;
             break;
         }
     }
     double w_sol = NAN;
-    gsl_root_fsolver *outer =
-        gsl_root_fsolver_alloc(gsl_root_fsolver_brent); /* the inner
-                                                         * solves use c.root */
-    if (!outer && st == PW_OK)
-        st = PW_ENOMEM;
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = 1e-300; /* a product near 0 is resolved to full relative precision */
+    o.xtol_rel = 4.0 * DBL_EPSILON;
+    o.max_iter = ROOT_ITER;
     for (int i = 0; st == PW_OK && i + 1 < RATE_SCAN; i++) {
         if (!isfinite(rv[i]) || !isfinite(rv[i + 1]))
             continue;
         if (!((rv[i] <= 0.0 && rv[i + 1] > 0.0) || (rv[i] >= 0.0 && rv[i + 1] < 0.0)))
             continue;
-        double w;
-        gsl_function F = {rate_residual, &q};
-        q.status = PW_OK;
-        if (rv[i] == 0.0) {
-            w = wv[i];
-        } else {
-            if (gsl_root_fsolver_set(outer, &F, wv[i], wv[i + 1]) != GSL_SUCCESS)
-                continue;
-            w = NAN;
-            for (int it = 0; it < ROOT_ITER; it++) {
-                if (gsl_root_fsolver_iterate(outer) != GSL_SUCCESS || q.status != PW_OK)
-                    break;
-                double a = gsl_root_fsolver_x_lower(outer), b = gsl_root_fsolver_x_upper(outer);
-                if (gsl_root_test_interval(a, b, 1e-300, 4.0 * DBL_EPSILON) == GSL_SUCCESS) {
-                    w = gsl_root_fsolver_root(outer);
-                    break;
-                }
-            }
-            if (!isfinite(w))
-                continue;
-        }
+        double w = NAN;
+        if (pw_root1d(rate_residual, &q, wv[i], wv[i + 1], rv[i], rv[i + 1], &o, &w, NULL) != PW_OK)
+            continue;
         if (!isfinite(w_sol))
             w_sol = w;
         (*n_roots)++;
     }
-    if (outer)
-        gsl_root_fsolver_free(outer);
     if (st == PW_OK && !isfinite(w_sol))
         st = PW_ENOBRACKET;
     if (st == PW_OK) {

@@ -9,8 +9,9 @@
  * docs/column.md ("Rating a given column"). */
 #include "analysis/design_internal.h"
 
+#include "base/solve1d.h"
+
 #include <float.h>
-#include <gsl/gsl_errno.h>
 #include <math.h>
 #include <string.h>
 
@@ -22,7 +23,6 @@ typedef struct rate_ctx {
     const pw_rate_spec *s;
     double D, B, L, V, Lb, Vb;
     bool by_xb; /* the unknown is xb (when xb can reach 0), else xd */
-    pw_status status;
 } rate_ctx;
 
 /* Both products from the unknown w. The unknown is the product that can become very pure
@@ -85,18 +85,15 @@ static pw_status sections(rate_ctx *c, double xd, double xb, double *x_top, doub
     return PW_OK;
 }
 
-static double residual_fn(double w, void *p)
+static pw_status residual_fn(void *p, double w, double *f)
 {
     rate_ctx *c = p;
     double a, b, xd, xb;
     products(c, w, &xd, &xb);
     pw_status st = sections(c, xd, xb, &a, &b, NULL);
-    if (st != PW_OK) {
-        if (c->status == PW_OK)
-            c->status = st;
-        return GSL_NAN;
-    }
-    return c->by_xb ? b - a : a - b; /* increasing in the unknown */
+    if (st == PW_OK)
+        *f = c->by_xb ? b - a : a - b; /* increasing in the unknown */
+    return st;
 }
 
 pw_status pw_rate_check_spec(const pw_rate_spec *s, pw_error *err)
@@ -165,43 +162,23 @@ pw_status pw_rate_cmo(const pw_system *sys, double P_Pa, const pw_rate_spec *spe
         lo = fmax(0.0, (spec->zf - c.B) / c.D);
         hi = 1.0;
     }
-    gsl_root_fsolver *rs = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    if (!rs) {
-        pw_eqp_free(&e);
-        return pw_error_set(err, PW_ENOMEM, NULL, 0, "out of memory");
-    }
-    double flo = residual_fn(lo, &c), fhi = residual_fn(hi, &c), w = NAN;
-    if (c.status != PW_OK) {
-        st = c.status;
-    } else if (flo == 0.0 || fhi == 0.0) {
+    double flo, fhi, w = NAN;
+    st = residual_fn(&c, lo, &flo);
+    if (st == PW_OK)
+        st = residual_fn(&c, hi, &fhi);
+    if (st == PW_OK && (flo == 0.0 || fhi == 0.0)) {
         w = flo == 0.0 ? lo : hi;
-    } else if (flo > 0.0 || fhi < 0.0) {
+    } else if (st == PW_OK && (flo > 0.0 || fhi < 0.0)) {
         st = PW_ENOBRACKET; /* only for an unstable liquid, whose y*(x) is not increasing */
-    } else {
-        gsl_function F = {residual_fn, &c};
-        st = gsl_root_fsolver_set(rs, &F, lo, hi) == GSL_SUCCESS ? PW_OK : PW_ENOBRACKET;
-        int it = 0;
-        for (; st == PW_OK && it < RATE_MAX_ITER; it++) {
-            int gs = gsl_root_fsolver_iterate(rs);
-            if (c.status != PW_OK) {
-                st = c.status;
-                break;
-            }
-            if (gs != GSL_SUCCESS) {
-                st = PW_ENOCONV;
-                break;
-            }
-            double a = gsl_root_fsolver_x_lower(rs), b = gsl_root_fsolver_x_upper(rs);
-            if (gsl_root_test_interval(a, b, 1e-300, 4.0 * DBL_EPSILON) == GSL_SUCCESS) {
-                w = gsl_root_fsolver_root(rs);
-                break;
-            }
-        }
-        out->iterations = it + 1;
-        if (st == PW_OK && !isfinite(w))
-            st = PW_EMAXITER;
+    } else if (st == PW_OK) {
+        pw_solve1d_opts o = pw_solve1d_default_opts();
+        o.xtol_abs = 1e-300; /* a product near 0 is resolved to full relative precision */
+        o.xtol_rel = 4.0 * DBL_EPSILON;
+        o.max_iter = RATE_MAX_ITER;
+        unsigned it = 0;
+        st = pw_root1d(residual_fn, &c, lo, hi, flo, fhi, &o, &w, &it);
+        out->iterations = (int)it;
     }
-    gsl_root_fsolver_free(rs);
     if (st == PW_OK) {
         double a, b, xd, xb;
         products(&c, w, &xd, &xb);

@@ -1,10 +1,11 @@
 /* Equilibrium at fixed pressure for the design-grade column: y*(x) by bubble points and its
- * inverse x*(y) (dew point, polished by a bracketed Brent solve on the bubble curve), and the
- * growable stage profiles. */
+ * inverse x*(y) (dew point, polished by a bracketed Brent solve on the bubble curve through the
+ * library's 1-D driver), and the growable stage profiles. */
 #include "analysis/design_internal.h"
 
+#include "base/solve1d.h"
+
 #include <float.h>
-#include <gsl/gsl_errno.h>
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
@@ -57,15 +58,12 @@ pw_status pw_eqp_init(pw_eqp *e, const pw_system *sys, double P_Pa)
     e->sys = sys;
     e->P_Pa = P_Pa;
     e->T_last = NAN;
-    e->root = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    return e->root ? PW_OK : PW_ENOMEM;
+    return PW_OK;
 }
 
 void pw_eqp_free(pw_eqp *e)
 {
-    if (e->root)
-        gsl_root_fsolver_free(e->root);
-    e->root = NULL;
+    (void)e; /* nothing allocated; kept for symmetry */
 }
 
 pw_status pw_eqp_bubble(pw_eqp *e, double x, double *y, double *T_K)
@@ -95,38 +93,24 @@ typedef struct inv_ctx {
     double target;
 } inv_ctx;
 
-static double inv_fn(double x, void *params)
+static pw_status inv_f(void *params, double x, double *f)
 {
     inv_ctx *c = params;
     double y;
     pw_status st = pw_eqp_bubble(c->e, x, &y, NULL);
-    if (st != PW_OK) {
-        if (c->e->cb_status == PW_OK)
-            c->e->cb_status = st;
-        return GSL_NAN;
-    }
-    return y - c->target;
+    if (st == PW_OK)
+        *f = y - c->target;
+    return st;
 }
 
-static pw_status brent(pw_eqp *e, inv_ctx *c, double a, double b, double *x)
+/* Root of y*(x) - y on [a, b] by the library's bracketed Brent driver (src/base/solve1d.h). */
+static pw_status brent(inv_ctx *c, double a, double b, double *x)
 {
-    gsl_function F = {inv_fn, c};
-    e->cb_status = PW_OK;
-    if (gsl_root_fsolver_set(e->root, &F, a, b) != GSL_SUCCESS)
-        return e->cb_status != PW_OK ? e->cb_status : PW_ENOBRACKET;
-    for (int it = 0; it < ROOT_MAX_ITER; it++) {
-        int gs = gsl_root_fsolver_iterate(e->root);
-        if (e->cb_status != PW_OK)
-            return e->cb_status;
-        if (gs != GSL_SUCCESS)
-            return PW_ENOCONV;
-        double lo = gsl_root_fsolver_x_lower(e->root), hi = gsl_root_fsolver_x_upper(e->root);
-        if (gsl_root_test_interval(lo, hi, 4.0 * DBL_EPSILON, 4.0 * DBL_EPSILON) == GSL_SUCCESS) {
-            *x = gsl_root_fsolver_root(e->root);
-            return PW_OK;
-        }
-    }
-    return PW_EMAXITER;
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = 4.0 * DBL_EPSILON;
+    o.xtol_rel = 4.0 * DBL_EPSILON;
+    o.max_iter = ROOT_MAX_ITER;
+    return pw_root1d(inv_f, c, a, b, NAN, NAN, &o, x, NULL);
 }
 
 pw_status pw_eqp_x_of_y(pw_eqp *e, double y, double *x, double *T_K)
@@ -160,9 +144,12 @@ pw_status pw_eqp_x_of_y(pw_eqp *e, double y, double *x, double *T_K)
          * y*(1) = 1). */
         for (double h = 1e-9; h < 0.5; h *= 16.0) {
             double o = f0 < 0.0 ? fmin(1.0, x0 + h) : fmax(0.0, x0 - h);
-            double fo = o == 1.0 ? 1.0 - y : o == 0.0 ? -y : inv_fn(o, &c);
-            if (e->cb_status != PW_OK)
-                return e->cb_status;
+            double fo = o == 1.0 ? 1.0 - y : -y;
+            if (o > 0.0 && o < 1.0) {
+                pw_status st = inv_f(&c, o, &fo);
+                if (st != PW_OK)
+                    return st;
+            }
             if ((fo > 0.0) != (f0 > 0.0) || fo == 0.0) {
                 a = fmin(x0, o);
                 b = fmax(x0, o);
@@ -172,9 +159,9 @@ pw_status pw_eqp_x_of_y(pw_eqp *e, double y, double *x, double *T_K)
             f0 = fo;
         }
     }
-    pw_status st = brent(e, &c, a, b, x);
+    pw_status st = brent(&c, a, b, x);
     if (st == PW_ENOBRACKET && (a > 0.0 || b < 1.0))
-        st = brent(e, &c, 0.0, 1.0, x); /* the local bracket was lost to round-off */
+        st = brent(&c, 0.0, 1.0, x); /* the local bracket was lost to round-off */
     if (st != PW_OK)
         return st;
     double yy;

@@ -4,15 +4,12 @@
 #ifndef PW_ANALYSIS_DESIGN_INTERNAL_H
 #define PW_ANALYSIS_DESIGN_INTERNAL_H
 
-#include <gsl/gsl_roots.h>
 #include <pinchwise/design.h>
 
 typedef struct pw_eqp {
     const pw_system *sys;
     double P_Pa;
-    double T_last;          /* the latest bubble temperature: Newton's next start */
-    gsl_root_fsolver *root; /* Brent, for x*(y) when the dew-point solve needs polishing */
-    pw_status cb_status;
+    double T_last; /* the latest bubble temperature: Newton's next start */
     unsigned long n_bubble;
 } pw_eqp;
 
