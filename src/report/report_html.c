@@ -890,6 +890,9 @@ static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
                            k->pinch.x);
             if (k->reflux_limited)
                 pw_sbuf_puts(b, " (no reflux is needed)");
+            if (c->energy && c->energy_status == PW_OK && c->energy_res.feasible)
+                pw_sbuf_printf(b, "; with energy balances R<sub>min</sub> = %.4g",
+                               c->energy_res.r_min);
             pw_sbuf_puts(b, " <a href=\"#column\">details</a>");
             answer_end(b);
             answer(b, "Stages");

@@ -31,6 +31,8 @@ d = json.load(open("e.json"))
 assert ("%.5g" % d["r_min"]) in m.group(1), ("%.5g" % d["r_min"])
 for r in d["design"]:
     assert ("%.4g" % r["condenser_kJ_per_mol_feed"]) in m.group(1)
+a = re.search(r'<section id="answers">.*?</section>', h, re.S)
+assert a and ("with energy balances R<sub>min</sub> = %.4g" % d["r_min"]) in a.group(0), "answers block"
 PY
 cat > noheat.csv <<'CSV'
 name,A,B,C,log,P_unit,T_unit,T_min,T_max,source,equation
