@@ -319,6 +319,52 @@ static void test_balances_close(void **state)
     }
 }
 
+/* With heat capacities, unequal heats and H^E, on seeded random specifications: the R_min of the
+ * tie-line search against the stepping itself, a separate code path (difference-point lines, no
+ * tie-line extension): at 1.001 R_min the staircase reaches xb, at 0.999 R_min it cannot (a pinch
+ * stops it, or it creeps past any stage limit). Geometry, not a recalled value. */
+static void test_rmin_against_stepping(void **state)
+{
+    (void)state;
+    srand(31337u);
+    pw_system systems[3] = {nrtl_system(), wilson_athermal(), wilson_athermal()};
+    systems[1].params[0] = 250.0; /* Wilson with H^E: a12 = 250 K, a21 = 400 K (invented) */
+    systems[1].params[1] = 400.0;
+    int checked = 0, tangent = 0;
+    for (int t = 0; t < 18; t++) {
+        const pw_system *sys = &systems[t % 3]; /* the third: tangent pinches */
+        pw_heat_data h =
+            heats(sys, 30000.0 + 12000.0 * rand() / (double)RAND_MAX,
+                  30000.0 + 12000.0 * rand() / (double)RAND_MAX, 110.0, 76.0, 60.0, 34.0);
+        pw_column_spec s;
+        s.xb = 0.02 + 0.1 * rand() / (double)RAND_MAX;
+        s.xd = 0.8 + 0.19 * rand() / (double)RAND_MAX;
+        s.zf = s.xb + (s.xd - s.xb) * (0.2 + 0.6 * rand() / (double)RAND_MAX);
+        s.q = 0.2 + 1.0 * rand() / (double)RAND_MAX;
+        pw_energy_result r;
+        pw_column_options o = pw_column_default_options();
+        o.n_factors = 0;
+        assert_int_equal(pw_energy_column_solve(sys, &h, P_PA, &s, &o, &r, NULL), PW_OK);
+        if (!r.feasible || r.reflux_limited || r.boilup_limited)
+            continue;
+        pw_profile p;
+        assert_int_equal(
+            pw_energy_profile(sys, &h, P_PA, &s, 1.001 * r.r_min, 5000, &p, NULL, NULL), PW_OK);
+        pw_profile_free(&p);
+        pw_status below =
+            pw_energy_profile(sys, &h, P_PA, &s, 0.999 * r.r_min, 3000, &p, NULL, NULL);
+        pw_profile_free(&p);
+        if (below != PW_EINFEASIBLE && below != PW_EMAXITER)
+            fail_msg("case %d: stepping at 0.999 R_min = %g reached xb (status %d)", t,
+                     0.999 * r.r_min, below);
+        checked++;
+        tangent += r.pinch.kind == PW_PINCH_TANGENT;
+    }
+    print_message("energy R_min against stepping: %d specifications, %d tangent pinches\n", checked,
+                  tangent);
+    assert_true(checked >= 12 && tangent >= 2);
+}
+
 /* Gibbs-Helmholtz: H^E = -R T^2 d(G^E/RT)/dT, against central differences (invented parameters
  * for each model). */
 static void test_hE_gibbs_helmholtz(void **state)
@@ -420,6 +466,7 @@ int main(void)
         cmocka_unit_test(test_unequal_heats_pseudo_moles),
         cmocka_unit_test(test_unequal_heats_random),
         cmocka_unit_test(test_balances_close),
+        cmocka_unit_test(test_rmin_against_stepping),
         cmocka_unit_test(test_hE_gibbs_helmholtz),
         cmocka_unit_test(test_pure_vapor_enthalpy),
         cmocka_unit_test(test_infeasible),
