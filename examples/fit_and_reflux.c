@@ -18,6 +18,7 @@
 #include <pinchwise/component.h>
 #include <pinchwise/curve.h>
 #include <pinchwise/dataset.h>
+#include <pinchwise/design_doc.h>
 #include <pinchwise/fit.h>
 #include <pinchwise/units.h>
 #include <stdio.h>
@@ -77,10 +78,14 @@ int main(int argc, char **argv)
                    pw_az_kind_name(az.az[i].kind));
 
     pw_column_spec spec = {.xd = atof(argv[3]), .xb = atof(argv[4]), .zf = atof(argv[5]), .q = 1.0};
-    pw_column_options opt = pw_column_default_options();
+    pw_column_options opt = pw_column_default_options(), opt_col = opt;
+    opt_col.n_factors = 0; /* the design rows, with stage profiles, come from pw_reflux_design */
     pw_column_result col;
     double T_top, T_bottom;
-    st = pw_reflux_solve(&fit.sys, P_Pa, &spec, &opt, argv[1], &col, &T_top, &T_bottom, &err);
+    pw_design_table design;
+    st = pw_reflux_solve(&fit.sys, P_Pa, &spec, &opt_col, argv[1], &col, &T_top, &T_bottom, &err);
+    if (st == PW_OK)
+        st = pw_reflux_design(&fit.sys, P_Pa, &spec, &opt, &col, NULL, &design, NULL);
     if (st != PW_OK) {
         pw_fit_result_free(&fit);
         return fail(&err);
@@ -91,7 +96,8 @@ int main(int argc, char **argv)
     else
         printf("not feasible: %s\n", col.reason);
 
-    json_t *doc = pw_reflux_doc(&col, P_Pa, &spec, T_top, T_bottom);
+    json_t *doc = pw_reflux_design_doc(&col, &design, NULL, P_Pa, &spec, T_top, T_bottom);
+    pw_design_table_free(&design);
     char *text = pw_json_text(doc);
     json_decref(doc);
     if (text)

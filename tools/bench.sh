@@ -4,7 +4,8 @@
 #       random parameters and noise): pinchwise in-process (default multistart and one start)
 #       against the same fit in Python with SciPy (tests/bench/scipy_nrtl.py), per-dataset ratio;
 #   (b) time per reflux analysis (pw_column_solve, tangent-pinch search) on the demo NRTL fit;
-#   (c) fit time and peak resident memory for 10, 100, 1000 and 10000 points.
+#   (c) fit time and peak resident memory for 10, 100, 1000 and 10000 points;
+#   (d) the design-grade column: energy-balance R_min with design rows, rating (pw-bench-design).
 # Usage: tools/bench.sh [N_DATASETS]   (default 200). Needs /usr/bin/python3 with python3-scipy.
 set -euo pipefail
 cd "$(dirname "$0")/.."
@@ -12,7 +13,7 @@ root=$PWD
 n=${1:-200}
 bld=$root/build-bench
 cmake -S . -B "$bld" -DCMAKE_BUILD_TYPE=Release -DPINCHWISE_BENCH=ON > /dev/null
-cmake --build "$bld" -j2 --target pw-bench pw-gen-dataset pinchwise > /dev/null
+cmake --build "$bld" -j2 --target pw-bench pw-bench-design pw-gen-dataset pinchwise > /dev/null
 bench=$bld/tests/bench/pw-bench; gen=$bld/tests/pw-gen-dataset
 comps=$root/datasets/components.csv
 work=$(mktemp -d); trap 'rm -rf "$work"' EXIT
@@ -69,3 +70,7 @@ for np in 10 100 1000 10000; do
     --pressure 101.325kPa --points "$np" --seed 7 > "$work/scale_$np.csv"
   "$bench" scale "$work/scale_$np.csv" | awk -F'\t' '{ printf "    %6d  %-10.4g %.1f\n", $1, $2, $3 / 1024 }'
 done
+
+# (d) ---------------------------------------------------------------------------------------
+echo "(d) design-grade column on methanol/water (METHODS2 5.6 model), median of 10 calls:"
+"$bld/tests/bench/pw-bench-design" 10 | sed 's/^/    /'

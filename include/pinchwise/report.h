@@ -43,6 +43,9 @@ typedef struct pw_report_input {
                                       the page ranks all by AICc beside their azeotrope and,
                                       with a column, their R_min */
     size_t n_others;
+    bool energy;                   /* with a column: add the energy-balance column (R_min, pinch,
+                                      design rows with condenser and reboiler duties) from the
+                                      fit's heat data; missing data are named in the page */
 } pw_report_input;
 
 /* Plain defaults: everything NULL/0, unc = pw_unc_default_options(). */

@@ -165,6 +165,8 @@ typedef struct pw_unc_column_ctx {
     pw_column_spec spec;
     pw_column_options opt;       /* grid, tolerances; the design factor is set from factor */
     double factor;               /* operating reflux R = factor * R_min (default 1.3) */
+    const struct pw_heat_data *heat; /* NULL (default): constant molal overflow; else energy
+                                        balances with these heat data (enthalpy.h), boil-up NAN */
 } pw_unc_column_ctx;
 
 /* Defaults: column defaults, factor 1.3 (common practice, R/R_min 1.2-1.5). */

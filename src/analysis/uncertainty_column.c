@@ -1,6 +1,7 @@
 /* Column results as a propagation function (R_min, boil-up at R_min, stages at the operating
  * reflux), and the feasibility risk in words. */
 #include <pinchwise/curve.h>
+#include <pinchwise/design.h>
 #include <pinchwise/uncertainty.h>
 
 #include <math.h>
@@ -19,19 +20,40 @@ pw_unc_column_ctx pw_unc_column_ctx_make(double P_Pa, const pw_column_spec *spec
     return c;
 }
 
+/* The same outputs with energy balances (column_energy.c); the boil-up at R_min is not defined
+ * there without stepping, so it is NAN. */
+static pw_status energy_fn(const pw_unc_column_ctx *c, const pw_system *sys,
+                           const pw_column_options *o, double *out)
+{
+    pw_energy_result r;
+    pw_design_table t;
+    pw_status st = pw_energy_column_solve(sys, c->heat, c->P_Pa, &c->spec, o, &r, &t);
+    if (st == PW_OK && !r.feasible)
+        st = PW_EINFEASIBLE;
+    if (st == PW_OK) {
+        out[PW_UNC_RMIN] = r.r_min;
+        out[PW_UNC_SMIN] = NAN;
+        out[PW_UNC_STAGES] = t.n > 0 && t.row[0].reachable ? t.row[0].stages : (double)NAN;
+    }
+    pw_design_table_free(&t);
+    return st;
+}
+
 pw_status pw_unc_column_fn(void *ctx, const pw_system *sys, double *out)
 {
     const pw_unc_column_ctx *c = ctx;
     if (!c || !sys || !out || !(c->factor > 1.0))
         return PW_EINVAL;
+    pw_column_options o = c->opt;
+    o.factors[0] = c->factor;
+    o.n_factors = 1;
+    if (c->heat)
+        return energy_fn(c, sys, &o, out);
     pw_system_curve sc;
     pw_status st = pw_system_curve_init(&sc, sys, c->P_Pa);
     if (st != PW_OK)
         return st;
     pw_curve curve = pw_system_curve_bind(&sc);
-    pw_column_options o = c->opt;
-    o.factors[0] = c->factor;
-    o.n_factors = 1;
     pw_column_result r;
     st = pw_column_solve(&curve, &c->spec, &o, &r);
     /* An infeasible split is an outcome; so is a split no pinch limits (PW_ERANGE with a

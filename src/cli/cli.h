@@ -28,6 +28,7 @@ int pw_cli_screen(int argc, char **argv);
 int pw_cli_report(int argc, char **argv);
 int pw_cli_lle(int argc, char **argv);
 int pw_cli_decanter(int argc, char **argv);
+int pw_cli_rate(int argc, char **argv);
 
 /* Prints "pinchwise CMD: file:line: message" as one line on stderr and returns the exit code
  * for err->status. */

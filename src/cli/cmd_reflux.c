@@ -3,8 +3,10 @@
 #include "cli.h"
 #include "reflux_common.h"
 #include "reflux_uncert.h"
+#include "design_out.h"
 
 #include <math.h>
+#include <pinchwise/design_doc.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -19,6 +21,9 @@ static void usage(FILE *f)
             "  --q Q               feed liquid fraction (1 saturated liquid, 0 saturated vapor,\n"
             "                      > 1 subcooled, < 0 superheated; default 1)\n"
             "  --factors F,F,...   design reflux as multiples of R_min (default 1.2,1.3,1.5)\n"
+            "  --energy            energy balance on every stage (heats of vaporization and heat\n"
+            "                      capacities from the component data) instead of constant\n"
+            "                      molal overflow; adds condenser and reboiler duties\n"
             "  --uncertainty       intervals of R_min, boil-up and stages from the fit's parameter\n"
             "                      covariance, feasibility risk, where to measure next\n"
             "  --samples N         parameter sets drawn for --uncertainty (default 400)\n"
@@ -34,14 +39,22 @@ static const char *section(pw_section s)
     return s == PW_SECTION_RECTIFYING ? "rectifying" : "stripping";
 }
 
+/* With --energy the headline numbers are the energy balance's (pw_energy_headline). */
+static pw_column_result headline(const pw_reflux_run *run)
+{
+    return pw_energy_headline(&run->col, run->energy ? &run->energy_res : NULL);
+}
+
 json_t *pw_reflux_json(const pw_reflux_run *run)
 {
-    return pw_reflux_doc(&run->col, run->P_Pa, &run->spec, run->T_top_K, run->T_bottom_K);
+    return pw_reflux_design_doc(&run->col, &run->design, run->energy ? &run->energy_res : NULL,
+                                run->P_Pa, &run->spec, run->T_top_K, run->T_bottom_K);
 }
 
 static void print_table(const pw_reflux_run *run)
 {
-    const pw_column_result *c = &run->col;
+    const pw_column_result view = headline(run);
+    const pw_column_result *c = &view;
     printf("column at %.4g kPa: xd %.4g, xb %.4g, zf %.4g, q %.4g (%s / %s)\n", run->P_Pa / 1e3,
            run->spec.xd, run->spec.xb, run->spec.zf, run->spec.q, run->fit.sys.comp[0].name,
            run->fit.sys.comp[1].name);
@@ -49,7 +62,11 @@ static void print_table(const pw_reflux_run *run)
         printf("  NOT FEASIBLE by simple distillation: %s\n", c->reason);
         return;
     }
-    printf("  minimum reflux R_min      %.6g  (minimum boil-up Vbar/B %.6g)\n", c->r_min, c->s_min);
+    if (isfinite(c->s_min))
+        printf("  minimum reflux R_min      %.6g  (minimum boil-up Vbar/B %.6g)\n", c->r_min,
+               c->s_min);
+    else
+        printf("  minimum reflux R_min      %.6g\n", c->r_min);
     if (c->reflux_limited)
         printf("  no reflux needed          at R = 0 the operating lines clear the curve: a\n"
                "                            stripping column with the feed on top makes this\n"
@@ -61,7 +78,7 @@ static void print_table(const pw_reflux_run *run)
     else
         printf("  limiting pinch            %s pinch in the %s section at x = %.5f, y = %.5f\n",
                pinch_kind(c->pinch.kind), section(c->pinch.section), c->pinch.x, c->pinch.y);
-    if (c->pinch.kind == PW_PINCH_TANGENT && !c->boilup_limited)
+    if (c->pinch.kind == PW_PINCH_TANGENT && !c->boilup_limited && isfinite(c->r_feed))
         printf("  (a search at the q-line alone would give R = %.6g: %.0f %% too low)\n", c->r_feed,
                100.0 * (c->r_min - c->r_feed) / c->r_min);
     if (c->n_min_status != PW_OK)
@@ -71,21 +88,10 @@ static void print_table(const pw_reflux_run *run)
         printf("  stages at total reflux    %.3f stepped (Fenske %.3f, alpha top %.3f, bottom "
                "%.3f)\n",
                c->n_min, c->n_fenske, c->alpha_top, c->alpha_bottom);
-    printf("\n  %-8s %9s %9s %9s %6s %12s\n", "R/R_min", "R", "Vbar/B", "stages", "feed",
-           "Gilliland*");
-    for (size_t i = 0; i < c->n_design; i++) {
-        const pw_design_row *r = &c->design[i];
-        if (r->status != PW_OK) {
-            printf("  %-8.3g %9.4f %9.4f   stages not reached: %s\n", r->factor, r->R, r->boilup,
-                   pw_strerror(r->status));
-            continue;
-        }
-        printf("  %-8.3g %9.4f %9.4f %9.3f %6d %12.2f\n", r->factor, r->R, r->boilup, r->stages,
-               r->feed_stage, r->gilliland_stages);
-    }
-    printf("  stages include the partial reboiler; feed stage counted from the top.\n"
-           "  * Molokanov et al. (1972) form of the Gilliland correlation, for comparison only.\n"
-           "  Design reflux of 1.2-1.5 R_min is common practice.\n");
+    if (run->energy)
+        printf("  energy balances           R_min %.6g (constant molal overflow %.6g)\n",
+               c->r_min, run->col.r_min);
+    pw_cli_design_print(&run->design);
     printf("\n  Screening estimate only: verify with rigorous simulation and pilot data; size\n"
            "  equipment and relief per local codes under licensed engineering review.\n");
 }
@@ -102,6 +108,10 @@ int pw_cli_reflux(int argc, char **argv)
     }
     if (rc != 0)
         return pw_cli_fail("reflux", &err);
+    for (int i = 0; a.energy && i < a.n_extra; i += 2)
+        if (!strcmp(a.extra[i], "--compare"))
+            return pw_cli_failf("reflux", PW_EXIT_USAGE,
+                                "--energy does not combine with --compare yet");
     pw_reflux_run run;
     rc = pw_reflux_compute(&a, &run, &err);
     if (rc != 0)
@@ -109,7 +119,7 @@ int pw_cli_reflux(int argc, char **argv)
     pw_reflux_uncert unc;
     bool with_unc = a.uncertainty || a.n_extra;
     if (with_unc && (rc = pw_reflux_uncert_run(&a, &run, &unc, &err)) != 0) {
-        pw_fit_result_free(&run.fit);
+        pw_reflux_run_free(&run);
         return pw_cli_fail("reflux", &err);
     }
     pw_reflux_warn(&run);
@@ -123,6 +133,6 @@ int pw_cli_reflux(int argc, char **argv)
         if (with_unc)
             pw_reflux_uncert_print(&unc, &run);
     }
-    pw_fit_result_free(&run.fit);
+    pw_reflux_run_free(&run);
     return rc;
 }

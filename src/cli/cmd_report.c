@@ -4,6 +4,7 @@
 #include "cli.h"
 
 #include <math.h>
+#include <pinchwise/enthalpy.h>
 #include <pinchwise/report.h>
 #include <stdio.h>
 #include <string.h>
@@ -21,6 +22,8 @@ static void usage(FILE *f)
             "                          add the column section: x-y construction at pressure P\n"
             "                          (with its unit, e.g. 1atm), mole fractions of component 1\n"
             "  --operating-factor F    R / R_min of the drawn operating line (default 1.3)\n"
+            "  --energy                with the column: also the energy-balance column (needs heat\n"
+            "                          data in the component rows)\n"
             "  --uncertainty           add the fit's parameter uncertainty: azeotrope intervals,\n"
             "                          and with the column a \"how sure\" table and a band of\n"
             "                          sampled equilibrium curves near the pinch\n"
@@ -37,7 +40,7 @@ static void usage(FILE *f)
 
 typedef struct report_args {
     const char *fit, *out, *svg, *csv, *components;
-    bool json, force;
+    bool json, force, energy;
     bool have_P, have_xd, have_xb, have_zf;
     double P_Pa, factor;
     pw_column_spec spec;
@@ -109,6 +112,8 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
             a->json = true;
         } else if (pw_cli_opt(argc, argv, &i, "--force", NULL, NULL)) {
             a->force = true;
+        } else if (pw_cli_opt(argc, argv, &i, "--energy", NULL, NULL)) {
+            a->energy = true;
         } else if ((urc = pw_azeo_uncert_opt(argc, argv, &i, &a->unc, err)) != 0) {
             if (urc > 1)
                 return urc;
@@ -183,6 +188,10 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
                      a->spec.zf, a->spec.xd);
         return PW_EXIT_USAGE;
     }
+    if (a->energy && n_col == 0) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "--energy needs the column options");
+        return PW_EXIT_USAGE;
+    }
     if (a->factor != 0.0 && n_col == 0) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--operating-factor needs the column options");
         return PW_EXIT_USAGE;
@@ -231,6 +240,13 @@ int pw_cli_report(int argc, char **argv)
     if (!fit.converged)
         pw_cli_warnf("report", "%s: the fit did not converge; the report says so on every page", a.fit);
 
+    if (a.energy) {
+        pw_heat_data heat;
+        pw_error herr;
+        if (pw_heat_data_from_system(&fit.sys, &heat, &herr) != PW_OK)
+            pw_cli_warnf("report", "--energy: %s; the page says so instead of the energy-balance "
+                         "column", herr.msg);
+    }
     pw_report_input in = pw_report_default_input();
     in.fit = &fit;
     in.fit_path = a.fit;
@@ -238,6 +254,7 @@ int pw_cli_report(int argc, char **argv)
         in.column = &a.spec;
         in.column_P_Pa = a.P_Pa;
         in.operating_factor = a.factor;
+        in.energy = a.energy;
     }
     pw_cli_progress_ctx pc = {"report", "parameter sets sampled"};
     if (a.unc.on) {

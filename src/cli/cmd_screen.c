@@ -4,6 +4,7 @@
 #include "reflux_uncert.h"
 
 #include <math.h>
+#include <pinchwise/design_doc.h>
 #include <pinchwise/screen.h>
 #include <stdio.h>
 #include <string.h>
@@ -15,6 +16,8 @@ static void usage(FILE *f)
     fprintf(f,
             "usage: pinchwise screen FIT.json --pressure P --xd X --xb X [--zf X] [--json]\n"
             "  --uncertainty       propagate the fit's uncertainty (--samples N, --seed N)\n"
+            "  --energy            R_min of the rough column also with energy balances (needs\n"
+            "                      heat data in the component rows)\n"
             "  --components FILE   vapor-pressure rows replacing the fit file's\n"
             "\n"
             "Verdict (feasible / difficult / infeasible by simple distillation) with its reasons:\n"
@@ -33,6 +36,7 @@ typedef struct args {
     double P_Pa, xd, xb, zf;
     bool have_P, have_xd, have_xb, json;
     bool uncertainty;
+    bool energy; /* --energy: R_min of the rough column also with energy balances */
     const char *components;
     const char *extra[4]; /* --samples N, --seed N for the uncertainty extension */
     int n_extra;
@@ -77,6 +81,10 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
         }
         if (!strcmp(opt, "--uncertainty")) {
             a->uncertainty = true;
+            continue;
+        }
+        if (!strcmp(opt, "--energy")) {
+            a->energy = true;
             continue;
         }
         if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") || !strcmp(opt, "--components")) {
@@ -222,13 +230,41 @@ int pw_cli_screen(int argc, char **argv)
             return pw_cli_fail(CMD, &err);
         }
     }
+    /* --energy: the rough column (q = 1) with energy balances, from the library. */
+    pw_energy_result en;
+    memset(&en, 0, sizeof en);
+    bool with_energy = a.energy && r.column_ran && r.column.feasible;
+    if (a.energy && !with_energy)
+        pw_cli_warnf(CMD, "--energy: no feasible column was solved for this split");
+    if (with_energy) {
+        pw_heat_data heat;
+        pw_column_spec spec = {.xd = r.xd, .xb = r.xb, .zf = r.zf, .q = 1.0};
+        st = pw_heat_data_from_system(&fit.sys, &heat, &err);
+        if (st == PW_OK)
+            st = pw_energy_column_solve(&fit.sys, &heat, a.P_Pa, &spec, &a.opt.column, &en, NULL);
+        if (st != PW_OK) {
+            char msg[PW_ERROR_MSG_MAX];
+            snprintf(msg, sizeof msg, "%s", err.msg[0] ? err.msg : pw_strerror(st));
+            pw_error_set(&err, st, a.fit_path, 0, "--energy: %s", msg);
+            pw_fit_result_free(&fit);
+            return pw_cli_fail(CMD, &err);
+        }
+    }
     if (a.json) {
         json_t *j = pw_screen_doc(&fit.sys, &r, &a.opt);
+        if (with_energy)
+            json_object_set_new(j, "energy", pw_screen_energy_doc(&en, r.column.r_min));
         if (unc)
             pw_reflux_uncert_json(&u, j);
         rc = pw_cli_print_json(j);
     } else {
         print_text(&fit, &r);
+        if (with_energy && en.feasible)
+            printf("  with energy balances: R_min %.4g (constant molal overflow %.4g), %s pinch\n",
+                   en.r_min, r.column.r_min,
+                   en.pinch.kind == PW_PINCH_TANGENT ? "tangent" : "feed");
+        else if (with_energy)
+            printf("  with energy balances: %s\n", en.reason);
         if (unc)
             pw_reflux_uncert_print(&u, &run);
         rc = fflush(stdout) ? 4 : 0;

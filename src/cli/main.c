@@ -16,6 +16,7 @@ static const pw_cli_command commands[] = {
     {"report", "self-contained HTML report of a fit (and a column)", pw_cli_report},
     {"lle", "liquid-liquid split (two layers) of a fitted model at a temperature", pw_cli_lle},
     {"decanter", "decanter and two stripping columns for a partly miscible binary", pw_cli_decanter},
+    {"rate", "products and stage profile of a given column", pw_cli_rate},
 };
 
 static void usage(FILE *f)

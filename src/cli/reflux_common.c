@@ -5,6 +5,7 @@
 #include <math.h>
 #include <pinchwise/curve.h>
 #include <pinchwise/decanter.h>
+#include <pinchwise/design_doc.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -46,6 +47,10 @@ int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err
             return -1;
         if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
             a->json = true;
+            continue;
+        }
+        if (pw_cli_opt(argc, argv, &i, "--energy", NULL, NULL)) {
+            a->energy = true;
             continue;
         }
         if (pw_cli_opt(argc, argv, &i, "--uncertainty", NULL, NULL)) {
@@ -115,13 +120,40 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
         return pw_status_exit_code(st);
     run->P_Pa = a->P_Pa;
     run->spec = a->spec;
-    st = pw_reflux_solve(&run->fit.sys, a->P_Pa, &a->spec, &a->opt, a->fit_path, &run->col,
+    /* The design rows come from pw_reflux_design (stage profiles, a row the column cannot
+     * reach marked as such), not from pw_column_solve's own table. */
+    pw_column_options o = a->opt;
+    o.n_factors = 0;
+    st = pw_reflux_solve(&run->fit.sys, a->P_Pa, &a->spec, &o, a->fit_path, &run->col,
                          &run->T_top_K, &run->T_bottom_K, err);
+    if (st == PW_OK && a->energy) {
+        run->energy = true;
+        st = pw_heat_data_from_system(&run->fit.sys, &run->heat, err);
+        if (st != PW_OK) {
+            char msg[PW_ERROR_MSG_MAX];
+            snprintf(msg, sizeof msg, "%s", err->msg);
+            pw_error_set(err, st, a->fit_path, 0, "--energy: %s", msg);
+        }
+    }
+    if (st == PW_OK) {
+        st = pw_reflux_design(&run->fit.sys, a->P_Pa, &a->spec, &a->opt, &run->col,
+                              run->energy ? &run->heat : NULL, &run->design, &run->energy_res);
+        if (st != PW_OK)
+            pw_error_set(err, st, a->fit_path, 0, "%s%s%s", pw_strerror(st),
+                         run->energy_res.reason[0] ? ": " : "", run->energy_res.reason);
+    }
     if (st != PW_OK) {
+        pw_design_table_free(&run->design);
         pw_fit_result_free(&run->fit);
         return pw_status_exit_code(st);
     }
     return 0;
+}
+
+void pw_reflux_run_free(pw_reflux_run *run)
+{
+    pw_design_table_free(&run->design);
+    pw_fit_result_free(&run->fit);
 }
 
 void pw_reflux_warn(const pw_reflux_run *run)
@@ -146,13 +178,20 @@ void pw_reflux_warn(const pw_reflux_run *run)
                      "by more than 5 K: the model is extrapolated",
                      fmin(run->T_top_K, run->T_bottom_K), fmax(run->T_top_K, run->T_bottom_K),
                      r->T_min_K, r->T_max_K);
+    double mis = pw_latent_heat_mismatch(&r->sys);
+    if (!run->energy && mis > 0.10)
+        pw_cli_warnf("reflux", "the heats of vaporization of %s and %s differ by %.0f %%: constant "
+                     "molal overflow is doubtful above about 10 %% (common practice); consider "
+                     "--energy",
+                     r->sys.comp[0].name, r->sys.comp[1].name, 100.0 * mis);
     if (!r->converged)
         pw_cli_warnf("reflux", "%s: the fit did not converge; do not design with it", r->dataset_path);
     pw_cli_warn_vapor_association("reflux", &r->sys);
     if (r->split)
         pw_cli_warnf("reflux", "the fitted model predicts a liquid-liquid split (x1 = %.3f at %.1f K)",
                      r->split_x, r->split_T_K);
-    if (run->col.feasible && run->col.pinch.kind == PW_PINCH_TANGENT)
+    if (run->energy ? run->energy_res.feasible && run->energy_res.pinch.kind == PW_PINCH_TANGENT
+                    : run->col.feasible && run->col.pinch.kind == PW_PINCH_TANGENT)
         pw_cli_warnf("reflux", "tangent pinch: stage counts near R_min are very sensitive to the "
                      "model; consider --uncertainty");
 }

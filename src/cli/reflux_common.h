@@ -4,6 +4,7 @@
 
 #include <jansson.h>
 #include <pinchwise/column.h>
+#include <pinchwise/design.h>
 #include <pinchwise/fit.h>
 #include <stdbool.h>
 
@@ -14,6 +15,7 @@ typedef struct pw_reflux_args {
     pw_column_spec spec;
     pw_column_options opt;
     bool json;
+    bool energy; /* --energy: energy balances instead of constant molal overflow */
     bool have_P, have_xd, have_xb, have_zf;
     /* options other commands add; unknown ones are rejected */
     bool uncertainty;
@@ -25,9 +27,16 @@ typedef struct pw_reflux_run {
     pw_fit_result fit;
     double P_Pa;
     pw_column_spec spec;
-    pw_column_result col;
+    pw_column_result col;       /* constant molal overflow (feasibility, n_min, R_min) */
+    pw_design_table design;     /* the design rows with stage profiles, of the balance used */
+    bool energy;                /* --energy: energy_res holds the energy-balance answer */
+    pw_energy_result energy_res;
+    pw_heat_data heat;          /* with energy: the heat data used */
     double T_top_K, T_bottom_K;
 } pw_reflux_run;
+
+/* Frees what pw_reflux_compute allocated (the fit and the design table). */
+void pw_reflux_run_free(pw_reflux_run *run);
 
 /* Returns 0, -1 for --help, or an exit code with err filled. */
 int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err);

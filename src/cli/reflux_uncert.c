@@ -98,6 +98,8 @@ int pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_r
         return rc;
     u->col = pw_unc_column_ctx_make(run->P_Pa, &run->spec);
     u->col.opt = a->opt;
+    if (run->energy)
+        u->col.heat = &run->heat; /* energy balances in every draw */
     u->plan_status = PW_EINVAL;
     if (u->propagate) {
         pw_cli_progress_ctx pc = {"reflux", "parameter sets sampled"};
@@ -203,7 +205,8 @@ void pw_reflux_uncert_print(const pw_reflux_uncert *u, const pw_reflux_run *run)
         printf("\nuncertainty from the fit's parameter covariance (%zu draws, seed %lu):\n",
                r->n_samples, u->opt.seed);
         print_output("minimum reflux R_min", &r->out[PW_UNC_RMIN]);
-        print_output("minimum boil-up Vbar/B", &r->out[PW_UNC_SMIN]);
+        if (!u->col.heat) /* not defined at R_min with energy balances */
+            print_output("minimum boil-up Vbar/B", &r->out[PW_UNC_SMIN]);
         char label[64];
         snprintf(label, sizeof label, "stages at %.2g R_min", u->col.factor);
         print_output(label, &r->out[PW_UNC_STAGES]);
@@ -215,7 +218,8 @@ void pw_reflux_uncert_print(const pw_reflux_uncert *u, const pw_reflux_run *run)
             printf("  next measurements: %s\n", pw_unc_plan_words(&u->plan, "R_min", words,
                                                                  sizeof words));
         printf("  These intervals cover the scatter of the fitted data only, not the choice of\n"
-               "  model, the vapor-pressure constants or constant molal overflow.\n");
+               "  model, the vapor-pressure constants or %s.\n",
+               u->col.heat ? "the heat data" : "constant molal overflow");
     }
     if (u->n_compare) {
         const pw_unc_models *m = &u->models;

@@ -4,6 +4,7 @@
 #include <math.h>
 #include <pinchwise/api.h>
 #include <pinchwise/commands.h>
+#include <pinchwise/design_doc.h>
 #include <pinchwise/fitjson.h>
 #include <pinchwise/hetcheck.h>
 #include <pinchwise/units.h>
@@ -282,10 +283,17 @@ pw_status pw_api_reflux(const char *fit_path, const char *fit_text, const char *
         return st;
     pw_column_spec spec = {.xd = xd, .xb = xb, .zf = zf, .q = q};
     pw_column_options opt = pw_column_default_options();
+    pw_column_options opt_col = opt;
+    opt_col.n_factors = 0; /* the design rows come from pw_reflux_design, as in the CLI */
     pw_column_result col;
     double T_top_K, T_bottom_K;
-    st = pw_reflux_solve(&fit.sys, P_Pa, &spec, &opt, fit_where(fit_path, name), &col, &T_top_K,
-                         &T_bottom_K, err);
+    st = pw_reflux_solve(&fit.sys, P_Pa, &spec, &opt_col, fit_where(fit_path, name), &col,
+                         &T_top_K, &T_bottom_K, err);
+    pw_design_table design;
+    memset(&design, 0, sizeof design);
+    if (st == PW_OK && (st = pw_reflux_design(&fit.sys, P_Pa, &spec, &opt, &col, NULL, &design,
+                                              NULL)) != PW_OK)
+        pw_error_set(err, st, fit_where(fit_path, name), 0, "design rows: %s", pw_strerror(st));
     bool unc = false;
     pw_unc_options uo;
     pw_unc_column_ctx uc;
@@ -298,11 +306,12 @@ pw_status pw_api_reflux(const char *fit_path, const char *fit_text, const char *
         st = pw_reflux_unc_run(&fit, &uc, &uo, fit_where(fit_path, name), &as, err);
     }
     if (st == PW_OK) {
-        json_t *o = pw_reflux_doc(&col, P_Pa, &spec, T_top_K, T_bottom_K);
+        json_t *o = pw_reflux_design_doc(&col, &design, NULL, P_Pa, &spec, T_top_K, T_bottom_K);
         if (o && unc)
             pw_reflux_unc_doc(o, &as.res, &uo, uc.factor, as.plan_status, &as.plan);
         st = finish(o, doc, err);
     }
+    pw_design_table_free(&design);
     pw_fit_result_free(&fit);
     return st;
 }

@@ -327,6 +327,46 @@ pw_status pw_plot_lngamma(pw_sbuf *b, const pw_plot_lngamma_in *in)
     return pw_sbuf_status(b);
 }
 
+pw_status pw_plot_enthalpy(pw_sbuf *b, const pw_plot_enthalpy_in *in)
+{
+    double lo = INFINITY, hi = -INFINITY;
+    span_y(&in->liquid, &lo, &hi);
+    span_y(&in->vapor, &lo, &hi);
+    span_y(&in->feed, &lo, &hi);
+    if (!(lo < hi))
+        return PW_EINVAL;
+    pw_svg_nice_range(&lo, &hi, 6);
+    pw_frame f;
+    pw_status st = pw_frame_init(&f, "plot-enthalpy", W_WIDE, H_WIDE, 0.0, 1.0, lo, hi, 10, 6);
+    if (st != PW_OK)
+        return st;
+    /* the legend goes below: inside it would cover the vapor curve at the top */
+    pw_frame_reserve_legend(&f, 3u + (in->tie.n == 2 ? 1u : 0u));
+    char title[PW_SVG_LABEL_MAX], xl[PW_SVG_LABEL_MAX];
+    snprintf(title, sizeof title, "Enthalpy and composition %s", in->condition ? in->condition : "");
+    snprintf(xl, sizeof xl, "x\xe2\x82\x81, y\xe2\x82\x81, mole fraction of %s / (mol/mol)",
+             in->name1);
+    pw_svg_begin(b, &f, title, xl, "enthalpy / (kJ/mol), liquids at 298.15 K = 0");
+    pw_legend lg = {0};
+    pw_style liq = st_line(C_INK, 2.4, NULL), vap = st_line(C_TEAL, 2.4, "8 4");
+    pw_style tie = st_line(C_BRICK, 1.8, "7 3");
+    pw_style feed = st_mark(C_AMBER, PW_MARK_DIAMOND, true, 10.0);
+    draw_set(b, &f, &in->liquid, &liq, true, "pw-curve pw-enthalpy-liquid");
+    draw_set(b, &f, &in->vapor, &vap, true, "pw-curve pw-enthalpy-vapor");
+    if (in->tie.n == 2)
+        draw_set(b, &f, &in->tie, &tie, true, "pw-line pw-enthalpy-tie");
+    draw_set(b, &f, &in->feed, &feed, false, "pw-points pw-enthalpy-feed");
+    pw_legend_add(&lg, "saturated liquid (bubble point)", &liq, true);
+    pw_legend_add(&lg, "saturated vapor (dew point)", &vap, true);
+    if (in->tie.n == 2)
+        pw_legend_add(&lg, in->tie_label ? in->tie_label : "limiting tie line", &tie, true);
+    pw_legend_add(&lg, "feed", &feed, false);
+    pw_svg_end_data(b);
+    pw_svg_legend(b, &f, &lg, PW_LEGEND_BELOW);
+    pw_svg_end(b, &f);
+    return pw_sbuf_status(b);
+}
+
 pw_status pw_plot_band(pw_sbuf *b, const pw_plot_band_in *in)
 {
     double xlo = in->x_lo, xhi = in->x_hi, ylo = in->y_lo, yhi = in->y_hi;

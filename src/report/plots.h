@@ -78,6 +78,20 @@ typedef struct pw_plot_lngamma_in {
 /* ln gamma1 and ln gamma2 against x1: model curves and the points from the measurements. */
 pw_status pw_plot_lngamma(pw_sbuf *b, const pw_plot_lngamma_in *in);
 
+typedef struct pw_plot_enthalpy_in {
+    const char *name1;
+    const char *condition;        /* "at 101.3 kPa" */
+    pw_xyset liquid;              /* (x1, saturated-liquid enthalpy kJ/mol) */
+    pw_xyset vapor;               /* (y1, saturated-vapor enthalpy kJ/mol) */
+    pw_xyset feed;                /* (zf, h_F) */
+    pw_xyset tie;                 /* the limiting tie line at R_min: 2 points; n = 0 for none */
+    const char *tie_label;
+} pw_plot_enthalpy_in;
+
+/* Enthalpy-composition diagram of the energy-balance column: saturated liquid and vapor, the
+ * feed point, the tie line that limits the reflux. */
+pw_status pw_plot_enthalpy(pw_sbuf *b, const pw_plot_enthalpy_in *in);
+
 typedef struct pw_plot_band_in {
     const char *id, *title, *xlabel, *ylabel;
     const pw_xyset *curves;       /* sampled curves (e.g. from parameter draws) */

@@ -189,8 +189,28 @@ static pw_status column(pw_report_curves *c, const pw_report_input *in)
                            &c->feed_stage_op) != PW_OK)
             c->stages_op = PW_NAN;
         staircase(c, c->r_op);
+        if (pw_cmo_profile(s, c->P_col_Pa, &c->spec, c->r_op, opt.max_stages, &c->profile_op) !=
+            PW_OK)
+            pw_profile_free(&c->profile_op);
     }
-    (void)in;
+    if (in->energy && c->col_status == PW_OK && c->col.feasible) {
+        c->energy = true;
+        pw_heat_data heat;
+        pw_error err;
+        pw_error_clear(&err);
+        c->energy_status = pw_heat_data_from_system(s, &heat, &err);
+        if (c->energy_status == PW_OK)
+            c->energy_status = pw_energy_column_solve(s, &heat, c->P_col_Pa, &c->spec, &opt,
+                                                      &c->energy_res, &c->energy_design);
+        else
+            snprintf(c->energy_error, sizeof c->energy_error, "%s", err.msg);
+        for (size_t i = 0; c->energy_status == PW_OK && i < PW_REPORT_GRID; i++) {
+            if (pw_enthalpy_sat_liquid(s, &heat, c->P_col_Pa, c->x[i], &c->en_hL[i], NULL) != PW_OK)
+                c->en_hL[i] = PW_NAN;
+            if (pw_enthalpy_sat_vapor(s, &heat, c->P_col_Pa, c->x[i], &c->en_HV[i], NULL) != PW_OK)
+                c->en_HV[i] = PW_NAN;
+        }
+    }
     return PW_OK;
 }
 
@@ -289,4 +309,6 @@ void pw_report_curves_free(pw_report_curves *c)
     c->band_y = NULL;
     free(c->rank);
     c->rank = NULL;
+    pw_profile_free(&c->profile_op);
+    pw_design_table_free(&c->energy_design);
 }

@@ -434,6 +434,65 @@ static void azeotropes(pw_sbuf *b, const pw_report_curves *c, const char *cond)
                         "none.</p></section>\n");
 }
 
+/* The energy-balance column beside the constant-overflow one (computed in report_curves.c). */
+static void energy_section(pw_sbuf *b, const pw_report_curves *c)
+{
+    const pw_energy_result *e = &c->energy_res;
+    pw_sbuf_puts(b, "<h3>With energy balances</h3>\n");
+    if (c->energy_status != PW_OK) {
+        pw_sbuf_puts(b, "<p class=\"verdict-fail\">Not computed: ");
+        esc(b, c->energy_error[0] ? c->energy_error : pw_strerror(c->energy_status));
+        pw_sbuf_puts(b, "</p>\n");
+        return;
+    }
+    if (!e->feasible) {
+        pw_sbuf_puts(b, "<p class=\"verdict-fail\">");
+        esc(b, e->reason);
+        pw_sbuf_puts(b, "</p>\n");
+        return;
+    }
+    char t[256];
+    pw_sbuf_puts(b, "<table>\n");
+    snprintf(t, sizeof t, "%.5g (constant molal overflow %.5g)", e->r_min, c->col.r_min);
+    kv(b, "Minimum reflux R_min", t, false);
+    if (e->reflux_limited)
+        snprintf(t, sizeof t, "none: no reflux is needed");
+    else if (e->boilup_limited)
+        snprintf(t, sizeof t, "zero reboiler duty (the feed brings the heat)");
+    else
+        snprintf(t, sizeof t, "%s pinch in the %s section at liquid x = %.4f",
+                 e->pinch.kind == PW_PINCH_TANGENT ? "tangent" : "feed",
+                 e->pinch.section == PW_SECTION_STRIPPING ? "stripping" : "rectifying",
+                 e->pinch.x);
+    kv(b, "Limit", t, false);
+    snprintf(t, sizeof t, "feed %.1f, distillate %.1f, bottoms %.1f J/mol (liquids at 298.15 K = 0)",
+             e->h_F, e->h_D, e->h_B);
+    kv(b, "Enthalpies", t, false);
+    pw_sbuf_puts(b, "</table>\n<table><tr><th>R / R_min</th><th>R</th><th>Stages, stepped</th>"
+                    "<th>Feed stage</th><th>Condenser kJ per mol feed</th><th>Reboiler kJ per "
+                    "mol feed</th></tr>\n");
+    for (size_t i = 0; i < c->energy_design.n; i++) {
+        const pw_design_case *d = &c->energy_design.row[i];
+        pw_sbuf_puts(b, "<tr>");
+        num(b, d->factor, 3);
+        num(b, d->R, 4);
+        if (d->reachable) {
+            num(b, d->stages, 3);
+            pw_sbuf_printf(b, "<td class=\"num\">%d</td>", d->feed_stage);
+            num(b, d->Q_C / 1e3, 4);
+            num(b, d->Q_R / 1e3, 4);
+        } else {
+            pw_sbuf_puts(b, "<td colspan=\"4\">not reached at this reflux</td>");
+        }
+        pw_sbuf_puts(b, "</tr>\n");
+    }
+    pw_sbuf_puts(b, "</table>\n<p class=\"note\">Stage-to-stage energy and mass balances "
+                    "(Ponchon 1921; Savarit 1922) with constant heat capacities, ideal-gas vapor "
+                    "enthalpies and the model's H<sup>E</sup>, which VLE data fix poorly. "
+                    "Duties are for equilibrium stages without heat losses; size equipment "
+                    "per local codes under licensed review.</p>\n");
+}
+
 static void column_section(pw_sbuf *b, const pw_report_curves *c)
 {
     const pw_column_spec *sp = &c->spec;
@@ -514,7 +573,34 @@ static void column_section(pw_sbuf *b, const pw_report_curves *c)
     pw_sbuf_puts(b, "</table>\n<p class=\"note\">Stages are equilibrium stages including the partial "
                     "reboiler, with a fractional last step; Gilliland's correlation (Molokanov et al. "
                     "1972) is a shortcut check on the stepped count. Add tray efficiency before "
-                    "thinking of real trays.</p></section>\n");
+                    "thinking of real trays.</p>\n");
+    const pw_profile *p = &c->profile_op;
+    if (p->n) {
+        pw_sbuf_printf(b, "<h3>Stage profile at %.3g R_min (R = %.4g)</h3><table><tr><th>Stage"
+                          "</th><th>x1</th><th>y1</th><th>T (K)</th><th>L / F</th><th>V / F</th>"
+                          "<th></th></tr>\n",
+                       c->factor, c->r_op);
+        for (size_t i = 0; i < p->n; i++) {
+            const pw_stage *g = &p->stage[i];
+            pw_sbuf_printf(b, "<tr><td class=\"num\">%zu</td>", i + 1);
+            num(b, g->x, 5);
+            num(b, g->y, 5);
+            num(b, g->T_K, 5);
+            num(b, g->L, 4);
+            num(b, g->V, 4);
+            pw_sbuf_printf(b, "<td>%s</td></tr>\n",
+                           (int)i + 1 == p->feed_stage ? "feed"
+                           : i + 1 == p->n            ? "partial reboiler"
+                                                      : "");
+        }
+        pw_sbuf_puts(b, "</table>\n<p class=\"note\">Liquid and vapor leaving each equilibrium "
+                        "stage, counted from the top (total condenser not counted), constant "
+                        "molal overflow; flows per mole of feed. The last stage's liquid is the "
+                        "step that reaches the bottoms composition.</p>\n");
+    }
+    if (c->energy)
+        energy_section(b, c);
+    pw_sbuf_puts(b, "</section>\n");
 }
 
 static void unc_row(pw_sbuf *b, const char *label, const pw_unc_output *o)
@@ -804,6 +890,9 @@ static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
                            k->pinch.x);
             if (k->reflux_limited)
                 pw_sbuf_puts(b, " (no reflux is needed)");
+            if (c->energy && c->energy_status == PW_OK && c->energy_res.feasible)
+                pw_sbuf_printf(b, "; with energy balances R<sub>min</sub> = %.4g",
+                               c->energy_res.r_min);
             pw_sbuf_puts(b, " <a href=\"#column\">details</a>");
             answer_end(b);
             answer(b, "Stages");

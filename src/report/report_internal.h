@@ -8,6 +8,7 @@
 #include <pinchwise/assess.h>
 #include <pinchwise/column.h>
 #include <pinchwise/consistency.h>
+#include <pinchwise/design.h>
 #include <pinchwise/fit.h>
 #include <pinchwise/report.h>
 #include <pinchwise/uncertainty.h>
@@ -60,6 +61,14 @@ typedef struct pw_report_curves {
     pw_status col_status;            /* of pw_column_solve */
     double stages_op;                /* at r_op (pw_column_step) */
     int feed_stage_op;
+    pw_profile profile_op;           /* stage profile at r_op (pw_cmo_profile); n = 0 if none */
+    bool energy;                     /* pw_report_input.energy with a column */
+    pw_status energy_status;         /* of the heat data, then of pw_energy_column_solve */
+    char energy_error[PW_ERROR_MSG_MAX];
+    pw_energy_result energy_res;
+    pw_design_table energy_design;   /* design rows at the factors and the operating factor */
+    double en_hL[PW_REPORT_GRID], en_HV[PW_REPORT_GRID]; /* saturated liquid at x, vapor at y = x,
+                                                            J/mol (NAN where a solve failed) */
     double step_x[2 * PW_REPORT_MAX_STEPS + 2], step_y[2 * PW_REPORT_MAX_STEPS + 2];
     size_t n_step;
     double T_top_K, T_bottom_K;      /* bubble T of xd and xb at the column pressure */

@@ -136,6 +136,39 @@ static pw_status band_plot(struct pw_report *rep, const pw_report_curves *c)
     return st;
 }
 
+/* The enthalpy-composition diagram from the curves computed in report_curves.c (kJ/mol). */
+static pw_status enthalpy_plot(struct pw_report *rep, const pw_report_curves *c, const char *n1)
+{
+    double hl[PW_REPORT_GRID], hv[PW_REPORT_GRID];
+    for (size_t i = 0; i < PW_REPORT_GRID; i++) {
+        hl[i] = c->en_hL[i] / 1e3;
+        hv[i] = c->en_HV[i] / 1e3;
+    }
+    const pw_energy_result *e = &c->energy_res;
+    double fx[1] = {c->spec.zf}, fy[1] = {e->h_F / 1e3};
+    /* The limiting tie line: from the liquid where the limit is reached to its vapor; its
+     * enthalpies are those of the curves at those compositions, interpolated on the grid. */
+    double tx[2] = {e->pinch.x, e->pinch.y}, ty[2] = {PW_NAN, PW_NAN};
+    for (size_t i = 0; i + 1 < PW_REPORT_GRID; i++) {
+        for (int k = 0; k < 2; k++) {
+            if (tx[k] >= c->x[i] && tx[k] <= c->x[i + 1]) {
+                const double *h = k == 0 ? hl : hv, t = (tx[k] - c->x[i]) / (c->x[i + 1] - c->x[i]);
+                ty[k] = h[i] + t * (h[i + 1] - h[i]);
+            }
+        }
+    }
+    char cond[80], tl[PW_SVG_LABEL_MAX];
+    snprintf(cond, sizeof cond, "at %.4g kPa", c->P_col_Pa / 1e3);
+    snprintf(tl, sizeof tl, "tie line that limits R_min = %.3g (%s pinch)", e->r_min,
+             e->pinch.kind == PW_PINCH_TANGENT ? "tangent" : "feed");
+    bool tie = !e->reflux_limited && !e->boilup_limited && isfinite(ty[0]) && isfinite(ty[1]);
+    pw_plot_enthalpy_in in = {n1, cond, set(c->x, hl, PW_REPORT_GRID), set(c->x, hv, PW_REPORT_GRID),
+                              set(fx, fy, 1), set(tx, ty, tie ? 2 : 0), tl};
+    pw_report_file *f = new_file(rep->svg, &rep->n_svg, "enthalpy.svg",
+                                 "Enthalpy and composition (energy balances)");
+    return f ? pw_plot_enthalpy(&f->text, &in) : PW_ENOMEM;
+}
+
 pw_status pw_report_render_plots(struct pw_report *rep, const pw_report_curves *c)
 {
     const pw_fit_result *r = c->fit;
@@ -255,6 +288,9 @@ pw_status pw_report_render_plots(struct pw_report *rep, const pw_report_curves *
         f = new_file(rep->svg, &rep->n_svg, "lngamma.svg", "Activity coefficients");
         st = f ? pw_plot_lngamma(&f->text, &lg) : PW_ENOMEM;
     }
+    /* 5b. with --energy: the enthalpy-composition diagram */
+    if (st == PW_OK && c->energy && c->energy_status == PW_OK && c->energy_res.feasible)
+        st = enthalpy_plot(rep, c, n1);
     /* 6. with --uncertainty and a feasible column: sampled curves near the limiting pinch */
     if (st == PW_OK && c->band_status == PW_OK)
         st = band_plot(rep, c);

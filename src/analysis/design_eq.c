@@ -1,0 +1,169 @@
+/* Equilibrium at fixed pressure for the design-grade column: y*(x) by bubble points and its
+ * inverse x*(y) (dew point, polished by a bracketed Brent solve on the bubble curve through the
+ * library's 1-D driver), and the growable stage profiles. */
+#include "analysis/design_internal.h"
+
+#include "base/solve1d.h"
+
+#include <float.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define ROOT_MAX_ITER 200
+#define Y_TOL 1e-14
+
+const char *pw_balance_name(pw_balance b)
+{
+    return b == PW_BALANCE_ENERGY ? "energy" : "constant-molal-overflow";
+}
+
+void pw_profile_free(pw_profile *p)
+{
+    if (!p)
+        return;
+    free(p->stage);
+    p->stage = NULL;
+    p->n = p->cap = 0;
+}
+
+pw_status pw_profile_push(pw_profile *p, const pw_stage *s)
+{
+    if (p->n == p->cap) {
+        size_t cap = p->cap ? 2 * p->cap : 32;
+        pw_stage *m = realloc(p->stage, cap * sizeof *m);
+        if (!m)
+            return PW_ENOMEM;
+        p->stage = m;
+        p->cap = cap;
+    }
+    p->stage[p->n++] = *s;
+    return PW_OK;
+}
+
+void pw_design_table_free(pw_design_table *t)
+{
+    if (!t)
+        return;
+    for (size_t i = 0; i < PW_COLUMN_MAX_FACTORS; i++)
+        pw_profile_free(&t->row[i].profile);
+    t->n = 0;
+}
+
+pw_status pw_eqp_init(pw_eqp *e, const pw_system *sys, double P_Pa)
+{
+    memset(e, 0, sizeof *e);
+    if (!sys || !sys->model || !(P_Pa > 0.0) || !isfinite(P_Pa))
+        return PW_EINVAL;
+    e->sys = sys;
+    e->P_Pa = P_Pa;
+    e->T_last = NAN;
+    return PW_OK;
+}
+
+void pw_eqp_free(pw_eqp *e)
+{
+    (void)e; /* nothing allocated; kept for symmetry */
+}
+
+pw_status pw_eqp_bubble(pw_eqp *e, double x, double *y, double *T_K)
+{
+    if (!(x >= 0.0 && x <= 1.0))
+        return PW_EDOM;
+    pw_eq_point p;
+    e->n_bubble++;
+    pw_status st = pw_bubble_T_from(e->sys, e->P_Pa, x, e->T_last, &p);
+    if (st != PW_OK)
+        return st;
+    if (!isfinite(p.y1) || !isfinite(p.T_K))
+        return PW_EDOM;
+    e->T_last = p.T_K;
+    /* y from the normalised K-values at the converged T: the bubble solve's small residual in
+     * sum(y) then moves y only through the relative volatility's (weak) T dependence. */
+    double k1 = x * p.gamma[0] * p.Psat_Pa[0], k2 = (1.0 - x) * p.gamma[1] * p.Psat_Pa[1];
+    double yn = k1 / (k1 + k2);
+    *y = isfinite(yn) ? yn : fmin(1.0, fmax(0.0, p.y1));
+    if (T_K)
+        *T_K = p.T_K;
+    return PW_OK;
+}
+
+typedef struct inv_ctx {
+    pw_eqp *e;
+    double target;
+} inv_ctx;
+
+static pw_status inv_f(void *params, double x, double *f)
+{
+    inv_ctx *c = params;
+    double y;
+    pw_status st = pw_eqp_bubble(c->e, x, &y, NULL);
+    if (st == PW_OK)
+        *f = y - c->target;
+    return st;
+}
+
+/* Root of y*(x) - y on [a, b] by the library's bracketed Brent driver (src/base/solve1d.h). */
+static pw_status brent(inv_ctx *c, double a, double b, double *x)
+{
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = 4.0 * DBL_EPSILON;
+    o.xtol_rel = 4.0 * DBL_EPSILON;
+    o.max_iter = ROOT_MAX_ITER;
+    return pw_root1d(inv_f, c, a, b, NAN, NAN, &o, x, NULL);
+}
+
+pw_status pw_eqp_x_of_y(pw_eqp *e, double y, double *x, double *T_K)
+{
+    if (!(y >= 0.0 && y <= 1.0))
+        return PW_EDOM;
+    if (y == 0.0 || y == 1.0) {
+        *x = y;
+        double yy;
+        return pw_eqp_bubble(e, y, &yy, T_K);
+    }
+    inv_ctx c = {e, y};
+    double x0 = NAN, f0 = NAN;
+    pw_eq_point d;
+    if (pw_dew_T(e->sys, e->P_Pa, y, &d) == PW_OK && d.x1 >= 0.0 && d.x1 <= 1.0) {
+        x0 = d.x1;
+        e->T_last = d.T_K;
+        double y0;
+        pw_status st = pw_eqp_bubble(e, x0, &y0, T_K);
+        if (st != PW_OK)
+            return st;
+        f0 = y0 - y;
+        if (fabs(f0) <= Y_TOL) {
+            *x = x0;
+            return PW_OK;
+        }
+    }
+    double a = 0.0, b = 1.0;
+    if (isfinite(f0)) {
+        /* Bracket beside the dew-point answer, widening; [0, 1] always brackets (y*(0) = 0,
+         * y*(1) = 1). */
+        for (double h = 1e-9; h < 0.5; h *= 16.0) {
+            double o = f0 < 0.0 ? fmin(1.0, x0 + h) : fmax(0.0, x0 - h);
+            double fo = o == 1.0 ? 1.0 - y : -y;
+            if (o > 0.0 && o < 1.0) {
+                pw_status st = inv_f(&c, o, &fo);
+                if (st != PW_OK)
+                    return st;
+            }
+            if ((fo > 0.0) != (f0 > 0.0) || fo == 0.0) {
+                a = fmin(x0, o);
+                b = fmax(x0, o);
+                break;
+            }
+            x0 = o;
+            f0 = fo;
+        }
+    }
+    pw_status st = brent(&c, a, b, x);
+    if (st == PW_ENOBRACKET && (a > 0.0 || b < 1.0))
+        st = brent(&c, 0.0, 1.0, x); /* the local bracket was lost to round-off */
+    if (st != PW_OK)
+        return st;
+    double yy;
+    return pw_eqp_bubble(e, *x, &yy, T_K);
+}

@@ -1,0 +1,240 @@
+/* pinchwise rate: the products and stage profile of a given column (stages, feed stage, reflux,
+ * distillate rate) for a fitted model at a pressure. Parses, calls pw_rate_cmo, prints. */
+#include "cli.h"
+#include "design_out.h"
+
+#include <math.h>
+#include <pinchwise/design_doc.h>
+#include <stdio.h>
+#include <string.h>
+
+#define CMD "rate"
+
+static void usage(FILE *f)
+{
+    fprintf(
+        f,
+        "usage: pinchwise rate FIT.json --pressure P --stages N --feed-stage K --reflux R\n"
+        "                      --zf X --distillate D [--q Q] [--components FILE] [--json]\n"
+        "\n"
+        "Products of a given binary column, constant molal overflow: N equilibrium stages\n"
+        "counted from the top with the partial reboiler as stage N (the total condenser is not\n"
+        "counted), the whole feed on stage K, reflux ratio R = L/D, distillate D moles per mole\n"
+        "of feed.\n"
+        "  --pressure P        column pressure with its unit, e.g. 101.325kPa, 1atm\n"
+        "  --zf X              feed mole fraction of component 1\n"
+        "  --q Q               feed liquid fraction (default 1, saturated liquid)\n"
+        "  --energy            energy balance on every stage (heat data from the component\n"
+        "                      file) instead of constant molal overflow; adds the duties\n"
+        "  --json              print one JSON object on stdout\n");
+}
+
+typedef struct pw_rate_energy_out {
+    double Q_C, Q_R; /* J per mol feed */
+    size_t n_roots;
+} pw_rate_energy_out;
+
+typedef struct rate_args {
+    const char *fit_path, *components;
+    double P_Pa;
+    pw_rate_spec spec;
+    bool json, energy, have_N, have_K, have_R, have_D;
+    pw_cli_targets tg;
+} rate_args;
+
+static int whole(const char *opt, const char *v, int *out, pw_error *err)
+{
+    double d;
+    if (pw_cli_number(opt, v, &d, err) != PW_OK)
+        return PW_EXIT_USAGE;
+    if (!(d >= 1.0 && d <= 100000.0) || d != floor(d)) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected a whole number from 1 to 100000",
+                     opt, v);
+        return PW_EXIT_USAGE;
+    }
+    *out = (int)d;
+    return 0;
+}
+
+static int parse(int argc, char **argv, rate_args *a, pw_error *err)
+{
+    memset(a, 0, sizeof *a);
+    a->tg.q = 1.0;
+    for (int i = 1; i < argc; i++) {
+        const char *v = NULL;
+        bool missing = false;
+        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
+            return -1;
+        if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
+            a->json = true;
+            continue;
+        }
+        if (pw_cli_opt(argc, argv, &i, "--energy", NULL, NULL)) {
+            a->energy = true;
+            continue;
+        }
+        if (!strncmp(argv[i], "--", 2)) {
+            const char *opt = argv[i];
+            if (!pw_cli_opt(argc, argv, &i, opt, &v, &missing) || missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
+                return PW_EXIT_USAGE;
+            }
+            int rc = 0;
+            if (!strcmp(opt, "--pressure") || !strcmp(opt, "--zf") || !strcmp(opt, "--q")) {
+                rc = pw_cli_target_opt(opt, v, &a->tg, err);
+            } else if (!strcmp(opt, "--components")) {
+                a->components = v;
+            } else if (!strcmp(opt, "--stages")) {
+                rc = whole(opt, v, &a->spec.n_stages, err);
+                a->have_N = true;
+            } else if (!strcmp(opt, "--feed-stage")) {
+                rc = whole(opt, v, &a->spec.feed_stage, err);
+                a->have_K = true;
+            } else if (!strcmp(opt, "--reflux")) {
+                rc = pw_cli_number(opt, v, &a->spec.R, err) == PW_OK ? 0 : PW_EXIT_USAGE;
+                a->have_R = true;
+            } else if (!strcmp(opt, "--distillate")) {
+                rc = pw_cli_number(opt, v, &a->spec.d_frac, err) == PW_OK ? 0 : PW_EXIT_USAGE;
+                a->have_D = true;
+            } else {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", opt);
+                return PW_EXIT_USAGE;
+            }
+            if (rc)
+                return rc;
+            continue;
+        }
+        if (a->fit_path) {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", argv[i]);
+            return PW_EXIT_USAGE;
+        }
+        a->fit_path = argv[i];
+    }
+    if (!a->fit_path || !a->tg.have_P || !a->tg.have_zf || !a->have_N || !a->have_K || !a->have_R ||
+        !a->have_D) {
+        pw_error_set(err, PW_EINVAL, NULL, 0,
+                     "a fit file and --pressure, --stages, --feed-stage, --reflux, --zf, "
+                     "--distillate are required");
+        return PW_EXIT_USAGE;
+    }
+    a->P_Pa = a->tg.P_Pa;
+    a->spec.zf = a->tg.zf;
+    a->spec.q = a->tg.q;
+    return 0;
+}
+
+static json_t *to_json(const rate_args *a, const pw_fit_result *fit, const pw_rate_result *r,
+                       const pw_rate_energy_out *en)
+{
+    json_t *o = json_object();
+    json_object_set_new(o, "xd", pw_cli_json_num(r->xd));
+    json_object_set_new(o, "xb", pw_cli_json_num(r->xb));
+    json_object_set_new(o, "stages", pw_profile_doc(&r->profile));
+    json_object_set_new(
+        o, "balance", json_string(pw_balance_name(a->energy ? PW_BALANCE_ENERGY : PW_BALANCE_CMO)));
+    if (a->energy) {
+        json_object_set_new(o, "condenser_kJ_per_mol_feed", pw_cli_json_num(en->Q_C / 1e3));
+        json_object_set_new(o, "reboiler_kJ_per_mol_feed", pw_cli_json_num(en->Q_R / 1e3));
+        json_object_set_new(o, "steady_states_found", json_integer((json_int_t)en->n_roots));
+    }
+    json_object_set_new(o, "components",
+                        json_pack("[s,s]", fit->sys.comp[0].name, fit->sys.comp[1].name));
+    json_t *spec = json_object();
+    json_object_set_new(spec, "P_kPa", pw_cli_json_num(a->P_Pa / 1e3));
+    json_object_set_new(spec, "stages", json_integer(a->spec.n_stages));
+    json_object_set_new(spec, "feed_stage", json_integer(a->spec.feed_stage));
+    json_object_set_new(spec, "reflux", pw_cli_json_num(a->spec.R));
+    json_object_set_new(spec, "zf", pw_cli_json_num(a->spec.zf));
+    json_object_set_new(spec, "q", pw_cli_json_num(a->spec.q));
+    json_object_set_new(spec, "distillate_per_mol_feed", pw_cli_json_num(a->spec.d_frac));
+    json_object_set_new(o, "spec", spec);
+    json_object_set_new(o, "feed_stage_mismatch", pw_cli_json_num(r->residual));
+    json_object_set_new(o, "stage_convention",
+                        json_string("equilibrium stages counted from the top, the partial reboiler "
+                                    "as the last; total condenser not counted; L and V leave the "
+                                    "stage, moles per mole of feed"));
+    json_object_set_new(o, "caution",
+                        json_string("Screening estimate (constant molal overflow, equilibrium "
+                                    "stages, fitted model). Real trays need an efficiency. Verify "
+                                    "with rigorous simulation and plant data; operate and modify "
+                                    "equipment per local codes under licensed review."));
+    return o;
+}
+
+int pw_cli_rate(int argc, char **argv)
+{
+    rate_args a;
+    pw_error err;
+    pw_error_clear(&err);
+    int rc = parse(argc, argv, &a, &err);
+    if (rc == -1) {
+        usage(stdout);
+        return 0;
+    }
+    if (rc)
+        return pw_cli_fail(CMD, &err);
+    pw_fit_result fit;
+    memset(&fit, 0, sizeof fit);
+    if (pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
+        return pw_cli_fail(CMD, &err);
+    pw_rate_result r;
+    pw_rate_energy_out en = {.Q_C = NAN, .Q_R = NAN};
+    pw_status st;
+    if (a.energy) {
+        pw_heat_data heat;
+        st = pw_heat_data_from_system(&fit.sys, &heat, &err);
+        if (st == PW_OK)
+            st = pw_rate_energy(&fit.sys, &heat, a.P_Pa, &a.spec, &r, &en.Q_C, &en.Q_R, &en.n_roots,
+                                &err);
+    } else {
+        st = pw_rate_cmo(&fit.sys, a.P_Pa, &a.spec, &r, &err);
+    }
+    if (st != PW_OK) {
+        char msg[PW_ERROR_MSG_MAX];
+        snprintf(msg, sizeof msg, "%s", err.msg);
+        pw_error_set(&err, st, a.fit_path, 0, "%s%s", a.energy ? "--energy: " : "", msg);
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
+    if (en.n_roots > 1)
+        pw_cli_warnf(CMD,
+                     "%zu steady states satisfy this specification with energy balances; "
+                     "the one with the lowest distillate purity is shown",
+                     en.n_roots);
+    pw_cli_warn_vapor_association(CMD, &fit.sys);
+    if (!fit.converged)
+        pw_cli_warnf(CMD, "%s: the fit did not converge; do not rate with it", a.fit_path);
+    if (r.profile.n) {
+        double Tlo = r.profile.stage[0].T_K, Thi = r.profile.stage[r.profile.n - 1].T_K;
+        for (int i = 0; i < 2; i++) {
+            const pw_component *c = &fit.sys.comp[i];
+            double ex = fmax(fabs(pw_component_range_excess_K(c, Tlo)),
+                             fabs(pw_component_range_excess_K(c, Thi)));
+            if (ex > 0.0)
+                pw_cli_warnf(CMD, "the column runs %.1f K outside the vapor-pressure range of %s",
+                             ex, c->name);
+        }
+    }
+    if (a.json) {
+        rc = pw_cli_print_json(to_json(&a, &fit, &r, &en));
+    } else {
+        printf("given column at %.4g kPa (%s / %s): %d stages, feed on stage %d, R %.4g, "
+               "D/F %.4g, zf %.4g, q %.4g\n",
+               a.P_Pa / 1e3, fit.sys.comp[0].name, fit.sys.comp[1].name, a.spec.n_stages,
+               a.spec.feed_stage, a.spec.R, a.spec.d_frac, a.spec.zf, a.spec.q);
+        printf("  distillate x1 %.8f   bottoms x1 %.8f\n", r.xd, r.xb);
+        if (a.energy)
+            printf("  energy balances: condenser %.4f kJ, reboiler %.4f kJ per mol feed\n",
+                   en.Q_C / 1e3, en.Q_R / 1e3);
+        printf("\n");
+        pw_cli_profile_print(&r.profile);
+        printf("\n  Screening estimate only (equilibrium stages, %s): verify\n",
+               a.energy ? "energy balances" : "constant molal overflow");
+        printf("  with rigorous simulation and plant data; operate per local codes under licensed\n"
+               "  engineering review.\n");
+        rc = fflush(stdout) ? 4 : 0;
+    }
+    pw_rate_result_free(&r);
+    pw_fit_result_free(&fit);
+    return rc;
+}
