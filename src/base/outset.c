@@ -151,10 +151,15 @@ pw_status pw_outset_check(const pw_outset *s, const char *path, pw_error *err)
     if (stat(path, &st) == 0) {
         for (size_t i = 0; i < s->n_in; i++)
             if (st.st_dev == s->in[i].dev && st.st_ino == s->in[i].ino)
-                return pw_error_set(err, PW_EINVAL, path, 0,
-                                    "is the input %s (the same file, or a link to it); refusing to "
-                                    "write over an input, with or without --force",
-                                    s->in[i].path);
+                return strcmp(path, s->in[i].path) == 0
+                           ? pw_error_set(err, PW_EINVAL, path, 0,
+                                          "is an input of this command; refusing to write over "
+                                          "an input, with or without --force")
+                           : pw_error_set(err, PW_EINVAL, path, 0,
+                                          "is the input %s under another name (a hard or symbolic "
+                                          "link); refusing to write over an input, with or "
+                                          "without --force",
+                                          s->in[i].path);
         if (S_ISDIR(st.st_mode))
             return pw_error_set(err, PW_EINVAL, path, 0,
                                 "is a folder (expected the name of a file to write)");

@@ -38,14 +38,19 @@ void pw_cli_warnf(const char *cmd, const char *fmt, ...)
     fputc('\n', stderr);
 }
 
-pw_status pw_cli_load_components(pw_complib *lib, const char *extra_path, pw_error *err)
+const char *pw_cli_components_path(void)
 {
     const char *candidates[3] = {getenv("PINCHWISE_COMPONENTS"), PW_DEFAULT_COMPONENTS,
                                  PW_INSTALLED_COMPONENTS};
-    const char *found = NULL;
-    for (size_t i = 0; i < 3 && !found; i++)
+    for (size_t i = 0; i < 3; i++)
         if (candidates[i] && candidates[i][0] && access(candidates[i], R_OK) == 0)
-            found = candidates[i];
+            return candidates[i];
+    return NULL;
+}
+
+pw_status pw_cli_load_components(pw_complib *lib, const char *extra_path, pw_error *err)
+{
+    const char *found = pw_cli_components_path();
     pw_complib_init(lib);
     if (!found)
         return pw_error_set(err, PW_ENOTFOUND, NULL, 0,
@@ -239,4 +244,45 @@ pw_status pw_cli_read_fit(const char *cmd, const char *path, const char *compone
     if (st != PW_OK)
         pw_fit_result_free(fit);
     return st;
+}
+
+int pw_cli_whole(const char *opt, const char *text, double lo, double hi, unsigned long long *out,
+                 pw_error *err)
+{
+    double v;
+    bool digits = text[0] >= '0' && text[0] <= '9';
+    if (!digits || pw_cli_number(opt, text, &v, NULL) != PW_OK || v != floor(v) || v < lo ||
+        v > hi) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected a whole number from %.0f to %.0f",
+                     opt, text, lo, hi);
+        return PW_EXIT_USAGE;
+    }
+    *out = (unsigned long long)v;
+    return 0;
+}
+
+int pw_cli_ranged(const char *opt, const char *text, double lo, double hi, const char *what,
+                  double *out, pw_error *err)
+{
+    double v;
+    if (pw_cli_number(opt, text, &v, NULL) != PW_OK || !(v >= lo && v <= hi)) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected %s from %g to %g", opt, text, what,
+                     lo, hi);
+        return PW_EXIT_USAGE;
+    }
+    *out = v;
+    return 0;
+}
+
+int pw_cli_finish_stdout(const char *cmd)
+{
+    errno = 0;
+    int bad = fflush(stdout) != 0;
+    int e = errno;
+    bad = bad || ferror(stdout);
+    if (!bad)
+        return 0;
+    fprintf(stderr, "pinchwise %s: cannot write to standard output: %s\n", cmd,
+            e ? strerror(e) : "write error");
+    return pw_status_exit_code(PW_EIO);
 }

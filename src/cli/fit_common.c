@@ -6,6 +6,7 @@
 #include <math.h>
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/dataset.h>
+#include <pinchwise/fileio.h>
 #include <pinchwise/fitjson.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -177,7 +178,7 @@ static void warn_fit(const pw_fit_result *r, const char *input)
 
 static int ensure_dir(const char *dir, pw_error *err)
 {
-    if (mkdir(dir, 0755) == 0 || errno == EEXIST)
+    if (mkdir(dir, 0777) == 0 || errno == EEXIST)
         return 0;
     pw_error_set(err, PW_EIO, dir, 0, "cannot create folder: %s", strerror(errno));
     return pw_status_exit_code(PW_EIO);
@@ -211,18 +212,24 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
     }
     if (st == PW_OK && !out && ensure_dir(out_dir ? out_dir : "fits", err) != 0)
         st = err->status;
-    /* Refuse early, before the work, when the fit file exists. */
-    if (st == PW_OK && !co->force) {
-        struct stat sb;
-        if (stat(path, &sb) == 0)
-            st = pw_error_set(err, PW_EEXIST, path, 0,
-                              "fit file exists (pass --force to replace it, or choose another --out)");
-    }
+    /* The fit file may not be any input (by identity: links count), whatever --force says;
+     * without --force it may not exist. Checked early, before the work, and again on writing. */
+    pw_outset *set = NULL;
+    if (st == PW_OK)
+        st = pw_outset_new(co->force, pw_cli_tmp_hooks(), &set, err);
+    if (st == PW_OK)
+        st = pw_outset_protect(set, input, err);
+    for (size_t k = 0; st == PW_OK && k < co->n_inputs; k++)
+        st = pw_outset_protect(set, co->inputs[k], err);
+    if (st == PW_OK)
+        st = pw_outset_check(set, path, err);
     if (st == PW_OK)
         st = pw_fit_run(&ds, c1, c2, model, &co->fit, r, err);
     pw_dataset_free(&ds);
-    if (st != PW_OK)
+    if (st != PW_OK) {
+        pw_outset_free(set);
         return pw_status_exit_code(st);
+    }
     if (!co->quiet) {
         if (!co->no_range_warning)
             warn_ranges(r, input);
@@ -230,7 +237,10 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
         warn_duplicates(r, input);
         warn_fit(r, input);
     }
-    st = pw_fitfile_write(path, r, co->force, err);
+    st = pw_fitfile_stage(set, path, r, err);
+    if (st == PW_OK)
+        st = pw_outset_commit(set, err);
+    pw_outset_free(set);
     if (st != PW_OK) {
         pw_fit_result_free(r);
         return pw_status_exit_code(st);

@@ -8,6 +8,7 @@
 #include <gsl/gsl_rng.h>
 #include <math.h>
 #include <stdio.h>
+#include <stdint.h>
 #include <stdlib.h>
 #include <string.h>
 #include <time.h>
@@ -428,8 +429,19 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
      * in a row found neither a new minimum nor a lower chi2 (after at least MULTISTART_MIN runs).
      * The default start always runs. See docs/fitting.md. */
     size_t n_starts = o.n_starts ? o.n_starts : 1;
-    start_cand *cand = malloc(sizeof *cand * n_starts);
+    start_cand *cand = n_starts <= SIZE_MAX / sizeof *cand ? malloc(sizeof *cand * n_starts) : NULL;
     double *work = malloc(sizeof(double) * fp.n_res);
+    if (!cand || !work) { /* a failed allocation is an error, never an unfitted "result" */
+        free(cand);
+        free(work);
+        free(used);
+        free(J);
+        gsl_rng_free(rng);
+        gsl_multifit_nlinear_free(w);
+        pw_fit_result_free(out);
+        return pw_error_set(err, PW_ENOMEM, ds->path, 0, "out of memory for %zu start points",
+                            n_starts);
+    }
     size_t n_cand = 0;
     for (size_t s = 0; cand && work && s < n_starts; s++) {
         make_start(out, &fp, rng, s, cand[n_cand].p);
