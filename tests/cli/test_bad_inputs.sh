@@ -34,6 +34,7 @@ while IFS=$'\t' read -r file cmd want frag; do
     check) args=(check "$input" --json) ;;
     components) args=(fit "$demo" --model nrtl --components "$input" --json) ;;
     reflux) args=(reflux "$input" --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.3 --json) ;;
+    report) args=(report "$input" --out report.html --json) ;;
     *) bad "unknown command $cmd"; continue ;;
   esac
   (cd "$work" && timeout "$limit" "$pw" "${args[@]}" > out.json 2> err.txt)
