@@ -23,8 +23,9 @@ pw_status pw_atomic_write(const char *path, const char *text, size_t len, bool f
 pw_status pw_read_file(const char *path, size_t max_bytes, char **buf, size_t *len, pw_error *err);
 
 /* Told about every named temporary file an output set creates (before it exists) and about its
- * end (after it was moved into place or removed), so that a host can remove the leftovers when it
- * is interrupted, e.g. from a SIGINT handler. The callbacks run in the writing thread and must
+ * end (after it was moved into place or removed), and likewise about every folder it creates
+ * (until the set is freed), so that a host can remove the leftovers when it is interrupted, e.g.
+ * from a SIGINT handler (unlink the files, then rmdir the folders, which are empty by then). The callbacks run in the writing thread and must
  * be thread-safe when several threads write; they may be NULL. The library keeps no list of its
  * own (no global state): without hooks an interrupted process may leave "*.tmpXXXXXX" files. */
 typedef struct pw_tmp_hooks {

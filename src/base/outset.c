@@ -181,8 +181,10 @@ pw_status pw_outset_mkdir(pw_outset *s, const char *dir, pw_error *err)
     char *copy = dup_str(dir);
     if (!copy)
         return pw_error_set(err, PW_ENOMEM, dir, 0, "out of memory");
+    hook_made(s, copy); /* hooks may remove it (an empty folder) if interrupted */
     if (mkdir(dir, 0777) != 0) {
         int e = errno;
+        hook_gone(s, copy);
         free(copy);
         if (e == EEXIST && stat(dir, &st) == 0 && S_ISDIR(st.st_mode))
             return PW_OK;
@@ -413,6 +415,7 @@ void pw_outset_free(pw_outset *s)
     for (size_t k = s->n_dirs; k-- > 0;) {
         if (!s->committed)
             rmdir(s->dirs[k]);
+        hook_gone(s, s->dirs[k]);
         free(s->dirs[k]);
     }
     for (size_t i = 0; i < s->n_in; i++)

@@ -1,4 +1,4 @@
-/* The program's registry of temporary output files, so that an interrupted run (SIGINT, SIGTERM,
+/* The program's registry of temporary output files (and of the folders made for outputs), so that an interrupted run (SIGINT, SIGTERM,
  * SIGHUP) leaves none behind. The library tells the registry about every temporary file through
  * the pw_tmp_hooks it is given (see pinchwise/fileio.h); the registry belongs to the program, not
  * to the library, which keeps no global state.
@@ -13,7 +13,9 @@
 #include <string.h>
 #include <unistd.h>
 
-#define TMP_SLOTS 64
+/* More than any command holds at once: a report with --force has at most 2 * (1 + 2 * 12)
+ * temporary files (page, plots and curves, each with the kept old file) and two folders. */
+#define TMP_SLOTS 256
 #define TMP_PATH (PW_PATH_MAX + 32)
 
 enum { SLOT_FREE, SLOT_BUSY, SLOT_READY };
@@ -66,9 +68,13 @@ const pw_tmp_hooks *pw_cli_tmp_hooks(void)
 
 static void on_signal(int sig)
 {
+    /* files first, then the folders an output set created (empty once their files are gone) */
     for (size_t i = 0; i < TMP_SLOTS; i++)
         if (atomic_load(&slots[i].state) == SLOT_READY)
             unlink(slots[i].path);
+    for (size_t i = TMP_SLOTS; i-- > 0;)
+        if (atomic_load(&slots[i].state) == SLOT_READY)
+            rmdir(slots[i].path);
     signal(sig, SIG_DFL);
     raise(sig);
 }
