@@ -229,8 +229,9 @@ int pw_cli_target_opt(const char *opt, const char *value, pw_cli_targets *t, pw_
         t->have_zf = true;
         return pw_cli_fraction(opt, value, &t->zf, err);
     }
-    if (!strcmp(opt, "--q"))
-        return pw_cli_number(opt, value, &t->q, err) == PW_OK ? 0 : PW_EXIT_USAGE;
+    if (!strcmp(opt, "--q")) /* liquid fraction of the feed: -10 (very hot vapor) to 10 (very
+                              * cold liquid) covers every real feed (docs/inputs.md) */
+        return pw_cli_ranged(opt, value, -10.0, 10.0, "the feed's liquid fraction q", &t->q, err);
     return -1;
 }
 

@@ -215,6 +215,11 @@ done
 for v in 1.5 -0.1 nan 1e300; do
   expect_usage "reflux --xd $v" "--xd $v" "$pw" reflux fit.json --pressure 1atm --xd "$v" --xb 0.05 --zf 0.4
 done
+for v in 1e300 -1e300 11 nan; do
+  expect_usage "reflux --q $v" "--q $v: expected the feed's liquid fraction q from -10 to 10" \
+    "$pw" reflux fit.json "${col[@]}" --q "$v"
+  expect_usage "report --q $v" "--q $v: expected" "$pw" report fit.json --out o.html "${col[@]}" --q "$v"
+done
 [ -e o.html ] && bad "a refused option wrote the report"
 # the limits themselves are accepted
 "$pw" fit data.csv --model wilson --out lim1.json --starts 1 --seed 4294967295 --exclude 8-9 > /dev/null 2>&1 \
