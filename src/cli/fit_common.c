@@ -176,14 +176,6 @@ static void warn_fit(const pw_fit_result *r, const char *input)
                              r->corr[a][b]);
 }
 
-static int ensure_dir(const char *dir, pw_error *err)
-{
-    if (mkdir(dir, 0777) == 0 || errno == EEXIST)
-        return 0;
-    pw_error_set(err, PW_EIO, dir, 0, "cannot create folder: %s", strerror(errno));
-    return pw_status_exit_code(PW_EIO);
-}
-
 int pw_fit_one(const char *input, const pw_model_type *model, const char *out, const char *out_dir,
                const pw_fit_cli_opts *co, pw_fit_result *r, char *path, size_t path_len,
                pw_error *err)
@@ -210,13 +202,13 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
         if (n < 0 || (size_t)n >= path_len)
             st = pw_error_set(err, PW_EINVAL, input, 0, "output path too long");
     }
-    if (st == PW_OK && !out && ensure_dir(out_dir ? out_dir : "fits", err) != 0)
-        st = err->status;
     /* The fit file may not be any input (by identity: links count), whatever --force says;
      * without --force it may not exist. Checked early, before the work, and again on writing. */
     pw_outset *set = NULL;
     if (st == PW_OK)
         st = pw_outset_new(co->force, pw_cli_tmp_hooks(), &set, err);
+    if (st == PW_OK && !out) /* made by the set: removed again if nothing is written */
+        st = pw_outset_mkdir(set, out_dir ? out_dir : "fits", err);
     if (st == PW_OK)
         st = pw_outset_protect(set, input, err);
     for (size_t k = 0; st == PW_OK && k < co->n_inputs; k++)
