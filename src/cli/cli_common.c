@@ -81,7 +81,9 @@ pw_status pw_cli_number(const char *opt, const char *text, double *value, pw_err
     char *end = NULL;
     errno = 0;
     double v = strtod(text, &end);
-    if (end == text || *end != '\0' || errno == ERANGE || !isfinite(v))
+    /* plain decimals only, as in the data files: no hexadecimal ("0x10"), no blanks */
+    bool decimal = text[strspn(text, "0123456789+-.eE")] == '\0';
+    if (!decimal || end == text || *end != '\0' || errno == ERANGE || !isfinite(v))
         return pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: not a finite number", opt, text);
     *value = v;
     return PW_OK;

@@ -181,7 +181,7 @@ fitx=("$pw" fit data.csv --model nrtl --out opt.json)
 for v in 0 0.5 1e300 1e9 -1 10001 abc 3x nan inf ""; do
   expect_usage "--starts '$v'" "--starts $v: expected a whole number from 1 to 10000" "${fitx[@]}" --starts "$v"
 done
-for v in 1e300 -1 0.5 4294967296 nan; do
+for v in 1e300 -1 0.5 4294967296 nan 0x10 " 5"; do
   expect_usage "fit --seed '$v'" "--seed $v: expected a whole number from 0 to 4294967295" "${fitx[@]}" --seed "$v"
 done
 for v in 99999999999999999999 1-99999999999999999999 0 -3 5-2 1-1000000 2,x 1e3; do
@@ -212,7 +212,7 @@ done
 for v in 1kPa:2kPa:1 1kPa:2kPa:2.5 1kPa:2kPa:1e9 1kPa:2kPa:nan; do
   expect_usage "azeotrope --scan $v" "--scan" "$pw" azeotrope fit.json --pressure 1atm --scan "$v"
 done
-for v in 1.5 -0.1 nan 1e300; do
+for v in 1.5 -0.1 nan 1e300 0x0.8; do
   expect_usage "reflux --xd $v" "--xd $v" "$pw" reflux fit.json --pressure 1atm --xd "$v" --xb 0.05 --zf 0.4
 done
 for v in 1e300 -1e300 11 nan; do
