@@ -118,7 +118,7 @@ if [ -f "$shim" ]; then
         PW_TEST_FSYNC_MARKER="$tmp/marker" PW_TEST_FSYNC_DELAY_MS=3000 PW_TEST_FSYNC_SKIP=$skip \
         exec "$pw" "${args[@]}" > /dev/null 2>&1) &
       pid=$!
-      for _ in $(seq 200); do [ -e marker ] && break; sleep 0.05; done
+      for _ in $(seq 1200); do [ -e marker ] && break; sleep 0.05; done # up to 60 s (sanitizers)
       ok
       [ -e marker ] || { bad "$sig $what: never reached fsync"; kill -KILL $pid; wait $pid; continue; }
       [ -n "$(find "int_$sig$what" -name '*.tmp??????')" ] || bad "$sig $what: no temporary file to remove"
