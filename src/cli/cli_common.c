@@ -1,5 +1,7 @@
 #include "cli.h"
 
+#include <pinchwise/dataset.h>
+
 #include <errno.h>
 #include <math.h>
 #include <stdarg.h>
@@ -73,6 +75,14 @@ pw_status pw_cli_quantity(pw_quantity q, const char *opt, const char *text, doub
         snprintf(inner, sizeof inner, "%s", err->msg);
         pw_error_set(err, st, NULL, 0, "%s %s: %s", opt, text, inner);
     }
+    /* the plausible ranges of the data files (docs/inputs.md) */
+    bool isT = q == PW_QTY_TEMPERATURE;
+    double lo = isT ? PW_DATASET_T_MIN_K : PW_DATASET_P_MIN_PA;
+    double hi = isT ? PW_DATASET_T_MAX_K : PW_DATASET_P_MAX_PA;
+    if (st == PW_OK && !(*si >= lo && *si <= hi))
+        st = pw_error_set(err, PW_EINVAL, NULL, 0,
+                          "%s %s: outside the plausible range %g to %g %s", opt, text, lo, hi,
+                          isT ? "K" : "Pa");
     return st;
 }
 

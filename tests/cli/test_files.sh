@@ -220,6 +220,16 @@ for v in 1e300 -1e300 11 nan; do
     "$pw" reflux fit.json "${col[@]}" --q "$v"
   expect_usage "report --q $v" "--q $v: expected" "$pw" report fit.json --out o.html "${col[@]}" --q "$v"
 done
+for v in 1e-300Pa 1e300Pa 1e11Pa; do
+  expect_usage "reflux --pressure $v" "--pressure $v: outside the plausible range 1e-06 to 1e+10 Pa" \
+    "$pw" reflux fit.json --pressure "$v" --xd 0.9 --xb 0.05 --zf 0.4
+  expect_usage "screen --swing-range $v" "--swing-range" \
+    "$pw" screen fit.json --pressure 1atm --xd 0.9 --xb 0.05 --swing-range "1kPa:$v"
+done
+for v in 0.5K 1e6K; do
+  expect_usage "azeotrope --temperature $v" "--temperature $v: outside the plausible range 1 to 5000 K" \
+    "$pw" azeotrope fit.json --temperature "$v"
+done
 [ -e o.html ] && bad "a refused option wrote the report"
 # the limits themselves are accepted
 "$pw" fit data.csv --model wilson --out lim1.json --starts 1 --seed 4294967295 --exclude 8-9 > /dev/null 2>&1 \
