@@ -6,6 +6,7 @@
 #include <errno.h>
 #include <math.h>
 #include <pinchwise/fitjson.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -43,7 +44,7 @@ static int parse_lines(const char *text, pw_fit_options *o, pw_error *err)
 {
     const char *p = text;
     while (*p) {
-        char *end;
+        char *end = (char *)(uintptr_t)p; /* "nothing read" unless strtol runs */
         errno = 0;
         long a = (*p >= '0' && *p <= '9') ? strtol(p, &end, 10) : 0, b = a;
         if (end == p || a <= 0 || a > EXCLUDE_MAX_LINE || errno == ERANGE)
@@ -53,6 +54,7 @@ static int parse_lines(const char *text, pw_fit_options *o, pw_error *err)
         p = end;
         if (*p == '-') {
             errno = 0;
+            end = (char *)(uintptr_t)(p + 1);
             b = (p[1] >= '0' && p[1] <= '9') ? strtol(p + 1, &end, 10) : 0;
             if (end == p + 1 || b < a || b > EXCLUDE_MAX_LINE || errno == ERANGE)
                 return pw_error_set(err, PW_EINVAL, NULL, 0,
