@@ -6,7 +6,9 @@
  *     equation   "antoine" (default) or "iapws-if97" (water only: IAPWS-IF97 region 4)
  *     V_L        liquid molar volume in cm3/mol near 25 C (used by Wilson's volume ratio)
  *     aliases    other names the component is found by, ";"-separated (e.g. "IPA; isopropanol")
- *     Tc_K, Pc_bar, omega   critical constants (informational; for later vapor corrections)
+ *     M_g_mol, Tc_K, Pc_kPa (or Pc_bar), omega, Zc, Vc_cm3_mol, dHvap_kJ_mol, cpL_J_molK,
+ *     cpV_J_molK, r, q, tsonopoulos_a, tsonopoulos_b
+ *                the pure-component constants of pw_comp_prop below (empty = unknown)
  * Antoine: log10(P) = A - B/(T + C) or ln(P) = A - B/(T + C), P in P_unit, T in T_unit. */
 #ifndef PINCHWISE_COMPONENT_H
 #define PINCHWISE_COMPONENT_H
@@ -26,6 +28,26 @@ extern "C" {
 typedef enum { PW_PSAT_ANTOINE = 0, PW_PSAT_IAPWS_IF97 = 1 } pw_psat_equation;
 typedef enum { PW_LOG10 = 0, PW_LN = 1 } pw_log_base;
 
+/* Optional pure-component constants, one per optional column of a component file. Stored in SI
+ * (molar mass kg/mol, temperature K, pressure Pa, volume m3/mol, energy J/mol, heat capacity
+ * J/(mol K)); NAN when unknown. */
+typedef enum pw_comp_prop {
+    PW_PROP_M,      /* M_g_mol: molar mass */
+    PW_PROP_TC,     /* Tc_K: critical temperature */
+    PW_PROP_PC,     /* Pc_kPa: critical pressure */
+    PW_PROP_OMEGA,  /* omega: acentric factor */
+    PW_PROP_ZC,     /* Zc: critical compressibility factor */
+    PW_PROP_VC,     /* Vc_cm3_mol: critical molar volume */
+    PW_PROP_DHVAP,  /* dHvap_kJ_mol: heat of vaporization at the normal boiling point */
+    PW_PROP_CPL,    /* cpL_J_molK: liquid molar heat capacity (constant) */
+    PW_PROP_CPV,    /* cpV_J_molK: ideal-gas molar heat capacity (constant) */
+    PW_PROP_R,      /* r: UNIQUAC volume parameter */
+    PW_PROP_Q,      /* q: UNIQUAC area parameter */
+    PW_PROP_TS_A,   /* tsonopoulos_a: polar parameter a of the Tsonopoulos correlation */
+    PW_PROP_TS_B,   /* tsonopoulos_b: polar parameter b of the Tsonopoulos correlation */
+    PW_PROP_COUNT
+} pw_comp_prop;
+
 /* One pure component. A plain value: copy it freely. */
 typedef struct pw_component {
     char name[PW_NAME_MAX];
@@ -38,6 +60,7 @@ typedef struct pw_component {
     double V_L_cm3mol;       /* liquid molar volume, NAN when unknown */
     char source[PW_SOURCE_MAX];
     char aliases[256];       /* other names, ";"-separated (optional column "aliases") */
+    double prop[PW_PROP_COUNT]; /* optional constants in SI, NAN when unknown (pw_comp_prop) */
     /* The units as affine maps to SI (si = (value + offset) * scale), filled by
      * pw_component_prepare so that pw_psat needs no unit lookup; 0 means not prepared (pw_psat
      * then looks the units up). The readers prepare every component they return. */
@@ -47,6 +70,21 @@ typedef struct pw_component {
 /* Fills the cached unit maps of c from its T_unit and P_unit; PW_EINVAL for an unknown unit.
  * Call again after changing the units. */
 pw_status pw_component_prepare(pw_component *c);
+
+/* Sets every optional constant of c to unknown (NAN). */
+void pw_component_props_clear(pw_component *c);
+
+/* The component-file column of an optional constant ("M_g_mol", ...), its factor from the column's
+ * unit to SI, and its plausible range in the column's unit; NULL / 0 for p out of range. */
+const char *pw_comp_prop_column(pw_comp_prop p);
+double pw_comp_prop_to_si(pw_comp_prop p);
+void pw_comp_prop_range(pw_comp_prop p, double *lo, double *hi);
+
+/* The constant p of c in SI. PW_ENOTFOUND when c does not know it; err then names the component
+ * and the column to add ("component 'water' has no M_g_mol (add the column to a --components
+ * file)"). */
+pw_status pw_component_require(const pw_component *c, pw_comp_prop p, double *si,
+                               pw_error *err);
 
 /* Saturation pressure P [Pa] at T [K] and d(ln P)/dT [1/K] (either output may be NULL).
  * Evaluates outside the validity range too (use pw_component_range_excess_K to know);

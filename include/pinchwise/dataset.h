@@ -71,7 +71,7 @@ pw_status pw_dataset_parse(const char *buf, size_t len, const char *name, pw_dat
 /* Frees the points; ds is left empty. Accepts NULL. */
 void pw_dataset_free(pw_dataset *ds);
 
-/* The SHA-256 of a buffer (OpenSSL libcrypto) as 32 bytes, and as 64 lowercase hex chars + NUL. */
+/* The SHA-256 of a buffer (libmd) as 32 bytes, and as 64 lowercase hex chars + NUL. */
 void pw_sha256(const void *buf, size_t len, unsigned char out[32]);
 void pw_sha256_hex(const unsigned char digest[32], char out[65]);
 

@@ -1,4 +1,5 @@
-/* Binary vapor-liquid equilibrium with modified Raoult's law: y_i P = x_i gamma_i P_i^sat.
+/* Binary vapor-liquid equilibrium: y_i Phi_i P = x_i gamma_i P_i^sat, with Phi_i = 1 for the
+ * ideal vapor (modified Raoult's law) or from the virial equation (include/pinchwise/vapor.h).
  *
  * A pw_system is a plain value: two components, an activity model and its parameters. All
  * solvers are bracketed and safeguarded (GSL roots); each returns a status and never a silent
@@ -9,6 +10,7 @@
 #include <pinchwise/component.h>
 #include <pinchwise/model.h>
 #include <pinchwise/status.h>
+#include <pinchwise/vapor.h>
 
 #ifdef __cplusplus
 extern "C" {
@@ -19,6 +21,7 @@ typedef struct pw_system {
     const pw_model_type *model;
     double params[PW_MAX_PARAMS];
     double T_ref_K; /* reference temperature of the Margules / van Laar temperature form */
+    pw_vapor_model vapor; /* PW_VAPOR_IDEAL (0, the default) or PW_VAPOR_VIRIAL */
 } pw_system;
 
 /* One equilibrium state. */
@@ -26,6 +29,7 @@ typedef struct pw_eq_point {
     double x1, y1, T_K, P_Pa;
     double gamma[2], Psat_Pa[2];
     int iterations;
+    double Phi[2]; /* vapor correction factors (1 for the ideal vapor) */
 } pw_eq_point;
 
 /* Activity of the liquid at (x1, T); forwards the model's status. */

@@ -48,6 +48,7 @@ typedef struct pw_fit_options {
     long exclude_lines[PW_FIT_MAX_EXCLUDE]; /* file line numbers to leave out */
     size_t n_exclude;
     char exclude_reason[256];
+    pw_vapor_model vapor;  /* PW_VAPOR_IDEAL (default) or PW_VAPOR_VIRIAL (needs critical data) */
 } pw_fit_options;
 
 /* Defaults as documented above. */

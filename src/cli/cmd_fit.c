@@ -27,6 +27,8 @@ static void usage(FILE *f)
             "  --force               replace an existing fit file\n"
             "  --alpha A             NRTL non-randomness when fixed (default 0.3)\n"
             "  --fit-alpha           NRTL: fit alpha as well\n"
+            "  --vapor MODEL         ideal (default) or virial (Tsonopoulos second virial\n"
+            "                        coefficients; needs Tc_K, Pc_kPa, omega, Zc, Vc_cm3_mol)\n"
             "  --starts N            candidate starts screened, 1 to 10000 (default 32)\n"
             "  --seed N              seed of the start points, 0 to 4294967295 (default 1)\n"
             "  --sigma-T DT          temperature uncertainty, e.g. 0.05K (default: file or 0.1 K)\n"
@@ -161,6 +163,12 @@ int pw_cli_fit(int argc, char **argv)
             co.force = true;
         } else if (pw_cli_opt(argc, argv, &i, "--fit-alpha", NULL, NULL)) {
             co.fit.fit_alpha = true;
+        } else if (pw_cli_opt(argc, argv, &i, "--vapor", &v, &missing)) {
+            if (missing)
+                return pw_cli_failf("fit", PW_EXIT_USAGE, "--vapor needs a value");
+            if (pw_vapor_parse(v, &co.fit.vapor) != PW_OK)
+                return pw_cli_failf("fit", PW_EXIT_USAGE,
+                                    "--vapor %s: unknown vapor model (expected ideal or virial)", v);
         } else if (pw_cli_opt(argc, argv, &i, "--model", &v, &missing) ||
                    pw_cli_opt(argc, argv, &i, "--components", &v, &missing) ||
                    pw_cli_opt(argc, argv, &i, "--out", &v, &missing) ||

@@ -4,6 +4,7 @@
 
 #include <errno.h>
 #include <math.h>
+#include <pinchwise/assess.h>
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/dataset.h>
 #include <pinchwise/fileio.h>
@@ -254,26 +255,24 @@ json_t *pw_fit_cli_json(const pw_fit_result *r, const char *path)
 typedef struct ranked {
     const pw_model_type *model;
     pw_fit_result r;
-    pw_az_result az;
-    bool az_ok;
     char path[PW_PATH_MAX];
     int rc;
     pw_error err;
 } ranked;
 
-static int cmp_aicc(const void *a, const void *b)
+static json_t *az_json(const pw_rank_row *w)
 {
-    const ranked *x = a, *y = b;
-    if (x->rc != y->rc)
-        return x->rc == 0 ? -1 : 1;
-    if (x->rc != 0)
-        return 0;
-    /* non-converged or split fits rank after the sound ones */
-    int bx = !x->r.converged || x->r.split, by = !y->r.converged || y->r.split;
-    if (bx != by)
-        return bx - by;
-    double ax = x->r.aicc, ay = y->r.aicc;
-    return (ax > ay) - (ax < ay);
+    if (w->az_status != PW_OK)
+        return json_null();
+    json_t *azs = json_array();
+    for (size_t k = 0; k < w->az.n; k++)
+        json_array_append_new(azs, json_pack("{s:o,s:o,s:o,s:s}", "x1", pw_cli_json_num(w->az.az[k].x1),
+                                             "T_K", pw_cli_json_num(w->az.az[k].T_K), "P_kPa",
+                                             pw_cli_json_num(w->az.az[k].P_Pa / 1e3), "kind",
+                                             w->az.az[k].kind == PW_AZ_MINIMUM_BOILING
+                                                 ? "minimum-boiling"
+                                                 : "maximum-boiling"));
+    return azs;
 }
 
 int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_opts *co)
@@ -297,107 +296,99 @@ int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_o
                  res[i].rc == 0 ? "fitted" : "failed");
         pw_cli_progress_line("fit", what, i + 1, n);
     }
-    for (size_t i = 0; i < n; i++)
-        if (res[i].rc == 0) {
-            const pw_fit_result *r = &res[i].r;
-            bool isobaric = r->kind == PW_DATA_ISOBARIC;
-            res[i].az_ok = pw_azeotrope_find(&r->sys, isobaric ? PW_AZ_ISOBARIC : PW_AZ_ISOTHERMAL,
-                                             isobaric ? r->P_fixed_Pa : r->T_fixed_K, NULL,
-                                             &res[i].az) == PW_OK;
-        }
-    qsort(res, n, sizeof *res, cmp_aicc);
-    /* Judge the models where the design is decided: the azeotrope. Models within delta-AICc < 10
-     * of the best that place it more than 0.01 apart in x1 (or disagree on its existence) are a
-     * model risk worth a warning. */
-    double xlo = INFINITY, xhi = -INFINITY;
-    size_t with = 0, without = 0;
-    for (size_t i = 0; i < n; i++) {
-        if (res[i].rc != 0 || !res[i].az_ok || !(res[i].r.aicc - res[0].r.aicc < 10.0))
-            continue;
-        if (res[i].az.n == 0)
-            without++;
-        for (size_t k = 0; k < res[i].az.n; k++) {
-            with += k == 0;
-            xlo = fmin(xlo, res[i].az.az[k].x1);
-            xhi = fmax(xhi, res[i].az.az[k].x1);
-        }
+    /* One ranking rule (include/pinchwise/assess.h): sound fits by AICc, each model's azeotrope
+     * at the data's condition, and the model risk among the considered fits. */
+    const pw_fit_result *fits[PW_RANK_MAX];
+    size_t nf = 0;
+    for (size_t i = 0; i < n && nf < PW_RANK_MAX; i++)
+        if (res[i].rc == 0)
+            fits[nf++] = &res[i].r;
+    pw_ranking *rk = calloc(1, sizeof *rk);
+    if (!rk) {
+        for (size_t i = 0; i < n; i++)
+            pw_fit_result_free(&res[i].r);
+        free(res);
+        return pw_cli_failf("fit", pw_status_exit_code(PW_ENOMEM), "out of memory");
     }
-    if (with && without)
+    if (nf > 0 && pw_rank_assess(fits, nf, NULL, rk) != PW_OK)
+        rk->n = 0;
+    /* fits[k] is res[map[k]] */
+    size_t map[PW_RANK_MAX], k = 0;
+    for (size_t i = 0; i < n && k < PW_RANK_MAX; i++)
+        if (res[i].rc == 0)
+            map[k++] = i;
+    if (rk->az_existence_differs)
         pw_cli_warnf("fit", "%s: models that fit about equally well disagree on whether an azeotrope "
                      "exists at the data's condition", input);
-    else if (with > 1 && xhi - xlo > 0.01)
+    else if (rk->az_place_differs)
         pw_cli_warnf("fit", "%s: models that fit about equally well place the azeotrope between x1 = "
                      "%.3f and %.3f: judge them near the azeotrope, not by AAD alone",
-                     input, xlo, xhi);
+                     input, rk->az_x_lo, rk->az_x_hi);
     int rc = 0;
-    double best_aicc = res[0].rc == 0 ? res[0].r.aicc : (double)NAN;
     if (co->json) {
         json_t *o = json_object();
-        json_object_set_new(o, "ranking", json_string("AICc (Hurvich & Tsai 1989); fits that did not "
-                                                      "converge or predict a liquid split rank last"));
+        json_object_set_new(o, "ranking", json_string("sound fits (converged, no liquid split) by AICc "
+                                                      "(Hurvich & Tsai 1989), classes after Burnham & "
+                                                      "Anderson (2002); unsound fits rank last"));
         json_t *arr = json_array(), *failed = json_array();
-        for (size_t i = 0; i < n; i++) {
-            if (res[i].rc != 0) {
-                char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
-                json_t *f = json_object();
-                json_object_set_new(f, "model", json_string(res[i].model->name));
-                json_object_set_new(f, "error", json_string(pw_error_format(&res[i].err, buf, sizeof buf)));
-                json_array_append_new(failed, f);
-                continue;
-            }
-            json_t *m = pw_fit_cli_json(&res[i].r, res[i].path);
-            json_object_set_new(m, "rank", json_integer((json_int_t)i + 1));
-            json_object_set_new(m, "delta_aicc", pw_cli_json_num(res[i].r.aicc - best_aicc));
-            json_t *azs = json_array();
-            for (size_t k = 0; res[i].az_ok && k < res[i].az.n; k++)
-                json_array_append_new(azs, json_pack("{s:o,s:o,s:o,s:s}", "x1",
-                                                     pw_cli_json_num(res[i].az.az[k].x1), "T_K",
-                                                     pw_cli_json_num(res[i].az.az[k].T_K), "P_kPa",
-                                                     pw_cli_json_num(res[i].az.az[k].P_Pa / 1e3),
-                                                     "kind",
-                                                     res[i].az.az[k].kind == PW_AZ_MINIMUM_BOILING
-                                                         ? "minimum-boiling"
-                                                         : "maximum-boiling"));
-            json_object_set_new(m, "azeotropes_at_data_condition",
-                                res[i].az_ok ? azs : (json_decref(azs), json_null()));
+        for (size_t j = 0; j < rk->n; j++) {
+            const pw_rank_row *w = &rk->rows[j];
+            const ranked *q = &res[map[w->index]];
+            json_t *m = pw_fit_cli_json(&q->r, q->path);
+            json_object_set_new(m, "rank", json_integer((json_int_t)j + 1));
+            json_object_set_new(m, "delta_aicc", pw_cli_json_num(w->delta_aicc));
+            json_object_set_new(m, "class", json_string(pw_rank_class_name(w->cls)));
+            json_object_set_new(m, "akaike_weight", pw_cli_json_num(w->weight));
+            json_object_set_new(m, "azeotropes_at_data_condition", az_json(w));
             json_array_append_new(arr, m);
+        }
+        for (size_t i = 0; i < n; i++) {
+            if (res[i].rc == 0)
+                continue;
+            char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
+            json_t *f = json_object();
+            json_object_set_new(f, "model", json_string(res[i].model->name));
+            json_object_set_new(f, "error", json_string(pw_error_format(&res[i].err, buf, sizeof buf)));
+            json_array_append_new(failed, f);
         }
         json_object_set_new(o, "models", arr);
         json_object_set_new(o, "failed", failed);
-        json_object_set_new(o, "best", ok ? json_string(res[0].model->name) : json_null());
+        json_object_set_new(o, "best", rk->n ? json_string(rk->rows[0].fit->sys.model->name) : json_null());
         rc = pw_cli_print_json(o);
     } else {
-        printf("models ranked by AICc (lower is better; delta < 2: indistinguishable, > 10: no "
-               "support; Burnham & Anderson 2002)\n");
-        printf("  %-4s %-9s %9s %10s %10s %10s %10s  %s\n", "rank", "model", "dAICc", "AAD y",
-               "AAD T/K", "AAD P/kPa", "x1 azeo.", "notes");
-        for (size_t i = 0; i < n; i++) {
-            if (res[i].rc != 0) {
-                char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
-                printf("  %-4s %-9s  failed: %s\n", "-", res[i].model->name,
-                       pw_error_format(&res[i].err, buf, sizeof buf));
-                continue;
-            }
-            const pw_fit_result *r = &res[i].r;
-            char cy[16], cT[16], cP[16];
+        printf("models ranked by AICc (dAICc = AICc - AICc of the best; lower is better; < 2: the data "
+               "cannot tell them apart, >= 10: no support; Burnham & Anderson 2002)\n");
+        printf("  %-4s %-9s %9s %-17s %10s %10s %10s %10s  %s\n", "rank", "model", "dAICc", "class",
+               "AAD y", "AAD T/K", "AAD P/kPa", "x1 azeo.", "notes");
+        for (size_t j = 0; j < rk->n; j++) {
+            const pw_rank_row *w = &rk->rows[j];
+            const pw_fit_result *r = w->fit;
+            char cy[16], cT[16], cP[16], cd[16];
             snprintf(cy, sizeof cy, isfinite(r->dev_y.aad) ? "%.4f" : "-", r->dev_y.aad);
             snprintf(cT, sizeof cT, isfinite(r->dev_T_K.aad) ? "%.3f" : "-", r->dev_T_K.aad);
             snprintf(cP, sizeof cP, isfinite(r->dev_P_Pa.aad) ? "%.4f" : "-", r->dev_P_Pa.aad / 1e3);
+            snprintf(cd, sizeof cd, isfinite(w->delta_aicc) ? "%.2f" : "-", w->delta_aicc);
             char ca[32] = "none";
-            if (!res[i].az_ok)
+            if (w->az_status != PW_OK)
                 snprintf(ca, sizeof ca, "?");
-            else if (res[i].az.n == 1)
-                snprintf(ca, sizeof ca, "%.4f", res[i].az.az[0].x1);
-            else if (res[i].az.n > 1)
-                snprintf(ca, sizeof ca, "%.3f,%.3f", res[i].az.az[0].x1, res[i].az.az[1].x1);
-            printf("  %-4zu %-9s %9.2f %10s %10s %10s %10s  %s%s\n", i + 1, r->sys.model->name,
-                   r->aicc - best_aicc, cy, cT, cP, ca, r->converged ? "" : "not converged ",
+            else if (w->az.n == 1)
+                snprintf(ca, sizeof ca, "%.4f", w->az.az[0].x1);
+            else if (w->az.n > 1)
+                snprintf(ca, sizeof ca, "%.3f,%.3f", w->az.az[0].x1, w->az.az[1].x1);
+            printf("  %-4zu %-9s %9s %-17s %10s %10s %10s %10s  %s%s\n", j + 1, r->sys.model->name, cd,
+                   pw_rank_class_name(w->cls), cy, cT, cP, ca, r->converged ? "" : "not converged ",
                    r->split ? "liquid split predicted" : "");
         }
-        for (size_t i = 0; i < n; i++)
-            if (res[i].rc == 0)
-                printf("  fit file: %s\n", res[i].path);
+        for (size_t i = 0; i < n; i++) {
+            char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
+            if (res[i].rc != 0)
+                printf("  %-4s %-9s  failed: %s\n", "-", res[i].model->name,
+                       pw_error_format(&res[i].err, buf, sizeof buf));
+        }
+        for (size_t j = 0; j < rk->n; j++)
+            printf("  fit file: %s\n", res[map[rk->rows[j].index]].path);
     }
+    free(rk);
     if (ok == 0) {
         rc = pw_cli_fail("fit", &res[0].err);
     }

@@ -15,9 +15,15 @@
 static const char *const required_cols[] = {"name", "A", "B", "C", "log", "P_unit",
                                             "T_unit", "T_min", "T_max", "source"};
 enum { N_REQUIRED = 10 };
-enum { COL_EQUATION, COL_VL, COL_TC, COL_PC, COL_OMEGA, N_OPTIONAL };
-static const char *const optional_cols[N_OPTIONAL] = {"equation", "V_L", "Tc_K", "Pc_bar",
-                                                      "omega"};
+/* Optional columns: equation, V_L, Pc_bar (an older spelling of Pc_kPa), then one per
+ * pw_comp_prop in the order of that enum (names from pw_comp_prop_column). */
+enum { COL_EQUATION, COL_VL, COL_PC_BAR, COL_PROP0, N_OPTIONAL = COL_PROP0 + PW_PROP_COUNT };
+
+static const char *optional_col(int k)
+{
+    static const char *const fixed[COL_PROP0] = {"equation", "V_L", "Pc_bar"};
+    return k < COL_PROP0 ? fixed[k] : pw_comp_prop_column((pw_comp_prop)(k - COL_PROP0));
+}
 
 typedef struct {
     const char *name;
@@ -66,15 +72,18 @@ static pw_status header_row(reader *rd, char **f, size_t n, long line, pw_error 
         rd->opt[k] = -1;
     for (size_t i = N_REQUIRED; i < n; i++) {
         for (size_t k = 0; k < N_OPTIONAL; k++) {
-            if (strcmp(f[i], optional_cols[k]) != 0)
+            if (strcmp(f[i], optional_col((int)k)) != 0)
                 continue;
             if (rd->opt[k] >= 0)
                 return pw_error_set(err, PW_EPARSE, rd->name, line,
                                     "column '%s' appears twice (expected it at most once)",
-                                    optional_cols[k]);
+                                    optional_col((int)k));
             rd->opt[k] = (long)i;
         }
     }
+    if (rd->opt[COL_PC_BAR] >= 0 && rd->opt[COL_PROP0 + PW_PROP_PC] >= 0)
+        return pw_error_set(err, PW_EPARSE, rd->name, line,
+                            "columns Pc_bar and Pc_kPa both given (expected one of them)");
     rd->aliases_col = -1;
     for (size_t i = N_REQUIRED; i < n; i++)
         if (strcmp(f[i], "aliases") == 0) {
@@ -120,7 +129,37 @@ static pw_status optional_number(reader *rd, char **f, int k, long line, double 
     *out = NAN;
     if (rd->opt[k] < 0 || f[rd->opt[k]][0] == '\0')
         return PW_OK;
-    return number_field(rd, f, (size_t)rd->opt[k], optional_cols[k], line, out, err);
+    return number_field(rd, f, (size_t)rd->opt[k], optional_col(k), line, out, err);
+}
+
+/* The optional constants of one row, converted to SI and checked against their plausible ranges. */
+static pw_status component_props(reader *rd, char **f, long line, pw_component *c, pw_error *err)
+{
+    pw_component_props_clear(c);
+    pw_status st;
+    for (int p = 0; p < PW_PROP_COUNT; p++) {
+        int k = COL_PROP0 + p;
+        double scale = 1.0;
+        if (p == PW_PROP_PC && rd->opt[k] < 0) {
+            k = COL_PC_BAR;
+            scale = 100.0; /* bar -> kPa */
+        }
+        double v;
+        if ((st = optional_number(rd, f, k, line, &v, err)))
+            return st;
+        if (isnan(v))
+            continue;
+        v *= scale;
+        double lo, hi;
+        pw_comp_prop_range((pw_comp_prop)p, &lo, &hi);
+        if (!(v > lo && v < hi))
+            return pw_error_set(err, PW_EPARSE, rd->name, line,
+                                "%s = %g is outside the plausible range (expected %g to %g, or "
+                                "empty when unknown)",
+                                pw_comp_prop_column((pw_comp_prop)p), v, lo, hi);
+        c->prop[p] = v * pw_comp_prop_to_si((pw_comp_prop)p);
+    }
+    return PW_OK;
 }
 
 static pw_status component_row(reader *rd, char **f, size_t n, long line, pw_error *err)
@@ -206,10 +245,8 @@ static pw_status component_row(reader *rd, char **f, size_t n, long line, pw_err
     if (rd->aliases_col >= 0 &&
         (st = copy_text(rd, c.aliases, sizeof c.aliases, f[rd->aliases_col], "aliases", line, err)))
         return st;
-    double ignored;
-    for (int k = COL_TC; k < N_OPTIONAL; k++)
-        if ((st = optional_number(rd, f, k, line, &ignored, err)))
-            return st;
+    if ((st = component_props(rd, f, line, &c, err)))
+        return st;
     return add_row(rd, &c, line, err);
 }
 

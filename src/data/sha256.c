@@ -1,16 +1,16 @@
-/* SHA-256 of a buffer through OpenSSL's EVP interface (FIPS 180-4). */
+/* SHA-256 of a buffer (FIPS 180-4) through libmd, a small maintained message-digest library
+ * (Debian's libmd-dev): no crypto-library initialisation for one hash per fit file. */
 #include <pinchwise/dataset.h>
 
-#include <openssl/evp.h>
+#include <sha2.h>
 #include <string.h>
 
 void pw_sha256(const void *buf, size_t len, unsigned char out[32])
 {
-    unsigned int n = 0;
-    /* EVP_Digest only fails on allocation failure inside OpenSSL; then the digest is zeroed so
-     * that it can never match a real file. */
-    if (EVP_Digest(buf, len, out, &n, EVP_sha256(), NULL) != 1 || n != 32)
-        memset(out, 0, 32);
+    SHA2_CTX ctx;
+    SHA256Init(&ctx);
+    SHA256Update(&ctx, buf, len);
+    SHA256Final(out, &ctx);
 }
 
 void pw_sha256_hex(const unsigned char digest[32], char out[65])

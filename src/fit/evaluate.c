@@ -33,18 +33,26 @@ static void stat_done(pw_fit_stat *s, size_t n, bool measured)
     s->bias /= (double)n;
 }
 
-/* ln gamma_i from one measurement, modified Raoult's law: gamma_i = y_i P / (x_i P_i^sat(T)). */
+/* ln gamma_i from one measurement: gamma_i = y_i Phi_i P / (x_i P_i^sat(T)), Phi_i = 1 for the
+ * ideal vapor (modified Raoult's law), else at the measured y, T and P. */
 static void lngamma_from_point(const pw_system *s, const pw_point *p, bool has_y, double out[2])
 {
     out[0] = out[1] = NAN;
     if (!has_y)
         return;
-    double x[2] = {p->x1, 1.0 - p->x1}, y[2] = {p->y1, 1.0 - p->y1};
-    for (int i = 0; i < 2; i++) {
-        double Ps;
-        if (x[i] > 0.0 && y[i] > 0.0 && pw_psat(&s->comp[i], p->T_K, &Ps, NULL) == PW_OK)
-            out[i] = log(y[i] * p->P_Pa / (x[i] * Ps));
+    double x[2] = {p->x1, 1.0 - p->x1}, y[2] = {p->y1, 1.0 - p->y1}, Ps[2], Phi[2] = {1.0, 1.0};
+    for (int i = 0; i < 2; i++)
+        if (pw_psat(&s->comp[i], p->T_K, &Ps[i], NULL) != PW_OK)
+            return;
+    double B[3];
+    if (s->vapor == PW_VAPOR_VIRIAL) {
+        if (pw_virial_B(&s->comp[0], &s->comp[1], p->T_K, B) != PW_OK)
+            return;
+        pw_vapor_phi(s->vapor, B, p->T_K, p->P_Pa, p->y1, Ps, Phi);
     }
+    for (int i = 0; i < 2; i++)
+        if (x[i] > 0.0 && y[i] > 0.0)
+            out[i] = log(y[i] * Phi[i] * p->P_Pa / (x[i] * Ps[i]));
 }
 
 pw_status pw_fit_evaluate(pw_fit_result *r)

@@ -247,6 +247,14 @@ static pw_status init_result(const pw_dataset *ds, const pw_component *c1, const
             v = c2->V_L_cm3mol / c1->V_L_cm3mol;
         r->sys.params[iv] = isfinite(v) && v > 0.0 ? v : 1.0;
     }
+    r->sys.vapor = o->vapor;
+    pw_status vst = pw_vapor_check(o->vapor, c1, c2, err);
+    if (vst != PW_OK) {
+        char why[PW_ERROR_MSG_MAX];
+        snprintf(why, sizeof why, "%s", err ? err->msg : "");
+        return pw_error_set(err, vst, ds->path, 0, "--vapor %s needs critical data: %s",
+                            pw_vapor_name(o->vapor), why);
+    }
     for (size_t k = 0; k < model->n_params; k++)
         r->n_fitted += r->fitted[k];
     r->kind = ds->kind;

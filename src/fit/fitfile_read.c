@@ -60,6 +60,37 @@ static const char *get_str(reader *rd, const json_t *obj, const char *key)
 
 static void copy_str(char *dst, size_t n, const char *src) { snprintf(dst, n, "%s", src); }
 
+/* The optional "constants" object of a component (absent in older fit files): every key must be
+ * a column of pw_comp_prop, every value a number inside its plausible range. */
+static void read_constants(reader *rd, const json_t *obj, pw_component *out)
+{
+    pw_component_props_clear(out);
+    if (!obj)
+        return;
+    if (!json_is_object(obj)) {
+        fail(rd, "component \"%s\": \"constants\" must be an object", out->name);
+        return;
+    }
+    const char *key;
+    const json_t *v;
+    json_object_foreach((json_t *)obj, key, v) {
+        int p = 0;
+        while (p < PW_PROP_COUNT && strcmp(key, pw_comp_prop_column((pw_comp_prop)p)) != 0)
+            p++;
+        if (p == PW_PROP_COUNT) {
+            fail(rd, "component \"%s\": unknown constant \"%s\"", out->name, key);
+            return;
+        }
+        double lo, hi, d = get_num(rd, obj, key, false);
+        pw_comp_prop_range((pw_comp_prop)p, &lo, &hi);
+        if (rd->st == PW_OK && !(d > lo && d < hi)) {
+            fail(rd, "component \"%s\": %s = %g is outside %g to %g", out->name, key, d, lo, hi);
+            return;
+        }
+        out->prop[p] = d * pw_comp_prop_to_si((pw_comp_prop)p);
+    }
+}
+
 static void read_component(reader *rd, const json_t *c, pw_component *out)
 {
     memset(out, 0, sizeof *out);
@@ -97,10 +128,27 @@ static void read_component(reader *rd, const json_t *c, pw_component *out)
     out->T_max_K = get_num(rd, c, "T_max_K", false);
     out->V_L_cm3mol = get_num(rd, c, "V_L_cm3mol", true);
     copy_str(out->source, sizeof out->source, get_str(rd, c, "source"));
+    read_constants(rd, json_object_get(c, "constants"), out);
     if (rd->st == PW_OK)
         pw_component_prepare(out); /* units were checked above */
     if (rd->st == PW_OK && !(out->T_min_K < out->T_max_K))
         fail(rd, "component \"%s\": T_min_K must be below T_max_K", out->name);
+}
+
+/* The optional "vapor" key (absent in older fit files: the ideal vapor). A virial vapor needs the
+ * components' critical data, which the file must then carry. */
+static void read_vapor(reader *rd, const json_t *v, pw_system *sys)
+{
+    sys->vapor = PW_VAPOR_IDEAL;
+    if (!v || rd->st != PW_OK)
+        return;
+    if (!json_is_string(v) || pw_vapor_parse(json_string_value(v), &sys->vapor) != PW_OK) {
+        fail(rd, "key \"vapor\" must be \"ideal\" or \"virial\"");
+        return;
+    }
+    pw_error e;
+    if (pw_vapor_check(sys->vapor, &sys->comp[0], &sys->comp[1], &e) != PW_OK)
+        fail(rd, "\"vapor\" is virial but %s", e.msg);
 }
 
 static void read_params(reader *rd, const json_t *obj, const pw_model_type *m, double *v,
@@ -241,6 +289,7 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
     read_matrix(rd, root, "covariance", m->n_params, r->cov);
     read_matrix(rd, root, "correlation", m->n_params, r->corr);
     r->sys.T_ref_K = get_num(rd, root, "T_ref_K", false);
+    read_vapor(rd, json_object_get(root, "vapor"), &r->sys);
     r->converged = json_is_true(json_object_get(root, "converged"));
     if (rd->st == PW_OK && m->check(r->sys.params) != PW_OK)
         fail(rd, "the parameters lie outside the domain of model %s", m->name);

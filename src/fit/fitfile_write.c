@@ -53,6 +53,13 @@ static json_t *component_json(const pw_component *c)
     json_object_set_new(o, "T_max_K", num(c->T_max_K));
     json_object_set_new(o, "V_L_cm3mol", num(c->V_L_cm3mol));
     json_object_set_new(o, "source", json_string(c->source));
+    /* the optional constants it was fitted with, in the component file's columns and units */
+    json_t *props = json_object();
+    for (int p = 0; p < PW_PROP_COUNT; p++)
+        if (pw_component_require(c, (pw_comp_prop)p, NULL, NULL) == PW_OK)
+            json_object_set_new(props, pw_comp_prop_column((pw_comp_prop)p),
+                                num(c->prop[p] / pw_comp_prop_to_si((pw_comp_prop)p)));
+    json_object_set_new(o, "constants", props);
     return o;
 }
 
@@ -97,6 +104,7 @@ json_t *pw_fitfile_summary_json(const pw_fit_result *r)
     json_array_append_new(lgi, num(r->lngamma_inf[1]));
     json_object_set_new(o, "ln_gamma_inf", lgi);
     json_object_set_new(o, "T_ref_K", num(r->sys.T_ref_K));
+    json_object_set_new(o, "vapor", json_string(pw_vapor_name(r->sys.vapor)));
     json_object_set_new(o, "aad_y", r->has_y ? num(r->dev_y.aad) : json_null());
     json_object_set_new(o, "aad_T_K", r->kind == PW_DATA_ISOBARIC ? num(r->dev_T_K.aad) : json_null());
     json_object_set_new(o, "aad_P_kPa",

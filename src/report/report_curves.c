@@ -18,57 +18,10 @@ static pw_status bubble(const pw_system *s, bool isothermal, double fixed, doubl
     return isothermal ? pw_bubble_P(s, fixed, x, e) : pw_bubble_T(s, fixed, x, e);
 }
 
-static double y_minus_x(const pw_system *s, bool isothermal, double fixed, double x, bool *ok)
-{
-    pw_eq_point e;
-    *ok = bubble(s, isothermal, fixed, x, &e) == PW_OK && isfinite(e.y1);
-    return *ok ? e.y1 - x : PW_NAN;
-}
-
-/* Fallback azeotrope search: interior sign changes of y - x on the grid values ymx, refined by bisection on
- * the bubble point. y - x going from + to - with rising x is a minimum-boiling (maximum-
- * pressure) azeotrope, from - to + a maximum-boiling one. */
-static size_t find_azeotropes(const pw_system *s, bool isothermal, double fixed, const double *x,
-                              const double *ymx, size_t n, pw_report_az *out, size_t max)
-{
-    size_t k = 0;
-    for (size_t i = 1; i + 2 < n && k < max; i++) {
-        double a = x[i], b = x[i + 1], fa = ymx[i], fb = ymx[i + 1];
-        if (!isfinite(fa) || !isfinite(fb) || fa == 0.0 || (fa > 0.0) == (fb > 0.0))
-            continue;
-        bool ok = true;
-        for (int it = 0; it < 60 && ok && b - a > 1e-13; it++) {
-            double m = 0.5 * (a + b);
-            double fm = y_minus_x(s, isothermal, fixed, m, &ok);
-            if (!ok)
-                break;
-            if ((fm > 0.0) == (fa > 0.0)) {
-                a = m;
-                fa = fm;
-            } else {
-                b = m;
-            }
-        }
-        if (!ok)
-            continue;
-        pw_eq_point e;
-        double xa = 0.5 * (a + b);
-        if (bubble(s, isothermal, fixed, xa, &e) != PW_OK)
-            continue;
-        out[k].x1 = xa;
-        out[k].T_K = e.T_K;
-        out[k].P_Pa = e.P_Pa;
-        out[k].min_boiling = ymx[i] > 0.0;
-        k++;
-    }
-    return k;
-}
-
-/* The azeotropes: from the azeotrope module (Brent on ln alpha12, see azeotrope.h); should it fail,
- * from the bisection above on the plotted grid, and *from_module says which. */
-static size_t azeotropes(const pw_system *s, bool isothermal, double fixed, const double *x,
-                         const double *ymx, pw_report_az *out, size_t max, bool *from_module,
-                         pw_az_result *kept)
+/* The azeotropes, from the azeotrope module (Brent on ln alpha12, see azeotrope.h); *from_module
+ * is false when its search failed (the page then says so; no other search is made here). */
+static size_t azeotropes(const pw_system *s, bool isothermal, double fixed, pw_report_az *out,
+                         size_t max, bool *from_module, pw_az_result *kept)
 {
     pw_az_result res;
     pw_status st = pw_azeotrope_find(s, isothermal ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC, fixed, NULL,
@@ -77,7 +30,7 @@ static size_t azeotropes(const pw_system *s, bool isothermal, double fixed, cons
     if (st == PW_OK)
         *kept = res;
     if (st != PW_OK)
-        return find_azeotropes(s, isothermal, fixed, x, ymx, PW_REPORT_GRID, out, max);
+        return 0;
     size_t k = 0;
     for (size_t i = 0; i < res.n && k < max; i++, k++) {
         out[k].x1 = res.az[i].x1;
@@ -94,17 +47,15 @@ static void data_curves(pw_report_curves *c)
     const pw_fit_result *r = c->fit;
     const pw_system *s = &r->sys;
     double fixed = c->isothermal ? r->T_fixed_K : r->P_fixed_Pa;
-    double ymx[PW_REPORT_GRID];
     for (size_t i = 0; i < PW_REPORT_GRID; i++) {
         double x = c->x[i];
         pw_eq_point e;
-        c->bub_T[i] = c->bub_P[i] = c->bub_y[i] = ymx[i] = PW_NAN;
+        c->bub_T[i] = c->bub_P[i] = c->bub_y[i] = PW_NAN;
         c->lg1[i] = c->lg2[i] = PW_NAN;
         if (bubble(s, c->isothermal, fixed, x, &e) == PW_OK) {
             c->bub_T[i] = e.T_K;
             c->bub_P[i] = e.P_Pa;
             c->bub_y[i] = e.y1;
-            ymx[i] = e.y1 - x;
         } else {
             c->n_failed++;
         }
@@ -126,8 +77,8 @@ static void data_curves(pw_report_curves *c)
             c->n_failed++;
         }
     }
-    c->n_az = azeotropes(s, c->isothermal, fixed, c->x, ymx, c->az, PW_REPORT_MAX_AZ,
-                         &c->az_from_module, &c->az_res);
+    c->n_az = azeotropes(s, c->isothermal, fixed, c->az, PW_REPORT_MAX_AZ, &c->az_from_module,
+                         &c->az_res);
     c->az_res_ok = c->az_from_module;
 }
 
@@ -178,20 +129,18 @@ static pw_status column(pw_report_curves *c, const pw_report_input *in)
     if (st != PW_OK)
         return st;
     pw_curve curve = pw_system_curve_bind(&sc);
-    double ymx[PW_REPORT_GRID];
     for (size_t i = 0; i < PW_REPORT_GRID; i++) {
         double y;
-        c->col_y[i] = ymx[i] = PW_NAN;
+        c->col_y[i] = PW_NAN;
         if (curve.y_of_x(curve.ctx, c->x[i], &y) == PW_OK && isfinite(y)) {
             c->col_y[i] = y;
-            ymx[i] = y - c->x[i];
         } else {
             c->n_failed++;
         }
     }
     bool from_module = false;
-    c->n_col_az = azeotropes(s, false, c->P_col_Pa, c->x, ymx, c->col_az, PW_REPORT_MAX_AZ,
-                             &from_module, &c->col_az_res);
+    c->n_col_az = azeotropes(s, false, c->P_col_Pa, c->col_az, PW_REPORT_MAX_AZ, &from_module,
+                             &c->col_az_res);
     c->col_az_res_ok = from_module;
     c->az_from_module = c->az_from_module && from_module;
     pw_eq_point e;
@@ -257,6 +206,26 @@ static void consistency(pw_report_curves *c)
     free(ds.pts);
 }
 
+/* The report's fit and the others of the same data, ranked by the library's one rule, each with
+ * its azeotrope at the data's condition and, with a column, its R_min. */
+static pw_status rank_models(pw_report_curves *c, const pw_report_input *in)
+{
+    c->rank_status = PW_EINVAL;
+    if (!in->others || in->n_others == 0)
+        return PW_OK;
+    const pw_fit_result *fits[PW_RANK_MAX];
+    size_t n = 0;
+    fits[n++] = c->fit;
+    for (size_t i = 0; i < in->n_others && n < PW_RANK_MAX; i++)
+        fits[n++] = in->others[i];
+    c->rank = calloc(1, sizeof *c->rank);
+    if (!c->rank)
+        return PW_ENOMEM;
+    pw_rank_column col = {c->spec, c->P_col_Pa};
+    c->rank_status = pw_rank_assess(fits, n, c->column ? &col : NULL, c->rank);
+    return PW_OK;
+}
+
 pw_status pw_report_curves_compute(pw_report_curves *c, const pw_report_input *in)
 {
     memset(c, 0, sizeof *c);
@@ -279,7 +248,7 @@ pw_status pw_report_curves_compute(pw_report_curves *c, const pw_report_input *i
         if (st != PW_OK)
             return st;
     }
-    return PW_OK;
+    return rank_models(c, in);
 }
 
 void pw_report_curves_free(pw_report_curves *c)
@@ -291,4 +260,6 @@ void pw_report_curves_free(pw_report_curves *c)
     c->cons_ran = false;
     free(c->band_y);
     c->band_y = NULL;
+    free(c->rank);
+    c->rank = NULL;
 }

@@ -43,7 +43,12 @@ static const char *const STYLE =
     "aside.pw-caution h2{border:0;margin:6px 0;font-size:17px;color:var(--warn)}\n"
     "aside.pw-caution li{margin:4px 0}\n"
     "figure{margin:18px 0 26px;break-inside:avoid;page-break-inside:avoid}\n"
-    "figure svg{max-width:100%;height:auto;display:block;border:1px solid var(--rule)}\n"
+    "figure svg{width:100%;max-width:100%;height:auto;display:block;border:1px solid var(--rule)}\n"
+    "section#answers{border:2px solid var(--band);background:var(--tint);padding:4px 20px 10px;"
+    "margin:0 0 18px}\n"
+    "section#answers h2{border:0;margin:10px 0 6px}\n"
+    "dl.answers{display:grid;grid-template-columns:11em 1fr;gap:4px 16px;margin:0}\n"
+    "dl.answers dt{font-weight:600}dl.answers dd{margin:0}\n"
     "figcaption{font-size:13.5px;color:var(--muted);margin-top:6px;max-width:640px}\n"
     ".pw-grid2{display:flex;flex-wrap:wrap;gap:10px 28px}\n"
     "footer{margin-top:34px;color:var(--muted);font-size:12.5px;border-top:1px solid var(--rule);"
@@ -387,6 +392,13 @@ static void az_table(pw_sbuf *b, const pw_report_az *az, size_t n, const char *w
     pw_sbuf_puts(b, "</table>\n");
 }
 
+/* True when the column runs at the data's own (isobaric) pressure: one set of azeotropes then. */
+static bool column_at_data_pressure(const pw_report_curves *c)
+{
+    return c->column && !c->isothermal &&
+           fabs(c->P_col_Pa - c->fit->P_fixed_Pa) <= 1e-9 * c->fit->P_fixed_Pa;
+}
+
 /* Azeotropes from the azeotrope module (include/pinchwise/azeotrope.h). */
 static void azeotropes(pw_sbuf *b, const pw_report_curves *c, const char *cond)
 {
@@ -394,8 +406,10 @@ static void azeotropes(pw_sbuf *b, const pw_report_curves *c, const char *cond)
     pw_sbuf_puts(b, "<section id=\"azeotropes\"><h2>Azeotropes of the model</h2>\n");
     snprintf(where, sizeof where, "At the data's condition, %s", cond);
     bool u1 = c->unc && c->unc_az_status == PW_OK, u2 = c->unc && c->unc_col_az_status == PW_OK;
+    if (column_at_data_pressure(c))
+        snprintf(where, sizeof where, "At the data's condition and the column pressure, %s", cond);
     az_table(b, c->az, c->n_az, where, u1 ? c->unc_az : NULL, c->isothermal);
-    if (c->column) {
+    if (c->column && !column_at_data_pressure(c)) {
         snprintf(where, sizeof where, "At the column pressure, %.4g kPa", c->P_col_Pa / 1000.0);
         az_table(b, c->col_az, c->n_col_az, where, u2 ? c->unc_col_az : NULL, false);
     }
@@ -414,9 +428,9 @@ static void azeotropes(pw_sbuf *b, const pw_report_curves *c, const char *cond)
                         "the model's bubble points (Brent's method), classified by the extremum of "
                         "the bubble curve; see docs/azeotrope.md.</p></section>\n");
     else
-        pw_sbuf_puts(b, "<p class=\"note\">The azeotrope search did not complete; these values "
-                        "are where y\xe2\x82\x81 \xe2\x88\x92 x\xe2\x82\x81 of the plotted bubble "
-                        "points changes sign, refined by bisection.</p></section>\n");
+        pw_sbuf_puts(b, "<p class=\"verdict-fail\">The azeotrope search did not complete at one of "
+                        "these conditions: no azeotrope is shown there, which does not mean there is "
+                        "none.</p></section>\n");
 }
 
 static void column_section(pw_sbuf *b, const pw_report_curves *c)
@@ -605,122 +619,243 @@ static const char *caption_for(const char *name, bool column)
            "y P = x \xce\xb3 P\xcb\xa2\xe1\xb5\x83\xe1\xb5\x97.";
 }
 
-typedef struct rank_row {
-    const pw_fit_result *r;
-    double x_az;   /* first azeotrope at the data's condition, NAN for none */
-    size_t n_az;
-    bool az_ok;
-    double r_min;  /* at the column targets, NAN when not asked or infeasible */
-    bool feasible, col_ok;
-} rank_row;
-
-static int cmp_rank(const void *a, const void *b)
+/* Model comparison: every fit of the same data as ranked by the library (pw_rank_assess), with
+ * the design numbers beside the deviations, since equal deviations can hide different azeotropes. */
+static void ranking(pw_sbuf *b, const pw_report_curves *c)
 {
-    const rank_row *x = a, *y = b;
-    int bx = !x->r->converged || x->r->split, by = !y->r->converged || y->r->split;
-    if (bx != by)
-        return bx - by;
-    return (x->r->aicc > y->r->aicc) - (x->r->aicc < y->r->aicc);
-}
-
-/* Model comparison: every fit of the same data, ranked by AICc (Hurvich & Tsai 1989), with the
- * design numbers beside the deviations, since equal deviations can hide different azeotropes. */
-static void ranking(pw_sbuf *b, const pw_report_curves *c, const pw_report_input *in)
-{
-    if (!in->others || in->n_others == 0)
+    const pw_ranking *rk = c->rank;
+    if (!rk || c->rank_status != PW_OK)
         return;
-    size_t n = in->n_others + 1;
-    rank_row rows[9];
-    if (n > 9)
-        n = 9;
-    for (size_t i = 0; i < n; i++) {
-        const pw_fit_result *r = i == 0 ? c->fit : in->others[i - 1];
-        rank_row *w = &rows[i];
-        w->r = r;
-        bool iso = r->kind == PW_DATA_ISOTHERMAL;
-        pw_az_result az;
-        if (i == 0 && c->az_res_ok) { /* the report's own fit: already searched */
-            az = c->az_res;
-            w->az_ok = true;
-        } else {
-            w->az_ok = pw_azeotrope_find(&r->sys, iso ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC,
-                                         iso ? r->T_fixed_K : r->P_fixed_Pa, NULL, &az) == PW_OK;
-        }
-        w->n_az = w->az_ok ? az.n : 0;
-        w->x_az = w->az_ok && az.n ? az.az[0].x1 : (double)NAN;
-        w->r_min = NAN;
-        w->feasible = false;
-        w->col_ok = false;
-        if (c->column && i == 0 && c->col_status == PW_OK) { /* already solved for this page */
-            w->col_ok = true;
-            w->feasible = c->col.feasible;
-            w->r_min = c->col.feasible ? c->col.r_min : (double)NAN;
-        } else if (c->column) {
-            pw_system_curve sc;
-            pw_column_result col;
-            if (pw_system_curve_init(&sc, &r->sys, c->P_col_Pa) == PW_OK) {
-                pw_curve cv = pw_system_curve_bind(&sc);
-                w->col_ok = pw_column_solve(&cv, &c->spec, NULL, &col) == PW_OK;
-                w->feasible = w->col_ok && col.feasible;
-                w->r_min = w->feasible ? col.r_min : (double)NAN;
-            }
-        }
-    }
-    qsort(rows, n, sizeof rows[0], cmp_rank);
-    double best = rows[0].r->aicc;
     pw_sbuf_puts(b, "<section id=\"ranking\"><h2>Models fitted to these data, side by side</h2>\n"
-                    "<table><tr><th>Rank</th><th>Model</th><th>\xce\x94" "AICc</th><th>Mean |\xce\x94" "y|"
+                    "<table><tr><th>Rank</th><th>Model</th><th>\xce\x94" "AICc (0 = best; lower is better)</th>"
+                    "<th>Support</th><th>Mean |\xce\x94" "y|"
                     "</th><th>Mean |\xce\x94T| / K</th><th>Mean |\xce\x94P| / kPa</th>"
                     "<th>Azeotrope x\xe2\x82\x81 at the data's condition</th>");
     if (c->column)
         pw_sbuf_puts(b, "<th>R_min at the column targets</th>");
     pw_sbuf_puts(b, "<th>Notes</th></tr>\n");
-    double xlo = INFINITY, xhi = -INFINITY, rlo = INFINITY, rhi = -INFINITY;
-    for (size_t i = 0; i < n; i++) {
-        const rank_row *w = &rows[i];
+    for (size_t i = 0; i < rk->n; i++) {
+        const pw_rank_row *w = &rk->rows[i];
         pw_sbuf_printf(b, "<tr><td class=\"num\">%zu</td><td>", i + 1);
-        esc(b, w->r->sys.model->name);
-        pw_sbuf_puts(b, w->r == c->fit ? " (this report)</td>" : "</td>");
-        num(b, w->r->aicc - best, 3);
-        num(b, w->r->dev_y.aad, 3);
-        num(b, w->r->dev_T_K.aad, 3);
-        num(b, w->r->dev_P_Pa.aad / 1000.0, 3);
-        if (!w->az_ok)
+        esc(b, w->fit->sys.model->name);
+        pw_sbuf_puts(b, w->fit == c->fit ? " (this report)</td>" : "</td>");
+        num(b, w->delta_aicc, 3);
+        pw_sbuf_printf(b, "<td>%s</td>", pw_rank_class_name(w->cls));
+        num(b, w->fit->dev_y.aad, 3);
+        num(b, w->fit->dev_T_K.aad, 3);
+        num(b, w->fit->dev_P_Pa.aad / 1000.0, 3);
+        if (w->az_status != PW_OK)
             pw_sbuf_puts(b, "<td>search failed</td>");
-        else if (w->n_az == 0)
+        else if (w->az.n == 0)
             pw_sbuf_puts(b, "<td>none</td>");
         else
-            num(b, w->x_az, 4);
+            num(b, w->az.az[0].x1, 4);
         if (c->column) {
-            if (w->feasible)
-                num(b, w->r_min, 4);
+            if (w->col_status == PW_OK && w->col.feasible)
+                num(b, w->col.r_min, 4);
             else
-                pw_sbuf_puts(b, w->col_ok ? "<td>infeasible</td>" : "<td>not solved</td>");
+                pw_sbuf_puts(b, w->col_status == PW_OK ? "<td>infeasible</td>" : "<td>not solved</td>");
         }
-        pw_sbuf_printf(b, "<td>%s%s</td></tr>\n", w->r->converged ? "" : "did not converge. ",
-                       w->r->split ? "predicts a liquid split." : "");
-        bool considered = w->r->aicc - best < 10.0;
-        if (considered && isfinite(w->x_az)) {
-            xlo = fmin(xlo, w->x_az);
-            xhi = fmax(xhi, w->x_az);
-        }
-        if (considered && isfinite(w->r_min)) {
-            rlo = fmin(rlo, w->r_min);
-            rhi = fmax(rhi, w->r_min);
-        }
+        pw_sbuf_printf(b, "<td>%s%s</td></tr>\n", w->fit->converged ? "" : "did not converge. ",
+                       w->fit->split ? "predicts a liquid split." : "");
     }
     pw_sbuf_puts(b, "</table>\n<p class=\"note\">Ranked by AICc (Hurvich &amp; Tsai 1989): "
-                    "\xce\x94" "AICc below 2 means the data cannot tell the models apart, above 10 "
+                    "\xce\x94" "AICc below 2 means the data cannot tell the models apart, 10 or more "
                     "that a model has essentially no support (Burnham &amp; Anderson 2002). Fits that "
                     "did not converge or predict a liquid split rank last.");
-    if (xhi > xlo)
-        pw_sbuf_printf(b, " Models within \xce\x94" "AICc 10 place the azeotrope between x\xe2\x82\x81 = "
-                          "%.3f and %.3f.", xlo, xhi);
-    if (rhi > rlo)
+    if (rk->az_existence_differs)
+        pw_sbuf_puts(b, " Models with support disagree on whether an azeotrope exists.");
+    else if (rk->az_x_hi > rk->az_x_lo)
+        pw_sbuf_printf(b, " Models with support place the azeotrope between x\xe2\x82\x81 = "
+                          "%.3f and %.3f.", rk->az_x_lo, rk->az_x_hi);
+    if (rk->feasibility_differs)
+        pw_sbuf_puts(b, " They disagree on whether the split is feasible.");
+    if (rk->rmin_hi > rk->rmin_lo)
         pw_sbuf_printf(b, " Their R_min spans %.4g to %.4g (%.0f %% of the lowest): that spread is "
                           "model risk the parameter intervals do not show.",
-                       rlo, rhi, 100.0 * (rhi - rlo) / rlo);
+                       rk->rmin_lo, rk->rmin_hi, 100.0 * (rk->rmin_hi - rk->rmin_lo) / rk->rmin_lo);
     pw_sbuf_puts(b, "</p>\n</section>\n");
+}
+
+/* One line of the answers block: a term, then text the caller writes, closed by answer_end. */
+static void answer(pw_sbuf *b, const char *term)
+{
+    pw_sbuf_puts(b, "<dt>");
+    esc(b, term);
+    pw_sbuf_puts(b, "</dt><dd>");
+}
+
+static void answer_end(pw_sbuf *b) { pw_sbuf_puts(b, "</dd>\n"); }
+
+/* A temperature in kelvin and in degrees Celsius. */
+static void temp(pw_sbuf *b, double T_K)
+{
+    pw_sbuf_printf(b, "%.2f K (%.2f \xc2\xb0" "C)", T_K, T_K - 273.15);
+}
+
+static void az_answer(pw_sbuf *b, const pw_report_az *az, size_t n, bool ok, bool isothermal,
+                      const pw_unc_result *unc)
+{
+    if (!ok) {
+        pw_sbuf_puts(b, "<span class=\"verdict-fail\">search did not complete</span>");
+        return;
+    }
+    if (n == 0) {
+        pw_sbuf_puts(b, "none");
+        return;
+    }
+    for (size_t i = 0; i < n; i++) {
+        pw_sbuf_printf(b, "%s%s at x\xe2\x82\x81 = %.4f", i ? "; " : "",
+                       az[i].min_boiling ? "minimum-boiling" : "maximum-boiling", az[i].x1);
+        if (unc && unc[i].out[0].ci[0] < unc[i].out[0].ci[1])
+            pw_sbuf_printf(b, " (95 %% %.4f to %.4f)", unc[i].out[0].ci[0], unc[i].out[0].ci[1]);
+        if (isothermal) {
+            pw_sbuf_printf(b, ", %.4g kPa", az[i].P_Pa / 1000.0);
+        } else {
+            pw_sbuf_puts(b, ", ");
+            temp(b, az[i].T_K);
+        }
+    }
+}
+
+/* The answers first: what an engineer opens the page for, each linked to its section below.
+ * Every number here is one the sections below show; nothing is computed for this block. */
+static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
+{
+    const pw_fit_result *r = c->fit;
+    pw_sbuf_puts(b, "<section id=\"answers\"><h2>Answers</h2>\n<dl class=\"answers\">\n");
+    answer(b, "Measured data");
+    if (!c->cons_ran) {
+        pw_sbuf_puts(b, "consistency tests could not run: ");
+        esc(b, c->cons_error);
+    } else {
+        size_t run = 0, pass = 0;
+        for (int i = 0; i < PW_CTEST_COUNT; i++)
+            if (c->cons.tests[i].ran) {
+                run++;
+                pass += c->cons.tests[i].pass;
+            }
+        pw_sbuf_printf(b, "<span class=\"%s\">%s</span> (%zu of %zu consistency tests pass) "
+                          "<a href=\"#consistency\">details</a>",
+                       c->cons.consistent ? "verdict-pass" : "verdict-fail",
+                       c->cons.consistent ? "consistent" : "not shown consistent", pass, run);
+    }
+    answer_end(b);
+    answer(b, "Model");
+    esc(b, r->sys.model->name);
+    pw_sbuf_puts(b, r->converged ? ", converged" : ", <span class=\"verdict-fail\">did not converge</span>");
+    if (c->rank && c->rank_status == PW_OK) {
+        size_t pos = 0;
+        while (pos < c->rank->n && c->rank->rows[pos].fit != r)
+            pos++;
+        if (pos < c->rank->n) {
+            const pw_rank_row *w = &c->rank->rows[pos];
+            pw_sbuf_printf(b, "; rank %zu of %zu by AICc (%s", pos + 1, c->rank->n,
+                           pw_rank_class_name(w->cls));
+            if (pos > 0 && isfinite(w->delta_aicc))
+                pw_sbuf_printf(b, ", \xce\x94" "AICc %.2f above the best", w->delta_aicc);
+            pw_sbuf_puts(b, ") <a href=\"#ranking\">side by side</a>");
+        }
+    }
+    pw_sbuf_printf(b, "; mean |\xce\x94y| %.4f", r->dev_y.aad);
+    answer_end(b);
+    answer(b, "Azeotropes");
+    pw_sbuf_puts(b, "at ");
+    esc(b, cond);
+    pw_sbuf_puts(b, ": ");
+    bool u1 = c->unc && c->unc_az_status == PW_OK, u2 = c->unc && c->unc_col_az_status == PW_OK;
+    az_answer(b, c->az, c->n_az, c->az_res_ok, c->isothermal, u1 ? c->unc_az : NULL);
+    if (c->column && !column_at_data_pressure(c)) {
+        pw_sbuf_printf(b, "; at the column pressure %.4g kPa: ", c->P_col_Pa / 1000.0);
+        az_answer(b, c->col_az, c->n_col_az, c->col_az_res_ok, false, u2 ? c->unc_col_az : NULL);
+    }
+    pw_sbuf_puts(b, " <a href=\"#azeotropes\">details</a>");
+    answer_end(b);
+    if (c->column) {
+        const pw_column_result *k = &c->col;
+        answer(b, "Split");
+        if (c->col_status != PW_OK) {
+            pw_sbuf_puts(b, "<span class=\"verdict-fail\">the column analysis failed: ");
+            esc(b, pw_strerror(c->col_status));
+            pw_sbuf_puts(b, "</span>");
+        } else if (!k->feasible) {
+            pw_sbuf_puts(b, "<span class=\"verdict-fail\">not feasible by ordinary distillation at "
+                            "this pressure</span>: ");
+            esc(b, k->reason);
+        } else {
+            pw_sbuf_printf(b, "<span class=\"verdict-pass\">feasible</span>: x<sub>D</sub> %.4g, "
+                              "x<sub>B</sub> %.4g from z<sub>F</sub> %.4g (q = %.3g)",
+                           c->spec.xd, c->spec.xb, c->spec.zf, c->spec.q);
+        }
+        answer_end(b);
+        if (c->col_status == PW_OK && k->feasible) {
+            answer(b, "Minimum reflux");
+            pw_sbuf_printf(b, "R<sub>min</sub> = %.4g, %s pinch in the %s section at x = %.4f",
+                           k->r_min, k->pinch.kind == PW_PINCH_TANGENT ? "tangent" : "feed",
+                           k->pinch.section == PW_SECTION_STRIPPING ? "stripping" : "rectifying",
+                           k->pinch.x);
+            if (k->reflux_limited)
+                pw_sbuf_puts(b, " (no reflux is needed)");
+            pw_sbuf_puts(b, " <a href=\"#column\">details</a>");
+            answer_end(b);
+            answer(b, "Stages");
+            if (isfinite(c->stages_op))
+                pw_sbuf_printf(b, "%.3g equilibrium stages at %.2g R<sub>min</sub> (R = %.4g), feed "
+                                  "on stage %d; ",
+                               c->stages_op, c->factor, c->r_op, c->feed_stage_op);
+            else
+                pw_sbuf_printf(b, "the column cannot be stepped at %.2g R<sub>min</sub>; ", c->factor);
+            pw_sbuf_printf(b, "N<sub>min</sub> %.3g at total reflux (partial reboiler counted)",
+                           k->n_min);
+            answer_end(b);
+        }
+        if (c->unc) {
+            answer(b, "How sure");
+            if (c->unc_col_status != PW_OK) {
+                pw_sbuf_puts(b, "not propagated: ");
+                esc(b, pw_strerror(c->unc_col_status));
+            } else {
+                const pw_unc_result *u = &c->unc_col.res;
+                const pw_unc_output *o = &u->out[PW_UNC_RMIN];
+                if (u->point_status == PW_OK && o->ci[0] < o->ci[1])
+                    pw_sbuf_printf(b, "R<sub>min</sub> 95 %% interval %.4g to %.4g; ", o->ci[0], o->ci[1]);
+                if (isfinite(u->p_feasible))
+                    pw_sbuf_printf(b, "the split is feasible for %.1f %% of %zu parameter sets drawn "
+                                      "from the fit",
+                                   100.0 * u->p_feasible, u->n_samples);
+                pw_sbuf_puts(b, " <a href=\"#how-sure\">details</a>");
+            }
+            answer_end(b);
+        }
+    }
+    /* the warnings that change a decision */
+    size_t nw = 0;
+    const char *warn[6];
+    if (!r->converged)
+        warn[nw++] = "the fit did not converge: every number is provisional";
+    if (r->split)
+        warn[nw++] = "the fitted parameters predict a liquid-liquid split: one-liquid results may be wrong";
+    if (c->cons_ran && !c->cons.consistent)
+        warn[nw++] = "the measured data are not shown consistent: check them before designing";
+    if (c->rank && c->rank_status == PW_OK && (c->rank->az_place_differs || c->rank->az_existence_differs))
+        warn[nw++] = "models that fit about equally well disagree on the azeotrope";
+    if (c->rank && c->rank_status == PW_OK && (c->rank->rmin_differs || c->rank->feasibility_differs))
+        warn[nw++] = "models that fit about equally well disagree on R_min or on feasibility";
+    if (c->column && c->col_status == PW_OK && c->col.feasible && c->col.pinch.kind == PW_PINCH_TANGENT)
+        warn[nw++] = "tangent pinch: stage counts near minimum reflux are very sensitive to the model";
+    answer(b, "Warnings");
+    if (nw == 0)
+        pw_sbuf_puts(b, "none beyond the cautions at the end");
+    for (size_t i = 0; i < nw; i++) {
+        pw_sbuf_puts(b, i ? "; " : "<span class=\"verdict-fail\">");
+        esc(b, warn[i]);
+    }
+    if (nw)
+        pw_sbuf_puts(b, "</span>");
+    answer_end(b);
+    pw_sbuf_puts(b, "</dl>\n<p class=\"note\"><strong>Screening only.</strong> Read the "
+                    "<a href=\"#cautions\">cautions</a> before using any number on this page.</p>"
+                    "\n</section>\n");
 }
 
 pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c,
@@ -751,8 +886,7 @@ pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c
     if (c->column)
         pw_sbuf_printf(b, " \xc2\xb7 column at %.4g kPa", c->P_col_Pa / 1000.0);
     pw_sbuf_puts(b, "</p></header>\n");
-    pw_sbuf_puts(b, "<p class=\"note\"><strong>Screening only.</strong> See the cautions at the end "
-                    "before using any number on this page.</p>\n");
+    answers(b, c, cond);
     provenance(b, r, in);
     if (c->n_failed)
         pw_sbuf_printf(b, "<p class=\"note\">%zu equilibrium solves on the plotted grids did not "
@@ -767,7 +901,7 @@ pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c
     pw_sbuf_puts(b, "</section>\n");
     parameters(b, r);
     deviations(b, r);
-    ranking(b, c, in);
+    ranking(b, c);
     consistency_section(b, c);
     azeotropes(b, c, cond);
     if (c->column)

@@ -5,6 +5,7 @@
 #include "report/svg.h"
 
 #include <math.h>
+#include <pinchwise/assess.h>
 #include <pinchwise/column.h>
 #include <pinchwise/consistency.h>
 #include <pinchwise/fit.h>
@@ -77,6 +78,9 @@ typedef struct pw_report_curves {
     double band_x[PW_REPORT_BAND_NX], band_best[PW_REPORT_BAND_NX];
     double *band_y;                  /* band_n rows of PW_REPORT_BAND_NX (owned) */
     double band_lo, band_hi;         /* window in x */
+    /* every model fitted to the same data, ranked (pw_rank_assess; NULL without others) */
+    pw_ranking *rank;
+    pw_status rank_status;
     /* consistency of the measured points */
     bool cons_ran;
     pw_status cons_status;

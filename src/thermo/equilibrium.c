@@ -34,7 +34,8 @@
 typedef struct {
     pw_activity act;
     double Ps[2], dlnPs[2];
-    double k[2]; /* x_i gamma_i Psat_i */
+    double k[2]; /* x_i gamma_i Psat_i / Phi_i */
+    double Phi[2]; /* vapor correction factors (1 for the ideal vapor) */
     double sum;  /* k1 + k2 = bubble pressure */
     double f;    /* ln(sum / P) */
     double df;   /* df/dT at constant x */
@@ -51,7 +52,40 @@ pw_status pw_system_activity(const pw_system *s, double x1, double T_K, pw_activ
     return s->model->eval(s->params, s->T_ref_K, x1, T_K, out);
 }
 
-/* Evaluates at (x1, T); P is used only for f. */
+/* Virial vapor: Phi_i depend on y and P, so k_i = x_i gamma_i Psat_i / Phi_i(y, P) is solved by
+ * successive substitution from the ideal-vapor k_i (contraction factor about B P / RT, below
+ * 0.1 at 1 atm and 0.3 at 10 bar). P is the specified pressure, or NAN when the pressure is the
+ * bubble pressure sum k_i itself. d ln Phi / dT is neglected in df (Newton then converges a little
+ * slower; the root is the same). */
+#define PHI_MAXIT 60
+#define PHI_TOL 1e-15
+static pw_status apply_virial(const pw_system *s, double T, double P, const double kid[2],
+                              tpoint *tp)
+{
+    double B[3];
+    pw_status st = pw_virial_B(&s->comp[0], &s->comp[1], T, B);
+    if (st != PW_OK)
+        return st == PW_ENOTFOUND ? PW_EINVAL : st;
+    double y1 = kid[0] / (kid[0] + kid[1]), Pu = isfinite(P) ? P : kid[0] + kid[1];
+    for (int it = 0; it < PHI_MAXIT; it++) {
+        pw_vapor_phi(PW_VAPOR_VIRIAL, B, T, Pu, y1, tp->Ps, tp->Phi);
+        tp->k[0] = kid[0] / tp->Phi[0];
+        tp->k[1] = kid[1] / tp->Phi[1];
+        tp->sum = tp->k[0] + tp->k[1];
+        if (!(tp->sum > 0.0) || !isfinite(tp->sum))
+            return PW_EDOM;
+        double yn = tp->k[0] / tp->sum, Pn = isfinite(P) ? P : tp->sum;
+        bool done = fabs(yn - y1) <= PHI_TOL && fabs(Pn - Pu) <= PHI_TOL * Pu;
+        y1 = yn;
+        Pu = Pn;
+        if (done)
+            return PW_OK;
+    }
+    return PW_ENOCONV;
+}
+
+/* Evaluates at (x1, T); P is the specified pressure (used for f and the vapor correction), or
+ * NAN when the pressure is the bubble pressure (then f = 0). */
 static pw_status eval_point(const pw_system *s, double x1, double T, double P, tpoint *tp)
 {
     pw_status st = pw_system_activity(s, x1, T, &tp->act);
@@ -66,11 +100,18 @@ static pw_status eval_point(const pw_system *s, double x1, double T, double P, t
             return st;
         tp->k[i] = x[i] * exp(tp->act.lngamma[i]) * tp->Ps[i];
         tp->sum += tp->k[i];
-        dsum += tp->k[i] * (tp->act.dlngamma_dT[i] + tp->dlnPs[i]);
+        tp->Phi[i] = 1.0;
     }
+    if (s->vapor == PW_VAPOR_VIRIAL) {
+        double kid[2] = {tp->k[0], tp->k[1]};
+        if ((st = apply_virial(s, T, P, kid, tp)) != PW_OK)
+            return st;
+    }
+    for (int i = 0; i < 2; i++)
+        dsum += tp->k[i] * (tp->act.dlngamma_dT[i] + tp->dlnPs[i]);
     if (!(tp->sum > 0.0) || !isfinite(tp->sum) || !isfinite(dsum))
         return PW_EDOM;
-    tp->f = log(tp->sum / P);
+    tp->f = isfinite(P) ? log(tp->sum / P) : 0.0;
     tp->df = dsum / tp->sum;
     return PW_OK;
 }
@@ -85,6 +126,7 @@ static void fill_point(const tpoint *tp, double x1, double T, double P, int iter
     for (int i = 0; i < 2; i++) {
         out->gamma[i] = exp(tp->act.lngamma[i]);
         out->Psat_Pa[i] = tp->Ps[i];
+        out->Phi[i] = tp->Phi[i];
     }
     out->iterations = iters;
 }
@@ -336,7 +378,7 @@ pw_status pw_bubble_P(const pw_system *s, double T_K, double x1, pw_eq_point *ou
     if (!isfinite(T_K) || T_K <= 0.0 || !frac_ok(x1))
         return PW_EDOM;
     tpoint tp;
-    pw_status st = eval_point(s, x1, T_K, 1.0, &tp);
+    pw_status st = eval_point(s, x1, T_K, NAN, &tp);
     if (st != PW_OK)
         return st;
     fill_point(&tp, x1, T_K, tp.sum, 0, out);
@@ -363,14 +405,16 @@ static pw_status dew_eval(dew_ctx *c, double x1, double *y1, double *dy1)
         st = bubble_T_core(c->s, c->P, x1, c->T, true, &c->T, tp, &its);
         c->iters += its;
     } else {
-        st = eval_point(c->s, x1, c->T, 1.0, tp);
+        st = eval_point(c->s, x1, c->T, NAN, tp);
         if (st == PW_OK)
             c->P = tp->sum;
     }
     if (st != PW_OK)
         return st;
-    double g1Ps1 = exp(tp->act.lngamma[0]) * tp->Ps[0];
-    double g2Ps2 = exp(tp->act.lngamma[1]) * tp->Ps[1];
+    /* Phi held constant in the derivative (exact for the ideal vapor; the safeguarded Newton
+     * below needs only a slope of the right sign for the virial vapor) */
+    double g1Ps1 = exp(tp->act.lngamma[0]) * tp->Ps[0] / tp->Phi[0];
+    double g2Ps2 = exp(tp->act.lngamma[1]) * tp->Ps[1] / tp->Phi[1];
     double dk1 = g1Ps1 * (1.0 + x1 * tp->act.dlngamma_dx1[0]); /* at constant T */
     double dk2 = g2Ps2 * (-1.0 + x2 * tp->act.dlngamma_dx1[1]);
     *y1 = tp->k[0] / tp->sum;

@@ -352,6 +352,7 @@ static void model_classes_by_aicc(void **state)
         f[i].sys = model_system(&pw_model_margules, p0[i], 0.2, 0.0);
         f[i].aicc = aicc[i];
         f[i].n_residuals = 30;
+        f[i].converged = true; /* the ranking rule (assess.h) counts only sound fits */
         fp[i] = &f[i];
     }
     pw_unc_models m;
@@ -369,6 +370,12 @@ static void model_classes_by_aicc(void **state)
     double wsum = 1.0 + exp(-0.75) + exp(-2.5);
     pw_assert_close(m.rows[1].weight, 1.0 / wsum, 1e-12, 0, "Akaike weight");
     assert_true(m.rows[3].weight == 0.0);
+    /* an unsound fit (here: predicts a liquid split) is dropped whatever its AICc */
+    f[3].aicc = 90.0;
+    f[3].split = true;
+    assert_int_equal(pw_unc_compare_models(fp, 4, first_param_fn, NULL, 1, &m), PW_OK);
+    assert_int_equal(m.best, 1);
+    assert_int_equal(m.rows[3].cls, PW_UNC_MODEL_DROPPED);
     f[3].n_residuals = 28; /* different data */
     assert_int_equal(pw_unc_compare_models(fp, 4, first_param_fn, NULL, 1, &m), PW_EINVAL);
 }
