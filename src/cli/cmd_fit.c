@@ -85,7 +85,8 @@ static pw_status temperature_difference(const char *opt, const char *text, doubl
     char *end;
     double v = strtod(text, &end);
     double scale = 0.0;
-    if (end != text && isfinite(v) && v >= 1e-4 && v <= 50.0) {
+    bool decimal = strspn(text, "0123456789+-.eE") == (size_t)(end - text); /* no hex */
+    if (end != text && decimal && isfinite(v) && v >= 1e-4 && v <= 50.0) {
         if (!strcmp(end, "K") || !strcmp(end, "C"))
             scale = 1.0;
         else if (!strcmp(end, "F"))

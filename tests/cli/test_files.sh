@@ -190,7 +190,7 @@ done
 for v in 0 -0.3 1.5 nan 1e300; do expect_usage "--alpha $v" "--alpha $v: expected" "${fitx[@]}" --alpha "$v"; done
 for v in 0 1 -0.1 1e-300; do expect_usage "--sigma-y $v" "--sigma-y $v: expected" "${fitx[@]}" --sigma-y "$v"; done
 for v in 0 1e300 -5; do expect_usage "--sigma-P $v" "--sigma-P $v: expected" "${fitx[@]}" --sigma-P "$v"; done
-for v in 0K 1e300K 1e-300K -1K; do expect_usage "--sigma-T $v" "--sigma-T $v: expected" "${fitx[@]}" --sigma-T "$v"; done
+for v in 0K 1e300K 1e-300K -1K 0x1K; do expect_usage "--sigma-T $v" "--sigma-T $v: expected" "${fitx[@]}" --sigma-T "$v"; done
 [ -e opt.json ] && bad "a refused option wrote the fit file"
 for v in 2.5 -3 1e300 100001 12x; do
   expect_usage "reflux --samples $v" "--samples $v" "$pw" reflux fit.json "${col[@]}" --samples "$v"
@@ -203,7 +203,7 @@ for v in 1e300 0.5 -1 4294967296; do
   expect_usage "azeotrope --seed $v" "--seed $v" "$pw" azeotrope fit.json --pressure 1atm --seed "$v"
   expect_usage "report --seed $v" "--seed $v" "$pw" report fit.json --out o.html --seed "$v"
 done
-for v in 1 0.5 1e300 101 nan 1.2,x; do
+for v in 1 0.5 1e300 101 nan 1.2,x 0x2; do
   expect_usage "reflux --factors $v" "--factors" "$pw" reflux fit.json "${col[@]}" --factors "$v"
 done
 for v in 1 1e9 nan; do
