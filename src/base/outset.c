@@ -377,6 +377,25 @@ static pw_status place(pw_outset *s, out_entry *e, pw_error *err)
     return PW_OK;
 }
 
+/* Makes the new names durable: fsync of the folder that holds path (best effort; a folder that
+ * cannot be opened or synced changes nothing already done). */
+static void sync_folder(const char *path)
+{
+    char d[PW_PATH_MAX];
+    const char *slash = strrchr(path, '/');
+    if (!slash)
+        snprintf(d, sizeof d, ".");
+    else if (slash == path)
+        snprintf(d, sizeof d, "/");
+    else
+        snprintf(d, sizeof d, "%.*s", (int)(slash - path), path);
+    int fd = open(d, O_RDONLY | O_DIRECTORY | O_CLOEXEC);
+    if (fd >= 0) {
+        fsync(fd);
+        close(fd);
+    }
+}
+
 pw_status pw_outset_commit(pw_outset *s, pw_error *err)
 {
     for (size_t i = 0; i < s->n; i++) {
@@ -396,6 +415,7 @@ pw_status pw_outset_commit(pw_outset *s, pw_error *err)
     }
     for (size_t i = 0; i < s->n; i++) {
         drop_temp(s, &s->e[i].backup);
+        sync_folder(s->e[i].target);
         free(s->e[i].target);
     }
     s->n = 0;
