@@ -99,8 +99,9 @@ static void check_component(checker *c, const pw_component *comp, size_t i)
             where, comp->name, tmin_u + comp->C, comp->T_unit);
 }
 
-/* The fitted block of the covariance: symmetric and positive semi-definite (LAPACK dsyev), or
- * entirely null (not available). */
+/* The covariance of the fitted parameters: variances >= 0, symmetric (values and nulls), and
+ * positive semi-definite (LAPACK dsyev) over the parameters whose entries are all numbers. A
+ * null entry means "not available" (e.g. a parameter the data do not fix). */
 static void check_covariance(checker *c, const pw_fit_result *r)
 {
     const pw_model_type *m = r->sys.model;
@@ -108,52 +109,54 @@ static void check_covariance(checker *c, const pw_fit_result *r)
     for (size_t k = 0; k < m->n_params; k++)
         if (r->fitted[k])
             idx[n++] = k;
-    size_t finite = 0;
-    for (size_t a = 0; a < n; a++)
-        for (size_t b = 0; b < n; b++)
-            finite += isfinite(r->cov[idx[a]][idx[b]]) != 0;
-    if (finite == 0)
-        return;
-    if (finite != n * n) {
-        bad(c, "key \"covariance\" is partly null (expected every entry of the fitted parameters, "
-            "or none)");
-        return;
-    }
     double scale = 0.0;
     for (size_t a = 0; a < n; a++) {
         double d = r->cov[idx[a]][idx[a]];
-        if (!(d >= 0.0)) {
+        if (isfinite(d) && !(d >= 0.0)) {
             bad(c, "key \"covariance\": the variance of %s is %g (expected a value >= 0)",
                 m->param_names[idx[a]], d);
             return;
         }
-        scale = fmax(scale, d);
+        if (isfinite(d))
+            scale = fmax(scale, d);
     }
     for (size_t a = 0; a < n; a++)
         for (size_t b = a + 1; b < n; b++) {
             double x = r->cov[idx[a]][idx[b]], y = r->cov[idx[b]][idx[a]];
-            if (fabs(x - y) > 1e-9 * scale) {
+            if (isfinite(x) != isfinite(y) || (isfinite(x) && fabs(x - y) > 1e-9 * scale)) {
                 bad(c, "key \"covariance\" is not symmetric (%s/%s: %g against %g)",
                     m->param_names[idx[a]], m->param_names[idx[b]], x, y);
                 return;
             }
         }
+    /* the block of parameters whose variances and covariances with each other are all numbers */
+    size_t blk[PW_MAX_PARAMS], nb = 0;
+    for (size_t a = 0; a < n; a++) {
+        bool all = isfinite(r->cov[idx[a]][idx[a]]);
+        for (size_t b = 0; all && b < nb; b++)
+            all = isfinite(r->cov[idx[a]][blk[b]]);
+        if (all)
+            blk[nb++] = idx[a];
+    }
+    if (nb == 0)
+        return;
     double A[PW_MAX_PARAMS * PW_MAX_PARAMS], w[PW_MAX_PARAMS];
-    for (size_t a = 0; a < n; a++)
-        for (size_t b = 0; b < n; b++)
-            A[a * n + b] = 0.5 * (r->cov[idx[a]][idx[b]] + r->cov[idx[b]][idx[a]]);
-    lapack_int info = LAPACKE_dsyev(LAPACK_ROW_MAJOR, 'N', 'U', (lapack_int)n, A, (lapack_int)n, w);
+    for (size_t a = 0; a < nb; a++)
+        for (size_t b = 0; b < nb; b++)
+            A[a * nb + b] = 0.5 * (r->cov[blk[a]][blk[b]] + r->cov[blk[b]][blk[a]]);
+    lapack_int info =
+        LAPACKE_dsyev(LAPACK_ROW_MAJOR, 'N', 'U', (lapack_int)nb, A, (lapack_int)nb, w);
     if (info != 0) {
         bad(c, "key \"covariance\": its eigenvalues cannot be computed (LAPACK dsyev info %d)",
             (int)info);
         return;
     }
     /* rounding of a positive semi-definite matrix written with 17 digits stays far inside this */
-    double tol = 1e-10 * fmax(w[n - 1], 0.0) + 1e-300;
+    double tol = 1e-10 * fmax(w[nb - 1], 0.0) + 1e-300;
     if (w[0] < -tol)
         bad(c, "key \"covariance\" is not positive semi-definite (smallest eigenvalue %g, largest "
             "%g): not the covariance of any fit",
-            w[0], w[n - 1]);
+            w[0], w[nb - 1]);
 }
 
 static void check_correlation(checker *c, const pw_fit_result *r)
