@@ -120,7 +120,8 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
         free(jobs);
         return pw_cli_failf("fit", pw_status_exit_code(PW_ENOTFOUND), "%s: no *.csv files", dir);
     }
-    if (mkdir(out_dir, 0777) != 0 && errno != EEXIST) {
+    bool made_out_dir = mkdir(out_dir, 0777) == 0;
+    if (!made_out_dir && errno != EEXIST) {
         free(jobs);
         return pw_cli_failf("fit", pw_status_exit_code(PW_EIO), "%s: cannot create folder: %s",
                             out_dir, strerror(errno));
@@ -204,6 +205,11 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
     int first_failure = 0;
     for (size_t i = 0; i < n && !first_failure; i++)
         first_failure = jobs[i].rc;
+    if (first_failure && co->json)
+        fprintf(stderr, "pinchwise fit: %zu of %zu datasets failed (listed under \"failed\")\n",
+                n - ok, n);
+    if (made_out_dir && ok == 0)
+        rmdir(out_dir); /* nothing was written: leave no empty folder either */
     free(jobs);
     return rc ? rc : first_failure;
 }

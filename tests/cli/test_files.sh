@@ -166,6 +166,11 @@ timeout 60 "$pw" fit batch --model wilson --out-dir bout --json > batch.json 2> 
 [ -s bout/a.wilson.json ] || bad "batch: the good file was not written"
 python3 -c 'import json,sys; d=json.load(open("batch.json")); assert [f["dataset"] for f in d["failed"]] == ["b.csv"]' \
   || bad "batch JSON does not list b.csv as failed"
+grep -q "1 of 2 datasets failed" err.txt || bad "batch --json: no failure line on stderr: $(cat err.txt)"
+# a batch in which every file fails writes nothing, not even its --out-dir
+mkdir allbad; cp "$src/tests/bad-inputs/files/nan_T.csv" allbad/x.csv
+"$pw" fit allbad --model wilson --out-dir allbad_out > /dev/null 2>&1 && bad "all-failed batch: exit 0"
+ok; [ -e allbad_out ] && bad "all-failed batch left its --out-dir"
 
 # --- 6. Numeric options: range-checked, whole numbers as whole numbers ------------------------
 expect_usage() { # what, fragment, then the command: exit 2, the fragment on stderr, nothing written
