@@ -81,7 +81,9 @@ typedef struct pw_cli_targets {
 int pw_cli_target_opt(const char *opt, const char *value, pw_cli_targets *t, pw_error *err);
 
 /* Writes obj to stdout as one JSON object followed by a newline (17 significant digits);
- * steals the reference. Returns 0, or the I/O exit code. */
+ * steals the reference. Returns 0, or the I/O exit code; prints nothing and returns the
+ * out-of-memory exit code when obj is NULL or any jansson allocation has failed (see
+ * pw_cli_watch_json_allocations), since such an object may lack keys. */
 int pw_cli_print_json(json_t *obj);
 
 /* A JSON number, or null when v is not finite. New reference. */
@@ -115,6 +117,10 @@ pw_status pw_cli_progress_tenths(void *ctx, size_t done, size_t total);
  * remove the registered files before the program ends with that signal. */
 const pw_tmp_hooks *pw_cli_tmp_hooks(void);
 void pw_cli_install_signal_cleanup(void);
+
+/* Routes jansson's allocations through a wrapper that remembers a failure (main calls it once,
+ * before any JSON is built); pw_cli_print_json then refuses to print. */
+void pw_cli_watch_json_allocations(void);
 
 /* The component library file pw_cli_load_components reads (NULL when none is found). */
 const char *pw_cli_components_path(void);

@@ -5,6 +5,7 @@
 #include <errno.h>
 #include <math.h>
 #include <stdarg.h>
+#include <stdatomic.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -99,13 +100,41 @@ pw_status pw_cli_number(const char *opt, const char *text, double *value, pw_err
     return PW_OK;
 }
 
+/* Set when an allocation of jansson failed: a JSON object built then may lack keys silently
+ * (json_object_set_new ignores a NULL value), so it must not be printed as a result. */
+static atomic_bool json_alloc_failed;
+
+static void *json_alloc(size_t n)
+{
+    void *p = malloc(n);
+    if (!p)
+        atomic_store(&json_alloc_failed, true);
+    return p;
+}
+
+void pw_cli_watch_json_allocations(void)
+{
+    json_set_alloc_funcs(json_alloc, free);
+}
+
 int pw_cli_print_json(json_t *obj)
 {
-    int rc = json_dumpf(obj, stdout, JSON_INDENT(2) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER);
+    /* the whole text first: a failure half-way through must not leave half an object on stdout */
+    char *text = obj ? json_dumps(obj, JSON_INDENT(2) | JSON_REAL_PRECISION(17) |
+                                           JSON_PRESERVE_ORDER)
+                     : NULL;
     json_decref(obj);
-    if (rc != 0 || fputc('\n', stdout) == EOF || fflush(stdout) != 0)
-        return pw_status_exit_code(PW_EIO);
-    return 0;
+    if (!text || atomic_load(&json_alloc_failed)) {
+        free(text);
+        fprintf(stderr, "pinchwise: out of memory while building the JSON output (nothing "
+                        "printed)\n");
+        return pw_status_exit_code(PW_ENOMEM);
+    }
+    size_t len = strlen(text);
+    int bad = fwrite(text, 1, len, stdout) != len || fputc('\n', stdout) == EOF ||
+              fflush(stdout) != 0;
+    free(text);
+    return bad ? pw_status_exit_code(PW_EIO) : 0;
 }
 
 json_t *pw_cli_json_num(double v)

@@ -41,6 +41,7 @@ int main(int argc, char **argv)
         return pw_cli_finish_stdout("version");
     }
     pw_cli_install_signal_cleanup();
+    pw_cli_watch_json_allocations();
     for (size_t i = 0; i < sizeof commands / sizeof commands[0]; i++)
         if (!strcmp(argv[1], commands[i].name)) {
             int rc = commands[i].run(argc - 1, argv + 1);

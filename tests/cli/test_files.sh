@@ -263,5 +263,58 @@ if [ -w /dev/full ]; then
   full "--version" "$pw" --version
 fi
 
+# --- 8. Memory runs out while the JSON result is built: no JSON that lacks keys --------------
+# tests/tools/fail_malloc.c makes every allocation fail from the Kth one after the fit file was
+# written (or only the Kth: later ones succeed, so a half-built object could still be printed);
+# for every K the run either prints the complete object or prints nothing and fails.
+failer=$(dirname "$pw")/tests/libpw_fail_malloc.so
+if [ -f "$failer" ] && ! ldd "$pw" 2>/dev/null | grep -q 'libasan\|libtsan'; then
+  mkdir oom; mode=all
+  for k in $(seq 0 29 1300) one $(seq 0 7 1300); do
+    [ "$k" = one ] && { export PW_TEST_MALLOC_ONLY_ONE=1; mode=one; continue; }
+    PW_TEST_MALLOC_GRACE=$k LD_PRELOAD="$failer" "$pw" fit data.csv --model wilson \
+      --out "oom/$mode$k.json" --json > "oom/$mode$k.out" 2> "oom/$mode$k.err"
+    echo "$mode$k $?" >> oom/runs.txt
+  done
+  # one checker for every run (python start-up is the slow part)
+  python3 - oom > oom/checker.txt <<'PY'
+import json, os, sys
+d = sys.argv[1]
+keys = ("model", "converged", "components", "parameters", "stderr", "ln_gamma_inf", "T_ref_K",
+        "aad_y", "aad_T_K", "aad_P_kPa", "fit_file")
+bad = 0
+for line in open(os.path.join(d, "runs.txt")):
+    run, rc = line.split()
+    out = open(os.path.join(d, run + ".out")).read()
+    err = open(os.path.join(d, run + ".err")).read()
+    problem = None
+    if rc == "0":
+        try:
+            o = json.loads(out)
+            missing = [k for k in keys if k not in o]
+            if missing:
+                problem = "exit 0 with a JSON object that lacks " + ", ".join(missing)
+        except ValueError:
+            problem = "exit 0 without one JSON object on stdout"
+    elif rc != "5" or out or "out of memory" not in err:
+        problem = "exit %s, stdout %d bytes, stderr %r" % (rc, len(out), err[-200:])
+    try:  # the fit file was committed before the JSON was built: complete in every run
+        json.load(open(os.path.join(d, run + ".json")))
+    except (OSError, ValueError) as e:
+        problem = (problem or "") + " fit file not complete: %s" % e
+    if problem:
+        bad += 1
+        print("FAIL: out of memory (%s): %s" % (run, problem))
+print(bad)
+PY
+  [ $? -eq 0 ] || bad "the out-of-memory checker failed"
+  grep '^FAIL' oom/checker.txt
+  n=$((n + $(wc -l < oom/runs.txt)))
+  failed=$((failed + $(tail -1 oom/checker.txt)))
+  unset PW_TEST_MALLOC_ONLY_ONE
+else
+  echo "note: $failer not built or a sanitizer build; out-of-memory cases skipped"
+fi
+
 echo "$n file-safety checks, $failed failures"
 [ $failed -eq 0 ]
