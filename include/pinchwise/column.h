@@ -46,11 +46,16 @@ typedef struct pw_design_row {
     double stages;              /* equilibrium stages incl. the partial reboiler, fractional last */
     int feed_stage;             /* optimal feed stage, counted from the top (1 = top stage) */
     double gilliland_stages;    /* Molokanov et al. (1972) form of the Gilliland correlation */
+    pw_status status;           /* PW_OK, or why this reflux reaches no stage count (stages NAN,
+                                 * feed_stage 0): PW_EMAXITER more than max_stages are needed,
+                                 * PW_EINFEASIBLE the stepping stalls, or a curve failure. A row
+                                 * that cannot be reached never fails the whole solve. */
 } pw_design_row;
 
 typedef struct pw_column_options {
     double rtol;          /* relative tolerance on R_min; default 1e-10 */
-    size_t grid;          /* points of the global pinch scan; default 200 (extrema are refined) */
+    size_t grid;          /* points of the table: the coarse bracket of the pinch search; default
+                           * 200 (the answer does not depend on it; docs/column.md section 3) */
     double factors[PW_COLUMN_MAX_FACTORS]; /* R/R_min for the design table; default 1.2, 1.3, 1.5 */
     size_t n_factors;
     size_t max_stages;    /* stepping gives up beyond this; default 500 */
@@ -75,7 +80,10 @@ typedef struct pw_column_result {
     bool reflux_limited;        /* R_min = 0: no reflux is needed (a stripping column with the feed
                                  * on top makes the distillate); no pinch limits, pinch holds the
                                  * stripping section's closest approach, the design table is empty */
-    double n_min;               /* stages at total reflux, stepped on the curve */
+    double n_min;               /* stages at total reflux, stepped on the curve; NAN when
+                                 * n_min_status is not PW_OK */
+    pw_status n_min_status;     /* PW_OK, or PW_EMAXITER: more than max_stages at total reflux
+                                 * (a product right beside an azeotrope); R_min stands */
     double n_fenske;            /* Fenske with the geometric-mean relative volatility */
     double alpha_top, alpha_bottom;
     pw_design_row design[PW_COLUMN_MAX_FACTORS];
@@ -85,6 +93,7 @@ typedef struct pw_column_result {
 /* The whole analysis: feasibility, R_min with the limiting pinch (global search in both
  * sections), N_min by stepping at total reflux, Fenske, and the design table. Infeasible
  * specifications are not an error: the status is PW_OK with feasible = false and a reason.
+ * Stage counts the stepping cannot reach are flagged (n_min_status, design[i].status), not errors.
  * Errors: PW_EINVAL for an inconsistent spec (not 0 <= xb < zf < xd <= 1), curve failures. */
 pw_status pw_column_solve(const pw_curve *curve, const pw_column_spec *spec,
                           const pw_column_options *opt, pw_column_result *out);

@@ -133,6 +133,17 @@ size_t pw_complib_suggest(const pw_complib *lib, const char *name, const char **
 /* Frees the rows; lib is left empty and reusable. Accepts NULL. */
 void pw_complib_free(pw_complib *lib);
 
+/* The shipped component library (components.csv): $PINCHWISE_COMPONENTS when set and readable,
+ * else the installed copy found from where this code lives (<prefix>/share/pinchwise beside the
+ * library's or the program's folder), else the copy in the source tree the library was built
+ * from, else the configured install location. Writes the path into path; false when none is
+ * readable. */
+bool pw_complib_default_path(char *path, size_t len);
+
+/* Initialises lib with the shipped component library, then reads extra_path (may be NULL), whose
+ * rows take precedence. On failure lib is left empty and err says what is missing or wrong. */
+pw_status pw_complib_load_default(pw_complib *lib, const char *extra_path, pw_error *err);
+
 #ifdef __cplusplus
 }
 #endif

@@ -7,7 +7,10 @@
  *   herington        Herington (1947, 1951) D - J, isobaric data with y
  *   legendre_point   Van Ness, Byer & Gibbs (1973) point test with the Legendre G^E of
  *                    Fredenslund, Gmehling & Rasmussen (1977), fitted by Barker's method to
- *                    P-x or T-x alone; mean |y_calc - y_exp| < 0.01
+ *                    P-x or T-x alone; mean |y_calc - y_exp| < 0.01, or below the 99 % bound
+ *                    the stated sigma_y implies (the smaller)
+ *   point_scatter    with stated uncertainties: the point test's residuals in y and in T (P)
+ *                    against them, chi-square at 99 % (docs/consistency.md)
  *   kojima_dilution  Kojima, Moon & Ochi (1990) infinite-dilution test, I1 and I2 < 30
  *   kojima_slope     Kojima et al. (1990) slope point test, mean deviation < 5 (isothermal)
  *   pure_endpoints   measured pure-component P (or T) against the vapor-pressure correlation
@@ -35,6 +38,7 @@ typedef enum {
     PW_CTEST_DILUTION,     /* kojima_dilution */
     PW_CTEST_SLOPE,        /* kojima_slope */
     PW_CTEST_ENDPOINT,     /* pure_endpoints */
+    PW_CTEST_SCATTER,      /* point_scatter */
     PW_CTEST_COUNT
 } pw_ctest_id;
 
@@ -62,6 +66,13 @@ typedef struct pw_consistency_options {
     double outlier_floor_P_rel; /* ... for the Barker relative P residual (default 5e-4) */
     double dilution_min_lngamma; /* below this |ln gamma_inf| the dilution test is not run
                                     (ill-conditioned division; default 0.05) */
+    /* Stated standard uncertainties (docs/consistency.md, "Stated uncertainties"). NAN (default):
+     * sigma_y and sigma_x from the dataset when its metadata state them, sigma_T and sigma_P
+     * from the dataset (stated or its defaults). Without a sigma_y (neither here nor stated in
+     * the file) the point test keeps the classic limit point_dy_max and point_scatter does not
+     * run; without a sigma_x, x is taken as exact. */
+    double sigma_y, sigma_x, sigma_T_K, sigma_P_rel;
+    double point_confidence;    /* one-sided confidence of the uncertainty-based limits (0.99) */
     bool strict_verdict;        /* false (default): the verdict rests on legendre_point and
                                    pure_endpoints (the area and Kojima tests when the point test
                                    cannot run), other failures are warnings; true: every test that
@@ -125,6 +136,14 @@ typedef struct pw_consistency_result {
     int van_ness_index;             /* Van Ness (1995) index 1..10 from rms d ln; 0 when not run */
     double I1, I2, lngamma1_inf, lngamma2_inf; /* kojima_dilution (from g/(x1 x2)) */
     double endpoint_dev[2];         /* x1 = 0 and x1 = 1 ends: P rel. or T [K]; NAN if absent */
+    bool areas_at_rounding;         /* A + B at rounding level: D taken as 0 (ideal data) */
+    bool slope_at_rounding;         /* sum |ln(gamma1/gamma2)| at rounding level: d taken as 0 */
+    /* stated uncertainties and the point_scatter details (NAN / 0 when not used) */
+    bool uncertainty_based;         /* a sigma_y was given: the uncertainty-based limits apply */
+    double sigma_y_used, sigma_x_used, sigma_T_used_K, sigma_P_used_rel;
+    double point_dy_limit_sigma;    /* the 99 % bound on mean |dy| from the sigmas */
+    double scatter_chi2;            /* sum of squared normalised residuals (y and T or P) */
+    size_t scatter_dof;
     /* points and outliers */
     pw_cpoint *pts;                 /* owned; n_pts entries */
     size_t n_pts, n_flagged;

@@ -40,6 +40,7 @@ typedef struct pw_dataset {
     bool has_y;
     char source[PW_SOURCE_MAX];
     double sigma_T_K, sigma_P_rel, sigma_P_abs_Pa, sigma_y, sigma_x; /* sigma_P: one is NAN */
+    bool sigma_y_stated, sigma_x_stated; /* the file's metadata gave them (else defaults) */
     char T_unit[PW_UNIT_MAX], P_unit[PW_UNIT_MAX]; /* units the file used for the column */
     pw_point *pts;
     size_t n;

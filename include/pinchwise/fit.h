@@ -29,8 +29,36 @@ typedef enum {
     PW_STOP_STEP,       /* relative step below xtol */
     PW_STOP_GRADIENT,   /* scaled gradient below gtol */
     PW_STOP_MAXITER,    /* iteration limit: not converged */
-    PW_STOP_FAILED      /* a model evaluation or linear solve failed */
+    PW_STOP_FAILED,     /* a model evaluation or linear solve failed */
+    PW_STOP_NOPROG,     /* GSL found no step that lowers chi2 from the start point (GSL_ENOPROG
+                           on the first iteration); a minimum only if the gradient test holds */
+    PW_STOP_MACHINE     /* GSL_ETOLX/ETOLG/ETOLF: converged to machine precision */
 } pw_stop_reason;
+
+/* What the chosen parameters are (docs/fitting.md, "Convergence classes"). */
+typedef enum {
+    PW_FIT_NOT_RUN = 0,
+    PW_FIT_MINIMUM,        /* converged at an interior minimum, every parameter identifiable */
+    PW_FIT_EXACT,          /* residuals at rounding level: rms weighted residual <= PW_FIT_EXACT_RMS */
+    PW_FIT_UNIDENTIFIABLE, /* converged, but the information matrix is near-singular */
+    PW_FIT_RUNAWAY,        /* a parameter beyond the model's physical bound: not converged */
+    PW_FIT_MAXITER,        /* iteration limit reached: not converged */
+    PW_FIT_FAILED          /* no run produced an evaluable stationary point */
+} pw_fit_class;
+
+/* rms of the weighted residuals (in units of the stated uncertainties) at or below which a fit
+ * is exact: a millionth of the measurement uncertainty, far below any measurement's resolution. */
+#define PW_FIT_EXACT_RMS 1e-6
+/* A combination of parameters is not identifiable when its singular value of the weighted
+ * Jacobian is below this fraction of the largest (condition of J^T J above 1e12). */
+#define PW_FIT_IDENT_SV_RATIO 1e-6
+/* ... or when its 95 % half-width for some parameter exceeds 10 in ln-gamma units (|A_ij|, or an
+ * energy in K divided by T_ref): gamma_inf would be unknown within a factor e^10 = 22 000. */
+#define PW_FIT_UNFIXED_HALFWIDTH 10.0
+/* Runaway bounds: |A_ij| <= 30 for dimensionless constants; |a_ij/T_ref|, |b_ij/T_ref| <= 30 for
+ * energies in K; van Laar: 1/100 <= A12/A21 <= 100. */
+#define PW_FIT_BOUND_LNGAMMA 30.0
+#define PW_FIT_BOUND_VANLAAR_RATIO 100.0
 
 #define PW_FIT_MAX_EXCLUDE 256
 #define PW_FIT_MAX_MINIMA 8
@@ -39,8 +67,9 @@ typedef struct pw_fit_options {
     bool fit_alpha;        /* NRTL: fit alpha too (default false) */
     double alpha;          /* NRTL fixed alpha (default 0.3, Renon & Prausnitz 1968) */
     double V2_V1;          /* Wilson volume ratio; NAN = from the components' V_L, else 1 */
-    size_t n_starts;       /* candidate starts screened by one evaluation each (default 32);
-                              LM runs from the best until 4 runs in a row add nothing */
+    size_t n_starts;       /* LM runs, each from its own start (default 8): the model's default
+                              start, the ideal-solution point, then the best of 4 n_starts seeded
+                              draws screened by one evaluation each */
     unsigned long seed;    /* for the start points (default 1) */
     double sigma_T_K, sigma_P_rel, sigma_y; /* NAN = from the dataset (its metadata or defaults) */
     size_t max_iter;       /* per start (default 200) */
@@ -87,8 +116,17 @@ typedef struct pw_fit_result {
     double ci95[PW_MAX_PARAMS][2];
     double cov[PW_MAX_PARAMS][PW_MAX_PARAMS]; /* full-size, zero rows for fixed parameters */
     double corr[PW_MAX_PARAMS][PW_MAX_PARAMS];
-    bool converged;
+    bool converged;            /* fit_class is MINIMUM, EXACT or UNIDENTIFIABLE */
     pw_stop_reason stop;
+    pw_fit_class fit_class;
+    bool identifiable;         /* false: weak_dir is a combination the data do not fix */
+    double weak_dir[PW_MAX_PARAMS]; /* in parameter units, largest |coefficient| 1; 0 if fixed */
+    double sv_ratio;           /* smallest / largest singular value of the weighted Jacobian */
+    bool stderr_meaningful[PW_MAX_PARAMS]; /* false: stderr_ is NAN, the data do not fix it */
+    int runaway_param;         /* index of the parameter beyond its bound, -1 if none */
+    size_t n_runaway_runs;     /* LM runs that ended beyond a runaway bound */
+    double runaway_chi2;       /* lowest chi2 among them (NAN when none); it may lie below chi2:
+                                  a runaway is never chosen over a bounded answer */
     size_t iterations, n_fev, n_jev;
     size_t n_runs;             /* LM runs of the multistart */
     double chi2, chi2_red;     /* weighted sum of squares and per degree of freedom */
@@ -127,6 +165,17 @@ pw_status pw_fit_evaluate(pw_fit_result *r);
 /* How many of r->minima (sorted by chi2) fit as well as the best: chi2 within a factor
  * max(1.01, exp(2/n)) of it, i.e. delta-AICc < 2 for one model (docs/fitting.md). */
 size_t pw_fit_competing_minima(const pw_fit_result *r);
+
+/* Machine names of the classes ("minimum", "exact", "not-identifiable", "runaway",
+ * "iteration-limit", "failed", "not-run") and back; pw_fit_class_from_name returns -1 for an
+ * unknown name. */
+const char *pw_fit_class_name(pw_fit_class c);
+int pw_fit_class_from_name(const char *name);
+
+/* The model's runaway bound check: -1 when every fitted parameter of params lies within the
+ * documented bounds (PW_FIT_BOUND_*), else the index of the first one beyond. */
+int pw_fit_runaway_param(const pw_model_type *m, const bool *fitted, const double *params,
+                         double T_ref_K);
 
 /* Frees r->pts; accepts NULL. */
 void pw_fit_result_free(pw_fit_result *r);

@@ -6,12 +6,21 @@
  * Parameter sets and temperature forms (see docs/thermo.md):
  *   margules  A12, A21 [-] at T_ref;  A_ij(T) = A_ij * T_ref / T
  *   vanlaar   A12, A21 [-] at T_ref;  A_ij(T) = A_ij * T_ref / T
- *   wilson    a12_K, a21_K [K], V2_V1 [-] (fixed);  L12 = V2_V1 exp(-a12/T), L21 = exp(-a21/T)/V2_V1
- *   nrtl      b12_K, b21_K [K], alpha [-] (fixed by default); tau_ij = b_ij/T, G_ij = exp(-alpha tau_ij)
- * Adding a model means one new file in src/thermo/models and one line in the table. */
+ *   wilson    dlambda12_K, dlambda21_K [K] (Delta lambda_ij/R), V2_V1 [-] (fixed, from V_L);
+ *             L12 = V2_V1 exp(-dlambda12/T), L21 = exp(-dlambda21/T)/V2_V1
+ *   nrtl      dg12_K, dg21_K [K] (Delta g_ij/R), alpha [-] (fixed by default);
+ *             tau_ij = dg_ij/T, G_ij = exp(-alpha tau_ij)
+ * (fit files written before the rename hold a12_K, a21_K and b12_K, b21_K; they still read)
+ *   uniquac   du12_K, du21_K [K], r1, q1, r2, q2 [-] (fixed, from the components' r and q);
+ *             z = 10, tau_ij = exp(-du_ij/T)
+ * Everything the rest of the program needs to know of a model comes from its descriptor: names,
+ * units, defaults, start ranges of the fit, parameters taken from component data, older names
+ * accepted in fit files. Adding a model means one new file in src/thermo/models and one line in
+ * the table (src/thermo/model_table.c); no list of model names exists elsewhere. */
 #ifndef PINCHWISE_MODEL_H
 #define PINCHWISE_MODEL_H
 
+#include <pinchwise/component.h>
 #include <pinchwise/status.h>
 #include <stdbool.h>
 #include <stddef.h>
@@ -45,21 +54,42 @@ typedef struct pw_model_type {
     pw_status (*check)(const double *p);
     /* Evaluates at x1 in [0,1], T > 0; PW_EDOM outside or for p outside the domain. */
     pw_status (*eval)(const double *p, double T_ref_K, double x1, double T_K, pw_activity *out);
+    /* Range [lo, hi] from which the multistart fit draws each fitted parameter's starts. */
+    const double (*start_range)[2];
+    /* True when the fitted parameters must share one sign (van Laar): each start draws one sign
+     * for all of them and keeps them at least 0.05 away from zero. */
+    bool starts_same_sign;
+    /* Older names of each parameter (an entry may be NULL; the array may be NULL): fit files
+     * written with them still read (pw_model_param_lookup). */
+    const char *const *param_aliases;
+    /* Sets the parameters that come from pure-component data and are held fixed (Wilson's volume
+     * ratio from V_L, UNIQUAC's r and q); NULL when the model takes none. PW_ENOTFOUND, with err
+     * naming the component and the missing column, when a needed constant is unknown. */
+    pw_status (*from_components)(const pw_component *c1, const pw_component *c2, double *p,
+                                 pw_error *err);
 } pw_model_type;
 
 extern const pw_model_type pw_model_margules;
 extern const pw_model_type pw_model_vanlaar;
 extern const pw_model_type pw_model_wilson;
 extern const pw_model_type pw_model_nrtl;
+extern const pw_model_type pw_model_uniquac;
 
-/* The model called name (exact, lower case), or NULL. */
+/* The model called name (any case), or NULL. */
 const pw_model_type *pw_model_find(const char *name);
+
+/* Writes the models' names, ", "-separated in table order ("margules, vanlaar, ..."), to buf
+ * (truncated to len - 1 characters) and returns buf. For messages and help texts. */
+char *pw_model_names(char *buf, size_t len);
 
 /* All models, in a fixed order; *n receives their count. */
 const pw_model_type *const *pw_model_all(size_t *n);
 
 /* Index of a parameter by name, or -1. */
 int pw_model_param_index(const pw_model_type *m, const char *name);
+
+/* Index of a parameter by name or by one of its older names (param_aliases), or -1. */
+int pw_model_param_lookup(const pw_model_type *m, const char *name);
 
 #ifdef __cplusplus
 }

@@ -2,7 +2,20 @@
  *
  * Every fallible library function returns a pw_status (PW_OK == 0 is success). Functions that
  * can say more (file, line, what was expected) also fill a caller-owned pw_error. The library
- * never prints and never exits; only the command-line program talks to the user. */
+ * never prints and never exits; only the command-line program talks to the user.
+ *
+ * GSL's error handler (gsl_set_error_handler) is process-wide; the library never installs or
+ * changes it. What it expects of it:
+ * - the 1-D root and minimum searches (bubble and dew points, the stability scan, the azeotrope
+ *   search, the column's pinch search, q-line and stage stepping, Underwood) never reach the
+ *   handler: every condition GSL would report is checked first and returned as a pw_status, and
+ *   GSL is never handed a non-finite value (docs/hardening.md, "The GSL boundary"; tested with
+ *   GSL's default, aborting, handler installed). These work whatever handler the host installed;
+ * - the other GSL calls (the nonlinear and linear least-squares fits, the sampling) check their
+ *   arguments and map every GSL return code, but an error GSL raises inside them goes to the
+ *   handler first. Hosts should call gsl_set_error_handler_off() once at start-up, as the
+ *   command-line program and the tests do; a handler that returns (rather than aborting or
+ *   jumping out) is all the library needs. */
 #ifndef PINCHWISE_STATUS_H
 #define PINCHWISE_STATUS_H
 

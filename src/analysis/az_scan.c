@@ -3,12 +3,11 @@
  * See include/pinchwise/azeotrope.h and docs/azeotrope.md (pressure dependence). */
 #include <pinchwise/azeotrope.h>
 
-#include <gsl/gsl_errno.h>
-#include <gsl/gsl_roots.h>
 #include <math.h>
 #include <stdlib.h>
 
 #include "analysis/az_internal.h"
+#include "base/solve1d.h"
 
 pw_az_scan *pw_az_scan_alloc(size_t n_points)
 {
@@ -46,17 +45,13 @@ typedef struct end_ctx {
     pw_status status;
 } end_ctx;
 
-static double end_fn(double v, void *params)
+static pw_status end_fn(void *params, double v, double *f)
 {
     end_ctx *c = params;
-    double f;
-    pw_status st = pw_az_end_ln_alpha(c->s, c->mode, v, c->end, &f, NULL, NULL);
-    if (st != PW_OK) {
-        if (c->status == PW_OK)
-            c->status = st;
-        return NAN;
-    }
-    return f;
+    pw_status st = pw_az_end_ln_alpha(c->s, c->mode, v, c->end, f, NULL, NULL);
+    if (st != PW_OK && c->status == PW_OK)
+        c->status = st;
+    return st;
 }
 
 /* Brent on the scanned variable v in [a, b] for ln alpha12(end; v) = 0. */
@@ -64,31 +59,12 @@ static pw_status locate(const pw_system *s, pw_az_mode mode, int end, double a, 
                         const pw_az_options *o, double *v)
 {
     end_ctx c = {s, mode, end, PW_OK};
-    gsl_root_fsolver *sol = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    if (!sol)
-        return PW_ENOMEM;
-    gsl_function F = {end_fn, &c};
-    double lo = fmin(a, b), hi = fmax(a, b);
-    int gs = gsl_root_fsolver_set(sol, &F, lo, hi);
-    size_t it = 0;
-    while (gs == GSL_SUCCESS) {
-        gs = gsl_root_fsolver_iterate(sol);
-        if (gs != GSL_SUCCESS)
-            break;
-        /* relative tolerance on P or T: 1e-12 is far below any Antoine uncertainty */
-        if (gsl_root_test_interval(gsl_root_fsolver_x_lower(sol), gsl_root_fsolver_x_upper(sol),
-                                   0.0, 1e-12) == GSL_SUCCESS)
-            break;
-        if (++it >= o->max_iter) {
-            gs = GSL_EMAXITER;
-            break;
-        }
-    }
-    *v = gsl_root_fsolver_root(sol);
-    gsl_root_fsolver_free(sol);
-    if (c.status != PW_OK)
-        return c.status;
-    return gs == GSL_SUCCESS ? PW_OK : gs == GSL_EMAXITER ? PW_EMAXITER : PW_ENOCONV;
+    /* relative tolerance on P or T: 1e-12 is far below any Antoine uncertainty */
+    pw_solve1d_opts so = pw_solve1d_default_opts();
+    so.xtol_abs = 0.0;
+    so.xtol_rel = 1e-12;
+    so.max_iter = o->max_iter > 100000 ? 100000u : (unsigned)o->max_iter;
+    return pw_root1d(end_fn, &c, fmin(a, b), fmax(a, b), NAN, NAN, &so, v, NULL);
 }
 
 static pw_status add_boundary(const pw_system *s, pw_az_mode mode, pw_az_scan *sc, size_t k,

@@ -4,14 +4,12 @@
 #include <pinchwise/azeotrope.h>
 
 #include <float.h>
-#include <gsl/gsl_errno.h>
-#include <gsl/gsl_min.h>
-#include <gsl/gsl_roots.h>
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
 
 #include "analysis/az_internal.h"
+#include "base/solve1d.h"
 
 pw_az_options pw_azeotrope_default_options(void)
 {
@@ -118,96 +116,49 @@ pw_status pw_az_end_ln_alpha(const pw_system *s, pw_az_mode mode, double fixed, 
     return PW_OK;
 }
 
-static double root_fn(double x, void *params)
+static pw_status root_fn(void *params, double x, double *f)
 {
-    pw_az_ctx *c = params;
-    double f;
     pw_eq_point eq;
-    if (pw_az_ctx_eval(c, x, &f, &eq) != PW_OK)
-        return NAN;
-    return f;
+    return pw_az_ctx_eval(params, x, f, &eq);
 }
 
-static double min_fn(double x, void *params)
+static pw_status min_fn(void *params, double x, double *f)
 {
     pw_az_ctx *c = params;
-    double f = root_fn(x, params);
-    return c->sign * f;
+    pw_status st = root_fn(params, x, f);
+    if (st == PW_OK)
+        *f *= c->sign;
+    return st;
 }
 
-static pw_status gsl_to_pw(int gs, const pw_az_ctx *c)
+static pw_solve1d_opts az_opts(const pw_az_ctx *c, double xtol_abs, double xtol_rel)
 {
-    if (c->status != PW_OK)
-        return c->status;
-    switch (gs) {
-    case GSL_SUCCESS:
-        return PW_OK;
-    case GSL_EMAXITER:
-        return PW_EMAXITER;
-    case GSL_EINVAL:
-        return PW_ENOBRACKET;
-    default:
-        return PW_ENOCONV;
-    }
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = xtol_abs;
+    o.xtol_rel = xtol_rel;
+    o.max_iter = c->opt.max_iter > 100000 ? 100000u : (unsigned)c->opt.max_iter;
+    return o;
 }
 
 pw_status pw_az_brent_root(pw_az_ctx *c, double a, double b, double *root)
 {
-    gsl_root_fsolver *sol = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    if (!sol)
-        return PW_ENOMEM;
-    gsl_function F = {root_fn, c};
-    int gs = gsl_root_fsolver_set(sol, &F, a, b);
-    size_t it = 0;
-    while (gs == GSL_SUCCESS) {
-        gs = gsl_root_fsolver_iterate(sol);
-        if (gs != GSL_SUCCESS)
-            break;
-        double lo = gsl_root_fsolver_x_lower(sol), hi = gsl_root_fsolver_x_upper(sol);
-        int t = gsl_root_test_interval(lo, hi, c->opt.xtol_abs, c->opt.xtol_rel);
-        if (t == GSL_SUCCESS)
-            break;
-        if (++it >= c->opt.max_iter) {
-            gs = GSL_EMAXITER;
-            break;
-        }
-    }
-    *root = gsl_root_fsolver_root(sol);
-    gsl_root_fsolver_free(sol);
-    return gsl_to_pw(gs, c);
+    pw_solve1d_opts o = az_opts(c, c->opt.xtol_abs, c->opt.xtol_rel);
+    pw_status st = pw_root1d(root_fn, c, a, b, NAN, NAN, &o, root, NULL);
+    return c->status != PW_OK ? c->status : st; /* an earlier failure of this search stands */
 }
 
 /* Minimises sign*f on [a, b] from the interior guess m (sign*f(m) below both ends). */
 static pw_status brent_min(pw_az_ctx *c, double a, double m, double b, double fm, double fa,
                            double fb, double *xm)
 {
-    gsl_min_fminimizer *sol = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
-    if (!sol)
-        return PW_ENOMEM;
-    gsl_function F = {min_fn, c};
-    int gs = gsl_min_fminimizer_set_with_values(sol, &F, m, c->sign * fm, a, c->sign * fa, b,
-                                                c->sign * fb);
-    size_t it = 0;
-    while (gs == GSL_SUCCESS) {
-        gs = gsl_min_fminimizer_iterate(sol);
-        if (gs != GSL_SUCCESS)
-            break;
-        /* A minimum is flat: its position is known to about sqrt(DBL_EPSILON) relative. */
-        int t = gsl_min_test_interval(gsl_min_fminimizer_x_lower(sol),
-                                      gsl_min_fminimizer_x_upper(sol), 1e-10, 0.0);
-        if (t == GSL_SUCCESS)
-            break;
-        /* Stop as soon as the function crosses zero: the caller then brackets two roots. */
-        if (gsl_min_fminimizer_f_minimum(sol) < 0.0)
-            break;
-        if (++it >= c->opt.max_iter) {
-            gs = GSL_EMAXITER;
-            break;
-        }
-    }
-    *xm = gsl_min_fminimizer_x_minimum(sol);
-    gsl_min_fminimizer_free(sol);
-    return gsl_to_pw(gs, c);
+    /* A minimum is flat: its position is known to about sqrt(DBL_EPSILON) relative. Stop as soon
+     * as the function crosses zero: the caller then brackets two roots. */
+    pw_solve1d_opts o = az_opts(c, 1e-10, 0.0);
+    o.f_stop = 0.0;
+    double fmin;
+    pw_status st = pw_min1d(min_fn, c, a, m, b, c->sign * fa, c->sign * fm, c->sign * fb, &o, xm,
+                            &fmin, NULL);
+    return c->status != PW_OK ? c->status : st;
 }
 
 static int sgn(double v)

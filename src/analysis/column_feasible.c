@@ -3,6 +3,7 @@
  * does not, a reason is written in words: an azeotrope between the products, a product beyond an
  * azeotrope, a curve that touches the diagonal, or a pinch at a product composition. */
 #include "analysis/column_internal.h"
+#include "base/solve1d.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -22,40 +23,18 @@ static pw_status excess(pw_column_ws *w, void *p, double x, double *f)
     return st;
 }
 
-static double min_trampoline(double x, void *params)
-{
-    pw_column_ws *w = params;
-    double f;
-    pw_status st = excess(w, NULL, x, &f);
-    if (st != PW_OK) {
-        if (w->cb_status == PW_OK)
-            w->cb_status = st;
-        return GSL_NAN;
-    }
-    return f;
-}
+static pw_status excess_fn(void *ctx, double x, double *f) { return excess(ctx, NULL, x, f); }
 
 /* Refines a grid local minimum of f = y* - x in [a, b] around m (f(m) < f(a), f(b)). */
 static pw_status refine_min(pw_column_ws *w, double a, double m, double b, double fa, double fm,
                             double fb, double *xmin, double *fmin)
 {
-    gsl_function F = {min_trampoline, w};
-    w->cb_status = PW_OK;
-    if (gsl_min_fminimizer_set_with_values(w->min, &F, m, fm, a, fa, b, fb) != GSL_SUCCESS)
-        return PW_ENOCONV;
-    for (int it = 0; it < MIN_MAX_ITER; it++) {
-        int gs = gsl_min_fminimizer_iterate(w->min);
-        if (w->cb_status != PW_OK)
-            return w->cb_status;
-        if (gs != GSL_SUCCESS)
-            return PW_ENOCONV;
-        double lo = gsl_min_fminimizer_x_lower(w->min), hi = gsl_min_fminimizer_x_upper(w->min);
-        if (gsl_min_test_interval(lo, hi, w->min_xtol, 0.0) == GSL_SUCCESS)
-            break;
-    }
-    *xmin = gsl_min_fminimizer_x_minimum(w->min);
-    *fmin = gsl_min_fminimizer_f_minimum(w->min);
-    return PW_OK;
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = w->min_xtol;
+    o.xtol_rel = 0.0;
+    o.max_iter = MIN_MAX_ITER;
+    pw_status st = pw_min1d(excess_fn, w, a, m, b, fa, fm, fb, &o, xmin, fmin, NULL);
+    return st == PW_EMAXITER ? PW_OK : st; /* the best point so far stands, as before */
 }
 
 /* The smallest interior grid minima of f, refined; reports the lowest. */
@@ -95,6 +74,73 @@ static pw_status lowest_interior(pw_column_ws *w, const double *xg, const double
     return PW_OK;
 }
 
+typedef struct fcell {
+    double a, fa, b, fb;
+} fcell;
+
+/* Proves f = y* - x > tol on every cell of the table, under the convexity bound K of the pinch
+ * search (f'' = y*''): on [a, b], f >= chord - K (x - a)(b - x)/2 - eps >= min(fa, fb) - K h^2/8
+ * - eps. Cells without that proof are halved (Brent on a bracketed dip); a point with f <= tol
+ * is returned in (*x_low, *f_low). A midpoint further below its chord than K allows raises K and
+ * the proof starts again. See docs/column.md, section 1. */
+static pw_status certify_positive(pw_column_ws *w, const double *xg, const double *fg, size_t n,
+                                  double tol, double *x_low, double *f_low)
+{
+    const double eps = w->y_noise, min_width = 1e-13 * (xg[n - 1] - xg[0]);
+    for (int round = 0; round < 8; round++) {
+        bool restart = false;
+        for (size_t j = 0; j + 1 < n && !restart; j++) {
+            fcell stack[128];
+            size_t top = 0;
+            stack[top++] = (fcell){xg[j], fg[j], xg[j + 1], fg[j + 1]};
+            while (top > 0 && !restart) {
+                fcell e = stack[--top];
+                const double h = e.b - e.a, K = w->conv_bound;
+                if (fmin(e.fa, e.fb) - K * h * h / 8.0 - eps > tol || h < min_width)
+                    continue;
+                double xm = e.a + 0.5 * h, fm;
+                pw_status st = excess(w, NULL, xm, &fm);
+                if (st != PW_OK)
+                    return st;
+                if (fm <= tol) {
+                    *x_low = xm;
+                    *f_low = fm;
+                    return PW_OK;
+                }
+                /* f's chord minus f equals y*'s: the same check as the pinch search's */
+                double below = 0.5 * (e.fa + e.fb) - fm;
+                if (below > K * h * h / 8.0 + 2.0 * eps) {
+                    w->conv_bound = fmax(2.0 * K, 32.0 * below / (h * h));
+                    restart = true;
+                    break;
+                }
+                double xs = xm, fs = fm;
+                if (fm < e.fa && fm < e.fb) {
+                    st = refine_min(w, e.a, xm, e.b, e.fa, fm, e.fb, &xs, &fs);
+                    if (st != PW_OK)
+                        return st;
+                    if (fs <= tol) {
+                        *x_low = xs;
+                        *f_low = fs;
+                        return PW_OK;
+                    }
+                    if (!(xs > e.a && xs < e.b)) {
+                        xs = xm;
+                        fs = fm;
+                    }
+                }
+                if (top + 2 > sizeof stack / sizeof stack[0])
+                    return PW_ENOCONV;
+                stack[top++] = (fcell){e.a, e.fa, xs, fs};
+                stack[top++] = (fcell){xs, fs, e.b, e.fb};
+            }
+        }
+        if (!restart)
+            return PW_OK;
+    }
+    return PW_ENOCONV;
+}
+
 static void append(char *buf, size_t len, const char *text)
 {
     size_t used = strlen(buf);
@@ -122,6 +168,11 @@ pw_status pw_column_check_feasible(pw_column_ws *w, const double *xg, const doub
         pw_status st = lowest_interior(w, xg, fg, n, &xm, &fm);
         if (st != PW_OK)
             return st;
+        if (fm > tol) {
+            st = certify_positive(w, xg, fg, n, tol, &xm, &fm);
+            if (st != PW_OK)
+                return st;
+        }
         if (fm > tol) {
             *ok = true;
             return PW_OK;

@@ -1,12 +1,10 @@
-/* Private to the column module: a workspace holding the GSL solvers (allocated once per call,
- * reused in every inner loop), safe curve evaluation, the inverse curve x*(y), and the
- * constant-molal-overflow mass balances. Not installed. */
+/* Private to the column module: a workspace (tolerances, the table of the curve, the convexity
+ * bound the pinch search relies on), safe curve evaluation, bracketed roots through
+ * base/solve1d, the inverse curve x*(y), and the constant-molal-overflow mass balances. Not
+ * installed. */
 #ifndef PW_ANALYSIS_COLUMN_INTERNAL_H
 #define PW_ANALYSIS_COLUMN_INTERNAL_H
 
-#include <gsl/gsl_errno.h>
-#include <gsl/gsl_min.h>
-#include <gsl/gsl_roots.h>
 #include <pinchwise/column.h>
 
 /* Absolute floor under which y* - x counts as zero (a pinch with no driving force). */
@@ -14,20 +12,20 @@
 
 typedef struct pw_column_ws {
     const pw_curve *curve;
-    gsl_root_fsolver *root;   /* Brent, bracketed */
-    gsl_min_fminimizer *min;  /* Brent minimiser */
+    double rtol;              /* relative tolerance on R_min */
     double root_xtol;         /* absolute x tolerance of root solves */
     double min_xtol;          /* absolute x tolerance of minimisations */
-    pw_status cb_status;      /* first failure inside a GSL callback */
     unsigned long n_eval;     /* curve evaluations (benchmarks, diagnostics) */
+    double conv_bound;        /* K >= y*'' on [xb, xd] (the search's assumption; docs/column.md) */
+    double y_noise;           /* absolute precision assumed of a curve value */
     const double *tab_x, *tab_y; /* y*(x) tabulated on [xb, xd] (NULL when not yet): brackets */
     size_t tab_n;                /* the inversions x*(y) between neighbouring grid points */
 } pw_column_ws;
 
-/* Allocates the solvers; rtol is the relative tolerance on R_min (see docs/column.md for how
- * it maps to x tolerances). PW_ENOMEM on allocation failure (nothing left allocated). */
+/* Sets the workspace up; rtol is the relative tolerance on R_min (see docs/column.md for how it
+ * maps to x tolerances). Allocates nothing (the 1-D solvers of base/solve1d.h live on the stack). */
 pw_status pw_column_ws_init(pw_column_ws *w, const pw_curve *curve, double rtol);
-/* Frees the solvers; accepts a zeroed or already freed workspace. */
+/* Kept for symmetry with init; accepts a zeroed workspace. */
 void pw_column_ws_free(pw_column_ws *w);
 
 /* y*(x) through the callback; PW_EDOM for x outside [0,1] or a non-finite answer. */
@@ -60,13 +58,21 @@ pw_status pw_column_check_feasible(pw_column_ws *w, const double *xg, const doub
 pw_status pw_column_qline(pw_column_ws *w, const pw_column_spec *s, const double *xg,
                           const double *yg, size_t n, double *xq, double *yq);
 
-/* The limiting slope of one section over its tabulated points px/py (n_pts, sorted in x, the
- * q-line point at index 0 for the rectifying section and at n_pts-1 for the stripping section):
- * rectifying max of (xd - y*)/(xd - x), stripping min of (y* - xb)/(x - xb), refined by GSL
- * Brent minimisation. *at_feed is true when the extremum is the q-line point. */
-pw_status pw_column_section_limit(pw_column_ws *w, const pw_column_spec *s, pw_section sec,
-                                  const double *px, const double *py, size_t n_pts, double *slope,
-                                  double *x_lim, double *y_lim, bool *at_feed);
+/* K, the bound on the curve's convexity the section search relies on, from the table's second
+ * differences (w->tab_* set); see docs/column.md. */
+void pw_column_set_conv_bound(pw_column_ws *w);
+
+/* The limiting slope of one section, searched over the whole curve interval [lo, hi] (curve
+ * values ylo, yhi at its ends; the table's points inside are used as the coarse bracket): rectifying
+ * (pole xd = hi) max of (xd - y*)/(xd - x), stripping (pole xb = lo) min of (y* - xb)/(x - xb).
+ * The end point (xe, ye) - the q-line point, or where the operating lines meet when a flow limits -
+ * is a candidate too, and wins ties; *at_feed says it limits. A branch-and-bound on the cells with
+ * the convexity bound w->conv_bound proves no cell hides a larger value; GSL Brent refines every
+ * local maximum it meets. See docs/column.md. */
+pw_status pw_column_section_search(pw_column_ws *w, const pw_column_spec *s, pw_section sec,
+                                   double lo, double ylo, double hi, double yhi, double xe,
+                                   double ye, double *slope, double *x_lim, double *y_lim,
+                                   bool *at_feed);
 
 /* D/F and B/F from the component balance. */
 double pw_column_d_frac(const pw_column_spec *s);

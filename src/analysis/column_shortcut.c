@@ -3,9 +3,8 @@
  * (1972) and Eduljee (1975). See docs/column.md. */
 #include <pinchwise/column.h>
 
-#include <float.h>
-#include <gsl/gsl_errno.h>
-#include <gsl/gsl_roots.h>
+#include "base/solve1d.h"
+
 #include <math.h>
 
 typedef struct underwood_feed {
@@ -20,6 +19,12 @@ static double underwood_feed_fn(double theta, void *p)
     return u->alpha * u->zf / (u->alpha - theta) + (1.0 - u->zf) / (1.0 - theta) - (1.0 - u->q);
 }
 
+static pw_status underwood_fn1d(void *p, double theta, double *f)
+{
+    *f = underwood_feed_fn(theta, p);
+    return PW_OK;
+}
+
 pw_status pw_underwood_rmin(double alpha, double zf, double xd, double q, double *r_min)
 {
     if (!r_min || !(alpha > 1.0) || !isfinite(alpha) || !(zf > 0.0 && zf < 1.0) ||
@@ -30,29 +35,9 @@ pw_status pw_underwood_rmin(double alpha, double zf, double xd, double q, double
     double lo = 1.0 + 1e-14 * span, hi = alpha - 1e-14 * span;
     if (!(underwood_feed_fn(lo, &u) < 0.0 && underwood_feed_fn(hi, &u) > 0.0))
         return PW_ENOBRACKET;
-    gsl_function F = {underwood_feed_fn, &u};
-    gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    if (!s)
-        return PW_ENOMEM;
-    pw_status st = PW_EMAXITER;
+    pw_solve1d_opts o = pw_solve1d_default_opts();
     double theta = NAN;
-    if (gsl_root_fsolver_set(s, &F, lo, hi) != GSL_SUCCESS) {
-        st = PW_ENOBRACKET;
-    } else {
-        for (int it = 0; it < 200; it++) {
-            if (gsl_root_fsolver_iterate(s) != GSL_SUCCESS) {
-                st = PW_ENOCONV;
-                break;
-            }
-            double a = gsl_root_fsolver_x_lower(s), b = gsl_root_fsolver_x_upper(s);
-            if (gsl_root_test_interval(a, b, 0.0, 4.0 * DBL_EPSILON) == GSL_SUCCESS) {
-                theta = gsl_root_fsolver_root(s);
-                st = PW_OK;
-                break;
-            }
-        }
-    }
-    gsl_root_fsolver_free(s);
+    pw_status st = pw_root1d(underwood_fn1d, &u, lo, hi, NAN, NAN, &o, &theta, NULL);
     if (st != PW_OK)
         return st;
     *r_min = alpha * xd / (alpha - theta) + (1.0 - xd) / (1.0 - theta) - 1.0;

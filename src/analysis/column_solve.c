@@ -38,7 +38,7 @@ static void clear_result(pw_column_result *r)
 }
 
 typedef struct col_buffers {
-    double *xg, *yg, *fg, *px, *py;
+    double *xg, *yg, *fg;
 } col_buffers;
 
 static pw_status tabulate(pw_column_ws *w, const pw_column_spec *s, size_t n, col_buffers *b)
@@ -77,23 +77,13 @@ static void apply_flow_limits(const pw_column_spec *s, pw_column_result *out)
 /* The q-line meets the curve above xd (a subcooled feed rich in component 1): at R = 0 the
  * operating lines meet on the q-line at y = xd; the stripping section, scanned up to that point,
  * decides whether any reflux is needed. */
-static pw_status reflux_limited_rmin(pw_column_ws *w, const pw_column_spec *s, size_t n,
-                                     col_buffers *b, double x_i0, pw_column_result *out)
+static pw_status reflux_limited_rmin(pw_column_ws *w, const pw_column_spec *s, col_buffers *b,
+                                     double x_i0, double y_i0, pw_column_result *out)
 {
-    size_t k = 0;
-    for (size_t j = 1; j + 1 < n; j++)
-        if (b->xg[j] < x_i0) {
-            b->px[k] = b->xg[j];
-            b->py[k++] = b->yg[j];
-        }
-    b->px[k] = x_i0;
-    b->py[k++] = s->xd;
-    if (k < 2)
-        return PW_ERANGE;
     double s_lim, xs, ys;
     bool at_end;
-    pw_status st = pw_column_section_limit(w, s, PW_SECTION_STRIPPING, b->px, b->py, k, &s_lim,
-                                           &xs, &ys, &at_end);
+    pw_status st = pw_column_section_search(w, s, PW_SECTION_STRIPPING, s->xb, b->yg[0], x_i0,
+                                            y_i0, x_i0, s->xd, &s_lim, &xs, &ys, &at_end);
     if (st != PW_OK)
         return st;
     out->x_q = NAN;
@@ -108,54 +98,22 @@ static pw_status reflux_limited_rmin(pw_column_ws *w, const pw_column_spec *s, s
     return PW_OK;
 }
 
-/* Limiting slopes of both sections; the larger R limits. */
+/* Limiting slopes of both sections, each searched over its whole range [x_q, xd] and [xb, x_q];
+ * the larger R limits. */
 static pw_status find_rmin(pw_column_ws *w, const pw_column_spec *s, size_t n, col_buffers *b,
                            pw_column_result *out)
 {
     const double xq = out->x_q, yq = out->y_q;
-    /* Rectifying points: the q-line point, then grid points in (x_q, xd). */
-    size_t k = 0;
-    b->px[k] = xq;
-    b->py[k++] = yq;
-    for (size_t j = 0; j + 1 < n; j++)
-        if (b->xg[j] > xq) {
-            b->px[k] = b->xg[j];
-            b->py[k++] = b->yg[j];
-        }
-    if (k < 2) { /* x_q within one grid step of xd: add a midpoint */
-        b->px[k] = 0.5 * (xq + s->xd);
-        pw_status st = pw_column_y(w, b->px[k], &b->py[k]);
-        if (st != PW_OK)
-            return st;
-        k++;
-    }
     double m_lim, xr, yr;
     bool feed_r;
-    pw_status st =
-        pw_column_section_limit(w, s, PW_SECTION_RECTIFYING, b->px, b->py, k, &m_lim, &xr, &yr,
-                                &feed_r);
+    pw_status st = pw_column_section_search(w, s, PW_SECTION_RECTIFYING, xq, yq, s->xd,
+                                            b->yg[n - 1], xq, yq, &m_lim, &xr, &yr, &feed_r);
     if (st != PW_OK)
         return st;
-    /* Stripping points: grid points in (xb, x_q), then the q-line point. */
-    k = 0;
-    for (size_t j = 1; j < n; j++)
-        if (b->xg[j] < xq) {
-            b->px[k] = b->xg[j];
-            b->py[k++] = b->yg[j];
-        }
-    if (k == 0) {
-        b->px[k] = 0.5 * (s->xb + xq);
-        st = pw_column_y(w, b->px[k], &b->py[k]);
-        if (st != PW_OK)
-            return st;
-        k++;
-    }
-    b->px[k] = xq;
-    b->py[k++] = yq;
     double s_lim, xs, ys;
     bool feed_s;
-    st = pw_column_section_limit(w, s, PW_SECTION_STRIPPING, b->px, b->py, k, &s_lim, &xs, &ys,
-                                 &feed_s);
+    st = pw_column_section_search(w, s, PW_SECTION_STRIPPING, s->xb, b->yg[0], xq, yq, xq, yq,
+                                  &s_lim, &xs, &ys, &feed_s);
     if (st != PW_OK)
         return st;
 
@@ -182,17 +140,10 @@ static pw_status find_rmin(pw_column_ws *w, const pw_column_spec *s, size_t n, c
 static pw_status boilup_limited_rmin(pw_column_ws *w, const pw_column_spec *s, size_t n,
                                      col_buffers *b, double y_i, pw_column_result *out)
 {
-    size_t k = 0;
-    b->px[k] = s->xb;
-    b->py[k++] = y_i;
-    for (size_t j = 1; j + 1 < n; j++) {
-        b->px[k] = b->xg[j];
-        b->py[k++] = b->yg[j];
-    }
     double m_lim, xr, yr;
     bool at_end;
-    pw_status st = pw_column_section_limit(w, s, PW_SECTION_RECTIFYING, b->px, b->py, k, &m_lim,
-                                           &xr, &yr, &at_end);
+    pw_status st = pw_column_section_search(w, s, PW_SECTION_RECTIFYING, s->xb, b->yg[0], s->xd,
+                                            b->yg[n - 1], s->xb, y_i, &m_lim, &xr, &yr, &at_end);
     if (st != PW_OK)
         return st;
     out->x_q = NAN;
@@ -216,6 +167,19 @@ static pw_status boilup_limited_rmin(pw_column_ws *w, const pw_column_spec *s, s
     return out->r_min > 0.0 ? PW_OK : PW_ERANGE;
 }
 
+/* N_min by stepping at total reflux; more than max_stages is reported in n_min_status. */
+static pw_status total_reflux(pw_column_ws *w, const pw_column_spec *s, const pw_column_options *o,
+                              pw_column_result *out)
+{
+    pw_status st = pw_column_step_ws(w, s, true, INFINITY, o->max_stages, &out->n_min, NULL);
+    out->n_min_status = st;
+    if (st == PW_EMAXITER) {
+        out->n_min = NAN;
+        return PW_OK;
+    }
+    return st;
+}
+
 static pw_status design_table(pw_column_ws *w, const pw_column_spec *s,
                               const pw_column_options *o, pw_column_result *out)
 {
@@ -229,8 +193,13 @@ static pw_status design_table(pw_column_ws *w, const pw_column_spec *s,
         row->gilliland_stages = pw_gilliland_molokanov(out->n_min, row->R, out->r_min);
         pw_status st = pw_column_step_ws(w, s, false, row->R, o->max_stages, &row->stages,
                                          &row->feed_stage);
-        if (st != PW_OK)
+        if (st == PW_ENOMEM)
             return st;
+        row->status = st; /* a row the stepping cannot reach is reported, not fatal */
+        if (st != PW_OK) {
+            row->stages = NAN;
+            row->feed_stage = 0;
+        }
         out->n_design = i + 1;
     }
     return PW_OK;
@@ -247,6 +216,7 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
     w->tab_x = b->xg;
     w->tab_y = b->yg;
     w->tab_n = n;
+    pw_column_set_conv_bound(w);
     out->alpha_bottom = pw_column_alpha(b->xg[0], b->yg[0]);
     out->alpha_top = pw_column_alpha(b->xg[n - 1], b->yg[n - 1]);
     bool ok;
@@ -258,9 +228,9 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
         double x_i0 = ((s->q - 1.0) * s->xd + s->zf) / s->q; /* q-line at y = xd */
         double y_i0;
         if (pw_column_y(w, x_i0, &y_i0) == PW_OK && y_i0 > s->xd) {
-            st = reflux_limited_rmin(w, s, n, b, x_i0, out);
+            st = reflux_limited_rmin(w, s, b, x_i0, y_i0, out);
             if (st == PW_OK)
-                st = pw_column_step_ws(w, s, true, INFINITY, o->max_stages, &out->n_min, NULL);
+                st = total_reflux(w, s, o, out);
             if (st != PW_OK)
                 return st;
             out->n_fenske = pw_fenske_nmin(sqrt(out->alpha_top * out->alpha_bottom), s->xd, s->xb);
@@ -272,8 +242,13 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
         double y_i = (s->q * s->xb - s->zf) / (s->q - 1.0); /* q-line at x = xb */
         if (y_i > s->xb && y_i < b->yg[0]) {
             st = boilup_limited_rmin(w, s, n, b, y_i, out);
+            if (st == PW_ERANGE)
+                snprintf(out->reason, sizeof out->reason,
+                         "the feed (q = %g) brings more vapor than the rectifying section needs "
+                         "and no boil-up is needed: no pinch limits this split",
+                         s->q);
             if (st == PW_OK)
-                st = pw_column_step_ws(w, s, true, INFINITY, o->max_stages, &out->n_min, NULL);
+                st = total_reflux(w, s, o, out);
             if (st != PW_OK)
                 return st;
             out->n_fenske = pw_fenske_nmin(sqrt(out->alpha_top * out->alpha_bottom), s->xd, s->xb);
@@ -293,7 +268,7 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
     st = find_rmin(w, s, n, b, out);
     if (st != PW_OK)
         return st;
-    st = pw_column_step_ws(w, s, true, INFINITY, o->max_stages, &out->n_min, NULL);
+    st = total_reflux(w, s, o, out);
     if (st != PW_OK)
         return st;
     out->n_fenske = pw_fenske_nmin(sqrt(out->alpha_top * out->alpha_bottom), s->xd, s->xb);
@@ -315,10 +290,10 @@ pw_status pw_column_solve(const pw_curve *curve, const pw_column_spec *spec,
     if (st != PW_OK)
         return st;
     const size_t n = o.grid;
-    double *mem = malloc((5 * n + 2) * sizeof *mem);
+    double *mem = malloc(3 * n * sizeof *mem);
     if (!mem)
         return PW_ENOMEM;
-    col_buffers b = {mem, mem + n, mem + 2 * n, mem + 3 * n, mem + 4 * n + 1};
+    col_buffers b = {mem, mem + n, mem + 2 * n};
     pw_column_ws w = {0};
     st = pw_column_ws_init(&w, curve, o.rtol);
     if (st == PW_OK)

@@ -26,6 +26,11 @@ pw_consistency_options pw_consistency_default_options(void)
         .outlier_floor_T_K = 0.05,
         .outlier_floor_P_rel = 5e-4,
         .dilution_min_lngamma = 0.05,
+        .sigma_y = NAN,
+        .sigma_x = NAN,
+        .sigma_T_K = NAN,
+        .sigma_P_rel = NAN,
+        .point_confidence = 0.99,
         .strict_verdict = false,
     };
 }
@@ -46,6 +51,16 @@ static pw_status check_options(const pw_consistency_options *o, pw_error *err)
         o->legendre_terms_min > o->legendre_terms_max)
         return pw_error_set(err, PW_EINVAL, NULL, 0, "Legendre terms must satisfy 1 <= min <= max <= %d",
                             PW_CONSISTENCY_MAX_TERMS);
+    const double sig[] = {o->sigma_y, o->sigma_x, o->sigma_T_K, o->sigma_P_rel};
+    for (size_t i = 0; i < sizeof sig / sizeof sig[0]; i++)
+        if (!isnan(sig[i]) && !(sig[i] > 0.0 && isfinite(sig[i])))
+            return pw_error_set(err, PW_EINVAL, NULL, 0,
+                                "stated uncertainties must be positive and finite (or unset)");
+    if (!isnan(o->sigma_y) && !(o->sigma_y < 1.0))
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "sigma_y %g: must lie between 0 and 1",
+                            o->sigma_y);
+    if (!(o->point_confidence >= 0.5 && o->point_confidence < 1.0))
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "point_confidence must lie in [0.5, 1)");
     if (o->legendre_choice != PW_LEGENDRE_BY_AICC && o->legendre_choice != PW_LEGENDRE_BY_RESIDUAL)
         return pw_error_set(err, PW_EINVAL, NULL, 0, "unknown Legendre order choice");
     return PW_OK;
@@ -69,7 +84,7 @@ static void add_reason(pw_consistency_result *r, const char *fmt, ...)
  * with strict_verdict every test that ran must pass. */
 static bool is_primary(const pw_consistency_result *r, int i, bool strict)
 {
-    if (strict || i == PW_CTEST_ENDPOINT || i == PW_CTEST_POINT)
+    if (strict || i == PW_CTEST_ENDPOINT || i == PW_CTEST_POINT || i == PW_CTEST_SCATTER)
         return true;
     return !r->tests[PW_CTEST_POINT].ran;
 }
@@ -151,11 +166,15 @@ pw_status pw_consistency_run(const pw_dataset *ds, const pw_component *c1, const
     out->area_A = out->area_B = out->herington_D = out->herington_J = NAN;
     out->herington_theta_K = out->herington_Tmin_K = out->legendre_rms = out->rms_dlnratio = NAN;
     out->area_degree = -1;
+    out->sigma_y_used = out->sigma_x_used = out->sigma_T_used_K = out->sigma_P_used_rel = NAN;
+    out->point_dy_limit_sigma = out->scatter_chi2 = NAN;
     st = pw_cs_area_test(&d, out);
     if (st == PW_OK)
         st = pw_cs_herington_test(&d, out);
     if (st == PW_OK)
         st = pw_cs_point_test(&d, out);
+    if (st == PW_OK)
+        st = pw_cs_scatter_test(&d, out);
     if (st == PW_OK)
         st = pw_cs_dilution_tests(&d, out);
     if (st == PW_OK)

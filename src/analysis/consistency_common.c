@@ -3,6 +3,7 @@
  * and the static description of each test. */
 #include "consistency_internal.h"
 
+#include <float.h>
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_multifit.h>
 #include <gsl/gsl_poly.h>
@@ -54,7 +55,22 @@ static const struct {
                            "the measured pure-component points disagree with the vapor-pressure "
                            "correlation: wrong component, impure sample, calibration error, or a "
                            "correlation used outside its range; every other test inherits this error"},
+    [PW_CTEST_SCATTER] = {"point_scatter", "Point-test residuals against the stated uncertainties",
+                          "Van Ness, Byer & Gibbs (1973), AIChE J. 19:238 (residuals must match the "
+                          "experimental error); chi-square test of residuals against stated standard "
+                          "uncertainties (Bevington & Robinson 2003, Data Reduction and Error "
+                          "Analysis, 3rd ed., ch. 11, from memory)",
+                          "sqrt(chi2/dof) < sqrt(chi2_0.99(dof)/dof), chi2 over dy/sigma_y and the "
+                          "Barker residual over sigma_T (or sigma_P)",
+                          "the residuals of the point test exceed what the stated uncertainties allow: "
+                          "y, T or P carry systematic errors (a thermometer offset, for instance), or "
+                          "the stated uncertainties are too small"},
 };
+
+double pw_cs_rounding_level(size_t n, double vmax)
+{
+    return 1000.0 * (double)(n ? n : 1) * DBL_EPSILON * (1.0 + fabs(vmax));
+}
 
 void pw_cs_test_init(pw_ctest *t, pw_ctest_id id)
 {

@@ -50,6 +50,19 @@ pw_status pw_cs_point_test(const cs_data *d, pw_consistency_result *r);
 pw_status pw_cs_dilution_tests(const cs_data *d, pw_consistency_result *r);
 pw_status pw_cs_endpoint_test(const cs_data *d, pw_consistency_result *r);
 void pw_cs_quality(const cs_data *d, pw_consistency_result *r);
+
+/* The stated-uncertainty part of the point test (consistency_scatter.c): runs after
+ * pw_cs_point_test, tightens the legendre_point limit and fills point_scatter. */
+pw_status pw_cs_scatter_test(const cs_data *d, pw_consistency_result *r);
+
+/* y1 and the bubble quantity (P in Pa, isothermal; T in K, isobaric) of the Legendre series
+ * with `terms` coefficients a at point q with its x1 replaced by x1 (consistency_point.c). */
+pw_status pw_cs_legendre_bubble(const cs_data *d, size_t terms, const double *a,
+                                const cs_point *q, double x1, double *y1, double *calc);
+
+/* Rounding level of a sum of |values| whose largest magnitude is vmax, over n values:
+ * 1000 n DBL_EPSILON (1 + vmax). Below it a ratio of such sums is noise (ideal data). */
+double pw_cs_rounding_level(size_t n, double vmax);
 void pw_cs_outliers(const cs_data *d, pw_consistency_result *r);
 
 /* Signed area of the polynomial over [0, 1]: A = integral of its positive part, B = |integral

@@ -71,6 +71,8 @@ static const char *const legendre_names[PW_MAX_PARAMS] = {"a0", "a1", "a2", "a3"
 static const char *const legendre_units[PW_MAX_PARAMS] = {"-", "-", "-", "-", "-", "-"};
 static const double legendre_zero[PW_MAX_PARAMS] = {0.0};
 static const bool legendre_fitted[PW_MAX_PARAMS] = {true, true, true, true, true, true};
+static const double legendre_starts[PW_MAX_PARAMS][2] = {{-2.5, 3.0}, {-2.5, 3.0}, {-2.5, 3.0},
+                                                         {-2.5, 3.0}, {-2.5, 3.0}, {-2.5, 3.0}};
 
 #define LEGENDRE_TYPE(N)                                                                          \
     static pw_status legendre_check_##N(const double *p) { return legendre_check(p, N); }        \
@@ -83,7 +85,7 @@ static const bool legendre_fitted[PW_MAX_PARAMS] = {true, true, true, true, true
     static const pw_model_type legendre_##N = {                                                   \
         "legendre" #N, "Legendre series G^E, " #N " terms (Fredenslund, Gmehling & Rasmussen 1977)", \
         N, legendre_names, legendre_units, legendre_zero, legendre_fitted, legendre_check_##N,   \
-        legendre_eval_##N};
+        legendre_eval_##N, legendre_starts, false, NULL, NULL};
 
 LEGENDRE_TYPE(1)
 LEGENDRE_TYPE(2)

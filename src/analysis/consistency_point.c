@@ -4,11 +4,11 @@
  * with the measured y. Residuals: isothermal (P_calc - P)/P, isobaric T_calc - T [K].
  * The number of terms (3-5 by default) is chosen by the lowest AICc (or lowest residual). */
 #include "consistency_internal.h"
+#include "base/solve1d.h"
 
 #include <float.h>
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_multifit_nlinear.h>
-#include <gsl/gsl_roots.h>
 #include <math.h>
 #include <string.h>
 
@@ -47,6 +47,16 @@ static double tb_fun(double T, void *vp)
     return log(s) - tp->lnP;
 }
 
+static pw_status tb_fn1d(void *vp, double T, double *f)
+{
+    tb_params *tp = vp;
+    double v = tb_fun(T, vp);
+    if (tp->st != PW_OK)
+        return tp->st;
+    *f = v;
+    return PW_OK;
+}
+
 /* T at which x1 g1 P1sat(T) + x2 g2 P2sat(T) = P, for T-independent gammas. The bracket is
  * exact: at min_i Tsat_i(P/(x_i g_i)) one term alone reaches P; at min_i Tsat_i(P/(2 x_i g_i))
  * (over the terms that can reach P/2) neither term exceeds P/2. */
@@ -63,29 +73,11 @@ static pw_status bubble_T(const cs_data *d, const double xg[2], double P, double
     if (!isfinite(hi) || !isfinite(lo) || !(lo < hi))
         return PW_ENOBRACKET;
     tb_params tp = {{d->comp[0], d->comp[1]}, {xg[0], xg[1]}, log(P), PW_OK};
-    gsl_function F = {tb_fun, &tp};
-    gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    if (!s)
-        return PW_ENOMEM;
-    if (gsl_root_fsolver_set(s, &F, lo, hi) != GSL_SUCCESS) {
-        gsl_root_fsolver_free(s);
-        return tp.st != PW_OK ? tp.st : PW_ENOBRACKET;
-    }
-    pw_status st = PW_EMAXITER;
-    for (int it = 0; it < 200; it++) {
-        if (gsl_root_fsolver_iterate(s) != GSL_SUCCESS || tp.st != PW_OK) {
-            st = tp.st != PW_OK ? tp.st : PW_ENOCONV;
-            break;
-        }
-        double a = gsl_root_fsolver_x_lower(s), b = gsl_root_fsolver_x_upper(s);
-        if (gsl_root_test_interval(a, b, 0.0, 4.0 * DBL_EPSILON) == GSL_SUCCESS) {
-            st = PW_OK;
-            break;
-        }
-    }
-    *T = gsl_root_fsolver_root(s);
-    gsl_root_fsolver_free(s);
-    return st;
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = 0.0;
+    o.xtol_rel = 4.0 * DBL_EPSILON;
+    o.max_iter = 200;
+    return pw_root1d(tb_fn1d, &tp, lo, hi, NAN, NAN, &o, T, NULL);
 }
 
 static pw_status bubble(const cs_data *d, const pw_model_type *m, const double *a,
@@ -178,7 +170,22 @@ static pw_status barker_run(const cs_data *d, size_t p, const double *a0, double
     if (gs == GSL_SUCCESS)
         gs = gsl_multifit_nlinear_driver(200, 1e3 * DBL_EPSILON, 1e3 * DBL_EPSILON, 0.0, NULL, NULL,
                                          &info, w);
+    /* GSL's codes mapped explicitly (as in src/fit/fit.c): success (any info: xtol, gtol, ftol
+     * or a tolerance at machine precision) is converged; GSL_EMAXITER with info GSL_ENOPROG means
+     * no step lowered the cost from the start, which is converged when the start already fits
+     * to rounding level (noise-free data from the start's model, e.g. ideal data at a_k = 0);
+     * GSL_EMAXITER otherwise is the iteration limit; anything else did not converge. */
     pw_status st = gs == GSL_SUCCESS ? PW_OK : gs == GSL_EMAXITER ? PW_EMAXITER : PW_ENOCONV;
+    if (gs == GSL_EMAXITER && info == GSL_ENOPROG) {
+        gsl_vector *f0 = gsl_multifit_nlinear_residual(w);
+        double s0 = 0.0, scale = 0.0;
+        for (size_t i = 0; i < n; i++) {
+            s0 += gsl_vector_get(f0, i) * gsl_vector_get(f0, i);
+            scale = fmax(scale, d->ds->kind == PW_DATA_ISOTHERMAL ? 1.0 : d->in[i].T_K);
+        }
+        double tol = 1e3 * DBL_EPSILON * scale;
+        st = s0 <= (double)n * tol * tol ? PW_OK : PW_ENOCONV;
+    }
     if (st == PW_OK) {
         gsl_vector *x = gsl_multifit_nlinear_position(w);
         gsl_vector *f = gsl_multifit_nlinear_residual(w);
@@ -300,4 +307,21 @@ pw_status pw_cs_point_test(const cs_data *d, pw_consistency_result *r)
     t->value = sum_abs_dy / (double)n_y;
     t->pass = t->value < t->limit;
     return PW_OK;
+}
+
+pw_status pw_cs_legendre_bubble(const cs_data *d, size_t terms, const double *a,
+                                const cs_point *q, double x1, double *y1, double *calc)
+{
+    const pw_model_type *m = pw_cs_legendre_model(terms);
+    if (!m || !(x1 > 0.0 && x1 < 1.0))
+        return PW_EDOM;
+    cs_point p = *q;
+    p.x1 = x1;
+    bubble_state b;
+    pw_status st = bubble(d, m, a, &p, &b, NULL);
+    if (st == PW_OK) {
+        *y1 = b.y1;
+        *calc = b.calc;
+    }
+    return st;
 }

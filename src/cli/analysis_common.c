@@ -42,11 +42,7 @@ void pw_cli_warn_fit(const char *cmd, const pw_fit_result *fit)
 
 const char *pw_cli_caution_text(void)
 {
-    return "Screening estimate from a correlation fitted to limited laboratory data, not a design. "
-           "Verify with rigorous simulation and laboratory or pilot data; many solvents here are "
-           "flammable or toxic (see the Safety Data Sheet); pressure equipment and relief must follow "
-           "local codes and regulations; any design must be reviewed by a qualified, licensed "
-           "engineer.";
+    return pw_caution_text();
 }
 
 void pw_cli_print_caution(FILE *f)
@@ -60,14 +56,5 @@ void pw_cli_print_caution(FILE *f)
 
 json_t *pw_cli_azeotrope_json(const pw_azeotrope *az)
 {
-    json_t *o = json_object();
-    json_object_set_new(o, "x1", pw_cli_json_num(az->x1));
-    json_object_set_new(o, "T_K", pw_cli_json_num(az->T_K));
-    json_object_set_new(o, "P_kPa", pw_cli_json_num(az->P_Pa / 1000.0));
-    json_object_set_new(o, "kind", json_string(pw_az_kind_name(az->kind)));
-    json_object_set_new(o, "gamma", json_pack("[o,o]", pw_cli_json_num(az->gamma[0]),
-                                              pw_cli_json_num(az->gamma[1])));
-    json_object_set_new(o, "slope_ln_alpha", pw_cli_json_num(az->slope));
-    json_object_set_new(o, "tangential", json_boolean(az->tangential));
-    return o;
+    return pw_azeotrope_entry_json(az);
 }

@@ -67,37 +67,17 @@ int pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_
             o.progress = pw_cli_progress_tenths;
             o.progress_ctx = &pc;
         }
-        pw_status st = pw_unc_azeo_assess(fit, &one, &o, &u->res[i], NULL);
+        /* one azeotrope per call: the progress line names it */
+        pw_status st = pw_azeotrope_unc_run(fit, &one, &o, &u->res[i], err);
         if (st != PW_OK)
-            return pw_status_exit_code(pw_error_set(
-                err, st, fit->dataset_path[0] ? fit->dataset_path : NULL, 0,
-                "uncertainty of the azeotrope at x1 = %.4f failed: %s", r->az[i].x1,
-                pw_strerror(st)));
+            return pw_status_exit_code(st);
     }
     return 0;
 }
 
 void pw_azeo_uncert_json(const pw_azeo_uncert *u, const pw_az_result *r, json_t *list)
 {
-    bool isP = r->mode == PW_AZ_ISOBARIC;
-    for (size_t i = 0; i < u->n && i < json_array_size(list); i++) {
-        json_t *az = json_array_get(list, i);
-        const pw_unc_result *res = &u->res[i];
-        json_object_set_new(az, "x1_ci95", pw_cli_json_pair(res->out[PW_UNC_AZ_X1].ci));
-        json_object_set_new(az, isP ? "T_K_ci95" : "P_kPa_ci95",
-                            pw_cli_json_pair(res->out[PW_UNC_AZ_TP].ci));
-        json_t *j = json_object();
-        json_object_set_new(j, "x1", pw_cli_unc_output_json(&res->out[PW_UNC_AZ_X1]));
-        json_object_set_new(j, isP ? "T_K" : "P_kPa",
-                            pw_cli_unc_output_json(&res->out[PW_UNC_AZ_TP]));
-        json_object_set_new(j, "present_probability", pw_cli_json_num(res->p_feasible));
-        json_object_set_new(j, "draws", json_pack("{s:I,s:I,s:I,s:I,s:I}",
-            "evaluated", (json_int_t)res->n_samples, "present", (json_int_t)res->n_feasible,
-            "absent", (json_int_t)res->n_infeasible, "failed", (json_int_t)res->n_failed,
-            "redrawn_outside_domain", (json_int_t)res->n_redrawn));
-        json_object_set_new(j, "seed", json_integer((json_int_t)u->opt.seed));
-        json_object_set_new(az, "uncertainty", j);
-    }
+    pw_azeotrope_unc_doc(list, r, u->res, u->n, u->opt.seed);
 }
 
 void pw_azeo_uncert_print(const pw_azeo_uncert *u, const pw_az_result *r)

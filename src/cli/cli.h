@@ -4,6 +4,7 @@
 #define PW_CLI_H
 
 #include <jansson.h>
+#include <pinchwise/commands.h>
 #include <pinchwise/component.h>
 #include <pinchwise/equilibrium.h>
 #include <pinchwise/fileio.h>
@@ -121,9 +122,6 @@ void pw_cli_install_signal_cleanup(void);
 /* Routes jansson's allocations through a wrapper that remembers a failure (main calls it once,
  * before any JSON is built); pw_cli_print_json then refuses to print. */
 void pw_cli_watch_json_allocations(void);
-
-/* The component library file pw_cli_load_components reads (NULL when none is found). */
-const char *pw_cli_components_path(void);
 
 /* A whole number for option opt in [lo, hi] (hi at most 2^53): digits only, optionally in
  * exponent form ("1e3"); a fraction, a sign where lo >= 0, NaN or a value out of range is refused

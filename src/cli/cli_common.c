@@ -41,30 +41,9 @@ void pw_cli_warnf(const char *cmd, const char *fmt, ...)
     fputc('\n', stderr);
 }
 
-const char *pw_cli_components_path(void)
-{
-    const char *candidates[3] = {getenv("PINCHWISE_COMPONENTS"), PW_DEFAULT_COMPONENTS,
-                                 PW_INSTALLED_COMPONENTS};
-    for (size_t i = 0; i < 3; i++)
-        if (candidates[i] && candidates[i][0] && access(candidates[i], R_OK) == 0)
-            return candidates[i];
-    return NULL;
-}
-
 pw_status pw_cli_load_components(pw_complib *lib, const char *extra_path, pw_error *err)
 {
-    const char *found = pw_cli_components_path();
-    pw_complib_init(lib);
-    if (!found)
-        return pw_error_set(err, PW_ENOTFOUND, NULL, 0,
-                            "the component library components.csv was not found (set "
-                            "PINCHWISE_COMPONENTS to its path)");
-    pw_status st = pw_complib_read(lib, found, err);
-    if (st == PW_OK && extra_path)
-        st = pw_complib_read(lib, extra_path, err);
-    if (st != PW_OK)
-        pw_complib_free(lib);
-    return st;
+    return pw_complib_load_default(lib, extra_path, err);
 }
 
 pw_status pw_cli_quantity(pw_quantity q, const char *opt, const char *text, double *si,
@@ -119,10 +98,9 @@ void pw_cli_watch_json_allocations(void)
 
 int pw_cli_print_json(json_t *obj)
 {
-    /* the whole text first: a failure half-way through must not leave half an object on stdout */
-    char *text = obj ? json_dumps(obj, JSON_INDENT(2) | JSON_REAL_PRECISION(17) |
-                                           JSON_PRESERVE_ORDER)
-                     : NULL;
+    /* the whole text first (the library's text, the same as the Python module's): a failure
+     * half-way through must not leave half an object on stdout */
+    char *text = obj ? pw_json_text(obj) : NULL;
     json_decref(obj);
     if (!text || atomic_load(&json_alloc_failed)) {
         free(text);
@@ -130,16 +108,14 @@ int pw_cli_print_json(json_t *obj)
                         "printed)\n");
         return pw_status_exit_code(PW_ENOMEM);
     }
-    size_t len = strlen(text);
-    int bad = fwrite(text, 1, len, stdout) != len || fputc('\n', stdout) == EOF ||
-              fflush(stdout) != 0;
+    int bad = fputs(text, stdout) == EOF || fputc('\n', stdout) == EOF || fflush(stdout) != 0;
     free(text);
     return bad ? pw_status_exit_code(PW_EIO) : 0;
 }
 
 json_t *pw_cli_json_num(double v)
 {
-    return isfinite(v) ? json_real(v) : json_null();
+    return pw_json_num(v);
 }
 
 bool pw_cli_opt(int argc, char **argv, int *i, const char *name, const char **value, bool *missing)
@@ -162,29 +138,13 @@ bool pw_cli_opt(int argc, char **argv, int *i, const char *name, const char **va
 pw_status pw_cli_override_components(const char *cmd, pw_system *sys, const char *path,
                                      pw_error *err)
 {
-    if (!path)
-        return PW_OK;
-    pw_complib lib;
-    pw_complib_init(&lib);
-    pw_status st = pw_complib_read(&lib, path, err);
-    if (st != PW_OK)
-        return st;
-    for (int i = 0; i < 2; i++) {
-        const pw_component *c = pw_complib_find(&lib, sys->comp[i].name);
-        if (!c)
-            continue;
-        const pw_component *o = &sys->comp[i];
-        bool same = c->equation == o->equation && c->A == o->A && c->B == o->B && c->C == o->C &&
-                    c->log == o->log && !strcmp(c->P_unit, o->P_unit) &&
-                    !strcmp(c->T_unit, o->T_unit);
-        sys->comp[i] = *c;
-        if (same)
-            continue;
-        pw_cli_warnf(cmd, "vapor pressure of %s taken from %s; the activity parameters were fitted "
-                     "with the fit file's own correlation", c->name, path);
-    }
-    pw_complib_free(&lib);
-    return PW_OK;
+    bool changed[2];
+    pw_status st = pw_system_override_components(sys, path, changed, err);
+    for (int i = 0; st == PW_OK && i < 2; i++)
+        if (changed[i])
+            pw_cli_warnf(cmd, "vapor pressure of %s taken from %s; the activity parameters were "
+                         "fitted with the fit file's own correlation", sys->comp[i].name, path);
+    return st;
 }
 
 bool pw_cli_progress_wanted(void)

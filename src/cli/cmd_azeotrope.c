@@ -140,52 +140,6 @@ static pw_status scan_progress(void *ctx, size_t done, size_t total)
     return PW_OK;
 }
 
-static json_t *result_json(const pw_az_result *r)
-{
-    json_t *list = json_array();
-    for (size_t i = 0; i < r->n; i++)
-        json_array_append_new(list, pw_cli_azeotrope_json(&r->az[i]));
-    return list;
-}
-
-static json_t *touch_json(const pw_az_result *r)
-{
-    json_t *list = json_array();
-    for (size_t i = 0; i < r->n_touch; i++)
-        json_array_append_new(list, json_pack("{s:o,s:o,s:o,s:o}", "x1",
-                                              pw_cli_json_num(r->touch[i].x1), "ln_alpha",
-                                              pw_cli_json_num(r->touch[i].ln_alpha), "T_K",
-                                              pw_cli_json_num(r->touch[i].T_K), "P_kPa",
-                                              pw_cli_json_num(r->touch[i].P_Pa / 1000.0)));
-    return list;
-}
-
-static json_t *scan_json(const pw_az_scan *sc)
-{
-    bool isP = sc->mode == PW_AZ_ISOBARIC;
-    json_t *o = json_object(), *pts = json_array(), *bnd = json_array();
-    json_object_set_new(o, "variable", json_string(isP ? "P_kPa" : "T_K"));
-    for (size_t k = 0; k < sc->n_points; k++) {
-        json_t *p = json_object();
-        json_object_set_new(p, isP ? "P_kPa" : "T_K",
-                            pw_cli_json_num(isP ? sc->at[k] / 1000.0 : sc->at[k]));
-        json_object_set_new(p, "azeotropes", result_json(&sc->points[k]));
-        json_array_append_new(pts, p);
-    }
-    for (size_t k = 0; k < sc->n_boundaries; k++) {
-        const pw_az_boundary *b = &sc->boundaries[k];
-        json_array_append_new(
-            bnd, json_pack("{s:o,s:i,s:o,s:o,s:s}", isP ? "P_kPa" : "T_K",
-                           pw_cli_json_num(isP ? b->at / 1000.0 : b->at), "end", b->end, "T_K_end",
-                           pw_cli_json_num(b->T_K), "P_kPa_end", pw_cli_json_num(b->P_Pa / 1000.0),
-                           "present", b->present_above ? "above" : "below"));
-    }
-    json_object_set_new(o, "points", pts);
-    json_object_set_new(o, "boundaries", bnd);
-    json_object_set_new(o, "x1_shift", pw_cli_json_num(sc->x1_shift));
-    return o;
-}
-
 static void print_table(const pw_az_result *r)
 {
     if (r->n == 0) {
@@ -298,25 +252,9 @@ int pw_cli_azeotrope(int argc, char **argv)
     pw_cli_warn_fit(CMD, &fit);
     pw_cli_warn_T_range(CMD, &fit, Tlo, Thi, "the bubble temperatures used");
     if (a.json) {
-        json_t *o = json_object();
-        json_t *list = result_json(&r);
+        json_t *o = pw_azeotrope_doc(&fit.sys, a.mode, a.fixed, &r, sc);
         if (a.unc.on)
-            pw_azeo_uncert_json(&a.unc, &r, list);
-        json_object_set_new(o, "azeotropes", list);
-        json_object_set_new(o, "mode", json_string(a.mode == PW_AZ_ISOBARIC ? "isobaric"
-                                                                            : "isothermal"));
-        if (a.mode == PW_AZ_ISOBARIC)
-            json_object_set_new(o, "P_kPa", pw_cli_json_num(a.fixed / 1000.0));
-        else
-            json_object_set_new(o, "T_K", pw_cli_json_num(a.fixed));
-        json_object_set_new(o, "components", json_pack("[s,s]", fit.sys.comp[0].name,
-                                                       fit.sys.comp[1].name));
-        json_object_set_new(o, "model", json_string(fit.sys.model->name));
-        json_object_set_new(o, "near_tangential", touch_json(&r));
-        json_object_set_new(o, "ln_alpha_ends", json_pack("[o,o]", pw_cli_json_num(r.ln_alpha_end[0]),
-                                                          pw_cli_json_num(r.ln_alpha_end[1])));
-        json_object_set_new(o, "scan", sc ? scan_json(sc) : json_null());
-        json_object_set_new(o, "caution", json_string(pw_cli_caution_text()));
+            pw_azeo_uncert_json(&a.unc, &r, json_object_get(o, "azeotropes"));
         rc = pw_cli_print_json(o);
     } else {
         print_text(&fit, &a, &r, sc);

@@ -1,4 +1,4 @@
-/* pinchwise check DATA.csv [--components FILE] [--strict] [--json]
+/* pinchwise check DATA.csv [--components FILE] [--strict] [--sigma-y S] [--json]
  * Runs the consistency tests of the library (pinchwise/consistency.h) and prints a table or
  * one JSON object. Exit 0 when the check ran, whatever the verdict. */
 #include "cli.h"
@@ -9,180 +9,17 @@
 #include <stdio.h>
 #include <string.h>
 
-static const char *const cautions[] = {
-    "Screening only: consistency tests judge measured data, not a design. Verify any design with "
-    "rigorous simulation, validated property methods and pilot or laboratory data.",
-    "A failed test means the data (or the vapor pressures used) carry errors; a model fitted to "
-    "them may give wrong azeotropes, pinches and stage counts.",
-    "Designs based on these results must follow local codes and be reviewed by a qualified "
-    "(licensed where required) engineer; consult each chemical's Safety Data Sheet.",
-};
 
 static void usage(FILE *f)
 {
-    fprintf(f, "usage: pinchwise check DATA.csv [--components FILE] [--strict] [--json]\n"
+    fprintf(f, "usage: pinchwise check DATA.csv [--components FILE] [--strict] [--sigma-y S] [--json]\n"
                "  thermodynamic consistency tests of a measured binary VLE data file\n"
                "  --components FILE  extra component file (its rows take precedence)\n"
                "  --strict           every test that ran must pass for a 'consistent' verdict\n"
+               "  --sigma-y S        standard uncertainty of y1 (0 < S < 1), overriding the file's\n"
+               "                     '# sigma_y:'; with either, the point test's limit follows it\n"
+               "                     (docs/consistency.md); without, the classic 0.01 applies\n"
                "  --json             print one JSON object on stdout\n");
-}
-
-static pw_status find_component(const pw_complib *lib, const pw_dataset *ds, int i,
-                                const pw_component **out, pw_error *err)
-{
-    *out = pw_complib_find(lib, ds->names[i]);
-    if (*out)
-        return PW_OK;
-    const char *near[4];
-    size_t n = pw_complib_suggest(lib, ds->names[i], near, 4);
-    char list[400] = "";
-    size_t len = 0;
-    for (size_t k = 0; k < n && len < sizeof list; k++)
-        len += (size_t)snprintf(list + len, sizeof list - len, "%s'%s'", k ? ", " : "", near[k]);
-    return pw_error_set(err, PW_ENOTFOUND, ds->path, 0,
-                        "component '%s' is not in the component library%s%s%s (add it with "
-                        "--components FILE)", ds->names[i], n ? " (did you mean " : "", list,
-                        n ? "?)" : "");
-}
-
-static json_t *test_details(const pw_consistency_result *r, const pw_ctest *t)
-{
-    json_t *d = json_object();
-    switch (t->id) {
-    case PW_CTEST_AREA:
-        json_object_set_new(d, "area_above", pw_cli_json_num(r->area_A));
-        json_object_set_new(d, "area_below", pw_cli_json_num(r->area_B));
-        json_object_set_new(d, "smoothing_degree", json_integer(r->area_degree));
-        break;
-    case PW_CTEST_HERINGTON:
-        json_object_set_new(d, "D", pw_cli_json_num(r->herington_D));
-        json_object_set_new(d, "J", pw_cli_json_num(r->herington_J));
-        json_object_set_new(d, "theta_K", pw_cli_json_num(r->herington_theta_K));
-        json_object_set_new(d, "T_min_K", pw_cli_json_num(r->herington_Tmin_K));
-        json_object_set_new(d, "area_above", pw_cli_json_num(r->area_A));
-        json_object_set_new(d, "area_below", pw_cli_json_num(r->area_B));
-        break;
-    case PW_CTEST_POINT:
-        json_object_set_new(d, "legendre_terms", json_integer((json_int_t)r->legendre_terms));
-        json_object_set_new(d, "rms_dln_gamma_ratio", pw_cli_json_num(r->rms_dlnratio));
-        json_object_set_new(d, "van_ness_index", json_integer(r->van_ness_index));
-        break;
-    case PW_CTEST_DILUTION:
-        json_object_set_new(d, "I1", pw_cli_json_num(r->I1));
-        json_object_set_new(d, "I2", pw_cli_json_num(r->I2));
-        json_object_set_new(d, "ln_gamma1_inf", pw_cli_json_num(r->lngamma1_inf));
-        json_object_set_new(d, "ln_gamma2_inf", pw_cli_json_num(r->lngamma2_inf));
-        break;
-    case PW_CTEST_ENDPOINT:
-        json_object_set_new(d, "deviation_at_x1_0", pw_cli_json_num(r->endpoint_dev[0]));
-        json_object_set_new(d, "deviation_at_x1_1", pw_cli_json_num(r->endpoint_dev[1]));
-        json_object_set_new(d, "deviation_unit",
-                            json_string(r->kind == PW_DATA_ISOTHERMAL ? "relative P" : "K"));
-        break;
-    default:
-        break;
-    }
-    return d;
-}
-
-static json_t *result_json(const pw_dataset *ds, const pw_consistency_result *r, bool strict)
-{
-    json_t *o = json_object(), *tests = json_array(), *not_run = json_array();
-    for (int i = 0; i < PW_CTEST_COUNT; i++) {
-        const pw_ctest *t = &r->tests[i];
-        json_t *e = json_object();
-        json_object_set_new(e, "name", json_string(t->name));
-        if (t->ran) {
-            json_object_set_new(e, "value", pw_cli_json_num(t->value));
-            json_object_set_new(e, "limit", pw_cli_json_num(t->limit));
-            json_object_set_new(e, "pass", json_boolean(t->pass));
-            json_object_set_new(e, "source", json_string(t->source));
-            json_object_set_new(e, "ran", json_true());
-            json_object_set_new(e, "title", json_string(t->title));
-            json_object_set_new(e, "criterion", json_string(t->criterion));
-            json_object_set_new(e, "meaning", json_string(t->meaning));
-            json_object_set_new(e, "primary", json_boolean(r->primary[i]));
-            json_object_set_new(e, "details", test_details(r, t));
-            json_array_append_new(tests, e);
-        } else {
-            json_object_set_new(e, "ran", json_false());
-            json_object_set_new(e, "reason", json_string(t->why_not));
-            json_object_set_new(e, "title", json_string(t->title));
-            json_object_set_new(e, "source", json_string(t->source));
-            json_array_append_new(not_run, e);
-        }
-    }
-    json_object_set_new(o, "tests", tests);
-    json_object_set_new(o, "consistent", json_boolean(r->consistent));
-    json_object_set_new(o, "dataset", json_string(ds->path));
-    json_object_set_new(o, "components", json_pack("[ss]", ds->names[0], ds->names[1]));
-    json_object_set_new(o, "kind", json_string(ds->kind == PW_DATA_ISOTHERMAL ? "isothermal" : "isobaric"));
-    json_object_set_new(o, "not_run", not_run);
-    json_object_set_new(o, "verdict_rule",
-                        json_string(strict ? "strict: every test that ran must pass"
-                                           : "primary: legendre_point and pure_endpoints decide "
-                                             "(area and Kojima tests when the point test cannot run); "
-                                             "other failures are warnings"));
-    json_t *reasons = json_array();
-    for (size_t i = 0; i < r->n_reasons; i++)
-        json_array_append_new(reasons, json_string(r->reasons[i]));
-    json_object_set_new(o, "reasons", reasons);
-
-    json_t *leg = json_object(), *coef = json_array(), *aicc = json_object();
-    for (size_t k = 0; k < r->legendre_terms; k++)
-        json_array_append_new(coef, pw_cli_json_num(r->legendre_a[k]));
-    for (size_t k = 1; k <= PW_CONSISTENCY_MAX_TERMS; k++)
-        if (isfinite(r->legendre_aicc[k])) {
-            char key[8];
-            snprintf(key, sizeof key, "%zu", k);
-            json_object_set_new(aicc, key, json_real(r->legendre_aicc[k]));
-        }
-    json_object_set_new(leg, "terms", json_integer((json_int_t)r->legendre_terms));
-    json_object_set_new(leg, "coefficients", coef);
-    json_object_set_new(leg, "aicc_by_terms", aicc);
-    json_object_set_new(leg, "rms_residual", pw_cli_json_num(r->legendre_rms));
-    json_object_set_new(leg, "residual_unit", json_string(ds->kind == PW_DATA_ISOTHERMAL ? "relative P" : "K"));
-    json_object_set_new(o, "legendre_fit", leg);
-    json_object_set_new(o, "van_ness_index", r->van_ness_index ? json_integer(r->van_ness_index) : json_null());
-
-    const pw_cquality *q = &r->quality;
-    json_t *qj = json_object();
-    json_object_set_new(qj, "Q", pw_cli_json_num(q->Q));
-    json_object_set_new(qj, "F_area", pw_cli_json_num(q->F_area));
-    json_object_set_new(qj, "F_point", pw_cli_json_num(q->F_point));
-    json_object_set_new(qj, "F_slope", pw_cli_json_num(q->F_slope));
-    json_object_set_new(qj, "F_dilution", pw_cli_json_num(q->F_dilution));
-    json_object_set_new(qj, "F_pure", pw_cli_json_num(q->F_pure));
-    json_object_set_new(qj, "note", json_string(q->note));
-    json_object_set_new(o, "quality_factor", qj);
-
-    json_t *pts = json_array(), *flagged = json_array();
-    for (size_t i = 0; i < r->n_pts; i++) {
-        const pw_cpoint *p = &r->pts[i];
-        json_t *e = json_object();
-        json_object_set_new(e, "line", json_integer(p->line));
-        json_object_set_new(e, "x1", pw_cli_json_num(p->x1));
-        json_object_set_new(e, "y1", pw_cli_json_num(p->y_exp));
-        json_object_set_new(e, "y1_calc", pw_cli_json_num(p->y_calc));
-        json_object_set_new(e, "dy", pw_cli_json_num(p->dy));
-        json_object_set_new(e, "dln_gamma_ratio", pw_cli_json_num(p->dlnratio));
-        if (ds->kind == PW_DATA_ISOTHERMAL)
-            json_object_set_new(e, "dP_rel", pw_cli_json_num(p->dP_rel));
-        else
-            json_object_set_new(e, "dT_K", pw_cli_json_num(p->dT_K));
-        json_object_set_new(e, "flagged", json_boolean(p->flagged));
-        json_array_append_new(pts, e);
-        if (p->flagged)
-            json_array_append_new(flagged, json_pack("{sI sf ss}", "line", (json_int_t)p->line, "x1",
-                                                     p->x1, "why", p->why));
-    }
-    json_object_set_new(o, "points", pts);
-    json_object_set_new(o, "flagged", flagged);
-    json_t *cj = json_array();
-    for (size_t i = 0; i < sizeof cautions / sizeof cautions[0]; i++)
-        json_array_append_new(cj, json_string(cautions[i]));
-    json_object_set_new(o, "cautions", cj);
-    return o;
 }
 
 static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
@@ -200,6 +37,14 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
     for (int i = 0; i < PW_CTEST_COUNT; i++)
         if (!r->tests[i].ran)
             printf("  %-16s not run: %s\n", r->tests[i].name, r->tests[i].why_not);
+    if (r->uncertainty_based)
+        printf("  limits from the stated uncertainties: sigma_y %.3g, sigma_x %.3g, %s %.3g%s\n",
+               r->sigma_y_used, r->sigma_x_used,
+               r->kind == PW_DATA_ISOTHERMAL ? "sigma_P" : "sigma_T",
+               r->kind == PW_DATA_ISOTHERMAL ? 100.0 * r->sigma_P_used_rel : r->sigma_T_used_K,
+               r->kind == PW_DATA_ISOTHERMAL ? " %" : " K");
+    else
+        printf("  no sigma_y stated: the point test uses the classic limit (docs/consistency.md)\n");
     printf("\n  => %s\n", r->consistent ? "CONSISTENT" : "NOT SHOWN CONSISTENT");
     for (size_t i = 0; i < r->n_reasons; i++)
         printf("     - %s\n", r->reasons[i]);
@@ -224,13 +69,16 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
                 printf("  line %ld: %s\n", r->pts[i].line, r->pts[i].why);
     }
     printf("\n");
-    for (size_t i = 0; i < sizeof cautions / sizeof cautions[0]; i++)
+    size_t n_cautions;
+    const char *const *cautions = pw_check_cautions(&n_cautions);
+    for (size_t i = 0; i < n_cautions; i++)
         printf("  Caution: %s\n", cautions[i]);
 }
 
 int pw_cli_check(int argc, char **argv)
 {
     const char *data = NULL, *comp_file = NULL;
+    const char *sigma_y = NULL;
     bool json = false, strict = false, missing = false;
     for (int i = 1; i < argc; i++) {
         if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h")) {
@@ -243,6 +91,9 @@ int pw_cli_check(int argc, char **argv)
             json = true;
         } else if (pw_cli_opt(argc, argv, &i, "--strict", NULL, NULL)) {
             strict = true;
+        } else if (pw_cli_opt(argc, argv, &i, "--sigma-y", &sigma_y, &missing)) {
+            if (missing)
+                return pw_cli_failf("check", PW_EXIT_USAGE, "--sigma-y needs a value");
         } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
             return pw_cli_failf("check", PW_EXIT_USAGE, "unknown option '%s'", argv[i]);
         } else if (data) {
@@ -266,14 +117,23 @@ int pw_cli_check(int argc, char **argv)
         pw_complib_free(&lib);
         return pw_cli_fail("check", &err);
     }
-    const pw_component *c[2] = {NULL, NULL};
-    pw_status st = find_component(&lib, &ds, 0, &c[0], &err);
-    if (st == PW_OK)
-        st = find_component(&lib, &ds, 1, &c[1], &err);
+    pw_component found[2];
+    const pw_component *c[2] = {&found[0], &found[1]};
+    pw_status st = pw_dataset_components(&lib, &ds, found, &err);
     pw_consistency_result r;
     memset(&r, 0, sizeof r);
     pw_consistency_options o = pw_consistency_default_options();
     o.strict_verdict = strict;
+    if (sigma_y) {
+        double v = NAN;
+        if (pw_cli_number("--sigma-y", sigma_y, &v, &err) != PW_OK)
+            return pw_cli_fail("check", &err);
+        if (!(v > 0.0 && v < 1.0))
+            return pw_cli_failf("check", PW_EXIT_USAGE,
+                                "--sigma-y %s: expected a mole-fraction uncertainty between 0 and 1 "
+                                "(e.g. 0.002)", sigma_y);
+        o.sigma_y = v;
+    }
     if (st == PW_OK)
         st = pw_consistency_run(&ds, c[0], c[1], &o, &r, &err);
     int code = 0;
@@ -290,7 +150,7 @@ int pw_cli_check(int argc, char **argv)
                              Thi, c[i]->T_min_K, c[i]->T_max_K, c[i]->name);
         }
         if (json)
-            code = pw_cli_print_json(result_json(&ds, &r, strict));
+            code = pw_cli_print_json(pw_check_doc(&ds, &r, strict));
         else
             print_text(&ds, &r);
     }

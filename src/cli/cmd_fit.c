@@ -10,17 +10,19 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <strings.h>
 #include <sys/stat.h>
 
 #define FIT_MAX_STARTS 10000.0
 
 static void usage(FILE *f)
 {
+    char names[256];
     fprintf(f,
             "usage: pinchwise fit DATA.csv --model MODEL [options]\n"
             "       pinchwise fit DIR --model MODEL --out-dir OUTDIR [options]   (every *.csv in DIR)\n"
             "\n"
-            "MODEL: margules, vanlaar, wilson, nrtl, or all (fit every model, rank by AICc)\n"
+            "MODEL: %s, or all (fit every model, rank by AICc)\n"
             "  --components FILE     extra component rows (take precedence over the library)\n"
             "  --out FIT.json        fit file to write (default fits/<stem>.<model>.json)\n"
             "  --out-dir DIR         folder for the fit files (batch, or --model all)\n"
@@ -29,14 +31,15 @@ static void usage(FILE *f)
             "  --fit-alpha           NRTL: fit alpha as well\n"
             "  --vapor MODEL         ideal (default) or virial (Tsonopoulos second virial\n"
             "                        coefficients; needs Tc_K, Pc_kPa, omega, Zc, Vc_cm3_mol)\n"
-            "  --starts N            candidate starts screened, 1 to 10000 (default 32)\n"
+            "  --starts N            LM runs, each from its own start, 1 to 10000 (default 8)\n"
             "  --seed N              seed of the start points, 0 to 4294967295 (default 1)\n"
             "  --sigma-T DT          temperature uncertainty, e.g. 0.05K (default: file or 0.1 K)\n"
             "  --sigma-P PCT         pressure uncertainty in percent, e.g. 0.2 (default: file or 0.1)\n"
             "  --sigma-y DY          vapor mole fraction uncertainty (default: file or 0.004)\n"
             "  --exclude LINES       file line numbers to leave out, e.g. 12,15-17\n"
             "  --exclude-reason TEXT why they are left out (recorded in the fit file)\n"
-            "  --json                print one JSON object on stdout\n");
+            "  --json                print one JSON object on stdout\n",
+            pw_model_names(names, sizeof names));
 }
 
 /* --exclude 12,15-17: file line numbers (a file of at most 64 MiB has fewer than 1e9 lines). */
@@ -106,8 +109,9 @@ static void print_table(const pw_fit_result *r, const char *path)
     const pw_model_type *m = r->sys.model;
     printf("%s fit of %s (1) / %s (2), %s data, %zu points\n", m->name, r->sys.comp[0].name,
            r->sys.comp[1].name, r->kind == PW_DATA_ISOBARIC ? "isobaric" : "isothermal", r->n_pts);
-    printf("  converged: %s (%s), %zu LM iterations over the starts\n", r->converged ? "yes" : "NO",
-           pw_fit_stop_name(r->stop), r->iterations);
+    printf("  converged: %s (%s; %s), %zu LM iterations over %zu starts\n",
+           r->converged ? "yes" : "NO", pw_fit_class_name(r->fit_class), pw_fit_stop_name(r->stop),
+           r->iterations, r->n_runs);
     printf("  %-10s %14s %12s %27s\n", "parameter", "value", "std. error", "95% interval");
     for (size_t k = 0; k < m->n_params; k++) {
         if (r->fitted[k])
@@ -239,12 +243,12 @@ int pw_cli_fit(int argc, char **argv)
     if (!input || !model_name) {
         return pw_cli_failf("fit", PW_EXIT_USAGE, "a dataset (or folder) and --model are required");
     }
-    bool all = !strcmp(model_name, "all");
+    bool all = !strcasecmp(model_name, "all");
     const pw_model_type *model = all ? NULL : pw_model_find(model_name);
+    char names[256];
     if (!all && !model)
-        return pw_cli_failf("fit", PW_EXIT_USAGE,
-                            "unknown model '%s' (expected margules, vanlaar, wilson, nrtl or all)",
-                            model_name);
+        return pw_cli_failf("fit", PW_EXIT_USAGE, "unknown model '%s' (expected %s or all)",
+                            model_name, pw_model_names(names, sizeof names));
     struct stat sb;
     if (stat(input, &sb) != 0)
         return pw_cli_failf("fit", pw_status_exit_code(PW_EIO), "%s: no such file or folder", input);
@@ -254,7 +258,9 @@ int pw_cli_fit(int argc, char **argv)
     co.lib = &lib;
     /* every file read is an input that no output may replace */
     co.inputs[co.n_inputs++] = components;
-    co.inputs[co.n_inputs++] = pw_cli_components_path();
+    char lib_path[PW_PATH_MAX];
+    if (pw_complib_default_path(lib_path, sizeof lib_path))
+        co.inputs[co.n_inputs++] = lib_path;
     co.json = json;
     int rc;
     if (S_ISDIR(sb.st_mode)) {

@@ -36,74 +36,7 @@ static const char *section(pw_section s)
 
 json_t *pw_reflux_json(const pw_reflux_run *run)
 {
-    const pw_column_result *c = &run->col;
-    json_t *o = json_object();
-    json_object_set_new(o, "feasible", json_boolean(c->feasible));
-    json_object_set_new(o, "reason", c->feasible ? json_null() : json_string(c->reason));
-    json_object_set_new(o, "r_min", c->feasible ? pw_cli_json_num(c->r_min) : json_null());
-    if (c->feasible && !c->reflux_limited) {
-        json_t *p = json_object();
-        json_object_set_new(p, "kind", json_string(pinch_kind(c->pinch.kind)));
-        json_object_set_new(p, "section", json_string(section(c->pinch.section)));
-        json_object_set_new(p, "x", pw_cli_json_num(c->pinch.x));
-        json_object_set_new(p, "y", pw_cli_json_num(c->pinch.y));
-        json_object_set_new(o, "pinch", p);
-    } else {
-        json_object_set_new(o, "pinch", json_null());
-    }
-    json_object_set_new(o, "n_min", c->feasible ? pw_cli_json_num(c->n_min) : json_null());
-    json_object_set_new(o, "limit",
-                        !c->feasible ? json_null()
-                        : c->reflux_limited
-                            ? json_string("no reflux needed: at R = 0 the operating lines clear the "
-                                          "equilibrium curve (a stripping column with the feed on "
-                                          "top makes the distillate); no pinch limits")
-                        : c->boilup_limited && c->pinch.kind == PW_PINCH_FEED
-                            ? json_string("zero boil-up: the feed's vapor is all the rectifying "
-                                          "section gets; the operating lines meet on the q-line "
-                                          "at xb")
-                            : json_string("pinch"));
-    json_object_set_new(o, "boilup_min", c->feasible ? pw_cli_json_num(c->s_min) : json_null());
-    json_object_set_new(o, "r_min_feed_point_only", c->feasible ? pw_cli_json_num(c->r_feed) : json_null());
-    json_object_set_new(o, "q_line_point", json_pack("{s:o,s:o}", "x", pw_cli_json_num(c->x_q), "y",
-                                                     pw_cli_json_num(c->y_q)));
-    json_object_set_new(o, "n_fenske", c->feasible ? pw_cli_json_num(c->n_fenske) : json_null());
-    json_object_set_new(o, "alpha_top", pw_cli_json_num(c->alpha_top));
-    json_object_set_new(o, "alpha_bottom", pw_cli_json_num(c->alpha_bottom));
-    json_t *d = json_array();
-    for (size_t i = 0; c->feasible && i < c->n_design; i++) {
-        const pw_design_row *r = &c->design[i];
-        json_t *row = json_object();
-        json_object_set_new(row, "factor", pw_cli_json_num(r->factor));
-        json_object_set_new(row, "R", pw_cli_json_num(r->R));
-        json_object_set_new(row, "boilup", pw_cli_json_num(r->boilup));
-        json_object_set_new(row, "stages", pw_cli_json_num(r->stages));
-        json_object_set_new(row, "feed_stage", json_integer(r->feed_stage));
-        json_object_set_new(row, "gilliland_stages", pw_cli_json_num(r->gilliland_stages));
-        json_array_append_new(d, row);
-    }
-    json_object_set_new(o, "design", d);
-    json_object_set_new(o, "stage_convention",
-                        json_string("equilibrium stages counted from the top, the partial reboiler "
-                                    "as one stage, last step fractional"));
-    json_object_set_new(o, "gilliland_form", json_string("Molokanov et al. (1972)"));
-    json_object_set_new(o, "design_factor_basis",
-                        json_string("operating reflux of 1.2-1.5 times R_min (common practice)"));
-    json_t *spec = json_object();
-    json_object_set_new(spec, "P_kPa", pw_cli_json_num(run->P_Pa / 1e3));
-    json_object_set_new(spec, "xd", pw_cli_json_num(run->spec.xd));
-    json_object_set_new(spec, "xb", pw_cli_json_num(run->spec.xb));
-    json_object_set_new(spec, "zf", pw_cli_json_num(run->spec.zf));
-    json_object_set_new(spec, "q", pw_cli_json_num(run->spec.q));
-    json_object_set_new(o, "spec", spec);
-    json_object_set_new(o, "T_top_K", pw_cli_json_num(run->T_top_K));
-    json_object_set_new(o, "T_bottom_K", pw_cli_json_num(run->T_bottom_K));
-    json_object_set_new(o, "caution",
-                        json_string("Screening estimate (constant molal overflow, fitted model). "
-                                    "Stage counts near R_min, above all near a tangent pinch, are "
-                                    "very sensitive to the model. Verify with rigorous simulation "
-                                    "and pilot data; design per local codes under licensed review."));
-    return o;
+    return pw_reflux_doc(&run->col, run->P_Pa, &run->spec, run->T_top_K, run->T_bottom_K);
 }
 
 static void print_table(const pw_reflux_run *run)
@@ -131,12 +64,22 @@ static void print_table(const pw_reflux_run *run)
     if (c->pinch.kind == PW_PINCH_TANGENT && !c->boilup_limited)
         printf("  (a search at the q-line alone would give R = %.6g: %.0f %% too low)\n", c->r_feed,
                100.0 * (c->r_min - c->r_feed) / c->r_min);
-    printf("  stages at total reflux    %.3f stepped (Fenske %.3f, alpha top %.3f, bottom %.3f)\n",
-           c->n_min, c->n_fenske, c->alpha_top, c->alpha_bottom);
+    if (c->n_min_status != PW_OK)
+        printf("  stages at total reflux    not reached by stepping (%s; Fenske %.3f)\n",
+               pw_strerror(c->n_min_status), c->n_fenske);
+    else
+        printf("  stages at total reflux    %.3f stepped (Fenske %.3f, alpha top %.3f, bottom "
+               "%.3f)\n",
+               c->n_min, c->n_fenske, c->alpha_top, c->alpha_bottom);
     printf("\n  %-8s %9s %9s %9s %6s %12s\n", "R/R_min", "R", "Vbar/B", "stages", "feed",
            "Gilliland*");
     for (size_t i = 0; i < c->n_design; i++) {
         const pw_design_row *r = &c->design[i];
+        if (r->status != PW_OK) {
+            printf("  %-8.3g %9.4f %9.4f   stages not reached: %s\n", r->factor, r->R, r->boilup,
+                   pw_strerror(r->status));
+            continue;
+        }
         printf("  %-8.3g %9.4f %9.4f %9.3f %6d %12.2f\n", r->factor, r->R, r->boilup, r->stages,
                r->feed_stage, r->gilliland_stages);
     }

@@ -25,35 +25,6 @@ static void file_stem(const char *path, char *out, size_t n)
         *dot = '\0';
 }
 
-static pw_status find_component(const pw_complib *lib, const pw_dataset *ds, int i,
-                                pw_component out[2], const pw_component **c, pw_error *err)
-{
-    *c = pw_complib_find(lib, ds->names[i]);
-    if (*c) {
-        /* Keep the dataset's spelling (it may be an alias or differ in case): the fit file and
-         * every later output then name the components as the user did. */
-        out[i] = **c;
-        snprintf(out[i].name, sizeof out[i].name, "%s", ds->names[i]);
-        *c = &out[i];
-        return PW_OK;
-    }
-    const char *sugg[3];
-    size_t n = pw_complib_suggest(lib, ds->names[i], sugg, 3);
-    char hint[300] = "";
-    if (n > 0) {
-        size_t len = (size_t)snprintf(hint, sizeof hint, "; did you mean ");
-        for (size_t k = 0; k < n && len < sizeof hint; k++)
-            len += (size_t)snprintf(hint + len, sizeof hint - len, "%s'%s'",
-                                    k == 0 ? "" : (k + 1 == n ? " or " : ", "), sugg[k]);
-        if (len < sizeof hint)
-            snprintf(hint + len, sizeof hint - len, "?");
-    }
-    return pw_error_set(err, PW_ENOTFOUND, ds->path, 0,
-                        "component '%s' is not in the component library (add it with --components "
-                        "FILE%s)",
-                        ds->names[i], hint);
-}
-
 static void warn_ranges(const pw_fit_result *r, const char *input)
 {
     for (int i = 0; i < 2; i++) {
@@ -155,9 +126,32 @@ static void warn_duplicates(const pw_fit_result *r, const char *input)
 static void warn_fit(const pw_fit_result *r, const char *input)
 {
     pw_cli_warn_vapor_association("fit", &r->sys);
-    if (!r->converged)
-        pw_cli_warnf("fit", "%s: the %s fit did NOT converge (%s); do not design with it", input,
-                     r->sys.model->name, pw_fit_stop_name(r->stop));
+    const pw_model_type *m = r->sys.model;
+    if (r->fit_class == PW_FIT_RUNAWAY)
+        pw_cli_warnf("fit", "%s: the %s fit did NOT converge: %s ran beyond its physical bound "
+                     "(docs/fitting.md) and no bounded minimum was found; do not design with it",
+                     input, m->name,
+                     r->runaway_param >= 0 ? m->param_names[r->runaway_param] : "a parameter");
+    else if (!r->converged)
+        pw_cli_warnf("fit", "%s: the %s fit did NOT converge (%s, %s); do not design with it", input,
+                     m->name, pw_fit_class_name(r->fit_class), pw_fit_stop_name(r->stop));
+    if (r->fit_class == PW_FIT_EXACT)
+        pw_cli_warnf("fit", "%s: the %s model reproduces the data to rounding level (noise-free or "
+                     "generated data?); standard errors are those the stated uncertainties imply",
+                     input, m->name);
+    if (r->converged && !r->identifiable) {
+        char combo[256] = "";
+        size_t len = 0;
+        for (size_t k = 0; k < m->n_params && len < sizeof combo - 40; k++)
+            if (r->fitted[k] && fabs(r->weak_dir[k]) > 1e-3)
+                len += (size_t)snprintf(combo + len, sizeof combo - len, "%s%s%.3g %s",
+                                        len ? (r->weak_dir[k] < 0 ? " - " : " + ") : "",
+                                        len == 0 && r->weak_dir[k] < 0 ? "-" : "",
+                                        fabs(r->weak_dir[k]), m->param_names[k]);
+        pw_cli_warnf("fit", "%s: the data do not fix the parameter combination along (%s): moving "
+                     "the parameters that way leaves the fit unchanged; the standard errors of the "
+                     "parameters it involves are not meaningful (null)", input, combo);
+    }
     if (r->split)
         pw_cli_warnf("fit",
                      "%s: the %s parameters predict a liquid-liquid split (d2(Gmix/RT)/dx1^2 = %.3g "
@@ -170,7 +164,7 @@ static void warn_fit(const pw_fit_result *r, const char *input)
                      input, competing);
     for (size_t a = 0; a < r->sys.model->n_params; a++)
         for (size_t b = a + 1; b < r->sys.model->n_params; b++)
-            if (r->fitted[a] && r->fitted[b] && fabs(r->corr[a][b]) > 0.95)
+            if (r->identifiable && r->fitted[a] && r->fitted[b] && fabs(r->corr[a][b]) > 0.95)
                 pw_cli_warnf("fit", "%s: parameters %s and %s are correlated (%.3f): poorly "
                              "identifiable from these data",
                              input, r->sys.model->param_names[a], r->sys.model->param_names[b],
@@ -186,11 +180,9 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
     pw_status st = pw_dataset_read(input, &ds, err);
     if (st != PW_OK)
         return pw_status_exit_code(st);
-    const pw_component *c1 = NULL, *c2 = NULL;
     pw_component found[2];
-    st = find_component(co->lib, &ds, 0, found, &c1, err);
-    if (st == PW_OK)
-        st = find_component(co->lib, &ds, 1, found, &c2, err);
+    const pw_component *c1 = &found[0], *c2 = &found[1];
+    st = pw_dataset_components(co->lib, &ds, found, err);
     if (st == PW_OK) {
         char stem[PW_PATH_MAX];
         file_stem(input, stem, sizeof stem);
@@ -243,13 +235,7 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
 
 json_t *pw_fit_cli_json(const pw_fit_result *r, const char *path)
 {
-    json_t *o = pw_fitfile_to_json(r);
-    json_object_del(o, "data");
-    json_object_del(o, "component_data");
-    json_object_del(o, "format");
-    json_object_del(o, "format_version");
-    json_object_set_new(o, "fit_file", json_string(path));
-    return o;
+    return pw_fit_doc(r, path);
 }
 
 typedef struct ranked {

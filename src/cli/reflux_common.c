@@ -116,21 +116,12 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
         return pw_status_exit_code(st);
     run->P_Pa = a->P_Pa;
     run->spec = a->spec;
-    pw_system_curve sc;
-    st = pw_system_curve_init(&sc, &run->fit.sys, a->P_Pa);
-    if (st == PW_OK) {
-        pw_curve curve = pw_system_curve_bind(&sc);
-        st = pw_column_solve(&curve, &a->spec, &a->opt, &run->col);
-    }
+    st = pw_reflux_solve(&run->fit.sys, a->P_Pa, &a->spec, &a->opt, a->fit_path, &run->col,
+                         &run->T_top_K, &run->T_bottom_K, err);
     if (st != PW_OK) {
-        pw_error_set(err, st, a->fit_path, 0, "%s%s%s", pw_strerror(st),
-                     run->col.reason[0] ? ": " : "", run->col.reason);
         pw_fit_result_free(&run->fit);
         return pw_status_exit_code(st);
     }
-    pw_eq_point e;
-    run->T_top_K = pw_bubble_T(&run->fit.sys, a->P_Pa, a->spec.xd, &e) == PW_OK ? e.T_K : (double)NAN;
-    run->T_bottom_K = pw_bubble_T(&run->fit.sys, a->P_Pa, a->spec.xb, &e) == PW_OK ? e.T_K : (double)NAN;
     return 0;
 }
 

@@ -9,8 +9,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define PLAN_BINS 10
-#define PLAN_POINTS 5
 #define MAX_SAMPLES 100000
 
 static int whole_number(const char *opt, const char *v, double lo, double hi, double *out,
@@ -108,14 +106,11 @@ int pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_r
             u->opt.progress_ctx = &pc;
         }
         pw_unc_column_assessment as;
-        pw_status st = pw_unc_column_assess(&run->fit, &u->col, &u->opt, PLAN_BINS, PLAN_POINTS,
-                                            &as);
+        pw_status st = pw_reflux_unc_run(&run->fit, &u->col, &u->opt, a->fit_path, &as, err);
         u->opt.progress = NULL;
         u->opt.progress_ctx = NULL;
         if (st != PW_OK)
-            return pw_status_exit_code(pw_error_set(
-                err, st, a->fit_path, 0, "uncertainty propagation failed: %s%s", pw_strerror(st),
-                st == PW_EINVAL ? " (is the fit's covariance available?)" : ""));
+            return pw_status_exit_code(st);
         u->res = as.res;
         u->plan_status = as.plan_status;
         u->plan = as.plan;
@@ -125,25 +120,12 @@ int pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_r
 
 json_t *pw_cli_json_pair(const double v[2])
 {
-    if (!isfinite(v[0]) || !isfinite(v[1]))
-        return json_null();
-    return json_pack("[o,o]", pw_cli_json_num(v[0]), pw_cli_json_num(v[1]));
+    return pw_json_pair(v);
 }
 
 json_t *pw_cli_unc_output_json(const pw_unc_output *o)
 {
-    json_t *j = json_object();
-    json_object_set_new(j, "value", pw_cli_json_num(o->value));
-    json_object_set_new(j, "ci95", pw_cli_json_pair(o->ci));
-    json_object_set_new(j, "ci95_from", json_string(!isfinite(o->ci[0]) ? "none"
-                                                    : o->ci_sampled    ? "sampled"
-                                                                       : "linearised"));
-    json_object_set_new(j, "ci95_linearised", o->lin_ok ? pw_cli_json_pair(o->ci_lin) : json_null());
-    json_object_set_new(j, "sd_linearised", o->lin_ok ? pw_cli_json_num(o->sd_lin) : json_null());
-    json_object_set_new(j, "ci95_sampled", o->mc_ok ? pw_cli_json_pair(o->ci_mc) : json_null());
-    json_object_set_new(j, "sd_sampled", o->mc_ok ? pw_cli_json_num(o->sd_mc) : json_null());
-    json_object_set_new(j, "intervals_disagree", json_boolean(o->disagree));
-    return j;
+    return pw_unc_output_doc(o);
 }
 
 static const char *class_name(pw_unc_model_class c)
@@ -193,46 +175,8 @@ static json_t *models_json(const pw_reflux_uncert *u)
 
 void pw_reflux_uncert_json(const pw_reflux_uncert *u, json_t *o)
 {
-    if (u->propagate) {
-        const pw_unc_result *r = &u->res;
-        json_object_set_new(o, "r_min_ci95", pw_cli_json_pair(r->out[PW_UNC_RMIN].ci));
-        json_object_set_new(o, "feasible_probability", pw_cli_json_num(r->p_feasible));
-        json_t *j = json_object();
-        json_object_set_new(j, "r_min", pw_cli_unc_output_json(&r->out[PW_UNC_RMIN]));
-        json_object_set_new(j, "boilup_min", pw_cli_unc_output_json(&r->out[PW_UNC_SMIN]));
-        json_t *st = pw_cli_unc_output_json(&r->out[PW_UNC_STAGES]);
-        json_object_set_new(st, "reflux_factor", pw_cli_json_num(u->col.factor));
-        json_object_set_new(j, "stages_operating", st);
-        json_object_set_new(j, "draws", json_pack("{s:I,s:I,s:I,s:I,s:I,s:I,s:s}",
-            "requested", (json_int_t)u->opt.samples, "evaluated", (json_int_t)r->n_samples,
-            "feasible", (json_int_t)r->n_feasible, "infeasible", (json_int_t)r->n_infeasible,
-            "failed", (json_int_t)r->n_failed, "redrawn_outside_domain", (json_int_t)r->n_redrawn,
-            "factor", r->sampler_eigen ? "eigen-decomposition" : "Cholesky"));
-        json_object_set_new(j, "seed", json_integer((json_int_t)u->opt.seed));
-        char words[PW_REASON_MAX * 2];
-        json_object_set_new(j, "feasibility_risk", json_string(pw_unc_risk_words(r, words,
-                                                                                sizeof words)));
-        if (u->plan_status == PW_OK) {
-            const pw_unc_plan_bin *b = &u->plan.bins[u->plan.best];
-            json_object_set_new(j, "next_measurements", json_pack("{s:o,s:I,s:o,s:s}",
-                "x1_range", pw_cli_json_pair((const double[2]){b->x_lo, b->x_hi}),
-                "points", (json_int_t)u->plan.points_per_bin,
-                "r_min_sd_reduction", pw_cli_json_num(b->reduction),
-                "advice", pw_unc_plan_words(&u->plan, "R_min", words, sizeof words)));
-        } else {
-            json_object_set_new(j, "next_measurements", json_null());
-        }
-        json_object_set_new(j, "method",
-                            json_string("fitted-parameter covariance: delta method with central "
-                                        "differences, and Monte Carlo with 2.5/97.5 % percentiles "
-                                        "(JCGM 101:2008); sampled interval quoted when the two "
-                                        "disagree by more than 25 % of its width"));
-        json_object_set_new(j, "scope",
-                            json_string("covers the scatter of the fitted data only, not the "
-                                        "choice of model, the vapor-pressure constants or the "
-                                        "constant-molal-overflow assumption"));
-        json_object_set_new(o, "uncertainty", j);
-    }
+    if (u->propagate)
+        pw_reflux_unc_doc(o, &u->res, &u->opt, u->col.factor, u->plan_status, &u->plan);
     if (u->n_compare)
         json_object_set_new(o, "model_comparison", models_json(u));
 }

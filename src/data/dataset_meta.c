@@ -195,6 +195,7 @@ static pw_status sigma(pw_ds_reader *rd, const char *key, const char *value, lon
                                 "between 0 and 1 without unit, e.g. 0.004)",
                                 shown, value);
         *(strcasecmp(key, "sigma_y") == 0 ? &rd->ds.sigma_y : &rd->ds.sigma_x) = v;
+        *(strcasecmp(key, "sigma_y") == 0 ? &rd->ds.sigma_y_stated : &rd->ds.sigma_x_stated) = true;
         return PW_OK;
     }
     bool is_T = strcasecmp(key, "sigma_T") == 0;

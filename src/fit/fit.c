@@ -8,7 +8,6 @@
 #include <gsl/gsl_rng.h>
 #include <math.h>
 #include <stdio.h>
-#include <stdint.h>
 #include <stdlib.h>
 #include <string.h>
 #include <time.h>
@@ -16,7 +15,6 @@
 #include "pinchwise_version.h"
 
 #define PENALTY_RESIDUAL 1e8 /* stands in for a residual where the model cannot be evaluated */
-#define RUNAWAY_LIMIT 100.0  /* internal units: 100 for A_ij, 10 000 K for energies */
 
 pw_fit_options pw_fit_default_options(void)
 {
@@ -25,7 +23,7 @@ pw_fit_options pw_fit_default_options(void)
     o.fit_alpha = false;
     o.alpha = 0.3; /* Renon & Prausnitz (1968): typical value for most mixtures */
     o.V2_V1 = NAN;
-    o.n_starts = 32;
+    o.n_starts = 8;
     o.seed = 1;
     o.sigma_T_K = NAN;
     o.sigma_P_rel = NAN;
@@ -50,18 +48,11 @@ static double param_scale(const pw_model_type *m, size_t k)
     return strcmp(m->param_units[k], "K") == 0 ? 100.0 : 1.0;
 }
 
-/* Start ranges per model and parameter, wide enough to reach the branches met in practice
- * (METHODS-style multistart: tau in about [-3, 10] for NRTL). */
+/* Start ranges per model and parameter: the model's descriptor gives them (pw_model_type). */
 static void start_range(const pw_model_type *m, size_t k, double *lo, double *hi)
 {
-    const char *n = m->param_names[k];
-    if (!strcmp(n, "alpha")) {
-        *lo = 0.1, *hi = 0.6;
-    } else if (!strcmp(m->param_units[k], "K")) {
-        *lo = -700.0, *hi = 2500.0;
-    } else {
-        *lo = -2.5, *hi = 3.0;
-    }
+    *lo = m->start_range ? m->start_range[k][0] : -1.0;
+    *hi = m->start_range ? m->start_range[k][1] : 1.0;
 }
 
 typedef struct lm_ctx {
@@ -70,6 +61,7 @@ typedef struct lm_ctx {
     double u_cache[PW_MAX_PARAMS];
     bool cache_ok;
     size_t n_fev, n_jev;
+    bool fitted_mask[PW_MAX_PARAMS];
 } lm_ctx;
 
 static int lm_f(const gsl_vector *u, void *data, gsl_vector *f)
@@ -112,12 +104,9 @@ static int lm_df(const gsl_vector *u, void *data, gsl_matrix *J)
     return GSL_SUCCESS;
 }
 
-#define MULTISTART_MIN 4   /* LM runs before the stopping rule may act */
-#define MULTISTART_STALL 4 /* runs in a row without a new minimum or a lower chi2 */
-
 typedef struct start_cand {
     double p[PW_MAX_PARAMS];
-    double chi2; /* at the start; -1 for the model's default start so that it runs first */
+    double chi2; /* at the start; -1 for the fixed starts (default, ideal) so that they run first */
 } start_cand;
 
 static int cmp_cand(const void *a, const void *b)
@@ -126,20 +115,77 @@ static int cmp_cand(const void *a, const void *b)
     return (ca > cb) - (ca < cb);
 }
 
+/* How one LM run ended, after our own checks (docs/fitting.md, "Convergence classes"). */
+typedef enum {
+    RUN_FAILED = 0,  /* GSL error, a model evaluation failure, or no progress off a non-minimum */
+    RUN_RUNAWAY,     /* ended beyond a runaway bound, whatever GSL said */
+    RUN_MAXITER,     /* bounded, iteration limit */
+    RUN_STATIONARY   /* bounded, a GSL convergence test (or our gradient test, or an exact fit) */
+} run_class;
+
 typedef struct run_result {
     double params[PW_MAX_PARAMS];
     double chi2;
     pw_stop_reason stop;
+    run_class cls;
+    bool exact;
     size_t iterations;
 } run_result;
 
+/* GSL's codes, every one explicitly (gsl_multifit_nlinear_driver, GSL 2.7): status GSL_SUCCESS
+ * with info 1 (step test, xtol), 2 (gradient test, gtol), 3 (ftol test; compiled out in GSL but
+ * mapped) or GSL_ETOLX/ETOLG/ETOLF (tolerance below machine precision); GSL_EMAXITER with info
+ * GSL_ENOPROG (no step lowers the cost from the start: the driver returns at once) or with the
+ * iteration limit reached; anything else (GSL_EBADFUNC, GSL_EDOM, GSL_ESING, ...) is a failure. */
 static pw_stop_reason map_stop(int status, int info)
 {
-    if (status == GSL_SUCCESS)
-        return info == 2 ? PW_STOP_GRADIENT : PW_STOP_STEP;
-    if (status == GSL_EMAXITER)
-        return PW_STOP_MAXITER;
-    return PW_STOP_FAILED;
+    switch (status) {
+    case GSL_SUCCESS:
+        switch (info) {
+        case 1: return PW_STOP_STEP;
+        case 2: return PW_STOP_GRADIENT;
+        case 3: return PW_STOP_STEP;
+        case GSL_ETOLX:
+        case GSL_ETOLG:
+        case GSL_ETOLF: return PW_STOP_MACHINE;
+        default: return PW_STOP_FAILED;
+        }
+    case GSL_EMAXITER:
+        return info == GSL_ENOPROG ? PW_STOP_NOPROG : PW_STOP_MAXITER;
+    case GSL_ENOPROG:
+        return PW_STOP_NOPROG;
+    default:
+        return PW_STOP_FAILED;
+    }
+}
+
+/* GSL's gradient test (multifit_nlinear/convergence.c) evaluated by us at params:
+ * max_j |g_j| max(|u_j|, 1) <= gtol max(f.f/2, 1), g = J^T f in the internal unknowns u. Used
+ * where GSL stopped without testing (no progress on the first iteration). */
+static bool gradient_small(const fit_problem *fp, const double *params, double gtol)
+{
+    double *f = malloc(sizeof(double) * fp->n_res * (1 + fp->n_fit));
+    if (!f)
+        return false;
+    double *J = f + fp->n_res;
+    bool ok = fit_eval(fp, params, f, J) == PW_OK;
+    double ff = 0.0, gmax = 0.0;
+    for (size_t i = 0; ok && i < fp->n_res; i++)
+        ff += f[i] * f[i];
+    for (size_t j = 0; ok && j < fp->n_fit; j++) {
+        double g = 0.0;
+        for (size_t i = 0; i < fp->n_res; i++)
+            g += J[i * fp->n_fit + j] * f[i];
+        double u = params[fp->idx[j]] / fp->scale[j];
+        gmax = fmax(gmax, fabs(g) * fmax(fabs(u), 1.0));
+    }
+    free(f);
+    return ok && isfinite(gmax) && gmax <= gtol * fmax(0.5 * ff, 1.0);
+}
+
+static bool chi2_exact(double chi2, size_t n_res)
+{
+    return n_res > 0 && isfinite(chi2) && chi2 <= (double)n_res * PW_FIT_EXACT_RMS * PW_FIT_EXACT_RMS;
 }
 
 /* One LM run from the full parameter vector start. */
@@ -152,6 +198,8 @@ static void run_lm(gsl_multifit_nlinear_workspace *w, gsl_multifit_nlinear_fdf *
         u0[j] = start[fp->idx[j]] / fp->scale[j];
     gsl_vector_view x0 = gsl_vector_view_array(u0, fp->n_fit);
     out->stop = PW_STOP_FAILED;
+    out->cls = RUN_FAILED;
+    out->exact = false;
     out->chi2 = INFINITY;
     out->iterations = 0;
     memcpy(out->params, start, sizeof out->params);
@@ -166,8 +214,32 @@ static void run_lm(gsl_multifit_nlinear_workspace *w, gsl_multifit_nlinear_fdf *
     double *work = malloc(sizeof(double) * fp->n_res);
     out->chi2 = work ? fit_chi2(fp, out->params, work) : (double)INFINITY;
     free(work);
-    if (!isfinite(out->chi2))
+    if (!isfinite(out->chi2)) {
         out->stop = PW_STOP_FAILED;
+        return;
+    }
+    out->exact = chi2_exact(out->chi2, fp->n_res);
+    bool stationary = out->stop == PW_STOP_STEP || out->stop == PW_STOP_GRADIENT ||
+                      out->stop == PW_STOP_MACHINE || out->exact ||
+                      (out->stop == PW_STOP_NOPROG && gradient_small(fp, out->params, o->gtol));
+    if (pw_fit_runaway_param(fp->sys.model, c->fitted_mask, out->params, fp->sys.T_ref_K) >= 0)
+        out->cls = RUN_RUNAWAY;
+    else if (stationary)
+        out->cls = RUN_STATIONARY;
+    else if (out->stop == PW_STOP_MAXITER)
+        out->cls = RUN_MAXITER;
+    else
+        out->cls = RUN_FAILED;
+}
+
+/* Is run a better answer than best? Bounded stationary points first, then bounded runs that hit
+ * the iteration limit, then runaways, then failures; within a class the lower chi2. A runaway is
+ * therefore never chosen over a bounded minimum, whatever its chi2. */
+static bool run_better(const run_result *run, const run_result *best)
+{
+    if (run->cls != best->cls)
+        return run->cls > best->cls;
+    return run->chi2 < best->chi2;
 }
 
 static bool same_minimum(const fit_problem *fp, const double *a, const double *b)
@@ -239,14 +311,15 @@ static pw_status init_result(const pw_dataset *ds, const pw_component *c1, const
         r->sys.params[ia] = o->alpha;
         r->fitted[ia] = o->fit_alpha;
     }
-    int iv = pw_model_param_index(model, "V2_V1");
-    if (iv >= 0) {
-        double v = o->V2_V1;
-        if (!isfinite(v) && isfinite(c1->V_L_cm3mol) && isfinite(c2->V_L_cm3mol) &&
-            c1->V_L_cm3mol > 0.0)
-            v = c2->V_L_cm3mol / c1->V_L_cm3mol;
-        r->sys.params[iv] = isfinite(v) && v > 0.0 ? v : 1.0;
+    /* parameters from component data (Wilson's volume ratio, UNIQUAC's r and q) */
+    if (model->from_components) {
+        pw_status st = model->from_components(c1, c2, r->sys.params, err);
+        if (st != PW_OK)
+            return st;
     }
+    int iv = pw_model_param_index(model, "V2_V1");
+    if (iv >= 0 && isfinite(o->V2_V1) && o->V2_V1 > 0.0)
+        r->sys.params[iv] = o->V2_V1;
     r->sys.vapor = o->vapor;
     pw_status vst = pw_vapor_check(o->vapor, c1, c2, err);
     if (vst != PW_OK) {
@@ -324,21 +397,9 @@ static pw_status init_result(const pw_dataset *ds, const pw_component *c1, const
     return PW_OK;
 }
 
-/* A run that drifted to an asymptote (an energy of tens of thousands of kelvin, a Lambda or G
- * of essentially zero) has not found a minimum but a flat plateau of the objective. */
-static bool runaway(const fit_problem *fp, const double *params)
-{
-    for (size_t j = 0; j < fp->n_fit; j++)
-        if (fabs(params[fp->idx[j]]) > RUNAWAY_LIMIT * fp->scale[j])
-            return true;
-    return false;
-}
-
 /* Records a converged run among the distinct minima (sorted by chi2 on output). */
 static void add_minimum(pw_fit_result *r, const fit_problem *fp, const run_result *run)
 {
-    if (runaway(fp, run->params))
-        return;
     for (size_t i = 0; i < r->n_minima; i++)
         if (same_minimum(fp, r->minima[i].params, run->params)) {
             r->minima[i].hits++;
@@ -379,14 +440,14 @@ static void make_start(const pw_fit_result *r, const fit_problem *fp, gsl_rng *r
     memcpy(start, r->sys.params, sizeof(double) * PW_MAX_PARAMS);
     if (s == 0)
         return;
-    bool vanlaar = !strcmp(r->sys.model->name, "vanlaar");
+    bool same_sign = r->sys.model->starts_same_sign;
     double sign = gsl_rng_uniform(rng) < 0.5 ? -1.0 : 1.0;
     for (size_t j = 0; j < fp->n_fit; j++) {
         size_t k = fp->idx[j];
         double lo, hi;
         start_range(r->sys.model, k, &lo, &hi);
         double v = lo + (hi - lo) * gsl_rng_uniform(rng);
-        if (vanlaar) /* both constants of one sign, away from zero */
+        if (same_sign) /* all fitted constants of one sign, away from zero */
             v = sign * (0.05 + fabs(v));
         start[k] = v;
     }
@@ -399,6 +460,8 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     pw_fit_options o = opt ? *opt : pw_fit_default_options();
     if (!ds || !c1 || !c2 || !model || !out)
         return pw_error_set(err, PW_EINVAL, NULL, 0, "missing argument to the fit");
+    if (o.max_iter < 1)
+        return pw_error_set(err, PW_EINVAL, ds->path, 0, "the iteration limit must be at least 1");
     pw_status st = init_result(ds, c1, c2, model, &o, out, err);
     if (st != PW_OK) {
         pw_fit_result_free(out);
@@ -416,82 +479,82 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     gsl_multifit_nlinear_workspace *w =
         J ? gsl_multifit_nlinear_alloc(gsl_multifit_nlinear_trust, &params, fp.n_res, fp.n_fit)
           : NULL;
-    if (st == PW_OK && (!J || !rng || !w))
+    /* Starts (docs/fitting.md): the model's default start, the ideal-solution point, then the
+     * best of 4 n_starts seeded draws, each screened by one evaluation; LM runs from exactly
+     * n_starts of them (fewer only when fewer draws can be evaluated at all). */
+    size_t n_runs = o.n_starts ? o.n_starts : 1;
+    size_t n_draw = n_runs > 1 ? 4 * n_runs : 0;
+    if (n_runs > ((size_t)-1) / (8 * sizeof(start_cand)))
+        n_runs = n_draw = 0, st = st == PW_OK ? PW_ENOMEM : st;
+    start_cand *cand = st == PW_OK ? malloc(sizeof *cand * (n_draw + 2)) : NULL;
+    double *work = st == PW_OK ? malloc(sizeof(double) * fp.n_res) : NULL;
+    if (st == PW_OK && (!J || !rng || !w || !cand || !work))
         st = PW_ENOMEM;
     if (st != PW_OK) {
         free(used);
         free(J);
+        free(cand);
+        free(work);
         gsl_rng_free(rng);
         if (w)
             gsl_multifit_nlinear_free(w);
         pw_fit_result_free(out);
-        return pw_error_set(err, st, ds->path, 0, "%s", pw_strerror(st));
+        return pw_error_set(err, st, ds->path, 0, "%s (%zu starts requested)", pw_strerror(st),
+                            o.n_starts);
     }
     gsl_rng_set(rng, o.seed);
     lm_ctx ctx = {.fp = &fp, .J_cache = J};
+    memcpy(ctx.fitted_mask, out->fitted, sizeof ctx.fitted_mask);
     gsl_multifit_nlinear_fdf fdf = {.f = lm_f, .df = lm_df, .fvv = NULL, .n = fp.n_res,
                                     .p = fp.n_fit, .params = &ctx};
-    run_result best = {.chi2 = INFINITY, .stop = PW_STOP_NONE};
-    /* Multistart with screening: every candidate start costs one objective evaluation; LM then
-     * runs from the candidates in order of increasing chi2 and stops once MULTISTART_STALL runs
-     * in a row found neither a new minimum nor a lower chi2 (after at least MULTISTART_MIN runs).
-     * The default start always runs. See docs/fitting.md. */
-    size_t n_starts = o.n_starts ? o.n_starts : 1;
-    start_cand *cand = n_starts <= SIZE_MAX / sizeof *cand ? malloc(sizeof *cand * n_starts) : NULL;
-    double *work = malloc(sizeof(double) * fp.n_res);
-    if (!cand || !work) { /* a failed allocation is an error, never an unfitted "result" */
-        free(cand);
-        free(work);
-        free(used);
-        free(J);
-        gsl_rng_free(rng);
-        gsl_multifit_nlinear_free(w);
-        pw_fit_result_free(out);
-        return pw_error_set(err, PW_ENOMEM, ds->path, 0, "out of memory for %zu start points",
-                            n_starts);
+    size_t n_fixed = 0;
+    memcpy(cand[n_fixed].p, out->sys.params, sizeof cand[0].p);
+    cand[n_fixed++].chi2 = -2.0;
+    if (n_runs > 1 && fit_ideal_point(&out->sys, cand[n_fixed].p)) {
+        bool same = memcmp(cand[n_fixed].p, cand[0].p, sizeof cand[0].p) == 0;
+        if (!same)
+            cand[n_fixed++].chi2 = -1.0;
     }
-    size_t n_cand = 0;
-    for (size_t s = 0; cand && work && s < n_starts; s++) {
+    size_t n_cand = n_fixed;
+    for (size_t s = 1; s <= n_draw; s++) {
         make_start(out, &fp, rng, s, cand[n_cand].p);
         if (model->check(cand[n_cand].p) != PW_OK)
             continue;
-        cand[n_cand].chi2 = s == 0 ? -1.0 : fit_chi2(&fp, cand[n_cand].p, work);
+        cand[n_cand].chi2 = fit_chi2(&fp, cand[n_cand].p, work);
+        ctx.n_fev++;
         if (isfinite(cand[n_cand].chi2))
             n_cand++;
     }
-    ctx.n_fev += n_starts;
-    if (cand)
-        qsort(cand, n_cand, sizeof *cand, cmp_cand);
-    size_t stall = 0;
+    free(work);
+    qsort(cand, n_cand, sizeof *cand, cmp_cand);
+    if (n_cand > n_runs)
+        n_cand = n_runs;
+    run_result best = {.chi2 = INFINITY, .stop = PW_STOP_NONE, .cls = RUN_FAILED};
+    out->runaway_chi2 = NAN;
+    memcpy(best.params, out->sys.params, sizeof best.params);
     for (size_t c = 0; c < n_cand; c++) {
-        if (c >= MULTISTART_MIN && stall >= MULTISTART_STALL)
-            break;
         run_result run;
         run_lm(w, &fdf, &ctx, cand[c].p, &o, &run);
         out->iterations += run.iterations;
         out->n_runs++;
-        bool conv = (run.stop == PW_STOP_STEP || run.stop == PW_STOP_GRADIENT) &&
-                    !runaway(&fp, run.params);
-        size_t before = out->n_minima;
-        if (conv)
+        if (run.cls == RUN_STATIONARY)
             add_minimum(out, &fp, &run);
-        /* prefer converged runs; among equals the lower chi2 */
-        bool best_conv = best.stop == PW_STOP_STEP || best.stop == PW_STOP_GRADIENT;
-        bool better = (conv && !best_conv) ||
-                      (conv == best_conv && run.chi2 < best.chi2 * (1.0 - 1e-9));
-        if (better || (conv == best_conv && run.chi2 < best.chi2))
+        if (run.cls == RUN_RUNAWAY) {
+            out->n_runaway_runs++;
+            if (!(run.chi2 >= out->runaway_chi2))
+                out->runaway_chi2 = run.chi2;
+        }
+        if (out->n_runs == 1 || run_better(&run, &best))
             best = run;
-        stall = (better || out->n_minima > before) ? 0 : stall + 1;
     }
     free(cand);
-    free(work);
     out->n_fev = ctx.n_fev;
     out->n_jev = ctx.n_jev;
     qsort(out->minima, out->n_minima, sizeof out->minima[0], cmp_minima);
     /* Among minima as good as the best (METHODS 3.5: S <= 1.01 S_best or delta-AICc < 2), take
      * the first that predicts no liquid split over the data's temperature range. */
     out->n_residuals = fp.n_res;
-    size_t competing = pw_fit_competing_minima(out);
+    size_t competing = best.cls == RUN_STATIONARY ? pw_fit_competing_minima(out) : 0;
     for (size_t i = 0; competing > 1 && i < competing; i++) {
         pw_system s = out->sys;
         memcpy(s.params, out->minima[i].params, sizeof s.params);
@@ -500,42 +563,68 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
         if (!(D < 0.0)) {
             memcpy(best.params, out->minima[i].params, sizeof best.params);
             best.chi2 = out->minima[i].chi2;
+            best.exact = chi2_exact(best.chi2, fp.n_res);
             break;
         }
     }
     memcpy(out->sys.params, best.params, sizeof best.params);
     out->stop = best.stop;
-    out->converged = best.stop == PW_STOP_STEP || best.stop == PW_STOP_GRADIENT;
     out->chi2 = best.chi2;
     out->dof = fp.n_res > fp.n_fit ? fp.n_res - fp.n_fit : 0;
+    out->runaway_param = pw_fit_runaway_param(model, out->fitted, best.params, out->sys.T_ref_K);
+    switch (best.cls) {
+    case RUN_STATIONARY: out->fit_class = best.exact ? PW_FIT_EXACT : PW_FIT_MINIMUM; break;
+    case RUN_RUNAWAY: out->fit_class = PW_FIT_RUNAWAY; break;
+    case RUN_MAXITER: out->fit_class = PW_FIT_MAXITER; break;
+    case RUN_FAILED: out->fit_class = PW_FIT_FAILED; break;
+    }
+    out->identifiable = true;
+    out->sv_ratio = NAN;
 
-    /* Covariance, standard errors, confidence intervals, correlation at the chosen optimum. */
+    /* Covariance, standard errors, confidence intervals, correlation at the chosen optimum.
+     * An exact fit has chi2/dof at rounding level, which says nothing about the measurement
+     * error; its covariance uses the a-priori variance factor 1 (the stated uncertainties). */
     for (size_t k = 0; k < PW_MAX_PARAMS; k++) {
         out->stderr_[k] = NAN;
         out->ci95[k][0] = out->ci95[k][1] = NAN;
+        out->stderr_meaningful[k] = false;
     }
     double *f = malloc(sizeof(double) * fp.n_res);
     pw_status cst = f ? fit_eval(&fp, out->sys.params, f, J) : PW_ENOMEM;
     free(f);
     if (cst == PW_OK && out->dof > 0) {
-        double s2 = out->chi2 / (double)out->dof;
-        cst = fit_covariance(&fp, J, fp.n_res, s2, out->cov);
+        double s2 = out->fit_class == PW_FIT_EXACT ? 1.0 : out->chi2 / (double)out->dof;
+        fit_info info;
+        double t = gsl_cdf_tdist_Pinv(0.975, (double)out->dof);
+        cst = fit_identify(&fp, J, fp.n_res, s2, t, &info);
         if (cst == PW_OK) {
-            double t = gsl_cdf_tdist_Pinv(0.975, (double)out->dof);
+            memcpy(out->cov, info.cov, sizeof out->cov);
+            out->sv_ratio = info.sv_ratio;
+            out->identifiable = info.rank == fp.n_fit;
+            memcpy(out->weak_dir, info.weak_dir, sizeof out->weak_dir);
             for (size_t j = 0; j < fp.n_fit; j++) {
                 size_t k = fp.idx[j];
+                if (!info.meaningful[k])
+                    continue;
+                out->stderr_meaningful[k] = true;
                 out->stderr_[k] = sqrt(out->cov[k][k]);
                 out->ci95[k][0] = out->sys.params[k] - t * out->stderr_[k];
                 out->ci95[k][1] = out->sys.params[k] + t * out->stderr_[k];
             }
-            for (size_t a = 0; a < fp.n_fit; a++)
-                for (size_t b = 0; b < fp.n_fit; b++) {
-                    size_t ka = fp.idx[a], kb = fp.idx[b];
-                    double d = out->stderr_[ka] * out->stderr_[kb];
+            for (size_t a2 = 0; a2 < fp.n_fit; a2++)
+                for (size_t b2 = 0; b2 < fp.n_fit; b2++) {
+                    size_t ka = fp.idx[a2], kb = fp.idx[b2];
+                    double d = sqrt(out->cov[ka][ka] * out->cov[kb][kb]);
                     out->corr[ka][kb] = d > 0.0 ? out->cov[ka][kb] / d : (ka == kb ? 1.0 : 0.0);
                 }
+        } else {
+            out->identifiable = false;
         }
     }
+    if (out->fit_class == PW_FIT_MINIMUM && !out->identifiable)
+        out->fit_class = PW_FIT_UNIDENTIFIABLE;
+    out->converged = out->fit_class == PW_FIT_MINIMUM || out->fit_class == PW_FIT_EXACT ||
+                     out->fit_class == PW_FIT_UNIDENTIFIABLE;
     free(used);
     free(J);
     gsl_rng_free(rng);

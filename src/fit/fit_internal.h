@@ -40,9 +40,25 @@ pw_status fit_eval(const fit_problem *fp, const double *params, double *f, doubl
 /* Sum of squares of the weighted residuals at params; INFINITY when a point fails. */
 double fit_chi2(const fit_problem *fp, const double *params, double *work);
 
-/* Covariance (J^T J)^-1 in the full parameter space from the Jacobian J (row-major n x p, in
- * internal unknowns) through an SVD (LAPACK dgesdd). PW_ESINGULAR when J is rank-deficient. */
-pw_status fit_covariance(const fit_problem *fp, const double *J, size_t n, double s2,
-                         double cov[PW_MAX_PARAMS][PW_MAX_PARAMS]);
+/* What the Jacobian at the optimum says about the parameters (covariance.c). */
+typedef struct fit_info {
+    double cov[PW_MAX_PARAMS][PW_MAX_PARAMS]; /* s2 (J^T J)^+ over the identified directions,
+                                                 full parameter space, physical units */
+    size_t rank;                /* identified directions (== n_fit when all are) */
+    double sv_ratio;            /* smallest / largest singular value */
+    double weak_dir[PW_MAX_PARAMS]; /* weakest direction when rank < n_fit (largest entry 1) */
+    bool meaningful[PW_MAX_PARAMS]; /* standard error not driven by an unidentified direction */
+} fit_info;
+
+/* Covariance and identifiability from the weighted Jacobian J (row-major n x p, in internal
+ * unknowns) through an SVD (LAPACK dgesdd); s2 the variance factor, t95 the 97.5 % t quantile.
+ * PW_ESINGULAR when J is zero or the SVD fails; PW_ENOMEM. */
+pw_status fit_identify(const fit_problem *fp, const double *J, size_t n, double s2, double t95,
+                      fit_info *info);
+
+/* The model's ideal-solution point (G^E = 0 at T_ref) with s's fixed parameters: zero
+ * interaction constants and energies, Wilson a12 = T_ref ln(V2_V1) = -a21. false when the model
+ * has none the fit could start from (fit_class.c). */
+bool fit_ideal_point(const pw_system *s, double *params);
 
 #endif

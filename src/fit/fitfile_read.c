@@ -151,6 +151,16 @@ static void read_vapor(reader *rd, const json_t *v, pw_system *sys)
         fail(rd, "\"vapor\" is virial but %s", e.msg);
 }
 
+/* The key under which obj holds parameter k: its name, else its older name (fit files written
+ * before the parameters were renamed), else NULL. */
+static const char *param_key(const json_t *obj, const pw_model_type *m, size_t k)
+{
+    if (json_object_get(obj, m->param_names[k]))
+        return m->param_names[k];
+    const char *old = m->param_aliases ? m->param_aliases[k] : NULL;
+    return old && json_object_get(obj, old) ? old : NULL;
+}
+
 static void read_params(reader *rd, const json_t *obj, const pw_model_type *m, double *v,
                         bool required)
 {
@@ -159,13 +169,13 @@ static void read_params(reader *rd, const json_t *obj, const pw_model_type *m, d
         return;
     }
     for (size_t k = 0; k < m->n_params; k++) {
-        const json_t *p = json_object_get(obj, m->param_names[k]);
-        if (!p) {
+        const char *key = param_key(obj, m, k);
+        if (!key) {
             if (required)
                 fail(rd, "parameter \"%s\" of model %s is missing", m->param_names[k], m->name);
             continue;
         }
-        v[k] = get_num(rd, obj, m->param_names[k], !required);
+        v[k] = get_num(rd, obj, key, !required);
     }
 }
 
@@ -240,8 +250,10 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
         fail(rd, "unsupported fit-file format_version (expected 1)");
     const char *mname = get_str(rd, root, "model");
     const pw_model_type *m = pw_model_find(mname);
+    char names[256];
     if (rd->st == PW_OK && !m)
-        fail(rd, "unknown model \"%s\" (expected margules, vanlaar, wilson or nrtl)", mname);
+        fail(rd, "unknown model \"%s\" (expected one of %s)", mname,
+             pw_model_names(names, sizeof names));
     if (rd->st != PW_OK)
         return;
     r->sys.model = m;
@@ -267,7 +279,7 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
         size_t i;
         const json_t *f;
         json_array_foreach(fixed, i, f) {
-            int k = json_is_string(f) ? pw_model_param_index(m, json_string_value(f)) : -1;
+            int k = json_is_string(f) ? pw_model_param_lookup(m, json_string_value(f)) : -1;
             if (k < 0)
                 fail(rd, "\"fixed\" names an unknown parameter");
             else
@@ -279,7 +291,8 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
         r->n_fitted += r->fitted[k];
     const json_t *ci = json_object_get(root, "ci95");
     for (size_t k = 0; k < m->n_params && json_is_object(ci); k++) {
-        const json_t *pair = json_object_get(ci, m->param_names[k]);
+        const char *key = param_key(ci, m, k);
+        const json_t *pair = key ? json_object_get(ci, key) : NULL;
         if (json_is_array(pair) && json_array_size(pair) == 2) {
             const json_t *lo = json_array_get(pair, 0), *hi = json_array_get(pair, 1);
             r->ci95[k][0] = json_is_number(lo) ? json_number_value(lo) : (double)NAN;
@@ -370,9 +383,12 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
     const char *stop = json_is_string(json_object_get(root, "stop_reason"))
                            ? json_string_value(json_object_get(root, "stop_reason"))
                            : "";
-    for (int s = PW_STOP_NONE; s <= PW_STOP_FAILED; s++)
+    for (int s = PW_STOP_NONE; s <= PW_STOP_MACHINE; s++)
         if (!strcmp(stop, pw_fit_stop_name((pw_stop_reason)s)))
             r->stop = (pw_stop_reason)s;
+    char why[PW_ERROR_MSG_MAX];
+    if (rd->st == PW_OK && !pw_fitfile_read_convergence(root, r, why, sizeof why))
+        fail(rd, "%s", why);
 }
 
 pw_status pw_fitfile_parse(const char *buf, size_t len, const char *name, pw_fit_result *r,

@@ -33,6 +33,8 @@ const char *pw_fit_stop_name(pw_stop_reason s)
     case PW_STOP_GRADIENT: return "gradient below tolerance";
     case PW_STOP_MAXITER: return "iteration limit reached";
     case PW_STOP_FAILED: return "model evaluation failed";
+    case PW_STOP_NOPROG: return "no progress from the start point";
+    case PW_STOP_MACHINE: return "tolerance at machine precision";
     }
     return "unknown";
 }
@@ -112,6 +114,35 @@ json_t *pw_fitfile_summary_json(const pw_fit_result *r)
     return o;
 }
 
+/* The convergence class with what the data do not fix (docs/fit-file.md). */
+static json_t *convergence_json(const pw_fit_result *r)
+{
+    const pw_model_type *m = r->sys.model;
+    json_t *c = json_object();
+    json_object_set_new(c, "class", json_string(pw_fit_class_name(r->fit_class)));
+    json_object_set_new(c, "identifiable", json_boolean(r->identifiable));
+    json_object_set_new(c, "singular_value_ratio", num(r->sv_ratio));
+    json_t *weak = json_null(), *unfixed = json_array();
+    if (!r->identifiable) {
+        weak = json_object();
+        for (size_t k = 0; k < m->n_params; k++)
+            if (r->fitted[k])
+                json_object_set_new(weak, m->param_names[k], num(r->weak_dir[k]));
+    }
+    for (size_t k = 0; k < m->n_params; k++)
+        if (r->fitted[k] && !r->stderr_meaningful[k])
+            json_array_append_new(unfixed, json_string(m->param_names[k]));
+    json_object_set_new(c, "weak_direction", weak);
+    json_object_set_new(c, "stderr_not_meaningful", unfixed);
+    json_object_set_new(c, "runaway_runs", json_integer((json_int_t)r->n_runaway_runs));
+    json_object_set_new(c, "runaway_best_chi2", num(r->runaway_chi2));
+    json_object_set_new(c, "runaway_parameter",
+                        r->runaway_param >= 0 && (size_t)r->runaway_param < m->n_params
+                            ? json_string(m->param_names[r->runaway_param])
+                            : json_null());
+    return c;
+}
+
 json_t *pw_fitfile_to_json(const pw_fit_result *r)
 {
     const pw_model_type *m = r->sys.model;
@@ -120,6 +151,7 @@ json_t *pw_fitfile_to_json(const pw_fit_result *r)
     json_object_set_new(o, "format_version", json_integer(PW_FITFILE_VERSION));
     json_object_set_new(o, "objective", json_string(objective_name(r->objective)));
     json_object_set_new(o, "stop_reason", json_string(pw_fit_stop_name(r->stop)));
+    json_object_set_new(o, "convergence", convergence_json(r));
 
     json_t *ci = json_object();
     for (size_t k = 0; k < m->n_params; k++)

@@ -173,7 +173,8 @@ static void parameters(pw_sbuf *b, const pw_fit_result *r)
     }
     pw_sbuf_puts(b, "<h3>Regression</h3><table class=\"kv\">\n");
     char t[400];
-    snprintf(t, sizeof t, "%s (%s)", r->converged ? "yes" : "NO", pw_fit_stop_name(r->stop));
+    snprintf(t, sizeof t, "%s (%s; %s)", r->converged ? "yes" : "NO", pw_fit_class_name(r->fit_class),
+             pw_fit_stop_name(r->stop));
     kv(b, "Converged", t, false);
     snprintf(t, sizeof t,
              "%zu LM runs of the multistart, %zu iterations, %zu residual and %zu Jacobian "
@@ -476,7 +477,10 @@ static void column_section(pw_sbuf *b, const pw_report_curves *c)
         snprintf(t, sizeof t, "%.4g (would underestimate R_min)", k->r_feed);
         kv(b, "R from the feed point alone", t, false);
     }
-    snprintf(t, sizeof t, "%.3g stepped on the curve (partial reboiler counted)", k->n_min);
+    if (k->n_min_status != PW_OK)
+        snprintf(t, sizeof t, "not reached by stepping (%s)", pw_strerror(k->n_min_status));
+    else
+        snprintf(t, sizeof t, "%.3g stepped on the curve (partial reboiler counted)", k->n_min);
     kv(b, "Minimum stages N_min (total reflux)", t, false);
     snprintf(t, sizeof t, "%.3g with \xce\xb1 = \xe2\x88\x9a(%.3g \xc3\x97 %.3g) (Fenske 1932)", k->n_fenske,
              k->alpha_top, k->alpha_bottom);
@@ -498,8 +502,12 @@ static void column_section(pw_sbuf *b, const pw_report_curves *c)
         num(b, d->factor, 3);
         num(b, d->R, 4);
         num(b, d->boilup, 4);
-        num(b, d->stages, 3);
-        pw_sbuf_printf(b, "<td class=\"num\">%d</td>", d->feed_stage);
+        if (d->status != PW_OK) {
+            pw_sbuf_printf(b, "<td colspan=\"2\">not reached: %s</td>", pw_strerror(d->status));
+        } else {
+            num(b, d->stages, 3);
+            pw_sbuf_printf(b, "<td class=\"num\">%d</td>", d->feed_stage);
+        }
         num(b, d->gilliland_stages, 3);
         pw_sbuf_puts(b, "</tr>\n");
     }

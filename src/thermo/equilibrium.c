@@ -6,9 +6,8 @@
 #include "thermo_internal.h"
 
 #include <float.h>
-#include <gsl/gsl_errno.h>
-#include <gsl/gsl_min.h>
-#include <gsl/gsl_roots.h>
+#include "base/solve1d.h"
+
 #include <math.h>
 
 /* Bubble T converged when the Newton step (or the Brent bracket) is below
@@ -167,9 +166,19 @@ static double brent_f(double T, void *vp)
     pw_status st = eval_point(c->s, c->x1, T, c->P, &tp);
     if (st != PW_OK) {
         c->status = st;
-        return GSL_NAN;
+        return (double)NAN;
     }
     return tp.f;
+}
+
+static pw_status brent_fn1d(void *vp, double T, double *f)
+{
+    brent_ctx *c = vp;
+    tpoint tp;
+    pw_status st = eval_point(c->s, c->x1, T, c->P, &tp);
+    if (st == PW_OK)
+        *f = tp.f;
+    return st;
 }
 
 /* Moves the end *end of the bracket until f has the wanted sign there (sign -1 below the
@@ -219,30 +228,13 @@ static pw_status brent_bubble(const pw_system *s, double P, double x1, double a,
         return st;
     if (!(a < b))
         return PW_ENOBRACKET;
-    gsl_root_fsolver *sv = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    if (!sv)
-        return PW_ENOMEM;
-    gsl_function F = {brent_f, &c};
-    c.status = PW_OK;
-    if (gsl_root_fsolver_set(sv, &F, a, b) != GSL_SUCCESS) {
-        gsl_root_fsolver_free(sv);
-        return c.status != PW_OK ? c.status : PW_ENOBRACKET;
-    }
-    st = PW_EMAXITER;
-    for (int it = 1; it <= BRENT_MAXIT; it++) {
-        (*iters)++;
-        if (gsl_root_fsolver_iterate(sv) != GSL_SUCCESS) {
-            st = c.status != PW_OK ? c.status : PW_ENOCONV;
-            break;
-        }
-        double lo = gsl_root_fsolver_x_lower(sv), hi = gsl_root_fsolver_x_upper(sv);
-        if (gsl_root_test_interval(lo, hi, T_EPSABS, T_EPSREL) == GSL_SUCCESS) {
-            *root = gsl_root_fsolver_root(sv);
-            st = PW_OK;
-            break;
-        }
-    }
-    gsl_root_fsolver_free(sv);
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = T_EPSABS;
+    o.xtol_rel = T_EPSREL;
+    o.max_iter = BRENT_MAXIT;
+    unsigned n = 0;
+    st = pw_root1d(brent_fn1d, &c, a, b, NAN, NAN, &o, root, &n);
+    *iters += (int)n;
     return st;
 }
 
@@ -539,9 +531,19 @@ static double stab_D(double x1, void *vp)
     pw_status st = pw_system_activity(c->s, x1, c->T, &a);
     if (st != PW_OK) {
         c->status = st;
-        return GSL_NAN;
+        return (double)NAN;
     }
     return 1.0 / (x1 * (1.0 - x1)) + a.d2gE_dx2;
+}
+
+static pw_status stab_fn1d(void *vp, double x1, double *D)
+{
+    stab_ctx *c = vp;
+    double v = stab_D(x1, c);
+    if (c->status != PW_OK)
+        return c->status;
+    *D = v;
+    return PW_OK;
 }
 
 pw_status pw_stability_min(const pw_system *s, double T_K, double *min_D, double *x_at_min)
@@ -570,24 +572,15 @@ pw_status pw_stability_min(const pw_system *s, double T_K, double *min_D, double
     double a = (kmin - 1) * h, b = (kmin + 1) * h;
     if (!(Dmin < stab_D(a, &c) && Dmin < stab_D(b, &c)))
         return PW_OK; /* flat: the grid value stands */
-    gsl_min_fminimizer *m = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
-    if (!m)
-        return PW_ENOMEM;
-    gsl_function F = {stab_D, &c};
-    if (gsl_min_fminimizer_set(m, &F, kmin * h, a, b) == GSL_SUCCESS) {
-        for (int it = 0; it < STAB_MAXIT; it++) {
-            if (gsl_min_fminimizer_iterate(m) != GSL_SUCCESS)
-                break;
-            double lo = gsl_min_fminimizer_x_lower(m), hi = gsl_min_fminimizer_x_upper(m);
-            if (gsl_min_test_interval(lo, hi, 1e-10, 0.0) == GSL_SUCCESS)
-                break;
-        }
-        double fm = gsl_min_fminimizer_f_minimum(m);
-        if (c.status == PW_OK && isfinite(fm) && fm <= Dmin) {
-            *min_D = fm;
-            *x_at_min = gsl_min_fminimizer_x_minimum(m);
-        }
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = 1e-10;
+    o.xtol_rel = 0.0;
+    o.max_iter = STAB_MAXIT;
+    double xm, fm;
+    pw_status st = pw_min1d(stab_fn1d, &c, a, kmin * h, b, NAN, Dmin, NAN, &o, &xm, &fm, NULL);
+    if ((st == PW_OK || st == PW_EMAXITER) && isfinite(fm) && fm <= Dmin) {
+        *min_D = fm;
+        *x_at_min = xm;
     }
-    gsl_min_fminimizer_free(m);
-    return c.status;
+    return st == PW_EMAXITER || st == PW_ENOBRACKET ? PW_OK : st;
 }

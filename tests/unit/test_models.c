@@ -350,8 +350,8 @@ static void model_table(void **state)
     (void)state;
     size_t n = 0;
     const pw_model_type *const *all = pw_model_all(&n);
-    assert_int_equal(n, 4);
-    static const char *names[] = {"margules", "vanlaar", "wilson", "nrtl"};
+    assert_int_equal(n, 5);
+    static const char *names[] = {"margules", "vanlaar", "wilson", "nrtl", "uniquac"};
     for (size_t i = 0; i < n; i++) {
         assert_string_equal(all[i]->name, names[i]);
         assert_ptr_equal(pw_model_find(names[i]), all[i]);
@@ -360,15 +360,45 @@ static void model_table(void **state)
         for (size_t j = 0; j < all[i]->n_params; j++)
             assert_int_equal(pw_model_param_index(all[i], all[i]->param_names[j]), (int)j);
     }
-    assert_null(pw_model_find("NRTL"));
-    assert_null(pw_model_find("uniquac"));
+    /* model names are case-insensitive (issue 12, item 4) */
+    assert_ptr_equal(pw_model_find("NRTL"), &pw_model_nrtl);
+    assert_ptr_equal(pw_model_find("Wilson"), &pw_model_wilson);
+    char list[256];
+    assert_string_equal(pw_model_names(list, sizeof list),
+                        "margules, vanlaar, wilson, nrtl, uniquac");
+    assert_string_equal(pw_model_names(list, 9), "margules");
+    /* every descriptor gives its start ranges */
+    for (size_t i = 0; i < n; i++) {
+        assert_non_null(all[i]->start_range);
+        for (size_t j = 0; j < all[i]->n_params; j++)
+            assert_true(all[i]->start_range[j][0] < all[i]->start_range[j][1]);
+    }
+    assert_ptr_equal(pw_model_find("uniquac"), &pw_model_uniquac);
+    assert_null(pw_model_find("unifac"));
     assert_null(pw_model_find(NULL));
     assert_int_equal(pw_model_param_index(&pw_model_nrtl, "alpha"), 2);
     assert_false(pw_model_nrtl.fitted_default[2]);
     pw_assert_close(pw_model_nrtl.defaults[2], 0.3, 0.0, 0.0, "NRTL default alpha");
     assert_int_equal(pw_model_param_index(&pw_model_wilson, "V2_V1"), 2);
     assert_false(pw_model_wilson.fitted_default[2]);
-    assert_int_equal(pw_model_param_index(&pw_model_wilson, "b12_K"), -1);
+    assert_int_equal(pw_model_param_index(&pw_model_wilson, "dg12_K"), -1);
+    /* the parameter names of the project's own (issue 12, item 10), and the older names that
+     * fit files written before the rename hold, still found by pw_model_param_lookup */
+    assert_int_equal(pw_model_param_index(&pw_model_nrtl, "dg12_K"), 0);
+    assert_int_equal(pw_model_param_index(&pw_model_nrtl, "dg21_K"), 1);
+    assert_int_equal(pw_model_param_index(&pw_model_wilson, "dlambda12_K"), 0);
+    assert_int_equal(pw_model_param_index(&pw_model_wilson, "dlambda21_K"), 1);
+    assert_int_equal(pw_model_param_index(&pw_model_nrtl, "b12_K"), -1);
+    assert_int_equal(pw_model_param_lookup(&pw_model_nrtl, "b12_K"), 0);
+    assert_int_equal(pw_model_param_lookup(&pw_model_nrtl, "b21_K"), 1);
+    assert_int_equal(pw_model_param_lookup(&pw_model_wilson, "a12_K"), 0);
+    assert_int_equal(pw_model_param_lookup(&pw_model_wilson, "a21_K"), 1);
+    assert_int_equal(pw_model_param_lookup(&pw_model_wilson, "b12_K"), -1);
+    assert_int_equal(pw_model_param_lookup(&pw_model_nrtl, "alpha"), 2);
+    /* every binary interaction parameter's name holds its index pair (CONTRACT) */
+    for (size_t i = 0; i < n; i++)
+        for (size_t j = 0; j < 2; j++)
+            assert_non_null(strstr(all[i]->param_names[j], j ? "21" : "12"));
 }
 
 int main(void)

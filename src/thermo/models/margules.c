@@ -11,6 +11,8 @@ static const char *const names[] = {"A12", "A21"};
 static const char *const units[] = {"-", "-"};
 static const double defaults[] = {0.0, 0.0};
 static const bool fitted[] = {true, true};
+/* Starts for the multistart fit: |A_ij| up to about 3 covers the liquids met in practice. */
+static const double starts[][2] = {{-2.5, 3.0}, {-2.5, 3.0}};
 
 static pw_status check(const double *p)
 {
@@ -51,4 +53,5 @@ const pw_model_type pw_model_margules = {
     .fitted_default = fitted,
     .check = check,
     .eval = eval,
+    .start_range = starts,
 };

@@ -1,5 +1,6 @@
 /* NRTL equation (Renon & Prausnitz 1968, AIChE J. 14:135), index convention of Renon-Prausnitz
- * and SVNA: tau12 = (g12 - g22)/RT = b12_K/T, tau21 = (g21 - g11)/RT = b21_K/T,
+ * and SVNA: tau12 = (g12 - g22)/RT = dg12_K/T, tau21 = (g21 - g11)/RT = dg21_K/T (dg_ij_K is
+ * Delta g_ij/R in kelvin; fit files written before the rename call them b12_K, b21_K),
  * G_ij = exp(-alpha tau_ij), one alpha for the pair:
  *   g = x1 x2 [tau21 G21/(x1 + x2 G21) + tau12 G12/(x2 + x1 G12)].
  * Derivations in docs/thermo.md. */
@@ -8,10 +9,14 @@
 #include <math.h>
 #include <string.h>
 
-static const char *const names[] = {"b12_K", "b21_K", "alpha"};
+static const char *const names[] = {"dg12_K", "dg21_K", "alpha"};
+static const char *const aliases[] = {"b12_K", "b21_K", NULL};
 static const char *const units[] = {"K", "K", "-"};
 static const double defaults[] = {0.0, 0.0, 0.3};
 static const bool fitted[] = {true, true, false};
+/* Starts for the multistart fit: tau_ij from about -2 to 7 near 350 K; alpha over the range
+ * Renon & Prausnitz (1968) found for real mixtures. */
+static const double starts[][2] = {{-700.0, 2500.0}, {-700.0, 2500.0}, {0.1, 0.6}};
 
 static pw_status check(const double *p)
 {
@@ -64,7 +69,7 @@ static pw_status eval(const double *p, double T_ref_K, double x1, double T_K, pw
 
 const pw_model_type pw_model_nrtl = {
     .name = "nrtl",
-    .title = "NRTL (Renon & Prausnitz 1968), tau_ij = b_ij/T, one alpha",
+    .title = "NRTL (Renon & Prausnitz 1968), tau_ij = dg_ij/T, one alpha",
     .n_params = 3,
     .param_names = names,
     .param_units = units,
@@ -72,4 +77,6 @@ const pw_model_type pw_model_nrtl = {
     .fitted_default = fitted,
     .check = check,
     .eval = eval,
+    .start_range = starts,
+    .param_aliases = aliases,
 };

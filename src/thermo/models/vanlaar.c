@@ -12,6 +12,8 @@ static const char *const names[] = {"A12", "A21"};
 static const char *const units[] = {"-", "-"};
 static const double defaults[] = {1.0, 1.0};
 static const bool fitted[] = {true, true};
+/* Starts for the multistart fit; both constants take one sign (starts_same_sign). */
+static const double starts[][2] = {{-2.5, 3.0}, {-2.5, 3.0}};
 
 static pw_status check(const double *p)
 {
@@ -72,4 +74,6 @@ const pw_model_type pw_model_vanlaar = {
     .fitted_default = fitted,
     .check = check,
     .eval = eval,
+    .start_range = starts,
+    .starts_same_sign = true,
 };

@@ -1,17 +1,33 @@
 /* Wilson equation (G. M. Wilson 1964, J. Am. Chem. Soc. 86:127):
  *   g = -x1 ln(x1 + L12 x2) - x2 ln(x2 + L21 x1)
- *   L12 = V2_V1 exp(-a12_K/T),  L21 = exp(-a21_K/T) / V2_V1,
- * a_ij_K = (lambda_ij - lambda_ii)/R in kelvin, V2_V1 the ratio of pure-liquid molar volumes
+ *   L12 = V2_V1 exp(-dlambda12_K/T),  L21 = exp(-dlambda21_K/T) / V2_V1,
+ * dlambda_ij_K = (lambda_ij - lambda_ii)/R in kelvin (called a12_K, a21_K in fit files written
+ * before the rename), V2_V1 the ratio of pure-liquid molar volumes
  * (held constant). Derivations in docs/thermo.md. */
 #include "model_common.h"
 
 #include <math.h>
 #include <string.h>
 
-static const char *const names[] = {"a12_K", "a21_K", "V2_V1"};
+static const char *const names[] = {"dlambda12_K", "dlambda21_K", "V2_V1"};
+static const char *const aliases[] = {"a12_K", "a21_K", NULL};
 static const char *const units[] = {"K", "K", "-"};
 static const double defaults[] = {0.0, 0.0, 1.0};
 static const bool fitted[] = {true, true, false};
+/* Starts for the multistart fit (Lambda_ij from about exp(-7) to exp(2) near 350 K); the volume
+ * ratio is taken from the components and held fixed. */
+static const double starts[][2] = {{-700.0, 2500.0}, {-700.0, 2500.0}, {0.2, 5.0}};
+
+/* V2_V1 from the components' liquid molar volumes (V_L); 1 when either is unknown. */
+static pw_status from_components(const pw_component *c1, const pw_component *c2, double *p,
+                                 pw_error *err)
+{
+    (void)err;
+    double v1 = c1 ? c1->V_L_cm3mol : (double)NAN, v2 = c2 ? c2->V_L_cm3mol : (double)NAN;
+    double r = v2 / v1;
+    p[2] = isfinite(r) && r > 0.0 ? r : 1.0;
+    return PW_OK;
+}
 
 static pw_status check(const double *p)
 {
@@ -60,7 +76,7 @@ static pw_status eval(const double *p, double T_ref_K, double x1, double T_K, pw
 
 const pw_model_type pw_model_wilson = {
     .name = "wilson",
-    .title = "Wilson (Wilson 1964), L12 = V2_V1 exp(-a12/T), L21 = exp(-a21/T)/V2_V1",
+    .title = "Wilson (Wilson 1964), L12 = V2_V1 exp(-dlambda12/T), L21 = exp(-dlambda21/T)/V2_V1",
     .n_params = 3,
     .param_names = names,
     .param_units = units,
@@ -68,4 +84,7 @@ const pw_model_type pw_model_wilson = {
     .fitted_default = fitted,
     .check = check,
     .eval = eval,
+    .start_range = starts,
+    .param_aliases = aliases,
+    .from_components = from_components,
 };

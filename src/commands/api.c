@@ -1,0 +1,319 @@
+/* The flat interface of pinchwise/api.h: each function runs what the command runs and returns
+ * the document that pinchwise/commands.h builds for the command line too. */
+#include <gsl/gsl_errno.h>
+#include <math.h>
+#include <pinchwise/api.h>
+#include <pinchwise/commands.h>
+#include <pinchwise/fitjson.h>
+#include <pinchwise/units.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "pinchwise_version.h"
+
+void pw_api_init(void)
+{
+    gsl_set_error_handler_off();
+}
+
+const char *pw_api_version(void)
+{
+    return PINCHWISE_VERSION_STRING;
+}
+
+void pw_api_free(char *text)
+{
+    free(text);
+}
+
+size_t pw_api_error_size(void)
+{
+    return sizeof(pw_error);
+}
+
+/* Serialises doc (stolen) into *out. */
+static pw_status finish(json_t *doc, char **out, pw_error *err)
+{
+    *out = pw_json_text(doc);
+    json_decref(doc);
+    return *out ? PW_OK : pw_error_set(err, PW_ENOMEM, NULL, 0, "out of memory");
+}
+
+static pw_status need(const void *p, const char *what, pw_error *err)
+{
+    return p ? PW_OK : pw_error_set(err, PW_EINVAL, NULL, 0, "%s is required", what);
+}
+
+/* A quantity argument with its unit; the message names the argument like an option. */
+static pw_status quantity(pw_quantity q, const char *arg, const char *text, double *si,
+                          pw_error *err)
+{
+    pw_status st = pw_units_parse_quantity(q, text, si, err);
+    if (st != PW_OK && err) {
+        char inner[PW_ERROR_MSG_MAX];
+        snprintf(inner, sizeof inner, "%s", err->msg);
+        pw_error_set(err, st, NULL, 0, "%s %s: %s", arg, text, inner);
+    }
+    return st;
+}
+
+static pw_status read_fit(const char *fit_path, const char *fit_text, const char *name,
+                          const char *components, pw_fit_result *fit, pw_error *err)
+{
+    pw_status st;
+    if (fit_path)
+        st = pw_fitfile_read(fit_path, fit, err);
+    else if (fit_text)
+        st = pw_fitfile_parse(fit_text, strlen(fit_text), name ? name : "fit", fit, err);
+    else
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file (or a fit's text) is required");
+    if (st != PW_OK)
+        return st;
+    st = pw_system_override_components(&fit->sys, components, NULL, err);
+    if (st != PW_OK)
+        pw_fit_result_free(fit);
+    return st;
+}
+
+/* The uncertainty options of the command line: on when asked or when samples or seed is given. */
+static pw_status unc_options(int uncertainty, long samples, long seed, bool *on, pw_unc_options *o,
+                             pw_error *err)
+{
+    *o = pw_unc_default_options();
+    *on = uncertainty != 0 || samples >= 0 || seed >= 0;
+    if (samples > 100000)
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "samples %ld: expected a whole number from 0 to 100000", samples);
+    if (seed > 4294967295L)
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "seed %ld: expected a whole number from 0 to 4294967295", seed);
+    if (samples >= 0)
+        o->samples = (size_t)samples;
+    if (seed >= 0)
+        o->seed = (unsigned long)seed;
+    return PW_OK;
+}
+
+static const char *fit_where(const char *fit_path, const char *name)
+{
+    return fit_path ? fit_path : name ? name : "fit";
+}
+
+pw_status pw_api_fit(const char *data, const char *model, const char *components, const char *out,
+                     int force, char **doc, char **fit_file, pw_error *err)
+{
+    if (!doc)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
+    *doc = NULL;
+    if (fit_file)
+        *fit_file = NULL;
+    pw_status st = need(data, "a dataset file", err);
+    if (st == PW_OK)
+        st = need(model, "a model", err);
+    if (st != PW_OK)
+        return st;
+    const pw_model_type *m = pw_model_find(model);
+    if (!m)
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "unknown model '%s' (expected margules, vanlaar, wilson or nrtl)",
+                            model);
+    pw_complib lib;
+    st = pw_complib_load_default(&lib, components, err);
+    if (st != PW_OK)
+        return st;
+    pw_dataset ds;
+    st = pw_dataset_read(data, &ds, err);
+    if (st != PW_OK) {
+        pw_complib_free(&lib);
+        return st;
+    }
+    pw_component found[2];
+    pw_fit_result r;
+    memset(&r, 0, sizeof r);
+    st = pw_dataset_components(&lib, &ds, found, err);
+    pw_fit_options o = pw_fit_default_options();
+    if (st == PW_OK)
+        st = pw_fit_run(&ds, &found[0], &found[1], m, &o, &r, err);
+    pw_dataset_free(&ds);
+    pw_complib_free(&lib);
+    if (st != PW_OK)
+        return st;
+    if (out)
+        st = pw_fitfile_write(out, &r, force != 0, err);
+    if (st == PW_OK && fit_file) {
+        json_t *whole = pw_fitfile_to_json(&r);
+        *fit_file =
+            whole
+                ? json_dumps(whole, JSON_INDENT(1) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER)
+                : NULL;
+        json_decref(whole);
+        if (!*fit_file)
+            st = pw_error_set(err, PW_ENOMEM, NULL, 0, "out of memory");
+    }
+    if (st == PW_OK)
+        st = finish(pw_fit_doc(&r, out), doc, err);
+    if (st != PW_OK && fit_file) {
+        free(*fit_file);
+        *fit_file = NULL;
+    }
+    pw_fit_result_free(&r);
+    return st;
+}
+
+pw_status pw_api_check(const char *data, const char *components, int strict, char **doc,
+                       pw_error *err)
+{
+    if (!doc)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
+    *doc = NULL;
+    pw_status st = need(data, "a dataset file", err);
+    if (st != PW_OK)
+        return st;
+    pw_complib lib;
+    st = pw_complib_load_default(&lib, components, err);
+    if (st != PW_OK)
+        return st;
+    pw_dataset ds;
+    st = pw_dataset_read(data, &ds, err);
+    if (st != PW_OK) {
+        pw_complib_free(&lib);
+        return st;
+    }
+    pw_component found[2];
+    pw_consistency_result r;
+    memset(&r, 0, sizeof r);
+    pw_consistency_options o = pw_consistency_default_options();
+    o.strict_verdict = strict != 0;
+    st = pw_dataset_components(&lib, &ds, found, err);
+    if (st == PW_OK)
+        st = pw_consistency_run(&ds, &found[0], &found[1], &o, &r, err);
+    if (st == PW_OK)
+        st = finish(pw_check_doc(&ds, &r, strict != 0), doc, err);
+    pw_consistency_result_free(&r);
+    pw_dataset_free(&ds);
+    pw_complib_free(&lib);
+    return st;
+}
+
+pw_status pw_api_azeotrope(const char *fit_path, const char *fit_text, const char *name,
+                           const char *components, const char *pressure, const char *temperature,
+                           int uncertainty, long samples, long seed, char **doc, pw_error *err)
+{
+    if (!doc)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
+    *doc = NULL;
+    if (pressure && temperature)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "give a pressure or a temperature, not both");
+    pw_fit_result fit;
+    pw_status st = read_fit(fit_path, fit_text, name, components, &fit, err);
+    if (st != PW_OK)
+        return st;
+    pw_az_mode mode;
+    double fixed;
+    if (pressure) {
+        mode = PW_AZ_ISOBARIC;
+        st = quantity(PW_QTY_PRESSURE, "pressure", pressure, &fixed, err);
+    } else if (temperature) {
+        mode = PW_AZ_ISOTHERMAL;
+        st = quantity(PW_QTY_TEMPERATURE, "temperature", temperature, &fixed, err);
+    } else { /* the condition of the fit's own data */
+        mode = fit.kind == PW_DATA_ISOBARIC ? PW_AZ_ISOBARIC : PW_AZ_ISOTHERMAL;
+        fixed = mode == PW_AZ_ISOBARIC ? fit.P_fixed_Pa : fit.T_fixed_K;
+    }
+    pw_az_result r;
+    if (st == PW_OK) {
+        st = pw_azeotrope_find(&fit.sys, mode, fixed, NULL, &r);
+        if (st != PW_OK)
+            pw_error_set(err, st, fit_where(fit_path, name), 0,
+                         "azeotrope search failed near x1 = %.4g: %s", r.fail_x1, pw_strerror(st));
+    }
+    bool unc = false;
+    pw_unc_options uo;
+    pw_unc_result res[PW_AZ_MAX];
+    if (st == PW_OK)
+        st = unc_options(uncertainty, samples, seed, &unc, &uo, err);
+    if (st == PW_OK && unc)
+        st = pw_azeotrope_unc_run(&fit, &r, &uo, res, err);
+    if (st == PW_OK) {
+        json_t *o = pw_azeotrope_doc(&fit.sys, mode, fixed, &r, NULL);
+        if (o && unc)
+            pw_azeotrope_unc_doc(json_object_get(o, "azeotropes"), &r, res, r.n, uo.seed);
+        st = finish(o, doc, err);
+    }
+    pw_fit_result_free(&fit);
+    return st;
+}
+
+pw_status pw_api_reflux(const char *fit_path, const char *fit_text, const char *name,
+                        const char *components, const char *pressure, double xd, double xb,
+                        double zf, double q, int uncertainty, long samples, long seed, char **doc,
+                        pw_error *err)
+{
+    if (!doc)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
+    *doc = NULL;
+    pw_status st = need(pressure, "a pressure", err);
+    double P_Pa = 0.0;
+    if (st == PW_OK)
+        st = quantity(PW_QTY_PRESSURE, "pressure", pressure, &P_Pa, err);
+    if (st != PW_OK)
+        return st;
+    pw_fit_result fit;
+    st = read_fit(fit_path, fit_text, name, components, &fit, err);
+    if (st != PW_OK)
+        return st;
+    pw_column_spec spec = {.xd = xd, .xb = xb, .zf = zf, .q = q};
+    pw_column_options opt = pw_column_default_options();
+    pw_column_result col;
+    double T_top_K, T_bottom_K;
+    st = pw_reflux_solve(&fit.sys, P_Pa, &spec, &opt, fit_where(fit_path, name), &col, &T_top_K,
+                         &T_bottom_K, err);
+    bool unc = false;
+    pw_unc_options uo;
+    pw_unc_column_ctx uc;
+    pw_unc_column_assessment as;
+    if (st == PW_OK)
+        st = unc_options(uncertainty, samples, seed, &unc, &uo, err);
+    if (st == PW_OK && unc) {
+        uc = pw_unc_column_ctx_make(P_Pa, &spec);
+        uc.opt = opt;
+        st = pw_reflux_unc_run(&fit, &uc, &uo, fit_where(fit_path, name), &as, err);
+    }
+    if (st == PW_OK) {
+        json_t *o = pw_reflux_doc(&col, P_Pa, &spec, T_top_K, T_bottom_K);
+        if (o && unc)
+            pw_reflux_unc_doc(o, &as.res, &uo, uc.factor, as.plan_status, &as.plan);
+        st = finish(o, doc, err);
+    }
+    pw_fit_result_free(&fit);
+    return st;
+}
+
+pw_status pw_api_screen(const char *fit_path, const char *fit_text, const char *name,
+                        const char *components, const char *pressure, double xd, double xb,
+                        double zf, char **doc, pw_error *err)
+{
+    if (!doc)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
+    *doc = NULL;
+    pw_status st = need(pressure, "a pressure", err);
+    double P_Pa = 0.0;
+    if (st == PW_OK)
+        st = quantity(PW_QTY_PRESSURE, "pressure", pressure, &P_Pa, err);
+    if (st != PW_OK)
+        return st;
+    pw_fit_result fit;
+    st = read_fit(fit_path, fit_text, name, components, &fit, err);
+    if (st != PW_OK)
+        return st;
+    pw_screen_options opt = pw_screen_default_options();
+    pw_screen_result r;
+    st = pw_screen_run(&fit.sys, P_Pa, xd, xb, zf, &opt, &r);
+    if (st != PW_OK)
+        pw_error_set(err, st, fit_where(fit_path, name), 0, "screen failed: %s", pw_strerror(st));
+    else
+        st = finish(pw_screen_doc(&fit.sys, &r, &opt), doc, err);
+    pw_fit_result_free(&fit);
+    return st;
+}

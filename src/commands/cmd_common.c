@@ -1,0 +1,94 @@
+/* Pieces shared by the command documents: numbers, the printed text, the caution, component
+ * lookup for a dataset and component overrides for a fit file. Moved from src/cli/ so that the
+ * program and the Python module share them. */
+#include <math.h>
+#include <pinchwise/commands.h>
+#include <stdio.h>
+#include <string.h>
+
+json_t *pw_json_num(double v)
+{
+    return isfinite(v) ? json_real(v) : json_null();
+}
+
+char *pw_json_text(const json_t *doc)
+{
+    return doc ? json_dumps(doc, JSON_INDENT(2) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER)
+               : NULL;
+}
+
+const char *pw_caution_text(void)
+{
+    return "Screening estimate from a correlation fitted to limited laboratory data, not a design. "
+           "Verify with rigorous simulation and laboratory or pilot data; many solvents here are "
+           "flammable or toxic (see the Safety Data Sheet); pressure equipment and relief must follow "
+           "local codes and regulations; any design must be reviewed by a qualified, licensed "
+           "engineer.";
+}
+
+static pw_status find_component(const pw_complib *lib, const pw_dataset *ds, int i,
+                                pw_component out[2], const pw_component **c, pw_error *err)
+{
+    *c = pw_complib_find(lib, ds->names[i]);
+    if (*c) {
+        /* Keep the dataset's spelling (it may be an alias or differ in case): the fit file and
+         * every later output then name the components as the user did. */
+        out[i] = **c;
+        snprintf(out[i].name, sizeof out[i].name, "%s", ds->names[i]);
+        *c = &out[i];
+        return PW_OK;
+    }
+    const char *sugg[3];
+    size_t n = pw_complib_suggest(lib, ds->names[i], sugg, 3);
+    char hint[300] = "";
+    if (n > 0) {
+        size_t len = (size_t)snprintf(hint, sizeof hint, "; did you mean ");
+        for (size_t k = 0; k < n && len < sizeof hint; k++)
+            len += (size_t)snprintf(hint + len, sizeof hint - len, "%s'%s'",
+                                    k == 0 ? "" : (k + 1 == n ? " or " : ", "), sugg[k]);
+        if (len < sizeof hint)
+            snprintf(hint + len, sizeof hint - len, "?");
+    }
+    return pw_error_set(err, PW_ENOTFOUND, ds->path, 0,
+                        "component '%s' is not in the component library (add it with --components "
+                        "FILE%s)",
+                        ds->names[i], hint);
+}
+
+pw_status pw_dataset_components(const pw_complib *lib, const pw_dataset *ds, pw_component out[2],
+                                pw_error *err)
+{
+    const pw_component *c;
+    pw_status st = find_component(lib, ds, 0, out, &c, err);
+    if (st == PW_OK)
+        st = find_component(lib, ds, 1, out, &c, err);
+    return st;
+}
+
+pw_status pw_system_override_components(pw_system *sys, const char *path, bool changed[2],
+                                        pw_error *err)
+{
+    if (changed)
+        changed[0] = changed[1] = false;
+    if (!path)
+        return PW_OK;
+    pw_complib lib;
+    pw_complib_init(&lib);
+    pw_status st = pw_complib_read(&lib, path, err);
+    if (st != PW_OK)
+        return st;
+    for (int i = 0; i < 2; i++) {
+        const pw_component *c = pw_complib_find(&lib, sys->comp[i].name);
+        if (!c)
+            continue;
+        const pw_component *o = &sys->comp[i];
+        bool same = c->equation == o->equation && c->A == o->A && c->B == o->B && c->C == o->C &&
+                    c->log == o->log && !strcmp(c->P_unit, o->P_unit) &&
+                    !strcmp(c->T_unit, o->T_unit);
+        sys->comp[i] = *c;
+        if (changed)
+            changed[i] = !same;
+    }
+    pw_complib_free(&lib);
+    return PW_OK;
+}

@@ -1,0 +1,181 @@
+"""docs/schema/: the JSON Schemas of the fit file and of every command's --json output, checked
+against what the program prints on the shipped datasets (and against documents broken on
+purpose, so that a schema that accepts anything would fail here). Needs Debian's
+python3-jsonschema; skipped without it."""
+
+import copy
+import glob
+import json
+import os
+import shutil
+import subprocess
+import tempfile
+import unittest
+
+SRC = os.environ.get("PW_SOURCE_DIR") or os.path.abspath(
+    os.path.join(os.path.dirname(__file__), "..", ".."))
+CLI = os.environ.get("PINCHWISE_CLI") or os.path.join(SRC, "build", "pinchwise")
+SCHEMA_DIR = os.path.join(SRC, "docs", "schema")
+DATASETS = [d for d in sorted(glob.glob(os.path.join(SRC, "datasets", "*.csv")))
+            if os.path.basename(d) != "components.csv"]
+
+try:
+    import jsonschema
+except ImportError:  # pragma: no cover
+    jsonschema = None
+
+
+def load_schemas():
+    schemas = {}
+    for path in glob.glob(os.path.join(SCHEMA_DIR, "*.schema.json")):
+        with open(path, encoding="utf-8") as f:
+            schemas[os.path.basename(path)[:-len(".schema.json")]] = json.load(f)
+    return schemas
+
+
+def validator(schemas, name):
+    """A Draft 2020-12 validator of schema `name` that resolves $ref between the files."""
+    cls = jsonschema.Draft202012Validator
+    try:
+        import referencing
+        resources = [(s["$id"], referencing.Resource.from_contents(s)) for s in schemas.values()]
+        registry = referencing.Registry().with_resources(resources)
+        return cls(schemas[name], registry=registry)
+    except ImportError:  # jsonschema before 4.18 (Debian 12)
+        store = {s["$id"]: s for s in schemas.values()}
+        resolver = jsonschema.RefResolver.from_schema(schemas[name], store=store)
+        return cls(schemas[name], resolver=resolver)
+
+
+def run(*args, ok=True):
+    p = subprocess.run([CLI, *args], capture_output=True, text=True)
+    if ok and p.returncode != 0:
+        raise AssertionError("pinchwise %s: %s" % (" ".join(args), p.stderr))
+    return json.loads(p.stdout)
+
+
+@unittest.skipIf(jsonschema is None, "python3-jsonschema is not installed")
+class Schemas(unittest.TestCase):
+    @classmethod
+    def setUpClass(cls):
+        cls.schemas = load_schemas()
+        cls.tmp = tempfile.TemporaryDirectory()
+        cls.fits = []
+        for data in DATASETS:
+            for model in ("margules", "vanlaar", "wilson", "nrtl"):
+                out = os.path.join(cls.tmp.name, "%s.%s.json" % (os.path.basename(data), model))
+                cls.fits.append((data, out, run("fit", data, "--model", model, "--out", out,
+                                                "--json")))
+
+    @classmethod
+    def tearDownClass(cls):
+        cls.tmp.cleanup()
+
+    def valid(self, name, doc):
+        errors = sorted(validator(self.schemas, name).iter_errors(doc), key=str)
+        self.assertEqual(errors, [], "%s: %s" % (name, errors[:1]))
+
+    def invalid(self, name, doc):
+        self.assertFalse(validator(self.schemas, name).is_valid(doc), name)
+
+    def test_every_schema_is_a_schema(self):
+        for name in ["fit-file", "fit", "fit-all", "fit-batch", "check", "azeotrope", "reflux",
+                     "screen", "report"]:
+            with self.subTest(schema=name):
+                self.assertIn(name, self.schemas)
+                jsonschema.Draft202012Validator.check_schema(self.schemas[name])
+
+    def test_fit_and_fit_file(self):
+        for data, out, doc in self.fits:
+            with self.subTest(fit=os.path.basename(out)):
+                self.valid("fit", doc)
+                with open(out, encoding="utf-8") as f:
+                    self.valid("fit-file", json.load(f))
+
+    def test_fit_all_and_batch(self):
+        self.valid("fit-all", run("fit", DATASETS[0], "--model", "all", "--out-dir",
+                                  os.path.join(self.tmp.name, "all"), "--json"))
+        folder = os.path.join(self.tmp.name, "folder")
+        os.mkdir(folder)
+        for d in DATASETS:
+            shutil.copy(d, folder)
+        with open(os.path.join(folder, "zz_broken.csv"), "w") as f:
+            f.write("# components: acetone, water\n")
+        doc = run("fit", folder, "--model", "wilson", "--out-dir",
+                  os.path.join(self.tmp.name, "batch"), "--json", ok=False)
+        self.assertEqual(len(doc["failed"]), 1)
+        self.valid("fit-batch", doc)
+
+    def test_check(self):
+        for data in DATASETS:
+            with self.subTest(data=os.path.basename(data)):
+                self.valid("check", run("check", data, "--json"))
+
+    def test_azeotrope(self):
+        for _, out, doc in self.fits:
+            with self.subTest(fit=os.path.basename(out)):
+                self.valid("azeotrope", run("azeotrope", out, "--pressure", "1atm", "--json"))
+                self.valid("azeotrope", run("azeotrope", out, "--temperature", "50C", "--json"))
+        # intervals from the fit's covariance (ethanol/water has an azeotrope at 1 atm)
+        out = [o for d, o, _ in self.fits if "ethanol" in d and o.endswith(".nrtl.json")][0]
+        doc = run("azeotrope", out, "--pressure", "1atm", "--uncertainty", "--samples", "40",
+                  "--json")
+        self.assertTrue(doc["azeotropes"] and "x1_ci95" in doc["azeotropes"][0])
+        self.valid("azeotrope", doc)
+
+    def test_reflux(self):
+        seen = set()
+        for _, out, _ in self.fits:
+            for xd, xb, zf in [(0.95, 0.02, 0.1), (0.8, 0.05, 0.3), (0.99, 0.01, 0.5)]:
+                doc = run("reflux", out, "--pressure", "1atm", "--xd", str(xd), "--xb", str(xb),
+                          "--zf", str(zf), "--json")
+                seen.add(doc["feasible"])
+                with self.subTest(fit=os.path.basename(out), split=(xd, xb, zf)):
+                    self.valid("reflux", doc)
+        self.assertEqual(seen, {True, False})  # both shapes of the document were checked
+        out = self.fits[-1][1]
+        self.valid("reflux", run("reflux", out, "--pressure", "1atm", "--xd", "0.9", "--xb",
+                                 "0.1", "--zf", "0.5", "--uncertainty", "--samples", "40",
+                                 "--json"))
+
+    def test_screen_and_report(self):
+        for _, out, _ in self.fits:
+            with self.subTest(fit=os.path.basename(out)):
+                self.valid("screen", run("screen", out, "--pressure", "1atm", "--xd", "0.9",
+                                         "--xb", "0.05", "--json"))
+        out = self.fits[0][1]
+        self.valid("report", run("report", out, "--out", os.path.join(self.tmp.name, "r.html"),
+                                 "--json"))
+
+    def test_schemas_reject_broken_documents(self):
+        data, out, fit = self.fits[0]
+        broken = copy.deepcopy(fit)
+        del broken["ln_gamma_inf"]
+        self.invalid("fit", broken)
+        with open(out, encoding="utf-8") as f:
+            whole = json.load(f)
+        broken = copy.deepcopy(whole)
+        broken["format"] = "something-else"
+        self.invalid("fit-file", broken)
+        broken = copy.deepcopy(whole)
+        broken["data"]["points"][0]["x1"] = 1.5
+        self.invalid("fit-file", broken)
+        reflux = run("reflux", out, "--pressure", "1atm", "--xd", "0.95", "--xb", "0.02", "--zf",
+                     "0.1", "--json")
+        broken = copy.deepcopy(reflux)
+        broken["pinch"]["kind"] = "somewhere"
+        self.invalid("reflux", broken)
+        broken = copy.deepcopy(reflux)
+        broken["feasible"] = False  # infeasible with an r_min and no reason
+        self.invalid("reflux", broken)
+        az = {"azeotropes": [{"x1": 0.5, "T_K": 350.0, "P_kPa": 101.3, "kind": "sideways"}]}
+        self.invalid("azeotrope", az)
+        self.invalid("check", {"tests": [{"name": "x"}], "consistent": True})
+        # extra keys are allowed everywhere: others add keys to these documents
+        extended = copy.deepcopy(reflux)
+        extended["a_key_added_later"] = [1, 2, 3]
+        self.valid("reflux", extended)
+
+
+if __name__ == "__main__":
+    unittest.main()

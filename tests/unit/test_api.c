@@ -1,0 +1,136 @@
+/* The flat API of pinchwise/api.h (identities and refusals): a fit's text and the fit file it
+ * writes give the same documents; azeotrope without a condition uses the data's own; every
+ * failure leaves *doc NULL and names file, line and problem. Datasets: the invented demo and
+ * the published methanol/water set in datasets/. */
+#include "pw_test.h"
+
+#include <math.h>
+#include <pinchwise/api.h>
+#include <pinchwise/fit.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <unistd.h>
+
+static char demo[1024], tmpdir[] = "/tmp/pw-test-api-XXXXXX";
+
+static int setup(void **state)
+{
+    (void)state;
+    pw_test_path(demo, sizeof demo, "datasets/demo_acetone_water.csv");
+    return mkdtemp(tmpdir) ? 0 : -1;
+}
+
+static int teardown(void **state)
+{
+    (void)state;
+    char p[1100];
+    snprintf(p, sizeof p, "%s/demo.json", tmpdir);
+    unlink(p);
+    return rmdir(tmpdir);
+}
+
+static void test_text_and_file_agree(void **state)
+{
+    (void)state;
+    pw_error err;
+    char out[1100], *doc = NULL, *text = NULL;
+    snprintf(out, sizeof out, "%s/demo.json", tmpdir);
+    assert_int_equal(pw_api_fit(demo, "nrtl", NULL, out, 1, &doc, &text, &err), PW_OK);
+    assert_non_null(strstr(doc, "\"fit_file\": \""));
+    pw_api_free(doc);
+    /* the same split from the file written and from the text returned */
+    char *a = NULL, *b = NULL;
+    assert_int_equal(pw_api_reflux(out, NULL, NULL, NULL, "101.325kPa", 0.95, 0.02, 0.10, 1.0, 0,
+                                   -1, -1, &a, &err),
+                     PW_OK);
+    assert_int_equal(
+        pw_api_reflux(NULL, text, "demo", NULL, "1atm", 0.95, 0.02, 0.10, 1.0, 0, -1, -1, &b, &err),
+        PW_OK);
+    assert_string_equal(a, b);
+    assert_non_null(strstr(a, "\"r_min\": "));
+    pw_api_free(a);
+    pw_api_free(b);
+    /* azeotrope: the data's own condition (101.325 kPa) when none is given */
+    assert_int_equal(pw_api_azeotrope(NULL, text, "demo", NULL, NULL, NULL, 0, -1, -1, &a, &err),
+                     PW_OK);
+    assert_int_equal(pw_api_azeotrope(out, NULL, NULL, NULL, "760mmHg", NULL, 0, -1, -1, &b, &err),
+                     PW_OK);
+    assert_string_equal(a, b);
+    pw_api_free(a);
+    pw_api_free(b);
+    /* --uncertainty: the same draws from the text and from the file (seeded) */
+    assert_int_equal(
+        pw_api_reflux(out, NULL, NULL, NULL, "1atm", 0.95, 0.02, 0.10, 1.0, 1, 30, 7, &a, &err),
+        PW_OK);
+    assert_int_equal(
+        pw_api_reflux(NULL, text, "demo", NULL, "1atm", 0.95, 0.02, 0.10, 1.0, 0, 30, 7, &b, &err),
+        PW_OK);
+    assert_string_equal(a, b);
+    assert_non_null(strstr(a, "\"r_min_ci95\": ["));
+    assert_non_null(strstr(a, "\"seed\": 7"));
+    pw_api_free(a);
+    pw_api_free(b);
+    /* without an output file nothing is written and fit_file is null */
+    assert_int_equal(pw_api_fit(demo, "wilson", NULL, NULL, 0, &doc, NULL, &err), PW_OK);
+    assert_non_null(strstr(doc, "\"fit_file\": null"));
+    pw_api_free(doc);
+    pw_api_free(text);
+}
+
+static void test_refusals(void **state)
+{
+    (void)state;
+    pw_error err;
+    char *doc = (char *)"untouched", *text = (char *)"untouched";
+    char bad[1024];
+    pw_test_path(bad, sizeof bad, "tests/bad-inputs/files/nan_T.csv");
+    assert_int_equal(pw_api_fit(bad, "nrtl", NULL, NULL, 0, &doc, &text, &err), PW_EPARSE);
+    assert_null(doc);
+    assert_null(text);
+    assert_string_equal(err.file, bad);
+    assert_int_equal(err.line, 8);
+    assert_non_null(strstr(err.msg, "NaN"));
+
+    doc = (char *)"untouched";
+    assert_int_equal(pw_api_fit(demo, "no-such-model", NULL, NULL, 0, &doc, NULL, &err), PW_EINVAL);
+    assert_null(doc);
+    assert_non_null(strstr(err.msg, "unknown model"));
+
+    assert_int_equal(pw_api_fit(demo, "nrtl", NULL, NULL, 0, NULL, NULL, &err), PW_EINVAL);
+    assert_int_equal(pw_api_check(NULL, NULL, 0, &doc, &err), PW_EINVAL);
+
+    char fit[1100];
+    snprintf(fit, sizeof fit, "%s/demo.json", tmpdir);
+    assert_int_equal(pw_api_reflux(fit, NULL, NULL, NULL, "101.325", 0.95, 0.02, 0.1, 1.0, 0, -1,
+                                   -1, &doc, &err),
+                     PW_EINVAL);
+    assert_non_null(strstr(err.msg, "pressure 101.325"));
+    assert_int_equal(
+        pw_api_reflux(NULL, NULL, NULL, NULL, "1atm", 0.95, 0.02, 0.1, 1.0, 0, -1, -1, &doc, &err),
+        PW_EINVAL);
+    assert_int_equal(pw_api_reflux(NULL, "{\"format\": 1", "broken", NULL, "1atm", 0.95, 0.02, 0.1,
+                                   1.0, 0, -1, -1, &doc, &err),
+                     PW_EPARSE);
+    assert_string_equal(err.file, "broken");
+    assert_int_equal(pw_api_azeotrope(NULL, "{}", "x", NULL, "1atm", "50C", 0, -1, -1, &doc, &err),
+                     PW_EINVAL);
+    assert_null(doc);
+    assert_int_equal(pw_api_reflux(fit, NULL, NULL, NULL, "1atm", 0.95, 0.02, 0.1, 1.0, 1, 100001,
+                                   -1, &doc, &err),
+                     PW_EINVAL);
+    assert_non_null(strstr(err.msg, "samples 100001"));
+    assert_true(pw_api_error_size() == sizeof(pw_error));
+    pw_api_free(NULL);
+}
+
+int main(void)
+{
+    pw_test_init();
+    pw_api_init();
+    const struct CMUnitTest tests[] = {
+        cmocka_unit_test(test_text_and_file_agree),
+        cmocka_unit_test(test_refusals),
+    };
+    return cmocka_run_group_tests(tests, setup, teardown);
+}
