@@ -204,6 +204,12 @@ pw_status pw_fitfile_read(const char *path, pw_fit_result *r, pw_error *err);
 pw_status pw_fitfile_parse(const char *buf, size_t len, const char *name, pw_fit_result *r,
                            pw_error *err);
 
+/* Adds the fit file of r as the target path to an output set (pinchwise/fileio.h): nothing is
+ * in place before pw_outset_commit. The same checks as pw_outset_add; PW_ENOMEM. */
+struct pw_outset;
+pw_status pw_fitfile_stage(struct pw_outset *set, const char *path, const pw_fit_result *r,
+                           pw_error *err);
+
 #ifdef __cplusplus
 }
 #endif

@@ -85,6 +85,14 @@ pw_status pw_report_save_csv(const pw_report *rep, const char *dir, bool force, 
 pw_status pw_report_check_targets(const pw_report *rep, const char *html_path, const char *svg_dir,
                                   const char *csv_dir, pw_error *err);
 
+/* Adds the page (html_path), the plots (svg_dir/<name>.svg) and the curves (csv_dir/<name>.csv)
+ * to an output set (pinchwise/fileio.h); each of the three may be NULL. Nothing is in place
+ * before pw_outset_commit, which writes all of them or none; a folder the set created is removed
+ * again when not committed. The save functions above are one-set wrappers of this. */
+struct pw_outset;
+pw_status pw_report_stage(const pw_report *rep, struct pw_outset *set, const char *html_path,
+                          const char *svg_dir, const char *csv_dir, pw_error *err);
+
 /* Frees rep; accepts NULL. */
 void pw_report_free(pw_report *rep);
 

@@ -1,75 +1,79 @@
-/* Atomic output files: a temporary file in the target's folder, fsync, then link (refusing to
- * replace an existing file) or rename (replacing it). A reader never sees a half-written file and
- * a failure leaves nothing behind. */
+/* Atomic output files (one-file output sets, see outset.c) and whole-file input that refuses
+ * anything but a regular file. */
 #include <pinchwise/fileio.h>
 
+#include "base/fileio_internal.h"
+
 #include <errno.h>
+#include <fcntl.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 #include <sys/stat.h>
 #include <unistd.h>
 
-/* Writes text to a temporary file next to path, then moves it into place. */
 pw_status pw_atomic_write(const char *path, const char *text, size_t len, bool force, pw_error *err)
 {
-    if (!force && access(path, F_OK) == 0)
-        return pw_error_set(err, PW_EEXIST, path, 0,
-                            "file exists (pass --force to replace it, or choose another --out)");
-    char tmp[PW_PATH_MAX + 16];
-    int n = snprintf(tmp, sizeof tmp, "%s.tmpXXXXXX", path);
-    if (n < 0 || (size_t)n >= sizeof tmp)
-        return pw_error_set(err, PW_EINVAL, path, 0, "path too long");
-    int fd = mkstemp(tmp);
-    if (fd < 0)
-        return pw_error_set(err, PW_EIO, path, 0, "cannot create a file beside it: %s",
-                            strerror(errno));
-    size_t done = 0;
-    while (done < len) {
-        ssize_t w = write(fd, text + done, len - done);
-        if (w < 0 && errno == EINTR)
-            continue;
-        if (w <= 0) {
-            int e = errno;
-            close(fd);
-            unlink(tmp);
-            return pw_error_set(err, PW_EIO, path, 0, "write failed: %s", strerror(e));
-        }
-        done += (size_t)w;
-    }
-    if (fsync(fd) != 0 || close(fd) != 0) {
-        unlink(tmp);
-        return pw_error_set(err, PW_EIO, path, 0, "write failed: %s", strerror(errno));
-    }
-    chmod(tmp, 0644);
-    int rc;
-    if (force) {
-        rc = rename(tmp, path);
-    } else {
-        rc = link(tmp, path); /* fails if path appeared meanwhile: never clobber */
-        unlink(tmp);
-        if (rc != 0 && errno == EEXIST) {
-            return pw_error_set(err, PW_EEXIST, path, 0,
-                                "file exists (pass --force to replace it, or choose another --out)");
-        }
-    }
-    if (rc != 0) {
-        int e = errno;
-        unlink(tmp);
-        return pw_error_set(err, PW_EIO, path, 0, "cannot move the new file into place: %s",
-                            strerror(e));
-    }
-    return PW_OK;
+    pw_outset *s = NULL;
+    pw_status st = pw_outset_new(force, NULL, &s, err);
+    if (st == PW_OK)
+        st = pw_outset_add(s, path, text, len, err);
+    if (st == PW_OK)
+        st = pw_outset_commit(s, err);
+    pw_outset_free(s);
+    return st;
 }
 
+pw_status pw_file_open_regular(const char *path, size_t max_bytes, int *fd_out, pw_error *err)
+{
+    *fd_out = -1;
+    /* O_NONBLOCK: opening a FIFO for reading would otherwise wait for a writer */
+    int fd = open(path, O_RDONLY | O_NONBLOCK | O_CLOEXEC);
+    if (fd < 0)
+        return pw_error_set(err, PW_EIO, path, 0, "cannot open: %s", strerror(errno));
+    struct stat st;
+    if (fstat(fd, &st) != 0) {
+        int e = errno;
+        close(fd);
+        return pw_error_set(err, PW_EIO, path, 0, "cannot open: %s", strerror(e));
+    }
+    if (!S_ISREG(st.st_mode)) {
+        close(fd);
+        return pw_error_set(err, PW_EIO, path, 0, "is not a regular file (%s; expected a file)",
+                            S_ISDIR(st.st_mode)    ? "a folder"
+                            : S_ISFIFO(st.st_mode) ? "a pipe"
+                            : S_ISCHR(st.st_mode)  ? "a character device"
+                            : S_ISBLK(st.st_mode)  ? "a block device"
+                            : S_ISSOCK(st.st_mode) ? "a socket"
+                                                   : "not a file");
+    }
+    if (max_bytes && (unsigned long long)st.st_size > (unsigned long long)max_bytes) {
+        close(fd);
+        return pw_error_set(err, PW_EPARSE, path, 0,
+                            "the file is larger than %zu bytes, the reader's limit", max_bytes);
+    }
+    int fl = fcntl(fd, F_GETFL);
+    if (fl != -1)
+        fcntl(fd, F_SETFL, fl & ~O_NONBLOCK);
+    *fd_out = fd;
+    return PW_OK;
+}
 
 pw_status pw_read_file(const char *path, size_t max_bytes, char **buf, size_t *len, pw_error *err)
 {
     *buf = NULL;
     *len = 0;
-    FILE *f = fopen(path, "rb");
-    if (!f)
-        return pw_error_set(err, PW_EIO, path, 0, "cannot open: %s", strerror(errno));
+    int fd;
+    pw_status ost = pw_file_open_regular(path, max_bytes, &fd, err);
+    if (ost != PW_OK)
+        return ost == PW_EPARSE
+                   ? pw_error_set(err, PW_EINVAL, path, 0, "file is larger than %zu bytes", max_bytes)
+                   : ost;
+    FILE *f = fdopen(fd, "rb");
+    if (!f) {
+        close(fd);
+        return pw_error_set(err, PW_ENOMEM, path, 0, "out of memory");
+    }
     size_t cap = 65536, n = 0;
     char *b = malloc(cap + 1);
     while (b) {

@@ -7,6 +7,7 @@
 #include <pinchwise/commands.h>
 #include <pinchwise/component.h>
 #include <pinchwise/equilibrium.h>
+#include <pinchwise/fileio.h>
 #include <pinchwise/fit.h>
 #include <pinchwise/status.h>
 #include <pinchwise/units.h>
@@ -84,7 +85,9 @@ typedef struct pw_cli_targets {
 int pw_cli_target_opt(const char *opt, const char *value, pw_cli_targets *t, pw_error *err);
 
 /* Writes obj to stdout as one JSON object followed by a newline (17 significant digits);
- * steals the reference. Returns 0, or the I/O exit code. */
+ * steals the reference. Returns 0, or the I/O exit code; prints nothing and returns the
+ * out-of-memory exit code when obj is NULL or any jansson allocation has failed (see
+ * pw_cli_watch_json_allocations), since such an object may lack keys. */
 int pw_cli_print_json(json_t *obj);
 
 /* A JSON number, or null when v is not finite. New reference. */
@@ -112,5 +115,30 @@ typedef struct pw_cli_progress_ctx {
 /* A pw_progress_fn for library calls (ctx is a pw_cli_progress_ctx): pw_cli_progress at the
  * first unit, at every tenth of total and at the end. Always PW_OK. */
 pw_status pw_cli_progress_tenths(void *ctx, size_t done, size_t total);
+
+/* Temporary output files (cli_tmpfiles.c): hooks for pw_outset_new that register every
+ * temporary file, and handlers for SIGINT, SIGTERM and SIGHUP (installed once by main) that
+ * remove the registered files before the program ends with that signal. */
+const pw_tmp_hooks *pw_cli_tmp_hooks(void);
+void pw_cli_install_signal_cleanup(void);
+
+/* Routes jansson's allocations through a wrapper that remembers a failure (main calls it once,
+ * before any JSON is built); pw_cli_print_json then refuses to print. */
+void pw_cli_watch_json_allocations(void);
+
+/* A whole number for option opt in [lo, hi] (hi at most 2^53): digits only, optionally in
+ * exponent form ("1e3"); a fraction, a sign where lo >= 0, NaN or a value out of range is refused
+ * with a message naming the option and the range. Returns 0 or PW_EXIT_USAGE with err. */
+int pw_cli_whole(const char *opt, const char *text, double lo, double hi, unsigned long long *out,
+                 pw_error *err);
+
+/* A number for option opt in [lo, hi]; the message names the option, the range and what it is
+ * (e.g. "a multiple of R_min"). Returns 0 or PW_EXIT_USAGE with err. */
+int pw_cli_ranged(const char *opt, const char *text, double lo, double hi, const char *what,
+                  double *out, pw_error *err);
+
+/* Checks that stdout took everything written to it; prints "pinchwise CMD: cannot write to
+ * standard output: REASON" and returns the I/O exit code when not, else 0. */
+int pw_cli_finish_stdout(const char *cmd);
 
 #endif

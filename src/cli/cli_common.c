@@ -1,8 +1,11 @@
 #include "cli.h"
 
+#include <pinchwise/dataset.h>
+
 #include <errno.h>
 #include <math.h>
 #include <stdarg.h>
+#include <stdatomic.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -52,6 +55,14 @@ pw_status pw_cli_quantity(pw_quantity q, const char *opt, const char *text, doub
         snprintf(inner, sizeof inner, "%s", err->msg);
         pw_error_set(err, st, NULL, 0, "%s %s: %s", opt, text, inner);
     }
+    /* the plausible ranges of the data files (docs/inputs.md) */
+    bool isT = q == PW_QTY_TEMPERATURE;
+    double lo = isT ? PW_DATASET_T_MIN_K : PW_DATASET_P_MIN_PA;
+    double hi = isT ? PW_DATASET_T_MAX_K : PW_DATASET_P_MAX_PA;
+    if (st == PW_OK && !(*si >= lo && *si <= hi))
+        st = pw_error_set(err, PW_EINVAL, NULL, 0,
+                          "%s %s: outside the plausible range %g to %g %s", opt, text, lo, hi,
+                          isT ? "K" : "Pa");
     return st;
 }
 
@@ -60,21 +71,46 @@ pw_status pw_cli_number(const char *opt, const char *text, double *value, pw_err
     char *end = NULL;
     errno = 0;
     double v = strtod(text, &end);
-    if (end == text || *end != '\0' || errno == ERANGE || !isfinite(v))
+    /* plain decimals only, as in the data files: no hexadecimal ("0x10"), no blanks */
+    bool decimal = text[strspn(text, "0123456789+-.eE")] == '\0';
+    if (!decimal || end == text || *end != '\0' || errno == ERANGE || !isfinite(v))
         return pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: not a finite number", opt, text);
     *value = v;
     return PW_OK;
 }
 
+/* Set when an allocation of jansson failed: a JSON object built then may lack keys silently
+ * (json_object_set_new ignores a NULL value), so it must not be printed as a result. */
+static atomic_bool json_alloc_failed;
+
+static void *json_alloc(size_t n)
+{
+    void *p = malloc(n);
+    if (!p)
+        atomic_store(&json_alloc_failed, true);
+    return p;
+}
+
+void pw_cli_watch_json_allocations(void)
+{
+    json_set_alloc_funcs(json_alloc, free);
+}
+
 int pw_cli_print_json(json_t *obj)
 {
-    char *text = pw_json_text(obj); /* the library's text: the same as the Python module's */
+    /* the whole text first (the library's text, the same as the Python module's): a failure
+     * half-way through must not leave half an object on stdout */
+    char *text = obj ? pw_json_text(obj) : NULL;
     json_decref(obj);
-    int rc = text && fputs(text, stdout) != EOF ? 0 : -1;
+    if (!text || atomic_load(&json_alloc_failed)) {
+        free(text);
+        fprintf(stderr, "pinchwise: out of memory while building the JSON output (nothing "
+                        "printed)\n");
+        return pw_status_exit_code(PW_ENOMEM);
+    }
+    int bad = fputs(text, stdout) == EOF || fputc('\n', stdout) == EOF || fflush(stdout) != 0;
     free(text);
-    if (rc != 0 || fputc('\n', stdout) == EOF || fflush(stdout) != 0)
-        return pw_status_exit_code(PW_EIO);
-    return 0;
+    return bad ? pw_status_exit_code(PW_EIO) : 0;
 }
 
 json_t *pw_cli_json_num(double v)
@@ -194,8 +230,9 @@ int pw_cli_target_opt(const char *opt, const char *value, pw_cli_targets *t, pw_
         t->have_zf = true;
         return pw_cli_fraction(opt, value, &t->zf, err);
     }
-    if (!strcmp(opt, "--q"))
-        return pw_cli_number(opt, value, &t->q, err) == PW_OK ? 0 : PW_EXIT_USAGE;
+    if (!strcmp(opt, "--q")) /* liquid fraction of the feed: -10 (very hot vapor) to 10 (very
+                              * cold liquid) covers every real feed (docs/inputs.md) */
+        return pw_cli_ranged(opt, value, -10.0, 10.0, "the feed's liquid fraction q", &t->q, err);
     return -1;
 }
 
@@ -209,4 +246,45 @@ pw_status pw_cli_read_fit(const char *cmd, const char *path, const char *compone
     if (st != PW_OK)
         pw_fit_result_free(fit);
     return st;
+}
+
+int pw_cli_whole(const char *opt, const char *text, double lo, double hi, unsigned long long *out,
+                 pw_error *err)
+{
+    double v;
+    bool digits = text[0] >= '0' && text[0] <= '9';
+    if (!digits || pw_cli_number(opt, text, &v, NULL) != PW_OK || v != floor(v) || v < lo ||
+        v > hi) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected a whole number from %.0f to %.0f",
+                     opt, text, lo, hi);
+        return PW_EXIT_USAGE;
+    }
+    *out = (unsigned long long)v;
+    return 0;
+}
+
+int pw_cli_ranged(const char *opt, const char *text, double lo, double hi, const char *what,
+                  double *out, pw_error *err)
+{
+    double v;
+    if (pw_cli_number(opt, text, &v, NULL) != PW_OK || !(v >= lo && v <= hi)) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected %s from %g to %g", opt, text, what,
+                     lo, hi);
+        return PW_EXIT_USAGE;
+    }
+    *out = v;
+    return 0;
+}
+
+int pw_cli_finish_stdout(const char *cmd)
+{
+    errno = 0;
+    int bad = fflush(stdout) != 0;
+    int e = errno;
+    bad = bad || ferror(stdout);
+    if (!bad)
+        return 0;
+    fprintf(stderr, "pinchwise %s: cannot write to standard output: %s\n", cmd,
+            e ? strerror(e) : "write error");
+    return pw_status_exit_code(PW_EIO);
 }

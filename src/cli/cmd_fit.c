@@ -3,13 +3,17 @@
 #include "fit_batch.h"
 #include "fit_common.h"
 
+#include <errno.h>
 #include <math.h>
 #include <pinchwise/fitjson.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 #include <strings.h>
 #include <sys/stat.h>
+
+#define FIT_MAX_STARTS 10000.0
 
 static void usage(FILE *f)
 {
@@ -27,8 +31,8 @@ static void usage(FILE *f)
             "  --fit-alpha           NRTL: fit alpha as well\n"
             "  --vapor MODEL         ideal (default) or virial (Tsonopoulos second virial\n"
             "                        coefficients; needs Tc_K, Pc_kPa, omega, Zc, Vc_cm3_mol)\n"
-            "  --starts N            LM runs, each from its own start (default 8)\n"
-            "  --seed N              seed of the start points (default 1)\n"
+            "  --starts N            LM runs, each from its own start, 1 to 10000 (default 8)\n"
+            "  --seed N              seed of the start points, 0 to 4294967295 (default 1)\n"
             "  --sigma-T DT          temperature uncertainty, e.g. 0.05K (default: file or 0.1 K)\n"
             "  --sigma-P PCT         pressure uncertainty in percent, e.g. 0.2 (default: file or 0.1)\n"
             "  --sigma-y DY          vapor mole fraction uncertainty (default: file or 0.004)\n"
@@ -40,29 +44,37 @@ static void usage(FILE *f)
             pw_model_names(names, sizeof names));
 }
 
+/* --exclude 12,15-17: file line numbers (a file of at most 64 MiB has fewer than 1e9 lines). */
+#define EXCLUDE_MAX_LINE 1000000000L
+
 static int parse_lines(const char *text, pw_fit_options *o, pw_error *err)
 {
     const char *p = text;
     while (*p) {
-        char *end;
-        long a = strtol(p, &end, 10), b = a;
-        if (end == p || a <= 0)
+        char *end = (char *)(uintptr_t)p; /* "nothing read" unless strtol runs */
+        errno = 0;
+        long a = (*p >= '0' && *p <= '9') ? strtol(p, &end, 10) : 0, b = a;
+        if (end == p || a <= 0 || a > EXCLUDE_MAX_LINE || errno == ERANGE)
             return pw_error_set(err, PW_EINVAL, NULL, 0,
-                                "--exclude %s: expected line numbers such as 12,15-17", text);
+                                "--exclude %s: expected line numbers from 1 to %ld such as 12,15-17",
+                                text, EXCLUDE_MAX_LINE);
         p = end;
         if (*p == '-') {
-            b = strtol(p + 1, &end, 10);
-            if (end == p + 1 || b < a)
+            errno = 0;
+            end = (char *)(uintptr_t)(p + 1);
+            b = (p[1] >= '0' && p[1] <= '9') ? strtol(p + 1, &end, 10) : 0;
+            if (end == p + 1 || b < a || b > EXCLUDE_MAX_LINE || errno == ERANGE)
                 return pw_error_set(err, PW_EINVAL, NULL, 0,
-                                    "--exclude %s: a range must read FIRST-LAST", text);
+                                    "--exclude %s: a range must read FIRST-LAST (line numbers from 1 "
+                                    "to %ld)",
+                                    text, EXCLUDE_MAX_LINE);
             p = end;
         }
-        for (long l = a; l <= b; l++) {
-            if (o->n_exclude == PW_FIT_MAX_EXCLUDE)
-                return pw_error_set(err, PW_EINVAL, NULL, 0, "--exclude: at most %d lines",
-                                    PW_FIT_MAX_EXCLUDE);
+        if ((size_t)(b - a) >= (size_t)PW_FIT_MAX_EXCLUDE - o->n_exclude)
+            return pw_error_set(err, PW_EINVAL, NULL, 0, "--exclude: at most %d lines",
+                                PW_FIT_MAX_EXCLUDE);
+        for (long l = a; l <= b; l++)
             o->exclude_lines[o->n_exclude++] = l;
-        }
         if (*p == ',')
             p++;
         else if (*p)
@@ -78,7 +90,8 @@ static pw_status temperature_difference(const char *opt, const char *text, doubl
     char *end;
     double v = strtod(text, &end);
     double scale = 0.0;
-    if (end != text && isfinite(v) && v > 0.0) {
+    bool decimal = strspn(text, "0123456789+-.eE") == (size_t)(end - text); /* no hex */
+    if (end != text && decimal && isfinite(v) && v >= 1e-4 && v <= 50.0) {
         if (!strcmp(end, "K") || !strcmp(end, "C"))
             scale = 1.0;
         else if (!strcmp(end, "F"))
@@ -86,8 +99,8 @@ static pw_status temperature_difference(const char *opt, const char *text, doubl
     }
     if (scale == 0.0)
         return pw_error_set(err, PW_EINVAL, NULL, 0,
-                            "%s %s: expected a positive temperature difference with its unit "
-                            "(K, C, F), e.g. 0.05K",
+                            "%s %s: expected a temperature difference from 0.0001 to 50 with its "
+                            "unit (K, C, F), e.g. 0.05K",
                             opt, text);
     *K = v * scale;
     return PW_OK;
@@ -199,21 +212,28 @@ int pw_cli_fit(int argc, char **argv)
             else if (!strcmp(opt, "--sigma-T")) {
                 st = temperature_difference(opt, v, &co.fit.sigma_T_K, &err);
             } else {
-                st = pw_cli_number(opt, v, &d, &err);
-                if (st == PW_OK && !(d > 0.0))
-                    st = pw_error_set(&err, PW_EINVAL, NULL, 0, "%s %s: must be positive", opt, v);
-                if (st == PW_OK) {
-                    if (!strcmp(opt, "--alpha"))
-                        co.fit.alpha = d;
-                    else if (!strcmp(opt, "--starts"))
-                        co.fit.n_starts = (size_t)d;
-                    else if (!strcmp(opt, "--seed"))
-                        co.fit.seed = (unsigned long)d;
-                    else if (!strcmp(opt, "--sigma-P"))
-                        co.fit.sigma_P_rel = d / 100.0;
-                    else if (!strcmp(opt, "--sigma-y"))
-                        co.fit.sigma_y = d;
+                /* ranges: docs/inputs.md ("Command-line numbers") */
+                unsigned long long w = 0;
+                int urc = 0;
+                if (!strcmp(opt, "--starts")) {
+                    urc = pw_cli_whole(opt, v, 1.0, FIT_MAX_STARTS, &w, &err);
+                    co.fit.n_starts = (size_t)w;
+                } else if (!strcmp(opt, "--seed")) {
+                    urc = pw_cli_whole(opt, v, 0.0, 4294967295.0, &w, &err);
+                    co.fit.seed = (unsigned long)w;
+                } else if (!strcmp(opt, "--alpha")) {
+                    urc = pw_cli_ranged(opt, v, 0.001, 1.0, "an NRTL non-randomness", &d, &err);
+                    co.fit.alpha = d;
+                } else if (!strcmp(opt, "--sigma-P")) {
+                    urc = pw_cli_ranged(opt, v, 1e-4, 50.0, "a pressure uncertainty in percent",
+                                        &d, &err);
+                    co.fit.sigma_P_rel = d / 100.0;
+                } else if (!strcmp(opt, "--sigma-y")) {
+                    urc = pw_cli_ranged(opt, v, 1e-6, 0.5, "a mole-fraction uncertainty", &d, &err);
+                    co.fit.sigma_y = d;
                 }
+                if (urc)
+                    st = err.status;
             }
             if (st != PW_OK)
                 return pw_cli_fail("fit", &err);
@@ -242,6 +262,11 @@ int pw_cli_fit(int argc, char **argv)
     if (pw_cli_load_components(&lib, components, &err) != PW_OK)
         return pw_cli_fail("fit", &err);
     co.lib = &lib;
+    /* every file read is an input that no output may replace */
+    co.inputs[co.n_inputs++] = components;
+    char lib_path[PW_PATH_MAX];
+    if (pw_complib_default_path(lib_path, sizeof lib_path))
+        co.inputs[co.n_inputs++] = lib_path;
     co.json = json;
     pw_lle_dataset lle;
     memset(&lle, 0, sizeof lle);
@@ -251,6 +276,7 @@ int pw_cli_fit(int argc, char **argv)
             return pw_cli_fail("fit", &err);
         }
         co.lle = &lle;
+        co.inputs[co.n_inputs++] = lle_path;
     }
     int rc;
     if (S_ISDIR(sb.st_mode)) {

@@ -5,6 +5,7 @@
 
 #include <math.h>
 #include <pinchwise/enthalpy.h>
+#include <pinchwise/fileio.h>
 #include <pinchwise/report.h>
 #include <stdio.h>
 #include <string.h>
@@ -54,7 +55,8 @@ typedef struct report_args {
 /* Other fit files of the same data: those named by --compare, else the siblings that `fit
  * --model all` writes (<dir>/<stem>.<model>.json beside the fit file). Only files whose dataset
  * SHA-256 equals the report's are kept (a stale sibling would mislead). Returns how many. */
-static size_t load_others(const report_args *a, const pw_fit_result *fit, pw_fit_result *out)
+static size_t load_others(const report_args *a, const pw_fit_result *fit, pw_fit_result *out,
+                          pw_outset *set)
 {
     char paths[REPORT_MAX_OTHERS][PW_PATH_MAX];
     size_t np = 0;
@@ -80,6 +82,7 @@ static size_t load_others(const report_args *a, const pw_fit_result *fit, pw_fit
         if (!explicit_list && access(paths[i], R_OK) != 0)
             continue;
         pw_error err;
+        pw_outset_protect(set, paths[i], NULL); /* an input: no output may replace it */
         if (pw_fitfile_read(paths[i], &out[n], &err) != PW_OK) {
             char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
             pw_cli_warnf("report", "%s", pw_error_format(&err, buf, sizeof buf));
@@ -153,9 +156,10 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
                 rc = trc; /* --pressure, --xd, --xb, --zf, --q: parsed into tg */
             } else if (!strcmp(opt, "--operating-factor")) {
                 rc = pw_cli_number(opt, v, &a->factor, err) == PW_OK ? 0 : PW_EXIT_USAGE;
-                if (!rc && !(a->factor > 1.0)) {
+                if (!rc && !(a->factor > 1.0 && a->factor <= 100.0)) {
                     pw_error_set(err, PW_EINVAL, NULL, 0,
-                                 "--operating-factor %s: R / R_min must be greater than 1", v);
+                                 "--operating-factor %s: R / R_min must be greater than 1 and at "
+                                 "most 100", v);
                     rc = PW_EXIT_USAGE;
                 }
             }
@@ -199,13 +203,6 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
     return 0;
 }
 
-/* The output must never be the input. */
-static bool same_file(const char *a, const char *b)
-{
-    struct stat sa, sb;
-    return stat(a, &sa) == 0 && stat(b, &sb) == 0 && sa.st_dev == sb.st_dev && sa.st_ino == sb.st_ino;
-}
-
 static void progress(const char *what)
 {
     if (isatty(STDERR_FILENO))
@@ -224,19 +221,29 @@ int pw_cli_report(int argc, char **argv)
     }
     if (rc)
         return pw_cli_fail("report", &err);
-    if (same_file(a.out, a.fit))
-        return pw_cli_failf("report", PW_EXIT_USAGE, "%s: --out names the fit file itself; refusing "
-                                                     "to overwrite the input", a.out);
-    if (!a.force && access(a.out, F_OK) == 0)
-        return pw_cli_failf("report", pw_status_exit_code(PW_EEXIST),
-                            "%s: file exists (pass --force to replace it, or choose another --out)",
-                            a.out);
+    /* Every output (page, --svg and --csv files) is written all or none, never over an input
+     * (by identity: links count), whatever --force says. The page is checked before the work. */
+    pw_outset *set = NULL;
+    pw_status st = pw_outset_new(a.force, pw_cli_tmp_hooks(), &set, &err);
+    const char *inputs[] = {a.fit, a.components};
+    for (size_t k = 0; st == PW_OK && k < 2; k++)
+        st = pw_outset_protect(set, inputs[k], &err);
+    for (size_t k = 0; st == PW_OK && k < a.n_compare; k++)
+        st = pw_outset_protect(set, a.compare[k], &err);
+    if (st == PW_OK)
+        st = pw_outset_check(set, a.out, &err);
+    if (st != PW_OK) {
+        pw_outset_free(set);
+        return pw_cli_fail("report", &err);
+    }
 
     pw_fit_result fit;
     progress("reading the fit file");
-    pw_status st = pw_cli_read_fit("report", a.fit, a.components, &fit, &err);
-    if (st != PW_OK)
+    st = pw_cli_read_fit("report", a.fit, a.components, &fit, &err);
+    if (st != PW_OK) {
+        pw_outset_free(set);
         return pw_cli_fail("report", &err);
+    }
     if (!fit.converged)
         pw_cli_warnf("report", "%s: the fit did not converge; the report says so on every page", a.fit);
 
@@ -267,7 +274,7 @@ int pw_cli_report(int argc, char **argv)
     }
     pw_fit_result others[REPORT_MAX_OTHERS];
     const pw_fit_result *other_ptr[REPORT_MAX_OTHERS];
-    size_t n_others = load_others(&a, &fit, others);
+    size_t n_others = load_others(&a, &fit, others, set);
     for (size_t i = 0; i < n_others; i++)
         other_ptr[i] = &others[i];
     in.others = other_ptr;
@@ -278,16 +285,15 @@ int pw_cli_report(int argc, char **argv)
     pw_fit_result_free(&fit);
     for (size_t i = 0; i < n_others; i++)
         pw_fit_result_free(&others[i]);
-    if (st != PW_OK)
+    if (st != PW_OK) {
+        pw_outset_free(set);
         return pw_cli_fail("report", &err);
+    }
     progress("writing");
-    st = a.force ? PW_OK : pw_report_check_targets(rep, a.out, a.svg, a.csv, &err);
+    st = pw_report_stage(rep, set, a.out, a.svg, a.csv, &err);
     if (st == PW_OK)
-        st = pw_report_save_html(rep, a.out, a.force, &err);
-    if (st == PW_OK && a.svg)
-        st = pw_report_save_svg(rep, a.svg, a.force, NULL, &err);
-    if (st == PW_OK && a.csv)
-        st = pw_report_save_csv(rep, a.csv, a.force, NULL, &err);
+        st = pw_outset_commit(set, &err);
+    pw_outset_free(set);
     size_t plots = pw_report_plot_count(rep);
     pw_report_free(rep);
     if (st != PW_OK)

@@ -96,6 +96,11 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
             if (!strcmp(opt, "--components")) {
                 a->components = v;
             } else {
+                /* checked here, before any work (the uncertainty step reads them again) */
+                unsigned long long w;
+                if (pw_cli_whole(opt, v, 0.0, !strcmp(opt, "--seed") ? 4294967295.0 : 100000.0,
+                                 &w, err))
+                    return PW_EXIT_USAGE;
                 if (a->n_extra + 2 > 4) {
                     pw_error_set(err, PW_EINVAL, NULL, 0, "%s given twice", opt);
                     return PW_EXIT_USAGE;

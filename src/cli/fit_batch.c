@@ -120,7 +120,8 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
         free(jobs);
         return pw_cli_failf("fit", pw_status_exit_code(PW_ENOTFOUND), "%s: no *.csv files", dir);
     }
-    if (mkdir(out_dir, 0755) != 0 && errno != EEXIST) {
+    bool made_out_dir = mkdir(out_dir, 0777) == 0;
+    if (!made_out_dir && errno != EEXIST) {
         free(jobs);
         return pw_cli_failf("fit", pw_status_exit_code(PW_EIO), "%s: cannot create folder: %s",
                             out_dir, strerror(errno));
@@ -200,8 +201,15 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
                 char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
                 fprintf(stderr, "pinchwise fit: %s\n", pw_error_format(&jobs[i].err, buf, sizeof buf));
             }
+    /* CONTRACT: exit status 0 only when every file was fitted (the others are still written) */
+    int first_failure = 0;
+    for (size_t i = 0; i < n && !first_failure; i++)
+        first_failure = jobs[i].rc;
+    if (first_failure && co->json)
+        fprintf(stderr, "pinchwise fit: %zu of %zu datasets failed (listed under \"failed\")\n",
+                n - ok, n);
+    if (made_out_dir && ok == 0)
+        rmdir(out_dir); /* nothing was written: leave no empty folder either */
     free(jobs);
-    if (ok == 0)
-        return rc ? rc : pw_status_exit_code(PW_EPARSE);
-    return rc;
+    return rc ? rc : first_failure;
 }

@@ -7,6 +7,7 @@
 #include <pinchwise/assess.h>
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/dataset.h>
+#include <pinchwise/fileio.h>
 #include <pinchwise/fitjson.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -175,14 +176,6 @@ static void warn_fit(const pw_fit_result *r, const char *input)
                              r->corr[a][b]);
 }
 
-static int ensure_dir(const char *dir, pw_error *err)
-{
-    if (mkdir(dir, 0755) == 0 || errno == EEXIST)
-        return 0;
-    pw_error_set(err, PW_EIO, dir, 0, "cannot create folder: %s", strerror(errno));
-    return pw_status_exit_code(PW_EIO);
-}
-
 int pw_fit_one(const char *input, const pw_model_type *model, const char *out, const char *out_dir,
                const pw_fit_cli_opts *co, pw_fit_result *r, char *path, size_t path_len,
                pw_error *err)
@@ -207,15 +200,19 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
         if (n < 0 || (size_t)n >= path_len)
             st = pw_error_set(err, PW_EINVAL, input, 0, "output path too long");
     }
-    if (st == PW_OK && !out && ensure_dir(out_dir ? out_dir : "fits", err) != 0)
-        st = err->status;
-    /* Refuse early, before the work, when the fit file exists. */
-    if (st == PW_OK && !co->force) {
-        struct stat sb;
-        if (stat(path, &sb) == 0)
-            st = pw_error_set(err, PW_EEXIST, path, 0,
-                              "fit file exists (pass --force to replace it, or choose another --out)");
-    }
+    /* The fit file may not be any input (by identity: links count), whatever --force says;
+     * without --force it may not exist. Checked early, before the work, and again on writing. */
+    pw_outset *set = NULL;
+    if (st == PW_OK)
+        st = pw_outset_new(co->force, pw_cli_tmp_hooks(), &set, err);
+    if (st == PW_OK && !out) /* made by the set: removed again if nothing is written */
+        st = pw_outset_mkdir(set, out_dir ? out_dir : "fits", err);
+    if (st == PW_OK)
+        st = pw_outset_protect(set, input, err);
+    for (size_t k = 0; st == PW_OK && k < co->n_inputs; k++)
+        st = pw_outset_protect(set, co->inputs[k], err);
+    if (st == PW_OK)
+        st = pw_outset_check(set, path, err);
     pw_fit_options fo = co->fit;
     pw_tie_line *swapped = NULL;
     if (st == PW_OK && co->lle) /* tie lines: same components, in either order */
@@ -224,8 +221,10 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
         st = pw_fit_run(&ds, c1, c2, model, &fo, r, err);
     free(swapped);
     pw_dataset_free(&ds);
-    if (st != PW_OK)
+    if (st != PW_OK) {
+        pw_outset_free(set);
         return pw_status_exit_code(st);
+    }
     if (!co->quiet) {
         if (!co->no_range_warning)
             warn_ranges(r, input);
@@ -233,7 +232,10 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
         warn_duplicates(r, input);
         warn_fit(r, input);
     }
-    st = pw_fitfile_write(path, r, co->force, err);
+    st = pw_fitfile_stage(set, path, r, err);
+    if (st == PW_OK)
+        st = pw_outset_commit(set, err);
+    pw_outset_free(set);
     if (st != PW_OK) {
         pw_fit_result_free(r);
         return pw_status_exit_code(st);

@@ -16,6 +16,8 @@ typedef struct pw_fit_cli_opts {
     bool quiet; /* no warnings on stderr (batch workers collect them instead) */
     bool no_range_warning; /* data-range warnings already given (--model all: once, not per model) */
     const pw_lle_dataset *lle; /* --lle: tie lines fitted with the VLE data (NULL: none) */
+    const char *inputs[4]; /* files read besides the dataset (component files): never written */
+    size_t n_inputs;
 } pw_fit_cli_opts;
 
 /* Reads input, fits model, writes the fit file (out, else out_dir/<stem>.<model>.json, else

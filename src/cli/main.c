@@ -37,15 +37,20 @@ int main(int argc, char **argv)
     }
     if (!strcmp(argv[1], "--help") || !strcmp(argv[1], "-h") || !strcmp(argv[1], "help")) {
         usage(stdout);
-        return 0;
+        return pw_cli_finish_stdout("help");
     }
     if (!strcmp(argv[1], "--version")) {
         printf("pinchwise %s\n", PINCHWISE_VERSION_STRING);
-        return 0;
+        return pw_cli_finish_stdout("version");
     }
+    pw_cli_install_signal_cleanup();
+    pw_cli_watch_json_allocations();
     for (size_t i = 0; i < sizeof commands / sizeof commands[0]; i++)
-        if (!strcmp(argv[1], commands[i].name))
-            return commands[i].run(argc - 1, argv + 1);
+        if (!strcmp(argv[1], commands[i].name)) {
+            int rc = commands[i].run(argc - 1, argv + 1);
+            int out = pw_cli_finish_stdout(commands[i].name); /* e.g. a full disk */
+            return rc ? rc : out;
+        }
     fprintf(stderr, "pinchwise: unknown command '%s' (expected one of: ", argv[1]);
     for (size_t i = 0; i < sizeof commands / sizeof commands[0]; i++)
         fprintf(stderr, "%s%s", i ? ", " : "", commands[i].name);

@@ -17,9 +17,11 @@ static int parse_factors(const char *text, pw_column_options *o, pw_error *err)
     while (*p) {
         char *end;
         double f = strtod(p, &end);
-        if (end == p || !isfinite(f) || f <= 1.0)
+        bool decimal = strspn(p, "0123456789+-.eE") == (size_t)(end - p); /* no hex, no blanks */
+        if (end == p || !decimal || !isfinite(f) || f <= 1.0 || f > 100.0)
             return pw_error_set(err, PW_EINVAL, NULL, 0,
-                                "--factors %s: expected multiples of R_min above 1, e.g. 1.2,1.3,1.5",
+                                "--factors %s: expected multiples of R_min above 1 and at most 100, "
+                                "e.g. 1.2,1.3,1.5",
                                 text);
         if (o->n_factors == PW_COLUMN_MAX_FACTORS)
             return pw_error_set(err, PW_EINVAL, NULL, 0, "--factors: at most %d values",

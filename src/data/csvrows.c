@@ -1,14 +1,20 @@
 /* Row reader on top of libcsv with physical line numbers; see csvrows.h. */
 #include "data/csvrows.h"
 
+#include "base/fileio_internal.h"
+
 #include <ctype.h>
 #include <errno.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <unistd.h>
 
 static const unsigned char utf8_bom[3] = {0xEF, 0xBB, 0xBF};
+
+/* libcsv's field-buffer growth step (bytes); see pw_csvrows_init. */
+#define CSVROWS_BLOCK ((size_t)1 << 20)
 
 static bool grow(void **buf, size_t *cap, size_t need, size_t elem)
 {
@@ -96,7 +102,19 @@ static void csv_segment(pw_csvrows *r, const char *s, size_t len)
 {
     if (r->status != PW_OK || len == 0)
         return;
-    size_t done = csv_parse(&r->parser, s, len, on_field, on_row, r);
+    /* In pieces of at most CSVROWS_BLOCK bytes, the growth step set before each to the field
+     * buffer's current size (at least CSVROWS_BLOCK): the buffer then doubles, so a field of any
+     * length costs linear time (a fixed step copies the buffer once per step: quadratic). */
+    size_t done = 0;
+    while (done < len && r->status == PW_OK) {
+        size_t piece = len - done < CSVROWS_BLOCK ? len - done : CSVROWS_BLOCK;
+        size_t step = r->parser.entry_size > CSVROWS_BLOCK ? r->parser.entry_size : CSVROWS_BLOCK;
+        csv_set_blk_size(&r->parser, step);
+        size_t used = csv_parse(&r->parser, s + done, piece, on_field, on_row, r);
+        done += used;
+        if (used != piece)
+            break;
+    }
     if (r->status == PW_OK && done != len) {
         char msg[200];
         snprintf(msg, sizeof msg,
@@ -193,6 +211,9 @@ pw_status pw_csvrows_init(pw_csvrows *r, const char *name, pw_csvrows_line_fn li
     if (csv_init(&r->parser, CSV_STRICT | CSV_STRICT_FINI | CSV_APPEND_NULL) != 0)
         return r->status = pw_error_set(err, PW_ENOMEM, name, 0, "out of memory (CSV parser)");
     r->parser_ready = true;
+    /* libcsv grows its field buffer by the block size (default 128 bytes), copying it each
+     * time: quadratic in a field's length. See csv_segment for the growth used here. */
+    csv_set_blk_size(&r->parser, CSVROWS_BLOCK);
     return PW_OK;
 }
 
@@ -322,9 +343,15 @@ pw_status pw_csvrows_slurp(const char *path, size_t max_bytes, char **buf, size_
 {
     *buf = NULL;
     *len = 0;
-    FILE *f = fopen(path, "rb");
-    if (!f)
-        return pw_error_set(err, PW_EIO, path, 0, "cannot open: %s", strerror(errno));
+    int fd;
+    pw_status ost = pw_file_open_regular(path, max_bytes, &fd, err);
+    if (ost != PW_OK)
+        return ost;
+    FILE *f = fdopen(fd, "rb");
+    if (!f) {
+        close(fd);
+        return pw_error_set(err, PW_ENOMEM, path, 0, "out of memory");
+    }
     size_t cap = 0, n = 0;
     char *data = NULL;
     for (;;) {

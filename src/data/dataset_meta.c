@@ -155,6 +155,13 @@ static pw_status fixed_state(pw_ds_reader *rd, bool is_T, const char *value, lon
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s: %s is not positive (expected an absolute %s above zero)", key,
                             value, key);
+    /* the same plausible ranges as measured values (docs/inputs.md, "Limits") */
+    if (is_T ? !(si >= PW_DATASET_T_MIN_K && si <= PW_DATASET_T_MAX_K)
+             : !(si >= PW_DATASET_P_MIN_PA && si <= PW_DATASET_P_MAX_PA))
+        return pw_error_set(err, PW_EPARSE, rd->name, line,
+                            "%s: %s is outside the plausible range %g to %g %s", key, value,
+                            is_T ? PW_DATASET_T_MIN_K : PW_DATASET_P_MIN_PA,
+                            is_T ? PW_DATASET_T_MAX_K : PW_DATASET_P_MAX_PA, is_T ? "K" : "Pa");
     if (strlen(unit) >= PW_UNIT_MAX)
         return pw_error_set(err, PW_EPARSE, rd->name, line, "%s: unit '%s' is too long", key, unit);
     memcpy(rd->fixed_unit, unit, strlen(unit) + 1);

@@ -15,4 +15,9 @@
  * message in why (naming the key) when the object is malformed or contradicts "converged". */
 bool pw_fitfile_read_convergence(const json_t *root, pw_fit_result *r, char *why, size_t n);
 
+/* The strict second pass of the reader (fitfile_check.c): ranges, types and sizes of every field
+ * of root, whose values read_body has put into r. PW_EPARSE naming name and the key. */
+pw_status pw_fitfile_check(const json_t *root, const pw_fit_result *r, const char *name,
+                           pw_error *err);
+
 #endif

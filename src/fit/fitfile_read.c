@@ -404,6 +404,8 @@ pw_status pw_fitfile_parse(const char *buf, size_t len, const char *name, pw_fit
                             "not valid JSON: %s (expected a pinchwise fit file)", jerr.text);
     reader rd = {.name = name, .err = err, .st = PW_OK};
     read_body(&rd, root, r);
+    if (rd.st == PW_OK)
+        rd.st = pw_fitfile_check(root, r, name, err);
     json_decref(root);
     if (rd.st == PW_OK) {
         /* Recompute the derived values so that they always match the parameters. */

@@ -282,23 +282,45 @@ json_t *pw_fitfile_to_json(const pw_fit_result *r)
     return o;
 }
 
-pw_status pw_fitfile_write(const char *path, const pw_fit_result *r, bool force, pw_error *err)
+/* The file's text (with a final newline), malloc'd. */
+static char *fitfile_text(const pw_fit_result *r, size_t *len)
 {
     json_t *o = pw_fitfile_to_json(r);
     char *text = o ? json_dumps(o, JSON_INDENT(1) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER)
                    : NULL;
     json_decref(o);
     if (!text)
-        return pw_error_set(err, PW_ENOMEM, path, 0, "out of memory");
-    size_t len = strlen(text);
-    char *withnl = realloc(text, len + 2);
+        return NULL;
+    *len = strlen(text);
+    char *withnl = realloc(text, *len + 2);
     if (!withnl) {
         free(text);
-        return pw_error_set(err, PW_ENOMEM, path, 0, "out of memory");
+        return NULL;
     }
-    withnl[len] = '\n';
-    withnl[len + 1] = '\0';
-    pw_status st = pw_atomic_write(path, withnl, len + 1, force, err);
-    free(withnl);
+    withnl[(*len)++] = '\n';
+    withnl[*len] = '\0';
+    return withnl;
+}
+
+pw_status pw_fitfile_stage(struct pw_outset *set, const char *path, const pw_fit_result *r,
+                           pw_error *err)
+{
+    size_t len = 0;
+    char *text = fitfile_text(r, &len);
+    if (!text)
+        return pw_error_set(err, PW_ENOMEM, path, 0, "out of memory");
+    pw_status st = pw_outset_add(set, path, text, len, err);
+    free(text);
+    return st;
+}
+
+pw_status pw_fitfile_write(const char *path, const pw_fit_result *r, bool force, pw_error *err)
+{
+    size_t len = 0;
+    char *text = fitfile_text(r, &len);
+    if (!text)
+        return pw_error_set(err, PW_ENOMEM, path, 0, "out of memory");
+    pw_status st = pw_atomic_write(path, text, len, force, err);
+    free(text);
     return st;
 }

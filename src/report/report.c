@@ -106,80 +106,83 @@ const char *pw_report_html(const pw_report *rep)
     return pw_sbuf_str(&rep->html);
 }
 
+/* Stages each of files as dir/<name> (dir created by the set when missing). */
+static pw_status stage_files(const pw_report_file *files, size_t n, const char *dir, bool svg,
+                             pw_outset *set, pw_error *err)
+{
+    pw_status st = pw_outset_mkdir(set, dir, err);
+    char path[PW_PATH_MAX];
+    for (size_t i = 0; st == PW_OK && i < n; i++) {
+        int k = snprintf(path, sizeof path, "%s/%s", dir, files[i].name);
+        if (k < 0 || (size_t)k >= sizeof path)
+            return pw_error_set(err, PW_EINVAL, dir, 0, "path too long");
+        if (!svg) {
+            st = pw_outset_add(set, path, pw_sbuf_str(&files[i].text), files[i].text.len, err);
+            continue;
+        }
+        /* standalone files need the XML declaration the inline copies do without */
+        pw_sbuf t;
+        pw_sbuf_init(&t);
+        pw_sbuf_puts(&t, "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n");
+        pw_sbuf_puts(&t, pw_sbuf_str(&files[i].text));
+        st = pw_sbuf_status(&t);
+        if (st != PW_OK)
+            pw_error_set(err, st, path, 0, "out of memory");
+        else
+            st = pw_outset_add(set, path, pw_sbuf_str(&t), t.len, err);
+        pw_sbuf_free(&t);
+    }
+    return st;
+}
+
+pw_status pw_report_stage(const pw_report *rep, pw_outset *set, const char *html_path,
+                          const char *svg_dir, const char *csv_dir, pw_error *err)
+{
+    pw_status st = PW_OK;
+    if (html_path)
+        st = pw_outset_add(set, html_path, pw_sbuf_str(&rep->html), rep->html.len, err);
+    if (st == PW_OK && svg_dir)
+        st = stage_files(rep->svg, rep->n_svg, svg_dir, true, set, err);
+    if (st == PW_OK && csv_dir)
+        st = stage_files(rep->csv, rep->n_csv, csv_dir, false, set, err);
+    return st;
+}
+
+/* One set with what is asked, committed all or none. */
+static pw_status save_set(const pw_report *rep, const char *html_path, const char *svg_dir,
+                          const char *csv_dir, bool force, pw_error *err)
+{
+    pw_outset *set = NULL;
+    pw_status st = pw_outset_new(force, NULL, &set, err);
+    if (st == PW_OK)
+        st = pw_report_stage(rep, set, html_path, svg_dir, csv_dir, err);
+    if (st == PW_OK)
+        st = pw_outset_commit(set, err);
+    pw_outset_free(set);
+    return st;
+}
+
 pw_status pw_report_save_html(const pw_report *rep, const char *path, bool force, pw_error *err)
 {
-    return pw_atomic_write(path, pw_sbuf_str(&rep->html), rep->html.len, force, err);
-}
-
-static pw_status ensure_dir(const char *dir, pw_error *err)
-{
-    struct stat sb;
-    if (stat(dir, &sb) == 0)
-        return S_ISDIR(sb.st_mode) ? PW_OK
-                                   : pw_error_set(err, PW_EIO, dir, 0, "exists and is not a folder");
-    if (mkdir(dir, 0755) != 0 && errno != EEXIST)
-        return pw_error_set(err, PW_EIO, dir, 0, "cannot create the folder: %s", strerror(errno));
-    return PW_OK;
-}
-
-/* Writes files into dir; without force checks every target first so nothing is half-done. */
-static pw_status save_files(const pw_report_file *files, size_t n, const char *prefix,
-                            const char *dir, bool force, size_t *n_files, pw_error *err)
-{
-    if (n_files)
-        *n_files = 0;
-    pw_status st = ensure_dir(dir, err);
-    if (st != PW_OK)
-        return st;
-    char path[PW_PATH_MAX];
-    for (size_t i = 0; i < n && !force; i++) {
-        int k = snprintf(path, sizeof path, "%s/%s%s", dir, prefix, files[i].name);
-        if (k < 0 || (size_t)k >= sizeof path)
-            return pw_error_set(err, PW_EINVAL, dir, 0, "path too long");
-        if (access(path, F_OK) == 0)
-            return pw_error_set(err, PW_EEXIST, path, 0, "file exists (pass --force to replace it)");
-    }
-    for (size_t i = 0; i < n; i++) {
-        int k = snprintf(path, sizeof path, "%s/%s%s", dir, prefix, files[i].name);
-        if (k < 0 || (size_t)k >= sizeof path)
-            return pw_error_set(err, PW_EINVAL, dir, 0, "path too long");
-        const pw_sbuf *t = &files[i].text;
-        st = pw_atomic_write(path, pw_sbuf_str(t), t->len, force, err);
-        if (st != PW_OK)
-            return st;
-        if (n_files)
-            (*n_files)++;
-    }
-    return PW_OK;
+    return save_set(rep, path, NULL, NULL, force, err);
 }
 
 pw_status pw_report_save_svg(const pw_report *rep, const char *dir, bool force, size_t *n_files,
                              pw_error *err)
 {
-    /* standalone files need the XML declaration the inline copies do without */
-    pw_report_file files[PW_REPORT_MAX_FILES];
-    pw_status st = PW_OK;
-    size_t n = 0;
-    for (; n < rep->n_svg && st == PW_OK; n++) {
-        files[n] = rep->svg[n];
-        pw_sbuf_init(&files[n].text);
-        pw_sbuf_puts(&files[n].text, "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n");
-        pw_sbuf_puts(&files[n].text, pw_sbuf_str(&rep->svg[n].text));
-        st = pw_sbuf_status(&files[n].text);
-    }
-    if (st == PW_OK)
-        st = save_files(files, n, "", dir, force, n_files, err);
-    else
-        pw_error_set(err, st, dir, 0, "out of memory");
-    for (size_t i = 0; i < n; i++)
-        pw_sbuf_free(&files[i].text);
+    pw_status st = save_set(rep, NULL, dir, NULL, force, err);
+    if (n_files)
+        *n_files = st == PW_OK ? rep->n_svg : 0;
     return st;
 }
 
 pw_status pw_report_save_csv(const pw_report *rep, const char *dir, bool force, size_t *n_files,
                              pw_error *err)
 {
-    return save_files(rep->csv, rep->n_csv, "", dir, force, n_files, err);
+    pw_status st = save_set(rep, NULL, NULL, dir, force, err);
+    if (n_files)
+        *n_files = st == PW_OK ? rep->n_csv : 0;
+    return st;
 }
 
 static pw_status check_dir(const pw_report_file *files, size_t n, const char *dir, pw_error *err)

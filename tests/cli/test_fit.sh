@@ -64,9 +64,10 @@ printf '# components: ethanol, water\n# pressure: 1 atm\nx1,T[C]\n0.2,85\n' > fe
 "$pw" fit few.csv --model nrtl 2>err.txt && fail "fitted one point"
 grep -qi "too few" err.txt || fail "no 'too few' message: $(cat err.txt)"
 
-# 7. Batch over a folder: name order, goes past bad files, exit 0 when one was fitted.
+# 7. Batch over a folder: name order, goes past bad files (the others are still written), exit
+#    non-zero when any file failed (CONTRACT, batch paragraph).
 mkdir in; cp "$src/datasets/methanol_water_1atm.csv" in/b.csv; cp bad.csv in/a.csv; cp "$src/datasets/mek_toluene_50C_pxy.csv" in/c.csv
-"$pw" fit in --model nrtl --out-dir outdir --json > batch.json || fail "batch exit"
+"$pw" fit in --model nrtl --out-dir outdir --json > batch.json && fail "batch exit 0 with a failed file"
 python3 - <<'PY' || fail "batch JSON"
 import json, os
 d = json.load(open("batch.json"))

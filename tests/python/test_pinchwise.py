@@ -187,7 +187,7 @@ class Errors(unittest.TestCase):
                     "components": lambda: pinchwise.fit(demo, "nrtl", components=path),
                     "reflux": lambda: pinchwise.reflux(path, "1atm", 0.95, 0.02, 0.3),
                 }
-                if command not in calls:  # commands the module does not offer (yet)
+                if command not in calls:  # e.g. report: a command of the program only
                     continue
                 with self.subTest(file=name, command=command):
                     with self.assertRaises(pinchwise.PinchwiseError) as cm:
