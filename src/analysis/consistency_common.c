@@ -47,7 +47,7 @@ static const struct {
                         "the slope of the smoothed G^E/RT does not match ln(gamma1/gamma2) point by "
                         "point: scatter or bias in y"},
     [PW_CTEST_ENDPOINT] = {"pure_endpoints", "Pure-component end points against the vapor pressures",
-                           "METHODS 4.7 screening thresholds (common practice, not from a published "
+                           "this project's screening thresholds (common practice, not from a published "
                            "source); pure-component check as in Kang et al. (2010), J. Chem. Eng. "
                            "Data 55:3631",
                            "max |P_meas - P_sat| / P_sat < limit (isothermal) or max |T_meas - T_sat| "
