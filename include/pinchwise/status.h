@@ -11,11 +11,14 @@
  *   handler: every condition GSL would report is checked first and returned as a pw_status, and
  *   GSL is never handed a non-finite value (docs/hardening.md, "The GSL boundary"; tested with
  *   GSL's default, aborting, handler installed). These work whatever handler the host installed;
- * - the other GSL calls (the nonlinear and linear least-squares fits, the sampling) check their
- *   arguments and map every GSL return code, but an error GSL raises inside them goes to the
- *   handler first. Hosts should call gsl_set_error_handler_off() once at start-up, as the
- *   command-line program and the tests do; a handler that returns (rather than aborting or
- *   jumping out) is all the library needs. */
+ * - the least-squares fits (the model fit, the consistency point test's Barker fit) and the
+ *   distribution quantiles check every condition under which GSL's allocators and quantile
+ *   functions report an error (too few points, a non-positive degree of freedom) before calling
+ *   them; tested on hostile data (non-finite and absurd values, too few and repeated points,
+ *   every model) with the aborting handler installed (tests/unit/test_gsl_boundary_fit.c).
+ *   Hosts should still call gsl_set_error_handler_off() once at start-up, as the command-line
+ *   program, pw_api_init and the tests do: a handler that returns (rather than aborting or
+ *   jumping out) is all the library needs, and it costs nothing. */
 #ifndef PINCHWISE_STATUS_H
 #define PINCHWISE_STATUS_H
 

@@ -153,6 +153,8 @@ static pw_status barker_run(const cs_data *d, size_t p, const double *a0, double
 {
     barker bk = {d, pw_cs_legendre_model(p), p};
     size_t n = d->n_in;
+    if (n < p) /* GSL's allocator would call its error handler (which may abort) */
+        return PW_ETOOFEW;
     gsl_multifit_nlinear_fdf fdf = {0};
     fdf.f = barker_f;
     fdf.df = barker_df;
