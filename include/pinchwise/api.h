@@ -65,10 +65,39 @@ pw_status pw_api_reflux(const char *fit_path, const char *fit_text, const char *
                         double zf, double q, int uncertainty, long samples, long seed, char **doc,
                         pw_error *err);
 
+/* `reflux ... [--energy] --json`: pw_api_reflux with energy != 0 for energy balances on every
+ * stage (the heat data of the fit file, or of components) instead of constant molal overflow. */
+pw_status pw_api_reflux_ex(const char *fit_path, const char *fit_text, const char *name,
+                           const char *components, const char *pressure, double xd, double xb,
+                           double zf, double q, int uncertainty, long samples, long seed,
+                           int energy, char **doc, pw_error *err);
+
 /* `screen FIT --pressure P --xd X --xb X [--zf X] --json`; zf NAN: the default feed. */
 pw_status pw_api_screen(const char *fit_path, const char *fit_text, const char *name,
                         const char *components, const char *pressure, double xd, double xb,
                         double zf, char **doc, pw_error *err);
+
+/* `lle FIT --temperature T [--scan FROM:TO:N] --json`: the liquid-liquid split at temperature.
+ * scan_from, scan_to (temperatures with their unit) and scan_n (2..1000): the binodal at scan_n
+ * temperatures; all NULL and 0 for none. */
+pw_status pw_api_lle(const char *fit_path, const char *fit_text, const char *name,
+                     const char *components, const char *temperature, const char *scan_from,
+                     const char *scan_to, long scan_n, char **doc, pw_error *err);
+
+/* `decanter FIT --pressure P --zf X --x1-rich X --x1-lean X --q Q --json`: the decanter and two
+ * stripping columns of a heterogeneous binary. zf in (0, 1); x1_rich, x1_lean in [0, 1]; q in
+ * [-10, 10]. An impossible specification is PW_OK with "feasible": false. */
+pw_status pw_api_decanter(const char *fit_path, const char *fit_text, const char *name,
+                          const char *components, const char *pressure, double zf, double x1_rich,
+                          double x1_lean, double q, char **doc, pw_error *err);
+
+/* `rate FIT --pressure P --stages N --feed-stage K --reflux R --zf X --distillate D --q Q
+ * [--energy] --json`: the products of a given column. stages, feed_stage 1..100000; zf in
+ * [0, 1]; q in [-10, 10]; energy != 0: energy balances (adds the duties). */
+pw_status pw_api_rate(const char *fit_path, const char *fit_text, const char *name,
+                      const char *components, const char *pressure, long stages, long feed_stage,
+                      double reflux, double zf, double distillate, double q, int energy, char **doc,
+                      pw_error *err);
 
 #ifdef __cplusplus
 }

@@ -9,12 +9,14 @@
 
 #include <jansson.h>
 #include <pinchwise/azeotrope.h>
-#include <pinchwise/lle.h>
 #include <pinchwise/column.h>
 #include <pinchwise/component.h>
 #include <pinchwise/consistency.h>
 #include <pinchwise/dataset.h>
+#include <pinchwise/decanter.h>
+#include <pinchwise/design.h>
 #include <pinchwise/fit.h>
+#include <pinchwise/lle.h>
 #include <pinchwise/screen.h>
 #include <pinchwise/uncertainty.h>
 #include <stdbool.h>
@@ -94,6 +96,55 @@ json_t *pw_reflux_doc(const pw_column_result *c, double P_Pa, const pw_column_sp
 
 /* The `screen --json` document. */
 json_t *pw_screen_doc(const pw_system *sys, const pw_screen_result *r, const pw_screen_options *o);
+
+/* ---- lle ---- */
+
+/* The lle command's split at T_K (pw_lle_solve). On failure err names where (the fit file) and
+ * the solver's reason. */
+pw_status pw_lle_run(const pw_system *sys, double T_K, const char *where, pw_lle_result *r,
+                     pw_error *err);
+
+/* The lle command's binodal (--scan FROM:TO:N, pw_lle_scan): n points from T_from_K to T_to_K
+ * into pts (n entries), the critical solution temperatures into crit (PW_LLE_MAX_CRITICAL
+ * entries) and *n_crit. On failure err names where and the reason. */
+pw_status pw_lle_scan_run(const pw_system *sys, double T_from_K, double T_to_K, size_t n,
+                          const char *where, pw_lle_scan_point *pts, pw_lle_critical *crit,
+                          size_t *n_crit, pw_error *err);
+
+/* The `lle --json` document at T_K; pts NULL: no scan (no "scan" and "critical" keys), else
+ * n_pts scan points and n_crit critical solution temperatures. */
+json_t *pw_lle_doc(const pw_system *sys, double T_K, const pw_lle_result *r,
+                   const pw_lle_scan_point *pts, size_t n_pts, const pw_lle_critical *crit,
+                   size_t n_crit);
+
+/* ---- decanter ---- */
+
+/* The decanter command's scheme (pw_decanter_solve). An impossible specification is PW_OK
+ * with r->feasible false. On failure err names where (the fit file) and the reason. */
+pw_status pw_decanter_run(const pw_system *sys, const pw_decanter_spec *spec,
+                          const pw_column_options *opt, const char *where, pw_decanter_result *r,
+                          pw_error *err);
+
+/* The `decanter --json` document (CONTRACT keys, each column's pinch, q and the caution). */
+json_t *pw_decanter_doc(const pw_decanter_result *r, const pw_decanter_spec *spec);
+
+/* ---- rate ---- */
+
+/* The duties of rate --energy. */
+typedef struct pw_rate_energy_out {
+    double Q_C, Q_R; /* condenser and reboiler duties, J per mol feed (NAN without energy) */
+    size_t n_roots;  /* steady states found (the one with the lowest distillate purity is r) */
+} pw_rate_energy_out;
+
+/* The rate command's column: pw_rate_energy with the heat data of sys when energy, else
+ * pw_rate_cmo. The caller frees r with pw_rate_result_free (also after a failure). On failure
+ * err names where (the fit file) and the reason. */
+pw_status pw_rate_run(const pw_system *sys, double P_Pa, const pw_rate_spec *spec, bool energy,
+                      const char *where, pw_rate_result *r, pw_rate_energy_out *en, pw_error *err);
+
+/* The `rate --json` document; en is read only when energy. */
+json_t *pw_rate_doc(const pw_system *sys, double P_Pa, const pw_rate_spec *spec, bool energy,
+                    const pw_rate_result *r, const pw_rate_energy_out *en);
 
 /* ---- --uncertainty (reflux, azeotrope) ---- */
 

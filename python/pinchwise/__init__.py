@@ -1,4 +1,5 @@
-"""pinchwise from Python: binary VLE fitting, consistency tests, azeotropes, minimum reflux.
+"""pinchwise from Python: binary VLE fitting, consistency tests, azeotropes, minimum reflux,
+liquid-liquid splits, the decanter scheme and the rating of a given column.
 
 A thin layer over the pinchwise shared library (ctypes, standard library only). Every function
 returns the dict that the matching command prints with ``--json``: the library builds that JSON
@@ -32,8 +33,8 @@ import os
 import tempfile
 import threading
 
-__all__ = ["fit", "check", "azeotrope", "reflux", "screen", "Fit", "PinchwiseError",
-           "library_path", "version"]
+__all__ = ["fit", "check", "azeotrope", "reflux", "screen", "lle", "decanter", "rate", "Fit",
+           "PinchwiseError", "library_path", "version"]
 
 _PATH_MAX = 512        # PW_PATH_MAX of pinchwise/status.h
 _ERROR_MSG_MAX = 640   # PW_ERROR_MSG_MAX
@@ -64,8 +65,8 @@ class Fit(dict):
     """The dict :func:`fit` returns (the keys of ``pinchwise fit --json``).
 
     It also carries the whole fit file's text in :attr:`fit_file_text` (not a key), so it can be
-    passed to :func:`reflux`, :func:`azeotrope` and :func:`screen` even when no fit file was
-    written. :meth:`save` writes that fit file."""
+    passed to :func:`reflux`, :func:`azeotrope`, :func:`screen`, :func:`lle`, :func:`decanter`
+    and :func:`rate` even when no fit file was written. :meth:`save` writes that fit file."""
 
     def __init__(self, doc, fit_file_text):
         super().__init__(doc)
@@ -158,8 +159,16 @@ def _declare(lib):
                                      c_long, out, err]),
         "pw_api_reflux": (c_int, [c_str, c_str, c_str, c_str, c_str, c_double, c_double,
                                   c_double, c_double, c_int, c_long, c_long, out, err]),
+        "pw_api_reflux_ex": (c_int, [c_str, c_str, c_str, c_str, c_str, c_double, c_double,
+                                     c_double, c_double, c_int, c_long, c_long, c_int, out, err]),
         "pw_api_screen": (c_int, [c_str, c_str, c_str, c_str, c_str, c_double, c_double,
                                   c_double, out, err]),
+        "pw_api_lle": (c_int, [c_str, c_str, c_str, c_str, c_str, c_str, c_str, c_long, out,
+                               err]),
+        "pw_api_decanter": (c_int, [c_str, c_str, c_str, c_str, c_str, c_double, c_double,
+                                    c_double, c_double, out, err]),
+        "pw_api_rate": (c_int, [c_str, c_str, c_str, c_str, c_str, c_long, c_long, c_double,
+                                c_double, c_double, c_double, c_int, out, err]),
     }
     for name, (res, args) in sigs.items():
         fn = getattr(lib, name)
@@ -253,6 +262,44 @@ def _count(name, v):
     return v
 
 
+def _whole(name, v):
+    """A whole number (an int, or a float without fraction) for a C long; the library checks
+    its range."""
+    if isinstance(v, float) and math.isfinite(v) and v.is_integer():
+        v = int(v)
+    if isinstance(v, bool) or not isinstance(v, int):
+        raise PinchwiseError("%s %r: expected a whole number" % (name, v),
+                             status="invalid argument")
+    if not -2**31 <= v < 2**31:
+        raise PinchwiseError("%s %r: out of range" % (name, v), status="invalid argument")
+    return v
+
+
+def _scan(scan):
+    """(from, to, n) for the library from "FROM:TO:N" or a (from, to, n) sequence; None: no
+    scan."""
+    if scan is None:
+        return None, None, 0
+    if isinstance(scan, (str, bytes)):
+        text = scan.decode() if isinstance(scan, bytes) else scan
+        parts = text.split(":")
+        if len(parts) != 3:
+            raise PinchwiseError("scan %r: expected FROM:TO:N, e.g. \"20C:120C:11\"" % (text,),
+                                 status="invalid argument")
+        try:
+            n = int(parts[2])
+        except ValueError:
+            raise PinchwiseError("scan %r: N must be a whole number from 2 to 1000" % (text,),
+                                 status="invalid argument")
+        return _b(parts[0]), _b(parts[1]), n if -2**31 <= n < 2**31 else -1
+    try:
+        t_from, t_to, n = scan
+    except (TypeError, ValueError):
+        raise PinchwiseError("scan %r: expected \"FROM:TO:N\" or (FROM, TO, N)" % (scan,),
+                             status="invalid argument")
+    return _b(t_from), _b(t_to), _whole("scan N", n)
+
+
 def _fit_source(fit):
     """(fit_path, fit_text, name) for the library from a path, a Fit or a fit file's dict."""
     if isinstance(fit, (str, bytes, os.PathLike)):
@@ -312,7 +359,7 @@ def azeotrope(fit, pressure=None, temperature=None, components=None, uncertainty
 
 
 def reflux(fit, pressure, xd, xb, zf, q=1.0, components=None, uncertainty=False, samples=None,
-           seed=None):
+           seed=None, energy=False):
     """Minimum reflux, limiting pinch and stages of a binary column; like
     ``pinchwise reflux --json``.
 
@@ -321,13 +368,18 @@ def reflux(fit, pressure, xd, xb, zf, q=1.0, components=None, uncertainty=False,
     q: the feed's liquid fraction (1 saturated liquid).
     uncertainty, samples, seed: as ``--uncertainty --samples N --seed N`` (giving samples or
     seed switches it on): adds r_min_ci95, feasible_probability and "uncertainty".
+    energy: as ``--energy``: an energy balance on every stage (heats of vaporization and heat
+    capacities from the fit file, or from components) instead of constant molal overflow;
+    ``"balance"`` is then ``"energy"``, the headline numbers are the energy balance's, and every
+    design row adds condenser_kJ_per_mol_feed and reboiler_kJ_per_mol_feed.
 
-    Returns a dict with feasible, reason, r_min, pinch (kind, section, x, y), n_min, design, ..."""
+    Returns a dict with feasible, reason, r_min, pinch (kind, section, x, y), n_min, design,
+    balance, ..."""
     fit_path, fit_text, name = _fit_source(fit)
-    return _call("pw_api_reflux", fit_path, fit_text, name, _b(components), _b(pressure),
+    return _call("pw_api_reflux_ex", fit_path, fit_text, name, _b(components), _b(pressure),
                  _fraction("xd", xd), _fraction("xb", xb), _fraction("zf", zf),
                  _fraction("q", q), 1 if uncertainty else 0, _count("samples", samples),
-                 _count("seed", seed))
+                 _count("seed", seed), 1 if energy else 0)
 
 
 def screen(fit, pressure, xd, xb, zf=None, components=None):
@@ -340,3 +392,62 @@ def screen(fit, pressure, xd, xb, zf=None, components=None):
     return _call("pw_api_screen", fit_path, fit_text, name, _b(components), _b(pressure),
                  _fraction("xd", xd), _fraction("xb", xb),
                  float("nan") if zf is None else _fraction("zf", zf))
+
+
+def lle(fit, temperature, scan=None, components=None):
+    """The two liquid layers a fitted model predicts at a temperature; like
+    ``pinchwise lle --json``.
+
+    fit: a fit-file path or the dict :func:`fit` returned. temperature: with its unit ("25C",
+    "298.15K"). scan: ``"FROM:TO:N"`` (e.g. ``"20C:120C:11"``) or a tuple ``("20C", "120C", 11)``:
+    also the layers at N temperatures from FROM to TO (N from 2 to 1000) and the critical
+    solution temperatures between them.
+
+    Returns a dict with split, x1 ([x_I, x_II] with x_I < x_II, or None), T_K, components, model,
+    model_can_split, activities, min_tangent_plane_distance, min_d2G_dx2 and, with scan, "scan"
+    (T_K, split, x1 at each temperature) and "critical" (T_K, x1, kind "upper" or "lower").
+    Layers predicted from vapor-liquid data can be far from measured solubilities: check them
+    against measured tie lines before sizing a decanter."""
+    fit_path, fit_text, name = _fit_source(fit)
+    t_from, t_to, n = _scan(scan)
+    return _call("pw_api_lle", fit_path, fit_text, name, _b(components), _b(temperature),
+                 t_from, t_to, n)
+
+
+def decanter(fit, pressure, zf, x1_rich, x1_lean, q=1.0, components=None):
+    """The decanter and two stripping columns of a partly miscible binary with a heterogeneous
+    azeotrope; like ``pinchwise decanter --json``.
+
+    The fresh feed (zf, liquid fraction q) and both condensed overheads enter one decanter at
+    the three-phase temperature; its layer rich in component 1 tops a stripping column whose
+    bottoms has x1 = x1_rich, the other layer tops a second one with bottoms x1 = x1_lean. zf
+    lies strictly between 0 and 1; q changes the condenser duty only (the feed enters the
+    decanter). An impossible specification returns ``"feasible": False`` with a ``"reason"``.
+
+    Returns a dict with feasible, reason, decanter (T_K, x1_layers, vapor_x1), columns (bottoms
+    rich in 1 first: bottoms_x1, top_x1, boilup_min, n_min, design rows, pinch),
+    bottoms_per_mol_feed, balance_closure, q, caution."""
+    fit_path, fit_text, name = _fit_source(fit)
+    return _call("pw_api_decanter", fit_path, fit_text, name, _b(components), _b(pressure),
+                 _fraction("zf", zf), _fraction("x1_rich", x1_rich),
+                 _fraction("x1_lean", x1_lean), _fraction("q", q))
+
+
+def rate(fit, pressure, stages, feed_stage, reflux, zf, distillate, q=1.0, energy=False,
+         components=None):
+    """The products and stage profile of a given column; like ``pinchwise rate --json``.
+
+    stages: N equilibrium stages counted from the top, the partial reboiler as stage N (the
+    total condenser not counted); feed_stage: the stage K the whole feed enters; reflux: the
+    reflux ratio R = L/D; zf: feed mole fraction of component 1; distillate: D, moles per mole
+    of feed; q: the feed's liquid fraction. energy: as ``--energy``, an energy balance on every
+    stage instead of constant molal overflow, adding the duties.
+
+    Returns a dict with xd, xb, stages (stage, x1, y1, T_K, L, V), balance, spec,
+    feed_stage_mismatch and, with energy, condenser_kJ_per_mol_feed, reboiler_kJ_per_mol_feed
+    and steady_states_found."""
+    fit_path, fit_text, name = _fit_source(fit)
+    return _call("pw_api_rate", fit_path, fit_text, name, _b(components), _b(pressure),
+                 _whole("stages", stages), _whole("feed_stage", feed_stage),
+                 _fraction("reflux", reflux), _fraction("zf", zf),
+                 _fraction("distillate", distillate), _fraction("q", q), 1 if energy else 0)

@@ -4,6 +4,7 @@
 #include "cli.h"
 
 #include <math.h>
+#include <pinchwise/commands.h>
 #include <pinchwise/decanter.h>
 #include <stdio.h>
 #include <string.h>
@@ -131,22 +132,6 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
     return 0;
 }
 
-static json_t *column_json(const pw_stripper_result *c, double top, double bottom)
-{
-    json_t *d = json_array();
-    for (size_t i = 0; i < c->n_design; i++)
-        json_array_append_new(d, json_pack("{s:o,s:o,s:o,s:o}", "factor",
-                                           pw_cli_json_num(c->design[i].factor), "boilup",
-                                           pw_cli_json_num(c->design[i].boilup), "stages",
-                                           pw_cli_json_num(c->design[i].stages), "top_vapor_x1",
-                                           pw_cli_json_num(c->design[i].y_top)));
-    return json_pack("{s:o,s:o,s:o,s:o,s:o,s:{s:s,s:o,s:o}}", "bottoms_x1", pw_cli_json_num(bottom),
-                     "top_x1", pw_cli_json_num(top), "boilup_min",
-                     pw_cli_json_num(c->boilup_min), "n_min", pw_cli_json_num(c->n_min), "design", d,
-                     "pinch", "kind", c->tangent ? "tangent" : "top", "x",
-                     pw_cli_json_num(c->x_pinch), "y", pw_cli_json_num(c->y_pinch));
-}
-
 static void print_column(const char *name, const pw_stripper_result *c, double top, double bottom)
 {
     printf("\n  Column %s: top feed x1 = %.5f, bottoms x1 = %.5g\n", name, top, bottom);
@@ -177,39 +162,14 @@ int pw_cli_decanter(int argc, char **argv)
     if (st != PW_OK)
         return pw_cli_fail(CMD, &err);
     pw_decanter_result r;
-    st = pw_decanter_solve(&fit.sys, &a.spec, &a.opt, &r);
+    st = pw_decanter_run(&fit.sys, &a.spec, &a.opt, a.fit_path, &r, &err);
     if (st != PW_OK) {
-        pw_error_set(&err, st, a.fit_path, 0, "decanter scheme: %s", pw_strerror(st));
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
     const pw_three_phase *tp = &r.decanter;
     if (a.json) {
-        json_t *o = json_object();
-        json_object_set_new(o, "feasible", json_boolean(r.feasible));
-        json_object_set_new(o, "reason", r.feasible ? json_null() : json_string(r.reason));
-        json_object_set_new(o, "decanter",
-                            tp->exists ? json_pack("{s:o,s:[o,o],s:o}", "T_K",
-                                                   pw_cli_json_num(tp->T_K), "x1_layers",
-                                                   pw_cli_json_num(tp->x[0]),
-                                                   pw_cli_json_num(tp->x[1]), "vapor_x1",
-                                                   pw_cli_json_num(tp->y1))
-                                       : json_null());
-        if (r.feasible) {
-            json_object_set_new(o, "columns",
-                                json_pack("[o,o]", column_json(&r.col[0], r.top_x1[0], a.spec.x_rich),
-                                          column_json(&r.col[1], r.top_x1[1], a.spec.x_lean)));
-            json_object_set_new(o, "bottoms_per_mol_feed",
-                                json_pack("[o,o]", pw_cli_json_num(r.bottoms_per_mol_feed[0]),
-                                          pw_cli_json_num(r.bottoms_per_mol_feed[1])));
-            json_object_set_new(o, "balance_closure", pw_cli_json_num(r.closure));
-        } else {
-            json_object_set_new(o, "columns", json_null());
-            json_object_set_new(o, "bottoms_per_mol_feed", json_null());
-        }
-        json_object_set_new(o, "q", pw_cli_json_num(a.spec.q));
-        json_object_set_new(o, "caution", json_string(pw_cli_caution_text()));
-        rc = pw_cli_print_json(o);
+        rc = pw_cli_print_json(pw_decanter_doc(&r, &a.spec));
     } else {
         const pw_system *s = &fit.sys;
         printf("Decanter scheme for %s (1) / %s (2), %s model, at %.6g kPa\n", s->comp[0].name,

@@ -5,6 +5,7 @@
 #include "cli.h"
 
 #include <math.h>
+#include <pinchwise/commands.h>
 #include <pinchwise/lle.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -107,11 +108,6 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
     return a->scan_text ? parse_scan(a->scan_text, a, err) : 0;
 }
 
-static json_t *pair_json(bool split, const double *x)
-{
-    return split ? json_pack("[o,o]", pw_cli_json_num(x[0]), pw_cli_json_num(x[1])) : json_null();
-}
-
 int pw_cli_lle(int argc, char **argv)
 {
     args a;
@@ -131,12 +127,8 @@ int pw_cli_lle(int argc, char **argv)
         return pw_cli_fail(CMD, &err);
     const pw_system *s = &fit.sys;
     pw_lle_result r;
-    st = pw_lle_solve(s, a.T, &r);
+    st = pw_lle_run(s, a.T, a.fit_path, &r, &err);
     if (st != PW_OK) {
-        pw_error_set(&err, st, a.fit_path, 0, "liquid-liquid solve at %.3f K failed: %s%s", a.T,
-                     pw_strerror(st),
-                     st == PW_ERANGE ? " (a layer is within 1e-12 of a pure component: "
-                                       "practically immiscible)" : "");
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
@@ -145,9 +137,10 @@ int pw_cli_lle(int argc, char **argv)
     size_t n_crit = 0;
     if (a.scan_text) {
         pts = calloc(a.n, sizeof *pts);
-        st = pts ? pw_lle_scan(s, a.from, a.to, a.n, pts, crit, &n_crit) : PW_ENOMEM;
+        st = pts ? pw_lle_scan_run(s, a.from, a.to, a.n, a.fit_path, pts, crit, &n_crit, &err)
+                 : pw_error_set(&err, PW_ENOMEM, a.fit_path, 0, "binodal scan failed: %s",
+                                pw_strerror(PW_ENOMEM));
         if (st != PW_OK) {
-            pw_error_set(&err, st, a.fit_path, 0, "binodal scan failed: %s", pw_strerror(st));
             free(pts);
             pw_fit_result_free(&fit);
             return pw_cli_fail(CMD, &err);
@@ -155,40 +148,7 @@ int pw_cli_lle(int argc, char **argv)
     }
     bool can = pw_model_can_split(s->model);
     if (a.json) {
-        json_t *o = json_object();
-        json_object_set_new(o, "split", json_boolean(r.split));
-        json_object_set_new(o, "x1", pair_json(r.split, r.x));
-        json_object_set_new(o, "T_K", pw_cli_json_num(a.T));
-        json_object_set_new(o, "components", json_pack("[s,s]", s->comp[0].name, s->comp[1].name));
-        json_object_set_new(o, "model", json_string(s->model->name));
-        json_object_set_new(o, "model_can_split", json_boolean(can));
-        json_object_set_new(o, "activities", r.split ? json_pack("[o,o]", pw_cli_json_num(r.a[0]),
-                                                                 pw_cli_json_num(r.a[1]))
-                                                     : json_null());
-        json_object_set_new(o, "min_tangent_plane_distance", pw_cli_json_num(r.min_tpd));
-        json_object_set_new(o, "min_d2G_dx2", pw_cli_json_num(r.min_D));
-        if (r.n_pairs > 1) {
-            json_t *more = json_array();
-            for (size_t p = 0; p < r.n_pairs; p++)
-                json_array_append_new(more, pair_json(true, r.pairs[p]));
-            json_object_set_new(o, "all_splits", more);
-        }
-        if (pts) {
-            json_t *sc = json_array(), *cr = json_array();
-            for (size_t k = 0; k < a.n; k++)
-                json_array_append_new(sc, json_pack("{s:o,s:b,s:o}", "T_K",
-                                                    pw_cli_json_num(pts[k].T_K), "split",
-                                                    pts[k].split, "x1",
-                                                    pair_json(pts[k].split, pts[k].x)));
-            for (size_t k = 0; k < n_crit; k++)
-                json_array_append_new(cr, json_pack("{s:o,s:o,s:s}", "T_K",
-                                                    pw_cli_json_num(crit[k].T_K), "x1",
-                                                    pw_cli_json_num(crit[k].x1), "kind",
-                                                    crit[k].upper ? "upper" : "lower"));
-            json_object_set_new(o, "scan", sc);
-            json_object_set_new(o, "critical", cr);
-        }
-        rc = pw_cli_print_json(o);
+        rc = pw_cli_print_json(pw_lle_doc(s, a.T, &r, pts, a.n, crit, n_crit));
     } else {
         printf("Liquid-liquid equilibrium of %s (1) / %s (2), %s model, at %.3f K (%.2f C)\n",
                s->comp[0].name, s->comp[1].name, s->model->name, a.T, a.T - 273.15);

@@ -4,7 +4,7 @@
 #include "design_out.h"
 
 #include <math.h>
-#include <pinchwise/design_doc.h>
+#include <pinchwise/commands.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -28,11 +28,6 @@ static void usage(FILE *f)
         "                      file) instead of constant molal overflow; adds the duties\n"
         "  --json              print one JSON object on stdout\n");
 }
-
-typedef struct pw_rate_energy_out {
-    double Q_C, Q_R; /* J per mol feed */
-    size_t n_roots;
-} pw_rate_energy_out;
 
 typedef struct rate_args {
     const char *fit_path, *components;
@@ -123,44 +118,6 @@ static int parse(int argc, char **argv, rate_args *a, pw_error *err)
     return 0;
 }
 
-static json_t *to_json(const rate_args *a, const pw_fit_result *fit, const pw_rate_result *r,
-                       const pw_rate_energy_out *en)
-{
-    json_t *o = json_object();
-    json_object_set_new(o, "xd", pw_cli_json_num(r->xd));
-    json_object_set_new(o, "xb", pw_cli_json_num(r->xb));
-    json_object_set_new(o, "stages", pw_profile_doc(&r->profile));
-    json_object_set_new(
-        o, "balance", json_string(pw_balance_name(a->energy ? PW_BALANCE_ENERGY : PW_BALANCE_CMO)));
-    if (a->energy) {
-        json_object_set_new(o, "condenser_kJ_per_mol_feed", pw_cli_json_num(en->Q_C / 1e3));
-        json_object_set_new(o, "reboiler_kJ_per_mol_feed", pw_cli_json_num(en->Q_R / 1e3));
-        json_object_set_new(o, "steady_states_found", json_integer((json_int_t)en->n_roots));
-    }
-    json_object_set_new(o, "components",
-                        json_pack("[s,s]", fit->sys.comp[0].name, fit->sys.comp[1].name));
-    json_t *spec = json_object();
-    json_object_set_new(spec, "P_kPa", pw_cli_json_num(a->P_Pa / 1e3));
-    json_object_set_new(spec, "stages", json_integer(a->spec.n_stages));
-    json_object_set_new(spec, "feed_stage", json_integer(a->spec.feed_stage));
-    json_object_set_new(spec, "reflux", pw_cli_json_num(a->spec.R));
-    json_object_set_new(spec, "zf", pw_cli_json_num(a->spec.zf));
-    json_object_set_new(spec, "q", pw_cli_json_num(a->spec.q));
-    json_object_set_new(spec, "distillate_per_mol_feed", pw_cli_json_num(a->spec.d_frac));
-    json_object_set_new(o, "spec", spec);
-    json_object_set_new(o, "feed_stage_mismatch", pw_cli_json_num(r->residual));
-    json_object_set_new(o, "stage_convention",
-                        json_string("equilibrium stages counted from the top, the partial reboiler "
-                                    "as the last; total condenser not counted; L and V leave the "
-                                    "stage, moles per mole of feed"));
-    json_object_set_new(o, "caution",
-                        json_string("Screening estimate (constant molal overflow, equilibrium "
-                                    "stages, fitted model). Real trays need an efficiency. Verify "
-                                    "with rigorous simulation and plant data; operate and modify "
-                                    "equipment per local codes under licensed review."));
-    return o;
-}
-
 int pw_cli_rate(int argc, char **argv)
 {
     rate_args a;
@@ -178,21 +135,10 @@ int pw_cli_rate(int argc, char **argv)
     if (pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
     pw_rate_result r;
-    pw_rate_energy_out en = {.Q_C = NAN, .Q_R = NAN};
-    pw_status st;
-    if (a.energy) {
-        pw_heat_data heat;
-        st = pw_heat_data_from_system(&fit.sys, &heat, &err);
-        if (st == PW_OK)
-            st = pw_rate_energy(&fit.sys, &heat, a.P_Pa, &a.spec, &r, &en.Q_C, &en.Q_R, &en.n_roots,
-                                &err);
-    } else {
-        st = pw_rate_cmo(&fit.sys, a.P_Pa, &a.spec, &r, &err);
-    }
+    pw_rate_energy_out en;
+    pw_status st = pw_rate_run(&fit.sys, a.P_Pa, &a.spec, a.energy, a.fit_path, &r, &en, &err);
     if (st != PW_OK) {
-        char msg[PW_ERROR_MSG_MAX];
-        snprintf(msg, sizeof msg, "%s", err.msg);
-        pw_error_set(&err, st, a.fit_path, 0, "%s%s", a.energy ? "--energy: " : "", msg);
+        pw_rate_result_free(&r);
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
@@ -216,7 +162,7 @@ int pw_cli_rate(int argc, char **argv)
         }
     }
     if (a.json) {
-        rc = pw_cli_print_json(to_json(&a, &fit, &r, &en));
+        rc = pw_cli_print_json(pw_rate_doc(&fit.sys, a.P_Pa, &a.spec, a.energy, &r, &en));
     } else {
         printf("given column at %.4g kPa (%s / %s): %d stages, feed on stage %d, R %.4g, "
                "D/F %.4g, zf %.4g, q %.4g\n",

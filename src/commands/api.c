@@ -268,6 +268,15 @@ pw_status pw_api_reflux(const char *fit_path, const char *fit_text, const char *
                         double zf, double q, int uncertainty, long samples, long seed, char **doc,
                         pw_error *err)
 {
+    return pw_api_reflux_ex(fit_path, fit_text, name, components, pressure, xd, xb, zf, q,
+                            uncertainty, samples, seed, 0, doc, err);
+}
+
+pw_status pw_api_reflux_ex(const char *fit_path, const char *fit_text, const char *name,
+                           const char *components, const char *pressure, double xd, double xb,
+                           double zf, double q, int uncertainty, long samples, long seed,
+                           int energy, char **doc, pw_error *err)
+{
     if (!doc)
         return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
     *doc = NULL;
@@ -289,11 +298,23 @@ pw_status pw_api_reflux(const char *fit_path, const char *fit_text, const char *
     double T_top_K, T_bottom_K;
     st = pw_reflux_solve(&fit.sys, P_Pa, &spec, &opt_col, fit_where(fit_path, name), &col,
                          &T_top_K, &T_bottom_K, err);
+    /* --energy: the heat data of the fit file (or of components), as the command line */
+    pw_heat_data heat;
+    pw_energy_result eres;
+    memset(&heat, 0, sizeof heat);
+    memset(&eres, 0, sizeof eres);
+    if (st == PW_OK && energy && (st = pw_heat_data_from_system(&fit.sys, &heat, err)) != PW_OK &&
+        err) {
+        char msg[PW_ERROR_MSG_MAX];
+        snprintf(msg, sizeof msg, "%s", err->msg);
+        pw_error_set(err, st, fit_where(fit_path, name), 0, "--energy: %s", msg);
+    }
     pw_design_table design;
     memset(&design, 0, sizeof design);
-    if (st == PW_OK && (st = pw_reflux_design(&fit.sys, P_Pa, &spec, &opt, &col, NULL, &design,
-                                              NULL)) != PW_OK)
-        pw_error_set(err, st, fit_where(fit_path, name), 0, "design rows: %s", pw_strerror(st));
+    if (st == PW_OK && (st = pw_reflux_design(&fit.sys, P_Pa, &spec, &opt, &col,
+                                              energy ? &heat : NULL, &design, &eres)) != PW_OK)
+        pw_error_set(err, st, fit_where(fit_path, name), 0, "design rows: %s%s%s", pw_strerror(st),
+                     eres.reason[0] ? ": " : "", eres.reason);
     bool unc = false;
     pw_unc_options uo;
     pw_unc_column_ctx uc;
@@ -303,10 +324,13 @@ pw_status pw_api_reflux(const char *fit_path, const char *fit_text, const char *
     if (st == PW_OK && unc) {
         uc = pw_unc_column_ctx_make(P_Pa, &spec);
         uc.opt = opt;
+        if (energy)
+            uc.heat = &heat; /* energy balances in every draw */
         st = pw_reflux_unc_run(&fit, &uc, &uo, fit_where(fit_path, name), &as, err);
     }
     if (st == PW_OK) {
-        json_t *o = pw_reflux_design_doc(&col, &design, NULL, P_Pa, &spec, T_top_K, T_bottom_K);
+        json_t *o = pw_reflux_design_doc(&col, &design, energy ? &eres : NULL, P_Pa, &spec, T_top_K,
+                                         T_bottom_K);
         if (o && unc)
             pw_reflux_unc_doc(o, &as.res, &uo, uc.factor, as.plan_status, &as.plan);
         st = finish(o, doc, err);
@@ -340,6 +364,165 @@ pw_status pw_api_screen(const char *fit_path, const char *fit_text, const char *
         pw_error_set(err, st, fit_where(fit_path, name), 0, "screen failed: %s", pw_strerror(st));
     else
         st = finish(pw_screen_doc(&fit.sys, &r, &opt), doc, err);
+    pw_fit_result_free(&fit);
+    return st;
+}
+
+/* A number argument: finite, and within [lo, hi]. */
+static pw_status ranged(const char *arg, double v, double lo, double hi, pw_error *err)
+{
+    if (isfinite(v) && v >= lo && v <= hi)
+        return PW_OK;
+    return pw_error_set(err, PW_EINVAL, NULL, 0, "%s %g: expected a number from %g to %g", arg, v,
+                        lo, hi);
+}
+
+/* A mole fraction argument in [0, 1]. */
+static pw_status fraction(const char *arg, double v, pw_error *err)
+{
+    if (isfinite(v) && v >= 0.0 && v <= 1.0)
+        return PW_OK;
+    return pw_error_set(err, PW_EINVAL, NULL, 0, "%s %g: a mole fraction must lie in [0, 1]", arg,
+                        v);
+}
+
+/* A whole-number argument from lo to hi. */
+static pw_status whole(const char *arg, long v, long lo, long hi, pw_error *err)
+{
+    if (v >= lo && v <= hi)
+        return PW_OK;
+    return pw_error_set(err, PW_EINVAL, NULL, 0, "%s %ld: expected a whole number from %ld to %ld",
+                        arg, v, lo, hi);
+}
+
+pw_status pw_api_lle(const char *fit_path, const char *fit_text, const char *name,
+                     const char *components, const char *temperature, const char *scan_from,
+                     const char *scan_to, long scan_n, char **doc, pw_error *err)
+{
+    if (!doc)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
+    *doc = NULL;
+    pw_status st = need(temperature, "a temperature", err);
+    double T_K = 0.0, from = 0.0, to = 0.0;
+    if (st == PW_OK)
+        st = quantity(PW_QTY_TEMPERATURE, "temperature", temperature, &T_K, err);
+    bool scan = scan_from || scan_to || scan_n != 0;
+    if (st == PW_OK && scan) { /* as --scan FROM:TO:N */
+        if (!scan_from || !scan_to)
+            st = pw_error_set(err, PW_EINVAL, NULL, 0,
+                              "scan: expected FROM, TO and N, e.g. 20C, 120C, 11");
+        if (st == PW_OK)
+            st = quantity(PW_QTY_TEMPERATURE, "scan FROM", scan_from, &from, err);
+        if (st == PW_OK)
+            st = quantity(PW_QTY_TEMPERATURE, "scan TO", scan_to, &to, err);
+        if (st == PW_OK && (scan_n < 2 || scan_n > 1000 || from == to))
+            st = pw_error_set(err, PW_EINVAL, NULL, 0,
+                              "scan %s:%s:%ld: N must be a whole number from 2 to 1000 and FROM "
+                              "differ from TO",
+                              scan_from, scan_to, scan_n);
+    }
+    if (st != PW_OK)
+        return st;
+    pw_fit_result fit;
+    st = read_fit(fit_path, fit_text, name, components, &fit, err);
+    if (st != PW_OK)
+        return st;
+    const char *where = fit_where(fit_path, name);
+    pw_lle_result r;
+    st = pw_lle_run(&fit.sys, T_K, where, &r, err);
+    pw_lle_scan_point *pts = NULL;
+    pw_lle_critical crit[PW_LLE_MAX_CRITICAL];
+    size_t n_crit = 0, n = scan ? (size_t)scan_n : 0;
+    if (st == PW_OK && scan) {
+        pts = calloc(n, sizeof *pts);
+        st = pts ? pw_lle_scan_run(&fit.sys, from, to, n, where, pts, crit, &n_crit, err)
+                 : pw_error_set(err, PW_ENOMEM, where, 0, "binodal scan failed: %s",
+                                pw_strerror(PW_ENOMEM));
+    }
+    if (st == PW_OK)
+        st = finish(pw_lle_doc(&fit.sys, T_K, &r, pts, n, crit, n_crit), doc, err);
+    free(pts);
+    pw_fit_result_free(&fit);
+    return st;
+}
+
+pw_status pw_api_decanter(const char *fit_path, const char *fit_text, const char *name,
+                          const char *components, const char *pressure, double zf, double x1_rich,
+                          double x1_lean, double q, char **doc, pw_error *err)
+{
+    if (!doc)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
+    *doc = NULL;
+    pw_decanter_spec spec = {.zf = zf, .q = q, .x_rich = x1_rich, .x_lean = x1_lean};
+    pw_status st = need(pressure, "a pressure", err);
+    if (st == PW_OK)
+        st = quantity(PW_QTY_PRESSURE, "pressure", pressure, &spec.P_Pa, err);
+    if (st == PW_OK && !(isfinite(zf) && zf > 0.0 && zf < 1.0))
+        st = pw_error_set(err, PW_EINVAL, NULL, 0, "zf %g: must lie strictly between 0 and 1", zf);
+    if (st == PW_OK)
+        st = fraction("x1_rich", x1_rich, err);
+    if (st == PW_OK)
+        st = fraction("x1_lean", x1_lean, err);
+    if (st == PW_OK)
+        st = ranged("q", q, -10.0, 10.0, err);
+    if (st != PW_OK)
+        return st;
+    pw_fit_result fit;
+    st = read_fit(fit_path, fit_text, name, components, &fit, err);
+    if (st != PW_OK)
+        return st;
+    pw_column_options opt = pw_column_default_options();
+    pw_decanter_result r;
+    st = pw_decanter_run(&fit.sys, &spec, &opt, fit_where(fit_path, name), &r, err);
+    if (st == PW_OK)
+        st = finish(pw_decanter_doc(&r, &spec), doc, err);
+    pw_fit_result_free(&fit);
+    return st;
+}
+
+pw_status pw_api_rate(const char *fit_path, const char *fit_text, const char *name,
+                      const char *components, const char *pressure, long stages, long feed_stage,
+                      double reflux, double zf, double distillate, double q, int energy, char **doc,
+                      pw_error *err)
+{
+    if (!doc)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
+    *doc = NULL;
+    double P_Pa = 0.0;
+    pw_status st = need(pressure, "a pressure", err);
+    if (st == PW_OK)
+        st = quantity(PW_QTY_PRESSURE, "pressure", pressure, &P_Pa, err);
+    if (st == PW_OK)
+        st = whole("stages", stages, 1, 100000, err);
+    if (st == PW_OK)
+        st = whole("feed_stage", feed_stage, 1, 100000, err);
+    if (st == PW_OK && !isfinite(reflux))
+        st = pw_error_set(err, PW_EINVAL, NULL, 0, "reflux %g: not a finite number", reflux);
+    if (st == PW_OK && !isfinite(distillate))
+        st =
+            pw_error_set(err, PW_EINVAL, NULL, 0, "distillate %g: not a finite number", distillate);
+    if (st == PW_OK)
+        st = fraction("zf", zf, err);
+    if (st == PW_OK)
+        st = ranged("q", q, -10.0, 10.0, err);
+    if (st != PW_OK)
+        return st;
+    pw_fit_result fit;
+    st = read_fit(fit_path, fit_text, name, components, &fit, err);
+    if (st != PW_OK)
+        return st;
+    pw_rate_spec spec = {.n_stages = (int)stages,
+                         .feed_stage = (int)feed_stage,
+                         .R = reflux,
+                         .zf = zf,
+                         .q = q,
+                         .d_frac = distillate};
+    pw_rate_result r;
+    pw_rate_energy_out en;
+    st = pw_rate_run(&fit.sys, P_Pa, &spec, energy != 0, fit_where(fit_path, name), &r, &en, err);
+    if (st == PW_OK)
+        st = finish(pw_rate_doc(&fit.sys, P_Pa, &spec, energy != 0, &r, &en), doc, err);
+    pw_rate_result_free(&r);
     pw_fit_result_free(&fit);
     return st;
 }

@@ -166,6 +166,198 @@ class EqualToCommandLine(unittest.TestCase):
                              "--zf", "0.1", "--components", comp, "--json"))
 
 
+def same_as_cli(test, py_call, *args):
+    """py_call() equals `pinchwise ARGS --json`; where the program refuses (non-zero exit), the
+    module raises PinchwiseError with the program's message."""
+    p = subprocess.run([CLI, *args, "--json"], capture_output=True, text=True)
+    if p.returncode == 0:
+        test.assertEqual(py_call(), json.loads(p.stdout))
+        return json.loads(p.stdout)
+    with test.assertRaises(pinchwise.PinchwiseError) as cm:
+        py_call()
+    test.assertIn(str(cm.exception), p.stderr)
+    return None
+
+
+class NewCommandsEqualToCommandLine(unittest.TestCase):
+    """lle, decanter, rate and reflux --energy: the same keys and values as the program's --json
+    (or the same refusal), on the shipped data fitted with every model."""
+
+    BW = os.path.join(SRC, "datasets", "butanol_water_1atm.csv")
+    DEMO = os.path.join(SRC, "datasets", "demo_acetone_water.csv")  # invented data (the demo)
+    MW = os.path.join(SRC, "datasets", "methanol_water_1atm.csv")
+
+    @classmethod
+    def setUpClass(cls):
+        cls.tmp = tempfile.TemporaryDirectory()
+        cls.fits = {}
+        for data in DATASETS:
+            for model in MODELS:
+                out = os.path.join(cls.tmp.name, "%s.%s.json" % (os.path.basename(data)[:-4], model))
+                cli("fit", data, "--model", model, "--out", out, "--json")
+                cls.fits[data, model] = out
+
+    @classmethod
+    def tearDownClass(cls):
+        cls.tmp.cleanup()
+
+    def test_lle_butanol_water(self):
+        """1-butanol/water (NRTL) splits at 25 C and at 90 C, as the program says."""
+        out = self.fits[self.BW, "nrtl"]
+        f = pinchwise.fit(self.BW, "nrtl")
+        for T in ("25C", "90C"):
+            with self.subTest(T=T):
+                want = cli("lle", out, "--temperature", T, "--json")
+                self.assertTrue(want["split"])
+                self.assertEqual(pinchwise.lle(out, T), want)
+                self.assertEqual(pinchwise.lle(f, T), want)
+        want = cli("lle", out, "--temperature", "25C", "--scan", "20C:120C:6", "--json")
+        self.assertEqual(len(want["scan"]), 6)
+        self.assertEqual(pinchwise.lle(out, "25C", scan="20C:120C:6"), want)
+        self.assertEqual(pinchwise.lle(f, "25C", scan=("20C", "120C", 6)), want)
+
+    def test_lle_every_dataset(self):
+        for (data, model), out in self.fits.items():
+            with self.subTest(data=os.path.basename(data), model=model):
+                same_as_cli(self, lambda: pinchwise.lle(out, "25C"), "lle", out,
+                            "--temperature", "25C")
+                same_as_cli(self, lambda: pinchwise.lle(out, "300K", scan="280K:380K:5"), "lle",
+                            out, "--temperature", "300K", "--scan", "280K:380K:5")
+
+    def test_decanter(self):
+        """The specifications of the command-line tests (tests/cli/test_hetero.sh) and the one of
+        the module's documentation, feasible and not."""
+        out = self.fits[self.BW, "nrtl"]
+        f = pinchwise.fit(self.BW, "nrtl")
+        seen = set()
+        for zf, rich, lean, q in [(0.3, 0.99, 0.001, 1.0), (0.2, 0.995, 0.001, 1.0),
+                                  (0.2, 0.995, 0.001, 0.5), (0.2, 0.3, 0.001, 1.0)]:
+            with self.subTest(zf=zf, rich=rich, lean=lean, q=q):
+                want = cli("decanter", out, "--pressure", "1atm", "--zf", str(zf), "--x1-rich",
+                           str(rich), "--x1-lean", str(lean), "--q", str(q), "--json")
+                seen.add(want["feasible"])
+                self.assertEqual(pinchwise.decanter(out, "1atm", zf, rich, lean, q=q), want)
+                self.assertEqual(pinchwise.decanter(f, "101.325kPa", zf, rich, lean, q=q), want)
+        self.assertEqual(seen, {True, False})  # both shapes of the document
+
+    def test_decanter_every_fit(self):
+        for (data, model), out in self.fits.items():
+            with self.subTest(data=os.path.basename(data), model=model):
+                same_as_cli(self, lambda: pinchwise.decanter(out, "1atm", 0.3, 0.99, 0.001),
+                            "decanter", out, "--pressure", "1atm", "--zf", "0.3", "--x1-rich",
+                            "0.99", "--x1-lean", "0.001")
+
+    def test_rate(self):
+        """The demo column of tests/cli/test_rate.sh, both balances; methanol/water."""
+        demo = self.fits[self.DEMO, "nrtl"]
+        args = ["--pressure", "101.325kPa", "--stages", "12", "--feed-stage", "9", "--reflux",
+                "0.8", "--zf", "0.1", "--distillate", "0.09"]
+        want = cli("rate", demo, *args, "--json")
+        self.assertEqual(want["balance"], "constant-molal-overflow")
+        self.assertEqual(pinchwise.rate(demo, "101.325kPa", 12, 9, 0.8, 0.1, 0.09), want)
+        want = cli("rate", demo, *args, "--energy", "--json")
+        self.assertEqual(want["balance"], "energy")
+        self.assertIn("reboiler_kJ_per_mol_feed", want)
+        self.assertEqual(pinchwise.rate(demo, "101.325kPa", 12, 9, 0.8, 0.1, 0.09, energy=True),
+                         want)
+        f = pinchwise.fit(self.MW, "nrtl")
+        for energy in (False, True):
+            with self.subTest(energy=energy):
+                want = cli("rate", self.fits[self.MW, "nrtl"], "--pressure", "1atm", "--stages",
+                           "15", "--feed-stage", "10", "--reflux", "1.5", "--zf", "0.4",
+                           "--distillate", "0.38", "--q", "0.8",
+                           *(["--energy"] if energy else []), "--json")
+                self.assertEqual(pinchwise.rate(f, "1atm", 15, 10, 1.5, 0.4, 0.38, q=0.8,
+                                                energy=energy), want)
+
+    def test_rate_every_fit(self):
+        for (data, model), out in self.fits.items():
+            for energy in ([], ["--energy"]):
+                with self.subTest(data=os.path.basename(data), model=model, energy=energy):
+                    same_as_cli(self, lambda: pinchwise.rate(out, "1atm", 10, 5, 2.0, 0.5, 0.5,
+                                                             energy=bool(energy)),
+                                "rate", out, "--pressure", "1atm", "--stages", "10",
+                                "--feed-stage", "5", "--reflux", "2", "--zf", "0.5",
+                                "--distillate", "0.5", *energy)
+
+    def test_reflux_energy(self):
+        for (data, model), out in self.fits.items():
+            for xd, xb, zf, q in SPLITS:
+                with self.subTest(data=os.path.basename(data), model=model, split=(xd, xb, zf, q)):
+                    got = same_as_cli(self, lambda: pinchwise.reflux(out, "1atm", xd, xb, zf, q=q,
+                                                                     energy=True),
+                                      "reflux", out, "--pressure", "1atm", "--xd", str(xd),
+                                      "--xb", str(xb), "--zf", str(zf), "--q", str(q), "--energy")
+                    if got is not None:
+                        self.assertEqual(got["balance"], "energy")
+        # without energy the balance is constant molal overflow, as before
+        self.assertEqual(pinchwise.reflux(self.fits[self.DEMO, "nrtl"], "1atm", 0.95, 0.02,
+                                          0.1)["balance"], "constant-molal-overflow")
+
+    def test_reflux_energy_uncertainty(self):
+        out = self.fits[self.DEMO, "nrtl"]
+        want = cli("reflux", out, "--pressure", "1atm", "--xd", "0.95", "--xb", "0.02", "--zf",
+                   "0.1", "--energy", "--uncertainty", "--samples", "20", "--json")
+        got = pinchwise.reflux(pinchwise.fit(self.DEMO, "nrtl"), "1atm", 0.95, 0.02, 0.1,
+                               energy=True, uncertainty=True, samples=20)
+        self.assertEqual(got, want)
+        self.assertIn("r_min_ci95", got)
+
+    def test_refusals(self):
+        out = self.fits[self.BW, "nrtl"]
+        demo = self.fits[self.DEMO, "nrtl"]
+        for call, words in [
+            (lambda: pinchwise.lle(out, "25"), "has no unit"),
+            (lambda: pinchwise.lle(out, "25C", scan="20C:120C"), "FROM:TO:N"),
+            (lambda: pinchwise.lle(out, "25C", scan="20C:120C:1"), "from 2 to 1000"),
+            (lambda: pinchwise.lle(out, "25C", scan="20C:20C:5"), "FROM differ from TO"),
+            (lambda: pinchwise.lle(out, "25C", scan=("20C", "120C", 2.5)), "whole number"),
+            (lambda: pinchwise.decanter(out, "1atm", 0.0, 0.99, 0.001), "strictly between"),
+            (lambda: pinchwise.decanter(out, "1atm", 0.3, 1.5, 0.001), "mole fraction"),
+            (lambda: pinchwise.decanter(out, "1", 0.3, 0.99, 0.001), "has no unit"),
+            (lambda: pinchwise.rate(demo, "1atm", 2.5, 1, 1, 0.1, 0.05), "whole number"),
+            (lambda: pinchwise.rate(demo, "1atm", 0, 1, 1, 0.1, 0.05), "from 1 to 100000"),
+            (lambda: pinchwise.rate(demo, "1atm", 10, 11, 1, 0.1, 0.05), "feed-stage 11"),
+            (lambda: pinchwise.rate(demo, "1atm", 10, 5, 1, 0.1, 1.2), "D/F"),
+            (lambda: pinchwise.rate(demo, "1atm", 10, 5, 1, 0.1, 0.05, q=20), "q 20"),
+            (lambda: pinchwise.rate({"model": "nrtl"}, "1atm", 10, 5, 1, 0.1, 0.05), "fit must be"),
+        ]:
+            with self.subTest(words=words):
+                with self.assertRaises(pinchwise.PinchwiseError) as cm:
+                    call()
+                self.assertIn(words, str(cm.exception))
+
+    def test_energy_needs_heat_data(self):
+        """--energy with a component file without heats: refused, naming the missing column, in
+        the program's words."""
+        demo = self.fits[self.DEMO, "nrtl"]
+        noheat = os.path.join(self.tmp.name, "noheat.csv")
+        with open(noheat, "w", encoding="utf-8") as f:
+            # Antoine rows as the shipped library (SVNA 7th ed. Table B.2, from memory), no heats
+            f.write("name,A,B,C,log,P_unit,T_unit,T_min,T_max,source,equation\n"
+                    "water,16.3872,3885.70,230.170,ln,kPa,C,0,200,\"SVNA 7th ed. Table B.2 (from "
+                    "memory); IAPWS-IF97\",iapws-if97\n"
+                    "acetone,14.3145,2756.22,228.060,ln,kPa,C,-26,77,\"SVNA 7th ed. Table B.2 "
+                    "(from memory)\",antoine\n")
+        for call, args in [
+            (lambda: pinchwise.rate(demo, "1atm", 10, 5, 1, 0.1, 0.05, energy=True,
+                                    components=noheat),
+             ["rate", demo, "--pressure", "1atm", "--stages", "10", "--feed-stage", "5",
+              "--reflux", "1", "--zf", "0.1", "--distillate", "0.05"]),
+            (lambda: pinchwise.reflux(demo, "1atm", 0.95, 0.02, 0.1, energy=True,
+                                      components=noheat),
+             ["reflux", demo, "--pressure", "1atm", "--xd", "0.95", "--xb", "0.02", "--zf",
+              "0.1"]),
+        ]:
+            with self.subTest(command=args[0]):
+                with self.assertRaises(pinchwise.PinchwiseError) as cm:
+                    call()
+                self.assertIn("dHvap_kJ_mol", str(cm.exception))
+                code, err = cli_error(*args, "--components", noheat, "--energy")
+                self.assertNotEqual(code, 0)
+                self.assertIn(str(cm.exception), err)
+
+
 class Errors(unittest.TestCase):
     """Failures are PinchwiseError with the library's message: file, line, what is wrong."""
 

@@ -80,7 +80,7 @@ class Schemas(unittest.TestCase):
 
     def test_every_schema_is_a_schema(self):
         for name in ["fit-file", "fit", "fit-all", "fit-batch", "check", "azeotrope", "reflux",
-                     "screen", "report"]:
+                     "screen", "report", "lle", "decanter", "rate"]:
             with self.subTest(schema=name):
                 self.assertIn(name, self.schemas)
                 jsonschema.Draft202012Validator.check_schema(self.schemas[name])
@@ -146,6 +146,83 @@ class Schemas(unittest.TestCase):
         out = self.fits[0][1]
         self.valid("report", run("report", out, "--out", os.path.join(self.tmp.name, "r.html"),
                                  "--json"))
+
+    def test_reflux_energy(self):
+        seen = set()
+        for _, out, _ in self.fits:
+            doc = run("reflux", out, "--pressure", "1atm", "--xd", "0.8", "--xb", "0.05", "--zf",
+                      "0.3", "--energy", "--json")
+            seen.add(doc["feasible"])
+            with self.subTest(fit=os.path.basename(out)):
+                self.assertEqual(doc["balance"], "energy")
+                self.valid("reflux", doc)
+
+    def test_lle(self):
+        """Every fit at 25 C and over a scan; 1-butanol/water (NRTL) splits, Wilson never does."""
+        seen = set()
+        for _, out, _ in self.fits:
+            with self.subTest(fit=os.path.basename(out)):
+                doc = run("lle", out, "--temperature", "25C", "--json")
+                seen.add(doc["split"])
+                self.valid("lle", doc)
+                self.valid("lle", run("lle", out, "--temperature", "90C", "--scan",
+                                      "20C:120C:6", "--json"))
+        self.assertEqual(seen, {True, False})
+
+    def test_decanter(self):
+        seen = set()
+        for _, out, _ in self.fits:
+            for rich in ("0.99", "0.3"):
+                doc = run("decanter", out, "--pressure", "1atm", "--zf", "0.3", "--x1-rich", rich,
+                          "--x1-lean", "0.001", "--json")
+                seen.add(doc["feasible"])
+                with self.subTest(fit=os.path.basename(out), rich=rich):
+                    self.valid("decanter", doc)
+        self.assertEqual(seen, {True, False})
+
+    def test_rate(self):
+        for _, out, _ in self.fits:
+            for energy in ([], ["--energy"]):
+                with self.subTest(fit=os.path.basename(out), energy=energy):
+                    doc = run("rate", out, "--pressure", "1atm", "--stages", "10", "--feed-stage",
+                              "5", "--reflux", "2", "--zf", "0.5", "--distillate", "0.5",
+                              *energy, "--json")
+                    self.valid("rate", doc)
+
+    def test_new_schemas_reject_broken_documents(self):
+        bw = next(o for d, o, _ in self.fits
+                  if d.endswith("butanol_water_1atm.csv") and o.endswith(".nrtl.json"))
+        lle = run("lle", bw, "--temperature", "25C", "--scan", "20C:120C:3", "--json")
+        self.assertTrue(lle["split"])
+        broken = copy.deepcopy(lle)
+        broken["x1"] = None  # a split without its layers
+        self.invalid("lle", broken)
+        broken = copy.deepcopy(lle)
+        broken["x1"] = [0.1, 1.2]
+        self.invalid("lle", broken)
+        broken = copy.deepcopy(lle)
+        del broken["critical"]
+        self.invalid("lle", broken)
+        dec = run("decanter", bw, "--pressure", "1atm", "--zf", "0.3", "--x1-rich", "0.99",
+                  "--x1-lean", "0.001", "--json")
+        self.assertTrue(dec["feasible"])
+        broken = copy.deepcopy(dec)
+        broken["columns"] = broken["columns"][:1]
+        self.invalid("decanter", broken)
+        broken = copy.deepcopy(dec)
+        broken["feasible"] = False  # infeasible with columns and no reason
+        self.invalid("decanter", broken)
+        broken = copy.deepcopy(dec)
+        broken["columns"][0]["pinch"]["kind"] = "somewhere"
+        self.invalid("decanter", broken)
+        rate = run("rate", bw, "--pressure", "1atm", "--stages", "10", "--feed-stage", "5",
+                   "--reflux", "2", "--zf", "0.5", "--distillate", "0.5", "--json")
+        broken = copy.deepcopy(rate)
+        broken["balance"] = "something-else"
+        self.invalid("rate", broken)
+        broken = copy.deepcopy(rate)
+        del broken["stages"]
+        self.invalid("rate", broken)
 
     def test_schemas_reject_broken_documents(self):
         # the demo data: the split below is feasible there

@@ -1,7 +1,8 @@
 /* The flat API of pinchwise/api.h (identities and refusals): a fit's text and the fit file it
  * writes give the same documents; azeotrope without a condition uses the data's own; every
- * failure leaves *doc NULL and names file, line and problem. Datasets: the invented demo and
- * the published methanol/water set in datasets/. */
+ * failure leaves *doc NULL and names file, line and problem; lle, decanter, rate and reflux with
+ * energy balances likewise. Datasets: the invented demo and the published methanol/water and
+ * 1-butanol/water sets in datasets/. */
 #include "pw_test.h"
 
 #include <math.h>
@@ -124,6 +125,123 @@ static void test_refusals(void **state)
     pw_api_free(NULL);
 }
 
+/* lle, decanter, rate and reflux with energy balances: the same document from a fit's text and
+ * from the fit file written; refusals leave *doc NULL. 1-butanol/water is the published set
+ * of datasets/; its NRTL fit splits at 25 C (the shipped data are two-liquid, datasets/README). */
+static void test_new_commands(void **state)
+{
+    (void)state;
+    pw_error err;
+    char bw[1024], out[1100], *doc = NULL, *text = NULL, *a = NULL, *b = NULL;
+    pw_test_path(bw, sizeof bw, "datasets/butanol_water_1atm.csv");
+    snprintf(out, sizeof out, "%s/bw.json", tmpdir);
+    assert_int_equal(pw_api_fit(bw, "nrtl", NULL, out, 1, &doc, &text, &err), PW_OK);
+    pw_api_free(doc);
+    assert_int_equal(pw_api_lle(out, NULL, NULL, NULL, "25C", NULL, NULL, 0, &a, &err), PW_OK);
+    assert_int_equal(pw_api_lle(NULL, text, "bw", NULL, "298.15K", NULL, NULL, 0, &b, &err), PW_OK);
+    assert_string_equal(a, b);
+    assert_non_null(strstr(a, "\"split\": true"));
+    assert_null(strstr(a, "\"scan\""));
+    pw_api_free(a);
+    pw_api_free(b);
+    assert_int_equal(pw_api_lle(NULL, text, "bw", NULL, "25C", "20C", "120C", 6, &a, &err), PW_OK);
+    assert_non_null(strstr(a, "\"scan\": ["));
+    assert_non_null(strstr(a, "\"critical\": ["));
+    pw_api_free(a);
+    assert_int_equal(
+        pw_api_decanter(out, NULL, NULL, NULL, "1atm", 0.3, 0.99, 0.001, 1.0, &a, &err), PW_OK);
+    assert_int_equal(
+        pw_api_decanter(NULL, text, "bw", NULL, "101.325kPa", 0.3, 0.99, 0.001, 1.0, &b, &err),
+        PW_OK);
+    assert_string_equal(a, b);
+    assert_non_null(strstr(a, "\"feasible\": true"));
+    pw_api_free(a);
+    pw_api_free(b);
+    /* an impossible specification is a document, not an error */
+    assert_int_equal(
+        pw_api_decanter(NULL, text, "bw", NULL, "1atm", 0.3, 0.3, 0.001, 1.0, &a, &err), PW_OK);
+    assert_non_null(strstr(a, "\"feasible\": false"));
+    pw_api_free(a);
+    unlink(out);
+
+    /* the invented demo: rate both balances, reflux with and without energy balances */
+    assert_int_equal(pw_api_fit(demo, "nrtl", NULL, NULL, 0, &doc, &b, &err), PW_OK);
+    pw_api_free(doc);
+    pw_api_free(text);
+    text = b;
+    assert_int_equal(
+        pw_api_rate(NULL, text, "demo", NULL, "1atm", 12, 9, 0.8, 0.1, 0.09, 1.0, 0, &a, &err),
+        PW_OK);
+    assert_non_null(strstr(a, "\"balance\": \"constant-molal-overflow\""));
+    assert_null(strstr(a, "reboiler_kJ_per_mol_feed"));
+    pw_api_free(a);
+    assert_int_equal(
+        pw_api_rate(NULL, text, "demo", NULL, "1atm", 12, 9, 0.8, 0.1, 0.09, 1.0, 1, &a, &err),
+        PW_OK);
+    assert_non_null(strstr(a, "\"balance\": \"energy\""));
+    assert_non_null(strstr(a, "\"reboiler_kJ_per_mol_feed\": "));
+    pw_api_free(a);
+    /* pw_api_reflux is pw_api_reflux_ex without energy balances */
+    assert_int_equal(
+        pw_api_reflux(NULL, text, "demo", NULL, "1atm", 0.95, 0.02, 0.10, 1.0, 0, -1, -1, &a, &err),
+        PW_OK);
+    assert_int_equal(pw_api_reflux_ex(NULL, text, "demo", NULL, "1atm", 0.95, 0.02, 0.10, 1.0, 0,
+                                      -1, -1, 0, &b, &err),
+                     PW_OK);
+    assert_string_equal(a, b);
+    pw_api_free(a);
+    pw_api_free(b);
+    assert_int_equal(pw_api_reflux_ex(NULL, text, "demo", NULL, "1atm", 0.95, 0.02, 0.10, 1.0, 0,
+                                      -1, -1, 1, &a, &err),
+                     PW_OK);
+    assert_non_null(strstr(a, "\"balance\": \"energy\""));
+    assert_non_null(strstr(a, "\"condenser_kJ_per_mol_feed\": "));
+    pw_api_free(a);
+
+    /* refusals: *doc NULL, the argument named */
+    doc = (char *)"untouched";
+    assert_int_equal(pw_api_lle(NULL, text, "demo", NULL, "25", NULL, NULL, 0, &doc, &err),
+                     PW_EINVAL);
+    assert_null(doc);
+    assert_non_null(strstr(err.msg, "temperature 25"));
+    doc = (char *)"untouched";
+    assert_int_equal(pw_api_lle(NULL, text, "demo", NULL, "25C", "20C", NULL, 5, &doc, &err),
+                     PW_EINVAL);
+    assert_null(doc);
+    assert_int_equal(pw_api_lle(NULL, text, "demo", NULL, "25C", "20C", "30C", 1, &doc, &err),
+                     PW_EINVAL);
+    assert_non_null(strstr(err.msg, "from 2 to 1000"));
+    doc = (char *)"untouched";
+    assert_int_equal(
+        pw_api_decanter(NULL, text, "demo", NULL, "1atm", 1.0, 0.99, 0.001, 1.0, &doc, &err),
+        PW_EINVAL);
+    assert_null(doc);
+    assert_non_null(strstr(err.msg, "zf 1"));
+    assert_int_equal(
+        pw_api_decanter(NULL, text, "demo", NULL, "1atm", 0.3, 0.99, NAN, 1.0, &doc, &err),
+        PW_EINVAL);
+    assert_non_null(strstr(err.msg, "x1_lean"));
+    doc = (char *)"untouched";
+    assert_int_equal(
+        pw_api_rate(NULL, text, "demo", NULL, "1atm", 0, 1, 1.0, 0.1, 0.05, 1.0, 0, &doc, &err),
+        PW_EINVAL);
+    assert_null(doc);
+    assert_non_null(strstr(err.msg, "stages 0"));
+    assert_int_equal(
+        pw_api_rate(NULL, text, "demo", NULL, "1atm", 10, 11, 1.0, 0.1, 0.05, 1.0, 0, &doc, &err),
+        PW_EINVAL);
+    assert_null(doc);
+    assert_string_equal(err.file, "demo");
+    assert_int_equal(
+        pw_api_rate(NULL, text, "demo", NULL, "1atm", 10, 5, 1.0, 0.1, 0.05, 11.0, 0, &doc, &err),
+        PW_EINVAL);
+    assert_non_null(strstr(err.msg, "q 11"));
+    assert_int_equal(
+        pw_api_rate(NULL, text, "demo", NULL, "1atm", 10, 5, 1.0, 0.1, 0.05, 1.0, 0, NULL, &err),
+        PW_EINVAL);
+    pw_api_free(text);
+}
+
 int main(void)
 {
     pw_test_init();
@@ -131,6 +249,7 @@ int main(void)
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_text_and_file_agree),
         cmocka_unit_test(test_refusals),
+        cmocka_unit_test(test_new_commands),
     };
     return cmocka_run_group_tests(tests, setup, teardown);
 }
