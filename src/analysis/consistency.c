@@ -123,6 +123,10 @@ pw_status pw_consistency_run(const pw_dataset *ds, const pw_component *c1, const
 {
     if (!ds || !c1 || !c2 || !out)
         return pw_error_set(err, PW_EINVAL, NULL, 0, "missing argument to the consistency check");
+    if (ds->mass_x || ds->mass_y)
+        return pw_error_set(err, PW_EINVAL, ds->path, ds->composition_line,
+                            "the dataset's compositions are mass fractions (convert them with "
+                            "pw_dataset_to_mole first)");
     memset(out, 0, sizeof *out);
     pw_consistency_options o = opt ? *opt : pw_consistency_default_options();
     pw_status st = check_options(&o, err);

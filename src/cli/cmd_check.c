@@ -3,6 +3,8 @@
  * one JSON object. Exit 0 when the check ran, whatever the verdict. */
 #include "cli.h"
 
+#include <pinchwise/composition.h>
+
 #include <math.h>
 #include <pinchwise/consistency.h>
 #include <pinchwise/dataset.h>
@@ -270,6 +272,8 @@ int pw_cli_check(int argc, char **argv)
     pw_status st = find_component(&lib, &ds, 0, &c[0], &err);
     if (st == PW_OK)
         st = find_component(&lib, &ds, 1, &c[1], &err);
+    if (st == PW_OK)
+        st = pw_dataset_to_mole(&ds, c[0], c[1], &err); /* w1, wy1 columns */
     pw_consistency_result r;
     memset(&r, 0, sizeof r);
     pw_consistency_options o = pw_consistency_default_options();

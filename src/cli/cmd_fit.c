@@ -1,5 +1,6 @@
 /* pinchwise fit: one dataset (one model or all), or a folder of datasets (batch). */
 #include "cli.h"
+#include "cli_units.h"
 #include "fit_batch.h"
 #include "fit_common.h"
 
@@ -26,7 +27,8 @@ static void usage(FILE *f)
             "  --starts N            candidate starts screened (default 32)\n"
             "  --seed N              seed of the start points (default 1)\n"
             "  --sigma-T DT          temperature uncertainty, e.g. 0.05K (default: file or 0.1 K)\n"
-            "  --sigma-P PCT         pressure uncertainty in percent, e.g. 0.2 (default: file or 0.1)\n"
+            "  --sigma-P DP          pressure uncertainty, 0.2%% or 0.05kPa, as in the file's\n"
+            "                        sigma_P (a bare number is percent; default: file or 0.1%%)\n"
             "  --sigma-y DY          vapor mole fraction uncertainty (default: file or 0.004)\n"
             "  --exclude LINES       file line numbers to leave out, e.g. 12,15-17\n"
             "  --exclude-reason TEXT why they are left out (recorded in the fit file)\n"
@@ -62,27 +64,6 @@ static int parse_lines(const char *text, pw_fit_options *o, pw_error *err)
             return pw_error_set(err, PW_EINVAL, NULL, 0,
                                 "--exclude %s: expected line numbers such as 12,15-17", text);
     }
-    return PW_OK;
-}
-
-/* A temperature difference with its unit (K and C have the same size, F is 5/9 K): "0.05K". */
-static pw_status temperature_difference(const char *opt, const char *text, double *K, pw_error *err)
-{
-    char *end;
-    double v = strtod(text, &end);
-    double scale = 0.0;
-    if (end != text && isfinite(v) && v > 0.0) {
-        if (!strcmp(end, "K") || !strcmp(end, "C"))
-            scale = 1.0;
-        else if (!strcmp(end, "F"))
-            scale = 5.0 / 9.0;
-    }
-    if (scale == 0.0)
-        return pw_error_set(err, PW_EINVAL, NULL, 0,
-                            "%s %s: expected a positive temperature difference with its unit "
-                            "(K, C, F), e.g. 0.05K",
-                            opt, text);
-    *K = v * scale;
     return PW_OK;
 }
 
@@ -178,8 +159,9 @@ int pw_cli_fit(int argc, char **argv)
                 snprintf(co.fit.exclude_reason, sizeof co.fit.exclude_reason, "%s", v);
             else if (!strcmp(opt, "--exclude"))
                 st = parse_lines(v, &co.fit, &err);
-            else if (!strcmp(opt, "--sigma-T")) {
-                st = temperature_difference(opt, v, &co.fit.sigma_T_K, &err);
+            else if (!strcmp(opt, "--sigma-T") || !strcmp(opt, "--sigma-P")) {
+                st = pw_cli_uncertainty_opt(opt, v, &co.fit.sigma_T_K, &co.fit.sigma_P_rel,
+                                            &co.fit.sigma_P_abs_Pa, &err);
             } else {
                 st = pw_cli_number(opt, v, &d, &err);
                 if (st == PW_OK && !(d > 0.0))
@@ -191,8 +173,6 @@ int pw_cli_fit(int argc, char **argv)
                         co.fit.n_starts = (size_t)d;
                     else if (!strcmp(opt, "--seed"))
                         co.fit.seed = (unsigned long)d;
-                    else if (!strcmp(opt, "--sigma-P"))
-                        co.fit.sigma_P_rel = d / 100.0;
                     else if (!strcmp(opt, "--sigma-y"))
                         co.fit.sigma_y = d;
                 }

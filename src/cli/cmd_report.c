@@ -41,6 +41,7 @@ typedef struct report_args {
     bool have_P, have_xd, have_xb, have_zf;
     double P_Pa, factor;
     pw_column_spec spec;
+    pw_basis basis[3];    /* of xd, xb, zf as given */
     pw_azeo_uncert unc;   /* --uncertainty, --samples, --seed (parsed as the azeotrope command) */
     const char *compare[8]; /* --compare FIT.json (repeatable): other models of the same data */
     size_t n_compare;
@@ -177,12 +178,7 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
                      "the column section needs all of --pressure, --xd, --xb and --zf");
         return PW_EXIT_USAGE;
     }
-    if (n_col == 4 && !(a->spec.xb < a->spec.zf && a->spec.zf < a->spec.xd)) {
-        pw_error_set(err, PW_EINVAL, NULL, 0,
-                     "the targets must satisfy xb < zf < xd (got xb %g, zf %g, xd %g)", a->spec.xb,
-                     a->spec.zf, a->spec.xd);
-        return PW_EXIT_USAGE;
-    }
+    memcpy(a->basis, tg.basis, sizeof a->basis);
     if (a->factor != 0.0 && n_col == 0) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--operating-factor needs the column options");
         return PW_EXIT_USAGE;
@@ -230,6 +226,21 @@ int pw_cli_report(int argc, char **argv)
         return pw_cli_fail("report", &err);
     if (!fit.converged)
         pw_cli_warnf("report", "%s: the fit did not converge; the report says so on every page", a.fit);
+    if (a.have_P) {
+        /* targets by mass to mole fractions; the feed between the products, either direction */
+        st = pw_cli_targets_to_mole(&a.spec.xd, &a.spec.xb, &a.spec.zf, a.basis, &fit.sys, &err);
+        const pw_column_spec *s = &a.spec;
+        if (st == PW_OK && !((s->xb < s->zf && s->zf < s->xd) || (s->xd < s->zf && s->zf < s->xb)))
+            st = pw_error_set(&err, PW_EINVAL, NULL, 0,
+                              "the targets must satisfy xb < zf < xd (component 1 goes overhead) "
+                              "or xd < zf < xb (component 1 leaves with the bottoms); got xb %g, "
+                              "zf %g, xd %g as mole fractions of component 1",
+                              s->xb, s->zf, s->xd);
+        if (st != PW_OK) {
+            pw_fit_result_free(&fit);
+            return pw_cli_fail("report", &err);
+        }
+    }
 
     pw_report_input in = pw_report_default_input();
     in.fit = &fit;

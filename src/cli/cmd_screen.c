@@ -1,6 +1,7 @@
 /* pinchwise screen: quick feasibility verdict for a split by simple distillation. */
 #include "analysis_common.h"
 #include "cli.h"
+#include "cli_units.h"
 #include "reflux_uncert.h"
 
 #include <math.h>
@@ -32,6 +33,7 @@ typedef struct args {
     const char *fit_path;
     double P_Pa, xd, xb, zf;
     bool have_P, have_xd, have_xb, json;
+    pw_basis basis[3]; /* of xd, xb, zf as given */
     bool uncertainty;
     const char *components;
     const char *extra[4]; /* --samples N, --seed N for the uncertainty extension */
@@ -114,13 +116,13 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
                     return PW_EXIT_USAGE;
                 a->have_P = true;
             } else if (!strcmp(opt, "--xd")) {
-                rc = pw_cli_fraction(opt, v, &a->xd, err);
+                rc = pw_cli_composition(opt, v, &a->xd, &a->basis[0], err);
                 a->have_xd = true;
             } else if (!strcmp(opt, "--xb")) {
-                rc = pw_cli_fraction(opt, v, &a->xb, err);
+                rc = pw_cli_composition(opt, v, &a->xb, &a->basis[1], err);
                 a->have_xb = true;
             } else if (!strcmp(opt, "--zf")) {
-                rc = pw_cli_fraction(opt, v, &a->zf, err);
+                rc = pw_cli_composition(opt, v, &a->zf, &a->basis[2], err);
             } else {
                 rc = swing_range(v, a, err);
             }
@@ -138,9 +140,19 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
         pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file and --pressure, --xd, --xb are required");
         return PW_EXIT_USAGE;
     }
-    if (!(a->xb < a->xd) || (!isnan(a->zf) && !(a->xb < a->zf && a->zf < a->xd))) {
+    return 0;
+}
+
+/* After the conversion to mole fractions: the feed between the products, in either direction. */
+static int check_targets(const args *a, pw_error *err)
+{
+    double lo = fmin(a->xb, a->xd), hi = fmax(a->xb, a->xd);
+    if (!(lo < hi) || (!isnan(a->zf) && !(lo < a->zf && a->zf < hi))) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
-                     "the targets must satisfy xb < zf < xd (mole fractions of component 1)");
+                     "the targets must satisfy xb < zf < xd (component 1 goes overhead) or "
+                     "xd < zf < xb (component 1 leaves with the bottoms); got xb %g, zf %g, xd %g "
+                     "as mole fractions of component 1",
+                     a->xb, a->zf, a->xd);
         return PW_EXIT_USAGE;
     }
     return 0;
@@ -239,6 +251,11 @@ int pw_cli_screen(int argc, char **argv)
     memset(&fit, 0, sizeof fit);
     if (pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if (pw_cli_targets_to_mole(&a.xd, &a.xb, &a.zf, a.basis, &fit.sys, &err) != PW_OK ||
+        check_targets(&a, &err) != 0) {
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
     pw_screen_result r;
     pw_status st = pw_screen_run(&fit.sys, a.P_Pa, a.xd, a.xb, a.zf, &a.opt, &r);
     if (st != PW_OK) {

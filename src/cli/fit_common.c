@@ -5,6 +5,7 @@
 #include <errno.h>
 #include <math.h>
 #include <pinchwise/azeotrope.h>
+#include <pinchwise/composition.h>
 #include <pinchwise/dataset.h>
 #include <pinchwise/fitjson.h>
 #include <stdio.h>
@@ -197,6 +198,8 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
     st = find_component(co->lib, &ds, 0, found, &c1, err);
     if (st == PW_OK)
         st = find_component(co->lib, &ds, 1, found, &c2, err);
+    if (st == PW_OK)
+        st = pw_dataset_to_mole(&ds, c1, c2, err); /* w1, wy1 columns */
     if (st == PW_OK) {
         char stem[PW_PATH_MAX];
         file_stem(input, stem, sizeof stem);

@@ -96,11 +96,19 @@ int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err
                      "a fit file and --pressure, --xd, --xb, --zf are required");
         return PW_EXIT_USAGE;
     }
-    if (!(a->spec.xb < a->spec.zf && a->spec.zf < a->spec.xd)) {
+    memcpy(a->basis, tg.basis, sizeof a->basis);
+    return 0;
+}
+
+/* The targets in mole fractions: xb < zf < xd, or xd < zf < xb (component 1 to the bottoms). */
+static int check_targets(const pw_column_spec *s, pw_error *err)
+{
+    if (!((s->xb < s->zf && s->zf < s->xd) || (s->xd < s->zf && s->zf < s->xb))) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
-                     "the targets must satisfy xb < zf < xd (got xb %g, zf %g, xd %g; x is the mole "
-                     "fraction of %s)",
-                     a->spec.xb, a->spec.zf, a->spec.xd, "component 1");
+                     "the feed must lie between the products: xb < zf < xd (component 1 goes "
+                     "overhead) or xd < zf < xb (component 1 leaves with the bottoms); got xb %g, "
+                     "zf %g, xd %g as mole fractions of component 1",
+                     s->xb, s->zf, s->xd);
         return PW_EXIT_USAGE;
     }
     return 0;
@@ -114,11 +122,18 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
         return pw_status_exit_code(st);
     run->P_Pa = a->P_Pa;
     run->spec = a->spec;
+    st = pw_cli_targets_to_mole(&run->spec.xd, &run->spec.xb, &run->spec.zf, a->basis,
+                                &run->fit.sys, err);
+    int rc = st == PW_OK ? check_targets(&run->spec, err) : pw_status_exit_code(st);
+    if (rc != 0) {
+        pw_fit_result_free(&run->fit);
+        return rc;
+    }
     pw_system_curve sc;
     st = pw_system_curve_init(&sc, &run->fit.sys, a->P_Pa);
     if (st == PW_OK) {
         pw_curve curve = pw_system_curve_bind(&sc);
-        st = pw_column_solve(&curve, &a->spec, &a->opt, &run->col);
+        st = pw_column_solve(&curve, &run->spec, &a->opt, &run->col);
     }
     if (st != PW_OK) {
         pw_error_set(err, st, a->fit_path, 0, "%s%s%s", pw_strerror(st),
@@ -127,8 +142,8 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
         return pw_status_exit_code(st);
     }
     pw_eq_point e;
-    run->T_top_K = pw_bubble_T(&run->fit.sys, a->P_Pa, a->spec.xd, &e) == PW_OK ? e.T_K : (double)NAN;
-    run->T_bottom_K = pw_bubble_T(&run->fit.sys, a->P_Pa, a->spec.xb, &e) == PW_OK ? e.T_K : (double)NAN;
+    run->T_top_K = pw_bubble_T(&run->fit.sys, a->P_Pa, run->spec.xd, &e) == PW_OK ? e.T_K : (double)NAN;
+    run->T_bottom_K = pw_bubble_T(&run->fit.sys, a->P_Pa, run->spec.xb, &e) == PW_OK ? e.T_K : (double)NAN;
     return 0;
 }
 

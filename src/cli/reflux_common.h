@@ -5,6 +5,7 @@
 #include <jansson.h>
 #include <pinchwise/column.h>
 #include <pinchwise/fit.h>
+#include <pinchwise/units.h>
 #include <stdbool.h>
 
 typedef struct pw_reflux_args {
@@ -15,6 +16,7 @@ typedef struct pw_reflux_args {
     pw_column_options opt;
     bool json;
     bool have_P, have_xd, have_xb, have_zf;
+    pw_basis basis[3]; /* of xd, xb, zf as given; converted to mole fractions in pw_reflux_compute */
     /* options other commands add; unknown ones are rejected */
     bool uncertainty;
     const char *extra[16];

@@ -34,43 +34,9 @@ void pw_ds_reader_free(pw_ds_reader *rd)
     memset(rd, 0, sizeof *rd);
 }
 
-static bool exponent_at(const char *s)
-{
-    if (*s != 'e' && *s != 'E')
-        return false;
-    s++;
-    if (*s == '+' || *s == '-')
-        s++;
-    return isdigit((unsigned char)*s);
-}
-
 bool pw_dataset_split_quantity(const char *text, double *value, char *unit, size_t unit_cap)
 {
-    size_t i = 0;
-    while (text[i] && !isspace((unsigned char)text[i]) && text[i] != '%' &&
-           !(isalpha((unsigned char)text[i]) && !exponent_at(text + i)))
-        i++;
-    if (i == 0 || i >= 64)
-        return false;
-    char num[64];
-    memcpy(num, text, i);
-    num[i] = '\0';
-    if (!pw_csvrows_number(num, value))
-        return false;
-    const char *u = text + i;
-    while (isspace((unsigned char)*u))
-        u++;
-    size_t ul = strlen(u);
-    while (ul && isspace((unsigned char)u[ul - 1]))
-        ul--;
-    if (ul == 0 || ul >= unit_cap)
-        return false;
-    for (size_t k = 0; k < ul; k++)
-        if (isspace((unsigned char)u[k]))
-            return false;
-    memcpy(unit, u, ul);
-    unit[ul] = '\0';
-    return true;
+    return pw_units_split(text, value, unit, unit_cap) == PW_SPLIT_OK;
 }
 
 typedef struct {
@@ -155,6 +121,7 @@ static pw_status fixed_state(pw_ds_reader *rd, bool is_T, const char *value, lon
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s: %s is not positive (expected an absolute %s above zero)", key,
                             value, key);
+    snprintf(unit, sizeof unit, "%s", pw_units_canonical(q, unit));
     if (strlen(unit) >= PW_UNIT_MAX)
         return pw_error_set(err, PW_EPARSE, rd->name, line, "%s: unit '%s' is too long", key, unit);
     memcpy(rd->fixed_unit, unit, strlen(unit) + 1);
@@ -176,7 +143,6 @@ static pw_status sigma(pw_ds_reader *rd, const char *key, const char *value, lon
                        pw_error *err)
 {
     double v;
-    char unit[32];
     const char *shown = strcmp(key, "sigma_t") == 0   ? "sigma_T"
                         : strcmp(key, "sigma_p") == 0 ? "sigma_P"
                                                       : key;
@@ -191,34 +157,13 @@ static pw_status sigma(pw_ds_reader *rd, const char *key, const char *value, lon
         return PW_OK;
     }
     bool is_T = strcasecmp(key, "sigma_T") == 0;
-    if (!pw_dataset_split_quantity(value, &v, unit, sizeof unit) || !(v > 0.0))
-        return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "%s: '%s' (expected a positive number with a unit, e.g. %s)", shown,
-                            value, is_T ? "0.05 K" : "0.2 % or 0.03 kPa");
-    if (is_T) {
-        /* a temperature difference: K and C have the same size, F is 5/9 K */
-        if (strcasecmp(unit, "K") == 0 || strcasecmp(unit, "C") == 0)
-            rd->ds.sigma_T_K = v;
-        else if (strcasecmp(unit, "F") == 0)
-            rd->ds.sigma_T_K = v * 5.0 / 9.0;
-        else
-            return pw_error_set(err, PW_EPARSE, rd->name, line,
-                                "sigma_T: unknown unit '%s' (expected K, C or F)", unit);
-        return PW_OK;
-    }
-    if (strcmp(unit, "%") == 0) {
-        rd->ds.sigma_P_rel = v / 100.0;
-        rd->ds.sigma_P_abs_Pa = NAN;
-        return PW_OK;
-    }
-    double si;
-    if (!pw_units_known(PW_QTY_PRESSURE, unit) ||
-        pw_units_to_si(PW_QTY_PRESSURE, v, unit, &si) != PW_OK)
-        return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "sigma_P: unknown unit '%s' (expected %% or one of %s)", unit,
-                            pw_units_list(PW_QTY_PRESSURE));
-    rd->ds.sigma_P_abs_Pa = si;
-    rd->ds.sigma_P_rel = NAN;
+    pw_error inner;
+    pw_error_clear(&inner);
+    pw_status st = is_T ? pw_units_parse_temperature_difference(value, &rd->ds.sigma_T_K, &inner)
+                        : pw_units_parse_pressure_uncertainty(value, &rd->ds.sigma_P_rel,
+                                                              &rd->ds.sigma_P_abs_Pa, &inner);
+    if (st != PW_OK)
+        return pw_error_set(err, PW_EPARSE, rd->name, line, "%s: %s", shown, inner.msg);
     return PW_OK;
 }
 

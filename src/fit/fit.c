@@ -28,6 +28,7 @@ pw_fit_options pw_fit_default_options(void)
     o.seed = 1;
     o.sigma_T_K = NAN;
     o.sigma_P_rel = NAN;
+    o.sigma_P_abs_Pa = NAN;
     o.sigma_y = NAN;
     o.max_iter = 200;
     o.xtol = pow(DBL_EPSILON, 0.6);       /* about 4e-10 relative step */
@@ -256,15 +257,19 @@ static pw_status init_result(const pw_dataset *ds, const pw_component *c1, const
                                                 : (ds->has_y ? PW_OBJ_PXY : PW_OBJ_PX);
     r->sigma_T_K = isfinite(o->sigma_T_K) ? o->sigma_T_K : ds->sigma_T_K;
     r->sigma_y = isfinite(o->sigma_y) ? o->sigma_y : ds->sigma_y;
-    r->sigma_P_rel = isfinite(o->sigma_P_rel) ? o->sigma_P_rel : ds->sigma_P_rel;
-    if (!isfinite(r->sigma_P_rel) && isfinite(ds->sigma_P_abs_Pa) && isfinite(ds->P_fixed_Pa))
-        r->sigma_P_rel = ds->sigma_P_abs_Pa / ds->P_fixed_Pa;
+    /* an option overrides the file: relative first, then absolute */
+    double sP_abs = isfinite(o->sigma_P_abs_Pa) ? o->sigma_P_abs_Pa : ds->sigma_P_abs_Pa;
+    r->sigma_P_rel = isfinite(o->sigma_P_rel)      ? o->sigma_P_rel
+                     : isfinite(o->sigma_P_abs_Pa) ? (double)NAN
+                                                   : ds->sigma_P_rel;
+    if (!isfinite(r->sigma_P_rel) && isfinite(sP_abs) && isfinite(ds->P_fixed_Pa))
+        r->sigma_P_rel = sP_abs / ds->P_fixed_Pa;
     if (!isfinite(r->sigma_P_rel)) {
         /* absolute sigma_P on isothermal data: express relative to the mean measured P */
         double Pm = 0.0;
         for (size_t i = 0; i < ds->n; i++)
             Pm += ds->pts[i].P_Pa / (double)ds->n;
-        r->sigma_P_rel = isfinite(ds->sigma_P_abs_Pa) ? ds->sigma_P_abs_Pa / Pm : 1e-3;
+        r->sigma_P_rel = isfinite(sP_abs) ? sP_abs / Pm : 1e-3;
     }
     if (!(r->sigma_T_K > 0.0) || !(r->sigma_y > 0.0) || !(r->sigma_P_rel > 0.0))
         return pw_error_set(err, PW_EINVAL, ds->path, 0,
@@ -390,6 +395,10 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     pw_fit_options o = opt ? *opt : pw_fit_default_options();
     if (!ds || !c1 || !c2 || !model || !out)
         return pw_error_set(err, PW_EINVAL, NULL, 0, "missing argument to the fit");
+    if (ds->mass_x || ds->mass_y)
+        return pw_error_set(err, PW_EINVAL, ds->path, ds->composition_line,
+                            "the dataset's compositions are mass fractions (convert them with "
+                            "pw_dataset_to_mole first)");
     pw_status st = init_result(ds, c1, c2, model, &o, out, err);
     if (st != PW_OK) {
         pw_fit_result_free(out);

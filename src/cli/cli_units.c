@@ -1,0 +1,75 @@
+/* Command-line units and compositions; see cli_units.h. */
+#include "cli_units.h"
+
+#include "cli.h"
+
+#include <math.h>
+#include <pinchwise/composition.h>
+#include <stdio.h>
+#include <string.h>
+
+pw_status pw_cli_uncertainty_opt(const char *opt, const char *text, double *T_K, double *P_rel,
+                                 double *P_abs_Pa, pw_error *err)
+{
+    pw_status st;
+    pw_error inner;
+    pw_error_clear(&inner);
+    if (!strcmp(opt, "--sigma-T")) {
+        st = pw_units_parse_temperature_difference(text, T_K, &inner);
+    } else {
+        double v, r = NAN, a = NAN;
+        char unit[8];
+        if (pw_units_split(text, &v, unit, sizeof unit) == PW_SPLIT_NO_UNIT && v > 0.0) {
+            r = v / 100.0; /* a bare number: percent, as the option always read it */
+            st = PW_OK;
+        } else {
+            st = pw_units_parse_pressure_uncertainty(text, &r, &a, &inner);
+        }
+        if (st == PW_OK)
+            *P_rel = r, *P_abs_Pa = a;
+    }
+    if (st != PW_OK)
+        return pw_error_set(err, st, NULL, 0, "%s %s: %s", opt, text, inner.msg);
+    return PW_OK;
+}
+
+int pw_cli_composition(const char *opt, const char *text, double *value, pw_basis *b,
+                       pw_error *err)
+{
+    pw_error inner;
+    pw_error_clear(&inner);
+    if (pw_units_parse_composition(text, value, b, &inner) != PW_OK) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: %s", opt, text, inner.msg);
+        return PW_EXIT_USAGE;
+    }
+    return 0;
+}
+
+pw_status pw_cli_composition_to_mole(const char *opt, double *x, pw_basis b, const pw_system *sys,
+                                     pw_error *err)
+{
+    if (b == PW_BASIS_MOLE)
+        return PW_OK;
+    pw_error inner;
+    pw_error_clear(&inner);
+    pw_status st = pw_composition_to_mole(&sys->comp[0], &sys->comp[1], *x, b, x, &inner);
+    if (st != PW_OK)
+        return pw_error_set(err, st, NULL, 0, "%s by mass needs both molar masses: %s", opt,
+                            inner.msg);
+    return PW_OK;
+}
+
+pw_status pw_cli_targets_to_mole(double *xd, double *xb, double *zf, const pw_basis basis[3],
+                                 const pw_system *sys, pw_error *err)
+{
+    static const char *const opts[3] = {"--xd", "--xb", "--zf"};
+    double *x[3] = {xd, xb, zf};
+    for (int i = 0; i < 3; i++) {
+        if (!x[i] || isnan(*x[i]))
+            continue;
+        pw_status st = pw_cli_composition_to_mole(opts[i], x[i], basis[i], sys, err);
+        if (st != PW_OK)
+            return st;
+    }
+    return PW_OK;
+}

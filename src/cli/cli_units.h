@@ -1,0 +1,27 @@
+/* Command-line values with units, compositions by mass or mole, and the uncertainty options: the
+ * same syntax as the data files (the parsing itself is the library's, pinchwise/units.h). */
+#ifndef PW_CLI_UNITS_H
+#define PW_CLI_UNITS_H
+
+#include <pinchwise/equilibrium.h>
+#include <pinchwise/status.h>
+#include <pinchwise/units.h>
+
+/* --sigma-T (a temperature difference: 0.05K, 0.1 C) sets *T_K; --sigma-P (0.2%, 0.05kPa, or a
+ * bare number read as percent, the older form) sets *P_rel or *P_abs_Pa and the other to NAN.
+ * err names the option. */
+pw_status pw_cli_uncertainty_opt(const char *opt, const char *text, double *T_K, double *P_rel,
+                                 double *P_abs_Pa, pw_error *err);
+
+/* A composition for option opt: a mole fraction, or a number with mol%, wt or wt% (basis in *b;
+ * mass fractions are converted with pw_cli_composition_to_mole once the components are known).
+ * Returns 0 or PW_EXIT_USAGE with err. */
+int pw_cli_composition(const char *opt, const char *text, double *value, pw_basis *b,
+                       pw_error *err);
+
+/* Converts *x (on basis b, given for option opt) to a mole fraction of the system's component 1;
+ * a missing molar mass is refused naming the option, the component and the column. */
+pw_status pw_cli_composition_to_mole(const char *opt, double *x, pw_basis b, const pw_system *sys,
+                                     pw_error *err);
+
+#endif
