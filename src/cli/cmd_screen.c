@@ -20,11 +20,14 @@ static void usage(FILE *f)
             "\n"
             "Verdict (feasible / difficult / infeasible by simple distillation) with its reasons:\n"
             "lowest relative volatility on [xb, xd], azeotrope barrier, azeotrope shift over\n"
-            "20-500 kPa, rough minimum reflux (q = 1) and stages at total reflux.\n"
+            "20-500 kPa, rough minimum reflux and stages at total reflux.\n"
             "  --pressure P        column pressure with its unit, e.g. 101.325kPa, 1atm\n"
-            "  --xd, --xb          distillate and bottoms mole fractions of component 1\n"
-            "  --zf X              feed mole fraction (default 0.5, or (xb+xd)/2 when 0.5 is\n"
-            "                      outside (xb, xd))\n"
+            "  --xd, --xb          distillate and bottoms compositions of component 1 (a mole\n"
+            "                      fraction, or with mol%%, wt or wt%%); xd < xb when component 1\n"
+            "                      leaves with the bottoms\n"
+            "  --zf X              feed composition (default 0.5, or (xb+xd)/2 when 0.5 is not\n"
+            "                      between them)\n"
+            "  --q Q               feed liquid fraction of the rough column (default 1)\n"
             "  --swing-range LO:HI pressure range of the azeotrope-shift scan (default 20kPa:500kPa)\n"
             "  --json              print one JSON object on stdout\n");
 }
@@ -102,7 +105,8 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
         }
         if (opt[0] == '-' && opt[1] != '\0') {
             if (strcmp(opt, "--pressure") && strcmp(opt, "--xd") && strcmp(opt, "--xb") &&
-                strcmp(opt, "--zf") && strcmp(opt, "--swing-range")) {
+                strcmp(opt, "--zf") && strcmp(opt, "--swing-range") && strcmp(opt, "--q") &&
+                strcmp(opt, "--pressure-range")) {
                 pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", opt);
                 return PW_EXIT_USAGE;
             }
@@ -123,6 +127,8 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
                 a->have_xb = true;
             } else if (!strcmp(opt, "--zf")) {
                 rc = pw_cli_composition(opt, v, &a->zf, &a->basis[2], err);
+            } else if (!strcmp(opt, "--q")) {
+                rc = pw_cli_number(opt, v, &a->opt.q, err) == PW_OK ? 0 : PW_EXIT_USAGE;
             } else {
                 rc = swing_range(v, a, err);
             }
@@ -182,6 +188,7 @@ static json_t *to_json(const pw_fit_result *fit, const pw_screen_result *r,
     json_object_set_new(j, "xb", pw_cli_json_num(r->xb));
     json_object_set_new(j, "zf", pw_cli_json_num(r->zf));
     json_object_set_new(j, "zf_default", json_boolean(r->zf_default));
+    json_object_set_new(j, "q", pw_cli_json_num(o->q));
     json_object_set_new(j, "alpha_min", pw_cli_json_num(r->alpha_min));
     json_object_set_new(j, "x_alpha_min", pw_cli_json_num(r->x_alpha_min));
     json_object_set_new(j, "alpha_top", pw_cli_json_num(r->alpha_top));
@@ -278,7 +285,7 @@ int pw_cli_screen(int argc, char **argv)
         memset(&ra, 0, sizeof ra);
         ra.fit_path = a.fit_path;
         ra.P_Pa = a.P_Pa;
-        ra.spec = (pw_column_spec){.xd = r.xd, .xb = r.xb, .zf = r.zf, .q = 1.0};
+        ra.spec = (pw_column_spec){.xd = r.xd, .xb = r.xb, .zf = r.zf, .q = a.opt.q};
         ra.opt = pw_column_default_options();
         ra.uncertainty = true;
         for (int k = 0; k < a.n_extra; k++)

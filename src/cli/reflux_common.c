@@ -4,6 +4,7 @@
 
 #include <math.h>
 #include <pinchwise/curve.h>
+#include <pinchwise/column_direction.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -133,7 +134,7 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
     st = pw_system_curve_init(&sc, &run->fit.sys, a->P_Pa);
     if (st == PW_OK) {
         pw_curve curve = pw_system_curve_bind(&sc);
-        st = pw_column_solve(&curve, &run->spec, &a->opt, &run->col);
+        st = pw_column_solve_any(&curve, &run->spec, &a->opt, &run->col);
     }
     if (st != PW_OK) {
         pw_error_set(err, st, a->fit_path, 0, "%s%s%s", pw_strerror(st),

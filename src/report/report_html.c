@@ -3,6 +3,7 @@
 #include "report/report_internal.h"
 
 #include <math.h>
+#include <pinchwise/column_direction.h>
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/curve.h>
 #include <pinchwise/fitjson.h>
@@ -660,7 +661,7 @@ static void ranking(pw_sbuf *b, const pw_report_curves *c, const pw_report_input
             pw_column_result col;
             if (pw_system_curve_init(&sc, &r->sys, c->P_col_Pa) == PW_OK) {
                 pw_curve cv = pw_system_curve_bind(&sc);
-                w->col_ok = pw_column_solve(&cv, &c->spec, NULL, &col) == PW_OK;
+                w->col_ok = pw_column_solve_any(&cv, &c->spec, NULL, &col) == PW_OK;
                 w->feasible = w->col_ok && col.feasible;
                 w->r_min = w->feasible ? col.r_min : (double)NAN;
             }

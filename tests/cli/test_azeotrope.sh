@@ -97,6 +97,6 @@ expect_fail "$PW" azeotrope "$F" --pressure 1atm --samples many
 grep -q "samples" "$TMP/e" || fail "a bad --samples value should be named"
 expect_fail "$PW" azeotrope "$F" --pressure 1atm --scan 10kPa:20kPa
 expect_fail "$PW" azeotrope "$TMP/missing.json" --pressure 1atm
-expect_fail "$PW" screen "$F" --pressure 1atm --xd 0.2 --xb 0.5
+expect_fail "$PW" screen "$F" --pressure 1atm --xd 0.5 --xb 0.5
 expect_fail "$PW" screen "$F" --pressure 1atm --xd 0.9 --xb 0.1 --samples
 echo "ok"
