@@ -6,6 +6,7 @@
 #include <math.h>
 #include <pinchwise/composition.h>
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
 
 pw_status pw_cli_uncertainty_opt(const char *opt, const char *text, double *T_K, double *P_rel,
@@ -72,4 +73,39 @@ pw_status pw_cli_targets_to_mole(double *xd, double *xb, double *zf, const pw_ba
             return st;
     }
     return PW_OK;
+}
+
+char **pw_cli_split_equals(int argc, char **argv, int *n_out)
+{
+    char **out = calloc(2 * (size_t)argc + 1, sizeof *out);
+    if (!out)
+        return NULL;
+    int n = 0;
+    for (int i = 0; i < argc; i++) {
+        const char *a = argv[i], *eq = strchr(a, '=');
+        bool split = a[0] == '-' && a[1] == '-' && a[2] != '\0' && a[2] != '=' && eq;
+        if (split) {
+            out[n] = strndup(a, (size_t)(eq - a));
+            if (!out[n++])
+                goto oom;
+            a = eq + 1;
+        }
+        out[n] = strdup(a);
+        if (!out[n++])
+            goto oom;
+    }
+    *n_out = n;
+    return out;
+oom:
+    pw_cli_split_free(out, n);
+    return NULL;
+}
+
+void pw_cli_split_free(char **args, int n)
+{
+    if (!args)
+        return;
+    for (int i = 0; i < n; i++)
+        free(args[i]);
+    free(args);
 }

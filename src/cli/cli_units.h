@@ -24,4 +24,16 @@ int pw_cli_composition(const char *opt, const char *text, double *value, pw_basi
 pw_status pw_cli_composition_to_mole(const char *opt, double *x, pw_basis b, const pw_system *sys,
                                      pw_error *err);
 
+/* The one meaning of --components FILE, as every command's --help states it. */
+#define PW_CLI_HELP_COMPONENTS                                                                    \
+    "  --components FILE   component rows (vapor pressure, molar mass, ...) that take precedence\n" \
+    "                      over the ones otherwise used: the shipped library's when reading\n"   \
+    "                      data, the fit file's recorded rows when reading a fit\n"
+
+/* argv with every "--name=value" split into "--name" and "value" (at the first '='); a new
+ * NULL-terminated array of *n_out new strings, freed with pw_cli_split_free. NULL when out of
+ * memory. Arguments that do not start with "--" are copied unchanged. */
+char **pw_cli_split_equals(int argc, char **argv, int *n_out);
+void pw_cli_split_free(char **args, int n);
+
 #endif

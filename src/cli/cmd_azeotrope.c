@@ -3,6 +3,7 @@
 #include "analysis_common.h"
 #include "azeo_uncert.h"
 #include "cli.h"
+#include "cli_units.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -14,19 +15,22 @@
 static void usage(FILE *f)
 {
     fprintf(f,
-            "usage: pinchwise azeotrope FIT.json (--pressure P | --temperature T) [--scan FROM:TO:N]\n"
+            "usage: pinchwise azeotrope FIT.json [--pressure P | --temperature T] [--sweep FROM:TO[:N]]\n"
             "                           [--json]\n"
             "\n"
             "Azeotropes of the fitted model: where y1 = x1, found on a fine composition grid and\n"
             "refined by Brent's method; classified from the extremum of the bubble curve.\n"
-            "  --pressure P        fixed pressure with its unit, e.g. 101.325kPa, 1atm\n"
+            "  --pressure P        fixed pressure with its unit, e.g. 101.325kPa, \"1 atm\"\n"
             "  --temperature T     fixed temperature with its unit, e.g. 50C, 350K\n"
-            "  --scan FROM:TO:N    also solve at N values from FROM to TO (pressures with\n"
-            "                      --pressure, geometric; temperatures with --temperature, linear)\n"
-            "                      and report where the azeotrope reaches a pure end\n"
+            "                      (neither: the condition of the fit's own data)\n"
+            "  --sweep FROM:TO[:N] also solve at N values (default 12) from FROM to TO (pressures\n"
+            "                      when the condition is a pressure, geometric; temperatures,\n"
+            "                      linear) and report where the azeotrope reaches a pure end\n"
+            "                      (also spelt --scan)\n"
             "  --uncertainty       95 %% intervals of each azeotrope from the fit's parameter\n"
             "                      covariance (linearised and sampled)\n"
             "  --samples N         parameter sets drawn (default 400); --seed N (default 1)\n"
+            PW_CLI_HELP_COMPONENTS
             "  --json              print one JSON object on stdout\n");
 }
 
@@ -38,6 +42,7 @@ typedef struct args {
     size_t n;
     pw_azeo_uncert unc;
     const char *components;
+    const char *scan_text; /* --sweep (or --scan) as given */
 } args;
 
 static int parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
@@ -45,16 +50,18 @@ static int parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
     char buf[256];
     snprintf(buf, sizeof buf, "%s", text);
     char *c1 = strchr(buf, ':'), *c2 = c1 ? strchr(c1 + 1, ':') : NULL;
-    if (!c1 || !c2 || strchr(c2 + 1, ':')) {
-        pw_error_set(err, PW_EINVAL, NULL, 0, "--scan %s: expected FROM:TO:N, e.g. 10kPa:500kPa:12",
-                     text);
+    if (!c1 || (c2 && strchr(c2 + 1, ':'))) {
+        pw_error_set(err, PW_EINVAL, NULL, 0,
+                     "--sweep %s: expected FROM:TO[:N], e.g. 10kPa:500kPa:12", text);
         return PW_EXIT_USAGE;
     }
-    *c1 = *c2 = '\0';
-    double n;
-    if (pw_cli_quantity(q, "--scan FROM", buf, &a->from, err) != PW_OK ||
-        pw_cli_quantity(q, "--scan TO", c1 + 1, &a->to, err) != PW_OK ||
-        pw_cli_number("--scan N", c2 + 1, &n, err) != PW_OK)
+    *c1 = '\0';
+    if (c2)
+        *c2 = '\0';
+    double n = 12.0; /* default number of points */
+    if (pw_cli_quantity(q, "--sweep FROM", buf, &a->from, err) != PW_OK ||
+        pw_cli_quantity(q, "--sweep TO", c1 + 1, &a->to, err) != PW_OK ||
+        (c2 && pw_cli_number("--sweep N", c2 + 1, &n, err) != PW_OK))
         return PW_EXIT_USAGE;
     if (!(n >= 2.0 && n <= 1000.0) || n != floor(n) || a->from == a->to) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
@@ -99,9 +106,10 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
                                 isP ? "--pressure" : "--temperature", v, &a->fixed, err) != PW_OK)
                 return PW_EXIT_USAGE;
             a->have_fixed = true;
-        } else if (pw_cli_opt(argc, argv, &i, "--scan", &v, &missing)) {
+        } else if (pw_cli_opt(argc, argv, &i, "--scan", &v, &missing) ||
+                   pw_cli_opt(argc, argv, &i, "--sweep", &v, &missing)) {
             if (missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "--scan needs FROM:TO:N");
+                pw_error_set(err, PW_EINVAL, NULL, 0, "--sweep needs FROM:TO[:N]");
                 return PW_EXIT_USAGE;
             }
             scan_text = v;
@@ -121,14 +129,32 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
             a->fit_path = argv[i];
         }
     }
-    if (!a->fit_path || !a->have_fixed) {
-        pw_error_set(err, PW_EINVAL, NULL, 0,
-                     "a fit file and one of --pressure or --temperature are required");
+    if (!a->fit_path) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file is required");
         return PW_EXIT_USAGE;
     }
-    if (scan_text)
-        return parse_scan(scan_text, a->mode == PW_AZ_ISOBARIC ? PW_QTY_PRESSURE
-                                                               : PW_QTY_TEMPERATURE, a, err);
+    a->scan_text = scan_text; /* parsed once the condition is known (it may be the fit's own) */
+    return 0;
+}
+
+/* Without --pressure or --temperature: the condition of the fit's own data. Then the sweep. */
+static int settle_condition(args *a, const pw_fit_result *fit, pw_error *err)
+{
+    if (!a->have_fixed) {
+        bool isobaric = fit->kind == PW_DATA_ISOBARIC;
+        a->mode = isobaric ? PW_AZ_ISOBARIC : PW_AZ_ISOTHERMAL;
+        a->fixed = isobaric ? fit->P_fixed_Pa : fit->T_fixed_K;
+        if (!(isfinite(a->fixed) && a->fixed > 0.0)) {
+            pw_error_set(err, PW_EINVAL, a->fit_path, 0,
+                         "the fit file records no %s of its data: give --pressure or --temperature",
+                         isobaric ? "pressure" : "temperature");
+            return PW_EXIT_USAGE;
+        }
+        a->have_fixed = true;
+    }
+    if (a->scan_text)
+        return parse_scan(a->scan_text, a->mode == PW_AZ_ISOBARIC ? PW_QTY_PRESSURE
+                                                                  : PW_QTY_TEMPERATURE, a, err);
     return 0;
 }
 
@@ -263,6 +289,10 @@ int pw_cli_azeotrope(int argc, char **argv)
     pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
     if (st != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if ((rc = settle_condition(&a, &fit, &err)) != 0) {
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
     pw_az_result r;
     pw_az_scan *sc = NULL;
     st = pw_azeotrope_find(&fit.sys, a.mode, a.fixed, NULL, &r);

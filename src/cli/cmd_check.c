@@ -2,6 +2,7 @@
  * Runs the consistency tests of the library (pinchwise/consistency.h) and prints a table or
  * one JSON object. Exit 0 when the check ran, whatever the verdict. */
 #include "cli.h"
+#include "cli_units.h"
 
 #include <pinchwise/composition.h>
 
@@ -24,7 +25,7 @@ static void usage(FILE *f)
 {
     fprintf(f, "usage: pinchwise check DATA.csv [--components FILE] [--strict] [--json]\n"
                "  thermodynamic consistency tests of a measured binary VLE data file\n"
-               "  --components FILE  extra component file (its rows take precedence)\n"
+               PW_CLI_HELP_COMPONENTS
                "  --strict           every test that ran must pass for a 'consistent' verdict\n"
                "  --json             print one JSON object on stdout\n");
 }

@@ -9,6 +9,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <strings.h>
 #include <sys/stat.h>
 
 static void usage(FILE *f)
@@ -17,8 +18,10 @@ static void usage(FILE *f)
             "usage: pinchwise fit DATA.csv --model MODEL [options]\n"
             "       pinchwise fit DIR --model MODEL --out-dir OUTDIR [options]   (every *.csv in DIR)\n"
             "\n"
-            "MODEL: margules, vanlaar, wilson, nrtl, or all (fit every model, rank by AICc)\n"
-            "  --components FILE     extra component rows (take precedence over the library)\n"
+            "MODEL: margules, vanlaar, wilson, nrtl (any case), or all (fit every model, rank by\n"
+            "AICc; with a folder, every model of every file; with one file, --out-dir not --out)\n"
+            "Every option may also be written --option=value.\n"
+            PW_CLI_HELP_COMPONENTS
             "  --out FIT.json        fit file to write (default fits/<stem>.<model>.json)\n"
             "  --out-dir DIR         folder for the fit files (batch, or --model all)\n"
             "  --force               replace an existing fit file\n"
@@ -191,7 +194,7 @@ int pw_cli_fit(int argc, char **argv)
     if (!input || !model_name) {
         return pw_cli_failf("fit", PW_EXIT_USAGE, "a dataset (or folder) and --model are required");
     }
-    bool all = !strcmp(model_name, "all");
+    bool all = !strcasecmp(model_name, "all");
     const pw_model_type *model = all ? NULL : pw_model_find(model_name);
     if (!all && !model)
         return pw_cli_failf("fit", PW_EXIT_USAGE,
@@ -211,11 +214,11 @@ int pw_cli_fit(int argc, char **argv)
             pw_complib_free(&lib);
             return pw_cli_failf("fit", PW_EXIT_USAGE, "fitting a folder needs --out-dir OUTDIR");
         }
-        if (all) {
-            pw_complib_free(&lib);
-            return pw_cli_failf("fit", PW_EXIT_USAGE, "--model all is for one dataset, not a folder");
-        }
-        rc = pw_fit_batch(input, out_dir, model, &co);
+        rc = pw_fit_batch(input, out_dir, model, &co); /* model NULL: every model */
+    } else if (all && out) {
+        rc = pw_cli_failf("fit", PW_EXIT_USAGE,
+                          "--out names one fit file, but --model all writes one per model "
+                          "(<stem>.<model>.json): give --out-dir DIR instead");
     } else if (all) {
         rc = pw_fit_all_models(input, out_dir, &co);
     } else {

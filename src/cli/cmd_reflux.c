@@ -1,6 +1,7 @@
 /* pinchwise reflux: minimum reflux with the limiting pinch, stages at total reflux, and the design
  * table at 1.2, 1.3 and 1.5 times R_min, for a fitted model at a pressure. */
 #include "cli.h"
+#include "cli_units.h"
 #include "reflux_common.h"
 #include "reflux_uncert.h"
 
@@ -21,13 +22,15 @@ static void usage(FILE *f)
             "                      leaves with the bottoms\n"
             "  --q Q               feed liquid fraction (1 saturated liquid, 0 saturated vapor,\n"
             "                      > 1 subcooled, < 0 superheated; default 1)\n"
-            "  --factors F,F,...   design reflux as multiples of R_min (default 1.2,1.3,1.5)\n"
+            "  --factors F,F,...   design reflux as multiples of R_min (default 1.2,1.3,1.5;\n"
+            "                      --operating-factor F is the same with one value)\n"
             "  --uncertainty       intervals of R_min, boil-up and stages from the fit's parameter\n"
             "                      covariance, feasibility risk, where to measure next\n"
             "  --samples N         parameter sets drawn for --uncertainty (default 400)\n"
             "  --seed N            random seed of the draws (default 1)\n"
             "  --compare FIT.json  another model's fit of the same data (repeatable): R_min\n"
             "                      side by side, ranked by AICc\n"
+            PW_CLI_HELP_COMPONENTS
             "  --json              print one JSON object on stdout\n");
 }
 
@@ -172,6 +175,7 @@ int pw_cli_reflux(int argc, char **argv)
         pw_fit_result_free(&run.fit);
         return pw_cli_fail("reflux", &err);
     }
+    run.with_uncertainty = a.uncertainty;
     pw_reflux_warn(&run);
     if (a.json) {
         json_t *o = pw_reflux_json(&run);

@@ -2,6 +2,7 @@
  * as separate SVG files and the curves behind them as CSV. */
 #include "azeo_uncert.h"
 #include "cli.h"
+#include "cli_units.h"
 
 #include <math.h>
 #include <pinchwise/report.h>
@@ -22,14 +23,15 @@ static void usage(FILE *f)
             "                          (with its unit, e.g. 1atm), compositions of component 1\n"
             "                          (mole fraction, or with mol%%, wt, wt%%), either direction\n"
             "                          (xd < zf < xb: component 1 leaves with the bottoms)\n"
-            "  --operating-factor F    R / R_min of the drawn operating line (default 1.3)\n"
+            "  --factors F             R / R_min of the drawn operating line (default 1.3; one\n"
+            "                          value; also spelt --operating-factor)\n"
             "  --uncertainty           add the fit's parameter uncertainty: azeotrope intervals,\n"
             "                          and with the column a \"how sure\" table and a band of\n"
             "                          sampled equilibrium curves near the pinch\n"
             "  --samples N             parameter sets drawn (default 400); --seed N (default 1)\n"
             "  --svg DIR               also write each plot as DIR/<name>.svg\n"
             "  --csv DIR               also write the curves behind the plots as DIR/<name>.csv\n"
-            "  --components FILE       vapor-pressure rows that replace the fit file's\n"
+            PW_CLI_HELP_COMPONENTS
             "  --compare FIT.json      another model of the same data for the side-by-side table\n"
             "                          (repeatable; default: the <stem>.<model>.json files beside\n"
             "                          FIT.json that `fit --model all` writes)\n"
@@ -118,7 +120,7 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
         } else if (!strncmp(argv[i], "--", 2)) {
             const char *opt = argv[i];
             static const char *const known[] = {"--out", "--pressure", "--xd", "--xb", "--zf", "--q",
-                                                "--operating-factor", "--svg", "--csv",
+                                                "--operating-factor", "--factors", "--svg", "--csv",
                                                 "--components", "--compare"};
             bool ok = false;
             for (size_t k = 0; k < sizeof known / sizeof known[0]; k++)
@@ -149,7 +151,13 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
             }
             else if ((trc = pw_cli_target_opt(opt, v, &tg, err)) >= 0) {
                 rc = trc; /* --pressure, --xd, --xb, --zf, --q: parsed into tg */
-            } else if (!strcmp(opt, "--operating-factor")) {
+            } else if (!strcmp(opt, "--operating-factor") || !strcmp(opt, "--factors")) {
+                if (strchr(v, ',')) {
+                    pw_error_set(err, PW_EINVAL, NULL, 0,
+                                 "%s %s: the report draws one operating line; give one factor", opt,
+                                 v);
+                    return PW_EXIT_USAGE;
+                }
                 rc = pw_cli_number(opt, v, &a->factor, err) == PW_OK ? 0 : PW_EXIT_USAGE;
                 if (!rc && !(a->factor > 1.0)) {
                     pw_error_set(err, PW_EINVAL, NULL, 0,

@@ -16,7 +16,7 @@ static void usage(FILE *f)
     fprintf(f,
             "usage: pinchwise screen FIT.json --pressure P --xd X --xb X [--zf X] [--json]\n"
             "  --uncertainty       propagate the fit's uncertainty (--samples N, --seed N)\n"
-            "  --components FILE   vapor-pressure rows replacing the fit file's\n"
+            PW_CLI_HELP_COMPONENTS
             "\n"
             "Verdict (feasible / difficult / infeasible by simple distillation) with its reasons:\n"
             "lowest relative volatility on [xb, xd], azeotrope barrier, azeotrope shift over\n"
@@ -28,7 +28,8 @@ static void usage(FILE *f)
             "  --zf X              feed composition (default 0.5, or (xb+xd)/2 when 0.5 is not\n"
             "                      between them)\n"
             "  --q Q               feed liquid fraction of the rough column (default 1)\n"
-            "  --swing-range LO:HI pressure range of the azeotrope-shift scan (default 20kPa:500kPa)\n"
+            "  --sweep FROM:TO[:N] pressures of the azeotrope-shift scan (default 20kPa:500kPa:9;\n"
+            "                      also spelt --swing-range)\n"
             "  --json              print one JSON object on stdout\n");
 }
 
@@ -44,17 +45,31 @@ typedef struct args {
     pw_screen_options opt;
 } args;
 
+/* --sweep FROM:TO[:N] (also spelt --swing-range): the pressures of the azeotrope-shift scan. */
 static int swing_range(const char *text, args *a, pw_error *err)
 {
     char buf[128];
     snprintf(buf, sizeof buf, "%s", text);
     char *c = strchr(buf, ':');
     if (!c) {
-        pw_error_set(err, PW_EINVAL, NULL, 0, "--swing-range %s: expected LO:HI, e.g. 20kPa:5bar",
+        pw_error_set(err, PW_EINVAL, NULL, 0, "--sweep %s: expected FROM:TO[:N], e.g. 20kPa:5bar",
                      text);
         return PW_EXIT_USAGE;
     }
     *c = '\0';
+    char *c2 = strchr(c + 1, ':');
+    if (c2) {
+        *c2 = '\0';
+        double n;
+        if (pw_cli_number("--sweep N", c2 + 1, &n, err) != PW_OK)
+            return PW_EXIT_USAGE;
+        if (!(n >= 2.0 && n <= 200.0) || n != floor(n)) {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "--sweep %s: N must be a whole number from 2 to 200",
+                         text);
+            return PW_EXIT_USAGE;
+        }
+        a->opt.scan_points = (size_t)n;
+    }
     if (pw_cli_quantity(PW_QTY_PRESSURE, "--swing-range LO", buf, &a->opt.P_lo_Pa, err) != PW_OK ||
         pw_cli_quantity(PW_QTY_PRESSURE, "--swing-range HI", c + 1, &a->opt.P_hi_Pa, err) != PW_OK)
         return PW_EXIT_USAGE;
@@ -106,7 +121,7 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
         if (opt[0] == '-' && opt[1] != '\0') {
             if (strcmp(opt, "--pressure") && strcmp(opt, "--xd") && strcmp(opt, "--xb") &&
                 strcmp(opt, "--zf") && strcmp(opt, "--swing-range") && strcmp(opt, "--q") &&
-                strcmp(opt, "--pressure-range")) {
+                strcmp(opt, "--sweep")) {
                 pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", opt);
                 return PW_EXIT_USAGE;
             }

@@ -1,5 +1,6 @@
 /* pinchwise command-line front end: dispatches to one file per command. */
 #include "cli.h"
+#include "cli_units.h"
 
 #include <gsl/gsl_errno.h>
 #include <stdio.h>
@@ -41,8 +42,18 @@ int main(int argc, char **argv)
         return 0;
     }
     for (size_t i = 0; i < sizeof commands / sizeof commands[0]; i++)
-        if (!strcmp(argv[1], commands[i].name))
-            return commands[i].run(argc - 1, argv + 1);
+        if (!strcmp(argv[1], commands[i].name)) {
+            /* "--opt=value" is the same as "--opt value" for every option of every command */
+            int n = 0;
+            char **args = pw_cli_split_equals(argc - 1, argv + 1, &n);
+            if (!args) {
+                fprintf(stderr, "pinchwise: out of memory\n");
+                return pw_status_exit_code(PW_ENOMEM);
+            }
+            int rc = commands[i].run(n, args);
+            pw_cli_split_free(args, n);
+            return rc;
+        }
     fprintf(stderr, "pinchwise: unknown command '%s' (expected one of: ", argv[1]);
     for (size_t i = 0; i < sizeof commands / sizeof commands[0]; i++)
         fprintf(stderr, "%s%s", i ? ", " : "", commands[i].name);

@@ -63,7 +63,7 @@ int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err
                 rc = trc; /* --pressure, --xd, --xb, --zf, --q: parsed into tg */
             } else if (!strcmp(opt, "--components")) {
                 a->components = v;
-            } else if (!strcmp(opt, "--factors")) {
+            } else if (!strcmp(opt, "--factors") || !strcmp(opt, "--operating-factor")) {
                 rc = parse_factors(v, &a->opt, err) ? PW_EXIT_USAGE : 0;
             } else if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") ||
                        !strcmp(opt, "--compare")) {
@@ -178,5 +178,6 @@ void pw_reflux_warn(const pw_reflux_run *run)
                      r->split_x, r->split_T_K);
     if (run->col.feasible && run->col.pinch.kind == PW_PINCH_TANGENT)
         pw_cli_warnf("reflux", "tangent pinch: stage counts near R_min are very sensitive to the "
-                     "model; consider --uncertainty");
+                     "model%s",
+                     run->with_uncertainty ? " (see the intervals below)" : "; consider --uncertainty");
 }

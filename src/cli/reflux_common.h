@@ -29,6 +29,7 @@ typedef struct pw_reflux_run {
     pw_column_spec spec;
     pw_column_result col;
     double T_top_K, T_bottom_K;
+    bool with_uncertainty; /* --uncertainty given: the warnings do not suggest it */
 } pw_reflux_run;
 
 /* Returns 0, -1 for --help, or an exit code with err filled. */

@@ -2,6 +2,7 @@
 #include <pinchwise/model.h>
 
 #include <string.h>
+#include <strings.h>
 
 static const pw_model_type *const all_models[] = {
     &pw_model_margules,
@@ -22,7 +23,7 @@ const pw_model_type *pw_model_find(const char *name)
     if (!name)
         return NULL;
     for (size_t i = 0; i < sizeof all_models / sizeof *all_models; i++)
-        if (strcmp(all_models[i]->name, name) == 0)
+        if (strcasecmp(all_models[i]->name, name) == 0) /* "NRTL" is nrtl */
             return all_models[i];
     return NULL;
 }

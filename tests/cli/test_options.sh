@@ -1,0 +1,71 @@
+#!/usr/bin/env bash
+# One way in for every command: --option=value, model names in any case, fit DIR --model all,
+# --model all with --out refused, azeotrope at the fit's own condition, one name per idea
+# (--sweep for ranges, --factors for reflux multiples, --components listed in every --help), and
+# the uncertainty text at the factors asked for. Data: the shipped ethanol/water and methanol/water
+# sets (sources in their files).
+set -u
+pw=$1; src=$2
+tmp=$(mktemp -d); trap 'rm -rf "$tmp"' EXIT
+fail() { echo "FAIL: $*"; exit 1; }
+cd "$tmp"
+mkdir dd
+cp "$src/datasets/ethanol_water_1atm.csv" "$src/datasets/methanol_water_1atm.csv" dd/
+
+# --option=value and model names in any case
+"$pw" fit dd/ethanol_water_1atm.csv --model=NRTL --out=ew.json --json > f1.json 2>/dev/null || fail "--model=NRTL --out=ew.json"
+"$pw" fit dd/ethanol_water_1atm.csv --model nrtl --out ew2.json --json > f2.json 2>/dev/null || fail "--model nrtl"
+python3 -c 'import json; a,b=json.load(open("f1.json")),json.load(open("f2.json")); assert a["parameters"]==b["parameters"] and a["model"]=="nrtl"' || fail "same fit either spelling"
+"$pw" fit dd/ethanol_water_1atm.csv --model=Wilson --out=ew_w.json >/dev/null 2>&1 || fail "--model=Wilson"
+"$pw" reflux ew.json --pressure=1atm --xd=0.8 --xb=0.02 --zf=0.2 --q=1 --json > r1.json 2>/dev/null || fail "reflux --opt=value"
+"$pw" reflux ew.json --pressure 1atm --xd 0.8 --xb 0.02 --zf 0.2 --json > r2.json 2>/dev/null || fail "reflux"
+cmp -s r1.json r2.json || fail "--opt=value gives another answer"
+"$pw" reflux ew.json --pressure=1atm --xd=0.8 --xb=0.02 --zf=0.2 --q=-0.2 --json >/dev/null 2>&1 || fail "--q=-0.2"
+
+# fit DIR --model all: every model of every file, one JSON object
+"$pw" fit dd --model all --out-dir out --json > b.json 2>/dev/null || fail "fit DIR --model all"
+python3 - <<'PY' || fail "batch of every model"
+import json, os
+d = json.load(open("b.json"))
+pairs = [(f["dataset"], f["model"]) for f in d["fits"]]
+assert len(pairs) == 8 and not d["failed"], d
+assert pairs[0] == ("ethanol_water_1atm.csv", "margules") and pairs[-1][0] == "methanol_water_1atm.csv"
+for f in d["fits"]:
+    assert os.path.exists(f["fit_file"]), f
+PY
+"$pw" fit dd/ethanol_water_1atm.csv --model all --out x.json 2> e.txt >/dev/null && fail "--model all --out accepted"
+grep -q -- "--out-dir" e.txt || fail "message: $(cat e.txt)"
+test -e x.json && fail "x.json written"
+
+# azeotrope at the fit's own condition (1 atm here), --sweep with or without N, --scan kept
+"$pw" azeotrope ew.json --json > a0.json 2>/dev/null || fail "azeotrope without a condition"
+"$pw" azeotrope ew.json --pressure 101.325kPa --json > a1.json 2>/dev/null || fail "azeotrope at 1 atm"
+python3 -c 'import json; a,b=json.load(open("a0.json")),json.load(open("a1.json")); assert a["azeotropes"]==b["azeotropes"] and len(a["azeotropes"])==1' || fail "own condition differs from 1 atm"
+"$pw" azeotrope ew.json --sweep 50kPa:200kPa:5 --json > s1.json 2>/dev/null || fail "--sweep"
+"$pw" azeotrope ew.json --scan 50kPa:200kPa:5 --json > s2.json 2>/dev/null || fail "--scan"
+cmp -s s1.json s2.json || fail "--sweep and --scan differ"
+"$pw" azeotrope ew.json --sweep=50kPa:200kPa --json >/dev/null 2>&1 || fail "--sweep without N"
+"$pw" screen ew.json --pressure 1atm --xd 0.8 --xb 0.02 --sweep 20kPa:300kPa:5 --json > sc1.json 2>/dev/null || fail "screen --sweep"
+"$pw" screen ew.json --pressure 1atm --xd 0.8 --xb 0.02 --swing-range 20kPa:300kPa --json > sc2.json 2>/dev/null || fail "screen --swing-range"
+
+# one name for reflux multiples: --operating-factor on reflux, --factors on report
+"$pw" reflux ew.json --pressure 1atm --xd 0.8 --xb 0.02 --zf 0.2 --operating-factor 1.4 --json > of.json 2>/dev/null || fail "reflux --operating-factor"
+python3 -c 'import json; d=json.load(open("of.json")); assert [r["factor"] for r in d["design"]]==[1.4]' || fail "operating factor row"
+"$pw" report ew.json --out rep.html --pressure 1atm --xd 0.8 --xb 0.02 --zf 0.2 --factors 1.4 >/dev/null 2>&1 || fail "report --factors"
+"$pw" report ew.json --out rep2.html --pressure 1atm --xd 0.8 --xb 0.02 --zf 0.2 --factors 1.2,1.4 2> e.txt >/dev/null && fail "report with two factors"
+grep -q "one operating line" e.txt || fail "message: $(cat e.txt)"
+
+# --components listed with one meaning in every command's --help
+for c in fit check azeotrope reflux screen report; do
+  "$pw" $c --help > h.txt || fail "$c --help"
+  grep -q -- "--components FILE" h.txt || fail "$c --help does not list --components"
+  grep -q "take precedence" h.txt || fail "$c --help: another meaning of --components"
+done
+
+# The uncertainty text quotes stages at the factor asked for.
+"$pw" reflux ew.json --pressure 1atm --xd 0.8 --xb 0.02 --zf 0.2 --factors 1.1,2 --uncertainty --samples 30 > u.txt 2>/dev/null || fail "uncertainty with --factors"
+grep -q "stages at 1.1 R_min" u.txt || fail "uncertainty text: $(grep -i 'stages at' u.txt)"
+grep -q "stages at 1.3 R_min" u.txt && fail "1.3 quoted although not asked for"
+"$pw" reflux ew.json --pressure 1atm --xd 0.8 --xb 0.02 --zf 0.2 --factors 1.1,2 --uncertainty --samples 30 --json > u.json 2>/dev/null || fail "uncertainty json"
+python3 -c 'import json; d=json.load(open("u.json")); f=d["uncertainty"]["stages_operating"]["reflux_factor"]; assert abs(f-1.1)<1e-12, f' || fail "reflux_factor key"
+echo ok
