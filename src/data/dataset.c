@@ -16,6 +16,22 @@ static pw_status on_line(void *ctx, const char *text, size_t len, long line, boo
                          pw_error *err)
 {
     pw_ds_reader *rd = ctx;
+    if (text[0] == '"' && text[1] == '#') {
+        /* a spreadsheet cell holding the line, quoted because it holds the separator:
+         * "# components: a, b";; -> # components: a, b */
+        char buf[PW_ERROR_MSG_MAX];
+        size_t n = 0;
+        for (size_t i = 1; i < len && n + 1 < sizeof buf; i++) {
+            if (text[i] == '"' && i + 1 < len && text[i + 1] == '"')
+                buf[n++] = text[i++];
+            else if (text[i] == '"')
+                break;
+            else
+                buf[n++] = text[i];
+        }
+        buf[n] = '\0';
+        return pw_ds_meta_line(rd, buf, n, line, err);
+    }
     if (text[0] != '#') {
         *is_csv = true;
         return PW_OK;
@@ -117,16 +133,25 @@ static pw_status header_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_
                                 f[i], *slot + 1, i + 1);
         *slot = (long)i;
     }
-    if (rd->col_x < 0)
-        return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "no x1 column in the header row (expected x1 or w1, optional y1 or "
-                            "wy1, and %s)",
-                            isobaric ? "T[UNIT]" : "P[UNIT]");
+    if (rd->col_x < 0 || rd->col_m < 0) {
+        /* say what was found: a spreadsheet may have used another separator or spelling */
+        char found[160] = "";
+        size_t used = 0;
+        for (size_t i = 0; i < n && used + 1 < sizeof found; i++) {
+            int w = snprintf(found + used, sizeof found - used, "%s'%.40s'", i ? ", " : "", f[i]);
+            used += w > 0 ? (size_t)w : 0;
+        }
+        if (rd->col_x < 0)
+            return pw_error_set(err, PW_EPARSE, rd->name, line,
+                                "no x1 column in the header row (found %zu column%s: %s; expected "
+                                "x1 or w1, optional y1 or wy1, and %s, separated by ',' or ';')",
+                                n, n == 1 ? "" : "s", found, isobaric ? "T[UNIT]" : "P[UNIT]");
+    }
     rd->ds.composition_line = line;
     if (rd->col_m < 0)
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "no %s column in the header row (expected one for %s data, as the "
-                            "metadata fixes the %s)",
+                            "metadata fixes the %s; spellings T[C], T [C], T (C))",
                             isobaric ? "T[UNIT]" : "P[UNIT]",
                             isobaric ? "isobaric T-x-y" : "isothermal P-x-y",
                             isobaric ? "pressure" : "temperature");
@@ -153,11 +178,14 @@ static pw_status fraction(pw_ds_reader *rd, const char *text, const char *what, 
     if (text[0] == '\0')
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s is empty (expected a %s between 0 and 1)", what, kind);
-    char sb[48];
-    if (!pw_csvrows_number(text, out))
+    char sb[48], num[128];
+    if (!pw_ds_decimal_point(rd, text, num, sizeof num) || !pw_csvrows_number(num, out))
         return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "%s = '%s' is not a number (expected a %s between 0 and 1)", what,
-                            shown(text, sb), kind);
+                            "%s = '%s' is not a number (expected a %s between 0 and 1%s)", what,
+                            shown(text, sb), kind,
+                            strchr(text, ',') ? "; a decimal comma is read only in files whose "
+                                                "fields are separated by ';'"
+                                              : "");
     if (*out < 0.0 || *out > 1.0)
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s = %s is outside [0, 1] (expected a %s%s)", what, text, kind,
@@ -179,8 +207,12 @@ static pw_status data_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_er
                             "before the header only)");
     if (n != rd->ncols)
         return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "row has %zu fields (expected %zu, as in the header on line %ld)", n,
-                            rd->ncols, rd->header_line);
+                            "row has %zu fields (expected %zu, as in the header on line %ld)%s", n,
+                            rd->ncols, rd->header_line,
+                            n > rd->ncols && rd->delim == ','
+                                ? "; if the numbers use decimal commas, separate the fields with "
+                                  "';' (as spreadsheets export them)"
+                                : "");
     if ((st = fraction(rd, f[rd->col_x], ds->mass_x ? "w1" : "x1", line, &p.x1, err)))
         return st;
     p.y1 = NAN;
@@ -207,11 +239,14 @@ static pw_status data_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_er
     if (text[0] == '\0')
         return pw_error_set(err, PW_EPARSE, rd->name, line, "%s is empty (expected a number in %s)",
                             what, unit);
-    char sb[48];
-    if (!pw_csvrows_number(text, &v))
+    char sb[48], num[128];
+    if (!pw_ds_decimal_point(rd, text, num, sizeof num) || !pw_csvrows_number(num, &v))
         return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "%s = '%s' is not a number (expected a finite decimal number in %s)",
-                            what, shown(text, sb), unit);
+                            "%s = '%s' is not a number (expected a finite decimal number in %s%s)",
+                            what, shown(text, sb), unit,
+                            strchr(text, ',') ? "; a decimal comma is read only in files whose "
+                                                "fields are separated by ';'"
+                                              : "");
     if (pw_units_to_si(isobaric ? PW_QTY_TEMPERATURE : PW_QTY_PRESSURE, v, unit, &si) != PW_OK)
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s = %s %s is not positive (expected an absolute %s above zero)",
@@ -267,8 +302,12 @@ pw_status pw_dataset_parse_chunked(const char *buf, size_t len, const char *name
         return ust;
     pw_ds_reader rd;
     pw_ds_reader_init(&rd, nm);
+    /* a spreadsheet export may separate fields with ';' (and then write decimal commas) */
+    rd.delim = pw_csvrows_detect_delim(buf, len);
+    rd.decimal_comma = rd.delim != ',';
     pw_csvrows r;
     pw_status st = pw_csvrows_init(&r, rd.name, on_line, on_row, &rd, err);
+    pw_csvrows_set_delim(&r, rd.delim);
     if (st == PW_OK)
         st = pw_csvrows_feed_all(&r, buf, len, chunk);
     long last_line = r.line;

@@ -25,6 +25,20 @@ void pw_ds_reader_init(pw_ds_reader *rd, const char *name)
     rd->ds.sigma_y = 0.004;
     rd->ds.sigma_x = 0.001;
     rd->col_x = rd->col_y = rd->col_m = -1;
+    rd->delim = ',';
+}
+
+bool pw_ds_decimal_point(const pw_ds_reader *rd, const char *text, char *out, size_t cap)
+{
+    if (strlen(text) >= cap) {
+        out[0] = '\0'; /* too long for a number: nothing that reads as one */
+        return false;
+    }
+    snprintf(out, cap, "%s", text);
+    for (char *p = out; rd->decimal_comma && *p; p++)
+        if (*p == ',')
+            *p = '.';
+    return true;
 }
 
 void pw_ds_reader_free(pw_ds_reader *rd)
@@ -68,6 +82,8 @@ static pw_status components(pw_ds_reader *rd, const char *value, long line, pw_e
     pw_error inner;
     pw_error_clear(&inner);
     pw_status st = pw_csvrows_init(&r, rd->name, NULL, names_row, &nc, &inner);
+    if (st == PW_OK && rd->delim != ',' && !strchr(value, ',') && strchr(value, rd->delim))
+        pw_csvrows_set_delim(&r, rd->delim);
     if (st == PW_OK)
         st = pw_csvrows_feed(&r, value, strlen(value));
     if (st == PW_OK)
@@ -111,8 +127,11 @@ static pw_status fixed_state(pw_ds_reader *rd, bool is_T, const char *value, lon
     char unit[32];
     if (!pw_dataset_split_quantity(value, &v, unit, sizeof unit))
         return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "%s: '%s' is not a number with a unit (expected e.g. %s; units: %s)",
-                            key, value, is_T ? "50 C" : "101.325 kPa", pw_units_list(q));
+                            "%s: '%s' is not a number with a unit (expected e.g. %s; units: %s)%s",
+                            key, value, is_T ? "50 C" : "101.325 kPa", pw_units_list(q),
+                            strchr(value, ',') ? "; a decimal comma is read only in files whose "
+                                                 "fields are separated by ';'"
+                                               : "");
     if (!pw_units_known(q, unit))
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s: unknown unit '%s' (expected one of %s)", key, unit,
@@ -218,7 +237,8 @@ pw_status pw_ds_meta_line(pw_ds_reader *rd, const char *text, size_t len, long l
         v++;
     char value[PW_ERROR_MSG_MAX / 2];
     size_t vl = strlen(v);
-    while (vl && isspace((unsigned char)v[vl - 1]))
+    /* blanks, and the empty cells a spreadsheet adds after the one that holds the line */
+    while (vl && (isspace((unsigned char)v[vl - 1]) || v[vl - 1] == rd->delim))
         vl--;
     pw_status st = remember_key(rd, key, line, err);
     if (st != PW_OK)
@@ -247,6 +267,11 @@ pw_status pw_ds_meta_line(pw_ds_reader *rd, const char *text, size_t len, long l
                             vl, sizeof value - 1);
     memcpy(value, v, vl);
     value[vl] = '\0';
+    if (rd->decimal_comma && strcmp(key, "components") != 0 && strcmp(key, "source") != 0) {
+        char tmp[sizeof value];
+        (void)pw_ds_decimal_point(rd, value, tmp, sizeof tmp); /* fits: same size */
+        memcpy(value, tmp, sizeof value);
+    }
     if (strcmp(key, "components") == 0)
         return components(rd, value, line, err);
     if (strcmp(key, "pressure") == 0)

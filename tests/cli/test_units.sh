@@ -52,6 +52,21 @@ for k, v in a["parameters"].items():
 assert abs(a["aad_T_K"] - b["aad_T_K"]) < 1e-6
 PY
 
+# A spreadsheet export of the same data: ';' between fields, decimal commas, quoted metadata cells.
+python3 - "$src/datasets/ethanol_water_1atm.csv" <<'PY' || fail "semicolon export"
+import sys
+out = []
+for line in open(sys.argv[1]):
+    line = line.rstrip("\n")
+    if line.startswith("#"):
+        out.append('"%s";;' % line.replace('"', '""') if "," in line else line + ";;")
+    else:
+        out.append(line.replace(",", ";").replace(".", ",").replace("T[C]", "T (°C)"))
+open("ew_semi.csv", "w", encoding="utf-8").write("\r\n".join(out) + "\r\n")
+PY
+"$pw" fit ew_semi.csv --model wilson --components comp.csv --out semi.json --json > fs.json 2>/dev/null || fail "fit of a semicolon export"
+python3 -c 'import json; a,b=json.load(open("fm.json")),json.load(open("fs.json")); assert a["parameters"]==b["parameters"], (a["parameters"], b["parameters"])' || fail "semicolon export fits differently"
+
 # No molar mass: refused, naming the file, line, column and component.
 "$pw" fit ew_mass.csv --model wilson --components comp_noM.csv --out x.json 2> e.txt >/dev/null && fail "fit without M accepted"
 grep -q "ew_mass.csv:5:" e.txt || fail "no file:line in: $(cat e.txt)"

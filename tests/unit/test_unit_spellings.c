@@ -258,6 +258,62 @@ static void header_spellings(void **state)
     pw_dataset_free(&ds);
 }
 
+/* Files as spreadsheets export them (invented numbers, reader round trips only). */
+static void spreadsheet_exports(void **state)
+{
+    (void)state;
+    const char *semi = "\xef\xbb\xbf\"# components: ethanol; water\";;\r\n"
+                       "# pressure: 101,325 kPa;;\r\n"
+                       "# sigma_T: 0,1 K;;\r\n"
+                       "x1;y1;T (\xc2\xb0"
+                       "C)\r\n"
+                       "0,1;0,43;86,7\r\n"
+                       "0,5;0,65;79,8\r\n";
+    pw_dataset ds;
+    pw_error err;
+    pw_error_clear(&err);
+    if (pw_dataset_parse(semi, strlen(semi), "semi.csv", &ds, &err) != PW_OK) {
+        print_error("semicolon file refused: %s:%ld: %s\n", err.file, err.line, err.msg);
+        fail();
+    }
+    assert_string_equal(ds.names[0], "ethanol");
+    assert_string_equal(ds.names[1], "water");
+    pw_assert_close(ds.P_fixed_Pa, 101325.0, 1e-15, 0, "101,325 kPa");
+    pw_assert_close(ds.sigma_T_K, 0.1, 1e-15, 0, "0,1 K");
+    assert_int_equal(ds.n, 2);
+    pw_assert_close(ds.pts[0].x1, 0.1, 0, 0, "0,1");
+    pw_assert_close(ds.pts[0].y1, 0.43, 0, 0, "0,43");
+    pw_assert_close(ds.pts[1].T_K, 352.95, 1e-14, 0, "79,8 C");
+    pw_dataset_free(&ds);
+
+    const char *tabs = "# components: a, b\n# pressure: 1 atm\nx1\tT[K]\n0.5\t350\n0.6\t349\n";
+    assert_int_equal(pw_dataset_parse(tabs, strlen(tabs), "tabs.csv", &ds, &err), PW_OK);
+    pw_assert_close(ds.pts[1].T_K, 349.0, 0, 0, "tab separated");
+    pw_dataset_free(&ds);
+
+    const char *cells = "\"# components: a, b\",,\n# pressure: 1 atm,,\nx1,y1,T[K]\n0.5,0.6,350\n";
+    assert_int_equal(pw_dataset_parse(cells, strlen(cells), "cells.csv", &ds, &err), PW_OK);
+    assert_string_equal(ds.names[1], "b");
+    pw_dataset_free(&ds);
+
+    /* decimal commas in a comma-separated file: refused with what was found and what to do */
+    const char *dc = "# components: a, b\n# pressure: 1 atm\nx1,y1,T[K]\n0,5,0,6,350\n";
+    assert_int_equal(pw_dataset_parse(dc, strlen(dc), "dc.csv", &ds, &err), PW_EPARSE);
+    assert_non_null(strstr(err.msg, "row has 5 fields"));
+    assert_non_null(strstr(err.msg, "decimal commas"));
+    const char *dq = "# components: a, b\n# pressure: 1 atm\nx1,T[K]\n\"0,5\",350\n";
+    assert_int_equal(pw_dataset_parse(dq, strlen(dq), "dq.csv", &ds, &err), PW_EPARSE);
+    assert_non_null(strstr(err.msg, "'0,5' is not a number"));
+    assert_non_null(strstr(err.msg, "decimal comma"));
+    const char *pc = "# components: a, b\n# pressure: 101,325 kPa\nx1,T[K]\n0.5,350\n";
+    assert_int_equal(pw_dataset_parse(pc, strlen(pc), "pc.csv", &ds, &err), PW_EPARSE);
+    assert_non_null(strstr(err.msg, "decimal comma"));
+    /* the first line after the metadata names what the reader saw */
+    const char *nox = "# components: a, b\n# pressure: 1 atm\nX_1|T[K]\n0.5|350\n";
+    assert_int_equal(pw_dataset_parse(nox, strlen(nox), "nox.csv", &ds, &err), PW_EPARSE);
+    assert_non_null(strstr(err.msg, "no x1 column"));
+}
+
 int main(void)
 {
     pw_test_init();
@@ -265,7 +321,7 @@ int main(void)
         cmocka_unit_test(aliases_by_definition),  cmocka_unit_test(blank_between_number_and_unit),
         cmocka_unit_test(uncertainty_syntax),     cmocka_unit_test(composition_syntax),
         cmocka_unit_test(mass_to_mole),           cmocka_unit_test(dataset_mass_columns),
-        cmocka_unit_test(header_spellings),
+        cmocka_unit_test(header_spellings),       cmocka_unit_test(spreadsheet_exports),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
