@@ -1,6 +1,8 @@
 #include "cli.h"
 #include "cli_units.h"
 
+#include <pinchwise/jsontext.h>
+
 #include <errno.h>
 #include <math.h>
 #include <stdarg.h>
@@ -85,8 +87,14 @@ pw_status pw_cli_number(const char *opt, const char *text, double *value, pw_err
 
 int pw_cli_print_json(json_t *obj)
 {
-    int rc = json_dumpf(obj, stdout, JSON_INDENT(2) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER);
+    char *full = json_dumps(obj, JSON_INDENT(2) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER);
     json_decref(obj);
+    char *text = pw_json_shortest_reals(full); /* 0.8, not 0.80000000000000004 */
+    free(full);
+    if (!text)
+        return pw_status_exit_code(PW_ENOMEM);
+    int rc = fputs(text, stdout) == EOF ? -1 : 0;
+    free(text);
     if (rc != 0 || fputc('\n', stdout) == EOF || fflush(stdout) != 0)
         return pw_status_exit_code(PW_EIO);
     return 0;

@@ -118,4 +118,20 @@ grep -q -- "--xd" e.txt && grep -q "ethanol" e.txt && grep -q "M_g_mol" e.txt ||
 python3 -c 'import json; a,b=json.load(open("s1.txt")),json.load(open("s2.txt")); assert a["parameters"]==b["parameters"]' || fail "0.2% and 0.2 differ"
 "$pw" fit "$src/datasets/ethanol_water_1atm.csv" --model wilson --out s4.json --sigma-P 0.05furlong 2> e.txt >/dev/null && fail "bad --sigma-P accepted"
 grep -q -- "--sigma-P" e.txt && grep -q "furlong" e.txt || fail "sigma message: $(cat e.txt)"
+# JSON numbers as the shortest text that reads back (checked against Python's float repr, which
+# is the shortest round-trip form): no 0.80000000000000004.
+"$pw" reflux mole.json --pressure 1atm --xd 0.8 --xb 0.02 --zf 0.2 --factors 1.1,1.3 --json > short.json 2>/dev/null || fail "reflux for the number check"
+grep -q '"xd": 0.8,' short.json || fail "xd not written as 0.8"
+grep -q '0000000000000[0-9]' short.json && fail "a long round-off tail in: $(grep -m1 '0000000000000[0-9]' short.json)"
+python3 - <<'PY' || fail "reals not shortest"
+import re
+text = open("short.json").read()
+text = re.sub(r'"(?:[^"\\]|\\.)*"', '""', text)  # strings out
+for tok in re.findall(r'-?\d[\d.eE+-]*', text):
+    if not re.search(r'[.eE]', tok):
+        continue
+    v = float(tok)
+    digits = lambda s: len(re.sub(r'^0+', '', re.sub(r'[eE].*$', '', s.lstrip('-')).replace('.', '')).rstrip('0') or '0')
+    assert digits(tok) <= max(digits(repr(v)), 1), (tok, repr(v))
+PY
 echo "ok"
