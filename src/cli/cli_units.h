@@ -30,6 +30,13 @@ pw_status pw_cli_composition_to_mole(const char *opt, double *x, pw_basis b, con
     "                      over the ones otherwise used: the shipped library's when reading\n"   \
     "                      data, the fit file's recorded rows when reading a fit\n"
 
+/* --exit-verdict: a negative verdict (a split that cannot be made, data not shown consistent, an
+ * infeasible screen) exits with this status, for scripts; without the option such a verdict is a
+ * result and the status is 0. It is the status of PW_EINFEASIBLE. */
+#define PW_CLI_EXIT_VERDICT 7
+#define PW_CLI_HELP_EXIT_VERDICT                                                                  \
+    "  --exit-verdict      exit with status 7 when the verdict is negative (see README)\n"
+
 /* argv with every "--name=value" split into "--name" and "value" (at the first '='); a new
  * NULL-terminated array of *n_out new strings, freed with pw_cli_split_free. NULL when out of
  * memory. Arguments that do not start with "--" are copied unchanged. */

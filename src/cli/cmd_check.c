@@ -26,6 +26,7 @@ static void usage(FILE *f)
     fprintf(f, "usage: pinchwise check DATA.csv [--components FILE] [--strict] [--json]\n"
                "  thermodynamic consistency tests of a measured binary VLE data file\n"
                PW_CLI_HELP_COMPONENTS
+               "  --exit-verdict     exit with status 7 when the data are not shown consistent\n"
                "  --strict           every test that ran must pass for a 'consistent' verdict\n"
                "  --json             print one JSON object on stdout\n");
 }
@@ -307,7 +308,7 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
 int pw_cli_check(int argc, char **argv)
 {
     const char *data = NULL, *comp_file = NULL;
-    bool json = false, strict = false, missing = false;
+    bool json = false, strict = false, missing = false, exit_verdict = false;
     for (int i = 1; i < argc; i++) {
         if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h")) {
             usage(stdout);
@@ -319,6 +320,8 @@ int pw_cli_check(int argc, char **argv)
             json = true;
         } else if (pw_cli_opt(argc, argv, &i, "--strict", NULL, NULL)) {
             strict = true;
+        } else if (pw_cli_opt(argc, argv, &i, "--exit-verdict", NULL, NULL)) {
+            exit_verdict = true;
         } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
             return pw_cli_failf("check", PW_EXIT_USAGE, "unknown option '%s'", argv[i]);
         } else if (data) {
@@ -371,6 +374,8 @@ int pw_cli_check(int argc, char **argv)
             code = pw_cli_print_json(result_json(&ds, &r, strict));
         else
             print_text(&ds, &r);
+        if (code == 0 && exit_verdict && !r.consistent)
+            code = PW_CLI_EXIT_VERDICT;
     }
     pw_consistency_result_free(&r);
     pw_dataset_free(&ds);

@@ -31,6 +31,7 @@ static void usage(FILE *f)
             "  --compare FIT.json  another model's fit of the same data (repeatable): R_min\n"
             "                      side by side, ranked by AICc\n"
             PW_CLI_HELP_COMPONENTS
+            PW_CLI_HELP_EXIT_VERDICT
             "  --json              print one JSON object on stdout\n");
 }
 
@@ -188,5 +189,7 @@ int pw_cli_reflux(int argc, char **argv)
             pw_reflux_uncert_print(&unc, &run);
     }
     pw_fit_result_free(&run.fit);
+    if (rc == 0 && a.exit_verdict && !run.col.feasible)
+        rc = PW_CLI_EXIT_VERDICT;
     return rc;
 }

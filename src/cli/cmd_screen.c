@@ -17,6 +17,7 @@ static void usage(FILE *f)
             "usage: pinchwise screen FIT.json --pressure P --xd X --xb X [--zf X] [--json]\n"
             "  --uncertainty       propagate the fit's uncertainty (--samples N, --seed N)\n"
             PW_CLI_HELP_COMPONENTS
+            PW_CLI_HELP_EXIT_VERDICT
             "\n"
             "Verdict (feasible / difficult / infeasible by simple distillation) with its reasons:\n"
             "lowest relative volatility on [xb, xd], azeotrope barrier, azeotrope shift over\n"
@@ -38,7 +39,7 @@ typedef struct args {
     double P_Pa, xd, xb, zf;
     bool have_P, have_xd, have_xb, json;
     pw_basis basis[3]; /* of xd, xb, zf as given */
-    bool uncertainty;
+    bool uncertainty, exit_verdict;
     const char *components;
     const char *extra[4]; /* --samples N, --seed N for the uncertainty extension */
     int n_extra;
@@ -97,6 +98,10 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
         }
         if (!strcmp(opt, "--uncertainty")) {
             a->uncertainty = true;
+            continue;
+        }
+        if (!strcmp(opt, "--exit-verdict")) {
+            a->exit_verdict = true;
             continue;
         }
         if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") || !strcmp(opt, "--components")) {
@@ -327,5 +332,7 @@ int pw_cli_screen(int argc, char **argv)
         rc = fflush(stdout) ? 4 : 0;
     }
     pw_fit_result_free(&fit);
+    if (rc == 0 && a.exit_verdict && r.verdict == PW_VERDICT_INFEASIBLE)
+        rc = PW_CLI_EXIT_VERDICT;
     return rc;
 }

@@ -52,6 +52,10 @@ int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err
             a->uncertainty = true;
             continue;
         }
+        if (pw_cli_opt(argc, argv, &i, "--exit-verdict", NULL, NULL)) {
+            a->exit_verdict = true;
+            continue;
+        }
         if (!strncmp(argv[i], "--", 2)) {
             const char *opt = argv[i];
             if (!(pw_cli_opt(argc, argv, &i, opt, &v, &missing)) || missing) {

@@ -19,6 +19,7 @@ typedef struct pw_reflux_args {
     pw_basis basis[3]; /* of xd, xb, zf as given; converted to mole fractions in pw_reflux_compute */
     /* options other commands add; unknown ones are rejected */
     bool uncertainty;
+    bool exit_verdict; /* --exit-verdict: status 7 for an infeasible split */
     const char *extra[16];
     int n_extra;
 } pw_reflux_args;

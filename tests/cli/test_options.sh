@@ -68,4 +68,14 @@ grep -q "stages at 1.1 R_min" u.txt || fail "uncertainty text: $(grep -i 'stages
 grep -q "stages at 1.3 R_min" u.txt && fail "1.3 quoted although not asked for"
 "$pw" reflux ew.json --pressure 1atm --xd 0.8 --xb 0.02 --zf 0.2 --factors 1.1,2 --uncertainty --samples 30 --json > u.json 2>/dev/null || fail "uncertainty json"
 python3 -c 'import json; d=json.load(open("u.json")); f=d["uncertainty"]["stages_operating"]["reflux_factor"]; assert abs(f-1.1)<1e-12, f' || fail "reflux_factor key"
+# --exit-verdict: a negative verdict becomes status 7 for scripts; without it, status 0.
+"$pw" reflux ew.json --pressure 1atm --xd 0.95 --xb 0.05 --zf 0.3 --json > inf.json 2>/dev/null || fail "infeasible split is a result"
+python3 -c 'import json; assert json.load(open("inf.json"))["feasible"] is False' || fail "not infeasible"
+"$pw" reflux ew.json --pressure 1atm --xd 0.95 --xb 0.05 --zf 0.3 --json --exit-verdict > inf2.json 2>/dev/null; rc=$?
+test $rc -eq 7 || fail "reflux --exit-verdict status $rc"
+cmp -s inf.json inf2.json || fail "--exit-verdict changed the output"
+"$pw" reflux ew.json --pressure 1atm --xd 0.8 --xb 0.02 --zf 0.2 --exit-verdict >/dev/null 2>&1 || fail "feasible split with --exit-verdict"
+"$pw" screen ew.json --pressure 1atm --xd 0.95 --xb 0.05 --exit-verdict >/dev/null 2>&1; rc=$?
+test $rc -eq 7 || fail "screen --exit-verdict status $rc"
+"$pw" check dd/ethanol_water_1atm.csv --exit-verdict >/dev/null 2>&1 || fail "consistent data with --exit-verdict"
 echo ok
