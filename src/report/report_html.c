@@ -754,6 +754,7 @@ pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c
     pw_sbuf_puts(b, "</p></header>\n");
     pw_sbuf_puts(b, "<p class=\"note\"><strong>Screening only.</strong> See the cautions at the end "
                     "before using any number on this page.</p>\n");
+    pw_report_summary_html(b, c); /* the answers first */
     provenance(b, r, in);
     if (c->n_failed)
         pw_sbuf_printf(b, "<p class=\"note\">%zu equilibrium solves on the plotted grids did not "

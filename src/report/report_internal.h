@@ -109,6 +109,10 @@ pw_status pw_report_render_csv(struct pw_report *rep, const pw_report_curves *c)
 pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c,
                                 const pw_report_input *in);
 
+/* The summary block at the top of the page (report_summary.c): the answers first, each linked to
+ * the section with its evidence. */
+pw_status pw_report_summary_html(pw_sbuf *b, const pw_report_curves *c);
+
 /* Short words for displaying conditions: "101.3 kPa", "323.15 K". */
 void pw_report_condition(const pw_fit_result *r, char *buf, size_t len);
 

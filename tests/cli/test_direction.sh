@@ -88,6 +88,16 @@ PY
 # report with the targets either way round, and --uncertainty on reflux.
 "$pw" report ab.json --out rep.html --pressure 1atm --xd 0.72 --zf 0.85 --xb 0.99 --json > rep.json 2>/dev/null || fail "report down"
 grep -q "<svg" rep.html || fail "report has no plot"
+python3 - <<'PY' || fail "report summary"
+h = open("rep.html", encoding="utf-8").read()
+s, p = h.find('id="summary"'), h.find('id="plots"')
+assert 0 < s < p, (s, p)
+block = h[s:p]
+for words in ("Minimum reflux", "which goes to the bottoms", "Feasibility", "Stages", "Warnings"):
+    assert words in block, words
+import re
+assert not re.search(r"\bnan\b", block, re.I), "nan in the summary"
+PY
 "$pw" reflux ab.json --pressure 1atm --xd 0.72 --zf 0.85 --xb 0.99 --uncertainty --samples 40 --json > ud.json 2>/dev/null || fail "uncertainty down"
 python3 - <<'PY' || fail "uncertainty keys"
 import json
