@@ -25,6 +25,7 @@ int pw_cli_azeotrope(int argc, char **argv);
 int pw_cli_reflux(int argc, char **argv);
 int pw_cli_screen(int argc, char **argv);
 int pw_cli_report(int argc, char **argv);
+int pw_cli_study(int argc, char **argv);
 
 /* Prints "pinchwise CMD: file:line: message" as one line on stderr and returns the exit code
  * for err->status. */

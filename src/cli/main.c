@@ -15,6 +15,7 @@ static const pw_cli_command commands[] = {
     {"reflux", "minimum reflux, pinch, and stages of a binary column", pw_cli_reflux},
     {"screen", "quick feasibility verdict for a split", pw_cli_screen},
     {"report", "self-contained HTML report of a fit (and a column)", pw_cli_report},
+    {"study", "the whole study of a data file and a split, into one folder", pw_cli_study},
 };
 
 static void usage(FILE *f)
