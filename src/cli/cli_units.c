@@ -5,6 +5,7 @@
 
 #include <math.h>
 #include <pinchwise/composition.h>
+#include <pinchwise/fit_minimum.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -108,4 +109,32 @@ void pw_cli_split_free(char **args, int n)
     for (int i = 0; i < n; i++)
         free(args[i]);
     free(args);
+}
+
+pw_status pw_cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *text,
+                               size_t *chosen, pw_error *err)
+{
+    *chosen = 0;
+    if (!text)
+        return PW_OK;
+    double n;
+    if (pw_cli_number("--minimum", text, &n, err) != PW_OK)
+        return PW_EINVAL;
+    if (!(n >= 1.0 && n <= 1000.0) || n != floor(n))
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "--minimum %s: expected a whole number from 1 (the lowest chi-square)",
+                            text);
+    bool was = false;
+    size_t k = (size_t)n;
+    if (k <= fit->n_minima)
+        was = !memcmp(fit->minima[k - 1].params, fit->sys.params, sizeof fit->sys.params);
+    pw_status st = pw_fit_use_minimum(fit, k, err);
+    if (st != PW_OK)
+        return st;
+    *chosen = k;
+    if (!was)
+        pw_cli_warnf(cmd, "using minimum %zu of %zu (chi-square %.6g), not the one the fit chose%s",
+                     k, fit->n_minima, fit->chi2,
+                     fit->split ? "; it predicts a liquid split" : "");
+    return PW_OK;
 }

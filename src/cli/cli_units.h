@@ -4,6 +4,7 @@
 #define PW_CLI_UNITS_H
 
 #include <pinchwise/equilibrium.h>
+#include <pinchwise/fit.h>
 #include <pinchwise/status.h>
 #include <pinchwise/units.h>
 
@@ -36,6 +37,15 @@ pw_status pw_cli_composition_to_mole(const char *opt, double *x, pw_basis b, con
 #define PW_CLI_EXIT_VERDICT 7
 #define PW_CLI_HELP_EXIT_VERDICT                                                                  \
     "  --exit-verdict      exit with status 7 when the verdict is negative (see README)\n"
+
+/* --minimum N on a command that reads a fit file: makes the fit's N-th distinct minimum (1 = the
+ * lowest chi-square) its parameters, covariance recomputed (pw_fit_use_minimum), and says so on
+ * stderr. text NULL: nothing. *chosen is N, or 0 when not given. */
+pw_status pw_cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *text,
+                               size_t *chosen, pw_error *err);
+#define PW_CLI_HELP_MINIMUM                                                                       \
+    "  --minimum N         use the fit's N-th distinct minimum (1 = lowest chi-square; the fit\n" \
+    "                      file lists them under \"minima\") instead of the one the fit chose\n"
 
 /* argv with every "--name=value" split into "--name" and "value" (at the first '='); a new
  * NULL-terminated array of *n_out new strings, freed with pw_cli_split_free. NULL when out of

@@ -31,6 +31,7 @@ static void usage(FILE *f)
             "                      covariance (linearised and sampled)\n"
             "  --samples N         parameter sets drawn (default 400); --seed N (default 1)\n"
             PW_CLI_HELP_COMPONENTS
+            PW_CLI_HELP_MINIMUM
             "  --json              print one JSON object on stdout\n");
 }
 
@@ -43,6 +44,7 @@ typedef struct args {
     pw_azeo_uncert unc;
     const char *components;
     const char *scan_text; /* --sweep (or --scan) as given */
+    const char *minimum;   /* --minimum N as given */
 } args;
 
 static int parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
@@ -113,6 +115,12 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
                 return PW_EXIT_USAGE;
             }
             scan_text = v;
+        } else if (pw_cli_opt(argc, argv, &i, "--minimum", &v, &missing)) {
+            if (missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "--minimum needs a number");
+                return PW_EXIT_USAGE;
+            }
+            a->minimum = v;
         } else if (pw_cli_opt(argc, argv, &i, "--components", &v, &missing)) {
             if (missing) {
                 pw_error_set(err, PW_EINVAL, NULL, 0, "--components needs a file");
@@ -289,6 +297,11 @@ int pw_cli_azeotrope(int argc, char **argv)
     pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
     if (st != PW_OK)
         return pw_cli_fail(CMD, &err);
+    size_t minimum = 0;
+    if (pw_cli_apply_minimum(CMD, &fit, a.minimum, &minimum, &err) != PW_OK) {
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
     if ((rc = settle_condition(&a, &fit, &err)) != 0) {
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
@@ -333,6 +346,8 @@ int pw_cli_azeotrope(int argc, char **argv)
         if (a.unc.on)
             pw_azeo_uncert_json(&a.unc, &r, list);
         json_object_set_new(o, "azeotropes", list);
+        if (minimum)
+            json_object_set_new(o, "minimum", json_integer((json_int_t)minimum));
         json_object_set_new(o, "mode", json_string(a.mode == PW_AZ_ISOBARIC ? "isobaric"
                                                                             : "isothermal"));
         if (a.mode == PW_AZ_ISOBARIC)

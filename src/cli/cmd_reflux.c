@@ -31,6 +31,7 @@ static void usage(FILE *f)
             "  --compare FIT.json  another model's fit of the same data (repeatable): R_min\n"
             "                      side by side, ranked by AICc\n"
             PW_CLI_HELP_COMPONENTS
+            PW_CLI_HELP_MINIMUM
             PW_CLI_HELP_EXIT_VERDICT
             "  --json              print one JSON object on stdout\n");
 }
@@ -180,6 +181,8 @@ int pw_cli_reflux(int argc, char **argv)
     pw_reflux_warn(&run);
     if (a.json) {
         json_t *o = pw_reflux_json(&run);
+        if (run.minimum)
+            json_object_set_new(o, "minimum", json_integer((json_int_t)run.minimum));
         if (with_unc)
             pw_reflux_uncert_json(&unc, o);
         rc = pw_cli_print_json(o);

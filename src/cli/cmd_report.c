@@ -32,6 +32,7 @@ static void usage(FILE *f)
             "  --svg DIR               also write each plot as DIR/<name>.svg\n"
             "  --csv DIR               also write the curves behind the plots as DIR/<name>.csv\n"
             PW_CLI_HELP_COMPONENTS
+            PW_CLI_HELP_MINIMUM
             "  --compare FIT.json      another model of the same data for the side-by-side table\n"
             "                          (repeatable; default: the <stem>.<model>.json files beside\n"
             "                          FIT.json that `fit --model all` writes)\n"
@@ -40,7 +41,7 @@ static void usage(FILE *f)
 }
 
 typedef struct report_args {
-    const char *fit, *out, *svg, *csv, *components;
+    const char *fit, *out, *svg, *csv, *components, *minimum;
     bool json, force;
     bool have_P, have_xd, have_xb, have_zf;
     double P_Pa, factor;
@@ -121,7 +122,7 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
             const char *opt = argv[i];
             static const char *const known[] = {"--out", "--pressure", "--xd", "--xb", "--zf", "--q",
                                                 "--operating-factor", "--factors", "--svg", "--csv",
-                                                "--components", "--compare"};
+                                                "--components", "--compare", "--minimum"};
             bool ok = false;
             for (size_t k = 0; k < sizeof known / sizeof known[0]; k++)
                 ok = ok || !strcmp(opt, known[k]);
@@ -141,6 +142,8 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
                 a->csv = v;
             else if (!strcmp(opt, "--components"))
                 a->components = v;
+            else if (!strcmp(opt, "--minimum"))
+                a->minimum = v;
             else if (!strcmp(opt, "--compare")) {
                 if (a->n_compare == REPORT_MAX_OTHERS) {
                     pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
@@ -234,6 +237,11 @@ int pw_cli_report(int argc, char **argv)
     pw_status st = pw_cli_read_fit("report", a.fit, a.components, &fit, &err);
     if (st != PW_OK)
         return pw_cli_fail("report", &err);
+    size_t minimum = 0;
+    if (pw_cli_apply_minimum("report", &fit, a.minimum, &minimum, &err) != PW_OK) {
+        pw_fit_result_free(&fit);
+        return pw_cli_fail("report", &err);
+    }
     if (!fit.converged)
         pw_cli_warnf("report", "%s: the fit did not converge; the report says so on every page", a.fit);
     if (a.have_P) {

@@ -17,6 +17,7 @@ static void usage(FILE *f)
             "usage: pinchwise screen FIT.json --pressure P --xd X --xb X [--zf X] [--json]\n"
             "  --uncertainty       propagate the fit's uncertainty (--samples N, --seed N)\n"
             PW_CLI_HELP_COMPONENTS
+            PW_CLI_HELP_MINIMUM
             PW_CLI_HELP_EXIT_VERDICT
             "\n"
             "Verdict (feasible / difficult / infeasible by simple distillation) with its reasons:\n"
@@ -40,7 +41,7 @@ typedef struct args {
     bool have_P, have_xd, have_xb, json;
     pw_basis basis[3]; /* of xd, xb, zf as given */
     bool uncertainty, exit_verdict;
-    const char *components;
+    const char *components, *minimum;
     const char *extra[4]; /* --samples N, --seed N for the uncertainty extension */
     int n_extra;
     pw_screen_options opt;
@@ -104,7 +105,8 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
             a->exit_verdict = true;
             continue;
         }
-        if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") || !strcmp(opt, "--components")) {
+        if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") || !strcmp(opt, "--components") ||
+            !strcmp(opt, "--minimum")) {
             pw_cli_opt(argc, argv, &i, opt, &v, &missing);
             if (missing) {
                 pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
@@ -112,6 +114,8 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
             }
             if (!strcmp(opt, "--components")) {
                 a->components = v;
+            } else if (!strcmp(opt, "--minimum")) {
+                a->minimum = v;
             } else {
                 if (a->n_extra + 2 > 4) {
                     pw_error_set(err, PW_EINVAL, NULL, 0, "%s given twice", opt);
@@ -278,7 +282,9 @@ int pw_cli_screen(int argc, char **argv)
     memset(&fit, 0, sizeof fit);
     if (pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
-    if (pw_cli_targets_to_mole(&a.xd, &a.xb, &a.zf, a.basis, &fit.sys, &err) != PW_OK ||
+    size_t minimum = 0;
+    if (pw_cli_apply_minimum(CMD, &fit, a.minimum, &minimum, &err) != PW_OK ||
+        pw_cli_targets_to_mole(&a.xd, &a.xb, &a.zf, a.basis, &fit.sys, &err) != PW_OK ||
         check_targets(&a, &err) != 0) {
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
@@ -322,6 +328,8 @@ int pw_cli_screen(int argc, char **argv)
     }
     if (a.json) {
         json_t *j = to_json(&fit, &r, &a.opt);
+        if (minimum)
+            json_object_set_new(j, "minimum", json_integer((json_int_t)minimum));
         if (unc)
             pw_reflux_uncert_json(&u, j);
         rc = pw_cli_print_json(j);

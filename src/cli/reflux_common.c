@@ -1,6 +1,7 @@
 #include "reflux_common.h"
 
 #include "cli.h"
+#include "cli_units.h"
 
 #include <math.h>
 #include <pinchwise/curve.h>
@@ -67,6 +68,8 @@ int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err
                 rc = trc; /* --pressure, --xd, --xb, --zf, --q: parsed into tg */
             } else if (!strcmp(opt, "--components")) {
                 a->components = v;
+            } else if (!strcmp(opt, "--minimum")) {
+                a->minimum = v;
             } else if (!strcmp(opt, "--factors") || !strcmp(opt, "--operating-factor")) {
                 rc = parse_factors(v, &a->opt, err) ? PW_EXIT_USAGE : 0;
             } else if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") ||
@@ -123,6 +126,9 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
 {
     memset(run, 0, sizeof *run);
     pw_status st = pw_cli_read_fit("reflux", a->fit_path, a->components, &run->fit, err);
+    if (st == PW_OK && (st = pw_cli_apply_minimum("reflux", &run->fit, a->minimum, &run->minimum,
+                                                  err)) != PW_OK)
+        pw_fit_result_free(&run->fit);
     if (st != PW_OK)
         return pw_status_exit_code(st);
     run->P_Pa = a->P_Pa;

@@ -20,6 +20,7 @@ typedef struct pw_reflux_args {
     /* options other commands add; unknown ones are rejected */
     bool uncertainty;
     bool exit_verdict; /* --exit-verdict: status 7 for an infeasible split */
+    const char *minimum; /* --minimum N as given, or NULL */
     const char *extra[16];
     int n_extra;
 } pw_reflux_args;
@@ -31,6 +32,7 @@ typedef struct pw_reflux_run {
     pw_column_result col;
     double T_top_K, T_bottom_K;
     bool with_uncertainty; /* --uncertainty given: the warnings do not suggest it */
+    size_t minimum;        /* --minimum N applied (0: the fit's own choice) */
 } pw_reflux_run;
 
 /* Returns 0, -1 for --help, or an exit code with err filled. */

@@ -68,6 +68,27 @@ grep -q "stages at 1.1 R_min" u.txt || fail "uncertainty text: $(grep -i 'stages
 grep -q "stages at 1.3 R_min" u.txt && fail "1.3 quoted although not asked for"
 "$pw" reflux ew.json --pressure 1atm --xd 0.8 --xb 0.02 --zf 0.2 --factors 1.1,2 --uncertainty --samples 30 --json > u.json 2>/dev/null || fail "uncertainty json"
 python3 -c 'import json; d=json.load(open("u.json")); f=d["uncertainty"]["stages_operating"]["reflux_factor"]; assert abs(f-1.1)<1e-12, f' || fail "reflux_factor key"
+# --minimum N: another of the fit's distinct minima (the MEK/toluene Wilson fit records two).
+"$pw" fit "$src/datasets/mek_toluene_50C_pxy.csv" --model wilson --out mt.json >/dev/null 2>&1 || fail "MEK/toluene fit"
+python3 -c 'import json; assert len(json.load(open("mt.json"))["minima"]) == 2' || fail "expected two minima"
+"$pw" reflux mt.json --pressure 40kPa --xd 0.9 --xb 0.1 --zf 0.5 --json > m0.json 2>/dev/null || fail "reflux default minimum"
+"$pw" reflux mt.json --pressure 40kPa --xd 0.9 --xb 0.1 --zf 0.5 --minimum 1 --json > m1.json 2>/dev/null || fail "--minimum 1"
+"$pw" reflux mt.json --pressure 40kPa --xd 0.9 --xb 0.1 --zf 0.5 --minimum=2 --json > m2.json 2> m2.err || fail "--minimum 2"
+grep -q "using minimum 2 of 2" m2.err || fail "no note that another minimum is used: $(cat m2.err)"
+python3 - <<'PY' || fail "--minimum results"
+import json
+a, b, c = (json.load(open(f)) for f in ("m0.json", "m1.json", "m2.json"))
+assert a["r_min"] == b["r_min"] and b["minimum"] == 1 and "minimum" not in a
+assert c["minimum"] == 2 and c["r_min"] != a["r_min"]
+PY
+for c in "azeotrope mt.json" "screen mt.json --pressure 40kPa --xd 0.9 --xb 0.1"; do
+  "$pw" $c --minimum 2 --json > mm.json 2>/dev/null || fail "$c --minimum 2"
+  python3 -c 'import json; assert json.load(open("mm.json"))["minimum"] == 2' || fail "$c: minimum not recorded"
+done
+"$pw" report mt.json --out mrep.html --minimum 2 >/dev/null 2>&1 || fail "report --minimum 2"
+"$pw" reflux mt.json --pressure 40kPa --xd 0.9 --xb 0.1 --zf 0.5 --minimum 3 2> e.txt >/dev/null && fail "--minimum 3 accepted"
+grep -q "records 2 distinct minima" e.txt || fail "message: $(cat e.txt)"
+
 # --exit-verdict: a negative verdict becomes status 7 for scripts; without it, status 0.
 "$pw" reflux ew.json --pressure 1atm --xd 0.95 --xb 0.05 --zf 0.3 --json > inf.json 2>/dev/null || fail "infeasible split is a result"
 python3 -c 'import json; assert json.load(open("inf.json"))["feasible"] is False' || fail "not infeasible"
