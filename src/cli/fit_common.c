@@ -395,6 +395,13 @@ int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_o
                    r->aicc - best_aicc, cy, cT, cP, ca, r->converged ? "" : "not converged ",
                    r->split ? "liquid split predicted" : "");
         }
+        bool negative = false;
+        for (size_t i = 0; i < n; i++)
+            negative = negative || (res[i].rc == 0 && res[i].r.aicc < best_aicc);
+        printf("  dAICc = AICc - AICc of rank 1 (positive: fits worse than rank 1)%s\n",
+               negative ? "; a negative value is a fit with a lower AICc ranked below rank 1 "
+                          "because it did not converge or predicts a liquid split"
+                        : "");
         for (size_t i = 0; i < n; i++)
             if (res[i].rc == 0)
                 printf("  fit file: %s\n", res[i].path);

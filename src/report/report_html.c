@@ -713,7 +713,9 @@ static void ranking(pw_sbuf *b, const pw_report_curves *c, const pw_report_input
     pw_sbuf_puts(b, "</table>\n<p class=\"note\">Ranked by AICc (Hurvich &amp; Tsai 1989): "
                     "\xce\x94" "AICc below 2 means the data cannot tell the models apart, above 10 "
                     "that a model has essentially no support (Burnham &amp; Anderson 2002). Fits that "
-                    "did not converge or predict a liquid split rank last.");
+                    "did not converge or predict a liquid split rank last. \xce\x94" "AICc is the "
+                    "model's AICc minus that of rank 1: positive values fit worse; a negative value "
+                    "is a fit with a lower AICc ranked last for the reason in its notes.");
     if (xhi > xlo)
         pw_sbuf_printf(b, " Models within \xce\x94" "AICc 10 place the azeotrope between x\xe2\x82\x81 = "
                           "%.3f and %.3f.", xlo, xhi);
