@@ -17,4 +17,7 @@ grep -q "herington .* % points .* % points" c.txt || fail "Herington D - J witho
 grep -q "value: D - J" c.txt || fail "D - J not named"
 grep -q "legendre_point .*mole fraction" c.txt || fail "point test without its unit"
 grep -q "slope not applicable, because" c.txt || fail "the slope part does not say why it is missing"
+# the verdict's reasons carry the unit too (a P-x set whose pure rows miss the vapor pressures)
+"$pw" check "$src/datasets/mek_toluene_50C_px.csv" > c.txt 2>/dev/null || fail "check P-x"
+grep -q "pure_endpoints failed ([0-9.]* % of P_sat, limit [0-9.]* % of P_sat)" c.txt || fail "reason without unit: $(grep failed c.txt)"
 echo ok
