@@ -82,7 +82,7 @@ static pw_status components(pw_ds_reader *rd, const char *value, long line, pw_e
     pw_error inner;
     pw_error_clear(&inner);
     pw_status st = pw_csvrows_init(&r, rd->name, NULL, names_row, &nc, &inner);
-    if (st == PW_OK && rd->delim != ',' && !strchr(value, ',') && strchr(value, rd->delim))
+    if (st == PW_OK && rd->delim != ',' && strchr(value, rd->delim))
         pw_csvrows_set_delim(&r, rd->delim);
     if (st == PW_OK)
         st = pw_csvrows_feed(&r, value, strlen(value));

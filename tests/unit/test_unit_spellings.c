@@ -286,6 +286,13 @@ static void spreadsheet_exports(void **state)
     pw_assert_close(ds.pts[1].T_K, 352.95, 1e-14, 0, "79,8 C");
     pw_dataset_free(&ds);
 
+    const char *dioxane = "# components: chloroform; \"1,4-dioxane\"\n# temperature: 50 C\nx1;P[kPa]\n"
+                          "0,5;20,1\n";
+    assert_int_equal(pw_dataset_parse(dioxane, strlen(dioxane), "d.csv", &ds, &err), PW_OK);
+    assert_string_equal(ds.names[1], "1,4-dioxane");
+    pw_assert_close(ds.pts[0].P_Pa, 20100.0, 1e-15, 0, "20,1 kPa");
+    pw_dataset_free(&ds);
+
     const char *tabs = "# components: a, b\n# pressure: 1 atm\nx1\tT[K]\n0.5\t350\n0.6\t349\n";
     assert_int_equal(pw_dataset_parse(tabs, strlen(tabs), "tabs.csv", &ds, &err), PW_OK);
     pw_assert_close(ds.pts[1].T_K, 349.0, 0, 0, "tab separated");
