@@ -54,8 +54,8 @@ pw_status pw_column_step_any(const pw_curve *curve, const pw_column_spec *spec, 
                              size_t max_stages, double *stages, int *feed_stage);
 
 /* pw_column_total_reflux in either direction (xd < xb allowed). */
-pw_status pw_column_total_reflux_any(const pw_curve *curve, double xd, double xb,
-                                     size_t max_stages, double *stages);
+pw_status pw_column_total_reflux_any(const pw_curve *curve, double xd, double xb, size_t max_stages,
+                                     double *stages);
 
 #ifdef __cplusplus
 }

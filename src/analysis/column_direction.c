@@ -100,8 +100,8 @@ pw_status pw_column_step_any(const pw_curve *curve, const pw_column_spec *spec, 
     return pw_column_step(&c, &s, R, max_stages, stages, feed_stage);
 }
 
-pw_status pw_column_total_reflux_any(const pw_curve *curve, double xd, double xb,
-                                     size_t max_stages, double *stages)
+pw_status pw_column_total_reflux_any(const pw_curve *curve, double xd, double xb, size_t max_stages,
+                                     double *stages)
 {
     if (!curve)
         return PW_EINVAL;

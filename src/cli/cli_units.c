@@ -35,8 +35,7 @@ pw_status pw_cli_uncertainty_opt(const char *opt, const char *text, double *T_K,
     return PW_OK;
 }
 
-int pw_cli_composition(const char *opt, const char *text, double *value, pw_basis *b,
-                       pw_error *err)
+int pw_cli_composition(const char *opt, const char *text, double *value, pw_basis *b, pw_error *err)
 {
     pw_error inner;
     pw_error_clear(&inner);
@@ -134,7 +133,6 @@ pw_status pw_cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *
     *chosen = k;
     if (!was)
         pw_cli_warnf(cmd, "using minimum %zu of %zu (chi-square %.6g), not the one the fit chose%s",
-                     k, fit->n_minima, fit->chi2,
-                     fit->split ? "; it predicts a liquid split" : "");
+                     k, fit->n_minima, fit->chi2, fit->split ? "; it predicts a liquid split" : "");
     return PW_OK;
 }

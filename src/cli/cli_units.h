@@ -26,16 +26,17 @@ pw_status pw_cli_composition_to_mole(const char *opt, double *x, pw_basis b, con
                                      pw_error *err);
 
 /* The one meaning of --components FILE, as every command's --help states it. */
-#define PW_CLI_HELP_COMPONENTS                                                                    \
-    "  --components FILE   component rows (vapor pressure, molar mass, ...) that take precedence\n" \
-    "                      over the ones otherwise used: the shipped library's when reading\n"   \
+#define PW_CLI_HELP_COMPONENTS                                                                     \
+    "  --components FILE   component rows (vapor pressure, molar mass, ...) that take "            \
+    "precedence\n"                                                                                 \
+    "                      over the ones otherwise used: the shipped library's when reading\n"     \
     "                      data, the fit file's recorded rows when reading a fit\n"
 
 /* --exit-verdict: a negative verdict (a split that cannot be made, data not shown consistent, an
  * infeasible screen) exits with this status, for scripts; without the option such a verdict is a
  * result and the status is 0. It is the status of PW_EINFEASIBLE. */
 #define PW_CLI_EXIT_VERDICT 7
-#define PW_CLI_HELP_EXIT_VERDICT                                                                  \
+#define PW_CLI_HELP_EXIT_VERDICT                                                                   \
     "  --exit-verdict      exit with status 7 when the verdict is negative (see README)\n"
 
 /* --minimum N on a command that reads a fit file: makes the fit's N-th distinct minimum (1 = the
@@ -43,8 +44,8 @@ pw_status pw_cli_composition_to_mole(const char *opt, double *x, pw_basis b, con
  * stderr. text NULL: nothing. *chosen is N, or 0 when not given. */
 pw_status pw_cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *text,
                                size_t *chosen, pw_error *err);
-#define PW_CLI_HELP_MINIMUM                                                                       \
-    "  --minimum N         use the fit's N-th distinct minimum (1 = lowest chi-square; the fit\n" \
+#define PW_CLI_HELP_MINIMUM                                                                        \
+    "  --minimum N         use the fit's N-th distinct minimum (1 = lowest chi-square; the fit\n"  \
     "                      file lists them under \"minima\") instead of the one the fit chose\n"
 
 /* argv with every "--name=value" split into "--name" and "value" (at the first '='); a new

@@ -49,10 +49,8 @@ static void usage(FILE *f)
             "  --out-dir DIR       folder for the fit files and the report (default: study)\n"
             "  --factors F,F,...   design reflux as multiples of R_min (default 1.2,1.3,1.5)\n"
             "  --uncertainty       intervals from the fit's covariance (--samples N, --seed N)\n"
-            "  --force             replace existing fit files and report\n"
-            PW_CLI_HELP_COMPONENTS
-            PW_CLI_HELP_EXIT_VERDICT
-            "  --json              print one JSON object on stdout\n");
+            "  --force             replace existing fit files and report\n" PW_CLI_HELP_COMPONENTS
+                PW_CLI_HELP_EXIT_VERDICT "  --json              print one JSON object on stdout\n");
 }
 
 typedef struct study_args {
@@ -64,8 +62,8 @@ typedef struct study_args {
 
 static bool takes_value(const char *opt)
 {
-    static const char *const v[] = {"--pressure", "--xd",      "--xb",      "--zf",
-                                    "--q",        "--factors", "--samples", "--seed",
+    static const char *const v[] = {"--pressure", "--xd",      "--xb",        "--zf",
+                                    "--q",        "--factors", "--samples",   "--seed",
                                     "--model",    "--out-dir", "--components"};
     for (size_t i = 0; i < sizeof v / sizeof *v; i++)
         if (!strcmp(opt, v[i]))
@@ -134,8 +132,8 @@ static void step(const char *what, size_t k)
 }
 
 /* Consistency of the data, as `check` runs it. */
-static pw_status consistency(const study_args *a, const pw_complib *lib,
-                             pw_consistency_result *cr, pw_error *err)
+static pw_status consistency(const study_args *a, const pw_complib *lib, pw_consistency_result *cr,
+                             pw_error *err)
 {
     pw_dataset ds;
     pw_status st = pw_dataset_read(a->data, &ds, err);
@@ -182,10 +180,11 @@ static json_t *az_json(const pw_az_result *r)
 {
     json_t *arr = json_array();
     for (size_t i = 0; i < r->n; i++)
-        json_array_append_new(arr, json_pack("{s:o,s:o,s:o,s:s}", "x1", pw_cli_json_num(r->az[i].x1),
-                                             "T_K", pw_cli_json_num(r->az[i].T_K), "P_kPa",
-                                             pw_cli_json_num(r->az[i].P_Pa / 1000.0), "kind",
-                                             pw_az_kind_name(r->az[i].kind)));
+        json_array_append_new(arr,
+                              json_pack("{s:o,s:o,s:o,s:s}", "x1", pw_cli_json_num(r->az[i].x1),
+                                        "T_K", pw_cli_json_num(r->az[i].T_K), "P_kPa",
+                                        pw_cli_json_num(r->az[i].P_Pa / 1000.0), "kind",
+                                        pw_az_kind_name(r->az[i].kind)));
     return arr;
 }
 
@@ -302,8 +301,9 @@ int pw_cli_study(int argc, char **argv)
     const pw_fit_result *f = &run.fit;
     bool iso = f->kind == PW_DATA_ISOTHERMAL;
     pw_az_result az_data, az_col;
-    bool az_data_ok = pw_azeotrope_find(&f->sys, iso ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC,
-                                        iso ? f->T_fixed_K : f->P_fixed_Pa, NULL, &az_data) == PW_OK;
+    bool az_data_ok =
+        pw_azeotrope_find(&f->sys, iso ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC,
+                          iso ? f->T_fixed_K : f->P_fixed_Pa, NULL, &az_data) == PW_OK;
     bool az_col_ok = pw_azeotrope_find(&f->sys, PW_AZ_ISOBARIC, run.P_Pa, NULL, &az_col) == PW_OK;
 
     /* 6. the report, with the other models side by side */

@@ -20,8 +20,10 @@ pw_status pw_fit_use_minimum(pw_fit_result *r, size_t n, pw_error *err)
     const double *p = r->minima[n - 1].params;
     pw_status st = r->sys.model->check(p);
     if (st != PW_OK)
-        return pw_error_set(err, st, r->dataset_path, 0, "minimum %zu: parameters outside the model's "
-                                                         "domain", n);
+        return pw_error_set(err, st, r->dataset_path, 0,
+                            "minimum %zu: parameters outside the model's "
+                            "domain",
+                            n);
     /* the regression problem of the fit (scale 1: the covariance does not depend on it) */
     fit_problem fp;
     memset(&fp, 0, sizeof fp);

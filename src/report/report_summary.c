@@ -12,11 +12,21 @@ static void esc(pw_sbuf *b, const char *s)
 {
     for (; s && *s; s++) {
         switch (*s) {
-        case '<': pw_sbuf_puts(b, "&lt;"); break;
-        case '>': pw_sbuf_puts(b, "&gt;"); break;
-        case '&': pw_sbuf_puts(b, "&amp;"); break;
-        case '"': pw_sbuf_puts(b, "&quot;"); break;
-        default: pw_sbuf_printf(b, "%c", *s); break;
+        case '<':
+            pw_sbuf_puts(b, "&lt;");
+            break;
+        case '>':
+            pw_sbuf_puts(b, "&gt;");
+            break;
+        case '&':
+            pw_sbuf_puts(b, "&amp;");
+            break;
+        case '"':
+            pw_sbuf_puts(b, "&quot;");
+            break;
+        default:
+            pw_sbuf_printf(b, "%c", *s);
+            break;
         }
     }
 }
@@ -60,8 +70,10 @@ pw_status pw_report_summary_html(pw_sbuf *b, const pw_report_curves *c)
 
     row_start(b, "Model", "parameters");
     esc(b, r->sys.model ? r->sys.model->name : "?");
-    pw_sbuf_printf(b, ", the model of this fit file; %s", r->converged ? "converged" : "<strong>did "
-                                                                                      "not converge</strong>");
+    pw_sbuf_printf(b, ", the model of this fit file; %s",
+                   r->converged ? "converged"
+                                : "<strong>did "
+                                  "not converge</strong>");
     if (isfinite(r->dev_y.aad))
         pw_sbuf_printf(b, "; mean |\xce\x94y| %.4f", r->dev_y.aad);
     if (isfinite(r->dev_T_K.aad))
@@ -77,11 +89,13 @@ pw_status pw_report_summary_html(pw_sbuf *b, const pw_report_curves *c)
     if (c->column) {
         const pw_column_spec *s = &c->spec;
         row_start(b, "Column targets", "column");
-        pw_sbuf_printf(b, "%.4g kPa, x<sub>D</sub> %.4g, z<sub>F</sub> %.4g, x<sub>B</sub> %.4g, "
-                          "q %.3g (mole fractions of ",
+        pw_sbuf_printf(b,
+                       "%.4g kPa, x<sub>D</sub> %.4g, z<sub>F</sub> %.4g, x<sub>B</sub> %.4g, "
+                       "q %.3g (mole fractions of ",
                        c->P_col_Pa / 1000.0, s->xd, s->zf, s->xb, s->q);
         esc(b, n1);
-        pw_sbuf_printf(b, ", which goes %s)</td></tr>\n", s->xd > s->xb ? "overhead" : "to the bottoms");
+        pw_sbuf_printf(b, ", which goes %s)</td></tr>\n",
+                       s->xd > s->xb ? "overhead" : "to the bottoms");
         row_start(b, "Azeotropes at the column pressure", "azeotropes");
         az_list(b, c->col_az, c->n_col_az, false);
         pw_sbuf_puts(b, "</td></tr>\n");
@@ -97,17 +111,20 @@ pw_status pw_report_summary_html(pw_sbuf *b, const pw_report_curves *c)
         pw_sbuf_puts(b, "</td></tr>\n");
         if (c->col_status == PW_OK && c->col.feasible) {
             row_start(b, "Minimum reflux", "column");
-            pw_sbuf_printf(b, "R<sub>min</sub> = %.4g, set by a %s pinch in the %s section at x = "
-                              "%.4f",
+            pw_sbuf_printf(b,
+                           "R<sub>min</sub> = %.4g, set by a %s pinch in the %s section at x = "
+                           "%.4f",
                            c->col.r_min, c->col.pinch.kind == PW_PINCH_TANGENT ? "tangent" : "feed",
-                           c->col.pinch.section == PW_SECTION_RECTIFYING ? "rectifying" : "stripping",
+                           c->col.pinch.section == PW_SECTION_RECTIFYING ? "rectifying"
+                                                                         : "stripping",
                            c->col.pinch.x);
             pw_sbuf_puts(b, "</td></tr>\n");
             row_start(b, "Stages", "column");
             pw_sbuf_printf(b, "%.3g at total reflux; ", c->col.n_min);
             if (isfinite(c->stages_op))
-                pw_sbuf_printf(b, "%.3g at R = %.3g (%.3g R<sub>min</sub>), feed on stage %d from "
-                                  "the top",
+                pw_sbuf_printf(b,
+                               "%.3g at R = %.3g (%.3g R<sub>min</sub>), feed on stage %d from "
+                               "the top",
                                c->stages_op, c->r_op, c->factor, c->feed_stage_op);
             else
                 pw_sbuf_printf(b, "not stepped at %.3g R<sub>min</sub>", c->factor);
@@ -118,10 +135,12 @@ pw_status pw_report_summary_html(pw_sbuf *b, const pw_report_curves *c)
             row_start(b, "How sure", "how-sure");
             const pw_unc_output *o = &u->out[PW_UNC_RMIN];
             if (isfinite(o->ci[0]) && isfinite(o->ci[1]))
-                pw_sbuf_printf(b, "R<sub>min</sub> 95 %% interval %.4g to %.4g; ", o->ci[0], o->ci[1]);
+                pw_sbuf_printf(b, "R<sub>min</sub> 95 %% interval %.4g to %.4g; ", o->ci[0],
+                               o->ci[1]);
             if (isfinite(u->p_feasible))
-                pw_sbuf_printf(b, "the split can be made in %.0f %% of the parameter sets drawn from "
-                                  "the fit's uncertainty",
+                pw_sbuf_printf(b,
+                               "the split can be made in %.0f %% of the parameter sets drawn from "
+                               "the fit's uncertainty",
                                100.0 * u->p_feasible);
             pw_sbuf_puts(b, "</td></tr>\n");
         }

@@ -171,8 +171,8 @@ static void feed_outside_the_products(void **state)
     (void)state;
     double a = 2.5;
     pw_curve c = {heavy_fn, &a};
-    const pw_column_spec bad[] = {{0.9, 0.1, 0.95, 1.0}, {0.1, 0.9, 0.05, 1.0},
-                                  {0.5, 0.5, 0.5, 1.0},  {0.9, 0.1, NAN, 1.0}};
+    const pw_column_spec bad[] = {
+        {0.9, 0.1, 0.95, 1.0}, {0.1, 0.9, 0.05, 1.0}, {0.5, 0.5, 0.5, 1.0}, {0.9, 0.1, NAN, 1.0}};
     for (size_t i = 0; i < sizeof bad / sizeof *bad; i++) {
         pw_column_result r;
         assert_int_equal(pw_column_direction_of(&bad[i]), PW_DIRECTION_NONE);

@@ -2,7 +2,8 @@
  * driver chose minimum 1 reproduces the driver's parameters, chi-square and covariance (the same
  * Bates & Watts covariance recomputed from the fit's own points). Then every recorded minimum can
  * be chosen, its chi-square matches the one the multistart recorded, and an index out of range is
- * refused naming the range. Data: the shipped ethanol/water (Perry's) and MEK/toluene sets (sources in their files). */
+ * refused naming the range. Data: the shipped ethanol/water (Perry's) and MEK/toluene sets (sources
+ * in their files). */
 #include "pw_test.h"
 
 #include <math.h>
@@ -17,11 +18,14 @@ static void fit(const char *dataset, const char *model, pw_fit_result *r)
     pw_complib lib;
     pw_dataset ds;
     pw_complib_init(&lib);
-    assert_int_equal(pw_complib_read(&lib, pw_test_path(cpath, sizeof cpath, "datasets/components.csv"), &err), PW_OK);
+    assert_int_equal(
+        pw_complib_read(&lib, pw_test_path(cpath, sizeof cpath, "datasets/components.csv"), &err),
+        PW_OK);
     assert_int_equal(pw_dataset_read(pw_test_path(path, sizeof path, dataset), &ds, &err), PW_OK);
     pw_fit_options o = pw_fit_default_options();
-    assert_int_equal(pw_fit_run(&ds, pw_complib_find(&lib, ds.names[0]), pw_complib_find(&lib, ds.names[1]),
-                                pw_model_find(model), &o, r, &err),
+    assert_int_equal(pw_fit_run(&ds, pw_complib_find(&lib, ds.names[0]),
+                                pw_complib_find(&lib, ds.names[1]), pw_model_find(model), &o, r,
+                                &err),
                      PW_OK);
     pw_dataset_free(&ds);
     pw_complib_free(&lib);

@@ -111,7 +111,7 @@ static void composition_syntax(void **state)
         const char *text;
         double value;
         pw_basis basis;
-    } ok[] = {{"0.95", 0.95, PW_BASIS_MOLE},    {"95mol%", 0.95, PW_BASIS_MOLE},
+    } ok[] = {{"0.95", 0.95, PW_BASIS_MOLE},     {"95mol%", 0.95, PW_BASIS_MOLE},
               {"95 mol%", 0.95, PW_BASIS_MOLE},  {"0.995wt", 0.995, PW_BASIS_MASS},
               {"99.5wt%", 0.995, PW_BASIS_MASS}, {"0 wt%", 0.0, PW_BASIS_MASS},
               {"100WT%", 1.0, PW_BASIS_MASS},    {"1e-3", 1e-3, PW_BASIS_MOLE}};
@@ -152,7 +152,7 @@ static void mass_to_mole(void **state)
 {
     (void)state;
     const double M_ethanol = 2 * 12.011 + 6 * 1.008 + 15.999; /* C2H6O, IUPAC weights */
-    const double M_water = 2 * 1.008 + 15.999;                 /* H2O */
+    const double M_water = 2 * 1.008 + 15.999;                /* H2O */
     pw_assert_close(M_ethanol, 46.069, 0, 1e-9, "M ethanol");
     pw_assert_close(M_water, 18.015, 0, 1e-9, "M water");
     /* the azeotrope: 95.57 wt% ethanol is 89.43 mol% (handbook pair, from memory) */
@@ -223,7 +223,11 @@ static void dataset_mass_columns(void **state)
 static void header_spellings(void **state)
 {
     (void)state;
-    static const char *const headers[] = {"T[C]", "T [C]", "T (C)", "T(C)", "T[degC]",
+    static const char *const headers[] = {"T[C]",
+                                          "T [C]",
+                                          "T (C)",
+                                          "T(C)",
+                                          "T[degC]",
                                           "T[\xc2\xb0"
                                           "C]",
                                           "t ( degc )"};
@@ -286,8 +290,9 @@ static void spreadsheet_exports(void **state)
     pw_assert_close(ds.pts[1].T_K, 352.95, 1e-14, 0, "79,8 C");
     pw_dataset_free(&ds);
 
-    const char *dioxane = "# components: chloroform; \"1,4-dioxane\"\n# temperature: 50 C\nx1;P[kPa]\n"
-                          "0,5;20,1\n";
+    const char *dioxane =
+        "# components: chloroform; \"1,4-dioxane\"\n# temperature: 50 C\nx1;P[kPa]\n"
+        "0,5;20,1\n";
     assert_int_equal(pw_dataset_parse(dioxane, strlen(dioxane), "d.csv", &ds, &err), PW_OK);
     assert_string_equal(ds.names[1], "1,4-dioxane");
     pw_assert_close(ds.pts[0].P_Pa, 20100.0, 1e-15, 0, "20,1 kPa");
@@ -325,10 +330,10 @@ int main(void)
 {
     pw_test_init();
     const struct CMUnitTest tests[] = {
-        cmocka_unit_test(aliases_by_definition),  cmocka_unit_test(blank_between_number_and_unit),
-        cmocka_unit_test(uncertainty_syntax),     cmocka_unit_test(composition_syntax),
-        cmocka_unit_test(mass_to_mole),           cmocka_unit_test(dataset_mass_columns),
-        cmocka_unit_test(header_spellings),       cmocka_unit_test(spreadsheet_exports),
+        cmocka_unit_test(aliases_by_definition), cmocka_unit_test(blank_between_number_and_unit),
+        cmocka_unit_test(uncertainty_syntax),    cmocka_unit_test(composition_syntax),
+        cmocka_unit_test(mass_to_mole),          cmocka_unit_test(dataset_mass_columns),
+        cmocka_unit_test(header_spellings),      cmocka_unit_test(spreadsheet_exports),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
