@@ -45,10 +45,16 @@ static void az_list(pw_sbuf *b, const pw_report_az *az, size_t n, bool isotherma
         return;
     }
     for (size_t i = 0; i < n; i++)
-        pw_sbuf_printf(b, "%s%s at x\xe2\x82\x81 = %.3f, %s = %.2f %s", i ? "; " : "",
-                       az[i].min_boiling ? "minimum-boiling" : "maximum-boiling", az[i].x1,
-                       isothermal ? "P" : "T", isothermal ? az[i].P_Pa / 1000.0 : az[i].T_K,
-                       isothermal ? "kPa" : "K");
+        if (isothermal)
+            pw_sbuf_printf(b, "%s%s at x\xe2\x82\x81 = %.3f, P = %.4g kPa", i ? "; " : "",
+                           az[i].min_boiling ? "minimum-boiling" : "maximum-boiling", az[i].x1,
+                           az[i].P_Pa / 1000.0);
+        else /* kelvin and degrees Celsius (K = C + 273.15) */
+            pw_sbuf_printf(b,
+                           "%s%s at x\xe2\x82\x81 = %.3f, T = %.2f K (%.2f \xc2\xb0"
+                           "C)",
+                           i ? "; " : "", az[i].min_boiling ? "minimum-boiling" : "maximum-boiling",
+                           az[i].x1, az[i].T_K, az[i].T_K - 273.15);
 }
 
 pw_status pw_report_summary_html(pw_sbuf *b, const pw_report_curves *c)
@@ -129,6 +135,16 @@ pw_status pw_report_summary_html(pw_sbuf *b, const pw_report_curves *c)
             else
                 pw_sbuf_printf(b, "not stepped at %.3g R<sub>min</sub>", c->factor);
             pw_sbuf_puts(b, " (equilibrium stages, partial reboiler counted)</td></tr>\n");
+            if (isfinite(c->T_top_K) && isfinite(c->T_bottom_K)) {
+                row_start(b, "Temperatures", "column");
+                pw_sbuf_printf(b,
+                               "top %.2f K (%.2f \xc2\xb0"
+                               "C), bottom %.2f K (%.2f \xc2\xb0"
+                               "C), bubble points of the products",
+                               c->T_top_K, c->T_top_K - 273.15, c->T_bottom_K,
+                               c->T_bottom_K - 273.15);
+                pw_sbuf_puts(b, "</td></tr>\n");
+            }
         }
         if (c->unc && c->unc_col_status == PW_OK) {
             const pw_unc_result *u = &c->unc_col.res;
