@@ -120,6 +120,10 @@ static void print_table(const pw_reflux_run *run)
     printf("column at %.4g kPa: xd %.4g, xb %.4g, zf %.4g, q %.4g (%s / %s)\n", run->P_Pa / 1e3,
            run->spec.xd, run->spec.xb, run->spec.zf, run->spec.q, run->fit.sys.comp[0].name,
            run->fit.sys.comp[1].name);
+    if (run->given[0] && run->given[1] && run->given[2])
+        printf("  (as given: xd %s, xb %s, zf %s; by mass converted with the molar masses of the\n"
+               "  fit file's components; every composition below is a mole fraction)\n",
+               run->given[0], run->given[1], run->given[2]);
     if (!c->feasible) {
         printf("  NOT FEASIBLE by simple distillation: %s\n", c->reason);
         return;

@@ -65,6 +65,12 @@ int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err
             }
             int rc = 0, trc;
             if ((trc = pw_cli_target_opt(opt, v, &tg, err)) >= 0) {
+                int k = !strcmp(opt, "--xd")   ? 0
+                        : !strcmp(opt, "--xb") ? 1
+                        : !strcmp(opt, "--zf") ? 2
+                                               : -1;
+                if (k >= 0)
+                    a->given[k] = v;
                 rc = trc; /* --pressure, --xd, --xb, --zf, --q: parsed into tg */
             } else if (!strcmp(opt, "--components")) {
                 a->components = v;
@@ -133,6 +139,9 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
         return pw_status_exit_code(st);
     run->P_Pa = a->P_Pa;
     run->spec = a->spec;
+    if (a->basis[0] == PW_BASIS_MASS || a->basis[1] == PW_BASIS_MASS ||
+        a->basis[2] == PW_BASIS_MASS)
+        memcpy(run->given, a->given, sizeof run->given);
     st = pw_cli_targets_to_mole(&run->spec.xd, &run->spec.xb, &run->spec.zf, a->basis,
                                 &run->fit.sys, err);
     int rc = st == PW_OK ? check_targets(&run->spec, err) : pw_status_exit_code(st);

@@ -17,6 +17,7 @@ typedef struct pw_reflux_args {
     bool json;
     bool have_P, have_xd, have_xb, have_zf;
     pw_basis basis[3]; /* of xd, xb, zf as given; converted to mole fractions in pw_reflux_compute */
+    const char *given[3]; /* xd, xb, zf as typed, for the text output */
     /* options other commands add; unknown ones are rejected */
     bool uncertainty;
     bool exit_verdict; /* --exit-verdict: status 7 for an infeasible split */
@@ -33,6 +34,7 @@ typedef struct pw_reflux_run {
     double T_top_K, T_bottom_K;
     bool with_uncertainty; /* --uncertainty given: the warnings do not suggest it */
     size_t minimum;        /* --minimum N applied (0: the fit's own choice) */
+    const char *given[3];  /* xd, xb, zf as typed when any was given by mass, else NULL */
 } pw_reflux_run;
 
 /* Returns 0, -1 for --help, or an exit code with err filled. */

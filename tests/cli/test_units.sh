@@ -99,6 +99,8 @@ assert a["r_min"] == b["r_min"] and a["feasible"]
 m = json.load(open("rm.json"))
 assert abs(m["spec"]["xd"] - 0.8) < 1e-15 and abs(m["spec"]["zf"] - 0.2) < 1e-15
 PY
+"$pw" reflux mole.json --pressure 1atm --xd 85wt% --xb 0.5wt% --zf "30 wt%" > rw.txt 2>/dev/null || fail "reflux text by mass"
+grep -q "as given: xd 85wt%, xb 0.5wt%, zf 30 wt%" rw.txt || fail "text output does not echo the mass targets: $(head -3 rw.txt)"
 "$pw" reflux mole.json --pressure 1atm --xd 95% --xb 0.02 --zf 0.2 2> e.txt >/dev/null && fail "bare % accepted"
 grep -q "mol%" e.txt || fail "which-percent hint: $(cat e.txt)"
 "$pw" reflux mole.json --pressure 1atm --xd 80 --xb 0.02 --zf 0.2 2> e.txt >/dev/null && fail "80 accepted"
