@@ -9,7 +9,9 @@
  *     sigma_y: VALUE           (vapor mole fraction; default 0.004)
  *     sigma_x: VALUE           (liquid mole fraction; default 0.001)
  * Header row: x1, optional y1, and T[UNIT] (isobaric) or P[UNIT] (isothermal), in any order;
- * further columns are ignored. A UTF-8 byte-order mark and CRLF line ends are accepted. */
+ * further columns are ignored. Instead of x1 and y1, w1 and wy1 give mass fractions of component 1
+ * (converted later with pw_dataset_to_mole). T and P columns may also be written "T [UNIT]",
+ * "T (UNIT)" as spreadsheets export them. A UTF-8 byte-order mark and CRLF line ends are accepted. */
 #ifndef PINCHWISE_DATASET_H
 #define PINCHWISE_DATASET_H
 
@@ -45,6 +47,11 @@ typedef struct pw_dataset {
     pw_point *pts;
     size_t n;
     unsigned char sha256[32]; /* of the file's bytes */
+    /* Composition columns given by mass (w1, wy1): pts hold mass fractions of component 1 until
+     * pw_dataset_to_mole (composition.h) converts them with the molar masses; the fitting and
+     * consistency code refuses a dataset with either flag still set. */
+    bool mass_x, mass_y;
+    long composition_line; /* the header line, for messages about the composition columns */
 } pw_dataset;
 
 /* Limits of the reader (see docs/inputs.md): a dataset file holds at most PW_DATASET_MAX_POINTS

@@ -65,7 +65,9 @@ typedef struct pw_design_table {
 void pw_design_table_free(pw_design_table *t);
 
 /* Steps a constant-molal-overflow column at reflux R with the optimal feed stage and records
- * the profile (x, y, T, flows). PW_EINFEASIBLE when the operating line meets the curve before xb,
+ * the profile (x, y, T, flows). Either split direction: with xd < zf < xb (component 1 to the
+ * bottoms) it steps on the mirrored curve (column_direction.h) and records fractions of
+ * component 1. PW_EINFEASIBLE when the operating line meets the curve before xb,
  * PW_EMAXITER beyond max_stages, PW_EINVAL for R < 0, a non-positive boil-up or a bad spec. */
 pw_status pw_cmo_profile(const pw_system *sys, double P_Pa, const pw_column_spec *spec, double R,
                          size_t max_stages, pw_profile *out);

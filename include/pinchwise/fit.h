@@ -73,6 +73,7 @@ typedef struct pw_fit_options {
                               draws screened by one evaluation each */
     unsigned long seed;    /* for the start points (default 1) */
     double sigma_T_K, sigma_P_rel, sigma_y; /* NAN = from the dataset (its metadata or defaults) */
+    double sigma_P_abs_Pa; /* absolute pressure uncertainty, used when sigma_P_rel is NAN (NAN = none) */
     size_t max_iter;       /* per start (default 200) */
     double xtol, gtol;     /* GSL tests; defaults sqrt(DBL_EPSILON)-based, see docs/fitting.md */
     long exclude_lines[PW_FIT_MAX_EXCLUDE]; /* file line numbers to leave out */

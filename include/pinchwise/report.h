@@ -54,7 +54,8 @@ pw_report_input pw_report_default_input(void);
 typedef struct pw_report pw_report;
 
 /* Computes the curves, tables and plots. PW_EINVAL for a missing fit, a column spec without a
- * pressure, an operating factor <= 1, or a spec that is not 0 <= xb < zf < xd <= 1; PW_ENOMEM.
+ * pressure, an operating factor <= 1, or a spec with the feed not strictly between the
+ * products in [0, 1] (either direction: column_direction.h); PW_ENOMEM.
  * Equilibrium solves that fail at single points leave gaps in the curves, not errors; an
  * infeasible column is reported in the page, not as an error. On success *out is owned by the
  * caller (pw_report_free); on failure *out is NULL and err says why. */

@@ -6,8 +6,12 @@
  *     is the heavier one (a target beyond an azeotrope);
  *   - how far the azeotrope moves over a pressure range (default 20-500 kPa) and whether it
  *     leaves the composition range there (the pressure-swing question);
- *   - a rough R_min (pw_column_solve on the model's curve, q = 1) and Underwood's value with the
- *     geometric-mean alpha, and stage counts at total reflux (stepped and Fenske).
+ *   - a rough R_min (pw_column_solve_any on the model's curve, q from the options, default 1) and
+ *     Underwood's value with the geometric-mean alpha, and stage counts at total reflux (stepped
+ *     and Fenske).
+ * The split may go either way: xb < zf < xd (component 1 overhead) or xd < zf < xb (component 1
+ * with the bottoms; column_direction.h). The relative volatility reported is then that of the
+ * component that goes overhead to the other one (alpha21 = 1/alpha12).
  * Verdict: infeasible (a barrier), difficult (lowest alpha below alpha_difficult, or a
  * near-tangential pinch of alpha toward 1), else feasible. Thresholds and their origin are in
  * pw_screen_options and docs/screen.md. Screening only: not a design. */
@@ -41,6 +45,7 @@ typedef struct pw_screen_options {
     size_t grid;             /* alpha scan points on [xb, xd]; default 400 */
     pw_az_options az;
     pw_column_options column;
+    double q;                /* feed thermal condition of the rough column; default 1 */
 } pw_screen_options;
 
 pw_screen_options pw_screen_default_options(void);
@@ -68,7 +73,8 @@ typedef struct pw_screen_result {
     pw_verdict verdict;
     double xd, xb, zf, P_Pa;       /* zf: as given, or the default used */
     bool zf_default;
-    double alpha_min, x_alpha_min; /* lowest alpha12 on [xb, xd] and its x1 */
+    double alpha_min, x_alpha_min; /* lowest alpha (overhead component to the other) between
+                                    * the products, and its x1 */
     double alpha_top, alpha_bottom, alpha_mean; /* at xd, at xb, geometric mean */
     pw_az_result az;               /* azeotropes at P */
     bool barrier;
@@ -87,8 +93,9 @@ typedef struct pw_screen_result {
     pw_screen_reason reasons[PW_SCREEN_MAX_REASONS];
 } pw_screen_result;
 
-/* Screens the split. zf NAN means the default: 0.5 when xb < 0.5 < xd, else (xb + xd)/2.
- * opt may be NULL. Errors: PW_EINVAL (not 0 < xb < xd < 1, zf outside (xb, xd), P not positive,
+/* Screens the split. zf NAN means the default: 0.5 when 0.5 lies between xb and xd, else
+ * (xb + xd)/2. opt may be NULL. Errors: PW_EINVAL (xb, xd not distinct in (0, 1), zf not between
+ * them, P not positive,
  * bad options), failures of the equilibrium or column solvers. A failing pressure scan is not an
  * error: the result says scanned = false. */
 pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, double zf,

@@ -1,12 +1,15 @@
 /* Units of temperature and pressure, as the file formats and the command line write them.
  *
- * Temperature: K, C, F.  Pressure: Pa, kPa, MPa, bar, atm, mmHg, psia.
- * Unit names match case-insensitively ("kpa" is kPa). Inside the library everything is SI:
- * T in K, P in Pa. */
+ * Temperature: K, C, F (also degC, degF and the degree sign: "\u00b0C", "\u00b0F").
+ * Pressure: Pa, kPa, MPa, bar, atm, mmHg, psia (also bara = bar, torr = mmHg, psi = psia;
+ * all absolute). Unit names match case-insensitively ("kpa" is kPa). Inside the library
+ * everything is SI: T in K, P in Pa. One parser serves data files and the command line: a
+ * quantity is a number, optional blanks, then its unit ("101.325kPa", "1 atm", "50 \u00b0C"). */
 #ifndef PINCHWISE_UNITS_H
 #define PINCHWISE_UNITS_H
 
 #include <pinchwise/status.h>
+#include <stddef.h>
 
 #ifdef __cplusplus
 extern "C" {
@@ -27,13 +30,53 @@ pw_status pw_units_affine(pw_quantity q, const char *unit, double *scale, double
 /* True when unit names a known unit of quantity q. */
 int pw_units_known(pw_quantity q, const char *unit);
 
-/* Parses a quantity written as a number followed straight by its unit ("101.325kPa", "50C",
- * "1atm", "350K"; no space allowed between them, none needed). A bare number is refused.
- * On failure fills err->msg with what was wrong and the list of units. */
+/* Parses a quantity written as a number followed by its unit ("101.325kPa", "50C", "1 atm",
+ * "350 K", "78.3 degC"; blanks between number and unit are allowed, none needed). A bare number
+ * is refused. On failure fills err->msg with what was wrong and the list of units. */
 pw_status pw_units_parse_quantity(pw_quantity q, const char *text, double *si, pw_error *err);
 
-/* The accepted units of q as a static comma-separated list, e.g. "K, C, F". */
+/* The accepted units of q as a static list, e.g. "K, C, F (also degC, ...)". */
 const char *pw_units_list(pw_quantity q);
+
+/* The canonical spelling of a known unit ("C" for "degC", "mmHg" for "torr"), NULL if unknown. */
+const char *pw_units_canonical(pw_quantity q, const char *unit);
+
+typedef enum {
+    PW_SPLIT_OK,        /* a number and a unit */
+    PW_SPLIT_NO_NUMBER, /* no plain finite decimal number at the start */
+    PW_SPLIT_NO_UNIT,   /* a number and nothing after it */
+    PW_SPLIT_BAD_UNIT   /* a unit with blanks inside, or longer than unit_cap - 1 */
+} pw_units_split_result;
+
+/* Splits "VALUE UNIT" or "VALUEUNIT" (blanks around and between optional) into the number and
+ * the unit text; the unit starts at the first blank, '%', letter (other than an exponent's e) or
+ * non-ASCII byte (a degree sign) after the number. The unit is not checked against any table. */
+pw_units_split_result pw_units_split(const char *text, double *value, char *unit, size_t unit_cap);
+
+/* A temperature difference (an uncertainty): a positive number with K, C or F (or an alias);
+ * 1 C = 1 K, 1 F = 5/9 K (the offset does not apply to a difference). */
+pw_status pw_units_parse_temperature_difference(const char *text, double *K, pw_error *err);
+
+/* A pressure uncertainty: a positive number with % (relative; *rel set, *abs_Pa NAN) or with a
+ * pressure unit (absolute; *abs_Pa set, *rel NAN): "0.2%", "0.05kPa", "0.4 mmHg". */
+pw_status pw_units_parse_pressure_uncertainty(const char *text, double *rel, double *abs_Pa,
+                                              pw_error *err);
+
+/* Basis of a composition. */
+typedef enum { PW_BASIS_MOLE = 0, PW_BASIS_MASS = 1 } pw_basis;
+
+/* A composition of component 1: a bare number is a mole fraction; suffixes (blanks before them
+ * allowed): "mol%" mole percent, "mol" mole fraction, "wt" mass fraction, "wt%" mass percent.
+ * *value is the fraction (0..1) on *basis; converting mass to mole needs the molar masses
+ * (pw_units_mass_to_mole). A bare "%" is refused (which percent?); a bare number in (1, 100]
+ * is refused with a hint that it looks like a percentage. */
+pw_status pw_units_parse_composition(const char *text, double *value, pw_basis *basis,
+                                     pw_error *err);
+
+/* Mass fraction w of component 1 to its mole fraction, and back, with the molar masses M1, M2 (any
+ * one unit): x = (w/M1) / (w/M1 + (1-w)/M2). Exact at 0 and 1. */
+double pw_units_mass_to_mole(double w, double M1, double M2);
+double pw_units_mole_to_mass(double x, double M1, double M2);
 
 #ifdef __cplusplus
 }

@@ -1,5 +1,6 @@
 /* Model ranking: one rule for every place that compares models (include/pinchwise/assess.h). */
 #include <pinchwise/assess.h>
+#include <pinchwise/column_direction.h>
 #include <pinchwise/curve.h>
 
 #include <math.h>
@@ -118,7 +119,7 @@ static void solve_column(pw_rank_row *r, const pw_rank_column *col)
     if (r->col_status != PW_OK)
         return;
     pw_curve cv = pw_system_curve_bind(&sc);
-    r->col_status = pw_column_solve(&cv, &col->spec, NULL, &r->col);
+    r->col_status = pw_column_solve_any(&cv, &col->spec, NULL, &r->col); /* either direction */
 }
 
 pw_status pw_rank_assess(const pw_fit_result *const *fits, size_t n, const pw_rank_column *col,

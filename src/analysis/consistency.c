@@ -101,13 +101,23 @@ static void verdict(const cs_data *d, pw_consistency_result *r)
         bool primary = is_primary(r, i, strict);
         r->primary[i] = primary;
         n_gd += primary && i != PW_CTEST_ENDPOINT;
+        /* the value with its unit: % for the area and Kojima tests, a mole fraction for the point
+         * test, K or % of P_sat for the pure-component end points */
+        double sc = 1.0;
+        const char *u = i == PW_CTEST_POINT ? " (mole fraction)"
+                        : i == PW_CTEST_HERINGTON ? " % points"
+                        : i == PW_CTEST_ENDPOINT ? (r->kind == PW_DATA_ISOTHERMAL ? " % of P_sat" : " K")
+                                                 : " %";
+        if (i == PW_CTEST_ENDPOINT && r->kind == PW_DATA_ISOTHERMAL)
+            sc = 100.0;
         if (!t->pass && primary) {
             n_fail++;
-            add_reason(r, "%s failed (%.4g, limit %.4g): %s", t->name, t->value, t->limit, t->meaning);
+            add_reason(r, "%s failed (%.4g%s, limit %.4g%s): %s", t->name, t->value * sc, u,
+                       t->limit * sc, u, t->meaning);
         } else if (!t->pass) {
             n_warn++;
-            add_reason(r, "warning: %s failed (%.4g, limit %.4g), a secondary test: %s", t->name,
-                       t->value, t->limit, t->meaning);
+            add_reason(r, "warning: %s failed (%.4g%s, limit %.4g%s), a secondary test: %s",
+                       t->name, t->value * sc, u, t->limit * sc, u, t->meaning);
         }
     }
     r->consistent = n_gd > 0 && n_fail == 0;
@@ -138,6 +148,10 @@ pw_status pw_consistency_run(const pw_dataset *ds, const pw_component *c1, const
 {
     if (!ds || !c1 || !c2 || !out)
         return pw_error_set(err, PW_EINVAL, NULL, 0, "missing argument to the consistency check");
+    if (ds->mass_x || ds->mass_y)
+        return pw_error_set(err, PW_EINVAL, ds->path, ds->composition_line,
+                            "the dataset's compositions are mass fractions (convert them with "
+                            "pw_dataset_to_mole first)");
     memset(out, 0, sizeof *out);
     pw_consistency_options o = opt ? *opt : pw_consistency_default_options();
     pw_status st = check_options(&o, err);

@@ -3,6 +3,7 @@
  * stage. The stepping rule is the column module's (column.h pw_column_step); this file adds the
  * profile. See docs/column.md. */
 #include "analysis/design_internal.h"
+#include <pinchwise/column_direction.h>
 
 #include <math.h>
 #include <string.h>
@@ -10,6 +11,29 @@
 static bool spec_ok(const pw_column_spec *s)
 {
     return s && isfinite(s->q) && s->xb >= 0.0 && s->xb < s->zf && s->zf < s->xd && s->xd <= 1.0;
+}
+
+/* Component 1 to the bottoms (xd < zf < xb): the column is stepped on the mirrored curve
+ * x' = 1 - x, y' = 1 - y (pinchwise/column_direction.h) and each stage is mapped back. */
+static bool mirrored(const pw_column_spec *s)
+{
+    return s && s->xd < s->zf && s->zf < s->xb;
+}
+
+static pw_column_spec unmirror_spec(const pw_column_spec *s, bool mirror)
+{
+    return mirror ? pw_column_spec_mirror(s) : *s;
+}
+
+/* x of the stage whose vapor is y, in the stepping's coordinates. */
+static pw_status x_of_y(pw_eqp *e, bool mirror, double y, double *x, double *T_K)
+{
+    if (!mirror)
+        return pw_eqp_x_of_y(e, y, x, T_K);
+    double xr;
+    pw_status st = pw_eqp_x_of_y(e, 1.0 - y, &xr, T_K);
+    *x = 1.0 - xr;
+    return st;
 }
 
 /* Fills the flows of a stepped profile: V above and on the feed stage, Vbar below; L above
@@ -25,8 +49,8 @@ static void cmo_flows(pw_profile *p, const pw_column_spec *s, double R)
     }
 }
 
-static pw_status step(pw_eqp *e, const pw_column_spec *s, double R, size_t max_stages,
-                      pw_profile *out)
+static pw_status step(pw_eqp *e, bool mirror, const pw_column_spec *s, double R,
+                      size_t max_stages, pw_profile *out)
 {
     const double xd = s->xd, xb = s->xb;
     const double D = (s->zf - xb) / (xd - xb), B = 1.0 - D;
@@ -39,11 +63,16 @@ static pw_status step(pw_eqp *e, const pw_column_spec *s, double R, size_t max_s
     int feed = 0;
     for (size_t n = 1; n <= max_stages; n++) {
         pw_stage st = {0};
-        pw_status rc = pw_eqp_x_of_y(e, y, &st.x, &st.T_K);
+        pw_status rc = x_of_y(e, mirror, y, &st.x, &st.T_K);
         if (rc != PW_OK)
             return rc;
         st.y = y;
-        rc = pw_profile_push(out, &st);
+        pw_stage rec = st; /* recorded as fractions of component 1 */
+        if (mirror) {
+            rec.x = 1.0 - st.x;
+            rec.y = 1.0 - st.y;
+        }
+        rc = pw_profile_push(out, &rec);
         if (rc != PW_OK)
             return rc;
         if (st.x <= xb) {
@@ -68,12 +97,14 @@ pw_status pw_cmo_profile(const pw_system *sys, double P_Pa, const pw_column_spec
     if (!out)
         return PW_EINVAL;
     memset(out, 0, sizeof *out);
-    if (!spec_ok(spec) || max_stages == 0)
+    const bool mirror = mirrored(spec);
+    const pw_column_spec s = unmirror_spec(spec, mirror);
+    if (!spec_ok(&s) || max_stages == 0)
         return PW_EINVAL;
     pw_eqp e;
     pw_status st = pw_eqp_init(&e, sys, P_Pa);
     if (st == PW_OK)
-        st = step(&e, spec, R, max_stages, out);
+        st = step(&e, mirror, &s, R, max_stages, out);
     pw_eqp_free(&e);
     return st;
 }
@@ -86,7 +117,8 @@ pw_status pw_design_cmo(const pw_system *sys, double P_Pa, const pw_column_spec 
     memset(out, 0, sizeof *out);
     out->balance = PW_BALANCE_CMO;
     const pw_column_options o = opt ? *opt : pw_column_default_options();
-    if (!spec_ok(spec) || !(r_min > 0.0) || !isfinite(r_min) ||
+    const pw_column_spec s = unmirror_spec(spec, mirrored(spec));
+    if (!spec_ok(&s) || !(r_min > 0.0) || !isfinite(r_min) ||
         o.n_factors > PW_COLUMN_MAX_FACTORS || o.max_stages == 0)
         return PW_EINVAL;
     for (size_t i = 0; i < o.n_factors; i++) {

@@ -1,6 +1,7 @@
 /* Feasibility screen of a binary split: relative volatility along the column, azeotrope
  * barrier, azeotrope shift with pressure, rough R_min and stage counts.
  * See include/pinchwise/screen.h and docs/screen.md. */
+#include <pinchwise/column_direction.h>
 #include <pinchwise/curve.h>
 #include <pinchwise/screen.h>
 
@@ -22,6 +23,7 @@ pw_screen_options pw_screen_default_options(void)
     o.grid = 400;
     o.az = pw_azeotrope_default_options();
     o.column = pw_column_default_options();
+    o.q = 1.0;
     return o;
 }
 
@@ -69,7 +71,10 @@ static void note_T(pw_screen_result *r, double lo, double hi)
 
 static pw_status check(const pw_screen_options *o, double P, double xd, double xb, double zf)
 {
-    if (!(xb > 0.0 && xb < xd && xd < 1.0) || !(zf > xb && zf < xd) || !(P > 0.0) || !isfinite(P))
+    double lo = fmin(xb, xd), hi = fmax(xb, xd);
+    if (!(lo > 0.0 && lo < hi && hi < 1.0) || !(zf > lo && zf < hi) || !(P > 0.0) || !isfinite(P))
+        return PW_EINVAL;
+    if (!isfinite(o->q))
         return PW_EINVAL;
     if (!(o->alpha_difficult > 1.0) || !(o->shift_low > 0.0) || !(o->shift_high >= o->shift_low))
         return PW_EINVAL;
@@ -78,7 +83,8 @@ static pw_status check(const pw_screen_options *o, double P, double xd, double x
     return PW_OK;
 }
 
-/* alpha12 along [xb, xd] on o->grid points. */
+/* The overhead component's relative volatility (alpha12, or alpha21 = 1/alpha12 when component 1
+ * leaves with the bottoms) from xb to xd on o->grid points. */
 static pw_status alpha_profile(const pw_system *s, pw_screen_result *r, size_t n)
 {
     r->alpha_min = INFINITY;
@@ -89,7 +95,7 @@ static pw_status alpha_profile(const pw_system *s, pw_screen_result *r, size_t n
         if (st != PW_OK)
             return st;
         note_T(r, eq.T_K, eq.T_K);
-        double a = exp(f);
+        double a = exp(r->xd < r->xb ? -f : f);
         if (a < r->alpha_min) {
             r->alpha_min = a;
             r->x_alpha_min = x;
@@ -169,16 +175,18 @@ static pw_status rough_column(const pw_system *s, const pw_screen_options *o, pw
     if (st != PW_OK)
         return st;
     pw_curve curve = pw_system_curve_bind(&sc);
-    pw_column_spec spec = {r->xd, r->xb, r->zf, 1.0};
-    st = pw_column_solve(&curve, &spec, &o->column, &r->column);
+    pw_column_spec spec = {r->xd, r->xb, r->zf, o->q};
+    st = pw_column_solve_any(&curve, &spec, &o->column, &r->column);
     if (st != PW_OK)
         return st;
     r->column_ran = true;
     if (r->alpha_mean > 1.0) {
+        /* in fractions of the component that goes overhead */
+        pw_column_spec u = r->xd < r->xb ? pw_column_spec_mirror(&spec) : spec;
         double rm;
-        if (pw_underwood_rmin(r->alpha_mean, r->zf, r->xd, 1.0, &rm) == PW_OK)
+        if (pw_underwood_rmin(r->alpha_mean, u.zf, u.xd, o->q, &rm) == PW_OK)
             r->r_min_underwood = rm;
-        r->n_fenske = pw_fenske_nmin(r->alpha_mean, r->xd, r->xb);
+        r->n_fenske = pw_fenske_nmin(r->alpha_mean, u.xd, u.xb);
     }
     return PW_OK;
 }
@@ -206,7 +214,7 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
     const pw_screen_options o = opt ? *opt : pw_screen_default_options();
     bool zf_default = isnan(zf);
     if (zf_default)
-        zf = (xb < 0.5 && xd > 0.5) ? 0.5 : 0.5 * (xb + xd);
+        zf = (fmin(xb, xd) < 0.5 && fmax(xb, xd) > 0.5) ? 0.5 : 0.5 * (xb + xd);
     pw_status st = check(&o, P_Pa, xd, xb, zf);
     if (st != PW_OK)
         return st;
@@ -219,6 +227,9 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
         return st;
     note_T(out, out->az.T_lo_K, out->az.T_hi_K);
 
+    const double lo = fmin(xb, xd), hi = fmax(xb, xd);
+    const bool down = xd < xb; /* component 1 leaves with the bottoms */
+    const char *an = down ? "alpha21" : "alpha12";
     /* partly miscible liquids: crossings inside the two-liquid region are no azeotropes; a
      * heterogeneous azeotrope between the targets calls for the decanter scheme */
     pw_three_phase het;
@@ -226,7 +237,7 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
         st = pw_azeotrope_heterogeneous(s, PW_AZ_ISOBARIC, P_Pa, &out->az, &het, NULL);
         if (st != PW_OK)
             return st;
-        if (het.exists && het.heterogeneous_azeotrope && het.y1 > xb && het.y1 < xd) {
+        if (het.exists && het.heterogeneous_azeotrope && het.y1 > lo && het.y1 < hi) {
             out->barrier = true;
             out->x_barrier = het.y1;
             reason(out, PW_REASON_BARRIER,
@@ -236,7 +247,7 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
         }
     }
     for (size_t i = 0; !out->barrier && i < out->az.n; i++)
-        if (out->az.az[i].x1 > xb && out->az.az[i].x1 < xd) {
+        if (out->az.az[i].x1 > lo && out->az.az[i].x1 < hi) {
             out->barrier = true;
             out->x_barrier = out->az.az[i].x1;
             reason(out, PW_REASON_BARRIER,
@@ -249,28 +260,29 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
     bool beyond = !out->barrier && out->alpha_min <= 1.0;
     if (beyond)
         reason(out, PW_REASON_BEYOND,
-               "alpha12 = %.4f <= 1 at x1 = %.4f: component 1 is not the lighter one over that part "
-               "of [xb, xd], so the target lies beyond an azeotrope (or past the pure end)",
-               out->alpha_min, out->x_alpha_min);
+               "%s = %.4f <= 1 at x1 = %.4f: component %d, which should go overhead, is not the "
+               "lighter one over that part of the range between xb and xd, so the target lies "
+               "beyond an azeotrope (or past the pure end)",
+               an, out->alpha_min, out->x_alpha_min, down ? 2 : 1);
     bool infeasible = out->barrier || beyond;
     bool touch = false;
     for (size_t i = 0; i < out->az.n_touch; i++)
-        if (out->az.touch[i].x1 > xb && out->az.touch[i].x1 < xd) {
+        if (out->az.touch[i].x1 > lo && out->az.touch[i].x1 < hi) {
             touch = true;
             reason(out, PW_REASON_NEAR_PINCH,
-                   "alpha12 comes within %.2g of 1 at x1 = %.4f without crossing: a near-azeotrope "
+                   "%s comes within %.2g of 1 at x1 = %.4f without crossing: a near-azeotrope "
                    "(tangential pinch) that needs very many stages",
-                   fabs(expm1(out->az.touch[i].ln_alpha)), out->az.touch[i].x1);
+                   an, fabs(expm1(out->az.touch[i].ln_alpha)), out->az.touch[i].x1);
         }
     bool low = !infeasible && out->alpha_min < o.alpha_difficult;
     if (low)
         reason(out, PW_REASON_LOW_ALPHA,
-               "lowest alpha12 = %.4f at x1 = %.4f is below %.2f (threshold: common practice)",
+               "lowest %s = %.4f at x1 = %.4f is below %.2f (threshold: common practice)", an,
                out->alpha_min, out->x_alpha_min, o.alpha_difficult);
     else if (!infeasible)
         reason(out, PW_REASON_EASY,
-               "lowest alpha12 = %.4f at x1 = %.4f is at or above %.2f (threshold: common practice)",
-               out->alpha_min, out->x_alpha_min, o.alpha_difficult);
+               "lowest %s = %.4f at x1 = %.4f is at or above %.2f (threshold: common practice)",
+               an, out->alpha_min, out->x_alpha_min, o.alpha_difficult);
 
     if (out->az.n > 0) {
         pressure_scan(s, &o, out, out->barrier ? out->x_barrier : out->az.az[0].x1);

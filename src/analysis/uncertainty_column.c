@@ -2,6 +2,7 @@
  * reflux), and the feasibility risk in words. */
 #include <pinchwise/curve.h>
 #include <pinchwise/design.h>
+#include <pinchwise/column_direction.h>
 #include <pinchwise/uncertainty.h>
 
 #include <math.h>
@@ -55,7 +56,7 @@ pw_status pw_unc_column_fn(void *ctx, const pw_system *sys, double *out)
         return st;
     pw_curve curve = pw_system_curve_bind(&sc);
     pw_column_result r;
-    st = pw_column_solve(&curve, &c->spec, &o, &r);
+    st = pw_column_solve_any(&curve, &c->spec, &o, &r);
     /* An infeasible split is an outcome; so is a split no pinch limits (PW_ERANGE with a
      * reason): both mean the design basis does not hold for this parameter set. */
     if ((st == PW_OK && !r.feasible) || (st == PW_ERANGE && r.reason[0]))

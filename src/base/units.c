@@ -8,6 +8,7 @@
 #include <ctype.h>
 #include <errno.h>
 #include <math.h>
+#include <stdbool.h>
 #include <stdlib.h>
 #include <string.h>
 #include <strings.h>
@@ -16,6 +17,12 @@ typedef struct {
     const char *name;
     double scale, offset; /* si = (value + offset) * scale */
 } unit_def;
+
+/* Each table lists the canonical spelling first and its other spellings after it, each alias with
+ * the canonical name it stands for (pw_units_canonical). */
+typedef struct {
+    const char *alias, *canonical;
+} unit_alias;
 
 static const unit_def temperature_units[] = {
     {"K", 1.0, 0.0},
@@ -30,7 +37,37 @@ static const unit_def pressure_units[] = {
     {"psia", 0.45359237 * 9.80665 / (0.0254 * 0.0254), 0.0}, /* lbf/in2, exact */
 };
 
+/* Other spellings: degree signs (U+00B0 followed by the letter; U+2103 and U+2109 as single
+ * characters), "deg" prefixes, the torr (taken as 1/760 atm, the same as mmHg above), psi read as
+ * absolute (psia), and bara as bar (absolute). Gauge pressures are not accepted. */
+static const unit_alias temperature_aliases[] = {
+    {"degC", "C"}, {"\xc2\xb0" "C", "C"}, {"\xe2\x84\x83", "C"},
+    {"degF", "F"}, {"\xc2\xb0" "F", "F"}, {"\xe2\x84\x89", "F"},
+};
+
+static const unit_alias pressure_aliases[] = {
+    {"torr", "mmHg"},
+    {"psi", "psia"},
+    {"bara", "bar"},
+};
+
+static const unit_def *find_unit_exact(pw_quantity q, const char *unit);
+
 static const unit_def *find_unit(pw_quantity q, const char *unit)
+{
+    const unit_def *u = find_unit_exact(q, unit);
+    if (u || !unit)
+        return u;
+    const unit_alias *al = q == PW_QTY_TEMPERATURE ? temperature_aliases : pressure_aliases;
+    size_t na = q == PW_QTY_TEMPERATURE ? sizeof temperature_aliases / sizeof *temperature_aliases
+                                        : sizeof pressure_aliases / sizeof *pressure_aliases;
+    for (size_t i = 0; i < na; i++)
+        if (strcasecmp(al[i].alias, unit) == 0)
+            return find_unit_exact(q, al[i].canonical);
+    return NULL;
+}
+
+static const unit_def *find_unit_exact(pw_quantity q, const char *unit)
 {
     const unit_def *table = q == PW_QTY_TEMPERATURE ? temperature_units : pressure_units;
     size_t n = q == PW_QTY_TEMPERATURE ? sizeof temperature_units / sizeof *temperature_units
@@ -60,7 +97,14 @@ int pw_units_known(pw_quantity q, const char *unit) { return find_unit(q, unit) 
 
 const char *pw_units_list(pw_quantity q)
 {
-    return q == PW_QTY_TEMPERATURE ? "K, C, F" : "Pa, kPa, MPa, bar, atm, mmHg, psia";
+    return q == PW_QTY_TEMPERATURE ? "K, C, F (also degC, \xc2\xb0" "C, degF, \xc2\xb0" "F)"
+                                   : "Pa, kPa, MPa, bar, atm, mmHg, psia (also bara, torr, psi)";
+}
+
+const char *pw_units_canonical(pw_quantity q, const char *unit)
+{
+    const unit_def *u = find_unit(q, unit);
+    return u ? u->name : NULL;
 }
 
 pw_status pw_units_to_si(pw_quantity q, double value, const char *unit, double *si)
@@ -84,32 +128,225 @@ pw_status pw_units_from_si(pw_quantity q, double si, const char *unit, double *v
     return PW_OK;
 }
 
+/* Strict decimal number: optional sign, digits with an optional '.', optional exponent; nothing
+ * else (no hex, inf or nan spellings), finite. */
+static bool strict_number(const char *text, double *out)
+{
+    const char *p = text;
+    bool digits = false;
+    if (*p == '+' || *p == '-')
+        p++;
+    while (isdigit((unsigned char)*p))
+        p++, digits = true;
+    if (*p == '.') {
+        p++;
+        while (isdigit((unsigned char)*p))
+            p++, digits = true;
+    }
+    if (!digits)
+        return false;
+    if (*p == 'e' || *p == 'E') {
+        p++;
+        if (*p == '+' || *p == '-')
+            p++;
+        if (!isdigit((unsigned char)*p))
+            return false;
+        while (isdigit((unsigned char)*p))
+            p++;
+    }
+    if (*p != '\0')
+        return false;
+    errno = 0;
+    double v = strtod(text, NULL);
+    if (!isfinite(v) || errno == ERANGE)
+        return false;
+    *out = v;
+    return true;
+}
+
+static bool exponent_at(const char *s)
+{
+    if (*s != 'e' && *s != 'E')
+        return false;
+    s++;
+    if (*s == '+' || *s == '-')
+        s++;
+    return isdigit((unsigned char)*s);
+}
+
+pw_units_split_result pw_units_split(const char *text, double *value, char *unit, size_t unit_cap)
+{
+    if (!text)
+        return PW_SPLIT_NO_NUMBER;
+    while (isspace((unsigned char)*text))
+        text++;
+    size_t i = 0;
+    while (text[i] && !isspace((unsigned char)text[i]) && text[i] != '%' &&
+           (unsigned char)text[i] < 0x80 && !(isalpha((unsigned char)text[i]) && !exponent_at(text + i)))
+        i++;
+    char num[64];
+    if (i == 0 || i >= sizeof num)
+        return PW_SPLIT_NO_NUMBER;
+    memcpy(num, text, i);
+    num[i] = '\0';
+    if (!strict_number(num, value))
+        return PW_SPLIT_NO_NUMBER;
+    const char *u = text + i;
+    while (isspace((unsigned char)*u))
+        u++;
+    size_t ul = strlen(u);
+    while (ul && isspace((unsigned char)u[ul - 1]))
+        ul--;
+    if (ul == 0)
+        return PW_SPLIT_NO_UNIT;
+    if (ul >= unit_cap)
+        return PW_SPLIT_BAD_UNIT;
+    for (size_t k = 0; k < ul; k++)
+        if (isspace((unsigned char)u[k]))
+            return PW_SPLIT_BAD_UNIT;
+    memcpy(unit, u, ul);
+    unit[ul] = '\0';
+    return PW_SPLIT_OK;
+}
+
 pw_status pw_units_parse_quantity(pw_quantity q, const char *text, double *si, pw_error *err)
 {
     const char *what = q == PW_QTY_TEMPERATURE ? "temperature" : "pressure";
     if (!text || !*text)
         return pw_error_set(err, PW_EINVAL, NULL, 0, "empty %s (expected a number with a unit: %s)",
                             what, pw_units_list(q));
-    char *end = NULL;
-    errno = 0;
-    double v = strtod(text, &end);
-    if (end == text || errno == ERANGE || !isfinite(v) || isspace((unsigned char)*text))
+    double v;
+    char unit[32];
+    switch (pw_units_split(text, &v, unit, sizeof unit)) {
+    case PW_SPLIT_OK:
+        break;
+    case PW_SPLIT_NO_UNIT:
         return pw_error_set(err, PW_EINVAL, NULL, 0,
-                            "'%s' is not a %s (expected a number with a unit, e.g. %s; units: %s)",
+                            "'%s' has no unit (write the unit after the number; units: %s)", text,
+                            pw_units_list(q));
+    case PW_SPLIT_BAD_UNIT:
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "unknown %s unit in '%s' (units: %s)", what,
+                            text, pw_units_list(q));
+    case PW_SPLIT_NO_NUMBER:
+    default:
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "'%s' is not a %s (expected a plain decimal number with a unit, e.g. "
+                            "%s; units: %s)",
                             text, what, q == PW_QTY_TEMPERATURE ? "350K or 50C" : "101.325kPa or 1atm",
                             pw_units_list(q));
-    /* Guard against strtod's hexadecimal and infinity spellings. */
-    if (strpbrk(text, "xX") || strncasecmp(text, "in", 2) == 0 || strncasecmp(text, "nan", 3) == 0)
-        return pw_error_set(err, PW_EINVAL, NULL, 0, "'%s' is not a plain decimal number", text);
-    if (*end == '\0')
-        return pw_error_set(err, PW_EINVAL, NULL, 0,
-                            "'%s' has no unit (write the unit straight after the number; units: %s)",
-                            text, pw_units_list(q));
-    if (!find_unit(q, end))
+    }
+    if (!find_unit(q, unit))
         return pw_error_set(err, PW_EINVAL, NULL, 0, "unknown %s unit '%s' in '%s' (units: %s)",
-                            what, end, text, pw_units_list(q));
-    pw_status st = pw_units_to_si(q, v, end, si);
+                            what, unit, text, pw_units_list(q));
+    pw_status st = pw_units_to_si(q, v, unit, si);
     if (st != PW_OK)
         return pw_error_set(err, st, NULL, 0, "%s '%s' is not above absolute zero", what, text);
     return PW_OK;
+}
+
+pw_status pw_units_parse_temperature_difference(const char *text, double *K, pw_error *err)
+{
+    double v;
+    char unit[32];
+    const unit_def *u = NULL;
+    if (pw_units_split(text, &v, unit, sizeof unit) == PW_SPLIT_OK)
+        u = find_unit(PW_QTY_TEMPERATURE, unit);
+    if (!u && pw_units_split(text, &v, unit, sizeof unit) == PW_SPLIT_OK)
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "unknown unit '%s' in '%s' (expected a temperature difference in %s)",
+                            unit, text, pw_units_list(PW_QTY_TEMPERATURE));
+    if (!u || !(v > 0.0))
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "'%s' is not a temperature difference (expected a positive number with "
+                            "its unit, e.g. 0.05K or 0.1 C; units: %s)",
+                            text ? text : "", pw_units_list(PW_QTY_TEMPERATURE));
+    *K = v * u->scale; /* a difference: only the size of the degree counts, not the offset */
+    return PW_OK;
+}
+
+pw_status pw_units_parse_pressure_uncertainty(const char *text, double *rel, double *abs_Pa,
+                                              pw_error *err)
+{
+    double v;
+    char unit[32];
+    pw_units_split_result r = pw_units_split(text, &v, unit, sizeof unit);
+    const unit_def *u = r == PW_SPLIT_OK ? find_unit(PW_QTY_PRESSURE, unit) : NULL;
+    bool percent = r == PW_SPLIT_OK && strcmp(unit, "%") == 0;
+    if (r == PW_SPLIT_OK && !u && !percent)
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "unknown unit '%s' in '%s' (expected %% or one of %s)", unit, text,
+                            pw_units_list(PW_QTY_PRESSURE));
+    if ((!u && !percent) || !(v > 0.0))
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "'%s' is not a pressure uncertainty (expected a positive number with %% "
+                            "or a pressure unit, e.g. 0.2%% or 0.05kPa; units: %%, %s)",
+                            text ? text : "", pw_units_list(PW_QTY_PRESSURE));
+    if (percent) {
+        *rel = v / 100.0;
+        *abs_Pa = NAN;
+    } else {
+        *rel = NAN;
+        *abs_Pa = v * u->scale;
+    }
+    return PW_OK;
+}
+
+pw_status pw_units_parse_composition(const char *text, double *value, pw_basis *basis,
+                                     pw_error *err)
+{
+    double v;
+    char unit[32];
+    pw_units_split_result r = pw_units_split(text, &v, unit, sizeof unit);
+    double scale = 1.0;
+    pw_basis b = PW_BASIS_MOLE;
+    if (r == PW_SPLIT_NO_UNIT) {
+        /* a bare number: a mole fraction */
+    } else if (r == PW_SPLIT_OK && (!strcasecmp(unit, "mol") || !strcasecmp(unit, "mol%"))) {
+        scale = unit[3] ? 0.01 : 1.0;
+    } else if (r == PW_SPLIT_OK && (!strcasecmp(unit, "wt") || !strcasecmp(unit, "wt%"))) {
+        scale = unit[2] ? 0.01 : 1.0;
+        b = PW_BASIS_MASS;
+    } else if (r == PW_SPLIT_OK && !strcmp(unit, "%")) {
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "'%s': say which percent (write mol%% for mole percent or wt%% for mass "
+                            "percent)",
+                            text);
+    } else {
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "'%s' is not a composition (expected a mole fraction such as 0.95, or a "
+                            "number with mol%%, wt or wt%%, e.g. 95mol%%, 0.98wt, 99.5wt%%)",
+                            text ? text : "");
+    }
+    v *= scale;
+    if (!(v >= 0.0 && v <= 1.0)) {
+        bool pct_hint = r == PW_SPLIT_NO_UNIT && v > 1.0 && v <= 100.0;
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "'%s' is outside [0, 1] as a %s fraction%s",
+                            text, b == PW_BASIS_MASS ? "mass" : "mole",
+                            pct_hint ? " (looks like a percentage: write mol% or wt% after it, or "
+                                       "divide by 100)"
+                                     : "");
+    }
+    *value = v;
+    *basis = b;
+    return PW_OK;
+}
+
+double pw_units_mass_to_mole(double w, double M1, double M2)
+{
+    if (w <= 0.0)
+        return 0.0;
+    if (w >= 1.0)
+        return 1.0;
+    double n1 = w / M1, n2 = (1.0 - w) / M2;
+    return n1 / (n1 + n2);
+}
+
+double pw_units_mole_to_mass(double x, double M1, double M2)
+{
+    if (x <= 0.0)
+        return 0.0;
+    if (x >= 1.0)
+        return 1.0;
+    double m1 = x * M1, m2 = (1.0 - x) * M2;
+    return m1 / (m1 + m2);
 }

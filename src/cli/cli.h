@@ -30,6 +30,7 @@ int pw_cli_report(int argc, char **argv);
 int pw_cli_lle(int argc, char **argv);
 int pw_cli_decanter(int argc, char **argv);
 int pw_cli_rate(int argc, char **argv);
+int pw_cli_study(int argc, char **argv);
 
 /* Prints "pinchwise CMD: file:line: message" as one line on stderr and returns the exit code
  * for err->status. */
@@ -78,11 +79,18 @@ typedef struct pw_cli_targets {
     double P_Pa;
     double xd, xb, zf, q; /* q defaults to 1 */
     bool have_P, have_xd, have_xb, have_zf;
+    pw_basis basis[3]; /* of xd, xb, zf as given (mole unless "wt"/"wt%"); see cli_units.h */
 } pw_cli_targets;
 
 /* When opt is one of --pressure, --xd, --xb, --zf, --q, parses value into t and returns 0 (or
+ * PW_EXIT_USAGE with err on a bad value); returns -1 for any other option. Compositions may carry
+ * mol%, wt or wt% (t->basis); pw_cli_targets_to_mole converts them once the fit is read.
  * PW_EXIT_USAGE with err on a bad value); returns -1 for any other option. */
 int pw_cli_target_opt(const char *opt, const char *value, pw_cli_targets *t, pw_error *err);
+
+/* Converts xd, xb, zf given by mass (basis[]) to mole fractions of sys's component 1. */
+pw_status pw_cli_targets_to_mole(double *xd, double *xb, double *zf, const pw_basis basis[3],
+                                 const pw_system *sys, pw_error *err);
 
 /* Writes obj to stdout as one JSON object followed by a newline (17 significant digits);
  * steals the reference. Returns 0, or the I/O exit code; prints nothing and returns the

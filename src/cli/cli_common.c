@@ -1,4 +1,7 @@
 #include "cli.h"
+#include "cli_units.h"
+
+#include <pinchwise/jsontext.h>
 
 #include <pinchwise/dataset.h>
 
@@ -220,15 +223,15 @@ int pw_cli_target_opt(const char *opt, const char *value, pw_cli_targets *t, pw_
     }
     if (!strcmp(opt, "--xd")) {
         t->have_xd = true;
-        return pw_cli_fraction(opt, value, &t->xd, err);
+        return pw_cli_composition(opt, value, &t->xd, &t->basis[0], err);
     }
     if (!strcmp(opt, "--xb")) {
         t->have_xb = true;
-        return pw_cli_fraction(opt, value, &t->xb, err);
+        return pw_cli_composition(opt, value, &t->xb, &t->basis[1], err);
     }
     if (!strcmp(opt, "--zf")) {
         t->have_zf = true;
-        return pw_cli_fraction(opt, value, &t->zf, err);
+        return pw_cli_composition(opt, value, &t->zf, &t->basis[2], err);
     }
     if (!strcmp(opt, "--q")) /* liquid fraction of the feed: -10 (very hot vapor) to 10 (very
                               * cold liquid) covers every real feed (docs/inputs.md) */

@@ -3,6 +3,7 @@
 #include "analysis_common.h"
 #include "azeo_uncert.h"
 #include "cli.h"
+#include "cli_units.h"
 
 #include <math.h>
 #include <pinchwise/lle.h>
@@ -15,19 +16,23 @@
 static void usage(FILE *f)
 {
     fprintf(f,
-            "usage: pinchwise azeotrope FIT.json (--pressure P | --temperature T) [--scan FROM:TO:N]\n"
+            "usage: pinchwise azeotrope FIT.json [--pressure P | --temperature T] [--sweep FROM:TO[:N]]\n"
             "                           [--json]\n"
             "\n"
             "Azeotropes of the fitted model: where y1 = x1, found on a fine composition grid and\n"
             "refined by Brent's method; classified from the extremum of the bubble curve.\n"
-            "  --pressure P        fixed pressure with its unit, e.g. 101.325kPa, 1atm\n"
+            "  --pressure P        fixed pressure with its unit, e.g. 101.325kPa, \"1 atm\"\n"
             "  --temperature T     fixed temperature with its unit, e.g. 50C, 350K\n"
-            "  --scan FROM:TO:N    also solve at N values from FROM to TO (pressures with\n"
-            "                      --pressure, geometric; temperatures with --temperature, linear)\n"
-            "                      and report where the azeotrope reaches a pure end\n"
+            "                      (neither: the condition of the fit's own data)\n"
+            "  --sweep FROM:TO[:N] also solve at N values (default 12) from FROM to TO (pressures\n"
+            "                      when the condition is a pressure, geometric; temperatures,\n"
+            "                      linear) and report where the azeotrope reaches a pure end\n"
+            "                      (also spelt --scan)\n"
             "  --uncertainty       95 %% intervals of each azeotrope from the fit's parameter\n"
             "                      covariance (linearised and sampled)\n"
             "  --samples N         parameter sets drawn (default 400); --seed N (default 1)\n"
+            PW_CLI_HELP_COMPONENTS
+            PW_CLI_HELP_MINIMUM
             "  --json              print one JSON object on stdout\n");
 }
 
@@ -39,28 +44,37 @@ typedef struct args {
     size_t n;
     pw_azeo_uncert unc;
     const char *components;
+    const char *scan_text; /* --sweep (or --scan) as given */
+    const char *scan_opt;  /* which of the two spellings was used, for the messages */
+    const char *minimum;   /* --minimum N as given */
 } args;
 
 static int parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
 {
-    char buf[256];
+    const char *o = a->scan_opt ? a->scan_opt : "--sweep";
+    char buf[256], what[3][32];
+    snprintf(what[0], sizeof what[0], "%s FROM", o);
+    snprintf(what[1], sizeof what[1], "%s TO", o);
+    snprintf(what[2], sizeof what[2], "%s N", o);
     snprintf(buf, sizeof buf, "%s", text);
     char *c1 = strchr(buf, ':'), *c2 = c1 ? strchr(c1 + 1, ':') : NULL;
-    if (!c1 || !c2 || strchr(c2 + 1, ':')) {
-        pw_error_set(err, PW_EINVAL, NULL, 0, "--scan %s: expected FROM:TO:N, e.g. 10kPa:500kPa:12",
-                     text);
+    if (!c1 || (c2 && strchr(c2 + 1, ':'))) {
+        pw_error_set(err, PW_EINVAL, NULL, 0,
+                     "%s %s: expected FROM:TO[:N], e.g. 10kPa:500kPa:12", o, text);
         return PW_EXIT_USAGE;
     }
-    *c1 = *c2 = '\0';
-    double n;
-    if (pw_cli_quantity(q, "--scan FROM", buf, &a->from, err) != PW_OK ||
-        pw_cli_quantity(q, "--scan TO", c1 + 1, &a->to, err) != PW_OK ||
-        pw_cli_number("--scan N", c2 + 1, &n, err) != PW_OK)
+    *c1 = '\0';
+    if (c2)
+        *c2 = '\0';
+    double n = 12.0; /* default number of points */
+    if (pw_cli_quantity(q, what[0], buf, &a->from, err) != PW_OK ||
+        pw_cli_quantity(q, what[1], c1 + 1, &a->to, err) != PW_OK ||
+        (c2 && pw_cli_number(what[2], c2 + 1, &n, err) != PW_OK))
         return PW_EXIT_USAGE;
     if (!(n >= 2.0 && n <= 1000.0) || n != floor(n) || a->from == a->to) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
-                     "--scan %s: N must be a whole number from 2 to 1000 and FROM differ from TO",
-                     text);
+                     "%s %s: N must be a whole number from 2 to 1000 and FROM differ from TO",
+                     o, text);
         return PW_EXIT_USAGE;
     }
     a->n = (size_t)n;
@@ -100,12 +114,20 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
                                 isP ? "--pressure" : "--temperature", v, &a->fixed, err) != PW_OK)
                 return PW_EXIT_USAGE;
             a->have_fixed = true;
-        } else if (pw_cli_opt(argc, argv, &i, "--scan", &v, &missing)) {
+        } else if (pw_cli_opt(argc, argv, &i, "--scan", &v, &missing) ||
+                   pw_cli_opt(argc, argv, &i, "--sweep", &v, &missing)) {
+            a->scan_opt = argv[missing ? i : i - 1];
             if (missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "--scan needs FROM:TO:N");
+                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs FROM:TO[:N]", a->scan_opt);
                 return PW_EXIT_USAGE;
             }
             scan_text = v;
+        } else if (pw_cli_opt(argc, argv, &i, "--minimum", &v, &missing)) {
+            if (missing) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "--minimum needs a number");
+                return PW_EXIT_USAGE;
+            }
+            a->minimum = v;
         } else if (pw_cli_opt(argc, argv, &i, "--components", &v, &missing)) {
             if (missing) {
                 pw_error_set(err, PW_EINVAL, NULL, 0, "--components needs a file");
@@ -122,14 +144,32 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
             a->fit_path = argv[i];
         }
     }
-    if (!a->fit_path || !a->have_fixed) {
-        pw_error_set(err, PW_EINVAL, NULL, 0,
-                     "a fit file and one of --pressure or --temperature are required");
+    if (!a->fit_path) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file is required");
         return PW_EXIT_USAGE;
     }
-    if (scan_text)
-        return parse_scan(scan_text, a->mode == PW_AZ_ISOBARIC ? PW_QTY_PRESSURE
-                                                               : PW_QTY_TEMPERATURE, a, err);
+    a->scan_text = scan_text; /* parsed once the condition is known (it may be the fit's own) */
+    return 0;
+}
+
+/* Without --pressure or --temperature: the condition of the fit's own data. Then the sweep. */
+static int settle_condition(args *a, const pw_fit_result *fit, pw_error *err)
+{
+    if (!a->have_fixed) {
+        bool isobaric = fit->kind == PW_DATA_ISOBARIC;
+        a->mode = isobaric ? PW_AZ_ISOBARIC : PW_AZ_ISOTHERMAL;
+        a->fixed = isobaric ? fit->P_fixed_Pa : fit->T_fixed_K;
+        if (!(isfinite(a->fixed) && a->fixed > 0.0)) {
+            pw_error_set(err, PW_EINVAL, a->fit_path, 0,
+                         "the fit file records no %s of its data: give --pressure or --temperature",
+                         isobaric ? "pressure" : "temperature");
+            return PW_EXIT_USAGE;
+        }
+        a->have_fixed = true;
+    }
+    if (a->scan_text)
+        return parse_scan(a->scan_text, a->mode == PW_AZ_ISOBARIC ? PW_QTY_PRESSURE
+                                                                  : PW_QTY_TEMPERATURE, a, err);
     return 0;
 }
 
@@ -237,6 +277,15 @@ int pw_cli_azeotrope(int argc, char **argv)
     pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
     if (st != PW_OK)
         return pw_cli_fail(CMD, &err);
+    size_t minimum = 0;
+    if (pw_cli_apply_minimum(CMD, &fit, a.minimum, &minimum, &err) != PW_OK) {
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
+    if ((rc = settle_condition(&a, &fit, &err)) != 0) {
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
     pw_az_result r;
     pw_az_scan *sc = NULL;
     st = pw_azeotrope_find(&fit.sys, a.mode, a.fixed, NULL, &r);
@@ -298,6 +347,8 @@ int pw_cli_azeotrope(int argc, char **argv)
         json_t *o = pw_azeotrope_doc(&fit.sys, a.mode, a.fixed, &r, sc, &tp, tps);
         if (a.unc.on)
             pw_azeo_uncert_json(&a.unc, &r, json_object_get(o, "azeotropes"));
+        if (minimum)
+            json_object_set_new(o, "minimum", json_integer((json_int_t)minimum));
         rc = pw_cli_print_json(o);
     } else {
         print_text(&fit, &a, &r, &tp, n_removed, sc, tps);

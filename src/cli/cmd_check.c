@@ -2,6 +2,9 @@
  * Runs the consistency tests of the library (pinchwise/consistency.h) and prints a table or
  * one JSON object. Exit 0 when the check ran, whatever the verdict. */
 #include "cli.h"
+#include "cli_units.h"
+
+#include <pinchwise/composition.h>
 
 #include <pinchwise/hetcheck.h>
 
@@ -14,9 +17,10 @@
 
 static void usage(FILE *f)
 {
-    fprintf(f, "usage: pinchwise check DATA.csv [--components FILE] [--strict] [--sigma-y S] [--json]\n"
+    fprintf(f, "usage: pinchwise check DATA.csv [--components FILE] [--strict] [--sigma-y S] [--exit-verdict] [--json]\n"
                "  thermodynamic consistency tests of a measured binary VLE data file\n"
-               "  --components FILE  extra component file (its rows take precedence)\n"
+               PW_CLI_HELP_COMPONENTS
+               "  --exit-verdict     exit with status 7 when the data are not shown consistent\n"
                "  --strict           every test that ran must pass for a 'consistent' verdict\n"
                "  --sigma-y S        standard uncertainty of y1 (0 < S < 1), overriding the file's\n"
                "                     '# sigma_y:'; with either, the point test's limit follows it\n"
@@ -24,21 +28,85 @@ static void usage(FILE *f)
                "  --json             print one JSON object on stdout\n");
 }
 
+/* What each test's value is and its unit, for the table (the JSON carries the criterion). */
+static void value_words(const pw_ctest *t, bool isothermal, const char **what, const char **unit,
+                        double *scale)
+{
+    *scale = 1.0;
+    switch (t->id) {
+    case PW_CTEST_AREA:
+        *what = "D: imbalance of the ln(gamma1/gamma2) areas above and below zero";
+        *unit = "%";
+        break;
+    case PW_CTEST_HERINGTON:
+        *what = "D - J: area imbalance D less the allowance J for heats of mixing";
+        *unit = "% points";
+        break;
+    case PW_CTEST_POINT:
+        *what = "mean |y calculated - y measured|";
+        *unit = "mole fraction";
+        break;
+    case PW_CTEST_DILUTION:
+        *what = "max(I1, I2): disagreement of the two infinite-dilution extrapolations";
+        *unit = "%";
+        break;
+    case PW_CTEST_SLOPE:
+        *what = "mismatch of the G^E slope and ln(gamma1/gamma2), summed over the points";
+        *unit = "%";
+        break;
+    case PW_CTEST_ENDPOINT:
+        *what = isothermal ? "largest |P measured - P sat| / P sat at a pure-component row"
+                           : "largest |T measured - T sat| at a pure-component row";
+        *unit = isothermal ? "%" : "K";
+        *scale = isothermal ? 100.0 : 1.0;
+        break;
+    default:
+        *what = "";
+        *unit = "";
+        break;
+    }
+}
+
+/* "v unit", or "not applicable, because why" when v is not a number. */
+static const char *with_unit(double v, bool fixed3, const char *unit, const char *why,
+                             char *buf, size_t cap)
+{
+    if (!isfinite(v)) {
+        snprintf(buf, cap, "not applicable, because %s", why && why[0] ? why : "it could not be computed");
+        return buf;
+    }
+    int n = fixed3 ? snprintf(buf, cap, "%.3f", v) : snprintf(buf, cap, "%.4g", v);
+    if (n > 0 && (size_t)n < cap && unit && unit[0])
+        snprintf(buf + n, cap - (size_t)n, " %s", unit);
+    return buf;
+}
+
 static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
 {
+    bool iso = ds->kind == PW_DATA_ISOTHERMAL;
     printf("Consistency of %s\n  %s (1) / %s (2), %s, %zu rows\n\n", ds->path, ds->names[0],
-           ds->names[1],
-           ds->kind == PW_DATA_ISOTHERMAL ? "isothermal" : "isobaric", ds->n);
-    printf("  %-16s %12s %10s  %-7s %s\n", "test", "value", "limit", "result", "role");
+           ds->names[1], iso ? "isothermal" : "isobaric", ds->n);
+    printf("  %-16s %-22s %-20s %-7s %s\n", "test", "value", "pass below", "result", "role");
     for (int i = 0; i < PW_CTEST_COUNT; i++) {
         const pw_ctest *t = &r->tests[i];
-        if (t->ran)
-            printf("  %-16s %12.4g %10.4g  %-7s %s\n", t->name, t->value, t->limit,
-                   t->pass ? "pass" : "FAIL", r->primary[i] ? "decides" : "supports");
+        if (!t->ran)
+            continue;
+        const char *what, *unit;
+        double sc;
+        value_words(t, iso, &what, &unit, &sc);
+        char v[64], l[64];
+        printf("  %-16s %-22s %-20s %-7s %s\n", t->name,
+               with_unit(t->value * sc, false, unit, NULL, v, sizeof v),
+               with_unit(t->limit * sc, false, unit, NULL, l, sizeof l),
+               t->pass ? "pass" : "FAIL", r->primary[i] ? "decides" : "supports");
+        printf("  %-16s   value: %s\n", "", what);
+        if (t->id == PW_CTEST_HERINGTON)
+            printf("  %-16s   D = %.4g %%, J = %.4g %% (J = 150 x %.4g K / %.4g K)\n", "",
+                   r->herington_D, r->herington_J, r->herington_theta_K, r->herington_Tmin_K);
     }
     for (int i = 0; i < PW_CTEST_COUNT; i++)
         if (!r->tests[i].ran)
-            printf("  %-16s not run: %s\n", r->tests[i].name, r->tests[i].why_not);
+            printf("  %-16s not run, because %s\n", r->tests[i].name, r->tests[i].why_not);
     if (r->uncertainty_based)
         printf("  limits from the stated uncertainties: sigma_y %.3g, sigma_x %.3g, %s %.3g%s\n",
                r->sigma_y_used, r->sigma_x_used,
@@ -51,12 +119,21 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
     for (size_t i = 0; i < r->n_reasons; i++)
         printf("     - %s\n", r->reasons[i]);
     if (r->legendre_terms)
-        printf("\n  Legendre G^E by Barker's method: %zu terms, Van Ness index %d (rms d ln(g1/g2) %.3g)\n",
+        printf("\n  Legendre G^E by Barker's method: %zu terms, Van Ness index %d (rms of d ln(g1/g2) "
+               "%.3g, dimensionless)\n",
                r->legendre_terms, r->van_ness_index, r->rms_dlnratio);
-    if (r->quality.ran)
-        printf("  Kang-type quality factor Q = %.3f  (area %.3f, point %.3f, slope %.3g, dilution %.3f; "
-               "pure %.3f)\n", r->quality.Q, r->quality.F_area, r->quality.F_point,
-               r->quality.F_slope, r->quality.F_dilution, r->quality.F_pure);
+    if (r->quality.ran) {
+        const pw_cquality *q = &r->quality;
+        char a[200], b[200], c[200], d[200], e[200];
+        printf("  quality score Q = %.3f (0 to 1, dimensionless, 1 best) = pure-component part x (sum\n"
+               "  of the four others):\n"
+               "    area %s; point %s;\n    slope %s;\n    dilution %s; pure components %s\n",
+               q->Q, with_unit(q->F_area, true, "", r->tests[PW_CTEST_AREA].why_not, a, sizeof a),
+               with_unit(q->F_point, true, "", r->tests[PW_CTEST_POINT].why_not, b, sizeof b),
+               with_unit(q->F_slope, true, "", r->tests[PW_CTEST_SLOPE].why_not, c, sizeof c),
+               with_unit(q->F_dilution, true, "", r->tests[PW_CTEST_DILUTION].why_not, d, sizeof d),
+               with_unit(q->F_pure, true, "", r->tests[PW_CTEST_ENDPOINT].why_not, e, sizeof e));
+    }
     if (r->tests[PW_CTEST_POINT].ran) {
         printf("\n  %6s %8s %8s %8s %9s %10s %10s\n", "line", "x1", "y1", "y1 calc", "dy",
                "dln(g1/g2)", ds->kind == PW_DATA_ISOTHERMAL ? "dP/P" : "dT [K]");
@@ -93,7 +170,7 @@ int pw_cli_check(int argc, char **argv)
 {
     const char *data = NULL, *comp_file = NULL;
     const char *sigma_y = NULL;
-    bool json = false, strict = false, missing = false;
+    bool json = false, strict = false, missing = false, exit_verdict = false;
     for (int i = 1; i < argc; i++) {
         if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h")) {
             usage(stdout);
@@ -108,6 +185,8 @@ int pw_cli_check(int argc, char **argv)
         } else if (pw_cli_opt(argc, argv, &i, "--sigma-y", &sigma_y, &missing)) {
             if (missing)
                 return pw_cli_failf("check", PW_EXIT_USAGE, "--sigma-y needs a value");
+        } else if (pw_cli_opt(argc, argv, &i, "--exit-verdict", NULL, NULL)) {
+            exit_verdict = true;
         } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
             return pw_cli_failf("check", PW_EXIT_USAGE, "unknown option '%s'", argv[i]);
         } else if (data) {
@@ -134,6 +213,8 @@ int pw_cli_check(int argc, char **argv)
     pw_component found[2];
     const pw_component *c[2] = {&found[0], &found[1]};
     pw_status st = pw_dataset_components(&lib, &ds, found, &err);
+    if (st == PW_OK)
+        st = pw_dataset_to_mole(&ds, c[0], c[1], &err); /* w1, wy1 columns */
     pw_consistency_result r;
     memset(&r, 0, sizeof r);
     pw_consistency_options o = pw_consistency_default_options();
@@ -176,6 +257,8 @@ int pw_cli_check(int argc, char **argv)
             print_het(&het);
             print_text(&ds, &r);
         }
+        if (code == 0 && exit_verdict && !r.consistent)
+            code = PW_CLI_EXIT_VERDICT;
     }
     pw_het_check_free(&het, &one);
     pw_consistency_result_free(&r);

@@ -2,6 +2,7 @@
  * heterogeneous azeotrope. Parses, calls src/analysis/decanter.c and prints. */
 #include "analysis_common.h"
 #include "cli.h"
+#include "cli_units.h"
 
 #include <math.h>
 #include <pinchwise/commands.h>
@@ -22,7 +23,8 @@ static void usage(FILE *f)
             "--x1-rich), the other layer tops stripping column B (bottoms --x1-lean). Each column\n"
             "has a partial reboiler and no condenser of its own; constant molal overflow.\n"
             "  --pressure P        pressure with its unit, e.g. 1atm, 101.325kPa\n"
-            "  --zf X              feed mole fraction of component 1\n"
+            "  --zf X              feed composition of component 1: a mole fraction, or with\n"
+            "                      mol%%, wt or wt%% (also --x1-rich and --x1-lean)\n"
             "  --x1-rich X         bottoms of column A (above the layer rich in component 1)\n"
             "  --x1-lean X         bottoms of column B (below the other layer)\n"
             "  --q Q               feed liquid fraction (default 1); the feed enters the decanter,\n"
@@ -36,6 +38,7 @@ typedef struct args {
     pw_decanter_spec spec;
     pw_column_options opt;
     bool have_P, have_z, have_rich, have_lean, json;
+    pw_basis basis[3]; /* of --zf, --x1-rich, --x1-lean as given (mole, or mass: wt, wt%) */
 } args;
 
 static int parse_factors(const char *text, pw_column_options *o, pw_error *err)
@@ -94,7 +97,8 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
                 rc = pw_cli_target_opt(opt, v, &tg, err);
             } else if (!strcmp(opt, "--x1-rich") || !strcmp(opt, "--x1-lean")) {
                 bool rich = !strcmp(opt, "--x1-rich");
-                rc = pw_cli_fraction(opt, v, rich ? &a->spec.x_rich : &a->spec.x_lean, err);
+                rc = pw_cli_composition(opt, v, rich ? &a->spec.x_rich : &a->spec.x_lean,
+                                        &a->basis[rich ? 1 : 2], err);
                 if (rich)
                     a->have_rich = true;
                 else
@@ -119,6 +123,7 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
     }
     a->spec.P_Pa = tg.P_Pa;
     a->spec.zf = tg.zf;
+    a->basis[0] = tg.basis[2];
     a->spec.q = tg.q;
     if (!a->fit_path || !tg.have_P || !tg.have_zf || !a->have_rich || !a->have_lean) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
@@ -161,6 +166,16 @@ int pw_cli_decanter(int argc, char **argv)
     pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
     if (st != PW_OK)
         return pw_cli_fail(CMD, &err);
+    /* compositions given by mass: mole fractions with the fit file's molar masses */
+    st = pw_cli_composition_to_mole("--zf", &a.spec.zf, a.basis[0], &fit.sys, &err);
+    if (st == PW_OK)
+        st = pw_cli_composition_to_mole("--x1-rich", &a.spec.x_rich, a.basis[1], &fit.sys, &err);
+    if (st == PW_OK)
+        st = pw_cli_composition_to_mole("--x1-lean", &a.spec.x_lean, a.basis[2], &fit.sys, &err);
+    if (st != PW_OK) {
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
     pw_decanter_result r;
     st = pw_decanter_run(&fit.sys, &a.spec, &a.opt, a.fit_path, &r, &err);
     if (st != PW_OK) {

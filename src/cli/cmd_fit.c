@@ -1,5 +1,6 @@
 /* pinchwise fit: one dataset (one model or all), or a folder of datasets (batch). */
 #include "cli.h"
+#include "cli_units.h"
 #include "fit_batch.h"
 #include "fit_common.h"
 
@@ -22,8 +23,10 @@ static void usage(FILE *f)
             "usage: pinchwise fit DATA.csv --model MODEL [options]\n"
             "       pinchwise fit DIR --model MODEL --out-dir OUTDIR [options]   (every *.csv in DIR)\n"
             "\n"
-            "MODEL: %s, or all (fit every model, rank by AICc)\n"
-            "  --components FILE     extra component rows (take precedence over the library)\n"
+            "MODEL: %s (any case), or all (fit every model, rank by\n"
+            "AICc; with a folder, every model of every file; with one file, --out-dir not --out)\n"
+            "Every option may also be written --option=value.\n"
+            PW_CLI_HELP_COMPONENTS
             "  --out FIT.json        fit file to write (default fits/<stem>.<model>.json)\n"
             "  --out-dir DIR         folder for the fit files (batch, or --model all)\n"
             "  --force               replace an existing fit file\n"
@@ -34,7 +37,8 @@ static void usage(FILE *f)
             "  --starts N            LM runs, each from its own start, 1 to 10000 (default 8)\n"
             "  --seed N              seed of the start points, 0 to 4294967295 (default 1)\n"
             "  --sigma-T DT          temperature uncertainty, e.g. 0.05K (default: file or 0.1 K)\n"
-            "  --sigma-P PCT         pressure uncertainty in percent, e.g. 0.2 (default: file or 0.1)\n"
+            "  --sigma-P DP          pressure uncertainty, 0.2%% or 0.05kPa, as in the file's\n"
+            "                        sigma_P (a bare number is percent; default: file or 0.1%%)\n"
             "  --sigma-y DY          vapor mole fraction uncertainty (default: file or 0.004)\n"
             "  --exclude LINES       file line numbers to leave out, e.g. 12,15-17\n"
             "  --exclude-reason TEXT why they are left out (recorded in the fit file)\n"
@@ -84,25 +88,35 @@ static int parse_lines(const char *text, pw_fit_options *o, pw_error *err)
     return PW_OK;
 }
 
-/* A temperature difference with its unit (K and C have the same size, F is 5/9 K): "0.05K". */
-static pw_status temperature_difference(const char *opt, const char *text, double *K, pw_error *err)
+/* --sigma-T and --sigma-P with the data file's syntax (pw_cli_uncertainty_opt) within the ranges
+ * of docs/inputs.md ("Command-line numbers"): a temperature difference from 0.0001 to 50 K; a
+ * pressure uncertainty from 0.0001 to 50 % or a positive absolute one up to 1 MPa. */
+static pw_status sigma_opt(const char *opt, const char *text, pw_fit_options *fo, pw_error *err)
 {
-    char *end;
-    double v = strtod(text, &end);
-    double scale = 0.0;
-    bool decimal = strspn(text, "0123456789+-.eE") == (size_t)(end - text); /* no hex */
-    if (end != text && decimal && isfinite(v) && v >= 1e-4 && v <= 50.0) {
-        if (!strcmp(end, "K") || !strcmp(end, "C"))
-            scale = 1.0;
-        else if (!strcmp(end, "F"))
-            scale = 5.0 / 9.0;
+    bool isT = !strcmp(opt, "--sigma-T");
+    double T = NAN, rel = NAN, abs_Pa = NAN;
+    pw_error inner;
+    pw_error_clear(&inner);
+    pw_status st = strpbrk(text, "xX") ? PW_EINVAL /* no hexadecimal numbers */
+                                       : pw_cli_uncertainty_opt(opt, text, &T, &rel, &abs_Pa,
+                                                                &inner);
+    bool ok = st == PW_OK &&
+              (isT ? (isfinite(T) && T >= 1e-4 && T <= 50.0)
+                   : (isfinite(rel) ? rel >= 1e-6 && rel <= 0.5
+                                    : isfinite(abs_Pa) && abs_Pa > 0.0 && abs_Pa <= 1e6));
+    if (!ok)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected %s%s%s%s", opt, text,
+                            isT ? "a temperature difference from 0.0001 to 50 K with its unit "
+                                  "(K, C, F), e.g. 0.05K"
+                                : "a pressure uncertainty from 0.0001 to 50 % (a bare number is "
+                                  "percent) or an absolute one with its unit, e.g. 0.2% or 0.05kPa",
+                            inner.msg[0] ? " (" : "", inner.msg, inner.msg[0] ? ")" : "");
+    if (isT) {
+        fo->sigma_T_K = T;
+    } else {
+        fo->sigma_P_rel = rel;
+        fo->sigma_P_abs_Pa = abs_Pa;
     }
-    if (scale == 0.0)
-        return pw_error_set(err, PW_EINVAL, NULL, 0,
-                            "%s %s: expected a temperature difference from 0.0001 to 50 with its "
-                            "unit (K, C, F), e.g. 0.05K",
-                            opt, text);
-    *K = v * scale;
     return PW_OK;
 }
 
@@ -209,8 +223,8 @@ int pw_cli_fit(int argc, char **argv)
                 st = parse_lines(v, &co.fit, &err);
             else if (!strcmp(opt, "--lle"))
                 lle_path = v;
-            else if (!strcmp(opt, "--sigma-T")) {
-                st = temperature_difference(opt, v, &co.fit.sigma_T_K, &err);
+            else if (!strcmp(opt, "--sigma-T") || !strcmp(opt, "--sigma-P")) {
+                st = sigma_opt(opt, v, &co.fit, &err);
             } else {
                 /* ranges: docs/inputs.md ("Command-line numbers") */
                 unsigned long long w = 0;
@@ -224,10 +238,6 @@ int pw_cli_fit(int argc, char **argv)
                 } else if (!strcmp(opt, "--alpha")) {
                     urc = pw_cli_ranged(opt, v, 0.001, 1.0, "an NRTL non-randomness", &d, &err);
                     co.fit.alpha = d;
-                } else if (!strcmp(opt, "--sigma-P")) {
-                    urc = pw_cli_ranged(opt, v, 1e-4, 50.0, "a pressure uncertainty in percent",
-                                        &d, &err);
-                    co.fit.sigma_P_rel = d / 100.0;
                 } else if (!strcmp(opt, "--sigma-y")) {
                     urc = pw_cli_ranged(opt, v, 1e-6, 0.5, "a mole-fraction uncertainty", &d, &err);
                     co.fit.sigma_y = d;
@@ -284,11 +294,11 @@ int pw_cli_fit(int argc, char **argv)
             pw_complib_free(&lib);
             return pw_cli_failf("fit", PW_EXIT_USAGE, "fitting a folder needs --out-dir OUTDIR");
         }
-        if (all) {
-            pw_complib_free(&lib);
-            return pw_cli_failf("fit", PW_EXIT_USAGE, "--model all is for one dataset, not a folder");
-        }
-        rc = pw_fit_batch(input, out_dir, model, &co);
+        rc = pw_fit_batch(input, out_dir, model, &co); /* model NULL: every model */
+    } else if (all && out) {
+        rc = pw_cli_failf("fit", PW_EXIT_USAGE,
+                          "--out names one fit file, but --model all writes one per model "
+                          "(<stem>.<model>.json): give --out-dir DIR instead");
     } else if (all) {
         rc = pw_fit_all_models(input, out_dir, &co);
     } else {

@@ -1,6 +1,7 @@
 /* pinchwise rate: the products and stage profile of a given column (stages, feed stage, reflux,
  * distillate rate) for a fitted model at a pressure. Parses, calls pw_rate_cmo, prints. */
 #include "cli.h"
+#include "cli_units.h"
 #include "design_out.h"
 
 #include <math.h>
@@ -22,7 +23,8 @@ static void usage(FILE *f)
         "counted), the whole feed on stage K, reflux ratio R = L/D, distillate D moles per mole\n"
         "of feed.\n"
         "  --pressure P        column pressure with its unit, e.g. 101.325kPa, 1atm\n"
-        "  --zf X              feed mole fraction of component 1\n"
+        "  --zf X              feed composition of component 1: a mole fraction, or with\n"
+        "                      mol%%, wt or wt%% (e.g. 40wt%%)\n"
         "  --q Q               feed liquid fraction (default 1, saturated liquid)\n"
         "  --energy            energy balance on every stage (heat data from the component\n"
         "                      file) instead of constant molal overflow; adds the duties\n"
@@ -134,6 +136,11 @@ int pw_cli_rate(int argc, char **argv)
     memset(&fit, 0, sizeof fit);
     if (pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    /* --zf given by mass: a mole fraction with the fit file's molar masses */
+    if (pw_cli_composition_to_mole("--zf", &a.spec.zf, a.tg.basis[2], &fit.sys, &err) != PW_OK) {
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
     pw_rate_result r;
     pw_rate_energy_out en;
     pw_status st = pw_rate_run(&fit.sys, a.P_Pa, &a.spec, a.energy, a.fit_path, &r, &en, &err);

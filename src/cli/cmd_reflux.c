@@ -1,6 +1,7 @@
 /* pinchwise reflux: minimum reflux with the limiting pinch, stages at total reflux, and the design
  * table at 1.2, 1.3 and 1.5 times R_min, for a fitted model at a pressure. */
 #include "cli.h"
+#include "cli_units.h"
 #include "reflux_common.h"
 #include "reflux_uncert.h"
 #include "design_out.h"
@@ -17,10 +18,14 @@ static void usage(FILE *f)
             "\n"
             "Binary column, constant molal overflow, total condenser, partial reboiler.\n"
             "  --pressure P        column pressure with its unit, e.g. 101.325kPa, 1atm, 2bar\n"
-            "  --xd, --xb, --zf    distillate, bottoms, feed mole fractions of component 1\n"
+            "  --xd, --xb, --zf    distillate, bottoms, feed compositions of component 1: a mole\n"
+            "                      fraction, or with mol%%, wt or wt%% (e.g. 99.5wt%%); either\n"
+            "                      direction: xb < zf < xd, or xd < zf < xb when component 1\n"
+            "                      leaves with the bottoms\n"
             "  --q Q               feed liquid fraction (1 saturated liquid, 0 saturated vapor,\n"
             "                      > 1 subcooled, < 0 superheated; default 1)\n"
-            "  --factors F,F,...   design reflux as multiples of R_min (default 1.2,1.3,1.5)\n"
+            "  --factors F,F,...   design reflux as multiples of R_min (default 1.2,1.3,1.5;\n"
+            "                      --operating-factor F is the same with one value)\n"
             "  --energy            energy balance on every stage (heats of vaporization and heat\n"
             "                      capacities from the component data) instead of constant\n"
             "                      molal overflow; adds condenser and reboiler duties\n"
@@ -30,6 +35,9 @@ static void usage(FILE *f)
             "  --seed N            random seed of the draws (default 1)\n"
             "  --compare FIT.json  another model's fit of the same data (repeatable): R_min\n"
             "                      side by side, ranked by AICc\n"
+            PW_CLI_HELP_COMPONENTS
+            PW_CLI_HELP_MINIMUM
+            PW_CLI_HELP_EXIT_VERDICT
             "  --json              print one JSON object on stdout\n");
 }
 
@@ -58,6 +66,10 @@ static void print_table(const pw_reflux_run *run)
     printf("column at %.4g kPa: xd %.4g, xb %.4g, zf %.4g, q %.4g (%s / %s)\n", run->P_Pa / 1e3,
            run->spec.xd, run->spec.xb, run->spec.zf, run->spec.q, run->fit.sys.comp[0].name,
            run->fit.sys.comp[1].name);
+    if (run->given[0] && run->given[1] && run->given[2])
+        printf("  (as given: xd %s, xb %s, zf %s; by mass converted with the molar masses of the\n"
+               "  fit file's components; every composition below is a mole fraction)\n",
+               run->given[0], run->given[1], run->given[2]);
     if (!c->feasible) {
         printf("  NOT FEASIBLE by simple distillation: %s\n", c->reason);
         return;
@@ -122,9 +134,12 @@ int pw_cli_reflux(int argc, char **argv)
         pw_reflux_run_free(&run);
         return pw_cli_fail("reflux", &err);
     }
+    run.with_uncertainty = a.uncertainty;
     pw_reflux_warn(&run);
     if (a.json) {
         json_t *o = pw_reflux_json(&run);
+        if (run.minimum)
+            json_object_set_new(o, "minimum", json_integer((json_int_t)run.minimum));
         if (with_unc)
             pw_reflux_uncert_json(&unc, o);
         rc = pw_cli_print_json(o);
@@ -133,6 +148,9 @@ int pw_cli_reflux(int argc, char **argv)
         if (with_unc)
             pw_reflux_uncert_print(&unc, &run);
     }
+    bool infeasible = !run.col.feasible || (run.energy && !run.energy_res.feasible);
     pw_reflux_run_free(&run);
+    if (rc == 0 && a.exit_verdict && infeasible)
+        rc = PW_CLI_EXIT_VERDICT;
     return rc;
 }

@@ -2,6 +2,7 @@
  * as separate SVG files and the curves behind them as CSV. */
 #include "azeo_uncert.h"
 #include "cli.h"
+#include "cli_units.h"
 
 #include <math.h>
 #include <pinchwise/enthalpy.h>
@@ -21,8 +22,11 @@ static void usage(FILE *f)
             "  --out FILE              the page to write (refused if it exists, unless --force)\n"
             "  --pressure P --xd X --xb X --zf X [--q Q]\n"
             "                          add the column section: x-y construction at pressure P\n"
-            "                          (with its unit, e.g. 1atm), mole fractions of component 1\n"
-            "  --operating-factor F    R / R_min of the drawn operating line (default 1.3)\n"
+            "                          (with its unit, e.g. 1atm), compositions of component 1\n"
+            "                          (mole fraction, or with mol%%, wt, wt%%), either direction\n"
+            "                          (xd < zf < xb: component 1 leaves with the bottoms)\n"
+            "  --factors F             R / R_min of the drawn operating line (default 1.3; one\n"
+            "                          value; also spelt --operating-factor)\n"
             "  --energy                with the column: also the energy-balance column (needs heat\n"
             "                          data in the component rows)\n"
             "  --uncertainty           add the fit's parameter uncertainty: azeotrope intervals,\n"
@@ -31,7 +35,8 @@ static void usage(FILE *f)
             "  --samples N             parameter sets drawn (default 400); --seed N (default 1)\n"
             "  --svg DIR               also write each plot as DIR/<name>.svg\n"
             "  --csv DIR               also write the curves behind the plots as DIR/<name>.csv\n"
-            "  --components FILE       vapor-pressure rows that replace the fit file's\n"
+            PW_CLI_HELP_COMPONENTS
+            PW_CLI_HELP_MINIMUM
             "  --compare FIT.json      another model of the same data for the side-by-side table\n"
             "                          (repeatable; default: the <stem>.<model>.json files beside\n"
             "                          FIT.json that `fit --model all` writes)\n"
@@ -40,11 +45,12 @@ static void usage(FILE *f)
 }
 
 typedef struct report_args {
-    const char *fit, *out, *svg, *csv, *components;
+    const char *fit, *out, *svg, *csv, *components, *minimum;
     bool json, force, energy;
     bool have_P, have_xd, have_xb, have_zf;
     double P_Pa, factor;
     pw_column_spec spec;
+    pw_basis basis[3];    /* of xd, xb, zf as given */
     pw_azeo_uncert unc;   /* --uncertainty, --samples, --seed (parsed as the azeotrope command) */
     const char *compare[8]; /* --compare FIT.json (repeatable): other models of the same data */
     size_t n_compare;
@@ -123,8 +129,8 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
         } else if (!strncmp(argv[i], "--", 2)) {
             const char *opt = argv[i];
             static const char *const known[] = {"--out", "--pressure", "--xd", "--xb", "--zf", "--q",
-                                                "--operating-factor", "--svg", "--csv",
-                                                "--components", "--compare"};
+                                                "--operating-factor", "--factors", "--svg", "--csv",
+                                                "--components", "--compare", "--minimum"};
             bool ok = false;
             for (size_t k = 0; k < sizeof known / sizeof known[0]; k++)
                 ok = ok || !strcmp(opt, known[k]);
@@ -144,6 +150,8 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
                 a->csv = v;
             else if (!strcmp(opt, "--components"))
                 a->components = v;
+            else if (!strcmp(opt, "--minimum"))
+                a->minimum = v;
             else if (!strcmp(opt, "--compare")) {
                 if (a->n_compare == REPORT_MAX_OTHERS) {
                     pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
@@ -154,7 +162,13 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
             }
             else if ((trc = pw_cli_target_opt(opt, v, &tg, err)) >= 0) {
                 rc = trc; /* --pressure, --xd, --xb, --zf, --q: parsed into tg */
-            } else if (!strcmp(opt, "--operating-factor")) {
+            } else if (!strcmp(opt, "--operating-factor") || !strcmp(opt, "--factors")) {
+                if (strchr(v, ',')) {
+                    pw_error_set(err, PW_EINVAL, NULL, 0,
+                                 "%s %s: the report draws one operating line; give one factor", opt,
+                                 v);
+                    return PW_EXIT_USAGE;
+                }
                 rc = pw_cli_number(opt, v, &a->factor, err) == PW_OK ? 0 : PW_EXIT_USAGE;
                 if (!rc && !(a->factor > 1.0 && a->factor <= 100.0)) {
                     pw_error_set(err, PW_EINVAL, NULL, 0,
@@ -186,16 +200,11 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
                      "the column section needs all of --pressure, --xd, --xb and --zf");
         return PW_EXIT_USAGE;
     }
-    if (n_col == 4 && !(a->spec.xb < a->spec.zf && a->spec.zf < a->spec.xd)) {
-        pw_error_set(err, PW_EINVAL, NULL, 0,
-                     "the targets must satisfy xb < zf < xd (got xb %g, zf %g, xd %g)", a->spec.xb,
-                     a->spec.zf, a->spec.xd);
-        return PW_EXIT_USAGE;
-    }
     if (a->energy && n_col == 0) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--energy needs the column options");
         return PW_EXIT_USAGE;
     }
+    memcpy(a->basis, tg.basis, sizeof a->basis);
     if (a->factor != 0.0 && n_col == 0) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--operating-factor needs the column options");
         return PW_EXIT_USAGE;
@@ -244,8 +253,30 @@ int pw_cli_report(int argc, char **argv)
         pw_outset_free(set);
         return pw_cli_fail("report", &err);
     }
+    size_t minimum = 0;
+    if (pw_cli_apply_minimum("report", &fit, a.minimum, &minimum, &err) != PW_OK) {
+        pw_fit_result_free(&fit);
+        pw_outset_free(set);
+        return pw_cli_fail("report", &err);
+    }
     if (!fit.converged)
         pw_cli_warnf("report", "%s: the fit did not converge; the report says so on every page", a.fit);
+    if (a.have_P) {
+        /* targets by mass to mole fractions; the feed between the products, either direction */
+        st = pw_cli_targets_to_mole(&a.spec.xd, &a.spec.xb, &a.spec.zf, a.basis, &fit.sys, &err);
+        const pw_column_spec *s = &a.spec;
+        if (st == PW_OK && !((s->xb < s->zf && s->zf < s->xd) || (s->xd < s->zf && s->zf < s->xb)))
+            st = pw_error_set(&err, PW_EINVAL, NULL, 0,
+                              "the targets must satisfy xb < zf < xd (component 1 goes overhead) "
+                              "or xd < zf < xb (component 1 leaves with the bottoms); got xb %g, "
+                              "zf %g, xd %g as mole fractions of component 1",
+                              s->xb, s->zf, s->xd);
+        if (st != PW_OK) {
+            pw_fit_result_free(&fit);
+            pw_outset_free(set);
+            return pw_cli_fail("report", &err);
+        }
+    }
 
     if (a.energy) {
         pw_heat_data heat;

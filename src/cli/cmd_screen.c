@@ -1,6 +1,7 @@
 /* pinchwise screen: quick feasibility verdict for a split by simple distillation. */
 #include "analysis_common.h"
 #include "cli.h"
+#include "cli_units.h"
 #include "reflux_uncert.h"
 
 #include <math.h>
@@ -18,16 +19,22 @@ static void usage(FILE *f)
             "  --uncertainty       propagate the fit's uncertainty (--samples N, --seed N)\n"
             "  --energy            R_min of the rough column also with energy balances (needs\n"
             "                      heat data in the component rows)\n"
-            "  --components FILE   vapor-pressure rows replacing the fit file's\n"
+            PW_CLI_HELP_COMPONENTS
+            PW_CLI_HELP_MINIMUM
+            PW_CLI_HELP_EXIT_VERDICT
             "\n"
             "Verdict (feasible / difficult / infeasible by simple distillation) with its reasons:\n"
             "lowest relative volatility on [xb, xd], azeotrope barrier, azeotrope shift over\n"
-            "20-500 kPa, rough minimum reflux (q = 1) and stages at total reflux.\n"
+            "20-500 kPa, rough minimum reflux and stages at total reflux.\n"
             "  --pressure P        column pressure with its unit, e.g. 101.325kPa, 1atm\n"
-            "  --xd, --xb          distillate and bottoms mole fractions of component 1\n"
-            "  --zf X              feed mole fraction (default 0.5, or (xb+xd)/2 when 0.5 is\n"
-            "                      outside (xb, xd))\n"
-            "  --swing-range LO:HI pressure range of the azeotrope-shift scan (default 20kPa:500kPa)\n"
+            "  --xd, --xb          distillate and bottoms compositions of component 1 (a mole\n"
+            "                      fraction, or with mol%%, wt or wt%%); xd < xb when component 1\n"
+            "                      leaves with the bottoms\n"
+            "  --zf X              feed composition (default 0.5, or (xb+xd)/2 when 0.5 is not\n"
+            "                      between them)\n"
+            "  --q Q               feed liquid fraction of the rough column (default 1)\n"
+            "  --sweep FROM:TO[:N] pressures of the azeotrope-shift scan (default 20kPa:500kPa:9;\n"
+            "                      also spelt --swing-range)\n"
             "  --json              print one JSON object on stdout\n");
 }
 
@@ -35,25 +42,40 @@ typedef struct args {
     const char *fit_path;
     double P_Pa, xd, xb, zf;
     bool have_P, have_xd, have_xb, json;
-    bool uncertainty;
+    pw_basis basis[3]; /* of xd, xb, zf as given */
+    bool uncertainty, exit_verdict;
     bool energy; /* --energy: R_min of the rough column also with energy balances */
-    const char *components;
+    const char *components, *minimum;
     const char *extra[4]; /* --samples N, --seed N for the uncertainty extension */
     int n_extra;
     pw_screen_options opt;
 } args;
 
+/* --sweep FROM:TO[:N] (also spelt --swing-range): the pressures of the azeotrope-shift scan. */
 static int swing_range(const char *text, args *a, pw_error *err)
 {
     char buf[128];
     snprintf(buf, sizeof buf, "%s", text);
     char *c = strchr(buf, ':');
     if (!c) {
-        pw_error_set(err, PW_EINVAL, NULL, 0, "--swing-range %s: expected LO:HI, e.g. 20kPa:5bar",
+        pw_error_set(err, PW_EINVAL, NULL, 0, "--sweep %s: expected FROM:TO[:N], e.g. 20kPa:5bar",
                      text);
         return PW_EXIT_USAGE;
     }
     *c = '\0';
+    char *c2 = strchr(c + 1, ':');
+    if (c2) {
+        *c2 = '\0';
+        double n;
+        if (pw_cli_number("--sweep N", c2 + 1, &n, err) != PW_OK)
+            return PW_EXIT_USAGE;
+        if (!(n >= 2.0 && n <= 200.0) || n != floor(n)) {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "--sweep %s: N must be a whole number from 2 to 200",
+                         text);
+            return PW_EXIT_USAGE;
+        }
+        a->opt.scan_points = (size_t)n;
+    }
     if (pw_cli_quantity(PW_QTY_PRESSURE, "--swing-range LO", buf, &a->opt.P_lo_Pa, err) != PW_OK ||
         pw_cli_quantity(PW_QTY_PRESSURE, "--swing-range HI", c + 1, &a->opt.P_hi_Pa, err) != PW_OK)
         return PW_EXIT_USAGE;
@@ -87,7 +109,12 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
             a->energy = true;
             continue;
         }
-        if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") || !strcmp(opt, "--components")) {
+        if (!strcmp(opt, "--exit-verdict")) {
+            a->exit_verdict = true;
+            continue;
+        }
+        if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") || !strcmp(opt, "--components") ||
+            !strcmp(opt, "--minimum")) {
             pw_cli_opt(argc, argv, &i, opt, &v, &missing);
             if (missing) {
                 pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
@@ -95,6 +122,8 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
             }
             if (!strcmp(opt, "--components")) {
                 a->components = v;
+            } else if (!strcmp(opt, "--minimum")) {
+                a->minimum = v;
             } else {
                 /* checked here, before any work (the uncertainty step reads them again) */
                 unsigned long long w;
@@ -113,7 +142,8 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
         }
         if (opt[0] == '-' && opt[1] != '\0') {
             if (strcmp(opt, "--pressure") && strcmp(opt, "--xd") && strcmp(opt, "--xb") &&
-                strcmp(opt, "--zf") && strcmp(opt, "--swing-range")) {
+                strcmp(opt, "--zf") && strcmp(opt, "--swing-range") && strcmp(opt, "--q") &&
+                strcmp(opt, "--sweep")) {
                 pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", opt);
                 return PW_EXIT_USAGE;
             }
@@ -127,13 +157,15 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
                     return PW_EXIT_USAGE;
                 a->have_P = true;
             } else if (!strcmp(opt, "--xd")) {
-                rc = pw_cli_fraction(opt, v, &a->xd, err);
+                rc = pw_cli_composition(opt, v, &a->xd, &a->basis[0], err);
                 a->have_xd = true;
             } else if (!strcmp(opt, "--xb")) {
-                rc = pw_cli_fraction(opt, v, &a->xb, err);
+                rc = pw_cli_composition(opt, v, &a->xb, &a->basis[1], err);
                 a->have_xb = true;
             } else if (!strcmp(opt, "--zf")) {
-                rc = pw_cli_fraction(opt, v, &a->zf, err);
+                rc = pw_cli_composition(opt, v, &a->zf, &a->basis[2], err);
+            } else if (!strcmp(opt, "--q")) {
+                rc = pw_cli_ranged(opt, v, -10.0, 10.0, "the feed's liquid fraction q", &a->opt.q, err);
             } else {
                 rc = swing_range(v, a, err);
             }
@@ -151,9 +183,19 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
         pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file and --pressure, --xd, --xb are required");
         return PW_EXIT_USAGE;
     }
-    if (!(a->xb < a->xd) || (!isnan(a->zf) && !(a->xb < a->zf && a->zf < a->xd))) {
+    return 0;
+}
+
+/* After the conversion to mole fractions: the feed between the products, in either direction. */
+static int check_targets(const args *a, pw_error *err)
+{
+    double lo = fmin(a->xb, a->xd), hi = fmax(a->xb, a->xd);
+    if (!(lo < hi) || (!isnan(a->zf) && !(lo < a->zf && a->zf < hi))) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
-                     "the targets must satisfy xb < zf < xd (mole fractions of component 1)");
+                     "the targets must satisfy xb < zf < xd (component 1 goes overhead) or "
+                     "xd < zf < xb (component 1 leaves with the bottoms); got xb %g, zf %g, xd %g "
+                     "as mole fractions of component 1",
+                     a->xb, a->zf, a->xd);
         return PW_EXIT_USAGE;
     }
     return 0;
@@ -198,6 +240,13 @@ int pw_cli_screen(int argc, char **argv)
     memset(&fit, 0, sizeof fit);
     if (pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    size_t minimum = 0;
+    if (pw_cli_apply_minimum(CMD, &fit, a.minimum, &minimum, &err) != PW_OK ||
+        pw_cli_targets_to_mole(&a.xd, &a.xb, &a.zf, a.basis, &fit.sys, &err) != PW_OK ||
+        check_targets(&a, &err) != 0) {
+        pw_fit_result_free(&fit);
+        return pw_cli_fail(CMD, &err);
+    }
     pw_screen_result r;
     pw_status st = pw_screen_run(&fit.sys, a.P_Pa, a.xd, a.xb, a.zf, &a.opt, &r);
     if (st != PW_OK) {
@@ -220,7 +269,7 @@ int pw_cli_screen(int argc, char **argv)
         memset(&ra, 0, sizeof ra);
         ra.fit_path = a.fit_path;
         ra.P_Pa = a.P_Pa;
-        ra.spec = (pw_column_spec){.xd = r.xd, .xb = r.xb, .zf = r.zf, .q = 1.0};
+        ra.spec = (pw_column_spec){.xd = r.xd, .xb = r.xb, .zf = r.zf, .q = a.opt.q};
         ra.opt = pw_column_default_options();
         ra.uncertainty = true;
         for (int k = 0; k < a.n_extra; k++)
@@ -259,6 +308,8 @@ int pw_cli_screen(int argc, char **argv)
         json_t *j = pw_screen_doc(&fit.sys, &r, &a.opt);
         if (with_energy)
             json_object_set_new(j, "energy", pw_screen_energy_doc(&en, r.column.r_min));
+        if (minimum)
+            json_object_set_new(j, "minimum", json_integer((json_int_t)minimum));
         if (unc)
             pw_reflux_uncert_json(&u, j);
         rc = pw_cli_print_json(j);
@@ -275,5 +326,7 @@ int pw_cli_screen(int argc, char **argv)
         rc = fflush(stdout) ? 4 : 0;
     }
     pw_fit_result_free(&fit);
+    if (rc == 0 && a.exit_verdict && r.verdict == PW_VERDICT_INFEASIBLE)
+        rc = PW_CLI_EXIT_VERDICT;
     return rc;
 }

@@ -17,6 +17,7 @@
 #define BATCH_THREADS 2
 
 typedef struct job {
+    const pw_model_type *model; /* this job's model (every model of the table for --model all) */
     char name[256];
     char input[PW_PATH_MAX];
     char path[PW_PATH_MAX];
@@ -54,7 +55,7 @@ static void *worker(void *arg)
         job *j = &b->jobs[i];
         pw_fit_result r;
         pw_error_clear(&j->err);
-        j->rc = pw_fit_one(j->input, b->model, NULL, b->out_dir, b->co, &r, j->path,
+        j->rc = pw_fit_one(j->input, j->model, NULL, b->out_dir, b->co, &r, j->path,
                            sizeof j->path, &j->err);
         j->converged = j->rc == 0 && r.converged;
         if (j->rc == 0) {
@@ -126,6 +127,22 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
         return pw_cli_failf("fit", pw_status_exit_code(PW_EIO), "%s: cannot create folder: %s",
                             out_dir, strerror(errno));
     }
+    /* --model all: one job per dataset and model, in file-name order, then the model table's */
+    size_t n_models = 1;
+    const pw_model_type *const *models = model ? &model : pw_model_all(&n_models);
+    job *all = calloc(n * n_models, sizeof *all);
+    if (!all) {
+        free(jobs);
+        return pw_cli_failf("fit", pw_status_exit_code(PW_ENOMEM), "out of memory");
+    }
+    for (size_t i = 0; i < n; i++)
+        for (size_t m = 0; m < n_models; m++) {
+            all[i * n_models + m] = jobs[i];
+            all[i * n_models + m].model = models[m];
+        }
+    free(jobs);
+    jobs = all;
+    n *= n_models;
     pw_fit_cli_opts wco = *co;
     wco.quiet = true;
     batch b = {.jobs = jobs, .n = n, .model = model, .out_dir = out_dir, .co = &wco};
@@ -151,6 +168,7 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
         for (size_t i = 0; i < n; i++) {
             json_t *e = json_object();
             json_object_set_new(e, "dataset", json_string(jobs[i].name));
+            json_object_set_new(e, "model", json_string(jobs[i].model->name));
             if (jobs[i].rc == 0) {
                 json_object_set_new(e, "converged", json_boolean(jobs[i].converged));
                 json_object_set_new(e, "fit_file", json_string(jobs[i].path));
@@ -172,11 +190,12 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
         json_object_set_new(o, "summary",
                             json_pack("{s:I,s:I,s:I,s:I,s:s}", "datasets", (json_int_t)n, "fitted",
                                       (json_int_t)ok, "converged", (json_int_t)conv, "failed",
-                                      (json_int_t)(n - ok), "model", model->name));
+                                      (json_int_t)(n - ok), "model", model ? model->name : "all"));
         rc = pw_cli_print_json(o);
     } else {
-        printf("%zu of %zu datasets fitted with %s into %s (%zu converged, %zu failed)\n", ok, n,
-               model->name, out_dir, conv, n - ok);
+        printf("%zu of %zu %s fitted with %s into %s (%zu converged, %zu failed)\n", ok, n,
+               model ? "datasets" : "dataset-model pairs", model ? model->name : "every model",
+               out_dir, conv, n - ok);
         printf("  %-32s %-13s %6s %9s %8s %8s %9s  %s\n", "dataset", "status", "points",
                "chi2/dof", "AAD y", "AAD T/K", "AAD P/kPa", "fit file");
         for (size_t i = 0; i < n; i++) {
@@ -187,7 +206,7 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
                 snprintf(cy, sizeof cy, isfinite(j->aad_y) ? "%.4f" : "-", j->aad_y);
                 snprintf(cT, sizeof cT, isfinite(j->aad_T_K) ? "%.3f" : "-", j->aad_T_K);
                 snprintf(cP, sizeof cP, isfinite(j->aad_P_Pa) ? "%.4f" : "-", j->aad_P_Pa / 1e3);
-                printf("  %-32s %-13s %6zu %9.3g %8s %8s %9s  %s\n", j->name,
+                printf("  %-32s %-13s %6zu %9.3g %8s %8s %9s  %s\n", model ? j->name : j->path,
                        j->converged ? "converged" : "NOT converged", j->n_pts, j->chi2_red, cy, cT,
                        cP, j->path);
             } else {

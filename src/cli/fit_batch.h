@@ -4,7 +4,8 @@
 
 #include "fit_common.h"
 
-/* Fits every *.csv in dir (name order) with model into out_dir using two worker threads; goes
+/* Fits every *.csv in dir (name order) with model (NULL: every model, one fit file each) into
+ * out_dir using two worker threads; goes
  * on past files that fail. Prints a summary table or the JSON of CONTRACT.md. Exit code 0 when
  * at least one file was fitted. */
 int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *model,

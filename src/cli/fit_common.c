@@ -6,6 +6,7 @@
 #include <math.h>
 #include <pinchwise/assess.h>
 #include <pinchwise/azeotrope.h>
+#include <pinchwise/composition.h>
 #include <pinchwise/dataset.h>
 #include <pinchwise/fileio.h>
 #include <pinchwise/fitjson.h>
@@ -188,6 +189,8 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
     pw_component found[2];
     const pw_component *c1 = &found[0], *c2 = &found[1];
     st = pw_dataset_components(co->lib, &ds, found, err);
+    if (st == PW_OK)
+        st = pw_dataset_to_mole(&ds, c1, c2, err); /* w1, wy1 columns */
     if (st == PW_OK) {
         char stem[PW_PATH_MAX];
         file_stem(input, stem, sizeof stem);
@@ -375,6 +378,13 @@ int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_o
                    pw_rank_class_name(w->cls), cy, cT, cP, ca, r->converged ? "" : "not converged ",
                    r->split ? "liquid split predicted" : "");
         }
+        bool negative = false;
+        for (size_t j = 0; j < rk->n; j++)
+            negative = negative || rk->rows[j].delta_aicc < 0.0;
+        printf("  dAICc = AICc - AICc of rank 1 (positive: fits worse than rank 1)%s\n",
+               negative ? "; a negative value is a fit with a lower AICc ranked below rank 1 "
+                          "(see its class)"
+                        : "");
         for (size_t i = 0; i < n; i++) {
             char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
             if (res[i].rc != 0)

@@ -1,5 +1,6 @@
 /* pinchwise command-line front end: dispatches to one file per command. */
 #include "cli.h"
+#include "cli_units.h"
 
 #include <gsl/gsl_errno.h>
 #include <stdio.h>
@@ -17,6 +18,7 @@ static const pw_cli_command commands[] = {
     {"lle", "liquid-liquid split (two layers) of a fitted model at a temperature", pw_cli_lle},
     {"decanter", "decanter and two stripping columns for a partly miscible binary", pw_cli_decanter},
     {"rate", "products and stage profile of a given column", pw_cli_rate},
+    {"study", "the whole study of a data file and a split, into one folder", pw_cli_study},
 };
 
 static void usage(FILE *f)
@@ -47,7 +49,15 @@ int main(int argc, char **argv)
     pw_cli_watch_json_allocations();
     for (size_t i = 0; i < sizeof commands / sizeof commands[0]; i++)
         if (!strcmp(argv[1], commands[i].name)) {
-            int rc = commands[i].run(argc - 1, argv + 1);
+            /* "--opt=value" is the same as "--opt value" for every option of every command */
+            int n = 0;
+            char **args = pw_cli_split_equals(argc - 1, argv + 1, &n);
+            if (!args) {
+                fprintf(stderr, "pinchwise: out of memory\n");
+                return pw_status_exit_code(PW_ENOMEM);
+            }
+            int rc = commands[i].run(n, args);
+            pw_cli_split_free(args, n);
             int out = pw_cli_finish_stdout(commands[i].name); /* e.g. a full disk */
             return rc ? rc : out;
         }

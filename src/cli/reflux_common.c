@@ -1,11 +1,13 @@
 #include "reflux_common.h"
 
 #include "cli.h"
+#include "cli_units.h"
 
 #include <math.h>
 #include <pinchwise/curve.h>
 #include <pinchwise/decanter.h>
 #include <pinchwise/design_doc.h>
+#include <pinchwise/column_direction.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -59,6 +61,10 @@ int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err
             a->uncertainty = true;
             continue;
         }
+        if (pw_cli_opt(argc, argv, &i, "--exit-verdict", NULL, NULL)) {
+            a->exit_verdict = true;
+            continue;
+        }
         if (!strncmp(argv[i], "--", 2)) {
             const char *opt = argv[i];
             if (!(pw_cli_opt(argc, argv, &i, opt, &v, &missing)) || missing) {
@@ -67,10 +73,18 @@ int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err
             }
             int rc = 0, trc;
             if ((trc = pw_cli_target_opt(opt, v, &tg, err)) >= 0) {
+                int k = !strcmp(opt, "--xd")   ? 0
+                        : !strcmp(opt, "--xb") ? 1
+                        : !strcmp(opt, "--zf") ? 2
+                                               : -1;
+                if (k >= 0)
+                    a->given[k] = v;
                 rc = trc; /* --pressure, --xd, --xb, --zf, --q: parsed into tg */
             } else if (!strcmp(opt, "--components")) {
                 a->components = v;
-            } else if (!strcmp(opt, "--factors")) {
+            } else if (!strcmp(opt, "--minimum")) {
+                a->minimum = v;
+            } else if (!strcmp(opt, "--factors") || !strcmp(opt, "--operating-factor")) {
                 rc = parse_factors(v, &a->opt, err) ? PW_EXIT_USAGE : 0;
             } else if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") ||
                        !strcmp(opt, "--compare")) {
@@ -104,11 +118,19 @@ int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err
                      "a fit file and --pressure, --xd, --xb, --zf are required");
         return PW_EXIT_USAGE;
     }
-    if (!(a->spec.xb < a->spec.zf && a->spec.zf < a->spec.xd)) {
+    memcpy(a->basis, tg.basis, sizeof a->basis);
+    return 0;
+}
+
+/* The targets in mole fractions: xb < zf < xd, or xd < zf < xb (component 1 to the bottoms). */
+static int check_targets(const pw_column_spec *s, pw_error *err)
+{
+    if (!((s->xb < s->zf && s->zf < s->xd) || (s->xd < s->zf && s->zf < s->xb))) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
-                     "the targets must satisfy xb < zf < xd (got xb %g, zf %g, xd %g; x is the mole "
-                     "fraction of %s)",
-                     a->spec.xb, a->spec.zf, a->spec.xd, "component 1");
+                     "the feed must lie between the products: xb < zf < xd (component 1 goes "
+                     "overhead) or xd < zf < xb (component 1 leaves with the bottoms); got xb %g, "
+                     "zf %g, xd %g as mole fractions of component 1",
+                     s->xb, s->zf, s->xd);
         return PW_EXIT_USAGE;
     }
     return 0;
@@ -118,15 +140,28 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
 {
     memset(run, 0, sizeof *run);
     pw_status st = pw_cli_read_fit("reflux", a->fit_path, a->components, &run->fit, err);
+    if (st == PW_OK && (st = pw_cli_apply_minimum("reflux", &run->fit, a->minimum, &run->minimum,
+                                                  err)) != PW_OK)
+        pw_fit_result_free(&run->fit);
     if (st != PW_OK)
         return pw_status_exit_code(st);
     run->P_Pa = a->P_Pa;
     run->spec = a->spec;
+    if (a->basis[0] == PW_BASIS_MASS || a->basis[1] == PW_BASIS_MASS ||
+        a->basis[2] == PW_BASIS_MASS)
+        memcpy(run->given, a->given, sizeof run->given);
+    st = pw_cli_targets_to_mole(&run->spec.xd, &run->spec.xb, &run->spec.zf, a->basis,
+                                &run->fit.sys, err);
+    int rc = st == PW_OK ? check_targets(&run->spec, err) : pw_status_exit_code(st);
+    if (rc != 0) {
+        pw_fit_result_free(&run->fit);
+        return rc;
+    }
     /* The design rows come from pw_reflux_design (stage profiles, a row the column cannot
      * reach marked as such), not from pw_column_solve's own table. */
     pw_column_options o = a->opt;
     o.n_factors = 0;
-    st = pw_reflux_solve(&run->fit.sys, a->P_Pa, &a->spec, &o, a->fit_path, &run->col,
+    st = pw_reflux_solve(&run->fit.sys, a->P_Pa, &run->spec, &o, a->fit_path, &run->col,
                          &run->T_top_K, &run->T_bottom_K, err);
     if (st == PW_OK && a->energy) {
         run->energy = true;
@@ -138,7 +173,7 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
         }
     }
     if (st == PW_OK) {
-        st = pw_reflux_design(&run->fit.sys, a->P_Pa, &a->spec, &a->opt, &run->col,
+        st = pw_reflux_design(&run->fit.sys, a->P_Pa, &run->spec, &a->opt, &run->col,
                               run->energy ? &run->heat : NULL, &run->design, &run->energy_res);
         if (st != PW_OK)
             pw_error_set(err, st, a->fit_path, 0, "%s%s%s", pw_strerror(st),
@@ -195,5 +230,6 @@ void pw_reflux_warn(const pw_reflux_run *run)
     if (run->energy ? run->energy_res.feasible && run->energy_res.pinch.kind == PW_PINCH_TANGENT
                     : run->col.feasible && run->col.pinch.kind == PW_PINCH_TANGENT)
         pw_cli_warnf("reflux", "tangent pinch: stage counts near R_min are very sensitive to the "
-                     "model; consider --uncertainty");
+                     "model%s",
+                     run->with_uncertainty ? " (see the intervals below)" : "; consider --uncertainty");
 }

@@ -6,6 +6,7 @@
 #include <pinchwise/column.h>
 #include <pinchwise/design.h>
 #include <pinchwise/fit.h>
+#include <pinchwise/units.h>
 #include <stdbool.h>
 
 typedef struct pw_reflux_args {
@@ -17,8 +18,12 @@ typedef struct pw_reflux_args {
     bool json;
     bool energy; /* --energy: energy balances instead of constant molal overflow */
     bool have_P, have_xd, have_xb, have_zf;
+    pw_basis basis[3]; /* of xd, xb, zf as given; converted to mole fractions in pw_reflux_compute */
+    const char *given[3]; /* xd, xb, zf as typed, for the text output */
     /* options other commands add; unknown ones are rejected */
     bool uncertainty;
+    bool exit_verdict; /* --exit-verdict: status 7 for an infeasible split */
+    const char *minimum; /* --minimum N as given, or NULL */
     const char *extra[16];
     int n_extra;
 } pw_reflux_args;
@@ -33,6 +38,9 @@ typedef struct pw_reflux_run {
     pw_energy_result energy_res;
     pw_heat_data heat;          /* with energy: the heat data used */
     double T_top_K, T_bottom_K;
+    bool with_uncertainty; /* --uncertainty given: the warnings do not suggest it */
+    size_t minimum;        /* --minimum N applied (0: the fit's own choice) */
+    const char *given[3];  /* xd, xb, zf as typed when any was given by mass, else NULL */
 } pw_reflux_run;
 
 /* Frees what pw_reflux_compute allocated (the fit and the design table). */

@@ -100,6 +100,13 @@ int pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_r
     u->col.opt = a->opt;
     if (run->energy)
         u->col.heat = &run->heat; /* energy balances in every draw */
+    /* the stages quoted are at one of the factors asked for: 1.3 R_min when it is among them
+     * (the default list holds it), else the first one given */
+    bool has_default = false;
+    for (size_t k = 0; k < a->opt.n_factors; k++)
+        has_default = has_default || fabs(a->opt.factors[k] - u->col.factor) < 1e-12;
+    if (!has_default && a->opt.n_factors > 0)
+        u->col.factor = a->opt.factors[0];
     u->plan_status = PW_EINVAL;
     if (u->propagate) {
         pw_cli_progress_ctx pc = {"reflux", "parameter sets sampled"};

@@ -4,6 +4,7 @@
 #include <math.h>
 #include <pinchwise/api.h>
 #include <pinchwise/commands.h>
+#include <pinchwise/composition.h>
 #include <pinchwise/design_doc.h>
 #include <pinchwise/fitjson.h>
 #include <pinchwise/hetcheck.h>
@@ -134,6 +135,8 @@ pw_status pw_api_fit(const char *data, const char *model, const char *components
     pw_fit_result r;
     memset(&r, 0, sizeof r);
     st = pw_dataset_components(&lib, &ds, found, err);
+    if (st == PW_OK)
+        st = pw_dataset_to_mole(&ds, &found[0], &found[1], err); /* w1, wy1 columns */
     pw_fit_options o = pw_fit_default_options();
     if (st == PW_OK)
         st = pw_fit_run(&ds, &found[0], &found[1], m, &o, &r, err);
@@ -188,6 +191,8 @@ pw_status pw_api_check(const char *data, const char *components, int strict, cha
     pw_consistency_options o = pw_consistency_default_options();
     o.strict_verdict = strict != 0;
     st = pw_dataset_components(&lib, &ds, found, err);
+    if (st == PW_OK)
+        st = pw_dataset_to_mole(&ds, &found[0], &found[1], err); /* w1, wy1 columns */
     /* points inside the two-liquid region: out of the one-liquid tests */
     pw_het_check het;
     pw_dataset one;

@@ -3,7 +3,9 @@
  * program and the Python module share them. */
 #include <math.h>
 #include <pinchwise/commands.h>
+#include <pinchwise/jsontext.h>
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
 
 json_t *pw_json_num(double v)
@@ -13,8 +15,11 @@ json_t *pw_json_num(double v)
 
 char *pw_json_text(const json_t *doc)
 {
-    return doc ? json_dumps(doc, JSON_INDENT(2) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER)
-               : NULL;
+    char *full = doc ? json_dumps(doc, JSON_INDENT(2) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER)
+                     : NULL;
+    char *text = pw_json_shortest_reals(full); /* 0.8, not 0.80000000000000004 */
+    free(full);
+    return text;
 }
 
 const char *pw_caution_text(void)

@@ -1,6 +1,7 @@
 /* The reflux command's column and its `reflux --json` document (moved from src/cli/cmd_reflux.c
  * and src/cli/reflux_common.c). */
 #include <math.h>
+#include <pinchwise/column_direction.h>
 #include <pinchwise/commands.h>
 #include <pinchwise/decanter.h>
 #include <pinchwise/lle.h>
@@ -25,7 +26,7 @@ pw_status pw_reflux_solve(const pw_system *sys, double P_Pa, const pw_column_spe
     st = pw_system_curve_init(&sc, sys, P_Pa);
     if (st == PW_OK) {
         pw_curve curve = pw_system_curve_bind(&sc);
-        st = pw_column_solve(&curve, spec, opt, col);
+        st = pw_column_solve_any(&curve, spec, opt, col); /* either split direction */
     }
     if (st == PW_OK) { /* a heterogeneous azeotrope between the targets: the decanter scheme */
         pw_three_phase tp;

@@ -24,6 +24,7 @@ json_t *pw_screen_doc(const pw_system *sys, const pw_screen_result *r, const pw_
     json_object_set_new(j, "xb", pw_json_num(r->xb));
     json_object_set_new(j, "zf", pw_json_num(r->zf));
     json_object_set_new(j, "zf_default", json_boolean(r->zf_default));
+    json_object_set_new(j, "q", pw_json_num(o->q));
     json_object_set_new(j, "alpha_min", pw_json_num(r->alpha_min));
     json_object_set_new(j, "x_alpha_min", pw_json_num(r->x_alpha_min));
     json_object_set_new(j, "alpha_top", pw_json_num(r->alpha_top));

@@ -217,6 +217,45 @@ pw_status pw_csvrows_init(pw_csvrows *r, const char *name, pw_csvrows_line_fn li
     return PW_OK;
 }
 
+void pw_csvrows_set_delim(pw_csvrows *r, char delim)
+{
+    if (r->parser_ready)
+        csv_set_delim(&r->parser, (unsigned char)delim);
+}
+
+char pw_csvrows_detect_delim(const char *buf, size_t len)
+{
+    size_t i = 0;
+    if (len >= 3 && memcmp(buf, utf8_bom, 3) == 0)
+        i = 3;
+    while (i < len) {
+        size_t end = i;
+        while (end < len && buf[end] != '\n')
+            end++;
+        size_t k = i;
+        while (k < end && (buf[k] == ' ' || buf[k] == '\t' || buf[k] == '\r'))
+            k++;
+        bool comment = k < end && (buf[k] == '#' || (buf[k] == '"' && k + 1 < end && buf[k + 1] == '#'));
+        if (k < end && !comment) {
+            size_t semis = 0, commas = 0, tabs = 0;
+            bool quoted = false;
+            for (size_t j = i; j < end; j++) {
+                if (buf[j] == '"')
+                    quoted = !quoted;
+                else if (!quoted)
+                    semis += buf[j] == ';', commas += buf[j] == ',', tabs += buf[j] == '\t';
+            }
+            if (semis > 0 && semis >= commas)
+                return ';';
+            if (tabs > 0 && commas == 0)
+                return '\t';
+            return ',';
+        }
+        i = end + 1;
+    }
+    return ',';
+}
+
 pw_status pw_csvrows_feed(pw_csvrows *r, const char *buf, size_t len)
 {
     while (len && r->bytes_seen < 3 && r->status == PW_OK) {

@@ -61,6 +61,14 @@ typedef struct pw_csvrows {
 pw_status pw_csvrows_init(pw_csvrows *r, const char *name, pw_csvrows_line_fn line_fn,
                           pw_csvrows_row_fn row_fn, void *ctx, pw_error *err);
 
+/* The field separator of the CSV part (default ','); call before feeding. */
+void pw_csvrows_set_delim(pw_csvrows *r, char delim);
+
+/* The field separator of a spreadsheet export: looks at the first line that is not blank and not
+ * a '#' comment (quoted or not) and returns ';' or '\t' when that line is separated by them (more
+ * of them than commas outside quotes), else ','. */
+char pw_csvrows_detect_delim(const char *buf, size_t len);
+
 /* Feeds the next len bytes. Returns the reader's status (the first error so far). */
 pw_status pw_csvrows_feed(pw_csvrows *r, const char *buf, size_t len);
 

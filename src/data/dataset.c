@@ -16,6 +16,22 @@ static pw_status on_line(void *ctx, const char *text, size_t len, long line, boo
                          pw_error *err)
 {
     pw_ds_reader *rd = ctx;
+    if (text[0] == '"' && text[1] == '#') {
+        /* a spreadsheet cell holding the line, quoted because it holds the separator:
+         * "# components: a, b";; -> # components: a, b */
+        char buf[PW_ERROR_MSG_MAX];
+        size_t n = 0;
+        for (size_t i = 1; i < len && n + 1 < sizeof buf; i++) {
+            if (text[i] == '"' && i + 1 < len && text[i + 1] == '"')
+                buf[n++] = text[i++];
+            else if (text[i] == '"')
+                break;
+            else
+                buf[n++] = text[i];
+        }
+        buf[n] = '\0';
+        return pw_ds_meta_line(rd, buf, n, line, err);
+    }
     if (text[0] != '#') {
         *is_csv = true;
         return PW_OK;
@@ -23,20 +39,35 @@ static pw_status on_line(void *ctx, const char *text, size_t len, long line, boo
     return pw_ds_meta_line(rd, text, len, line, err);
 }
 
-/* Header column "T[UNIT]" or "P[UNIT]": returns 'T' or 'P' and copies the unit, 0 otherwise. */
+/* Header column "T[UNIT]" or "P[UNIT]", also spelt with blanks or parentheses as spreadsheets
+ * export them ("T [C]", "T (C)", "T(\u00b0C)"): returns 'T' or 'P' and copies the unit as written,
+ * 't' or 'p' for a bare T or P (no unit), 0 for any other column. */
 static char tp_column(const char *f, char *unit, size_t cap)
 {
     char c = f[0];
     if (c != 'T' && c != 't' && c != 'P' && c != 'p')
         return 0;
-    if (f[1] == '\0')
-        return c == 'T' || c == 't' ? 't' : 'p'; /* a bare T or P: no unit */
-    size_t len = strlen(f);
-    if (f[1] != '[' || f[len - 1] != ']' || len - 3 >= cap)
+    bool is_T = c == 'T' || c == 't';
+    const char *p = f + 1;
+    while (*p == ' ')
+        p++;
+    if (*p == '\0')
+        return is_T ? 't' : 'p'; /* a bare T or P: no unit */
+    char close = *p == '[' ? ']' : *p == '(' ? ')' : 0;
+    size_t len = strlen(p);
+    if (!close || len < 2 || p[len - 1] != close)
         return 0;
-    memcpy(unit, f + 2, len - 3);
-    unit[len - 3] = '\0';
-    return c == 'T' || c == 't' ? 'T' : 'P';
+    const char *u = p + 1;
+    size_t ul = len - 2;
+    while (ul && *u == ' ')
+        u++, ul--;
+    while (ul && u[ul - 1] == ' ')
+        ul--;
+    if (ul >= cap)
+        return 0;
+    memcpy(unit, u, ul);
+    unit[ul] = '\0';
+    return is_T ? 'T' : 'P';
 }
 
 static pw_status header_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_error *err)
@@ -47,13 +78,28 @@ static pw_status header_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_
     bool isobaric = rd->ds.kind == PW_DATA_ISOBARIC;
     rd->col_x = rd->col_y = rd->col_m = -1;
     for (size_t i = 0; i < n; i++) {
-        char unit[PW_UNIT_MAX] = "";
+        char unit[32] = "";
         char tp = tp_column(f[i], unit, sizeof unit);
         long *slot = NULL;
-        if (strcasecmp(f[i], "x1") == 0)
+        bool mass_x = strcasecmp(f[i], "w1") == 0, mass_y = strcasecmp(f[i], "wy1") == 0;
+        if (strcasecmp(f[i], "x1") == 0 || mass_x) {
+            if (rd->col_x >= 0 && strcasecmp(f[rd->col_x], f[i]) != 0)
+                return pw_error_set(err, PW_EPARSE, rd->name, line,
+                                    "columns '%s' and '%s' both give the liquid composition "
+                                    "(expected one: x1 for mole fractions or w1 for mass fractions)",
+                                    f[rd->col_x], f[i]);
             slot = &rd->col_x;
-        else if (strcasecmp(f[i], "y1") == 0)
+            rd->ds.mass_x = mass_x;
+        } else if (strcasecmp(f[i], "y1") == 0 || mass_y) {
+            if (rd->col_y >= 0 && strcasecmp(f[rd->col_y], f[i]) != 0)
+                return pw_error_set(err, PW_EPARSE, rd->name, line,
+                                    "columns '%s' and '%s' both give the vapor composition "
+                                    "(expected one: y1 for mole fractions or wy1 for mass "
+                                    "fractions)",
+                                    f[rd->col_y], f[i]);
             slot = &rd->col_y;
+            rd->ds.mass_y = mass_y;
+        }
         else if (tp == 't' || tp == 'p')
             return pw_error_set(err, PW_EPARSE, rd->name, line,
                                 "column '%s' has no unit (expected %s[UNIT] with UNIT one of %s)",
@@ -76,7 +122,8 @@ static pw_status header_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_
                     is_T ? "P[UNIT]" : "T[UNIT]", is_T ? "pressure" : "temperature",
                     is_T ? "T-x-y" : "P-x-y");
             slot = &rd->col_m;
-            memcpy(is_T ? rd->ds.T_unit : rd->ds.P_unit, unit, strlen(unit) + 1);
+            snprintf(is_T ? rd->ds.T_unit : rd->ds.P_unit, PW_UNIT_MAX, "%s",
+                     pw_units_canonical(q, unit));
         }
         if (!slot)
             continue; /* further columns are allowed and ignored */
@@ -86,14 +133,25 @@ static pw_status header_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_
                                 f[i], *slot + 1, i + 1);
         *slot = (long)i;
     }
-    if (rd->col_x < 0)
-        return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "no x1 column in the header row (expected x1, optional y1, and %s)",
-                            isobaric ? "T[UNIT]" : "P[UNIT]");
+    if (rd->col_x < 0 || rd->col_m < 0) {
+        /* say what was found: a spreadsheet may have used another separator or spelling */
+        char found[160] = "";
+        size_t used = 0;
+        for (size_t i = 0; i < n && used + 1 < sizeof found; i++) {
+            int w = snprintf(found + used, sizeof found - used, "%s'%.40s'", i ? ", " : "", f[i]);
+            used += w > 0 ? (size_t)w : 0;
+        }
+        if (rd->col_x < 0)
+            return pw_error_set(err, PW_EPARSE, rd->name, line,
+                                "no x1 column in the header row (found %zu column%s: %s; expected "
+                                "x1 or w1, optional y1 or wy1, and %s, separated by ',' or ';')",
+                                n, n == 1 ? "" : "s", found, isobaric ? "T[UNIT]" : "P[UNIT]");
+    }
+    rd->ds.composition_line = line;
     if (rd->col_m < 0)
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "no %s column in the header row (expected one for %s data, as the "
-                            "metadata fixes the %s)",
+                            "metadata fixes the %s; spellings T[C], T [C], T (C))",
                             isobaric ? "T[UNIT]" : "P[UNIT]",
                             isobaric ? "isobaric T-x-y" : "isothermal P-x-y",
                             isobaric ? "pressure" : "temperature");
@@ -115,18 +173,26 @@ static const char *shown(const char *text, char buf[48])
 static pw_status fraction(pw_ds_reader *rd, const char *text, const char *what, long line,
                           double *out, pw_error *err)
 {
+    bool mass = what[0] == 'w';
+    const char *kind = mass ? "mass fraction" : "mole fraction";
     if (text[0] == '\0')
         return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "%s is empty (expected a mole fraction between 0 and 1)", what);
-    char sb[48];
-    if (!pw_csvrows_number(text, out))
+                            "%s is empty (expected a %s between 0 and 1)", what, kind);
+    char sb[48], num[128];
+    if (!pw_ds_decimal_point(rd, text, num, sizeof num) || !pw_csvrows_number(num, out))
         return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "%s = '%s' is not a number (expected a mole fraction between 0 and "
-                            "1)",
-                            what, shown(text, sb));
+                            "%s = '%s' is not a number (expected a %s between 0 and 1%s)", what,
+                            shown(text, sb), kind,
+                            strchr(text, ',') ? "; a decimal comma is read only in files whose "
+                                                "fields are separated by ';'"
+                                              : "");
     if (*out < 0.0 || *out > 1.0)
         return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "%s = %s is outside [0, 1] (expected a mole fraction)", what, text);
+                            "%s = %s is outside [0, 1] (expected a %s%s)", what, text, kind,
+                            *out > 1.0 && *out <= 100.0
+                                ? (mass ? "; looks like mass percent; divide by 100"
+                                        : "; looks like mole percent; divide by 100")
+                                : "");
     return PW_OK;
 }
 
@@ -141,9 +207,13 @@ static pw_status data_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_er
                             "before the header only)");
     if (n != rd->ncols)
         return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "row has %zu fields (expected %zu, as in the header on line %ld)", n,
-                            rd->ncols, rd->header_line);
-    if ((st = fraction(rd, f[rd->col_x], "x1", line, &p.x1, err)))
+                            "row has %zu fields (expected %zu, as in the header on line %ld)%s", n,
+                            rd->ncols, rd->header_line,
+                            n > rd->ncols && rd->delim == ','
+                                ? "; if the numbers use decimal commas, separate the fields with "
+                                  "';' (as spreadsheets export them)"
+                                : "");
+    if ((st = fraction(rd, f[rd->col_x], ds->mass_x ? "w1" : "x1", line, &p.x1, err)))
         return st;
     p.y1 = NAN;
     if (rd->col_y >= 0) {
@@ -158,7 +228,7 @@ static pw_status data_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_er
                                 given ? "given" : "empty", given ? "empty" : "given",
                                 rd->y_first_line);
         }
-        if (given && (st = fraction(rd, f[rd->col_y], "y1", line, &p.y1, err)))
+        if (given && (st = fraction(rd, f[rd->col_y], ds->mass_y ? "wy1" : "y1", line, &p.y1, err)))
             return st;
     }
     bool isobaric = ds->kind == PW_DATA_ISOBARIC;
@@ -169,11 +239,14 @@ static pw_status data_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_er
     if (text[0] == '\0')
         return pw_error_set(err, PW_EPARSE, rd->name, line, "%s is empty (expected a number in %s)",
                             what, unit);
-    char sb[48];
-    if (!pw_csvrows_number(text, &v))
+    char sb[48], num[128];
+    if (!pw_ds_decimal_point(rd, text, num, sizeof num) || !pw_csvrows_number(num, &v))
         return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "%s = '%s' is not a number (expected a finite decimal number in %s)",
-                            what, shown(text, sb), unit);
+                            "%s = '%s' is not a number (expected a finite decimal number in %s%s)",
+                            what, shown(text, sb), unit,
+                            strchr(text, ',') ? "; a decimal comma is read only in files whose "
+                                                "fields are separated by ';'"
+                                              : "");
     if (pw_units_to_si(isobaric ? PW_QTY_TEMPERATURE : PW_QTY_PRESSURE, v, unit, &si) != PW_OK)
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s = %s %s is not positive (expected an absolute %s above zero)",
@@ -229,8 +302,12 @@ pw_status pw_dataset_parse_chunked(const char *buf, size_t len, const char *name
         return ust;
     pw_ds_reader rd;
     pw_ds_reader_init(&rd, nm);
+    /* a spreadsheet export may separate fields with ';' (and then write decimal commas) */
+    rd.delim = pw_csvrows_detect_delim(buf, len);
+    rd.decimal_comma = rd.delim != ',';
     pw_csvrows r;
     pw_status st = pw_csvrows_init(&r, rd.name, on_line, on_row, &rd, err);
+    pw_csvrows_set_delim(&r, rd.delim);
     if (st == PW_OK)
         st = pw_csvrows_feed_all(&r, buf, len, chunk);
     long last_line = r.line;

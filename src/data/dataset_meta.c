@@ -25,6 +25,20 @@ void pw_ds_reader_init(pw_ds_reader *rd, const char *name)
     rd->ds.sigma_y = 0.004;
     rd->ds.sigma_x = 0.001;
     rd->col_x = rd->col_y = rd->col_m = -1;
+    rd->delim = ',';
+}
+
+bool pw_ds_decimal_point(const pw_ds_reader *rd, const char *text, char *out, size_t cap)
+{
+    if (strlen(text) >= cap) {
+        out[0] = '\0'; /* too long for a number: nothing that reads as one */
+        return false;
+    }
+    snprintf(out, cap, "%s", text);
+    for (char *p = out; rd->decimal_comma && *p; p++)
+        if (*p == ',')
+            *p = '.';
+    return true;
 }
 
 void pw_ds_reader_free(pw_ds_reader *rd)
@@ -34,43 +48,9 @@ void pw_ds_reader_free(pw_ds_reader *rd)
     memset(rd, 0, sizeof *rd);
 }
 
-static bool exponent_at(const char *s)
-{
-    if (*s != 'e' && *s != 'E')
-        return false;
-    s++;
-    if (*s == '+' || *s == '-')
-        s++;
-    return isdigit((unsigned char)*s);
-}
-
 bool pw_dataset_split_quantity(const char *text, double *value, char *unit, size_t unit_cap)
 {
-    size_t i = 0;
-    while (text[i] && !isspace((unsigned char)text[i]) && text[i] != '%' &&
-           !(isalpha((unsigned char)text[i]) && !exponent_at(text + i)))
-        i++;
-    if (i == 0 || i >= 64)
-        return false;
-    char num[64];
-    memcpy(num, text, i);
-    num[i] = '\0';
-    if (!pw_csvrows_number(num, value))
-        return false;
-    const char *u = text + i;
-    while (isspace((unsigned char)*u))
-        u++;
-    size_t ul = strlen(u);
-    while (ul && isspace((unsigned char)u[ul - 1]))
-        ul--;
-    if (ul == 0 || ul >= unit_cap)
-        return false;
-    for (size_t k = 0; k < ul; k++)
-        if (isspace((unsigned char)u[k]))
-            return false;
-    memcpy(unit, u, ul);
-    unit[ul] = '\0';
-    return true;
+    return pw_units_split(text, value, unit, unit_cap) == PW_SPLIT_OK;
 }
 
 typedef struct {
@@ -102,6 +82,8 @@ static pw_status components(pw_ds_reader *rd, const char *value, long line, pw_e
     pw_error inner;
     pw_error_clear(&inner);
     pw_status st = pw_csvrows_init(&r, rd->name, NULL, names_row, &nc, &inner);
+    if (st == PW_OK && rd->delim != ',' && strchr(value, rd->delim))
+        pw_csvrows_set_delim(&r, rd->delim);
     if (st == PW_OK)
         st = pw_csvrows_feed(&r, value, strlen(value));
     if (st == PW_OK)
@@ -145,8 +127,11 @@ static pw_status fixed_state(pw_ds_reader *rd, bool is_T, const char *value, lon
     char unit[32];
     if (!pw_dataset_split_quantity(value, &v, unit, sizeof unit))
         return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "%s: '%s' is not a number with a unit (expected e.g. %s; units: %s)",
-                            key, value, is_T ? "50 C" : "101.325 kPa", pw_units_list(q));
+                            "%s: '%s' is not a number with a unit (expected e.g. %s; units: %s)%s",
+                            key, value, is_T ? "50 C" : "101.325 kPa", pw_units_list(q),
+                            strchr(value, ',') ? "; a decimal comma is read only in files whose "
+                                                 "fields are separated by ';'"
+                                               : "");
     if (!pw_units_known(q, unit))
         return pw_error_set(err, PW_EPARSE, rd->name, line,
                             "%s: unknown unit '%s' (expected one of %s)", key, unit,
@@ -162,6 +147,7 @@ static pw_status fixed_state(pw_ds_reader *rd, bool is_T, const char *value, lon
                             "%s: %s is outside the plausible range %g to %g %s", key, value,
                             is_T ? PW_DATASET_T_MIN_K : PW_DATASET_P_MIN_PA,
                             is_T ? PW_DATASET_T_MAX_K : PW_DATASET_P_MAX_PA, is_T ? "K" : "Pa");
+    snprintf(unit, sizeof unit, "%s", pw_units_canonical(q, unit));
     if (strlen(unit) >= PW_UNIT_MAX)
         return pw_error_set(err, PW_EPARSE, rd->name, line, "%s: unit '%s' is too long", key, unit);
     memcpy(rd->fixed_unit, unit, strlen(unit) + 1);
@@ -183,7 +169,6 @@ static pw_status sigma(pw_ds_reader *rd, const char *key, const char *value, lon
                        pw_error *err)
 {
     double v;
-    char unit[32];
     const char *shown = strcmp(key, "sigma_t") == 0   ? "sigma_T"
                         : strcmp(key, "sigma_p") == 0 ? "sigma_P"
                                                       : key;
@@ -199,34 +184,13 @@ static pw_status sigma(pw_ds_reader *rd, const char *key, const char *value, lon
         return PW_OK;
     }
     bool is_T = strcasecmp(key, "sigma_T") == 0;
-    if (!pw_dataset_split_quantity(value, &v, unit, sizeof unit) || !(v > 0.0))
-        return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "%s: '%s' (expected a positive number with a unit, e.g. %s)", shown,
-                            value, is_T ? "0.05 K" : "0.2 % or 0.03 kPa");
-    if (is_T) {
-        /* a temperature difference: K and C have the same size, F is 5/9 K */
-        if (strcasecmp(unit, "K") == 0 || strcasecmp(unit, "C") == 0)
-            rd->ds.sigma_T_K = v;
-        else if (strcasecmp(unit, "F") == 0)
-            rd->ds.sigma_T_K = v * 5.0 / 9.0;
-        else
-            return pw_error_set(err, PW_EPARSE, rd->name, line,
-                                "sigma_T: unknown unit '%s' (expected K, C or F)", unit);
-        return PW_OK;
-    }
-    if (strcmp(unit, "%") == 0) {
-        rd->ds.sigma_P_rel = v / 100.0;
-        rd->ds.sigma_P_abs_Pa = NAN;
-        return PW_OK;
-    }
-    double si;
-    if (!pw_units_known(PW_QTY_PRESSURE, unit) ||
-        pw_units_to_si(PW_QTY_PRESSURE, v, unit, &si) != PW_OK)
-        return pw_error_set(err, PW_EPARSE, rd->name, line,
-                            "sigma_P: unknown unit '%s' (expected %% or one of %s)", unit,
-                            pw_units_list(PW_QTY_PRESSURE));
-    rd->ds.sigma_P_abs_Pa = si;
-    rd->ds.sigma_P_rel = NAN;
+    pw_error inner;
+    pw_error_clear(&inner);
+    pw_status st = is_T ? pw_units_parse_temperature_difference(value, &rd->ds.sigma_T_K, &inner)
+                        : pw_units_parse_pressure_uncertainty(value, &rd->ds.sigma_P_rel,
+                                                              &rd->ds.sigma_P_abs_Pa, &inner);
+    if (st != PW_OK)
+        return pw_error_set(err, PW_EPARSE, rd->name, line, "%s: %s", shown, inner.msg);
     return PW_OK;
 }
 
@@ -281,7 +245,8 @@ pw_status pw_ds_meta_line(pw_ds_reader *rd, const char *text, size_t len, long l
         v++;
     char value[PW_ERROR_MSG_MAX / 2];
     size_t vl = strlen(v);
-    while (vl && isspace((unsigned char)v[vl - 1]))
+    /* blanks, and the empty cells a spreadsheet adds after the one that holds the line */
+    while (vl && (isspace((unsigned char)v[vl - 1]) || v[vl - 1] == rd->delim))
         vl--;
     pw_status st = remember_key(rd, key, line, err);
     if (st != PW_OK)
@@ -310,6 +275,11 @@ pw_status pw_ds_meta_line(pw_ds_reader *rd, const char *text, size_t len, long l
                             vl, sizeof value - 1);
     memcpy(value, v, vl);
     value[vl] = '\0';
+    if (rd->decimal_comma && strcmp(key, "components") != 0 && strcmp(key, "source") != 0) {
+        char tmp[sizeof value];
+        (void)pw_ds_decimal_point(rd, value, tmp, sizeof tmp); /* fits: same size */
+        memcpy(value, tmp, sizeof value);
+    }
     if (strcmp(key, "components") == 0)
         return components(rd, value, line, err);
     if (strcmp(key, "pressure") == 0)

@@ -25,11 +25,17 @@ typedef struct pw_ds_reader {
     long col_x, col_y, col_m; /* column indexes; col_m is T (isobaric) or P (isothermal) */
     long y_first_line;        /* first data line, where y was seen given or empty */
     bool y_given;
+    char delim;               /* field separator of the file (',', or ';' or tab from a spreadsheet) */
+    bool decimal_comma;       /* numbers may use ',' as the decimal mark (';' or tab separated) */
 } pw_ds_reader;
 
 /* Sets defaults: sigma_T 0.1 K, sigma_P 0.1 % (rel 0.001), sigma_y 0.004, sigma_x 0.001. */
 void pw_ds_reader_init(pw_ds_reader *rd, const char *name);
 void pw_ds_reader_free(pw_ds_reader *rd);
+
+/* text with its decimal commas made points when the file uses them (rd->decimal_comma); false
+ * (and out empty, so that it reads as no number) when text does not fit in cap. */
+bool pw_ds_decimal_point(const pw_ds_reader *rd, const char *text, char *out, size_t cap);
 
 /* One metadata line (starting with '#'). Lines without ':' are free comments. */
 pw_status pw_ds_meta_line(pw_ds_reader *rd, const char *text, size_t len, long line,

@@ -27,6 +27,7 @@ pw_fit_options pw_fit_default_options(void)
     o.seed = 1;
     o.sigma_T_K = NAN;
     o.sigma_P_rel = NAN;
+    o.sigma_P_abs_Pa = NAN;
     o.sigma_y = NAN;
     o.max_iter = 200;
     o.xtol = pow(DBL_EPSILON, 0.6);       /* about 4e-10 relative step */
@@ -257,7 +258,7 @@ static bool same_minimum(const fit_problem *fp, const double *a, const double *b
 
 /* Fills the problem's used points and weights from r (which holds all points). The caller
  * frees *used. */
-static pw_status build_problem(const pw_fit_result *r, fit_problem *fp, pw_point **used)
+pw_status fit_build_problem(const pw_fit_result *r, fit_problem *fp, pw_point **used)
 {
     memset(fp, 0, sizeof *fp);
     fp->sys = r->sys;
@@ -352,15 +353,19 @@ static pw_status init_result(const pw_dataset *ds, const pw_component *c1, const
                                                 : (ds->has_y ? PW_OBJ_PXY : PW_OBJ_PX);
     r->sigma_T_K = isfinite(o->sigma_T_K) ? o->sigma_T_K : ds->sigma_T_K;
     r->sigma_y = isfinite(o->sigma_y) ? o->sigma_y : ds->sigma_y;
-    r->sigma_P_rel = isfinite(o->sigma_P_rel) ? o->sigma_P_rel : ds->sigma_P_rel;
-    if (!isfinite(r->sigma_P_rel) && isfinite(ds->sigma_P_abs_Pa) && isfinite(ds->P_fixed_Pa))
-        r->sigma_P_rel = ds->sigma_P_abs_Pa / ds->P_fixed_Pa;
+    /* an option overrides the file: relative first, then absolute */
+    double sP_abs = isfinite(o->sigma_P_abs_Pa) ? o->sigma_P_abs_Pa : ds->sigma_P_abs_Pa;
+    r->sigma_P_rel = isfinite(o->sigma_P_rel)      ? o->sigma_P_rel
+                     : isfinite(o->sigma_P_abs_Pa) ? (double)NAN
+                                                   : ds->sigma_P_rel;
+    if (!isfinite(r->sigma_P_rel) && isfinite(sP_abs) && isfinite(ds->P_fixed_Pa))
+        r->sigma_P_rel = sP_abs / ds->P_fixed_Pa;
     if (!isfinite(r->sigma_P_rel)) {
         /* absolute sigma_P on isothermal data: express relative to the mean measured P */
         double Pm = 0.0;
         for (size_t i = 0; i < ds->n; i++)
             Pm += ds->pts[i].P_Pa / (double)ds->n;
-        r->sigma_P_rel = isfinite(ds->sigma_P_abs_Pa) ? ds->sigma_P_abs_Pa / Pm : 1e-3;
+        r->sigma_P_rel = isfinite(sP_abs) ? sP_abs / Pm : 1e-3;
     }
     if (!(r->sigma_T_K > 0.0) || !(r->sigma_y > 0.0) || !(r->sigma_P_rel > 0.0))
         return pw_error_set(err, PW_EINVAL, ds->path, 0,
@@ -476,6 +481,10 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
         return pw_error_set(err, PW_EINVAL, NULL, 0, "missing argument to the fit");
     if (o.max_iter < 1)
         return pw_error_set(err, PW_EINVAL, ds->path, 0, "the iteration limit must be at least 1");
+    if (ds->mass_x || ds->mass_y)
+        return pw_error_set(err, PW_EINVAL, ds->path, ds->composition_line,
+                            "the dataset's compositions are mass fractions (convert them with "
+                            "pw_dataset_to_mole first)");
     pw_status st = init_result(ds, c1, c2, model, &o, out, err);
     if (st == PW_OK)
         st = fit_het_setup(ds, &o, out, err);
@@ -485,7 +494,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     }
     fit_problem fp;
     pw_point *used = NULL;
-    st = build_problem(out, &fp, &used);
+    st = fit_build_problem(out, &fp, &used);
     if (st == PW_OK && o.n_tie_lines) {
         fp.ties = o.tie_lines;
         fp.n_ties = o.n_tie_lines;

@@ -76,6 +76,11 @@ pw_status fit_het_setup(const pw_dataset *ds, const pw_fit_options *o, pw_fit_re
 /* After the fit: r->aad_x_lle from the tie lines. */
 void fit_het_finish(const fit_problem *fp, pw_fit_result *r);
 
+/* The regression problem of the fit result r (which holds all points): fitted parameters, weights
+ * and the used points with their three-phase flags in *used (one block the caller frees); no tie
+ * lines. PW_ENOMEM. */
+pw_status fit_build_problem(const pw_fit_result *r, fit_problem *fp, pw_point **used);
+
 /* Sum of squares of the weighted residuals at params; INFINITY when a point fails. */
 double fit_chi2(const fit_problem *fp, const double *params, double *work);
 

@@ -5,6 +5,7 @@
 #include "fitfile_internal.h"
 
 #include <pinchwise/fileio.h>
+#include <pinchwise/jsontext.h>
 #include <pinchwise/fitjson.h>
 
 #include <math.h>
@@ -286,9 +287,11 @@ json_t *pw_fitfile_to_json(const pw_fit_result *r)
 static char *fitfile_text(const pw_fit_result *r, size_t *len)
 {
     json_t *o = pw_fitfile_to_json(r);
-    char *text = o ? json_dumps(o, JSON_INDENT(1) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER)
+    char *full = o ? json_dumps(o, JSON_INDENT(1) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER)
                    : NULL;
     json_decref(o);
+    char *text = pw_json_shortest_reals(full); /* 0.8, not 0.80000000000000004 */
+    free(full);
     if (!text)
         return NULL;
     *len = strlen(text);

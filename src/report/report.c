@@ -3,6 +3,7 @@
 
 #include <errno.h>
 #include <math.h>
+#include <pinchwise/column_direction.h>
 #include <pinchwise/fileio.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -44,10 +45,11 @@ static pw_status check_input(const pw_report_input *in, pw_error *err)
         const pw_column_spec *s = in->column;
         if (!(isfinite(in->column_P_Pa) && in->column_P_Pa > 0.0))
             return pw_error_set(err, PW_EINVAL, NULL, 0, "a column needs a positive pressure");
-        if (!(s->xb >= 0.0 && s->xb < s->zf && s->zf < s->xd && s->xd <= 1.0) || !isfinite(s->q))
+        if (!(fmin(s->xb, s->xd) >= 0.0 && fmax(s->xb, s->xd) <= 1.0) || !isfinite(s->q) ||
+            pw_column_direction_of(s) == PW_DIRECTION_NONE)
             return pw_error_set(err, PW_EINVAL, NULL, 0,
-                                "the column targets must satisfy 0 <= xb < zf < xd <= 1 (got xb %g, "
-                                "zf %g, xd %g)",
+                                "the column targets must satisfy 0 <= xb < zf < xd <= 1 or "
+                                "0 <= xd < zf < xb <= 1 (got xb %g, zf %g, xd %g)",
                                 s->xb, s->zf, s->xd);
     }
     return PW_OK;

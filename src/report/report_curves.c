@@ -4,6 +4,7 @@
 
 #include <math.h>
 #include <pinchwise/azeotrope.h>
+#include <pinchwise/column_direction.h>
 #include <pinchwise/curve.h>
 #include <pinchwise/equilibrium.h>
 #include <pinchwise/lle.h>
@@ -121,7 +122,11 @@ static void op_meet(const pw_column_spec *sp, double R, double *xi, double *yi)
  * with vapor y from the dew point at the column pressure. */
 static void staircase(pw_report_curves *c, double R)
 {
-    const pw_column_spec *sp = &c->spec;
+    /* Component 1 to the bottoms: step in the mirrored frame (fractions of component 2, which
+     * goes overhead; column_direction.h) and store the corners as fractions of component 1. */
+    bool down = pw_column_direction_of(&c->spec) == PW_DIRECTION_BOTTOMS;
+    const pw_column_spec mirrored = pw_column_spec_mirror(&c->spec);
+    const pw_column_spec *sp = down ? &mirrored : &c->spec;
     double xi, yi;
     op_meet(sp, R, &xi, &yi);
     if (!isfinite(xi) || !(xi > sp->xb))
@@ -133,9 +138,10 @@ static void staircase(pw_report_curves *c, double R)
     c->step_y[k++] = sp->xd;
     for (size_t stage = 0; stage < PW_REPORT_MAX_STEPS; stage++) {
         pw_eq_point e;
-        if (pw_dew_T(&c->fit->sys, c->P_col_Pa, y, &e) != PW_OK || !isfinite(e.x1))
+        if (pw_dew_T(&c->fit->sys, c->P_col_Pa, down ? 1.0 - y : y, &e) != PW_OK ||
+            !isfinite(e.x1))
             break;
-        double x = e.x1;
+        double x = down ? 1.0 - e.x1 : e.x1;
         c->step_x[k] = x;
         c->step_y[k++] = y;
         if (x <= sp->xb || x >= xprev)
@@ -146,6 +152,10 @@ static void staircase(pw_report_curves *c, double R)
         xprev = x;
     }
     c->n_step = k;
+    for (size_t i = 0; down && i < k; i++) {
+        c->step_x[i] = 1.0 - c->step_x[i];
+        c->step_y[i] = 1.0 - c->step_y[i];
+    }
 }
 
 static pw_status column(pw_report_curves *c, const pw_report_input *in)
@@ -180,12 +190,12 @@ static pw_status column(pw_report_curves *c, const pw_report_input *in)
         have = have || fabs(opt.factors[i] - c->factor) < 1e-12;
     if (!have && opt.n_factors < PW_COLUMN_MAX_FACTORS)
         opt.factors[opt.n_factors++] = c->factor;
-    c->col_status = pw_column_solve(&curve, &c->spec, &opt, &c->col);
+    c->col_status = pw_column_solve_any(&curve, &c->spec, &opt, &c->col);
     c->stages_op = PW_NAN;
     c->feed_stage_op = 0;
     if (c->col_status == PW_OK && c->col.feasible) {
         c->r_op = c->factor * c->col.r_min;
-        if (pw_column_step(&curve, &c->spec, c->r_op, opt.max_stages, &c->stages_op,
+        if (pw_column_step_any(&curve, &c->spec, c->r_op, opt.max_stages, &c->stages_op,
                            &c->feed_stage_op) != PW_OK)
             c->stages_op = PW_NAN;
         staircase(c, c->r_op);

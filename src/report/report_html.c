@@ -3,6 +3,7 @@
 #include "report/report_internal.h"
 
 #include <math.h>
+#include <pinchwise/column_direction.h>
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/curve.h>
 #include <pinchwise/fitjson.h>
@@ -756,7 +757,10 @@ static void ranking(pw_sbuf *b, const pw_report_curves *c)
     pw_sbuf_puts(b, "</table>\n<p class=\"note\">Ranked by AICc (Hurvich &amp; Tsai 1989): "
                     "\xce\x94" "AICc below 2 means the data cannot tell the models apart, 10 or more "
                     "that a model has essentially no support (Burnham &amp; Anderson 2002). Fits that "
-                    "did not converge or predict a liquid split rank last.");
+                    "did not converge or predict a liquid split rank last. \xce\x94" "AICc is the "
+                    "model's AICc minus that of rank 1: positive values fit worse; a negative value "
+                    "is a fit with a lower AICc ranked below rank 1 for the reason in its support "
+                    "class or notes.");
     if (rk->az_existence_differs)
         pw_sbuf_puts(b, " Models with support disagree on whether an azeotrope exists.");
     else if (rk->az_x_hi > rk->az_x_lo)
@@ -880,6 +884,11 @@ static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
             pw_sbuf_printf(b, "<span class=\"verdict-pass\">feasible</span>: x<sub>D</sub> %.4g, "
                               "x<sub>B</sub> %.4g from z<sub>F</sub> %.4g (q = %.3g)",
                            c->spec.xd, c->spec.xb, c->spec.zf, c->spec.q);
+        }
+        if (c->spec.xd < c->spec.xb) { /* either direction (pinchwise/column_direction.h) */
+            pw_sbuf_puts(b, "; component 1, ");
+            esc(b, r->sys.comp[0].name);
+            pw_sbuf_puts(b, ", is the one which goes to the bottoms");
         }
         answer_end(b);
         if (c->col_status == PW_OK && k->feasible) {

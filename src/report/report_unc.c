@@ -11,12 +11,12 @@
 #define PLAN_BINS 10   /* as the reflux command: ten bins of x1 ... */
 #define PLAN_POINTS 5  /* ... of five hypothetical points each */
 
-/* The window of the band: pinch x +/- PW_REPORT_BAND_HALF, clipped to [xb, xd]. */
+/* The window of the band: pinch x +/- PW_REPORT_BAND_HALF, clipped to the products' range. */
 static void band_window(const pw_report_curves *c, double *lo, double *hi)
 {
     double xp = c->col.pinch.x;
-    *lo = fmax(c->spec.xb, xp - PW_REPORT_BAND_HALF);
-    *hi = fmin(c->spec.xd, xp + PW_REPORT_BAND_HALF);
+    *lo = fmax(fmin(c->spec.xb, c->spec.xd), xp - PW_REPORT_BAND_HALF);
+    *hi = fmin(fmax(c->spec.xb, c->spec.xd), xp + PW_REPORT_BAND_HALF);
 }
 
 static pw_status band(pw_report_curves *c, const pw_report_input *in, pw_unc_column_ctx *col)

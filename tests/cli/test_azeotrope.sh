@@ -92,11 +92,11 @@ F="$TMP/ethanol_water_1atm.json"
 expect_fail "$PW" azeotrope "$F" --pressure 101.325
 grep -q "kPa" "$TMP/e" || fail "the bare-number message should list the units"
 expect_fail "$PW" azeotrope "$F" --pressure 1atm --temperature 50C
-expect_fail "$PW" azeotrope "$F"
+expect_fail "$PW" azeotrope --pressure 1atm  # no fit file (without a condition the fit's own is used)
 expect_fail "$PW" azeotrope "$F" --pressure 1atm --samples many
 grep -q "samples" "$TMP/e" || fail "a bad --samples value should be named"
-expect_fail "$PW" azeotrope "$F" --pressure 1atm --scan 10kPa:20kPa
+expect_fail "$PW" azeotrope "$F" --pressure 1atm --scan 10kPa  # no TO
 expect_fail "$PW" azeotrope "$TMP/missing.json" --pressure 1atm
-expect_fail "$PW" screen "$F" --pressure 1atm --xd 0.2 --xb 0.5
+expect_fail "$PW" screen "$F" --pressure 1atm --xd 0.5 --xb 0.5
 expect_fail "$PW" screen "$F" --pressure 1atm --xd 0.9 --xb 0.1 --samples
 echo "ok"

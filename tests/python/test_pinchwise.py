@@ -407,7 +407,9 @@ class Errors(unittest.TestCase):
         f = pinchwise.fit(data, "wilson")
         for call, words in [
             (lambda: pinchwise.reflux(f, "101.325", 0.95, 0.02, 0.1), "has no unit"),
-            (lambda: pinchwise.reflux(f, "1atm", 0.02, 0.95, 0.1), "invalid argument"),
+            # (xd 0.02 < zf 0.1 < xb 0.95 is a valid split, component 1 to the bottoms; a feed
+            # outside both products is not)
+            (lambda: pinchwise.reflux(f, "1atm", 0.02, 0.95, 0.99), "invalid argument"),
             (lambda: pinchwise.reflux(f, "1atm", "x", 0.02, 0.1), "not a number"),
             (lambda: pinchwise.reflux(f, "1atm", float("nan"), 0.02, 0.1), "not a finite number"),
             (lambda: pinchwise.fit(data, "unknown"), "unknown model"),

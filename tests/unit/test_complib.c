@@ -111,7 +111,7 @@ static const bad_case bad_cases[] = {
     {"empty C", HDR "a,1,100,,ln,kPa,C,0,100,s\n", 2, "column C is empty"},
     {"negative B", HDR "a,1,-100,200,ln,kPa,C,0,100,s\n", 2, "expected B > 0"},
     {"bad log", HDR "a,1,100,200,log,kPa,C,0,100,s\n", 2, "log is 'log' (expected log10 or ln)"},
-    {"bad P unit", HDR "a,1,100,200,ln,torr,C,0,100,s\n", 2, "unknown P_unit 'torr'"},
+    {"bad P unit", HDR "a,1,100,200,ln,inHg,C,0,100,s\n", 2, "unknown P_unit 'inHg'"},
     {"bad T unit", HDR "a,1,100,200,ln,kPa,R,0,100,s\n", 2, "unknown T_unit 'R'"},
     {"range reversed", HDR "a,1,100,200,ln,kPa,C,100,0,s\n", 2, "T_min = 100 is not below T_max = 0"},
     {"range equal", HDR "a,1,100,200,ln,kPa,C,50,50,s\n", 2, "is not below T_max"},

@@ -127,7 +127,12 @@ static void bad_arguments(void **state)
     (void)state;
     pw_system s = constant_alpha(2.0);
     pw_screen_result r;
-    assert_int_equal(pw_screen_run(&s, P_ATM, 0.05, 0.95, NAN, NULL, &r), PW_EINVAL);
+    assert_int_equal(pw_screen_run(&s, P_ATM, 0.5, 0.5, NAN, NULL, &r), PW_EINVAL);
+    /* xd < xb is a split with component 1 to the bottoms: here component 1 is the lighter one
+     * (alpha12 = 2), so that split is infeasible, not an error */
+    assert_int_equal(pw_screen_run(&s, P_ATM, 0.05, 0.95, NAN, NULL, &r), PW_OK);
+    assert_int_equal(r.verdict, PW_VERDICT_INFEASIBLE);
+    pw_assert_close(r.alpha_min, 0.5, 1e-9, 0, "alpha21 = 1/alpha12");
     assert_int_equal(pw_screen_run(&s, P_ATM, 0.9, 0.1, 0.95, NULL, &r), PW_EINVAL);
     assert_int_equal(pw_screen_run(&s, -1.0, 0.9, 0.1, NAN, NULL, &r), PW_EINVAL);
     pw_screen_options o = pw_screen_default_options();

@@ -48,7 +48,7 @@ static void temperature_offsets(void **state)
     pw_assert_close(v, 760.0, 1e-15, 0, "back to mmHg");
     assert_int_equal(pw_units_to_si(PW_QTY_TEMPERATURE, -300.0, "C", &v), PW_EDOM);
     assert_int_equal(pw_units_to_si(PW_QTY_PRESSURE, 0.0, "kPa", &v), PW_EDOM);
-    assert_int_equal(pw_units_to_si(PW_QTY_PRESSURE, 1.0, "torr", &v), PW_EINVAL);
+    assert_int_equal(pw_units_to_si(PW_QTY_PRESSURE, 1.0, "inHg", &v), PW_EINVAL);
     assert_int_equal(pw_units_to_si(PW_QTY_TEMPERATURE, 1.0, "kPa", &v), PW_EINVAL);
     assert_true(pw_units_known(PW_QTY_PRESSURE, "psia"));
     assert_false(pw_units_known(PW_QTY_PRESSURE, "psig"));
@@ -73,7 +73,7 @@ static void quantity_parser_accepts_number_and_unit(void **state)
 static void quantity_parser_refuses(void **state)
 {
     (void)state;
-    static const char *const bad_p[] = {"101.325", "101.325 kPa", " 101.325kPa", "101.325kpascal",
+    static const char *const bad_p[] = {"101.325", "101.3 25kPa", "1 k Pa", "101.325kpascal",
                                         "nankPa",  "infkPa",      "0x10kPa",     "",
                                         "kPa",     "-5kPa",       "1e999kPa"};
     for (size_t i = 0; i < sizeof bad_p / sizeof *bad_p; i++) {

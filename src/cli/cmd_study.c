@@ -1,0 +1,446 @@
+/* pinchwise study: the whole study of one data file and one split in one command.
+ *
+ * Steps, each done by the library through the same code as the single commands: consistency of
+ * the data (check), every model fitted (fit --model all) or the one named, the model chosen by
+ * the rule of `fit --model all` (converged fits that predict no liquid split first, then lowest
+ * AICc) unless --model names one, the azeotropes at the data's condition and at the column
+ * pressure (azeotrope), the column with its design table (reflux, either split direction),
+ * optionally the fit's uncertainty (--uncertainty), and the HTML report with every model side by
+ * side (report). One progress display on a terminal, one summary (or one JSON object), one exit
+ * status. */
+#include "cli.h"
+#include "cli_units.h"
+#include "fit_common.h"
+#include "reflux_common.h"
+#include "reflux_uncert.h"
+
+#include <errno.h>
+#include <math.h>
+#include <pinchwise/assess.h>
+#include <pinchwise/azeotrope.h>
+#include <pinchwise/composition.h>
+#include <pinchwise/consistency.h>
+#include <pinchwise/dataset.h>
+#include <pinchwise/report.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <strings.h>
+#include <sys/stat.h>
+
+#define CMD "study"
+#define STUDY_STEPS 6
+
+static void usage(FILE *f)
+{
+    fprintf(f,
+            "usage: pinchwise study DATA.csv --pressure P --xd X --xb X --zf X [options]\n"
+            "\n"
+            "The whole study in one command: consistency of the data, every model fitted and\n"
+            "one chosen, azeotropes, minimum reflux with the design table, optionally the\n"
+            "uncertainty, and the HTML report, written into one folder.\n"
+            "  --pressure P        column pressure with its unit, e.g. 1atm, \"101.325 kPa\"\n"
+            "  --xd, --xb, --zf    product and feed compositions of component 1 (mole fraction,\n"
+            "                      or with mol%%, wt, wt%%); either direction as in reflux\n"
+            "  --q Q               feed liquid fraction (default 1)\n"
+            "  --model MODEL       take this model instead of choosing (any model of fit,\n"
+            "                      in any case); default: every model is fitted and rank 1 of\n"
+            "                      the ranking of fit --model all is chosen\n"
+            "  --out-dir DIR       folder for the fit files and the report (default: study)\n"
+            "  --factors F,F,...   design reflux as multiples of R_min (default 1.2,1.3,1.5)\n"
+            "  --uncertainty       intervals from the fit's covariance (--samples N, --seed N)\n"
+            "  --force             replace existing fit files and report\n" PW_CLI_HELP_COMPONENTS
+                PW_CLI_HELP_EXIT_VERDICT "  --json              print one JSON object on stdout\n");
+}
+
+typedef struct study_args {
+    const char *data, *model_name, *out_dir, *components;
+    bool json, force, uncertainty, exit_verdict;
+    char *reflux_argv[32]; /* the column options, handed to the reflux parser */
+    int reflux_argc;
+} study_args;
+
+static bool takes_value(const char *opt)
+{
+    static const char *const v[] = {"--pressure", "--xd",      "--xb",        "--zf",
+                                    "--q",        "--factors", "--samples",   "--seed",
+                                    "--model",    "--out-dir", "--components"};
+    for (size_t i = 0; i < sizeof v / sizeof *v; i++)
+        if (!strcmp(opt, v[i]))
+            return true;
+    return false;
+}
+
+static int parse(int argc, char **argv, study_args *a, pw_error *err)
+{
+    memset(a, 0, sizeof *a);
+    a->out_dir = "study";
+    a->reflux_argv[a->reflux_argc++] = "reflux";
+    a->reflux_argv[a->reflux_argc++] = ""; /* the chosen fit file, set later */
+    for (int i = 1; i < argc; i++) {
+        const char *o = argv[i];
+        if (!strcmp(o, "--help") || !strcmp(o, "-h"))
+            return -1;
+        if (!strcmp(o, "--json") || !strcmp(o, "--force") || !strcmp(o, "--uncertainty") ||
+            !strcmp(o, "--exit-verdict")) {
+            a->json = a->json || !strcmp(o, "--json");
+            a->force = a->force || !strcmp(o, "--force");
+            a->uncertainty = a->uncertainty || !strcmp(o, "--uncertainty");
+            a->exit_verdict = a->exit_verdict || !strcmp(o, "--exit-verdict");
+            continue;
+        }
+        if (o[0] == '-' && o[1] == '-') {
+            if (!takes_value(o)) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s (see --help)", o);
+                return PW_EXIT_USAGE;
+            }
+            if (i + 1 >= argc) {
+                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", o);
+                return PW_EXIT_USAGE;
+            }
+            const char *v = argv[++i];
+            if (!strcmp(o, "--model"))
+                a->model_name = v;
+            else if (!strcmp(o, "--out-dir"))
+                a->out_dir = v;
+            else if (!strcmp(o, "--components"))
+                a->components = v;
+            else if (a->reflux_argc + 2 < (int)(sizeof a->reflux_argv / sizeof *a->reflux_argv)) {
+                a->reflux_argv[a->reflux_argc++] = (char *)o;
+                a->reflux_argv[a->reflux_argc++] = (char *)v;
+            }
+            continue;
+        }
+        if (a->data) {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one data file)", o);
+            return PW_EXIT_USAGE;
+        }
+        a->data = o;
+    }
+    if (!a->data) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "a data file is required");
+        return PW_EXIT_USAGE;
+    }
+    if (a->uncertainty)
+        a->reflux_argv[a->reflux_argc++] = "--uncertainty";
+    return 0;
+}
+
+static void step(const char *what, size_t k)
+{
+    pw_cli_progress_line(CMD, what, k, STUDY_STEPS);
+}
+
+/* Consistency of the data, as `check` runs it. */
+static pw_status consistency(const study_args *a, const pw_complib *lib, pw_consistency_result *cr,
+                             pw_error *err)
+{
+    pw_dataset ds;
+    pw_status st = pw_dataset_read(a->data, &ds, err);
+    if (st != PW_OK)
+        return st;
+    const pw_component *c1 = pw_complib_find(lib, ds.names[0]);
+    const pw_component *c2 = pw_complib_find(lib, ds.names[1]);
+    if (!c1 || !c2)
+        st = pw_error_set(err, PW_ENOTFOUND, ds.path, 0,
+                          "component '%s' is not in the component library (add it with "
+                          "--components FILE)",
+                          c1 ? ds.names[1] : ds.names[0]);
+    if (st == PW_OK)
+        st = pw_dataset_to_mole(&ds, c1, c2, err);
+    if (st == PW_OK)
+        st = pw_consistency_run(&ds, c1, c2, NULL, cr, err);
+    pw_dataset_free(&ds);
+    return st;
+}
+
+typedef struct model_fit {
+    const pw_model_type *model;
+    int rc;
+    pw_fit_result r;
+    char path[PW_PATH_MAX];
+    pw_error err;
+} model_fit;
+
+static json_t *az_json(const pw_az_result *r)
+{
+    json_t *arr = json_array();
+    for (size_t i = 0; i < r->n; i++)
+        json_array_append_new(arr,
+                              json_pack("{s:o,s:o,s:o,s:s}", "x1", pw_cli_json_num(r->az[i].x1),
+                                        "T_K", pw_cli_json_num(r->az[i].T_K), "P_kPa",
+                                        pw_cli_json_num(r->az[i].P_Pa / 1000.0), "kind",
+                                        pw_az_kind_name(r->az[i].kind)));
+    return arr;
+}
+
+static void az_text(const char *where, const pw_az_result *r, bool ok)
+{
+    printf("  azeotropes %s: ", where);
+    if (!ok) {
+        printf("not found: the search failed\n");
+        return;
+    }
+    if (r->n == 0)
+        printf("none\n");
+    for (size_t i = 0; i < r->n; i++)
+        printf("%s%s at x1 = %.4f, T = %.2f K, P = %.4g kPa\n", i ? "; " : "",
+               pw_az_kind_name(r->az[i].kind), r->az[i].x1, r->az[i].T_K, r->az[i].P_Pa / 1000.0);
+}
+
+int pw_cli_study(int argc, char **argv)
+{
+    study_args a;
+    pw_error err;
+    pw_error_clear(&err);
+    int rc = parse(argc, argv, &a, &err);
+    if (rc == -1) {
+        usage(stdout);
+        return 0;
+    }
+    if (rc)
+        return pw_cli_fail(CMD, &err);
+    const pw_model_type *only = NULL;
+    char names[256];
+    if (a.model_name && !(only = pw_model_find(a.model_name)))
+        return pw_cli_failf(CMD, PW_EXIT_USAGE,
+                            "unknown model '%s' (expected one of %s)", a.model_name,
+                            pw_model_names(names, sizeof names));
+    /* the column options are checked before any work, by the reflux parser itself */
+    pw_reflux_args ra;
+    a.reflux_argv[1] = (char *)a.data; /* a placeholder path for the parse */
+    if ((rc = pw_reflux_parse_args(a.reflux_argc, a.reflux_argv, &ra, &err)) != 0)
+        return rc == -1 ? pw_cli_failf(CMD, PW_EXIT_USAGE, "see pinchwise study --help")
+                        : pw_cli_fail(CMD, &err);
+    if (mkdir(a.out_dir, 0755) != 0 && errno != EEXIST)
+        return pw_cli_failf(CMD, pw_status_exit_code(PW_EIO), "%s: cannot create the folder",
+                            a.out_dir);
+
+    pw_complib lib;
+    if (pw_cli_load_components(&lib, a.components, &err) != PW_OK)
+        return pw_cli_fail(CMD, &err);
+
+    /* 1. consistency */
+    step("checking the data", 1);
+    pw_consistency_result cr;
+    memset(&cr, 0, sizeof cr);
+    pw_status st = consistency(&a, &lib, &cr, &err);
+    if (st != PW_OK) {
+        pw_complib_free(&lib);
+        return pw_cli_fail(CMD, &err);
+    }
+
+    /* 2. fits */
+    step("fitting the models", 2);
+    size_t n_models = 1;
+    const pw_model_type *const *models = only ? &only : pw_model_all(&n_models);
+    model_fit *fits = calloc(n_models, sizeof *fits);
+    if (!fits) {
+        pw_consistency_result_free(&cr);
+        pw_complib_free(&lib);
+        return pw_cli_failf(CMD, pw_status_exit_code(PW_ENOMEM), "out of memory");
+    }
+    pw_fit_cli_opts co;
+    memset(&co, 0, sizeof co);
+    co.fit = pw_fit_default_options();
+    co.lib = &lib;
+    co.force = a.force;
+    co.quiet = true;
+    size_t best = 0;
+    for (size_t i = 0; i < n_models; i++) {
+        fits[i].model = models[i];
+        pw_error_clear(&fits[i].err);
+        fits[i].rc = pw_fit_one(a.data, models[i], NULL, a.out_dir, &co, &fits[i].r, fits[i].path,
+                                sizeof fits[i].path, &fits[i].err);
+    }
+    /* the one ranking rule of `fit --model all` and the report (pinchwise/assess.h) */
+    {
+        const pw_fit_result *ok[PW_RANK_MAX];
+        size_t map[PW_RANK_MAX], n_ok = 0;
+        for (size_t i = 0; i < n_models && n_ok < PW_RANK_MAX; i++)
+            if (fits[i].rc == 0) {
+                ok[n_ok] = &fits[i].r;
+                map[n_ok++] = i;
+            }
+        pw_ranking *rk = n_ok ? malloc(sizeof *rk) : NULL;
+        if (rk && pw_rank_fits(ok, n_ok, rk) == PW_OK && rk->n > 0)
+            best = map[rk->rows[0].index];
+        else if (n_ok)
+            best = map[0];
+        free(rk);
+    }
+    model_fit *chosen = &fits[best];
+    if (chosen->rc != 0) {
+        rc = pw_cli_fail(CMD, &chosen->err);
+        goto out;
+    }
+
+    /* 3. the column, 4. its uncertainty */
+    step("solving the column", 3);
+    a.reflux_argv[1] = chosen->path;
+    pw_reflux_parse_args(a.reflux_argc, a.reflux_argv, &ra, &err);
+    ra.components = a.components;
+    pw_reflux_run run;
+    if ((rc = pw_reflux_compute(&ra, &run, &err)) != 0) {
+        rc = pw_cli_fail(CMD, &err);
+        goto out;
+    }
+    step(a.uncertainty ? "propagating the uncertainty" : "no uncertainty asked for", 4);
+    pw_reflux_uncert unc;
+    memset(&unc, 0, sizeof unc);
+    if (ra.uncertainty || ra.n_extra) {
+        if ((rc = pw_reflux_uncert_run(&ra, &run, &unc, &err)) != 0) {
+            pw_fit_result_free(&run.fit);
+            rc = pw_cli_fail(CMD, &err);
+            goto out;
+        }
+    }
+    run.with_uncertainty = a.uncertainty;
+
+    /* 5. azeotropes at the data's condition and at the column pressure */
+    step("finding the azeotropes", 5);
+    const pw_fit_result *f = &run.fit;
+    bool iso = f->kind == PW_DATA_ISOTHERMAL;
+    pw_az_result az_data, az_col;
+    bool az_data_ok =
+        pw_azeotrope_find(&f->sys, iso ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC,
+                          iso ? f->T_fixed_K : f->P_fixed_Pa, NULL, &az_data) == PW_OK;
+    bool az_col_ok = pw_azeotrope_find(&f->sys, PW_AZ_ISOBARIC, run.P_Pa, NULL, &az_col) == PW_OK;
+
+    /* 6. the report, with the other models side by side */
+    step("writing the report", 6);
+    char report_path[PW_PATH_MAX];
+    {
+        const char *base = strrchr(a.data, '/');
+        base = base ? base + 1 : a.data;
+        char stem[PW_PATH_MAX];
+        snprintf(stem, sizeof stem, "%s", base);
+        char *dot = strrchr(stem, '.');
+        if (dot && dot != stem)
+            *dot = '\0';
+        if (snprintf(report_path, sizeof report_path, "%s/%s.report.html", a.out_dir, stem) >=
+            (int)sizeof report_path) {
+            pw_fit_result_free(&run.fit);
+            rc = pw_cli_failf(CMD, PW_EXIT_USAGE, "output path too long");
+            goto out;
+        }
+    }
+    pw_report_input in = pw_report_default_input();
+    in.fit = f;
+    in.fit_path = chosen->path;
+    in.column = &run.spec;
+    in.column_P_Pa = run.P_Pa;
+    /* the drawn operating line: 1.3 R_min when among the factors, else the first (as the
+     * uncertainty text of reflux) */
+    in.operating_factor = ra.opt.n_factors ? ra.opt.factors[0] : 0.0;
+    for (size_t k = 0; k < ra.opt.n_factors; k++)
+        if (fabs(ra.opt.factors[k] - 1.3) < 1e-12)
+            in.operating_factor = 1.3;
+    in.uncertainty = a.uncertainty;
+    const pw_fit_result *others[8];
+    size_t n_others = 0;
+    for (size_t i = 0; i < n_models && n_others < 8; i++)
+        if (i != best && fits[i].rc == 0)
+            others[n_others++] = &fits[i].r;
+    in.others = others;
+    in.n_others = n_others;
+    pw_report *rep = NULL;
+    st = pw_report_build(&in, &rep, &err);
+    if (st == PW_OK)
+        st = pw_report_save_html(rep, report_path, a.force, &err);
+    pw_report_free(rep);
+    if (st != PW_OK) {
+        pw_fit_result_free(&run.fit);
+        rc = pw_cli_fail(CMD, &err);
+        goto out;
+    }
+
+    pw_reflux_warn(&run);
+    if (a.json) {
+        json_t *o = json_object();
+        json_object_set_new(o, "dataset", json_string(a.data));
+        json_object_set_new(o, "consistent", json_boolean(cr.consistent));
+        json_t *ms = json_array();
+        for (size_t i = 0; i < n_models; i++) {
+            json_t *m = json_object();
+            json_object_set_new(m, "model", json_string(fits[i].model->name));
+            json_object_set_new(m, "fitted", json_boolean(fits[i].rc == 0));
+            if (fits[i].rc == 0) {
+                json_object_set_new(m, "converged", json_boolean(fits[i].r.converged));
+                json_object_set_new(m, "liquid_split", json_boolean(fits[i].r.split));
+                json_object_set_new(m, "aicc", pw_cli_json_num(fits[i].r.aicc));
+                json_object_set_new(m, "fit_file", json_string(fits[i].path));
+            } else {
+                json_object_set_new(m, "error", json_string(fits[i].err.msg));
+            }
+            json_object_set_new(m, "chosen", json_boolean(i == best));
+            json_array_append_new(ms, m);
+        }
+        json_object_set_new(o, "models", ms);
+        json_object_set_new(o, "chosen_model", json_string(chosen->model->name));
+        json_object_set_new(o, "chosen_because",
+                            json_string(only ? "named with --model"
+                                             : "converged, no predicted liquid split, lowest AICc "
+                                               "(the rule of fit --model all)"));
+        json_object_set_new(o, "azeotropes_at_data_condition",
+                            az_data_ok ? az_json(&az_data) : json_null());
+        json_object_set_new(o, "azeotropes_at_column_pressure",
+                            az_col_ok ? az_json(&az_col) : json_null());
+        json_t *rj = pw_reflux_json(&run);
+        if (ra.uncertainty || ra.n_extra)
+            pw_reflux_uncert_json(&unc, rj);
+        json_object_set_new(o, "reflux", rj);
+        json_object_set_new(o, "report", json_string(report_path));
+        rc = pw_cli_print_json(o);
+    } else {
+        printf("study of %s (%s / %s), written to %s\n", a.data, f->sys.comp[0].name,
+               f->sys.comp[1].name, a.out_dir);
+        printf("  data                  %s by the consistency tests\n",
+               cr.consistent ? "consistent" : "NOT SHOWN CONSISTENT");
+        printf("  models                ");
+        for (size_t i = 0; i < n_models; i++) {
+            if (fits[i].rc == 0)
+                printf("%s%s AICc %.4g%s%s", i ? ", " : "", fits[i].model->name, fits[i].r.aicc,
+                       fits[i].r.converged ? "" : " (not converged)",
+                       fits[i].r.split ? " (predicts a liquid split)" : "");
+            else
+                printf("%s%s failed", i ? ", " : "", fits[i].model->name);
+        }
+        printf("\n  chosen                %s (%s)\n", chosen->model->name,
+               only ? "named with --model" : "converged, no liquid split, lowest AICc");
+        az_text("at the data's condition", &az_data, az_data_ok);
+        az_text("at the column pressure", &az_col, az_col_ok);
+        const pw_column_result *c = &run.col;
+        if (!c->feasible)
+            printf("  column                NOT FEASIBLE by simple distillation: %s\n", c->reason);
+        else {
+            printf("  minimum reflux        R_min %.5g, %s pinch in the %s section at x = %.4f\n",
+                   c->r_min, c->pinch.kind == PW_PINCH_FEED ? "feed" : "tangent",
+                   c->pinch.section == PW_SECTION_RECTIFYING ? "rectifying" : "stripping",
+                   c->pinch.x);
+            printf("  stages                %.3f at total reflux;", c->n_min);
+            for (size_t i = 0; i < c->n_design; i++)
+                printf(" %.3f at %.3g R_min (feed stage %d)%s", c->design[i].stages,
+                       c->design[i].factor, c->design[i].feed_stage,
+                       i + 1 < c->n_design ? "," : "");
+            printf("\n");
+        }
+        if (ra.uncertainty || ra.n_extra)
+            pw_reflux_uncert_print(&unc, &run);
+        printf("  report                %s\n", report_path);
+        printf("\n  Screening estimate only: verify with rigorous simulation and pilot data; size\n"
+               "  equipment and relief per local codes under licensed engineering review.\n");
+        rc = fflush(stdout) ? pw_status_exit_code(PW_EIO) : 0;
+    }
+    if (rc == 0 && a.exit_verdict && (!run.col.feasible || !cr.consistent))
+        rc = PW_CLI_EXIT_VERDICT;
+    pw_fit_result_free(&run.fit);
+out:
+    for (size_t i = 0; i < n_models; i++)
+        if (fits[i].rc == 0)
+            pw_fit_result_free(&fits[i].r);
+    free(fits);
+    pw_consistency_result_free(&cr);
+    pw_complib_free(&lib);
+    return rc;
+}
