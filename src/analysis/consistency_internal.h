@@ -73,6 +73,9 @@ pw_status pw_cs_poly_areas(const double *c, int deg, double *A, double *B);
  * with 1..PW_CONSISTENCY_MAX_TERMS terms: pw_cs_legendre_model(n) is the descriptor with n
  * parameters a0..a_{n-1}, NULL outside 1..5. */
 const pw_model_type *pw_cs_legendre_model(size_t n_terms);
+/* Reference temperature of the series' 1/T form on isobaric data: the coefficients are G^E/RT
+ * at this temperature (docs/consistency.md). */
+#define PW_CS_LEGENDRE_T_REF_K 350.0
 
 /* Median and the robust standard deviation 1.4826 * MAD of the finite values (NAN if none). */
 void pw_cs_robust(const double *v, size_t n, double *median, double *sd);

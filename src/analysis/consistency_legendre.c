@@ -67,6 +67,27 @@ static pw_status legendre_eval(const double *p, size_t n, double x1, double T_K,
     return PW_OK;
 }
 
+/* The temperature form G^E/RT(x, T) = (T_ref / T) G^E/RT(x, T_ref), the form of this project's
+ * Margules and van Laar constants (docs/thermo.md): zero excess entropy, H^E = G^E. Applied when
+ * T_ref > 0 (isobaric reductions, whose points span a range of temperatures); T_ref = T leaves the
+ * series as it is (isothermal data). */
+static void legendre_temperature(pw_activity *out, size_t n, double T_ref_K, double T_K)
+{
+    if (!(T_ref_K > 0.0) || T_ref_K == T_K)
+        return;
+    double f = T_ref_K / T_K;
+    for (int i = 0; i < 2; i++) {
+        out->lngamma[i] *= f;
+        out->dlngamma_dx1[i] *= f;
+        out->dlngamma_dT[i] = -out->lngamma[i] / T_K;
+        for (size_t k = 0; k < n; k++)
+            out->dlngamma_dp[i][k] *= f;
+    }
+    out->gE_RT *= f;
+    out->d2gE_dx2 *= f;
+    out->hE_Jmol = PW_GAS_CONSTANT * T_K * out->gE_RT;
+}
+
 static const char *const legendre_names[PW_MAX_PARAMS] = {"a0", "a1", "a2", "a3", "a4", "a5"};
 static const char *const legendre_units[PW_MAX_PARAMS] = {"-", "-", "-", "-", "-", "-"};
 static const double legendre_zero[PW_MAX_PARAMS] = {0.0};
@@ -79,8 +100,10 @@ static const double legendre_starts[PW_MAX_PARAMS][2] = {{-2.5, 3.0}, {-2.5, 3.0
     static pw_status legendre_eval_##N(const double *p, double T_ref_K, double x1, double T_K,   \
                                        pw_activity *out)                                          \
     {                                                                                             \
-        (void)T_ref_K;                                                                            \
-        return legendre_eval(p, N, x1, T_K, out);                                                 \
+        pw_status st = legendre_eval(p, N, x1, T_K, out);                                         \
+        if (st == PW_OK)                                                                          \
+            legendre_temperature(out, N, T_ref_K, T_K);                                           \
+        return st;                                                                                \
     }                                                                                             \
     static const pw_model_type legendre_##N = {                                                   \
         "legendre" #N, "Legendre series G^E, " #N " terms (Fredenslund, Gmehling & Rasmussen 1977)", \

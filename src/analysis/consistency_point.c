@@ -86,7 +86,9 @@ static pw_status bubble(const cs_data *d, const pw_model_type *m, const double *
     pw_activity act;
     double x[2] = {q->x1, 1.0 - q->x1};
     double T = d->ds->kind == PW_DATA_ISOTHERMAL ? d->ds->T_fixed_K : q->T_K;
-    pw_status st = m->eval(a, T, q->x1, T, &act);
+    /* isobaric: G^E/RT in the 1/T form about a fixed reference (consistency_legendre.c) */
+    double T_ref = d->ds->kind == PW_DATA_ISOTHERMAL ? T : PW_CS_LEGENDRE_T_REF_K;
+    pw_status st = m->eval(a, T_ref, q->x1, T, &act);
     if (st != PW_OK)
         return st;
     double xg[2] = {x[0] * exp(act.lngamma[0]), x[1] * exp(act.lngamma[1])};

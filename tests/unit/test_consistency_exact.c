@@ -61,13 +61,16 @@ typedef struct gen {
     double sigma_y, sigma_T_K; /* stated in the "file" (NAN: not stated) */
 } gen;
 
-static double lng1(const sys *s, double x)
+/* Margules constants at 350 K in the 1/T form of the point test's isobaric reduction
+ * (G^E/RT proportional to 1/T: docs/consistency.md), so that noise-free data satisfy the
+ * method's own assumptions exactly. */
+static double lng1(const sys *s, double x, double T)
 {
-    return (1 - x) * (1 - x) * (s->A12 + 2 * (s->A21 - s->A12) * x);
+    return 350.0 / T * (1 - x) * (1 - x) * (s->A12 + 2 * (s->A21 - s->A12) * x);
 }
-static double lng2(const sys *s, double x)
+static double lng2(const sys *s, double x, double T)
 {
-    return x * x * (s->A21 + 2 * (s->A12 - s->A21) * (1 - x));
+    return 350.0 / T * x * x * (s->A21 + 2 * (s->A12 - s->A21) * (1 - x));
 }
 
 static double ptot(const sys *s, const pw_component *c, double x, double T)
@@ -75,7 +78,7 @@ static double ptot(const sys *s, const pw_component *c, double x, double T)
     double P1, P2;
     assert_int_equal(pw_psat(&c[0], T, &P1, NULL), PW_OK);
     assert_int_equal(pw_psat(&c[1], T, &P2, NULL), PW_OK);
-    return x * exp(lng1(s, x)) * P1 + (1 - x) * exp(lng2(s, x)) * P2;
+    return x * exp(lng1(s, x, T)) * P1 + (1 - x) * exp(lng2(s, x, T)) * P2;
 }
 
 static void make(pw_dataset *ds, const sys *s, pw_component *c, const gen *g)
@@ -116,7 +119,7 @@ static void make(pw_dataset *ds, const sys *s, pw_component *c, const gen *g)
         double P1;
         assert_int_equal(pw_psat(&c[0], T, &P1, NULL), PW_OK);
         double P = ptot(s, c, x, T);
-        double y = x * exp(lng1(s, x)) * P1 / P;
+        double y = x * exp(lng1(s, x, T)) * P1 / P;
         bool pure = i == 0 || i == ds->n - 1;
         if (!pure) {
             y += g->noise_y * gsl_ran_gaussian(rng, 1.0);
