@@ -115,7 +115,20 @@ static pw_status three_phase_T(const pw_system *s, double T_K, size_t tpd, pw_th
 static pw_status p3_minus(const pw_system *s, double P, double T, double *f, bool *split,
                           pw_three_phase *tp)
 {
-    pw_status st = three_phase_T(s, T, TPD_QUICK, tp);
+    /* A binary liquid can split only where d^2(G_mix/RT)/dx1^2 < 0 somewhere: where the
+     * stability scan finds it positive everywhere, G_mix is convex and no split exists, so the
+     * full liquid-liquid solve is skipped (most temperatures of a miscible system). */
+    double min_D, x_min;
+    pw_status st = pw_stability_min(s, T, &min_D, &x_min);
+    if (st == PW_OK && min_D > 0.0) {
+        *split = false;
+        *f = (double)NAN;
+        memset(tp, 0, sizeof *tp);
+        tp->T_K = T;
+        tp->P_Pa = tp->y1 = tp->x[0] = tp->x[1] = (double)NAN;
+        return PW_OK;
+    }
+    st = three_phase_T(s, T, TPD_QUICK, tp);
     if (st == PW_ERANGE) {
         /* layers beyond the solubility floor: practically immiscible here, a1 = a2 = 1 to
          * within 1e-12, enough to bracket (the final state is solved exactly, or refused) */
