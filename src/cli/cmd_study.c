@@ -290,7 +290,7 @@ int pw_cli_study(int argc, char **argv)
     memset(&unc, 0, sizeof unc);
     if (ra.uncertainty || ra.n_extra) {
         if ((rc = pw_reflux_uncert_run(&ra, &run, &unc, &err)) != 0) {
-            pw_fit_result_free(&run.fit);
+            pw_reflux_run_free(&run);
             rc = pw_cli_fail(CMD, &err);
             goto out;
         }
@@ -320,7 +320,7 @@ int pw_cli_study(int argc, char **argv)
             *dot = '\0';
         if (snprintf(report_path, sizeof report_path, "%s/%s.report.html", a.out_dir, stem) >=
             (int)sizeof report_path) {
-            pw_fit_result_free(&run.fit);
+            pw_reflux_run_free(&run);
             rc = pw_cli_failf(CMD, PW_EXIT_USAGE, "output path too long");
             goto out;
         }
@@ -350,7 +350,7 @@ int pw_cli_study(int argc, char **argv)
         st = pw_report_save_html(rep, report_path, a.force, &err);
     pw_report_free(rep);
     if (st != PW_OK) {
-        pw_fit_result_free(&run.fit);
+        pw_reflux_run_free(&run);
         rc = pw_cli_fail(CMD, &err);
         goto out;
     }
@@ -434,7 +434,7 @@ int pw_cli_study(int argc, char **argv)
     }
     if (rc == 0 && a.exit_verdict && (!run.col.feasible || !cr.consistent))
         rc = PW_CLI_EXIT_VERDICT;
-    pw_fit_result_free(&run.fit);
+    pw_reflux_run_free(&run);
 out:
     for (size_t i = 0; i < n_models; i++)
         if (fits[i].rc == 0)
