@@ -80,7 +80,7 @@ class Schemas(unittest.TestCase):
 
     def test_every_schema_is_a_schema(self):
         for name in ["fit-file", "fit", "fit-all", "fit-batch", "check", "azeotrope", "reflux",
-                     "screen", "report", "lle", "decanter", "rate"]:
+                     "screen", "report", "lle", "decanter", "rate", "study"]:
             with self.subTest(schema=name):
                 self.assertIn(name, self.schemas)
                 jsonschema.Draft202012Validator.check_schema(self.schemas[name])
@@ -91,6 +91,16 @@ class Schemas(unittest.TestCase):
                 self.valid("fit", doc)
                 with open(out, encoding="utf-8") as f:
                     self.valid("fit-file", json.load(f))
+
+    def test_study(self):
+        # the shipped ethanol/water set (Perry's table), as tests/cli/test_study.sh runs it
+        data = os.path.join(SRC, "datasets", "ethanol_water_1atm.csv")
+        doc = run("study", data, "--pressure", "1atm", "--xd", "0.8", "--xb", "0.02", "--zf", "0.2",
+                  "--out-dir", os.path.join(self.tmp.name, "study"), "--json")
+        self.valid("study", doc)
+        broken = dict(doc)
+        del broken["chosen_model"]
+        self.invalid("study", broken)
 
     def test_fit_all_and_batch(self):
         self.valid("fit-all", run("fit", DATASETS[0], "--model", "all", "--out-dir",
