@@ -269,7 +269,7 @@ int pw_cli_whole(const char *opt, const char *text, double lo, double hi, unsign
 int pw_cli_ranged(const char *opt, const char *text, double lo, double hi, const char *what,
                   double *out, pw_error *err)
 {
-    double v;
+    double v = NAN;
     if (pw_cli_number(opt, text, &v, NULL) != PW_OK || !(v >= lo && v <= hi)) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected %s from %g to %g", opt, text, what,
                      lo, hi);
