@@ -61,6 +61,23 @@ static pw_status quantity(pw_quantity q, const char *arg, const char *text, doub
     return st;
 }
 
+/* A quantity argument that must be given: "<what> is required", else read as quantity() does. */
+static pw_status required(pw_quantity q, const char *arg, const char *what, const char *text,
+                          double *si, pw_error *err)
+{
+    pw_status st = need(text, what, err);
+    return st == PW_OK ? quantity(q, arg, text, si, err) : st;
+}
+
+/* Every function's first step: a place for the document, emptied. */
+static pw_status doc_slot(char **doc, pw_error *err)
+{
+    if (!doc)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
+    *doc = NULL;
+    return PW_OK;
+}
+
 static pw_status read_fit(const char *fit_path, const char *fit_text, const char *name,
                           const char *components, pw_fit_result *fit, pw_error *err)
 {
@@ -106,9 +123,8 @@ static const char *fit_where(const char *fit_path, const char *name)
 pw_status pw_api_fit(const char *data, const char *model, const char *components, const char *out,
                      int force, char **doc, char **fit_file, pw_error *err)
 {
-    if (!doc)
-        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
-    *doc = NULL;
+    if (doc_slot(doc, err) != PW_OK)
+        return PW_EINVAL;
     if (fit_file)
         *fit_file = NULL;
     pw_status st = need(data, "a dataset file", err);
@@ -169,9 +185,8 @@ pw_status pw_api_fit(const char *data, const char *model, const char *components
 pw_status pw_api_check(const char *data, const char *components, int strict, char **doc,
                        pw_error *err)
 {
-    if (!doc)
-        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
-    *doc = NULL;
+    if (doc_slot(doc, err) != PW_OK)
+        return PW_EINVAL;
     pw_status st = need(data, "a dataset file", err);
     if (st != PW_OK)
         return st;
@@ -215,9 +230,8 @@ pw_status pw_api_azeotrope(const char *fit_path, const char *fit_text, const cha
                            const char *components, const char *pressure, const char *temperature,
                            int uncertainty, long samples, long seed, char **doc, pw_error *err)
 {
-    if (!doc)
-        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
-    *doc = NULL;
+    if (doc_slot(doc, err) != PW_OK)
+        return PW_EINVAL;
     if (pressure && temperature)
         return pw_error_set(err, PW_EINVAL, NULL, 0, "give a pressure or a temperature, not both");
     pw_fit_result fit;
@@ -282,13 +296,10 @@ pw_status pw_api_reflux_ex(const char *fit_path, const char *fit_text, const cha
                            double zf, double q, int uncertainty, long samples, long seed,
                            int energy, char **doc, pw_error *err)
 {
-    if (!doc)
-        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
-    *doc = NULL;
-    pw_status st = need(pressure, "a pressure", err);
+    if (doc_slot(doc, err) != PW_OK)
+        return PW_EINVAL;
     double P_Pa = 0.0;
-    if (st == PW_OK)
-        st = quantity(PW_QTY_PRESSURE, "pressure", pressure, &P_Pa, err);
+    pw_status st = required(PW_QTY_PRESSURE, "pressure", "a pressure", pressure, &P_Pa, err);
     if (st != PW_OK)
         return st;
     pw_fit_result fit;
@@ -349,13 +360,10 @@ pw_status pw_api_screen(const char *fit_path, const char *fit_text, const char *
                         const char *components, const char *pressure, double xd, double xb,
                         double zf, char **doc, pw_error *err)
 {
-    if (!doc)
-        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
-    *doc = NULL;
-    pw_status st = need(pressure, "a pressure", err);
+    if (doc_slot(doc, err) != PW_OK)
+        return PW_EINVAL;
     double P_Pa = 0.0;
-    if (st == PW_OK)
-        st = quantity(PW_QTY_PRESSURE, "pressure", pressure, &P_Pa, err);
+    pw_status st = required(PW_QTY_PRESSURE, "pressure", "a pressure", pressure, &P_Pa, err);
     if (st != PW_OK)
         return st;
     pw_fit_result fit;
@@ -404,13 +412,11 @@ pw_status pw_api_lle(const char *fit_path, const char *fit_text, const char *nam
                      const char *components, const char *temperature, const char *scan_from,
                      const char *scan_to, long scan_n, char **doc, pw_error *err)
 {
-    if (!doc)
-        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
-    *doc = NULL;
-    pw_status st = need(temperature, "a temperature", err);
+    if (doc_slot(doc, err) != PW_OK)
+        return PW_EINVAL;
     double T_K = 0.0, from = 0.0, to = 0.0;
-    if (st == PW_OK)
-        st = quantity(PW_QTY_TEMPERATURE, "temperature", temperature, &T_K, err);
+    pw_status st =
+        required(PW_QTY_TEMPERATURE, "temperature", "a temperature", temperature, &T_K, err);
     bool scan = scan_from || scan_to || scan_n != 0;
     if (st == PW_OK && scan) { /* as --scan FROM:TO:N */
         if (!scan_from || !scan_to)
@@ -455,13 +461,10 @@ pw_status pw_api_decanter(const char *fit_path, const char *fit_text, const char
                           const char *components, const char *pressure, double zf, double x1_rich,
                           double x1_lean, double q, char **doc, pw_error *err)
 {
-    if (!doc)
-        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
-    *doc = NULL;
+    if (doc_slot(doc, err) != PW_OK)
+        return PW_EINVAL;
     pw_decanter_spec spec = {.zf = zf, .q = q, .x_rich = x1_rich, .x_lean = x1_lean};
-    pw_status st = need(pressure, "a pressure", err);
-    if (st == PW_OK)
-        st = quantity(PW_QTY_PRESSURE, "pressure", pressure, &spec.P_Pa, err);
+    pw_status st = required(PW_QTY_PRESSURE, "pressure", "a pressure", pressure, &spec.P_Pa, err);
     if (st == PW_OK && !(isfinite(zf) && zf > 0.0 && zf < 1.0))
         st = pw_error_set(err, PW_EINVAL, NULL, 0, "zf %g: must lie strictly between 0 and 1", zf);
     if (st == PW_OK)
@@ -490,13 +493,10 @@ pw_status pw_api_rate(const char *fit_path, const char *fit_text, const char *na
                       double reflux, double zf, double distillate, double q, int energy, char **doc,
                       pw_error *err)
 {
-    if (!doc)
-        return pw_error_set(err, PW_EINVAL, NULL, 0, "no place for the document (doc is NULL)");
-    *doc = NULL;
+    if (doc_slot(doc, err) != PW_OK)
+        return PW_EINVAL;
     double P_Pa = 0.0;
-    pw_status st = need(pressure, "a pressure", err);
-    if (st == PW_OK)
-        st = quantity(PW_QTY_PRESSURE, "pressure", pressure, &P_Pa, err);
+    pw_status st = required(PW_QTY_PRESSURE, "pressure", "a pressure", pressure, &P_Pa, err);
     if (st == PW_OK)
         st = whole("stages", stages, 1, 100000, err);
     if (st == PW_OK)
