@@ -60,6 +60,11 @@ static void value_words(const pw_ctest *t, bool isothermal, const char **what, c
         *unit = isothermal ? "%" : "K";
         *scale = isothermal ? 100.0 : 1.0;
         break;
+    case PW_CTEST_SCATTER:
+        *what = "sqrt(chi2/dof) of the point test's residuals in units of the stated "
+                "uncertainties (1 = scatter as stated)";
+        *unit = "x stated";
+        break;
     default:
         *what = "";
         *unit = "";

@@ -10,6 +10,7 @@ for d in ethanol_water_1atm.csv mek_toluene_50C_pxy.csv methanol_water_1atm.csv;
   "$pw" check "$src/datasets/$d" > c.txt 2>/dev/null || fail "check $d"
   grep -qiw "nan" c.txt && fail "$d: nan in: $(grep -iw nan c.txt)"
   grep -q "value: " c.txt || fail "$d: the values are not named"
+  grep -q "value: *$" c.txt && fail "$d: a value without its description: $(grep -B1 'value: *$' c.txt)"
   grep -q "not applicable, because\|not run, because" c.txt || true
 done
 "$pw" check "$src/datasets/ethanol_water_1atm.csv" > c.txt 2>/dev/null || fail "check"
