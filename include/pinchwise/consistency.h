@@ -14,7 +14,7 @@
  *   kojima_dilution  Kojima, Moon & Ochi (1990) infinite-dilution test, I1 and I2 < 30
  *   kojima_slope     Kojima et al. (1990) slope point test, mean deviation < 5 (isothermal)
  *   pure_endpoints   measured pure-component P (or T) against the vapor-pressure correlation
- * plus per-point residuals, robust (MAD-based) outlier flags, a Kang-type quality factor
+ * plus per-point residuals, robust (MAD-based) outlier flags, a evidence score (weighting after Kang et al.)
  * (Kang et al. 2010, J. Chem. Eng. Data 55:3631) and an overall verdict with reasons.
  * Everything is a plain value owned by the caller; the result's arrays are freed with
  * pw_consistency_result_free. The library never prints. */
@@ -112,7 +112,7 @@ typedef struct pw_cpoint {
     char why[PW_CONSISTENCY_REASON_MAX];
 } pw_cpoint;
 
-/* Kang-type quality factor. Structure Q = F_pure x (F1 + F2 + F3 + F4) from Kang et al. (2010);
+/* evidence score (weighting after Kang et al.). Structure Q = F_pure x (F1 + F2 + F3 + F4) from Kang et al. (2010);
  * the individual factor formulas are this implementation's reading (docs/consistency.md). */
 typedef struct pw_cquality {
     bool ran;

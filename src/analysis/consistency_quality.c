@@ -1,4 +1,4 @@
-/* Kang-type quality factor. Structure from Kang et al. (2010, J. Chem. Eng. Data 55:3631):
+/* evidence score (weighting after Kang et al.). Structure from Kang et al. (2010, J. Chem. Eng. Data 55:3631):
  *     Q = F_pure x (F_area + F_point + F_slope + F_dilution),  each F between 0.025 and 0.25
  * (0.25 when the test passes), so the sum lies in 0.1..1.
  * This implementation's reading, not confirmed against the paper ([M]):
@@ -61,7 +61,7 @@ void pw_cs_quality(const cs_data *d, pw_consistency_result *r)
     else
         q->F_pure = fmax(0.1, end->limit / end->value);
     q->Q = q->F_pure * sum;
-    snprintf(q->note, sizeof q->note, "Kang-type: structure from Kang et al. (2010); factor formulas "
+    snprintf(q->note, sizeof q->note, "weighting after Kang et al. (2010); part formulas "
              "are this implementation's reading%s%s",
              q->slope_used ? "" : "; isobaric: slope test not applied, sum scaled by 4/3",
              end->ran ? "" : "; no pure-component rows: F_pure taken as 1");

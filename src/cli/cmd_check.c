@@ -130,8 +130,8 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
     if (r->quality.ran) {
         const pw_cquality *q = &r->quality;
         char a[200], b[200], c[200], d[200], e[200];
-        printf("  quality score Q = %.3f (0 to 1, dimensionless, 1 best) = pure-component part x (sum\n"
-               "  of the four others):\n"
+        printf("  evidence score S = %.3f (0 to 1, dimensionless, 1 best; weighting after Kang et\n"
+               "  al. 2010) = pure-component part x (sum of the four others):\n"
                "    area %s; point %s;\n    slope %s;\n    dilution %s; pure components %s\n",
                q->Q, with_unit(q->F_area, true, "", r->tests[PW_CTEST_AREA].why_not, a, sizeof a),
                with_unit(q->F_point, true, "", r->tests[PW_CTEST_POINT].why_not, b, sizeof b),

@@ -161,14 +161,14 @@ json_t *pw_check_doc(const pw_dataset *ds, const pw_consistency_result *r, bool 
 
     const pw_cquality *q = &r->quality;
     json_t *qj = json_object();
-    json_object_set_new(qj, "Q", pw_json_num(q->Q));
-    json_object_set_new(qj, "F_area", pw_json_num(q->F_area));
-    json_object_set_new(qj, "F_point", pw_json_num(q->F_point));
-    json_object_set_new(qj, "F_slope", pw_json_num(q->F_slope));
-    json_object_set_new(qj, "F_dilution", pw_json_num(q->F_dilution));
-    json_object_set_new(qj, "F_pure", pw_json_num(q->F_pure));
+    json_object_set_new(qj, "score", pw_json_num(q->Q));
+    json_object_set_new(qj, "area_part", pw_json_num(q->F_area));
+    json_object_set_new(qj, "point_part", pw_json_num(q->F_point));
+    json_object_set_new(qj, "slope_part", pw_json_num(q->F_slope));
+    json_object_set_new(qj, "dilution_part", pw_json_num(q->F_dilution));
+    json_object_set_new(qj, "pure_part", pw_json_num(q->F_pure));
     json_object_set_new(qj, "note", json_string(q->note));
-    json_object_set_new(o, "quality_factor", qj);
+    json_object_set_new(o, "evidence_score", qj);
 
     json_t *pts = json_array(), *flagged = json_array();
     for (size_t i = 0; i < r->n_pts; i++) {

@@ -62,10 +62,10 @@ for p in o["points"]:
     for k in ("line", "x1", "y1", "y1_calc", "dy", "dln_gamma_ratio", "dP_rel", "flagged"):
         assert k in p, k
 assert isinstance(o["flagged"], list)
-q = o["quality_factor"]
-for k in ("Q", "F_area", "F_point", "F_slope", "F_dilution", "F_pure", "note"):
+q = o["evidence_score"]
+for k in ("score", "area_part", "point_part", "slope_part", "dilution_part", "pure_part", "note"):
     assert k in q, k
-assert 0.0 < q["Q"] <= 1.0
+assert 0.0 < q["score"] <= 1.0
 assert o["legendre_fit"]["terms"] in (3, 4, 5)
 assert o["kind"] == "isothermal" and o["components"] == ["mek-svna-ends", "toluene-svna-ends"]
 assert o["reasons"] and o["cautions"]
