@@ -38,7 +38,7 @@ size_t pw_api_error_size(void);
 /* `fit DATA --model MODEL [--components FILE] [--out OUT] [--force] --json`. out may be NULL:
  * then no fit file is written and the document's "fit_file" is null. fit_file (may be NULL)
  * receives the whole fit file's text (what would be written), to pass to the functions below
- * as fit_text. MODEL: margules, vanlaar, wilson, nrtl (or any model of pw_model_all). */
+ * as fit_text. MODEL: the name of any model of pw_model_all (pw_model_names lists them). */
 pw_status pw_api_fit(const char *data, const char *model, const char *components, const char *out,
                      int force, char **doc, char **fit_file, pw_error *err);
 

@@ -43,7 +43,7 @@ typedef struct pw_activity {
 } pw_activity;
 
 typedef struct pw_model_type {
-    const char *name;   /* command-line name: "margules", "vanlaar", "wilson", "nrtl" */
+    const char *name;   /* command-line name, e.g. "nrtl" (pw_model_names lists them all) */
     const char *title;  /* for reports, with its published origin */
     size_t n_params;
     const char *const *param_names;

@@ -133,10 +133,11 @@ pw_status pw_api_fit(const char *data, const char *model, const char *components
     if (st != PW_OK)
         return st;
     const pw_model_type *m = pw_model_find(model);
-    if (!m)
-        return pw_error_set(err, PW_EINVAL, NULL, 0,
-                            "unknown model '%s' (expected margules, vanlaar, wilson or nrtl)",
-                            model);
+    if (!m) {
+        char names[160];
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "unknown model '%s' (expected one of: %s)",
+                            model, pw_model_names(names, sizeof names));
+    }
     pw_complib lib;
     st = pw_complib_load_default(&lib, components, err);
     if (st != PW_OK)

@@ -97,6 +97,7 @@ static void test_refusals(void **state)
     assert_int_equal(pw_api_fit(demo, "no-such-model", NULL, NULL, 0, &doc, NULL, &err), PW_EINVAL);
     assert_null(doc);
     assert_non_null(strstr(err.msg, "unknown model"));
+    assert_non_null(strstr(err.msg, "uniquac")); /* the list comes from the model table */
 
     assert_int_equal(pw_api_fit(demo, "nrtl", NULL, NULL, 0, NULL, NULL, &err), PW_EINVAL);
     assert_int_equal(pw_api_check(NULL, NULL, 0, &doc, &err), PW_EINVAL);
