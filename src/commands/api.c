@@ -120,6 +120,29 @@ static const char *fit_where(const char *fit_path, const char *name)
     return fit_path ? fit_path : name ? name : "fit";
 }
 
+/* Reads the data file and finds its two components in the shipped library (plus components, may be
+ * NULL); mass-fraction columns are converted to mole fractions. On failure nothing is left to free. */
+static pw_status read_data(const char *data, const char *components, pw_dataset *ds,
+                           pw_component found[2], pw_error *err)
+{
+    pw_complib lib;
+    pw_status st = pw_complib_load_default(&lib, components, err);
+    if (st != PW_OK)
+        return st;
+    st = pw_dataset_read(data, ds, err);
+    if (st != PW_OK) {
+        pw_complib_free(&lib);
+        return st;
+    }
+    st = pw_dataset_components(&lib, ds, found, err);
+    if (st == PW_OK)
+        st = pw_dataset_to_mole(ds, &found[0], &found[1], err); /* w1, wy1 columns */
+    pw_complib_free(&lib);
+    if (st != PW_OK)
+        pw_dataset_free(ds);
+    return st;
+}
+
 pw_status pw_api_fit(const char *data, const char *model, const char *components, const char *out,
                      int force, char **doc, char **fit_file, pw_error *err)
 {
@@ -138,27 +161,16 @@ pw_status pw_api_fit(const char *data, const char *model, const char *components
         return pw_error_set(err, PW_EINVAL, NULL, 0, "unknown model '%s' (expected one of: %s)",
                             model, pw_model_names(names, sizeof names));
     }
-    pw_complib lib;
-    st = pw_complib_load_default(&lib, components, err);
+    pw_dataset ds;
+    pw_component found[2];
+    st = read_data(data, components, &ds, found, err);
     if (st != PW_OK)
         return st;
-    pw_dataset ds;
-    st = pw_dataset_read(data, &ds, err);
-    if (st != PW_OK) {
-        pw_complib_free(&lib);
-        return st;
-    }
-    pw_component found[2];
     pw_fit_result r;
     memset(&r, 0, sizeof r);
-    st = pw_dataset_components(&lib, &ds, found, err);
-    if (st == PW_OK)
-        st = pw_dataset_to_mole(&ds, &found[0], &found[1], err); /* w1, wy1 columns */
     pw_fit_options o = pw_fit_default_options();
-    if (st == PW_OK)
-        st = pw_fit_run(&ds, &found[0], &found[1], m, &o, &r, err);
+    st = pw_fit_run(&ds, &found[0], &found[1], m, &o, &r, err);
     pw_dataset_free(&ds);
-    pw_complib_free(&lib);
     if (st != PW_OK)
         return st;
     if (out)
@@ -191,24 +203,15 @@ pw_status pw_api_check(const char *data, const char *components, int strict, cha
     pw_status st = need(data, "a dataset file", err);
     if (st != PW_OK)
         return st;
-    pw_complib lib;
-    st = pw_complib_load_default(&lib, components, err);
+    pw_dataset ds;
+    pw_component found[2];
+    st = read_data(data, components, &ds, found, err);
     if (st != PW_OK)
         return st;
-    pw_dataset ds;
-    st = pw_dataset_read(data, &ds, err);
-    if (st != PW_OK) {
-        pw_complib_free(&lib);
-        return st;
-    }
-    pw_component found[2];
     pw_consistency_result r;
     memset(&r, 0, sizeof r);
     pw_consistency_options o = pw_consistency_default_options();
     o.strict_verdict = strict != 0;
-    st = pw_dataset_components(&lib, &ds, found, err);
-    if (st == PW_OK)
-        st = pw_dataset_to_mole(&ds, &found[0], &found[1], err); /* w1, wy1 columns */
     /* points inside the two-liquid region: out of the one-liquid tests */
     pw_het_check het;
     pw_dataset one;
@@ -223,7 +226,6 @@ pw_status pw_api_check(const char *data, const char *components, int strict, cha
     pw_het_check_free(&het, &one);
     pw_consistency_result_free(&r);
     pw_dataset_free(&ds);
-    pw_complib_free(&lib);
     return st;
 }
 
