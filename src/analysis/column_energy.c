@@ -19,6 +19,7 @@
 
 #include <float.h>
 #include <math.h>
+#include <pinchwise/column_direction.h>
 #include <pinchwise/curve.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -35,27 +36,74 @@ typedef struct en {
     pw_column_spec s;
     double D, B, h_F, h_D, h_B, H_top;
     pw_status cb;
+    bool mirror; /* component 1 to the bottoms: x, y here are fractions of component 2 */
 } en;
+
+/* ---- the equilibrium and the enthalpies in the column's frame ----
+ * With component 1 leaving with the bottoms (xd < zf < xb) the column is solved in the mirrored
+ * frame x -> 1 - x, in which the overhead component is the "light" one; enthalpies do not depend
+ * on the frame. The mirror happens only in these five functions. */
+
+static pw_status e_bubble(en *c, double x, double *y, double *T)
+{
+    if (!c->mirror)
+        return pw_eqp_bubble(&c->e, x, y, T);
+    double yr;
+    pw_status st = pw_eqp_bubble(&c->e, 1.0 - x, &yr, T);
+    if (st == PW_OK)
+        *y = 1.0 - yr;
+    return st;
+}
+
+static pw_status e_x_of_y(en *c, double y, double *x, double *T)
+{
+    if (!c->mirror)
+        return pw_eqp_x_of_y(&c->e, y, x, T);
+    double xr;
+    pw_status st = pw_eqp_x_of_y(&c->e, 1.0 - y, &xr, T);
+    if (st == PW_OK)
+        *x = 1.0 - xr;
+    return st;
+}
+
+static pw_status e_dew(en *c, double y, double *T)
+{
+    pw_eq_point d;
+    pw_status st = pw_dew_T(c->e.sys, c->e.P_Pa, c->mirror ? 1.0 - y : y, &d);
+    if (st == PW_OK)
+        *T = d.T_K;
+    return st;
+}
+
+static pw_status e_hL(en *c, double x, double T, double *h)
+{
+    return pw_enthalpy_liquid(c->e.sys, c->h, c->mirror ? 1.0 - x : x, T, h);
+}
+
+static double e_HV(const en *c, double y, double T)
+{
+    return pw_enthalpy_vapor(c->h, c->mirror ? 1.0 - y : y, T);
+}
 
 /* ---- enthalpies along the saturation curves ---- */
 
 /* The tie line at liquid x: y*, the bubble temperature, h_L, H_V. */
 static pw_status tie(en *c, double x, double *y, double *T, double *hL, double *HV)
 {
-    pw_status st = pw_eqp_bubble(&c->e, x, y, T);
+    pw_status st = e_bubble(c, x, y, T);
     if (st == PW_OK)
-        st = pw_enthalpy_liquid(c->e.sys, c->h, x, *T, hL);
+        st = e_hL(c, x, *T, hL);
     if (st == PW_OK)
-        *HV = pw_enthalpy_vapor(c->h, *y, *T);
+        *HV = e_HV(c, *y, *T);
     return st;
 }
 
 /* Saturated vapor of composition y: its enthalpy (at its dew point) and the liquid x*(y). */
 static pw_status sat_vapor(en *c, double y, double *H, double *x, double *T)
 {
-    pw_status st = pw_eqp_x_of_y(&c->e, y, x, T);
+    pw_status st = e_x_of_y(c, y, x, T);
     if (st == PW_OK)
-        *H = pw_enthalpy_vapor(c->h, y, *T);
+        *H = e_HV(c, y, *T);
     return st;
 }
 
@@ -144,7 +192,7 @@ static pw_status feed_liquid(en *c, double *xf, int *side)
         return PW_OK;
     }
     double xz, Tz;
-    if ((st = pw_eqp_x_of_y(&c->e, s->zf, &xz, &Tz)) != PW_OK)
+    if ((st = e_x_of_y(c, s->zf, &xz, &Tz)) != PW_OK)
         return st;
     if (s->q == 0.0) { /* the saturated vapor z: the tie line ending there */
         *xf = xz;
@@ -399,14 +447,14 @@ typedef struct line_ctx {
 static double line_fn(en *c, double y, void *p)
 {
     line_ctx *l = p;
-    pw_eq_point d;
-    pw_status st = pw_dew_T(c->e.sys, c->e.P_Pa, y, &d);
+    double Td;
+    pw_status st = e_dew(c, y, &Td);
     if (st != PW_OK) {
         if (c->cb == PW_OK)
             c->cb = st;
         return NAN;
     }
-    const double H = pw_enthalpy_vapor(c->h, y, d.T_K);
+    const double H = e_HV(c, y, Td);
     if (l->strip)
         return (H - l->hP) * (l->xn - l->xP) - (l->hn - l->hP) * (y - l->xP);
     return (H - l->hn) * (l->xP - l->xn) - (l->hP - l->hn) * (y - l->xn);
@@ -460,7 +508,7 @@ static pw_status step(en *c, double R, size_t max_stages, pw_profile *out, doubl
         pw_stage g = {0};
         g.y = y;
         g.V = V_next;
-        if ((st = pw_eqp_x_of_y(&c->e, y, &g.x, &g.T_K)) != PW_OK)
+        if ((st = e_x_of_y(c, y, &g.x, &g.T_K)) != PW_OK)
             return st;
         *x_stop = g.x;
         if (g.x <= s->xb) {
@@ -478,7 +526,7 @@ static pw_status step(en *c, double R, size_t max_stages, pw_profile *out, doubl
         if (!feed && g.x < x_int)
             feed = (int)n;
         double hn;
-        if ((st = pw_enthalpy_liquid(c->e.sys, c->h, g.x, g.T_K, &hn)) != PW_OK)
+        if ((st = e_hL(c, g.x, g.T_K, &hn)) != PW_OK)
             return st;
         line_ctx l = {g.x, hn, feed ? s->xb : s->xd, feed ? hdB : hdD, feed != 0};
         double a = g.x, b = feed ? 1.0 : s->xd;
@@ -506,32 +554,34 @@ static pw_status step(en *c, double R, size_t max_stages, pw_profile *out, doubl
     return PW_EMAXITER;
 }
 
+/* mirror: the spec is given with component 1 to the bottoms (xd < zf < xb); the context then
+ * works in the mirrored frame (c->s mirrored too). */
 static pw_status en_init(en *c, const pw_system *sys, const pw_heat_data *heat, double P_Pa,
-                         const pw_column_spec *spec)
+                         const pw_column_spec *spec, bool mirror)
 {
     memset(c, 0, sizeof *c);
     pw_status st = pw_eqp_init(&c->e, sys, P_Pa);
     if (st != PW_OK)
         return st;
     c->h = heat;
-    c->s = *spec;
-    c->D = (spec->zf - spec->xb) / (spec->xd - spec->xb);
+    c->mirror = mirror;
+    c->s = mirror ? pw_column_spec_mirror(spec) : *spec;
+    const pw_column_spec *f = &c->s;
+    c->D = (f->zf - f->xb) / (f->xd - f->xb);
     c->B = 1.0 - c->D;
     /* h_F = H_V - q (H_V - h_L) (pw_enthalpy_feed), from this context's own saturated states so
      * that q = 1 puts the feed point exactly on the liquid curve and q = 0 on the vapor curve. */
     double T, y, hLz, HVz, HVz_T, xz;
-    if ((st = tie(c, spec->zf, &y, &T, &hLz, &HVz_T)) != PW_OK ||
-        (st = sat_vapor(c, spec->zf, &HVz, &xz, &T)) != PW_OK)
+    if ((st = tie(c, f->zf, &y, &T, &hLz, &HVz_T)) != PW_OK ||
+        (st = sat_vapor(c, f->zf, &HVz, &xz, &T)) != PW_OK)
         return st;
-    c->h_F = HVz - spec->q * (HVz - hLz);
-    if ((st = pw_eqp_bubble(&c->e, spec->xd, &y, &T)) != PW_OK ||
-        (st = pw_enthalpy_liquid(sys, heat, spec->xd, T, &c->h_D)) != PW_OK)
+    c->h_F = HVz - f->q * (HVz - hLz);
+    if ((st = e_bubble(c, f->xd, &y, &T)) != PW_OK || (st = e_hL(c, f->xd, T, &c->h_D)) != PW_OK)
         return st;
-    if ((st = pw_eqp_bubble(&c->e, spec->xb, &y, &T)) != PW_OK ||
-        (st = pw_enthalpy_liquid(sys, heat, spec->xb, T, &c->h_B)) != PW_OK)
+    if ((st = e_bubble(c, f->xb, &y, &T)) != PW_OK || (st = e_hL(c, f->xb, T, &c->h_B)) != PW_OK)
         return st;
     double x1;
-    return sat_vapor(c, spec->xd, &c->H_top, &x1, &T);
+    return sat_vapor(c, f->xd, &c->H_top, &x1, &T);
 }
 
 static void en_free(en *c)
@@ -539,9 +589,16 @@ static void en_free(en *c)
     pw_eqp_free(&c->e);
 }
 
+/* Either direction: xb < zf < xd, or xd < zf < xb (component 1 to the bottoms). */
 static bool spec_ok(const pw_column_spec *s)
 {
-    return s && isfinite(s->q) && s->xb >= 0.0 && s->xb < s->zf && s->zf < s->xd && s->xd <= 1.0;
+    return s && isfinite(s->q) && pw_column_direction_of(s) != PW_DIRECTION_NONE &&
+           fmin(s->xb, s->xd) >= 0.0 && fmax(s->xb, s->xd) <= 1.0;
+}
+
+static bool bottoms(const pw_column_spec *s)
+{
+    return pw_column_direction_of(s) == PW_DIRECTION_BOTTOMS;
 }
 
 pw_status pw_energy_profile(const pw_system *sys, const pw_heat_data *heat, double P_Pa,
@@ -552,10 +609,15 @@ pw_status pw_energy_profile(const pw_system *sys, const pw_heat_data *heat, doub
         return PW_EINVAL;
     memset(out, 0, sizeof *out);
     en c;
-    pw_status st = en_init(&c, sys, heat, P_Pa, spec);
+    pw_status st = en_init(&c, sys, heat, P_Pa, spec, bottoms(spec));
     double xs;
     if (st == PW_OK)
         st = step(&c, R, max_stages, out, &xs);
+    if (st == PW_OK && c.mirror) /* fractions of component 1 again */
+        for (size_t i = 0; i < out->n; i++) {
+            out->stage[i].x = 1.0 - out->stage[i].x;
+            out->stage[i].y = 1.0 - out->stage[i].y;
+        }
     if (st == PW_OK) {
         double hdD, hdB;
         deltas(&c, R, &hdD, &hdB);
@@ -593,7 +655,7 @@ static pw_status rmin_search(en *c, size_t grid, double rtol, pw_energy_result *
     double T;
     if (side == 0) {
         out->x_feed = xf;
-        if ((st = pw_eqp_bubble(&c->e, xf, &out->y_feed, &T)) != PW_OK)
+        if ((st = e_bubble(c, xf, &out->y_feed, &T)) != PW_OK)
             return st;
     }
     /* A feed tie line below xb leaves the whole column, [xb, xd], to the rectifying section (the
@@ -631,7 +693,7 @@ static pw_status rmin_search(en *c, size_t grid, double rtol, pw_energy_result *
         out->pinch.section = PW_SECTION_STRIPPING;
         out->pinch.x = s->xb;
     }
-    return pw_eqp_bubble(&c->e, out->pinch.x, &out->pinch.y, &T);
+    return e_bubble(c, out->pinch.x, &out->pinch.y, &T);
 }
 
 pw_status pw_energy_column_solve(const pw_system *sys, const pw_heat_data *heat, double P_Pa,
@@ -661,7 +723,7 @@ pw_status pw_energy_column_solve(const pw_system *sys, const pw_heat_data *heat,
     oc.n_factors = 0;
     if (st == PW_OK) {
         pw_curve curve = pw_system_curve_bind(&sc);
-        st = pw_column_solve(&curve, spec, &oc, &col);
+        st = pw_column_solve_any(&curve, spec, &oc, &col);
     }
     if (st != PW_OK && !col.reason[0])
         return st;
@@ -671,13 +733,19 @@ pw_status pw_energy_column_solve(const pw_system *sys, const pw_heat_data *heat,
     }
     out->n_min = col.n_min;
     en c;
-    st = en_init(&c, sys, heat, P_Pa, spec);
+    st = en_init(&c, sys, heat, P_Pa, spec, bottoms(spec));
     if (st == PW_OK) {
         out->h_F = c.h_F;
         out->h_D = c.h_D;
         out->h_B = c.h_B;
         out->H_top = c.H_top;
         st = rmin_search(&c, o.grid, o.rtol, out);
+    }
+    if (st == PW_OK && c.mirror) { /* the pinch and the feed's tie line in component 1 again */
+        out->pinch.x = 1.0 - out->pinch.x;
+        out->pinch.y = 1.0 - out->pinch.y;
+        out->x_feed = 1.0 - out->x_feed;
+        out->y_feed = 1.0 - out->y_feed;
     }
     en_free(&c);
     if (st != PW_OK || out->reason[0])
@@ -765,12 +833,12 @@ static pw_status rate_sections(rate_en *q, double xd, double xb, double *x_top, 
     c->s.xb = xb;
     pw_status st;
     double y, T, hD, hB, Htop, xx;
-    if ((st = pw_eqp_bubble(&c->e, xd, &y, &T)) != PW_OK ||
-        (st = pw_enthalpy_liquid(c->e.sys, c->h, xd, T, &hD)) != PW_OK ||
+    if ((st = e_bubble(c, xd, &y, &T)) != PW_OK ||
+        (st = e_hL(c, xd, T, &hD)) != PW_OK ||
         (st = sat_vapor(c, xd, &Htop, &xx, &T)) != PW_OK)
         return st;
-    if ((st = pw_eqp_bubble(&c->e, xb, &y, &T)) != PW_OK ||
-        (st = pw_enthalpy_liquid(c->e.sys, c->h, xb, T, &hB)) != PW_OK)
+    if ((st = e_bubble(c, xb, &y, &T)) != PW_OK ||
+        (st = e_hL(c, xb, T, &hB)) != PW_OK)
         return st;
     const double hdD = hD + (r->R + 1.0) * (Htop - hD);
     const double hdB = (c->h_F - D * hdD) / B; /* overall energy balance, F = 1 */
@@ -783,12 +851,12 @@ static pw_status rate_sections(rate_en *q, double xd, double xb, double *x_top, 
     size_t first = prof ? prof->n : 0;
     for (int n = 1; n <= K; n++) {
         pw_stage g = {.y = yv, .V = V};
-        if ((st = pw_eqp_x_of_y(&c->e, yv, &g.x, &g.T_K)) != PW_OK)
+        if ((st = e_x_of_y(c, yv, &g.x, &g.T_K)) != PW_OK)
             return st;
         x = g.x;
         if (n < K) {
             double hn;
-            if ((st = pw_enthalpy_liquid(c->e.sys, c->h, g.x, g.T_K, &hn)) != PW_OK)
+            if ((st = e_hL(c, g.x, g.T_K, &hn)) != PW_OK)
                 return st;
             line_ctx l = {g.x, hn, xd, hdD, false};
             double fa = ev(c, line_fn, &l, g.x, &st);
@@ -876,7 +944,7 @@ pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double 
     pw_column_spec s0 = {
         .xd = fmin(1.0, z + 0.5 * (1.0 - z)), .xb = 0.5 * z, .zf = z, .q = spec->q};
     rate_en q = {.r = spec};
-    st = en_init(&q.c, sys, heat, P_Pa, &s0);
+    st = en_init(&q.c, sys, heat, P_Pa, &s0, false);
     if (st != PW_OK) {
         en_free(&q.c);
         return pw_error_set(err, st, NULL, 0, "rating: %s", pw_strerror(st));

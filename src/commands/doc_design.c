@@ -17,13 +17,6 @@ pw_status pw_reflux_design(const pw_system *sys, double P_Pa, const pw_column_sp
         design->balance = PW_BALANCE_ENERGY;
         if (!energy)
             return PW_EINVAL;
-        if (spec->xd < spec->xb) { /* the enthalpy balances step with component 1 overhead */
-            energy->feasible = false;
-            snprintf(energy->reason, sizeof energy->reason,
-                     "the energy balance is solved only with component 1 going overhead "
-                     "(xb < zf < xd); name the components the other way round for this split");
-            return PW_EINVAL;
-        }
         if (col->feasible)
             return pw_energy_column_solve(sys, heat, P_Pa, spec, opt, energy, design);
         energy->feasible = false;
