@@ -95,9 +95,11 @@ typedef struct pw_energy_result {
     double r_rect, r_strip; /* the limits of each section alone (diagnostics) */
 } pw_energy_result;
 
-/* Options: opt->rtol (R_min), opt->grid (scan points; the extrema are refined and then the
- * answer is checked by stepping just above it, so the grid does not decide it), factors and
- * max_stages for the design table. Infeasible splits are PW_OK with feasible = false. */
+/* Options: opt->rtol (R_min), opt->grid (the coarse bracket of the section searches; every cell
+ * is then proved or halved, so the grid does not decide the answer: docs/column.md section 9),
+ * factors and max_stages for the design table. Either direction: xb < zf < xd, or xd < zf < xb
+ * (component 1 to the bottoms; results in fractions of component 1). Infeasible splits are PW_OK
+ * with feasible = false. */
 pw_status pw_energy_column_solve(const pw_system *sys, const pw_heat_data *heat, double P_Pa,
                                  const pw_column_spec *spec, const pw_column_options *opt,
                                  pw_energy_result *out, pw_design_table *design);
