@@ -137,8 +137,11 @@ pw_status pw_rate_cmo(const pw_system *sys, double P_Pa, const pw_rate_spec *spe
 
 /* The same with an energy balance on every stage (difference points, docs/column.md): DeltaD
  * from R and the products, DeltaB from the overall energy balance. Energy balances can admit more
- * than one steady state: the unknown is scanned on 48 points and every bracketed sign change
- * solved; *n_roots says how many were found, out holds the first (lowest xd, or highest xb).
+ * than one steady state: every root of the feed-stage mismatch is enumerated by a search that
+ * cannot miss one under a checked curvature bound (docs/column.md, "Rating a given column");
+ * *n_roots says how many there are, out holds the one with the lowest distillate purity (lowest
+ * xd, or highest xb); out->iterations counts the residual evaluations. PW_ENOCONV when the
+ * enumeration could not be completed.
  * *Q_C, *Q_R in J per mol feed. PW_EINFEASIBLE when no steady state is found. */
 pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double P_Pa,
                          const pw_rate_spec *spec, pw_rate_result *out, double *Q_C, double *Q_R,
