@@ -95,9 +95,11 @@ typedef struct pw_energy_result {
     double r_rect, r_strip; /* the limits of each section alone (diagnostics) */
 } pw_energy_result;
 
-/* Options: opt->rtol (R_min), opt->grid (scan points; the extrema are refined and then the
- * answer is checked by stepping just above it, so the grid does not decide it), factors and
- * max_stages for the design table. Infeasible splits are PW_OK with feasible = false. */
+/* Options: opt->rtol (R_min), opt->grid (the coarse bracket of the section searches; every cell
+ * is then proved or halved, so the grid does not decide the answer: docs/column.md section 9),
+ * factors and max_stages for the design table. Either direction: xb < zf < xd, or xd < zf < xb
+ * (component 1 to the bottoms; results in fractions of component 1). Infeasible splits are PW_OK
+ * with feasible = false. */
 pw_status pw_energy_column_solve(const pw_system *sys, const pw_heat_data *heat, double P_Pa,
                                  const pw_column_spec *spec, const pw_column_options *opt,
                                  pw_energy_result *out, pw_design_table *design);
@@ -135,8 +137,11 @@ pw_status pw_rate_cmo(const pw_system *sys, double P_Pa, const pw_rate_spec *spe
 
 /* The same with an energy balance on every stage (difference points, docs/column.md): DeltaD
  * from R and the products, DeltaB from the overall energy balance. Energy balances can admit more
- * than one steady state: the unknown is scanned on 48 points and every bracketed sign change
- * solved; *n_roots says how many were found, out holds the first (lowest xd, or highest xb).
+ * than one steady state: every root of the feed-stage mismatch is enumerated by a search that
+ * cannot miss one under a checked curvature bound (docs/column.md, "Rating a given column");
+ * *n_roots says how many there are, out holds the one with the lowest distillate purity (lowest
+ * xd, or highest xb); out->iterations counts the residual evaluations. PW_ENOCONV when the
+ * enumeration could not be completed.
  * *Q_C, *Q_R in J per mol feed. PW_EINFEASIBLE when no steady state is found. */
 pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double P_Pa,
                          const pw_rate_spec *spec, pw_rate_result *out, double *Q_C, double *Q_R,

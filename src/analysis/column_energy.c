@@ -1,36 +1,34 @@
 /* Binary column with an energy balance on every stage (Ponchon 1921; Savarit 1922): difference
  * points DeltaD = (xd, h_D + Q_C/D) and DeltaB = (xb, h_B - Q_R/B), collinear with the feed
  * point (zf, h_F); stage-to-stage stepping along the lines through them; minimum reflux from the
- * tie lines of both sections extended to the products, with a stepping check just above the
- * answer. The enthalpy model is enthalpy.h's. See docs/column.md ("Energy balances").
+ * tie lines of both sections extended to the products. The enthalpy model is enthalpy.h's. See docs/column.md ("Energy balances").
  *
  * Minimum reflux. A tie line (x, h_L) - (y*, H_V) at the bubble point of x, extended to x = xd,
  * meets it at v_r(x) = h_L + (H_V - h_L)(xd - x)/(y* - x); the rectifying section needs
  * h_DeltaD >= v_r(x) for every liquid x it holds, [x_f, xd], where x_f is the liquid of the tie
  * line through the feed point. Likewise the stripping section needs h_DeltaB <= v_s(x) (the tie
- * line extended to xb) on [xb, x_f], which maps through the feed point onto h_DeltaD. The search:
- * a scan of each section (both ends included), every interior local extremum refined by Brent's
- * method, an inward probe beside the feed end; then the column is stepped at (1 + 1e-5) R_min:
- * a staircase cannot jump over a point where the operating curve touches the equilibrium curve
- * (the stage map is increasing, so it cannot pass one of its fixed points), so a pinch the scan
- * missed stops the stepping, and the search is repeated around where it stopped. */
+ * line extended to xb) on [xb, x_f], which maps through the feed point onto h_DeltaD. Each
+ * section's extremum is found by the column module's branch and bound (column_search.c, through
+ * its seam) with a cell bound on the tie-line value from curvature bounds on y*, h_L and the
+ * latent heat: every cell of the section, both ends included, is proved or halved, so no pinch
+ * is missed under the stated assumption (docs/column.md, section 9). */
+#include "analysis/column_internal.h"
 #include "analysis/design_internal.h"
 
 #include "base/solve1d.h"
 
 #include <float.h>
 #include <math.h>
+#include <pinchwise/column_direction.h>
 #include <pinchwise/curve.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 
-#define MIN_ITER 100
 #define ROOT_ITER 200
-#define CERT_REL 1e-5 /* stepping check at (1 + CERT_REL) R_min */
-#define CERT_MAX_STAGES 20000
-#define CERT_REPAIRS 4
-#define PROBE_REL 1e-9
+#define SECT_MIN_CELL_REL 1e-13 /* cells narrower than this (relative to xd - xb) are not halved */
+#define SECT_Y_NOISE 1e-13      /* absolute precision of y* (as the column module's) */
+#define SECT_H_NOISE 1e-6       /* J/mol: of h_L and the latent heat (T to ~1e-10 K, rounding) */
 
 typedef struct en {
     pw_eqp e;
@@ -38,27 +36,74 @@ typedef struct en {
     pw_column_spec s;
     double D, B, h_F, h_D, h_B, H_top;
     pw_status cb;
+    bool mirror; /* component 1 to the bottoms: x, y here are fractions of component 2 */
 } en;
+
+/* ---- the equilibrium and the enthalpies in the column's frame ----
+ * With component 1 leaving with the bottoms (xd < zf < xb) the column is solved in the mirrored
+ * frame x -> 1 - x, in which the overhead component is the "light" one; enthalpies do not depend
+ * on the frame. The mirror happens only in these five functions. */
+
+static pw_status e_bubble(en *c, double x, double *y, double *T)
+{
+    if (!c->mirror)
+        return pw_eqp_bubble(&c->e, x, y, T);
+    double yr;
+    pw_status st = pw_eqp_bubble(&c->e, 1.0 - x, &yr, T);
+    if (st == PW_OK)
+        *y = 1.0 - yr;
+    return st;
+}
+
+static pw_status e_x_of_y(en *c, double y, double *x, double *T)
+{
+    if (!c->mirror)
+        return pw_eqp_x_of_y(&c->e, y, x, T);
+    double xr;
+    pw_status st = pw_eqp_x_of_y(&c->e, 1.0 - y, &xr, T);
+    if (st == PW_OK)
+        *x = 1.0 - xr;
+    return st;
+}
+
+static pw_status e_dew(en *c, double y, double *T)
+{
+    pw_eq_point d;
+    pw_status st = pw_dew_T(c->e.sys, c->e.P_Pa, c->mirror ? 1.0 - y : y, &d);
+    if (st == PW_OK)
+        *T = d.T_K;
+    return st;
+}
+
+static pw_status e_hL(en *c, double x, double T, double *h)
+{
+    return pw_enthalpy_liquid(c->e.sys, c->h, c->mirror ? 1.0 - x : x, T, h);
+}
+
+static double e_HV(const en *c, double y, double T)
+{
+    return pw_enthalpy_vapor(c->h, c->mirror ? 1.0 - y : y, T);
+}
 
 /* ---- enthalpies along the saturation curves ---- */
 
 /* The tie line at liquid x: y*, the bubble temperature, h_L, H_V. */
 static pw_status tie(en *c, double x, double *y, double *T, double *hL, double *HV)
 {
-    pw_status st = pw_eqp_bubble(&c->e, x, y, T);
+    pw_status st = e_bubble(c, x, y, T);
     if (st == PW_OK)
-        st = pw_enthalpy_liquid(c->e.sys, c->h, x, *T, hL);
+        st = e_hL(c, x, *T, hL);
     if (st == PW_OK)
-        *HV = pw_enthalpy_vapor(c->h, *y, *T);
+        *HV = e_HV(c, *y, *T);
     return st;
 }
 
 /* Saturated vapor of composition y: its enthalpy (at its dew point) and the liquid x*(y). */
 static pw_status sat_vapor(en *c, double y, double *H, double *x, double *T)
 {
-    pw_status st = pw_eqp_x_of_y(&c->e, y, x, T);
+    pw_status st = e_x_of_y(c, y, x, T);
     if (st == PW_OK)
-        *H = pw_enthalpy_vapor(c->h, y, *T);
+        *H = e_HV(c, y, *T);
     return st;
 }
 
@@ -110,54 +155,7 @@ static pw_status root(en *c, en_fn f, void *p, double a, double b, double fa, do
     return pw_root1d(adapt_fn, &t, a, b, fa, fb, &o, x, NULL);
 }
 
-/* Maximises sign*f on [a, b] from m (values known, fm at least both ends'). A triple that does
- * not strictly enclose a maximum (a flat stretch) or an iteration limit keeps the best point
- * found: the answer is then that point's value, never above the true maximum. */
-static pw_status refine_max(en *c, en_fn f, void *p, double sign, double a, double m, double b,
-                            double fa, double fm, double fb, double *x, double *v)
-{
-    adapt t = {c, f, p, -sign};
-    if (a > b) {
-        double tx = a, tv = fa;
-        a = b;
-        fa = fb;
-        b = tx;
-        fb = tv;
-    }
-    pw_solve1d_opts o = pw_solve1d_default_opts();
-    o.xtol_abs = 1e-12;
-    o.xtol_rel = 0.0;
-    o.max_iter = MIN_ITER;
-    double xm = m, fmin = -sign * fm;
-    pw_status st =
-        pw_min1d(adapt_fn, &t, a, m, b, -sign * fa, -sign * fm, -sign * fb, &o, &xm, &fmin, NULL);
-    if (st != PW_OK && st != PW_ENOBRACKET && st != PW_EMAXITER)
-        return st;
-    *x = xm;
-    *v = -fmin * sign; /* the value of f itself */
-    return PW_OK;
-}
-
 /* ---- the section values ---- */
-
-/* The tie line at x extended to x = *(double *)p (xd: rectifying, xb: stripping). */
-static double extended_tie(en *c, double x, void *p)
-{
-    const double xe = *(const double *)p;
-    double y, T, hL, HV;
-    pw_status st = tie(c, x, &y, &T, &hL, &HV);
-    if (st != PW_OK) {
-        if (c->cb == PW_OK)
-            c->cb = st;
-        return NAN;
-    }
-    if (!(y > x)) {
-        if (c->cb == PW_OK)
-            c->cb = PW_EINFEASIBLE;
-        return NAN;
-    }
-    return hL + (HV - hL) * (xe - x) / (y - x);
-}
 
 /* The tie line through the feed point (z, h_F): zero at x_f. */
 static double feed_tie(en *c, double x, void *p)
@@ -194,7 +192,7 @@ static pw_status feed_liquid(en *c, double *xf, int *side)
         return PW_OK;
     }
     double xz, Tz;
-    if ((st = pw_eqp_x_of_y(&c->e, s->zf, &xz, &Tz)) != PW_OK)
+    if ((st = e_x_of_y(c, s->zf, &xz, &Tz)) != PW_OK)
         return st;
     if (s->q == 0.0) { /* the saturated vapor z: the tie line ending there */
         *xf = xz;
@@ -230,80 +228,210 @@ static pw_status feed_liquid(en *c, double *xf, int *side)
     return PW_OK;
 }
 
-/* Extremum of sign * v over [a, b] (sign = +1 max, -1 min), the end `fe` (a or b) being the feed
- * end. Scan of n points, every interior local extremum refined, inward probe at the feed end. */
-static pw_status section_extremum(en *c, double xe, double sign, double a, double b, bool feed_at_a,
-                                  size_t n, double *x_best, double *v_best, bool *at_feed)
+/* ---- the section search: the column module's branch and bound on the tie-line values ---- */
+
+/* One section's search. The quantities sampled at a liquid x are y*(x), h_L(x) and the tie line's
+ * latent heat lambda(x) = H_V(y*) - h_L (both at the bubble point of x); the value maximised is
+ * sigma h_L + lambda u/(y* - x), u = |p - x|: v_r(x) with sigma = +1, p = xd (rectifying), and
+ * -v_s(x) with sigma = -1, p = xb (stripping). */
+typedef struct esect {
+    en *c;
+    double p, sigma, dir; /* pole, sign of h_L, +1 when the pole is right of the section */
+    double rtol;
+    pw_section_pt *pts; /* the coarse scan */
+    size_t n;
+} esect;
+
+static pw_status es_sample(void *ctx, double x, double *q)
 {
-    if (n < 3)
-        return PW_EINVAL;
-    double *xs = calloc(2 * n, sizeof *xs);
-    if (!xs)
-        return PW_ENOMEM;
-    double *vs = xs + n;
-    pw_status st = PW_OK;
-    for (size_t j = 0; j < n && st == PW_OK; j++) {
-        xs[j] = j + 1 == n ? b : a + (b - a) * (double)j / (double)(n - 1);
-        vs[j] = sign * ev(c, extended_tie, &xe, xs[j], &st);
-    }
-    if (st != PW_OK) {
-        free(xs);
+    esect *e = ctx;
+    double y, T, hL, HV;
+    pw_status st = tie(e->c, x, &y, &T, &hL, &HV);
+    if (st != PW_OK)
         return st;
+    if (!(y > x))
+        return PW_EINFEASIBLE; /* the feasibility check rules this out on [xb, xd] */
+    q[0] = y;
+    q[1] = hL;
+    q[2] = HV - hL;
+    return PW_OK;
+}
+
+static double es_value(void *ctx, double x, const double *q)
+{
+    const esect *e = ctx;
+    return e->sigma * q[1] + q[2] * fabs(e->p - x) / (q[0] - x);
+}
+
+static void es_point(void *ctx, size_t i, pw_section_pt *pt)
+{
+    const esect *e = ctx;
+    *pt = e->pts[i];
+}
+
+/* Interval arithmetic for the cell bound. */
+typedef struct iv {
+    double lo, hi;
+} iv;
+
+static iv iv_add(iv a, iv b)
+{
+    return (iv){a.lo + b.lo, a.hi + b.hi};
+}
+
+static iv iv_mul(iv a, iv b)
+{
+    double p[4] = {a.lo * b.lo, a.lo * b.hi, a.hi * b.lo, a.hi * b.hi};
+    iv r = {p[0], p[0]};
+    for (int i = 1; i < 4; i++) {
+        r.lo = fmin(r.lo, p[i]);
+        r.hi = fmax(r.hi, p[i]);
     }
-    size_t ef = feed_at_a ? 0 : n - 1;
-    *x_best = xs[ef];
-    double best = vs[ef];
-    *at_feed = true;
-    for (size_t j = 0; j < n && st == PW_OK; j++) {
-        bool interior = j > 0 && j + 1 < n;
-        if (!interior) {
-            if (j != ef && vs[j] > best) { /* the product end (never limits in practice) */
-                best = vs[j];
-                *x_best = xs[j];
-                *at_feed = false;
-            }
-            continue;
-        }
-        if (!(vs[j] >= vs[j - 1] && vs[j] >= vs[j + 1]))
-            continue;
-        double xr, vr;
-        st = refine_max(c, extended_tie, &xe, sign, xs[j - 1], xs[j], xs[j + 1], sign * vs[j - 1],
-                        sign * vs[j], sign * vs[j + 1], &xr, &vr);
-        if (st == PW_OK && sign * vr > best) {
-            best = sign * vr;
-            *x_best = xr;
-            *at_feed = false;
-        }
+    return r;
+}
+
+static iv iv_scale(double k, iv a)
+{
+    return k >= 0.0 ? (iv){k * a.lo, k * a.hi} : (iv){k * a.hi, k * a.lo};
+}
+
+static iv iv_inv_pos(iv a) /* 1/a for a > 0 */
+{
+    return (iv){1.0 / a.hi, 1.0 / a.lo};
+}
+
+/* A quantity with |q''| <= K on [a, b] (values noisy by n): its range and its slope's range. */
+static iv iv_range(double qa, double qb, double K, double h, double n)
+{
+    const double d = K * h * h / 8.0 + n;
+    return (iv){fmin(qa, qb) - d, fmax(qa, qb) + d};
+}
+
+static iv iv_slope(double qa, double qb, double K, double h, double n)
+{
+    const double s = (qb - qa) / h, d = 0.5 * K * h + 2.0 * n / h;
+    return (iv){s - d, s + d};
+}
+
+/* Upper bound of the value on a cell. With |y*''| <= K0, |h_L''| <= K1, |lambda''| <= K2 the
+ * value's second derivative, v'' = sigma h_L'' + lambda'' w + 2 lambda' w' + lambda w'' with
+ * w = u/g, g = y* - x,
+ *     w'  = (u' g - u g')/g^2,   w'' = -2 u' g'/g^2 - u g''/g^2 + 2 u g'^2/g^3,
+ * is bounded above by interval arithmetic over the cell (each quantity within K h^2/8 of its
+ * chord, its slope within K h/2 of the chord's, its second derivative within +-K). With
+ * v'' <= Kc, v <= chord + Kc (x - a)(b - x)/2, whose maximum is closed-form; the noise of the
+ * values at the ends is added. A cell where g may vanish gets no bound (it is halved). */
+static double es_bound(void *ctx, const pw_section_pt *pa, const pw_section_pt *pb, const double *K)
+{
+    const esect *e = ctx;
+    const double a = pa->x, b = pb->x, h = b - a, n0 = SECT_Y_NOISE, nh = SECT_H_NOISE;
+    const iv g = iv_range(pa->q[0] - a, pb->q[0] - b, K[0], h, n0);
+    if (!(g.lo > 0.0))
+        return INFINITY;
+    const iv g1 = iv_slope(pa->q[0] - a, pb->q[0] - b, K[0], h, n0);
+    const iv g2 = {-K[0], K[0]};
+    const iv h2 = {-K[1], K[1]};
+    const iv l0 = iv_range(pa->q[2], pb->q[2], K[2], h, nh);
+    const iv l1 = iv_slope(pa->q[2], pb->q[2], K[2], h, nh);
+    const iv l2 = {-K[2], K[2]};
+    const double ua = fabs(e->p - a), ub = fabs(e->p - b), du = -e->dir; /* u' */
+    const iv u = {fmin(ua, ub), fmax(ua, ub)};
+    const iv ig = iv_inv_pos(g), ig2 = iv_mul(ig, ig), ig3 = iv_mul(ig2, ig);
+    const iv w = iv_mul(u, ig);
+    const iv w1 = iv_mul(iv_add(iv_scale(du, g), iv_scale(-1.0, iv_mul(u, g1))), ig2);
+    iv g1sq = iv_mul(g1, g1);
+    if (g1.lo < 0.0 && g1.hi > 0.0)
+        g1sq.lo = 0.0;
+    iv w2 = iv_scale(-2.0 * du, iv_mul(g1, ig2));
+    w2 = iv_add(w2, iv_scale(-1.0, iv_mul(iv_mul(u, g2), ig2)));
+    w2 = iv_add(w2, iv_scale(2.0, iv_mul(iv_mul(u, g1sq), ig3)));
+    iv v2 = iv_scale(e->sigma, h2);
+    v2 = iv_add(v2, iv_mul(l2, w));
+    v2 = iv_add(v2, iv_scale(2.0, iv_mul(l1, w1)));
+    v2 = iv_add(v2, iv_mul(l0, w2));
+    const double Kc = v2.hi;
+    const double va = es_value(ctx, a, pa->q), vb = es_value(ctx, b, pb->q);
+    const double noise = nh + nh * u.hi / g.lo + fmax(fabs(l0.lo), fabs(l0.hi)) * u.hi * n0 /
+                                                     (g.lo * g.lo);
+    if (!isfinite(Kc))
+        return INFINITY;
+    const double sv = (vb - va) / h;
+    double best = fmax(va, vb);
+    if (Kc > 0.0) {
+        double xs = fmin(b, fmax(a, a + 0.5 * h + sv / Kc));
+        best = fmax(best, va + sv * (xs - a) + 0.5 * Kc * (xs - a) * (b - xs));
     }
-    /* Rising just inside the feed end, below the grid's resolution? */
+    return best + noise;
+}
+
+/* 0.1 rtol of R (at least of 1) in the value's units, a rounding floor, and the precision of the
+ * best value itself. dR/dv = 1/(H_V(xd) - h_D) (rectifying) or f/(H_V(xd) - h_D) with
+ * f = (xd - zf)/(zf - xb) (stripping, through the feed point). */
+static double es_tol(void *ctx, double best, const pw_section_pt *at)
+{
+    const esect *e = ctx;
+    const en *c = e->c;
+    const double lam = c->H_top - c->h_D;
+    const double f = e->sigma > 0.0 ? 1.0 : (c->s.xd - c->s.zf) / (c->s.zf - c->s.xb);
+    const double hdD =
+        e->sigma > 0.0 ? best : c->h_F + (c->h_F + best) * (c->s.xd - c->s.zf) / (c->s.zf - c->s.xb);
+    const double R = (hdD - c->H_top) / lam;
+    double t = 0.1 * e->rtol * lam * fmax(1.0, fabs(R)) / f;
+    t = fmax(t, 16.0 * DBL_EPSILON * fabs(best));
+    const double u = fabs(e->p - at->x), g = at->q[0] - at->x;
+    return t + SECT_H_NOISE * (1.0 + u / g) + at->q[2] * u * SECT_Y_NOISE / (g * g);
+}
+
+/* The extremum of one section over [lo, hi]: the maximum of v_r (rectifying, pole xd) or the
+ * minimum of v_s (stripping, pole xb); the feed end (lo for the rectifying section, hi for the
+ * stripping one) is the end candidate and wins ties (*at_feed). */
+static pw_status section_search(en *c, bool rect, double lo, double hi, size_t grid, double rtol,
+                                double *x_best, double *v_best, bool *at_feed)
+{
+    if (!(lo < hi))
+        return PW_EINVAL;
+    esect e = {.c = c,
+               .p = rect ? c->s.xd : c->s.xb,
+               .sigma = rect ? 1.0 : -1.0,
+               .dir = rect ? 1.0 : -1.0,
+               .rtol = rtol,
+               .n = grid};
+    e.pts = calloc(grid, sizeof *e.pts);
+    if (!e.pts)
+        return PW_ENOMEM;
+    pw_status st = PW_OK;
+    double scale[PW_SECTION_MAXQ] = {0.0, 0.0, 0.0};
+    for (size_t j = 0; j < grid && st == PW_OK; j++) {
+        e.pts[j].x = j + 1 == grid ? hi : lo + (hi - lo) * (double)j / (double)(grid - 1);
+        st = es_sample(&e, e.pts[j].x, e.pts[j].q);
+        for (size_t k = 0; st == PW_OK && k < PW_SECTION_MAXQ; k++)
+            scale[k] = fmax(scale[k], fabs(e.pts[j].q[k]));
+    }
     if (st == PW_OK) {
-        size_t nb = feed_at_a ? 1 : n - 2;
-        double d = xs[nb] - xs[ef];
-        double xp = xs[ef] + PROBE_REL * (b - a) * (d > 0 ? 1.0 : -1.0);
-        double vp = sign * ev(c, extended_tie, &xe, xp, &st);
-        if (st == PW_OK && vp > vs[ef] && vs[nb] < vp) {
-            double xo = xs[nb], vo = vs[nb];
-            for (int i = 1; i < 60 && st == PW_OK; i++) {
-                double xm = xs[ef] + d * ldexp(1.0, -i);
-                double vm = sign * ev(c, extended_tie, &xe, xm, &st);
-                if (st == PW_OK && vm > vs[ef] && vm > vo) {
-                    double xr, vr;
-                    st = refine_max(c, extended_tie, &xe, sign, xs[ef], xm, xo, sign * vs[ef],
-                                    sign * vm, sign * vo, &xr, &vr);
-                    if (st == PW_OK && sign * vr > best) {
-                        best = sign * vr;
-                        *x_best = xr;
-                        *at_feed = false;
-                    }
-                    break;
-                }
-                xo = xm;
-                vo = vm;
-            }
+        pw_section_fn f = {.ctx = &e,
+                           .nq = 3,
+                           .two_sided = true,
+                           .sample = es_sample,
+                           .value = es_value,
+                           .bound = es_bound,
+                           .tol = es_tol,
+                           .point = es_point,
+                           .noise = {SECT_Y_NOISE, SECT_H_NOISE, SECT_H_NOISE},
+                           .xtol = fmax(2.0 * sqrt(DBL_EPSILON), 1e-3 * sqrt(rtol)),
+                           .min_width = SECT_MIN_CELL_REL * (c->s.xd - c->s.xb)};
+        const double floor[PW_SECTION_MAXQ] = {1e-6, 1e-6 * (1.0 + scale[1]),
+                                               1e-6 * (1.0 + scale[2])};
+        pw_section_conv_init(&f, grid, floor);
+        pw_section_pt best;
+        double v;
+        st = pw_section_maximise(&f, grid, rect ? &e.pts[0] : &e.pts[grid - 1], &best, &v,
+                                 at_feed);
+        if (st == PW_OK) {
+            *x_best = best.x;
+            *v_best = rect ? v : -v;
         }
     }
-    free(xs);
-    *v_best = sign * best;
+    free(e.pts);
     return st;
 }
 
@@ -319,14 +447,14 @@ typedef struct line_ctx {
 static double line_fn(en *c, double y, void *p)
 {
     line_ctx *l = p;
-    pw_eq_point d;
-    pw_status st = pw_dew_T(c->e.sys, c->e.P_Pa, y, &d);
+    double Td;
+    pw_status st = e_dew(c, y, &Td);
     if (st != PW_OK) {
         if (c->cb == PW_OK)
             c->cb = st;
         return NAN;
     }
-    const double H = pw_enthalpy_vapor(c->h, y, d.T_K);
+    const double H = e_HV(c, y, Td);
     if (l->strip)
         return (H - l->hP) * (l->xn - l->xP) - (l->hn - l->hP) * (y - l->xP);
     return (H - l->hn) * (l->xP - l->xn) - (l->hP - l->hn) * (y - l->xn);
@@ -380,7 +508,7 @@ static pw_status step(en *c, double R, size_t max_stages, pw_profile *out, doubl
         pw_stage g = {0};
         g.y = y;
         g.V = V_next;
-        if ((st = pw_eqp_x_of_y(&c->e, y, &g.x, &g.T_K)) != PW_OK)
+        if ((st = e_x_of_y(c, y, &g.x, &g.T_K)) != PW_OK)
             return st;
         *x_stop = g.x;
         if (g.x <= s->xb) {
@@ -398,7 +526,7 @@ static pw_status step(en *c, double R, size_t max_stages, pw_profile *out, doubl
         if (!feed && g.x < x_int)
             feed = (int)n;
         double hn;
-        if ((st = pw_enthalpy_liquid(c->e.sys, c->h, g.x, g.T_K, &hn)) != PW_OK)
+        if ((st = e_hL(c, g.x, g.T_K, &hn)) != PW_OK)
             return st;
         line_ctx l = {g.x, hn, feed ? s->xb : s->xd, feed ? hdB : hdD, feed != 0};
         double a = g.x, b = feed ? 1.0 : s->xd;
@@ -426,32 +554,34 @@ static pw_status step(en *c, double R, size_t max_stages, pw_profile *out, doubl
     return PW_EMAXITER;
 }
 
+/* mirror: the spec is given with component 1 to the bottoms (xd < zf < xb); the context then
+ * works in the mirrored frame (c->s mirrored too). */
 static pw_status en_init(en *c, const pw_system *sys, const pw_heat_data *heat, double P_Pa,
-                         const pw_column_spec *spec)
+                         const pw_column_spec *spec, bool mirror)
 {
     memset(c, 0, sizeof *c);
     pw_status st = pw_eqp_init(&c->e, sys, P_Pa);
     if (st != PW_OK)
         return st;
     c->h = heat;
-    c->s = *spec;
-    c->D = (spec->zf - spec->xb) / (spec->xd - spec->xb);
+    c->mirror = mirror;
+    c->s = mirror ? pw_column_spec_mirror(spec) : *spec;
+    const pw_column_spec *f = &c->s;
+    c->D = (f->zf - f->xb) / (f->xd - f->xb);
     c->B = 1.0 - c->D;
     /* h_F = H_V - q (H_V - h_L) (pw_enthalpy_feed), from this context's own saturated states so
      * that q = 1 puts the feed point exactly on the liquid curve and q = 0 on the vapor curve. */
     double T, y, hLz, HVz, HVz_T, xz;
-    if ((st = tie(c, spec->zf, &y, &T, &hLz, &HVz_T)) != PW_OK ||
-        (st = sat_vapor(c, spec->zf, &HVz, &xz, &T)) != PW_OK)
+    if ((st = tie(c, f->zf, &y, &T, &hLz, &HVz_T)) != PW_OK ||
+        (st = sat_vapor(c, f->zf, &HVz, &xz, &T)) != PW_OK)
         return st;
-    c->h_F = HVz - spec->q * (HVz - hLz);
-    if ((st = pw_eqp_bubble(&c->e, spec->xd, &y, &T)) != PW_OK ||
-        (st = pw_enthalpy_liquid(sys, heat, spec->xd, T, &c->h_D)) != PW_OK)
+    c->h_F = HVz - f->q * (HVz - hLz);
+    if ((st = e_bubble(c, f->xd, &y, &T)) != PW_OK || (st = e_hL(c, f->xd, T, &c->h_D)) != PW_OK)
         return st;
-    if ((st = pw_eqp_bubble(&c->e, spec->xb, &y, &T)) != PW_OK ||
-        (st = pw_enthalpy_liquid(sys, heat, spec->xb, T, &c->h_B)) != PW_OK)
+    if ((st = e_bubble(c, f->xb, &y, &T)) != PW_OK || (st = e_hL(c, f->xb, T, &c->h_B)) != PW_OK)
         return st;
     double x1;
-    return sat_vapor(c, spec->xd, &c->H_top, &x1, &T);
+    return sat_vapor(c, f->xd, &c->H_top, &x1, &T);
 }
 
 static void en_free(en *c)
@@ -459,9 +589,16 @@ static void en_free(en *c)
     pw_eqp_free(&c->e);
 }
 
+/* Either direction: xb < zf < xd, or xd < zf < xb (component 1 to the bottoms). */
 static bool spec_ok(const pw_column_spec *s)
 {
-    return s && isfinite(s->q) && s->xb >= 0.0 && s->xb < s->zf && s->zf < s->xd && s->xd <= 1.0;
+    return s && isfinite(s->q) && pw_column_direction_of(s) != PW_DIRECTION_NONE &&
+           fmin(s->xb, s->xd) >= 0.0 && fmax(s->xb, s->xd) <= 1.0;
+}
+
+static bool bottoms(const pw_column_spec *s)
+{
+    return pw_column_direction_of(s) == PW_DIRECTION_BOTTOMS;
 }
 
 pw_status pw_energy_profile(const pw_system *sys, const pw_heat_data *heat, double P_Pa,
@@ -472,10 +609,15 @@ pw_status pw_energy_profile(const pw_system *sys, const pw_heat_data *heat, doub
         return PW_EINVAL;
     memset(out, 0, sizeof *out);
     en c;
-    pw_status st = en_init(&c, sys, heat, P_Pa, spec);
+    pw_status st = en_init(&c, sys, heat, P_Pa, spec, bottoms(spec));
     double xs;
     if (st == PW_OK)
         st = step(&c, R, max_stages, out, &xs);
+    if (st == PW_OK && c.mirror) /* fractions of component 1 again */
+        for (size_t i = 0; i < out->n; i++) {
+            out->stage[i].x = 1.0 - out->stage[i].x;
+            out->stage[i].y = 1.0 - out->stage[i].y;
+        }
     if (st == PW_OK) {
         double hdD, hdB;
         deltas(&c, R, &hdD, &hdB);
@@ -502,7 +644,7 @@ static double hdD_of_hdB(const en *c, double hdB)
     return c->h_F + (c->h_F - hdB) * (c->s.xd - c->s.zf) / (c->s.zf - c->s.xb);
 }
 
-static pw_status rmin_search(en *c, size_t grid, pw_energy_result *out)
+static pw_status rmin_search(en *c, size_t grid, double rtol, pw_energy_result *out)
 {
     const pw_column_spec *s = &c->s;
     double xf;
@@ -513,83 +655,45 @@ static pw_status rmin_search(en *c, size_t grid, pw_energy_result *out)
     double T;
     if (side == 0) {
         out->x_feed = xf;
-        if ((st = pw_eqp_bubble(&c->e, xf, &out->y_feed, &T)) != PW_OK)
+        if ((st = e_bubble(c, xf, &out->y_feed, &T)) != PW_OK)
             return st;
     }
-    /* A feed tie line below xb leaves the whole column to the rectifying section (the reboiler
-     * duty's floor, zero, may then limit: see below); above xd, to the stripping section (and
-     * R >= 0 may limit). */
+    /* A feed tie line below xb leaves the whole column, [xb, xd], to the rectifying section (the
+     * reboiler duty's floor, zero, may then limit: see below); above xd, to the stripping section
+     * (and R >= 0 may limit). */
     double xr = xf, vr = -INFINITY, xs_ = xf, vs_ = INFINITY;
     bool fr = false, fs = false;
-    if (side <= 0 &&
-        (st = section_extremum(c, s->xd, 1.0, xf, s->xd, true, grid, &xr, &vr, &fr)) != PW_OK)
+    if (side <= 0 && (st = section_search(c, true, fmax(xf, s->xb), s->xd, grid, rtol, &xr, &vr,
+                                          &fr)) != PW_OK)
         return st;
-    if (side >= 0 &&
-        (st = section_extremum(c, s->xb, -1.0, s->xb, xf, false, grid, &xs_, &vs_, &fs)) != PW_OK)
+    if (side >= 0 && (st = section_search(c, false, s->xb, fmin(xf, s->xd), grid, rtol, &xs_,
+                                          &vs_, &fs)) != PW_OK)
         return st;
     if (side != 0) {
-        fr = fs = false; /* the end of the scan is a product, not a feed point */
+        fr = fs = false; /* the end of the search is a product, not a feed point */
     }
-    /* The stepping check: a pinch the scan missed stops the staircase just above R_min. */
-    for (int rep = 0;; rep++) {
-        out->r_rect = reflux_of(c, vr);
-        out->r_strip = reflux_of(c, hdD_of_hdB(c, vs_));
-        bool rect = out->r_rect >= out->r_strip || (fr && fs);
-        out->r_min = fmax(out->r_rect, out->r_strip);
-        out->pinch.section = rect ? PW_SECTION_RECTIFYING : PW_SECTION_STRIPPING;
-        out->pinch.kind = (rect ? fr : fs) ? PW_PINCH_FEED : PW_PINCH_TANGENT;
-        out->pinch.x = rect ? xr : xs_;
-        if (!(out->r_min > 0.0)) {
-            out->r_min = 0.0;
-            out->reflux_limited = true;
-        }
-        double hdD, hdB;
-        deltas(c, out->r_min, &hdD, &hdB);
-        if (!(hdB < c->h_B)) { /* no reboiler duty left: the feed brings the heat */
-            out->reflux_limited = false;
-            out->boilup_limited = true;
-            out->r_min = reflux_of(c, hdD_of_hdB(c, c->h_B));
-            out->pinch.kind = PW_PINCH_FEED;
-            out->pinch.section = PW_SECTION_STRIPPING;
-            out->pinch.x = s->xb;
-        }
-        if ((st = pw_eqp_bubble(&c->e, out->pinch.x, &out->pinch.y, &T)) != PW_OK)
-            return st;
-        if (out->reflux_limited || out->boilup_limited || rep == CERT_REPAIRS)
-            return PW_OK;
-        double x_stop = NAN;
-        double Rc = out->r_min * (1.0 + CERT_REL) + 1e-12;
-        st = step(c, Rc, CERT_MAX_STAGES, NULL, &x_stop);
-        if (st == PW_OK)
-            return PW_OK;
-        if (st != PW_EINFEASIBLE && st != PW_EMAXITER)
-            return st;
-        /* Search again around where the staircase stopped, in the section it was in. */
-        double w = 2.0 * (s->xd - s->xb) / (double)(grid - 1);
-        bool in_rect = x_stop > xf;
-        double a = in_rect ? fmax(xf, x_stop - w) : fmax(s->xb, x_stop - w);
-        double b = in_rect ? fmin(s->xd, x_stop + w) : fmin(xf, x_stop + w);
-        double xn, vn;
-        bool fn;
-        if (in_rect) {
-            if ((st = section_extremum(c, s->xd, 1.0, a, b, a == xf, grid, &xn, &vn, &fn)) != PW_OK)
-                return st;
-            if (!(vn > vr))
-                return PW_OK; /* nothing higher: the stepping limit, not a missed pinch */
-            vr = vn;
-            xr = xn;
-            fr = fn && a == xf;
-        } else {
-            if ((st = section_extremum(c, s->xb, -1.0, a, b, b != xf, grid, &xn, &vn, &fn)) !=
-                PW_OK)
-                return st;
-            if (!(vn < vs_))
-                return PW_OK;
-            vs_ = vn;
-            xs_ = xn;
-            fs = fn && b == xf;
-        }
+    out->r_rect = reflux_of(c, vr);
+    out->r_strip = reflux_of(c, hdD_of_hdB(c, vs_));
+    bool rect = out->r_rect >= out->r_strip || (fr && fs);
+    out->r_min = fmax(out->r_rect, out->r_strip);
+    out->pinch.section = rect ? PW_SECTION_RECTIFYING : PW_SECTION_STRIPPING;
+    out->pinch.kind = (rect ? fr : fs) ? PW_PINCH_FEED : PW_PINCH_TANGENT;
+    out->pinch.x = rect ? xr : xs_;
+    if (!(out->r_min > 0.0)) {
+        out->r_min = 0.0;
+        out->reflux_limited = true;
     }
+    double hdD, hdB;
+    deltas(c, out->r_min, &hdD, &hdB);
+    if (!(hdB < c->h_B)) { /* no reboiler duty left: the feed brings the heat */
+        out->reflux_limited = false;
+        out->boilup_limited = true;
+        out->r_min = reflux_of(c, hdD_of_hdB(c, c->h_B));
+        out->pinch.kind = PW_PINCH_FEED;
+        out->pinch.section = PW_SECTION_STRIPPING;
+        out->pinch.x = s->xb;
+    }
+    return e_bubble(c, out->pinch.x, &out->pinch.y, &T);
 }
 
 pw_status pw_energy_column_solve(const pw_system *sys, const pw_heat_data *heat, double P_Pa,
@@ -619,7 +723,7 @@ pw_status pw_energy_column_solve(const pw_system *sys, const pw_heat_data *heat,
     oc.n_factors = 0;
     if (st == PW_OK) {
         pw_curve curve = pw_system_curve_bind(&sc);
-        st = pw_column_solve(&curve, spec, &oc, &col);
+        st = pw_column_solve_any(&curve, spec, &oc, &col);
     }
     if (st != PW_OK && !col.reason[0])
         return st;
@@ -629,13 +733,19 @@ pw_status pw_energy_column_solve(const pw_system *sys, const pw_heat_data *heat,
     }
     out->n_min = col.n_min;
     en c;
-    st = en_init(&c, sys, heat, P_Pa, spec);
+    st = en_init(&c, sys, heat, P_Pa, spec, bottoms(spec));
     if (st == PW_OK) {
         out->h_F = c.h_F;
         out->h_D = c.h_D;
         out->h_B = c.h_B;
         out->H_top = c.H_top;
-        st = rmin_search(&c, o.grid, out);
+        st = rmin_search(&c, o.grid, o.rtol, out);
+    }
+    if (st == PW_OK && c.mirror) { /* the pinch and the feed's tie line in component 1 again */
+        out->pinch.x = 1.0 - out->pinch.x;
+        out->pinch.y = 1.0 - out->pinch.y;
+        out->x_feed = 1.0 - out->x_feed;
+        out->y_feed = 1.0 - out->y_feed;
     }
     en_free(&c);
     if (st != PW_OK || out->reason[0])
@@ -723,12 +833,12 @@ static pw_status rate_sections(rate_en *q, double xd, double xb, double *x_top, 
     c->s.xb = xb;
     pw_status st;
     double y, T, hD, hB, Htop, xx;
-    if ((st = pw_eqp_bubble(&c->e, xd, &y, &T)) != PW_OK ||
-        (st = pw_enthalpy_liquid(c->e.sys, c->h, xd, T, &hD)) != PW_OK ||
+    if ((st = e_bubble(c, xd, &y, &T)) != PW_OK ||
+        (st = e_hL(c, xd, T, &hD)) != PW_OK ||
         (st = sat_vapor(c, xd, &Htop, &xx, &T)) != PW_OK)
         return st;
-    if ((st = pw_eqp_bubble(&c->e, xb, &y, &T)) != PW_OK ||
-        (st = pw_enthalpy_liquid(c->e.sys, c->h, xb, T, &hB)) != PW_OK)
+    if ((st = e_bubble(c, xb, &y, &T)) != PW_OK ||
+        (st = e_hL(c, xb, T, &hB)) != PW_OK)
         return st;
     const double hdD = hD + (r->R + 1.0) * (Htop - hD);
     const double hdB = (c->h_F - D * hdD) / B; /* overall energy balance, F = 1 */
@@ -741,12 +851,12 @@ static pw_status rate_sections(rate_en *q, double xd, double xb, double *x_top, 
     size_t first = prof ? prof->n : 0;
     for (int n = 1; n <= K; n++) {
         pw_stage g = {.y = yv, .V = V};
-        if ((st = pw_eqp_x_of_y(&c->e, yv, &g.x, &g.T_K)) != PW_OK)
+        if ((st = e_x_of_y(c, yv, &g.x, &g.T_K)) != PW_OK)
             return st;
         x = g.x;
         if (n < K) {
             double hn;
-            if ((st = pw_enthalpy_liquid(c->e.sys, c->h, g.x, g.T_K, &hn)) != PW_OK)
+            if ((st = e_hL(c, g.x, g.T_K, &hn)) != PW_OK)
                 return st;
             line_ctx l = {g.x, hn, xd, hdD, false};
             double fa = ev(c, line_fn, &l, g.x, &st);
@@ -816,6 +926,178 @@ static pw_status rate_residual(void *p, double w, double *f)
 }
 
 #define RATE_SCAN 48
+#define RATE_MAX_EVALS 3000    /* residual evaluations for the proof (each steps the column) */
+#define RATE_RESTARTS 8        /* K raised when a midpoint shows more curvature than K allows */
+#define RATE_NOISE 1e-12       /* absolute precision assumed of the mismatch (a liquid fraction) */
+#define RATE_EDGE_REL 1e-9     /* the edge of the products' domain is located to this (relative) */
+#define RATE_MIN_CELL_REL 1e-13
+#define RATE_MAX_ROOTS 32
+#define RATE_STACK 256
+
+/* ---- every steady state of the rating, by a root enumeration that cannot miss one ----
+ * The mismatch r(w) of the two sections at the feed stage is smooth where it is defined (trial
+ * products with a reboiler duty and a staircase on both sides). Assumption: |r''| <= K there, K
+ * from the scan's second differences (x 4, plus a floor), checked at every midpoint sampled (a
+ * larger deviation raises K and restarts). A cell [a, b] with both ends defined then holds
+ *   - no root when min(|r_a|, |r_b|) > K h^2/8 + noise (same signs), or when r' cannot vanish
+ *     (r' lies within K h/2 + 2 noise/h of the chord's slope) and the signs agree;
+ *   - exactly one root when the signs differ and r' cannot vanish (Brent finds it);
+ * any other cell is halved. A cell with one undefined end is halved until the domain's edge is
+ * located to RATE_EDGE_REL of the range; one with two undefined ends is outside the domain (the
+ * stated limit: a domain island narrower than the scan's spacing would be missed). */
+typedef struct rpt {
+    double w, r;
+    bool ok;
+} rpt;
+
+typedef struct rroots {
+    rate_en *q;
+    double K, lo, hi;
+    double root[RATE_MAX_ROOTS];
+    size_t n_root;
+    unsigned long evals;
+    bool restart;
+} rroots;
+
+static pw_status rr_eval(rroots *z, double w, rpt *p)
+{
+    if (++z->evals > RATE_MAX_EVALS)
+        return PW_ENOCONV;
+    p->w = w;
+    p->r = NAN;
+    pw_status st = rate_residual(z->q, w, &p->r);
+    p->ok = st == PW_OK && isfinite(p->r);
+    if (p->ok || st == PW_OK || st == PW_EINFEASIBLE || st == PW_ENOBRACKET || st == PW_EDOM)
+        return PW_OK; /* outside the domain: no steady state with these products */
+    return st;
+}
+
+static void rr_add(rroots *z, double w)
+{
+    for (size_t i = 0; i < z->n_root; i++)
+        if (fabs(z->root[i] - w) <= 1e-10 * (z->hi - z->lo))
+            return;
+    if (z->n_root < RATE_MAX_ROOTS)
+        z->root[z->n_root++] = w;
+}
+
+static pw_status rr_brent(rroots *z, const rpt *a, const rpt *b)
+{
+    if (a->r == 0.0 || b->r == 0.0) {
+        rr_add(z, a->r == 0.0 ? a->w : b->w);
+        return PW_OK;
+    }
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = 1e-300; /* a product near 0 is resolved to full relative precision */
+    o.xtol_rel = 4.0 * DBL_EPSILON;
+    o.max_iter = ROOT_ITER;
+    double w = NAN;
+    pw_status st = pw_root1d(rate_residual, z->q, a->w, b->w, a->r, b->r, &o, &w, NULL);
+    if (st != PW_OK && st != PW_EMAXITER)
+        return st;
+    rr_add(z, w);
+    return PW_OK;
+}
+
+static pw_status rr_cell(rroots *z, rpt a0, rpt b0)
+{
+    struct {
+        rpt a, b;
+    } stack[RATE_STACK];
+    size_t top = 0;
+    stack[top].a = a0;
+    stack[top++].b = b0;
+    const double range = z->hi - z->lo;
+    while (top > 0) {
+        --top;
+        const rpt a = stack[top].a, b = stack[top].b;
+        const double h = b.w - a.w;
+        pw_status st;
+        if (!a.ok && !b.ok)
+            continue;
+        if (a.ok && b.ok) {
+            const bool change = (a.r <= 0.0) != (b.r <= 0.0) || a.r == 0.0 || b.r == 0.0;
+            const double s = (b.r - a.r) / h, ds = 0.5 * z->K * h + 2.0 * RATE_NOISE / h;
+            const bool monotone = fabs(s) > ds;
+            if (change && monotone) {
+                if ((st = rr_brent(z, &a, &b)) != PW_OK)
+                    return st;
+                continue;
+            }
+            if (!change && (monotone || fmin(fabs(a.r), fabs(b.r)) >
+                                            z->K * h * h / 8.0 + RATE_NOISE))
+                continue;
+            if (h < RATE_MIN_CELL_REL * range) {
+                if (change && (st = rr_brent(z, &a, &b)) != PW_OK)
+                    return st;
+                continue; /* a double root at rounding level is not resolved further */
+            }
+        } else if (h < RATE_EDGE_REL * range) {
+            continue; /* the domain's edge, located */
+        }
+        rpt m;
+        if ((st = rr_eval(z, a.w + 0.5 * h, &m)) != PW_OK)
+            return st;
+        if (a.ok && b.ok && m.ok) {
+            double dev = fabs(0.5 * (a.r + b.r) - m.r);
+            if (dev > z->K * h * h / 8.0 + 2.0 * RATE_NOISE) {
+                z->K = fmax(2.0 * z->K, 32.0 * dev / (h * h));
+                z->restart = true;
+                return PW_OK;
+            }
+        }
+        if (top + 2 > RATE_STACK)
+            return PW_ENOCONV;
+        stack[top].a = a;
+        stack[top++].b = m;
+        stack[top].a = m;
+        stack[top++].b = b;
+    }
+    return PW_OK;
+}
+
+static int cmp_double(const void *x, const void *y)
+{
+    double a = *(const double *)x, b = *(const double *)y;
+    return (a > b) - (a < b);
+}
+
+/* Every root of the mismatch on [lo, hi], sorted. */
+static pw_status rate_all_roots(rroots *z)
+{
+    rpt p[RATE_SCAN];
+    for (int i = 0; i < RATE_SCAN; i++) {
+        pw_status st =
+            rr_eval(z, i + 1 == RATE_SCAN ? z->hi
+                                          : z->lo + (z->hi - z->lo) * (double)i / (RATE_SCAN - 1),
+                    &p[i]);
+        if (st != PW_OK)
+            return st;
+    }
+    double d2max = 0.0;
+    for (int i = 1; i + 1 < RATE_SCAN; i++)
+        if (p[i - 1].ok && p[i].ok && p[i + 1].ok) {
+            double h = p[i].w - p[i - 1].w;
+            d2max = fmax(d2max, fabs(p[i + 1].r - 2.0 * p[i].r + p[i - 1].r) / (h * h));
+        }
+    z->K = 4.0 * d2max + 1e-6;
+    for (int round = 0;; round++) {
+        z->restart = false;
+        z->n_root = 0;
+        for (int i = 0; i + 1 < RATE_SCAN && !z->restart; i++) {
+            pw_status st = rr_cell(z, p[i], p[i + 1]);
+            if (st != PW_OK)
+                return st;
+        }
+        if (!z->restart)
+            break;
+        if (round + 1 >= RATE_RESTARTS)
+            return PW_ENOCONV;
+    }
+    qsort(z->root, z->n_root, sizeof z->root[0], cmp_double);
+    return PW_OK;
+}
+
 
 pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double P_Pa,
                          const pw_rate_spec *spec, pw_rate_result *out, double *Q_C, double *Q_R,
@@ -834,7 +1116,7 @@ pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double 
     pw_column_spec s0 = {
         .xd = fmin(1.0, z + 0.5 * (1.0 - z)), .xb = 0.5 * z, .zf = z, .q = spec->q};
     rate_en q = {.r = spec};
-    st = en_init(&q.c, sys, heat, P_Pa, &s0);
+    st = en_init(&q.c, sys, heat, P_Pa, &s0, false);
     if (st != PW_OK) {
         en_free(&q.c);
         return pw_error_set(err, st, NULL, 0, "rating: %s", pw_strerror(st));
@@ -848,37 +1130,17 @@ pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double 
         lo = fmax(0.0, (z - B) / D);
         hi = 1.0;
     }
-    /* Energy balances can give more than one steady state: scan the unknown, solve every
-     * bracketed sign change, report the first and how many there were. */
-    double wv[RATE_SCAN], rv[RATE_SCAN];
-    for (int i = 0; i < RATE_SCAN; i++) {
-        wv[i] = lo + (hi - lo) * (double)i / (RATE_SCAN - 1);
-        rv[i] = NAN;
-        pw_status si = rate_residual(&q, wv[i], &rv[i]);
-        if (si != PW_OK)
-            rv[i] = NAN;
-        if (si != PW_OK && si != PW_EINFEASIBLE && si != PW_ENOBRACKET) {
-            st = si;
-            break;
-        }
-    }
+    /* Energy balances can give more than one steady state: every root of the mismatch, proved
+     * (under the curvature bound) to be all of them; the first is reported with their count. */
+    rroots rz = {.q = &q, .lo = lo, .hi = hi};
+    st = rate_all_roots(&rz);
     double w_sol = NAN;
-    pw_solve1d_opts o = pw_solve1d_default_opts();
-    o.xtol_abs = 1e-300; /* a product near 0 is resolved to full relative precision */
-    o.xtol_rel = 4.0 * DBL_EPSILON;
-    o.max_iter = ROOT_ITER;
-    for (int i = 0; st == PW_OK && i + 1 < RATE_SCAN; i++) {
-        if (!isfinite(rv[i]) || !isfinite(rv[i + 1]))
-            continue;
-        if (!((rv[i] <= 0.0 && rv[i + 1] > 0.0) || (rv[i] >= 0.0 && rv[i + 1] < 0.0)))
-            continue;
-        double w = NAN;
-        if (pw_root1d(rate_residual, &q, wv[i], wv[i + 1], rv[i], rv[i + 1], &o, &w, NULL) != PW_OK)
-            continue;
-        if (!isfinite(w_sol))
-            w_sol = w;
-        (*n_roots)++;
+    if (st == PW_OK && rz.n_root > 0) {
+        /* the lowest distillate purity: the lowest xd, or the highest xb */
+        w_sol = q.by_xb ? rz.root[rz.n_root - 1] : rz.root[0];
+        *n_roots = rz.n_root;
     }
+    out->iterations = (int)rz.evals;
     if (st == PW_OK && !isfinite(w_sol))
         st = PW_ENOBRACKET;
     if (st == PW_OK) {
@@ -903,6 +1165,12 @@ pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double 
                                 "rating with energy balances: no steady state found (no reboiler "
                                 "duty, or no products the stages can make at this reflux and "
                                 "distillate rate)");
+        if (st == PW_ENOCONV)
+            return pw_error_set(err, st, NULL, 0,
+                                "rating with energy balances: the search for every steady state "
+                                "did not complete (the feed-stage mismatch curves too sharply "
+                                "for %d residual evaluations)",
+                                RATE_MAX_EVALS);
         return pw_error_set(err, st, NULL, 0, "rating with energy balances: %s", pw_strerror(st));
     }
     return PW_OK;

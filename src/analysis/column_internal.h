@@ -6,6 +6,8 @@
 #define PW_ANALYSIS_COLUMN_INTERNAL_H
 
 #include <pinchwise/column.h>
+#include <stdbool.h>
+#include <stddef.h>
 
 /* Absolute floor under which y* - x counts as zero (a pinch with no driving force). */
 #define PW_COLUMN_TOUCH_TOL 1e-10
@@ -73,6 +75,54 @@ pw_status pw_column_section_search(pw_column_ws *w, const pw_column_spec *s, pw_
                                    double lo, double ylo, double hi, double yhi, double xe,
                                    double ye, double *slope, double *x_lim, double *y_lim,
                                    bool *at_feed);
+
+/* ---- The seam of the section search (src/analysis/column_search.c) ----
+ *
+ * A branch and bound that maximises a value v(x) over [x_0, x_(n-1)] and cannot miss a larger
+ * value under a stated bound on the curvature of the sampled quantities (docs/column.md, section
+ * 3). The caller samples up to PW_SECTION_MAXQ quantities per point (y* for the constant-overflow
+ * column; y*, h_L and the tie line's latent heat for the energy column), computes v from them, and
+ * bounds v from above on a cell given per-quantity curvature bounds K. The engine proves every
+ * cell, halves the unproved ones at their midpoints (checking there that each quantity lies
+ * within K h^2/8 of its chord, and raising K with a restart when it does not), and refines the
+ * local maxima it meets with GSL Brent. */
+#define PW_SECTION_MAXQ 3
+
+typedef struct pw_section_pt {
+    double x;
+    double q[PW_SECTION_MAXQ];
+} pw_section_pt;
+
+typedef struct pw_section_fn {
+    void *ctx;
+    size_t nq;      /* quantities sampled per point, 1..PW_SECTION_MAXQ */
+    bool two_sided; /* the assumption is |q''| <= K (true) or only q'' <= K (false) */
+    /* the quantities at x */
+    pw_status (*sample)(void *ctx, double x, double *q);
+    /* the value maximised, from the quantities (may be -infinity) */
+    double (*value)(void *ctx, double x, const double *q);
+    /* an upper bound of the value on the cell [a, b] when each quantity's curvature obeys K */
+    double (*bound)(void *ctx, const pw_section_pt *a, const pw_section_pt *b, const double *K);
+    /* the tolerance on the value, given the best value and where it is */
+    double (*tol)(void *ctx, double best, const pw_section_pt *at);
+    /* the coarse bracket: point i of n (the section's ends are points 0 and n - 1) */
+    void (*point)(void *ctx, size_t i, pw_section_pt *pt);
+    double noise[PW_SECTION_MAXQ]; /* absolute precision of each quantity */
+    double K[PW_SECTION_MAXQ];     /* curvature bounds in use; raised by the search (in/out) */
+    double xtol;                   /* absolute x tolerance of the Brent refinements */
+    double min_width;              /* cells narrower than this are not halved */
+    unsigned long evals;           /* samples taken (out) */
+} pw_section_fn;
+
+/* K[i] = 4 x the largest second divided difference of quantity i over the coarse points
+ * (absolute when two_sided), plus floor[i]. */
+void pw_section_conv_init(pw_section_fn *f, size_t n, const double *floor);
+
+/* Maximises the value over the n coarse points' range; the end candidate `end` (a section end or
+ * the point where the operating lines meet) is offered first and wins ties (*at_end). PW_ENOCONV
+ * when K had to be raised more than 8 times or the sample budget ran out. */
+pw_status pw_section_maximise(pw_section_fn *f, size_t n, const pw_section_pt *end,
+                              pw_section_pt *best, double *v_best, bool *at_end);
 
 /* D/F and B/F from the component balance. */
 double pw_column_d_frac(const pw_column_spec *s);

@@ -2,7 +2,11 @@
  * bound on the curve's convexity): the tabulated curve gives a coarse bracket, every cell of it -
  * the cells at the product end and at the q-line end included - is bounded from above, cells whose
  * bound exceeds the best value found are halved until the bound falls below it, and GSL Brent
- * (base/solve1d) refines every local maximum met on the way. See docs/column.md, section 3. */
+ * (base/solve1d) refines every local maximum met on the way. See docs/column.md, section 3.
+ *
+ * The branch and bound itself (pw_section_maximise) works through a seam of callbacks (sample,
+ * value, cell bound, tolerance, coarse points; column_internal.h), so that the energy-balance
+ * column (column_energy.c) runs the same proof on its tie-line values. */
 #include "analysis/column_internal.h"
 #include "base/solve1d.h"
 
@@ -32,64 +36,284 @@ void pw_column_set_conv_bound(pw_column_ws *w)
     w->conv_bound = CONV_SAFETY * d2max + CONV_FLOOR;
 }
 
-typedef struct sect {
-    pw_column_ws *w;
-    const pw_column_spec *spec;
-    double p;   /* pole: xd (rectifying, right of the cells) or xb (stripping, left) */
-    double dir; /* +1: pole on the right, -1: on the left */
-    double K;   /* convexity bound in use */
-    double eps; /* curve value precision */
-    double best, x_best, y_best;
-    double v_end; /* value of the end candidate */
-    bool feed;    /* the end candidate is the best */
-    bool restart; /* K was raised: search again */
-    unsigned long evals;
+void pw_section_conv_init(pw_section_fn *f, size_t n, const double *floor)
+{
+    for (size_t k = 0; k < f->nq; k++) {
+        double d2max = 0.0;
+        pw_section_pt p0, p1, p2;
+        if (n >= 3) {
+            f->point(f->ctx, 0, &p0);
+            f->point(f->ctx, 1, &p1);
+        }
+        for (size_t j = 1; j + 1 < n; j++) {
+            f->point(f->ctx, j + 1, &p2);
+            double s1 = (p1.q[k] - p0.q[k]) / (p1.x - p0.x);
+            double s2 = (p2.q[k] - p1.q[k]) / (p2.x - p1.x);
+            double d2 = 2.0 * (s2 - s1) / (p2.x - p0.x);
+            if (f->two_sided)
+                d2 = fabs(d2);
+            if (d2 > d2max)
+                d2max = d2;
+            p0 = p1;
+            p1 = p2;
+        }
+        f->K[k] = CONV_SAFETY * d2max + floor[k];
+    }
+}
+
+/* ---- the engine ---- */
+
+typedef struct bb {
+    pw_section_fn *f;
+    double best;
+    pw_section_pt at;
+    bool end;     /* the end candidate is the best */
+    bool restart; /* a K was raised: search again */
     /* the best point the current Brent run has seen */
-    double brent_x, brent_y, brent_v;
-} sect;
+    pw_section_pt brent_pt;
+    double brent_v;
+} bb;
 
 typedef struct cell {
-    double a, ya, b, yb;
+    pw_section_pt a, b;
 } cell;
+
+static double val(const bb *c, const pw_section_pt *p)
+{
+    return c->f->value(c->f->ctx, p->x, p->q);
+}
+
+static void offer(bb *c, const pw_section_pt *p, double v)
+{
+    if (v > c->best + 4.0 * DBL_EPSILON * fmax(1.0, fabs(c->best))) {
+        c->best = v;
+        c->at = *p;
+        c->end = false;
+    }
+}
+
+static pw_status eval(bb *c, double x, pw_section_pt *p, double *v)
+{
+    if (++c->f->evals > MAX_EVALS)
+        return PW_ENOCONV;
+    p->x = x;
+    pw_status st = c->f->sample(c->f->ctx, x, p->q);
+    if (st == PW_OK)
+        *v = val(c, p);
+    return st;
+}
+
+static pw_status neg_value(void *ctx, double x, double *f)
+{
+    bb *c = ctx;
+    pw_section_pt p;
+    double v;
+    pw_status st = eval(c, x, &p, &v);
+    if (st != PW_OK)
+        return st;
+    if (v > c->brent_v) {
+        c->brent_v = v;
+        c->brent_pt = p;
+    }
+    *f = -v;
+    return PW_OK;
+}
+
+/* GSL Brent on -value over (a, m, b), a bracketed local maximum; the maximum found is offered and
+ * returned in *pm. */
+static pw_status refine(bb *c, const pw_section_pt *a, const pw_section_pt *m,
+                        const pw_section_pt *b, double va, double vm, double vb, pw_section_pt *pm)
+{
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = c->f->xtol;
+    o.xtol_rel = 0.0;
+    o.max_iter = MIN_MAX_ITER;
+    c->brent_pt = *m;
+    c->brent_v = vm;
+    double xmin, fmin;
+    pw_status st = pw_min1d(neg_value, c, a->x, m->x, b->x, -va, -vm, -vb, &o, &xmin, &fmin, NULL);
+    if (st != PW_OK && st != PW_EMAXITER)
+        return st;
+    offer(c, &c->brent_pt, c->brent_v);
+    *pm = c->brent_pt;
+    return PW_OK;
+}
+
+/* The assumption, checked where the quantities are sampled: the midpoint may lie off its chord
+ * (below it when only convexity is bounded) by at most K h^2/8 (+ the value noise). */
+static bool curvature_ok(bb *c, const cell *e, const pw_section_pt *m)
+{
+    pw_section_fn *f = c->f;
+    const double h = e->b.x - e->a.x;
+    bool ok = true;
+    for (size_t k = 0; k < f->nq; k++) {
+        double below = 0.5 * (e->a.q[k] + e->b.q[k]) - m->q[k];
+        if (f->two_sided)
+            below = fabs(below);
+        if (below > f->K[k] * h * h / 8.0 + 2.0 * f->noise[k]) {
+            f->K[k] = fmax(2.0 * f->K[k], CONV_SAFETY * 8.0 * below / (h * h));
+            ok = false;
+        }
+    }
+    return ok;
+}
+
+/* Depth-first branch and bound over one cell of the coarse bracket. */
+static pw_status search_cell(bb *c, const cell *start)
+{
+    pw_section_fn *f = c->f;
+    cell stack[STACK_MAX];
+    size_t top = 0;
+    stack[top++] = *start;
+    while (top > 0) {
+        cell e = stack[--top];
+        if (!(f->bound(f->ctx, &e.a, &e.b, f->K) > c->best + f->tol(f->ctx, c->best, &c->at)))
+            continue; /* no value in this cell can beat the best */
+        const double h = e.b.x - e.a.x;
+        if (h < f->min_width)
+            continue; /* at rounding level: the ends already are the values there */
+        pw_section_pt m;
+        double vm;
+        pw_status st = eval(c, e.a.x + 0.5 * h, &m, &vm);
+        if (st != PW_OK)
+            return st;
+        offer(c, &m, vm);
+        if (!curvature_ok(c, &e, &m)) {
+            c->restart = true;
+            return PW_OK;
+        }
+        double va = val(c, &e.a), vb = val(c, &e.b);
+        pw_section_pt s = m;
+        if (vm > va && vm > vb && isfinite(va) && isfinite(vb)) {
+            st = refine(c, &e.a, &m, &e.b, va, vm, vb, &s);
+            if (st != PW_OK)
+                return st;
+            if (!(s.x > e.a.x && s.x < e.b.x))
+                s = m;
+        }
+        if (top + 2 > STACK_MAX)
+            return PW_ENOCONV;
+        stack[top++] = (cell){e.a, s};
+        stack[top++] = (cell){s, e.b};
+    }
+    return PW_OK;
+}
+
+pw_status pw_section_maximise(pw_section_fn *f, size_t n, const pw_section_pt *end,
+                              pw_section_pt *best, double *v_best, bool *at_end)
+{
+    if (n < 2 || f->nq < 1 || f->nq > PW_SECTION_MAXQ)
+        return PW_EINVAL;
+    bb c = {.f = f};
+    c.at = *end;
+    c.best = val(&c, end);
+    c.end = true;
+    pw_section_pt p, pl, pr;
+    for (size_t i = 0; i < n; i++) {
+        f->point(f->ctx, i, &p);
+        offer(&c, &p, val(&c, &p));
+    }
+    /* Brent first on the highest interior local maximum of the coarse points, so that the bounds
+     * prune. */
+    size_t ibest = 0;
+    double vbest = -INFINITY;
+    for (size_t i = 1; i + 1 < n; i++) {
+        f->point(f->ctx, i, &p);
+        double v = val(&c, &p);
+        if (v > vbest) {
+            vbest = v;
+            ibest = i;
+        }
+    }
+    if (ibest > 0) {
+        f->point(f->ctx, ibest - 1, &pl);
+        f->point(f->ctx, ibest, &p);
+        f->point(f->ctx, ibest + 1, &pr);
+        double va = val(&c, &pl), vb = val(&c, &pr);
+        if (vbest > va && vbest > vb && isfinite(va) && isfinite(vb)) {
+            pw_section_pt s;
+            pw_status st = refine(&c, &pl, &p, &pr, va, vbest, vb, &s);
+            if (st != PW_OK)
+                return st;
+        }
+    }
+    for (int round = 0;; round++) {
+        c.restart = false;
+        f->point(f->ctx, 0, &pl);
+        for (size_t i = 0; i + 1 < n && !c.restart; i++) {
+            f->point(f->ctx, i + 1, &pr);
+            cell e = {pl, pr};
+            pl = pr;
+            if (!(e.a.x < e.b.x))
+                continue;
+            pw_status st = search_cell(&c, &e);
+            if (st != PW_OK)
+                return st;
+        }
+        if (!c.restart)
+            break;
+        if (round + 1 >= MAX_RESTARTS)
+            return PW_ENOCONV;
+    }
+    *best = c.at;
+    *v_best = c.best;
+    *at_end = c.end;
+    return PW_OK;
+}
+
+/* ---- the constant-overflow column's section: v = (p - y*)/|p - x| ---- */
+
+typedef struct sect {
+    pw_column_ws *w;
+    double p;   /* pole: xd (rectifying, right of the cells) or xb (stripping, left) */
+    double dir; /* +1: pole on the right, -1: on the left */
+    double eps; /* curve value precision */
+    /* the coarse bracket: lo, the table's points strictly inside, hi */
+    double lo, ylo, hi, yhi;
+    size_t j0, np;
+} sect;
 
 /* The quantity maximised: (p - y)/|p - x|, i.e. m* = (xd - y*)/(xd - x) in the rectifying
  * section and -s* = -(y* - xb)/(x - xb) in the stripping section; -infinity at the pole, where
  * y* > x (the split is feasible). */
-static double value(const sect *c, double x, double y)
+static double cmo_value(void *ctx, double x, const double *q)
 {
+    const sect *c = ctx;
     double u = fabs(c->p - x);
-    return u > 0.0 ? (c->p - y) / u : -(double)INFINITY;
+    return u > 0.0 ? (c->p - q[0]) / u : -(double)INFINITY;
+}
+
+static pw_status cmo_sample(void *ctx, double x, double *q)
+{
+    sect *c = ctx;
+    return pw_column_y(c->w, x, &q[0]);
+}
+
+static void cmo_point(void *ctx, size_t i, pw_section_pt *pt)
+{
+    const sect *c = ctx;
+    if (i == 0) {
+        pt->x = c->lo;
+        pt->q[0] = c->ylo;
+    } else if (i + 1 == c->np) {
+        pt->x = c->hi;
+        pt->q[0] = c->yhi;
+    } else {
+        pt->x = c->w->tab_x[c->j0 + i - 1];
+        pt->q[0] = c->w->tab_y[c->j0 + i - 1];
+    }
 }
 
 /* Tolerance on the value: 0.1 rtol of R's sensitivity (R = m/(1-m), S = 1/(s-1)), with a floor at
  * rounding level, plus the precision of the best value itself. */
-static double tol(const sect *c)
+static double cmo_tol(void *ctx, double best, const pw_section_pt *at)
 {
-    double v = fabs(c->best);
+    const sect *c = ctx;
+    double v = fabs(best);
     double scale = fmin(1.0, v * fabs(1.0 - v));
     double d = fmax(0.1 * c->w->rtol * scale, 16.0 * DBL_EPSILON * fmax(1.0, v));
-    double ub = fabs(c->p - c->x_best);
+    double ub = fabs(c->p - at->x);
     return d + (ub > 0.0 ? 2.0 * c->eps / ub : 0.0);
-}
-
-static void offer(sect *c, double x, double y, double v)
-{
-    if (v > c->best + 4.0 * DBL_EPSILON * fmax(1.0, fabs(c->best))) {
-        c->best = v;
-        c->x_best = x;
-        c->y_best = y;
-        c->feed = false;
-    }
-}
-
-static pw_status eval(sect *c, double x, double *y, double *v)
-{
-    if (++c->evals > MAX_EVALS)
-        return PW_ENOCONV;
-    pw_status st = pw_column_y(c->w, x, y);
-    if (st == PW_OK)
-        *v = value(c, x, *y);
-    return st;
 }
 
 /* Upper bound of the value on [a, b] when y*'' <= K there and values carry an error up to eps:
@@ -97,10 +321,13 @@ static pw_status eval(sect *c, double x, double *y, double *v)
  * N(x)/u, N = p - L + K (x - a)(b - x)/2 + eps, u = |p - x|. As a function of u this is
  * alpha/u + beta - K u/2 (alpha = N(p)): convex for alpha >= 0 (maximum at an end), concave
  * otherwise with its peak at u = sqrt(-2 alpha/K). */
-static double cell_bound(const sect *c, const cell *e)
+static double cmo_bound(void *ctx, const pw_section_pt *pa, const pw_section_pt *pb,
+                        const double *Kq)
 {
-    const double a = e->a, b = e->b, h = b - a, sl = (e->yb - e->ya) / h, K = c->K, p = c->p;
-#define PW_N(x) (p - (e->ya + sl * ((x)-a)) + 0.5 * K * ((x)-a) * (b - (x)) + c->eps)
+    const sect *c = ctx;
+    const double a = pa->x, b = pb->x, h = b - a, ya = pa->q[0], sl = (pb->q[0] - ya) / h;
+    const double K = Kq[0], p = c->p;
+#define PW_N(x) (p - (ya + sl * ((x)-a)) + 0.5 * K * ((x)-a) * (b - (x)) + c->eps)
     const double ua = fabs(p - a), ub = fabs(p - b);
     const double alpha = PW_N(p);
     if (alpha >= 0.0 && (ua == 0.0 || ub == 0.0))
@@ -121,89 +348,6 @@ static double cell_bound(const sect *c, const cell *e)
     return bound;
 }
 
-static pw_status neg_value(void *ctx, double x, double *f)
-{
-    sect *c = ctx;
-    double y, v;
-    pw_status st = eval(c, x, &y, &v);
-    if (st != PW_OK)
-        return st;
-    if (v > c->brent_v) {
-        c->brent_v = v;
-        c->brent_x = x;
-        c->brent_y = y;
-    }
-    *f = -v;
-    return PW_OK;
-}
-
-/* GSL Brent on -value over (a, m, b), a bracketed local maximum; the maximum found is offered and
- * returned as (*xm, *ym). */
-static pw_status refine(sect *c, double a, double m, double b, double va, double vm, double vb,
-                        double ym, double *xm, double *y_m)
-{
-    pw_solve1d_opts o = pw_solve1d_default_opts();
-    o.xtol_abs = c->w->min_xtol;
-    o.xtol_rel = 0.0;
-    o.max_iter = MIN_MAX_ITER;
-    c->brent_x = m;
-    c->brent_y = ym;
-    c->brent_v = vm;
-    double xmin, fmin;
-    pw_status st = pw_min1d(neg_value, c, a, m, b, -va, -vm, -vb, &o, &xmin, &fmin, NULL);
-    if (st != PW_OK && st != PW_EMAXITER)
-        return st;
-    offer(c, c->brent_x, c->brent_y, c->brent_v);
-    *xm = c->brent_x;
-    *y_m = c->brent_y;
-    return PW_OK;
-}
-
-/* Depth-first branch and bound over one cell of the table. */
-static pw_status search_cell(sect *c, const cell *start, double min_width)
-{
-    cell stack[STACK_MAX];
-    size_t top = 0;
-    stack[top++] = *start;
-    while (top > 0) {
-        cell e = stack[--top];
-        if (!(cell_bound(c, &e) > c->best + tol(c)))
-            continue; /* no value in this cell can beat the best */
-        const double h = e.b - e.a;
-        if (h < min_width)
-            continue; /* at rounding level: the ends already are the values there */
-        double xm = e.a + 0.5 * h, ym, vm;
-        pw_status st = eval(c, xm, &ym, &vm);
-        if (st != PW_OK)
-            return st;
-        offer(c, xm, ym, vm);
-        /* The assumption, checked where the curve is sampled: the midpoint may lie below the
-         * chord by at most K h^2/8 (+ the value noise). */
-        double below = 0.5 * (e.ya + e.yb) - ym;
-        if (below > c->K * h * h / 8.0 + 2.0 * c->eps) {
-            c->K = fmax(2.0 * c->K, CONV_SAFETY * 8.0 * below / (h * h));
-            c->restart = true;
-            return PW_OK;
-        }
-        double va = value(c, e.a, e.ya), vb = value(c, e.b, e.yb);
-        double xs = xm, ys = ym;
-        if (vm > va && vm > vb && isfinite(va) && isfinite(vb)) {
-            st = refine(c, e.a, xm, e.b, va, vm, vb, ym, &xs, &ys);
-            if (st != PW_OK)
-                return st;
-            if (!(xs > e.a && xs < e.b)) {
-                xs = xm;
-                ys = ym;
-            }
-        }
-        if (top + 2 > STACK_MAX)
-            return PW_ENOCONV;
-        stack[top++] = (cell){e.a, e.ya, xs, ys};
-        stack[top++] = (cell){xs, ys, e.b, e.yb};
-    }
-    return PW_OK;
-}
-
 pw_status pw_column_section_search(pw_column_ws *w, const pw_column_spec *s, pw_section sec,
                                    double lo, double ylo, double hi, double yhi, double xe,
                                    double ye, double *slope, double *x_lim, double *y_lim,
@@ -215,18 +359,15 @@ pw_status pw_column_section_search(pw_column_ws *w, const pw_column_spec *s, pw_
         pw_column_set_conv_bound(w);
     const bool rect = sec == PW_SECTION_RECTIFYING;
     sect c = {.w = w,
-              .spec = s,
               .p = rect ? s->xd : s->xb,
               .dir = rect ? 1.0 : -1.0,
-              .K = w->conv_bound,
-              .eps = w->y_noise};
-    c.v_end = value(&c, xe, ye);
-    c.best = c.v_end;
-    c.x_best = xe;
-    c.y_best = ye;
-    c.feed = true;
+              .eps = w->y_noise,
+              .lo = lo,
+              .ylo = ylo,
+              .hi = hi,
+              .yhi = yhi};
     /* Coarse bracket: the section's ends and the table's points between them. */
-    const double *tx = w->tab_x, *ty = w->tab_y;
+    const double *tx = w->tab_x;
     const size_t n = w->tab_n;
     size_t j0 = 0;
     while (j0 < n && !(tx[j0] > lo))
@@ -234,55 +375,28 @@ pw_status pw_column_section_search(pw_column_ws *w, const pw_column_spec *s, pw_
     size_t j1 = j0;
     while (j1 < n && tx[j1] < hi)
         j1++;
-    /* points: lo, tx[j0 .. j1-1], hi */
-    const size_t np = (j1 - j0) + 2;
-#define PT_X(i) ((i) == 0 ? lo : (i) == np - 1 ? hi : tx[j0 + (i)-1])
-#define PT_Y(i) ((i) == 0 ? ylo : (i) == np - 1 ? yhi : ty[j0 + (i)-1])
-    for (size_t i = 0; i < np; i++)
-        offer(&c, PT_X(i), PT_Y(i), value(&c, PT_X(i), PT_Y(i)));
-    /* Brent first on the highest interior local maximum of the table, so that the bounds prune. */
-    size_t ibest = 0;
-    double vbest = -INFINITY;
-    for (size_t i = 1; i + 1 < np; i++) {
-        double v = value(&c, PT_X(i), PT_Y(i));
-        if (v > vbest) {
-            vbest = v;
-            ibest = i;
-        }
-    }
-    if (ibest > 0) {
-        double va = value(&c, PT_X(ibest - 1), PT_Y(ibest - 1));
-        double vb = value(&c, PT_X(ibest + 1), PT_Y(ibest + 1));
-        if (vbest > va && vbest > vb && isfinite(va) && isfinite(vb)) {
-            double xs, ys;
-            pw_status st = refine(&c, PT_X(ibest - 1), PT_X(ibest), PT_X(ibest + 1), va, vbest, vb,
-                                  PT_Y(ibest), &xs, &ys);
-            if (st != PW_OK)
-                return st;
-        }
-    }
-    const double min_width = MIN_CELL_REL * (s->xd - s->xb);
-    for (int round = 0;; round++) {
-        c.restart = false;
-        for (size_t i = 0; i + 1 < np && !c.restart; i++) {
-            cell e = {PT_X(i), PT_Y(i), PT_X(i + 1), PT_Y(i + 1)};
-            if (!(e.a < e.b))
-                continue;
-            pw_status st = search_cell(&c, &e, min_width);
-            if (st != PW_OK)
-                return st;
-        }
-        if (!c.restart)
-            break;
-        if (round + 1 >= MAX_RESTARTS)
-            return PW_ENOCONV;
-    }
-#undef PT_X
-#undef PT_Y
-    w->conv_bound = fmax(w->conv_bound, c.K); /* keep what was learnt for the other section */
-    *slope = rect ? c.best : -c.best;
-    *x_lim = c.x_best;
-    *y_lim = c.y_best;
-    *at_feed = c.feed;
+    c.j0 = j0;
+    c.np = (j1 - j0) + 2;
+    pw_section_fn f = {.ctx = &c,
+                       .nq = 1,
+                       .two_sided = false,
+                       .sample = cmo_sample,
+                       .value = cmo_value,
+                       .bound = cmo_bound,
+                       .tol = cmo_tol,
+                       .point = cmo_point,
+                       .noise = {w->y_noise},
+                       .K = {w->conv_bound},
+                       .xtol = w->min_xtol,
+                       .min_width = MIN_CELL_REL * (s->xd - s->xb)};
+    pw_section_pt end = {.x = xe, .q = {ye}}, best;
+    double v;
+    pw_status st = pw_section_maximise(&f, c.np, &end, &best, &v, at_feed);
+    if (st != PW_OK)
+        return st;
+    w->conv_bound = fmax(w->conv_bound, f.K[0]); /* keep what was learnt for the other section */
+    *slope = rect ? v : -v;
+    *x_lim = best.x;
+    *y_lim = best.q[0];
     return PW_OK;
 }

@@ -120,10 +120,6 @@ int pw_cli_reflux(int argc, char **argv)
     }
     if (rc != 0)
         return pw_cli_fail("reflux", &err);
-    for (int i = 0; a.energy && i < a.n_extra; i += 2)
-        if (!strcmp(a.extra[i], "--compare"))
-            return pw_cli_failf("reflux", PW_EXIT_USAGE,
-                                "--energy does not combine with --compare yet");
     pw_reflux_run run;
     rc = pw_reflux_compute(&a, &run, &err);
     if (rc != 0)

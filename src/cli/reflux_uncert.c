@@ -176,6 +176,8 @@ static json_t *models_json(const pw_reflux_uncert *u)
                                                                  m->hi[PW_UNC_RMIN]}));
     json_object_set_new(j, "feasibility_differs", json_boolean(m->feasibility_differs));
     json_object_set_new(j, "operating_factor", pw_cli_json_num(u->col.factor));
+    json_object_set_new(j, "balance", json_string(pw_balance_name(u->col.heat ? PW_BALANCE_ENERGY
+                                                                              : PW_BALANCE_CMO)));
     json_object_set_new(j, "basis",
                         json_string("models within delta AICc < 10 of the best are compared; "
                                     "< 2: indistinguishable (Burnham & Anderson 2002)"));
@@ -230,7 +232,8 @@ void pw_reflux_uncert_print(const pw_reflux_uncert *u, const pw_reflux_run *run)
     }
     if (u->n_compare) {
         const pw_unc_models *m = &u->models;
-        printf("\nother models of the same data (delta AICc; Burnham & Anderson 2002):\n");
+        printf("\nother models of the same data (delta AICc; Burnham & Anderson 2002; %s):\n",
+               u->col.heat ? "energy balances with the same heat data" : "constant molal overflow");
         printf("  %-10s %9s %8s %-18s %10s %10s\n", "model", "dAICc", "weight", "support", "R_min",
                "stages");
         for (size_t i = 0; i < m->n; i++) {

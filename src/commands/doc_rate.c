@@ -57,10 +57,15 @@ json_t *pw_rate_doc(const pw_system *sys, double P_Pa, const pw_rate_spec *spec,
                         json_string("equilibrium stages counted from the top, the partial reboiler "
                                     "as the last; total condenser not counted; L and V leave the "
                                     "stage, moles per mole of feed"));
-    json_object_set_new(o, "caution",
-                        json_string("Screening estimate (constant molal overflow, equilibrium "
-                                    "stages, fitted model). Real trays need an efficiency. Verify "
-                                    "with rigorous simulation and plant data; operate and modify "
-                                    "equipment per local codes under licensed review."));
+    json_object_set_new(
+        o, "caution",
+        json_string(energy ? "Screening estimate (energy balance on every stage with the component "
+                             "data's heats, equilibrium stages, fitted model). Real trays need an "
+                             "efficiency. Verify with rigorous simulation and plant data; operate "
+                             "and modify equipment per local codes under licensed review."
+                           : "Screening estimate (constant molal overflow, equilibrium "
+                             "stages, fitted model). Real trays need an efficiency. Verify "
+                             "with rigorous simulation and plant data; operate and modify "
+                             "equipment per local codes under licensed review."));
     return o;
 }

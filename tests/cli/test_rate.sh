@@ -66,5 +66,9 @@ d = json.load(open("e.json"))
 assert d["balance"] == "energy" and d["condenser_kJ_per_mol_feed"] > 0 and d["reboiler_kJ_per_mol_feed"] > 0
 assert len(d["stages"]) == 12 and d["steady_states_found"] >= 1
 assert abs(0.09 * d["xd"] + 0.91 * d["xb"] - 0.1) < 1e-12
+assert "energy balance" in d["caution"] and "constant molal" not in d["caution"], d["caution"]
 PY
+python3 -c '
+import json; d = json.load(open("r.json"))
+assert "constant molal overflow" in d["caution"]' || fail "constant-overflow caution"
 echo "rate CLI tests passed"

@@ -61,5 +61,53 @@ assert d["r_min"] == e["r_min"]
 lo, hi = d["r_min_ci95"]
 assert lo < d["r_min"] < hi and 0 <= d["feasible_probability"] <= 1
 PY
-"$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components heat.csv --energy --compare demo.json 2>err.txt && fail "--energy --compare accepted"
+# --energy with --compare: every compared model is solved with energy balances (the same heat
+# data); each row's R_min is that fit's own `reflux --energy` answer.
+"$pw" fit "$src/datasets/demo_acetone_water.csv" --model wilson --out demo_w.json >/dev/null 2>&1 || fail "wilson fit"
+"$pw" reflux demo_w.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components heat.csv --energy --json > ew.json 2>/dev/null || fail "reflux --energy, wilson"
+"$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components heat.csv --energy --compare demo_w.json --json > cmp.json 2>/dev/null || fail "--energy --compare"
+python3 - <<'PY' || fail "--energy --compare keys"
+import json
+d = json.load(open("cmp.json")); e = json.load(open("e.json")); w = json.load(open("ew.json"))
+m = d["model_comparison"]
+assert m["balance"] == "energy", m
+rows = {r["fit_file"]: r for r in m["models"]}
+assert abs(rows["demo.json"]["r_min"] - e["r_min"]) <= 1e-9 * e["r_min"], (rows, e["r_min"])
+assert abs(rows["demo_w.json"]["r_min"] - w["r_min"]) <= 1e-9 * w["r_min"], (rows, w["r_min"])
+assert d["r_min"] == e["r_min"] and d["balance"] == "energy"
+PY
+"$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components heat.csv --energy --compare demo_w.json > cmp.txt 2>/dev/null || fail "--energy --compare text"
+grep -q "energy balances" cmp.txt || fail "--compare text does not name the balance: $(cat cmp.txt)"
+
+# Component 1 leaving with the bottoms: the invented demo data with the components named the
+# other way round (x -> 1 - x) give the same column (R_min, pinch, duties) to the fits' precision.
+python3 - "$src/datasets/demo_acetone_water.csv" <<'PY' || fail "swapped demo data"
+import sys
+lines = open(sys.argv[1]).read().splitlines()
+out = []
+for l in lines:
+    if l.startswith("# components:"):
+        out.append("# components: water, acetone")
+    elif l.startswith("#") or l.startswith("x1"):
+        out.append(l)
+    elif l.strip():
+        x, y, t = l.split(",")
+        out.append("%r,%r,%s" % (1 - float(x), 1 - float(y), t))
+open("swapped.csv", "w").write("\n".join(out) + "\n")
+PY
+"$pw" fit swapped.csv --model nrtl --out sw.json >/dev/null 2>&1 || fail "swapped fit"
+"$pw" reflux sw.json --pressure 1atm --xd 0.05 --xb 0.98 --zf 0.90 --components heat.csv --energy --json > sw.out.json 2>err.txt || fail "--energy with component 1 to the bottoms: $(cat err.txt)"
+python3 - <<'PY' || fail "bottoms direction = swapped naming"
+import json
+e = json.load(open("e.json")); s = json.load(open("sw.out.json"))
+assert s["feasible"] and s["balance"] == "energy"
+assert abs(s["r_min"] - e["r_min"]) <= 1e-4 * e["r_min"], (s["r_min"], e["r_min"])
+assert s["pinch"]["kind"] == e["pinch"]["kind"] and s["pinch"]["section"] == e["pinch"]["section"]
+assert abs(s["pinch"]["x"] - (1 - e["pinch"]["x"])) < 1e-3, (s["pinch"], e["pinch"])
+for a, b in zip(s["design"], e["design"]):
+    assert a["feed_stage"] == b["feed_stage"] and abs(a["stages"] - b["stages"]) < 0.05 * b["stages"]
+    assert abs(a["condenser_kJ_per_mol_feed"] - b["condenser_kJ_per_mol_feed"]) < 1e-3 * b["condenser_kJ_per_mol_feed"]
+    p = a["profile"]
+    assert abs(p[0]["y1"] - 0.05) < 1e-12 and p[-1]["x1"] >= 0.98 - 1e-9   # fractions of component 1
+PY
 echo "reflux --energy CLI tests passed"

@@ -175,6 +175,69 @@ static void test_round_trip_and_balances(void **state)
     }
 }
 
+/* Design -> rate at several reflux ratios, from just above R_min (a staircase pinched near the
+ * feed or a tangent) to far above it: the column stepped with energy balances at R down to the
+ * xb that takes exactly N stages, rated with N, its feed stage, R and D, gives back its products,
+ * and the root enumeration proves that steady state the only one. */
+static void test_round_trip_several_reflux(void **state)
+{
+    (void)state;
+    pw_system sys = nrtl_system();
+    pw_heat_data h = heats(&sys, 36000.0, 41000.0, 110.0, 76.0, 60.0, 34.0);
+    const double qs[] = {1.0, 0.4};
+    const double factors[] = {1.05, 1.2, 1.6, 3.0};
+    int n = 0;
+    unsigned long evals = 0;
+    for (int k = 0; k < 2; k++) {
+        pw_column_spec s0 = {.xd = 0.95, .xb = 0.02, .zf = 0.45, .q = qs[k]};
+        pw_energy_result er;
+        assert_int_equal(pw_energy_column_solve(&sys, &h, P_PA, &s0, NULL, &er, NULL), PW_OK);
+        assert_true(er.feasible && er.r_min > 0.0);
+        for (int f = 0; f < 4; f++) {
+            dctx c = {&sys, &h, s0, factors[f] * er.r_min, 0.0, 0};
+            pw_profile prof;
+            assert_int_equal(
+                pw_energy_profile(&sys, &h, P_PA, &c.s, c.R, 500, &prof, NULL, NULL), PW_OK);
+            c.N = ceil(prof.stages);
+            pw_profile_free(&prof);
+            gsl_root_fsolver *rs = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+            gsl_function F = {stages_minus_N, &c};
+            const double lo = 0.004, hi = 0.02;
+            if (!(stages_minus_N(lo, &c) > 0.0 && stages_minus_N(hi, &c) <= 0.0))
+                fail_msg("q %g, factor %g: no xb bracket", qs[k], factors[f]);
+            assert_int_equal(gsl_root_fsolver_set(rs, &F, lo, hi), GSL_SUCCESS);
+            double xb = NAN;
+            for (int it = 0; it < 200; it++) {
+                gsl_root_fsolver_iterate(rs);
+                double a = gsl_root_fsolver_x_lower(rs), b = gsl_root_fsolver_x_upper(rs);
+                if (gsl_root_test_interval(a, b, 1e-15, 1e-13) == GSL_SUCCESS) {
+                    xb = gsl_root_fsolver_root(rs);
+                    break;
+                }
+            }
+            gsl_root_fsolver_free(rs);
+            assert_true(isfinite(xb));
+            stages_minus_N(xb, &c);
+            const double D = (c.s.zf - xb) / (c.s.xd - xb);
+            pw_rate_spec spec = {(int)c.N, c.feed, c.R, c.s.zf, c.s.q, D};
+            pw_rate_result r;
+            pw_error err;
+            double qc, qr;
+            size_t roots;
+            if (pw_rate_energy(&sys, &h, P_PA, &spec, &r, &qc, &qr, &roots, &err) != PW_OK)
+                fail_msg("q %g, factor %g: %s", qs[k], factors[f], err.msg);
+            pw_assert_close(r.xd, c.s.xd, 0, 1e-7, "rated xd = designed xd");
+            pw_assert_close(r.xb, xb, 0, 1e-7, "rated xb = designed xb");
+            assert_int_equal(roots, 1);
+            evals += (unsigned long)r.iterations;
+            pw_rate_result_free(&r);
+            n++;
+        }
+    }
+    print_message("design -> rate at 1.05 to 3 R_min: %d columns, %lu residual evaluations\n", n,
+                  evals);
+}
+
 static void test_refusals(void **state)
 {
     (void)state;
@@ -196,6 +259,7 @@ int main(void)
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_equal_heats_is_cmo),
         cmocka_unit_test(test_round_trip_and_balances),
+        cmocka_unit_test(test_round_trip_several_reflux),
         cmocka_unit_test(test_refusals),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
