@@ -13,7 +13,18 @@
 #include <pinchwise/units.h>
 #include <stdbool.h>
 
-#define PW_EXIT_USAGE 2
+/* Exit codes of the program (docs/exit-codes.md holds the same table). */
+#define PW_EXIT_OK 0
+#define PW_EXIT_OTHER 1      /* a failure with no status (should not happen) */
+#define PW_EXIT_USAGE 2      /* bad command line or argument (PW_EINVAL) */
+#define PW_EXIT_INPUT 3      /* malformed or insufficient input, name not found */
+#define PW_EXIT_FILE 4       /* file input/output, output exists or is an input */
+#define PW_EXIT_MEMORY 5     /* out of memory */
+#define PW_EXIT_NUMERIC 6    /* a computation failed: outside a model's domain, no convergence */
+#define PW_EXIT_INFEASIBLE 7 /* the specification cannot be met */
+
+/* The exit code for a library status (cli_exit.c: the one table); 1 for a value out of range. */
+int pw_status_exit_code(pw_status status);
 
 typedef struct pw_cli_command {
     const char *name;
