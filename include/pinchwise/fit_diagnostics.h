@@ -30,28 +30,28 @@ extern "C" {
 #endif
 
 /* Thresholds named above. */
-#define PW_DIAG_PURE_MISS_K 2.0      /* isobaric pure-component point, K (common practice) */
-#define PW_DIAG_PURE_MISS_PCT 5.0    /* isothermal pure-component point, % of P (common practice) */
-#define PW_DIAG_SWAP_RATIO 0.25      /* exchanged names miss by less than this fraction */
-#define PW_DIAG_CORRELATION 0.95     /* |correlation| of two fitted parameters */
+#define PW_DIAG_PURE_MISS_K 2.0   /* isobaric pure-component point, K (common practice) */
+#define PW_DIAG_PURE_MISS_PCT 5.0 /* isothermal pure-component point, % of P (common practice) */
+#define PW_DIAG_SWAP_RATIO 0.25   /* exchanged names miss by less than this fraction */
+#define PW_DIAG_CORRELATION 0.95  /* |correlation| of two fitted parameters */
 
 typedef enum pw_fit_diag_kind {
-    PW_DIAG_RANGE_BELOW = 0,  /* data below a component's vapor-pressure range: comp, value = K */
-    PW_DIAG_RANGE_ABOVE,      /* data above it: comp, value = K */
-    PW_DIAG_PURE_MISS,        /* a pure-component point misses the vapor pressure: line, value =
-                                 miss (unit in value_unit), value2 = miss with names exchanged */
-    PW_DIAG_SWAPPED,          /* as PW_DIAG_PURE_MISS, and the names exchanged fit: swapped */
-    PW_DIAG_DUPLICATES,       /* count points repeat another exactly: line repeats line2 */
-    PW_DIAG_VAPOR_ASSOCIATION,/* comp is a carboxylic acid: the vapor dimerises */
-    PW_DIAG_RUNAWAY,          /* did not converge: param ran beyond its bound (-1 unknown) */
-    PW_DIAG_NOT_CONVERGED,    /* did not converge otherwise */
-    PW_DIAG_EXACT,            /* residuals at rounding level */
-    PW_DIAG_UNIDENTIFIABLE,   /* a parameter combination the data do not fix (weak_dir) */
-    PW_DIAG_HETEROGENEOUS,    /* three-phase points (count) and tie lines (count2) fitted */
-    PW_DIAG_LIQUID_SPLIT,     /* the parameters predict a split: value = D, value2 = x1,
-                                 value3 = T_K */
-    PW_DIAG_COMPETING_MINIMA, /* count distinct minima fit about equally well */
-    PW_DIAG_CORRELATED,       /* param and param2 correlated: value = correlation */
+    PW_DIAG_RANGE_BELOW = 0,   /* data below a component's vapor-pressure range: comp, value = K */
+    PW_DIAG_RANGE_ABOVE,       /* data above it: comp, value = K */
+    PW_DIAG_PURE_MISS,         /* a pure-component point misses the vapor pressure: line, value =
+                                  miss (unit in value_unit), value2 = miss with names exchanged */
+    PW_DIAG_SWAPPED,           /* as PW_DIAG_PURE_MISS, and the names exchanged fit: swapped */
+    PW_DIAG_DUPLICATES,        /* count points repeat another exactly: line repeats line2 */
+    PW_DIAG_VAPOR_ASSOCIATION, /* comp is a carboxylic acid: the vapor dimerises */
+    PW_DIAG_RUNAWAY,           /* did not converge: param ran beyond its bound (-1 unknown) */
+    PW_DIAG_NOT_CONVERGED,     /* did not converge otherwise */
+    PW_DIAG_EXACT,             /* residuals at rounding level */
+    PW_DIAG_UNIDENTIFIABLE,    /* a parameter combination the data do not fix (weak_dir) */
+    PW_DIAG_HETEROGENEOUS,     /* three-phase points (count) and tie lines (count2) fitted */
+    PW_DIAG_LIQUID_SPLIT,      /* the parameters predict a split: value = D, value2 = x1,
+                                  value3 = T_K */
+    PW_DIAG_COMPETING_MINIMA,  /* count distinct minima fit about equally well */
+    PW_DIAG_CORRELATED,        /* param and param2 correlated: value = correlation */
     PW_DIAG_KIND_COUNT
 } pw_fit_diag_kind;
 
@@ -67,9 +67,9 @@ typedef enum pw_fit_diag_severity {
 typedef struct pw_fit_diag {
     pw_fit_diag_kind kind;
     pw_fit_diag_severity severity;
-    long line, line2;      /* data-file lines, 0 when none */
-    int comp;              /* component index 0 or 1, -1 when none */
-    int param, param2;     /* parameter indices of the model, -1 when none */
+    long line, line2;  /* data-file lines, 0 when none */
+    int comp;          /* component index 0 or 1, -1 when none */
+    int param, param2; /* parameter indices of the model, -1 when none */
     size_t count, count2;
     double value, value2, value3; /* NAN when unused */
     const char *value_unit;       /* unit of value ("K", "%", ""), never NULL */

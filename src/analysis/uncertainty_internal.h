@@ -12,7 +12,7 @@
 typedef struct pw_unc_sampler {
     const pw_model_type *model;
     double center[PW_MAX_PARAMS];
-    size_t p, idx[PW_MAX_PARAMS];   /* fitted parameters with non-zero variance */
+    size_t p, idx[PW_MAX_PARAMS];           /* fitted parameters with non-zero variance */
     double L[PW_MAX_PARAMS][PW_MAX_PARAMS]; /* p x p factor, L L^T = C (reduced) */
     size_t rank;
     bool eigen;

@@ -184,7 +184,8 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
                 json_object_set_new(e, "aad_y", pw_cli_json_num(jobs[i].aad_y));
                 json_object_set_new(e, "aad_T_K", pw_cli_json_num(jobs[i].aad_T_K));
                 json_object_set_new(e, "aad_P_kPa", pw_cli_json_num(jobs[i].aad_P_Pa / 1e3));
-                json_object_set_new(e, "diagnostics", pw_fit_diags_json(&jobs[i].diags, &jobs[i].sys));
+                json_object_set_new(e, "diagnostics",
+                                    pw_fit_diags_json(&jobs[i].diags, &jobs[i].sys));
                 json_array_append_new(fits, e);
             } else {
                 char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];

@@ -149,8 +149,7 @@ static void pure_points(const pw_fit_result *r, pw_fit_diags *d)
     g->value = miss;
     g->value2 = exchanged;
     g->value_unit = isobaric ? "K" : "%";
-    say(g, "a pure-component point misses the vapor pressure by %.1f %s%s", miss,
-        g->value_unit,
+    say(g, "a pure-component point misses the vapor pressure by %.1f %s%s", miss, g->value_unit,
         swapped ? "; the components look swapped (x1 must be the mole fraction of the first "
                   "name in '# components:')"
                 : "; check the component names and their vapor-pressure constants");
@@ -198,8 +197,9 @@ static pw_status duplicates(const pw_fit_result *r, pw_fit_diags *d)
         g->line = first;
         g->line2 = of;
         g->count = dup;
-        say(g, "%zu duplicated point%s (line %ld repeats line %ld); fitted as replicate "
-               "measurements, each with full weight",
+        say(g,
+            "%zu duplicated point%s (line %ld repeats line %ld); fitted as replicate "
+            "measurements, each with full weight",
             dup, dup == 1 ? "" : "s", first, of);
     }
     return PW_OK;
@@ -212,9 +212,10 @@ static void association(const pw_fit_result *r, pw_fit_diags *d)
         if (pw_component_vapor_associates(&r->sys.comp[i]) &&
             (g = add(d, PW_DIAG_VAPOR_ASSOCIATION, PW_DIAG_WARNING))) {
             g->comp = i;
-            say(g, "%s dimerises in the vapor; the ideal-vapor model used here can be off by "
-                   "tens of percent even at 1 atm (chemical theory: Marek & Standart 1954; "
-                   "Hayden & O'Connell 1975): treat the results as rough",
+            say(g,
+                "%s dimerises in the vapor; the ideal-vapor model used here can be off by "
+                "tens of percent even at 1 atm (chemical theory: Marek & Standart 1954; "
+                "Hayden & O'Connell 1975): treat the results as rough",
                 r->sys.comp[i].name);
         }
     }
@@ -227,8 +228,9 @@ static void convergence(const pw_fit_result *r, pw_fit_diags *d)
     if (r->fit_class == PW_FIT_RUNAWAY) {
         if ((g = add(d, PW_DIAG_RUNAWAY, PW_DIAG_SEVERE))) {
             g->param = r->runaway_param;
-            say(g, "the %s fit did NOT converge: %s ran beyond its physical bound "
-                   "(docs/fitting.md) and no bounded minimum was found; do not design with it",
+            say(g,
+                "the %s fit did NOT converge: %s ran beyond its physical bound "
+                "(docs/fitting.md) and no bounded minimum was found; do not design with it",
                 m->name,
                 r->runaway_param >= 0 && (size_t)r->runaway_param < m->n_params
                     ? m->param_names[r->runaway_param]
@@ -239,8 +241,9 @@ static void convergence(const pw_fit_result *r, pw_fit_diags *d)
             pw_fit_class_name(r->fit_class), pw_fit_stop_name(r->stop));
     }
     if (r->fit_class == PW_FIT_EXACT && (g = add(d, PW_DIAG_EXACT, PW_DIAG_NOTE)))
-        say(g, "the %s model reproduces the data to rounding level (noise-free or generated "
-               "data?); standard errors are those the stated uncertainties imply",
+        say(g,
+            "the %s model reproduces the data to rounding level (noise-free or generated "
+            "data?); standard errors are those the stated uncertainties imply",
             m->name);
     if (r->converged && !r->identifiable && (g = add(d, PW_DIAG_UNIDENTIFIABLE, PW_DIAG_WARNING))) {
         char combo[256] = "";
@@ -252,9 +255,10 @@ static void convergence(const pw_fit_result *r, pw_fit_diags *d)
                                         len == 0 && r->weak_dir[k] < 0 ? "-" : "",
                                         fabs(r->weak_dir[k]), m->param_names[k]);
         g->value = r->sv_ratio;
-        say(g, "the data do not fix the parameter combination along (%s): moving the parameters "
-               "that way leaves the fit unchanged; the standard errors of the parameters it "
-               "involves are not meaningful (null)",
+        say(g,
+            "the data do not fix the parameter combination along (%s): moving the parameters "
+            "that way leaves the fit unchanged; the standard errors of the parameters it "
+            "involves are not meaningful (null)",
             combo);
     }
 }
@@ -266,8 +270,9 @@ static void liquids(const pw_fit_result *r, pw_fit_diags *d)
         if ((g = add(d, PW_DIAG_HETEROGENEOUS, PW_DIAG_NOTE))) {
             g->count = r->n_three_phase;
             g->count2 = r->n_tie_lines;
-            say(g, "partly miscible liquids: %zu three-phase point%s and %zu tie line%s fitted "
-                   "as such (docs/heterogeneous.md)",
+            say(g,
+                "partly miscible liquids: %zu three-phase point%s and %zu tie line%s fitted "
+                "as such (docs/heterogeneous.md)",
                 r->n_three_phase, r->n_three_phase == 1 ? "" : "s", r->n_tie_lines,
                 r->n_tie_lines == 1 ? "" : "s");
         }
@@ -275,8 +280,9 @@ static void liquids(const pw_fit_result *r, pw_fit_diags *d)
         g->value = r->split_min_D;
         g->value2 = r->split_x;
         g->value3 = r->split_T_K;
-        say(g, "the %s parameters predict a liquid-liquid split (d2(Gmix/RT)/dx1^2 = %.3g at "
-               "x1 = %.3f, %.1f K); if the liquids are known to mix, the fit is spurious",
+        say(g,
+            "the %s parameters predict a liquid-liquid split (d2(Gmix/RT)/dx1^2 = %.3g at "
+            "x1 = %.3f, %.1f K); if the liquids are known to mix, the fit is spurious",
             r->sys.model->name, r->split_min_D, r->split_x, r->split_T_K);
     }
 }
@@ -288,8 +294,9 @@ static void minima_and_correlation(const pw_fit_result *r, pw_fit_diags *d)
     size_t competing = pw_fit_competing_minima(r);
     if (competing > 1 && (g = add(d, PW_DIAG_COMPETING_MINIMA, PW_DIAG_WARNING))) {
         g->count = competing;
-        say(g, "%zu distinct minima fit the data about equally well (delta-AICc < 2); the one "
-               "without a liquid split and lowest chi2 is used, all are in the fit file",
+        say(g,
+            "%zu distinct minima fit the data about equally well (delta-AICc < 2); the one "
+            "without a liquid split and lowest chi2 is used, all are in the fit file",
             competing);
     }
     if (!r->identifiable) /* the correlations are not meaningful then */
@@ -301,8 +308,9 @@ static void minima_and_correlation(const pw_fit_result *r, pw_fit_diags *d)
                 g->param = (int)a;
                 g->param2 = (int)b;
                 g->value = r->corr[a][b];
-                say(g, "parameters %s and %s are correlated (%.3f): poorly identifiable from "
-                       "these data",
+                say(g,
+                    "parameters %s and %s are correlated (%.3f): poorly identifiable from "
+                    "these data",
                     m->param_names[a], m->param_names[b], r->corr[a][b]);
             }
 }
@@ -359,7 +367,8 @@ json_t *pw_fit_diags_json(const pw_fit_diags *d, const pw_system *sys)
                             g->comp == 0 || g->comp == 1 ? json_string(sys->comp[g->comp].name)
                                                          : json_null());
         json_object_set_new(o, "parameters", params);
-        json_object_set_new(o, "count", g->count ? json_integer((json_int_t)g->count) : json_null());
+        json_object_set_new(o, "count",
+                            g->count ? json_integer((json_int_t)g->count) : json_null());
         json_object_set_new(o, "value", num_or_null(g->value));
         json_object_set_new(o, "unit", json_string(g->value_unit ? g->value_unit : ""));
         json_object_set_new(o, "message", json_string(g->message));

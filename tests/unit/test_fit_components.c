@@ -22,7 +22,10 @@ static int setup(void **state)
     return mkdtemp(dir) ? 0 : -1;
 }
 
-static void path_in(char *buf, size_t n, const char *name) { snprintf(buf, n, "%s/%s", dir, name); }
+static void path_in(char *buf, size_t n, const char *name)
+{
+    snprintf(buf, n, "%s/%s", dir, name);
+}
 
 static void write_text(const char *path, const char *text)
 {
@@ -44,8 +47,14 @@ static pw_component comp(const char *name, double A, double B, double C, double 
 
 /* methanol and water: V_L near 25 C (CRC, from memory), r and q of Abrams & Prausnitz (1975)
  * (from memory; the shipped library's values) */
-static pw_component methanol(void) { return comp("methanol", 16.5785, 3638.27, 239.500, 40.73, 1.4311, 1.432); }
-static pw_component water(void) { return comp("water", 16.3872, 3885.70, 230.170, 18.07, 0.92, 1.40); }
+static pw_component methanol(void)
+{
+    return comp("methanol", 16.5785, 3638.27, 239.500, 40.73, 1.4311, 1.432);
+}
+static pw_component water(void)
+{
+    return comp("water", 16.3872, 3885.70, 230.170, 18.07, 0.92, 1.40);
+}
 
 /* Replacement rows (invented): methanol's Antoine A and every constant changed, water's
  * correlation unchanged but its V_L, r and q changed. */
@@ -78,8 +87,10 @@ static void make_data(pw_dataset *ds, const pw_system *s, size_t n)
         double x = 0.05 + 0.9 * (double)i / (double)(n - 1);
         pw_eq_point e;
         assert_int_equal(pw_bubble_T(s, 101325.0, x, &e), PW_OK);
-        ds->pts[i] = (pw_point){.x1 = x, .y1 = e.y1 + 0.003 * sin(3.1 * (double)i),
-                                .T_K = e.T_K + 0.08 * cos(1.7 * (double)i), .P_Pa = 101325.0,
+        ds->pts[i] = (pw_point){.x1 = x,
+                                .y1 = e.y1 + 0.003 * sin(3.1 * (double)i),
+                                .T_K = e.T_K + 0.08 * cos(1.7 * (double)i),
+                                .P_Pa = 101325.0,
                                 .line = (long)i + 4};
     }
 }
@@ -135,10 +146,10 @@ static void same_as_scratch(const pw_fit_result *r, const char *comps_path, cons
         double P1, P2;
         assert_int_equal(pw_psat(&s.comp[0], m->T_K, &P1, NULL), PW_OK);
         assert_int_equal(pw_psat(&s.comp[1], m->T_K, &P2, NULL), PW_OK);
-        pw_assert_close(r->pts[i].lngamma_exp[0], log(m->y1 * m->P_Pa / (m->x1 * P1)), 1e-12,
-                        1e-14, label);
-        pw_assert_close(r->pts[i].lngamma_exp[1],
-                        log((1 - m->y1) * m->P_Pa / ((1 - m->x1) * P2)), 1e-12, 1e-14, label);
+        pw_assert_close(r->pts[i].lngamma_exp[0], log(m->y1 * m->P_Pa / (m->x1 * P1)), 1e-12, 1e-14,
+                        label);
+        pw_assert_close(r->pts[i].lngamma_exp[1], log((1 - m->y1) * m->P_Pa / ((1 - m->x1) * P2)),
+                        1e-12, 1e-14, label);
     }
     /* infinite dilution at T_ref from the new parameters */
     pw_activity a0;
@@ -171,8 +182,8 @@ static void wilson_volumes_and_vapor_pressures(void **state)
     assert_int_equal(pw_fitfile_read(fpath, &plain, &err), PW_OK);
     pw_assert_close(plain.sys.params[2], 18.07 / 40.73, 1e-15, 0, "V2_V1 from the fit's data");
     assert_int_equal(pw_fitfile_load(fpath, cpath, &loaded, changed, &err), PW_OK);
-    assert_true(changed[0]);  /* methanol's A differs */
-    assert_false(changed[1]); /* water's correlation is the same */
+    assert_true(changed[0]);                                  /* methanol's A differs */
+    assert_false(changed[1]);                                 /* water's correlation is the same */
     assert_string_equal(loaded.sys.comp[0].name, "methanol"); /* the fit's spelling */
     const double fixed[] = {18.3 / 42.5};
     same_as_scratch(&loaded, cpath, fixed, 2);

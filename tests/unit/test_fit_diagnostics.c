@@ -67,8 +67,8 @@ static void add_point(pw_dataset *ds, double x1, double y1, double T_K)
     ds->n++;
 }
 
-static void fit_and_diagnose(const pw_dataset *ds, const pw_component *c1,
-                             const pw_component *c2, pw_fit_result *r, pw_fit_diags *d)
+static void fit_and_diagnose(const pw_dataset *ds, const pw_component *c1, const pw_component *c2,
+                             pw_fit_result *r, pw_fit_diags *d)
 {
     pw_fit_options o = pw_fit_default_options();
     pw_error err;
