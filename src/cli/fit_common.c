@@ -32,10 +32,12 @@ void pw_fit_cli_print_diags(const char *input, const pw_fit_diags *d, bool range
         const pw_fit_diag *g = &d->items[i];
         if (!ranges && (g->kind == PW_DIAG_RANGE_BELOW || g->kind == PW_DIAG_RANGE_ABOVE))
             continue;
+        /* the library's sentence names no command; the program adds where to go next */
+        const char *next = g->kind == PW_DIAG_HETEROGENEOUS ? "; see pinchwise lle and decanter" : "";
         if (g->line > 0)
-            pw_cli_warnf("fit", "%s:%ld: %s", input, g->line, g->message);
+            pw_cli_warnf("fit", "%s:%ld: %s%s", input, g->line, g->message, next);
         else
-            pw_cli_warnf("fit", "%s: %s", input, g->message);
+            pw_cli_warnf("fit", "%s: %s%s", input, g->message, next);
     }
 }
 
