@@ -107,14 +107,18 @@ pw_status pw_column_total_reflux(const pw_curve *curve, double xd, double xb, si
                                  double *stages);
 
 /* Closed forms for constant relative volatility alpha (tests and near-ideal checks):
- * Underwood (1948) R_min for any q, Fenske (1932) N_min. */
+ * Underwood (1948) R_min for any q; Fenske (1932) N_min = ln[(xd/(1-xd))((1-xb)/xb)]/ln(alpha)
+ * into *n_min. PW_EINVAL (the output untouched) unless alpha > 1 is finite and
+ * 0 < xb < xd < 1, or for a NULL output. */
 pw_status pw_underwood_rmin(double alpha, double zf, double xd, double q, double *r_min);
-double pw_fenske_nmin(double alpha, double xd, double xb);
+pw_status pw_fenske_nmin(double alpha, double xd, double xb, double *n_min);
 
-/* Gilliland-type correlations: stages N from N_min, R, R_min. Molokanov et al. (1972) and
- * Eduljee (1975). */
-double pw_gilliland_molokanov(double n_min, double R, double r_min);
-double pw_gilliland_eduljee(double n_min, double R, double r_min);
+/* Gilliland-type correlations: stages N from N_min, R, R_min into *stages. Molokanov et al.
+ * (1972) and Eduljee (1975). At R = R_min Molokanov's N is +infinity (PW_OK: the limit).
+ * PW_EINVAL (the output untouched) unless N_min >= 0 and R_min >= 0 are finite and R >= R_min
+ * is finite, or for a NULL output. */
+pw_status pw_gilliland_molokanov(double n_min, double R, double r_min, double *stages);
+pw_status pw_gilliland_eduljee(double n_min, double R, double r_min, double *stages);
 
 #ifdef __cplusplus
 }

@@ -43,13 +43,6 @@ const char *pw_caution_text(void);
 pw_status pw_dataset_components(const pw_complib *lib, const pw_dataset *ds, pw_component out[2],
                                 pw_error *err);
 
-/* For commands that read a fit file: replaces the vapor-pressure data of each of sys's
- * components that the component file at path names. changed[i] (may be NULL) tells whether
- * component i's correlation differs from the fit file's own (the caller may warn: the activity
- * parameters were fitted with the fit file's). PW_OK without change when path is NULL. */
-pw_status pw_system_override_components(pw_system *sys, const char *path, bool changed[2],
-                                        pw_error *err);
-
 /* ---- fit ---- */
 
 /* The `fit --json` document: the fit file without its data and component blocks, plus

@@ -11,6 +11,7 @@
 #ifndef PINCHWISE_FIT_H
 #define PINCHWISE_FIT_H
 
+#include <pinchwise/component.h>
 #include <pinchwise/dataset.h>
 #include <pinchwise/equilibrium.h>
 #include <pinchwise/lledata.h>
@@ -199,11 +200,33 @@ void pw_fit_result_free(pw_fit_result *r);
 pw_status pw_fit_result_copy(pw_fit_result *dst, const pw_fit_result *src);
 
 /* Fit files (JSON, self-contained): write atomically (temporary file + rename). PW_EEXIST when
- * path exists and force is false. Read validates structure, names and numbers. */
+ * path exists and force is false. Read validates structure, names and numbers; the reading
+ * itself computes nothing, and the values derived from the parameters and components (per-point
+ * model values, statistics, infinite dilution, stability screen; pw_fit_evaluate, the stored
+ * chi2 kept) are computed once after it, from the components the result ends up with. */
 pw_status pw_fitfile_write(const char *path, const pw_fit_result *r, bool force, pw_error *err);
 pw_status pw_fitfile_read(const char *path, pw_fit_result *r, pw_error *err);
 pw_status pw_fitfile_parse(const char *buf, size_t len, const char *name, pw_fit_result *r,
                            pw_error *err);
+
+/* pw_fitfile_read, then (components not NULL) the components that the component file at
+ * components names are replaced as by pw_fit_replace_components before anything is derived.
+ * changed may be NULL. On failure r holds nothing to free. */
+pw_status pw_fitfile_load(const char *path, const char *components, pw_fit_result *r,
+                          bool changed[2], pw_error *err);
+
+/* Replaces each component of r that the component file at path names by that file's row (its
+ * vapor-pressure correlation and constants; r keeps its spelling of the name) and recomputes
+ * everything derived from the components: the fixed parameters taken from component data
+ * (Wilson's V2_V1 from V_L, UNIQUAC's r and q; only those that equal what the old components
+ * give, so a ratio set by hand stays, and kept when the new rows lack the data), also in the
+ * recorded minima, and the per-point values, statistics, infinite-dilution values and the
+ * stability screen (pw_fit_evaluate; the fitted chi2 is kept). The activity parameters are not
+ * refitted. changed[i] (may be NULL) tells whether component i's vapor-pressure correlation
+ * differs from the old one (callers may warn). path NULL: PW_OK, nothing changes. Errors of
+ * pw_complib_read; PW_EINVAL without a fit. */
+pw_status pw_fit_replace_components(pw_fit_result *r, const char *path, bool changed[2],
+                                    pw_error *err);
 
 /* Adds the fit file of r as the target path to an output set (pinchwise/fileio.h): nothing is
  * in place before pw_outset_commit. The same checks as pw_outset_add; PW_ENOMEM. */

@@ -28,26 +28,27 @@
 extern "C" {
 #endif
 
-/* The one list of status codes: enum name, exit code of the CLI, message. */
+/* The one list of status codes: enum name, message. (The command-line program's exit code for
+ * each is the program's business: src/cli/cli_exit.c, docs/exit-codes.md.) */
 #define PW_STATUS_LIST(X)                                                          \
-    X(PW_OK, 0, "success")                                                         \
-    X(PW_EINVAL, 2, "invalid argument")                                            \
-    X(PW_EPARSE, 3, "malformed input")                                             \
-    X(PW_EIO, 4, "file input/output error")                                        \
-    X(PW_ENOTFOUND, 3, "not found")                                                \
-    X(PW_EEXIST, 4, "output file exists")                                          \
-    X(PW_ENOMEM, 5, "out of memory")                                               \
-    X(PW_EDOM, 6, "argument outside the domain of the model")                      \
-    X(PW_ERANGE, 6, "value outside the validity range")                            \
-    X(PW_ETOOFEW, 3, "too few data points")                                        \
-    X(PW_ENOBRACKET, 6, "no root inside the search bracket")                       \
-    X(PW_EMAXITER, 6, "iteration limit reached before convergence")                \
-    X(PW_ENOCONV, 6, "solver did not converge")                                    \
-    X(PW_ESINGULAR, 6, "singular or ill-conditioned matrix")                       \
-    X(PW_EINFEASIBLE, 7, "specification cannot be met")
+    X(PW_OK, "success")                                                            \
+    X(PW_EINVAL, "invalid argument")                                               \
+    X(PW_EPARSE, "malformed input")                                                \
+    X(PW_EIO, "file input/output error")                                           \
+    X(PW_ENOTFOUND, "not found")                                                   \
+    X(PW_EEXIST, "output file exists")                                             \
+    X(PW_ENOMEM, "out of memory")                                                  \
+    X(PW_EDOM, "argument outside the domain of the model")                         \
+    X(PW_ERANGE, "value outside the validity range")                               \
+    X(PW_ETOOFEW, "too few data points")                                           \
+    X(PW_ENOBRACKET, "no root inside the search bracket")                          \
+    X(PW_EMAXITER, "iteration limit reached before convergence")                   \
+    X(PW_ENOCONV, "solver did not converge")                                       \
+    X(PW_ESINGULAR, "singular or ill-conditioned matrix")                          \
+    X(PW_EINFEASIBLE, "specification cannot be met")
 
 typedef enum {
-#define PW_STATUS_ENUM(name, exit_code, msg) name,
+#define PW_STATUS_ENUM(name, msg) name,
     PW_STATUS_LIST(PW_STATUS_ENUM)
 #undef PW_STATUS_ENUM
         PW_STATUS_COUNT
@@ -55,9 +56,6 @@ typedef enum {
 
 /* Static message for a status; never NULL, never to be freed. */
 const char *pw_strerror(pw_status status);
-
-/* The CLI's exit code for a status (0 for PW_OK; a small positive number otherwise). */
-int pw_status_exit_code(pw_status status);
 
 #define PW_ERROR_MSG_MAX 640
 #define PW_PATH_MAX 512

@@ -18,7 +18,6 @@
 #ifndef PINCHWISE_UNCERTAINTY_H
 #define PINCHWISE_UNCERTAINTY_H
 
-#include <gsl/gsl_rng.h>
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/column.h>
 #include <pinchwise/equilibrium.h>
@@ -118,30 +117,6 @@ double pw_unc_delta_sd(const double grad[PW_MAX_PARAMS], const bool fitted[PW_MA
                        const double *cov);
 
 /* ---- Drawing parameter sets ---------------------------------------------------------------- */
-
-/* theta = center + sqrt(w) * L z, z ~ N(0, I) (w = dof / chi^2_dof for the t form, else 1). */
-typedef struct pw_unc_sampler {
-    const pw_model_type *model;
-    double center[PW_MAX_PARAMS];
-    size_t p, idx[PW_MAX_PARAMS];   /* fitted parameters with non-zero variance */
-    double L[PW_MAX_PARAMS][PW_MAX_PARAMS]; /* p x p factor, L L^T = C (reduced) */
-    size_t rank;
-    bool eigen;
-    double dof;
-} pw_unc_sampler;
-
-/* Factors C. Cholesky (dpotrf) of the correlation form D^-1 C D^-1 first; on failure the
- * eigen-decomposition (dsyev), with eigenvalues below -1e-8 (relative to the largest) refused
- * (PW_EINVAL: not a covariance) and small negative ones set to zero. cov as for
- * pw_unc_delta_sd (full space, row-major). */
-pw_status pw_unc_sampler_init(pw_unc_sampler *s, const pw_system *sys,
-                              const bool fitted[PW_MAX_PARAMS], const double *cov, double dof);
-
-/* One draw into params (full vector). Draws outside the model's domain (model->check) are
- * redrawn, at most max_tries times; *redrawn (may be NULL) is incremented per rejection.
- * PW_EDOM when every try was rejected. rng is the caller's. */
-pw_status pw_unc_sampler_draw(const pw_unc_sampler *s, gsl_rng *rng, size_t max_tries,
-                              double params[PW_MAX_PARAMS], size_t *redrawn);
 
 /* n parameter sets drawn with seed (for plotting bands of curves): out is caller-owned, n rows. */
 pw_status pw_unc_draw_params(const pw_unc_problem *pb, unsigned long seed, size_t n,

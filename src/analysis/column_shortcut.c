@@ -44,40 +44,45 @@ pw_status pw_underwood_rmin(double alpha, double zf, double xd, double q, double
     return PW_OK;
 }
 
-double pw_fenske_nmin(double alpha, double xd, double xb)
+pw_status pw_fenske_nmin(double alpha, double xd, double xb, double *n_min)
 {
-    if (!(alpha > 1.0) || !isfinite(alpha) || !(xb > 0.0 && xb < xd && xd < 1.0))
-        return NAN;
-    return log((xd / (1.0 - xd)) * ((1.0 - xb) / xb)) / log(alpha);
+    if (!n_min || !(alpha > 1.0) || !isfinite(alpha) || !(xb > 0.0 && xb < xd && xd < 1.0))
+        return PW_EINVAL;
+    *n_min = log((xd / (1.0 - xd)) * ((1.0 - xb) / xb)) / log(alpha);
+    return PW_OK;
 }
 
-/* Gilliland abscissa X = (R - R_min)/(R + 1); NAN for invalid input. */
-static double gilliland_x(double n_min, double R, double r_min)
+/* Gilliland abscissa X = (R - R_min)/(R + 1); PW_EINVAL for invalid input. */
+static pw_status gilliland_x(double n_min, double R, double r_min, double *X)
 {
     if (!(n_min >= 0.0) || !isfinite(n_min) || !(r_min >= 0.0) || !isfinite(R) || !(R >= r_min))
-        return NAN;
-    return (R - r_min) / (R + 1.0);
+        return PW_EINVAL;
+    *X = (R - r_min) / (R + 1.0);
+    return PW_OK;
 }
 
 /* N from Y = (N - N_min)/(N + 1). */
 static double stages_of_y(double Y, double n_min) { return (Y + n_min) / (1.0 - Y); }
 
-double pw_gilliland_molokanov(double n_min, double R, double r_min)
+pw_status pw_gilliland_molokanov(double n_min, double R, double r_min, double *stages)
 {
-    double X = gilliland_x(n_min, R, r_min);
-    if (isnan(X))
-        return NAN;
-    if (X <= 0.0)
-        return INFINITY; /* at minimum reflux */
+    double X;
+    if (!stages || gilliland_x(n_min, R, r_min, &X) != PW_OK)
+        return PW_EINVAL;
+    if (X <= 0.0) {
+        *stages = INFINITY; /* at minimum reflux */
+        return PW_OK;
+    }
     double Y = 1.0 - exp((1.0 + 54.4 * X) / (11.0 + 117.2 * X) * (X - 1.0) / sqrt(X));
-    return stages_of_y(Y, n_min);
+    *stages = stages_of_y(Y, n_min);
+    return PW_OK;
 }
 
-double pw_gilliland_eduljee(double n_min, double R, double r_min)
+pw_status pw_gilliland_eduljee(double n_min, double R, double r_min, double *stages)
 {
-    double X = gilliland_x(n_min, R, r_min);
-    if (isnan(X))
-        return NAN;
-    double Y = 0.75 * (1.0 - pow(X, 0.5668));
-    return stages_of_y(Y, n_min);
+    double X;
+    if (!stages || gilliland_x(n_min, R, r_min, &X) != PW_OK)
+        return PW_EINVAL;
+    *stages = stages_of_y(0.75 * (1.0 - pow(X, 0.5668)), n_min);
+    return PW_OK;
 }

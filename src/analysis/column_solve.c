@@ -190,7 +190,8 @@ static pw_status design_table(pw_column_ws *w, const pw_column_spec *s,
         row->factor = o->factors[i];
         row->R = o->factors[i] * out->r_min;
         row->boilup = pw_column_boilup(s, row->R);
-        row->gilliland_stages = pw_gilliland_molokanov(out->n_min, row->R, out->r_min);
+        if (pw_gilliland_molokanov(out->n_min, row->R, out->r_min, &row->gilliland_stages) != PW_OK)
+            row->gilliland_stages = NAN; /* no N_min: no correlation estimate */
         pw_status st = pw_column_step_ws(w, s, false, row->R, o->max_stages, &row->stages,
                                          &row->feed_stage);
         if (st == PW_ENOMEM)
@@ -203,6 +204,15 @@ static pw_status design_table(pw_column_ws *w, const pw_column_spec *s,
         out->n_design = i + 1;
     }
     return PW_OK;
+}
+
+/* Fenske's N_min at the geometric mean of the end volatilities; NAN where it does not apply
+ * (a mean volatility not above 1). */
+static void fenske(const pw_column_spec *s, pw_column_result *out)
+{
+    if (pw_fenske_nmin(sqrt(out->alpha_top * out->alpha_bottom), s->xd, s->xb, &out->n_fenske) !=
+        PW_OK)
+        out->n_fenske = NAN;
 }
 
 static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
@@ -233,7 +243,7 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
                 st = total_reflux(w, s, o, out);
             if (st != PW_OK)
                 return st;
-            out->n_fenske = pw_fenske_nmin(sqrt(out->alpha_top * out->alpha_bottom), s->xd, s->xb);
+            fenske(s, out);
             out->feasible = true;
             return design_table(w, s, o, out);
         }
@@ -251,7 +261,7 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
                 st = total_reflux(w, s, o, out);
             if (st != PW_OK)
                 return st;
-            out->n_fenske = pw_fenske_nmin(sqrt(out->alpha_top * out->alpha_bottom), s->xd, s->xb);
+            fenske(s, out);
             out->feasible = true;
             return design_table(w, s, o, out);
         }
@@ -271,7 +281,7 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
     st = total_reflux(w, s, o, out);
     if (st != PW_OK)
         return st;
-    out->n_fenske = pw_fenske_nmin(sqrt(out->alpha_top * out->alpha_bottom), s->xd, s->xb);
+    fenske(s, out);
     out->feasible = true;
     return design_table(w, s, o, out);
 }

@@ -128,7 +128,8 @@ pw_status pw_design_cmo(const pw_system *sys, double P_Pa, const pw_column_spec 
         const double D = (spec->zf - spec->xb) / (spec->xd - spec->xb);
         c->boilup = ((c->R + 1.0) * D - (1.0 - spec->q)) / (1.0 - D);
         c->Q_C = c->Q_R = NAN;
-        c->gilliland_stages = pw_gilliland_molokanov(n_min, c->R, r_min);
+        if (pw_gilliland_molokanov(n_min, c->R, r_min, &c->gilliland_stages) != PW_OK)
+            c->gilliland_stages = NAN; /* no N_min: no correlation estimate */
         pw_status st = pw_cmo_profile(sys, P_Pa, spec, c->R, o.max_stages, &c->profile);
         out->n = i + 1;
         if (st == PW_EINFEASIBLE || st == PW_EMAXITER || st == PW_EINVAL) {

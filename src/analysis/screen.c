@@ -186,7 +186,8 @@ static pw_status rough_column(const pw_system *s, const pw_screen_options *o, pw
         double rm;
         if (pw_underwood_rmin(r->alpha_mean, u.zf, u.xd, o->q, &rm) == PW_OK)
             r->r_min_underwood = rm;
-        r->n_fenske = pw_fenske_nmin(r->alpha_mean, u.xd, u.xb);
+        if (pw_fenske_nmin(r->alpha_mean, u.xd, u.xb, &r->n_fenske) != PW_OK)
+            r->n_fenske = NAN; /* compositions outside Fenske's range */
     }
     return PW_OK;
 }

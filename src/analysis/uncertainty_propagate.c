@@ -1,6 +1,8 @@
 /* Propagation of the parameter covariance into results computed from a pw_system: the delta
  * method with central finite differences, and seeded Monte Carlo with percentile intervals.
  * Methods and sources in docs/uncertainty.md. */
+#include "uncertainty_internal.h"
+
 #include <pinchwise/uncertainty.h>
 
 #include <gsl/gsl_cdf.h>

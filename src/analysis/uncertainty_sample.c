@@ -6,6 +6,8 @@
  * of others), R = V diag(lambda) V^T by dsyev and L0 = V diag(sqrt(max(lambda, 0))). The draw is
  * theta = theta_hat + sqrt(w) D L0 z with z ~ N(0, I); w = 1 for the normal, and
  * w = dof / chi^2_dof for the multivariate t (JCGM 102:2011, 6.5, from memory). */
+#include "uncertainty_internal.h"
+
 #include <pinchwise/uncertainty.h>
 
 #include <gsl/gsl_randist.h>

@@ -5,15 +5,9 @@
 #include <string.h>
 
 static const char *const messages[] = {
-#define PW_STATUS_MSG(name, exit_code, msg) msg,
+#define PW_STATUS_MSG(name, msg) msg,
     PW_STATUS_LIST(PW_STATUS_MSG)
 #undef PW_STATUS_MSG
-};
-
-static const int exit_codes[] = {
-#define PW_STATUS_EXIT(name, exit_code, msg) exit_code,
-    PW_STATUS_LIST(PW_STATUS_EXIT)
-#undef PW_STATUS_EXIT
 };
 
 const char *pw_strerror(pw_status status)
@@ -21,13 +15,6 @@ const char *pw_strerror(pw_status status)
     if ((int)status < 0 || status >= PW_STATUS_COUNT)
         return "unknown status";
     return messages[status];
-}
-
-int pw_status_exit_code(pw_status status)
-{
-    if ((int)status < 0 || status >= PW_STATUS_COUNT)
-        return 1;
-    return exit_codes[status];
 }
 
 void pw_error_clear(pw_error *err)

@@ -13,7 +13,18 @@
 #include <pinchwise/units.h>
 #include <stdbool.h>
 
-#define PW_EXIT_USAGE 2
+/* Exit codes of the program (docs/exit-codes.md holds the same table). */
+#define PW_EXIT_OK 0
+#define PW_EXIT_OTHER 1      /* a failure with no status (should not happen) */
+#define PW_EXIT_USAGE 2      /* bad command line or argument (PW_EINVAL) */
+#define PW_EXIT_INPUT 3      /* malformed or insufficient input, name not found */
+#define PW_EXIT_FILE 4       /* file input/output, output exists or is an input */
+#define PW_EXIT_MEMORY 5     /* out of memory */
+#define PW_EXIT_NUMERIC 6    /* a computation failed: outside a model's domain, no convergence */
+#define PW_EXIT_INFEASIBLE 7 /* the specification cannot be met */
+
+/* The exit code for a library status (cli_exit.c: the one table); 1 for a value out of range. */
+int pw_status_exit_code(pw_status status);
 
 typedef struct pw_cli_command {
     const char *name;
@@ -47,18 +58,14 @@ void pw_cli_warnf(const char *cmd, const char *fmt, ...) __attribute__((format(p
  * program was built from, then the installed data directory. */
 pw_status pw_cli_load_components(pw_complib *lib, const char *extra_path, pw_error *err);
 
-/* For commands that read a fit file: when path is not NULL, reads that component file and replaces
- * the vapor-pressure data of each of the system's components that it names (a warning on stderr
- * says so, since the activity parameters were fitted with the fit file's own). */
-pw_status pw_cli_override_components(const char *cmd, pw_system *sys, const char *path,
-                                     pw_error *err);
-
 /* Warns on stderr when a component associates in the vapor (a carboxylic acid): modified
  * Raoult's law, which pinchwise uses, is then unreliable even at 1 atm. */
 void pw_cli_warn_vapor_association(const char *cmd, const pw_system *sys);
 
-/* Reads a fit file and, when components is not NULL, applies pw_cli_override_components. On
- * failure fit is left freed and err filled. */
+/* Reads a fit file and, when components is not NULL, replaces the components that file names
+ * with everything derived from them (pw_fitfile_load); a warning on stderr names each component
+ * whose vapor pressure changed, since the activity parameters were fitted with the fit file's
+ * own. On failure fit is left freed and err filled. */
 pw_status pw_cli_read_fit(const char *cmd, const char *path, const char *components,
                           pw_fit_result *fit, pw_error *err);
 

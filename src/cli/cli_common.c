@@ -4,6 +4,7 @@
 #include <pinchwise/jsontext.h>
 
 #include <pinchwise/dataset.h>
+#include <pinchwise/fit_diagnostics.h>
 
 #include <errno.h>
 #include <math.h>
@@ -138,18 +139,6 @@ bool pw_cli_opt(int argc, char **argv, int *i, const char *name, const char **va
     return true;
 }
 
-pw_status pw_cli_override_components(const char *cmd, pw_system *sys, const char *path,
-                                     pw_error *err)
-{
-    bool changed[2];
-    pw_status st = pw_system_override_components(sys, path, changed, err);
-    for (int i = 0; st == PW_OK && i < 2; i++)
-        if (changed[i])
-            pw_cli_warnf(cmd, "vapor pressure of %s taken from %s; the activity parameters were "
-                         "fitted with the fit file's own correlation", sys->comp[i].name, path);
-    return st;
-}
-
 bool pw_cli_progress_wanted(void)
 {
     return isatty(STDERR_FILENO) != 0;
@@ -188,17 +177,12 @@ pw_status pw_cli_progress_tenths(void *ctx, size_t done, size_t total)
 
 void pw_cli_warn_vapor_association(const char *cmd, const pw_system *sys)
 {
-    for (int i = 0; i < 2; i++) {
-        const char *n = sys->comp[i].name;
-        bool acid = false;
-        for (const char *p = n; *p && !acid; p++)
-            acid = strncasecmp(p, "acid", 4) == 0;
-        if (acid)
+    for (int i = 0; i < 2; i++)
+        if (pw_component_vapor_associates(&sys->comp[i]))
             pw_cli_warnf(cmd, "%s dimerises in the vapor; the ideal-vapor model used here can be off "
                          "by tens of percent even at 1 atm (chemical theory: Marek & Standart 1954; "
                          "Hayden & O'Connell 1975): treat the results as rough",
-                         n);
-    }
+                         sys->comp[i].name);
 }
 
 int pw_cli_fraction(const char *opt, const char *text, double *out, pw_error *err)
@@ -242,12 +226,13 @@ int pw_cli_target_opt(const char *opt, const char *value, pw_cli_targets *t, pw_
 pw_status pw_cli_read_fit(const char *cmd, const char *path, const char *components,
                           pw_fit_result *fit, pw_error *err)
 {
-    pw_status st = pw_fitfile_read(path, fit, err);
-    if (st != PW_OK)
-        return st;
-    st = pw_cli_override_components(cmd, &fit->sys, components, err);
-    if (st != PW_OK)
-        pw_fit_result_free(fit);
+    bool changed[2];
+    pw_status st = pw_fitfile_load(path, components, fit, changed, err);
+    for (int i = 0; st == PW_OK && i < 2; i++)
+        if (changed[i])
+            pw_cli_warnf(cmd, "vapor pressure of %s taken from %s; the activity parameters were "
+                         "fitted with the fit file's own correlation", fit->sys.comp[i].name,
+                         components);
     return st;
 }
 

@@ -89,7 +89,8 @@ static size_t load_others(const report_args *a, const pw_fit_result *fit, pw_fit
             continue;
         pw_error err;
         pw_outset_protect(set, paths[i], NULL); /* an input: no output may replace it */
-        if (pw_fitfile_read(paths[i], &out[n], &err) != PW_OK) {
+        /* the same component replacement as the report's own fit: one set of vapor pressures */
+        if (pw_fitfile_load(paths[i], a->components, &out[n], NULL, &err) != PW_OK) {
             char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
             pw_cli_warnf("report", "%s", pw_error_format(&err, buf, sizeof buf));
             continue;

@@ -4,6 +4,8 @@
 
 #include "cli.h"
 
+#include <pinchwise/fitjson.h>
+
 #include <dirent.h>
 #include <errno.h>
 #include <math.h>
@@ -25,6 +27,8 @@ typedef struct job {
     bool converged;
     size_t n_pts;
     double chi2_red, aad_y, aad_T_K, aad_P_Pa;
+    pw_fit_diags diags; /* the fit's diagnostics, shown after the table (not by the worker) */
+    pw_system sys;      /* names of components and parameters for them */
     pw_error err;
 } job;
 
@@ -55,7 +59,9 @@ static void *worker(void *arg)
         job *j = &b->jobs[i];
         pw_fit_result r;
         pw_error_clear(&j->err);
-        j->rc = pw_fit_one(j->input, j->model, NULL, b->out_dir, b->co, &r, j->path,
+        pw_fit_cli_opts co = *b->co;
+        co.diags = &j->diags;
+        j->rc = pw_fit_one(j->input, j->model, NULL, b->out_dir, &co, &r, j->path,
                            sizeof j->path, &j->err);
         j->converged = j->rc == 0 && r.converged;
         if (j->rc == 0) {
@@ -64,6 +70,7 @@ static void *worker(void *arg)
             j->aad_y = r.dev_y.aad;
             j->aad_T_K = r.dev_T_K.aad;
             j->aad_P_Pa = r.dev_P_Pa.aad;
+            j->sys = r.sys;
             pw_fit_result_free(&r);
         }
         pthread_mutex_lock(&b->lock);
@@ -177,6 +184,8 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
                 json_object_set_new(e, "aad_y", pw_cli_json_num(jobs[i].aad_y));
                 json_object_set_new(e, "aad_T_K", pw_cli_json_num(jobs[i].aad_T_K));
                 json_object_set_new(e, "aad_P_kPa", pw_cli_json_num(jobs[i].aad_P_Pa / 1e3));
+                json_object_set_new(e, "diagnostics",
+                                    pw_fit_diags_json(&jobs[i].diags, &jobs[i].sys));
                 json_array_append_new(fits, e);
             } else {
                 char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
@@ -214,6 +223,11 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
             }
         }
     }
+    /* the same diagnostics as a single fit (data-range ones once per dataset) */
+    if (!co->quiet)
+        for (size_t i = 0; i < n; i++)
+            if (jobs[i].rc == 0)
+                pw_fit_cli_print_diags(jobs[i].input, &jobs[i].diags, i % n_models == 0);
     if (!co->json)
         for (size_t i = 0; i < n; i++)
             if (jobs[i].rc != 0) {

@@ -26,155 +26,19 @@ static void file_stem(const char *path, char *out, size_t n)
         *dot = '\0';
 }
 
-static void warn_ranges(const pw_fit_result *r, const char *input)
+void pw_fit_cli_print_diags(const char *input, const pw_fit_diags *d, bool ranges)
 {
-    for (int i = 0; i < 2; i++) {
-        const pw_component *c = &r->sys.comp[i];
-        double lo = pw_component_range_excess_K(c, r->T_min_K);
-        double hi = pw_component_range_excess_K(c, r->T_max_K);
-        if (lo < 0.0)
-            pw_cli_warnf("fit", "%s: the data reach %.1f K below the vapor-pressure range of %s",
-                         input, -lo, c->name);
-        if (hi > 0.0)
-            pw_cli_warnf("fit", "%s: the data reach %.1f K above the vapor-pressure range of %s",
-                         input, hi, c->name);
-    }
-}
-
-/* Pure-component points (x1 = 0 or 1) against the vapor-pressure correlations: a large miss at
- * both ends that vanishes when the names are exchanged means the components are listed in the
- * wrong order. */
-static double pure_miss(const pw_fit_result *r, const pw_point *m, int comp)
-{
-    const pw_component *c = &r->sys.comp[comp];
-    if (r->kind == PW_DATA_ISOBARIC) {
-        double T;
-        return pw_tsat(c, m->P_Pa, &T) == PW_OK ? fabs(T - m->T_K) : (double)NAN;
-    }
-    double P;
-    return pw_psat(c, m->T_K, &P, NULL) == PW_OK ? fabs(log(P / m->P_Pa)) * 100.0 : (double)NAN;
-}
-
-static void warn_pure_points(const pw_fit_result *r, const char *input)
-{
-    /* miss[as labelled / exchanged]: largest deviation in K (isobaric) or % (isothermal) */
-    double miss[2] = {0.0, 0.0};
-    long line = 0;
-    for (size_t i = 0; i < r->n_pts; i++) {
-        const pw_point *m = &r->pts[i].meas;
-        if (m->x1 > 0.0 && m->x1 < 1.0)
+    for (size_t i = 0; i < d->n; i++) {
+        const pw_fit_diag *g = &d->items[i];
+        if (!ranges && (g->kind == PW_DIAG_RANGE_BELOW || g->kind == PW_DIAG_RANGE_ABOVE))
             continue;
-        int comp = m->x1 >= 1.0 ? 0 : 1;
-        double a = pure_miss(r, m, comp), b = pure_miss(r, m, 1 - comp);
-        if (isfinite(a) && a > miss[0]) {
-            miss[0] = a;
-            line = m->line;
-        }
-        if (isfinite(b))
-            miss[1] = fmax(miss[1], b);
+        /* the library's sentence names no command; the program adds where to go next */
+        const char *next = g->kind == PW_DIAG_HETEROGENEOUS ? "; see pinchwise lle and decanter" : "";
+        if (g->line > 0)
+            pw_cli_warnf("fit", "%s:%ld: %s%s", input, g->line, g->message, next);
+        else
+            pw_cli_warnf("fit", "%s: %s%s", input, g->message, next);
     }
-    bool isobaric = r->kind == PW_DATA_ISOBARIC;
-    double limit = isobaric ? 2.0 : 5.0; /* K or %: well beyond measurement error (common practice) */
-    if (!(miss[0] > limit))
-        return;
-    pw_cli_warnf("fit", "%s:%ld: a pure-component point misses the vapor pressure by %.1f %s%s",
-                 input, line, miss[0], isobaric ? "K" : "%",
-                 miss[1] < 0.25 * miss[0]
-                     ? "; the components look swapped (x1 must be the mole fraction of the first "
-                       "name in '# components:')"
-                     : "; check the component names and their vapor-pressure constants");
-}
-
-/* Points that repeat another point exactly are kept and fitted as replicate measurements. */
-static int cmp_point(const void *a, const void *b)
-{
-    const pw_point *p = &((const pw_fit_point *)a)->meas, *q = &((const pw_fit_point *)b)->meas;
-    double d[4] = {p->x1 - q->x1, p->T_K - q->T_K, p->P_Pa - q->P_Pa,
-                   (isnan(p->y1) ? -1.0 : p->y1) - (isnan(q->y1) ? -1.0 : q->y1)};
-    for (int k = 0; k < 4; k++)
-        if (d[k] != 0.0)
-            return d[k] < 0.0 ? -1 : 1;
-    return (p->line > q->line) - (p->line < q->line);
-}
-
-static void warn_duplicates(const pw_fit_result *r, const char *input)
-{
-    if (r->n_pts < 2)
-        return;
-    pw_fit_point *c = malloc(r->n_pts * sizeof *c);
-    if (!c)
-        return;
-    memcpy(c, r->pts, r->n_pts * sizeof *c);
-    qsort(c, r->n_pts, sizeof *c, cmp_point);
-    size_t dup = 0;
-    long first = 0, of = 0;
-    for (size_t i = 1; i < r->n_pts; i++) {
-        const pw_point *p = &c[i - 1].meas, *q = &c[i].meas;
-        bool same = p->x1 == q->x1 && p->T_K == q->T_K && p->P_Pa == q->P_Pa &&
-                    (p->y1 == q->y1 || (isnan(p->y1) && isnan(q->y1)));
-        if (same && dup++ == 0) {
-            first = q->line;
-            of = p->line;
-        }
-    }
-    free(c);
-    if (dup)
-        pw_cli_warnf("fit", "%s:%ld: %zu duplicated point%s (line %ld repeats line %ld); fitted as "
-                     "replicate measurements, each with full weight",
-                     input, first, dup, dup == 1 ? "" : "s", first, of);
-}
-
-static void warn_fit(const pw_fit_result *r, const char *input)
-{
-    pw_cli_warn_vapor_association("fit", &r->sys);
-    const pw_model_type *m = r->sys.model;
-    if (r->fit_class == PW_FIT_RUNAWAY)
-        pw_cli_warnf("fit", "%s: the %s fit did NOT converge: %s ran beyond its physical bound "
-                     "(docs/fitting.md) and no bounded minimum was found; do not design with it",
-                     input, m->name,
-                     r->runaway_param >= 0 ? m->param_names[r->runaway_param] : "a parameter");
-    else if (!r->converged)
-        pw_cli_warnf("fit", "%s: the %s fit did NOT converge (%s, %s); do not design with it", input,
-                     m->name, pw_fit_class_name(r->fit_class), pw_fit_stop_name(r->stop));
-    if (r->fit_class == PW_FIT_EXACT)
-        pw_cli_warnf("fit", "%s: the %s model reproduces the data to rounding level (noise-free or "
-                     "generated data?); standard errors are those the stated uncertainties imply",
-                     input, m->name);
-    if (r->converged && !r->identifiable) {
-        char combo[256] = "";
-        size_t len = 0;
-        for (size_t k = 0; k < m->n_params && len < sizeof combo - 40; k++)
-            if (r->fitted[k] && fabs(r->weak_dir[k]) > 1e-3)
-                len += (size_t)snprintf(combo + len, sizeof combo - len, "%s%s%.3g %s",
-                                        len ? (r->weak_dir[k] < 0 ? " - " : " + ") : "",
-                                        len == 0 && r->weak_dir[k] < 0 ? "-" : "",
-                                        fabs(r->weak_dir[k]), m->param_names[k]);
-        pw_cli_warnf("fit", "%s: the data do not fix the parameter combination along (%s): moving "
-                     "the parameters that way leaves the fit unchanged; the standard errors of the "
-                     "parameters it involves are not meaningful (null)", input, combo);
-    }
-    if (r->n_three_phase || r->n_tie_lines)
-        pw_cli_warnf("fit", "%s: partly miscible liquids: %zu three-phase point%s and %zu tie line%s "
-                     "fitted as such (docs/heterogeneous.md); see pinchwise lle and decanter",
-                     input, r->n_three_phase, r->n_three_phase == 1 ? "" : "s", r->n_tie_lines,
-                     r->n_tie_lines == 1 ? "" : "s");
-    else if (r->split)
-        pw_cli_warnf("fit",
-                     "%s: the %s parameters predict a liquid-liquid split (d2(Gmix/RT)/dx1^2 = %.3g "
-                     "at x1 = %.3f, %.1f K); if the liquids are known to mix, the fit is spurious",
-                     input, r->sys.model->name, r->split_min_D, r->split_x, r->split_T_K);
-    size_t competing = pw_fit_competing_minima(r);
-    if (competing > 1)
-        pw_cli_warnf("fit", "%s: %zu distinct minima fit the data about equally well (delta-AICc < 2); "
-                     "the one without a liquid split and lowest chi2 is used, all are in the fit file",
-                     input, competing);
-    for (size_t a = 0; a < r->sys.model->n_params; a++)
-        for (size_t b = a + 1; b < r->sys.model->n_params; b++)
-            if (r->identifiable && r->fitted[a] && r->fitted[b] && fabs(r->corr[a][b]) > 0.95)
-                pw_cli_warnf("fit", "%s: parameters %s and %s are correlated (%.3f): poorly "
-                             "identifiable from these data",
-                             input, r->sys.model->param_names[a], r->sys.model->param_names[b],
-                             r->corr[a][b]);
 }
 
 int pw_fit_one(const char *input, const pw_model_type *model, const char *out, const char *out_dir,
@@ -228,12 +92,19 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
         pw_outset_free(set);
         return pw_status_exit_code(st);
     }
-    if (!co->quiet) {
-        if (!co->no_range_warning)
-            warn_ranges(r, input);
-        warn_pure_points(r, input);
-        warn_duplicates(r, input);
-        warn_fit(r, input);
+    if (!co->quiet || co->diags) {
+        pw_fit_diags *d = co->diags ? co->diags : malloc(sizeof *d);
+        st = d ? pw_fit_diagnose(r, d) : PW_ENOMEM;
+        if (st == PW_OK && !co->quiet)
+            pw_fit_cli_print_diags(input, d, !co->no_range_warning);
+        if (d != co->diags)
+            free(d);
+        if (st != PW_OK) {
+            pw_error_set(err, st, input, 0, "fit diagnostics: %s", pw_strerror(st));
+            pw_outset_free(set);
+            pw_fit_result_free(r);
+            return pw_status_exit_code(st);
+        }
     }
     st = pw_fitfile_stage(set, path, r, err);
     if (st == PW_OK)

@@ -5,6 +5,7 @@
 #include <jansson.h>
 #include <pinchwise/component.h>
 #include <pinchwise/fit.h>
+#include <pinchwise/fit_diagnostics.h>
 #include <pinchwise/lledata.h>
 #include <stdbool.h>
 #include <stddef.h>
@@ -18,7 +19,12 @@ typedef struct pw_fit_cli_opts {
     const pw_lle_dataset *lle; /* --lle: tie lines fitted with the VLE data (NULL: none) */
     const char *inputs[4]; /* files read besides the dataset (component files): never written */
     size_t n_inputs;
+    pw_fit_diags *diags; /* when not NULL, receives the fit's diagnostics (batch workers) */
 } pw_fit_cli_opts;
+
+/* Prints the diagnostics on stderr as warnings, each prefixed with input (and the data line);
+ * ranges false leaves out the data-range ones (--model all: given once, not per model). */
+void pw_fit_cli_print_diags(const char *input, const pw_fit_diags *d, bool ranges);
 
 /* Reads input, fits model, writes the fit file (out, else out_dir/<stem>.<model>.json, else
  * fits/<stem>.<model>.json) and leaves the result in r (caller frees) and its path in path.

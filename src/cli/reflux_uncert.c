@@ -63,11 +63,10 @@ static int compare_models(const pw_reflux_args *a, const pw_reflux_run *run, pw_
     pw_status st = PW_OK;
     size_t n_read = 0;
     for (size_t i = 0; i < u->n_compare && st == PW_OK; i++) {
-        st = pw_fitfile_read(u->compare_paths[i], &fits[i], err);
+        st = pw_cli_read_fit("reflux", u->compare_paths[i], a->components, &fits[i], err);
         if (st != PW_OK)
             break;
         n_read++;
-        st = pw_cli_override_components("reflux", &fits[i].sys, a->components, err);
         ptr[i + 1] = &fits[i];
         snprintf(u->paths[i + 1], sizeof u->paths[i + 1], "%s", u->compare_paths[i]);
     }

@@ -83,14 +83,14 @@ static pw_status read_fit(const char *fit_path, const char *fit_text, const char
 {
     pw_status st;
     if (fit_path)
-        st = pw_fitfile_read(fit_path, fit, err);
-    else if (fit_text)
+        return pw_fitfile_load(fit_path, components, fit, NULL, err);
+    if (fit_text)
         st = pw_fitfile_parse(fit_text, strlen(fit_text), name ? name : "fit", fit, err);
     else
         return pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file (or a fit's text) is required");
     if (st != PW_OK)
         return st;
-    st = pw_system_override_components(&fit->sys, components, NULL, err);
+    st = pw_fit_replace_components(fit, components, NULL, err);
     if (st != PW_OK)
         pw_fit_result_free(fit);
     return st;

@@ -1,5 +1,5 @@
 /* Pieces shared by the command documents: numbers, the printed text, the caution, component
- * lookup for a dataset and component overrides for a fit file. Moved from src/cli/ so that the
+ * lookup for a dataset. Moved from src/cli/ so that the
  * program and the Python module share them. */
 #include <math.h>
 #include <pinchwise/commands.h>
@@ -68,32 +68,4 @@ pw_status pw_dataset_components(const pw_complib *lib, const pw_dataset *ds, pw_
     if (st == PW_OK)
         st = find_component(lib, ds, 1, out, &c, err);
     return st;
-}
-
-pw_status pw_system_override_components(pw_system *sys, const char *path, bool changed[2],
-                                        pw_error *err)
-{
-    if (changed)
-        changed[0] = changed[1] = false;
-    if (!path)
-        return PW_OK;
-    pw_complib lib;
-    pw_complib_init(&lib);
-    pw_status st = pw_complib_read(&lib, path, err);
-    if (st != PW_OK)
-        return st;
-    for (int i = 0; i < 2; i++) {
-        const pw_component *c = pw_complib_find(&lib, sys->comp[i].name);
-        if (!c)
-            continue;
-        const pw_component *o = &sys->comp[i];
-        bool same = c->equation == o->equation && c->A == o->A && c->B == o->B && c->C == o->C &&
-                    c->log == o->log && !strcmp(c->P_unit, o->P_unit) &&
-                    !strcmp(c->T_unit, o->T_unit);
-        sys->comp[i] = *c;
-        if (changed)
-            changed[i] = !same;
-    }
-    pw_complib_free(&lib);
-    return PW_OK;
 }

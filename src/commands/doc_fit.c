@@ -9,6 +9,7 @@ json_t *pw_fit_doc(const pw_fit_result *r, const char *fit_file)
     json_object_del(o, "component_data");
     json_object_del(o, "format");
     json_object_del(o, "format_version");
+    json_object_set_new(o, "diagnostics", pw_fit_diagnostics_json(r));
     json_object_set_new(o, "fit_file", fit_file ? json_string(fit_file) : json_null());
     return o;
 }

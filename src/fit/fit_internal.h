@@ -34,6 +34,15 @@ static inline bool fit_is_pure(const pw_point *p) { return p->x1 <= 0.0 || p->x1
 void fit_stability_screen(const pw_system *s, double T_lo, double T_hi, double *min_D,
                           double *x_at_min, double *T_at_min);
 
+/* Replaces the components of r that lib names (keeping r's spelling of the names) and the fixed
+ * parameters taken from their data (fit_components.c); recomputes nothing: fit_derive does.
+ * changed[i] (may be NULL): component i's vapor-pressure correlation differs. */
+pw_status fit_swap_components(pw_fit_result *r, const pw_complib *lib, bool changed[2]);
+
+/* Everything derived from the parameters and components of r (pw_fit_evaluate), keeping the
+ * fit's own chi2; per-point solve failures are NAN, not errors. name labels an error. */
+pw_status fit_derive(pw_fit_result *r, const char *name, pw_error *err);
+
 /* Residual count of one point for the objective. */
 size_t fit_residuals_per_point(pw_objective obj);
 

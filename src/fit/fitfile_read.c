@@ -1,6 +1,7 @@
 /* Reading fit files back into a pw_fit_result, validating structure, names and numbers.
  * Every problem is reported as "FILE: what is wrong (what was expected)"; JSON syntax errors
  * carry jansson's line number. */
+#include "fit_internal.h"
 #include "fitfile_internal.h"
 
 #include <math.h>
@@ -393,8 +394,9 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
         fail(rd, "%s", why);
 }
 
-pw_status pw_fitfile_parse(const char *buf, size_t len, const char *name, pw_fit_result *r,
-                           pw_error *err)
+/* Reads and validates the file's text into r; computes nothing (fit_derive does). */
+static pw_status parse_only(const char *buf, size_t len, const char *name, pw_fit_result *r,
+                            pw_error *err)
 {
     memset(r, 0, sizeof *r);
     json_error_t jerr;
@@ -407,29 +409,59 @@ pw_status pw_fitfile_parse(const char *buf, size_t len, const char *name, pw_fit
     if (rd.st == PW_OK)
         rd.st = pw_fitfile_check(root, r, name, err);
     json_decref(root);
-    if (rd.st == PW_OK) {
-        /* Recompute the derived values so that they always match the parameters. */
-        double chi2 = r->chi2;
-        pw_status st = pw_fit_evaluate(r);
-        r->chi2 = chi2;
-        if (st != PW_OK && st != PW_ENOBRACKET && st != PW_EMAXITER && st != PW_ENOCONV)
-            rd.st = pw_error_set(err, st, name, 0, "the fitted model cannot be evaluated: %s",
-                                 pw_strerror(st));
-    }
     if (rd.st != PW_OK)
         pw_fit_result_free(r);
     return rd.st;
 }
 
-pw_status pw_fitfile_read(const char *path, pw_fit_result *r, pw_error *err)
+/* Reads path, replaces the components that the file at components names (NULL: none), then
+ * derives once from the final components. */
+static pw_status load(const char *buf, size_t len, const char *name, const char *components,
+                      pw_fit_result *r, bool changed[2], pw_error *err)
+{
+    if (changed)
+        changed[0] = changed[1] = false;
+    pw_status st = parse_only(buf, len, name, r, err);
+    if (st != PW_OK)
+        return st;
+    if (components) {
+        pw_complib lib;
+        pw_complib_init(&lib);
+        st = pw_complib_read(&lib, components, err);
+        if (st == PW_OK)
+            st = fit_swap_components(r, &lib, changed);
+        pw_complib_free(&lib);
+    }
+    if (st == PW_OK)
+        st = fit_derive(r, name, err);
+    if (st != PW_OK)
+        pw_fit_result_free(r);
+    return st;
+}
+
+pw_status pw_fitfile_parse(const char *buf, size_t len, const char *name, pw_fit_result *r,
+                           pw_error *err)
+{
+    return load(buf, len, name, NULL, r, NULL, err);
+}
+
+pw_status pw_fitfile_load(const char *path, const char *components, pw_fit_result *r,
+                          bool changed[2], pw_error *err)
 {
     char *buf;
     size_t len;
     memset(r, 0, sizeof *r);
+    if (changed)
+        changed[0] = changed[1] = false;
     pw_status st = pw_read_file(path, FITFILE_MAX_BYTES, &buf, &len, err);
     if (st != PW_OK)
         return st;
-    st = pw_fitfile_parse(buf, len, path, r, err);
+    st = load(buf, len, path, components, r, changed, err);
     free(buf);
     return st;
+}
+
+pw_status pw_fitfile_read(const char *path, pw_fit_result *r, pw_error *err)
+{
+    return pw_fitfile_load(path, NULL, r, NULL, err);
 }

@@ -295,6 +295,7 @@ pw_status pw_report_curves_compute(pw_report_curves *c, const pw_report_input *i
     c->x[0] = 0.0;
     c->x[PW_REPORT_GRID - 1] = 1.0;
     data_curves(c);
+    c->diag_status = pw_fit_diagnose(c->fit, &c->diags);
     consistency(c);
     if (in->column) {
         c->column = true;

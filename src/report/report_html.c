@@ -270,6 +270,37 @@ static void deviations(pw_sbuf *b, const pw_fit_result *r)
     pw_sbuf_puts(b, "</section>\n");
 }
 
+/* The fit's diagnostics: the same list `fit` prints on the terminal. */
+static void diagnostics_section(pw_sbuf *b, const pw_report_curves *c)
+{
+    pw_sbuf_puts(b, "<section id=\"diagnostics\"><h2>Fit diagnostics</h2>\n");
+    if (c->diag_status != PW_OK) {
+        pw_sbuf_puts(b, "<p>Not available: ");
+        esc(b, pw_strerror(c->diag_status));
+        pw_sbuf_puts(b, "</p>\n</section>\n");
+        return;
+    }
+    if (c->diags.n == 0)
+        pw_sbuf_puts(b, "<p>None: nothing in the fit or its data calls for a second look.</p>\n");
+    else
+        pw_sbuf_puts(b, "<table><tr><th>Severity</th><th>File line</th><th>Finding</th></tr>\n");
+    for (size_t i = 0; i < c->diags.n; i++) {
+        const pw_fit_diag *g = &c->diags.items[i];
+        pw_sbuf_printf(b, "<tr><td class=\"%s\">%s</td>",
+                       g->severity == PW_DIAG_NOTE ? "verdict-skip" : "verdict-fail",
+                       pw_fit_diag_severity_name(g->severity));
+        if (g->line > 0)
+            pw_sbuf_printf(b, "<td class=\"num\">%ld</td><td>", g->line);
+        else
+            pw_sbuf_puts(b, "<td></td><td>");
+        esc(b, g->message);
+        pw_sbuf_puts(b, "</td></tr>\n");
+    }
+    if (c->diags.n)
+        pw_sbuf_puts(b, "</table>\n");
+    pw_sbuf_puts(b, "</section>\n");
+}
+
 static const char *verdict_cls(const pw_ctest *t)
 {
     return !t->ran ? "verdict-skip" : t->pass ? "verdict-pass" : "verdict-fail";
@@ -1007,6 +1038,7 @@ pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c
     pw_sbuf_puts(b, "</section>\n");
     parameters(b, r);
     deviations(b, r);
+    diagnostics_section(b, c);
     ranking(b, c);
     consistency_section(b, c);
     azeotropes(b, c, cond);

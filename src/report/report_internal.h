@@ -10,6 +10,7 @@
 #include <pinchwise/consistency.h>
 #include <pinchwise/design.h>
 #include <pinchwise/fit.h>
+#include <pinchwise/fit_diagnostics.h>
 #include <pinchwise/report.h>
 #include <pinchwise/uncertainty.h>
 
@@ -90,6 +91,9 @@ typedef struct pw_report_curves {
     /* every model fitted to the same data, ranked (pw_rank_assess; NULL without others) */
     pw_ranking *rank;
     pw_status rank_status;
+    /* the fit's diagnostics (pw_fit_diagnose): the list `fit` prints */
+    pw_status diag_status;
+    pw_fit_diags diags;
     /* consistency of the measured points */
     bool cons_ran;
     pw_status cons_status;

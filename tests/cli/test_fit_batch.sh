@@ -55,4 +55,29 @@ grep -q "fitted with wilson" "$tmp/table.txt" || fail "no summary line"
 grep -q "chi2/dof" "$tmp/table.txt" || fail "no table header"
 grep -q "b_broken.csv *failed: .*b_broken.csv:8:" "$tmp/table.txt" || fail "failure not in table"
 [ ! -e "$tmp/batch_table/b_broken.wilson.json" ] || fail "a fit file was written for a failed dataset"
+# The diagnostics: a batch shows the same list as a single fit, in its JSON and on stderr,
+# including the duplicated-point note (an altered copy of a shipped set, line 7 repeated).
+mkdir -p "$tmp/dup"
+awk '{print} NR==7{print}' "$src/datasets/methanol_water_1atm.csv" > "$tmp/dup/dup_mw.csv"
+cp "$src/datasets/ethanol_water_1atm.csv" "$tmp/dup/"
+"$pw" fit "$tmp/dup" --model nrtl --out-dir "$tmp/dup_out" --json > "$tmp/dup.json" 2> "$tmp/dup_err.txt" || fail "dup batch"
+for b in dup_mw ethanol_water_1atm; do
+  "$pw" fit "$tmp/dup/$b.csv" --model nrtl --out "$tmp/dup_single_$b.json" --json > "$tmp/dup_single_$b.out" 2> "$tmp/dup_single_$b.err" || fail "dup single $b"
+  # every warning of the single fit appears in the batch's stderr
+  while IFS= read -r line; do
+    grep -qF -- "$line" "$tmp/dup_err.txt" || fail "batch stderr lacks: $line"
+  done < "$tmp/dup_single_$b.err"
+done
+grep -q "dup_mw.csv:8: 1 duplicated point (line 8 repeats line 7)" "$tmp/dup_err.txt" || fail "no duplicate note: $(cat "$tmp/dup_err.txt")"
+python3 - "$tmp" <<'PY' || fail "batch and single diagnostics differ"
+import json, sys
+tmp = sys.argv[1]
+d = json.load(open(f"{tmp}/dup.json"))
+for e in d["fits"]:
+    stem = e["dataset"][:-4]
+    single = json.load(open(f"{tmp}/dup_single_{stem}.out"))
+    assert e["diagnostics"] == single["diagnostics"], (stem, e["diagnostics"], single["diagnostics"])
+kinds = [g["kind"] for g in d["fits"][0]["diagnostics"]]
+assert d["fits"][0]["dataset"] == "dup_mw.csv" and "duplicated-points" in kinds, kinds
+PY
 echo "batch: ok"

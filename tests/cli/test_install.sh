@@ -49,6 +49,16 @@ export PKG_CONFIG_PATH=$libdir/pkgconfig
 cc -std=c17 -Wall -Werror "$src/examples/fit_and_reflux.c" $(pkg-config --cflags --libs pinchwise) \
    -Wl,-rpath,"$libdir" -o ex_pc 2> pc.err || { cat pc.err; fail "build with pkg-config"; }
 ldd ex_pc | grep -q "$libdir/$soname" || fail "example not linked to the installed $soname"
+# Every installed header stands alone with the installed tree's flags, and none exposes the
+# library's internals (GSL's random generators, samplers: src/analysis/*_internal.h).
+for h in "$prefix"/include/pinchwise/*.h; do
+  printf '#include <pinchwise/%s>\n' "$(basename "$h")" > hdr.c
+  cc -std=c17 -Wall -Werror -fsyntax-only hdr.c $(pkg-config --cflags pinchwise) 2> hdr.err \
+    || { cat hdr.err; fail "installed header $(basename "$h") does not compile alone"; }
+  ! grep -q '#include <gsl/' "$h" || fail "installed header $(basename "$h") includes GSL"
+done
+! grep -q "pw_unc_sampler\|gsl_rng\|pw_status_exit_code" "$prefix"/include/pinchwise/*.h \
+  || fail "an installed header exposes the sampler, a random generator or exit codes"
 check_run ./ex_pc pkgconfig installed
 
 # 4. find_package(pinchwise): pinchwise::pinchwise (shared) and pinchwise::pinchwise_static.

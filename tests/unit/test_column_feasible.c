@@ -137,19 +137,40 @@ static void test_gilliland_fits(void **state)
         double factor, molokanov, eduljee;
     } rows[] = {{1.2, 15.84, 15.60}, {1.3, 14.42, 14.10}, {1.5, 12.60, 12.32}};
     for (size_t i = 0; i < 3; i++) {
-        double R = rows[i].factor * 1.1;
-        pw_assert_close(pw_gilliland_molokanov(6.4269, R, 1.1), rows[i].molokanov, 0, 0.006,
-                        "Molokanov [H]");
-        pw_assert_close(pw_gilliland_eduljee(6.4269, R, 1.1), rows[i].eduljee, 0, 0.006,
-                        "Eduljee [H]");
+        double R = rows[i].factor * 1.1, nm = NAN, ne = NAN;
+        assert_int_equal(pw_gilliland_molokanov(6.4269, R, 1.1, &nm), PW_OK);
+        assert_int_equal(pw_gilliland_eduljee(6.4269, R, 1.1, &ne), PW_OK);
+        pw_assert_close(nm, rows[i].molokanov, 0, 0.006, "Molokanov [H]");
+        pw_assert_close(ne, rows[i].eduljee, 0, 0.006, "Eduljee [H]");
     }
     /* Ends of the correlation: X = 1 gives Y = 0 (N = N_min, Molokanov); R = R_min gives
-     * infinitely many stages; invalid input gives NAN. */
-    assert_true(isinf(pw_gilliland_molokanov(6.0, 1.1, 1.1)));
-    pw_assert_close(pw_gilliland_molokanov(6.0, 1e12, 0.0), 6.0, 1e-6, 0, "X -> 1");
-    assert_true(isnan(pw_gilliland_molokanov(6.0, 1.0, 1.1)));
-    assert_true(isnan(pw_gilliland_eduljee(-1.0, 2.0, 1.1)));
-    assert_true(isnan(pw_fenske_nmin(1.0, 0.95, 0.05)));
+     * infinitely many stages (Molokanov) and Y = 0.75 (Eduljee: N = (0.75 + N_min)/0.25);
+     * invalid input gives PW_EINVAL and leaves the output alone. */
+    double v = NAN;
+    assert_int_equal(pw_gilliland_molokanov(6.0, 1.1, 1.1, &v), PW_OK);
+    assert_true(isinf(v) && v > 0.0);
+    assert_int_equal(pw_gilliland_eduljee(6.0, 1.1, 1.1, &v), PW_OK);
+    pw_assert_close(v, (0.75 + 6.0) / 0.25, 1e-14, 0, "Eduljee at R_min");
+    assert_int_equal(pw_gilliland_molokanov(6.0, 1e12, 0.0, &v), PW_OK);
+    pw_assert_close(v, 6.0, 1e-6, 0, "X -> 1");
+    v = 42.0;
+    assert_int_equal(pw_gilliland_molokanov(6.0, 1.0, 1.1, &v), PW_EINVAL); /* R < R_min */
+    assert_int_equal(pw_gilliland_molokanov(NAN, 2.0, 1.1, &v), PW_EINVAL);
+    assert_int_equal(pw_gilliland_molokanov(6.0, INFINITY, 1.1, &v), PW_EINVAL);
+    assert_int_equal(pw_gilliland_eduljee(-1.0, 2.0, 1.1, &v), PW_EINVAL);
+    assert_int_equal(pw_gilliland_eduljee(6.0, 2.0, -0.1, &v), PW_EINVAL);
+    assert_int_equal(pw_gilliland_eduljee(6.0, 2.0, 1.1, NULL), PW_EINVAL);
+    assert_int_equal(pw_fenske_nmin(1.0, 0.95, 0.05, &v), PW_EINVAL);      /* alpha = 1 */
+    assert_int_equal(pw_fenske_nmin(2.0, 0.05, 0.95, &v), PW_EINVAL);      /* xb > xd */
+    assert_int_equal(pw_fenske_nmin(2.0, 1.0, 0.05, &v), PW_EINVAL);       /* xd = 1 */
+    assert_int_equal(pw_fenske_nmin(2.0, 0.95, 0.0, &v), PW_EINVAL);       /* xb = 0 */
+    assert_int_equal(pw_fenske_nmin(INFINITY, 0.95, 0.05, &v), PW_EINVAL);
+    assert_int_equal(pw_fenske_nmin(2.0, 0.95, 0.05, NULL), PW_EINVAL);
+    assert_true(v == 42.0);
+    /* Fenske's closed form: alpha^N = (xd/(1-xd)) ((1-xb)/xb); alpha = 3, xd = 0.9, xb = 0.1
+     * gives 81 = 3^4, N = 4 exactly (identity) */
+    assert_int_equal(pw_fenske_nmin(3.0, 0.9, 0.1, &v), PW_OK);
+    pw_assert_close(v, 4.0, 1e-14, 0, "Fenske 3^4");
 }
 
 int main(void)

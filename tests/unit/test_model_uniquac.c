@@ -253,6 +253,62 @@ static void r_and_q_from_components(void **state)
     pw_complib_free(&lib);
 }
 
+/* Check values of this project's methods brief (METHODS2 section 1.6, tagged [H]: computed by
+ * hand from the equations of Abrams & Prausnitz 1975, synthetic inputs that test the code, not
+ * the chemistry): ethanol(1)/water(2) with r1 = 2.1055, q1 = 1.972, r2 = 0.92, q2 = 1.40
+ * (molecular values, Abrams & Prausnitz 1975 / Prausnitz et al. 1999 ch. 7, from memory) at
+ * 350 K. No published UNIQUAC parameter set with its printed activity coefficients could be
+ * read for this project (the brief says so too), so none is claimed here. The infinite-dilution
+ * values are also computed in this test in the brief's closed form (section 1.2: the l_i form,
+ * not the J_i/L_i form of the code), and exchanging the components together with (u12, u21)
+ * must give the mirrored values. */
+static void methods_brief_check_values(void **state)
+{
+    (void)state;
+    const struct {
+        double u12, u21, inf1, inf2;
+        double x, lng1, lng2, g, hE;
+        double x_b, lng1_b, lng2_b, g_b, hE_b; /* NAN: not tabulated */
+    } rows[] = {
+        {-50.0, 250.0, 2.019562, 0.955601, 0.3, 0.555076, 0.215247, 0.317196, 383.419, 0.5,
+         0.208607, 0.438959, 0.323783, 348.448},
+        {300.0, -20.0, 1.936272, 1.558630, 0.3, 0.776109, 0.186829, 0.363613, 435.861, NAN, NAN,
+         NAN, NAN, NAN},
+    };
+    const double r1 = 2.1055, q1 = 1.972, r2 = 0.92, q2 = 1.40, T = 350.0, z2 = 5.0;
+    for (size_t i = 0; i < 2; i++) {
+        const double p[6] = {rows[i].u12, rows[i].u21, r1, q1, r2, q2};
+        const double ps[6] = {rows[i].u21, rows[i].u12, r2, q2, r1, q1}; /* exchanged */
+        pw_activity a0 = ev(p, 0.0, T), a1 = ev(p, 1.0, T);
+        pw_assert_close(a0.lngamma[0], rows[i].inf1, 0, 5e-7, "ln gamma1 inf [H]");
+        pw_assert_close(a1.lngamma[1], rows[i].inf2, 0, 5e-7, "ln gamma2 inf [H]");
+        /* METHODS2 1.2 closed form, l_i = (z/2)(r_i - q_i) - (r_i - 1) */
+        double t12 = exp(-rows[i].u12 / T), t21 = exp(-rows[i].u21 / T);
+        double l1 = z2 * (r1 - q1) - (r1 - 1.0), l2 = z2 * (r2 - q2) - (r2 - 1.0);
+        double inf1 = log(r1 / r2) + z2 * q1 * log(q1 * r2 / (q2 * r1)) + l1 - r1 / r2 * l2 -
+                      q1 * log(t21) + q1 * (1.0 - t12);
+        double inf2 = log(r2 / r1) + z2 * q2 * log(q2 * r1 / (q1 * r2)) + l2 - r2 / r1 * l1 -
+                      q2 * log(t12) + q2 * (1.0 - t21);
+        pw_assert_close(a0.lngamma[0], inf1, 1e-12, 1e-12, "ln gamma1 inf closed form");
+        pw_assert_close(a1.lngamma[1], inf2, 1e-12, 1e-12, "ln gamma2 inf closed form");
+        for (int k = 0; k < 2; k++) {
+            double x = k ? rows[i].x_b : rows[i].x;
+            if (isnan(x))
+                continue;
+            double want[4] = {k ? rows[i].lng1_b : rows[i].lng1, k ? rows[i].lng2_b : rows[i].lng2,
+                              k ? rows[i].g_b : rows[i].g, k ? rows[i].hE_b : rows[i].hE};
+            pw_activity a = ev(p, x, T), m = ev(ps, 1.0 - x, T);
+            pw_assert_close(a.lngamma[0], want[0], 0, 5e-7, "ln gamma1 [H]");
+            pw_assert_close(a.lngamma[1], want[1], 0, 5e-7, "ln gamma2 [H]");
+            pw_assert_close(a.gE_RT, want[2], 0, 5e-7, "G^E/RT [H]");
+            pw_assert_close(a.hE_Jmol, want[3], 0, 5e-4, "H^E [H]");
+            pw_assert_close(m.lngamma[1], a.lngamma[0], 1e-12, 1e-14, "exchanged 1");
+            pw_assert_close(m.lngamma[0], a.lngamma[1], 1e-12, 1e-14, "exchanged 2");
+            pw_assert_close(m.hE_Jmol, a.hE_Jmol, 1e-12, 1e-12, "exchanged H^E");
+        }
+    }
+}
+
 int main(void)
 {
     pw_test_init();
@@ -263,6 +319,7 @@ int main(void)
         cmocka_unit_test(limits),
         cmocka_unit_test(bad_parameters_are_refused),
         cmocka_unit_test(r_and_q_from_components),
+        cmocka_unit_test(methods_brief_check_values),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }

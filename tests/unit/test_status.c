@@ -10,8 +10,6 @@ static void every_status_has_a_message(void **state)
     for (int s = 0; s < PW_STATUS_COUNT; s++) {
         assert_non_null(pw_strerror((pw_status)s));
         assert_true(strlen(pw_strerror((pw_status)s)) > 0);
-        assert_true(s == 0 ? pw_status_exit_code((pw_status)s) == 0
-                           : pw_status_exit_code((pw_status)s) > 0);
     }
     assert_string_equal(pw_strerror((pw_status)999), "unknown status");
 }

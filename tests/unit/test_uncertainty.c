@@ -6,6 +6,8 @@
 
 #include <gsl/gsl_rng.h>
 #include <math.h>
+#include "analysis/uncertainty_internal.h"
+
 #include <pinchwise/uncertainty.h>
 #include <stdio.h>
 #include <string.h>

@@ -1,0 +1,386 @@
+/* Diagnostics of a fit as a list of records (include/pinchwise/fit_diagnostics.h): detection
+ * and wording in one place, for the command line, batch fits, the JSON documents and the report.
+ * The sentences name no file and no program option: callers prefix the data file. */
+#include "fit_internal.h"
+
+#include <math.h>
+#include <pinchwise/fit_diagnostics.h>
+#include <pinchwise/fitjson.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <strings.h>
+
+static const char *const kind_names[PW_DIAG_KIND_COUNT] = {
+    [PW_DIAG_RANGE_BELOW] = "range-below",
+    [PW_DIAG_RANGE_ABOVE] = "range-above",
+    [PW_DIAG_PURE_MISS] = "pure-point-miss",
+    [PW_DIAG_SWAPPED] = "components-swapped",
+    [PW_DIAG_DUPLICATES] = "duplicated-points",
+    [PW_DIAG_VAPOR_ASSOCIATION] = "vapor-association",
+    [PW_DIAG_RUNAWAY] = "runaway",
+    [PW_DIAG_NOT_CONVERGED] = "not-converged",
+    [PW_DIAG_EXACT] = "exact",
+    [PW_DIAG_UNIDENTIFIABLE] = "not-identifiable",
+    [PW_DIAG_HETEROGENEOUS] = "partly-miscible",
+    [PW_DIAG_LIQUID_SPLIT] = "liquid-split",
+    [PW_DIAG_COMPETING_MINIMA] = "competing-minima",
+    [PW_DIAG_CORRELATED] = "correlated-parameters",
+};
+
+const char *pw_fit_diag_kind_name(pw_fit_diag_kind k)
+{
+    return (int)k >= 0 && k < PW_DIAG_KIND_COUNT ? kind_names[k] : "unknown";
+}
+
+const char *pw_fit_diag_severity_name(pw_fit_diag_severity s)
+{
+    switch (s) {
+    case PW_DIAG_NOTE:
+        return "note";
+    case PW_DIAG_WARNING:
+        return "warning";
+    case PW_DIAG_SEVERE:
+        return "severe";
+    }
+    return "unknown";
+}
+
+bool pw_component_vapor_associates(const pw_component *c)
+{
+    if (!c)
+        return false;
+    for (const char *p = c->name; *p; p++)
+        if (strncasecmp(p, "acid", 4) == 0)
+            return true;
+    return false;
+}
+
+/* A new record of kind k, every field "none"; NULL when the list is full. */
+static pw_fit_diag *add(pw_fit_diags *d, pw_fit_diag_kind k, pw_fit_diag_severity s)
+{
+    if (d->n >= PW_FIT_DIAG_MAX)
+        return NULL;
+    pw_fit_diag *g = &d->items[d->n++];
+    memset(g, 0, sizeof *g);
+    g->kind = k;
+    g->severity = s;
+    g->comp = g->param = g->param2 = -1;
+    g->value = g->value2 = g->value3 = NAN;
+    g->value_unit = "";
+    return g;
+}
+
+static void say(pw_fit_diag *g, const char *fmt, ...) __attribute__((format(printf, 2, 3)));
+
+static void say(pw_fit_diag *g, const char *fmt, ...)
+{
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(g->message, sizeof g->message, fmt, ap);
+    va_end(ap);
+}
+
+static void ranges(const pw_fit_result *r, pw_fit_diags *d)
+{
+    for (int i = 0; i < 2; i++) {
+        const pw_component *c = &r->sys.comp[i];
+        double lo = isfinite(r->T_min_K) ? pw_component_range_excess_K(c, r->T_min_K) : 0.0;
+        double hi = isfinite(r->T_max_K) ? pw_component_range_excess_K(c, r->T_max_K) : 0.0;
+        pw_fit_diag *g;
+        if (lo < 0.0 && (g = add(d, PW_DIAG_RANGE_BELOW, PW_DIAG_WARNING))) {
+            g->comp = i;
+            g->value = -lo;
+            g->value_unit = "K";
+            say(g, "the data reach %.1f K below the vapor-pressure range of %s", -lo, c->name);
+        }
+        if (hi > 0.0 && (g = add(d, PW_DIAG_RANGE_ABOVE, PW_DIAG_WARNING))) {
+            g->comp = i;
+            g->value = hi;
+            g->value_unit = "K";
+            say(g, "the data reach %.1f K above the vapor-pressure range of %s", hi, c->name);
+        }
+    }
+}
+
+/* How far a pure-component point lies from component comp's vapor-pressure correlation: in K
+ * (isobaric) or in % of P (isothermal); NAN when the correlation cannot be evaluated. */
+static double pure_miss(const pw_fit_result *r, const pw_point *m, int comp)
+{
+    const pw_component *c = &r->sys.comp[comp];
+    if (r->kind == PW_DATA_ISOBARIC) {
+        double T;
+        return pw_tsat(c, m->P_Pa, &T) == PW_OK ? fabs(T - m->T_K) : (double)NAN;
+    }
+    double P;
+    return pw_psat(c, m->T_K, &P, NULL) == PW_OK ? fabs(log(P / m->P_Pa)) * 100.0 : (double)NAN;
+}
+
+/* Pure-component points (x1 = 0 or 1) against the vapor-pressure correlations: a large miss at
+ * the ends that vanishes when the names are exchanged means the components are listed in the
+ * wrong order. */
+static void pure_points(const pw_fit_result *r, pw_fit_diags *d)
+{
+    double miss = 0.0, exchanged = 0.0; /* largest miss as labelled / with names exchanged */
+    long line = 0;
+    for (size_t i = 0; i < r->n_pts; i++) {
+        const pw_point *m = &r->pts[i].meas;
+        if (m->x1 > 0.0 && m->x1 < 1.0)
+            continue;
+        int comp = m->x1 >= 1.0 ? 0 : 1;
+        double a = pure_miss(r, m, comp), b = pure_miss(r, m, 1 - comp);
+        if (isfinite(a) && a > miss) {
+            miss = a;
+            line = m->line;
+        }
+        if (isfinite(b))
+            exchanged = fmax(exchanged, b);
+    }
+    bool isobaric = r->kind == PW_DATA_ISOBARIC;
+    double limit = isobaric ? PW_DIAG_PURE_MISS_K : PW_DIAG_PURE_MISS_PCT;
+    if (!(miss > limit))
+        return;
+    bool swapped = exchanged < PW_DIAG_SWAP_RATIO * miss;
+    pw_fit_diag *g = add(d, swapped ? PW_DIAG_SWAPPED : PW_DIAG_PURE_MISS, PW_DIAG_WARNING);
+    if (!g)
+        return;
+    g->line = line;
+    g->value = miss;
+    g->value2 = exchanged;
+    g->value_unit = isobaric ? "K" : "%";
+    say(g, "a pure-component point misses the vapor pressure by %.1f %s%s", miss, g->value_unit,
+        swapped ? "; the components look swapped (x1 must be the mole fraction of the first "
+                  "name in '# components:')"
+                : "; check the component names and their vapor-pressure constants");
+}
+
+/* Points sorted by (x1, T, P, y1, line): exact repeats become neighbours. */
+static int cmp_point(const void *a, const void *b)
+{
+    const pw_point *p = *(const pw_point *const *)a, *q = *(const pw_point *const *)b;
+    double d[4] = {p->x1 - q->x1, p->T_K - q->T_K, p->P_Pa - q->P_Pa,
+                   (isnan(p->y1) ? -1.0 : p->y1) - (isnan(q->y1) ? -1.0 : q->y1)};
+    for (int k = 0; k < 4; k++)
+        if (d[k] != 0.0)
+            return d[k] < 0.0 ? -1 : 1;
+    return (p->line > q->line) - (p->line < q->line);
+}
+
+static bool same_point(const pw_point *p, const pw_point *q)
+{
+    return p->x1 == q->x1 && p->T_K == q->T_K && p->P_Pa == q->P_Pa &&
+           (p->y1 == q->y1 || (isnan(p->y1) && isnan(q->y1)));
+}
+
+/* Points that repeat another exactly are kept and fitted as replicate measurements. */
+static pw_status duplicates(const pw_fit_result *r, pw_fit_diags *d)
+{
+    if (r->n_pts < 2)
+        return PW_OK;
+    const pw_point **s = malloc(r->n_pts * sizeof *s);
+    if (!s)
+        return PW_ENOMEM;
+    for (size_t i = 0; i < r->n_pts; i++)
+        s[i] = &r->pts[i].meas;
+    qsort(s, r->n_pts, sizeof *s, cmp_point);
+    size_t dup = 0;
+    long first = 0, of = 0;
+    for (size_t i = 1; i < r->n_pts; i++)
+        if (same_point(s[i - 1], s[i]) && dup++ == 0) {
+            first = s[i]->line;
+            of = s[i - 1]->line;
+        }
+    free(s);
+    pw_fit_diag *g = dup ? add(d, PW_DIAG_DUPLICATES, PW_DIAG_NOTE) : NULL;
+    if (g) {
+        g->line = first;
+        g->line2 = of;
+        g->count = dup;
+        say(g,
+            "%zu duplicated point%s (line %ld repeats line %ld); fitted as replicate "
+            "measurements, each with full weight",
+            dup, dup == 1 ? "" : "s", first, of);
+    }
+    return PW_OK;
+}
+
+static void association(const pw_fit_result *r, pw_fit_diags *d)
+{
+    for (int i = 0; i < 2; i++) {
+        pw_fit_diag *g;
+        if (pw_component_vapor_associates(&r->sys.comp[i]) &&
+            (g = add(d, PW_DIAG_VAPOR_ASSOCIATION, PW_DIAG_WARNING))) {
+            g->comp = i;
+            say(g,
+                "%s dimerises in the vapor; the ideal-vapor model used here can be off by "
+                "tens of percent even at 1 atm (chemical theory: Marek & Standart 1954; "
+                "Hayden & O'Connell 1975): treat the results as rough",
+                r->sys.comp[i].name);
+        }
+    }
+}
+
+static void convergence(const pw_fit_result *r, pw_fit_diags *d)
+{
+    const pw_model_type *m = r->sys.model;
+    pw_fit_diag *g;
+    if (r->fit_class == PW_FIT_RUNAWAY) {
+        if ((g = add(d, PW_DIAG_RUNAWAY, PW_DIAG_SEVERE))) {
+            g->param = r->runaway_param;
+            say(g,
+                "the %s fit did NOT converge: %s ran beyond its physical bound "
+                "(docs/fitting.md) and no bounded minimum was found; do not design with it",
+                m->name,
+                r->runaway_param >= 0 && (size_t)r->runaway_param < m->n_params
+                    ? m->param_names[r->runaway_param]
+                    : "a parameter");
+        }
+    } else if (!r->converged && (g = add(d, PW_DIAG_NOT_CONVERGED, PW_DIAG_SEVERE))) {
+        say(g, "the %s fit did NOT converge (%s, %s); do not design with it", m->name,
+            pw_fit_class_name(r->fit_class), pw_fit_stop_name(r->stop));
+    }
+    if (r->fit_class == PW_FIT_EXACT && (g = add(d, PW_DIAG_EXACT, PW_DIAG_NOTE)))
+        say(g,
+            "the %s model reproduces the data to rounding level (noise-free or generated "
+            "data?); standard errors are those the stated uncertainties imply",
+            m->name);
+    if (r->converged && !r->identifiable && (g = add(d, PW_DIAG_UNIDENTIFIABLE, PW_DIAG_WARNING))) {
+        char combo[256] = "";
+        size_t len = 0;
+        for (size_t k = 0; k < m->n_params && len < sizeof combo - 40; k++)
+            if (r->fitted[k] && fabs(r->weak_dir[k]) > 1e-3)
+                len += (size_t)snprintf(combo + len, sizeof combo - len, "%s%s%.3g %s",
+                                        len ? (r->weak_dir[k] < 0 ? " - " : " + ") : "",
+                                        len == 0 && r->weak_dir[k] < 0 ? "-" : "",
+                                        fabs(r->weak_dir[k]), m->param_names[k]);
+        g->value = r->sv_ratio;
+        say(g,
+            "the data do not fix the parameter combination along (%s): moving the parameters "
+            "that way leaves the fit unchanged; the standard errors of the parameters it "
+            "involves are not meaningful (null)",
+            combo);
+    }
+}
+
+static void liquids(const pw_fit_result *r, pw_fit_diags *d)
+{
+    pw_fit_diag *g;
+    if (r->n_three_phase || r->n_tie_lines) {
+        if ((g = add(d, PW_DIAG_HETEROGENEOUS, PW_DIAG_NOTE))) {
+            g->count = r->n_three_phase;
+            g->count2 = r->n_tie_lines;
+            say(g,
+                "partly miscible liquids: %zu three-phase point%s and %zu tie line%s fitted "
+                "as such (docs/heterogeneous.md)",
+                r->n_three_phase, r->n_three_phase == 1 ? "" : "s", r->n_tie_lines,
+                r->n_tie_lines == 1 ? "" : "s");
+        }
+    } else if (r->split && (g = add(d, PW_DIAG_LIQUID_SPLIT, PW_DIAG_WARNING))) {
+        g->value = r->split_min_D;
+        g->value2 = r->split_x;
+        g->value3 = r->split_T_K;
+        say(g,
+            "the %s parameters predict a liquid-liquid split (d2(Gmix/RT)/dx1^2 = %.3g at "
+            "x1 = %.3f, %.1f K); if the liquids are known to mix, the fit is spurious",
+            r->sys.model->name, r->split_min_D, r->split_x, r->split_T_K);
+    }
+}
+
+static void minima_and_correlation(const pw_fit_result *r, pw_fit_diags *d)
+{
+    const pw_model_type *m = r->sys.model;
+    pw_fit_diag *g;
+    size_t competing = pw_fit_competing_minima(r);
+    if (competing > 1 && (g = add(d, PW_DIAG_COMPETING_MINIMA, PW_DIAG_WARNING))) {
+        g->count = competing;
+        say(g,
+            "%zu distinct minima fit the data about equally well (delta-AICc < 2); the one "
+            "without a liquid split and lowest chi2 is used, all are in the fit file",
+            competing);
+    }
+    if (!r->identifiable) /* the correlations are not meaningful then */
+        return;
+    for (size_t a = 0; a < m->n_params; a++)
+        for (size_t b = a + 1; b < m->n_params; b++)
+            if (r->fitted[a] && r->fitted[b] && fabs(r->corr[a][b]) > PW_DIAG_CORRELATION &&
+                (g = add(d, PW_DIAG_CORRELATED, PW_DIAG_WARNING))) {
+                g->param = (int)a;
+                g->param2 = (int)b;
+                g->value = r->corr[a][b];
+                say(g,
+                    "parameters %s and %s are correlated (%.3f): poorly identifiable from "
+                    "these data",
+                    m->param_names[a], m->param_names[b], r->corr[a][b]);
+            }
+}
+
+pw_status pw_fit_diagnose(const pw_fit_result *r, pw_fit_diags *out)
+{
+    if (!out)
+        return PW_EINVAL;
+    out->n = 0;
+    if (!r || !r->sys.model || (r->n_pts && !r->pts))
+        return PW_EINVAL;
+    ranges(r, out);
+    pure_points(r, out);
+    pw_status st = duplicates(r, out);
+    if (st != PW_OK)
+        return st;
+    association(r, out);
+    convergence(r, out);
+    liquids(r, out);
+    minima_and_correlation(r, out);
+    return PW_OK;
+}
+
+static json_t *num_or_null(double v)
+{
+    return isfinite(v) ? json_real(v) : json_null();
+}
+
+static json_t *line_or_null(long line)
+{
+    return line > 0 ? json_integer((json_int_t)line) : json_null();
+}
+
+json_t *pw_fit_diags_json(const pw_fit_diags *d, const pw_system *sys)
+{
+    json_t *arr = d && sys && sys->model ? json_array() : NULL;
+    if (!arr)
+        return NULL;
+    const pw_model_type *m = sys->model;
+    for (size_t i = 0; i < d->n; i++) {
+        const pw_fit_diag *g = &d->items[i];
+        json_t *params = json_array();
+        for (int k = 0; k < 2; k++) {
+            int p = k ? g->param2 : g->param;
+            if (p >= 0 && (size_t)p < m->n_params)
+                json_array_append_new(params, json_string(m->param_names[p]));
+        }
+        json_t *o = json_object();
+        json_object_set_new(o, "kind", json_string(pw_fit_diag_kind_name(g->kind)));
+        json_object_set_new(o, "severity", json_string(pw_fit_diag_severity_name(g->severity)));
+        json_object_set_new(o, "line", line_or_null(g->line));
+        json_object_set_new(o, "other_line", line_or_null(g->line2));
+        json_object_set_new(o, "component",
+                            g->comp == 0 || g->comp == 1 ? json_string(sys->comp[g->comp].name)
+                                                         : json_null());
+        json_object_set_new(o, "parameters", params);
+        json_object_set_new(o, "count",
+                            g->count ? json_integer((json_int_t)g->count) : json_null());
+        json_object_set_new(o, "value", num_or_null(g->value));
+        json_object_set_new(o, "unit", json_string(g->value_unit ? g->value_unit : ""));
+        json_object_set_new(o, "message", json_string(g->message));
+        json_array_append_new(arr, o);
+    }
+    return arr;
+}
+
+json_t *pw_fit_diagnostics_json(const pw_fit_result *r)
+{
+    pw_fit_diags *d = malloc(sizeof *d);
+    json_t *arr = d && pw_fit_diagnose(r, d) == PW_OK ? pw_fit_diags_json(d, &r->sys) : NULL;
+    free(d);
+    return arr;
+}
