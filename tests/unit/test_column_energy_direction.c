@@ -70,15 +70,15 @@ static void test_bottoms_equals_swapped(void **state)
     for (int t = 0; t < 12; t++) {
         const pw_system *s1 = &sys[t % 2];
         pw_system s2 = swapped(s1);
-        pw_heat_data h1 = heats(s1, urand(30000.0, 44000.0), urand(30000.0, 44000.0),
-                                urand(60.0, 160.0), urand(60.0, 110.0), urand(30.0, 90.0),
-                                urand(30.0, 50.0));
+        pw_heat_data h1 =
+            heats(s1, urand(30000.0, 44000.0), urand(30000.0, 44000.0), urand(60.0, 160.0),
+                  urand(60.0, 110.0), urand(30.0, 90.0), urand(30.0, 50.0));
         pw_heat_data h2 = swapped_heat(&h1);
         pw_column_spec s;
         /* component 1 (heavy) is scarce in the distillate (the second liquid: above its
          * minimum-boiling azeotrope near x1 = 0.1536, from the column module's reason text) ... */
         s.xd = t % 2 ? urand(0.16, 0.3) : urand(0.01, 0.12);
-        s.xb = urand(0.85, 0.99);  /* ... and rich in the bottoms */
+        s.xb = urand(0.85, 0.99); /* ... and rich in the bottoms */
         s.zf = s.xd + (s.xb - s.xd) * urand(0.2, 0.8);
         s.q = urand(0.2, 1.3);
         pw_column_spec m = pw_column_spec_mirror(&s);

@@ -147,10 +147,10 @@ static double dense_rmin(const pw_system *sys, const pw_heat_data *h, const pw_c
     /* the feed's tie line: its liquid by bisection of (h_F - h_L)(y - x) - (H_V - h_L)(z - x)
      * over the whole column */
     double lo = s->xb, hi = s->xd;
-#define FEED_G(x)                                                                                 \
-    ({                                                                                            \
-        tieval t_ = tie_at(sys, h, (x));                                                          \
-        (hF - t_.hL) * (t_.y - (x)) - (t_.HV - t_.hL) * (s->zf - (x));                            \
+#define FEED_G(x)                                                                                  \
+    ({                                                                                             \
+        tieval t_ = tie_at(sys, h, (x));                                                           \
+        (hF - t_.hL) * (t_.y - (x)) - (t_.HV - t_.hL) * (s->zf - (x));                             \
     })
     double glo = FEED_G(lo), ghi = FEED_G(hi);
     if ((glo > 0.0) == (ghi > 0.0))
@@ -193,9 +193,9 @@ static void test_random_against_stepping_and_dense(void **state)
     for (int t = 0; t < 32; t++) {
         const int k = t % 4;
         const pw_system *s_ = &sys[k];
-        pw_heat_data h = heats(s_, urand(28000.0, 44000.0), urand(28000.0, 44000.0),
-                               urand(60.0, 160.0), urand(60.0, 110.0), urand(30.0, 90.0),
-                               urand(30.0, 50.0));
+        pw_heat_data h =
+            heats(s_, urand(28000.0, 44000.0), urand(28000.0, 44000.0), urand(60.0, 160.0),
+                  urand(60.0, 110.0), urand(30.0, 90.0), urand(30.0, 50.0));
         pw_column_spec s;
         if (k == 3) { /* distillate close below the azeotrope: a tangent pinch beside it */
             s.xd = az - pow(10.0, urand(-5.0, -3.0));
@@ -242,7 +242,10 @@ static void test_random_against_stepping_and_dense(void **state)
                          r.r_min * (1.0 - 1e-4), below);
         }
         if (getenv("PW_TEST_VERBOSE"))
-            print_message("case %d k %d xd %.6f xb %.6f q %.3f: R_min %.8g %s %s x %.6f\n", t, k, s.xd, s.xb, s.q, r.r_min, r.pinch.kind == PW_PINCH_TANGENT ? "tangent" : "feed", r.pinch.section == PW_SECTION_STRIPPING ? "strip" : "rect", r.pinch.x);
+            print_message("case %d k %d xd %.6f xb %.6f q %.3f: R_min %.8g %s %s x %.6f\n", t, k,
+                          s.xd, s.xb, s.q, r.r_min,
+                          r.pinch.kind == PW_PINCH_TANGENT ? "tangent" : "feed",
+                          r.pinch.section == PW_SECTION_STRIPPING ? "strip" : "rect", r.pinch.x);
         checked++;
         tangent += r.pinch.kind == PW_PINCH_TANGENT;
         stripping += r.pinch.kind == PW_PINCH_TANGENT && r.pinch.section == PW_SECTION_STRIPPING;

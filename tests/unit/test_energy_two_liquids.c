@@ -2,7 +2,8 @@
  * holds two layers, whose enthalpy the energy balance does not model yet, so the design is refused
  * with a reason naming the layers (PW_ERANGE), while a column whose liquids stay outside the gap
  * is solved as usual. Invented liquid: Margules A12 = A21 = 2.4 at 350 K (A ~ 1/T; A > 2 splits,
- * SVNA 7th ed. section 14.4, from memory) on invented vapor pressures with relative volatility 3. */
+ * SVNA 7th ed. section 14.4, from memory) on invented vapor pressures with relative volatility 3.
+ */
 #include "design_systems.h"
 
 #include <pinchwise/commands.h>
@@ -41,8 +42,8 @@ static void test_gap_refused(void **state)
         fail_msg("below the gap: feasible %d, R_min %g, %s", e.feasible, e.r_min, e.reason);
     pw_design_table_free(&t);
     /* 2: the distillate inside the gap (below the heterogeneous azeotrope): refused, named */
-    pw_column_spec into = {.xd = 0.5 * (tp.x[0] + tp.y1), .xb = 0.005, .zf = 0.5 * tp.x[0],
-                           .q = 1.0};
+    pw_column_spec into = {
+        .xd = 0.5 * (tp.x[0] + tp.y1), .xb = 0.005, .zf = 0.5 * tp.x[0], .q = 1.0};
     assert_int_equal(pw_reflux_solve(&sys, P_PA, &into, &o, "t", &col, &Tt, &Tb, &err), PW_OK);
     if (!col.feasible)
         fail_msg("the constant-overflow column refuses first: %s", col.reason);
