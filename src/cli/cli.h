@@ -82,12 +82,6 @@ typedef struct pw_cli_targets {
     pw_basis basis[3]; /* of xd, xb, zf as given (mole unless "wt"/"wt%"); see cli_units.h */
 } pw_cli_targets;
 
-/* When opt is one of --pressure, --xd, --xb, --zf, --q, parses value into t and returns 0 (or
- * PW_EXIT_USAGE with err on a bad value); returns -1 for any other option. Compositions may carry
- * mol%, wt or wt% (t->basis); pw_cli_targets_to_mole converts them once the fit is read.
- * PW_EXIT_USAGE with err on a bad value); returns -1 for any other option. */
-int pw_cli_target_opt(const char *opt, const char *value, pw_cli_targets *t, pw_error *err);
-
 /* Converts xd, xb, zf given by mass (basis[]) to mole fractions of sys's component 1. */
 pw_status pw_cli_targets_to_mole(double *xd, double *xb, double *zf, const pw_basis basis[3],
                                  const pw_system *sys, pw_error *err);
@@ -100,10 +94,6 @@ int pw_cli_print_json(json_t *obj);
 
 /* A JSON number, or null when v is not finite. New reference. */
 json_t *pw_cli_json_num(double v);
-
-/* True when argv[i] equals the option name; then *value is argv[i+1] (and i is advanced) when
- * takes_value. Returns false with *missing set when the value is absent. */
-bool pw_cli_opt(int argc, char **argv, int *i, const char *name, const char **value, bool *missing);
 
 /* True when stderr is a terminal: only then is progress shown. */
 bool pw_cli_progress_wanted(void);

@@ -121,23 +121,6 @@ json_t *pw_cli_json_num(double v)
     return pw_json_num(v);
 }
 
-bool pw_cli_opt(int argc, char **argv, int *i, const char *name, const char **value, bool *missing)
-{
-    if (strcmp(argv[*i], name) != 0)
-        return false;
-    if (missing)
-        *missing = false;
-    if (value) {
-        if (*i + 1 >= argc) {
-            if (missing)
-                *missing = true;
-            return true;
-        }
-        *value = argv[++*i];
-    }
-    return true;
-}
-
 pw_status pw_cli_override_components(const char *cmd, pw_system *sys, const char *path,
                                      pw_error *err)
 {
@@ -211,32 +194,6 @@ int pw_cli_fraction(const char *opt, const char *text, double *out, pw_error *er
         return PW_EXIT_USAGE;
     }
     return 0;
-}
-
-int pw_cli_target_opt(const char *opt, const char *value, pw_cli_targets *t, pw_error *err)
-{
-    if (!strcmp(opt, "--pressure")) {
-        if (pw_cli_quantity(PW_QTY_PRESSURE, opt, value, &t->P_Pa, err) != PW_OK)
-            return PW_EXIT_USAGE;
-        t->have_P = true;
-        return 0;
-    }
-    if (!strcmp(opt, "--xd")) {
-        t->have_xd = true;
-        return pw_cli_composition(opt, value, &t->xd, &t->basis[0], err);
-    }
-    if (!strcmp(opt, "--xb")) {
-        t->have_xb = true;
-        return pw_cli_composition(opt, value, &t->xb, &t->basis[1], err);
-    }
-    if (!strcmp(opt, "--zf")) {
-        t->have_zf = true;
-        return pw_cli_composition(opt, value, &t->zf, &t->basis[2], err);
-    }
-    if (!strcmp(opt, "--q")) /* liquid fraction of the feed: -10 (very hot vapor) to 10 (very
-                              * cold liquid) covers every real feed (docs/inputs.md) */
-        return pw_cli_ranged(opt, value, -10.0, 10.0, "the feed's liquid fraction q", &t->q, err);
-    return -1;
 }
 
 pw_status pw_cli_read_fit(const char *cmd, const char *path, const char *components,

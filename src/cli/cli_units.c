@@ -75,41 +75,6 @@ pw_status pw_cli_targets_to_mole(double *xd, double *xb, double *zf, const pw_ba
     return PW_OK;
 }
 
-char **pw_cli_split_equals(int argc, char **argv, int *n_out)
-{
-    char **out = calloc(2 * (size_t)argc + 1, sizeof *out);
-    if (!out)
-        return NULL;
-    int n = 0;
-    for (int i = 0; i < argc; i++) {
-        const char *a = argv[i], *eq = strchr(a, '=');
-        bool split = a[0] == '-' && a[1] == '-' && a[2] != '\0' && a[2] != '=' && eq;
-        if (split) {
-            out[n] = strndup(a, (size_t)(eq - a));
-            if (!out[n++])
-                goto oom;
-            a = eq + 1;
-        }
-        out[n] = strdup(a);
-        if (!out[n++])
-            goto oom;
-    }
-    *n_out = n;
-    return out;
-oom:
-    pw_cli_split_free(out, n);
-    return NULL;
-}
-
-void pw_cli_split_free(char **args, int n)
-{
-    if (!args)
-        return;
-    for (int i = 0; i < n; i++)
-        free(args[i]);
-    free(args);
-}
-
 pw_status pw_cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *text,
                                size_t *chosen, pw_error *err)
 {

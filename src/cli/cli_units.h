@@ -48,10 +48,4 @@ pw_status pw_cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *
     "  --minimum N         use the fit's N-th distinct minimum (1 = lowest chi-square; the fit\n"  \
     "                      file lists them under \"minima\") instead of the one the fit chose\n"
 
-/* argv with every "--name=value" split into "--name" and "value" (at the first '='); a new
- * NULL-terminated array of *n_out new strings, freed with pw_cli_split_free. NULL when out of
- * memory. Arguments that do not start with "--" are copied unchanged. */
-char **pw_cli_split_equals(int argc, char **argv, int *n_out);
-void pw_cli_split_free(char **args, int n);
-
 #endif

@@ -4,6 +4,7 @@
 #include "azeo_uncert.h"
 #include "cli.h"
 #include "cli_units.h"
+#include "cli_options.h"
 
 #include <math.h>
 #include <pinchwise/lle.h>
@@ -13,28 +14,38 @@
 
 #define CMD "azeotrope"
 
-static void usage(FILE *f)
-{
-    fprintf(f,
-            "usage: pinchwise azeotrope FIT.json [--pressure P | --temperature T] [--sweep FROM:TO[:N]]\n"
-            "                           [--json]\n"
-            "\n"
-            "Azeotropes of the fitted model: where y1 = x1, found on a fine composition grid and\n"
-            "refined by Brent's method; classified from the extremum of the bubble curve.\n"
-            "  --pressure P        fixed pressure with its unit, e.g. 101.325kPa, \"1 atm\"\n"
-            "  --temperature T     fixed temperature with its unit, e.g. 50C, 350K\n"
-            "                      (neither: the condition of the fit's own data)\n"
-            "  --sweep FROM:TO[:N] also solve at N values (default 12) from FROM to TO (pressures\n"
-            "                      when the condition is a pressure, geometric; temperatures,\n"
-            "                      linear) and report where the azeotrope reaches a pure end\n"
-            "                      (also spelt --scan)\n"
-            "  --uncertainty       95 %% intervals of each azeotrope from the fit's parameter\n"
-            "                      covariance (linearised and sampled)\n"
-            "  --samples N         parameter sets drawn (default 400); --seed N (default 1)\n"
-            PW_CLI_HELP_COMPONENTS
-            PW_CLI_HELP_MINIMUM
-            "  --json              print one JSON object on stdout\n");
-}
+static const pw_cli_option azeo_options[] = {
+    {.name = "--pressure", .kind = PW_CLI_QUANTITY, .unit = PW_QTY_PRESSURE, .metavar = "P",
+     .help = "fixed pressure with its unit, e.g. 101.325kPa, \"1 atm\""},
+    {.name = "--temperature", .kind = PW_CLI_QUANTITY, .unit = PW_QTY_TEMPERATURE, .metavar = "T",
+     .help = "fixed temperature with its unit, e.g. 50C, 350K\n"
+             "(neither: the condition of the fit's own data)"},
+    {.name = "--sweep", .alias = "--scan", .kind = PW_CLI_STRING, .metavar = "FROM:TO[:N]",
+     .help = "also solve at N values (default 12) from FROM to TO (pressures\n"
+             "when the condition is a pressure, geometric; temperatures,\n"
+             "linear) and report where the azeotrope reaches a pure end"},
+    PW_CLI_END,
+};
+
+static const pw_cli_option *const azeo_blocks[] = {
+    azeo_options, pw_cli_block_uncertainty, pw_cli_block_components, pw_cli_block_minimum,
+    pw_cli_block_json, NULL,
+};
+
+static const pw_cli_spec azeo_spec = {
+    .cmd = CMD,
+    .synopsis =
+        "usage: pinchwise azeotrope FIT.json [--pressure P | --temperature T] [--sweep FROM:TO[:N]]\n"
+        "                           [options]\n"
+        "\n"
+        "Azeotropes of the fitted model: where y1 = x1, found on a fine composition grid and\n"
+        "refined by Brent's method; classified from the extremum of the bubble curve. With\n"
+        "--uncertainty: 95 % intervals of each azeotrope from the fit's parameter covariance\n"
+        "(linearised and sampled).\n",
+    .blocks = azeo_blocks,
+    .max_positional = 1,
+    .positional = "one fit file",
+};
 
 typedef struct args {
     const char *fit_path;
@@ -82,73 +93,39 @@ static int parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
     return 0;
 }
 
+/* Returns 0, -1 for --help, or an exit code with err filled. */
 static int parse(int argc, char **argv, args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
-    const char *scan_text = NULL;
-    int urc;
-    for (int i = 1; i < argc; i++) {
-        const char *v = NULL;
-        bool missing = false;
-        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
-            return -1;
-        if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
-            a->json = true;
-        } else if ((urc = pw_azeo_uncert_opt(argc, argv, &i, &a->unc, err)) != 0) {
-            if (urc > 1)
-                return urc;
-        } else if (!strcmp(argv[i], "--pressure") || !strcmp(argv[i], "--temperature")) {
-            bool isP = !strcmp(argv[i], "--pressure");
-            pw_cli_opt(argc, argv, &i, argv[i], &v, &missing);
-            if (missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", argv[i]);
-                return PW_EXIT_USAGE;
-            }
-            if (a->have_fixed) {
-                pw_error_set(err, PW_EINVAL, NULL, 0,
-                             "give one of --pressure or --temperature, once");
-                return PW_EXIT_USAGE;
-            }
-            a->mode = isP ? PW_AZ_ISOBARIC : PW_AZ_ISOTHERMAL;
-            if (pw_cli_quantity(isP ? PW_QTY_PRESSURE : PW_QTY_TEMPERATURE,
-                                isP ? "--pressure" : "--temperature", v, &a->fixed, err) != PW_OK)
-                return PW_EXIT_USAGE;
-            a->have_fixed = true;
-        } else if (pw_cli_opt(argc, argv, &i, "--scan", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--sweep", &v, &missing)) {
-            a->scan_opt = argv[missing ? i : i - 1];
-            if (missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs FROM:TO[:N]", a->scan_opt);
-                return PW_EXIT_USAGE;
-            }
-            scan_text = v;
-        } else if (pw_cli_opt(argc, argv, &i, "--minimum", &v, &missing)) {
-            if (missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "--minimum needs a number");
-                return PW_EXIT_USAGE;
-            }
-            a->minimum = v;
-        } else if (pw_cli_opt(argc, argv, &i, "--components", &v, &missing)) {
-            if (missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "--components needs a file");
-                return PW_EXIT_USAGE;
-            }
-            a->components = v;
-        } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
-            pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", argv[i]);
-            return PW_EXIT_USAGE;
-        } else if (a->fit_path) {
-            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", argv[i]);
-            return PW_EXIT_USAGE;
-        } else {
-            a->fit_path = argv[i];
-        }
+    pw_cli_args p;
+    if (pw_cli_parse(&azeo_spec, argc, argv, &p, err) != PW_OK)
+        return PW_EXIT_USAGE;
+    if (p.help)
+        return -1;
+    a->json = pw_cli_has(&p, "--json");
+    pw_azeo_uncert_from(&p, &a->unc);
+    const pw_cli_value *P = pw_cli_get(&p, "--pressure"), *T = pw_cli_get(&p, "--temperature");
+    if (P && T) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "give one of --pressure or --temperature, once");
+        return PW_EXIT_USAGE;
     }
+    if (P || T) {
+        a->mode = P ? PW_AZ_ISOBARIC : PW_AZ_ISOTHERMAL;
+        a->fixed = P ? P->num : T->num;
+        a->have_fixed = true;
+    }
+    const pw_cli_value *sw = pw_cli_get(&p, "--sweep");
+    if (sw) {
+        a->scan_opt = sw->spelt;
+        a->scan_text = sw->text; /* parsed once the condition is known (it may be the fit's own) */
+    }
+    a->minimum = pw_cli_text(&p, "--minimum");
+    a->components = pw_cli_text(&p, "--components");
+    a->fit_path = p.n_pos ? p.pos[0] : NULL;
     if (!a->fit_path) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file is required");
         return PW_EXIT_USAGE;
     }
-    a->scan_text = scan_text; /* parsed once the condition is known (it may be the fit's own) */
     return 0;
 }
 
@@ -267,7 +244,7 @@ int pw_cli_azeotrope(int argc, char **argv)
     pw_error_clear(&err);
     int rc = parse(argc, argv, &a, &err);
     if (rc == -1) {
-        usage(stdout);
+        pw_cli_help(&azeo_spec, stdout);
         return 0;
     }
     if (rc)

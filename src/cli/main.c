@@ -49,15 +49,8 @@ int main(int argc, char **argv)
     pw_cli_watch_json_allocations();
     for (size_t i = 0; i < sizeof commands / sizeof commands[0]; i++)
         if (!strcmp(argv[1], commands[i].name)) {
-            /* "--opt=value" is the same as "--opt value" for every option of every command */
-            int n = 0;
-            char **args = pw_cli_split_equals(argc - 1, argv + 1, &n);
-            if (!args) {
-                fprintf(stderr, "pinchwise: out of memory\n");
-                return pw_status_exit_code(PW_ENOMEM);
-            }
-            int rc = commands[i].run(n, args);
-            pw_cli_split_free(args, n);
+            /* every command parses its options with pw_cli_parse (cli_options.h) */
+            int rc = commands[i].run(argc - 1, argv + 1);
             int out = pw_cli_finish_stdout(commands[i].name); /* e.g. a full disk */
             return rc ? rc : out;
         }
