@@ -20,7 +20,7 @@ void pw_azeo_uncert_from(const pw_cli_args *p, pw_azeo_uncert *u)
         u->opt.seed = (unsigned long)g.seed;
 }
 
-int pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_uncert *u,
+pw_status pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_uncert *u,
                        pw_error *err)
 {
     u->n = r->n;
@@ -39,9 +39,9 @@ int pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_
         /* one azeotrope per call: the progress line names it */
         pw_status st = pw_azeotrope_unc_run(fit, &one, &o, &u->res[i], err);
         if (st != PW_OK)
-            return pw_status_exit_code(st);
+            return st;
     }
-    return 0;
+    return PW_OK;
 }
 
 void pw_azeo_uncert_json(const pw_azeo_uncert *u, const pw_az_result *r, json_t *list)

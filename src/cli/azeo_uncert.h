@@ -18,8 +18,8 @@ typedef struct pw_azeo_uncert {
 /* The uncertainty block's options of p (pw_cli_block_uncertainty) into u. */
 void pw_azeo_uncert_from(const pw_cli_args *p, pw_azeo_uncert *u);
 
-/* Propagates every azeotrope of r. Returns 0 or an exit code with err. */
-int pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_uncert *u,
+/* Propagates every azeotrope of r. PW_OK or the status with err. */
+pw_status pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_uncert *u,
                        pw_error *err);
 
 /* Adds x1_ci95 and T_K_ci95 / P_kPa_ci95 (CONTRACT) and an "uncertainty" object to each element

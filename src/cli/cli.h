@@ -13,31 +13,32 @@
 #include <pinchwise/units.h>
 #include <stdbool.h>
 
-#define PW_EXIT_USAGE 2
-
 typedef struct pw_cli_command {
     const char *name;
     const char *summary;
-    int (*run)(int argc, char **argv); /* argv[0] is the command name */
+    /* argv[0] is the command name. Returns PW_OK, or the status of the failure (already
+     * reported on stderr); PW_EINFEASIBLE for a negative verdict under --exit-verdict. main alone
+     * turns a status into an exit code. */
+    pw_status (*run)(int argc, char **argv);
 } pw_cli_command;
 
-int pw_cli_fit(int argc, char **argv);
-int pw_cli_check(int argc, char **argv);
-int pw_cli_azeotrope(int argc, char **argv);
-int pw_cli_reflux(int argc, char **argv);
-int pw_cli_screen(int argc, char **argv);
-int pw_cli_report(int argc, char **argv);
-int pw_cli_lle(int argc, char **argv);
-int pw_cli_decanter(int argc, char **argv);
-int pw_cli_rate(int argc, char **argv);
-int pw_cli_study(int argc, char **argv);
+pw_status pw_cli_fit(int argc, char **argv);
+pw_status pw_cli_check(int argc, char **argv);
+pw_status pw_cli_azeotrope(int argc, char **argv);
+pw_status pw_cli_reflux(int argc, char **argv);
+pw_status pw_cli_screen(int argc, char **argv);
+pw_status pw_cli_report(int argc, char **argv);
+pw_status pw_cli_lle(int argc, char **argv);
+pw_status pw_cli_decanter(int argc, char **argv);
+pw_status pw_cli_rate(int argc, char **argv);
+pw_status pw_cli_study(int argc, char **argv);
 
-/* Prints "pinchwise CMD: file:line: message" as one line on stderr and returns the exit code
- * for err->status. */
-int pw_cli_fail(const char *cmd, const pw_error *err);
+/* Prints "pinchwise CMD: file:line: message" as one line on stderr and returns err->status
+ * (PW_EINVAL when err holds no failure). */
+pw_status pw_cli_fail(const char *cmd, const pw_error *err);
 
-/* Prints "pinchwise CMD: message" (printf format) on stderr; returns code. */
-int pw_cli_failf(const char *cmd, int code, const char *fmt, ...) __attribute__((format(printf, 3, 4)));
+/* Prints "pinchwise CMD: message" (printf format) on stderr; returns st. */
+pw_status pw_cli_failf(const char *cmd, pw_status st, const char *fmt, ...) __attribute__((format(printf, 3, 4)));
 
 /* Prints a warning line "pinchwise CMD: warning: ..." on stderr (never on stdout). */
 void pw_cli_warnf(const char *cmd, const char *fmt, ...) __attribute__((format(printf, 2, 3)));
@@ -71,9 +72,6 @@ pw_status pw_cli_quantity(pw_quantity q, const char *opt, const char *text, doub
  * NaN and Inf. */
 pw_status pw_cli_number(const char *opt, const char *text, double *value, pw_error *err);
 
-/* A mole fraction for option opt: a finite number in [0, 1]. Returns 0 or PW_EXIT_USAGE with err. */
-int pw_cli_fraction(const char *opt, const char *text, double *out, pw_error *err);
-
 /* Column targets shared by reflux and report. */
 typedef struct pw_cli_targets {
     double P_Pa;
@@ -87,10 +85,10 @@ pw_status pw_cli_targets_to_mole(double *xd, double *xb, double *zf, const pw_ba
                                  const pw_system *sys, pw_error *err);
 
 /* Writes obj to stdout as one JSON object followed by a newline (17 significant digits);
- * steals the reference. Returns 0, or the I/O exit code; prints nothing and returns the
- * out-of-memory exit code when obj is NULL or any jansson allocation has failed (see
+ * steals the reference. PW_OK, or PW_EIO; prints nothing and returns PW_ENOMEM
+ * when obj is NULL or any jansson allocation has failed (see
  * pw_cli_watch_json_allocations), since such an object may lack keys. */
-int pw_cli_print_json(json_t *obj);
+pw_status pw_cli_print_json(json_t *obj);
 
 /* A JSON number, or null when v is not finite. New reference. */
 json_t *pw_cli_json_num(double v);
@@ -126,17 +124,17 @@ void pw_cli_watch_json_allocations(void);
 
 /* A whole number for option opt in [lo, hi] (hi at most 2^53): digits only, optionally in
  * exponent form ("1e3"); a fraction, a sign where lo >= 0, NaN or a value out of range is refused
- * with a message naming the option and the range. Returns 0 or PW_EXIT_USAGE with err. */
-int pw_cli_whole(const char *opt, const char *text, double lo, double hi, unsigned long long *out,
+ * with a message naming the option and the range. PW_OK or PW_EINVAL with err. */
+pw_status pw_cli_whole(const char *opt, const char *text, double lo, double hi, unsigned long long *out,
                  pw_error *err);
 
 /* A number for option opt in [lo, hi]; the message names the option, the range and what it is
- * (e.g. "a multiple of R_min"). Returns 0 or PW_EXIT_USAGE with err. */
-int pw_cli_ranged(const char *opt, const char *text, double lo, double hi, const char *what,
+ * (e.g. "a multiple of R_min"). PW_OK or PW_EINVAL with err. */
+pw_status pw_cli_ranged(const char *opt, const char *text, double lo, double hi, const char *what,
                   double *out, pw_error *err);
 
 /* Checks that stdout took everything written to it; prints "pinchwise CMD: cannot write to
- * standard output: REASON" and returns the I/O exit code when not, else 0. */
-int pw_cli_finish_stdout(const char *cmd);
+ * standard output: REASON" and returns PW_EIO when not, else PW_OK. */
+pw_status pw_cli_finish_stdout(const char *cmd);
 
 #endif

@@ -288,9 +288,6 @@ pw_status pw_cli_parse(const pw_cli_spec *spec, int argc, char **argv, pw_cli_ar
             return pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value (%s)", v->spelt,
                                 o->metavar ? o->metavar : "a value");
         }
-        if (v->text && v->text[0] == '\0')
-            return pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value (%s), got an empty one",
-                                v->spelt, o->metavar ? o->metavar : "a value");
         pw_status st = parse_value(v, err);
         if (st != PW_OK) {
             if (err)

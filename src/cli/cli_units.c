@@ -35,15 +35,15 @@ pw_status pw_cli_uncertainty_opt(const char *opt, const char *text, double *T_K,
     return PW_OK;
 }
 
-int pw_cli_composition(const char *opt, const char *text, double *value, pw_basis *b, pw_error *err)
+pw_status pw_cli_composition(const char *opt, const char *text, double *value, pw_basis *b, pw_error *err)
 {
     pw_error inner;
     pw_error_clear(&inner);
     if (pw_units_parse_composition(text, value, b, &inner) != PW_OK) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: %s", opt, text, inner.msg);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
 pw_status pw_cli_composition_to_mole(const char *opt, double *x, pw_basis b, const pw_system *sys,

@@ -48,6 +48,7 @@ static const pw_cli_spec azeo_spec = {
 };
 
 typedef struct args {
+    bool help; /* --help was asked for: nothing else is set */
     const char *fit_path;
     pw_az_mode mode;
     bool have_fixed, json, scan;
@@ -60,7 +61,7 @@ typedef struct args {
     const char *minimum;   /* --minimum N as given */
 } args;
 
-static int parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
+static pw_status parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
 {
     const char *o = a->scan_opt ? a->scan_opt : "--sweep";
     char buf[256], what[3][32];
@@ -72,7 +73,7 @@ static int parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
     if (!c1 || (c2 && strchr(c2 + 1, ':'))) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "%s %s: expected FROM:TO[:N], e.g. 10kPa:500kPa:12", o, text);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     *c1 = '\0';
     if (c2)
@@ -81,33 +82,33 @@ static int parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
     if (pw_cli_quantity(q, what[0], buf, &a->from, err) != PW_OK ||
         pw_cli_quantity(q, what[1], c1 + 1, &a->to, err) != PW_OK ||
         (c2 && pw_cli_number(what[2], c2 + 1, &n, err) != PW_OK))
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     if (!(n >= 2.0 && n <= 1000.0) || n != floor(n) || a->from == a->to) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "%s %s: N must be a whole number from 2 to 1000 and FROM differ from TO",
                      o, text);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     a->n = (size_t)n;
     a->scan = true;
-    return 0;
+    return PW_OK;
 }
 
-/* Returns 0, -1 for --help, or an exit code with err filled. */
-static int parse(int argc, char **argv, args *a, pw_error *err)
+/* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
+static pw_status parse(int argc, char **argv, args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
     pw_cli_args p;
     if (pw_cli_parse(&azeo_spec, argc, argv, &p, err) != PW_OK)
-        return PW_EXIT_USAGE;
-    if (p.help)
-        return -1;
+        return PW_EINVAL;
+    if ((a->help = p.help))
+        return PW_OK;
     a->json = pw_cli_has(&p, "--json");
     pw_azeo_uncert_from(&p, &a->unc);
     const pw_cli_value *P = pw_cli_get(&p, "--pressure"), *T = pw_cli_get(&p, "--temperature");
     if (P && T) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "give one of --pressure or --temperature, once");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     if (P || T) {
         a->mode = P ? PW_AZ_ISOBARIC : PW_AZ_ISOTHERMAL;
@@ -124,13 +125,13 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
     a->fit_path = p.n_pos ? p.pos[0] : NULL;
     if (!a->fit_path) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file is required");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
 /* Without --pressure or --temperature: the condition of the fit's own data. Then the sweep. */
-static int settle_condition(args *a, const pw_fit_result *fit, pw_error *err)
+static pw_status settle_condition(args *a, const pw_fit_result *fit, pw_error *err)
 {
     if (!a->have_fixed) {
         bool isobaric = fit->kind == PW_DATA_ISOBARIC;
@@ -140,14 +141,14 @@ static int settle_condition(args *a, const pw_fit_result *fit, pw_error *err)
             pw_error_set(err, PW_EINVAL, a->fit_path, 0,
                          "the fit file records no %s of its data: give --pressure or --temperature",
                          isobaric ? "pressure" : "temperature");
-            return PW_EXIT_USAGE;
+            return PW_EINVAL;
         }
         a->have_fixed = true;
     }
     if (a->scan_text)
         return parse_scan(a->scan_text, a->mode == PW_AZ_ISOBARIC ? PW_QTY_PRESSURE
                                                                   : PW_QTY_TEMPERATURE, a, err);
-    return 0;
+    return PW_OK;
 }
 
 /* Every point of the scan: the scan's progress callback. */
@@ -237,18 +238,18 @@ static void print_text(const pw_fit_result *fit, const args *a, const pw_az_resu
     pw_cli_print_caution(stdout);
 }
 
-int pw_cli_azeotrope(int argc, char **argv)
+pw_status pw_cli_azeotrope(int argc, char **argv)
 {
     args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = parse(argc, argv, &a, &err);
-    if (rc == -1) {
-        pw_cli_help(&azeo_spec, stdout);
-        return 0;
-    }
-    if (rc)
+    if (parse(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if (a.help) {
+        pw_cli_help(&azeo_spec, stdout);
+        return PW_OK;
+    }
+    pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
     pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
@@ -259,7 +260,7 @@ int pw_cli_azeotrope(int argc, char **argv)
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
-    if ((rc = settle_condition(&a, &fit, &err)) != 0) {
+    if ((rc = settle_condition(&a, &fit, &err)) != PW_OK) {
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
@@ -282,7 +283,7 @@ int pw_cli_azeotrope(int argc, char **argv)
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
-    if (a.unc.on && (rc = pw_azeo_uncert_run(&fit, &r, &a.unc, &err)) != 0) {
+    if (a.unc.on && (rc = pw_azeo_uncert_run(&fit, &r, &a.unc, &err)) != PW_OK) {
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
@@ -331,7 +332,7 @@ int pw_cli_azeotrope(int argc, char **argv)
         print_text(&fit, &a, &r, &tp, n_removed, sc, tps);
         if (a.unc.on)
             pw_azeo_uncert_print(&a.unc, &r);
-        rc = fflush(stdout) ? 4 : 0;
+        rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     free(tps);
     pw_az_scan_free(sc);

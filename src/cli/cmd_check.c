@@ -184,7 +184,7 @@ static void print_het(const pw_het_check *h)
            h->bound_ok ? "within the bound 1" : "ABOVE 1: y, T or P of these points is doubtful");
 }
 
-int pw_cli_check(int argc, char **argv)
+pw_status pw_cli_check(int argc, char **argv)
 {
     pw_cli_args p;
     pw_error perr;
@@ -192,7 +192,7 @@ int pw_cli_check(int argc, char **argv)
         return pw_cli_fail("check", &perr);
     if (p.help) {
         pw_cli_help(&check_spec, stdout);
-        return 0;
+        return PW_OK;
     }
     const char *data = p.n_pos ? p.pos[0] : NULL;
     const char *comp_file = pw_cli_text(&p, "--components");
@@ -200,7 +200,7 @@ int pw_cli_check(int argc, char **argv)
     bool json = pw_cli_has(&p, "--json"), strict = pw_cli_has(&p, "--strict");
     bool exit_verdict = pw_cli_has(&p, "--exit-verdict");
     if (!data) {
-        return pw_cli_failf("check", PW_EXIT_USAGE, "no data file given");
+        return pw_cli_failf("check", PW_EINVAL, "no data file given");
     }
     pw_error err;
     pw_error_clear(&err);
@@ -241,7 +241,7 @@ int pw_cli_check(int argc, char **argv)
         st = pw_error_set(&err, PW_ENOMEM, ds.path, 0, "out of memory");
     if (st == PW_OK)
         st = pw_consistency_run(het.n ? &one : &ds, c[0], c[1], &o, &r, &err);
-    int code = 0;
+    pw_status code = PW_OK;
     if (st != PW_OK) {
         code = pw_cli_fail("check", &err);
     } else {
@@ -260,8 +260,8 @@ int pw_cli_check(int argc, char **argv)
             print_het(&het);
             print_text(&ds, &r);
         }
-        if (code == 0 && exit_verdict && !r.consistent)
-            code = PW_CLI_EXIT_VERDICT;
+        if (code == PW_OK && exit_verdict && !r.consistent)
+            code = PW_EINFEASIBLE;
     }
     pw_het_check_free(&het, &one);
     pw_consistency_result_free(&r);

@@ -14,6 +14,7 @@
 #define CMD "decanter"
 
 typedef struct args {
+    bool help; /* --help was asked for: nothing else is set */
     const char *fit_path, *components;
     pw_decanter_spec spec;
     pw_column_options opt;
@@ -67,16 +68,16 @@ static const pw_cli_spec decanter_spec = {
     .positional = "one fit file",
 };
 
-/* Returns 0, -1 for --help, or an exit code with err filled. */
-static int parse(int argc, char **argv, args *a, pw_error *err)
+/* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
+static pw_status parse(int argc, char **argv, args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
     a->opt = pw_column_default_options();
     pw_cli_args p;
     if (pw_cli_parse(&decanter_spec, argc, argv, &p, err) != PW_OK)
-        return PW_EXIT_USAGE;
-    if (p.help)
-        return -1;
+        return PW_EINVAL;
+    if ((a->help = p.help))
+        return PW_OK;
     a->json = pw_cli_has(&p, "--json");
     a->components = pw_cli_text(&p, "--components");
     const pw_cli_value *v;
@@ -98,13 +99,13 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
     if (!a->fit_path || !tg.have_P || !tg.have_zf || !a->have_rich || !a->have_lean) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "a fit file and --pressure, --zf, --x1-rich, --x1-lean are required");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     if (!(a->spec.zf > 0.0 && a->spec.zf < 1.0)) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--zf must lie strictly between 0 and 1");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
 static void print_column(const char *name, const pw_stripper_result *c, double top, double bottom)
@@ -119,18 +120,18 @@ static void print_column(const char *name, const pw_stripper_result *c, double t
                c->design[i].stages, c->design[i].y_top);
 }
 
-int pw_cli_decanter(int argc, char **argv)
+pw_status pw_cli_decanter(int argc, char **argv)
 {
     args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = parse(argc, argv, &a, &err);
-    if (rc == -1) {
-        pw_cli_help(&decanter_spec, stdout);
-        return 0;
-    }
-    if (rc)
+    if (parse(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if (a.help) {
+        pw_cli_help(&decanter_spec, stdout);
+        return PW_OK;
+    }
+    pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
     pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
@@ -176,7 +177,7 @@ int pw_cli_decanter(int argc, char **argv)
                    a.spec.q);
         }
         pw_cli_print_caution(stdout);
-        rc = fflush(stdout) ? 4 : 0;
+        rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     pw_fit_result_free(&fit);
     return rc;

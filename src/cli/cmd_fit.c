@@ -194,7 +194,7 @@ static void print_table(const pw_fit_result *r, const char *path)
     printf("  fit file: %s\n", path);
 }
 
-int pw_cli_fit(int argc, char **argv)
+pw_status pw_cli_fit(int argc, char **argv)
 {
     const char *input = NULL, *model_name = NULL, *components = NULL, *out = NULL, *out_dir = NULL;
     const char *lle_path = NULL;
@@ -208,7 +208,7 @@ int pw_cli_fit(int argc, char **argv)
         return pw_cli_fail("fit", &err);
     if (p.help) {
         usage(stdout, &fit_spec);
-        return 0;
+        return PW_OK;
     }
     input = p.n_pos ? p.pos[0] : NULL;
     model_name = pw_cli_text(&p, "--model");
@@ -221,7 +221,7 @@ int pw_cli_fit(int argc, char **argv)
     co.fit.fit_alpha = pw_cli_has(&p, "--fit-alpha");
     const pw_cli_value *v;
     if ((v = pw_cli_get(&p, "--vapor")) && pw_vapor_parse(v->text, &co.fit.vapor) != PW_OK)
-        return pw_cli_failf("fit", PW_EXIT_USAGE,
+        return pw_cli_failf("fit", PW_EINVAL,
                             "--vapor %s: unknown vapor model (expected ideal or virial)", v->text);
     if ((v = pw_cli_get(&p, "--exclude-reason")))
         snprintf(co.fit.exclude_reason, sizeof co.fit.exclude_reason, "%s", v->text);
@@ -241,17 +241,17 @@ int pw_cli_fit(int argc, char **argv)
     if ((v = pw_cli_get(&p, "--sigma-y")))
         co.fit.sigma_y = v->num;
     if (!input || !model_name) {
-        return pw_cli_failf("fit", PW_EXIT_USAGE, "a dataset (or folder) and --model are required");
+        return pw_cli_failf("fit", PW_EINVAL, "a dataset (or folder) and --model are required");
     }
     bool all = !strcasecmp(model_name, "all");
     const pw_model_type *model = all ? NULL : pw_model_find(model_name);
     char names[256];
     if (!all && !model)
-        return pw_cli_failf("fit", PW_EXIT_USAGE, "unknown model '%s' (expected %s or all)",
+        return pw_cli_failf("fit", PW_EINVAL, "unknown model '%s' (expected %s or all)",
                             model_name, pw_model_names(names, sizeof names));
     struct stat sb;
     if (stat(input, &sb) != 0)
-        return pw_cli_failf("fit", pw_status_exit_code(PW_EIO), "%s: no such file or folder", input);
+        return pw_cli_failf("fit", PW_EIO, "%s: no such file or folder", input);
     pw_complib lib;
     if (pw_cli_load_components(&lib, components, &err) != PW_OK)
         return pw_cli_fail("fit", &err);
@@ -272,15 +272,15 @@ int pw_cli_fit(int argc, char **argv)
         co.lle = &lle;
         co.inputs[co.n_inputs++] = lle_path;
     }
-    int rc;
+    pw_status rc;
     if (S_ISDIR(sb.st_mode)) {
         if (!out_dir) {
             pw_complib_free(&lib);
-            return pw_cli_failf("fit", PW_EXIT_USAGE, "fitting a folder needs --out-dir OUTDIR");
+            return pw_cli_failf("fit", PW_EINVAL, "fitting a folder needs --out-dir OUTDIR");
         }
         rc = pw_fit_batch(input, out_dir, model, &co); /* model NULL: every model */
     } else if (all && out) {
-        rc = pw_cli_failf("fit", PW_EXIT_USAGE,
+        rc = pw_cli_failf("fit", PW_EINVAL,
                           "--out names one fit file, but --model all writes one per model "
                           "(<stem>.<model>.json): give --out-dir DIR instead");
     } else if (all) {
@@ -289,7 +289,7 @@ int pw_cli_fit(int argc, char **argv)
         pw_fit_result r;
         char path[PW_PATH_MAX];
         rc = pw_fit_one(input, model, out, out_dir, &co, &r, path, sizeof path, &err);
-        if (rc == 0) {
+        if (rc == PW_OK) {
             if (json) {
                 json_t *o = pw_fit_cli_json(&r, path);
                 rc = pw_cli_print_json(o);

@@ -41,13 +41,14 @@ static const pw_cli_spec lle_spec = {
 };
 
 typedef struct args {
+    bool help; /* --help was asked for: nothing else is set */
     const char *fit_path, *components, *scan_text;
     double T, from, to;
     size_t n;
     bool have_T, json;
 } args;
 
-static int parse_scan(const char *text, args *a, pw_error *err)
+static pw_status parse_scan(const char *text, args *a, pw_error *err)
 {
     char buf[256];
     snprintf(buf, sizeof buf, "%s", text);
@@ -55,33 +56,33 @@ static int parse_scan(const char *text, args *a, pw_error *err)
     if (!c1 || !c2 || strchr(c2 + 1, ':')) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--scan %s: expected FROM:TO:N, e.g. 20C:120C:11",
                      text);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     *c1 = *c2 = '\0';
     double n;
     if (pw_cli_quantity(PW_QTY_TEMPERATURE, "--scan FROM", buf, &a->from, err) != PW_OK
         || pw_cli_quantity(PW_QTY_TEMPERATURE, "--scan TO", c1 + 1, &a->to, err) != PW_OK
         || pw_cli_number("--scan N", c2 + 1, &n, err) != PW_OK)
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     if (!(n >= 2.0 && n <= 1000.0) || n != floor(n) || a->from == a->to) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "--scan %s: N must be a whole number from 2 to 1000 and FROM differ from TO",
                      text);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     a->n = (size_t)n;
-    return 0;
+    return PW_OK;
 }
 
-/* Returns 0, -1 for --help, or an exit code with err filled. */
-static int parse(int argc, char **argv, args *a, pw_error *err)
+/* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
+static pw_status parse(int argc, char **argv, args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
     pw_cli_args p;
     if (pw_cli_parse(&lle_spec, argc, argv, &p, err) != PW_OK)
-        return PW_EXIT_USAGE;
-    if (p.help)
-        return -1;
+        return PW_EINVAL;
+    if ((a->help = p.help))
+        return PW_OK;
     a->json = pw_cli_has(&p, "--json");
     a->components = pw_cli_text(&p, "--components");
     a->scan_text = pw_cli_text(&p, "--scan");
@@ -91,23 +92,23 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
     a->fit_path = p.n_pos ? p.pos[0] : NULL;
     if (!a->fit_path || !a->have_T) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file and --temperature are required");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     return a->scan_text ? parse_scan(a->scan_text, a, err) : 0;
 }
 
-int pw_cli_lle(int argc, char **argv)
+pw_status pw_cli_lle(int argc, char **argv)
 {
     args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = parse(argc, argv, &a, &err);
-    if (rc == -1) {
-        pw_cli_help(&lle_spec, stdout);
-        return 0;
-    }
-    if (rc)
+    if (parse(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if (a.help) {
+        pw_cli_help(&lle_spec, stdout);
+        return PW_OK;
+    }
+    pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
     pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
@@ -174,7 +175,7 @@ int pw_cli_lle(int argc, char **argv)
                "solubilities, above all away from the fitted temperatures; check against\n"
                "  measured tie lines before sizing a decanter.\n");
         pw_cli_print_caution(stdout);
-        rc = fflush(stdout) ? 4 : 0;
+        rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     free(pts);
     pw_fit_result_free(&fit);

@@ -13,6 +13,7 @@
 #define CMD "rate"
 
 typedef struct rate_args {
+    bool help; /* --help was asked for: nothing else is set */
     const char *fit_path, *components;
     double P_Pa;
     pw_rate_spec spec;
@@ -55,15 +56,15 @@ static const pw_cli_spec rate_spec = {
     .positional = "one fit file",
 };
 
-/* Returns 0, -1 for --help, or an exit code with err filled. */
-static int parse(int argc, char **argv, rate_args *a, pw_error *err)
+/* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
+static pw_status parse(int argc, char **argv, rate_args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
     pw_cli_args p;
     if (pw_cli_parse(&rate_spec, argc, argv, &p, err) != PW_OK)
-        return PW_EXIT_USAGE;
-    if (p.help)
-        return -1;
+        return PW_EINVAL;
+    if ((a->help = p.help))
+        return PW_OK;
     a->json = pw_cli_has(&p, "--json");
     a->energy = pw_cli_has(&p, "--energy");
     a->components = pw_cli_text(&p, "--components");
@@ -83,26 +84,26 @@ static int parse(int argc, char **argv, rate_args *a, pw_error *err)
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "a fit file and --pressure, --stages, --feed-stage, --reflux, --zf, "
                      "--distillate are required");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     a->P_Pa = a->tg.P_Pa;
     a->spec.zf = a->tg.zf;
     a->spec.q = a->tg.q;
-    return 0;
+    return PW_OK;
 }
 
-int pw_cli_rate(int argc, char **argv)
+pw_status pw_cli_rate(int argc, char **argv)
 {
     rate_args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = parse(argc, argv, &a, &err);
-    if (rc == -1) {
-        pw_cli_help(&rate_spec, stdout);
-        return 0;
-    }
-    if (rc)
+    if (parse(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if (a.help) {
+        pw_cli_help(&rate_spec, stdout);
+        return PW_OK;
+    }
+    pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
     if (pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
@@ -156,7 +157,7 @@ int pw_cli_rate(int argc, char **argv)
                a.energy ? "energy balances" : "constant molal overflow");
         printf("  with rigorous simulation and plant data; operate per local codes under licensed\n"
                "  engineering review.\n");
-        rc = fflush(stdout) ? 4 : 0;
+        rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     pw_rate_result_free(&r);
     pw_fit_result_free(&fit);

@@ -78,7 +78,7 @@ static void print_table(const pw_reflux_run *run)
            "  equipment and relief per local codes under licensed engineering review.\n");
 }
 
-int pw_cli_reflux(int argc, char **argv)
+pw_status pw_cli_reflux(int argc, char **argv)
 {
     pw_reflux_args a;
     pw_error err;
@@ -87,20 +87,20 @@ int pw_cli_reflux(int argc, char **argv)
         return pw_cli_fail("reflux", &err);
     if (a.help) {
         pw_cli_help(&pw_reflux_spec, stdout);
-        return 0;
+        return PW_OK;
     }
-    int rc;
+    pw_status rc;
     for (int i = 0; a.energy && i < a.n_extra; i += 2)
         if (!strcmp(a.extra[i], "--compare"))
-            return pw_cli_failf("reflux", PW_EXIT_USAGE,
+            return pw_cli_failf("reflux", PW_EINVAL,
                                 "--energy does not combine with --compare yet");
     pw_reflux_run run;
     rc = pw_reflux_compute(&a, &run, &err);
-    if (rc != 0)
+    if (rc != PW_OK)
         return pw_cli_fail("reflux", &err);
     pw_reflux_uncert unc;
     bool with_unc = a.uncertainty || a.n_extra;
-    if (with_unc && (rc = pw_reflux_uncert_run(&a, &run, &unc, &err)) != 0) {
+    if (with_unc && (rc = pw_reflux_uncert_run(&a, &run, &unc, &err)) != PW_OK) {
         pw_reflux_run_free(&run);
         return pw_cli_fail("reflux", &err);
     }
@@ -120,7 +120,7 @@ int pw_cli_reflux(int argc, char **argv)
     }
     bool infeasible = !run.col.feasible || (run.energy && !run.energy_res.feasible);
     pw_reflux_run_free(&run);
-    if (rc == 0 && a.exit_verdict && infeasible)
-        rc = PW_CLI_EXIT_VERDICT;
+    if (rc == PW_OK && a.exit_verdict && infeasible)
+        rc = PW_EINFEASIBLE;
     return rc;
 }

@@ -76,6 +76,7 @@ static const pw_cli_spec report_spec = {
 };
 
 typedef struct report_args {
+    bool help; /* --help was asked for: nothing else is set */
     const char *fit, *out, *svg, *csv, *components, *minimum;
     bool json, force, energy;
     bool have_P, have_xd, have_xb, have_zf;
@@ -136,15 +137,15 @@ static size_t load_others(const report_args *a, const pw_fit_result *fit, pw_fit
     return n;
 }
 
-/* Returns 0, -1 for --help, or an exit code with err filled. */
-static int parse(int argc, char **argv, report_args *a, pw_error *err)
+/* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
+static pw_status parse(int argc, char **argv, report_args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
     pw_cli_args p;
     if (pw_cli_parse(&report_spec, argc, argv, &p, err) != PW_OK)
-        return PW_EXIT_USAGE;
-    if (p.help)
-        return -1;
+        return PW_EINVAL;
+    if ((a->help = p.help))
+        return PW_OK;
     a->json = pw_cli_has(&p, "--json");
     a->force = pw_cli_has(&p, "--force");
     a->energy = pw_cli_has(&p, "--energy");
@@ -159,7 +160,7 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
         if (a->n_compare == REPORT_MAX_OTHERS) {
             pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
                          REPORT_MAX_OTHERS);
-            return PW_EXIT_USAGE;
+            return PW_EINVAL;
         }
         a->compare[a->n_compare++] = v->text;
     }
@@ -175,24 +176,24 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
     a->have_zf = tg.have_zf;
     if (!a->fit || !a->out) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file and --out REPORT.html are required");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     int n_col = a->have_P + a->have_xd + a->have_xb + a->have_zf;
     if (n_col != 0 && n_col != 4) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "the column section needs all of --pressure, --xd, --xb and --zf");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     if (a->energy && n_col == 0) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--energy needs the column options");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     memcpy(a->basis, tg.basis, sizeof a->basis);
     if (a->factor != 0.0 && n_col == 0) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--operating-factor needs the column options");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
 static void progress(const char *what)
@@ -201,18 +202,17 @@ static void progress(const char *what)
         fprintf(stderr, "pinchwise report: %s\n", what);
 }
 
-int pw_cli_report(int argc, char **argv)
+pw_status pw_cli_report(int argc, char **argv)
 {
     report_args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = parse(argc, argv, &a, &err);
-    if (rc < 0) {
-        pw_cli_help(&report_spec, stdout);
-        return 0;
-    }
-    if (rc)
+    if (parse(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail("report", &err);
+    if (a.help) {
+        pw_cli_help(&report_spec, stdout);
+        return PW_OK;
+    }
     /* Every output (page, --svg and --csv files) is written all or none, never over an input
      * (by identity: links count), whatever --force says. The page is checked before the work. */
     pw_outset *set = NULL;
@@ -319,7 +319,7 @@ int pw_cli_report(int argc, char **argv)
                                                       (json_int_t)plots));
     progress("done");
     if (!isatty(STDERR_FILENO))
-        return 0;
+        return PW_OK;
     fprintf(stderr, "pinchwise report: wrote %s with %zu plots\n", a.out, plots);
-    return 0;
+    return PW_OK;
 }

@@ -44,6 +44,7 @@ static const pw_cli_spec screen_spec = {
 };
 
 typedef struct args {
+    bool help; /* --help was asked for: nothing else is set */
     const char *fit_path;
     double P_Pa, xd, xb, zf;
     bool have_P, have_xd, have_xb, json;
@@ -57,7 +58,7 @@ typedef struct args {
 } args;
 
 /* --sweep FROM:TO[:N] (also spelt --swing-range): the pressures of the azeotrope-shift scan. */
-static int swing_range(const char *text, args *a, pw_error *err)
+static pw_status swing_range(const char *text, args *a, pw_error *err)
 {
     char buf[128];
     snprintf(buf, sizeof buf, "%s", text);
@@ -65,7 +66,7 @@ static int swing_range(const char *text, args *a, pw_error *err)
     if (!c) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--sweep %s: expected FROM:TO[:N], e.g. 20kPa:5bar",
                      text);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     *c = '\0';
     char *c2 = strchr(c + 1, ':');
@@ -73,35 +74,35 @@ static int swing_range(const char *text, args *a, pw_error *err)
         *c2 = '\0';
         double n;
         if (pw_cli_number("--sweep N", c2 + 1, &n, err) != PW_OK)
-            return PW_EXIT_USAGE;
+            return PW_EINVAL;
         if (!(n >= 2.0 && n <= 200.0) || n != floor(n)) {
             pw_error_set(err, PW_EINVAL, NULL, 0, "--sweep %s: N must be a whole number from 2 to 200",
                          text);
-            return PW_EXIT_USAGE;
+            return PW_EINVAL;
         }
         a->opt.scan_points = (size_t)n;
     }
     if (pw_cli_quantity(PW_QTY_PRESSURE, "--swing-range LO", buf, &a->opt.P_lo_Pa, err) != PW_OK ||
         pw_cli_quantity(PW_QTY_PRESSURE, "--swing-range HI", c + 1, &a->opt.P_hi_Pa, err) != PW_OK)
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     if (!(a->opt.P_hi_Pa > a->opt.P_lo_Pa)) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--swing-range %s: HI must exceed LO", text);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
-/* Returns 0, -1 for --help, or an exit code with err filled. */
-static int parse(int argc, char **argv, args *a, pw_error *err)
+/* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
+static pw_status parse(int argc, char **argv, args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
     a->zf = NAN;
     a->opt = pw_screen_default_options();
     pw_cli_args p;
     if (pw_cli_parse(&screen_spec, argc, argv, &p, err) != PW_OK)
-        return PW_EXIT_USAGE;
-    if (p.help)
-        return -1;
+        return PW_EINVAL;
+    if ((a->help = p.help))
+        return PW_OK;
     a->json = pw_cli_has(&p, "--json");
     a->energy = pw_cli_has(&p, "--energy");
     a->exit_verdict = pw_cli_has(&p, "--exit-verdict");
@@ -129,17 +130,17 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
         a->opt.q = tg.q;
     const char *sw = pw_cli_text(&p, "--sweep");
     if (sw && swing_range(sw, a, err))
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     a->fit_path = p.n_pos ? p.pos[0] : NULL;
     if (!a->fit_path || !a->have_P || !a->have_xd || !a->have_xb) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file and --pressure, --xd, --xb are required");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
 /* After the conversion to mole fractions: the feed between the products, in either direction. */
-static int check_targets(const args *a, pw_error *err)
+static pw_status check_targets(const args *a, pw_error *err)
 {
     double lo = fmin(a->xb, a->xd), hi = fmax(a->xb, a->xd);
     if (!(lo < hi) || (!isnan(a->zf) && !(lo < a->zf && a->zf < hi))) {
@@ -148,9 +149,9 @@ static int check_targets(const args *a, pw_error *err)
                      "xd < zf < xb (component 1 leaves with the bottoms); got xb %g, zf %g, xd %g "
                      "as mole fractions of component 1",
                      a->xb, a->zf, a->xd);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
 static void print_text(const pw_fit_result *fit, const pw_screen_result *r)
@@ -176,18 +177,18 @@ static void print_text(const pw_fit_result *fit, const pw_screen_result *r)
     pw_cli_print_caution(stdout);
 }
 
-int pw_cli_screen(int argc, char **argv)
+pw_status pw_cli_screen(int argc, char **argv)
 {
     args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = parse(argc, argv, &a, &err);
-    if (rc == -1) {
-        pw_cli_help(&screen_spec, stdout);
-        return 0;
-    }
-    if (rc)
+    if (parse(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if (a.help) {
+        pw_cli_help(&screen_spec, stdout);
+        return PW_OK;
+    }
+    pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
     if (pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
@@ -231,7 +232,7 @@ int pw_cli_screen(int argc, char **argv)
         run.P_Pa = a.P_Pa;
         run.spec = ra.spec;
         run.col = r.column;
-        if ((rc = pw_reflux_uncert_run(&ra, &run, &u, &err)) != 0) {
+        if ((rc = pw_reflux_uncert_run(&ra, &run, &u, &err)) != PW_OK) {
             pw_fit_result_free(&fit);
             return pw_cli_fail(CMD, &err);
         }
@@ -275,10 +276,10 @@ int pw_cli_screen(int argc, char **argv)
             printf("  with energy balances: %s\n", en.reason);
         if (unc)
             pw_reflux_uncert_print(&u, &run);
-        rc = fflush(stdout) ? 4 : 0;
+        rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     pw_fit_result_free(&fit);
-    if (rc == 0 && a.exit_verdict && r.verdict == PW_VERDICT_INFEASIBLE)
-        rc = PW_CLI_EXIT_VERDICT;
+    if (rc == PW_OK && a.exit_verdict && r.verdict == PW_VERDICT_INFEASIBLE)
+        rc = PW_EINFEASIBLE;
     return rc;
 }

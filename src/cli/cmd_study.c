@@ -63,20 +63,21 @@ static const pw_cli_spec study_spec = {
 };
 
 typedef struct study_args {
+    bool help; /* --help was asked for: nothing else is set */
     const char *data, *model_name, *out_dir, *components;
     bool json, force, uncertainty, exit_verdict;
     pw_cli_args opts; /* the column options, read again by pw_reflux_args_from */
 } study_args;
 
-/* Returns 0, -1 for --help, or an exit code with err filled. */
-static int parse(int argc, char **argv, study_args *a, pw_error *err)
+/* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
+static pw_status parse(int argc, char **argv, study_args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
     if (pw_cli_parse(&study_spec, argc, argv, &a->opts, err) != PW_OK)
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     const pw_cli_args *p = &a->opts;
-    if (p->help)
-        return -1;
+    if ((a->help = p->help))
+        return PW_OK;
     a->json = pw_cli_has(p, "--json");
     a->force = pw_cli_has(p, "--force");
     a->uncertainty = pw_cli_has(p, "--uncertainty");
@@ -89,9 +90,9 @@ static int parse(int argc, char **argv, study_args *a, pw_error *err)
     a->data = p->n_pos ? p->pos[0] : NULL;
     if (!a->data) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a data file is required");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
 static void step(const char *what, size_t k)
@@ -124,7 +125,7 @@ static pw_status consistency(const study_args *a, const pw_complib *lib, pw_cons
 
 typedef struct model_fit {
     const pw_model_type *model;
-    int rc;
+    pw_status rc;
     pw_fit_result r;
     char path[PW_PATH_MAX];
     pw_error err;
@@ -156,22 +157,22 @@ static void az_text(const char *where, const pw_az_result *r, bool ok)
                pw_az_kind_name(r->az[i].kind), r->az[i].x1, r->az[i].T_K, r->az[i].P_Pa / 1000.0);
 }
 
-int pw_cli_study(int argc, char **argv)
+pw_status pw_cli_study(int argc, char **argv)
 {
     study_args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = parse(argc, argv, &a, &err);
-    if (rc == -1) {
-        pw_cli_help(&study_spec, stdout);
-        return 0;
-    }
-    if (rc)
+    if (parse(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if (a.help) {
+        pw_cli_help(&study_spec, stdout);
+        return PW_OK;
+    }
+    pw_status rc = PW_OK;
     const pw_model_type *only = NULL;
     char names[256];
     if (a.model_name && !(only = pw_model_find(a.model_name)))
-        return pw_cli_failf(CMD, PW_EXIT_USAGE,
+        return pw_cli_failf(CMD, PW_EINVAL,
                             "unknown model '%s' (expected one of %s)", a.model_name,
                             pw_model_names(names, sizeof names));
     /* the column options are checked before any work, by the reflux parser itself */
@@ -179,7 +180,7 @@ int pw_cli_study(int argc, char **argv)
     if (pw_reflux_args_from(&a.opts, a.data /* a placeholder */, &ra, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
     if (mkdir(a.out_dir, 0755) != 0 && errno != EEXIST)
-        return pw_cli_failf(CMD, pw_status_exit_code(PW_EIO), "%s: cannot create the folder",
+        return pw_cli_failf(CMD, PW_EIO, "%s: cannot create the folder",
                             a.out_dir);
 
     pw_complib lib;
@@ -204,7 +205,7 @@ int pw_cli_study(int argc, char **argv)
     if (!fits) {
         pw_consistency_result_free(&cr);
         pw_complib_free(&lib);
-        return pw_cli_failf(CMD, pw_status_exit_code(PW_ENOMEM), "out of memory");
+        return pw_cli_failf(CMD, PW_ENOMEM, "out of memory");
     }
     pw_fit_cli_opts co;
     memset(&co, 0, sizeof co);
@@ -246,7 +247,7 @@ int pw_cli_study(int argc, char **argv)
     pw_reflux_args_from(&a.opts, chosen->path, &ra, &err);
     ra.components = a.components;
     pw_reflux_run run;
-    if ((rc = pw_reflux_compute(&ra, &run, &err)) != 0) {
+    if ((rc = pw_reflux_compute(&ra, &run, &err)) != PW_OK) {
         rc = pw_cli_fail(CMD, &err);
         goto out;
     }
@@ -254,7 +255,7 @@ int pw_cli_study(int argc, char **argv)
     pw_reflux_uncert unc;
     memset(&unc, 0, sizeof unc);
     if (ra.uncertainty || ra.n_extra) {
-        if ((rc = pw_reflux_uncert_run(&ra, &run, &unc, &err)) != 0) {
+        if ((rc = pw_reflux_uncert_run(&ra, &run, &unc, &err)) != PW_OK) {
             pw_reflux_run_free(&run);
             rc = pw_cli_fail(CMD, &err);
             goto out;
@@ -286,7 +287,7 @@ int pw_cli_study(int argc, char **argv)
         if (snprintf(report_path, sizeof report_path, "%s/%s.report.html", a.out_dir, stem) >=
             (int)sizeof report_path) {
             pw_reflux_run_free(&run);
-            rc = pw_cli_failf(CMD, PW_EXIT_USAGE, "output path too long");
+            rc = pw_cli_failf(CMD, PW_EINVAL, "output path too long");
             goto out;
         }
     }
@@ -395,10 +396,10 @@ int pw_cli_study(int argc, char **argv)
         printf("  report                %s\n", report_path);
         printf("\n  Screening estimate only: verify with rigorous simulation and pilot data; size\n"
                "  equipment and relief per local codes under licensed engineering review.\n");
-        rc = fflush(stdout) ? pw_status_exit_code(PW_EIO) : 0;
+        rc = fflush(stdout) ? PW_EIO : 0;
     }
-    if (rc == 0 && a.exit_verdict && (!run.col.feasible || !cr.consistent))
-        rc = PW_CLI_EXIT_VERDICT;
+    if (rc == PW_OK && a.exit_verdict && (!run.col.feasible || !cr.consistent))
+        rc = PW_EINFEASIBLE;
     pw_reflux_run_free(&run);
 out:
     for (size_t i = 0; i < n_models; i++)

@@ -104,7 +104,7 @@ pw_status pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_erro
 }
 
 /* The targets in mole fractions: xb < zf < xd, or xd < zf < xb (component 1 to the bottoms). */
-static int check_targets(const pw_column_spec *s, pw_error *err)
+static pw_status check_targets(const pw_column_spec *s, pw_error *err)
 {
     if (!((s->xb < s->zf && s->zf < s->xd) || (s->xd < s->zf && s->zf < s->xb))) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
@@ -112,12 +112,12 @@ static int check_targets(const pw_column_spec *s, pw_error *err)
                      "overhead) or xd < zf < xb (component 1 leaves with the bottoms); got xb %g, "
                      "zf %g, xd %g as mole fractions of component 1",
                      s->xb, s->zf, s->xd);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
-int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err)
+pw_status pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err)
 {
     memset(run, 0, sizeof *run);
     pw_status st = pw_cli_read_fit("reflux", a->fit_path, a->components, &run->fit, err);
@@ -125,7 +125,7 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
                                                   err)) != PW_OK)
         pw_fit_result_free(&run->fit);
     if (st != PW_OK)
-        return pw_status_exit_code(st);
+        return st;
     run->P_Pa = a->P_Pa;
     run->spec = a->spec;
     if (a->basis[0] == PW_BASIS_MASS || a->basis[1] == PW_BASIS_MASS ||
@@ -133,8 +133,8 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
         memcpy(run->given, a->given, sizeof run->given);
     st = pw_cli_targets_to_mole(&run->spec.xd, &run->spec.xb, &run->spec.zf, a->basis,
                                 &run->fit.sys, err);
-    int rc = st == PW_OK ? check_targets(&run->spec, err) : pw_status_exit_code(st);
-    if (rc != 0) {
+    pw_status rc = st == PW_OK ? check_targets(&run->spec, err) : st;
+    if (rc != PW_OK) {
         pw_fit_result_free(&run->fit);
         return rc;
     }
@@ -163,9 +163,9 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
     if (st != PW_OK) {
         pw_design_table_free(&run->design);
         pw_fit_result_free(&run->fit);
-        return pw_status_exit_code(st);
+        return st;
     }
-    return 0;
+    return PW_OK;
 }
 
 void pw_reflux_run_free(pw_reflux_run *run)

@@ -62,9 +62,9 @@ pw_status pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_erro
 pw_status pw_reflux_args_from(const pw_cli_args *p, const char *fit_path, pw_reflux_args *a,
                               pw_error *err);
 
-/* Reads the fit file and runs the column analysis. Returns 0 or an exit code with err. The caller
+/* Reads the fit file and runs the column analysis. PW_OK or the status with err. The caller
  * frees run->fit. */
-int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err);
+pw_status pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err);
 
 /* Warnings on stderr: temperatures outside a component's vapor-pressure range or the fit's data
  * range, non-converged fit, predicted liquid split. */
