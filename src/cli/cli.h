@@ -72,7 +72,7 @@ pw_status pw_cli_quantity(pw_quantity q, const char *opt, const char *text, doub
  * NaN and Inf. */
 pw_status pw_cli_number(const char *opt, const char *text, double *value, pw_error *err);
 
-/* Column targets shared by reflux and report. */
+/* Column targets as given with the shared option blocks (pw_cli_targets_get, cli_options.h). */
 typedef struct pw_cli_targets {
     double P_Pa;
     double xd, xb, zf, q; /* q defaults to 1 */

@@ -17,9 +17,10 @@ const pw_cli_option pw_cli_block_json[] = {
 
 const pw_cli_option pw_cli_block_components[] = {
     {.name = "--components", .kind = PW_CLI_STRING, .metavar = "FILE",
-     .help = "component rows (vapor pressure, molar mass, ...) that take precedence\n"
-             "over the ones otherwise used: the shipped library's when reading\n"
-             "data, the fit file's recorded rows when reading a fit"},
+     .help = "component rows (vapor pressure, molar mass, ...) that\n"
+             "take precedence over the ones otherwise used: the shipped\n"
+             "library's when reading data, the fit file's recorded rows when\n"
+             "reading a fit"},
     PW_CLI_END,
 };
 

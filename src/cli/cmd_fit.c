@@ -136,8 +136,9 @@ static void usage(FILE *f, const pw_cli_spec *spec)
             "usage: pinchwise fit DATA.csv --model MODEL [options]\n"
             "       pinchwise fit DIR --model MODEL --out-dir OUTDIR [options]   (every *.csv in DIR)\n"
             "\n"
-            "MODEL: %s (any case), or all (fit every model, rank by\n"
-            "AICc; with a folder, every model of every file; with one file, --out-dir not --out)\n",
+            "MODEL: %s (any case), or all (fit every\n"
+            "model, rank by AICc; with a folder, every model of every file; with one file,\n"
+            "--out-dir not --out)\n",
             pw_model_names(names, sizeof names));
     pw_cli_help(spec, f);
 }
