@@ -115,7 +115,7 @@ static const pw_cli_option fit_options[] = {
     {.name = "--sigma-y", .kind = PW_CLI_NUMBER, .metavar = "DY", .lo = 1e-6, .hi = 0.5,
      .what = "a mole-fraction uncertainty",
      .help = "vapor mole fraction uncertainty (default: file or 0.004)"},
-    {.name = "--exclude", .kind = PW_CLI_STRING, .metavar = "LINES",
+    {.name = "--exclude", .kind = PW_CLI_STRING, .metavar = "LINES", .repeatable = true,
      .help = "file line numbers to leave out, e.g. 12,15-17"},
     {.name = "--exclude-reason", .kind = PW_CLI_STRING, .metavar = "TEXT",
      .help = "why they are left out (recorded in the fit file)"},
@@ -226,8 +226,9 @@ pw_status pw_cli_fit(int argc, char **argv)
                             "--vapor %s: unknown vapor model (expected ideal or virial)", v->text);
     if ((v = pw_cli_get(&p, "--exclude-reason")))
         snprintf(co.fit.exclude_reason, sizeof co.fit.exclude_reason, "%s", v->text);
-    if ((v = pw_cli_get(&p, "--exclude")) && parse_lines(v->text, &co.fit, &err) != PW_OK)
-        return pw_cli_fail("fit", &err);
+    for (v = pw_cli_next(&p, "--exclude", NULL); v; v = pw_cli_next(&p, "--exclude", v))
+        if (parse_lines(v->text, &co.fit, &err) != PW_OK)
+            return pw_cli_fail("fit", &err);
     static const char *const sigmas[] = {"--sigma-T", "--sigma-P"};
     for (size_t k = 0; k < 2; k++)
         if ((v = pw_cli_get(&p, sigmas[k])) && sigma_opt(sigmas[k], v->text, &co.fit, &err) != PW_OK)

@@ -75,4 +75,7 @@ grep -q -- "--factors given more than once" e.txt || fail "two spellings: $(cat 
 # model names in any case, with either form of the option
 "$pw" fit "$src/datasets/demo_acetone_water.csv" --model=MARGULES --out=m.json > /dev/null 2>&1 || fail "--model=MARGULES"
 "$pw" fit "$src/datasets/demo_acetone_water.csv" --model VanLaar --out v.json > /dev/null 2>&1 || fail "--model VanLaar"
+# a repeatable option keeps every occurrence: --exclude adds lines (ethanol/water set, shipped)
+"$pw" fit "$src/datasets/ethanol_water_1atm.csv" --model wilson --exclude 8 --exclude=10-11 --out ex.json > /dev/null 2>&1 || fail "--exclude twice"
+python3 -c 'import json; d=json.load(open("ex.json")); assert d["excluded"]["lines"] == [8, 10, 11], d["excluded"]' || fail "--exclude twice: lines"
 echo "help and option tests passed"
