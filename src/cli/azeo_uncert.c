@@ -8,50 +8,19 @@
 #include <stdio.h>
 #include <string.h>
 
-static int count_value(const char *opt, const char *v, double hi, double *out, pw_error *err)
+void pw_azeo_uncert_from(const pw_cli_args *p, pw_azeo_uncert *u)
 {
-    if (pw_cli_number(opt, v, out, err) != PW_OK)
-        return PW_EXIT_USAGE;
-    if (*out != floor(*out) || *out < 0.0 || *out > hi) {
-        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected a whole number from 0 to %.0f", opt,
-                     v, hi);
-        return PW_EXIT_USAGE;
-    }
-    return 0;
+    pw_cli_uncertainty g = pw_cli_uncertainty_get(p);
+    memset(u, 0, sizeof *u);
+    u->opt = pw_unc_default_options();
+    u->on = g.on;
+    if (g.have_samples)
+        u->opt.samples = (size_t)g.samples;
+    if (g.have_seed)
+        u->opt.seed = (unsigned long)g.seed;
 }
 
-int pw_azeo_uncert_opt(int argc, char **argv, int *i, pw_azeo_uncert *u, pw_error *err)
-{
-    if (!u->on && u->opt.samples == 0 && u->opt.seed == 0)
-        u->opt = pw_unc_default_options();
-    if (pw_cli_opt(argc, argv, i, "--uncertainty", NULL, NULL)) {
-        u->on = true;
-        return 1;
-    }
-    const char *v = NULL;
-    bool missing = false;
-    bool samples = pw_cli_opt(argc, argv, i, "--samples", &v, &missing);
-    bool seed = !samples && pw_cli_opt(argc, argv, i, "--seed", &v, &missing);
-    if (!samples && !seed)
-        return 0;
-    if (missing) {
-        pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", samples ? "--samples" : "--seed");
-        return PW_EXIT_USAGE;
-    }
-    double d;
-    int rc = count_value(samples ? "--samples" : "--seed", v, samples ? 100000.0 : 4294967295.0,
-                         &d, err);
-    if (rc)
-        return rc;
-    if (samples)
-        u->opt.samples = (size_t)d;
-    else
-        u->opt.seed = (unsigned long)d;
-    u->on = true;
-    return 1;
-}
-
-int pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_uncert *u,
+pw_status pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_uncert *u,
                        pw_error *err)
 {
     u->n = r->n;
@@ -70,9 +39,9 @@ int pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_
         /* one azeotrope per call: the progress line names it */
         pw_status st = pw_azeotrope_unc_run(fit, &one, &o, &u->res[i], err);
         if (st != PW_OK)
-            return pw_status_exit_code(st);
+            return st;
     }
-    return 0;
+    return PW_OK;
 }
 
 void pw_azeo_uncert_json(const pw_azeo_uncert *u, const pw_az_result *r, json_t *list)

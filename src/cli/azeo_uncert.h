@@ -4,6 +4,8 @@
 #define PW_CLI_AZEO_UNCERT_H
 
 #include <jansson.h>
+
+#include "cli_options.h"
 #include <pinchwise/uncertainty.h>
 
 typedef struct pw_azeo_uncert {
@@ -13,12 +15,11 @@ typedef struct pw_azeo_uncert {
     pw_unc_result res[PW_AZ_MAX];
 } pw_azeo_uncert;
 
-/* Handles argv[*i] when it is --uncertainty, --samples N or --seed N (advancing *i past a value):
- * returns 1 when taken, 0 when not one of these, or an exit code (> 1) with err filled. */
-int pw_azeo_uncert_opt(int argc, char **argv, int *i, pw_azeo_uncert *u, pw_error *err);
+/* The uncertainty block's options of p (pw_cli_block_uncertainty) into u. */
+void pw_azeo_uncert_from(const pw_cli_args *p, pw_azeo_uncert *u);
 
-/* Propagates every azeotrope of r. Returns 0 or an exit code with err. */
-int pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_uncert *u,
+/* Propagates every azeotrope of r. PW_OK or the status with err. */
+pw_status pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_uncert *u,
                        pw_error *err);
 
 /* Adds x1_ci95 and T_K_ci95 / P_kPa_ci95 (CONTRACT) and an "uncertainty" object to each element

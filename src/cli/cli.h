@@ -13,42 +13,32 @@
 #include <pinchwise/units.h>
 #include <stdbool.h>
 
-/* Exit codes of the program (docs/exit-codes.md holds the same table). */
-#define PW_EXIT_OK 0
-#define PW_EXIT_OTHER 1      /* a failure with no status (should not happen) */
-#define PW_EXIT_USAGE 2      /* bad command line or argument (PW_EINVAL) */
-#define PW_EXIT_INPUT 3      /* malformed or insufficient input, name not found */
-#define PW_EXIT_FILE 4       /* file input/output, output exists or is an input */
-#define PW_EXIT_MEMORY 5     /* out of memory */
-#define PW_EXIT_NUMERIC 6    /* a computation failed: outside a model's domain, no convergence */
-#define PW_EXIT_INFEASIBLE 7 /* the specification cannot be met */
-
-/* The exit code for a library status (cli_exit.c: the one table); 1 for a value out of range. */
-int pw_status_exit_code(pw_status status);
-
 typedef struct pw_cli_command {
     const char *name;
     const char *summary;
-    int (*run)(int argc, char **argv); /* argv[0] is the command name */
+    /* argv[0] is the command name. Returns PW_OK, or the status of the failure (already
+     * reported on stderr); PW_EINFEASIBLE for a negative verdict under --exit-verdict. main alone
+     * turns a status into an exit code. */
+    pw_status (*run)(int argc, char **argv);
 } pw_cli_command;
 
-int pw_cli_fit(int argc, char **argv);
-int pw_cli_check(int argc, char **argv);
-int pw_cli_azeotrope(int argc, char **argv);
-int pw_cli_reflux(int argc, char **argv);
-int pw_cli_screen(int argc, char **argv);
-int pw_cli_report(int argc, char **argv);
-int pw_cli_lle(int argc, char **argv);
-int pw_cli_decanter(int argc, char **argv);
-int pw_cli_rate(int argc, char **argv);
-int pw_cli_study(int argc, char **argv);
+pw_status pw_cli_fit(int argc, char **argv);
+pw_status pw_cli_check(int argc, char **argv);
+pw_status pw_cli_azeotrope(int argc, char **argv);
+pw_status pw_cli_reflux(int argc, char **argv);
+pw_status pw_cli_screen(int argc, char **argv);
+pw_status pw_cli_report(int argc, char **argv);
+pw_status pw_cli_lle(int argc, char **argv);
+pw_status pw_cli_decanter(int argc, char **argv);
+pw_status pw_cli_rate(int argc, char **argv);
+pw_status pw_cli_study(int argc, char **argv);
 
-/* Prints "pinchwise CMD: file:line: message" as one line on stderr and returns the exit code
- * for err->status. */
-int pw_cli_fail(const char *cmd, const pw_error *err);
+/* Prints "pinchwise CMD: file:line: message" as one line on stderr and returns err->status
+ * (PW_EINVAL when err holds no failure). */
+pw_status pw_cli_fail(const char *cmd, const pw_error *err);
 
-/* Prints "pinchwise CMD: message" (printf format) on stderr; returns code. */
-int pw_cli_failf(const char *cmd, int code, const char *fmt, ...) __attribute__((format(printf, 3, 4)));
+/* Prints "pinchwise CMD: message" (printf format) on stderr; returns st. */
+pw_status pw_cli_failf(const char *cmd, pw_status st, const char *fmt, ...) __attribute__((format(printf, 3, 4)));
 
 /* Prints a warning line "pinchwise CMD: warning: ..." on stderr (never on stdout). */
 void pw_cli_warnf(const char *cmd, const char *fmt, ...) __attribute__((format(printf, 2, 3)));
@@ -58,14 +48,18 @@ void pw_cli_warnf(const char *cmd, const char *fmt, ...) __attribute__((format(p
  * program was built from, then the installed data directory. */
 pw_status pw_cli_load_components(pw_complib *lib, const char *extra_path, pw_error *err);
 
+/* For commands that read a fit file: when path is not NULL, reads that component file and replaces
+ * the vapor-pressure data of each of the system's components that it names (a warning on stderr
+ * says so, since the activity parameters were fitted with the fit file's own). */
+pw_status pw_cli_override_components(const char *cmd, pw_system *sys, const char *path,
+                                     pw_error *err);
+
 /* Warns on stderr when a component associates in the vapor (a carboxylic acid): modified
  * Raoult's law, which pinchwise uses, is then unreliable even at 1 atm. */
 void pw_cli_warn_vapor_association(const char *cmd, const pw_system *sys);
 
-/* Reads a fit file and, when components is not NULL, replaces the components that file names
- * with everything derived from them (pw_fitfile_load); a warning on stderr names each component
- * whose vapor pressure changed, since the activity parameters were fitted with the fit file's
- * own. On failure fit is left freed and err filled. */
+/* Reads a fit file and, when components is not NULL, applies pw_cli_override_components. On
+ * failure fit is left freed and err filled. */
 pw_status pw_cli_read_fit(const char *cmd, const char *path, const char *components,
                           pw_fit_result *fit, pw_error *err);
 
@@ -78,10 +72,7 @@ pw_status pw_cli_quantity(pw_quantity q, const char *opt, const char *text, doub
  * NaN and Inf. */
 pw_status pw_cli_number(const char *opt, const char *text, double *value, pw_error *err);
 
-/* A mole fraction for option opt: a finite number in [0, 1]. Returns 0 or PW_EXIT_USAGE with err. */
-int pw_cli_fraction(const char *opt, const char *text, double *out, pw_error *err);
-
-/* Column targets shared by reflux and report. */
+/* Column targets as given with the shared option blocks (pw_cli_targets_get, cli_options.h). */
 typedef struct pw_cli_targets {
     double P_Pa;
     double xd, xb, zf, q; /* q defaults to 1 */
@@ -89,28 +80,18 @@ typedef struct pw_cli_targets {
     pw_basis basis[3]; /* of xd, xb, zf as given (mole unless "wt"/"wt%"); see cli_units.h */
 } pw_cli_targets;
 
-/* When opt is one of --pressure, --xd, --xb, --zf, --q, parses value into t and returns 0 (or
- * PW_EXIT_USAGE with err on a bad value); returns -1 for any other option. Compositions may carry
- * mol%, wt or wt% (t->basis); pw_cli_targets_to_mole converts them once the fit is read.
- * PW_EXIT_USAGE with err on a bad value); returns -1 for any other option. */
-int pw_cli_target_opt(const char *opt, const char *value, pw_cli_targets *t, pw_error *err);
-
 /* Converts xd, xb, zf given by mass (basis[]) to mole fractions of sys's component 1. */
 pw_status pw_cli_targets_to_mole(double *xd, double *xb, double *zf, const pw_basis basis[3],
                                  const pw_system *sys, pw_error *err);
 
 /* Writes obj to stdout as one JSON object followed by a newline (17 significant digits);
- * steals the reference. Returns 0, or the I/O exit code; prints nothing and returns the
- * out-of-memory exit code when obj is NULL or any jansson allocation has failed (see
+ * steals the reference. PW_OK, or PW_EIO; prints nothing and returns PW_ENOMEM
+ * when obj is NULL or any jansson allocation has failed (see
  * pw_cli_watch_json_allocations), since such an object may lack keys. */
-int pw_cli_print_json(json_t *obj);
+pw_status pw_cli_print_json(json_t *obj);
 
 /* A JSON number, or null when v is not finite. New reference. */
 json_t *pw_cli_json_num(double v);
-
-/* True when argv[i] equals the option name; then *value is argv[i+1] (and i is advanced) when
- * takes_value. Returns false with *missing set when the value is absent. */
-bool pw_cli_opt(int argc, char **argv, int *i, const char *name, const char **value, bool *missing);
 
 /* True when stderr is a terminal: only then is progress shown. */
 bool pw_cli_progress_wanted(void);
@@ -143,17 +124,17 @@ void pw_cli_watch_json_allocations(void);
 
 /* A whole number for option opt in [lo, hi] (hi at most 2^53): digits only, optionally in
  * exponent form ("1e3"); a fraction, a sign where lo >= 0, NaN or a value out of range is refused
- * with a message naming the option and the range. Returns 0 or PW_EXIT_USAGE with err. */
-int pw_cli_whole(const char *opt, const char *text, double lo, double hi, unsigned long long *out,
+ * with a message naming the option and the range. PW_OK or PW_EINVAL with err. */
+pw_status pw_cli_whole(const char *opt, const char *text, double lo, double hi, unsigned long long *out,
                  pw_error *err);
 
 /* A number for option opt in [lo, hi]; the message names the option, the range and what it is
- * (e.g. "a multiple of R_min"). Returns 0 or PW_EXIT_USAGE with err. */
-int pw_cli_ranged(const char *opt, const char *text, double lo, double hi, const char *what,
+ * (e.g. "a multiple of R_min"). PW_OK or PW_EINVAL with err. */
+pw_status pw_cli_ranged(const char *opt, const char *text, double lo, double hi, const char *what,
                   double *out, pw_error *err);
 
 /* Checks that stdout took everything written to it; prints "pinchwise CMD: cannot write to
- * standard output: REASON" and returns the I/O exit code when not, else 0. */
-int pw_cli_finish_stdout(const char *cmd);
+ * standard output: REASON" and returns PW_EIO when not, else PW_OK. */
+pw_status pw_cli_finish_stdout(const char *cmd);
 
 #endif

@@ -16,15 +16,14 @@
 #include <strings.h>
 #include <unistd.h>
 
-int pw_cli_fail(const char *cmd, const pw_error *err)
+pw_status pw_cli_fail(const char *cmd, const pw_error *err)
 {
     char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 32];
     fprintf(stderr, "pinchwise %s: %s\n", cmd, pw_error_format(err, buf, sizeof buf));
-    int code = err ? pw_status_exit_code(err->status) : 1;
-    return code ? code : 1;
+    return err && err->status != PW_OK ? err->status : PW_EINVAL;
 }
 
-int pw_cli_failf(const char *cmd, int code, const char *fmt, ...)
+pw_status pw_cli_failf(const char *cmd, pw_status st, const char *fmt, ...)
 {
     va_list ap;
     fprintf(stderr, "pinchwise %s: ", cmd);
@@ -32,7 +31,7 @@ int pw_cli_failf(const char *cmd, int code, const char *fmt, ...)
     vfprintf(stderr, fmt, ap);
     va_end(ap);
     fputc('\n', stderr);
-    return code ? code : 1;
+    return st != PW_OK ? st : PW_EINVAL;
 }
 
 void pw_cli_warnf(const char *cmd, const char *fmt, ...)
@@ -100,7 +99,7 @@ void pw_cli_watch_json_allocations(void)
     json_set_alloc_funcs(json_alloc, free);
 }
 
-int pw_cli_print_json(json_t *obj)
+pw_status pw_cli_print_json(json_t *obj)
 {
     /* the whole text first (the library's text, the same as the Python module's): a failure
      * half-way through must not leave half an object on stdout */
@@ -110,33 +109,16 @@ int pw_cli_print_json(json_t *obj)
         free(text);
         fprintf(stderr, "pinchwise: out of memory while building the JSON output (nothing "
                         "printed)\n");
-        return pw_status_exit_code(PW_ENOMEM);
+        return PW_ENOMEM;
     }
-    int bad = fputs(text, stdout) == EOF || fputc('\n', stdout) == EOF || fflush(stdout) != 0;
+    bool bad = fputs(text, stdout) == EOF || fputc('\n', stdout) == EOF || fflush(stdout) != 0;
     free(text);
-    return bad ? pw_status_exit_code(PW_EIO) : 0;
+    return bad ? PW_EIO : PW_OK;
 }
 
 json_t *pw_cli_json_num(double v)
 {
     return pw_json_num(v);
-}
-
-bool pw_cli_opt(int argc, char **argv, int *i, const char *name, const char **value, bool *missing)
-{
-    if (strcmp(argv[*i], name) != 0)
-        return false;
-    if (missing)
-        *missing = false;
-    if (value) {
-        if (*i + 1 >= argc) {
-            if (missing)
-                *missing = true;
-            return true;
-        }
-        *value = argv[++*i];
-    }
-    return true;
 }
 
 bool pw_cli_progress_wanted(void)
@@ -185,44 +167,6 @@ void pw_cli_warn_vapor_association(const char *cmd, const pw_system *sys)
                          sys->comp[i].name);
 }
 
-int pw_cli_fraction(const char *opt, const char *text, double *out, pw_error *err)
-{
-    if (pw_cli_number(opt, text, out, err) != PW_OK)
-        return PW_EXIT_USAGE;
-    if (!(*out >= 0.0 && *out <= 1.0)) {
-        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: a mole fraction must lie in [0, 1]", opt,
-                     text);
-        return PW_EXIT_USAGE;
-    }
-    return 0;
-}
-
-int pw_cli_target_opt(const char *opt, const char *value, pw_cli_targets *t, pw_error *err)
-{
-    if (!strcmp(opt, "--pressure")) {
-        if (pw_cli_quantity(PW_QTY_PRESSURE, opt, value, &t->P_Pa, err) != PW_OK)
-            return PW_EXIT_USAGE;
-        t->have_P = true;
-        return 0;
-    }
-    if (!strcmp(opt, "--xd")) {
-        t->have_xd = true;
-        return pw_cli_composition(opt, value, &t->xd, &t->basis[0], err);
-    }
-    if (!strcmp(opt, "--xb")) {
-        t->have_xb = true;
-        return pw_cli_composition(opt, value, &t->xb, &t->basis[1], err);
-    }
-    if (!strcmp(opt, "--zf")) {
-        t->have_zf = true;
-        return pw_cli_composition(opt, value, &t->zf, &t->basis[2], err);
-    }
-    if (!strcmp(opt, "--q")) /* liquid fraction of the feed: -10 (very hot vapor) to 10 (very
-                              * cold liquid) covers every real feed (docs/inputs.md) */
-        return pw_cli_ranged(opt, value, -10.0, 10.0, "the feed's liquid fraction q", &t->q, err);
-    return -1;
-}
-
 pw_status pw_cli_read_fit(const char *cmd, const char *path, const char *components,
                           pw_fit_result *fit, pw_error *err)
 {
@@ -236,7 +180,7 @@ pw_status pw_cli_read_fit(const char *cmd, const char *path, const char *compone
     return st;
 }
 
-int pw_cli_whole(const char *opt, const char *text, double lo, double hi, unsigned long long *out,
+pw_status pw_cli_whole(const char *opt, const char *text, double lo, double hi, unsigned long long *out,
                  pw_error *err)
 {
     double v;
@@ -245,34 +189,34 @@ int pw_cli_whole(const char *opt, const char *text, double lo, double hi, unsign
         v > hi) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected a whole number from %.0f to %.0f",
                      opt, text, lo, hi);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     *out = (unsigned long long)v;
-    return 0;
+    return PW_OK;
 }
 
-int pw_cli_ranged(const char *opt, const char *text, double lo, double hi, const char *what,
+pw_status pw_cli_ranged(const char *opt, const char *text, double lo, double hi, const char *what,
                   double *out, pw_error *err)
 {
     double v = NAN;
     if (pw_cli_number(opt, text, &v, NULL) != PW_OK || !(v >= lo && v <= hi)) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected %s from %g to %g", opt, text, what,
                      lo, hi);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     *out = v;
-    return 0;
+    return PW_OK;
 }
 
-int pw_cli_finish_stdout(const char *cmd)
+pw_status pw_cli_finish_stdout(const char *cmd)
 {
     errno = 0;
     int bad = fflush(stdout) != 0;
     int e = errno;
     bad = bad || ferror(stdout);
     if (!bad)
-        return 0;
+        return PW_OK;
     fprintf(stderr, "pinchwise %s: cannot write to standard output: %s\n", cmd,
             e ? strerror(e) : "write error");
-    return pw_status_exit_code(PW_EIO);
+    return PW_EIO;
 }

@@ -35,15 +35,15 @@ pw_status pw_cli_uncertainty_opt(const char *opt, const char *text, double *T_K,
     return PW_OK;
 }
 
-int pw_cli_composition(const char *opt, const char *text, double *value, pw_basis *b, pw_error *err)
+pw_status pw_cli_composition(const char *opt, const char *text, double *value, pw_basis *b, pw_error *err)
 {
     pw_error inner;
     pw_error_clear(&inner);
     if (pw_units_parse_composition(text, value, b, &inner) != PW_OK) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: %s", opt, text, inner.msg);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
 pw_status pw_cli_composition_to_mole(const char *opt, double *x, pw_basis b, const pw_system *sys,
@@ -73,41 +73,6 @@ pw_status pw_cli_targets_to_mole(double *xd, double *xb, double *zf, const pw_ba
             return st;
     }
     return PW_OK;
-}
-
-char **pw_cli_split_equals(int argc, char **argv, int *n_out)
-{
-    char **out = calloc(2 * (size_t)argc + 1, sizeof *out);
-    if (!out)
-        return NULL;
-    int n = 0;
-    for (int i = 0; i < argc; i++) {
-        const char *a = argv[i], *eq = strchr(a, '=');
-        bool split = a[0] == '-' && a[1] == '-' && a[2] != '\0' && a[2] != '=' && eq;
-        if (split) {
-            out[n] = strndup(a, (size_t)(eq - a));
-            if (!out[n++])
-                goto oom;
-            a = eq + 1;
-        }
-        out[n] = strdup(a);
-        if (!out[n++])
-            goto oom;
-    }
-    *n_out = n;
-    return out;
-oom:
-    pw_cli_split_free(out, n);
-    return NULL;
-}
-
-void pw_cli_split_free(char **args, int n)
-{
-    if (!args)
-        return;
-    for (int i = 0; i < n; i++)
-        free(args[i]);
-    free(args);
 }
 
 pw_status pw_cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *text,

@@ -16,8 +16,8 @@ pw_status pw_cli_uncertainty_opt(const char *opt, const char *text, double *T_K,
 
 /* A composition for option opt: a mole fraction, or a number with mol%, wt or wt% (basis in *b;
  * mass fractions are converted with pw_cli_composition_to_mole once the components are known).
- * Returns 0 or PW_EXIT_USAGE with err. */
-int pw_cli_composition(const char *opt, const char *text, double *value, pw_basis *b,
+ * PW_OK or PW_EINVAL with err. */
+pw_status pw_cli_composition(const char *opt, const char *text, double *value, pw_basis *b,
                        pw_error *err);
 
 /* Converts *x (on basis b, given for option opt) to a mole fraction of the system's component 1;
@@ -25,33 +25,14 @@ int pw_cli_composition(const char *opt, const char *text, double *value, pw_basi
 pw_status pw_cli_composition_to_mole(const char *opt, double *x, pw_basis b, const pw_system *sys,
                                      pw_error *err);
 
-/* The one meaning of --components FILE, as every command's --help states it. */
-#define PW_CLI_HELP_COMPONENTS                                                                     \
-    "  --components FILE   component rows (vapor pressure, molar mass, ...) that take "            \
-    "precedence\n"                                                                                 \
-    "                      over the ones otherwise used: the shipped library's when reading\n"     \
-    "                      data, the fit file's recorded rows when reading a fit\n"
-
-/* --exit-verdict: a negative verdict (a split that cannot be made, data not shown consistent, an
- * infeasible screen) exits with this status, for scripts; without the option such a verdict is a
- * result and the status is 0. It is the status of PW_EINFEASIBLE. */
-#define PW_CLI_EXIT_VERDICT 7
-#define PW_CLI_HELP_EXIT_VERDICT                                                                   \
-    "  --exit-verdict      exit with status 7 when the verdict is negative (see README)\n"
+/* --exit-verdict (pw_cli_block_verdict): a negative verdict (a split that cannot be made, data
+ * not shown consistent, an infeasible screen) makes the command return PW_EINFEASIBLE, which main
+ * turns into exit status 7, for scripts; without the option such a verdict is a result and the
+ * status is PW_OK. */
 
 /* --minimum N on a command that reads a fit file: makes the fit's N-th distinct minimum (1 = the
  * lowest chi-square) its parameters, covariance recomputed (pw_fit_use_minimum), and says so on
  * stderr. text NULL: nothing. *chosen is N, or 0 when not given. */
 pw_status pw_cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *text,
                                size_t *chosen, pw_error *err);
-#define PW_CLI_HELP_MINIMUM                                                                        \
-    "  --minimum N         use the fit's N-th distinct minimum (1 = lowest chi-square; the fit\n"  \
-    "                      file lists them under \"minima\") instead of the one the fit chose\n"
-
-/* argv with every "--name=value" split into "--name" and "value" (at the first '='); a new
- * NULL-terminated array of *n_out new strings, freed with pw_cli_split_free. NULL when out of
- * memory. Arguments that do not start with "--" are copied unchanged. */
-char **pw_cli_split_equals(int argc, char **argv, int *n_out);
-void pw_cli_split_free(char **args, int n);
-
 #endif

@@ -4,6 +4,7 @@
 #include "azeo_uncert.h"
 #include "cli.h"
 #include "cli_units.h"
+#include "cli_options.h"
 
 #include <math.h>
 #include <pinchwise/lle.h>
@@ -13,30 +14,41 @@
 
 #define CMD "azeotrope"
 
-static void usage(FILE *f)
-{
-    fprintf(f,
-            "usage: pinchwise azeotrope FIT.json [--pressure P | --temperature T] [--sweep FROM:TO[:N]]\n"
-            "                           [--json]\n"
-            "\n"
-            "Azeotropes of the fitted model: where y1 = x1, found on a fine composition grid and\n"
-            "refined by Brent's method; classified from the extremum of the bubble curve.\n"
-            "  --pressure P        fixed pressure with its unit, e.g. 101.325kPa, \"1 atm\"\n"
-            "  --temperature T     fixed temperature with its unit, e.g. 50C, 350K\n"
-            "                      (neither: the condition of the fit's own data)\n"
-            "  --sweep FROM:TO[:N] also solve at N values (default 12) from FROM to TO (pressures\n"
-            "                      when the condition is a pressure, geometric; temperatures,\n"
-            "                      linear) and report where the azeotrope reaches a pure end\n"
-            "                      (also spelt --scan)\n"
-            "  --uncertainty       95 %% intervals of each azeotrope from the fit's parameter\n"
-            "                      covariance (linearised and sampled)\n"
-            "  --samples N         parameter sets drawn (default 400); --seed N (default 1)\n"
-            PW_CLI_HELP_COMPONENTS
-            PW_CLI_HELP_MINIMUM
-            "  --json              print one JSON object on stdout\n");
-}
+static const pw_cli_option azeo_options[] = {
+    {.name = "--pressure", .kind = PW_CLI_QUANTITY, .unit = PW_QTY_PRESSURE, .metavar = "P",
+     .help = "fixed pressure with its unit, e.g. 101.325kPa, \"1 atm\""},
+    {.name = "--temperature", .kind = PW_CLI_QUANTITY, .unit = PW_QTY_TEMPERATURE, .metavar = "T",
+     .help = "fixed temperature with its unit, e.g. 50C, 350K\n"
+             "(neither: the condition of the fit's own data)"},
+    {.name = "--sweep", .alias = "--scan", .kind = PW_CLI_STRING, .metavar = "FROM:TO[:N]",
+     .help = "also solve at N values (default 12) from FROM to TO (pressures\n"
+             "when the condition is a pressure, geometric; temperatures,\n"
+             "linear) and report where the azeotrope reaches a pure end"},
+    PW_CLI_END,
+};
+
+static const pw_cli_option *const azeo_blocks[] = {
+    azeo_options, pw_cli_block_uncertainty, pw_cli_block_components, pw_cli_block_minimum,
+    pw_cli_block_json, NULL,
+};
+
+static const pw_cli_spec azeo_spec = {
+    .cmd = CMD,
+    .synopsis =
+        "usage: pinchwise azeotrope FIT.json [--pressure P | --temperature T] [--sweep FROM:TO[:N]]\n"
+        "                           [options]\n"
+        "\n"
+        "Azeotropes of the fitted model: where y1 = x1, found on a fine composition grid and\n"
+        "refined by Brent's method; classified from the extremum of the bubble curve. With\n"
+        "--uncertainty: 95 % intervals of each azeotrope from the fit's parameter covariance\n"
+        "(linearised and sampled).\n",
+    .blocks = azeo_blocks,
+    .max_positional = 1,
+    .positional = "one fit file",
+};
 
 typedef struct args {
+    bool help; /* --help was asked for: nothing else is set */
     const char *fit_path;
     pw_az_mode mode;
     bool have_fixed, json, scan;
@@ -49,7 +61,7 @@ typedef struct args {
     const char *minimum;   /* --minimum N as given */
 } args;
 
-static int parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
+static pw_status parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
 {
     const char *o = a->scan_opt ? a->scan_opt : "--sweep";
     char buf[256], what[3][32];
@@ -61,7 +73,7 @@ static int parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
     if (!c1 || (c2 && strchr(c2 + 1, ':'))) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "%s %s: expected FROM:TO[:N], e.g. 10kPa:500kPa:12", o, text);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     *c1 = '\0';
     if (c2)
@@ -70,90 +82,56 @@ static int parse_scan(const char *text, pw_quantity q, args *a, pw_error *err)
     if (pw_cli_quantity(q, what[0], buf, &a->from, err) != PW_OK ||
         pw_cli_quantity(q, what[1], c1 + 1, &a->to, err) != PW_OK ||
         (c2 && pw_cli_number(what[2], c2 + 1, &n, err) != PW_OK))
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     if (!(n >= 2.0 && n <= 1000.0) || n != floor(n) || a->from == a->to) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "%s %s: N must be a whole number from 2 to 1000 and FROM differ from TO",
                      o, text);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     a->n = (size_t)n;
     a->scan = true;
-    return 0;
+    return PW_OK;
 }
 
-static int parse(int argc, char **argv, args *a, pw_error *err)
+/* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
+static pw_status parse(int argc, char **argv, args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
-    const char *scan_text = NULL;
-    int urc;
-    for (int i = 1; i < argc; i++) {
-        const char *v = NULL;
-        bool missing = false;
-        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
-            return -1;
-        if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
-            a->json = true;
-        } else if ((urc = pw_azeo_uncert_opt(argc, argv, &i, &a->unc, err)) != 0) {
-            if (urc > 1)
-                return urc;
-        } else if (!strcmp(argv[i], "--pressure") || !strcmp(argv[i], "--temperature")) {
-            bool isP = !strcmp(argv[i], "--pressure");
-            pw_cli_opt(argc, argv, &i, argv[i], &v, &missing);
-            if (missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", argv[i]);
-                return PW_EXIT_USAGE;
-            }
-            if (a->have_fixed) {
-                pw_error_set(err, PW_EINVAL, NULL, 0,
-                             "give one of --pressure or --temperature, once");
-                return PW_EXIT_USAGE;
-            }
-            a->mode = isP ? PW_AZ_ISOBARIC : PW_AZ_ISOTHERMAL;
-            if (pw_cli_quantity(isP ? PW_QTY_PRESSURE : PW_QTY_TEMPERATURE,
-                                isP ? "--pressure" : "--temperature", v, &a->fixed, err) != PW_OK)
-                return PW_EXIT_USAGE;
-            a->have_fixed = true;
-        } else if (pw_cli_opt(argc, argv, &i, "--scan", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--sweep", &v, &missing)) {
-            a->scan_opt = argv[missing ? i : i - 1];
-            if (missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs FROM:TO[:N]", a->scan_opt);
-                return PW_EXIT_USAGE;
-            }
-            scan_text = v;
-        } else if (pw_cli_opt(argc, argv, &i, "--minimum", &v, &missing)) {
-            if (missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "--minimum needs a number");
-                return PW_EXIT_USAGE;
-            }
-            a->minimum = v;
-        } else if (pw_cli_opt(argc, argv, &i, "--components", &v, &missing)) {
-            if (missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "--components needs a file");
-                return PW_EXIT_USAGE;
-            }
-            a->components = v;
-        } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
-            pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", argv[i]);
-            return PW_EXIT_USAGE;
-        } else if (a->fit_path) {
-            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", argv[i]);
-            return PW_EXIT_USAGE;
-        } else {
-            a->fit_path = argv[i];
-        }
+    pw_cli_args p;
+    if (pw_cli_parse(&azeo_spec, argc, argv, &p, err) != PW_OK)
+        return PW_EINVAL;
+    if ((a->help = p.help))
+        return PW_OK;
+    a->json = pw_cli_has(&p, "--json");
+    pw_azeo_uncert_from(&p, &a->unc);
+    const pw_cli_value *P = pw_cli_get(&p, "--pressure"), *T = pw_cli_get(&p, "--temperature");
+    if (P && T) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "give one of --pressure or --temperature, once");
+        return PW_EINVAL;
     }
+    if (P || T) {
+        a->mode = P ? PW_AZ_ISOBARIC : PW_AZ_ISOTHERMAL;
+        a->fixed = P ? P->num : T->num;
+        a->have_fixed = true;
+    }
+    const pw_cli_value *sw = pw_cli_get(&p, "--sweep");
+    if (sw) {
+        a->scan_opt = sw->spelt;
+        a->scan_text = sw->text; /* parsed once the condition is known (it may be the fit's own) */
+    }
+    a->minimum = pw_cli_text(&p, "--minimum");
+    a->components = pw_cli_text(&p, "--components");
+    a->fit_path = p.n_pos ? p.pos[0] : NULL;
     if (!a->fit_path) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file is required");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    a->scan_text = scan_text; /* parsed once the condition is known (it may be the fit's own) */
-    return 0;
+    return PW_OK;
 }
 
 /* Without --pressure or --temperature: the condition of the fit's own data. Then the sweep. */
-static int settle_condition(args *a, const pw_fit_result *fit, pw_error *err)
+static pw_status settle_condition(args *a, const pw_fit_result *fit, pw_error *err)
 {
     if (!a->have_fixed) {
         bool isobaric = fit->kind == PW_DATA_ISOBARIC;
@@ -163,14 +141,14 @@ static int settle_condition(args *a, const pw_fit_result *fit, pw_error *err)
             pw_error_set(err, PW_EINVAL, a->fit_path, 0,
                          "the fit file records no %s of its data: give --pressure or --temperature",
                          isobaric ? "pressure" : "temperature");
-            return PW_EXIT_USAGE;
+            return PW_EINVAL;
         }
         a->have_fixed = true;
     }
     if (a->scan_text)
         return parse_scan(a->scan_text, a->mode == PW_AZ_ISOBARIC ? PW_QTY_PRESSURE
                                                                   : PW_QTY_TEMPERATURE, a, err);
-    return 0;
+    return PW_OK;
 }
 
 /* Every point of the scan: the scan's progress callback. */
@@ -260,18 +238,18 @@ static void print_text(const pw_fit_result *fit, const args *a, const pw_az_resu
     pw_cli_print_caution(stdout);
 }
 
-int pw_cli_azeotrope(int argc, char **argv)
+pw_status pw_cli_azeotrope(int argc, char **argv)
 {
     args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = parse(argc, argv, &a, &err);
-    if (rc == -1) {
-        usage(stdout);
-        return 0;
-    }
-    if (rc)
+    if (parse(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if (a.help) {
+        pw_cli_help(&azeo_spec, stdout);
+        return PW_OK;
+    }
+    pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
     pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
@@ -282,7 +260,7 @@ int pw_cli_azeotrope(int argc, char **argv)
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
-    if ((rc = settle_condition(&a, &fit, &err)) != 0) {
+    if ((rc = settle_condition(&a, &fit, &err)) != PW_OK) {
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
@@ -305,7 +283,7 @@ int pw_cli_azeotrope(int argc, char **argv)
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
-    if (a.unc.on && (rc = pw_azeo_uncert_run(&fit, &r, &a.unc, &err)) != 0) {
+    if (a.unc.on && (rc = pw_azeo_uncert_run(&fit, &r, &a.unc, &err)) != PW_OK) {
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
@@ -354,7 +332,7 @@ int pw_cli_azeotrope(int argc, char **argv)
         print_text(&fit, &a, &r, &tp, n_removed, sc, tps);
         if (a.unc.on)
             pw_azeo_uncert_print(&a.unc, &r);
-        rc = fflush(stdout) ? 4 : 0;
+        rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     free(tps);
     pw_az_scan_free(sc);

@@ -2,6 +2,7 @@
  * Runs the consistency tests of the library (pinchwise/consistency.h) and prints a table or
  * one JSON object. Exit 0 when the check ran, whatever the verdict. */
 #include "cli.h"
+#include "cli_options.h"
 #include "cli_units.h"
 
 #include <pinchwise/composition.h>
@@ -15,18 +16,35 @@
 #include <string.h>
 
 
-static void usage(FILE *f)
-{
-    fprintf(f, "usage: pinchwise check DATA.csv [--components FILE] [--strict] [--sigma-y S] [--exit-verdict] [--json]\n"
-               "  thermodynamic consistency tests of a measured binary VLE data file\n"
-               PW_CLI_HELP_COMPONENTS
-               "  --exit-verdict     exit with status 7 when the data are not shown consistent\n"
-               "  --strict           every test that ran must pass for a 'consistent' verdict\n"
-               "  --sigma-y S        standard uncertainty of y1 (0 < S < 1), overriding the file's\n"
-               "                     '# sigma_y:'; with either, the point test's limit follows it\n"
-               "                     (docs/consistency.md); without, the classic 0.01 applies\n"
-               "  --json             print one JSON object on stdout\n");
-}
+static const pw_cli_option check_options[] = {
+    {.name = "--strict", .kind = PW_CLI_FLAG,
+     .help = "every test that ran must pass for a 'consistent' verdict"},
+    {.name = "--sigma-y", .kind = PW_CLI_STRING, .metavar = "S",
+     .help = "standard uncertainty of y1 (0 < S < 1), overriding the file's\n"
+             "'# sigma_y:'; with either, the point test's limit follows it\n"
+             "(docs/consistency.md); without, the classic 0.01 applies"},
+    PW_CLI_END,
+};
+
+static const pw_cli_option check_verdict[] = {
+    {.name = "--exit-verdict", .kind = PW_CLI_FLAG,
+     .help = "exit with status 7 when the data are not shown consistent"},
+    PW_CLI_END,
+};
+
+static const pw_cli_option *const check_blocks[] = {
+    check_options, pw_cli_block_components, check_verdict, pw_cli_block_json, NULL,
+};
+
+static const pw_cli_spec check_spec = {
+    .cmd = "check",
+    .synopsis = "usage: pinchwise check DATA.csv [options]\n"
+                "\n"
+                "Thermodynamic consistency tests of a measured binary VLE data file.\n",
+    .blocks = check_blocks,
+    .max_positional = 1,
+    .positional = "one data file",
+};
 
 /* What each test's value is and its unit, for the table (the JSON carries the criterion). */
 static void value_words(const pw_ctest *t, bool isothermal, const char **what, const char **unit,
@@ -171,38 +189,23 @@ static void print_het(const pw_het_check *h)
            h->bound_ok ? "within the bound 1" : "ABOVE 1: y, T or P of these points is doubtful");
 }
 
-int pw_cli_check(int argc, char **argv)
+pw_status pw_cli_check(int argc, char **argv)
 {
-    const char *data = NULL, *comp_file = NULL;
-    const char *sigma_y = NULL;
-    bool json = false, strict = false, missing = false, exit_verdict = false;
-    for (int i = 1; i < argc; i++) {
-        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h")) {
-            usage(stdout);
-            return 0;
-        } else if (pw_cli_opt(argc, argv, &i, "--components", &comp_file, &missing)) {
-            if (missing)
-                return pw_cli_failf("check", PW_EXIT_USAGE, "--components needs a file name");
-        } else if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
-            json = true;
-        } else if (pw_cli_opt(argc, argv, &i, "--strict", NULL, NULL)) {
-            strict = true;
-        } else if (pw_cli_opt(argc, argv, &i, "--sigma-y", &sigma_y, &missing)) {
-            if (missing)
-                return pw_cli_failf("check", PW_EXIT_USAGE, "--sigma-y needs a value");
-        } else if (pw_cli_opt(argc, argv, &i, "--exit-verdict", NULL, NULL)) {
-            exit_verdict = true;
-        } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
-            return pw_cli_failf("check", PW_EXIT_USAGE, "unknown option '%s'", argv[i]);
-        } else if (data) {
-            return pw_cli_failf("check", PW_EXIT_USAGE, "more than one data file ('%s' and '%s')",
-                                data, argv[i]);
-        } else {
-            data = argv[i];
-        }
+    pw_cli_args p;
+    pw_error perr;
+    if (pw_cli_parse(&check_spec, argc, argv, &p, &perr) != PW_OK)
+        return pw_cli_fail("check", &perr);
+    if (p.help) {
+        pw_cli_help(&check_spec, stdout);
+        return PW_OK;
     }
+    const char *data = p.n_pos ? p.pos[0] : NULL;
+    const char *comp_file = pw_cli_text(&p, "--components");
+    const char *sigma_y = pw_cli_text(&p, "--sigma-y");
+    bool json = pw_cli_has(&p, "--json"), strict = pw_cli_has(&p, "--strict");
+    bool exit_verdict = pw_cli_has(&p, "--exit-verdict");
     if (!data) {
-        return pw_cli_failf("check", PW_EXIT_USAGE, "no data file given");
+        return pw_cli_failf("check", PW_EINVAL, "no data file given");
     }
     pw_error err;
     pw_error_clear(&err);
@@ -243,7 +246,7 @@ int pw_cli_check(int argc, char **argv)
         st = pw_error_set(&err, PW_ENOMEM, ds.path, 0, "out of memory");
     if (st == PW_OK)
         st = pw_consistency_run(het.n ? &one : &ds, c[0], c[1], &o, &r, &err);
-    int code = 0;
+    pw_status code = PW_OK;
     if (st != PW_OK) {
         code = pw_cli_fail("check", &err);
     } else {
@@ -262,8 +265,8 @@ int pw_cli_check(int argc, char **argv)
             print_het(&het);
             print_text(&ds, &r);
         }
-        if (code == 0 && exit_verdict && !r.consistent)
-            code = PW_CLI_EXIT_VERDICT;
+        if (code == PW_OK && exit_verdict && !r.consistent)
+            code = PW_EINFEASIBLE;
     }
     pw_het_check_free(&het, &one);
     pw_consistency_result_free(&r);

@@ -3,6 +3,7 @@
 #include "analysis_common.h"
 #include "cli.h"
 #include "cli_units.h"
+#include "cli_options.h"
 
 #include <math.h>
 #include <pinchwise/commands.h>
@@ -12,28 +13,8 @@
 
 #define CMD "decanter"
 
-static void usage(FILE *f)
-{
-    fprintf(f,
-            "usage: pinchwise decanter FIT.json --pressure P --zf X --x1-rich X --x1-lean X [--q Q]\n"
-            "                          [--components FILE] [--json]\n"
-            "\n"
-            "Fresh feed and both condensed overheads enter one decanter at the three-phase\n"
-            "temperature; its layer rich in component 1 tops stripping column A (bottoms\n"
-            "--x1-rich), the other layer tops stripping column B (bottoms --x1-lean). Each column\n"
-            "has a partial reboiler and no condenser of its own; constant molal overflow.\n"
-            "  --pressure P        pressure with its unit, e.g. 1atm, 101.325kPa\n"
-            "  --zf X              feed composition of component 1: a mole fraction, or with\n"
-            "                      mol%%, wt or wt%% (also --x1-rich and --x1-lean)\n"
-            "  --x1-rich X         bottoms of column A (above the layer rich in component 1)\n"
-            "  --x1-lean X         bottoms of column B (below the other layer)\n"
-            "  --q Q               feed liquid fraction (default 1); the feed enters the decanter,\n"
-            "                      so q changes the condenser duty only, not the flows\n"
-            "  --factors F,F,...   design boil-up as multiples of the minimum (default 1.2,1.3,1.5)\n"
-            "  --json              print one JSON object on stdout\n");
-}
-
 typedef struct args {
+    bool help; /* --help was asked for: nothing else is set */
     const char *fit_path, *components;
     pw_decanter_spec spec;
     pw_column_options opt;
@@ -41,86 +22,76 @@ typedef struct args {
     pw_basis basis[3]; /* of --zf, --x1-rich, --x1-lean as given (mole, or mass: wt, wt%) */
 } args;
 
-static int parse_factors(const char *text, pw_column_options *o, pw_error *err)
+/* Design boil-up ratios: above the minimum. */
+static pw_status check_boilup_factors(pw_cli_value *v, pw_error *err)
 {
-    o->n_factors = 0;
-    const char *p = text;
-    while (*p) {
-        char buf[64];
-        size_t n = strcspn(p, ",");
-        if (n == 0 || n >= sizeof buf || o->n_factors == PW_COLUMN_MAX_FACTORS)
-            break;
-        memcpy(buf, p, n);
-        buf[n] = '\0';
-        double f;
-        if (pw_cli_number("--factors", buf, &f, err) != PW_OK || !(f > 1.0)) {
-            pw_error_set(err, PW_EINVAL, NULL, 0, "--factors %s: expected numbers above 1", text);
-            return PW_EXIT_USAGE;
-        }
-        o->factors[o->n_factors++] = f;
-        p += n;
-        if (*p == ',')
-            p++;
-    }
-    if (*p || o->n_factors == 0) {
-        pw_error_set(err, PW_EINVAL, NULL, 0,
-                     "--factors %s: expected up to %d comma-separated numbers above 1", text,
-                     PW_COLUMN_MAX_FACTORS);
-        return PW_EXIT_USAGE;
-    }
-    return 0;
+    if (v->n_list > PW_COLUMN_MAX_FACTORS)
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "%s %s: expected up to %d comma-separated numbers above 1", v->spelt,
+                            v->text, PW_COLUMN_MAX_FACTORS);
+    for (size_t i = 0; i < v->n_list; i++)
+        if (!(v->list[i] > 1.0))
+            return pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected numbers above 1",
+                                v->spelt, v->text);
+    return PW_OK;
 }
 
-static int parse(int argc, char **argv, args *a, pw_error *err)
+static const pw_cli_option decanter_options[] = {
+    {.name = "--x1-rich", .kind = PW_CLI_FRACTION, .metavar = "X",
+     .help = "bottoms of column A (above the layer rich in component 1): a mole\n"
+             "fraction, or with mol%, wt or wt%"},
+    {.name = "--x1-lean", .kind = PW_CLI_FRACTION, .metavar = "X",
+     .help = "bottoms of column B (below the other layer), as --x1-rich"},
+    {.name = "--factors", .kind = PW_CLI_LIST, .metavar = "F,F,...", .check = check_boilup_factors,
+     .help = "design boil-up as multiples of the minimum (default 1.2,1.3,1.5)"},
+    PW_CLI_END,
+};
+
+static const pw_cli_option *const decanter_blocks[] = {
+    pw_cli_block_pressure, pw_cli_block_feed, decanter_options, pw_cli_block_components,
+    pw_cli_block_json, NULL,
+};
+
+static const pw_cli_spec decanter_spec = {
+    .cmd = CMD,
+    .synopsis =
+        "usage: pinchwise decanter FIT.json --pressure P --zf X --x1-rich X --x1-lean X [--q Q]\n"
+        "                          [options]\n"
+        "\n"
+        "Fresh feed and both condensed overheads enter one decanter at the three-phase\n"
+        "temperature; its layer rich in component 1 tops stripping column A (bottoms\n"
+        "--x1-rich), the other layer tops stripping column B (bottoms --x1-lean). Each column\n"
+        "has a partial reboiler and no condenser of its own; constant molal overflow. The feed\n"
+        "enters the decanter, so --q changes the condenser duty only, not the flows.\n",
+    .blocks = decanter_blocks,
+    .max_positional = 1,
+    .positional = "one fit file",
+};
+
+/* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
+static pw_status parse(int argc, char **argv, args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
-    a->spec.q = 1.0;
     a->opt = pw_column_default_options();
-    pw_cli_targets tg = {.q = 1.0};
-    for (int i = 1; i < argc; i++) {
-        const char *v = NULL;
-        bool missing = false;
-        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
-            return -1;
-        if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
-            a->json = true;
-            continue;
-        }
-        if (!strncmp(argv[i], "--", 2)) {
-            const char *opt = argv[i];
-            if (!pw_cli_opt(argc, argv, &i, opt, &v, &missing) || missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
-                return PW_EXIT_USAGE;
-            }
-            int rc = 0;
-            if (!strcmp(opt, "--pressure") || !strcmp(opt, "--zf") || !strcmp(opt, "--q")) {
-                rc = pw_cli_target_opt(opt, v, &tg, err);
-            } else if (!strcmp(opt, "--x1-rich") || !strcmp(opt, "--x1-lean")) {
-                bool rich = !strcmp(opt, "--x1-rich");
-                rc = pw_cli_composition(opt, v, rich ? &a->spec.x_rich : &a->spec.x_lean,
-                                        &a->basis[rich ? 1 : 2], err);
-                if (rich)
-                    a->have_rich = true;
-                else
-                    a->have_lean = true;
-            } else if (!strcmp(opt, "--components")) {
-                a->components = v;
-            } else if (!strcmp(opt, "--factors")) {
-                rc = parse_factors(v, &a->opt, err);
-            } else {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", opt);
-                rc = PW_EXIT_USAGE;
-            }
-            if (rc)
-                return rc;
-            continue;
-        }
-        if (a->fit_path) {
-            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", argv[i]);
-            return PW_EXIT_USAGE;
-        }
-        a->fit_path = argv[i];
+    pw_cli_args p;
+    if (pw_cli_parse(&decanter_spec, argc, argv, &p, err) != PW_OK)
+        return PW_EINVAL;
+    if ((a->help = p.help))
+        return PW_OK;
+    a->json = pw_cli_has(&p, "--json");
+    a->components = pw_cli_text(&p, "--components");
+    const pw_cli_value *v;
+    if ((v = pw_cli_get(&p, "--x1-rich")))
+        a->spec.x_rich = v->num, a->basis[1] = v->basis, a->have_rich = true;
+    if ((v = pw_cli_get(&p, "--x1-lean")))
+        a->spec.x_lean = v->num, a->basis[2] = v->basis, a->have_lean = true;
+    if ((v = pw_cli_get(&p, "--factors"))) {
+        a->opt.n_factors = v->n_list;
+        memcpy(a->opt.factors, v->list, v->n_list * sizeof v->list[0]);
     }
+    pw_cli_targets tg;
+    pw_cli_targets_get(&p, &tg, NULL);
+    a->fit_path = p.n_pos ? p.pos[0] : NULL;
     a->spec.P_Pa = tg.P_Pa;
     a->spec.zf = tg.zf;
     a->basis[0] = tg.basis[2];
@@ -128,13 +99,13 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
     if (!a->fit_path || !tg.have_P || !tg.have_zf || !a->have_rich || !a->have_lean) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "a fit file and --pressure, --zf, --x1-rich, --x1-lean are required");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     if (!(a->spec.zf > 0.0 && a->spec.zf < 1.0)) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--zf must lie strictly between 0 and 1");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
 static void print_column(const char *name, const pw_stripper_result *c, double top, double bottom)
@@ -149,18 +120,18 @@ static void print_column(const char *name, const pw_stripper_result *c, double t
                c->design[i].stages, c->design[i].y_top);
 }
 
-int pw_cli_decanter(int argc, char **argv)
+pw_status pw_cli_decanter(int argc, char **argv)
 {
     args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = parse(argc, argv, &a, &err);
-    if (rc == -1) {
-        usage(stdout);
-        return 0;
-    }
-    if (rc)
+    if (parse(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if (a.help) {
+        pw_cli_help(&decanter_spec, stdout);
+        return PW_OK;
+    }
+    pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
     pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
@@ -206,7 +177,7 @@ int pw_cli_decanter(int argc, char **argv)
                    a.spec.q);
         }
         pw_cli_print_caution(stdout);
-        rc = fflush(stdout) ? 4 : 0;
+        rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     pw_fit_result_free(&fit);
     return rc;

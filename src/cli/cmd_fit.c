@@ -1,5 +1,6 @@
 /* pinchwise fit: one dataset (one model or all), or a folder of datasets (batch). */
 #include "cli.h"
+#include "cli_options.h"
 #include "cli_units.h"
 #include "fit_batch.h"
 #include "fit_common.h"
@@ -15,38 +16,6 @@
 #include <sys/stat.h>
 
 #define FIT_MAX_STARTS 10000.0
-
-static void usage(FILE *f)
-{
-    char names[256];
-    fprintf(f,
-            "usage: pinchwise fit DATA.csv --model MODEL [options]\n"
-            "       pinchwise fit DIR --model MODEL --out-dir OUTDIR [options]   (every *.csv in DIR)\n"
-            "\n"
-            "MODEL: %s (any case), or all (fit every model, rank by\n"
-            "AICc; with a folder, every model of every file; with one file, --out-dir not --out)\n"
-            "Every option may also be written --option=value.\n"
-            PW_CLI_HELP_COMPONENTS
-            "  --out FIT.json        fit file to write (default fits/<stem>.<model>.json)\n"
-            "  --out-dir DIR         folder for the fit files (batch, or --model all)\n"
-            "  --force               replace an existing fit file\n"
-            "  --alpha A             NRTL non-randomness when fixed (default 0.3)\n"
-            "  --fit-alpha           NRTL: fit alpha as well\n"
-            "  --vapor MODEL         ideal (default) or virial (Tsonopoulos second virial\n"
-            "                        coefficients; needs Tc_K, Pc_kPa, omega, Zc, Vc_cm3_mol)\n"
-            "  --starts N            LM runs, each from its own start, 1 to 10000 (default 8)\n"
-            "  --seed N              seed of the start points, 0 to 4294967295 (default 1)\n"
-            "  --sigma-T DT          temperature uncertainty, e.g. 0.05K (default: file or 0.1 K)\n"
-            "  --sigma-P DP          pressure uncertainty, 0.2%% or 0.05kPa, as in the file's\n"
-            "                        sigma_P (a bare number is percent; default: file or 0.1%%)\n"
-            "  --sigma-y DY          vapor mole fraction uncertainty (default: file or 0.004)\n"
-            "  --exclude LINES       file line numbers to leave out, e.g. 12,15-17\n"
-            "  --exclude-reason TEXT why they are left out (recorded in the fit file)\n"
-            "  --lle LLE.csv         measured tie lines (T[UNIT], x1_I, x1_II) fitted together with\n"
-            "                        the VLE data (not with wilson, which cannot split)\n"
-            "  --json                print one JSON object on stdout\n",
-            pw_model_names(names, sizeof names));
-}
 
 /* --exclude 12,15-17: file line numbers (a file of at most 64 MiB has fewer than 1e9 lines). */
 #define EXCLUDE_MAX_LINE 1000000000L
@@ -120,6 +89,68 @@ static pw_status sigma_opt(const char *opt, const char *text, pw_fit_options *fo
     return PW_OK;
 }
 
+static const pw_cli_option fit_options[] = {
+    {.name = "--model", .kind = PW_CLI_STRING, .metavar = "MODEL",
+     .help = "the activity model (see above; any case), or all"},
+    {.name = "--out", .kind = PW_CLI_STRING, .metavar = "FIT.json",
+     .help = "fit file to write (default fits/<stem>.<model>.json)"},
+    {.name = "--out-dir", .kind = PW_CLI_STRING, .metavar = "DIR",
+     .help = "folder for the fit files (batch, or --model all)"},
+    {.name = "--force", .kind = PW_CLI_FLAG, .help = "replace an existing fit file"},
+    {.name = "--alpha", .kind = PW_CLI_NUMBER, .metavar = "A", .lo = 0.001, .hi = 1.0,
+     .what = "an NRTL non-randomness", .help = "NRTL non-randomness when fixed (default 0.3)"},
+    {.name = "--fit-alpha", .kind = PW_CLI_FLAG, .help = "NRTL: fit alpha as well"},
+    {.name = "--vapor", .kind = PW_CLI_STRING, .metavar = "MODEL",
+     .help = "ideal (default) or virial (Tsonopoulos second virial\n"
+             "coefficients; needs Tc_K, Pc_kPa, omega, Zc, Vc_cm3_mol)"},
+    {.name = "--starts", .kind = PW_CLI_INTEGER, .metavar = "N", .lo = 1.0, .hi = FIT_MAX_STARTS,
+     .help = "LM runs, each from its own start, 1 to 10000 (default 8)"},
+    {.name = "--seed", .kind = PW_CLI_INTEGER, .metavar = "N", .lo = 0.0, .hi = 4294967295.0,
+     .help = "seed of the start points, 0 to 4294967295 (default 1)"},
+    {.name = "--sigma-T", .kind = PW_CLI_STRING, .metavar = "DT",
+     .help = "temperature uncertainty, e.g. 0.05K (default: file or 0.1 K)"},
+    {.name = "--sigma-P", .kind = PW_CLI_STRING, .metavar = "DP",
+     .help = "pressure uncertainty, 0.2% or 0.05kPa, as in the file's\n"
+             "sigma_P (a bare number is percent; default: file or 0.1%)"},
+    {.name = "--sigma-y", .kind = PW_CLI_NUMBER, .metavar = "DY", .lo = 1e-6, .hi = 0.5,
+     .what = "a mole-fraction uncertainty",
+     .help = "vapor mole fraction uncertainty (default: file or 0.004)"},
+    {.name = "--exclude", .kind = PW_CLI_STRING, .metavar = "LINES", .repeatable = true,
+     .help = "file line numbers to leave out, e.g. 12,15-17"},
+    {.name = "--exclude-reason", .kind = PW_CLI_STRING, .metavar = "TEXT",
+     .help = "why they are left out (recorded in the fit file)"},
+    {.name = "--lle", .kind = PW_CLI_STRING, .metavar = "LLE.csv",
+     .help = "measured tie lines (T[UNIT], x1_I, x1_II) fitted together with\n"
+             "the VLE data (not with wilson, which cannot split)"},
+    PW_CLI_END,
+};
+
+static const pw_cli_option *const fit_blocks[] = {
+    fit_options, pw_cli_block_components, pw_cli_block_json, NULL,
+};
+
+static void usage(FILE *f, const pw_cli_spec *spec)
+{
+    char names[256];
+    fprintf(f,
+            "usage: pinchwise fit DATA.csv --model MODEL [options]\n"
+            "       pinchwise fit DIR --model MODEL --out-dir OUTDIR [options]   (every *.csv in DIR)\n"
+            "\n"
+            "MODEL: %s (any case), or all (fit every\n"
+            "model, rank by AICc; with a folder, every model of every file; with one file,\n"
+            "--out-dir not --out)\n",
+            pw_model_names(names, sizeof names));
+    pw_cli_help(spec, f);
+}
+
+static const pw_cli_spec fit_spec = {
+    .cmd = "fit",
+    .synopsis = "", /* the model names are printed by usage() above it */
+    .blocks = fit_blocks,
+    .max_positional = 1,
+    .positional = "one dataset or folder",
+};
+
 static void print_table(const pw_fit_result *r, const char *path)
 {
     const pw_model_type *m = r->sys.model;
@@ -164,7 +195,7 @@ static void print_table(const pw_fit_result *r, const char *path)
     printf("  fit file: %s\n", path);
 }
 
-int pw_cli_fit(int argc, char **argv)
+pw_status pw_cli_fit(int argc, char **argv)
 {
     const char *input = NULL, *model_name = NULL, *components = NULL, *out = NULL, *out_dir = NULL;
     const char *lle_path = NULL;
@@ -173,101 +204,56 @@ int pw_cli_fit(int argc, char **argv)
     co.fit = pw_fit_default_options();
     pw_error err;
     pw_error_clear(&err);
-    for (int i = 1; i < argc; i++) {
-        const char *v = NULL;
-        bool missing = false;
-        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h")) {
-            usage(stdout);
-            return 0;
-        } else if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
-            json = true;
-        } else if (pw_cli_opt(argc, argv, &i, "--force", NULL, NULL)) {
-            co.force = true;
-        } else if (pw_cli_opt(argc, argv, &i, "--fit-alpha", NULL, NULL)) {
-            co.fit.fit_alpha = true;
-        } else if (pw_cli_opt(argc, argv, &i, "--vapor", &v, &missing)) {
-            if (missing)
-                return pw_cli_failf("fit", PW_EXIT_USAGE, "--vapor needs a value");
-            if (pw_vapor_parse(v, &co.fit.vapor) != PW_OK)
-                return pw_cli_failf("fit", PW_EXIT_USAGE,
-                                    "--vapor %s: unknown vapor model (expected ideal or virial)", v);
-        } else if (pw_cli_opt(argc, argv, &i, "--model", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--components", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--out", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--out-dir", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--alpha", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--starts", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--seed", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--sigma-T", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--sigma-P", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--sigma-y", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--exclude", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--exclude-reason", &v, &missing) ||
-                   pw_cli_opt(argc, argv, &i, "--lle", &v, &missing)) {
-            const char *opt = argv[missing ? i : i - 1];
-            if (missing)
-                return pw_cli_failf("fit", PW_EXIT_USAGE, "%s needs a value", opt);
-            double d = 0.0;
-            pw_status st = PW_OK;
-            if (!strcmp(opt, "--model"))
-                model_name = v;
-            else if (!strcmp(opt, "--components"))
-                components = v;
-            else if (!strcmp(opt, "--out"))
-                out = v;
-            else if (!strcmp(opt, "--out-dir"))
-                out_dir = v;
-            else if (!strcmp(opt, "--exclude-reason"))
-                snprintf(co.fit.exclude_reason, sizeof co.fit.exclude_reason, "%s", v);
-            else if (!strcmp(opt, "--exclude"))
-                st = parse_lines(v, &co.fit, &err);
-            else if (!strcmp(opt, "--lle"))
-                lle_path = v;
-            else if (!strcmp(opt, "--sigma-T") || !strcmp(opt, "--sigma-P")) {
-                st = sigma_opt(opt, v, &co.fit, &err);
-            } else {
-                /* ranges: docs/inputs.md ("Command-line numbers") */
-                unsigned long long w = 0;
-                int urc = 0;
-                if (!strcmp(opt, "--starts")) {
-                    urc = pw_cli_whole(opt, v, 1.0, FIT_MAX_STARTS, &w, &err);
-                    co.fit.n_starts = (size_t)w;
-                } else if (!strcmp(opt, "--seed")) {
-                    urc = pw_cli_whole(opt, v, 0.0, 4294967295.0, &w, &err);
-                    co.fit.seed = (unsigned long)w;
-                } else if (!strcmp(opt, "--alpha")) {
-                    urc = pw_cli_ranged(opt, v, 0.001, 1.0, "an NRTL non-randomness", &d, &err);
-                    co.fit.alpha = d;
-                } else if (!strcmp(opt, "--sigma-y")) {
-                    urc = pw_cli_ranged(opt, v, 1e-6, 0.5, "a mole-fraction uncertainty", &d, &err);
-                    co.fit.sigma_y = d;
-                }
-                if (urc)
-                    st = err.status;
-            }
-            if (st != PW_OK)
-                return pw_cli_fail("fit", &err);
-        } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
-            return pw_cli_failf("fit", PW_EXIT_USAGE, "unknown option %s", argv[i]);
-        } else if (!input) {
-            input = argv[i];
-        } else {
-            return pw_cli_failf("fit", PW_EXIT_USAGE, "unexpected argument %s (one dataset or folder)",
-                                argv[i]);
-        }
+    pw_cli_args p;
+    if (pw_cli_parse(&fit_spec, argc, argv, &p, &err) != PW_OK)
+        return pw_cli_fail("fit", &err);
+    if (p.help) {
+        usage(stdout, &fit_spec);
+        return PW_OK;
     }
+    input = p.n_pos ? p.pos[0] : NULL;
+    model_name = pw_cli_text(&p, "--model");
+    components = pw_cli_text(&p, "--components");
+    out = pw_cli_text(&p, "--out");
+    out_dir = pw_cli_text(&p, "--out-dir");
+    lle_path = pw_cli_text(&p, "--lle");
+    json = pw_cli_has(&p, "--json");
+    co.force = pw_cli_has(&p, "--force");
+    co.fit.fit_alpha = pw_cli_has(&p, "--fit-alpha");
+    const pw_cli_value *v;
+    if ((v = pw_cli_get(&p, "--vapor")) && pw_vapor_parse(v->text, &co.fit.vapor) != PW_OK)
+        return pw_cli_failf("fit", PW_EINVAL,
+                            "--vapor %s: unknown vapor model (expected ideal or virial)", v->text);
+    if ((v = pw_cli_get(&p, "--exclude-reason")))
+        snprintf(co.fit.exclude_reason, sizeof co.fit.exclude_reason, "%s", v->text);
+    for (v = pw_cli_next(&p, "--exclude", NULL); v; v = pw_cli_next(&p, "--exclude", v))
+        if (parse_lines(v->text, &co.fit, &err) != PW_OK)
+            return pw_cli_fail("fit", &err);
+    static const char *const sigmas[] = {"--sigma-T", "--sigma-P"};
+    for (size_t k = 0; k < 2; k++)
+        if ((v = pw_cli_get(&p, sigmas[k])) && sigma_opt(sigmas[k], v->text, &co.fit, &err) != PW_OK)
+            return pw_cli_fail("fit", &err);
+    /* ranges: docs/inputs.md ("Command-line numbers"), checked by the parser */
+    if ((v = pw_cli_get(&p, "--starts")))
+        co.fit.n_starts = (size_t)v->whole;
+    if ((v = pw_cli_get(&p, "--seed")))
+        co.fit.seed = (unsigned long)v->whole;
+    if ((v = pw_cli_get(&p, "--alpha")))
+        co.fit.alpha = v->num;
+    if ((v = pw_cli_get(&p, "--sigma-y")))
+        co.fit.sigma_y = v->num;
     if (!input || !model_name) {
-        return pw_cli_failf("fit", PW_EXIT_USAGE, "a dataset (or folder) and --model are required");
+        return pw_cli_failf("fit", PW_EINVAL, "a dataset (or folder) and --model are required");
     }
     bool all = !strcasecmp(model_name, "all");
     const pw_model_type *model = all ? NULL : pw_model_find(model_name);
     char names[256];
     if (!all && !model)
-        return pw_cli_failf("fit", PW_EXIT_USAGE, "unknown model '%s' (expected %s or all)",
+        return pw_cli_failf("fit", PW_EINVAL, "unknown model '%s' (expected %s or all)",
                             model_name, pw_model_names(names, sizeof names));
     struct stat sb;
     if (stat(input, &sb) != 0)
-        return pw_cli_failf("fit", pw_status_exit_code(PW_EIO), "%s: no such file or folder", input);
+        return pw_cli_failf("fit", PW_EIO, "%s: no such file or folder", input);
     pw_complib lib;
     if (pw_cli_load_components(&lib, components, &err) != PW_OK)
         return pw_cli_fail("fit", &err);
@@ -288,15 +274,15 @@ int pw_cli_fit(int argc, char **argv)
         co.lle = &lle;
         co.inputs[co.n_inputs++] = lle_path;
     }
-    int rc;
+    pw_status rc;
     if (S_ISDIR(sb.st_mode)) {
         if (!out_dir) {
             pw_complib_free(&lib);
-            return pw_cli_failf("fit", PW_EXIT_USAGE, "fitting a folder needs --out-dir OUTDIR");
+            return pw_cli_failf("fit", PW_EINVAL, "fitting a folder needs --out-dir OUTDIR");
         }
         rc = pw_fit_batch(input, out_dir, model, &co); /* model NULL: every model */
     } else if (all && out) {
-        rc = pw_cli_failf("fit", PW_EXIT_USAGE,
+        rc = pw_cli_failf("fit", PW_EINVAL,
                           "--out names one fit file, but --model all writes one per model "
                           "(<stem>.<model>.json): give --out-dir DIR instead");
     } else if (all) {
@@ -305,7 +291,7 @@ int pw_cli_fit(int argc, char **argv)
         pw_fit_result r;
         char path[PW_PATH_MAX];
         rc = pw_fit_one(input, model, out, out_dir, &co, &r, path, sizeof path, &err);
-        if (rc == 0) {
+        if (rc == PW_OK) {
             if (json) {
                 json_t *o = pw_fit_cli_json(&r, path);
                 rc = pw_cli_print_json(o);

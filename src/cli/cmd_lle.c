@@ -3,6 +3,7 @@
  * Parses, calls src/thermo/lle.c and prints; computes nothing itself. */
 #include "analysis_common.h"
 #include "cli.h"
+#include "cli_options.h"
 
 #include <math.h>
 #include <pinchwise/commands.h>
@@ -13,29 +14,41 @@
 
 #define CMD "lle"
 
-static void usage(FILE *f)
-{
-    fprintf(f,
-            "usage: pinchwise lle FIT.json --temperature T [--scan FROM:TO:N] [--components FILE]\n"
-            "                     [--json]\n"
-            "\n"
-            "Liquid-liquid split of the fitted model: the two layers with equal activities of\n"
-            "both components (common tangent of Gmix/RT), checked by the tangent-plane test.\n"
-            "Wilson's equation can never split: a Wilson fit always answers 'no split'.\n"
-            "  --temperature T     temperature with its unit, e.g. 25C, 298.15K\n"
-            "  --scan FROM:TO:N    also the layers at N temperatures from FROM to TO (linear) and\n"
-            "                      the critical solution temperatures between them\n"
-            "  --json              print one JSON object on stdout\n");
-}
+static const pw_cli_option lle_options[] = {
+    {.name = "--temperature", .kind = PW_CLI_QUANTITY, .unit = PW_QTY_TEMPERATURE, .metavar = "T",
+     .help = "temperature with its unit, e.g. 25C, 298.15K"},
+    {.name = "--scan", .kind = PW_CLI_STRING, .metavar = "FROM:TO:N",
+     .help = "also the layers at N temperatures from FROM to TO (linear) and\n"
+             "the critical solution temperatures between them"},
+    PW_CLI_END,
+};
+
+static const pw_cli_option *const lle_blocks[] = {
+    lle_options, pw_cli_block_components, pw_cli_block_json, NULL,
+};
+
+static const pw_cli_spec lle_spec = {
+    .cmd = CMD,
+    .synopsis =
+        "usage: pinchwise lle FIT.json --temperature T [--scan FROM:TO:N] [options]\n"
+        "\n"
+        "Liquid-liquid split of the fitted model: the two layers with equal activities of\n"
+        "both components (common tangent of Gmix/RT), checked by the tangent-plane test.\n"
+        "Wilson's equation can never split: a Wilson fit always answers 'no split'.\n",
+    .blocks = lle_blocks,
+    .max_positional = 1,
+    .positional = "one fit file",
+};
 
 typedef struct args {
+    bool help; /* --help was asked for: nothing else is set */
     const char *fit_path, *components, *scan_text;
     double T, from, to;
     size_t n;
     bool have_T, json;
 } args;
 
-static int parse_scan(const char *text, args *a, pw_error *err)
+static pw_status parse_scan(const char *text, args *a, pw_error *err)
 {
     char buf[256];
     snprintf(buf, sizeof buf, "%s", text);
@@ -43,83 +56,59 @@ static int parse_scan(const char *text, args *a, pw_error *err)
     if (!c1 || !c2 || strchr(c2 + 1, ':')) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--scan %s: expected FROM:TO:N, e.g. 20C:120C:11",
                      text);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     *c1 = *c2 = '\0';
     double n;
     if (pw_cli_quantity(PW_QTY_TEMPERATURE, "--scan FROM", buf, &a->from, err) != PW_OK
         || pw_cli_quantity(PW_QTY_TEMPERATURE, "--scan TO", c1 + 1, &a->to, err) != PW_OK
         || pw_cli_number("--scan N", c2 + 1, &n, err) != PW_OK)
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     if (!(n >= 2.0 && n <= 1000.0) || n != floor(n) || a->from == a->to) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "--scan %s: N must be a whole number from 2 to 1000 and FROM differ from TO",
                      text);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     a->n = (size_t)n;
-    return 0;
+    return PW_OK;
 }
 
-static int parse(int argc, char **argv, args *a, pw_error *err)
+/* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
+static pw_status parse(int argc, char **argv, args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
-    for (int i = 1; i < argc; i++) {
-        const char *v = NULL;
-        bool missing = false;
-        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
-            return -1;
-        if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
-            a->json = true;
-        } else if (pw_cli_opt(argc, argv, &i, "--temperature", &v, &missing)) {
-            if (missing || a->have_T) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "--temperature needs one value, once");
-                return PW_EXIT_USAGE;
-            }
-            if (pw_cli_quantity(PW_QTY_TEMPERATURE, "--temperature", v, &a->T, err) != PW_OK)
-                return PW_EXIT_USAGE;
-            a->have_T = true;
-        } else if (pw_cli_opt(argc, argv, &i, "--scan", &v, &missing)) {
-            if (missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "--scan needs FROM:TO:N");
-                return PW_EXIT_USAGE;
-            }
-            a->scan_text = v;
-        } else if (pw_cli_opt(argc, argv, &i, "--components", &v, &missing)) {
-            if (missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "--components needs a file");
-                return PW_EXIT_USAGE;
-            }
-            a->components = v;
-        } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
-            pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", argv[i]);
-            return PW_EXIT_USAGE;
-        } else if (a->fit_path) {
-            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", argv[i]);
-            return PW_EXIT_USAGE;
-        } else {
-            a->fit_path = argv[i];
-        }
-    }
+    pw_cli_args p;
+    if (pw_cli_parse(&lle_spec, argc, argv, &p, err) != PW_OK)
+        return PW_EINVAL;
+    if ((a->help = p.help))
+        return PW_OK;
+    a->json = pw_cli_has(&p, "--json");
+    a->components = pw_cli_text(&p, "--components");
+    a->scan_text = pw_cli_text(&p, "--scan");
+    const pw_cli_value *T = pw_cli_get(&p, "--temperature");
+    if (T)
+        a->T = T->num, a->have_T = true;
+    a->fit_path = p.n_pos ? p.pos[0] : NULL;
     if (!a->fit_path || !a->have_T) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file and --temperature are required");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     return a->scan_text ? parse_scan(a->scan_text, a, err) : 0;
 }
 
-int pw_cli_lle(int argc, char **argv)
+pw_status pw_cli_lle(int argc, char **argv)
 {
     args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = parse(argc, argv, &a, &err);
-    if (rc == -1) {
-        usage(stdout);
-        return 0;
-    }
-    if (rc)
+    if (parse(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if (a.help) {
+        pw_cli_help(&lle_spec, stdout);
+        return PW_OK;
+    }
+    pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
     pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
@@ -186,7 +175,7 @@ int pw_cli_lle(int argc, char **argv)
                "solubilities, above all away from the fitted temperatures; check against\n"
                "  measured tie lines before sizing a decanter.\n");
         pw_cli_print_caution(stdout);
-        rc = fflush(stdout) ? 4 : 0;
+        rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     free(pts);
     pw_fit_result_free(&fit);

@@ -2,6 +2,7 @@
  * distillate rate) for a fitted model at a pressure. Parses, calls pw_rate_cmo, prints. */
 #include "cli.h"
 #include "cli_units.h"
+#include "cli_options.h"
 #include "design_out.h"
 
 #include <math.h>
@@ -11,27 +12,8 @@
 
 #define CMD "rate"
 
-static void usage(FILE *f)
-{
-    fprintf(
-        f,
-        "usage: pinchwise rate FIT.json --pressure P --stages N --feed-stage K --reflux R\n"
-        "                      --zf X --distillate D [--q Q] [--components FILE] [--json]\n"
-        "\n"
-        "Products of a given binary column, constant molal overflow: N equilibrium stages\n"
-        "counted from the top with the partial reboiler as stage N (the total condenser is not\n"
-        "counted), the whole feed on stage K, reflux ratio R = L/D, distillate D moles per mole\n"
-        "of feed.\n"
-        "  --pressure P        column pressure with its unit, e.g. 101.325kPa, 1atm\n"
-        "  --zf X              feed composition of component 1: a mole fraction, or with\n"
-        "                      mol%%, wt or wt%% (e.g. 40wt%%)\n"
-        "  --q Q               feed liquid fraction (default 1, saturated liquid)\n"
-        "  --energy            energy balance on every stage (heat data from the component\n"
-        "                      file) instead of constant molal overflow; adds the duties\n"
-        "  --json              print one JSON object on stdout\n");
-}
-
 typedef struct rate_args {
+    bool help; /* --help was asked for: nothing else is set */
     const char *fit_path, *components;
     double P_Pa;
     pw_rate_spec spec;
@@ -39,99 +21,89 @@ typedef struct rate_args {
     pw_cli_targets tg;
 } rate_args;
 
-static int whole(const char *opt, const char *v, int *out, pw_error *err)
-{
-    double d;
-    if (pw_cli_number(opt, v, &d, err) != PW_OK)
-        return PW_EXIT_USAGE;
-    if (!(d >= 1.0 && d <= 100000.0) || d != floor(d)) {
-        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected a whole number from 1 to 100000",
-                     opt, v);
-        return PW_EXIT_USAGE;
-    }
-    *out = (int)d;
-    return 0;
-}
+static const pw_cli_option rate_options[] = {
+    {.name = "--stages", .kind = PW_CLI_INTEGER, .metavar = "N", .lo = 1.0, .hi = 100000.0,
+     .help = "equilibrium stages, counted from the top, the partial reboiler\n"
+             "being stage N (the total condenser is not counted)"},
+    {.name = "--feed-stage", .kind = PW_CLI_INTEGER, .metavar = "K", .lo = 1.0, .hi = 100000.0,
+     .help = "the stage the whole feed enters"},
+    {.name = "--reflux", .kind = PW_CLI_NUMBER, .metavar = "R", .help = "reflux ratio L/D"},
+    {.name = "--distillate", .kind = PW_CLI_NUMBER, .metavar = "D",
+     .help = "distillate, moles per mole of feed"},
+    {.name = "--energy", .kind = PW_CLI_FLAG,
+     .help = "energy balance on every stage (heat data from the component\n"
+             "file) instead of constant molal overflow; adds the duties"},
+    PW_CLI_END,
+};
 
-static int parse(int argc, char **argv, rate_args *a, pw_error *err)
+static const pw_cli_option *const rate_blocks[] = {
+    pw_cli_block_pressure, pw_cli_block_feed, rate_options, pw_cli_block_components,
+    pw_cli_block_json, NULL,
+};
+
+static const pw_cli_spec rate_spec = {
+    .cmd = CMD,
+    .synopsis =
+        "usage: pinchwise rate FIT.json --pressure P --stages N --feed-stage K --reflux R\n"
+        "                      --zf X --distillate D [--q Q] [options]\n"
+        "\n"
+        "Products of a given binary column, constant molal overflow: N equilibrium stages\n"
+        "counted from the top with the partial reboiler as stage N (the total condenser is not\n"
+        "counted), the whole feed on stage K, reflux ratio R = L/D, distillate D moles per mole\n"
+        "of feed.\n",
+    .blocks = rate_blocks,
+    .max_positional = 1,
+    .positional = "one fit file",
+};
+
+/* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
+static pw_status parse(int argc, char **argv, rate_args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
-    a->tg.q = 1.0;
-    for (int i = 1; i < argc; i++) {
-        const char *v = NULL;
-        bool missing = false;
-        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
-            return -1;
-        if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
-            a->json = true;
-            continue;
-        }
-        if (pw_cli_opt(argc, argv, &i, "--energy", NULL, NULL)) {
-            a->energy = true;
-            continue;
-        }
-        if (!strncmp(argv[i], "--", 2)) {
-            const char *opt = argv[i];
-            if (!pw_cli_opt(argc, argv, &i, opt, &v, &missing) || missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
-                return PW_EXIT_USAGE;
-            }
-            int rc = 0;
-            if (!strcmp(opt, "--pressure") || !strcmp(opt, "--zf") || !strcmp(opt, "--q")) {
-                rc = pw_cli_target_opt(opt, v, &a->tg, err);
-            } else if (!strcmp(opt, "--components")) {
-                a->components = v;
-            } else if (!strcmp(opt, "--stages")) {
-                rc = whole(opt, v, &a->spec.n_stages, err);
-                a->have_N = true;
-            } else if (!strcmp(opt, "--feed-stage")) {
-                rc = whole(opt, v, &a->spec.feed_stage, err);
-                a->have_K = true;
-            } else if (!strcmp(opt, "--reflux")) {
-                rc = pw_cli_number(opt, v, &a->spec.R, err) == PW_OK ? 0 : PW_EXIT_USAGE;
-                a->have_R = true;
-            } else if (!strcmp(opt, "--distillate")) {
-                rc = pw_cli_number(opt, v, &a->spec.d_frac, err) == PW_OK ? 0 : PW_EXIT_USAGE;
-                a->have_D = true;
-            } else {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", opt);
-                return PW_EXIT_USAGE;
-            }
-            if (rc)
-                return rc;
-            continue;
-        }
-        if (a->fit_path) {
-            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", argv[i]);
-            return PW_EXIT_USAGE;
-        }
-        a->fit_path = argv[i];
-    }
+    pw_cli_args p;
+    if (pw_cli_parse(&rate_spec, argc, argv, &p, err) != PW_OK)
+        return PW_EINVAL;
+    if ((a->help = p.help))
+        return PW_OK;
+    a->json = pw_cli_has(&p, "--json");
+    a->energy = pw_cli_has(&p, "--energy");
+    a->components = pw_cli_text(&p, "--components");
+    pw_cli_targets_get(&p, &a->tg, NULL);
+    const pw_cli_value *v;
+    if ((v = pw_cli_get(&p, "--stages")))
+        a->spec.n_stages = (int)v->whole, a->have_N = true;
+    if ((v = pw_cli_get(&p, "--feed-stage")))
+        a->spec.feed_stage = (int)v->whole, a->have_K = true;
+    if ((v = pw_cli_get(&p, "--reflux")))
+        a->spec.R = v->num, a->have_R = true;
+    if ((v = pw_cli_get(&p, "--distillate")))
+        a->spec.d_frac = v->num, a->have_D = true;
+    a->fit_path = p.n_pos ? p.pos[0] : NULL;
     if (!a->fit_path || !a->tg.have_P || !a->tg.have_zf || !a->have_N || !a->have_K || !a->have_R ||
         !a->have_D) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "a fit file and --pressure, --stages, --feed-stage, --reflux, --zf, "
                      "--distillate are required");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     a->P_Pa = a->tg.P_Pa;
     a->spec.zf = a->tg.zf;
     a->spec.q = a->tg.q;
-    return 0;
+    return PW_OK;
 }
 
-int pw_cli_rate(int argc, char **argv)
+pw_status pw_cli_rate(int argc, char **argv)
 {
     rate_args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = parse(argc, argv, &a, &err);
-    if (rc == -1) {
-        usage(stdout);
-        return 0;
-    }
-    if (rc)
+    if (parse(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if (a.help) {
+        pw_cli_help(&rate_spec, stdout);
+        return PW_OK;
+    }
+    pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
     if (pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
@@ -185,7 +157,7 @@ int pw_cli_rate(int argc, char **argv)
                a.energy ? "energy balances" : "constant molal overflow");
         printf("  with rigorous simulation and plant data; operate per local codes under licensed\n"
                "  engineering review.\n");
-        rc = fflush(stdout) ? 4 : 0;
+        rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     pw_rate_result_free(&r);
     pw_fit_result_free(&fit);

@@ -11,36 +11,6 @@
 #include <stdio.h>
 #include <string.h>
 
-static void usage(FILE *f)
-{
-    fprintf(f,
-            "usage: pinchwise reflux FIT.json --pressure P --xd X --xb X --zf X [--q Q] [options]\n"
-            "\n"
-            "Binary column, constant molal overflow, total condenser, partial reboiler.\n"
-            "  --pressure P        column pressure with its unit, e.g. 101.325kPa, 1atm, 2bar\n"
-            "  --xd, --xb, --zf    distillate, bottoms, feed compositions of component 1: a mole\n"
-            "                      fraction, or with mol%%, wt or wt%% (e.g. 99.5wt%%); either\n"
-            "                      direction: xb < zf < xd, or xd < zf < xb when component 1\n"
-            "                      leaves with the bottoms\n"
-            "  --q Q               feed liquid fraction (1 saturated liquid, 0 saturated vapor,\n"
-            "                      > 1 subcooled, < 0 superheated; default 1)\n"
-            "  --factors F,F,...   design reflux as multiples of R_min (default 1.2,1.3,1.5;\n"
-            "                      --operating-factor F is the same with one value)\n"
-            "  --energy            energy balance on every stage (heats of vaporization and heat\n"
-            "                      capacities from the component data) instead of constant\n"
-            "                      molal overflow; adds condenser and reboiler duties\n"
-            "  --uncertainty       intervals of R_min, boil-up and stages from the fit's parameter\n"
-            "                      covariance, feasibility risk, where to measure next\n"
-            "  --samples N         parameter sets drawn for --uncertainty (default 400)\n"
-            "  --seed N            random seed of the draws (default 1)\n"
-            "  --compare FIT.json  another model's fit of the same data (repeatable): R_min\n"
-            "                      side by side, ranked by AICc\n"
-            PW_CLI_HELP_COMPONENTS
-            PW_CLI_HELP_MINIMUM
-            PW_CLI_HELP_EXIT_VERDICT
-            "  --json              print one JSON object on stdout\n");
-}
-
 static const char *pinch_kind(pw_pinch_kind k) { return k == PW_PINCH_FEED ? "feed" : "tangent"; }
 static const char *section(pw_section s)
 {
@@ -108,25 +78,25 @@ static void print_table(const pw_reflux_run *run)
            "  equipment and relief per local codes under licensed engineering review.\n");
 }
 
-int pw_cli_reflux(int argc, char **argv)
+pw_status pw_cli_reflux(int argc, char **argv)
 {
     pw_reflux_args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = pw_reflux_parse_args(argc, argv, &a, &err);
-    if (rc == -1) {
-        usage(stdout);
-        return 0;
-    }
-    if (rc != 0)
+    if (pw_reflux_parse_args(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail("reflux", &err);
+    if (a.help) {
+        pw_cli_help(&pw_reflux_spec, stdout);
+        return PW_OK;
+    }
+    pw_status rc;
     pw_reflux_run run;
     rc = pw_reflux_compute(&a, &run, &err);
-    if (rc != 0)
+    if (rc != PW_OK)
         return pw_cli_fail("reflux", &err);
     pw_reflux_uncert unc;
     bool with_unc = a.uncertainty || a.n_extra;
-    if (with_unc && (rc = pw_reflux_uncert_run(&a, &run, &unc, &err)) != 0) {
+    if (with_unc && (rc = pw_reflux_uncert_run(&a, &run, &unc, &err)) != PW_OK) {
         pw_reflux_run_free(&run);
         return pw_cli_fail("reflux", &err);
     }
@@ -146,7 +116,7 @@ int pw_cli_reflux(int argc, char **argv)
     }
     bool infeasible = !run.col.feasible || (run.energy && !run.energy_res.feasible);
     pw_reflux_run_free(&run);
-    if (rc == 0 && a.exit_verdict && infeasible)
-        rc = PW_CLI_EXIT_VERDICT;
+    if (rc == PW_OK && a.exit_verdict && infeasible)
+        rc = PW_EINFEASIBLE;
     return rc;
 }

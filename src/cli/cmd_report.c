@@ -3,6 +3,7 @@
 #include "azeo_uncert.h"
 #include "cli.h"
 #include "cli_units.h"
+#include "cli_options.h"
 
 #include <math.h>
 #include <pinchwise/enthalpy.h>
@@ -13,38 +14,69 @@
 #include <sys/stat.h>
 #include <unistd.h>
 
-static void usage(FILE *f)
+/* The report draws one operating line: one factor, above 1 and at most 100. */
+static pw_status check_one_factor(pw_cli_value *v, pw_error *err)
 {
-    fprintf(f,
-            "usage: pinchwise report FIT.json --out REPORT.html [options]\n"
-            "\n"
-            "Writes one self-contained HTML page (inline SVG plots, no scripts, nothing fetched).\n"
-            "  --out FILE              the page to write (refused if it exists, unless --force)\n"
-            "  --pressure P --xd X --xb X --zf X [--q Q]\n"
-            "                          add the column section: x-y construction at pressure P\n"
-            "                          (with its unit, e.g. 1atm), compositions of component 1\n"
-            "                          (mole fraction, or with mol%%, wt, wt%%), either direction\n"
-            "                          (xd < zf < xb: component 1 leaves with the bottoms)\n"
-            "  --factors F             R / R_min of the drawn operating line (default 1.3; one\n"
-            "                          value; also spelt --operating-factor)\n"
-            "  --energy                with the column: also the energy-balance column (needs heat\n"
-            "                          data in the component rows)\n"
-            "  --uncertainty           add the fit's parameter uncertainty: azeotrope intervals,\n"
-            "                          and with the column a \"how sure\" table and a band of\n"
-            "                          sampled equilibrium curves near the pinch\n"
-            "  --samples N             parameter sets drawn (default 400); --seed N (default 1)\n"
-            "  --svg DIR               also write each plot as DIR/<name>.svg\n"
-            "  --csv DIR               also write the curves behind the plots as DIR/<name>.csv\n"
-            PW_CLI_HELP_COMPONENTS
-            PW_CLI_HELP_MINIMUM
-            "  --compare FIT.json      another model of the same data for the side-by-side table\n"
-            "                          (repeatable; default: the <stem>.<model>.json files beside\n"
-            "                          FIT.json that `fit --model all` writes)\n"
-            "  --force                 replace existing output files\n"
-            "  --json                  print {\"report\": path, \"plots\": N} on stdout\n");
+    if (v->n_list != 1)
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "%s %s: the report draws one operating line; give one factor",
+                            v->spelt, v->text);
+    if (!(v->list[0] > 1.0 && v->list[0] <= 100.0))
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "%s %s: R / R_min must be greater than 1 and at most 100", v->spelt,
+                            v->text);
+    return PW_OK;
 }
 
+static const pw_cli_option report_options[] = {
+    {.name = "--out", .kind = PW_CLI_STRING, .metavar = "FILE",
+     .help = "the page to write (refused if it exists, unless --force)"},
+    {.name = "--factors", .alias = "--operating-factor", .kind = PW_CLI_LIST, .metavar = "F",
+     .check = check_one_factor,
+     .help = "R / R_min of the drawn operating line (default 1.3; one value)"},
+    {.name = "--energy", .kind = PW_CLI_FLAG,
+     .help = "with the column: also the energy-balance column (needs heat\n"
+             "data in the component rows)"},
+    {.name = "--svg", .kind = PW_CLI_STRING, .metavar = "DIR",
+     .help = "also write each plot as DIR/<name>.svg"},
+    {.name = "--csv", .kind = PW_CLI_STRING, .metavar = "DIR",
+     .help = "also write the curves behind the plots as DIR/<name>.csv"},
+    {.name = "--compare", .kind = PW_CLI_STRING, .metavar = "FIT.json", .repeatable = true,
+     .help = "another model of the same data for the side-by-side table\n"
+             "(default: the <stem>.<model>.json files beside FIT.json that\n"
+             "`fit --model all` writes)"},
+    {.name = "--force", .kind = PW_CLI_FLAG, .help = "replace existing output files"},
+    PW_CLI_END,
+};
+
+static const pw_cli_option report_json[] = {
+    {.name = "--json", .kind = PW_CLI_FLAG,
+     .help = "print {\"report\": path, \"plots\": N} on stdout"},
+    PW_CLI_END,
+};
+
+static const pw_cli_option *const report_blocks[] = {
+    report_options, pw_cli_block_pressure, pw_cli_block_products, pw_cli_block_feed,
+    pw_cli_block_uncertainty, pw_cli_block_components, pw_cli_block_minimum, report_json, NULL,
+};
+
+static const pw_cli_spec report_spec = {
+    .cmd = "report",
+    .synopsis =
+        "usage: pinchwise report FIT.json --out REPORT.html [options]\n"
+        "\n"
+        "Writes one self-contained HTML page (inline SVG plots, no scripts, nothing fetched).\n"
+        "With --pressure, --xd, --xb and --zf (all four) it adds the column section: the x-y\n"
+        "construction at minimum and operating reflux. With --uncertainty: the azeotrope\n"
+        "intervals and, with the column, a \"how sure\" table and a band of sampled\n"
+        "equilibrium curves near the pinch.\n",
+    .blocks = report_blocks,
+    .max_positional = 1,
+    .positional = "one fit file",
+};
+
 typedef struct report_args {
+    bool help; /* --help was asked for: nothing else is set */
     const char *fit, *out, *svg, *csv, *components, *minimum;
     bool json, force, energy;
     bool have_P, have_xd, have_xb, have_zf;
@@ -106,111 +138,63 @@ static size_t load_others(const report_args *a, const pw_fit_result *fit, pw_fit
     return n;
 }
 
-/* Returns 0, -1 for --help, or an exit code with err filled. */
-static int parse(int argc, char **argv, report_args *a, pw_error *err)
+/* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
+static pw_status parse(int argc, char **argv, report_args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
-    pw_cli_targets tg = {.q = 1.0};
-    for (int i = 1; i < argc; i++) {
-        const char *v = NULL;
-        bool missing = false;
-        int rc = 0, trc;
-        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
-            return -1;
-        int urc;
-        if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
-            a->json = true;
-        } else if (pw_cli_opt(argc, argv, &i, "--force", NULL, NULL)) {
-            a->force = true;
-        } else if (pw_cli_opt(argc, argv, &i, "--energy", NULL, NULL)) {
-            a->energy = true;
-        } else if ((urc = pw_azeo_uncert_opt(argc, argv, &i, &a->unc, err)) != 0) {
-            if (urc > 1)
-                return urc;
-        } else if (!strncmp(argv[i], "--", 2)) {
-            const char *opt = argv[i];
-            static const char *const known[] = {"--out", "--pressure", "--xd", "--xb", "--zf", "--q",
-                                                "--operating-factor", "--factors", "--svg", "--csv",
-                                                "--components", "--compare", "--minimum"};
-            bool ok = false;
-            for (size_t k = 0; k < sizeof known / sizeof known[0]; k++)
-                ok = ok || !strcmp(opt, known[k]);
-            if (!ok) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s (see --help)", opt);
-                return PW_EXIT_USAGE;
-            }
-            if (!pw_cli_opt(argc, argv, &i, opt, &v, &missing) || missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
-                return PW_EXIT_USAGE;
-            }
-            if (!strcmp(opt, "--out"))
-                a->out = v;
-            else if (!strcmp(opt, "--svg"))
-                a->svg = v;
-            else if (!strcmp(opt, "--csv"))
-                a->csv = v;
-            else if (!strcmp(opt, "--components"))
-                a->components = v;
-            else if (!strcmp(opt, "--minimum"))
-                a->minimum = v;
-            else if (!strcmp(opt, "--compare")) {
-                if (a->n_compare == REPORT_MAX_OTHERS) {
-                    pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
-                                 REPORT_MAX_OTHERS);
-                    return PW_EXIT_USAGE;
-                }
-                a->compare[a->n_compare++] = v;
-            }
-            else if ((trc = pw_cli_target_opt(opt, v, &tg, err)) >= 0) {
-                rc = trc; /* --pressure, --xd, --xb, --zf, --q: parsed into tg */
-            } else if (!strcmp(opt, "--operating-factor") || !strcmp(opt, "--factors")) {
-                if (strchr(v, ',')) {
-                    pw_error_set(err, PW_EINVAL, NULL, 0,
-                                 "%s %s: the report draws one operating line; give one factor", opt,
-                                 v);
-                    return PW_EXIT_USAGE;
-                }
-                rc = pw_cli_number(opt, v, &a->factor, err) == PW_OK ? 0 : PW_EXIT_USAGE;
-                if (!rc && !(a->factor > 1.0 && a->factor <= 100.0)) {
-                    pw_error_set(err, PW_EINVAL, NULL, 0,
-                                 "--operating-factor %s: R / R_min must be greater than 1 and at "
-                                 "most 100", v);
-                    rc = PW_EXIT_USAGE;
-                }
-            }
-        } else if (a->fit) {
-            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", argv[i]);
-            return PW_EXIT_USAGE;
-        } else {
-            a->fit = argv[i];
+    pw_cli_args p;
+    if (pw_cli_parse(&report_spec, argc, argv, &p, err) != PW_OK)
+        return PW_EINVAL;
+    if ((a->help = p.help))
+        return PW_OK;
+    a->json = pw_cli_has(&p, "--json");
+    a->force = pw_cli_has(&p, "--force");
+    a->energy = pw_cli_has(&p, "--energy");
+    pw_azeo_uncert_from(&p, &a->unc);
+    a->out = pw_cli_text(&p, "--out");
+    a->svg = pw_cli_text(&p, "--svg");
+    a->csv = pw_cli_text(&p, "--csv");
+    a->components = pw_cli_text(&p, "--components");
+    a->minimum = pw_cli_text(&p, "--minimum");
+    for (const pw_cli_value *v = pw_cli_next(&p, "--compare", NULL); v;
+         v = pw_cli_next(&p, "--compare", v)) {
+        if (a->n_compare == REPORT_MAX_OTHERS) {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
+                         REPORT_MAX_OTHERS);
+            return PW_EINVAL;
         }
-        if (rc)
-            return rc;
+        a->compare[a->n_compare++] = v->text;
     }
+    const pw_cli_value *f = pw_cli_get(&p, "--factors");
+    if (f)
+        a->factor = f->list[0];
+    a->fit = p.n_pos ? p.pos[0] : NULL;
+    pw_cli_targets tg;
+    pw_cli_targets_get(&p, &tg, NULL);
     a->P_Pa = tg.P_Pa;
     a->spec = (pw_column_spec){.xd = tg.xd, .xb = tg.xb, .zf = tg.zf, .q = tg.q};
     a->have_P = tg.have_P, a->have_xd = tg.have_xd, a->have_xb = tg.have_xb;
     a->have_zf = tg.have_zf;
     if (!a->fit || !a->out) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file and --out REPORT.html are required");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     int n_col = a->have_P + a->have_xd + a->have_xb + a->have_zf;
     if (n_col != 0 && n_col != 4) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "the column section needs all of --pressure, --xd, --xb and --zf");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     if (a->energy && n_col == 0) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--energy needs the column options");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     memcpy(a->basis, tg.basis, sizeof a->basis);
     if (a->factor != 0.0 && n_col == 0) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--operating-factor needs the column options");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
 static void progress(const char *what)
@@ -219,18 +203,17 @@ static void progress(const char *what)
         fprintf(stderr, "pinchwise report: %s\n", what);
 }
 
-int pw_cli_report(int argc, char **argv)
+pw_status pw_cli_report(int argc, char **argv)
 {
     report_args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = parse(argc, argv, &a, &err);
-    if (rc < 0) {
-        usage(stdout);
-        return 0;
-    }
-    if (rc)
+    if (parse(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail("report", &err);
+    if (a.help) {
+        pw_cli_help(&report_spec, stdout);
+        return PW_OK;
+    }
     /* Every output (page, --svg and --csv files) is written all or none, never over an input
      * (by identity: links count), whatever --force says. The page is checked before the work. */
     pw_outset *set = NULL;
@@ -337,7 +320,7 @@ int pw_cli_report(int argc, char **argv)
                                                       (json_int_t)plots));
     progress("done");
     if (!isatty(STDERR_FILENO))
-        return 0;
+        return PW_OK;
     fprintf(stderr, "pinchwise report: wrote %s with %zu plots\n", a.out, plots);
-    return 0;
+    return PW_OK;
 }

@@ -2,6 +2,7 @@
 #include "analysis_common.h"
 #include "cli.h"
 #include "cli_units.h"
+#include "cli_options.h"
 #include "reflux_uncert.h"
 
 #include <math.h>
@@ -12,33 +13,38 @@
 
 #define CMD "screen"
 
-static void usage(FILE *f)
-{
-    fprintf(f,
-            "usage: pinchwise screen FIT.json --pressure P --xd X --xb X [--zf X] [--json]\n"
-            "  --uncertainty       propagate the fit's uncertainty (--samples N, --seed N)\n"
-            "  --energy            R_min of the rough column also with energy balances (needs\n"
-            "                      heat data in the component rows)\n"
-            PW_CLI_HELP_COMPONENTS
-            PW_CLI_HELP_MINIMUM
-            PW_CLI_HELP_EXIT_VERDICT
-            "\n"
-            "Verdict (feasible / difficult / infeasible by simple distillation) with its reasons:\n"
-            "lowest relative volatility on [xb, xd], azeotrope barrier, azeotrope shift over\n"
-            "20-500 kPa, rough minimum reflux and stages at total reflux.\n"
-            "  --pressure P        column pressure with its unit, e.g. 101.325kPa, 1atm\n"
-            "  --xd, --xb          distillate and bottoms compositions of component 1 (a mole\n"
-            "                      fraction, or with mol%%, wt or wt%%); xd < xb when component 1\n"
-            "                      leaves with the bottoms\n"
-            "  --zf X              feed composition (default 0.5, or (xb+xd)/2 when 0.5 is not\n"
-            "                      between them)\n"
-            "  --q Q               feed liquid fraction of the rough column (default 1)\n"
-            "  --sweep FROM:TO[:N] pressures of the azeotrope-shift scan (default 20kPa:500kPa:9;\n"
-            "                      also spelt --swing-range)\n"
-            "  --json              print one JSON object on stdout\n");
-}
+static const pw_cli_option screen_options[] = {
+    {.name = "--sweep", .alias = "--swing-range", .kind = PW_CLI_STRING, .metavar = "FROM:TO[:N]",
+     .help = "pressures of the azeotrope-shift scan (default 20kPa:500kPa:9)"},
+    {.name = "--energy", .kind = PW_CLI_FLAG,
+     .help = "R_min of the rough column also with energy balances (needs\n"
+             "heat data in the component rows)"},
+    PW_CLI_END,
+};
+
+static const pw_cli_option *const screen_blocks[] = {
+    pw_cli_block_pressure, pw_cli_block_products, pw_cli_block_feed, screen_options,
+    pw_cli_block_uncertainty, pw_cli_block_components, pw_cli_block_minimum,
+    pw_cli_block_verdict, pw_cli_block_json, NULL,
+};
+
+static const pw_cli_spec screen_spec = {
+    .cmd = "screen",
+    .synopsis =
+        "usage: pinchwise screen FIT.json --pressure P --xd X --xb X [--zf X] [options]\n"
+        "\n"
+        "Verdict (feasible / difficult / infeasible by simple distillation) with its reasons:\n"
+        "lowest relative volatility on [xb, xd], azeotrope barrier, azeotrope shift over\n"
+        "20-500 kPa, rough minimum reflux and stages at total reflux. The feed composition\n"
+        "defaults to 0.5, or (xb+xd)/2 when 0.5 is not between the products; --q is the feed\n"
+        "of the rough column.\n",
+    .blocks = screen_blocks,
+    .max_positional = 1,
+    .positional = "one fit file",
+};
 
 typedef struct args {
+    bool help; /* --help was asked for: nothing else is set */
     const char *fit_path;
     double P_Pa, xd, xb, zf;
     bool have_P, have_xd, have_xb, json;
@@ -52,7 +58,7 @@ typedef struct args {
 } args;
 
 /* --sweep FROM:TO[:N] (also spelt --swing-range): the pressures of the azeotrope-shift scan. */
-static int swing_range(const char *text, args *a, pw_error *err)
+static pw_status swing_range(const char *text, args *a, pw_error *err)
 {
     char buf[128];
     snprintf(buf, sizeof buf, "%s", text);
@@ -60,7 +66,7 @@ static int swing_range(const char *text, args *a, pw_error *err)
     if (!c) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--sweep %s: expected FROM:TO[:N], e.g. 20kPa:5bar",
                      text);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
     *c = '\0';
     char *c2 = strchr(c + 1, ':');
@@ -68,126 +74,73 @@ static int swing_range(const char *text, args *a, pw_error *err)
         *c2 = '\0';
         double n;
         if (pw_cli_number("--sweep N", c2 + 1, &n, err) != PW_OK)
-            return PW_EXIT_USAGE;
+            return PW_EINVAL;
         if (!(n >= 2.0 && n <= 200.0) || n != floor(n)) {
             pw_error_set(err, PW_EINVAL, NULL, 0, "--sweep %s: N must be a whole number from 2 to 200",
                          text);
-            return PW_EXIT_USAGE;
+            return PW_EINVAL;
         }
         a->opt.scan_points = (size_t)n;
     }
     if (pw_cli_quantity(PW_QTY_PRESSURE, "--swing-range LO", buf, &a->opt.P_lo_Pa, err) != PW_OK ||
         pw_cli_quantity(PW_QTY_PRESSURE, "--swing-range HI", c + 1, &a->opt.P_hi_Pa, err) != PW_OK)
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     if (!(a->opt.P_hi_Pa > a->opt.P_lo_Pa)) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--swing-range %s: HI must exceed LO", text);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
-static int parse(int argc, char **argv, args *a, pw_error *err)
+/* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
+static pw_status parse(int argc, char **argv, args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
     a->zf = NAN;
     a->opt = pw_screen_default_options();
-    for (int i = 1; i < argc; i++) {
-        const char *v = NULL, *opt = argv[i];
-        bool missing = false;
-        int rc = 0;
-        if (!strcmp(opt, "--help") || !strcmp(opt, "-h"))
-            return -1;
-        if (!strcmp(opt, "--json")) {
-            a->json = true;
-            continue;
+    pw_cli_args p;
+    if (pw_cli_parse(&screen_spec, argc, argv, &p, err) != PW_OK)
+        return PW_EINVAL;
+    if ((a->help = p.help))
+        return PW_OK;
+    a->json = pw_cli_has(&p, "--json");
+    a->energy = pw_cli_has(&p, "--energy");
+    a->exit_verdict = pw_cli_has(&p, "--exit-verdict");
+    a->components = pw_cli_text(&p, "--components");
+    a->minimum = pw_cli_text(&p, "--minimum");
+    a->uncertainty = pw_cli_uncertainty_get(&p).on;
+    /* for the uncertainty step, which reads them as reflux's */
+    static const char *const extra[] = {"--samples", "--seed"};
+    for (size_t k = 0; k < 2; k++) {
+        const char *v = pw_cli_text(&p, extra[k]);
+        if (v) {
+            a->extra[a->n_extra++] = extra[k];
+            a->extra[a->n_extra++] = v;
         }
-        if (!strcmp(opt, "--uncertainty")) {
-            a->uncertainty = true;
-            continue;
-        }
-        if (!strcmp(opt, "--energy")) {
-            a->energy = true;
-            continue;
-        }
-        if (!strcmp(opt, "--exit-verdict")) {
-            a->exit_verdict = true;
-            continue;
-        }
-        if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") || !strcmp(opt, "--components") ||
-            !strcmp(opt, "--minimum")) {
-            pw_cli_opt(argc, argv, &i, opt, &v, &missing);
-            if (missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
-                return PW_EXIT_USAGE;
-            }
-            if (!strcmp(opt, "--components")) {
-                a->components = v;
-            } else if (!strcmp(opt, "--minimum")) {
-                a->minimum = v;
-            } else {
-                /* checked here, before any work (the uncertainty step reads them again) */
-                unsigned long long w;
-                if (pw_cli_whole(opt, v, 0.0, !strcmp(opt, "--seed") ? 4294967295.0 : 100000.0,
-                                 &w, err))
-                    return PW_EXIT_USAGE;
-                if (a->n_extra + 2 > 4) {
-                    pw_error_set(err, PW_EINVAL, NULL, 0, "%s given twice", opt);
-                    return PW_EXIT_USAGE;
-                }
-                a->extra[a->n_extra++] = opt;
-                a->extra[a->n_extra++] = v;
-                a->uncertainty = true;
-            }
-            continue;
-        }
-        if (opt[0] == '-' && opt[1] != '\0') {
-            if (strcmp(opt, "--pressure") && strcmp(opt, "--xd") && strcmp(opt, "--xb") &&
-                strcmp(opt, "--zf") && strcmp(opt, "--swing-range") && strcmp(opt, "--q") &&
-                strcmp(opt, "--sweep")) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", opt);
-                return PW_EXIT_USAGE;
-            }
-            pw_cli_opt(argc, argv, &i, opt, &v, &missing);
-            if (missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
-                return PW_EXIT_USAGE;
-            }
-            if (!strcmp(opt, "--pressure")) {
-                if (pw_cli_quantity(PW_QTY_PRESSURE, opt, v, &a->P_Pa, err) != PW_OK)
-                    return PW_EXIT_USAGE;
-                a->have_P = true;
-            } else if (!strcmp(opt, "--xd")) {
-                rc = pw_cli_composition(opt, v, &a->xd, &a->basis[0], err);
-                a->have_xd = true;
-            } else if (!strcmp(opt, "--xb")) {
-                rc = pw_cli_composition(opt, v, &a->xb, &a->basis[1], err);
-                a->have_xb = true;
-            } else if (!strcmp(opt, "--zf")) {
-                rc = pw_cli_composition(opt, v, &a->zf, &a->basis[2], err);
-            } else if (!strcmp(opt, "--q")) {
-                rc = pw_cli_ranged(opt, v, -10.0, 10.0, "the feed's liquid fraction q", &a->opt.q, err);
-            } else {
-                rc = swing_range(v, a, err);
-            }
-            if (rc)
-                return rc;
-            continue;
-        }
-        if (a->fit_path) {
-            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", opt);
-            return PW_EXIT_USAGE;
-        }
-        a->fit_path = opt;
     }
+    pw_cli_targets tg;
+    pw_cli_targets_get(&p, &tg, NULL);
+    a->P_Pa = tg.P_Pa, a->have_P = tg.have_P;
+    a->xd = tg.xd, a->have_xd = tg.have_xd;
+    a->xb = tg.xb, a->have_xb = tg.have_xb;
+    if (tg.have_zf)
+        a->zf = tg.zf;
+    memcpy(a->basis, tg.basis, sizeof a->basis);
+    if (pw_cli_has(&p, "--q"))
+        a->opt.q = tg.q;
+    const char *sw = pw_cli_text(&p, "--sweep");
+    if (sw && swing_range(sw, a, err))
+        return PW_EINVAL;
+    a->fit_path = p.n_pos ? p.pos[0] : NULL;
     if (!a->fit_path || !a->have_P || !a->have_xd || !a->have_xb) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file and --pressure, --xd, --xb are required");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
 /* After the conversion to mole fractions: the feed between the products, in either direction. */
-static int check_targets(const args *a, pw_error *err)
+static pw_status check_targets(const args *a, pw_error *err)
 {
     double lo = fmin(a->xb, a->xd), hi = fmax(a->xb, a->xd);
     if (!(lo < hi) || (!isnan(a->zf) && !(lo < a->zf && a->zf < hi))) {
@@ -196,9 +149,9 @@ static int check_targets(const args *a, pw_error *err)
                      "xd < zf < xb (component 1 leaves with the bottoms); got xb %g, zf %g, xd %g "
                      "as mole fractions of component 1",
                      a->xb, a->zf, a->xd);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
 static void print_text(const pw_fit_result *fit, const pw_screen_result *r)
@@ -224,18 +177,18 @@ static void print_text(const pw_fit_result *fit, const pw_screen_result *r)
     pw_cli_print_caution(stdout);
 }
 
-int pw_cli_screen(int argc, char **argv)
+pw_status pw_cli_screen(int argc, char **argv)
 {
     args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = parse(argc, argv, &a, &err);
-    if (rc == -1) {
-        usage(stdout);
-        return 0;
-    }
-    if (rc)
+    if (parse(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if (a.help) {
+        pw_cli_help(&screen_spec, stdout);
+        return PW_OK;
+    }
+    pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
     if (pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
@@ -279,7 +232,7 @@ int pw_cli_screen(int argc, char **argv)
         run.P_Pa = a.P_Pa;
         run.spec = ra.spec;
         run.col = r.column;
-        if ((rc = pw_reflux_uncert_run(&ra, &run, &u, &err)) != 0) {
+        if ((rc = pw_reflux_uncert_run(&ra, &run, &u, &err)) != PW_OK) {
             pw_fit_result_free(&fit);
             return pw_cli_fail(CMD, &err);
         }
@@ -323,10 +276,10 @@ int pw_cli_screen(int argc, char **argv)
             printf("  with energy balances: %s\n", en.reason);
         if (unc)
             pw_reflux_uncert_print(&u, &run);
-        rc = fflush(stdout) ? 4 : 0;
+        rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     pw_fit_result_free(&fit);
-    if (rc == 0 && a.exit_verdict && r.verdict == PW_VERDICT_INFEASIBLE)
-        rc = PW_CLI_EXIT_VERDICT;
+    if (rc == PW_OK && a.exit_verdict && r.verdict == PW_VERDICT_INFEASIBLE)
+        rc = PW_EINFEASIBLE;
     return rc;
 }

@@ -10,6 +10,7 @@
  * status. */
 #include "cli.h"
 #include "cli_units.h"
+#include "cli_options.h"
 #include "fit_common.h"
 #include "reflux_common.h"
 #include "reflux_uncert.h"
@@ -31,99 +32,67 @@
 #define CMD "study"
 #define STUDY_STEPS 6
 
-static void usage(FILE *f)
-{
-    fprintf(f,
-            "usage: pinchwise study DATA.csv --pressure P --xd X --xb X --zf X [options]\n"
-            "\n"
-            "The whole study in one command: consistency of the data, every model fitted and\n"
-            "one chosen, azeotropes, minimum reflux with the design table, optionally the\n"
-            "uncertainty, and the HTML report, written into one folder.\n"
-            "  --pressure P        column pressure with its unit, e.g. 1atm, \"101.325 kPa\"\n"
-            "  --xd, --xb, --zf    product and feed compositions of component 1 (mole fraction,\n"
-            "                      or with mol%%, wt, wt%%); either direction as in reflux\n"
-            "  --q Q               feed liquid fraction (default 1)\n"
-            "  --model MODEL       take this model instead of choosing (any model of fit,\n"
-            "                      in any case); default: every model is fitted and rank 1 of\n"
-            "                      the ranking of fit --model all is chosen\n"
-            "  --out-dir DIR       folder for the fit files and the report (default: study)\n"
-            "  --factors F,F,...   design reflux as multiples of R_min (default 1.2,1.3,1.5)\n"
-            "  --uncertainty       intervals from the fit's covariance (--samples N, --seed N)\n"
-            "  --force             replace existing fit files and report\n" PW_CLI_HELP_COMPONENTS
-                PW_CLI_HELP_EXIT_VERDICT "  --json              print one JSON object on stdout\n");
-}
+static const pw_cli_option study_options[] = {
+    {.name = "--model", .kind = PW_CLI_STRING, .metavar = "MODEL",
+     .help = "take this model instead of choosing (any model of fit,\n"
+             "in any case); default: every model is fitted and rank 1 of\n"
+             "the ranking of fit --model all is chosen"},
+    {.name = "--out-dir", .kind = PW_CLI_STRING, .metavar = "DIR",
+     .help = "folder for the fit files and the report (default: study)"},
+    {.name = "--force", .kind = PW_CLI_FLAG, .help = "replace existing fit files and report"},
+    PW_CLI_END,
+};
+
+static const pw_cli_option *const study_blocks[] = {
+    pw_cli_block_pressure, pw_cli_block_products, pw_cli_block_feed, study_options,
+    pw_cli_block_factors, pw_cli_block_uncertainty, pw_cli_block_components,
+    pw_cli_block_verdict, pw_cli_block_json, NULL,
+};
+
+static const pw_cli_spec study_spec = {
+    .cmd = CMD,
+    .synopsis =
+        "usage: pinchwise study DATA.csv --pressure P --xd X --xb X --zf X [options]\n"
+        "\n"
+        "The whole study in one command: consistency of the data, every model fitted and\n"
+        "one chosen, azeotropes, minimum reflux with the design table, optionally the\n"
+        "uncertainty, and the HTML report, written into one folder.\n",
+    .blocks = study_blocks,
+    .max_positional = 1,
+    .positional = "one data file",
+};
 
 typedef struct study_args {
+    bool help; /* --help was asked for: nothing else is set */
     const char *data, *model_name, *out_dir, *components;
     bool json, force, uncertainty, exit_verdict;
-    char *reflux_argv[32]; /* the column options, handed to the reflux parser */
-    int reflux_argc;
+    pw_cli_args opts; /* the column options, read again by pw_reflux_args_from */
 } study_args;
 
-static bool takes_value(const char *opt)
-{
-    static const char *const v[] = {"--pressure", "--xd",      "--xb",        "--zf",
-                                    "--q",        "--factors", "--samples",   "--seed",
-                                    "--model",    "--out-dir", "--components"};
-    for (size_t i = 0; i < sizeof v / sizeof *v; i++)
-        if (!strcmp(opt, v[i]))
-            return true;
-    return false;
-}
-
-static int parse(int argc, char **argv, study_args *a, pw_error *err)
+/* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
+static pw_status parse(int argc, char **argv, study_args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
-    a->out_dir = "study";
-    a->reflux_argv[a->reflux_argc++] = "reflux";
-    a->reflux_argv[a->reflux_argc++] = ""; /* the chosen fit file, set later */
-    for (int i = 1; i < argc; i++) {
-        const char *o = argv[i];
-        if (!strcmp(o, "--help") || !strcmp(o, "-h"))
-            return -1;
-        if (!strcmp(o, "--json") || !strcmp(o, "--force") || !strcmp(o, "--uncertainty") ||
-            !strcmp(o, "--exit-verdict")) {
-            a->json = a->json || !strcmp(o, "--json");
-            a->force = a->force || !strcmp(o, "--force");
-            a->uncertainty = a->uncertainty || !strcmp(o, "--uncertainty");
-            a->exit_verdict = a->exit_verdict || !strcmp(o, "--exit-verdict");
-            continue;
-        }
-        if (o[0] == '-' && o[1] == '-') {
-            if (!takes_value(o)) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s (see --help)", o);
-                return PW_EXIT_USAGE;
-            }
-            if (i + 1 >= argc) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", o);
-                return PW_EXIT_USAGE;
-            }
-            const char *v = argv[++i];
-            if (!strcmp(o, "--model"))
-                a->model_name = v;
-            else if (!strcmp(o, "--out-dir"))
-                a->out_dir = v;
-            else if (!strcmp(o, "--components"))
-                a->components = v;
-            else if (a->reflux_argc + 2 < (int)(sizeof a->reflux_argv / sizeof *a->reflux_argv)) {
-                a->reflux_argv[a->reflux_argc++] = (char *)o;
-                a->reflux_argv[a->reflux_argc++] = (char *)v;
-            }
-            continue;
-        }
-        if (a->data) {
-            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one data file)", o);
-            return PW_EXIT_USAGE;
-        }
-        a->data = o;
-    }
+    if (pw_cli_parse(&study_spec, argc, argv, &a->opts, err) != PW_OK)
+        return PW_EINVAL;
+    const pw_cli_args *p = &a->opts;
+    if ((a->help = p->help))
+        return PW_OK;
+    a->json = pw_cli_has(p, "--json");
+    a->force = pw_cli_has(p, "--force");
+    a->uncertainty = pw_cli_has(p, "--uncertainty");
+    a->exit_verdict = pw_cli_has(p, "--exit-verdict");
+    a->model_name = pw_cli_text(p, "--model");
+    a->out_dir = pw_cli_text(p, "--out-dir");
+    if (!a->out_dir)
+        a->out_dir = "study";
+    a->components = pw_cli_text(p, "--components");
+    a->data = p->n_pos ? p->pos[0] : NULL;
     if (!a->data) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a data file is required");
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    if (a->uncertainty)
-        a->reflux_argv[a->reflux_argc++] = "--uncertainty";
-    return 0;
+    return PW_OK;
 }
 
 static void step(const char *what, size_t k)
@@ -156,7 +125,7 @@ static pw_status consistency(const study_args *a, const pw_complib *lib, pw_cons
 
 typedef struct model_fit {
     const pw_model_type *model;
-    int rc;
+    pw_status rc;
     pw_fit_result r;
     char path[PW_PATH_MAX];
     pw_error err;
@@ -188,32 +157,30 @@ static void az_text(const char *where, const pw_az_result *r, bool ok)
                pw_az_kind_name(r->az[i].kind), r->az[i].x1, r->az[i].T_K, r->az[i].P_Pa / 1000.0);
 }
 
-int pw_cli_study(int argc, char **argv)
+pw_status pw_cli_study(int argc, char **argv)
 {
     study_args a;
     pw_error err;
     pw_error_clear(&err);
-    int rc = parse(argc, argv, &a, &err);
-    if (rc == -1) {
-        usage(stdout);
-        return 0;
-    }
-    if (rc)
+    if (parse(argc, argv, &a, &err) != PW_OK)
         return pw_cli_fail(CMD, &err);
+    if (a.help) {
+        pw_cli_help(&study_spec, stdout);
+        return PW_OK;
+    }
+    pw_status rc = PW_OK;
     const pw_model_type *only = NULL;
     char names[256];
     if (a.model_name && !(only = pw_model_find(a.model_name)))
-        return pw_cli_failf(CMD, PW_EXIT_USAGE,
+        return pw_cli_failf(CMD, PW_EINVAL,
                             "unknown model '%s' (expected one of %s)", a.model_name,
                             pw_model_names(names, sizeof names));
     /* the column options are checked before any work, by the reflux parser itself */
     pw_reflux_args ra;
-    a.reflux_argv[1] = (char *)a.data; /* a placeholder path for the parse */
-    if ((rc = pw_reflux_parse_args(a.reflux_argc, a.reflux_argv, &ra, &err)) != 0)
-        return rc == -1 ? pw_cli_failf(CMD, PW_EXIT_USAGE, "see pinchwise study --help")
-                        : pw_cli_fail(CMD, &err);
+    if (pw_reflux_args_from(&a.opts, a.data /* a placeholder */, &ra, &err) != PW_OK)
+        return pw_cli_fail(CMD, &err);
     if (mkdir(a.out_dir, 0755) != 0 && errno != EEXIST)
-        return pw_cli_failf(CMD, pw_status_exit_code(PW_EIO), "%s: cannot create the folder",
+        return pw_cli_failf(CMD, PW_EIO, "%s: cannot create the folder",
                             a.out_dir);
 
     pw_complib lib;
@@ -238,7 +205,7 @@ int pw_cli_study(int argc, char **argv)
     if (!fits) {
         pw_consistency_result_free(&cr);
         pw_complib_free(&lib);
-        return pw_cli_failf(CMD, pw_status_exit_code(PW_ENOMEM), "out of memory");
+        return pw_cli_failf(CMD, PW_ENOMEM, "out of memory");
     }
     pw_fit_cli_opts co;
     memset(&co, 0, sizeof co);
@@ -277,11 +244,10 @@ int pw_cli_study(int argc, char **argv)
 
     /* 3. the column, 4. its uncertainty */
     step("solving the column", 3);
-    a.reflux_argv[1] = chosen->path;
-    pw_reflux_parse_args(a.reflux_argc, a.reflux_argv, &ra, &err);
+    pw_reflux_args_from(&a.opts, chosen->path, &ra, &err);
     ra.components = a.components;
     pw_reflux_run run;
-    if ((rc = pw_reflux_compute(&ra, &run, &err)) != 0) {
+    if ((rc = pw_reflux_compute(&ra, &run, &err)) != PW_OK) {
         rc = pw_cli_fail(CMD, &err);
         goto out;
     }
@@ -289,7 +255,7 @@ int pw_cli_study(int argc, char **argv)
     pw_reflux_uncert unc;
     memset(&unc, 0, sizeof unc);
     if (ra.uncertainty || ra.n_extra) {
-        if ((rc = pw_reflux_uncert_run(&ra, &run, &unc, &err)) != 0) {
+        if ((rc = pw_reflux_uncert_run(&ra, &run, &unc, &err)) != PW_OK) {
             pw_reflux_run_free(&run);
             rc = pw_cli_fail(CMD, &err);
             goto out;
@@ -321,7 +287,7 @@ int pw_cli_study(int argc, char **argv)
         if (snprintf(report_path, sizeof report_path, "%s/%s.report.html", a.out_dir, stem) >=
             (int)sizeof report_path) {
             pw_reflux_run_free(&run);
-            rc = pw_cli_failf(CMD, PW_EXIT_USAGE, "output path too long");
+            rc = pw_cli_failf(CMD, PW_EINVAL, "output path too long");
             goto out;
         }
     }
@@ -430,10 +396,10 @@ int pw_cli_study(int argc, char **argv)
         printf("  report                %s\n", report_path);
         printf("\n  Screening estimate only: verify with rigorous simulation and pilot data; size\n"
                "  equipment and relief per local codes under licensed engineering review.\n");
-        rc = fflush(stdout) ? pw_status_exit_code(PW_EIO) : 0;
+        rc = fflush(stdout) ? PW_EIO : 0;
     }
-    if (rc == 0 && a.exit_verdict && (!run.col.feasible || !cr.consistent))
-        rc = PW_CLI_EXIT_VERDICT;
+    if (rc == PW_OK && a.exit_verdict && (!run.col.feasible || !cr.consistent))
+        rc = PW_EINFEASIBLE;
     pw_reflux_run_free(&run);
 out:
     for (size_t i = 0; i < n_models; i++)

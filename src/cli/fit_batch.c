@@ -23,7 +23,7 @@ typedef struct job {
     char name[256];
     char input[PW_PATH_MAX];
     char path[PW_PATH_MAX];
-    int rc;
+    pw_status rc;
     bool converged;
     size_t n_pts;
     double chi2_red, aad_y, aad_T_K, aad_P_Pa;
@@ -80,11 +80,11 @@ static void *worker(void *arg)
     }
 }
 
-static int list_csv(const char *dir, job **jobs, size_t *n)
+static pw_status list_csv(const char *dir, job **jobs, size_t *n)
 {
     DIR *d = opendir(dir);
     if (!d)
-        return pw_cli_failf("fit", pw_status_exit_code(PW_EIO), "%s: cannot open folder: %s", dir,
+        return pw_cli_failf("fit", PW_EIO, "%s: cannot open folder: %s", dir,
                             strerror(errno));
     size_t cap = 16;
     *n = 0;
@@ -111,27 +111,27 @@ static int list_csv(const char *dir, job **jobs, size_t *n)
     }
     closedir(d);
     if (!*jobs)
-        return pw_cli_failf("fit", pw_status_exit_code(PW_ENOMEM), "out of memory");
+        return pw_cli_failf("fit", PW_ENOMEM, "out of memory");
     qsort(*jobs, *n, sizeof **jobs, cmp_names);
-    return 0;
+    return PW_OK;
 }
 
-int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *model,
+pw_status pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *model,
                  const pw_fit_cli_opts *co)
 {
     job *jobs = NULL;
     size_t n = 0;
-    int rc = list_csv(dir, &jobs, &n);
+    pw_status rc = list_csv(dir, &jobs, &n);
     if (rc != 0)
         return rc;
     if (n == 0) {
         free(jobs);
-        return pw_cli_failf("fit", pw_status_exit_code(PW_ENOTFOUND), "%s: no *.csv files", dir);
+        return pw_cli_failf("fit", PW_ENOTFOUND, "%s: no *.csv files", dir);
     }
     bool made_out_dir = mkdir(out_dir, 0777) == 0;
     if (!made_out_dir && errno != EEXIST) {
         free(jobs);
-        return pw_cli_failf("fit", pw_status_exit_code(PW_EIO), "%s: cannot create folder: %s",
+        return pw_cli_failf("fit", PW_EIO, "%s: cannot create folder: %s",
                             out_dir, strerror(errno));
     }
     /* --model all: one job per dataset and model, in file-name order, then the model table's */
@@ -140,7 +140,7 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
     job *all = calloc(n * n_models, sizeof *all);
     if (!all) {
         free(jobs);
-        return pw_cli_failf("fit", pw_status_exit_code(PW_ENOMEM), "out of memory");
+        return pw_cli_failf("fit", PW_ENOMEM, "out of memory");
     }
     for (size_t i = 0; i < n; i++)
         for (size_t m = 0; m < n_models; m++) {
@@ -235,7 +235,7 @@ int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *mode
                 fprintf(stderr, "pinchwise fit: %s\n", pw_error_format(&jobs[i].err, buf, sizeof buf));
             }
     /* CONTRACT: exit status 0 only when every file was fitted (the others are still written) */
-    int first_failure = 0;
+    pw_status first_failure = PW_OK;
     for (size_t i = 0; i < n && !first_failure; i++)
         first_failure = jobs[i].rc;
     if (first_failure && co->json)

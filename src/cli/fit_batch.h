@@ -8,7 +8,7 @@
  * out_dir using two worker threads; goes
  * on past files that fail. Prints a summary table or the JSON of CONTRACT.md. Exit code 0 when
  * at least one file was fitted. */
-int pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *model,
+pw_status pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *model,
                  const pw_fit_cli_opts *co);
 
 #endif

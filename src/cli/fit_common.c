@@ -41,7 +41,7 @@ void pw_fit_cli_print_diags(const char *input, const pw_fit_diags *d, bool range
     }
 }
 
-int pw_fit_one(const char *input, const pw_model_type *model, const char *out, const char *out_dir,
+pw_status pw_fit_one(const char *input, const pw_model_type *model, const char *out, const char *out_dir,
                const pw_fit_cli_opts *co, pw_fit_result *r, char *path, size_t path_len,
                pw_error *err)
 {
@@ -49,7 +49,7 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
     pw_dataset ds;
     pw_status st = pw_dataset_read(input, &ds, err);
     if (st != PW_OK)
-        return pw_status_exit_code(st);
+        return st;
     pw_component found[2];
     const pw_component *c1 = &found[0], *c2 = &found[1];
     st = pw_dataset_components(co->lib, &ds, found, err);
@@ -90,7 +90,7 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
     pw_dataset_free(&ds);
     if (st != PW_OK) {
         pw_outset_free(set);
-        return pw_status_exit_code(st);
+        return st;
     }
     if (!co->quiet || co->diags) {
         pw_fit_diags *d = co->diags ? co->diags : malloc(sizeof *d);
@@ -103,7 +103,7 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
             pw_error_set(err, st, input, 0, "fit diagnostics: %s", pw_strerror(st));
             pw_outset_free(set);
             pw_fit_result_free(r);
-            return pw_status_exit_code(st);
+            return st;
         }
     }
     st = pw_fitfile_stage(set, path, r, err);
@@ -112,9 +112,9 @@ int pw_fit_one(const char *input, const pw_model_type *model, const char *out, c
     pw_outset_free(set);
     if (st != PW_OK) {
         pw_fit_result_free(r);
-        return pw_status_exit_code(st);
+        return st;
     }
-    return 0;
+    return PW_OK;
 }
 
 json_t *pw_fit_cli_json(const pw_fit_result *r, const char *path)
@@ -126,7 +126,7 @@ typedef struct ranked {
     const pw_model_type *model;
     pw_fit_result r;
     char path[PW_PATH_MAX];
-    int rc;
+    pw_status rc;
     pw_error err;
 } ranked;
 
@@ -145,13 +145,13 @@ static json_t *az_json(const pw_rank_row *w)
     return azs;
 }
 
-int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_opts *co)
+pw_status pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_opts *co)
 {
     size_t n;
     const pw_model_type *const *models = pw_model_all(&n);
     ranked *res = calloc(n, sizeof *res);
     if (!res)
-        return pw_cli_failf("fit", pw_status_exit_code(PW_ENOMEM), "out of memory");
+        return pw_cli_failf("fit", PW_ENOMEM, "out of memory");
     size_t ok = 0;
     for (size_t i = 0; i < n; i++) {
         res[i].model = models[i];
@@ -178,7 +178,7 @@ int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_o
         for (size_t i = 0; i < n; i++)
             pw_fit_result_free(&res[i].r);
         free(res);
-        return pw_cli_failf("fit", pw_status_exit_code(PW_ENOMEM), "out of memory");
+        return pw_cli_failf("fit", PW_ENOMEM, "out of memory");
     }
     if (nf > 0 && pw_rank_assess(fits, nf, NULL, rk) != PW_OK)
         rk->n = 0;
@@ -194,7 +194,7 @@ int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_o
         pw_cli_warnf("fit", "%s: models that fit about equally well place the azeotrope between x1 = "
                      "%.3f and %.3f: judge them near the azeotrope, not by AAD alone",
                      input, rk->az_x_lo, rk->az_x_hi);
-    int rc = 0;
+    pw_status rc = PW_OK;
     if (co->json) {
         json_t *o = json_object();
         json_object_set_new(o, "ranking", json_string("sound fits (converged, no liquid split) by AICc "

@@ -28,8 +28,8 @@ void pw_fit_cli_print_diags(const char *input, const pw_fit_diags *d, bool range
 
 /* Reads input, fits model, writes the fit file (out, else out_dir/<stem>.<model>.json, else
  * fits/<stem>.<model>.json) and leaves the result in r (caller frees) and its path in path.
- * Returns 0, or the exit code with err filled (nothing written then). */
-int pw_fit_one(const char *input, const pw_model_type *model, const char *out, const char *out_dir,
+ * Returns PW_OK, or the status with err filled (nothing written then). */
+pw_status pw_fit_one(const char *input, const pw_model_type *model, const char *out, const char *out_dir,
                const pw_fit_cli_opts *co, pw_fit_result *r, char *path, size_t path_len,
                pw_error *err);
 
@@ -42,7 +42,8 @@ pw_status pw_fit_cli_tie_lines(const pw_lle_dataset *lle, const pw_dataset *ds,
  * "fit_file". New reference. */
 json_t *pw_fit_cli_json(const pw_fit_result *r, const char *path);
 
-/* --model all: fits every model, ranks them by AICc, prints table or JSON. Returns exit code. */
-int pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_opts *co);
+/* --model all: fits every model, ranks them by AICc, prints table or JSON. Returns PW_OK or the
+ * status of the failure (already reported). */
+pw_status pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_opts *co);
 
 #endif

@@ -2,6 +2,7 @@
 
 #include "cli.h"
 #include "cli_units.h"
+#include "cli_options.h"
 
 #include <math.h>
 #include <pinchwise/curve.h>
@@ -12,118 +13,98 @@
 #include <stdlib.h>
 #include <string.h>
 
-static int parse_factors(const char *text, pw_column_options *o, pw_error *err)
-{
-    o->n_factors = 0;
-    const char *p = text;
-    while (*p) {
-        char *end;
-        double f = strtod(p, &end);
-        bool decimal = strspn(p, "0123456789+-.eE") == (size_t)(end - p); /* no hex, no blanks */
-        if (end == p || !decimal || !isfinite(f) || f <= 1.0 || f > 100.0)
-            return pw_error_set(err, PW_EINVAL, NULL, 0,
-                                "--factors %s: expected multiples of R_min above 1 and at most 100, "
-                                "e.g. 1.2,1.3,1.5",
-                                text);
-        if (o->n_factors == PW_COLUMN_MAX_FACTORS)
-            return pw_error_set(err, PW_EINVAL, NULL, 0, "--factors: at most %d values",
-                                PW_COLUMN_MAX_FACTORS);
-        o->factors[o->n_factors++] = f;
-        p = end;
-        if (*p == ',')
-            p++;
-        else if (*p)
-            return pw_error_set(err, PW_EINVAL, NULL, 0,
-                                "--factors %s: expected comma-separated numbers", text);
-    }
-    return o->n_factors ? 0 : pw_error_set(err, PW_EINVAL, NULL, 0, "--factors: no values");
-}
+/* The reflux command's own options; the shared blocks follow (cli_options.h). */
+static const pw_cli_option reflux_options[] = {
+    {.name = "--energy", .kind = PW_CLI_FLAG,
+     .help = "energy balance on every stage (heats of vaporization and heat\n"
+             "capacities from the component data) instead of constant molal\n"
+             "overflow; adds condenser and reboiler duties"},
+    {.name = "--compare", .kind = PW_CLI_STRING, .metavar = "FIT.json", .repeatable = true,
+     .help = "another model's fit of the same data: R_min side by side, ranked\n"
+             "by AICc"},
+    PW_CLI_END,
+};
 
-int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err)
+static const pw_cli_option *const reflux_blocks[] = {
+    pw_cli_block_pressure, pw_cli_block_products, pw_cli_block_feed, pw_cli_block_factors,
+    reflux_options, pw_cli_block_uncertainty, pw_cli_block_components, pw_cli_block_minimum,
+    pw_cli_block_verdict, pw_cli_block_json, NULL,
+};
+
+const pw_cli_spec pw_reflux_spec = {
+    .cmd = "reflux",
+    .synopsis =
+        "usage: pinchwise reflux FIT.json --pressure P --xd X --xb X --zf X [--q Q] [options]\n"
+        "\n"
+        "Binary column, constant molal overflow (or energy balances with --energy), total\n"
+        "condenser, partial reboiler: minimum reflux with the limiting pinch, stages at total\n"
+        "reflux, and the design table at each factor. With --uncertainty: intervals of R_min,\n"
+        "boil-up and stages from the fit's parameter covariance, the feasibility risk, and\n"
+        "where to measure next.\n",
+    .blocks = reflux_blocks,
+    .max_positional = 1,
+    .positional = "one fit file",
+};
+
+pw_status pw_reflux_args_from(const pw_cli_args *p, const char *fit_path, pw_reflux_args *a,
+                              pw_error *err)
 {
     memset(a, 0, sizeof *a);
+    a->fit_path = fit_path;
     a->opt = pw_column_default_options();
-    pw_cli_targets tg = {.q = 1.0};
-    for (int i = 1; i < argc; i++) {
-        const char *v = NULL;
-        bool missing = false;
-        if (!strcmp(argv[i], "--help") || !strcmp(argv[i], "-h"))
-            return -1;
-        if (pw_cli_opt(argc, argv, &i, "--json", NULL, NULL)) {
-            a->json = true;
-            continue;
-        }
-        if (pw_cli_opt(argc, argv, &i, "--energy", NULL, NULL)) {
-            a->energy = true;
-            continue;
-        }
-        if (pw_cli_opt(argc, argv, &i, "--uncertainty", NULL, NULL)) {
-            a->uncertainty = true;
-            continue;
-        }
-        if (pw_cli_opt(argc, argv, &i, "--exit-verdict", NULL, NULL)) {
-            a->exit_verdict = true;
-            continue;
-        }
-        if (!strncmp(argv[i], "--", 2)) {
-            const char *opt = argv[i];
-            if (!(pw_cli_opt(argc, argv, &i, opt, &v, &missing)) || missing) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "%s needs a value", opt);
-                return PW_EXIT_USAGE;
-            }
-            int rc = 0, trc;
-            if ((trc = pw_cli_target_opt(opt, v, &tg, err)) >= 0) {
-                int k = !strcmp(opt, "--xd")   ? 0
-                        : !strcmp(opt, "--xb") ? 1
-                        : !strcmp(opt, "--zf") ? 2
-                                               : -1;
-                if (k >= 0)
-                    a->given[k] = v;
-                rc = trc; /* --pressure, --xd, --xb, --zf, --q: parsed into tg */
-            } else if (!strcmp(opt, "--components")) {
-                a->components = v;
-            } else if (!strcmp(opt, "--minimum")) {
-                a->minimum = v;
-            } else if (!strcmp(opt, "--factors") || !strcmp(opt, "--operating-factor")) {
-                rc = parse_factors(v, &a->opt, err) ? PW_EXIT_USAGE : 0;
-            } else if (!strcmp(opt, "--samples") || !strcmp(opt, "--seed") ||
-                       !strcmp(opt, "--compare")) {
-                /* options of the uncertainty extension: kept for it to read */
-                if (a->n_extra + 2 > (int)(sizeof a->extra / sizeof a->extra[0])) {
-                    pw_error_set(err, PW_EINVAL, NULL, 0, "too many options");
-                    return PW_EXIT_USAGE;
-                }
-                a->extra[a->n_extra++] = opt;
-                a->extra[a->n_extra++] = v;
-            } else {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "unknown option %s", opt);
-                return PW_EXIT_USAGE;
-            }
-            if (rc)
-                return rc;
-            continue;
-        }
-        if (a->fit_path) {
-            pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (one fit file)", argv[i]);
-            return PW_EXIT_USAGE;
-        }
-        a->fit_path = argv[i];
+    a->json = pw_cli_has(p, "--json");
+    a->energy = pw_cli_has(p, "--energy");
+    a->exit_verdict = pw_cli_has(p, "--exit-verdict");
+    a->components = pw_cli_text(p, "--components");
+    a->minimum = pw_cli_text(p, "--minimum");
+    const pw_cli_value *v = pw_cli_get(p, "--factors");
+    if (v) {
+        if (v->n_list > PW_COLUMN_MAX_FACTORS)
+            return pw_error_set(err, PW_EINVAL, NULL, 0, "%s: at most %d values", v->spelt,
+                                PW_COLUMN_MAX_FACTORS);
+        a->opt.n_factors = v->n_list;
+        memcpy(a->opt.factors, v->list, v->n_list * sizeof v->list[0]);
     }
+    /* the uncertainty step (reflux_uncert.c) reads these pairs */
+    a->uncertainty = pw_cli_has(p, "--uncertainty");
+    static const char *const extra[] = {"--samples", "--seed"};
+    for (size_t k = 0; k < 2; k++)
+        if ((v = pw_cli_get(p, extra[k]))) {
+            a->extra[a->n_extra++] = extra[k];
+            a->extra[a->n_extra++] = v->text;
+        }
+    for (v = pw_cli_next(p, "--compare", NULL); v; v = pw_cli_next(p, "--compare", v)) {
+        if (a->n_extra + 2 > (int)(sizeof a->extra / sizeof a->extra[0]))
+            return pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
+                                (int)(sizeof a->extra / sizeof a->extra[0]) / 2 - 2);
+        a->extra[a->n_extra++] = "--compare";
+        a->extra[a->n_extra++] = v->text;
+    }
+    pw_cli_targets tg;
+    pw_cli_targets_get(p, &tg, a->given);
     a->P_Pa = tg.P_Pa;
     a->spec = (pw_column_spec){.xd = tg.xd, .xb = tg.xb, .zf = tg.zf, .q = tg.q};
     a->have_P = tg.have_P, a->have_xd = tg.have_xd, a->have_xb = tg.have_xb;
     a->have_zf = tg.have_zf;
-    if (!a->fit_path || !a->have_P || !a->have_xd || !a->have_xb || !a->have_zf) {
-        pw_error_set(err, PW_EINVAL, NULL, 0,
-                     "a fit file and --pressure, --xd, --xb, --zf are required");
-        return PW_EXIT_USAGE;
-    }
     memcpy(a->basis, tg.basis, sizeof a->basis);
-    return 0;
+    if (!a->fit_path || !a->have_P || !a->have_xd || !a->have_xb || !a->have_zf)
+        return pw_error_set(err, PW_EINVAL, NULL, 0,
+                            "a fit file and --pressure, --xd, --xb, --zf are required");
+    return PW_OK;
+}
+
+pw_status pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err)
+{
+    pw_cli_args p;
+    memset(a, 0, sizeof *a);
+    pw_status st = pw_cli_parse(&pw_reflux_spec, argc, argv, &p, err);
+    if (st != PW_OK || (a->help = p.help))
+        return st;
+    return pw_reflux_args_from(&p, p.n_pos ? p.pos[0] : NULL, a, err);
 }
 
 /* The targets in mole fractions: xb < zf < xd, or xd < zf < xb (component 1 to the bottoms). */
-static int check_targets(const pw_column_spec *s, pw_error *err)
+static pw_status check_targets(const pw_column_spec *s, pw_error *err)
 {
     if (!((s->xb < s->zf && s->zf < s->xd) || (s->xd < s->zf && s->zf < s->xb))) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
@@ -131,12 +112,12 @@ static int check_targets(const pw_column_spec *s, pw_error *err)
                      "overhead) or xd < zf < xb (component 1 leaves with the bottoms); got xb %g, "
                      "zf %g, xd %g as mole fractions of component 1",
                      s->xb, s->zf, s->xd);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
-int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err)
+pw_status pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err)
 {
     memset(run, 0, sizeof *run);
     pw_status st = pw_cli_read_fit("reflux", a->fit_path, a->components, &run->fit, err);
@@ -144,7 +125,7 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
                                                   err)) != PW_OK)
         pw_fit_result_free(&run->fit);
     if (st != PW_OK)
-        return pw_status_exit_code(st);
+        return st;
     run->P_Pa = a->P_Pa;
     run->spec = a->spec;
     if (a->basis[0] == PW_BASIS_MASS || a->basis[1] == PW_BASIS_MASS ||
@@ -152,8 +133,8 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
         memcpy(run->given, a->given, sizeof run->given);
     st = pw_cli_targets_to_mole(&run->spec.xd, &run->spec.xb, &run->spec.zf, a->basis,
                                 &run->fit.sys, err);
-    int rc = st == PW_OK ? check_targets(&run->spec, err) : pw_status_exit_code(st);
-    if (rc != 0) {
+    pw_status rc = st == PW_OK ? check_targets(&run->spec, err) : st;
+    if (rc != PW_OK) {
         pw_fit_result_free(&run->fit);
         return rc;
     }
@@ -182,9 +163,9 @@ int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err
     if (st != PW_OK) {
         pw_design_table_free(&run->design);
         pw_fit_result_free(&run->fit);
-        return pw_status_exit_code(st);
+        return st;
     }
-    return 0;
+    return PW_OK;
 }
 
 void pw_reflux_run_free(pw_reflux_run *run)

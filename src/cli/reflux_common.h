@@ -9,6 +9,8 @@
 #include <pinchwise/units.h>
 #include <stdbool.h>
 
+#include "cli_options.h"
+
 typedef struct pw_reflux_args {
     const char *fit_path;
     const char *components; /* --components FILE: replaces vapor-pressure rows */
@@ -24,7 +26,8 @@ typedef struct pw_reflux_args {
     bool uncertainty;
     bool exit_verdict; /* --exit-verdict: status 7 for an infeasible split */
     const char *minimum; /* --minimum N as given, or NULL */
-    const char *extra[16];
+    bool help;           /* --help was asked for: nothing else is set */
+    const char *extra[20];
     int n_extra;
 } pw_reflux_args;
 
@@ -46,12 +49,22 @@ typedef struct pw_reflux_run {
 /* Frees what pw_reflux_compute allocated (the fit and the design table). */
 void pw_reflux_run_free(pw_reflux_run *run);
 
-/* Returns 0, -1 for --help, or an exit code with err filled. */
-int pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err);
+/* The reflux command's options (its --help is made from them). */
+extern const pw_cli_spec pw_reflux_spec;
 
-/* Reads the fit file and runs the column analysis. Returns 0 or an exit code with err. The caller
+/* Parses the reflux command's argv (pw_reflux_spec) into a; a->help when --help was asked for.
+ * PW_OK or PW_EINVAL with err. */
+pw_status pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err);
+
+/* The column arguments of parsed options p (any spec that holds the reflux options it uses:
+ * those it lacks are simply absent) and fit_path into a. PW_OK or PW_EINVAL with err when a
+ * required one is missing. */
+pw_status pw_reflux_args_from(const pw_cli_args *p, const char *fit_path, pw_reflux_args *a,
+                              pw_error *err);
+
+/* Reads the fit file and runs the column analysis. PW_OK or the status with err. The caller
  * frees run->fit. */
-int pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err);
+pw_status pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err);
 
 /* Warnings on stderr: temperatures outside a component's vapor-pressure range or the fit's data
  * range, non-converged fit, predicted liquid split. */

@@ -11,53 +11,53 @@
 
 #define MAX_SAMPLES 100000
 
-static int whole_number(const char *opt, const char *v, double lo, double hi, double *out,
+static pw_status whole_number(const char *opt, const char *v, double lo, double hi, double *out,
                         pw_error *err)
 {
     if (pw_cli_number(opt, v, out, err) != PW_OK)
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     if (*out != floor(*out) || *out < lo || *out > hi) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected a whole number from %.0f to %.0f",
                      opt, v, lo, hi);
-        return PW_EXIT_USAGE;
+        return PW_EINVAL;
     }
-    return 0;
+    return PW_OK;
 }
 
-static int parse_extra(const pw_reflux_args *a, pw_reflux_uncert *u, pw_error *err)
+static pw_status parse_extra(const pw_reflux_args *a, pw_reflux_uncert *u, pw_error *err)
 {
     for (int i = 0; i + 1 < a->n_extra; i += 2) {
         const char *opt = a->extra[i], *v = a->extra[i + 1];
         double d;
         if (!strcmp(opt, "--samples")) {
             if (whole_number(opt, v, 0.0, MAX_SAMPLES, &d, err))
-                return PW_EXIT_USAGE;
+                return PW_EINVAL;
             u->opt.samples = (size_t)d;
             u->propagate = true;
         } else if (!strcmp(opt, "--seed")) {
             if (whole_number(opt, v, 0.0, 4294967295.0, &d, err))
-                return PW_EXIT_USAGE;
+                return PW_EINVAL;
             u->opt.seed = (unsigned long)d;
             u->propagate = true;
         } else if (!strcmp(opt, "--compare")) {
             if (u->n_compare == PW_CLI_MAX_COMPARE) {
                 pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
                              PW_CLI_MAX_COMPARE);
-                return PW_EXIT_USAGE;
+                return PW_EINVAL;
             }
             u->compare_paths[u->n_compare++] = v;
         }
     }
-    return 0;
+    return PW_OK;
 }
 
-static int compare_models(const pw_reflux_args *a, const pw_reflux_run *run, pw_reflux_uncert *u,
+static pw_status compare_models(const pw_reflux_args *a, const pw_reflux_run *run, pw_reflux_uncert *u,
                           pw_error *err)
 {
     pw_fit_result *fits = calloc(u->n_compare, sizeof *fits);
     const pw_fit_result *ptr[PW_CLI_MAX_COMPARE + 1];
     if (!fits)
-        return pw_status_exit_code(pw_error_set(err, PW_ENOMEM, NULL, 0, "out of memory"));
+        return pw_error_set(err, PW_ENOMEM, NULL, 0, "out of memory");
     ptr[0] = &run->fit;
     snprintf(u->paths[0], sizeof u->paths[0], "%s", a->fit_path);
     pw_status st = PW_OK;
@@ -83,17 +83,17 @@ static int compare_models(const pw_reflux_args *a, const pw_reflux_run *run, pw_
     for (size_t i = 0; i < n_read; i++)
         pw_fit_result_free(&fits[i]);
     free(fits);
-    return st == PW_OK ? 0 : pw_status_exit_code(st);
+    return st == PW_OK ? 0 : st;
 }
 
-int pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_reflux_uncert *u,
+pw_status pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_reflux_uncert *u,
                          pw_error *err)
 {
     memset(u, 0, sizeof *u);
     u->opt = pw_unc_default_options();
     u->propagate = a->uncertainty;
-    int rc = parse_extra(a, u, err);
-    if (rc)
+    pw_status rc = parse_extra(a, u, err);
+    if (rc != PW_OK)
         return rc;
     u->col = pw_unc_column_ctx_make(run->P_Pa, &run->spec);
     u->col.opt = a->opt;
@@ -118,7 +118,7 @@ int pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_r
         u->opt.progress = NULL;
         u->opt.progress_ctx = NULL;
         if (st != PW_OK)
-            return pw_status_exit_code(st);
+            return st;
         u->res = as.res;
         u->plan_status = as.plan_status;
         u->plan = as.plan;

@@ -24,9 +24,9 @@ typedef struct pw_reflux_uncert {
     char paths[PW_CLI_MAX_COMPARE + 1][PW_PATH_MAX];
 } pw_reflux_uncert;
 
-/* Reads --samples/--seed/--compare from a->extra and runs what was asked for. Returns 0 or an
- * exit code with err filled. */
-int pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_reflux_uncert *u,
+/* Reads --samples/--seed/--compare from a->extra and runs what was asked for. PW_OK or the
+ * status with err filled. */
+pw_status pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_reflux_uncert *u,
                          pw_error *err);
 
 /* Adds the CONTRACT keys r_min_ci95 and feasible_probability (with --uncertainty) and the

@@ -102,7 +102,8 @@ grep -q "refusing to write over an input" err.txt || bad "fit over --lle: $(cat 
 (umask 077 && "$pw" fit data.csv --model wilson --out m077.json > /dev/null 2>&1 &&
   "$pw" report fit.json --out m077.html --svg m077s > /dev/null 2>&1)
 (umask 022 && "$pw" fit data.csv --model wilson --out m022.json > /dev/null 2>&1)
-(umask 027 && "$pw" fit data.csv --model wilson --out-dir m027d --model all > /dev/null 2>&1)
+# (one --model: a repeated option is refused since the option tables, cli_options.h)
+(umask 027 && "$pw" fit data.csv --out-dir m027d --model all > /dev/null 2>&1)
 ok
 [ "$(stat -c %a m077.json)" = 600 ] || bad "umask 077: fit file mode $(stat -c %a m077.json)"
 [ "$(stat -c %a m077.html)" = 600 ] || bad "umask 077: report mode $(stat -c %a m077.html)"
