@@ -33,6 +33,13 @@ pw_status fit_swap_components(pw_fit_result *r, const pw_complib *lib, bool chan
         if (!c)
             continue;
         next[i] = *c;
+        /* a constant the new row does not give (a file of vapor pressures only) stays the fit
+         * file's own: the row replaces what it states, nothing more */
+        if (!isfinite(next[i].V_L_cm3mol))
+            next[i].V_L_cm3mol = r->sys.comp[i].V_L_cm3mol;
+        for (size_t k = 0; k < PW_PROP_COUNT; k++)
+            if (!isfinite(next[i].prop[k]))
+                next[i].prop[k] = r->sys.comp[i].prop[k];
         /* keep the fit's spelling of the name (the file may list it as an alias) */
         snprintf(next[i].name, sizeof next[i].name, "%s", r->sys.comp[i].name);
         if (changed)

@@ -67,6 +67,11 @@ static const char *const REPLACEMENT_NO_RQ =
     "name,A,B,C,log,P_unit,T_unit,T_min,T_max,source,V_L\n"
     "methanol,16.61,3638.27,239.500,ln,kPa,C,-20,180,invented,42.5\n";
 
+/* Vapor pressures only (no constants): what a row does not state stays the fit file's own. */
+static const char *const REPLACEMENT_PSAT_ONLY =
+    "name,A,B,C,log,P_unit,T_unit,T_min,T_max,source\n"
+    "methanol,16.61,3638.27,239.500,ln,kPa,C,-20,180,invented\n";
+
 /* Invented T-x-y data at 1 atm from the system s (a little deterministic noise). */
 static void make_data(pw_dataset *ds, const pw_system *s, size_t n)
 {
@@ -242,6 +247,31 @@ static void explicit_wilson_ratio_stays(void **state)
     pw_fit_result_free(&r);
 }
 
+/* A row with a vapor pressure and no V_L keeps the fit file's volumes and so its Wilson ratio
+ * (a blank is "not stated", not "no volume": the ratio must not fall back to 1). */
+static void vapor_pressure_only_rows_keep_constants(void **state)
+{
+    (void)state;
+    char fpath[128], cpath[128];
+    const double truth[PW_MAX_PARAMS] = {150.0, 450.0, 18.07 / 40.73};
+    pw_fit_options o = pw_fit_default_options();
+    fit_file(&pw_model_wilson, truth, &o, "wp.json", fpath, sizeof fpath);
+    path_in(cpath, sizeof cpath, "psat_only.csv");
+    write_text(cpath, REPLACEMENT_PSAT_ONLY);
+    pw_fit_result plain, r;
+    pw_error err;
+    bool changed[2];
+    assert_int_equal(pw_fitfile_read(fpath, &plain, &err), PW_OK);
+    assert_int_equal(pw_fitfile_load(fpath, cpath, &r, changed, &err), PW_OK);
+    assert_true(changed[0] && !changed[1]);
+    assert_true(r.sys.comp[0].A == 16.61);                    /* the stated correlation */
+    assert_true(r.sys.comp[0].V_L_cm3mol == plain.sys.comp[0].V_L_cm3mol); /* kept */
+    assert_true(r.sys.params[2] == plain.sys.params[2]);
+    assert_true(max_T_shift(&plain, &r) > 0.05); /* the new vapor pressure did act */
+    pw_fit_result_free(&plain);
+    pw_fit_result_free(&r);
+}
+
 static void uniquac_r_and_q(void **state)
 {
     (void)state;
@@ -280,6 +310,7 @@ int main(void)
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(wilson_volumes_and_vapor_pressures),
         cmocka_unit_test(explicit_wilson_ratio_stays),
+        cmocka_unit_test(vapor_pressure_only_rows_keep_constants),
         cmocka_unit_test(uniquac_r_and_q),
     };
     return cmocka_run_group_tests(tests, setup, teardown);
