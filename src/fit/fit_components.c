@@ -33,13 +33,6 @@ pw_status fit_swap_components(pw_fit_result *r, const pw_complib *lib, bool chan
         if (!c)
             continue;
         next[i] = *c;
-        /* a constant the new row does not give (a file of vapor pressures only) stays the fit
-         * file's own: the row replaces what it states, nothing more */
-        if (!isfinite(next[i].V_L_cm3mol))
-            next[i].V_L_cm3mol = r->sys.comp[i].V_L_cm3mol;
-        for (size_t k = 0; k < PW_PROP_COUNT; k++)
-            if (!isfinite(next[i].prop[k]))
-                next[i].prop[k] = r->sys.comp[i].prop[k];
         /* keep the fit's spelling of the name (the file may list it as an alias) */
         snprintf(next[i].name, sizeof next[i].name, "%s", r->sys.comp[i].name);
         if (changed)
@@ -58,7 +51,18 @@ pw_status fit_swap_components(pw_fit_result *r, const pw_complib *lib, bool chan
         memcpy(was, r->sys.params, sizeof was);
         memcpy(now, r->sys.params, sizeof now);
         bool old_ok = m->from_components(&r->sys.comp[0], &r->sys.comp[1], was, NULL) == PW_OK;
-        bool new_ok = m->from_components(&next[0], &next[1], now, NULL) == PW_OK;
+        /* the fixed parameters from what the new rows state; a constant a row leaves blank (a
+         * file of vapor pressures only) is taken as the fit file's, not as unknown, so that
+         * such a row does not turn a Wilson volume ratio into 1 */
+        pw_component basis[2] = {next[0], next[1]};
+        for (int i = 0; i < 2; i++) {
+            if (!isfinite(basis[i].V_L_cm3mol))
+                basis[i].V_L_cm3mol = r->sys.comp[i].V_L_cm3mol;
+            for (size_t k = 0; k < PW_PROP_COUNT; k++)
+                if (!isfinite(basis[i].prop[k]))
+                    basis[i].prop[k] = r->sys.comp[i].prop[k];
+        }
+        bool new_ok = m->from_components(&basis[0], &basis[1], now, NULL) == PW_OK;
         for (size_t k = 0; old_ok && new_ok && k < m->n_params; k++)
             if (!r->fitted[k] && same_value(was[k], r->sys.params[k]))
                 r->sys.params[k] = now[k];

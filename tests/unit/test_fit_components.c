@@ -247,8 +247,9 @@ static void explicit_wilson_ratio_stays(void **state)
     pw_fit_result_free(&r);
 }
 
-/* A row with a vapor pressure and no V_L keeps the fit file's volumes and so its Wilson ratio
- * (a blank is "not stated", not "no volume": the ratio must not fall back to 1). */
+/* A row with a vapor pressure and no V_L replaces the fit file's row (the interface: the rows
+ * replace the fit file's) but keeps its Wilson ratio (a blank is "not stated", not "no volume":
+ * the ratio must not fall back to 1). */
 static void vapor_pressure_only_rows_keep_constants(void **state)
 {
     (void)state;
@@ -265,8 +266,8 @@ static void vapor_pressure_only_rows_keep_constants(void **state)
     assert_int_equal(pw_fitfile_load(fpath, cpath, &r, changed, &err), PW_OK);
     assert_true(changed[0] && !changed[1]);
     assert_true(r.sys.comp[0].A == 16.61);                    /* the stated correlation */
-    assert_true(r.sys.comp[0].V_L_cm3mol == plain.sys.comp[0].V_L_cm3mol); /* kept */
-    assert_true(r.sys.params[2] == plain.sys.params[2]);
+    assert_true(isnan(r.sys.comp[0].V_L_cm3mol)); /* the row replaces the fit file's row */
+    assert_true(r.sys.params[2] == plain.sys.params[2]); /* but not the ratio it does not state */
     assert_true(max_T_shift(&plain, &r) > 0.05); /* the new vapor pressure did act */
     pw_fit_result_free(&plain);
     pw_fit_result_free(&r);
