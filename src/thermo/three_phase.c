@@ -2,6 +2,8 @@
  * of a liquid inside the two-liquid region. See include/pinchwise/lle.h, docs/heterogeneous.md. */
 #include <pinchwise/lle.h>
 
+#include "thermo_internal.h"
+
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_roots.h>
 #include <math.h>
@@ -113,14 +115,16 @@ static pw_status three_phase_T(const pw_system *s, double T_K, size_t tpd, pw_th
 
 /* f(T) = P3(T) - P where the model splits; *split false where it does not. */
 static pw_status p3_minus(const pw_system *s, double P, double T, double *f, bool *split,
-                          pw_three_phase *tp)
+                          pw_three_phase *tp, bool prune)
 {
     /* A binary liquid can split only where d^2(G_mix/RT)/dx1^2 < 0 somewhere: where the
      * stability scan finds it positive everywhere, G_mix is convex and no split exists, so the
      * full liquid-liquid solve is skipped (most temperatures of a miscible system). */
-    double min_D, x_min;
-    pw_status st = pw_stability_min(s, T, &min_D, &x_min);
-    if (st == PW_OK && min_D > 0.0) {
+    double min_D = NAN, x_min;
+    pw_status st = PW_OK;
+    if (!prune || !pw_thermo_split_excluded(s, T, T))
+        st = pw_stability_min(s, T, &min_D, &x_min);
+    if (st == PW_OK && !(min_D <= 0.0)) {
         *split = false;
         *f = (double)NAN;
         memset(tp, 0, sizeof *tp);
@@ -146,7 +150,28 @@ static pw_status p3_minus(const pw_system *s, double P, double T, double *f, boo
     return PW_OK;
 }
 
+/* False when the three-phase pressure at grid point k is surely below P (see the scan). */
+static bool grid_live(const pw_system *s, double P_Pa, double T_lo, double T_hi, size_t k)
+{
+    double T = fmin(T_lo + (double)k * T3_STEP_K, T_hi), p1, p2;
+    if (pw_psat(&s->comp[0], T, &p1, NULL) != PW_OK || pw_psat(&s->comp[1], T, &p2, NULL) != PW_OK)
+        return true; /* the scan itself reports it */
+    return !((p1 + p2) * (1.0 + 1e-6) < P_Pa);
+}
+
+static pw_status scan_at_P(const pw_system *s, double P_Pa, pw_three_phase *out, bool prune);
+
 pw_status pw_three_phase_at_P(const pw_system *s, double P_Pa, pw_three_phase *out)
+{
+    return scan_at_P(s, P_Pa, out, true);
+}
+
+pw_status pw_thermo_three_phase_at_P_full(const pw_system *s, double P_Pa, pw_three_phase *out)
+{
+    return scan_at_P(s, P_Pa, out, false);
+}
+
+static pw_status scan_at_P(const pw_system *s, double P_Pa, pw_three_phase *out, bool prune)
 {
     if (!s || !s->model || !out)
         return PW_EINVAL;
@@ -169,13 +194,39 @@ pw_status pw_three_phase_at_P(const pw_system *s, double P_Pa, pw_three_phase *o
                            || pw_psat(&s->comp[1], T_lo, &dummy, NULL) != PW_OK))
         T_lo += T3_STEP_K;
     size_t n = (size_t)ceil((T_hi - T_lo) / T3_STEP_K);
+    /* Grid points that cannot matter are skipped: where P1sat + P2sat < P the three-phase
+     * pressure a1 P1sat + a2 P2sat is below P (a_i <= 1 in a stable split: the common tangent
+     * lies below Gmix/RT = 0 at both pure ends), so such a point neither ends the search nor
+     * closes a bracket; it is needed only as the lower end of a bracket, when its successor can
+     * reach P. The points left are those the scan would decide on, so the result is the same. */
+    size_t k_first = prune ? n + 1 : 0;
+    bool live_next = !prune || grid_live(s, P_Pa, T_lo, T_hi, 0);
+    for (size_t k = 0; prune && k <= n && k_first > n; k++) {
+        bool live = live_next;
+        live_next = k < n && grid_live(s, P_Pa, T_lo, T_hi, k + 1);
+        if (live || live_next)
+            k_first = k;
+    }
+    /* No split anywhere from there up (a proof: src/thermo/split_bound.c): none in range. */
+    if (prune && (k_first > n
+                  || pw_thermo_split_excluded(s, fmin(T_lo + (double)k_first * T3_STEP_K, T_hi), T_hi))) {
+        out->exists = false;
+        return PW_OK;
+    }
     double T_prev = NAN, f_prev = NAN;
     bool split_prev = false;
     pw_three_phase tp;
-    for (size_t k = 0; k <= n; k++) {
+    live_next = !prune || grid_live(s, P_Pa, T_lo, T_hi, k_first);
+    for (size_t k = k_first; k <= n; k++) {
         double T = fmin(T_lo + (double)k * T3_STEP_K, T_hi), f;
         bool split;
-        pw_status st = p3_minus(s, P_Pa, T, &f, &split, &tp);
+        bool live = live_next;
+        live_next = !prune || (k < n && grid_live(s, P_Pa, T_lo, T_hi, k + 1));
+        if (!live && !live_next) {
+            split_prev = false; /* f < 0 here and at the next point: no bracket ends there */
+            continue;
+        }
+        pw_status st = p3_minus(s, P_Pa, T, &f, &split, &tp, prune);
         if (st != PW_OK)
             return st;
         if (split && split_prev && f_prev < 0.0 && f >= 0.0) {
@@ -183,7 +234,7 @@ pw_status pw_three_phase_at_P(const pw_system *s, double P_Pa, pw_three_phase *o
             for (int it = 0; it < 100 && b - a > 1e-10 * b; it++) {
                 double m = 0.5 * (a + b), fm;
                 bool sm;
-                st = p3_minus(s, P_Pa, m, &fm, &sm, &tp);
+                st = p3_minus(s, P_Pa, m, &fm, &sm, &tp, prune);
                 if (st != PW_OK)
                     return st;
                 if (!sm)
@@ -222,7 +273,7 @@ static double near_fn(double T, void *p)
     pw_three_phase tp;
     double f;
     bool split;
-    pw_status st = p3_minus(c->s, c->P, T, &f, &split, &tp);
+    pw_status st = p3_minus(c->s, c->P, T, &f, &split, &tp, true);
     if (st != PW_OK || !split) {
         if (st != PW_OK && c->st == PW_OK)
             c->st = st;
