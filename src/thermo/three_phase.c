@@ -150,13 +150,77 @@ static pw_status p3_minus(const pw_system *s, double P, double T, double *f, boo
     return PW_OK;
 }
 
+#define BOUND_SAMPLES 15
+
+/* An upper bound of the three-phase pressure a1 P1sat + a2 P2sat at T, should the liquid split
+ * there. The common tangent of a stable split, u x + v (1 - x) with u = ln a1, v = ln a2, lies
+ * below Gmix/RT everywhere: at the pure ends (u, v <= 0) and at the sample points x_k (each a
+ * half-plane in (u, v)). The largest P1sat e^u + P2sat e^v over that polygon (a convex function:
+ * its maximum over a polygon bounded above is at a vertex) bounds P3 from above, without solving
+ * the split. Fewer constraints than the true ones only loosen the bound. INFINITY when the model
+ * cannot be evaluated. */
+static double p3_upper_bound(const pw_system *s, double T, double p1, double p2)
+{
+    /* constraint rows: a u + b v <= c */
+    double a[BOUND_SAMPLES + 2], b[BOUND_SAMPLES + 2], c[BOUND_SAMPLES + 2];
+    size_t m = 0;
+    a[m] = 1.0, b[m] = 0.0, c[m++] = 0.0;
+    a[m] = 0.0, b[m] = 1.0, c[m++] = 0.0;
+    for (int k = 1; k <= BOUND_SAMPLES; k++) {
+        double x = (double)k / (BOUND_SAMPLES + 1), g;
+        if (pw_lle_gmix(s, T, x, &g, NULL) != PW_OK || !isfinite(g))
+            return (double)INFINITY;
+        a[m] = x, b[m] = 1.0 - x, c[m++] = g + 1e-8 * (1.0 + fabs(g)); /* rounding slack */
+    }
+    double best = -(double)INFINITY;
+    for (size_t i = 0; i < m; i++)
+        for (size_t j = i + 1; j < m; j++) {
+            double det = a[i] * b[j] - a[j] * b[i];
+            if (fabs(det) < 1e-12)
+                continue;
+            double u = (c[i] * b[j] - c[j] * b[i]) / det, v = (a[i] * c[j] - a[j] * c[i]) / det;
+            bool ok = true;
+            for (size_t k = 0; k < m && ok; k++)
+                ok = a[k] * u + b[k] * v <= c[k] + 1e-12 * (1.0 + fabs(c[k]));
+            if (ok)
+                best = fmax(best, p1 * exp(u) + p2 * exp(v));
+        }
+    return best > -(double)INFINITY ? best : (double)INFINITY;
+}
+
 /* False when the three-phase pressure at grid point k is surely below P (see the scan). */
 static bool grid_live(const pw_system *s, double P_Pa, double T_lo, double T_hi, size_t k)
 {
     double T = fmin(T_lo + (double)k * T3_STEP_K, T_hi), p1, p2;
     if (pw_psat(&s->comp[0], T, &p1, NULL) != PW_OK || pw_psat(&s->comp[1], T, &p2, NULL) != PW_OK)
         return true; /* the scan itself reports it */
-    return !((p1 + p2) * (1.0 + 1e-6) < P_Pa);
+    if ((p1 + p2) * (1.0 + 1e-6) < P_Pa)
+        return false; /* a_i <= 1 */
+    return !(p3_upper_bound(s, T, p1, p2) * (1.0 + 1e-6) < P_Pa);
+}
+
+typedef struct near_ctx {
+    const pw_system *s;
+    double P;
+    pw_status st;
+    bool lost; /* the split vanished at a trial temperature */
+    bool prune; /* p3_minus may use the split proof */
+} near_ctx;
+
+static double near_fn(double T, void *p)
+{
+    near_ctx *c = p;
+    pw_three_phase tp;
+    double f;
+    bool split;
+    pw_status st = p3_minus(c->s, c->P, T, &f, &split, &tp, c->prune);
+    if (st != PW_OK || !split) {
+        if (st != PW_OK && c->st == PW_OK)
+            c->st = st;
+        c->lost = c->lost || !split;
+        return GSL_NAN;
+    }
+    return f;
 }
 
 static pw_status scan_at_P(const pw_system *s, double P_Pa, pw_three_phase *out, bool prune);
@@ -230,20 +294,28 @@ static pw_status scan_at_P(const pw_system *s, double P_Pa, pw_three_phase *out,
         if (st != PW_OK)
             return st;
         if (split && split_prev && f_prev < 0.0 && f >= 0.0) {
+            /* GSL Brent on the bracket (the split holds at both ends and cannot vanish inside a
+             * bracket of splits: PW_ENOCONV if it does), to the same width as a bisection would */
+            near_ctx c = {s, P_Pa, PW_OK, false, prune};
+            gsl_root_fsolver *rs = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+            if (!rs)
+                return PW_ENOMEM;
+            gsl_function F = {near_fn, &c};
             double a = T_prev, b = T;
-            for (int it = 0; it < 100 && b - a > 1e-10 * b; it++) {
-                double m = 0.5 * (a + b), fm;
-                bool sm;
-                st = p3_minus(s, P_Pa, m, &fm, &sm, &tp, prune);
-                if (st != PW_OK)
-                    return st;
-                if (!sm)
-                    return PW_ENOCONV; /* the split cannot vanish inside a bracket of splits */
-                if (fm < 0.0)
-                    a = m;
-                else
-                    b = m;
+            st = PW_OK;
+            if (gsl_root_fsolver_set(rs, &F, a, b) != GSL_SUCCESS)
+                st = PW_ENOCONV;
+            for (int it = 0; st == PW_OK && it < 100 && b - a > 1e-10 * b; it++) {
+                if (gsl_root_fsolver_iterate(rs) != GSL_SUCCESS)
+                    st = PW_ENOCONV;
+                a = gsl_root_fsolver_x_lower(rs);
+                b = gsl_root_fsolver_x_upper(rs);
             }
+            gsl_root_fsolver_free(rs);
+            if (c.st != PW_OK)
+                return c.st;
+            if (c.lost || st != PW_OK)
+                return PW_ENOCONV;
             st = pw_three_phase_at_T(s, 0.5 * (a + b), out);
             if (st != PW_OK)
                 return st;
@@ -260,29 +332,6 @@ static pw_status scan_at_P(const pw_system *s, double P_Pa, pw_three_phase *out,
     return PW_OK;
 }
 
-typedef struct near_ctx {
-    const pw_system *s;
-    double P;
-    pw_status st;
-    bool lost; /* the split vanished at a trial temperature */
-} near_ctx;
-
-static double near_fn(double T, void *p)
-{
-    near_ctx *c = p;
-    pw_three_phase tp;
-    double f;
-    bool split;
-    pw_status st = p3_minus(c->s, c->P, T, &f, &split, &tp, true);
-    if (st != PW_OK || !split) {
-        if (st != PW_OK && c->st == PW_OK)
-            c->st = st;
-        c->lost = c->lost || !split;
-        return GSL_NAN;
-    }
-    return f;
-}
-
 pw_status pw_three_phase_at_P_near(const pw_system *s, double P_Pa, double T_guess_K,
                                    pw_three_phase *out)
 {
@@ -290,7 +339,7 @@ pw_status pw_three_phase_at_P_near(const pw_system *s, double P_Pa, double T_gue
         return PW_EINVAL;
     if (!(P_Pa > 0.0) || !isfinite(P_Pa) || !(T_guess_K > 0.0) || !isfinite(T_guess_K))
         return PW_EDOM;
-    near_ctx c = {s, P_Pa, PW_OK, false};
+    near_ctx c = {s, P_Pa, PW_OK, false, true};
     double a = T_guess_K, fa = near_fn(a, &c);
     if (c.st != PW_OK)
         return c.st;
