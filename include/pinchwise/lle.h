@@ -19,7 +19,7 @@
  *      tangent by more than 1e-10.
  * Three-phase equilibrium (ideal vapor, modified Raoult's law): a1 = x_I gamma1(x_I) =
  * x_II gamma1(x_II), a2 likewise, P = a1 P1sat(T) + a2 P2sat(T), y3 = a1 P1sat / P. At fixed T it is
- * explicit after the LLE; at fixed P a root in T (bracketed on a 1 K grid, then bisection).
+ * explicit after the LLE; at fixed P a root in T (bracketed on a 1 K grid, then GSL Brent).
  * T in K, P in Pa, mole fractions of component 1. Methods and sources: docs/heterogeneous.md. */
 #ifndef PINCHWISE_LLE_H
 #define PINCHWISE_LLE_H
@@ -111,9 +111,11 @@ typedef struct pw_three_phase {
 pw_status pw_three_phase_at_T(const pw_system *s, double T_K, pw_three_phase *out);
 
 /* At fixed P: the temperature where the layers boil. The search runs from 80 K below the lower
- * pure boiling point up to the higher one on a 1 K grid (the LLE re-solved at each), so a
- * three-phase line anywhere in that range is found; exists = false when there is none (the
- * split vanishes first, or there is no split). */
+ * pure boiling point up to the higher one on a 1 K grid (the LLE re-solved at each grid
+ * temperature where the three-phase pressure could reach P, unless no split is proven for the
+ * rest of the range: docs/heterogeneous.md section 2), so a three-phase line anywhere in that
+ * range is found; exists = false when there is none (the split vanishes first, or there is no
+ * split). */
 pw_status pw_three_phase_at_P(const pw_system *s, double P_Pa, pw_three_phase *out);
 
 /* The same from a temperature guess (e.g. a measured three-phase temperature): the root of

@@ -215,6 +215,8 @@ static void run_lm(gsl_multifit_nlinear_workspace *w, gsl_multifit_nlinear_fdf *
     out->iterations = gsl_multifit_nlinear_niter(w);
     fit_unpack(fp, gsl_multifit_nlinear_position(w)->data, out->params);
     double *work = malloc(sizeof(double) * fp->n_res);
+    if (fp->T3_warm_K) /* the run's chi2 from the canonical three-phase start */
+        *fp->T3_warm_K = NAN;
     out->chi2 = work ? fit_chi2(fp, out->params, work) : (double)INFINITY;
     free(work);
     if (!isfinite(out->chi2)) {
@@ -534,6 +536,8 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
                             o.n_starts);
     }
     gsl_rng_set(rng, o.seed);
+    double T3_warm = NAN;
+    fp.T3_warm_K = &T3_warm;
     lm_ctx ctx = {.fp = &fp, .J_cache = J};
     memcpy(ctx.fitted_mask, out->fitted, sizeof ctx.fitted_mask);
     gsl_multifit_nlinear_fdf fdf = {.f = lm_f, .df = lm_df, .fvv = NULL, .n = fp.n_res,
@@ -551,6 +555,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
         make_start(out, &fp, rng, s, cand[n_cand].p);
         if (model->check(cand[n_cand].p) != PW_OK)
             continue;
+        T3_warm = NAN;
         cand[n_cand].chi2 = fit_chi2(&fp, cand[n_cand].p, work);
         ctx.n_fev++;
         if (isfinite(cand[n_cand].chi2))
@@ -565,6 +570,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     memcpy(best.params, out->sys.params, sizeof best.params);
     for (size_t c = 0; c < n_cand; c++) {
         run_result run;
+        T3_warm = NAN;
         run_lm(w, &fdf, &ctx, cand[c].p, &o, &run);
         out->iterations += run.iterations;
         out->n_runs++;
@@ -624,6 +630,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
         out->stderr_meaningful[k] = false;
     }
     double *f = malloc(sizeof(double) * fp.n_res);
+    fp.T3_warm_K = NULL;
     pw_status cst = f ? fit_eval(&fp, out->sys.params, f, J) : PW_ENOMEM;
     free(f);
     if (cst == PW_OK && out->dof > 0) {

@@ -20,6 +20,10 @@ typedef struct fit_problem {
      * (NULL: none) with a temperature guess for their three-phase state, and the tie lines. */
     const bool *three_phase;
     double T3_guess_K;
+    /* The last three-phase temperature found within the current LM run, the next evaluation's
+     * start (NULL or NAN: T3_guess_K). Reset before every run and before the final evaluation,
+     * so that each run and the reported state start from T3_guess_K. */
+    double *T3_warm_K;
     const pw_tie_line *ties;
     size_t n_ties;
     double sigma_x_lle;

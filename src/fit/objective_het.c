@@ -145,9 +145,13 @@ static pw_status het_isobaric(const fit_problem *fp, const pw_system *s, bool wa
                               fit_het_state *h)
 {
     pw_three_phase tp;
-    pw_status st = pw_three_phase_at_P_near(s, fp->P_fixed_Pa, fp->T3_guess_K, &tp);
+    bool warm = fp->T3_warm_K && isfinite(*fp->T3_warm_K);
+    pw_status st = pw_three_phase_at_P_near(s, fp->P_fixed_Pa, warm ? *fp->T3_warm_K : fp->T3_guess_K,
+                                            &tp);
     if (st != PW_OK || !tp.exists)
         return st;
+    if (fp->T3_warm_K)
+        *fp->T3_warm_K = tp.T_K;
     h->exists = true;
     h->T_K = tp.T_K;
     h->P_Pa = fp->P_fixed_Pa;

@@ -181,16 +181,44 @@ static pw_status branch_point(const pw_system *s, double T, double m, double ulo
         return st;
     if (el.dg > m || eh.dg < m)
         return PW_ERANGE;
-    for (int it = 0; it < 200 && uhi - ulo > 1e-14 * fmax(1.0, fabs(ulo)); it++) {
-        double um = 0.5 * (ulo + uhi);
+    /* Newton in u (dG'/du = D x (1 - x) > 0 on the branch) kept inside the bracket, with
+     * bisection wherever a step would leave it or shrink less than half the step before (the
+     * safeguard of Numerical Recipes' rtsafe); once Newton's step is below the tolerance, one
+     * step just past the estimated root closes the bracket. The bracket shrinks to the same width
+     * as plain bisection. */
+    double u = 0.5 * (ulo + uhi), dx = uhi - ulo, dx_old = dx;
+    for (int it = 0; it < 200; it++) {
+        double tol = 1e-14 * fmax(1.0, fabs(ulo));
+        if (uhi - ulo <= tol)
+            break;
         lle_eval em;
-        st = eval_at(s, T, xp_logit(um), &em);
+        xpt pu = xp_logit(u);
+        st = eval_at(s, T, pu, &em);
         if (st != PW_OK)
             return st;
+        if (em.dg == m) {
+            *out = pu;
+            *e = em;
+            return PW_OK;
+        }
         if (em.dg < m)
-            ulo = um;
+            ulo = u;
         else
-            uhi = um;
+            uhi = u;
+        double slope = em.D * pu.x * pu.xc, un = u - (em.dg - m) / slope;
+        if (!(slope > 0.0) || !(un > ulo && un < uhi) || fabs(2.0 * (un - u)) > fabs(dx_old)) {
+            dx_old = dx;
+            dx = 0.5 * (uhi - ulo);
+            un = ulo + dx;
+        } else {
+            dx_old = dx;
+            dx = un - u;
+            if (fabs(dx) < 0.25 * tol) /* step just past the root estimate */
+                un = fmin(fmax(un + (dx > 0.0 ? 0.25 : -0.25) * tol, ulo), uhi);
+        }
+        if (!(un > ulo && un < uhi))
+            un = 0.5 * (ulo + uhi);
+        u = un;
     }
     *out = xp_logit(0.5 * (ulo + uhi));
     return eval_at(s, T, *out, e);

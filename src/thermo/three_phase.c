@@ -2,6 +2,8 @@
  * of a liquid inside the two-liquid region. See include/pinchwise/lle.h, docs/heterogeneous.md. */
 #include <pinchwise/lle.h>
 
+#include "thermo_internal.h"
+
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_roots.h>
 #include <math.h>
@@ -113,14 +115,16 @@ static pw_status three_phase_T(const pw_system *s, double T_K, size_t tpd, pw_th
 
 /* f(T) = P3(T) - P where the model splits; *split false where it does not. */
 static pw_status p3_minus(const pw_system *s, double P, double T, double *f, bool *split,
-                          pw_three_phase *tp)
+                          pw_three_phase *tp, bool prune)
 {
     /* A binary liquid can split only where d^2(G_mix/RT)/dx1^2 < 0 somewhere: where the
      * stability scan finds it positive everywhere, G_mix is convex and no split exists, so the
      * full liquid-liquid solve is skipped (most temperatures of a miscible system). */
-    double min_D, x_min;
-    pw_status st = pw_stability_min(s, T, &min_D, &x_min);
-    if (st == PW_OK && min_D > 0.0) {
+    double min_D = NAN, x_min;
+    pw_status st = PW_OK;
+    if (!prune || !pw_thermo_split_excluded(s, T, T))
+        st = pw_stability_min(s, T, &min_D, &x_min);
+    if (st == PW_OK && !(min_D <= 0.0)) {
         *split = false;
         *f = (double)NAN;
         memset(tp, 0, sizeof *tp);
@@ -146,7 +150,92 @@ static pw_status p3_minus(const pw_system *s, double P, double T, double *f, boo
     return PW_OK;
 }
 
+#define BOUND_SAMPLES 15
+
+/* An upper bound of the three-phase pressure a1 P1sat + a2 P2sat at T, should the liquid split
+ * there. The common tangent of a stable split, u x + v (1 - x) with u = ln a1, v = ln a2, lies
+ * below Gmix/RT everywhere: at the pure ends (u, v <= 0) and at the sample points x_k (each a
+ * half-plane in (u, v)). The largest P1sat e^u + P2sat e^v over that polygon (a convex function:
+ * its maximum over a polygon bounded above is at a vertex) bounds P3 from above, without solving
+ * the split. Fewer constraints than the true ones only loosen the bound. INFINITY when the model
+ * cannot be evaluated. */
+static double p3_upper_bound(const pw_system *s, double T, double p1, double p2)
+{
+    /* constraint rows: a u + b v <= c */
+    double a[BOUND_SAMPLES + 2], b[BOUND_SAMPLES + 2], c[BOUND_SAMPLES + 2];
+    size_t m = 0;
+    a[m] = 1.0, b[m] = 0.0, c[m++] = 0.0;
+    a[m] = 0.0, b[m] = 1.0, c[m++] = 0.0;
+    for (int k = 1; k <= BOUND_SAMPLES; k++) {
+        double x = (double)k / (BOUND_SAMPLES + 1), g;
+        if (pw_lle_gmix(s, T, x, &g, NULL) != PW_OK || !isfinite(g))
+            return (double)INFINITY;
+        a[m] = x, b[m] = 1.0 - x, c[m++] = g + 1e-8 * (1.0 + fabs(g)); /* rounding slack */
+    }
+    double best = -(double)INFINITY;
+    for (size_t i = 0; i < m; i++)
+        for (size_t j = i + 1; j < m; j++) {
+            double det = a[i] * b[j] - a[j] * b[i];
+            if (fabs(det) < 1e-12)
+                continue;
+            double u = (c[i] * b[j] - c[j] * b[i]) / det, v = (a[i] * c[j] - a[j] * c[i]) / det;
+            bool ok = true;
+            for (size_t k = 0; k < m && ok; k++)
+                ok = a[k] * u + b[k] * v <= c[k] + 1e-12 * (1.0 + fabs(c[k]));
+            if (ok)
+                best = fmax(best, p1 * exp(u) + p2 * exp(v));
+        }
+    return best > -(double)INFINITY ? best : (double)INFINITY;
+}
+
+/* False when the three-phase pressure at grid point k is surely below P (see the scan). */
+static bool grid_live(const pw_system *s, double P_Pa, double T_lo, double T_hi, size_t k)
+{
+    double T = fmin(T_lo + (double)k * T3_STEP_K, T_hi), p1, p2;
+    if (pw_psat(&s->comp[0], T, &p1, NULL) != PW_OK || pw_psat(&s->comp[1], T, &p2, NULL) != PW_OK)
+        return true; /* the scan itself reports it */
+    if ((p1 + p2) * (1.0 + 1e-6) < P_Pa)
+        return false; /* a_i <= 1 */
+    return !(p3_upper_bound(s, T, p1, p2) * (1.0 + 1e-6) < P_Pa);
+}
+
+typedef struct near_ctx {
+    const pw_system *s;
+    double P;
+    pw_status st;
+    bool lost; /* the split vanished at a trial temperature */
+    bool prune; /* p3_minus may use the split proof */
+} near_ctx;
+
+static double near_fn(double T, void *p)
+{
+    near_ctx *c = p;
+    pw_three_phase tp;
+    double f;
+    bool split;
+    pw_status st = p3_minus(c->s, c->P, T, &f, &split, &tp, c->prune);
+    if (st != PW_OK || !split) {
+        if (st != PW_OK && c->st == PW_OK)
+            c->st = st;
+        c->lost = c->lost || !split;
+        return GSL_NAN;
+    }
+    return f;
+}
+
+static pw_status scan_at_P(const pw_system *s, double P_Pa, pw_three_phase *out, bool prune);
+
 pw_status pw_three_phase_at_P(const pw_system *s, double P_Pa, pw_three_phase *out)
+{
+    return scan_at_P(s, P_Pa, out, true);
+}
+
+pw_status pw_thermo_three_phase_at_P_full(const pw_system *s, double P_Pa, pw_three_phase *out)
+{
+    return scan_at_P(s, P_Pa, out, false);
+}
+
+static pw_status scan_at_P(const pw_system *s, double P_Pa, pw_three_phase *out, bool prune)
 {
     if (!s || !s->model || !out)
         return PW_EINVAL;
@@ -169,30 +258,64 @@ pw_status pw_three_phase_at_P(const pw_system *s, double P_Pa, pw_three_phase *o
                            || pw_psat(&s->comp[1], T_lo, &dummy, NULL) != PW_OK))
         T_lo += T3_STEP_K;
     size_t n = (size_t)ceil((T_hi - T_lo) / T3_STEP_K);
+    /* Grid points that cannot matter are skipped: where P1sat + P2sat < P the three-phase
+     * pressure a1 P1sat + a2 P2sat is below P (a_i <= 1 in a stable split: the common tangent
+     * lies below Gmix/RT = 0 at both pure ends), so such a point neither ends the search nor
+     * closes a bracket; it is needed only as the lower end of a bracket, when its successor can
+     * reach P. The points left are those the scan would decide on, so the result is the same. */
+    size_t k_first = prune ? n + 1 : 0;
+    bool live_next = !prune || grid_live(s, P_Pa, T_lo, T_hi, 0);
+    for (size_t k = 0; prune && k <= n && k_first > n; k++) {
+        bool live = live_next;
+        live_next = k < n && grid_live(s, P_Pa, T_lo, T_hi, k + 1);
+        if (live || live_next)
+            k_first = k;
+    }
+    /* No split anywhere from there up (a proof: src/thermo/split_bound.c): none in range. */
+    if (prune && (k_first > n
+                  || pw_thermo_split_excluded(s, fmin(T_lo + (double)k_first * T3_STEP_K, T_hi), T_hi))) {
+        out->exists = false;
+        return PW_OK;
+    }
     double T_prev = NAN, f_prev = NAN;
     bool split_prev = false;
     pw_three_phase tp;
-    for (size_t k = 0; k <= n; k++) {
+    live_next = !prune || grid_live(s, P_Pa, T_lo, T_hi, k_first);
+    for (size_t k = k_first; k <= n; k++) {
         double T = fmin(T_lo + (double)k * T3_STEP_K, T_hi), f;
         bool split;
-        pw_status st = p3_minus(s, P_Pa, T, &f, &split, &tp);
+        bool live = live_next;
+        live_next = !prune || (k < n && grid_live(s, P_Pa, T_lo, T_hi, k + 1));
+        if (!live && !live_next) {
+            split_prev = false; /* f < 0 here and at the next point: no bracket ends there */
+            continue;
+        }
+        pw_status st = p3_minus(s, P_Pa, T, &f, &split, &tp, prune);
         if (st != PW_OK)
             return st;
         if (split && split_prev && f_prev < 0.0 && f >= 0.0) {
+            /* GSL Brent on the bracket (the split holds at both ends and cannot vanish inside a
+             * bracket of splits: PW_ENOCONV if it does), to the same width as a bisection would */
+            near_ctx c = {s, P_Pa, PW_OK, false, prune};
+            gsl_root_fsolver *rs = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+            if (!rs)
+                return PW_ENOMEM;
+            gsl_function F = {near_fn, &c};
             double a = T_prev, b = T;
-            for (int it = 0; it < 100 && b - a > 1e-10 * b; it++) {
-                double m = 0.5 * (a + b), fm;
-                bool sm;
-                st = p3_minus(s, P_Pa, m, &fm, &sm, &tp);
-                if (st != PW_OK)
-                    return st;
-                if (!sm)
-                    return PW_ENOCONV; /* the split cannot vanish inside a bracket of splits */
-                if (fm < 0.0)
-                    a = m;
-                else
-                    b = m;
+            st = PW_OK;
+            if (gsl_root_fsolver_set(rs, &F, a, b) != GSL_SUCCESS)
+                st = PW_ENOCONV;
+            for (int it = 0; st == PW_OK && it < 100 && b - a > 1e-10 * b; it++) {
+                if (gsl_root_fsolver_iterate(rs) != GSL_SUCCESS)
+                    st = PW_ENOCONV;
+                a = gsl_root_fsolver_x_lower(rs);
+                b = gsl_root_fsolver_x_upper(rs);
             }
+            gsl_root_fsolver_free(rs);
+            if (c.st != PW_OK)
+                return c.st;
+            if (c.lost || st != PW_OK)
+                return PW_ENOCONV;
             st = pw_three_phase_at_T(s, 0.5 * (a + b), out);
             if (st != PW_OK)
                 return st;
@@ -209,29 +332,6 @@ pw_status pw_three_phase_at_P(const pw_system *s, double P_Pa, pw_three_phase *o
     return PW_OK;
 }
 
-typedef struct near_ctx {
-    const pw_system *s;
-    double P;
-    pw_status st;
-    bool lost; /* the split vanished at a trial temperature */
-} near_ctx;
-
-static double near_fn(double T, void *p)
-{
-    near_ctx *c = p;
-    pw_three_phase tp;
-    double f;
-    bool split;
-    pw_status st = p3_minus(c->s, c->P, T, &f, &split, &tp);
-    if (st != PW_OK || !split) {
-        if (st != PW_OK && c->st == PW_OK)
-            c->st = st;
-        c->lost = c->lost || !split;
-        return GSL_NAN;
-    }
-    return f;
-}
-
 pw_status pw_three_phase_at_P_near(const pw_system *s, double P_Pa, double T_guess_K,
                                    pw_three_phase *out)
 {
@@ -239,7 +339,7 @@ pw_status pw_three_phase_at_P_near(const pw_system *s, double P_Pa, double T_gue
         return PW_EINVAL;
     if (!(P_Pa > 0.0) || !isfinite(P_Pa) || !(T_guess_K > 0.0) || !isfinite(T_guess_K))
         return PW_EDOM;
-    near_ctx c = {s, P_Pa, PW_OK, false};
+    near_ctx c = {s, P_Pa, PW_OK, false, true};
     double a = T_guess_K, fa = near_fn(a, &c);
     if (c.st != PW_OK)
         return c.st;
