@@ -71,7 +71,8 @@ typedef struct pw_draw_phase {
     double fixed;                 /* P in Pa (isobaric) or T in K (isothermal) */
     double x[PW_DRAW_GRID];       /* liquid grid; also the vapor grid of the dew curve */
     double bub_T[PW_DRAW_GRID], bub_P[PW_DRAW_GRID], bub_y[PW_DRAW_GRID];
-    double dew_T[PW_DRAW_GRID], dew_P[PW_DRAW_GRID];  /* dew point of vapor y = x[k] */
+    double dew_T[PW_DRAW_GRID], dew_P[PW_DRAW_GRID];  /* dew point of vapor y = x[k]; NAN also
+                                     where the dew liquid would split (no stable state) */
     double lngamma[2][PW_DRAW_GRID];  /* at the bubble temperature (or the fixed T) */
     size_t n_failed;
     pw_draw_azeotropes az;
@@ -89,11 +90,13 @@ pw_status pw_draw_phase_compute(const pw_system *s, bool isothermal, double fixe
                                 pw_draw_phase *out);
 
 /* The equilibrium curve at a column pressure: y[k] = y*(x[k]) of the bubble point at P (the
- * curve the column module steps on; inside a two-liquid region the homogeneous branch, with
- * three_y set to the three-phase vapor there and NAN elsewhere, so both can be drawn). */
+ * curve the column module steps on; inside a two-liquid region the homogeneous, metastable
+ * branch). stable_y is the curve as the liquids behave: the three-phase vapor between the
+ * layers, y elsewhere; three_y holds the three-phase vapor between the layers and NAN elsewhere.
+ * Without a split stable_y equals y and three_y is all NAN. */
 typedef struct pw_draw_xy {
     double P_Pa;
-    double x[PW_DRAW_GRID], y[PW_DRAW_GRID], three_y[PW_DRAW_GRID];
+    double x[PW_DRAW_GRID], y[PW_DRAW_GRID], stable_y[PW_DRAW_GRID], three_y[PW_DRAW_GRID];
     size_t n_failed;
     pw_draw_azeotropes az;
 } pw_draw_xy;

@@ -79,6 +79,17 @@ static void binodal(const pw_system *s, pw_draw_phase *o)
     o->n_binodal = PW_DRAW_BINODAL;
 }
 
+/* A dew point whose liquid would split into two layers is no stable state (the vapor condenses
+ * to a layer at another temperature): left out of the drawn dew curve. Checked by the LLE at the
+ * dew temperature only for liquids between the three-phase layers. */
+static bool dew_unstable(const pw_system *s, const pw_three_phase *tp, const pw_eq_point *e)
+{
+    if (!tp->exists || !(e->x1 > tp->x[0] && e->x1 < tp->x[1]))
+        return false;
+    pw_lle_result r;
+    return pw_lle_solve(s, e->T_K, &r) == PW_OK && r.split && e->x1 > r.x[0] && e->x1 < r.x[1];
+}
+
 pw_status pw_draw_phase_compute(const pw_system *s, bool isothermal, double fixed,
                                 pw_draw_phase *o)
 {
@@ -124,8 +135,10 @@ pw_status pw_draw_phase_compute(const pw_system *s, bool isothermal, double fixe
             o->lngamma[1][i] = act.lngamma[1];
         }
         if ((isothermal ? pw_dew_P(s, fixed, x, &e) : pw_dew_T(s, fixed, x, &e)) == PW_OK) {
-            o->dew_T[i] = e.T_K;
-            o->dew_P[i] = e.P_Pa;
+            if (!dew_unstable(s, tp, &e)) {
+                o->dew_T[i] = e.T_K;
+                o->dew_P[i] = e.P_Pa;
+            }
         } else {
             o->n_failed++;
         }
@@ -156,6 +169,7 @@ pw_status pw_draw_xy_compute(const pw_system *s, double P_Pa, pw_draw_xy *o)
             o->y[i] = y;
         else
             o->n_failed++;
+        o->stable_y[i] = tp->exists && x > tp->x[0] && x < tp->x[1] ? tp->y1 : o->y[i];
     }
     return PW_OK;
 }

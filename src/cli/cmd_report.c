@@ -33,6 +33,8 @@ static void usage(FILE *f)
             "                          and with the column a \"how sure\" table and a band of\n"
             "                          sampled equilibrium curves near the pinch\n"
             "  --samples N             parameter sets drawn (default 400); --seed N (default 1)\n"
+            "  --show-in UNITS         temperature and/or pressure unit of the page, e.g. C,bar\n"
+            "                          (default K,kPa; --json output and CSV files unchanged)\n"
             "  --svg DIR               also write each plot as DIR/<name>.svg\n"
             "  --csv DIR               also write the curves behind the plots as DIR/<name>.csv\n"
             PW_CLI_HELP_COMPONENTS
@@ -46,6 +48,7 @@ static void usage(FILE *f)
 
 typedef struct report_args {
     const char *fit, *out, *svg, *csv, *components, *minimum;
+    pw_display_units units;  /* --show-in */
     bool json, force, energy;
     bool have_P, have_xd, have_xb, have_zf;
     double P_Pa, factor;
@@ -109,6 +112,7 @@ static size_t load_others(const report_args *a, const pw_fit_result *fit, pw_fit
 static int parse(int argc, char **argv, report_args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
+    a->units = pw_units_display_default();
     pw_cli_targets tg = {.q = 1.0};
     for (int i = 1; i < argc; i++) {
         const char *v = NULL;
@@ -130,7 +134,8 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
             const char *opt = argv[i];
             static const char *const known[] = {"--out", "--pressure", "--xd", "--xb", "--zf", "--q",
                                                 "--operating-factor", "--factors", "--svg", "--csv",
-                                                "--components", "--compare", "--minimum"};
+                                                "--components", "--compare", "--minimum",
+                                                "--show-in"};
             bool ok = false;
             for (size_t k = 0; k < sizeof known / sizeof known[0]; k++)
                 ok = ok || !strcmp(opt, known[k]);
@@ -152,6 +157,8 @@ static int parse(int argc, char **argv, report_args *a, pw_error *err)
                 a->components = v;
             else if (!strcmp(opt, "--minimum"))
                 a->minimum = v;
+            else if (!strcmp(opt, "--show-in"))
+                rc = pw_units_display_parse(v, &a->units, err) == PW_OK ? 0 : PW_EXIT_USAGE;
             else if (!strcmp(opt, "--compare")) {
                 if (a->n_compare == REPORT_MAX_OTHERS) {
                     pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
@@ -288,6 +295,7 @@ int pw_cli_report(int argc, char **argv)
     pw_report_input in = pw_report_default_input();
     in.fit = &fit;
     in.fit_path = a.fit;
+    in.units = a.units;
     if (a.have_P) {
         in.column = &a.spec;
         in.column_P_Pa = a.P_Pa;

@@ -242,9 +242,9 @@ pw_status pw_plot_xy(pw_sbuf *b, const pw_plot_xy_in *in)
         if (in->zoom) {
             snprintf(lab, sizeof lab, "%s pinch x = %.4f", pinch_kind_name(in->pinch.kind),
                      in->pinch.x);
-            bool right = px > 0.5 * f.width;
-            pw_svg_annotate(b, &f, in->pinch.x, in->pinch.y, right ? -20.0 : 20.0, 50.0,
-                            right ? "end" : "start", lab, C_BRICK);
+            /* into the empty lower right, below the operating lines */
+            double ty = fmin(f.height - f.mb - 30.0, py + 90.0);
+            pw_svg_annotate(b, &f, in->pinch.x, in->pinch.y, 24.0, ty - py, "start", lab, C_BRICK);
         } else {
             /* the label goes into the empty triangle below the diagonal */
             bool right = in->pinch.x > 0.5;

@@ -243,8 +243,9 @@ pw_status pw_report_render_plots(struct pw_report *rep, const pw_report_curves *
     if (c->column) {
         pw_report_P(u, c->P_col_Pa, 4, colcond, sizeof colcond);
         xy.condition = colcond;
-        xy.curve = set(c->xy.x, c->xy.y, PW_REPORT_GRID);
-        xy.three_phase = set(c->xy.x, c->xy.three_y, PW_REPORT_GRID);
+        xy.curve = set(c->xy.x, c->xy.stable_y, PW_REPORT_GRID);
+        if (c->xy.az.three_phase.exists)
+            xy.three_phase = set(c->xy.x, c->xy.three_y, PW_REPORT_GRID);
         for (size_t i = 0; i < c->xy.az.n; i++)
             az_x[i] = c->xy.az.az[i].x1;
         xy.azeotropes = set(az_x, az_x, c->xy.az.n);
