@@ -50,6 +50,7 @@ static const char *const STYLE =
     "section#answers h2{border:0;margin:10px 0 6px}\n"
     "dl.answers{display:grid;grid-template-columns:11em 1fr;gap:4px 16px;margin:0}\n"
     "dl.answers dt{font-weight:600}dl.answers dd{margin:0}\n"
+    "figure.pw-small svg{max-width:560px}\n"
     "figcaption{font-size:13.5px;color:var(--muted);margin-top:6px;max-width:640px}\n"
     ".pw-grid2{display:flex;flex-wrap:wrap;gap:10px 28px}\n"
     "footer{margin-top:34px;color:var(--muted);font-size:12.5px;border-top:1px solid var(--rule);"
@@ -532,6 +533,62 @@ static void energy_section(pw_sbuf *b, const pw_report_curves *c)
                     "per local codes under licensed review.</p>\n");
 }
 
+/* The decanter scheme (pinchwise/decanter.h) drawn when a heterogeneous azeotrope blocks the
+ * single column. */
+static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
+{
+    const pw_draw_decanter *d = &c->dc.decanter;
+    const pw_decanter_result *r = &d->res;
+    const pw_three_phase *tp = &r->decanter;
+    char t[320], t1[48];
+    pw_sbuf_puts(b, "<h3 id=\"decanter\">The decanter scheme</h3>\n<p>Fresh feed and both condensed "
+                    "overhead vapors enter one decanter at the three-phase temperature; the layer "
+                    "rich in component 1 tops stripping column A (bottoms x<sub>1</sub> = ");
+    pw_sbuf_printf(b, "%.4g), the other layer tops stripping column B (bottoms x<sub>1</sub> = %.4g). "
+                      "Each column has a partial reboiler and no condenser of its own; constant "
+                      "molal overflow.</p>\n",
+                   fmax(c->spec.xd, c->spec.xb), fmin(c->spec.xd, c->spec.xb));
+    if (d->status != PW_OK || !r->feasible) {
+        pw_sbuf_puts(b, "<p class=\"verdict-fail\">Not sized: ");
+        esc(b, d->status != PW_OK ? pw_strerror(d->status) : r->reason);
+        pw_sbuf_puts(b, "</p>\n");
+        return;
+    }
+    pw_sbuf_puts(b, "<table class=\"kv\">\n");
+    pw_report_T(&c->units, tp->T_K, 2, t1, sizeof t1);
+    snprintf(t, sizeof t, "%s; layers x\xe2\x82\x81 = %.4f and %.4f; vapor y\xe2\x82\x81 = %.4f", t1,
+             tp->x[0], tp->x[1], tp->y1);
+    kv(b, "Decanter (three-phase state)", t, false);
+    snprintf(t, sizeof t, "A %.4g, B %.4g mol per mol of feed (mass balance closes to %.1e)",
+             r->bottoms_per_mol_feed[0], r->bottoms_per_mol_feed[1], r->closure);
+    kv(b, "Bottoms flows", t, false);
+    pw_sbuf_puts(b, "</table>\n<table><tr><th>Column</th><th>Top (layer) x\xe2\x82\x81</th>"
+                    "<th>Bottoms x\xe2\x82\x81</th><th>Minimum boil-up V/B</th><th>Limit</th>"
+                    "<th>N<sub>min</sub></th><th>Drawn at V/B</th><th>Stages there</th></tr>\n");
+    const char *nm[2] = {"A", "B"};
+    const double bottoms[2] = {fmax(c->spec.xd, c->spec.xb), fmin(c->spec.xd, c->spec.xb)};
+    for (int i = 0; i < 2; i++) {
+        const pw_stripper_result *k = &r->col[i];
+        pw_sbuf_printf(b, "<tr><td>%s</td>", nm[i]);
+        num(b, r->top_x1[i], 4);
+        num(b, bottoms[i], 4);
+        num(b, k->boilup_min, 4);
+        pw_sbuf_printf(b, "<td>%s pinch at x\xe2\x82\x81 = %.4f</td>",
+                       k->tangent ? "tangent" : "top", k->x_pinch);
+        num(b, k->n_min, 3);
+        num(b, d->boilup[i], 4);
+        if (d->stairs[i].status == PW_OK)
+            num(b, d->stairs[i].stages, 3);
+        else
+            pw_sbuf_printf(b, "<td>not reached: %s</td>", pw_strerror(d->stairs[i].status));
+        pw_sbuf_puts(b, "</tr>\n");
+    }
+    pw_sbuf_printf(b, "</table>\n<p class=\"note\">Each column is drawn and stepped at %.2g times its "
+                      "minimum boil-up (the operating factor); stages include the partial reboiler, "
+                      "with a fractional last step. See docs/heterogeneous.md for the method.</p>\n",
+                   d->factor);
+}
+
 static void column_section(pw_sbuf *b, const pw_report_curves *c)
 {
     const pw_column_spec *sp = &c->spec;
@@ -559,7 +616,10 @@ static void column_section(pw_sbuf *b, const pw_report_curves *c)
         pw_sbuf_puts(b, "<p><strong class=\"verdict-fail\">This split cannot be made by ordinary "
                         "distillation at this pressure:</strong> ");
         esc(b, k->reason);
-        pw_sbuf_puts(b, "</p></section>\n");
+        pw_sbuf_puts(b, "</p>\n");
+        if (c->dc.hetero_blocked)
+            decanter_section(b, c);
+        pw_sbuf_puts(b, "</section>\n");
         return;
     }
     pw_sbuf_puts(b, "<table class=\"kv\">\n");
@@ -728,15 +788,27 @@ static void how_sure_section(pw_sbuf *b, const pw_report_curves *c)
 
 static void figure(pw_sbuf *b, const pw_report_file *f, const char *caption)
 {
-    pw_sbuf_puts(b, "<figure>\n");
+    /* the enlarged view is a small plot: shown at its own size, not the column's width */
+    pw_sbuf_puts(b, !strcmp(f->name, "xy_pinch.svg") ? "<figure class=\"pw-small\">\n" : "<figure>\n");
     pw_sbuf_puts(b, pw_sbuf_str(&f->text));
     pw_sbuf_puts(b, "<figcaption>");
     esc(b, caption);
     pw_sbuf_puts(b, "</figcaption></figure>\n");
 }
 
-static const char *caption_for(const char *name, bool column)
+static const char *caption_for(const char *name, const pw_report_curves *c)
 {
+    bool column = c->column;
+    if (!strcmp(name, "xy.svg") && column && c->dc.hetero_blocked)
+        return "Equilibrium curve at the column pressure (flat over the two-liquid region, shaded) "
+               "with the decanter scheme: each stripping column's operating line and stage steps "
+               "from its decanter layer to its bottoms.";
+    if (!strcmp(name, "xy_pinch.svg"))
+        return "The same construction enlarged around the limiting pinch, where the stage steps "
+               "crowd: every step drawn is one the column module counted.";
+    if (!strcmp(name, "models.svg"))
+        return "Every model fitted to these data, each in its own colour and dash, over the "
+               "measured points: where the curves part, the choice of model matters.";
     if (!strcmp(name, "xy.svg"))
         return column ? "Equilibrium curve at the column pressure with the construction: q-line, "
                         "operating lines at minimum reflux (dashed) and at the operating reflux "
@@ -747,6 +819,11 @@ static const char *caption_for(const char *name, bool column)
                "sets drawn from the fit's covariance (thin), the best fit (thick), the operating "
                "lines at minimum reflux of the best fit (dashed) and the pinch (star). Where the "
                "thin curves cross the dashed line, that parameter set needs more reflux.";
+    if ((!strcmp(name, "txy.svg") || !strcmp(name, "pxy.svg")) && c->phase.az.three_phase.exists)
+        return "Bubble (solid) and dew (dashed) curves of the model with the measured liquid "
+               "(filled circles) and vapor (open triangles) compositions. The liquids split: the "
+               "bubble curve is flat at the three-phase condition between the two layers "
+               "(squares), and the dotted lines below it bound the two-liquid region.";
     if (!strcmp(name, "txy.svg") || !strcmp(name, "pxy.svg"))
         return "Bubble (solid) and dew (dashed) curves of the model with the measured liquid "
                "(filled circles) and vapor (open triangles) compositions.";
@@ -944,6 +1021,20 @@ static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
             pw_sbuf_puts(b, ", is the one which goes to the bottoms");
         }
         answer_end(b);
+        const pw_draw_decanter *dk = &c->dc.decanter;
+        if (c->dc.hetero_blocked && dk->status == PW_OK && dk->res.feasible) {
+            char t1[48];
+            pw_report_T(&c->units, dk->res.decanter.T_K, 2, t1, sizeof t1);
+            answer(b, "Decanter scheme");
+            pw_sbuf_printf(b, "layers x\xe2\x82\x81 = %.4f and %.4f at %s; ", dk->res.decanter.x[0],
+                           dk->res.decanter.x[1], t1);
+            for (int i = 0; i < 2; i++)
+                pw_sbuf_printf(b, "%scolumn %s minimum V/B %.4g, %.3g stages at %.2g times it",
+                               i ? "; " : "", i ? "B" : "A", dk->res.col[i].boilup_min,
+                               dk->stairs[i].stages, dk->factor);
+            pw_sbuf_puts(b, " <a href=\"#decanter\">details</a>");
+            answer_end(b);
+        }
         if (c->dc.status == PW_OK && k->feasible) {
             answer(b, "Minimum reflux");
             pw_sbuf_printf(b, "R<sub>min</sub> = %.4g, %s pinch in the %s section at x = %.4f",
@@ -1060,7 +1151,7 @@ pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c
                         "below as provisional.</p>\n");
     pw_sbuf_puts(b, "<section id=\"plots\"><h2>Plots</h2>\n");
     for (size_t i = 0; i < rep->n_svg; i++)
-        figure(b, &rep->svg[i], caption_for(rep->svg[i].name, c->column));
+        figure(b, &rep->svg[i], caption_for(rep->svg[i].name, c));
     pw_sbuf_puts(b, "</section>\n");
     parameters(b, r, &c->units);
     deviations(b, r, &c->units);
