@@ -1083,7 +1083,11 @@ static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
     const char *warn[6];
     if (!r->converged)
         warn[nw++] = "the fit did not converge: every number is provisional";
-    if (r->split)
+    if (r->split && c->phase.az.three_phase.exists)
+        warn[nw++] = "the fitted parameters predict two liquid layers at the boiling point: the page "
+                     "draws the three-phase line and the two-liquid region; check the layers "
+                     "against measured solubilities";
+    else if (r->split)
         warn[nw++] = "the fitted parameters predict a liquid-liquid split: one-liquid results may be wrong";
     if (c->cons_ran && !c->cons.consistent)
         warn[nw++] = "the measured data are not shown consistent: check them before designing";
