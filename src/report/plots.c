@@ -307,7 +307,7 @@ pw_status pw_plot_phase(pw_sbuf *b, const pw_plot_phase_in *in)
     pw_style lay = st_mark(C_TEAL, PW_MARK_SQUARE, true, 8.0);
     if (split) {
         draw_set(b, &f, &in->layers, &lay, false, "pw-points pw-layers");
-        snprintf(lab, sizeof lab, "liquid layers x = %.3f and %.3f (decanter)", in->layers.x[0],
+        snprintf(lab, sizeof lab, "two liquid layers, x = %.3f and %.3f", in->layers.x[0],
                  in->layers.x[1]);
         pw_legend_add(&lg, lab, &lay, false);
     }
