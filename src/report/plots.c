@@ -161,7 +161,12 @@ pw_status pw_plot_xy(pw_sbuf *b, const pw_plot_xy_in *in)
             draw_set(b, &f, &in->op_min, &rmin, true, "pw-curve pw-oplines-rmin");
             pw_style rop = st_line(C_AMBER, 2.2, NULL);
             draw_set(b, &f, &in->op, &rop, true, "pw-curve pw-oplines-rop");
-            snprintf(lab, sizeof lab, "stage steps at R = %.3g (%.1f stages)", in->r_op, in->stages);
+            if (isfinite(in->stages) && in->steps.n)
+                snprintf(lab, sizeof lab, "stage steps at R = %.3g (%.1f stages)", in->r_op,
+                         in->stages);
+            else
+                snprintf(lab, sizeof lab, "no stage steps: the column cannot be stepped at R = %.3g",
+                         in->r_op);
             pw_legend_add(&lg, lab, &steps, true);
             pw_legend_add(&lg, "q-line", &qline, true);
             snprintf(lab, sizeof lab, "operating lines at R_min = %.3g", in->r_min);
