@@ -5,8 +5,8 @@
  * errors, 95 % intervals and correlations; deviations; ln gamma at infinite dilution; liquid-split
  * screen; distinct minima), the consistency tests of the measured points, the azeotropes of the
  * model, and with a column specification the reflux and stage design table, followed by the
- * cautions. Everything is computed here from the fit result (bubble and dew points of r->sys):
- * the caller passes plain inputs. Nothing in the page is fetched from anywhere. See docs/report.md.
+ * cautions. The numbers come from the library (what to draw: pinchwise/drawing.h; the
+ * assessments); the report only renders them. The caller passes plain inputs. Nothing in the page is fetched from anywhere. See docs/report.md.
  *
  * Lifecycle: pw_report_build -> pw_report_save_html / _save_svg / _save_csv -> pw_report_free.
  * All files are written atomically (temporary file beside the target, then moved into place);
@@ -18,6 +18,7 @@
 #include <pinchwise/fit.h>
 #include <pinchwise/status.h>
 #include <pinchwise/uncertainty.h>
+#include <pinchwise/units.h>
 #include <stdbool.h>
 #include <stddef.h>
 
@@ -46,9 +47,11 @@ typedef struct pw_report_input {
     bool energy;                   /* with a column: add the energy-balance column (R_min, pinch,
                                       design rows with condenser and reboiler duties) from the
                                       fit's heat data; missing data are named in the page */
+    pw_display_units units;        /* units of the temperatures and pressures shown (page, plots,
+                                      CSV headers say theirs); default K and kPa */
 } pw_report_input;
 
-/* Plain defaults: everything NULL/0, unc = pw_unc_default_options(). */
+/* Plain defaults: everything NULL/0, unc = pw_unc_default_options(), units K and kPa. */
 pw_report_input pw_report_default_input(void);
 
 typedef struct pw_report pw_report;

@@ -78,6 +78,29 @@ pw_status pw_units_parse_composition(const char *text, double *value, pw_basis *
 double pw_units_mass_to_mole(double w, double M1, double M2);
 double pw_units_mole_to_mass(double x, double M1, double M2);
 
+/* Units chosen for display (text and the report); computation and JSON stay in K and Pa.
+ * T and P hold canonical spellings (pw_units_canonical), for example "C" and "bar". */
+typedef struct pw_display_units {
+    char T[8];
+    char P[8];
+} pw_display_units;
+
+/* K and kPa. */
+pw_display_units pw_units_display_default(void);
+/* Parses a comma-separated list of one temperature and/or one pressure unit, in any order
+ * ("C,bar", "degF", "kPa,K", "\u00b0C, atm"; blanks around items allowed); a quantity not named
+ * keeps its default. PW_EINVAL naming the item for an unknown unit, an empty item, or two units
+ * of the same quantity. */
+pw_status pw_units_display_parse(const char *text, pw_display_units *out, pw_error *err);
+/* A temperature in K, a temperature difference in K, a pressure in Pa, in the display units. */
+double pw_units_display_T(const pw_display_units *u, double T_K);
+double pw_units_display_dT(const pw_display_units *u, double dT_K);
+double pw_units_display_P(const pw_display_units *u, double P_Pa);
+/* The symbol to print after a displayed value: "K", "\u00b0C", "\u00b0F"; "kPa", "bar", ...
+ * (UTF-8, static). */
+const char *pw_units_display_T_symbol(const pw_display_units *u);
+const char *pw_units_display_P_symbol(const pw_display_units *u);
+
 #ifdef __cplusplus
 }
 #endif

@@ -1,6 +1,6 @@
 /* Stage-by-stage stepping on the x-y diagram (McCabe & Thiele 1925), total condenser and
  * partial reboiler (the reboiler is the last stage), fractional last step. See docs/column.md. */
-#include "analysis/column_internal.h"
+#include "analysis/staircase_internal.h"
 
 #include <math.h>
 
@@ -11,6 +11,13 @@ static bool spec_ok(const pw_column_spec *s)
 
 pw_status pw_column_step_ws(pw_column_ws *w, const pw_column_spec *s, bool total, double R,
                             size_t max_stages, double *stages, int *feed_stage)
+{
+    return pw_column_step_trace_ws(w, s, total, R, max_stages, stages, feed_stage, NULL);
+}
+
+pw_status pw_column_step_trace_ws(pw_column_ws *w, const pw_column_spec *s, bool total, double R,
+                                  size_t max_stages, double *stages, int *feed_stage,
+                                  pw_stair_trace *trace)
 {
     const double xd = s->xd, xb = s->xb;
     double m = 1.0, sl = 1.0, xi = NAN;
@@ -25,11 +32,13 @@ pw_status pw_column_step_ws(pw_column_ws *w, const pw_column_spec *s, bool total
     }
     double x_prev = xd, y = xd;
     int feed = 0;
+    pw_stair_trace_add(trace, xd, xd);
     for (size_t n = 1; n <= max_stages; n++) {
         double x;
         pw_status st = pw_column_x_of_y(w, y, xb, &x);
         if (st != PW_OK)
             return st;
+        pw_stair_trace_add(trace, x, y);
         if (x <= xb) {
             *stages = (double)(n - 1) + (x_prev - xb) / (x_prev - x);
             if (feed_stage)
@@ -45,6 +54,7 @@ pw_status pw_column_step_ws(pw_column_ws *w, const pw_column_spec *s, bool total
                 feed = (int)n;
             y = feed ? sl * x - (sl - 1.0) * xb : m * x + (1.0 - m) * xd;
         }
+        pw_stair_trace_add(trace, x, y);
         x_prev = x;
     }
     return PW_EMAXITER;

@@ -1,6 +1,8 @@
 /* Stripping columns fed on top, the decanter scheme for heterogeneous binaries, and the single
  * column's refusal to cross a heterogeneous azeotrope. See include/pinchwise/decanter.h and
  * docs/heterogeneous.md. */
+#include "analysis/staircase_internal.h"
+
 #include <pinchwise/curve.h>
 #include <pinchwise/decanter.h>
 
@@ -155,12 +157,19 @@ static pw_status x_of_y(const pw_curve *curve, const pw_stripper_spec *sp, doubl
 pw_status pw_stripper_stages(const pw_curve *curve, const pw_stripper_spec *sp, double S,
                              size_t max_stages, double *stages)
 {
+    return pw_stripper_stages_trace(curve, sp, S, max_stages, stages, NULL);
+}
+
+pw_status pw_stripper_stages_trace(const pw_curve *curve, const pw_stripper_spec *sp, double S,
+                                   size_t max_stages, double *stages, pw_stair_trace *trace)
+{
     if (!curve || !sp || !stages || !(S > 0.0) || max_stages == 0)
         return PW_EINVAL;
     double dir = sp->x_bottom > sp->x_top ? 1.0 : -1.0;
     double x = sp->x_top;
     for (size_t n = 0; n < max_stages; n++) {
         double y = isinf(S) ? x : x + (x - sp->x_bottom) / S;
+        pw_stair_trace_add(trace, x, y);
         double xn;
         pw_status st = x_of_y(curve, sp, y, &xn);
         if (st == PW_ENOBRACKET)
@@ -169,6 +178,7 @@ pw_status pw_stripper_stages(const pw_curve *curve, const pw_stripper_spec *sp, 
             return st;
         if (!(dir * (xn - x) > 0.0))
             return PW_EINFEASIBLE; /* no progress: at or below the minimum boil-up */
+        pw_stair_trace_add(trace, xn, y);
         if (dir * (xn - sp->x_bottom) >= 0.0) {
             *stages = (double)n + (x - sp->x_bottom) / (x - xn);
             return PW_OK;

@@ -9,6 +9,7 @@
 #include <errno.h>
 #include <math.h>
 #include <stdbool.h>
+#include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 #include <strings.h>
@@ -349,4 +350,99 @@ double pw_units_mole_to_mass(double x, double M1, double M2)
         return 1.0;
     double m1 = x * M1, m2 = (1.0 - x) * M2;
     return m1 / (m1 + m2);
+}
+
+/* ---- display units ---- */
+
+pw_display_units pw_units_display_default(void)
+{
+    pw_display_units u = {"K", "kPa"};
+    return u;
+}
+
+pw_status pw_units_display_parse(const char *text, pw_display_units *out, pw_error *err)
+{
+    pw_display_units u = pw_units_display_default();
+    bool have_T = false, have_P = false;
+    if (!text || !out)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "no display units given");
+    const char *p = text;
+    for (;;) {
+        size_t n = strcspn(p, ",");
+        char item[32];
+        size_t a = 0, b = n;
+        while (a < b && isspace((unsigned char)p[a]))
+            a++;
+        while (b > a && isspace((unsigned char)p[b - 1]))
+            b--;
+        if (b == a || b - a >= sizeof item)
+            return pw_error_set(err, PW_EINVAL, NULL, 0,
+                                "display units \"%s\": expected a temperature unit and/or a "
+                                "pressure unit separated by a comma, such as C,bar",
+                                text);
+        memcpy(item, p + a, b - a);
+        item[b - a] = '\0';
+        const char *t = pw_units_canonical(PW_QTY_TEMPERATURE, item);
+        const char *q = t ? NULL : pw_units_canonical(PW_QTY_PRESSURE, item);
+        if (!t && !q)
+            return pw_error_set(err, PW_EINVAL, NULL, 0,
+                                "display units \"%s\": \"%s\" is neither a temperature unit (%s) "
+                                "nor a pressure unit (%s)",
+                                text, item, pw_units_list(PW_QTY_TEMPERATURE),
+                                pw_units_list(PW_QTY_PRESSURE));
+        if ((t && have_T) || (q && have_P))
+            return pw_error_set(err, PW_EINVAL, NULL, 0,
+                                "display units \"%s\": two %s units", text,
+                                t ? "temperature" : "pressure");
+        if (t) {
+            snprintf(u.T, sizeof u.T, "%s", t);
+            have_T = true;
+        } else {
+            snprintf(u.P, sizeof u.P, "%s", q);
+            have_P = true;
+        }
+        if (p[n] != ',')
+            break;
+        p += n + 1;
+    }
+    *out = u;
+    return PW_OK;
+}
+
+double pw_units_display_T(const pw_display_units *u, double T_K)
+{
+    double v;
+    return pw_units_from_si(PW_QTY_TEMPERATURE, T_K, u->T, &v) == PW_OK ? v : T_K;
+}
+
+double pw_units_display_dT(const pw_display_units *u, double dT_K)
+{
+    double scale, offset;
+    if (pw_units_affine(PW_QTY_TEMPERATURE, u->T, &scale, &offset) != PW_OK)
+        return dT_K;
+    return dT_K / scale;
+}
+
+double pw_units_display_P(const pw_display_units *u, double P_Pa)
+{
+    double v;
+    return pw_units_from_si(PW_QTY_PRESSURE, P_Pa, u->P, &v) == PW_OK ? v : P_Pa / 1e3;
+}
+
+const char *pw_units_display_T_symbol(const pw_display_units *u)
+{
+    const char *t = pw_units_canonical(PW_QTY_TEMPERATURE, u->T);
+    if (!t)
+        return "K";
+    if (!strcmp(t, "C"))
+        return "\xc2\xb0" "C";
+    if (!strcmp(t, "F"))
+        return "\xc2\xb0" "F";
+    return "K";
+}
+
+const char *pw_units_display_P_symbol(const pw_display_units *u)
+{
+    const char *p = pw_units_canonical(PW_QTY_PRESSURE, u->P);
+    return p ? p : "kPa";
 }

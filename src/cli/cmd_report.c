@@ -37,6 +37,9 @@ static const pw_cli_option report_options[] = {
     {.name = "--energy", .kind = PW_CLI_FLAG,
      .help = "with the column: also the energy-balance column (needs heat\n"
              "data in the component rows)"},
+    {.name = "--show-in", .kind = PW_CLI_STRING, .metavar = "UNITS",
+     .help = "temperature and/or pressure unit of the page, e.g. C,bar\n"
+             "(default K,kPa; --json output and CSV files unchanged)"},
     {.name = "--svg", .kind = PW_CLI_STRING, .metavar = "DIR",
      .help = "also write each plot as DIR/<name>.svg"},
     {.name = "--csv", .kind = PW_CLI_STRING, .metavar = "DIR",
@@ -78,6 +81,7 @@ static const pw_cli_spec report_spec = {
 typedef struct report_args {
     bool help; /* --help was asked for: nothing else is set */
     const char *fit, *out, *svg, *csv, *components, *minimum;
+    pw_display_units units;  /* --show-in */
     bool json, force, energy;
     bool have_P, have_xd, have_xb, have_zf;
     double P_Pa, factor;
@@ -156,6 +160,10 @@ static pw_status parse(int argc, char **argv, report_args *a, pw_error *err)
     a->csv = pw_cli_text(&p, "--csv");
     a->components = pw_cli_text(&p, "--components");
     a->minimum = pw_cli_text(&p, "--minimum");
+    a->units = pw_units_display_default();
+    const char *show_in = pw_cli_text(&p, "--show-in");
+    if (show_in && pw_units_display_parse(show_in, &a->units, err) != PW_OK)
+        return PW_EINVAL;
     for (const pw_cli_value *v = pw_cli_next(&p, "--compare", NULL); v;
          v = pw_cli_next(&p, "--compare", v)) {
         if (a->n_compare == REPORT_MAX_OTHERS) {
@@ -272,6 +280,7 @@ pw_status pw_cli_report(int argc, char **argv)
     pw_report_input in = pw_report_default_input();
     in.fit = &fit;
     in.fit_path = a.fit;
+    in.units = a.units;
     if (a.have_P) {
         in.column = &a.spec;
         in.column_P_Pa = a.P_Pa;

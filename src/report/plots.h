@@ -19,9 +19,15 @@ typedef struct pw_xyset {
 } pw_xyset;
 
 typedef struct pw_plot_xy_in {
+    const char *id;               /* svg id; NULL = "plot-xy" */
     const char *name1;            /* component 1, for the axis labels */
     const char *condition;        /* e.g. "101.3 kPa" (shown in the title) */
+    bool zoom;                    /* an enlarged view: only the window below is shown, no
+                                     targets' labels, measured points outside it are left out */
+    double win_x[2], win_y[2];    /* the window (zoom only) */
     pw_xyset curve;               /* model y*(x) */
+    pw_xyset three_phase;         /* the three-phase vapor over the two-liquid region (flat);
+                                     n = 0 for none */
     pw_xyset measured;            /* measured (x, y); n = 0 for none */
     const char *measured_label;   /* legend text of the measured points */
     pw_xyset azeotropes;          /* x = y points; n = 0 for none */
@@ -30,30 +36,60 @@ typedef struct pw_plot_xy_in {
     bool feasible;
     double r_min, r_op, factor;   /* R_min, operating R, R/R_min */
     pw_pinch pinch;
-    double x_q, y_q;              /* q-line meets the curve */
+    pw_xyset qline;               /* 2 points: (zF, zF) to where it meets the curve */
+    pw_xyset op_min, op;          /* operating lines at R_min and at R: 3 points each */
     pw_xyset steps;               /* staircase vertices at r_op (alternating horizontal/vertical) */
     double stages;                /* stages counted at r_op (label) */
+    /* the decanter scheme (a heterogeneous azeotrope between the targets) */
+    bool decanter;
+    double layers[2];             /* x_I, x_II of the decanter at the three-phase T */
+    double y3;                    /* the three-phase vapor */
+    pw_xyset dec_op[2], dec_steps[2]; /* each stripping column's operating line and staircase */
+    double dec_boilup[2], dec_stages[2];
 } pw_plot_xy_in;
 
 /* The x-y (McCabe-Thiele) diagram: diagonal, curve, data, and with column: q-line, operating
- * lines at R_min (dashed) and at the operating R, the pinch point labelled by kind, the stage
- * steps, and the targets xb, zf, xd. */
+ * lines at R_min (dashed) and at the operating R, the stage steps, the targets xb, zf, xd, and
+ * the pinch point labelled by kind, drawn last so no data marker covers it. With decanter: the
+ * two-liquid region between the layers, the three-phase vapor, both stripping columns' operating
+ * lines and staircases. With zoom: the same inside the window. */
 pw_status pw_plot_xy(pw_sbuf *b, const pw_plot_xy_in *in);
 
 typedef struct pw_plot_phase_in {
     const char *name1;
     const char *condition;        /* "at 101.3 kPa" / "at 50 C" */
-    bool isothermal;              /* true: P-x-y in kPa; false: T-x-y in K */
+    bool isothermal;              /* true: P-x-y; false: T-x-y */
+    const char *unit;             /* symbol of T or P as drawn ("K", "\u00b0C", "kPa", "bar") */
     pw_xyset bubble;              /* (x1, T or P) */
     pw_xyset dew;                 /* (y1, T or P) */
     pw_xyset meas_liquid;         /* (x1, measured T or P) */
     pw_xyset meas_vapor;          /* (y1, measured T or P); n = 0 without y */
     pw_xyset azeotropes;          /* (x1, T or P) */
+    pw_xyset binodal[2];          /* the layers x_I(T), x_II(T) below the three-phase line;
+                                     n = 0 for none */
+    pw_xyset layers;              /* the two layers on the three-phase line; n = 0 for none */
 } pw_plot_phase_in;
 
 /* T-x-y or P-x-y: bubble and dew curves of the model, measured liquid and vapor points,
- * azeotropes marked and labelled. */
+ * azeotropes marked and labelled, and for liquids that split the layers and the binodal. */
 pw_status pw_plot_phase(pw_sbuf *b, const pw_plot_phase_in *in);
+
+#define PW_PLOT_MAX_MODELS 6
+
+typedef struct pw_plot_models_in {
+    const char *name1;
+    const char *condition;
+    bool isothermal;
+    const char *unit;
+    size_t n;                     /* models, at most PW_PLOT_MAX_MODELS */
+    const char *label[PW_PLOT_MAX_MODELS];
+    pw_xyset bubble[PW_PLOT_MAX_MODELS], dew[PW_PLOT_MAX_MODELS];
+    pw_xyset meas_liquid, meas_vapor;
+} pw_plot_models_in;
+
+/* Every fitted model's bubble (solid) and dew (thin, same colour and dash) curves overlaid on one
+ * T-x-y or P-x-y plot with the measured points; each model has its own colour and dash. */
+pw_status pw_plot_models(pw_sbuf *b, const pw_plot_models_in *in);
 
 typedef struct pw_plot_resid_in {
     const char *id;               /* SVG id, e.g. "residual-y" */

@@ -18,6 +18,7 @@ pw_report_input pw_report_default_input(void)
     memset(&in, 0, sizeof in);
     in.column_P_Pa = PW_NAN;
     in.unc = pw_unc_default_options();
+    in.units = pw_units_display_default();
     return in;
 }
 

@@ -50,6 +50,7 @@ static const char *const STYLE =
     "section#answers h2{border:0;margin:10px 0 6px}\n"
     "dl.answers{display:grid;grid-template-columns:11em 1fr;gap:4px 16px;margin:0}\n"
     "dl.answers dt{font-weight:600}dl.answers dd{margin:0}\n"
+    "figure.pw-small svg{max-width:560px}\n"
     "figcaption{font-size:13.5px;color:var(--muted);margin-top:6px;max-width:640px}\n"
     ".pw-grid2{display:flex;flex-wrap:wrap;gap:10px 28px}\n"
     "footer{margin-top:34px;color:var(--muted);font-size:12.5px;border-top:1px solid var(--rule);"
@@ -127,12 +128,14 @@ static void cautions(pw_sbuf *b)
         "</ul></aside>\n");
 }
 
-static void parameters(pw_sbuf *b, const pw_fit_result *r)
+static void parameters(pw_sbuf *b, const pw_fit_result *r, const pw_display_units *u)
 {
+    char tb[48], tb2[48];
     const pw_model_type *m = r->sys.model;
     pw_sbuf_puts(b, "<section id=\"parameters\"><h2>Fitted model</h2>\n<p>");
     esc(b, m ? m->title : "unknown model");
-    pw_sbuf_printf(b, "; reference temperature T_ref = %.2f K.</p>\n", r->sys.T_ref_K);
+    pw_report_T(u, r->sys.T_ref_K, 2, tb, sizeof tb);
+    pw_sbuf_printf(b, "; reference temperature T_ref = %s.</p>\n", tb);
     pw_sbuf_puts(b, "<table><tr><th>Parameter</th><th>Unit</th><th>Value</th><th>Standard error</th>"
                     "<th>95 % interval, low</th><th>high</th><th>Role</th></tr>\n");
     size_t np = m ? m->n_params : 0;
@@ -193,7 +196,9 @@ static void parameters(pw_sbuf *b, const pw_fit_result *r)
     snprintf(t, sizeof t, "%zu measured, %zu left out%s%s", r->n_pts, ex, ex && r->exclude_reason[0] ? ": " : "",
              ex ? r->exclude_reason : "");
     kv(b, "Points", t, false);
-    snprintf(t, sizeof t, "%.2f K to %.2f K", r->T_min_K, r->T_max_K);
+    pw_report_T(u, r->T_min_K, 2, tb, sizeof tb);
+    pw_report_T(u, r->T_max_K, 2, tb2, sizeof tb2);
+    snprintf(t, sizeof t, "%s to %s", tb, tb2);
     kv(b, "Temperature range of the data", t, false);
     pw_sbuf_puts(b, "</table></section>\n");
 }
@@ -211,19 +216,23 @@ static void dev_row(pw_sbuf *b, const char *name, const pw_fit_stat *s, double s
     pw_sbuf_printf(b, "<td class=\"num\">%ld</td></tr>\n", s->max_line);
 }
 
-static void deviations(pw_sbuf *b, const pw_fit_result *r)
+static void deviations(pw_sbuf *b, const pw_fit_result *r, const pw_display_units *u)
 {
+    char tb[48], lab[96];
     pw_sbuf_puts(b, "<section id=\"deviations\"><h2>How closely the model follows the data</h2>\n"
                     "<table><tr><th>Quantity (calculated \xe2\x88\x92 measured)</th><th>Mean |deviation|"
                     "</th><th>Mean deviation (bias)</th><th>Largest |deviation|</th><th>at file line</th>"
                     "</tr>\n");
     dev_row(b, "vapor mole fraction y\xe2\x82\x81 / (mol/mol)", &r->dev_y, 1.0);
-    dev_row(b, "bubble temperature / K", &r->dev_T_K, 1.0);
-    dev_row(b, "bubble pressure / kPa", &r->dev_P_Pa, 1e-3);
+    snprintf(lab, sizeof lab, "bubble temperature / %s", pw_units_display_T_symbol(u));
+    dev_row(b, lab, &r->dev_T_K, pw_units_display_dT(u, 1.0));
+    snprintf(lab, sizeof lab, "bubble pressure / %s", pw_units_display_P_symbol(u));
+    dev_row(b, lab, &r->dev_P_Pa, pw_units_display_P(u, 1.0));
     pw_sbuf_puts(b, "</table>\n");
-    pw_sbuf_printf(b, "<h3>Infinite dilution (at T_ref = %.2f K)</h3>\n<table><tr><th>Limit</th>"
+    pw_report_T(u, r->sys.T_ref_K, 2, tb, sizeof tb);
+    pw_sbuf_printf(b, "<h3>Infinite dilution (at T_ref = %s)</h3>\n<table><tr><th>Limit</th>"
                       "<th>ln \xce\xb3\xe2\x88\x9e</th><th>\xce\xb3\xe2\x88\x9e</th></tr>\n",
-                   r->sys.T_ref_K);
+                   tb);
     const char *lim[2] = {"ln \xce\xb3\xe2\x82\x81 as x\xe2\x82\x81 \xe2\x86\x92 0",
                           "ln \xce\xb3\xe2\x82\x82 as x\xe2\x82\x81 \xe2\x86\x92 1"};
     for (int i = 0; i < 2; i++) {
@@ -235,17 +244,18 @@ static void deviations(pw_sbuf *b, const pw_fit_result *r)
         pw_sbuf_puts(b, "</tr>\n");
     }
     pw_sbuf_puts(b, "</table>\n<h3>Liquid-liquid split screen</h3><p>");
+    pw_report_T(u, r->split_T_K, 2, tb, sizeof tb);
     if (r->split)
         pw_sbuf_printf(b, "<span class=\"verdict-fail\">The fitted parameters predict two liquid "
                           "phases</span> (d\xc2\xb2(\xce\x94G/RT)/dx\xc2\xb2 = %.3g at x\xe2\x82\x81 = %.3f, "
-                          "T = %.2f K). A model fitted to vapor-liquid data alone is not reliable "
+                          "T = %s). A model fitted to vapor-liquid data alone is not reliable "
                           "for liquid-liquid behaviour; check for a split experimentally.",
-                       r->split_min_D, r->split_x, r->split_T_K);
+                       r->split_min_D, r->split_x, tb);
     else
         pw_sbuf_printf(b, "<span class=\"verdict-pass\">No liquid-liquid split predicted</span> "
                           "(smallest d\xc2\xb2(\xce\x94G/RT)/dx\xc2\xb2 = %.3g at x\xe2\x82\x81 = %.3f, "
-                          "T = %.2f K).",
-                       r->split_min_D, r->split_x, r->split_T_K);
+                          "T = %s).",
+                       r->split_min_D, r->split_x, tb);
     pw_sbuf_puts(b, "</p>\n<h3>Distinct minima found by the multistart</h3>\n<table><tr><th>#</th>");
     const pw_model_type *m = r->sys.model;
     for (size_t j = 0; m && j < m->n_params; j++)
@@ -384,10 +394,13 @@ static const char *interval_source(const pw_unc_output *o)
                      : "sampled (no linearised interval)";
 }
 
-/* unc: intervals of each row (NULL: none); tp_isP: the second interval is a pressure. */
-static void az_table(pw_sbuf *b, const pw_report_az *az, size_t n, const char *where,
-                     const pw_unc_result *unc, bool tp_isP)
+/* unc: intervals of each row (NULL: none); tp_isP: the second interval is a pressure (kPa as the
+ * uncertainty module gives it), else a temperature in K. Shown in the display units. */
+static void az_table(pw_sbuf *b, const pw_report_curves *c, const pw_draw_az *az, size_t n,
+                     const char *where, const pw_unc_result *unc, bool tp_isP)
 {
+    const pw_display_units *u = &c->units;
+    const char *Ts = pw_units_display_T_symbol(u), *Ps = pw_units_display_P_symbol(u);
     pw_sbuf_puts(b, "<h3>");
     esc(b, where);
     pw_sbuf_puts(b, "</h3>\n");
@@ -395,61 +408,87 @@ static void az_table(pw_sbuf *b, const pw_report_az *az, size_t n, const char *w
         pw_sbuf_puts(b, "<p>None predicted for 0 &lt; x\xe2\x82\x81 &lt; 1.</p>\n");
         return;
     }
-    pw_sbuf_puts(b, "<table><tr><th>x\xe2\x82\x81 = y\xe2\x82\x81</th><th>T / K</th><th>P / kPa</th>"
-                    "<th>Kind</th>");
+    pw_sbuf_printf(b, "<table><tr><th>x\xe2\x82\x81 = y\xe2\x82\x81</th><th>T / %s</th><th>P / %s</th>"
+                      "<th>Kind</th>", Ts, Ps);
     if (unc)
-        pw_sbuf_printf(b, "<th>x\xe2\x82\x81, 95 %% interval</th><th>%s, 95 %% interval</th>"
+        pw_sbuf_printf(b, "<th>x\xe2\x82\x81, 95 %% interval</th><th>%s / %s, 95 %% interval</th>"
                           "<th>Interval quoted</th>",
-                       tp_isP ? "P / kPa" : "T / K");
+                       tp_isP ? "P" : "T", tp_isP ? Ps : Ts);
     pw_sbuf_puts(b, "</tr>\n");
     for (size_t i = 0; i < n; i++) {
         pw_sbuf_puts(b, "<tr>");
         num(b, az[i].x1, 4);
-        num(b, az[i].T_K, 5);
-        num(b, az[i].P_Pa / 1000.0, 5);
-        pw_sbuf_printf(b, "<td>%s%s", az[i].min_boiling ? "minimum-boiling" : "maximum-boiling",
+        pw_sbuf_printf(b, "<td class=\"num\">%.2f</td>", pw_units_display_T(u, az[i].T_K));
+        num(b, pw_units_display_P(u, az[i].P_Pa), 5);
+        pw_sbuf_printf(b, "<td>%s%s%s", az[i].min_boiling ? "minimum-boiling" : "maximum-boiling",
+                       az[i].heterogeneous ? ", heterogeneous (two liquid layers, vapor between "
+                                             "them; x\xe2\x82\x81 is the vapor's)" : "",
                        az[i].tangential ? " (near-tangential: a double root, sensitive to the model)" : "");
-        if (unc && unc[i].n_infeasible && isfinite(unc[i].p_feasible))
+        /* intervals belong to the azeotrope module's roots, listed first; a heterogeneous one
+         * has none */
+        bool has = unc && !az[i].heterogeneous;
+        if (has && unc[i].n_infeasible && isfinite(unc[i].p_feasible))
             pw_sbuf_printf(b, "; absent in %.0f %% of the parameter sets drawn",
                            100.0 * (1.0 - unc[i].p_feasible));
         pw_sbuf_puts(b, "</td>");
-        if (unc) {
+        if (has) {
             interval_cell(b, unc[i].out[PW_UNC_AZ_X1].ci, 4);
-            interval_cell(b, unc[i].out[PW_UNC_AZ_TP].ci, tp_isP ? 5 : -2); /* T: 0.01 K */
+            const double *ci = unc[i].out[PW_UNC_AZ_TP].ci;
+            double shown[2];
+            for (int k = 0; k < 2; k++)
+                shown[k] = tp_isP ? pw_units_display_P(u, ci[k] * 1e3) : pw_units_display_T(u, ci[k]);
+            interval_cell(b, shown, tp_isP ? 5 : -2); /* T: 0.01 of a degree */
             pw_sbuf_puts(b, "<td>");
             esc(b, interval_source(&unc[i].out[PW_UNC_AZ_X1]));
             pw_sbuf_puts(b, "</td>");
+        } else if (unc) {
+            pw_sbuf_puts(b, "<td colspan=\"3\">\xe2\x80\x93</td>");
         }
         pw_sbuf_puts(b, "</tr>\n");
     }
     pw_sbuf_puts(b, "</table>\n");
 }
 
-/* True when the column runs at the data's own (isobaric) pressure: one set of azeotropes then. */
+/* True when the azeotropes at the column pressure are the ones at the data's condition as the
+ * page prints them (the same pressure, or one so close that every shown digit agrees): one table
+ * then, not two identical ones. */
 static bool column_at_data_pressure(const pw_report_curves *c)
 {
-    return c->column && !c->isothermal &&
-           fabs(c->P_col_Pa - c->fit->P_fixed_Pa) <= 1e-9 * c->fit->P_fixed_Pa;
+    if (!c->column || c->isothermal)
+        return false;
+    if (fabs(c->P_col_Pa - c->fit->P_fixed_Pa) <= 1e-9 * c->fit->P_fixed_Pa)
+        return true;
+    const pw_draw_azeotropes *a = &c->phase.az, *z = &c->xy.az;
+    if (a->status != z->status || a->n != z->n ||
+        fabs(c->P_col_Pa - c->fit->P_fixed_Pa) > 0.005 * c->fit->P_fixed_Pa)
+        return false;
+    for (size_t i = 0; i < a->n; i++)
+        if (fabs(a->az[i].x1 - z->az[i].x1) >= 5e-5 || fabs(a->az[i].T_K - z->az[i].T_K) >= 5e-3 ||
+            a->az[i].heterogeneous != z->az[i].heterogeneous)
+            return false;
+    return true;
 }
 
 /* Azeotropes from the azeotrope module (include/pinchwise/azeotrope.h). */
 static void azeotropes(pw_sbuf *b, const pw_report_curves *c, const char *cond)
 {
-    char where[128];
+    char where[320], pc[48];
+    pw_report_P(&c->units, c->P_col_Pa, 4, pc, sizeof pc);
     pw_sbuf_puts(b, "<section id=\"azeotropes\"><h2>Azeotropes of the model</h2>\n");
     snprintf(where, sizeof where, "At the data's condition, %s", cond);
     bool u1 = c->unc && c->unc_az_status == PW_OK, u2 = c->unc && c->unc_col_az_status == PW_OK;
     if (column_at_data_pressure(c))
-        snprintf(where, sizeof where, "At the data's condition and the column pressure, %s", cond);
-    az_table(b, c->az, c->n_az, where, u1 ? c->unc_az : NULL, c->isothermal);
+        snprintf(where, sizeof where, "At the data's condition, %s, and the column pressure, %s "
+                 "(the same azeotropes to every digit shown)", cond, pc);
+    az_table(b, c, c->phase.az.az, c->phase.az.n, where, u1 ? c->unc_az : NULL, c->isothermal);
     if (c->column && !column_at_data_pressure(c)) {
-        snprintf(where, sizeof where, "At the column pressure, %.4g kPa", c->P_col_Pa / 1000.0);
-        az_table(b, c->col_az, c->n_col_az, where, u2 ? c->unc_col_az : NULL, false);
+        snprintf(where, sizeof where, "At the column pressure, %s", pc);
+        az_table(b, c, c->xy.az.az, c->xy.az.n, where, u2 ? c->unc_col_az : NULL, false);
     }
-    if (c->unc && (c->n_az || (c->column && c->n_col_az))) {
-        if ((c->n_az && !u1) || (c->column && c->n_col_az && !u2))
+    if (c->unc && (c->phase.az.n || (c->column && c->xy.az.n))) {
+        if ((c->phase.az.n && !u1) || (c->column && c->xy.az.n && !u2))
             pw_sbuf_printf(b, "<p class=\"verdict-fail\">No interval for some azeotropes: %s.</p>\n",
-                           pw_strerror(c->n_az && !u1 ? c->unc_az_status : c->unc_col_az_status));
+                           pw_strerror(c->phase.az.n && !u1 ? c->unc_az_status : c->unc_col_az_status));
         pw_sbuf_printf(b, "<p class=\"note\">95 %% intervals from the fit's parameter covariance: "
                           "linearised (delta method) and from %zu parameter sets drawn with seed %lu "
                           "(percentiles, JCGM 101:2008); see docs/uncertainty.md. They cover the "
@@ -485,7 +524,7 @@ static void energy_section(pw_sbuf *b, const pw_report_curves *c)
     }
     char t[256];
     pw_sbuf_puts(b, "<table>\n");
-    snprintf(t, sizeof t, "%.5g (constant molal overflow %.5g)", e->r_min, c->col.r_min);
+    snprintf(t, sizeof t, "%.5g (constant molal overflow %.5g)", e->r_min, c->dc.col.r_min);
     kv(b, "Minimum reflux R_min", t, false);
     if (e->reflux_limited)
         snprintf(t, sizeof t, "none: no reflux is needed");
@@ -525,20 +564,78 @@ static void energy_section(pw_sbuf *b, const pw_report_curves *c)
                     "per local codes under licensed review.</p>\n");
 }
 
+/* The decanter scheme (pinchwise/decanter.h) drawn when a heterogeneous azeotrope blocks the
+ * single column. */
+static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
+{
+    const pw_draw_decanter *d = &c->dc.decanter;
+    const pw_decanter_result *r = &d->res;
+    const pw_three_phase *tp = &r->decanter;
+    char t[320], t1[48];
+    pw_sbuf_puts(b, "<h3 id=\"decanter\">The decanter scheme</h3>\n<p>Fresh feed and both condensed "
+                    "overhead vapors enter one decanter at the three-phase temperature; the layer "
+                    "rich in component 1 tops stripping column A (bottoms x<sub>1</sub> = ");
+    pw_sbuf_printf(b, "%.4g), the other layer tops stripping column B (bottoms x<sub>1</sub> = %.4g). "
+                      "Each column has a partial reboiler and no condenser of its own; constant "
+                      "molal overflow.</p>\n",
+                   fmax(c->spec.xd, c->spec.xb), fmin(c->spec.xd, c->spec.xb));
+    if (d->status != PW_OK || !r->feasible) {
+        pw_sbuf_puts(b, "<p class=\"verdict-fail\">Not sized: ");
+        esc(b, d->status != PW_OK ? pw_strerror(d->status) : r->reason);
+        pw_sbuf_puts(b, "</p>\n");
+        return;
+    }
+    pw_sbuf_puts(b, "<table class=\"kv\">\n");
+    pw_report_T(&c->units, tp->T_K, 2, t1, sizeof t1);
+    snprintf(t, sizeof t, "%s; layers x\xe2\x82\x81 = %.4f and %.4f; vapor y\xe2\x82\x81 = %.4f", t1,
+             tp->x[0], tp->x[1], tp->y1);
+    kv(b, "Decanter (three-phase state)", t, false);
+    snprintf(t, sizeof t, "A %.4g, B %.4g mol per mol of feed (mass balance closes to %.1e)",
+             r->bottoms_per_mol_feed[0], r->bottoms_per_mol_feed[1], r->closure);
+    kv(b, "Bottoms flows", t, false);
+    pw_sbuf_puts(b, "</table>\n<table><tr><th>Column</th><th>Top (layer) x\xe2\x82\x81</th>"
+                    "<th>Bottoms x\xe2\x82\x81</th><th>Minimum boil-up V/B</th><th>Limit</th>"
+                    "<th>N<sub>min</sub></th><th>Drawn at V/B</th><th>Stages there</th></tr>\n");
+    const char *nm[2] = {"A", "B"};
+    const double bottoms[2] = {fmax(c->spec.xd, c->spec.xb), fmin(c->spec.xd, c->spec.xb)};
+    for (int i = 0; i < 2; i++) {
+        const pw_stripper_result *k = &r->col[i];
+        pw_sbuf_printf(b, "<tr><td>%s</td>", nm[i]);
+        num(b, r->top_x1[i], 4);
+        num(b, bottoms[i], 4);
+        num(b, k->boilup_min, 4);
+        pw_sbuf_printf(b, "<td>%s pinch at x\xe2\x82\x81 = %.4f</td>",
+                       k->tangent ? "tangent" : "top", k->x_pinch);
+        num(b, k->n_min, 3);
+        num(b, d->boilup[i], 4);
+        if (d->stairs[i].status == PW_OK)
+            num(b, d->stairs[i].stages, 3);
+        else
+            pw_sbuf_printf(b, "<td>not reached: %s</td>", pw_strerror(d->stairs[i].status));
+        pw_sbuf_puts(b, "</tr>\n");
+    }
+    pw_sbuf_printf(b, "</table>\n<p class=\"note\">Each column is drawn and stepped at %.2g times its "
+                      "minimum boil-up (the operating factor); stages include the partial reboiler, "
+                      "with a fractional last step. See docs/heterogeneous.md for the method.</p>\n",
+                   d->factor);
+}
+
 static void column_section(pw_sbuf *b, const pw_report_curves *c)
 {
     const pw_column_spec *sp = &c->spec;
-    const pw_column_result *k = &c->col;
+    const pw_column_result *k = &c->dc.col;
     pw_sbuf_puts(b, "<section id=\"column\"><h2>Column targets: reflux and stages</h2>\n");
-    pw_sbuf_printf(b, "<p>Binary column with total condenser and partial reboiler at %.4g kPa: "
+    char pc[48], t1[48], t2[48], t3[48], t4[48];
+    pw_report_P(&c->units, c->P_col_Pa, 4, pc, sizeof pc);
+    pw_sbuf_printf(b, "<p>Binary column with total condenser and partial reboiler at %s: "
                       "x<sub>D</sub> = %.4g, z<sub>F</sub> = %.4g, x<sub>B</sub> = %.4g, q = %.3g "
                       "(mole fractions of ",
-                   c->P_col_Pa / 1000.0, sp->xd, sp->zf, sp->xb, sp->q);
+                   pc, sp->xd, sp->zf, sp->xb, sp->q);
     esc(b, c->fit->sys.comp[0].name);
     pw_sbuf_puts(b, "); constant molal overflow.</p>\n");
-    if (c->col_status != PW_OK) {
+    if (c->dc.status != PW_OK) {
         pw_sbuf_puts(b, "<p class=\"verdict-fail\">The column analysis failed: ");
-        esc(b, pw_strerror(c->col_status));
+        esc(b, pw_strerror(c->dc.status));
         if (k->reason[0]) {
             pw_sbuf_puts(b, ": ");
             esc(b, k->reason);
@@ -550,11 +647,14 @@ static void column_section(pw_sbuf *b, const pw_report_curves *c)
         pw_sbuf_puts(b, "<p><strong class=\"verdict-fail\">This split cannot be made by ordinary "
                         "distillation at this pressure:</strong> ");
         esc(b, k->reason);
-        pw_sbuf_puts(b, "</p></section>\n");
+        pw_sbuf_puts(b, "</p>\n");
+        if (c->dc.hetero_blocked)
+            decanter_section(b, c);
+        pw_sbuf_puts(b, "</section>\n");
         return;
     }
     pw_sbuf_puts(b, "<table class=\"kv\">\n");
-    char t[200];
+    char t[320];
     snprintf(t, sizeof t, "%.4g (boil-up ratio %.4g)", k->r_min, k->s_min);
     kv(b, "Minimum reflux ratio R_min = L/D", t, false);
     snprintf(t, sizeof t, "%s pinch in the %s section at x = %.4f, y = %.4f",
@@ -576,12 +676,15 @@ static void column_section(pw_sbuf *b, const pw_report_curves *c)
     snprintf(t, sizeof t, "%.3g with \xce\xb1 = \xe2\x88\x9a(%.3g \xc3\x97 %.3g) (Fenske 1932)", k->n_fenske,
              k->alpha_top, k->alpha_bottom);
     kv(b, "Fenske estimate", t, false);
-    snprintf(t, sizeof t, "top %.2f K, bottom %.2f K (data span %.2f K to %.2f K)", c->T_top_K,
-             c->T_bottom_K, c->fit->T_min_K, c->fit->T_max_K);
+    pw_report_T(&c->units, c->dc.T_top_K, 2, t1, sizeof t1);
+    pw_report_T(&c->units, c->dc.T_bottom_K, 2, t2, sizeof t2);
+    pw_report_T(&c->units, c->fit->T_min_K, 2, t3, sizeof t3);
+    pw_report_T(&c->units, c->fit->T_max_K, 2, t4, sizeof t4);
+    snprintf(t, sizeof t, "top %s, bottom %s (data span %s to %s)", t1, t2, t3, t4);
     kv(b, "Bubble temperatures", t, false);
     pw_sbuf_puts(b, "</table>\n");
-    if (c->T_top_K < c->fit->T_min_K - 1.0 || c->T_bottom_K > c->fit->T_max_K + 1.0 ||
-        c->T_bottom_K < c->fit->T_min_K - 1.0 || c->T_top_K > c->fit->T_max_K + 1.0)
+    if (c->dc.T_top_K < c->fit->T_min_K - 1.0 || c->dc.T_bottom_K > c->fit->T_max_K + 1.0 ||
+        c->dc.T_bottom_K < c->fit->T_min_K - 1.0 || c->dc.T_top_K > c->fit->T_max_K + 1.0)
         pw_sbuf_puts(b, "<p class=\"verdict-fail\">The column runs outside the temperature range of "
                         "the data: the model is extrapolated.</p>\n");
     pw_sbuf_puts(b, "<h3>Design table</h3><table><tr><th>R / R_min</th><th>R</th><th>Boil-up "
@@ -609,15 +712,15 @@ static void column_section(pw_sbuf *b, const pw_report_curves *c)
     const pw_profile *p = &c->profile_op;
     if (p->n) {
         pw_sbuf_printf(b, "<h3>Stage profile at %.3g R_min (R = %.4g)</h3><table><tr><th>Stage"
-                          "</th><th>x1</th><th>y1</th><th>T (K)</th><th>L / F</th><th>V / F</th>"
+                          "</th><th>x1</th><th>y1</th><th>T / %s</th><th>L / F</th><th>V / F</th>"
                           "<th></th></tr>\n",
-                       c->factor, c->r_op);
+                       c->factor, c->dc.r_op, pw_units_display_T_symbol(&c->units));
         for (size_t i = 0; i < p->n; i++) {
             const pw_stage *g = &p->stage[i];
             pw_sbuf_printf(b, "<tr><td class=\"num\">%zu</td>", i + 1);
             num(b, g->x, 5);
             num(b, g->y, 5);
-            num(b, g->T_K, 5);
+            pw_sbuf_printf(b, "<td class=\"num\">%.2f</td>", pw_units_display_T(&c->units, g->T_K));
             num(b, g->L, 4);
             num(b, g->V, 4);
             pw_sbuf_printf(b, "<td>%s</td></tr>\n",
@@ -716,15 +819,27 @@ static void how_sure_section(pw_sbuf *b, const pw_report_curves *c)
 
 static void figure(pw_sbuf *b, const pw_report_file *f, const char *caption)
 {
-    pw_sbuf_puts(b, "<figure>\n");
+    /* the enlarged view is a small plot: shown at its own size, not the column's width */
+    pw_sbuf_puts(b, !strcmp(f->name, "xy_pinch.svg") ? "<figure class=\"pw-small\">\n" : "<figure>\n");
     pw_sbuf_puts(b, pw_sbuf_str(&f->text));
     pw_sbuf_puts(b, "<figcaption>");
     esc(b, caption);
     pw_sbuf_puts(b, "</figcaption></figure>\n");
 }
 
-static const char *caption_for(const char *name, bool column)
+static const char *caption_for(const char *name, const pw_report_curves *c)
 {
+    bool column = c->column;
+    if (!strcmp(name, "xy.svg") && column && c->dc.hetero_blocked)
+        return "Equilibrium curve at the column pressure (flat over the two-liquid region, shaded) "
+               "with the decanter scheme: each stripping column's operating line and stage steps "
+               "from its decanter layer to its bottoms.";
+    if (!strcmp(name, "xy_pinch.svg"))
+        return "The same construction enlarged around the limiting pinch, where the stage steps "
+               "crowd: every step drawn is one the column module counted.";
+    if (!strcmp(name, "models.svg"))
+        return "Every model fitted to these data, each in its own colour and dash, over the "
+               "measured points: where the curves part, the choice of model matters.";
     if (!strcmp(name, "xy.svg"))
         return column ? "Equilibrium curve at the column pressure with the construction: q-line, "
                         "operating lines at minimum reflux (dashed) and at the operating reflux "
@@ -735,6 +850,11 @@ static const char *caption_for(const char *name, bool column)
                "sets drawn from the fit's covariance (thin), the best fit (thick), the operating "
                "lines at minimum reflux of the best fit (dashed) and the pinch (star). Where the "
                "thin curves cross the dashed line, that parameter set needs more reflux.";
+    if ((!strcmp(name, "txy.svg") || !strcmp(name, "pxy.svg")) && c->phase.az.three_phase.exists)
+        return "Bubble (solid) and dew (dashed) curves of the model with the measured liquid "
+               "(filled circles) and vapor (open triangles) compositions. The liquids split: the "
+               "bubble curve is flat at the three-phase condition between the two layers "
+               "(squares), and the dotted lines below it bound the two-liquid region.";
     if (!strcmp(name, "txy.svg") || !strcmp(name, "pxy.svg"))
         return "Bubble (solid) and dew (dashed) curves of the model with the measured liquid "
                "(filled circles) and vapor (open triangles) compositions.";
@@ -755,7 +875,10 @@ static void ranking(pw_sbuf *b, const pw_report_curves *c)
     pw_sbuf_puts(b, "<section id=\"ranking\"><h2>Models fitted to these data, side by side</h2>\n"
                     "<table><tr><th>Rank</th><th>Model</th><th>\xce\x94" "AICc (0 = best; lower is better)</th>"
                     "<th>Support</th><th>Mean |\xce\x94" "y|"
-                    "</th><th>Mean |\xce\x94T| / K</th><th>Mean |\xce\x94P| / kPa</th>"
+                    "</th>");
+    pw_sbuf_printf(b, "<th>Mean |\xce\x94T| / %s</th><th>Mean |\xce\x94P| / %s</th>",
+                   pw_units_display_T_symbol(&c->units), pw_units_display_P_symbol(&c->units));
+    pw_sbuf_puts(b, ""
                     "<th>Azeotrope x\xe2\x82\x81 at the data's condition</th>");
     if (c->column)
         pw_sbuf_puts(b, "<th>R_min at the column targets</th>");
@@ -768,8 +891,8 @@ static void ranking(pw_sbuf *b, const pw_report_curves *c)
         num(b, w->delta_aicc, 3);
         pw_sbuf_printf(b, "<td>%s</td>", pw_rank_class_name(w->cls));
         num(b, w->fit->dev_y.aad, 3);
-        num(b, w->fit->dev_T_K.aad, 3);
-        num(b, w->fit->dev_P_Pa.aad / 1000.0, 3);
+        num(b, pw_units_display_dT(&c->units, w->fit->dev_T_K.aad), 3);
+        num(b, pw_units_display_P(&c->units, w->fit->dev_P_Pa.aad), 3);
         if (w->az_status != PW_OK)
             pw_sbuf_puts(b, "<td>search failed</td>");
         else if (w->az.n == 0)
@@ -816,14 +939,17 @@ static void answer(pw_sbuf *b, const char *term)
 
 static void answer_end(pw_sbuf *b) { pw_sbuf_puts(b, "</dd>\n"); }
 
-/* A temperature in kelvin and in degrees Celsius. */
-static void temp(pw_sbuf *b, double T_K)
+/* A temperature in the display unit (in kelvin also in degrees Celsius, as engineers read it). */
+static void temp(pw_sbuf *b, const pw_display_units *u, double T_K)
 {
-    pw_sbuf_printf(b, "%.2f K (%.2f \xc2\xb0" "C)", T_K, T_K - 273.15);
+    if (!strcmp(pw_units_display_T_symbol(u), "K"))
+        pw_sbuf_printf(b, "%.2f K (%.2f \xc2\xb0" "C)", T_K, T_K - 273.15);
+    else
+        pw_sbuf_printf(b, "%.2f %s", pw_units_display_T(u, T_K), pw_units_display_T_symbol(u));
 }
 
-static void az_answer(pw_sbuf *b, const pw_report_az *az, size_t n, bool ok, bool isothermal,
-                      const pw_unc_result *unc)
+static void az_answer(pw_sbuf *b, const pw_report_curves *c, const pw_draw_az *az, size_t n,
+                      bool ok, bool isothermal, const pw_unc_result *unc)
 {
     if (!ok) {
         pw_sbuf_puts(b, "<span class=\"verdict-fail\">search did not complete</span>");
@@ -834,15 +960,17 @@ static void az_answer(pw_sbuf *b, const pw_report_az *az, size_t n, bool ok, boo
         return;
     }
     for (size_t i = 0; i < n; i++) {
-        pw_sbuf_printf(b, "%s%s at x\xe2\x82\x81 = %.4f", i ? "; " : "",
-                       az[i].min_boiling ? "minimum-boiling" : "maximum-boiling", az[i].x1);
-        if (unc && unc[i].out[0].ci[0] < unc[i].out[0].ci[1])
+        pw_sbuf_printf(b, "%s%s%s at x\xe2\x82\x81 = %.4f", i ? "; " : "",
+                       az[i].min_boiling ? "minimum-boiling" : "maximum-boiling",
+                       az[i].heterogeneous ? " heterogeneous" : "", az[i].x1);
+        if (unc && !az[i].heterogeneous && unc[i].out[0].ci[0] < unc[i].out[0].ci[1])
             pw_sbuf_printf(b, " (95 %% %.4f to %.4f)", unc[i].out[0].ci[0], unc[i].out[0].ci[1]);
         if (isothermal) {
-            pw_sbuf_printf(b, ", %.4g kPa", az[i].P_Pa / 1000.0);
+            pw_sbuf_printf(b, ", %.4g %s", pw_units_display_P(&c->units, az[i].P_Pa),
+                           pw_units_display_P_symbol(&c->units));
         } else {
             pw_sbuf_puts(b, ", ");
-            temp(b, az[i].T_K);
+            temp(b, &c->units, az[i].T_K);
         }
     }
 }
@@ -893,19 +1021,21 @@ static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
     esc(b, cond);
     pw_sbuf_puts(b, ": ");
     bool u1 = c->unc && c->unc_az_status == PW_OK, u2 = c->unc && c->unc_col_az_status == PW_OK;
-    az_answer(b, c->az, c->n_az, c->az_res_ok, c->isothermal, u1 ? c->unc_az : NULL);
+    az_answer(b, c, c->phase.az.az, c->phase.az.n, c->phase.az.status == PW_OK, c->isothermal, u1 ? c->unc_az : NULL);
     if (c->column && !column_at_data_pressure(c)) {
-        pw_sbuf_printf(b, "; at the column pressure %.4g kPa: ", c->P_col_Pa / 1000.0);
-        az_answer(b, c->col_az, c->n_col_az, c->col_az_res_ok, false, u2 ? c->unc_col_az : NULL);
+        char pc[48];
+        pw_report_P(&c->units, c->P_col_Pa, 4, pc, sizeof pc);
+        pw_sbuf_printf(b, "; at the column pressure %s: ", pc);
+        az_answer(b, c, c->xy.az.az, c->xy.az.n, c->xy.az.status == PW_OK, false, u2 ? c->unc_col_az : NULL);
     }
     pw_sbuf_puts(b, " <a href=\"#azeotropes\">details</a>");
     answer_end(b);
     if (c->column) {
-        const pw_column_result *k = &c->col;
+        const pw_column_result *k = &c->dc.col;
         answer(b, "Split");
-        if (c->col_status != PW_OK) {
+        if (c->dc.status != PW_OK) {
             pw_sbuf_puts(b, "<span class=\"verdict-fail\">the column analysis failed: ");
-            esc(b, pw_strerror(c->col_status));
+            esc(b, pw_strerror(c->dc.status));
             pw_sbuf_puts(b, "</span>");
         } else if (!k->feasible) {
             pw_sbuf_puts(b, "<span class=\"verdict-fail\">not feasible by ordinary distillation at "
@@ -922,7 +1052,21 @@ static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
             pw_sbuf_puts(b, ", is the one which goes to the bottoms");
         }
         answer_end(b);
-        if (c->col_status == PW_OK && k->feasible) {
+        const pw_draw_decanter *dk = &c->dc.decanter;
+        if (c->dc.hetero_blocked && dk->status == PW_OK && dk->res.feasible) {
+            char t1[48];
+            pw_report_T(&c->units, dk->res.decanter.T_K, 2, t1, sizeof t1);
+            answer(b, "Decanter scheme");
+            pw_sbuf_printf(b, "layers x\xe2\x82\x81 = %.4f and %.4f at %s; ", dk->res.decanter.x[0],
+                           dk->res.decanter.x[1], t1);
+            for (int i = 0; i < 2; i++)
+                pw_sbuf_printf(b, "%scolumn %s minimum V/B %.4g, %.3g stages at %.2g times it",
+                               i ? "; " : "", i ? "B" : "A", dk->res.col[i].boilup_min,
+                               dk->stairs[i].stages, dk->factor);
+            pw_sbuf_puts(b, " <a href=\"#decanter\">details</a>");
+            answer_end(b);
+        }
+        if (c->dc.status == PW_OK && k->feasible) {
             answer(b, "Minimum reflux");
             pw_sbuf_printf(b, "R<sub>min</sub> = %.4g, %s pinch in the %s section at x = %.4f",
                            k->r_min, k->pinch.kind == PW_PINCH_TANGENT ? "tangent" : "feed",
@@ -936,10 +1080,10 @@ static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
             pw_sbuf_puts(b, " <a href=\"#column\">details</a>");
             answer_end(b);
             answer(b, "Stages");
-            if (isfinite(c->stages_op))
+            if (isfinite(c->dc.stairs.stages))
                 pw_sbuf_printf(b, "%.3g equilibrium stages at %.2g R<sub>min</sub> (R = %.4g), feed "
                                   "on stage %d; ",
-                               c->stages_op, c->factor, c->r_op, c->feed_stage_op);
+                               c->dc.stairs.stages, c->factor, c->dc.r_op, c->dc.stairs.feed_stage);
             else
                 pw_sbuf_printf(b, "the column cannot be stepped at %.2g R<sub>min</sub>; ", c->factor);
             pw_sbuf_printf(b, "N<sub>min</sub> %.3g at total reflux (partial reboiler counted)",
@@ -970,7 +1114,11 @@ static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
     const char *warn[6];
     if (!r->converged)
         warn[nw++] = "the fit did not converge: every number is provisional";
-    if (r->split)
+    if (r->split && c->phase.az.three_phase.exists)
+        warn[nw++] = "the fitted parameters predict two liquid layers at the boiling point: the page "
+                     "draws the three-phase line and the two-liquid region; check the layers "
+                     "against measured solubilities";
+    else if (r->split)
         warn[nw++] = "the fitted parameters predict a liquid-liquid split: one-liquid results may be wrong";
     if (c->cons_ran && !c->cons.consistent)
         warn[nw++] = "the measured data are not shown consistent: check them before designing";
@@ -978,7 +1126,7 @@ static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
         warn[nw++] = "models that fit about equally well disagree on the azeotrope";
     if (c->rank && c->rank_status == PW_OK && (c->rank->rmin_differs || c->rank->feasibility_differs))
         warn[nw++] = "models that fit about equally well disagree on R_min or on feasibility";
-    if (c->column && c->col_status == PW_OK && c->col.feasible && c->col.pinch.kind == PW_PINCH_TANGENT)
+    if (c->column && c->dc.status == PW_OK && c->dc.col.feasible && c->dc.col.pinch.kind == PW_PINCH_TANGENT)
         warn[nw++] = "tangent pinch: stage counts near minimum reflux are very sensitive to the model";
     answer(b, "Warnings");
     if (nw == 0)
@@ -1001,7 +1149,7 @@ pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c
     const pw_fit_result *r = c->fit;
     pw_sbuf *b = &rep->html;
     char cond[64];
-    pw_report_condition(r, cond, sizeof cond);
+    pw_report_condition(r, &c->units, cond, sizeof cond);
     pw_sbuf_puts(b, "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">\n"
                     "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n"
                     "<meta http-equiv=\"Content-Security-Policy\" content=\"default-src 'none'; "
@@ -1021,7 +1169,11 @@ pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c
     pw_sbuf_puts(b, r->kind == PW_DATA_ISOTHERMAL ? "isothermal at " : "isobaric at ");
     esc(b, cond);
     if (c->column)
-        pw_sbuf_printf(b, " \xc2\xb7 column at %.4g kPa", c->P_col_Pa / 1000.0);
+    {
+        char pc[48];
+        pw_report_P(&c->units, c->P_col_Pa, 4, pc, sizeof pc);
+        pw_sbuf_printf(b, " \xc2\xb7 column at %s", pc);
+    }
     pw_sbuf_puts(b, "</p></header>\n");
     answers(b, c, cond);
     provenance(b, r, in);
@@ -1034,10 +1186,10 @@ pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c
                         "below as provisional.</p>\n");
     pw_sbuf_puts(b, "<section id=\"plots\"><h2>Plots</h2>\n");
     for (size_t i = 0; i < rep->n_svg; i++)
-        figure(b, &rep->svg[i], caption_for(rep->svg[i].name, c->column));
+        figure(b, &rep->svg[i], caption_for(rep->svg[i].name, c));
     pw_sbuf_puts(b, "</section>\n");
-    parameters(b, r);
-    deviations(b, r);
+    parameters(b, r, &c->units);
+    deviations(b, r, &c->units);
     diagnostics_section(b, c);
     ranking(b, c);
     consistency_section(b, c);

@@ -9,18 +9,20 @@
 #include <pinchwise/column.h>
 #include <pinchwise/consistency.h>
 #include <pinchwise/design.h>
+#include <pinchwise/drawing.h>
 #include <pinchwise/fit.h>
 #include <pinchwise/fit_diagnostics.h>
 #include <pinchwise/report.h>
 #include <pinchwise/uncertainty.h>
+#include <pinchwise/units.h>
 
 /* NAN as a double (the macro is a float, which -Wdouble-promotion flags in ?: ). */
 #define PW_NAN ((double)NAN)
 
-#define PW_REPORT_MAX_FILES 12
-#define PW_REPORT_MAX_AZ 4
-#define PW_REPORT_GRID 161
-#define PW_REPORT_MAX_STEPS 120
+#define PW_REPORT_MAX_FILES 16
+#define PW_REPORT_MAX_AZ PW_DRAW_MAX_AZ
+#define PW_REPORT_GRID PW_DRAW_GRID
+#define PW_REPORT_MAX_MODELS 9
 #define PW_REPORT_BAND_NX 61
 #define PW_REPORT_BAND_CURVES 40
 #define PW_REPORT_BAND_HALF 0.15
@@ -32,49 +34,32 @@ typedef struct pw_report_file {
     pw_sbuf text;
 } pw_report_file;
 
-/* An azeotrope of the model at a fixed P (T varies) or fixed T (P varies). */
-typedef struct pw_report_az {
-    double x1, T_K, P_Pa;
-    bool min_boiling;
-    bool tangential;   /* a double root (the azeotrope module's flag) */
-} pw_report_az;
-
-/* Everything computed from the fit (arrays of PW_REPORT_GRID points; NAN where a solve failed). */
+/* Everything computed from the fit by the library (include/pinchwise/drawing.h and the
+ * assessments): the report only renders it. */
 typedef struct pw_report_curves {
     const pw_fit_result *fit;
     bool isothermal;
-    double x[PW_REPORT_GRID];
-    double bub_T[PW_REPORT_GRID], bub_P[PW_REPORT_GRID], bub_y[PW_REPORT_GRID];
-    double dew_y[PW_REPORT_GRID], dew_T[PW_REPORT_GRID], dew_P[PW_REPORT_GRID];
-    double lg1[PW_REPORT_GRID], lg2[PW_REPORT_GRID];
-    size_t n_failed;                 /* equilibrium solves that failed (gaps) */
-    pw_report_az az[PW_REPORT_MAX_AZ];
-    size_t n_az;
-    bool az_from_module;             /* false: the report's fallback search was used */
+    pw_display_units units;          /* display units of temperature and pressure */
+    pw_draw_phase phase;             /* curves, azeotropes, three-phase line at the data's condition */
+    size_t n_failed;                 /* equilibrium solves that failed on the drawn grids (gaps) */
+    bool az_from_module;             /* false: an azeotrope search failed (the page says so) */
+    /* the other models of the same data, overlaid on one plot (pw_report_input.others) */
+    size_t n_models;
+    const pw_fit_result *model_fit[PW_REPORT_MAX_MODELS];
+    pw_draw_phase *model_phase;      /* n_models entries (owned); [0] is the report's own fit */
     /* column (when requested) */
     bool column;
     pw_column_spec spec;
-    double P_col_Pa, factor, r_op;
-    double col_y[PW_REPORT_GRID];    /* y*(x) at the column pressure */
-    pw_report_az col_az[PW_REPORT_MAX_AZ];
-    size_t n_col_az;
-    pw_column_result col;
-    pw_status col_status;            /* of pw_column_solve */
-    double stages_op;                /* at r_op (pw_column_step) */
-    int feed_stage_op;
-    pw_profile profile_op;           /* stage profile at r_op (pw_cmo_profile); n = 0 if none */
+    double P_col_Pa, factor;
+    pw_draw_xy xy;                   /* the curve and azeotropes at the column pressure */
+    pw_draw_column dc;               /* construction, staircase, pinch window, decanter scheme */
+    pw_profile profile_op;           /* stage profile at the operating R (pw_cmo_profile); n = 0 if none */
     bool energy;                     /* pw_report_input.energy with a column */
     pw_status energy_status;         /* of the heat data, then of pw_energy_column_solve */
     char energy_error[PW_ERROR_MSG_MAX];
     pw_energy_result energy_res;
     pw_design_table energy_design;   /* design rows at the factors and the operating factor */
-    double en_hL[PW_REPORT_GRID], en_HV[PW_REPORT_GRID]; /* saturated liquid at x, vapor at y = x,
-                                                            J/mol (NAN where a solve failed) */
-    double step_x[2 * PW_REPORT_MAX_STEPS + 2], step_y[2 * PW_REPORT_MAX_STEPS + 2];
-    size_t n_step;
-    double T_top_K, T_bottom_K;      /* bubble T of xd and xb at the column pressure */
-    pw_az_result az_res, col_az_res; /* the azeotrope module's results behind az / col_az */
-    bool az_res_ok, col_az_res_ok;
+    pw_draw_enthalpy en;             /* saturated liquid and vapor enthalpies, J/mol */
     /* uncertainty (pw_report_input.uncertainty); see report_unc.c */
     bool unc;
     pw_unc_options unc_opt;
@@ -126,7 +111,10 @@ pw_status pw_report_render_csv(struct pw_report *rep, const pw_report_curves *c)
 pw_status pw_report_render_html(struct pw_report *rep, const pw_report_curves *c,
                                 const pw_report_input *in);
 
-/* Short words for displaying conditions: "101.3 kPa", "323.15 K". */
-void pw_report_condition(const pw_fit_result *r, char *buf, size_t len);
+/* Short words for displaying conditions in the display units: "101.3 kPa", "50 \u00b0C". */
+void pw_report_condition(const pw_fit_result *r, const pw_display_units *u, char *buf, size_t len);
+/* A temperature or a pressure with its display unit: "351.4 K", "1.013 bar" (%.*f / %.*g). */
+void pw_report_T(const pw_display_units *u, double T_K, int decimals, char *buf, size_t len);
+void pw_report_P(const pw_display_units *u, double P_Pa, int digits, char *buf, size_t len);
 
 #endif

@@ -14,7 +14,7 @@
 /* The window of the band: pinch x +/- PW_REPORT_BAND_HALF, clipped to the products' range. */
 static void band_window(const pw_report_curves *c, double *lo, double *hi)
 {
-    double xp = c->col.pinch.x;
+    double xp = c->dc.col.pinch.x;
     *lo = fmax(fmin(c->spec.xb, c->spec.xd), xp - PW_REPORT_BAND_HALF);
     *hi = fmin(fmax(c->spec.xb, c->spec.xd), xp + PW_REPORT_BAND_HALF);
 }
@@ -22,7 +22,7 @@ static void band_window(const pw_report_curves *c, double *lo, double *hi)
 static pw_status band(pw_report_curves *c, const pw_report_input *in, pw_unc_column_ctx *col)
 {
     c->band_status = PW_EINVAL;
-    if (c->col_status != PW_OK || !c->col.feasible || !isfinite(c->col.pinch.x))
+    if (!c->dc.drawn || !isfinite(c->dc.col.pinch.x))
         return PW_OK;
     double lo, hi;
     band_window(c, &lo, &hi);
@@ -42,11 +42,12 @@ static pw_status band(pw_report_curves *c, const pw_report_input *in, pw_unc_col
     c->band_status = st;
     if (st != PW_OK)
         return PW_OK;
-    for (size_t j = 0; j < PW_REPORT_BAND_NX; j++) {
-        pw_eq_point e;
-        c->band_best[j] = pw_bubble_T(&c->fit->sys, c->P_col_Pa, c->band_x[j], &e) == PW_OK
-                              ? e.y1
-                              : PW_NAN;
+    double xs[PW_REPORT_BAND_NX];
+    st = pw_draw_curve_window(&c->fit->sys, c->P_col_Pa, lo, hi, PW_REPORT_BAND_NX, xs,
+                              c->band_best);
+    if (st != PW_OK) {
+        c->band_status = st;
+        return PW_OK;
     }
     c->band_n = n;
     c->band_lo = lo;
@@ -75,9 +76,11 @@ pw_status pw_report_unc_compute(pw_report_curves *c, const pw_report_input *in)
     c->unc_opt = in->unc;
     c->unc_col_status = PW_EINVAL;
     c->band_status = PW_EINVAL;
-    pw_status st = azeo(c, &c->az_res, c->az_res_ok, c->unc_az, &c->unc_az_status);
+    pw_status st = azeo(c, &c->phase.az.found, c->phase.az.status == PW_OK, c->unc_az,
+                        &c->unc_az_status);
     if (st == PW_OK && c->column)
-        st = azeo(c, &c->col_az_res, c->col_az_res_ok, c->unc_col_az, &c->unc_col_az_status);
+        st = azeo(c, &c->xy.az.found, c->xy.az.status == PW_OK, c->unc_col_az,
+                  &c->unc_col_az_status);
     if (st != PW_OK || !c->column)
         return st;
     pw_unc_column_ctx col = pw_unc_column_ctx_make(c->P_col_Pa, &c->spec);

@@ -12,8 +12,15 @@ Checks:
      NaN/Inf, and two axis labels that carry a unit ("/").
   4. The page holds no script, no external stylesheet, font, image or link to a network address.
   5. A full-page screenshot is written (PNG signature, non-trivial size).
+  6. No clipped labels: in a copy of the page (the content policy removed, a measuring script
+     added; the report itself stays script-free) the rendered box of every SVG text element lies
+     inside its plot's box, which is the plot's viewBox as drawn. A control page with one text
+     sticking out of its plot proves the measurement can fail.
+  7. The pinch marker (g.pw-pinch) comes after every group of data markers in its plot, so it is
+     drawn above them.
 Only the Python standard library is used. Exit 0 on success, 1 with a message on failure.
 """
+import html
 import html.parser
 import os
 import re
@@ -39,6 +46,58 @@ def run_chromium(chromium, url, extra):
         shutil.rmtree(profile, ignore_errors=True)
 
 
+MEASURE = """<script>
+(function () {
+  var out = [];
+  var svgs = document.querySelectorAll('svg[id]');
+  for (var i = 0; i < svgs.length; i++) {
+    var s = svgs[i], r = s.getBoundingClientRect(), n = 0;
+    var texts = s.querySelectorAll('text');
+    for (var j = 0; j < texts.length; j++) {
+      var t = texts[j].getBoundingClientRect();
+      if (t.width === 0 && t.height === 0) continue;
+      n++;
+      if (t.left < r.left - 0.5 || t.right > r.right + 0.5 || t.top < r.top - 0.5 ||
+          t.bottom > r.bottom + 0.5)
+        out.push('CLIPPED ' + s.id + ': "' + texts[j].textContent + '" [' +
+                 [t.left - r.left, t.top - r.top, t.right - r.left, t.bottom - r.top]
+                 .map(function (v) { return v.toFixed(1); }).join(', ') + '] in ' +
+                 r.width.toFixed(1) + ' x ' + r.height.toFixed(1));
+    }
+    out.push('MEASURED ' + s.id + ' ' + n);
+  }
+  var pre = document.createElement('pre');
+  pre.id = 'pw-bbox-result';
+  pre.textContent = out.join('\\n');
+  document.body.appendChild(pre);
+})();
+</script>"""
+
+
+def measure_texts(chromium, page, work, name):
+    """Returns (clipped, measured) from the text boxes of page: lists of messages and a dict
+    svg id -> number of texts measured."""
+    with open(page, encoding="utf-8") as f:
+        text = f.read()
+    text = re.sub(r'<meta http-equiv="Content-Security-Policy"[^>]*>', "", text)
+    text = text.replace("</body>", MEASURE + "</body>")
+    copy = os.path.join(work, name)
+    with open(copy, "w", encoding="utf-8") as f:
+        f.write(text)
+    dom, _ = run_chromium(chromium, "file://" + copy, ["--window-size=1100,4000", "--dump-dom"])
+    m = re.search(r'<pre id="pw-bbox-result">(.*?)</pre>', dom, re.S)
+    if not m:
+        fail("the measuring script left no result in %s" % name)
+    lines = html.unescape(m.group(1)).split("\n")
+    clipped = [l for l in lines if l.startswith("CLIPPED")]
+    measured = {}
+    for l in lines:
+        if l.startswith("MEASURED"):
+            _, sid, n = l.split(" ")
+            measured[sid] = int(n)
+    return clipped, measured
+
+
 def console_lines(stderr):
     return [l for l in stderr.splitlines() if ":CONSOLE" in l]
 
@@ -53,17 +112,25 @@ class Dom(html.parser.HTMLParser):
         self.groups = []      # classes of the open <g> elements
         self.tags = []
         self.in_label = None  # (svg id, class) while inside an axis-label <text>
+        self.order = 0        # running index of elements, for drawing order
         self.label_text = ""
 
     def handle_starttag(self, tag, attrs):
         a = dict(attrs)
         self.tags.append((tag, a))
+        self.order += 1
         if tag == "svg" and a.get("id"):
-            self.svgs[a["id"]] = {"paths": [], "labels": [], "markers": 0}
+            self.svgs[a["id"]] = {"paths": [], "labels": [], "markers": 0, "last_points": -1,
+                                  "pinch": -1}
             self.stack.append(a["id"])
         cur = self.stack[-1] if self.stack else None
         if tag == "g":
             self.groups.append(a.get("class", ""))
+            cls = a.get("class", "").split()
+            if cur and "pw-points" in cls:
+                self.svgs[cur]["last_points"] = self.order
+            if cur and "pw-pinch" in cls:
+                self.svgs[cur]["pinch"] = self.order
         elif cur and tag in ("circle", "rect", "path") and self.groups and "pw-points" in self.groups[-1]:
             self.svgs[cur]["markers"] += 1
         if cur and tag == "path":
@@ -166,6 +233,36 @@ def main():
             fail("network addresses in the page: %s" % ", ".join(sorted(urls)))
         if re.search(r"@import|@font-face|url\((?!#)", text):
             fail("the stylesheet refers to an outside resource")
+
+        # 6. no clipped labels; the control first
+        ctl3 = os.path.join(work, "control3.html")
+        with open(ctl3, "w") as f:
+            f.write("<!DOCTYPE html><html><head><meta charset=\"utf-8\"><title>c</title></head><body>"
+                    "<svg id=\"plot-control\" viewBox=\"0 0 200 100\" width=\"200\" height=\"100\">"
+                    "<text x=\"150\" y=\"50\">a label running out of its plot</text></svg>"
+                    "</body></html>")
+        clipped, _ = measure_texts(chromium, ctl3, work, "control3_measured.html")
+        if not clipped:
+            fail("the text-box check did not see the control page's clipped label; cannot trust it")
+        clipped, measured = measure_texts(chromium, report, work, "report_measured.html")
+        if clipped:
+            fail("text outside its plot:\n  " + "\n  ".join(clipped))
+        for pid in plots:
+            if measured.get(pid, 0) < 4:
+                fail("plot %s: only %d text elements measured" % (pid, measured.get(pid, 0)))
+        print("browser check: %d text elements, each inside its plot"
+              % sum(measured.values()))
+
+        # 7. the pinch marker above the data markers
+        for pid, svg in p.svgs.items():
+            if svg["pinch"] >= 0 and svg["pinch"] < svg["last_points"]:
+                fail("plot %s: the pinch marker is drawn before (under) a group of data markers"
+                     % pid)
+        if "plot-xy-pinch" in plots:
+            for pid in ("plot-xy", "plot-xy-pinch"):
+                if p.svgs[pid]["pinch"] < 0:
+                    fail("plot %s: no pinch marker" % pid)
+            print("browser check: the pinch marker is drawn above the data markers")
 
         # 5. screenshot
         os.makedirs(os.path.dirname(os.path.abspath(shot)), exist_ok=True)

@@ -24,7 +24,7 @@ python3 - "$TMP/out.json" "$TMP/r.html" <<'PY' || fail "JSON keys"
 import json, sys
 o = json.load(open(sys.argv[1]))
 assert set(o) == {"report", "plots"}, o
-assert o["report"] == sys.argv[2] and o["plots"] == 5, o
+assert o["report"] == sys.argv[2] and o["plots"] == 6, o  # with the column: the enlarged view near the pinch
 PY
 head -c 15 "$TMP/r.html" | grep -q '<!DOCTYPE html>' || fail "the page does not start with a doctype"
 for id in provenance plots parameters deviations consistency azeotropes column cautions; do
@@ -61,7 +61,7 @@ for f in xy txy residual_y residual_T lngamma; do
     head -c 5 "$TMP/svg/$f.svg" | grep -q '<?xml' || fail "$f.svg is not a standalone SVG file"
     grep -q '<path d="M' "$TMP/svg/$f.svg" || fail "$f.svg has no path"
 done
-[ "$(ls "$TMP/svg" | wc -l)" -eq 5 ] || fail "expected 5 svg files: $(ls "$TMP/svg")"
+[ "$(ls "$TMP/svg" | wc -l)" -eq 6 ] || fail "expected 6 svg files: $(ls "$TMP/svg")"
 for f in model_curves points column_curve column_lines; do
     [ -s "$TMP/csv/$f.csv" ] || fail "$f.csv missing"
 done
@@ -132,7 +132,7 @@ PY
 python3 - "$TMP/u.json" "$TMP/u.html" "$TMP/ur.json" "$TMP/ucsv/pinch_band.csv" <<'PY' || fail "uncertainty report content"
 import csv, json, math, re, sys
 o = json.load(open(sys.argv[1]))
-assert o == {"report": sys.argv[2], "plots": 6, "uncertainty": True}, o
+assert o == {"report": sys.argv[2], "plots": 7, "uncertainty": True}, o
 page = open(sys.argv[2]).read()
 r = json.load(open(sys.argv[3]))["uncertainty"]
 # the band plot: 40 sampled curves with path data, the best fit, the R_min line, the pinch
