@@ -67,6 +67,8 @@ pw_status pw_unc_sampler_init(pw_unc_sampler *s, const pw_system *sys,
     const size_t p = s->p;
     if (p == 0)
         return PW_OK; /* nothing uncertain: every draw is the estimate */
+    if (p > PW_MAX_PARAMS) /* cannot happen (the loop above stops there); tells the compiler */
+        return PW_EINVAL;
     double r[PW_MAX_PARAMS * PW_MAX_PARAMS];
     for (size_t i = 0; i < p; i++)
         for (size_t j = 0; j < p; j++) {
@@ -78,8 +80,7 @@ pw_status pw_unc_sampler_init(pw_unc_sampler *s, const pw_system *sys,
     double a[PW_MAX_PARAMS * PW_MAX_PARAMS];
     memcpy(a, r, sizeof(double) * p * p);
     lapack_int info = LAPACKE_dpotrf(LAPACK_ROW_MAJOR, 'L', (lapack_int)p, a, (lapack_int)p);
-    double L0[PW_MAX_PARAMS][PW_MAX_PARAMS];
-    memset(L0, 0, sizeof L0);
+    double L0[PW_MAX_PARAMS][PW_MAX_PARAMS] = {{0.0}};
     if (info == 0) {
         for (size_t i = 0; i < p; i++)
             for (size_t j = 0; j <= i; j++)
