@@ -305,7 +305,9 @@ int pw_cli_azeotrope(int argc, char **argv)
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
-    if (a.unc.on && (rc = pw_azeo_uncert_run(&fit, &r, &a.unc, &err)) != 0) {
+    if (a.unc.on && ((rc = pw_azeo_uncert_run(&fit, &r, &a.unc, &err)) != 0 ||
+                     (tp.exists && tp.heterogeneous_azeotrope &&
+                      (rc = pw_azeo_uncert_run_het(&fit, a.mode, a.fixed, &a.unc, &err)) != 0))) {
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
@@ -354,6 +356,8 @@ int pw_cli_azeotrope(int argc, char **argv)
         print_text(&fit, &a, &r, &tp, n_removed, sc, tps);
         if (a.unc.on)
             pw_azeo_uncert_print(&a.unc, &r);
+        if (a.unc.het)
+            pw_het_uncert_print(&a.unc.res_het, &a.unc.opt, a.mode, false);
         rc = fflush(stdout) ? 4 : 0;
     }
     free(tps);

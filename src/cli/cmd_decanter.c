@@ -1,6 +1,7 @@
 /* pinchwise decanter: the decanter and two stripping columns for a partly miscible binary with a
  * heterogeneous azeotrope. Parses, calls src/analysis/decanter.c and prints. */
 #include "analysis_common.h"
+#include "azeo_uncert.h"
 #include "cli.h"
 #include "cli_units.h"
 
@@ -30,6 +31,10 @@ static void usage(FILE *f)
             "  --q Q               feed liquid fraction (default 1); the feed enters the decanter,\n"
             "                      so q changes the condenser duty only, not the flows\n"
             "  --factors F,F,...   design boil-up as multiples of the minimum (default 1.2,1.3,1.5)\n"
+            "  --uncertainty       95 %% intervals of the decanter temperature, vapor, layers and\n"
+            "                      both minimum boil-ups from the fit's parameter covariance, with\n"
+            "                      the share of parameter sets for which the scheme is feasible\n"
+            "  --samples N         parameter sets drawn (default 400); --seed N (default 1)\n"
             "  --json              print one JSON object on stdout\n");
 }
 
@@ -38,6 +43,7 @@ typedef struct args {
     pw_decanter_spec spec;
     pw_column_options opt;
     bool have_P, have_z, have_rich, have_lean, json;
+    pw_azeo_uncert unc; /* --uncertainty, --samples, --seed (the azeotrope command's parser) */
     pw_basis basis[3]; /* of --zf, --x1-rich, --x1-lean as given (mole, or mass: wt, wt%) */
 } args;
 
@@ -86,6 +92,11 @@ static int parse(int argc, char **argv, args *a, pw_error *err)
             a->json = true;
             continue;
         }
+        int urc = pw_azeo_uncert_opt(argc, argv, &i, &a->unc, err);
+        if (urc > 1)
+            return urc;
+        if (urc == 1)
+            continue;
         if (!strncmp(argv[i], "--", 2)) {
             const char *opt = argv[i];
             if (!pw_cli_opt(argc, argv, &i, opt, &v, &missing) || missing) {
@@ -183,8 +194,26 @@ int pw_cli_decanter(int argc, char **argv)
         return pw_cli_fail(CMD, &err);
     }
     const pw_three_phase *tp = &r.decanter;
+    pw_unc_result ures;
+    bool unc = a.unc.on && r.feasible;
+    if (unc) {
+        pw_cli_progress_ctx pc = {CMD, "parameter sets sampled"};
+        pw_unc_options o = a.unc.opt;
+        if (pw_cli_progress_wanted()) {
+            o.progress = pw_cli_progress_tenths;
+            o.progress_ctx = &pc;
+        }
+        pw_unc_het_ctx c = pw_unc_decanter_ctx(&a.spec, &a.opt);
+        if (pw_het_unc_run(&fit, &c, &o, &ures, &err) != PW_OK) {
+            pw_fit_result_free(&fit);
+            return pw_cli_fail(CMD, &err);
+        }
+    }
     if (a.json) {
-        rc = pw_cli_print_json(pw_decanter_doc(&r, &a.spec));
+        json_t *doc = pw_decanter_doc(&r, &a.spec);
+        if (unc)
+            pw_decanter_unc_doc(doc, &ures, a.unc.opt.seed);
+        rc = pw_cli_print_json(doc);
     } else {
         const pw_system *s = &fit.sys;
         printf("Decanter scheme for %s (1) / %s (2), %s model, at %.6g kPa\n", s->comp[0].name,
@@ -205,6 +234,10 @@ int pw_cli_decanter(int argc, char **argv)
                    "  other layers (check them with pinchwise lle at its temperature).\n",
                    a.spec.q);
         }
+        if (unc)
+            pw_het_uncert_print(&ures, &a.unc.opt, PW_AZ_ISOBARIC, true);
+        else if (a.unc.on)
+            printf("\nThe scheme is not feasible at the estimate: no interval to give.\n");
         pw_cli_print_caution(stdout);
         rc = fflush(stdout) ? 4 : 0;
     }
