@@ -48,7 +48,8 @@ void pw_lle_dataset_swap(pw_lle_dataset *d);
 void pw_lle_dataset_free(pw_lle_dataset *d);
 
 /* Three-phase points of a VLE set (METHODS2 3.7: a plateau of equal T, or P, and equal y over a
- * range of x): a run of at least 3 mixture points, consecutive in x and spanning at least 0.1,
+ * range of x): a run of at least 3 mixture points, consecutive in x and spanning at least 0.1
+ * (or of 2 points at least 0.3 apart),
  * whose T (isobaric; P relative when isothermal) and y each have a range within 3 sigma
  * (sigma = the stated uncertainty, at least 0.05 K, 0.01 %, 0.002) and show no trend in x beyond
  * the noise (least-squares slope of T or P within 2 standard errors of zero, of y not above 1.645

@@ -8,7 +8,10 @@
  * split (T and y both nearly stationary), but there y still rises with x (the vapor of a stable
  * liquid gets richer as the liquid does). The rule therefore asks for:
  *   1. at least 3 points whose x spans at least X_SPAN_MIN (0.1: narrower two-liquid gaps lie
- *      near a critical solution point, where a flat single liquid looks the same);
+ *      near a critical solution point, where a flat single liquid looks the same), or exactly
+ *      2 points at least PAIR_SPAN_MIN apart in x (the two layers boiling together, as some
+ *      isothermal sets report them: equal P and y over a third of the composition range is
+ *      no single liquid's, whose y rises with x);
  *   2. constant T (P) and y: the range of each within BAND_SIGMAS = 3 sigma (sigma the stated
  *      uncertainty, not below the rounding floors below; 3 sigma keeps about 95 % of true
  *      plateaus of ~10 points whole, 2 sigma only two thirds: measured in the test);
@@ -25,6 +28,7 @@
 
 #define X_SPAN_MIN 0.10  /* see the header comment and docs/heterogeneous.md 4 */
 #define MIN_POINTS 3
+#define PAIR_SPAN_MIN 0.3 /* two points only when this far apart in x (both layers boiling) */
 #define BAND_SIGMAS 3.0  /* range of T (P) and of y within a run, in sigmas */
 #define SLOPE_Z 2.0      /* T (P) slope within two standard errors of zero (about 95 %) */
 #define SLOPE_Z1 1.645   /* y slope: one-sided 95 % normal quantile */
@@ -75,7 +79,7 @@ size_t pw_three_phase_detect(const pw_point *pts, size_t n, bool isobaric, bool 
         return 0;
     for (size_t i = 0; i < n; i++)
         flags[i] = false;
-    if (!has_y || n < MIN_POINTS)
+    if (!has_y || n < 2)
         return 0;
     key *ks = malloc(n * sizeof *ks);
     double *c = malloc(n * sizeof *c), *y = malloc(n * sizeof *y);
@@ -88,7 +92,7 @@ size_t pw_three_phase_detect(const pw_point *pts, size_t n, bool isobaric, bool 
         if (p->x1 > 0.0 && p->x1 < 1.0 && isfinite(p->y1) && isfinite(cond) && cond > 0.0)
             ks[m++] = (key){p->x1, i};
     }
-    if (m < MIN_POINTS)
+    if (m < 2)
         goto done;
     qsort(ks, m, sizeof *ks, by_x);
     /* the condition on the scale of its uncertainty: T in K; ln P, whose differences are
@@ -105,7 +109,7 @@ size_t pw_three_phase_detect(const pw_point *pts, size_t n, bool isobaric, bool 
      * sloping curve always looks flat */
     bool failed = false;
     size_t failed_end = 0;
-    for (size_t a = 0; a + MIN_POINTS <= m;) {
+    for (size_t a = 0; a + 2 <= m;) {
         /* grow while T (P) and y stay constant within the noise: ranges within BAND_SIGMAS */
         double clo = c[a], chi = c[a], ylo = y[a], yhi = y[a];
         size_t b = a;
@@ -120,11 +124,14 @@ size_t pw_three_phase_detect(const pw_point *pts, size_t n, bool isobaric, bool 
             yhi = nyhi;
             b++;
         }
-        bool plateau = b - a + 1 >= MIN_POINTS && ks[b].x - ks[a].x >= X_SPAN_MIN
+        size_t np = b - a + 1;
+        double span = ks[b].x - ks[a].x;
+        bool enough = np >= MIN_POINTS ? span >= X_SPAN_MIN : np == 2 && span >= PAIR_SPAN_MIN;
+        bool plateau = enough
                        && no_trend(ks, a, b, c, sc, false) && no_trend(ks, a, b, y, sy, true);
         if (failed && b <= failed_end)
             plateau = false;
-        else if (!plateau && b - a + 1 >= MIN_POINTS && ks[b].x - ks[a].x >= X_SPAN_MIN) {
+        else if (!plateau && enough) {
             failed = true;
             failed_end = b;
         }

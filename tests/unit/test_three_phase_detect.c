@@ -62,12 +62,12 @@ static void published_sets(void **state)
     (void)state;
     size_t n;
     assert_int_equal(detect_file("datasets/butanol_water_1atm.csv", true, &n), 7);
+    /* the two rows at 3.716 kPa, x1 0.0188 and 0.4876: the two layers boiling together, a pair
+     * far enough apart in x (Butler et al. 1933, shipped) */
+    assert_int_equal(detect_file("datasets/butanol_water_25C.csv", false, &n), 2);
     static const char *none[] = {
         "datasets/ethanol_water_1atm.csv", "datasets/methanol_water_1atm.csv",
         "datasets/mek_toluene_50C_pxy.csv", "datasets/demo_acetone_water.csv",
-        /* two rows at 3.716 kPa, the two layers boiling together: two points cannot show a
-         * plateau (at least 3 are required), documented in docs/heterogeneous.md 4 */
-        "datasets/butanol_water_25C.csv",
     };
     for (size_t k = 0; k < sizeof none / sizeof none[0]; k++) {
         size_t got = detect_file(none[k], false, NULL);
@@ -91,7 +91,11 @@ static void edges(void **state)
     }
     assert_int_equal(pw_three_phase_detect(p, 6, true, true, 0.1, NAN, 0.004, f), 6);
     assert_int_equal(pw_three_phase_detect(p, 6, true, false, 0.1, NAN, 0.004, f), 0);
+    /* two points 0.15 apart: not enough; 0.3 apart: both layers boiling together */
     assert_int_equal(pw_three_phase_detect(p, 2, true, true, 0.1, NAN, 0.004, f), 0);
+    assert_int_equal(pw_three_phase_detect(p + 1, 2, true, true, 0.1, NAN, 0.004, f), 0);
+    pw_point pair[2] = {p[0], p[2]};
+    assert_int_equal(pw_three_phase_detect(pair, 2, true, true, 0.1, NAN, 0.004, f), 2);
     /* isothermal: constant P and y */
     assert_int_equal(pw_three_phase_detect(p, 6, false, true, 0.1, 0.001, 0.004, f), 6);
     /* 20 points over x 0.05-0.90 with y rising steadily by 0.0064 in all: inside the band of
