@@ -169,6 +169,23 @@ pw_status pw_azeotrope_unc_run(const pw_fit_result *fit, const pw_az_result *r,
 void pw_azeotrope_unc_doc(json_t *list, const pw_az_result *r, const pw_unc_result *res, size_t n,
                           unsigned long seed);
 
+/* The heterogeneous azeotrope's and the decanter scheme's propagation (pw_unc_het_assess), with
+ * an error naming the fit's data set. */
+pw_status pw_het_unc_run(const pw_fit_result *fit, const pw_unc_het_ctx *ctx,
+                         const pw_unc_options *opt, pw_unc_result *res, pw_error *err);
+
+/* Adds to the heterogeneous azeotrope's entry of the azeotrope document: x1_ci95 (of the vapor,
+ * the azeotrope's composition), T_K_ci95 (fixed P) or P_kPa_ci95 (fixed T), x1_liquids_ci95
+ * ([[lo, hi], [lo, hi]]) and an "uncertainty" object with every output and the draw counts
+ * ("split_lost": draws whose model no longer gives a heterogeneous azeotrope). */
+void pw_het_azeo_unc_doc(json_t *entry, const pw_unc_result *res, pw_az_mode mode,
+                         unsigned long seed);
+
+/* Adds an "uncertainty" object to a decanter document: the decanter temperature, vapor and
+ * layers, each column's minimum boil-up (boilup_min_ci95 also on each column), the share of
+ * draws for which the scheme is feasible and the draw counts. */
+void pw_decanter_unc_doc(json_t *doc, const pw_unc_result *res, unsigned long seed);
+
 #ifdef __cplusplus
 }
 #endif

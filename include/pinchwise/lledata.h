@@ -48,11 +48,13 @@ void pw_lle_dataset_swap(pw_lle_dataset *d);
 void pw_lle_dataset_free(pw_lle_dataset *d);
 
 /* Three-phase points of a VLE set (METHODS2 3.7: a plateau of equal T, or P, and equal y over a
- * range of x): two mixture points are linked when their measured T (isobaric; P when
- * isothermal) differ by at most max(sigma_T, 0.05 K) (max(sigma_P, 0.01 %) relative) and their
- * y by at most max(sigma_y, 0.002); every linked group whose x spans at least 0.05 is a
- * plateau, and its points are three-phase points (flags[i] true). Needs y (returns 0
- * without). Returns how many points were flagged. */
+ * range of x): a run of at least 3 mixture points, consecutive in x and spanning at least 0.1
+ * (or of 2 points at least 0.3 apart),
+ * whose T (isobaric; P relative when isothermal) and y each have a range within 3 sigma
+ * (sigma = the stated uncertainty, at least 0.05 K, 0.01 %, 0.002) and show no trend in x beyond
+ * the noise (least-squares slope of T or P within 2 standard errors of zero, of y not above 1.645
+ * standard errors). Flagged points get flags[i] true. Needs y (returns 0 without). Returns how many
+ * points were flagged. Rule, reasons and measured error rates: docs/heterogeneous.md 4. */
 size_t pw_three_phase_detect(const pw_point *pts, size_t n, bool isobaric, bool has_y,
                              double sigma_T_K, double sigma_P_rel, double sigma_y, bool *flags);
 

@@ -20,6 +20,7 @@
 
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/column.h>
+#include <pinchwise/decanter.h>
 #include <pinchwise/equilibrium.h>
 #include <pinchwise/fit.h>
 #include <pinchwise/status.h>
@@ -182,6 +183,42 @@ pw_status pw_unc_azeo_fn(void *ctx, const pw_system *sys, double *out);
 pw_status pw_unc_azeo_assess(const pw_fit_result *fit, const pw_az_result *r,
                              const pw_unc_options *opt, pw_unc_result res[PW_AZ_MAX],
                              size_t *failed);
+
+/* ---- Heterogeneous azeotrope and the decanter scheme (src/analysis/uncertainty_het.c) ----- */
+
+/* Outputs of pw_unc_het_fn: the three-phase temperature [K] at fixed P (pressure [kPa] at fixed
+ * T), the vapor y3 (the heterogeneous azeotrope's composition), the layers x_I < x_II; with the
+ * decanter also the minimum boil-up V/B of column A (bottoms rich in 1) and of column B. */
+enum {
+    PW_UNC_HET_TP = 0, PW_UNC_HET_Y = 1, PW_UNC_HET_XI = 2, PW_UNC_HET_XII = 3,
+    PW_UNC_HET_NOUT = 4,
+    PW_UNC_DEC_SA = 4, PW_UNC_DEC_SB = 5, PW_UNC_DEC_NOUT = 6
+};
+
+typedef struct pw_unc_het_ctx {
+    bool decanter;           /* false: the heterogeneous azeotrope; true: the decanter scheme */
+    pw_az_mode mode;         /* the azeotrope's condition (the decanter is always at spec.P_Pa) */
+    double fixed;            /* P in Pa (isobaric) or T in K (isothermal) */
+    pw_decanter_spec spec;   /* decanter only */
+    pw_column_options opt;   /* decanter only: grid and stage limits; design rows are not needed */
+} pw_unc_het_ctx;
+
+/* The heterogeneous azeotrope at (mode, fixed). */
+pw_unc_het_ctx pw_unc_het_azeo_ctx(pw_az_mode mode, double fixed);
+/* The decanter scheme of spec (opt NULL = column defaults; its design factors are dropped). */
+pw_unc_het_ctx pw_unc_decanter_ctx(const pw_decanter_spec *spec, const pw_column_options *opt);
+
+/* Fills out[0 .. PW_UNC_HET_NOUT - 1] (and the two boil-ups for the decanter). PW_EINFEASIBLE,
+ * counted as an outcome, when the parameter set has no split at the three-phase condition, a
+ * heterogeneous non-azeotrope (y3 outside the layers), or (decanter) an infeasible scheme for
+ * the given products. ctx is a pw_unc_het_ctx. */
+pw_status pw_unc_het_fn(void *ctx, const pw_system *sys, double *out);
+
+/* Propagates the fit's covariance into the heterogeneous azeotrope (n_out PW_UNC_HET_NOUT) or
+ * the decanter scheme (PW_UNC_DEC_NOUT), per ctx. Errors as pw_unc_propagate; a point estimate
+ * without the split is res->point_status PW_EINFEASIBLE, not an error. */
+pw_status pw_unc_het_assess(const pw_fit_result *fit, const pw_unc_het_ctx *ctx,
+                            const pw_unc_options *opt, pw_unc_result *res);
 
 /* ---- Model risk ---------------------------------------------------------------------------- */
 

@@ -44,9 +44,68 @@ pw_status pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw
     return PW_OK;
 }
 
+pw_status pw_azeo_uncert_run_het(const pw_fit_result *fit, pw_az_mode mode, double fixed,
+                                 pw_azeo_uncert *u, pw_error *err)
+{
+    pw_cli_progress_ctx pc = {"azeotrope", "parameter sets sampled (heterogeneous azeotrope)"};
+    pw_unc_options o = u->opt;
+    if (pw_cli_progress_wanted()) {
+        o.progress = pw_cli_progress_tenths;
+        o.progress_ctx = &pc;
+    }
+    pw_unc_het_ctx c = pw_unc_het_azeo_ctx(mode, fixed);
+    pw_status st = pw_het_unc_run(fit, &c, &o, &u->res_het, err);
+    if (st != PW_OK)
+        return st;
+    u->het = true;
+    u->het_mode = mode;
+    return PW_OK;
+}
+
 void pw_azeo_uncert_json(const pw_azeo_uncert *u, const pw_az_result *r, json_t *list)
 {
     pw_azeotrope_unc_doc(list, r, u->res, u->n, u->opt.seed);
+    if (u->het) /* the heterogeneous entry follows the homogeneous ones */
+        pw_het_azeo_unc_doc(json_array_get(list, r->n), &u->res_het, u->het_mode, u->opt.seed);
+}
+
+static void print_interval(const char *what, const pw_unc_output *o, const char *unit)
+{
+    if (!isfinite(o->ci[0]))
+        printf("    %-24s %.6g%s%s: no interval\n", what, o->value, *unit ? " " : "", unit);
+    else
+        printf("    %-24s %.6g, 95 %% interval %.6g to %.6g%s%s (%s)\n", what, o->value, o->ci[0],
+               o->ci[1], *unit ? " " : "", unit, o->ci_sampled ? "sampled" : "linearised");
+}
+
+void pw_het_uncert_print(const pw_unc_result *res, const pw_unc_options *opt, pw_az_mode mode,
+                         bool decanter)
+{
+    bool isP = mode == PW_AZ_ISOBARIC;
+    printf("\nUncertainty of the %s from the fit's parameter covariance (%zu draws, seed %lu):\n",
+           decanter ? "decanter scheme" : "heterogeneous azeotrope", opt->samples, opt->seed);
+    print_interval(isP ? "three-phase T" : "three-phase P", &res->out[PW_UNC_HET_TP],
+                   isP ? "K" : "kPa");
+    print_interval("vapor x1", &res->out[PW_UNC_HET_Y], "");
+    print_interval("layer lean in 1, x1", &res->out[PW_UNC_HET_XI], "");
+    print_interval("layer rich in 1, x1", &res->out[PW_UNC_HET_XII], "");
+    if (decanter) {
+        print_interval("column A minimum V/B", &res->out[PW_UNC_DEC_SA], "");
+        print_interval("column B minimum V/B", &res->out[PW_UNC_DEC_SB], "");
+    }
+    if (res->n_infeasible)
+        printf("    in %zu of %zu parameter sets drawn (%.0f %%) %s\n", res->n_infeasible,
+               res->n_feasible + res->n_infeasible, 100.0 * (1.0 - res->p_feasible),
+               decanter ? "the scheme cannot make the products (no split, or a column blocked)"
+                        : "the model no longer gives a heterogeneous azeotrope (no split, or the "
+                          "vapor outside the layers)");
+    if (res->n_failed)
+        printf("    %zu draws failed to compute and are left out\n", res->n_failed);
+    for (int i = 0; i < (decanter ? PW_UNC_DEC_NOUT : PW_UNC_HET_NOUT); i++)
+        if (res->out[i].disagree) {
+            printf("    linearised and sampled intervals differ: strongly non-linear here\n");
+            break;
+        }
 }
 
 void pw_azeo_uncert_print(const pw_azeo_uncert *u, const pw_az_result *r)
@@ -67,6 +126,6 @@ void pw_azeo_uncert_print(const pw_azeo_uncert *u, const pw_az_result *r)
         if (x->disagree || t->disagree)
             printf("    linearised and sampled intervals differ: strongly non-linear here\n");
     }
-    if (u->on && u->n == 0)
+    if (u->on && u->n == 0 && !u->het)
         printf("\nNo azeotrope at the estimate, so there is no interval to give.\n");
 }

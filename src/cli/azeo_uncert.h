@@ -13,6 +13,9 @@ typedef struct pw_azeo_uncert {
     pw_unc_options opt;
     size_t n;
     pw_unc_result res[PW_AZ_MAX];
+    bool het;               /* the heterogeneous azeotrope was propagated into res_het */
+    pw_az_mode het_mode;
+    pw_unc_result res_het;
 } pw_azeo_uncert;
 
 /* The uncertainty block's options of p (pw_cli_block_uncertainty) into u. */
@@ -21,6 +24,15 @@ void pw_azeo_uncert_from(const pw_cli_args *p, pw_azeo_uncert *u);
 /* Propagates every azeotrope of r. PW_OK or the status with err. */
 pw_status pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_uncert *u,
                        pw_error *err);
+
+/* Propagates the heterogeneous azeotrope at (mode, fixed) into u->res_het; a status, with err. */
+pw_status pw_azeo_uncert_run_het(const pw_fit_result *fit, pw_az_mode mode, double fixed,
+                                 pw_azeo_uncert *u, pw_error *err);
+
+/* Text lines for a heterogeneous azeotrope's or a decanter's result (decanter true: the two
+ * minimum boil-ups too). */
+void pw_het_uncert_print(const pw_unc_result *res, const pw_unc_options *opt, pw_az_mode mode,
+                         bool decanter);
 
 /* Adds x1_ci95 and T_K_ci95 / P_kPa_ci95 (CONTRACT) and an "uncertainty" object to each element
  * of the azeotrope list. */

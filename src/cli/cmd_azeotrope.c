@@ -283,7 +283,9 @@ pw_status pw_cli_azeotrope(int argc, char **argv)
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
-    if (a.unc.on && (rc = pw_azeo_uncert_run(&fit, &r, &a.unc, &err)) != PW_OK) {
+    if (a.unc.on && ((rc = pw_azeo_uncert_run(&fit, &r, &a.unc, &err)) != PW_OK ||
+                     (tp.exists && tp.heterogeneous_azeotrope &&
+                      (rc = pw_azeo_uncert_run_het(&fit, a.mode, a.fixed, &a.unc, &err)) != PW_OK))) {
         pw_fit_result_free(&fit);
         return pw_cli_fail(CMD, &err);
     }
@@ -332,6 +334,8 @@ pw_status pw_cli_azeotrope(int argc, char **argv)
         print_text(&fit, &a, &r, &tp, n_removed, sc, tps);
         if (a.unc.on)
             pw_azeo_uncert_print(&a.unc, &r);
+        if (a.unc.het)
+            pw_het_uncert_print(&a.unc.res_het, &a.unc.opt, a.mode, false);
         rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     free(tps);

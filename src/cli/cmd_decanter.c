@@ -1,6 +1,7 @@
 /* pinchwise decanter: the decanter and two stripping columns for a partly miscible binary with a
  * heterogeneous azeotrope. Parses, calls src/analysis/decanter.c and prints. */
 #include "analysis_common.h"
+#include "azeo_uncert.h"
 #include "cli.h"
 #include "cli_units.h"
 #include "cli_options.h"
@@ -19,6 +20,7 @@ typedef struct args {
     pw_decanter_spec spec;
     pw_column_options opt;
     bool have_P, have_z, have_rich, have_lean, json;
+    pw_azeo_uncert unc; /* --uncertainty, --samples, --seed (the azeotrope command's parser) */
     pw_basis basis[3]; /* of --zf, --x1-rich, --x1-lean as given (mole, or mass: wt, wt%) */
 } args;
 
@@ -48,8 +50,8 @@ static const pw_cli_option decanter_options[] = {
 };
 
 static const pw_cli_option *const decanter_blocks[] = {
-    pw_cli_block_pressure, pw_cli_block_feed, decanter_options, pw_cli_block_components,
-    pw_cli_block_json, NULL,
+    pw_cli_block_pressure, pw_cli_block_feed, decanter_options, pw_cli_block_uncertainty,
+    pw_cli_block_components, pw_cli_block_json, NULL,
 };
 
 static const pw_cli_spec decanter_spec = {
@@ -80,6 +82,7 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
         return PW_OK;
     a->json = pw_cli_has(&p, "--json");
     a->components = pw_cli_text(&p, "--components");
+    pw_azeo_uncert_from(&p, &a->unc);
     const pw_cli_value *v;
     if ((v = pw_cli_get(&p, "--x1-rich")))
         a->spec.x_rich = v->num, a->basis[1] = v->basis, a->have_rich = true;
@@ -154,8 +157,26 @@ pw_status pw_cli_decanter(int argc, char **argv)
         return pw_cli_fail(CMD, &err);
     }
     const pw_three_phase *tp = &r.decanter;
+    pw_unc_result ures;
+    bool unc = a.unc.on && r.feasible;
+    if (unc) {
+        pw_cli_progress_ctx pc = {CMD, "parameter sets sampled"};
+        pw_unc_options o = a.unc.opt;
+        if (pw_cli_progress_wanted()) {
+            o.progress = pw_cli_progress_tenths;
+            o.progress_ctx = &pc;
+        }
+        pw_unc_het_ctx c = pw_unc_decanter_ctx(&a.spec, &a.opt);
+        if (pw_het_unc_run(&fit, &c, &o, &ures, &err) != PW_OK) {
+            pw_fit_result_free(&fit);
+            return pw_cli_fail(CMD, &err);
+        }
+    }
     if (a.json) {
-        rc = pw_cli_print_json(pw_decanter_doc(&r, &a.spec));
+        json_t *doc = pw_decanter_doc(&r, &a.spec);
+        if (unc)
+            pw_decanter_unc_doc(doc, &ures, a.unc.opt.seed);
+        rc = pw_cli_print_json(doc);
     } else {
         const pw_system *s = &fit.sys;
         printf("Decanter scheme for %s (1) / %s (2), %s model, at %.6g kPa\n", s->comp[0].name,
@@ -176,6 +197,10 @@ pw_status pw_cli_decanter(int argc, char **argv)
                    "  other layers (check them with pinchwise lle at its temperature).\n",
                    a.spec.q);
         }
+        if (unc)
+            pw_het_uncert_print(&ures, &a.unc.opt, PW_AZ_ISOBARIC, true);
+        else if (a.unc.on)
+            printf("\nThe scheme is not feasible at the estimate: no interval to give.\n");
         pw_cli_print_caution(stdout);
         rc = fflush(stdout) ? PW_EIO : PW_OK;
     }

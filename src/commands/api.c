@@ -275,10 +275,19 @@ pw_status pw_api_azeotrope(const char *fit_path, const char *fit_text, const cha
         st = unc_options(uncertainty, samples, seed, &unc, &uo, err);
     if (st == PW_OK && unc)
         st = pw_azeotrope_unc_run(&fit, &r, &uo, res, err);
+    bool het = unc && tp.exists && tp.heterogeneous_azeotrope;
+    pw_unc_result res_het;
+    if (st == PW_OK && het) {
+        pw_unc_het_ctx hc = pw_unc_het_azeo_ctx(mode, fixed);
+        st = pw_het_unc_run(&fit, &hc, &uo, &res_het, err);
+    }
     if (st == PW_OK) {
         json_t *o = pw_azeotrope_doc(&fit.sys, mode, fixed, &r, NULL, &tp, NULL);
         if (o && unc)
             pw_azeotrope_unc_doc(json_object_get(o, "azeotropes"), &r, res, r.n, uo.seed);
+        if (o && het) /* the heterogeneous entry follows the homogeneous ones */
+            pw_het_azeo_unc_doc(json_array_get(json_object_get(o, "azeotropes"), r.n), &res_het,
+                                mode, uo.seed);
         st = finish(o, doc, err);
     }
     pw_fit_result_free(&fit);
