@@ -4,7 +4,7 @@
 
 #include <math.h>
 
-void pw_cli_warn_T_range(const char *cmd, const pw_fit_result *fit, double T_lo_K, double T_hi_K,
+void cli_warn_T_range(const char *cmd, const pw_fit_result *fit, double T_lo_K, double T_hi_K,
                          const char *what)
 {
     if (!isfinite(T_lo_K) || !isfinite(T_hi_K))
@@ -14,38 +14,38 @@ void pw_cli_warn_T_range(const char *cmd, const pw_fit_result *fit, double T_lo_
         double lo = pw_component_range_excess_K(c, T_lo_K);
         double hi = pw_component_range_excess_K(c, T_hi_K);
         if (lo < 0.0)
-            pw_cli_warnf(cmd, "%s reach %.2f K, %.1f K below the vapor-pressure range of %s "
+            cli_warnf(cmd, "%s reach %.2f K, %.1f K below the vapor-pressure range of %s "
                          "(%.2f-%.2f K): extrapolated",
                          what, T_lo_K, -lo, c->name, c->T_min_K, c->T_max_K);
         if (hi > 0.0)
-            pw_cli_warnf(cmd, "%s reach %.2f K, %.1f K above the vapor-pressure range of %s "
+            cli_warnf(cmd, "%s reach %.2f K, %.1f K above the vapor-pressure range of %s "
                          "(%.2f-%.2f K): extrapolated",
                          what, T_hi_K, hi, c->name, c->T_min_K, c->T_max_K);
     }
     if (isfinite(fit->T_min_K) && isfinite(fit->T_max_K) &&
         (T_lo_K < fit->T_min_K - 1.0 || T_hi_K > fit->T_max_K + 1.0))
-        pw_cli_warnf(cmd, "%s span %.2f-%.2f K, outside the fitted data's %.2f-%.2f K: the model "
+        cli_warnf(cmd, "%s span %.2f-%.2f K, outside the fitted data's %.2f-%.2f K: the model "
                      "parameters are extrapolated in temperature",
                      what, T_lo_K, T_hi_K, fit->T_min_K, fit->T_max_K);
 }
 
-void pw_cli_warn_fit(const char *cmd, const pw_fit_result *fit)
+void cli_warn_fit(const char *cmd, const pw_fit_result *fit)
 {
     if (!fit->converged)
-        pw_cli_warnf(cmd, "the fit in this file did not converge; do not design with it");
-    pw_cli_warn_vapor_association(cmd, &fit->sys);
+        cli_warnf(cmd, "the fit in this file did not converge; do not design with it");
+    cli_warn_vapor_association(cmd, &fit->sys);
     if (fit->split)
-        pw_cli_warnf(cmd, "the fitted model predicts a liquid-liquid split (x1 = %.3f at %.1f K); "
+        cli_warnf(cmd, "the fitted model predicts a liquid-liquid split (x1 = %.3f at %.1f K); "
                      "homogeneous results may be wrong there",
                      fit->split_x, fit->split_T_K);
 }
 
-const char *pw_cli_caution_text(void)
+const char *cli_caution_text(void)
 {
     return pw_caution_text();
 }
 
-void pw_cli_print_caution(FILE *f)
+void cli_print_caution(FILE *f)
 {
     fprintf(f,
             "\nCaution: screening estimate from a correlation fitted to limited laboratory data,\n"
@@ -54,7 +54,7 @@ void pw_cli_print_caution(FILE *f)
             "relief follow local codes and regulations; defer to licensed engineering review.\n");
 }
 
-json_t *pw_cli_azeotrope_json(const pw_azeotrope *az)
+json_t *cli_azeotrope_json(const pw_azeotrope *az)
 {
     return pw_azeotrope_entry_json(az);
 }

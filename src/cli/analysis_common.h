@@ -1,7 +1,7 @@
 /* Helpers shared by the azeotrope and screen commands: reading the fit file, warnings about
  * temperatures outside the vapor-pressure or fitted range, and the screening caution. */
-#ifndef PW_CLI_ANALYSIS_COMMON_H
-#define PW_CLI_ANALYSIS_COMMON_H
+#ifndef CLI_ANALYSIS_COMMON_H
+#define CLI_ANALYSIS_COMMON_H
 
 #include <jansson.h>
 #include <pinchwise/azeotrope.h>
@@ -10,17 +10,17 @@
 
 /* Warns on stderr for each component whose Antoine range does not hold T_lo..T_hi [K] (saying
  * by how many K) and when that range leaves the fit's data range. what names the use. */
-void pw_cli_warn_T_range(const char *cmd, const pw_fit_result *fit, double T_lo_K, double T_hi_K,
+void cli_warn_T_range(const char *cmd, const pw_fit_result *fit, double T_lo_K, double T_hi_K,
                          const char *what);
 
 /* Warns when the fit did not converge or predicts a liquid-liquid split. */
-void pw_cli_warn_fit(const char *cmd, const pw_fit_result *fit);
+void cli_warn_fit(const char *cmd, const pw_fit_result *fit);
 
 /* The screening caution (METHODS 8), for the readable output, and as one JSON string. */
-void pw_cli_print_caution(FILE *f);
-const char *pw_cli_caution_text(void);
+void cli_print_caution(FILE *f);
+const char *cli_caution_text(void);
 
 /* JSON object of one azeotrope with the CONTRACT keys x1, T_K, P_kPa, kind and more. */
-json_t *pw_cli_azeotrope_json(const pw_azeotrope *az);
+json_t *cli_azeotrope_json(const pw_azeotrope *az);
 
 #endif

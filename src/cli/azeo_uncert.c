@@ -8,9 +8,9 @@
 #include <stdio.h>
 #include <string.h>
 
-void pw_azeo_uncert_from(const pw_cli_args *p, pw_azeo_uncert *u)
+void cli_azeo_uncert_from(const cli_args *p, cli_azeo_uncert *u)
 {
-    pw_cli_uncertainty g = pw_cli_uncertainty_get(p);
+    cli_uncertainty g = cli_uncertainty_get(p);
     memset(u, 0, sizeof *u);
     u->opt = pw_unc_default_options();
     u->on = g.on;
@@ -20,20 +20,20 @@ void pw_azeo_uncert_from(const pw_cli_args *p, pw_azeo_uncert *u)
         u->opt.seed = (unsigned long)g.seed;
 }
 
-pw_status pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw_azeo_uncert *u,
+pw_status cli_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, cli_azeo_uncert *u,
                        pw_error *err)
 {
     u->n = r->n;
     char what[64];
-    pw_cli_progress_ctx pc = {"azeotrope", what};
+    cli_progress_ctx pc = {"azeotrope", what};
     pw_unc_options o = u->opt;
     for (size_t i = 0; i < r->n; i++) {
         pw_az_result one = *r;
         one.n = 1;
         one.az[0] = r->az[i];
         snprintf(what, sizeof what, "parameter sets sampled (azeotrope %zu of %zu)", i + 1, r->n);
-        if (pw_cli_progress_wanted()) {
-            o.progress = pw_cli_progress_tenths;
+        if (cli_progress_wanted()) {
+            o.progress = cli_progress_tenths;
             o.progress_ctx = &pc;
         }
         /* one azeotrope per call: the progress line names it */
@@ -44,13 +44,13 @@ pw_status pw_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, pw
     return PW_OK;
 }
 
-pw_status pw_azeo_uncert_run_het(const pw_fit_result *fit, pw_az_mode mode, double fixed,
-                                 pw_azeo_uncert *u, pw_error *err)
+pw_status cli_azeo_uncert_run_het(const pw_fit_result *fit, pw_az_mode mode, double fixed,
+                                 cli_azeo_uncert *u, pw_error *err)
 {
-    pw_cli_progress_ctx pc = {"azeotrope", "parameter sets sampled (heterogeneous azeotrope)"};
+    cli_progress_ctx pc = {"azeotrope", "parameter sets sampled (heterogeneous azeotrope)"};
     pw_unc_options o = u->opt;
-    if (pw_cli_progress_wanted()) {
-        o.progress = pw_cli_progress_tenths;
+    if (cli_progress_wanted()) {
+        o.progress = cli_progress_tenths;
         o.progress_ctx = &pc;
     }
     pw_unc_het_ctx c = pw_unc_het_azeo_ctx(mode, fixed);
@@ -62,7 +62,7 @@ pw_status pw_azeo_uncert_run_het(const pw_fit_result *fit, pw_az_mode mode, doub
     return PW_OK;
 }
 
-void pw_azeo_uncert_json(const pw_azeo_uncert *u, const pw_az_result *r, json_t *list)
+void cli_azeo_uncert_json(const cli_azeo_uncert *u, const pw_az_result *r, json_t *list)
 {
     pw_azeotrope_unc_doc(list, r, u->res, u->n, u->opt.seed);
     if (u->het) /* the heterogeneous entry follows the homogeneous ones */
@@ -78,7 +78,7 @@ static void print_interval(const char *what, const pw_unc_output *o, const char 
                o->ci[1], *unit ? " " : "", unit, o->ci_sampled ? "sampled" : "linearised");
 }
 
-void pw_het_uncert_print(const pw_unc_result *res, const pw_unc_options *opt, pw_az_mode mode,
+void cli_het_uncert_print(const pw_unc_result *res, const pw_unc_options *opt, pw_az_mode mode,
                          bool decanter)
 {
     bool isP = mode == PW_AZ_ISOBARIC;
@@ -108,7 +108,7 @@ void pw_het_uncert_print(const pw_unc_result *res, const pw_unc_options *opt, pw
         }
 }
 
-void pw_azeo_uncert_print(const pw_azeo_uncert *u, const pw_az_result *r)
+void cli_azeo_uncert_print(const cli_azeo_uncert *u, const pw_az_result *r)
 {
     bool isP = r->mode == PW_AZ_ISOBARIC;
     if (u->n)

@@ -16,14 +16,14 @@
 #include <strings.h>
 #include <unistd.h>
 
-pw_status pw_cli_fail(const char *cmd, const pw_error *err)
+pw_status cli_fail(const char *cmd, const pw_error *err)
 {
     char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 32];
     fprintf(stderr, "pinchwise %s: %s\n", cmd, pw_error_format(err, buf, sizeof buf));
     return err && err->status != PW_OK ? err->status : PW_EINVAL;
 }
 
-pw_status pw_cli_failf(const char *cmd, pw_status st, const char *fmt, ...)
+pw_status cli_failf(const char *cmd, pw_status st, const char *fmt, ...)
 {
     va_list ap;
     fprintf(stderr, "pinchwise %s: ", cmd);
@@ -34,7 +34,7 @@ pw_status pw_cli_failf(const char *cmd, pw_status st, const char *fmt, ...)
     return st != PW_OK ? st : PW_EINVAL;
 }
 
-void pw_cli_warnf(const char *cmd, const char *fmt, ...)
+void cli_warnf(const char *cmd, const char *fmt, ...)
 {
     va_list ap;
     fprintf(stderr, "pinchwise %s: warning: ", cmd);
@@ -44,12 +44,12 @@ void pw_cli_warnf(const char *cmd, const char *fmt, ...)
     fputc('\n', stderr);
 }
 
-pw_status pw_cli_load_components(pw_complib *lib, const char *extra_path, pw_error *err)
+pw_status cli_load_components(pw_complib *lib, const char *extra_path, pw_error *err)
 {
     return pw_complib_load_default(lib, extra_path, err);
 }
 
-pw_status pw_cli_quantity(pw_quantity q, const char *opt, const char *text, double *si,
+pw_status cli_quantity(pw_quantity q, const char *opt, const char *text, double *si,
                           pw_error *err)
 {
     pw_status st = pw_units_parse_quantity(q, text, si, err);
@@ -69,7 +69,7 @@ pw_status pw_cli_quantity(pw_quantity q, const char *opt, const char *text, doub
     return st;
 }
 
-pw_status pw_cli_number(const char *opt, const char *text, double *value, pw_error *err)
+pw_status cli_number(const char *opt, const char *text, double *value, pw_error *err)
 {
     char *end = NULL;
     errno = 0;
@@ -94,12 +94,12 @@ static void *json_alloc(size_t n)
     return p;
 }
 
-void pw_cli_watch_json_allocations(void)
+void cli_watch_json_allocations(void)
 {
     json_set_alloc_funcs(json_alloc, free);
 }
 
-pw_status pw_cli_print_json(json_t *obj)
+pw_status cli_print_json(json_t *obj)
 {
     /* the whole text first (the library's text, the same as the Python module's): a failure
      * half-way through must not leave half an object on stdout */
@@ -116,12 +116,12 @@ pw_status pw_cli_print_json(json_t *obj)
     return bad ? PW_EIO : PW_OK;
 }
 
-json_t *pw_cli_json_num(double v)
+json_t *cli_json_num(double v)
 {
     return pw_json_num(v);
 }
 
-bool pw_cli_progress_wanted(void)
+bool cli_progress_wanted(void)
 {
     return isatty(STDERR_FILENO) != 0;
 }
@@ -129,7 +129,7 @@ bool pw_cli_progress_wanted(void)
 static void progress_print(const char *cmd, const char *what, size_t done, size_t total,
                            bool end_line)
 {
-    if (!pw_cli_progress_wanted())
+    if (!cli_progress_wanted())
         return;
     /* \r and the erase-to-end sequence rewrite the line in place on a terminal */
     fprintf(stderr, "\rpinchwise %s: %zu/%zu %s\x1b[K%s", cmd, done, total, what ? what : "",
@@ -137,55 +137,55 @@ static void progress_print(const char *cmd, const char *what, size_t done, size_
     fflush(stderr);
 }
 
-void pw_cli_progress(const char *cmd, const char *what, size_t done, size_t total)
+void cli_progress(const char *cmd, const char *what, size_t done, size_t total)
 {
     progress_print(cmd, what, done, total, done >= total);
 }
 
-void pw_cli_progress_line(const char *cmd, const char *what, size_t done, size_t total)
+void cli_progress_line(const char *cmd, const char *what, size_t done, size_t total)
 {
     progress_print(cmd, what, done, total, true);
 }
 
-pw_status pw_cli_progress_tenths(void *ctx, size_t done, size_t total)
+pw_status cli_progress_tenths(void *ctx, size_t done, size_t total)
 {
-    const pw_cli_progress_ctx *c = ctx;
+    const cli_progress_ctx *c = ctx;
     if (!c || total == 0)
         return PW_OK;
     if (done == 1 || done >= total || (10 * done) / total != (10 * (done - 1)) / total)
-        pw_cli_progress(c->cmd, c->what, done, total);
+        cli_progress(c->cmd, c->what, done, total);
     return PW_OK;
 }
 
-void pw_cli_warn_vapor_association(const char *cmd, const pw_system *sys)
+void cli_warn_vapor_association(const char *cmd, const pw_system *sys)
 {
     for (int i = 0; i < 2; i++)
         if (pw_component_vapor_associates(&sys->comp[i]))
-            pw_cli_warnf(cmd, "%s dimerises in the vapor; the ideal-vapor model used here can be off "
+            cli_warnf(cmd, "%s dimerises in the vapor; the ideal-vapor model used here can be off "
                          "by tens of percent even at 1 atm (chemical theory: Marek & Standart 1954; "
                          "Hayden & O'Connell 1975): treat the results as rough",
                          sys->comp[i].name);
 }
 
-pw_status pw_cli_read_fit(const char *cmd, const char *path, const char *components,
+pw_status cli_read_fit(const char *cmd, const char *path, const char *components,
                           pw_fit_result *fit, pw_error *err)
 {
     bool changed[2];
     pw_status st = pw_fitfile_load(path, components, fit, changed, err);
     for (int i = 0; st == PW_OK && i < 2; i++)
         if (changed[i])
-            pw_cli_warnf(cmd, "vapor pressure of %s taken from %s; the activity parameters were "
+            cli_warnf(cmd, "vapor pressure of %s taken from %s; the activity parameters were "
                          "fitted with the fit file's own correlation", fit->sys.comp[i].name,
                          components);
     return st;
 }
 
-pw_status pw_cli_whole(const char *opt, const char *text, double lo, double hi, unsigned long long *out,
+pw_status cli_whole(const char *opt, const char *text, double lo, double hi, unsigned long long *out,
                  pw_error *err)
 {
     double v;
     bool digits = text[0] >= '0' && text[0] <= '9';
-    if (!digits || pw_cli_number(opt, text, &v, NULL) != PW_OK || v != floor(v) || v < lo ||
+    if (!digits || cli_number(opt, text, &v, NULL) != PW_OK || v != floor(v) || v < lo ||
         v > hi) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected a whole number from %.0f to %.0f",
                      opt, text, lo, hi);
@@ -195,11 +195,11 @@ pw_status pw_cli_whole(const char *opt, const char *text, double lo, double hi, 
     return PW_OK;
 }
 
-pw_status pw_cli_ranged(const char *opt, const char *text, double lo, double hi, const char *what,
+pw_status cli_ranged(const char *opt, const char *text, double lo, double hi, const char *what,
                   double *out, pw_error *err)
 {
     double v = NAN;
-    if (pw_cli_number(opt, text, &v, NULL) != PW_OK || !(v >= lo && v <= hi)) {
+    if (cli_number(opt, text, &v, NULL) != PW_OK || !(v >= lo && v <= hi)) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected %s from %g to %g", opt, text, what,
                      lo, hi);
         return PW_EINVAL;
@@ -208,7 +208,7 @@ pw_status pw_cli_ranged(const char *opt, const char *text, double lo, double hi,
     return PW_OK;
 }
 
-pw_status pw_cli_finish_stdout(const char *cmd)
+pw_status cli_finish_stdout(const char *cmd)
 {
     errno = 0;
     int bad = fflush(stdout) != 0;

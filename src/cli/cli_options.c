@@ -10,65 +10,65 @@
 
 /* ---- the shared blocks ------------------------------------------------------------------- */
 
-const pw_cli_option pw_cli_block_json[] = {
-    {.name = "--json", .kind = PW_CLI_FLAG, .help = "print one JSON object on stdout"},
-    PW_CLI_END,
+const cli_option cli_block_json[] = {
+    {.name = "--json", .kind = CLI_FLAG, .help = "print one JSON object on stdout"},
+    CLI_END,
 };
 
-const pw_cli_option pw_cli_block_components[] = {
-    {.name = "--components", .kind = PW_CLI_STRING, .metavar = "FILE",
+const cli_option cli_block_components[] = {
+    {.name = "--components", .kind = CLI_STRING, .metavar = "FILE",
      .help = "component rows (vapor pressure, molar mass, ...) that\n"
              "take precedence over the ones otherwise used: the shipped\n"
              "library's when reading data, the fit file's recorded rows when\n"
              "reading a fit"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-const pw_cli_option pw_cli_block_minimum[] = {
-    {.name = "--minimum", .kind = PW_CLI_STRING, .metavar = "N",
+const cli_option cli_block_minimum[] = {
+    {.name = "--minimum", .kind = CLI_STRING, .metavar = "N",
      .help = "use the fit's N-th distinct minimum (1 = lowest chi-square; the fit\n"
              "file lists them under \"minima\") instead of the one the fit chose"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-const pw_cli_option pw_cli_block_verdict[] = {
-    {.name = "--exit-verdict", .kind = PW_CLI_FLAG,
+const cli_option cli_block_verdict[] = {
+    {.name = "--exit-verdict", .kind = CLI_FLAG,
      .help = "exit with status 7 when the verdict is negative (see README)"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-/* The plausible ranges are pw_cli_quantity's (docs/inputs.md). */
-const pw_cli_option pw_cli_block_pressure[] = {
-    {.name = "--pressure", .kind = PW_CLI_QUANTITY, .unit = PW_QTY_PRESSURE, .metavar = "P",
+/* The plausible ranges are cli_quantity's (docs/inputs.md). */
+const cli_option cli_block_pressure[] = {
+    {.name = "--pressure", .kind = CLI_QUANTITY, .unit = PW_QTY_PRESSURE, .metavar = "P",
      .help = "column pressure with its unit, e.g. 101.325kPa, 1atm, \"2 bar\""},
-    PW_CLI_END,
+    CLI_END,
 };
 
-const pw_cli_option pw_cli_block_products[] = {
-    {.name = "--xd", .kind = PW_CLI_FRACTION, .metavar = "X",
+const cli_option cli_block_products[] = {
+    {.name = "--xd", .kind = CLI_FRACTION, .metavar = "X",
      .help = "distillate composition of component 1: a mole fraction, or with\n"
              "mol%, wt or wt% (e.g. 99.5wt%)"},
-    {.name = "--xb", .kind = PW_CLI_FRACTION, .metavar = "X",
+    {.name = "--xb", .kind = CLI_FRACTION, .metavar = "X",
      .help = "bottoms composition of component 1 (as --xd); either direction:\n"
              "xb < zf < xd, or xd < zf < xb when component 1 leaves with the\n"
              "bottoms"},
-    PW_CLI_END,
+    CLI_END,
 };
 
 /* q from -10 (very hot vapor) to 10 (very cold liquid) covers every real feed. */
-const pw_cli_option pw_cli_block_feed[] = {
-    {.name = "--zf", .kind = PW_CLI_FRACTION, .metavar = "X",
+const cli_option cli_block_feed[] = {
+    {.name = "--zf", .kind = CLI_FRACTION, .metavar = "X",
      .help = "feed composition of component 1: a mole fraction, or with mol%,\n"
              "wt or wt% (e.g. 40wt%)"},
-    {.name = "--q", .kind = PW_CLI_NUMBER, .metavar = "Q", .lo = -10.0, .hi = 10.0,
+    {.name = "--q", .kind = CLI_NUMBER, .metavar = "Q", .lo = -10.0, .hi = 10.0,
      .what = "the feed's liquid fraction q",
      .help = "feed liquid fraction (1 saturated liquid, 0 saturated vapor,\n"
              "> 1 subcooled, < 0 superheated; default 1)"},
-    PW_CLI_END,
+    CLI_END,
 };
 
 /* Design reflux ratios: above R_min, and at most 100 R_min (docs/inputs.md). */
-static pw_status check_factors(pw_cli_value *v, pw_error *err)
+static pw_status check_factors(cli_value *v, pw_error *err)
 {
     for (size_t i = 0; i < v->n_list; i++)
         if (!(v->list[i] > 1.0 && v->list[i] <= 100.0))
@@ -79,31 +79,31 @@ static pw_status check_factors(pw_cli_value *v, pw_error *err)
     return PW_OK;
 }
 
-const pw_cli_option pw_cli_block_factors[] = {
-    {.name = "--factors", .alias = "--operating-factor", .kind = PW_CLI_LIST, .metavar = "F,F,...",
+const cli_option cli_block_factors[] = {
+    {.name = "--factors", .alias = "--operating-factor", .kind = CLI_LIST, .metavar = "F,F,...",
      .check = check_factors,
      .help = "design reflux as multiples of R_min (default 1.2,1.3,1.5)"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-const pw_cli_option pw_cli_block_uncertainty[] = {
-    {.name = "--uncertainty", .kind = PW_CLI_FLAG,
+const cli_option cli_block_uncertainty[] = {
+    {.name = "--uncertainty", .kind = CLI_FLAG,
      .help = "propagate the fit's parameter covariance to the results: 95 %\n"
              "intervals (linearised and sampled) and the risk that the answer\n"
              "changes"},
-    {.name = "--samples", .kind = PW_CLI_INTEGER, .metavar = "N", .lo = 0.0, .hi = 100000.0,
+    {.name = "--samples", .kind = CLI_INTEGER, .metavar = "N", .lo = 0.0, .hi = 100000.0,
      .help = "parameter sets drawn for --uncertainty (default 400; implies it)"},
-    {.name = "--seed", .kind = PW_CLI_INTEGER, .metavar = "N", .lo = 0.0, .hi = 4294967295.0,
+    {.name = "--seed", .kind = CLI_INTEGER, .metavar = "N", .lo = 0.0, .hi = 4294967295.0,
      .help = "random seed of the draws (default 1; implies --uncertainty)"},
-    PW_CLI_END,
+    CLI_END,
 };
 
 /* ---- lookup ------------------------------------------------------------------------------ */
 
-static const pw_cli_option *find(const pw_cli_spec *spec, const char *name, size_t len)
+static const cli_option *find(const cli_spec *spec, const char *name, size_t len)
 {
-    for (const pw_cli_option *const *b = spec->blocks; b && *b; b++)
-        for (const pw_cli_option *o = *b; o->name; o++) {
+    for (const cli_option *const *b = spec->blocks; b && *b; b++)
+        for (const cli_option *o = *b; o->name; o++) {
             if (strlen(o->name) == len && !strncmp(o->name, name, len))
                 return o;
             if (o->alias && strlen(o->alias) == len && !strncmp(o->alias, name, len))
@@ -135,12 +135,12 @@ static size_t edit_distance(const char *a, const char *b)
     return row[lb];
 }
 
-const char *pw_cli_nearest(const pw_cli_spec *spec, const char *word)
+const char *cli_nearest(const cli_spec *spec, const char *word)
 {
     const char *best = NULL;
     size_t best_d = 99;
-    for (const pw_cli_option *const *b = spec->blocks; b && *b; b++)
-        for (const pw_cli_option *o = *b; o->name; o++)
+    for (const cli_option *const *b = spec->blocks; b && *b; b++)
+        for (const cli_option *o = *b; o->name; o++)
             for (int k = 0; k < 2; k++) {
                 const char *n = k ? o->alias : o->name;
                 if (!n)
@@ -160,7 +160,7 @@ const char *pw_cli_nearest(const pw_cli_spec *spec, const char *word)
 
 /* ---- values -------------------------------------------------------------------------------- */
 
-static pw_status parse_list(pw_cli_value *v, pw_error *err)
+static pw_status parse_list(cli_value *v, pw_error *err)
 {
     const char *p = v->text;
     v->n_list = 0;
@@ -174,12 +174,12 @@ static pw_status parse_list(pw_cli_value *v, pw_error *err)
         memcpy(buf, p, len);
         buf[len] = '\0';
         double d;
-        if (pw_cli_number(v->spelt, buf, &d, NULL) != PW_OK)
+        if (cli_number(v->spelt, buf, &d, NULL) != PW_OK)
             return pw_error_set(err, PW_EINVAL, NULL, 0,
                                 "%s %s: expected comma-separated numbers", v->spelt, v->text);
-        if (v->n_list == PW_CLI_LIST_MAX)
+        if (v->n_list == CLI_LIST_MAX)
             return pw_error_set(err, PW_EINVAL, NULL, 0, "%s: at most %d values", v->spelt,
-                                PW_CLI_LIST_MAX);
+                                CLI_LIST_MAX);
         v->list[v->n_list++] = d;
         p += len;
         if (*p == ',' && *++p == '\0')
@@ -191,34 +191,34 @@ static pw_status parse_list(pw_cli_value *v, pw_error *err)
     return PW_OK;
 }
 
-static pw_status parse_value(pw_cli_value *v, pw_error *err)
+static pw_status parse_value(cli_value *v, pw_error *err)
 {
-    const pw_cli_option *o = v->opt;
+    const cli_option *o = v->opt;
     pw_status st = PW_OK;
     switch (o->kind) {
-    case PW_CLI_FLAG:
-    case PW_CLI_STRING:
+    case CLI_FLAG:
+    case CLI_STRING:
         break;
-    case PW_CLI_NUMBER:
+    case CLI_NUMBER:
         if (o->lo < o->hi)
-            st = pw_cli_ranged(v->spelt, v->text, o->lo, o->hi, o->what ? o->what : "a number",
+            st = cli_ranged(v->spelt, v->text, o->lo, o->hi, o->what ? o->what : "a number",
                                &v->num, err)
                      ? PW_EINVAL
                      : PW_OK;
         else
-            st = pw_cli_number(v->spelt, v->text, &v->num, err);
+            st = cli_number(v->spelt, v->text, &v->num, err);
         break;
-    case PW_CLI_INTEGER:
-        st = pw_cli_whole(v->spelt, v->text, o->lo, o->hi, &v->whole, err) ? PW_EINVAL : PW_OK;
+    case CLI_INTEGER:
+        st = cli_whole(v->spelt, v->text, o->lo, o->hi, &v->whole, err) ? PW_EINVAL : PW_OK;
         v->num = (double)v->whole;
         break;
-    case PW_CLI_FRACTION:
-        st = pw_cli_composition(v->spelt, v->text, &v->num, &v->basis, err) ? PW_EINVAL : PW_OK;
+    case CLI_FRACTION:
+        st = cli_composition(v->spelt, v->text, &v->num, &v->basis, err) ? PW_EINVAL : PW_OK;
         break;
-    case PW_CLI_QUANTITY:
-        st = pw_cli_quantity(o->unit, v->spelt, v->text, &v->num, err);
+    case CLI_QUANTITY:
+        st = cli_quantity(o->unit, v->spelt, v->text, &v->num, err);
         break;
-    case PW_CLI_LIST:
+    case CLI_LIST:
         st = parse_list(v, err);
         break;
     }
@@ -229,7 +229,7 @@ static pw_status parse_value(pw_cli_value *v, pw_error *err)
 
 /* ---- the parser ---------------------------------------------------------------------------- */
 
-pw_status pw_cli_parse(const pw_cli_spec *spec, int argc, char **argv, pw_cli_args *out,
+pw_status cli_parse(const cli_spec *spec, int argc, char **argv, cli_args *out,
                        pw_error *err)
 {
     memset(out, 0, sizeof *out);
@@ -248,7 +248,7 @@ pw_status pw_cli_parse(const pw_cli_spec *spec, int argc, char **argv, pw_cli_ar
             continue;
         }
         if (options_done || a[0] != '-' || a[1] == '\0') { /* "-" alone is a positional */
-            if (out->n_pos == spec->max_positional || out->n_pos == PW_CLI_MAX_POSITIONAL)
+            if (out->n_pos == spec->max_positional || out->n_pos == CLI_MAX_POSITIONAL)
                 return pw_error_set(err, PW_EINVAL, NULL, 0, "unexpected argument %s (%s)", a,
                                     spec->positional ? spec->positional : "no file expected");
             out->pos[out->n_pos++] = a;
@@ -256,11 +256,11 @@ pw_status pw_cli_parse(const pw_cli_spec *spec, int argc, char **argv, pw_cli_ar
         }
         const char *eq = a[1] == '-' ? strchr(a, '=') : NULL;
         size_t len = eq ? (size_t)(eq - a) : strlen(a);
-        const pw_cli_option *o = a[1] == '-' ? find(spec, a, len) : NULL;
+        const cli_option *o = a[1] == '-' ? find(spec, a, len) : NULL;
         if (!o) {
             char word[128];
             snprintf(word, sizeof word, "%.*s", (int)(len < 100 ? len : 100), a);
-            const char *near = pw_cli_nearest(spec, word);
+            const char *near = cli_nearest(spec, word);
             if (near)
                 return pw_error_set(err, PW_EINVAL, NULL, 0,
                                     "unknown option %s (did you mean %s? see pinchwise %s --help)",
@@ -268,16 +268,16 @@ pw_status pw_cli_parse(const pw_cli_spec *spec, int argc, char **argv, pw_cli_ar
             return pw_error_set(err, PW_EINVAL, NULL, 0,
                                 "unknown option %s (see pinchwise %s --help)", word, spec->cmd);
         }
-        if (out->n == PW_CLI_MAX_VALUES)
+        if (out->n == CLI_MAX_VALUES)
             return pw_error_set(err, PW_EINVAL, NULL, 0, "too many options (at most %d)",
-                                PW_CLI_MAX_VALUES);
-        pw_cli_value *v = &out->v[out->n];
+                                CLI_MAX_VALUES);
+        cli_value *v = &out->v[out->n];
         memset(v, 0, sizeof *v);
         v->opt = o;
         v->spelt = !strncmp(o->name, a, len) && strlen(o->name) == len ? o->name : o->alias;
-        if (!o->repeatable && pw_cli_get(out, o->name))
+        if (!o->repeatable && cli_get(out, o->name))
             return pw_error_set(err, PW_EINVAL, NULL, 0, "%s given more than once", v->spelt);
-        if (o->kind == PW_CLI_FLAG) {
+        if (o->kind == CLI_FLAG) {
             if (eq)
                 return pw_error_set(err, PW_EINVAL, NULL, 0, "%s takes no value (got %s)",
                                     v->spelt, a);
@@ -300,7 +300,7 @@ pw_status pw_cli_parse(const pw_cli_spec *spec, int argc, char **argv, pw_cli_ar
     return PW_OK;
 }
 
-const pw_cli_value *pw_cli_next(const pw_cli_args *a, const char *name, const pw_cli_value *prev)
+const cli_value *cli_next(const cli_args *a, const char *name, const cli_value *prev)
 {
     size_t start = prev ? (size_t)(prev - a->v) + 1 : 0;
     for (size_t i = start; i < a->n; i++)
@@ -309,7 +309,7 @@ const pw_cli_value *pw_cli_next(const pw_cli_args *a, const char *name, const pw
     return NULL;
 }
 
-const pw_cli_value *pw_cli_get(const pw_cli_args *a, const char *name)
+const cli_value *cli_get(const cli_args *a, const char *name)
 {
     for (size_t i = a->n; i-- > 0;)
         if (!strcmp(a->v[i].opt->name, name))
@@ -317,14 +317,14 @@ const pw_cli_value *pw_cli_get(const pw_cli_args *a, const char *name)
     return NULL;
 }
 
-bool pw_cli_has(const pw_cli_args *a, const char *name)
+bool cli_has(const cli_args *a, const char *name)
 {
-    return pw_cli_get(a, name) != NULL;
+    return cli_get(a, name) != NULL;
 }
 
-const char *pw_cli_text(const pw_cli_args *a, const char *name)
+const char *cli_text(const cli_args *a, const char *name)
 {
-    const pw_cli_value *v = pw_cli_get(a, name);
+    const cli_value *v = cli_get(a, name);
     return v ? v->text : NULL;
 }
 
@@ -346,12 +346,12 @@ static void help_lines(FILE *f, const char *text, bool first_on_line)
     }
 }
 
-void pw_cli_help(const pw_cli_spec *spec, FILE *f)
+void cli_help(const cli_spec *spec, FILE *f)
 {
     fputs(spec->synopsis, f);
     fputs("\noptions:\n", f);
-    for (const pw_cli_option *const *b = spec->blocks; b && *b; b++)
-        for (const pw_cli_option *o = *b; o->name; o++) {
+    for (const cli_option *const *b = spec->blocks; b && *b; b++)
+        for (const cli_option *o = *b; o->name; o++) {
             char lhs[96];
             snprintf(lhs, sizeof lhs, "  %s%s%s", o->name, o->metavar ? " " : "",
                      o->metavar ? o->metavar : "");
@@ -375,34 +375,34 @@ void pw_cli_help(const pw_cli_spec *spec, FILE *f)
 
 /* ---- readers of the shared blocks ---------------------------------------------------------- */
 
-void pw_cli_targets_get(const pw_cli_args *a, pw_cli_targets *t, const char *given[3])
+void cli_targets_get(const cli_args *a, cli_targets *t, const char *given[3])
 {
     memset(t, 0, sizeof *t);
     t->q = 1.0;
-    const pw_cli_value *v;
-    if ((v = pw_cli_get(a, "--pressure")))
+    const cli_value *v;
+    if ((v = cli_get(a, "--pressure")))
         t->P_Pa = v->num, t->have_P = true;
     static const char *const names[3] = {"--xd", "--xb", "--zf"};
     double *x[3] = {&t->xd, &t->xb, &t->zf};
     bool *have[3] = {&t->have_xd, &t->have_xb, &t->have_zf};
     for (int k = 0; k < 3; k++) {
-        v = pw_cli_get(a, names[k]);
+        v = cli_get(a, names[k]);
         if (given)
             given[k] = v ? v->text : NULL;
         if (v)
             *x[k] = v->num, *have[k] = true, t->basis[k] = v->basis;
     }
-    if ((v = pw_cli_get(a, "--q")))
+    if ((v = cli_get(a, "--q")))
         t->q = v->num;
 }
 
-pw_cli_uncertainty pw_cli_uncertainty_get(const pw_cli_args *a)
+cli_uncertainty cli_uncertainty_get(const cli_args *a)
 {
-    pw_cli_uncertainty u = {.on = pw_cli_has(a, "--uncertainty")};
-    const pw_cli_value *v;
-    if ((v = pw_cli_get(a, "--samples")))
+    cli_uncertainty u = {.on = cli_has(a, "--uncertainty")};
+    const cli_value *v;
+    if ((v = cli_get(a, "--samples")))
         u.samples = v->whole, u.have_samples = u.on = true;
-    if ((v = pw_cli_get(a, "--seed")))
+    if ((v = cli_get(a, "--seed")))
         u.seed = v->whole, u.have_seed = u.on = true;
     return u;
 }

@@ -1,5 +1,5 @@
 /* One option parser for every command: each command declares its options in static tables
- * (pw_cli_option), the parser reads argv against them and the --help text is printed from the
+ * (cli_option), the parser reads argv against them and the --help text is printed from the
  * same tables, so an option cannot be accepted without being listed, nor listed without being
  * accepted.
  *
@@ -9,11 +9,11 @@
  *   refused; "--" ends the options (everything after it is positional); -h and --help anywhere
  *   ask for the help text; an unknown option is refused with the nearest known name suggested; a
  *   non-repeatable option given twice is refused.
- * Values are checked by kind (pw_cli_kind) with messages that name the option as typed; the
+ * Values are checked by kind (cli_kind) with messages that name the option as typed; the
  * parsed value is kept beside the text. Errors are PW_EINVAL with err filled (no file, no line).
- * Nothing here prints except pw_cli_help. */
-#ifndef PW_CLI_OPTIONS_H
-#define PW_CLI_OPTIONS_H
+ * Nothing here prints except cli_help. */
+#ifndef CLI_OPTIONS_H
+#define CLI_OPTIONS_H
 
 #include <pinchwise/status.h>
 #include <pinchwise/units.h>
@@ -21,122 +21,122 @@
 #include <stddef.h>
 #include <stdio.h>
 
-typedef enum pw_cli_kind {
-    PW_CLI_FLAG,     /* no value */
-    PW_CLI_STRING,   /* any text: a path, a name, a range; the command (or check) reads it */
-    PW_CLI_NUMBER,   /* a finite plain decimal; in [lo, hi] when lo < hi ("what" in the message) */
-    PW_CLI_INTEGER,  /* a whole number in [lo, hi] (value in .whole and .num) */
-    PW_CLI_FRACTION, /* a composition of component 1: a mole fraction in [0, 1], or a number with
-                      * mol%, wt or wt% (.num and .basis; pw_cli_composition) */
-    PW_CLI_QUANTITY, /* a number with its unit of kind .unit, in SI units in .num */
-    PW_CLI_LIST,     /* comma-separated finite numbers, at most PW_CLI_LIST_MAX (.list, .n_list) */
-} pw_cli_kind;
+typedef enum cli_kind {
+    CLI_FLAG,     /* no value */
+    CLI_STRING,   /* any text: a path, a name, a range; the command (or check) reads it */
+    CLI_NUMBER,   /* a finite plain decimal; in [lo, hi] when lo < hi ("what" in the message) */
+    CLI_INTEGER,  /* a whole number in [lo, hi] (value in .whole and .num) */
+    CLI_FRACTION, /* a composition of component 1: a mole fraction in [0, 1], or a number with
+                      * mol%, wt or wt% (.num and .basis; cli_composition) */
+    CLI_QUANTITY, /* a number with its unit of kind .unit, in SI units in .num */
+    CLI_LIST,     /* comma-separated finite numbers, at most CLI_LIST_MAX (.list, .n_list) */
+} cli_kind;
 
-#define PW_CLI_LIST_MAX 16
+#define CLI_LIST_MAX 16
 
-struct pw_cli_value;
+struct cli_value;
 
-typedef struct pw_cli_option {
+typedef struct cli_option {
     const char *name;     /* "--pressure" */
     const char *alias;    /* another accepted spelling, or NULL; listed in the help */
-    pw_cli_kind kind;
+    cli_kind kind;
     const char *metavar;  /* "P", "FILE"; NULL for a flag */
     const char *help;     /* one or more lines separated by '\n', no trailing newline */
-    pw_quantity unit;     /* PW_CLI_QUANTITY: the kind of quantity */
-    double lo, hi;        /* PW_CLI_NUMBER (when lo < hi), PW_CLI_INTEGER */
-    const char *what;     /* PW_CLI_NUMBER with a range: what the value is, for the message */
+    pw_quantity unit;     /* CLI_QUANTITY: the kind of quantity */
+    double lo, hi;        /* CLI_NUMBER (when lo < hi), CLI_INTEGER */
+    const char *what;     /* CLI_NUMBER with a range: what the value is, for the message */
     bool repeatable;      /* may be given more than once (every occurrence is kept) */
     /* Further check after the kind's own (may be NULL): returns PW_OK or fills err naming the
      * option as typed (value->spelt). */
-    pw_status (*check)(struct pw_cli_value *value, pw_error *err);
-} pw_cli_option;
+    pw_status (*check)(struct cli_value *value, pw_error *err);
+} cli_option;
 
 /* The end of an option table. */
-#define PW_CLI_END {0}
+#define CLI_END {0}
 
 /* A command's interface: its synopsis, its option tables (the shared blocks below and its
  * own), and how many positional arguments it takes. */
-typedef struct pw_cli_spec {
+typedef struct cli_spec {
     const char *cmd;      /* "reflux" */
     const char *synopsis; /* "usage: ..." and the paragraphs above the option list; '\n' ended */
-    const pw_cli_option *const *blocks; /* NULL-terminated list of tables, each PW_CLI_END-ended */
+    const cli_option *const *blocks; /* NULL-terminated list of tables, each CLI_END-ended */
     const char *footer;   /* text after the option list (may be NULL); '\n' ended */
     size_t max_positional;     /* more is refused */
     const char *positional;    /* what they are, for that message: "one fit file" */
-} pw_cli_spec;
+} cli_spec;
 
 /* One option as given. */
-typedef struct pw_cli_value {
-    const pw_cli_option *opt;
+typedef struct cli_value {
+    const cli_option *opt;
     const char *spelt; /* the name as typed (the alias when that was used) */
     const char *text;  /* the value as typed; NULL for a flag */
     double num;        /* NUMBER, INTEGER, FRACTION, QUANTITY (SI) */
     unsigned long long whole; /* INTEGER */
     pw_basis basis;    /* FRACTION */
-    double list[PW_CLI_LIST_MAX];
+    double list[CLI_LIST_MAX];
     size_t n_list;     /* LIST */
-} pw_cli_value;
+} cli_value;
 
-#define PW_CLI_MAX_VALUES 64
-#define PW_CLI_MAX_POSITIONAL 8
+#define CLI_MAX_VALUES 64
+#define CLI_MAX_POSITIONAL 8
 
 /* What the parser found; the strings point into argv. */
-typedef struct pw_cli_args {
-    const pw_cli_spec *spec;
+typedef struct cli_args {
+    const cli_spec *spec;
     bool help; /* -h or --help was given: nothing else was checked */
-    pw_cli_value v[PW_CLI_MAX_VALUES];
+    cli_value v[CLI_MAX_VALUES];
     size_t n;
-    const char *pos[PW_CLI_MAX_POSITIONAL];
+    const char *pos[CLI_MAX_POSITIONAL];
     size_t n_pos;
-} pw_cli_args;
+} cli_args;
 
 /* Parses argv[1..argc-1] (argv[0] is the command's name) against spec into out. PW_OK, or
  * PW_EINVAL with err naming the option and the problem. */
-pw_status pw_cli_parse(const pw_cli_spec *spec, int argc, char **argv, pw_cli_args *out,
+pw_status cli_parse(const cli_spec *spec, int argc, char **argv, cli_args *out,
                        pw_error *err);
 
 /* Prints the command's help: the synopsis, "options:" and one entry per option of every table
  * (name, metavar, help lines, alias), then the footer. */
-void pw_cli_help(const pw_cli_spec *spec, FILE *f);
+void cli_help(const cli_spec *spec, FILE *f);
 
 /* The last occurrence of the option named name (its main name), or NULL when not given. */
-const pw_cli_value *pw_cli_get(const pw_cli_args *a, const char *name);
+const cli_value *cli_get(const cli_args *a, const char *name);
 
 /* The next occurrence after prev (NULL: the first), for repeatable options; NULL at the end. */
-const pw_cli_value *pw_cli_next(const pw_cli_args *a, const char *name, const pw_cli_value *prev);
+const cli_value *cli_next(const cli_args *a, const char *name, const cli_value *prev);
 
 /* True when the flag (or option) named name was given. */
-bool pw_cli_has(const pw_cli_args *a, const char *name);
+bool cli_has(const cli_args *a, const char *name);
 
 /* The value text of the last occurrence, or NULL. */
-const char *pw_cli_text(const pw_cli_args *a, const char *name);
+const char *cli_text(const cli_args *a, const char *name);
 
 /* The known option name (or alias) of spec nearest to word by edit distance, or NULL when none
  * is near enough to be a likely typo. */
-const char *pw_cli_nearest(const pw_cli_spec *spec, const char *word);
+const char *cli_nearest(const cli_spec *spec, const char *word);
 
 /* Shared option blocks, one meaning each, used by every command that takes them. */
-extern const pw_cli_option pw_cli_block_json[];        /* --json */
-extern const pw_cli_option pw_cli_block_components[];  /* --components FILE */
-extern const pw_cli_option pw_cli_block_minimum[];     /* --minimum N */
-extern const pw_cli_option pw_cli_block_verdict[];     /* --exit-verdict */
-extern const pw_cli_option pw_cli_block_pressure[];    /* --pressure P (a column's) */
-extern const pw_cli_option pw_cli_block_products[];    /* --xd X --xb X */
-extern const pw_cli_option pw_cli_block_feed[];        /* --zf X --q Q */
-extern const pw_cli_option pw_cli_block_factors[];     /* --factors F,F,... (--operating-factor) */
-extern const pw_cli_option pw_cli_block_uncertainty[]; /* --uncertainty --samples N --seed N */
+extern const cli_option cli_block_json[];        /* --json */
+extern const cli_option cli_block_components[];  /* --components FILE */
+extern const cli_option cli_block_minimum[];     /* --minimum N */
+extern const cli_option cli_block_verdict[];     /* --exit-verdict */
+extern const cli_option cli_block_pressure[];    /* --pressure P (a column's) */
+extern const cli_option cli_block_products[];    /* --xd X --xb X */
+extern const cli_option cli_block_feed[];        /* --zf X --q Q */
+extern const cli_option cli_block_factors[];     /* --factors F,F,... (--operating-factor) */
+extern const cli_option cli_block_uncertainty[]; /* --uncertainty --samples N --seed N */
 
 /* The column targets given with the pressure, products and feed blocks, into t (q 1 unless
  * given; given[] the compositions as typed, xd xb zf, NULL when absent). */
-struct pw_cli_targets;
-void pw_cli_targets_get(const pw_cli_args *a, struct pw_cli_targets *t, const char *given[3]);
+struct cli_targets;
+void cli_targets_get(const cli_args *a, struct cli_targets *t, const char *given[3]);
 
 /* The uncertainty block: *on when any of its options was given (--samples and --seed imply
  * --uncertainty); *samples and *seed their values, or 0 and false in *have when absent. */
-typedef struct pw_cli_uncertainty {
+typedef struct cli_uncertainty {
     bool on, have_samples, have_seed;
     unsigned long long samples, seed;
-} pw_cli_uncertainty;
-pw_cli_uncertainty pw_cli_uncertainty_get(const pw_cli_args *a);
+} cli_uncertainty;
+cli_uncertainty cli_uncertainty_get(const cli_args *a);
 
 #endif

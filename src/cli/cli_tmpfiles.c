@@ -61,7 +61,7 @@ static void gone(void *ctx, const char *path)
 
 static const pw_tmp_hooks hooks = {.made = made, .gone = gone, .ctx = NULL};
 
-const pw_tmp_hooks *pw_cli_tmp_hooks(void)
+const pw_tmp_hooks *cli_tmp_hooks(void)
 {
     return &hooks;
 }
@@ -79,7 +79,7 @@ static void on_signal(int sig)
     raise(sig);
 }
 
-void pw_cli_install_signal_cleanup(void)
+void cli_install_signal_cleanup(void)
 {
     static const int sigs[] = {SIGINT, SIGTERM, SIGHUP};
     for (size_t i = 0; i < sizeof sigs / sizeof sigs[0]; i++) {

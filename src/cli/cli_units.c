@@ -10,7 +10,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-pw_status pw_cli_uncertainty_opt(const char *opt, const char *text, double *T_K, double *P_rel,
+pw_status cli_uncertainty_opt(const char *opt, const char *text, double *T_K, double *P_rel,
                                  double *P_abs_Pa, pw_error *err)
 {
     pw_status st;
@@ -35,7 +35,7 @@ pw_status pw_cli_uncertainty_opt(const char *opt, const char *text, double *T_K,
     return PW_OK;
 }
 
-pw_status pw_cli_composition(const char *opt, const char *text, double *value, pw_basis *b, pw_error *err)
+pw_status cli_composition(const char *opt, const char *text, double *value, pw_basis *b, pw_error *err)
 {
     pw_error inner;
     pw_error_clear(&inner);
@@ -46,7 +46,7 @@ pw_status pw_cli_composition(const char *opt, const char *text, double *value, p
     return PW_OK;
 }
 
-pw_status pw_cli_composition_to_mole(const char *opt, double *x, pw_basis b, const pw_system *sys,
+pw_status cli_composition_to_mole(const char *opt, double *x, pw_basis b, const pw_system *sys,
                                      pw_error *err)
 {
     if (b == PW_BASIS_MOLE)
@@ -60,7 +60,7 @@ pw_status pw_cli_composition_to_mole(const char *opt, double *x, pw_basis b, con
     return PW_OK;
 }
 
-pw_status pw_cli_targets_to_mole(double *xd, double *xb, double *zf, const pw_basis basis[3],
+pw_status cli_targets_to_mole(double *xd, double *xb, double *zf, const pw_basis basis[3],
                                  const pw_system *sys, pw_error *err)
 {
     static const char *const opts[3] = {"--xd", "--xb", "--zf"};
@@ -68,21 +68,21 @@ pw_status pw_cli_targets_to_mole(double *xd, double *xb, double *zf, const pw_ba
     for (int i = 0; i < 3; i++) {
         if (!x[i] || isnan(*x[i]))
             continue;
-        pw_status st = pw_cli_composition_to_mole(opts[i], x[i], basis[i], sys, err);
+        pw_status st = cli_composition_to_mole(opts[i], x[i], basis[i], sys, err);
         if (st != PW_OK)
             return st;
     }
     return PW_OK;
 }
 
-pw_status pw_cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *text,
+pw_status cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *text,
                                size_t *chosen, pw_error *err)
 {
     *chosen = 0;
     if (!text)
         return PW_OK;
     double n;
-    if (pw_cli_number("--minimum", text, &n, err) != PW_OK)
+    if (cli_number("--minimum", text, &n, err) != PW_OK)
         return PW_EINVAL;
     if (!(n >= 1.0 && n <= 1000.0) || n != floor(n))
         return pw_error_set(err, PW_EINVAL, NULL, 0,
@@ -97,7 +97,7 @@ pw_status pw_cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *
         return st;
     *chosen = k;
     if (!was)
-        pw_cli_warnf(cmd, "using minimum %zu of %zu (chi-square %.6g), not the one the fit chose%s",
+        cli_warnf(cmd, "using minimum %zu of %zu (chi-square %.6g), not the one the fit chose%s",
                      k, fit->n_minima, fit->chi2, fit->split ? "; it predicts a liquid split" : "");
     return PW_OK;
 }

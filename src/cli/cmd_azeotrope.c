@@ -14,25 +14,25 @@
 
 #define CMD "azeotrope"
 
-static const pw_cli_option azeo_options[] = {
-    {.name = "--pressure", .kind = PW_CLI_QUANTITY, .unit = PW_QTY_PRESSURE, .metavar = "P",
+static const cli_option azeo_options[] = {
+    {.name = "--pressure", .kind = CLI_QUANTITY, .unit = PW_QTY_PRESSURE, .metavar = "P",
      .help = "fixed pressure with its unit, e.g. 101.325kPa, \"1 atm\""},
-    {.name = "--temperature", .kind = PW_CLI_QUANTITY, .unit = PW_QTY_TEMPERATURE, .metavar = "T",
+    {.name = "--temperature", .kind = CLI_QUANTITY, .unit = PW_QTY_TEMPERATURE, .metavar = "T",
      .help = "fixed temperature with its unit, e.g. 50C, 350K\n"
              "(neither: the condition of the fit's own data)"},
-    {.name = "--sweep", .alias = "--scan", .kind = PW_CLI_STRING, .metavar = "FROM:TO[:N]",
+    {.name = "--sweep", .alias = "--scan", .kind = CLI_STRING, .metavar = "FROM:TO[:N]",
      .help = "also solve at N values (default 12) from FROM to TO (pressures\n"
              "when the condition is a pressure, geometric; temperatures,\n"
              "linear) and report where the azeotrope reaches a pure end"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-static const pw_cli_option *const azeo_blocks[] = {
-    azeo_options, pw_cli_block_uncertainty, pw_cli_block_components, pw_cli_block_minimum,
-    pw_cli_block_json, NULL,
+static const cli_option *const azeo_blocks[] = {
+    azeo_options, cli_block_uncertainty, cli_block_components, cli_block_minimum,
+    cli_block_json, NULL,
 };
 
-static const pw_cli_spec azeo_spec = {
+static const cli_spec azeo_spec = {
     .cmd = CMD,
     .synopsis =
         "usage: pinchwise azeotrope FIT.json [--pressure P | --temperature T] [--sweep FROM:TO[:N]]\n"
@@ -54,7 +54,7 @@ typedef struct args {
     bool have_fixed, json, scan;
     double fixed, from, to;
     size_t n;
-    pw_azeo_uncert unc;
+    cli_azeo_uncert unc;
     const char *components;
     const char *scan_text; /* --sweep (or --scan) as given */
     const char *scan_opt;  /* which of the two spellings was used, for the messages */
@@ -79,9 +79,9 @@ static pw_status parse_scan(const char *text, pw_quantity q, args *a, pw_error *
     if (c2)
         *c2 = '\0';
     double n = 12.0; /* default number of points */
-    if (pw_cli_quantity(q, what[0], buf, &a->from, err) != PW_OK ||
-        pw_cli_quantity(q, what[1], c1 + 1, &a->to, err) != PW_OK ||
-        (c2 && pw_cli_number(what[2], c2 + 1, &n, err) != PW_OK))
+    if (cli_quantity(q, what[0], buf, &a->from, err) != PW_OK ||
+        cli_quantity(q, what[1], c1 + 1, &a->to, err) != PW_OK ||
+        (c2 && cli_number(what[2], c2 + 1, &n, err) != PW_OK))
         return PW_EINVAL;
     if (!(n >= 2.0 && n <= 1000.0) || n != floor(n) || a->from == a->to) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
@@ -98,14 +98,14 @@ static pw_status parse_scan(const char *text, pw_quantity q, args *a, pw_error *
 static pw_status parse(int argc, char **argv, args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
-    pw_cli_args p;
-    if (pw_cli_parse(&azeo_spec, argc, argv, &p, err) != PW_OK)
+    cli_args p;
+    if (cli_parse(&azeo_spec, argc, argv, &p, err) != PW_OK)
         return PW_EINVAL;
     if ((a->help = p.help))
         return PW_OK;
-    a->json = pw_cli_has(&p, "--json");
-    pw_azeo_uncert_from(&p, &a->unc);
-    const pw_cli_value *P = pw_cli_get(&p, "--pressure"), *T = pw_cli_get(&p, "--temperature");
+    a->json = cli_has(&p, "--json");
+    cli_azeo_uncert_from(&p, &a->unc);
+    const cli_value *P = cli_get(&p, "--pressure"), *T = cli_get(&p, "--temperature");
     if (P && T) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "give one of --pressure or --temperature, once");
         return PW_EINVAL;
@@ -115,13 +115,13 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
         a->fixed = P ? P->num : T->num;
         a->have_fixed = true;
     }
-    const pw_cli_value *sw = pw_cli_get(&p, "--sweep");
+    const cli_value *sw = cli_get(&p, "--sweep");
     if (sw) {
         a->scan_opt = sw->spelt;
         a->scan_text = sw->text; /* parsed once the condition is known (it may be the fit's own) */
     }
-    a->minimum = pw_cli_text(&p, "--minimum");
-    a->components = pw_cli_text(&p, "--components");
+    a->minimum = cli_text(&p, "--minimum");
+    a->components = cli_text(&p, "--components");
     a->fit_path = p.n_pos ? p.pos[0] : NULL;
     if (!a->fit_path) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file is required");
@@ -155,7 +155,7 @@ static pw_status settle_condition(args *a, const pw_fit_result *fit, pw_error *e
 static pw_status scan_progress(void *ctx, size_t done, size_t total)
 {
     (void)ctx;
-    pw_cli_progress(CMD, "scan points", done, total);
+    cli_progress(CMD, "scan points", done, total);
     return PW_OK;
 }
 
@@ -235,34 +235,34 @@ static void print_text(const pw_fit_result *fit, const args *a, const pw_az_resu
                    "from about 0.05-0.10: rule of thumb, common practice)\n",
                    sc->x1_shift);
     }
-    pw_cli_print_caution(stdout);
+    cli_print_caution(stdout);
 }
 
-pw_status pw_cli_azeotrope(int argc, char **argv)
+pw_status cli_azeotrope(int argc, char **argv)
 {
     args a;
     pw_error err;
     pw_error_clear(&err);
     if (parse(argc, argv, &a, &err) != PW_OK)
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     if (a.help) {
-        pw_cli_help(&azeo_spec, stdout);
+        cli_help(&azeo_spec, stdout);
         return PW_OK;
     }
     pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
-    pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
+    pw_status st = cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
     if (st != PW_OK)
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     size_t minimum = 0;
-    if (pw_cli_apply_minimum(CMD, &fit, a.minimum, &minimum, &err) != PW_OK) {
+    if (cli_apply_minimum(CMD, &fit, a.minimum, &minimum, &err) != PW_OK) {
         pw_fit_result_free(&fit);
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     }
     if ((rc = settle_condition(&a, &fit, &err)) != PW_OK) {
         pw_fit_result_free(&fit);
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     }
     pw_az_result r;
     pw_az_scan *sc = NULL;
@@ -271,7 +271,7 @@ pw_status pw_cli_azeotrope(int argc, char **argv)
         pw_error_set(&err, st, a.fit_path, 0, "azeotrope search failed near x1 = %.4g: %s",
                      r.fail_x1, pw_strerror(st));
         pw_fit_result_free(&fit);
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     }
     pw_three_phase tp;
     size_t n_removed = 0;
@@ -281,17 +281,17 @@ pw_status pw_cli_azeotrope(int argc, char **argv)
         pw_error_set(&err, st, a.fit_path, 0, "three-phase (two liquids and vapor) search failed: %s",
                      pw_strerror(st));
         pw_fit_result_free(&fit);
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     }
-    if (a.unc.on && ((rc = pw_azeo_uncert_run(&fit, &r, &a.unc, &err)) != PW_OK ||
+    if (a.unc.on && ((rc = cli_azeo_uncert_run(&fit, &r, &a.unc, &err)) != PW_OK ||
                      (tp.exists && tp.heterogeneous_azeotrope &&
-                      (rc = pw_azeo_uncert_run_het(&fit, a.mode, a.fixed, &a.unc, &err)) != PW_OK))) {
+                      (rc = cli_azeo_uncert_run_het(&fit, a.mode, a.fixed, &a.unc, &err)) != PW_OK))) {
         pw_fit_result_free(&fit);
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     }
     if (a.scan) {
         sc = pw_az_scan_alloc(a.n);
-        if (sc && pw_cli_progress_wanted()) {
+        if (sc && cli_progress_wanted()) {
             sc->progress = scan_progress;
             sc->progress_ctx = NULL;
         }
@@ -300,7 +300,7 @@ pw_status pw_cli_azeotrope(int argc, char **argv)
             pw_error_set(&err, st, a.fit_path, 0, "azeotrope scan failed: %s", pw_strerror(st));
             pw_az_scan_free(sc);
             pw_fit_result_free(&fit);
-            return pw_cli_fail(CMD, &err);
+            return cli_fail(CMD, &err);
         }
         tps = calloc(a.n, sizeof *tps);
         st = tps ? PW_OK : PW_ENOMEM;
@@ -313,7 +313,7 @@ pw_status pw_cli_azeotrope(int argc, char **argv)
             free(tps);
             pw_az_scan_free(sc);
             pw_fit_result_free(&fit);
-            return pw_cli_fail(CMD, &err);
+            return cli_fail(CMD, &err);
         }
     }
     double Tlo = r.T_lo_K, Thi = r.T_hi_K;
@@ -321,21 +321,21 @@ pw_status pw_cli_azeotrope(int argc, char **argv)
         Tlo = fmin(Tlo, sc->points[k].T_lo_K);
         Thi = fmax(Thi, sc->points[k].T_hi_K);
     }
-    pw_cli_warn_fit(CMD, &fit);
-    pw_cli_warn_T_range(CMD, &fit, Tlo, Thi, "the bubble temperatures used");
+    cli_warn_fit(CMD, &fit);
+    cli_warn_T_range(CMD, &fit, Tlo, Thi, "the bubble temperatures used");
     if (a.json) {
         json_t *o = pw_azeotrope_doc(&fit.sys, a.mode, a.fixed, &r, sc, &tp, tps);
         if (a.unc.on)
-            pw_azeo_uncert_json(&a.unc, &r, json_object_get(o, "azeotropes"));
+            cli_azeo_uncert_json(&a.unc, &r, json_object_get(o, "azeotropes"));
         if (minimum)
             json_object_set_new(o, "minimum", json_integer((json_int_t)minimum));
-        rc = pw_cli_print_json(o);
+        rc = cli_print_json(o);
     } else {
         print_text(&fit, &a, &r, &tp, n_removed, sc, tps);
         if (a.unc.on)
-            pw_azeo_uncert_print(&a.unc, &r);
+            cli_azeo_uncert_print(&a.unc, &r);
         if (a.unc.het)
-            pw_het_uncert_print(&a.unc.res_het, &a.unc.opt, a.mode, false);
+            cli_het_uncert_print(&a.unc.res_het, &a.unc.opt, a.mode, false);
         rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     free(tps);

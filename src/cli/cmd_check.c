@@ -16,27 +16,27 @@
 #include <string.h>
 
 
-static const pw_cli_option check_options[] = {
-    {.name = "--strict", .kind = PW_CLI_FLAG,
+static const cli_option check_options[] = {
+    {.name = "--strict", .kind = CLI_FLAG,
      .help = "every test that ran must pass for a 'consistent' verdict"},
-    {.name = "--sigma-y", .kind = PW_CLI_STRING, .metavar = "S",
+    {.name = "--sigma-y", .kind = CLI_STRING, .metavar = "S",
      .help = "standard uncertainty of y1 (0 < S < 1), overriding the file's\n"
              "'# sigma_y:'; with either, the point test's limit follows it\n"
              "(docs/consistency.md); without, the classic 0.01 applies"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-static const pw_cli_option check_verdict[] = {
-    {.name = "--exit-verdict", .kind = PW_CLI_FLAG,
+static const cli_option check_verdict[] = {
+    {.name = "--exit-verdict", .kind = CLI_FLAG,
      .help = "exit with status 7 when the data are not shown consistent"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-static const pw_cli_option *const check_blocks[] = {
-    check_options, pw_cli_block_components, check_verdict, pw_cli_block_json, NULL,
+static const cli_option *const check_blocks[] = {
+    check_options, cli_block_components, check_verdict, cli_block_json, NULL,
 };
 
-static const pw_cli_spec check_spec = {
+static const cli_spec check_spec = {
     .cmd = "check",
     .synopsis = "usage: pinchwise check DATA.csv [options]\n"
                 "\n"
@@ -189,34 +189,34 @@ static void print_het(const pw_het_check *h)
            h->bound_ok ? "within the bound 1" : "ABOVE 1: y, T or P of these points is doubtful");
 }
 
-pw_status pw_cli_check(int argc, char **argv)
+pw_status cli_check(int argc, char **argv)
 {
-    pw_cli_args p;
+    cli_args p;
     pw_error perr;
-    if (pw_cli_parse(&check_spec, argc, argv, &p, &perr) != PW_OK)
-        return pw_cli_fail("check", &perr);
+    if (cli_parse(&check_spec, argc, argv, &p, &perr) != PW_OK)
+        return cli_fail("check", &perr);
     if (p.help) {
-        pw_cli_help(&check_spec, stdout);
+        cli_help(&check_spec, stdout);
         return PW_OK;
     }
     const char *data = p.n_pos ? p.pos[0] : NULL;
-    const char *comp_file = pw_cli_text(&p, "--components");
-    const char *sigma_y = pw_cli_text(&p, "--sigma-y");
-    bool json = pw_cli_has(&p, "--json"), strict = pw_cli_has(&p, "--strict");
-    bool exit_verdict = pw_cli_has(&p, "--exit-verdict");
+    const char *comp_file = cli_text(&p, "--components");
+    const char *sigma_y = cli_text(&p, "--sigma-y");
+    bool json = cli_has(&p, "--json"), strict = cli_has(&p, "--strict");
+    bool exit_verdict = cli_has(&p, "--exit-verdict");
     if (!data) {
-        return pw_cli_failf("check", PW_EINVAL, "no data file given");
+        return cli_failf("check", PW_EINVAL, "no data file given");
     }
     pw_error err;
     pw_error_clear(&err);
     pw_complib lib;
     pw_dataset ds;
     memset(&ds, 0, sizeof ds);
-    if (pw_cli_load_components(&lib, comp_file, &err) != PW_OK)
-        return pw_cli_fail("check", &err);
+    if (cli_load_components(&lib, comp_file, &err) != PW_OK)
+        return cli_fail("check", &err);
     if (pw_dataset_read(data, &ds, &err) != PW_OK) {
         pw_complib_free(&lib);
-        return pw_cli_fail("check", &err);
+        return cli_fail("check", &err);
     }
     pw_component found[2];
     const pw_component *c[2] = {&found[0], &found[1]};
@@ -229,7 +229,7 @@ pw_status pw_cli_check(int argc, char **argv)
     o.strict_verdict = strict;
     if (sigma_y) {
         double v = NAN;
-        if (pw_cli_number("--sigma-y", sigma_y, &v, &err) == PW_OK && !(v > 0.0 && v < 1.0))
+        if (cli_number("--sigma-y", sigma_y, &v, &err) == PW_OK && !(v > 0.0 && v < 1.0))
             pw_error_set(&err, PW_EINVAL, NULL, 0,
                          "--sigma-y %s: expected a mole-fraction uncertainty between 0 and 1 "
                          "(e.g. 0.002)", sigma_y);
@@ -248,19 +248,19 @@ pw_status pw_cli_check(int argc, char **argv)
         st = pw_consistency_run(het.n ? &one : &ds, c[0], c[1], &o, &r, &err);
     pw_status code = PW_OK;
     if (st != PW_OK) {
-        code = pw_cli_fail("check", &err);
+        code = cli_fail("check", &err);
     } else {
         for (int i = 0; i < 2; i++) {
             double Tlo = INFINITY, Thi = -INFINITY;
             for (size_t k = 0; k < ds.n; k++)
                 Tlo = fmin(Tlo, ds.pts[k].T_K), Thi = fmax(Thi, ds.pts[k].T_K);
             if (pw_component_range_excess_K(c[i], Tlo) != 0.0 || pw_component_range_excess_K(c[i], Thi) != 0.0)
-                pw_cli_warnf("check", "%s: the data's temperatures %.2f-%.2f K leave the validity "
+                cli_warnf("check", "%s: the data's temperatures %.2f-%.2f K leave the validity "
                              "range %.2f-%.2f K of the %s vapor-pressure correlation", ds.path, Tlo,
                              Thi, c[i]->T_min_K, c[i]->T_max_K, c[i]->name);
         }
         if (json) {
-            code = pw_cli_print_json(pw_check_doc(&ds, &r, strict, &het));
+            code = cli_print_json(pw_check_doc(&ds, &r, strict, &het));
         } else {
             print_het(&het);
             print_text(&ds, &r);

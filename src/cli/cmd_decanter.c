@@ -20,12 +20,12 @@ typedef struct args {
     pw_decanter_spec spec;
     pw_column_options opt;
     bool have_P, have_z, have_rich, have_lean, json;
-    pw_azeo_uncert unc; /* --uncertainty, --samples, --seed (the azeotrope command's parser) */
+    cli_azeo_uncert unc; /* --uncertainty, --samples, --seed (the azeotrope command's parser) */
     pw_basis basis[3]; /* of --zf, --x1-rich, --x1-lean as given (mole, or mass: wt, wt%) */
 } args;
 
 /* Design boil-up ratios: above the minimum. */
-static pw_status check_boilup_factors(pw_cli_value *v, pw_error *err)
+static pw_status check_boilup_factors(cli_value *v, pw_error *err)
 {
     if (v->n_list > PW_COLUMN_MAX_FACTORS)
         return pw_error_set(err, PW_EINVAL, NULL, 0,
@@ -38,23 +38,23 @@ static pw_status check_boilup_factors(pw_cli_value *v, pw_error *err)
     return PW_OK;
 }
 
-static const pw_cli_option decanter_options[] = {
-    {.name = "--x1-rich", .kind = PW_CLI_FRACTION, .metavar = "X",
+static const cli_option decanter_options[] = {
+    {.name = "--x1-rich", .kind = CLI_FRACTION, .metavar = "X",
      .help = "bottoms of column A (above the layer rich in component 1): a mole\n"
              "fraction, or with mol%, wt or wt%"},
-    {.name = "--x1-lean", .kind = PW_CLI_FRACTION, .metavar = "X",
+    {.name = "--x1-lean", .kind = CLI_FRACTION, .metavar = "X",
      .help = "bottoms of column B (below the other layer), as --x1-rich"},
-    {.name = "--factors", .kind = PW_CLI_LIST, .metavar = "F,F,...", .check = check_boilup_factors,
+    {.name = "--factors", .kind = CLI_LIST, .metavar = "F,F,...", .check = check_boilup_factors,
      .help = "design boil-up as multiples of the minimum (default 1.2,1.3,1.5)"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-static const pw_cli_option *const decanter_blocks[] = {
-    pw_cli_block_pressure, pw_cli_block_feed, decanter_options, pw_cli_block_uncertainty,
-    pw_cli_block_components, pw_cli_block_json, NULL,
+static const cli_option *const decanter_blocks[] = {
+    cli_block_pressure, cli_block_feed, decanter_options, cli_block_uncertainty,
+    cli_block_components, cli_block_json, NULL,
 };
 
-static const pw_cli_spec decanter_spec = {
+static const cli_spec decanter_spec = {
     .cmd = CMD,
     .synopsis =
         "usage: pinchwise decanter FIT.json --pressure P --zf X --x1-rich X --x1-lean X [--q Q]\n"
@@ -75,25 +75,25 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
     a->opt = pw_column_default_options();
-    pw_cli_args p;
-    if (pw_cli_parse(&decanter_spec, argc, argv, &p, err) != PW_OK)
+    cli_args p;
+    if (cli_parse(&decanter_spec, argc, argv, &p, err) != PW_OK)
         return PW_EINVAL;
     if ((a->help = p.help))
         return PW_OK;
-    a->json = pw_cli_has(&p, "--json");
-    a->components = pw_cli_text(&p, "--components");
-    pw_azeo_uncert_from(&p, &a->unc);
-    const pw_cli_value *v;
-    if ((v = pw_cli_get(&p, "--x1-rich")))
+    a->json = cli_has(&p, "--json");
+    a->components = cli_text(&p, "--components");
+    cli_azeo_uncert_from(&p, &a->unc);
+    const cli_value *v;
+    if ((v = cli_get(&p, "--x1-rich")))
         a->spec.x_rich = v->num, a->basis[1] = v->basis, a->have_rich = true;
-    if ((v = pw_cli_get(&p, "--x1-lean")))
+    if ((v = cli_get(&p, "--x1-lean")))
         a->spec.x_lean = v->num, a->basis[2] = v->basis, a->have_lean = true;
-    if ((v = pw_cli_get(&p, "--factors"))) {
+    if ((v = cli_get(&p, "--factors"))) {
         a->opt.n_factors = v->n_list;
         memcpy(a->opt.factors, v->list, v->n_list * sizeof v->list[0]);
     }
-    pw_cli_targets tg;
-    pw_cli_targets_get(&p, &tg, NULL);
+    cli_targets tg;
+    cli_targets_get(&p, &tg, NULL);
     a->fit_path = p.n_pos ? p.pos[0] : NULL;
     a->spec.P_Pa = tg.P_Pa;
     a->spec.zf = tg.zf;
@@ -123,60 +123,60 @@ static void print_column(const char *name, const pw_stripper_result *c, double t
                c->design[i].stages, c->design[i].y_top);
 }
 
-pw_status pw_cli_decanter(int argc, char **argv)
+pw_status cli_decanter(int argc, char **argv)
 {
     args a;
     pw_error err;
     pw_error_clear(&err);
     if (parse(argc, argv, &a, &err) != PW_OK)
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     if (a.help) {
-        pw_cli_help(&decanter_spec, stdout);
+        cli_help(&decanter_spec, stdout);
         return PW_OK;
     }
     pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
-    pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
+    pw_status st = cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
     if (st != PW_OK)
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     /* compositions given by mass: mole fractions with the fit file's molar masses */
-    st = pw_cli_composition_to_mole("--zf", &a.spec.zf, a.basis[0], &fit.sys, &err);
+    st = cli_composition_to_mole("--zf", &a.spec.zf, a.basis[0], &fit.sys, &err);
     if (st == PW_OK)
-        st = pw_cli_composition_to_mole("--x1-rich", &a.spec.x_rich, a.basis[1], &fit.sys, &err);
+        st = cli_composition_to_mole("--x1-rich", &a.spec.x_rich, a.basis[1], &fit.sys, &err);
     if (st == PW_OK)
-        st = pw_cli_composition_to_mole("--x1-lean", &a.spec.x_lean, a.basis[2], &fit.sys, &err);
+        st = cli_composition_to_mole("--x1-lean", &a.spec.x_lean, a.basis[2], &fit.sys, &err);
     if (st != PW_OK) {
         pw_fit_result_free(&fit);
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     }
     pw_decanter_result r;
     st = pw_decanter_run(&fit.sys, &a.spec, &a.opt, a.fit_path, &r, &err);
     if (st != PW_OK) {
         pw_fit_result_free(&fit);
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     }
     const pw_three_phase *tp = &r.decanter;
     pw_unc_result ures;
     bool unc = a.unc.on && r.feasible;
     if (unc) {
-        pw_cli_progress_ctx pc = {CMD, "parameter sets sampled"};
+        cli_progress_ctx pc = {CMD, "parameter sets sampled"};
         pw_unc_options o = a.unc.opt;
-        if (pw_cli_progress_wanted()) {
-            o.progress = pw_cli_progress_tenths;
+        if (cli_progress_wanted()) {
+            o.progress = cli_progress_tenths;
             o.progress_ctx = &pc;
         }
         pw_unc_het_ctx c = pw_unc_decanter_ctx(&a.spec, &a.opt);
         if (pw_het_unc_run(&fit, &c, &o, &ures, &err) != PW_OK) {
             pw_fit_result_free(&fit);
-            return pw_cli_fail(CMD, &err);
+            return cli_fail(CMD, &err);
         }
     }
     if (a.json) {
         json_t *doc = pw_decanter_doc(&r, &a.spec);
         if (unc)
             pw_decanter_unc_doc(doc, &ures, a.unc.opt.seed);
-        rc = pw_cli_print_json(doc);
+        rc = cli_print_json(doc);
     } else {
         const pw_system *s = &fit.sys;
         printf("Decanter scheme for %s (1) / %s (2), %s model, at %.6g kPa\n", s->comp[0].name,
@@ -198,10 +198,10 @@ pw_status pw_cli_decanter(int argc, char **argv)
                    a.spec.q);
         }
         if (unc)
-            pw_het_uncert_print(&ures, &a.unc.opt, PW_AZ_ISOBARIC, true);
+            cli_het_uncert_print(&ures, &a.unc.opt, PW_AZ_ISOBARIC, true);
         else if (a.unc.on)
             printf("\nThe scheme is not feasible at the estimate: no interval to give.\n");
-        pw_cli_print_caution(stdout);
+        cli_print_caution(stdout);
         rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     pw_fit_result_free(&fit);

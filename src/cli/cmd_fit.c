@@ -57,7 +57,7 @@ static int parse_lines(const char *text, pw_fit_options *o, pw_error *err)
     return PW_OK;
 }
 
-/* --sigma-T and --sigma-P with the data file's syntax (pw_cli_uncertainty_opt) within the ranges
+/* --sigma-T and --sigma-P with the data file's syntax (cli_uncertainty_opt) within the ranges
  * of docs/inputs.md ("Command-line numbers"): a temperature difference from 0.0001 to 50 K; a
  * pressure uncertainty from 0.0001 to 50 % or a positive absolute one up to 1 MPa. */
 static pw_status sigma_opt(const char *opt, const char *text, pw_fit_options *fo, pw_error *err)
@@ -67,7 +67,7 @@ static pw_status sigma_opt(const char *opt, const char *text, pw_fit_options *fo
     pw_error inner;
     pw_error_clear(&inner);
     pw_status st = strpbrk(text, "xX") ? PW_EINVAL /* no hexadecimal numbers */
-                                       : pw_cli_uncertainty_opt(opt, text, &T, &rel, &abs_Pa,
+                                       : cli_uncertainty_opt(opt, text, &T, &rel, &abs_Pa,
                                                                 &inner);
     bool ok = st == PW_OK &&
               (isT ? (isfinite(T) && T >= 1e-4 && T <= 50.0)
@@ -89,47 +89,47 @@ static pw_status sigma_opt(const char *opt, const char *text, pw_fit_options *fo
     return PW_OK;
 }
 
-static const pw_cli_option fit_options[] = {
-    {.name = "--model", .kind = PW_CLI_STRING, .metavar = "MODEL",
+static const cli_option fit_options[] = {
+    {.name = "--model", .kind = CLI_STRING, .metavar = "MODEL",
      .help = "the activity model (see above; any case), or all"},
-    {.name = "--out", .kind = PW_CLI_STRING, .metavar = "FIT.json",
+    {.name = "--out", .kind = CLI_STRING, .metavar = "FIT.json",
      .help = "fit file to write (default fits/<stem>.<model>.json)"},
-    {.name = "--out-dir", .kind = PW_CLI_STRING, .metavar = "DIR",
+    {.name = "--out-dir", .kind = CLI_STRING, .metavar = "DIR",
      .help = "folder for the fit files (batch, or --model all)"},
-    {.name = "--force", .kind = PW_CLI_FLAG, .help = "replace an existing fit file"},
-    {.name = "--alpha", .kind = PW_CLI_NUMBER, .metavar = "A", .lo = 0.001, .hi = 1.0,
+    {.name = "--force", .kind = CLI_FLAG, .help = "replace an existing fit file"},
+    {.name = "--alpha", .kind = CLI_NUMBER, .metavar = "A", .lo = 0.001, .hi = 1.0,
      .what = "an NRTL non-randomness", .help = "NRTL non-randomness when fixed (default 0.3)"},
-    {.name = "--fit-alpha", .kind = PW_CLI_FLAG, .help = "NRTL: fit alpha as well"},
-    {.name = "--vapor", .kind = PW_CLI_STRING, .metavar = "MODEL",
+    {.name = "--fit-alpha", .kind = CLI_FLAG, .help = "NRTL: fit alpha as well"},
+    {.name = "--vapor", .kind = CLI_STRING, .metavar = "MODEL",
      .help = "ideal (default) or virial (Tsonopoulos second virial\n"
              "coefficients; needs Tc_K, Pc_kPa, omega, Zc, Vc_cm3_mol)"},
-    {.name = "--starts", .kind = PW_CLI_INTEGER, .metavar = "N", .lo = 1.0, .hi = FIT_MAX_STARTS,
+    {.name = "--starts", .kind = CLI_INTEGER, .metavar = "N", .lo = 1.0, .hi = FIT_MAX_STARTS,
      .help = "LM runs, each from its own start, 1 to 10000 (default 8)"},
-    {.name = "--seed", .kind = PW_CLI_INTEGER, .metavar = "N", .lo = 0.0, .hi = 4294967295.0,
+    {.name = "--seed", .kind = CLI_INTEGER, .metavar = "N", .lo = 0.0, .hi = 4294967295.0,
      .help = "seed of the start points, 0 to 4294967295 (default 1)"},
-    {.name = "--sigma-T", .kind = PW_CLI_STRING, .metavar = "DT",
+    {.name = "--sigma-T", .kind = CLI_STRING, .metavar = "DT",
      .help = "temperature uncertainty, e.g. 0.05K (default: file or 0.1 K)"},
-    {.name = "--sigma-P", .kind = PW_CLI_STRING, .metavar = "DP",
+    {.name = "--sigma-P", .kind = CLI_STRING, .metavar = "DP",
      .help = "pressure uncertainty, 0.2% or 0.05kPa, as in the file's\n"
              "sigma_P (a bare number is percent; default: file or 0.1%)"},
-    {.name = "--sigma-y", .kind = PW_CLI_NUMBER, .metavar = "DY", .lo = 1e-6, .hi = 0.5,
+    {.name = "--sigma-y", .kind = CLI_NUMBER, .metavar = "DY", .lo = 1e-6, .hi = 0.5,
      .what = "a mole-fraction uncertainty",
      .help = "vapor mole fraction uncertainty (default: file or 0.004)"},
-    {.name = "--exclude", .kind = PW_CLI_STRING, .metavar = "LINES", .repeatable = true,
+    {.name = "--exclude", .kind = CLI_STRING, .metavar = "LINES", .repeatable = true,
      .help = "file line numbers to leave out, e.g. 12,15-17"},
-    {.name = "--exclude-reason", .kind = PW_CLI_STRING, .metavar = "TEXT",
+    {.name = "--exclude-reason", .kind = CLI_STRING, .metavar = "TEXT",
      .help = "why they are left out (recorded in the fit file)"},
-    {.name = "--lle", .kind = PW_CLI_STRING, .metavar = "LLE.csv",
+    {.name = "--lle", .kind = CLI_STRING, .metavar = "LLE.csv",
      .help = "measured tie lines (T[UNIT], x1_I, x1_II) fitted together with\n"
              "the VLE data (not with wilson, which cannot split)"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-static const pw_cli_option *const fit_blocks[] = {
-    fit_options, pw_cli_block_components, pw_cli_block_json, NULL,
+static const cli_option *const fit_blocks[] = {
+    fit_options, cli_block_components, cli_block_json, NULL,
 };
 
-static void usage(FILE *f, const pw_cli_spec *spec)
+static void usage(FILE *f, const cli_spec *spec)
 {
     char names[256];
     fprintf(f,
@@ -140,10 +140,10 @@ static void usage(FILE *f, const pw_cli_spec *spec)
             "model, rank by AICc; with a folder, every model of every file; with one file,\n"
             "--out-dir not --out)\n",
             pw_model_names(names, sizeof names));
-    pw_cli_help(spec, f);
+    cli_help(spec, f);
 }
 
-static const pw_cli_spec fit_spec = {
+static const cli_spec fit_spec = {
     .cmd = "fit",
     .synopsis = "", /* the model names are printed by usage() above it */
     .blocks = fit_blocks,
@@ -195,68 +195,68 @@ static void print_table(const pw_fit_result *r, const char *path)
     printf("  fit file: %s\n", path);
 }
 
-pw_status pw_cli_fit(int argc, char **argv)
+pw_status cli_fit(int argc, char **argv)
 {
     const char *input = NULL, *model_name = NULL, *components = NULL, *out = NULL, *out_dir = NULL;
     const char *lle_path = NULL;
     bool json = false;
-    pw_fit_cli_opts co = {.force = false};
+    cli_fit_opts co = {.force = false};
     co.fit = pw_fit_default_options();
     pw_error err;
     pw_error_clear(&err);
-    pw_cli_args p;
-    if (pw_cli_parse(&fit_spec, argc, argv, &p, &err) != PW_OK)
-        return pw_cli_fail("fit", &err);
+    cli_args p;
+    if (cli_parse(&fit_spec, argc, argv, &p, &err) != PW_OK)
+        return cli_fail("fit", &err);
     if (p.help) {
         usage(stdout, &fit_spec);
         return PW_OK;
     }
     input = p.n_pos ? p.pos[0] : NULL;
-    model_name = pw_cli_text(&p, "--model");
-    components = pw_cli_text(&p, "--components");
-    out = pw_cli_text(&p, "--out");
-    out_dir = pw_cli_text(&p, "--out-dir");
-    lle_path = pw_cli_text(&p, "--lle");
-    json = pw_cli_has(&p, "--json");
-    co.force = pw_cli_has(&p, "--force");
-    co.fit.fit_alpha = pw_cli_has(&p, "--fit-alpha");
-    const pw_cli_value *v;
-    if ((v = pw_cli_get(&p, "--vapor")) && pw_vapor_parse(v->text, &co.fit.vapor) != PW_OK)
-        return pw_cli_failf("fit", PW_EINVAL,
+    model_name = cli_text(&p, "--model");
+    components = cli_text(&p, "--components");
+    out = cli_text(&p, "--out");
+    out_dir = cli_text(&p, "--out-dir");
+    lle_path = cli_text(&p, "--lle");
+    json = cli_has(&p, "--json");
+    co.force = cli_has(&p, "--force");
+    co.fit.fit_alpha = cli_has(&p, "--fit-alpha");
+    const cli_value *v;
+    if ((v = cli_get(&p, "--vapor")) && pw_vapor_parse(v->text, &co.fit.vapor) != PW_OK)
+        return cli_failf("fit", PW_EINVAL,
                             "--vapor %s: unknown vapor model (expected ideal or virial)", v->text);
-    if ((v = pw_cli_get(&p, "--exclude-reason")))
+    if ((v = cli_get(&p, "--exclude-reason")))
         snprintf(co.fit.exclude_reason, sizeof co.fit.exclude_reason, "%s", v->text);
-    for (v = pw_cli_next(&p, "--exclude", NULL); v; v = pw_cli_next(&p, "--exclude", v))
+    for (v = cli_next(&p, "--exclude", NULL); v; v = cli_next(&p, "--exclude", v))
         if (parse_lines(v->text, &co.fit, &err) != PW_OK)
-            return pw_cli_fail("fit", &err);
+            return cli_fail("fit", &err);
     static const char *const sigmas[] = {"--sigma-T", "--sigma-P"};
     for (size_t k = 0; k < 2; k++)
-        if ((v = pw_cli_get(&p, sigmas[k])) && sigma_opt(sigmas[k], v->text, &co.fit, &err) != PW_OK)
-            return pw_cli_fail("fit", &err);
+        if ((v = cli_get(&p, sigmas[k])) && sigma_opt(sigmas[k], v->text, &co.fit, &err) != PW_OK)
+            return cli_fail("fit", &err);
     /* ranges: docs/inputs.md ("Command-line numbers"), checked by the parser */
-    if ((v = pw_cli_get(&p, "--starts")))
+    if ((v = cli_get(&p, "--starts")))
         co.fit.n_starts = (size_t)v->whole;
-    if ((v = pw_cli_get(&p, "--seed")))
+    if ((v = cli_get(&p, "--seed")))
         co.fit.seed = (unsigned long)v->whole;
-    if ((v = pw_cli_get(&p, "--alpha")))
+    if ((v = cli_get(&p, "--alpha")))
         co.fit.alpha = v->num;
-    if ((v = pw_cli_get(&p, "--sigma-y")))
+    if ((v = cli_get(&p, "--sigma-y")))
         co.fit.sigma_y = v->num;
     if (!input || !model_name) {
-        return pw_cli_failf("fit", PW_EINVAL, "a dataset (or folder) and --model are required");
+        return cli_failf("fit", PW_EINVAL, "a dataset (or folder) and --model are required");
     }
     bool all = !strcasecmp(model_name, "all");
     const pw_model_type *model = all ? NULL : pw_model_find(model_name);
     char names[256];
     if (!all && !model)
-        return pw_cli_failf("fit", PW_EINVAL, "unknown model '%s' (expected %s or all)",
+        return cli_failf("fit", PW_EINVAL, "unknown model '%s' (expected %s or all)",
                             model_name, pw_model_names(names, sizeof names));
     struct stat sb;
     if (stat(input, &sb) != 0)
-        return pw_cli_failf("fit", PW_EIO, "%s: no such file or folder", input);
+        return cli_failf("fit", PW_EIO, "%s: no such file or folder", input);
     pw_complib lib;
-    if (pw_cli_load_components(&lib, components, &err) != PW_OK)
-        return pw_cli_fail("fit", &err);
+    if (cli_load_components(&lib, components, &err) != PW_OK)
+        return cli_fail("fit", &err);
     co.lib = &lib;
     /* every file read is an input that no output may replace */
     co.inputs[co.n_inputs++] = components;
@@ -269,7 +269,7 @@ pw_status pw_cli_fit(int argc, char **argv)
     if (lle_path) {
         if (pw_lle_dataset_read(lle_path, &lle, &err) != PW_OK) {
             pw_complib_free(&lib);
-            return pw_cli_fail("fit", &err);
+            return cli_fail("fit", &err);
         }
         co.lle = &lle;
         co.inputs[co.n_inputs++] = lle_path;
@@ -278,29 +278,29 @@ pw_status pw_cli_fit(int argc, char **argv)
     if (S_ISDIR(sb.st_mode)) {
         if (!out_dir) {
             pw_complib_free(&lib);
-            return pw_cli_failf("fit", PW_EINVAL, "fitting a folder needs --out-dir OUTDIR");
+            return cli_failf("fit", PW_EINVAL, "fitting a folder needs --out-dir OUTDIR");
         }
-        rc = pw_fit_batch(input, out_dir, model, &co); /* model NULL: every model */
+        rc = cli_fit_batch(input, out_dir, model, &co); /* model NULL: every model */
     } else if (all && out) {
-        rc = pw_cli_failf("fit", PW_EINVAL,
+        rc = cli_failf("fit", PW_EINVAL,
                           "--out names one fit file, but --model all writes one per model "
                           "(<stem>.<model>.json): give --out-dir DIR instead");
     } else if (all) {
-        rc = pw_fit_all_models(input, out_dir, &co);
+        rc = cli_fit_all_models(input, out_dir, &co);
     } else {
         pw_fit_result r;
         char path[PW_PATH_MAX];
-        rc = pw_fit_one(input, model, out, out_dir, &co, &r, path, sizeof path, &err);
+        rc = cli_fit_one(input, model, out, out_dir, &co, &r, path, sizeof path, &err);
         if (rc == PW_OK) {
             if (json) {
-                json_t *o = pw_fit_cli_json(&r, path);
-                rc = pw_cli_print_json(o);
+                json_t *o = cli_fit_json(&r, path);
+                rc = cli_print_json(o);
             } else {
                 print_table(&r, path);
             }
             pw_fit_result_free(&r);
         } else {
-            rc = pw_cli_fail("fit", &err);
+            rc = cli_fail("fit", &err);
         }
     }
     pw_lle_dataset_free(&lle);

@@ -14,20 +14,20 @@
 
 #define CMD "lle"
 
-static const pw_cli_option lle_options[] = {
-    {.name = "--temperature", .kind = PW_CLI_QUANTITY, .unit = PW_QTY_TEMPERATURE, .metavar = "T",
+static const cli_option lle_options[] = {
+    {.name = "--temperature", .kind = CLI_QUANTITY, .unit = PW_QTY_TEMPERATURE, .metavar = "T",
      .help = "temperature with its unit, e.g. 25C, 298.15K"},
-    {.name = "--scan", .kind = PW_CLI_STRING, .metavar = "FROM:TO:N",
+    {.name = "--scan", .kind = CLI_STRING, .metavar = "FROM:TO:N",
      .help = "also the layers at N temperatures from FROM to TO (linear) and\n"
              "the critical solution temperatures between them"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-static const pw_cli_option *const lle_blocks[] = {
-    lle_options, pw_cli_block_components, pw_cli_block_json, NULL,
+static const cli_option *const lle_blocks[] = {
+    lle_options, cli_block_components, cli_block_json, NULL,
 };
 
-static const pw_cli_spec lle_spec = {
+static const cli_spec lle_spec = {
     .cmd = CMD,
     .synopsis =
         "usage: pinchwise lle FIT.json --temperature T [--scan FROM:TO:N] [options]\n"
@@ -60,9 +60,9 @@ static pw_status parse_scan(const char *text, args *a, pw_error *err)
     }
     *c1 = *c2 = '\0';
     double n;
-    if (pw_cli_quantity(PW_QTY_TEMPERATURE, "--scan FROM", buf, &a->from, err) != PW_OK
-        || pw_cli_quantity(PW_QTY_TEMPERATURE, "--scan TO", c1 + 1, &a->to, err) != PW_OK
-        || pw_cli_number("--scan N", c2 + 1, &n, err) != PW_OK)
+    if (cli_quantity(PW_QTY_TEMPERATURE, "--scan FROM", buf, &a->from, err) != PW_OK
+        || cli_quantity(PW_QTY_TEMPERATURE, "--scan TO", c1 + 1, &a->to, err) != PW_OK
+        || cli_number("--scan N", c2 + 1, &n, err) != PW_OK)
         return PW_EINVAL;
     if (!(n >= 2.0 && n <= 1000.0) || n != floor(n) || a->from == a->to) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
@@ -78,15 +78,15 @@ static pw_status parse_scan(const char *text, args *a, pw_error *err)
 static pw_status parse(int argc, char **argv, args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
-    pw_cli_args p;
-    if (pw_cli_parse(&lle_spec, argc, argv, &p, err) != PW_OK)
+    cli_args p;
+    if (cli_parse(&lle_spec, argc, argv, &p, err) != PW_OK)
         return PW_EINVAL;
     if ((a->help = p.help))
         return PW_OK;
-    a->json = pw_cli_has(&p, "--json");
-    a->components = pw_cli_text(&p, "--components");
-    a->scan_text = pw_cli_text(&p, "--scan");
-    const pw_cli_value *T = pw_cli_get(&p, "--temperature");
+    a->json = cli_has(&p, "--json");
+    a->components = cli_text(&p, "--components");
+    a->scan_text = cli_text(&p, "--scan");
+    const cli_value *T = cli_get(&p, "--temperature");
     if (T)
         a->T = T->num, a->have_T = true;
     a->fit_path = p.n_pos ? p.pos[0] : NULL;
@@ -97,29 +97,29 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
     return a->scan_text ? parse_scan(a->scan_text, a, err) : 0;
 }
 
-pw_status pw_cli_lle(int argc, char **argv)
+pw_status cli_lle(int argc, char **argv)
 {
     args a;
     pw_error err;
     pw_error_clear(&err);
     if (parse(argc, argv, &a, &err) != PW_OK)
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     if (a.help) {
-        pw_cli_help(&lle_spec, stdout);
+        cli_help(&lle_spec, stdout);
         return PW_OK;
     }
     pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
-    pw_status st = pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
+    pw_status st = cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
     if (st != PW_OK)
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     const pw_system *s = &fit.sys;
     pw_lle_result r;
     st = pw_lle_run(s, a.T, a.fit_path, &r, &err);
     if (st != PW_OK) {
         pw_fit_result_free(&fit);
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     }
     pw_lle_scan_point *pts = NULL;
     pw_lle_critical crit[PW_LLE_MAX_CRITICAL];
@@ -132,12 +132,12 @@ pw_status pw_cli_lle(int argc, char **argv)
         if (st != PW_OK) {
             free(pts);
             pw_fit_result_free(&fit);
-            return pw_cli_fail(CMD, &err);
+            return cli_fail(CMD, &err);
         }
     }
     bool can = pw_model_can_split(s->model);
     if (a.json) {
-        rc = pw_cli_print_json(pw_lle_doc(s, a.T, &r, pts, a.n, crit, n_crit));
+        rc = cli_print_json(pw_lle_doc(s, a.T, &r, pts, a.n, crit, n_crit));
     } else {
         printf("Liquid-liquid equilibrium of %s (1) / %s (2), %s model, at %.3f K (%.2f C)\n",
                s->comp[0].name, s->comp[1].name, s->model->name, a.T, a.T - 273.15);
@@ -174,7 +174,7 @@ pw_status pw_cli_lle(int argc, char **argv)
         printf("  Layers predicted from a fit to vapor-liquid data can be far from measured "
                "solubilities, above all away from the fitted temperatures; check against\n"
                "  measured tie lines before sizing a decanter.\n");
-        pw_cli_print_caution(stdout);
+        cli_print_caution(stdout);
         rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     free(pts);

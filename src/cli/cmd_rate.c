@@ -18,30 +18,30 @@ typedef struct rate_args {
     double P_Pa;
     pw_rate_spec spec;
     bool json, energy, have_N, have_K, have_R, have_D;
-    pw_cli_targets tg;
+    cli_targets tg;
 } rate_args;
 
-static const pw_cli_option rate_options[] = {
-    {.name = "--stages", .kind = PW_CLI_INTEGER, .metavar = "N", .lo = 1.0, .hi = 100000.0,
+static const cli_option rate_options[] = {
+    {.name = "--stages", .kind = CLI_INTEGER, .metavar = "N", .lo = 1.0, .hi = 100000.0,
      .help = "equilibrium stages, counted from the top, the partial reboiler\n"
              "being stage N (the total condenser is not counted)"},
-    {.name = "--feed-stage", .kind = PW_CLI_INTEGER, .metavar = "K", .lo = 1.0, .hi = 100000.0,
+    {.name = "--feed-stage", .kind = CLI_INTEGER, .metavar = "K", .lo = 1.0, .hi = 100000.0,
      .help = "the stage the whole feed enters"},
-    {.name = "--reflux", .kind = PW_CLI_NUMBER, .metavar = "R", .help = "reflux ratio L/D"},
-    {.name = "--distillate", .kind = PW_CLI_NUMBER, .metavar = "D",
+    {.name = "--reflux", .kind = CLI_NUMBER, .metavar = "R", .help = "reflux ratio L/D"},
+    {.name = "--distillate", .kind = CLI_NUMBER, .metavar = "D",
      .help = "distillate, moles per mole of feed"},
-    {.name = "--energy", .kind = PW_CLI_FLAG,
+    {.name = "--energy", .kind = CLI_FLAG,
      .help = "energy balance on every stage (heat data from the component\n"
              "file) instead of constant molal overflow; adds the duties"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-static const pw_cli_option *const rate_blocks[] = {
-    pw_cli_block_pressure, pw_cli_block_feed, rate_options, pw_cli_block_components,
-    pw_cli_block_json, NULL,
+static const cli_option *const rate_blocks[] = {
+    cli_block_pressure, cli_block_feed, rate_options, cli_block_components,
+    cli_block_json, NULL,
 };
 
-static const pw_cli_spec rate_spec = {
+static const cli_spec rate_spec = {
     .cmd = CMD,
     .synopsis =
         "usage: pinchwise rate FIT.json --pressure P --stages N --feed-stage K --reflux R\n"
@@ -60,23 +60,23 @@ static const pw_cli_spec rate_spec = {
 static pw_status parse(int argc, char **argv, rate_args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
-    pw_cli_args p;
-    if (pw_cli_parse(&rate_spec, argc, argv, &p, err) != PW_OK)
+    cli_args p;
+    if (cli_parse(&rate_spec, argc, argv, &p, err) != PW_OK)
         return PW_EINVAL;
     if ((a->help = p.help))
         return PW_OK;
-    a->json = pw_cli_has(&p, "--json");
-    a->energy = pw_cli_has(&p, "--energy");
-    a->components = pw_cli_text(&p, "--components");
-    pw_cli_targets_get(&p, &a->tg, NULL);
-    const pw_cli_value *v;
-    if ((v = pw_cli_get(&p, "--stages")))
+    a->json = cli_has(&p, "--json");
+    a->energy = cli_has(&p, "--energy");
+    a->components = cli_text(&p, "--components");
+    cli_targets_get(&p, &a->tg, NULL);
+    const cli_value *v;
+    if ((v = cli_get(&p, "--stages")))
         a->spec.n_stages = (int)v->whole, a->have_N = true;
-    if ((v = pw_cli_get(&p, "--feed-stage")))
+    if ((v = cli_get(&p, "--feed-stage")))
         a->spec.feed_stage = (int)v->whole, a->have_K = true;
-    if ((v = pw_cli_get(&p, "--reflux")))
+    if ((v = cli_get(&p, "--reflux")))
         a->spec.R = v->num, a->have_R = true;
-    if ((v = pw_cli_get(&p, "--distillate")))
+    if ((v = cli_get(&p, "--distillate")))
         a->spec.d_frac = v->num, a->have_D = true;
     a->fit_path = p.n_pos ? p.pos[0] : NULL;
     if (!a->fit_path || !a->tg.have_P || !a->tg.have_zf || !a->have_N || !a->have_K || !a->have_R ||
@@ -92,26 +92,26 @@ static pw_status parse(int argc, char **argv, rate_args *a, pw_error *err)
     return PW_OK;
 }
 
-pw_status pw_cli_rate(int argc, char **argv)
+pw_status cli_rate(int argc, char **argv)
 {
     rate_args a;
     pw_error err;
     pw_error_clear(&err);
     if (parse(argc, argv, &a, &err) != PW_OK)
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     if (a.help) {
-        pw_cli_help(&rate_spec, stdout);
+        cli_help(&rate_spec, stdout);
         return PW_OK;
     }
     pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
-    if (pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
-        return pw_cli_fail(CMD, &err);
+    if (cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
+        return cli_fail(CMD, &err);
     /* --zf given by mass: a mole fraction with the fit file's molar masses */
-    if (pw_cli_composition_to_mole("--zf", &a.spec.zf, a.tg.basis[2], &fit.sys, &err) != PW_OK) {
+    if (cli_composition_to_mole("--zf", &a.spec.zf, a.tg.basis[2], &fit.sys, &err) != PW_OK) {
         pw_fit_result_free(&fit);
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     }
     pw_rate_result r;
     pw_rate_energy_out en;
@@ -119,16 +119,16 @@ pw_status pw_cli_rate(int argc, char **argv)
     if (st != PW_OK) {
         pw_rate_result_free(&r);
         pw_fit_result_free(&fit);
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     }
     if (en.n_roots > 1)
-        pw_cli_warnf(CMD,
+        cli_warnf(CMD,
                      "%zu steady states satisfy this specification with energy balances; "
                      "the one with the lowest distillate purity is shown",
                      en.n_roots);
-    pw_cli_warn_vapor_association(CMD, &fit.sys);
+    cli_warn_vapor_association(CMD, &fit.sys);
     if (!fit.converged)
-        pw_cli_warnf(CMD, "%s: the fit did not converge; do not rate with it", a.fit_path);
+        cli_warnf(CMD, "%s: the fit did not converge; do not rate with it", a.fit_path);
     if (r.profile.n) {
         double Tlo = r.profile.stage[0].T_K, Thi = r.profile.stage[r.profile.n - 1].T_K;
         for (int i = 0; i < 2; i++) {
@@ -136,12 +136,12 @@ pw_status pw_cli_rate(int argc, char **argv)
             double ex = fmax(fabs(pw_component_range_excess_K(c, Tlo)),
                              fabs(pw_component_range_excess_K(c, Thi)));
             if (ex > 0.0)
-                pw_cli_warnf(CMD, "the column runs %.1f K outside the vapor-pressure range of %s",
+                cli_warnf(CMD, "the column runs %.1f K outside the vapor-pressure range of %s",
                              ex, c->name);
         }
     }
     if (a.json) {
-        rc = pw_cli_print_json(pw_rate_doc(&fit.sys, a.P_Pa, &a.spec, a.energy, &r, &en));
+        rc = cli_print_json(pw_rate_doc(&fit.sys, a.P_Pa, &a.spec, a.energy, &r, &en));
     } else {
         printf("given column at %.4g kPa (%s / %s): %d stages, feed on stage %d, R %.4g, "
                "D/F %.4g, zf %.4g, q %.4g\n",
@@ -152,7 +152,7 @@ pw_status pw_cli_rate(int argc, char **argv)
             printf("  energy balances: condenser %.4f kJ, reboiler %.4f kJ per mol feed\n",
                    en.Q_C / 1e3, en.Q_R / 1e3);
         printf("\n");
-        pw_cli_profile_print(&r.profile);
+        cli_profile_print(&r.profile);
         printf("\n  Screening estimate only (equilibrium stages, %s): verify\n",
                a.energy ? "energy balances" : "constant molal overflow");
         printf("  with rigorous simulation and plant data; operate per local codes under licensed\n"

@@ -18,18 +18,18 @@ static const char *section(pw_section s)
 }
 
 /* With --energy the headline numbers are the energy balance's (pw_energy_headline). */
-static pw_column_result headline(const pw_reflux_run *run)
+static pw_column_result headline(const cli_reflux_run *run)
 {
     return pw_energy_headline(&run->col, run->energy ? &run->energy_res : NULL);
 }
 
-json_t *pw_reflux_json(const pw_reflux_run *run)
+json_t *cli_reflux_json(const cli_reflux_run *run)
 {
     return pw_reflux_design_doc(&run->col, &run->design, run->energy ? &run->energy_res : NULL,
                                 run->P_Pa, &run->spec, run->T_top_K, run->T_bottom_K);
 }
 
-static void print_table(const pw_reflux_run *run)
+static void print_table(const cli_reflux_run *run)
 {
     const pw_column_result view = headline(run);
     const pw_column_result *c = &view;
@@ -73,49 +73,49 @@ static void print_table(const pw_reflux_run *run)
     if (run->energy)
         printf("  energy balances           R_min %.6g (constant molal overflow %.6g)\n",
                c->r_min, run->col.r_min);
-    pw_cli_design_print(&run->design);
+    cli_design_print(&run->design);
     printf("\n  Screening estimate only: verify with rigorous simulation and pilot data; size\n"
            "  equipment and relief per local codes under licensed engineering review.\n");
 }
 
-pw_status pw_cli_reflux(int argc, char **argv)
+pw_status cli_reflux(int argc, char **argv)
 {
-    pw_reflux_args a;
+    cli_reflux_args a;
     pw_error err;
     pw_error_clear(&err);
-    if (pw_reflux_parse_args(argc, argv, &a, &err) != PW_OK)
-        return pw_cli_fail("reflux", &err);
+    if (cli_reflux_parse_args(argc, argv, &a, &err) != PW_OK)
+        return cli_fail("reflux", &err);
     if (a.help) {
-        pw_cli_help(&pw_reflux_spec, stdout);
+        cli_help(&cli_reflux_spec, stdout);
         return PW_OK;
     }
     pw_status rc;
-    pw_reflux_run run;
-    rc = pw_reflux_compute(&a, &run, &err);
+    cli_reflux_run run;
+    rc = cli_reflux_compute(&a, &run, &err);
     if (rc != PW_OK)
-        return pw_cli_fail("reflux", &err);
-    pw_reflux_uncert unc;
+        return cli_fail("reflux", &err);
+    cli_reflux_uncert unc;
     bool with_unc = a.uncertainty || a.n_extra;
-    if (with_unc && (rc = pw_reflux_uncert_run(&a, &run, &unc, &err)) != PW_OK) {
-        pw_reflux_run_free(&run);
-        return pw_cli_fail("reflux", &err);
+    if (with_unc && (rc = cli_reflux_uncert_run(&a, &run, &unc, &err)) != PW_OK) {
+        cli_reflux_run_free(&run);
+        return cli_fail("reflux", &err);
     }
     run.with_uncertainty = a.uncertainty;
-    pw_reflux_warn(&run);
+    cli_reflux_warn(&run);
     if (a.json) {
-        json_t *o = pw_reflux_json(&run);
+        json_t *o = cli_reflux_json(&run);
         if (run.minimum)
             json_object_set_new(o, "minimum", json_integer((json_int_t)run.minimum));
         if (with_unc)
-            pw_reflux_uncert_json(&unc, o);
-        rc = pw_cli_print_json(o);
+            cli_reflux_uncert_json(&unc, o);
+        rc = cli_print_json(o);
     } else {
         print_table(&run);
         if (with_unc)
-            pw_reflux_uncert_print(&unc, &run);
+            cli_reflux_uncert_print(&unc, &run);
     }
     bool infeasible = !run.col.feasible || (run.energy && !run.energy_res.feasible);
-    pw_reflux_run_free(&run);
+    cli_reflux_run_free(&run);
     if (rc == PW_OK && a.exit_verdict && infeasible)
         rc = PW_EINFEASIBLE;
     return rc;

@@ -15,7 +15,7 @@
 #include <unistd.h>
 
 /* The report draws one operating line: one factor, above 1 and at most 100. */
-static pw_status check_one_factor(pw_cli_value *v, pw_error *err)
+static pw_status check_one_factor(cli_value *v, pw_error *err)
 {
     if (v->n_list != 1)
         return pw_error_set(err, PW_EINVAL, NULL, 0,
@@ -28,42 +28,42 @@ static pw_status check_one_factor(pw_cli_value *v, pw_error *err)
     return PW_OK;
 }
 
-static const pw_cli_option report_options[] = {
-    {.name = "--out", .kind = PW_CLI_STRING, .metavar = "FILE",
+static const cli_option report_options[] = {
+    {.name = "--out", .kind = CLI_STRING, .metavar = "FILE",
      .help = "the page to write (refused if it exists, unless --force)"},
-    {.name = "--factors", .alias = "--operating-factor", .kind = PW_CLI_LIST, .metavar = "F",
+    {.name = "--factors", .alias = "--operating-factor", .kind = CLI_LIST, .metavar = "F",
      .check = check_one_factor,
      .help = "R / R_min of the drawn operating line (default 1.3; one value)"},
-    {.name = "--energy", .kind = PW_CLI_FLAG,
+    {.name = "--energy", .kind = CLI_FLAG,
      .help = "with the column: also the energy-balance column (needs heat\n"
              "data in the component rows)"},
-    {.name = "--show-in", .kind = PW_CLI_STRING, .metavar = "UNITS",
+    {.name = "--show-in", .kind = CLI_STRING, .metavar = "UNITS",
      .help = "temperature and/or pressure unit of the page, e.g. C,bar\n"
              "(default K,kPa; --json output and CSV files unchanged)"},
-    {.name = "--svg", .kind = PW_CLI_STRING, .metavar = "DIR",
+    {.name = "--svg", .kind = CLI_STRING, .metavar = "DIR",
      .help = "also write each plot as DIR/<name>.svg"},
-    {.name = "--csv", .kind = PW_CLI_STRING, .metavar = "DIR",
+    {.name = "--csv", .kind = CLI_STRING, .metavar = "DIR",
      .help = "also write the curves behind the plots as DIR/<name>.csv"},
-    {.name = "--compare", .kind = PW_CLI_STRING, .metavar = "FIT.json", .repeatable = true,
+    {.name = "--compare", .kind = CLI_STRING, .metavar = "FIT.json", .repeatable = true,
      .help = "another model of the same data for the side-by-side table\n"
              "(default: the <stem>.<model>.json files beside FIT.json that\n"
              "`fit --model all` writes)"},
-    {.name = "--force", .kind = PW_CLI_FLAG, .help = "replace existing output files"},
-    PW_CLI_END,
+    {.name = "--force", .kind = CLI_FLAG, .help = "replace existing output files"},
+    CLI_END,
 };
 
-static const pw_cli_option report_json[] = {
-    {.name = "--json", .kind = PW_CLI_FLAG,
+static const cli_option report_json[] = {
+    {.name = "--json", .kind = CLI_FLAG,
      .help = "print {\"report\": path, \"plots\": N} on stdout"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-static const pw_cli_option *const report_blocks[] = {
-    report_options, pw_cli_block_pressure, pw_cli_block_products, pw_cli_block_feed,
-    pw_cli_block_uncertainty, pw_cli_block_components, pw_cli_block_minimum, report_json, NULL,
+static const cli_option *const report_blocks[] = {
+    report_options, cli_block_pressure, cli_block_products, cli_block_feed,
+    cli_block_uncertainty, cli_block_components, cli_block_minimum, report_json, NULL,
 };
 
-static const pw_cli_spec report_spec = {
+static const cli_spec report_spec = {
     .cmd = "report",
     .synopsis =
         "usage: pinchwise report FIT.json --out REPORT.html [options]\n"
@@ -87,7 +87,7 @@ typedef struct report_args {
     double P_Pa, factor;
     pw_column_spec spec;
     pw_basis basis[3];    /* of xd, xb, zf as given */
-    pw_azeo_uncert unc;   /* --uncertainty, --samples, --seed (parsed as the azeotrope command) */
+    cli_azeo_uncert unc;   /* --uncertainty, --samples, --seed (parsed as the azeotrope command) */
     const char *compare[8]; /* --compare FIT.json (repeatable): other models of the same data */
     size_t n_compare;
 } report_args;
@@ -128,11 +128,11 @@ static size_t load_others(const report_args *a, const pw_fit_result *fit, pw_fit
         /* the same component replacement as the report's own fit: one set of vapor pressures */
         if (pw_fitfile_load(paths[i], a->components, &out[n], NULL, &err) != PW_OK) {
             char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
-            pw_cli_warnf("report", "%s", pw_error_format(&err, buf, sizeof buf));
+            cli_warnf("report", "%s", pw_error_format(&err, buf, sizeof buf));
             continue;
         }
         if (strcmp(out[n].dataset_sha256, fit->dataset_sha256) != 0) {
-            pw_cli_warnf("report", "%s was fitted to other data (dataset SHA-256 differs): left out",
+            cli_warnf("report", "%s was fitted to other data (dataset SHA-256 differs): left out",
                          paths[i]);
             pw_fit_result_free(&out[n]);
             continue;
@@ -146,26 +146,26 @@ static size_t load_others(const report_args *a, const pw_fit_result *fit, pw_fit
 static pw_status parse(int argc, char **argv, report_args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
-    pw_cli_args p;
-    if (pw_cli_parse(&report_spec, argc, argv, &p, err) != PW_OK)
+    cli_args p;
+    if (cli_parse(&report_spec, argc, argv, &p, err) != PW_OK)
         return PW_EINVAL;
     if ((a->help = p.help))
         return PW_OK;
-    a->json = pw_cli_has(&p, "--json");
-    a->force = pw_cli_has(&p, "--force");
-    a->energy = pw_cli_has(&p, "--energy");
-    pw_azeo_uncert_from(&p, &a->unc);
-    a->out = pw_cli_text(&p, "--out");
-    a->svg = pw_cli_text(&p, "--svg");
-    a->csv = pw_cli_text(&p, "--csv");
-    a->components = pw_cli_text(&p, "--components");
-    a->minimum = pw_cli_text(&p, "--minimum");
+    a->json = cli_has(&p, "--json");
+    a->force = cli_has(&p, "--force");
+    a->energy = cli_has(&p, "--energy");
+    cli_azeo_uncert_from(&p, &a->unc);
+    a->out = cli_text(&p, "--out");
+    a->svg = cli_text(&p, "--svg");
+    a->csv = cli_text(&p, "--csv");
+    a->components = cli_text(&p, "--components");
+    a->minimum = cli_text(&p, "--minimum");
     a->units = pw_units_display_default();
-    const char *show_in = pw_cli_text(&p, "--show-in");
+    const char *show_in = cli_text(&p, "--show-in");
     if (show_in && pw_units_display_parse(show_in, &a->units, err) != PW_OK)
         return PW_EINVAL;
-    for (const pw_cli_value *v = pw_cli_next(&p, "--compare", NULL); v;
-         v = pw_cli_next(&p, "--compare", v)) {
+    for (const cli_value *v = cli_next(&p, "--compare", NULL); v;
+         v = cli_next(&p, "--compare", v)) {
         if (a->n_compare == REPORT_MAX_OTHERS) {
             pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
                          REPORT_MAX_OTHERS);
@@ -173,12 +173,12 @@ static pw_status parse(int argc, char **argv, report_args *a, pw_error *err)
         }
         a->compare[a->n_compare++] = v->text;
     }
-    const pw_cli_value *f = pw_cli_get(&p, "--factors");
+    const cli_value *f = cli_get(&p, "--factors");
     if (f)
         a->factor = f->list[0];
     a->fit = p.n_pos ? p.pos[0] : NULL;
-    pw_cli_targets tg;
-    pw_cli_targets_get(&p, &tg, NULL);
+    cli_targets tg;
+    cli_targets_get(&p, &tg, NULL);
     a->P_Pa = tg.P_Pa;
     a->spec = (pw_column_spec){.xd = tg.xd, .xb = tg.xb, .zf = tg.zf, .q = tg.q};
     a->have_P = tg.have_P, a->have_xd = tg.have_xd, a->have_xb = tg.have_xb;
@@ -211,21 +211,21 @@ static void progress(const char *what)
         fprintf(stderr, "pinchwise report: %s\n", what);
 }
 
-pw_status pw_cli_report(int argc, char **argv)
+pw_status cli_report(int argc, char **argv)
 {
     report_args a;
     pw_error err;
     pw_error_clear(&err);
     if (parse(argc, argv, &a, &err) != PW_OK)
-        return pw_cli_fail("report", &err);
+        return cli_fail("report", &err);
     if (a.help) {
-        pw_cli_help(&report_spec, stdout);
+        cli_help(&report_spec, stdout);
         return PW_OK;
     }
     /* Every output (page, --svg and --csv files) is written all or none, never over an input
      * (by identity: links count), whatever --force says. The page is checked before the work. */
     pw_outset *set = NULL;
-    pw_status st = pw_outset_new(a.force, pw_cli_tmp_hooks(), &set, &err);
+    pw_status st = pw_outset_new(a.force, cli_tmp_hooks(), &set, &err);
     const char *inputs[] = {a.fit, a.components};
     for (size_t k = 0; st == PW_OK && k < 2; k++)
         st = pw_outset_protect(set, inputs[k], &err);
@@ -235,27 +235,27 @@ pw_status pw_cli_report(int argc, char **argv)
         st = pw_outset_check(set, a.out, &err);
     if (st != PW_OK) {
         pw_outset_free(set);
-        return pw_cli_fail("report", &err);
+        return cli_fail("report", &err);
     }
 
     pw_fit_result fit;
     progress("reading the fit file");
-    st = pw_cli_read_fit("report", a.fit, a.components, &fit, &err);
+    st = cli_read_fit("report", a.fit, a.components, &fit, &err);
     if (st != PW_OK) {
         pw_outset_free(set);
-        return pw_cli_fail("report", &err);
+        return cli_fail("report", &err);
     }
     size_t minimum = 0;
-    if (pw_cli_apply_minimum("report", &fit, a.minimum, &minimum, &err) != PW_OK) {
+    if (cli_apply_minimum("report", &fit, a.minimum, &minimum, &err) != PW_OK) {
         pw_fit_result_free(&fit);
         pw_outset_free(set);
-        return pw_cli_fail("report", &err);
+        return cli_fail("report", &err);
     }
     if (!fit.converged)
-        pw_cli_warnf("report", "%s: the fit did not converge; the report says so on every page", a.fit);
+        cli_warnf("report", "%s: the fit did not converge; the report says so on every page", a.fit);
     if (a.have_P) {
         /* targets by mass to mole fractions; the feed between the products, either direction */
-        st = pw_cli_targets_to_mole(&a.spec.xd, &a.spec.xb, &a.spec.zf, a.basis, &fit.sys, &err);
+        st = cli_targets_to_mole(&a.spec.xd, &a.spec.xb, &a.spec.zf, a.basis, &fit.sys, &err);
         const pw_column_spec *s = &a.spec;
         if (st == PW_OK && !((s->xb < s->zf && s->zf < s->xd) || (s->xd < s->zf && s->zf < s->xb)))
             st = pw_error_set(&err, PW_EINVAL, NULL, 0,
@@ -266,7 +266,7 @@ pw_status pw_cli_report(int argc, char **argv)
         if (st != PW_OK) {
             pw_fit_result_free(&fit);
             pw_outset_free(set);
-            return pw_cli_fail("report", &err);
+            return cli_fail("report", &err);
         }
     }
 
@@ -274,7 +274,7 @@ pw_status pw_cli_report(int argc, char **argv)
         pw_heat_data heat;
         pw_error herr;
         if (pw_heat_data_from_system(&fit.sys, &heat, &herr) != PW_OK)
-            pw_cli_warnf("report", "--energy: %s; the page says so instead of the energy-balance "
+            cli_warnf("report", "--energy: %s; the page says so instead of the energy-balance "
                          "column", herr.msg);
     }
     pw_report_input in = pw_report_default_input();
@@ -287,12 +287,12 @@ pw_status pw_cli_report(int argc, char **argv)
         in.operating_factor = a.factor;
         in.energy = a.energy;
     }
-    pw_cli_progress_ctx pc = {"report", "parameter sets sampled"};
+    cli_progress_ctx pc = {"report", "parameter sets sampled"};
     if (a.unc.on) {
         in.uncertainty = true;
         in.unc = a.unc.opt;
-        if (pw_cli_progress_wanted()) {
-            in.unc.progress = pw_cli_progress_tenths;
+        if (cli_progress_wanted()) {
+            in.unc.progress = cli_progress_tenths;
             in.unc.progress_ctx = &pc;
         }
     }
@@ -311,7 +311,7 @@ pw_status pw_cli_report(int argc, char **argv)
         pw_fit_result_free(&others[i]);
     if (st != PW_OK) {
         pw_outset_free(set);
-        return pw_cli_fail("report", &err);
+        return cli_fail("report", &err);
     }
     progress("writing");
     st = pw_report_stage(rep, set, a.out, a.svg, a.csv, &err);
@@ -321,9 +321,9 @@ pw_status pw_cli_report(int argc, char **argv)
     size_t plots = pw_report_plot_count(rep);
     pw_report_free(rep);
     if (st != PW_OK)
-        return pw_cli_fail("report", &err);
+        return cli_fail("report", &err);
     if (a.json)
-        return pw_cli_print_json(a.unc.on ? json_pack("{s:s,s:I,s:b}", "report", a.out, "plots",
+        return cli_print_json(a.unc.on ? json_pack("{s:s,s:I,s:b}", "report", a.out, "plots",
                                                       (json_int_t)plots, "uncertainty", 1)
                                           : json_pack("{s:s,s:I}", "report", a.out, "plots",
                                                       (json_int_t)plots));

@@ -13,22 +13,22 @@
 
 #define CMD "screen"
 
-static const pw_cli_option screen_options[] = {
-    {.name = "--sweep", .alias = "--swing-range", .kind = PW_CLI_STRING, .metavar = "FROM:TO[:N]",
+static const cli_option screen_options[] = {
+    {.name = "--sweep", .alias = "--swing-range", .kind = CLI_STRING, .metavar = "FROM:TO[:N]",
      .help = "pressures of the azeotrope-shift scan (default 20kPa:500kPa:9)"},
-    {.name = "--energy", .kind = PW_CLI_FLAG,
+    {.name = "--energy", .kind = CLI_FLAG,
      .help = "R_min of the rough column also with energy balances (needs\n"
              "heat data in the component rows)"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-static const pw_cli_option *const screen_blocks[] = {
-    pw_cli_block_pressure, pw_cli_block_products, pw_cli_block_feed, screen_options,
-    pw_cli_block_uncertainty, pw_cli_block_components, pw_cli_block_minimum,
-    pw_cli_block_verdict, pw_cli_block_json, NULL,
+static const cli_option *const screen_blocks[] = {
+    cli_block_pressure, cli_block_products, cli_block_feed, screen_options,
+    cli_block_uncertainty, cli_block_components, cli_block_minimum,
+    cli_block_verdict, cli_block_json, NULL,
 };
 
-static const pw_cli_spec screen_spec = {
+static const cli_spec screen_spec = {
     .cmd = "screen",
     .synopsis =
         "usage: pinchwise screen FIT.json --pressure P --xd X --xb X [--zf X] [options]\n"
@@ -73,7 +73,7 @@ static pw_status swing_range(const char *text, args *a, pw_error *err)
     if (c2) {
         *c2 = '\0';
         double n;
-        if (pw_cli_number("--sweep N", c2 + 1, &n, err) != PW_OK)
+        if (cli_number("--sweep N", c2 + 1, &n, err) != PW_OK)
             return PW_EINVAL;
         if (!(n >= 2.0 && n <= 200.0) || n != floor(n)) {
             pw_error_set(err, PW_EINVAL, NULL, 0, "--sweep %s: N must be a whole number from 2 to 200",
@@ -82,8 +82,8 @@ static pw_status swing_range(const char *text, args *a, pw_error *err)
         }
         a->opt.scan_points = (size_t)n;
     }
-    if (pw_cli_quantity(PW_QTY_PRESSURE, "--swing-range LO", buf, &a->opt.P_lo_Pa, err) != PW_OK ||
-        pw_cli_quantity(PW_QTY_PRESSURE, "--swing-range HI", c + 1, &a->opt.P_hi_Pa, err) != PW_OK)
+    if (cli_quantity(PW_QTY_PRESSURE, "--swing-range LO", buf, &a->opt.P_lo_Pa, err) != PW_OK ||
+        cli_quantity(PW_QTY_PRESSURE, "--swing-range HI", c + 1, &a->opt.P_hi_Pa, err) != PW_OK)
         return PW_EINVAL;
     if (!(a->opt.P_hi_Pa > a->opt.P_lo_Pa)) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--swing-range %s: HI must exceed LO", text);
@@ -98,37 +98,37 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
     memset(a, 0, sizeof *a);
     a->zf = NAN;
     a->opt = pw_screen_default_options();
-    pw_cli_args p;
-    if (pw_cli_parse(&screen_spec, argc, argv, &p, err) != PW_OK)
+    cli_args p;
+    if (cli_parse(&screen_spec, argc, argv, &p, err) != PW_OK)
         return PW_EINVAL;
     if ((a->help = p.help))
         return PW_OK;
-    a->json = pw_cli_has(&p, "--json");
-    a->energy = pw_cli_has(&p, "--energy");
-    a->exit_verdict = pw_cli_has(&p, "--exit-verdict");
-    a->components = pw_cli_text(&p, "--components");
-    a->minimum = pw_cli_text(&p, "--minimum");
-    a->uncertainty = pw_cli_uncertainty_get(&p).on;
+    a->json = cli_has(&p, "--json");
+    a->energy = cli_has(&p, "--energy");
+    a->exit_verdict = cli_has(&p, "--exit-verdict");
+    a->components = cli_text(&p, "--components");
+    a->minimum = cli_text(&p, "--minimum");
+    a->uncertainty = cli_uncertainty_get(&p).on;
     /* for the uncertainty step, which reads them as reflux's */
     static const char *const extra[] = {"--samples", "--seed"};
     for (size_t k = 0; k < 2; k++) {
-        const char *v = pw_cli_text(&p, extra[k]);
+        const char *v = cli_text(&p, extra[k]);
         if (v) {
             a->extra[a->n_extra++] = extra[k];
             a->extra[a->n_extra++] = v;
         }
     }
-    pw_cli_targets tg;
-    pw_cli_targets_get(&p, &tg, NULL);
+    cli_targets tg;
+    cli_targets_get(&p, &tg, NULL);
     a->P_Pa = tg.P_Pa, a->have_P = tg.have_P;
     a->xd = tg.xd, a->have_xd = tg.have_xd;
     a->xb = tg.xb, a->have_xb = tg.have_xb;
     if (tg.have_zf)
         a->zf = tg.zf;
     memcpy(a->basis, tg.basis, sizeof a->basis);
-    if (pw_cli_has(&p, "--q"))
+    if (cli_has(&p, "--q"))
         a->opt.q = tg.q;
-    const char *sw = pw_cli_text(&p, "--sweep");
+    const char *sw = cli_text(&p, "--sweep");
     if (sw && swing_range(sw, a, err))
         return PW_EINVAL;
     a->fit_path = p.n_pos ? p.pos[0] : NULL;
@@ -174,51 +174,51 @@ static void print_text(const pw_fit_result *fit, const pw_screen_result *r)
                r->alpha_mean, r->r_min_underwood, r->n_fenske);
     printf("  thresholds: alpha below 1.1 is difficult (common practice); an azeotrope shift of\n"
            "  0.05-0.10 in x1 makes pressure swing worth a look (rule of thumb, common practice)\n");
-    pw_cli_print_caution(stdout);
+    cli_print_caution(stdout);
 }
 
-pw_status pw_cli_screen(int argc, char **argv)
+pw_status cli_screen(int argc, char **argv)
 {
     args a;
     pw_error err;
     pw_error_clear(&err);
     if (parse(argc, argv, &a, &err) != PW_OK)
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     if (a.help) {
-        pw_cli_help(&screen_spec, stdout);
+        cli_help(&screen_spec, stdout);
         return PW_OK;
     }
     pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
-    if (pw_cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
-        return pw_cli_fail(CMD, &err);
+    if (cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
+        return cli_fail(CMD, &err);
     size_t minimum = 0;
-    if (pw_cli_apply_minimum(CMD, &fit, a.minimum, &minimum, &err) != PW_OK ||
-        pw_cli_targets_to_mole(&a.xd, &a.xb, &a.zf, a.basis, &fit.sys, &err) != PW_OK ||
+    if (cli_apply_minimum(CMD, &fit, a.minimum, &minimum, &err) != PW_OK ||
+        cli_targets_to_mole(&a.xd, &a.xb, &a.zf, a.basis, &fit.sys, &err) != PW_OK ||
         check_targets(&a, &err) != 0) {
         pw_fit_result_free(&fit);
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     }
     pw_screen_result r;
     pw_status st = pw_screen_run(&fit.sys, a.P_Pa, a.xd, a.xb, a.zf, &a.opt, &r);
     if (st != PW_OK) {
         pw_error_set(&err, st, a.fit_path, 0, "screen failed: %s", pw_strerror(st));
         pw_fit_result_free(&fit);
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     }
-    pw_cli_warn_fit(CMD, &fit);
-    pw_cli_warn_T_range(CMD, &fit, r.T_lo_K, r.T_hi_K, "the temperatures used");
+    cli_warn_fit(CMD, &fit);
+    cli_warn_T_range(CMD, &fit, r.T_lo_K, r.T_hi_K, "the temperatures used");
     /* --uncertainty: the reflux command's propagation, for the screen's rough column (q = 1). */
-    pw_reflux_uncert u;
-    pw_reflux_run run;
+    cli_reflux_uncert u;
+    cli_reflux_run run;
     memset(&u, 0, sizeof u);
     memset(&run, 0, sizeof run);
     bool unc = a.uncertainty && r.column_ran;
     if (a.uncertainty && !r.column_ran)
-        pw_cli_warnf(CMD, "no column was solved for this split, so there is nothing to propagate");
+        cli_warnf(CMD, "no column was solved for this split, so there is nothing to propagate");
     if (unc) {
-        pw_reflux_args ra;
+        cli_reflux_args ra;
         memset(&ra, 0, sizeof ra);
         ra.fit_path = a.fit_path;
         ra.P_Pa = a.P_Pa;
@@ -232,9 +232,9 @@ pw_status pw_cli_screen(int argc, char **argv)
         run.P_Pa = a.P_Pa;
         run.spec = ra.spec;
         run.col = r.column;
-        if ((rc = pw_reflux_uncert_run(&ra, &run, &u, &err)) != PW_OK) {
+        if ((rc = cli_reflux_uncert_run(&ra, &run, &u, &err)) != PW_OK) {
             pw_fit_result_free(&fit);
-            return pw_cli_fail(CMD, &err);
+            return cli_fail(CMD, &err);
         }
     }
     /* --energy: the rough column (q = 1) with energy balances, from the library. */
@@ -242,7 +242,7 @@ pw_status pw_cli_screen(int argc, char **argv)
     memset(&en, 0, sizeof en);
     bool with_energy = a.energy && r.column_ran && r.column.feasible;
     if (a.energy && !with_energy)
-        pw_cli_warnf(CMD, "--energy: no feasible column was solved for this split");
+        cli_warnf(CMD, "--energy: no feasible column was solved for this split");
     if (with_energy) {
         pw_heat_data heat;
         pw_column_spec spec = {.xd = r.xd, .xb = r.xb, .zf = r.zf, .q = 1.0};
@@ -254,7 +254,7 @@ pw_status pw_cli_screen(int argc, char **argv)
             snprintf(msg, sizeof msg, "%s", err.msg[0] ? err.msg : pw_strerror(st));
             pw_error_set(&err, st, a.fit_path, 0, "--energy: %s", msg);
             pw_fit_result_free(&fit);
-            return pw_cli_fail(CMD, &err);
+            return cli_fail(CMD, &err);
         }
     }
     if (a.json) {
@@ -264,8 +264,8 @@ pw_status pw_cli_screen(int argc, char **argv)
         if (minimum)
             json_object_set_new(j, "minimum", json_integer((json_int_t)minimum));
         if (unc)
-            pw_reflux_uncert_json(&u, j);
-        rc = pw_cli_print_json(j);
+            cli_reflux_uncert_json(&u, j);
+        rc = cli_print_json(j);
     } else {
         print_text(&fit, &r);
         if (with_energy && en.feasible)
@@ -275,7 +275,7 @@ pw_status pw_cli_screen(int argc, char **argv)
         else if (with_energy)
             printf("  with energy balances: %s\n", en.reason);
         if (unc)
-            pw_reflux_uncert_print(&u, &run);
+            cli_reflux_uncert_print(&u, &run);
         rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     pw_fit_result_free(&fit);

@@ -32,24 +32,24 @@
 #define CMD "study"
 #define STUDY_STEPS 6
 
-static const pw_cli_option study_options[] = {
-    {.name = "--model", .kind = PW_CLI_STRING, .metavar = "MODEL",
+static const cli_option study_options[] = {
+    {.name = "--model", .kind = CLI_STRING, .metavar = "MODEL",
      .help = "take this model instead of choosing (any model of fit,\n"
              "in any case); default: every model is fitted and rank 1 of\n"
              "the ranking of fit --model all is chosen"},
-    {.name = "--out-dir", .kind = PW_CLI_STRING, .metavar = "DIR",
+    {.name = "--out-dir", .kind = CLI_STRING, .metavar = "DIR",
      .help = "folder for the fit files and the report (default: study)"},
-    {.name = "--force", .kind = PW_CLI_FLAG, .help = "replace existing fit files and report"},
-    PW_CLI_END,
+    {.name = "--force", .kind = CLI_FLAG, .help = "replace existing fit files and report"},
+    CLI_END,
 };
 
-static const pw_cli_option *const study_blocks[] = {
-    pw_cli_block_pressure, pw_cli_block_products, pw_cli_block_feed, study_options,
-    pw_cli_block_factors, pw_cli_block_uncertainty, pw_cli_block_components,
-    pw_cli_block_verdict, pw_cli_block_json, NULL,
+static const cli_option *const study_blocks[] = {
+    cli_block_pressure, cli_block_products, cli_block_feed, study_options,
+    cli_block_factors, cli_block_uncertainty, cli_block_components,
+    cli_block_verdict, cli_block_json, NULL,
 };
 
-static const pw_cli_spec study_spec = {
+static const cli_spec study_spec = {
     .cmd = CMD,
     .synopsis =
         "usage: pinchwise study DATA.csv --pressure P --xd X --xb X --zf X [options]\n"
@@ -66,27 +66,27 @@ typedef struct study_args {
     bool help; /* --help was asked for: nothing else is set */
     const char *data, *model_name, *out_dir, *components;
     bool json, force, uncertainty, exit_verdict;
-    pw_cli_args opts; /* the column options, read again by pw_reflux_args_from */
+    cli_args opts; /* the column options, read again by cli_reflux_args_from */
 } study_args;
 
 /* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
 static pw_status parse(int argc, char **argv, study_args *a, pw_error *err)
 {
     memset(a, 0, sizeof *a);
-    if (pw_cli_parse(&study_spec, argc, argv, &a->opts, err) != PW_OK)
+    if (cli_parse(&study_spec, argc, argv, &a->opts, err) != PW_OK)
         return PW_EINVAL;
-    const pw_cli_args *p = &a->opts;
+    const cli_args *p = &a->opts;
     if ((a->help = p->help))
         return PW_OK;
-    a->json = pw_cli_has(p, "--json");
-    a->force = pw_cli_has(p, "--force");
-    a->uncertainty = pw_cli_has(p, "--uncertainty");
-    a->exit_verdict = pw_cli_has(p, "--exit-verdict");
-    a->model_name = pw_cli_text(p, "--model");
-    a->out_dir = pw_cli_text(p, "--out-dir");
+    a->json = cli_has(p, "--json");
+    a->force = cli_has(p, "--force");
+    a->uncertainty = cli_has(p, "--uncertainty");
+    a->exit_verdict = cli_has(p, "--exit-verdict");
+    a->model_name = cli_text(p, "--model");
+    a->out_dir = cli_text(p, "--out-dir");
     if (!a->out_dir)
         a->out_dir = "study";
-    a->components = pw_cli_text(p, "--components");
+    a->components = cli_text(p, "--components");
     a->data = p->n_pos ? p->pos[0] : NULL;
     if (!a->data) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a data file is required");
@@ -97,7 +97,7 @@ static pw_status parse(int argc, char **argv, study_args *a, pw_error *err)
 
 static void step(const char *what, size_t k)
 {
-    pw_cli_progress_line(CMD, what, k, STUDY_STEPS);
+    cli_progress_line(CMD, what, k, STUDY_STEPS);
 }
 
 /* Consistency of the data, as `check` runs it. */
@@ -136,9 +136,9 @@ static json_t *az_json(const pw_az_result *r)
     json_t *arr = json_array();
     for (size_t i = 0; i < r->n; i++)
         json_array_append_new(arr,
-                              json_pack("{s:o,s:o,s:o,s:s}", "x1", pw_cli_json_num(r->az[i].x1),
-                                        "T_K", pw_cli_json_num(r->az[i].T_K), "P_kPa",
-                                        pw_cli_json_num(r->az[i].P_Pa / 1000.0), "kind",
+                              json_pack("{s:o,s:o,s:o,s:s}", "x1", cli_json_num(r->az[i].x1),
+                                        "T_K", cli_json_num(r->az[i].T_K), "P_kPa",
+                                        cli_json_num(r->az[i].P_Pa / 1000.0), "kind",
                                         pw_az_kind_name(r->az[i].kind)));
     return arr;
 }
@@ -157,35 +157,35 @@ static void az_text(const char *where, const pw_az_result *r, bool ok)
                pw_az_kind_name(r->az[i].kind), r->az[i].x1, r->az[i].T_K, r->az[i].P_Pa / 1000.0);
 }
 
-pw_status pw_cli_study(int argc, char **argv)
+pw_status cli_study(int argc, char **argv)
 {
     study_args a;
     pw_error err;
     pw_error_clear(&err);
     if (parse(argc, argv, &a, &err) != PW_OK)
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     if (a.help) {
-        pw_cli_help(&study_spec, stdout);
+        cli_help(&study_spec, stdout);
         return PW_OK;
     }
     pw_status rc = PW_OK;
     const pw_model_type *only = NULL;
     char names[256];
     if (a.model_name && !(only = pw_model_find(a.model_name)))
-        return pw_cli_failf(CMD, PW_EINVAL,
+        return cli_failf(CMD, PW_EINVAL,
                             "unknown model '%s' (expected one of %s)", a.model_name,
                             pw_model_names(names, sizeof names));
     /* the column options are checked before any work, by the reflux parser itself */
-    pw_reflux_args ra;
-    if (pw_reflux_args_from(&a.opts, a.data /* a placeholder */, &ra, &err) != PW_OK)
-        return pw_cli_fail(CMD, &err);
+    cli_reflux_args ra;
+    if (cli_reflux_args_from(&a.opts, a.data /* a placeholder */, &ra, &err) != PW_OK)
+        return cli_fail(CMD, &err);
     if (mkdir(a.out_dir, 0755) != 0 && errno != EEXIST)
-        return pw_cli_failf(CMD, PW_EIO, "%s: cannot create the folder",
+        return cli_failf(CMD, PW_EIO, "%s: cannot create the folder",
                             a.out_dir);
 
     pw_complib lib;
-    if (pw_cli_load_components(&lib, a.components, &err) != PW_OK)
-        return pw_cli_fail(CMD, &err);
+    if (cli_load_components(&lib, a.components, &err) != PW_OK)
+        return cli_fail(CMD, &err);
 
     /* 1. consistency */
     step("checking the data", 1);
@@ -194,7 +194,7 @@ pw_status pw_cli_study(int argc, char **argv)
     pw_status st = consistency(&a, &lib, &cr, &err);
     if (st != PW_OK) {
         pw_complib_free(&lib);
-        return pw_cli_fail(CMD, &err);
+        return cli_fail(CMD, &err);
     }
 
     /* 2. fits */
@@ -205,9 +205,9 @@ pw_status pw_cli_study(int argc, char **argv)
     if (!fits) {
         pw_consistency_result_free(&cr);
         pw_complib_free(&lib);
-        return pw_cli_failf(CMD, PW_ENOMEM, "out of memory");
+        return cli_failf(CMD, PW_ENOMEM, "out of memory");
     }
-    pw_fit_cli_opts co;
+    cli_fit_opts co;
     memset(&co, 0, sizeof co);
     co.fit = pw_fit_default_options();
     co.lib = &lib;
@@ -217,7 +217,7 @@ pw_status pw_cli_study(int argc, char **argv)
     for (size_t i = 0; i < n_models; i++) {
         fits[i].model = models[i];
         pw_error_clear(&fits[i].err);
-        fits[i].rc = pw_fit_one(a.data, models[i], NULL, a.out_dir, &co, &fits[i].r, fits[i].path,
+        fits[i].rc = cli_fit_one(a.data, models[i], NULL, a.out_dir, &co, &fits[i].r, fits[i].path,
                                 sizeof fits[i].path, &fits[i].err);
     }
     /* the one ranking rule of `fit --model all` and the report (pinchwise/assess.h) */
@@ -238,26 +238,26 @@ pw_status pw_cli_study(int argc, char **argv)
     }
     model_fit *chosen = &fits[best];
     if (chosen->rc != 0) {
-        rc = pw_cli_fail(CMD, &chosen->err);
+        rc = cli_fail(CMD, &chosen->err);
         goto out;
     }
 
     /* 3. the column, 4. its uncertainty */
     step("solving the column", 3);
-    pw_reflux_args_from(&a.opts, chosen->path, &ra, &err);
+    cli_reflux_args_from(&a.opts, chosen->path, &ra, &err);
     ra.components = a.components;
-    pw_reflux_run run;
-    if ((rc = pw_reflux_compute(&ra, &run, &err)) != PW_OK) {
-        rc = pw_cli_fail(CMD, &err);
+    cli_reflux_run run;
+    if ((rc = cli_reflux_compute(&ra, &run, &err)) != PW_OK) {
+        rc = cli_fail(CMD, &err);
         goto out;
     }
     step(a.uncertainty ? "propagating the uncertainty" : "no uncertainty asked for", 4);
-    pw_reflux_uncert unc;
+    cli_reflux_uncert unc;
     memset(&unc, 0, sizeof unc);
     if (ra.uncertainty || ra.n_extra) {
-        if ((rc = pw_reflux_uncert_run(&ra, &run, &unc, &err)) != PW_OK) {
-            pw_reflux_run_free(&run);
-            rc = pw_cli_fail(CMD, &err);
+        if ((rc = cli_reflux_uncert_run(&ra, &run, &unc, &err)) != PW_OK) {
+            cli_reflux_run_free(&run);
+            rc = cli_fail(CMD, &err);
             goto out;
         }
     }
@@ -286,8 +286,8 @@ pw_status pw_cli_study(int argc, char **argv)
             *dot = '\0';
         if (snprintf(report_path, sizeof report_path, "%s/%s.report.html", a.out_dir, stem) >=
             (int)sizeof report_path) {
-            pw_reflux_run_free(&run);
-            rc = pw_cli_failf(CMD, PW_EINVAL, "output path too long");
+            cli_reflux_run_free(&run);
+            rc = cli_failf(CMD, PW_EINVAL, "output path too long");
             goto out;
         }
     }
@@ -316,12 +316,12 @@ pw_status pw_cli_study(int argc, char **argv)
         st = pw_report_save_html(rep, report_path, a.force, &err);
     pw_report_free(rep);
     if (st != PW_OK) {
-        pw_reflux_run_free(&run);
-        rc = pw_cli_fail(CMD, &err);
+        cli_reflux_run_free(&run);
+        rc = cli_fail(CMD, &err);
         goto out;
     }
 
-    pw_reflux_warn(&run);
+    cli_reflux_warn(&run);
     if (a.json) {
         json_t *o = json_object();
         json_object_set_new(o, "dataset", json_string(a.data));
@@ -334,7 +334,7 @@ pw_status pw_cli_study(int argc, char **argv)
             if (fits[i].rc == 0) {
                 json_object_set_new(m, "converged", json_boolean(fits[i].r.converged));
                 json_object_set_new(m, "liquid_split", json_boolean(fits[i].r.split));
-                json_object_set_new(m, "aicc", pw_cli_json_num(fits[i].r.aicc));
+                json_object_set_new(m, "aicc", cli_json_num(fits[i].r.aicc));
                 json_object_set_new(m, "fit_file", json_string(fits[i].path));
             } else {
                 json_object_set_new(m, "error", json_string(fits[i].err.msg));
@@ -352,12 +352,12 @@ pw_status pw_cli_study(int argc, char **argv)
                             az_data_ok ? az_json(&az_data) : json_null());
         json_object_set_new(o, "azeotropes_at_column_pressure",
                             az_col_ok ? az_json(&az_col) : json_null());
-        json_t *rj = pw_reflux_json(&run);
+        json_t *rj = cli_reflux_json(&run);
         if (ra.uncertainty || ra.n_extra)
-            pw_reflux_uncert_json(&unc, rj);
+            cli_reflux_uncert_json(&unc, rj);
         json_object_set_new(o, "reflux", rj);
         json_object_set_new(o, "report", json_string(report_path));
-        rc = pw_cli_print_json(o);
+        rc = cli_print_json(o);
     } else {
         printf("study of %s (%s / %s), written to %s\n", a.data, f->sys.comp[0].name,
                f->sys.comp[1].name, a.out_dir);
@@ -392,7 +392,7 @@ pw_status pw_cli_study(int argc, char **argv)
             printf("\n");
         }
         if (ra.uncertainty || ra.n_extra)
-            pw_reflux_uncert_print(&unc, &run);
+            cli_reflux_uncert_print(&unc, &run);
         printf("  report                %s\n", report_path);
         printf("\n  Screening estimate only: verify with rigorous simulation and pilot data; size\n"
                "  equipment and relief per local codes under licensed engineering review.\n");
@@ -400,7 +400,7 @@ pw_status pw_cli_study(int argc, char **argv)
     }
     if (rc == PW_OK && a.exit_verdict && (!run.col.feasible || !cr.consistent))
         rc = PW_EINFEASIBLE;
-    pw_reflux_run_free(&run);
+    cli_reflux_run_free(&run);
 out:
     for (size_t i = 0; i < n_models; i++)
         if (fits[i].rc == 0)

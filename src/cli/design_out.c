@@ -7,7 +7,7 @@
 #include <pinchwise/design_doc.h>
 #include <stdio.h>
 
-void pw_cli_design_print(const pw_design_table *t)
+void cli_design_print(const pw_design_table *t)
 {
     bool energy = t->balance == PW_BALANCE_ENERGY;
     printf("\n  %-8s %9s %9s %9s %6s", "R/R_min", "R", "Vbar/B", "stages", "feed");
@@ -39,7 +39,7 @@ void pw_cli_design_print(const pw_design_table *t)
     printf("  Design reflux of 1.2-1.5 R_min is common practice.\n");
 }
 
-void pw_cli_profile_print(const pw_profile *p)
+void cli_profile_print(const pw_profile *p)
 {
     printf("  %5s %10s %10s %9s %9s %9s\n", "stage", "x1", "y1", "T K", "L/F", "V/F");
     for (size_t i = 0; i < p->n; i++) {

@@ -1,14 +1,14 @@
 /* Text of the design-grade column's results (design rows, stage profiles), shared by reflux
  * and rate. Renders only; the JSON documents are the library's (pinchwise/design_doc.h). */
-#ifndef PW_CLI_DESIGN_OUT_H
-#define PW_CLI_DESIGN_OUT_H
+#ifndef CLI_DESIGN_OUT_H
+#define CLI_DESIGN_OUT_H
 
 #include <pinchwise/design.h>
 
 /* The design table as text on stdout. */
-void pw_cli_design_print(const pw_design_table *t);
+void cli_design_print(const pw_design_table *t);
 
 /* A stage profile as text on stdout. */
-void pw_cli_profile_print(const pw_profile *p);
+void cli_profile_print(const pw_profile *p);
 
 #endif

@@ -38,7 +38,7 @@ typedef struct batch {
     pthread_mutex_t lock;
     const pw_model_type *model;
     const char *out_dir;
-    const pw_fit_cli_opts *co;
+    const cli_fit_opts *co;
     size_t done;
 } batch;
 
@@ -59,9 +59,9 @@ static void *worker(void *arg)
         job *j = &b->jobs[i];
         pw_fit_result r;
         pw_error_clear(&j->err);
-        pw_fit_cli_opts co = *b->co;
+        cli_fit_opts co = *b->co;
         co.diags = &j->diags;
-        j->rc = pw_fit_one(j->input, j->model, NULL, b->out_dir, &co, &r, j->path,
+        j->rc = cli_fit_one(j->input, j->model, NULL, b->out_dir, &co, &r, j->path,
                            sizeof j->path, &j->err);
         j->converged = j->rc == 0 && r.converged;
         if (j->rc == 0) {
@@ -75,7 +75,7 @@ static void *worker(void *arg)
         }
         pthread_mutex_lock(&b->lock);
         b->done++;
-        pw_cli_progress("fit", "datasets", b->done, b->n);
+        cli_progress("fit", "datasets", b->done, b->n);
         pthread_mutex_unlock(&b->lock);
     }
 }
@@ -84,7 +84,7 @@ static pw_status list_csv(const char *dir, job **jobs, size_t *n)
 {
     DIR *d = opendir(dir);
     if (!d)
-        return pw_cli_failf("fit", PW_EIO, "%s: cannot open folder: %s", dir,
+        return cli_failf("fit", PW_EIO, "%s: cannot open folder: %s", dir,
                             strerror(errno));
     size_t cap = 16;
     *n = 0;
@@ -111,13 +111,13 @@ static pw_status list_csv(const char *dir, job **jobs, size_t *n)
     }
     closedir(d);
     if (!*jobs)
-        return pw_cli_failf("fit", PW_ENOMEM, "out of memory");
+        return cli_failf("fit", PW_ENOMEM, "out of memory");
     qsort(*jobs, *n, sizeof **jobs, cmp_names);
     return PW_OK;
 }
 
-pw_status pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type *model,
-                 const pw_fit_cli_opts *co)
+pw_status cli_fit_batch(const char *dir, const char *out_dir, const pw_model_type *model,
+                 const cli_fit_opts *co)
 {
     job *jobs = NULL;
     size_t n = 0;
@@ -126,12 +126,12 @@ pw_status pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type
         return rc;
     if (n == 0) {
         free(jobs);
-        return pw_cli_failf("fit", PW_ENOTFOUND, "%s: no *.csv files", dir);
+        return cli_failf("fit", PW_ENOTFOUND, "%s: no *.csv files", dir);
     }
     bool made_out_dir = mkdir(out_dir, 0777) == 0;
     if (!made_out_dir && errno != EEXIST) {
         free(jobs);
-        return pw_cli_failf("fit", PW_EIO, "%s: cannot create folder: %s",
+        return cli_failf("fit", PW_EIO, "%s: cannot create folder: %s",
                             out_dir, strerror(errno));
     }
     /* --model all: one job per dataset and model, in file-name order, then the model table's */
@@ -140,7 +140,7 @@ pw_status pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type
     job *all = calloc(n * n_models, sizeof *all);
     if (!all) {
         free(jobs);
-        return pw_cli_failf("fit", PW_ENOMEM, "out of memory");
+        return cli_failf("fit", PW_ENOMEM, "out of memory");
     }
     for (size_t i = 0; i < n; i++)
         for (size_t m = 0; m < n_models; m++) {
@@ -150,7 +150,7 @@ pw_status pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type
     free(jobs);
     jobs = all;
     n *= n_models;
-    pw_fit_cli_opts wco = *co;
+    cli_fit_opts wco = *co;
     wco.quiet = true;
     batch b = {.jobs = jobs, .n = n, .model = model, .out_dir = out_dir, .co = &wco};
     pthread_mutex_init(&b.lock, NULL);
@@ -180,10 +180,10 @@ pw_status pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type
                 json_object_set_new(e, "converged", json_boolean(jobs[i].converged));
                 json_object_set_new(e, "fit_file", json_string(jobs[i].path));
                 json_object_set_new(e, "points", json_integer((json_int_t)jobs[i].n_pts));
-                json_object_set_new(e, "chi2_per_dof", pw_cli_json_num(jobs[i].chi2_red));
-                json_object_set_new(e, "aad_y", pw_cli_json_num(jobs[i].aad_y));
-                json_object_set_new(e, "aad_T_K", pw_cli_json_num(jobs[i].aad_T_K));
-                json_object_set_new(e, "aad_P_kPa", pw_cli_json_num(jobs[i].aad_P_Pa / 1e3));
+                json_object_set_new(e, "chi2_per_dof", cli_json_num(jobs[i].chi2_red));
+                json_object_set_new(e, "aad_y", cli_json_num(jobs[i].aad_y));
+                json_object_set_new(e, "aad_T_K", cli_json_num(jobs[i].aad_T_K));
+                json_object_set_new(e, "aad_P_kPa", cli_json_num(jobs[i].aad_P_Pa / 1e3));
                 json_object_set_new(e, "diagnostics",
                                     pw_fit_diags_json(&jobs[i].diags, &jobs[i].sys));
                 json_array_append_new(fits, e);
@@ -200,7 +200,7 @@ pw_status pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type
                             json_pack("{s:I,s:I,s:I,s:I,s:s}", "datasets", (json_int_t)n, "fitted",
                                       (json_int_t)ok, "converged", (json_int_t)conv, "failed",
                                       (json_int_t)(n - ok), "model", model ? model->name : "all"));
-        rc = pw_cli_print_json(o);
+        rc = cli_print_json(o);
     } else {
         printf("%zu of %zu %s fitted with %s into %s (%zu converged, %zu failed)\n", ok, n,
                model ? "datasets" : "dataset-model pairs", model ? model->name : "every model",
@@ -227,7 +227,7 @@ pw_status pw_fit_batch(const char *dir, const char *out_dir, const pw_model_type
     if (!co->quiet)
         for (size_t i = 0; i < n; i++)
             if (jobs[i].rc == 0)
-                pw_fit_cli_print_diags(jobs[i].input, &jobs[i].diags, i % n_models == 0);
+                cli_fit_print_diags(jobs[i].input, &jobs[i].diags, i % n_models == 0);
     if (!co->json)
         for (size_t i = 0; i < n; i++)
             if (jobs[i].rc != 0) {

@@ -26,7 +26,7 @@ static void file_stem(const char *path, char *out, size_t n)
         *dot = '\0';
 }
 
-void pw_fit_cli_print_diags(const char *input, const pw_fit_diags *d, bool ranges)
+void cli_fit_print_diags(const char *input, const pw_fit_diags *d, bool ranges)
 {
     for (size_t i = 0; i < d->n; i++) {
         const pw_fit_diag *g = &d->items[i];
@@ -35,14 +35,14 @@ void pw_fit_cli_print_diags(const char *input, const pw_fit_diags *d, bool range
         /* the library's sentence names no command; the program adds where to go next */
         const char *next = g->kind == PW_DIAG_HETEROGENEOUS ? "; see pinchwise lle and decanter" : "";
         if (g->line > 0)
-            pw_cli_warnf("fit", "%s:%ld: %s%s", input, g->line, g->message, next);
+            cli_warnf("fit", "%s:%ld: %s%s", input, g->line, g->message, next);
         else
-            pw_cli_warnf("fit", "%s: %s%s", input, g->message, next);
+            cli_warnf("fit", "%s: %s%s", input, g->message, next);
     }
 }
 
-pw_status pw_fit_one(const char *input, const pw_model_type *model, const char *out, const char *out_dir,
-               const pw_fit_cli_opts *co, pw_fit_result *r, char *path, size_t path_len,
+pw_status cli_fit_one(const char *input, const pw_model_type *model, const char *out, const char *out_dir,
+               const cli_fit_opts *co, pw_fit_result *r, char *path, size_t path_len,
                pw_error *err)
 {
     memset(r, 0, sizeof *r);
@@ -71,7 +71,7 @@ pw_status pw_fit_one(const char *input, const pw_model_type *model, const char *
      * without --force it may not exist. Checked early, before the work, and again on writing. */
     pw_outset *set = NULL;
     if (st == PW_OK)
-        st = pw_outset_new(co->force, pw_cli_tmp_hooks(), &set, err);
+        st = pw_outset_new(co->force, cli_tmp_hooks(), &set, err);
     if (st == PW_OK && !out) /* made by the set: removed again if nothing is written */
         st = pw_outset_mkdir(set, out_dir ? out_dir : "fits", err);
     if (st == PW_OK)
@@ -83,7 +83,7 @@ pw_status pw_fit_one(const char *input, const pw_model_type *model, const char *
     pw_fit_options fo = co->fit;
     pw_tie_line *swapped = NULL;
     if (st == PW_OK && co->lle) /* tie lines: same components, in either order */
-        st = pw_fit_cli_tie_lines(co->lle, &ds, &fo, &swapped, err);
+        st = cli_fit_tie_lines(co->lle, &ds, &fo, &swapped, err);
     if (st == PW_OK)
         st = pw_fit_run(&ds, c1, c2, model, &fo, r, err);
     free(swapped);
@@ -96,7 +96,7 @@ pw_status pw_fit_one(const char *input, const pw_model_type *model, const char *
         pw_fit_diags *d = co->diags ? co->diags : malloc(sizeof *d);
         st = d ? pw_fit_diagnose(r, d) : PW_ENOMEM;
         if (st == PW_OK && !co->quiet)
-            pw_fit_cli_print_diags(input, d, !co->no_range_warning);
+            cli_fit_print_diags(input, d, !co->no_range_warning);
         if (d != co->diags)
             free(d);
         if (st != PW_OK) {
@@ -117,7 +117,7 @@ pw_status pw_fit_one(const char *input, const pw_model_type *model, const char *
     return PW_OK;
 }
 
-json_t *pw_fit_cli_json(const pw_fit_result *r, const char *path)
+json_t *cli_fit_json(const pw_fit_result *r, const char *path)
 {
     return pw_fit_doc(r, path);
 }
@@ -136,35 +136,35 @@ static json_t *az_json(const pw_rank_row *w)
         return json_null();
     json_t *azs = json_array();
     for (size_t k = 0; k < w->az.n; k++)
-        json_array_append_new(azs, json_pack("{s:o,s:o,s:o,s:s}", "x1", pw_cli_json_num(w->az.az[k].x1),
-                                             "T_K", pw_cli_json_num(w->az.az[k].T_K), "P_kPa",
-                                             pw_cli_json_num(w->az.az[k].P_Pa / 1e3), "kind",
+        json_array_append_new(azs, json_pack("{s:o,s:o,s:o,s:s}", "x1", cli_json_num(w->az.az[k].x1),
+                                             "T_K", cli_json_num(w->az.az[k].T_K), "P_kPa",
+                                             cli_json_num(w->az.az[k].P_Pa / 1e3), "kind",
                                              w->az.az[k].kind == PW_AZ_MINIMUM_BOILING
                                                  ? "minimum-boiling"
                                                  : "maximum-boiling"));
     return azs;
 }
 
-pw_status pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_opts *co)
+pw_status cli_fit_all_models(const char *input, const char *out_dir, const cli_fit_opts *co)
 {
     size_t n;
     const pw_model_type *const *models = pw_model_all(&n);
     ranked *res = calloc(n, sizeof *res);
     if (!res)
-        return pw_cli_failf("fit", PW_ENOMEM, "out of memory");
+        return cli_failf("fit", PW_ENOMEM, "out of memory");
     size_t ok = 0;
     for (size_t i = 0; i < n; i++) {
         res[i].model = models[i];
         pw_error_clear(&res[i].err);
-        pw_fit_cli_opts one = *co;
+        cli_fit_opts one = *co;
         one.no_range_warning = ok > 0; /* the data's range is the same for every model */
-        res[i].rc = pw_fit_one(input, models[i], NULL, out_dir, &one, &res[i].r, res[i].path,
+        res[i].rc = cli_fit_one(input, models[i], NULL, out_dir, &one, &res[i].r, res[i].path,
                                sizeof res[i].path, &res[i].err);
         ok += res[i].rc == 0;
         char what[64];
         snprintf(what, sizeof what, "models (%s %s)", models[i]->name,
                  res[i].rc == 0 ? "fitted" : "failed");
-        pw_cli_progress_line("fit", what, i + 1, n);
+        cli_progress_line("fit", what, i + 1, n);
     }
     /* One ranking rule (include/pinchwise/assess.h): sound fits by AICc, each model's azeotrope
      * at the data's condition, and the model risk among the considered fits. */
@@ -178,7 +178,7 @@ pw_status pw_fit_all_models(const char *input, const char *out_dir, const pw_fit
         for (size_t i = 0; i < n; i++)
             pw_fit_result_free(&res[i].r);
         free(res);
-        return pw_cli_failf("fit", PW_ENOMEM, "out of memory");
+        return cli_failf("fit", PW_ENOMEM, "out of memory");
     }
     if (nf > 0 && pw_rank_assess(fits, nf, NULL, rk) != PW_OK)
         rk->n = 0;
@@ -188,10 +188,10 @@ pw_status pw_fit_all_models(const char *input, const char *out_dir, const pw_fit
         if (res[i].rc == 0)
             map[k++] = i;
     if (rk->az_existence_differs)
-        pw_cli_warnf("fit", "%s: models that fit about equally well disagree on whether an azeotrope "
+        cli_warnf("fit", "%s: models that fit about equally well disagree on whether an azeotrope "
                      "exists at the data's condition", input);
     else if (rk->az_place_differs)
-        pw_cli_warnf("fit", "%s: models that fit about equally well place the azeotrope between x1 = "
+        cli_warnf("fit", "%s: models that fit about equally well place the azeotrope between x1 = "
                      "%.3f and %.3f: judge them near the azeotrope, not by AAD alone",
                      input, rk->az_x_lo, rk->az_x_hi);
     pw_status rc = PW_OK;
@@ -204,11 +204,11 @@ pw_status pw_fit_all_models(const char *input, const char *out_dir, const pw_fit
         for (size_t j = 0; j < rk->n; j++) {
             const pw_rank_row *w = &rk->rows[j];
             const ranked *q = &res[map[w->index]];
-            json_t *m = pw_fit_cli_json(&q->r, q->path);
+            json_t *m = cli_fit_json(&q->r, q->path);
             json_object_set_new(m, "rank", json_integer((json_int_t)j + 1));
-            json_object_set_new(m, "delta_aicc", pw_cli_json_num(w->delta_aicc));
+            json_object_set_new(m, "delta_aicc", cli_json_num(w->delta_aicc));
             json_object_set_new(m, "class", json_string(pw_rank_class_name(w->cls)));
-            json_object_set_new(m, "akaike_weight", pw_cli_json_num(w->weight));
+            json_object_set_new(m, "akaike_weight", cli_json_num(w->weight));
             json_object_set_new(m, "azeotropes_at_data_condition", az_json(w));
             json_array_append_new(arr, m);
         }
@@ -224,7 +224,7 @@ pw_status pw_fit_all_models(const char *input, const char *out_dir, const pw_fit
         json_object_set_new(o, "models", arr);
         json_object_set_new(o, "failed", failed);
         json_object_set_new(o, "best", rk->n ? json_string(rk->rows[0].fit->sys.model->name) : json_null());
-        rc = pw_cli_print_json(o);
+        rc = cli_print_json(o);
     } else {
         printf("models ranked by AICc (dAICc = AICc - AICc of the best; lower is better; < 2: the data "
                "cannot tell them apart, >= 10: no support; Burnham & Anderson 2002)\n");
@@ -267,7 +267,7 @@ pw_status pw_fit_all_models(const char *input, const char *out_dir, const pw_fit
     }
     free(rk);
     if (ok == 0) {
-        rc = pw_cli_fail("fit", &res[0].err);
+        rc = cli_fail("fit", &res[0].err);
     }
     for (size_t i = 0; i < n; i++)
         pw_fit_result_free(&res[i].r);

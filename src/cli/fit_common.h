@@ -1,6 +1,6 @@
 /* Shared pieces of the fit command (single, all models, batch). */
-#ifndef PW_CLI_FIT_COMMON_H
-#define PW_CLI_FIT_COMMON_H
+#ifndef CLI_FIT_COMMON_H
+#define CLI_FIT_COMMON_H
 
 #include <jansson.h>
 #include <pinchwise/component.h>
@@ -10,7 +10,7 @@
 #include <stdbool.h>
 #include <stddef.h>
 
-typedef struct pw_fit_cli_opts {
+typedef struct cli_fit_opts {
     pw_fit_options fit;
     const pw_complib *lib;
     bool force, json;
@@ -20,30 +20,30 @@ typedef struct pw_fit_cli_opts {
     const char *inputs[4]; /* files read besides the dataset (component files): never written */
     size_t n_inputs;
     pw_fit_diags *diags; /* when not NULL, receives the fit's diagnostics (batch workers) */
-} pw_fit_cli_opts;
+} cli_fit_opts;
 
 /* Prints the diagnostics on stderr as warnings, each prefixed with input (and the data line);
  * ranges false leaves out the data-range ones (--model all: given once, not per model). */
-void pw_fit_cli_print_diags(const char *input, const pw_fit_diags *d, bool ranges);
+void cli_fit_print_diags(const char *input, const pw_fit_diags *d, bool ranges);
 
 /* Reads input, fits model, writes the fit file (out, else out_dir/<stem>.<model>.json, else
  * fits/<stem>.<model>.json) and leaves the result in r (caller frees) and its path in path.
  * Returns PW_OK, or the status with err filled (nothing written then). */
-pw_status pw_fit_one(const char *input, const pw_model_type *model, const char *out, const char *out_dir,
-               const pw_fit_cli_opts *co, pw_fit_result *r, char *path, size_t path_len,
+pw_status cli_fit_one(const char *input, const pw_model_type *model, const char *out, const char *out_dir,
+               const cli_fit_opts *co, pw_fit_result *r, char *path, size_t path_len,
                pw_error *err);
 
 /* fit --lle: points fo at the tie lines of lle in the dataset's component order (a swapped copy
  * in *swapped, which the caller frees, when the file names them the other way round). */
-pw_status pw_fit_cli_tie_lines(const pw_lle_dataset *lle, const pw_dataset *ds,
+pw_status cli_fit_tie_lines(const pw_lle_dataset *lle, const pw_dataset *ds,
                                pw_fit_options *fo, pw_tie_line **swapped, pw_error *err);
 
 /* The --json object of one fit: the fit file without the data and component blocks, plus
  * "fit_file". New reference. */
-json_t *pw_fit_cli_json(const pw_fit_result *r, const char *path);
+json_t *cli_fit_json(const pw_fit_result *r, const char *path);
 
 /* --model all: fits every model, ranks them by AICc, prints table or JSON. Returns PW_OK or the
  * status of the failure (already reported). */
-pw_status pw_fit_all_models(const char *input, const char *out_dir, const pw_fit_cli_opts *co);
+pw_status cli_fit_all_models(const char *input, const char *out_dir, const cli_fit_opts *co);
 
 #endif

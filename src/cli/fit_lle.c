@@ -5,7 +5,7 @@
 #include <stdlib.h>
 #include <strings.h>
 
-pw_status pw_fit_cli_tie_lines(const pw_lle_dataset *lle, const pw_dataset *ds,
+pw_status cli_fit_tie_lines(const pw_lle_dataset *lle, const pw_dataset *ds,
                                pw_fit_options *fo, pw_tie_line **swapped, pw_error *err)
 {
     *swapped = NULL;

@@ -7,17 +7,17 @@
 
 #include "pinchwise_version.h"
 
-static const pw_cli_command commands[] = {
-    {"fit", "fit an activity model to a measured VLE file (or a folder of them)", pw_cli_fit},
-    {"check", "thermodynamic consistency tests of a measured VLE file", pw_cli_check},
-    {"azeotrope", "azeotropes of a fitted model at a pressure or temperature", pw_cli_azeotrope},
-    {"reflux", "minimum reflux, pinch, and stages of a binary column", pw_cli_reflux},
-    {"screen", "quick feasibility verdict for a split", pw_cli_screen},
-    {"report", "self-contained HTML report of a fit (and a column)", pw_cli_report},
-    {"lle", "liquid-liquid split (two layers) of a fitted model at a temperature", pw_cli_lle},
-    {"decanter", "decanter and two stripping columns for a partly miscible binary", pw_cli_decanter},
-    {"rate", "products and stage profile of a given column", pw_cli_rate},
-    {"study", "the whole study of a data file and a split, into one folder", pw_cli_study},
+static const cli_command commands[] = {
+    {"fit", "fit an activity model to a measured VLE file (or a folder of them)", cli_fit},
+    {"check", "thermodynamic consistency tests of a measured VLE file", cli_check},
+    {"azeotrope", "azeotropes of a fitted model at a pressure or temperature", cli_azeotrope},
+    {"reflux", "minimum reflux, pinch, and stages of a binary column", cli_reflux},
+    {"screen", "quick feasibility verdict for a split", cli_screen},
+    {"report", "self-contained HTML report of a fit (and a column)", cli_report},
+    {"lle", "liquid-liquid split (two layers) of a fitted model at a temperature", cli_lle},
+    {"decanter", "decanter and two stripping columns for a partly miscible binary", cli_decanter},
+    {"rate", "products and stage profile of a given column", cli_rate},
+    {"study", "the whole study of a data file and a split, into one folder", cli_study},
 };
 
 /* The exit status of the program: the one table (README, "Exit status", says the same). Every
@@ -70,19 +70,19 @@ int main(int argc, char **argv)
     }
     if (!strcmp(argv[1], "--help") || !strcmp(argv[1], "-h") || !strcmp(argv[1], "help")) {
         usage(stdout);
-        return exit_code(pw_cli_finish_stdout("help"));
+        return exit_code(cli_finish_stdout("help"));
     }
     if (!strcmp(argv[1], "--version")) {
         printf("pinchwise %s\n", PINCHWISE_VERSION_STRING);
-        return exit_code(pw_cli_finish_stdout("version"));
+        return exit_code(cli_finish_stdout("version"));
     }
-    pw_cli_install_signal_cleanup();
-    pw_cli_watch_json_allocations();
+    cli_install_signal_cleanup();
+    cli_watch_json_allocations();
     for (size_t i = 0; i < sizeof commands / sizeof commands[0]; i++)
         if (!strcmp(argv[1], commands[i].name)) {
-            /* every command parses its options with pw_cli_parse (cli_options.h) */
+            /* every command parses its options with cli_parse (cli_options.h) */
             pw_status rc = commands[i].run(argc - 1, argv + 1);
-            pw_status out = pw_cli_finish_stdout(commands[i].name); /* e.g. a full disk */
+            pw_status out = cli_finish_stdout(commands[i].name); /* e.g. a full disk */
             return exit_code(rc != PW_OK ? rc : out);
         }
     fprintf(stderr, "pinchwise: unknown command '%s' (expected one of: ", argv[1]);

@@ -14,24 +14,24 @@
 #include <string.h>
 
 /* The reflux command's own options; the shared blocks follow (cli_options.h). */
-static const pw_cli_option reflux_options[] = {
-    {.name = "--energy", .kind = PW_CLI_FLAG,
+static const cli_option reflux_options[] = {
+    {.name = "--energy", .kind = CLI_FLAG,
      .help = "energy balance on every stage (heats of vaporization and heat\n"
              "capacities from the component data) instead of constant molal\n"
              "overflow; adds condenser and reboiler duties"},
-    {.name = "--compare", .kind = PW_CLI_STRING, .metavar = "FIT.json", .repeatable = true,
+    {.name = "--compare", .kind = CLI_STRING, .metavar = "FIT.json", .repeatable = true,
      .help = "another model's fit of the same data: R_min side by side, ranked\n"
              "by AICc"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-static const pw_cli_option *const reflux_blocks[] = {
-    pw_cli_block_pressure, pw_cli_block_products, pw_cli_block_feed, pw_cli_block_factors,
-    reflux_options, pw_cli_block_uncertainty, pw_cli_block_components, pw_cli_block_minimum,
-    pw_cli_block_verdict, pw_cli_block_json, NULL,
+static const cli_option *const reflux_blocks[] = {
+    cli_block_pressure, cli_block_products, cli_block_feed, cli_block_factors,
+    reflux_options, cli_block_uncertainty, cli_block_components, cli_block_minimum,
+    cli_block_verdict, cli_block_json, NULL,
 };
 
-const pw_cli_spec pw_reflux_spec = {
+const cli_spec cli_reflux_spec = {
     .cmd = "reflux",
     .synopsis =
         "usage: pinchwise reflux FIT.json --pressure P --xd X --xb X --zf X [--q Q] [options]\n"
@@ -46,18 +46,18 @@ const pw_cli_spec pw_reflux_spec = {
     .positional = "one fit file",
 };
 
-pw_status pw_reflux_args_from(const pw_cli_args *p, const char *fit_path, pw_reflux_args *a,
+pw_status cli_reflux_args_from(const cli_args *p, const char *fit_path, cli_reflux_args *a,
                               pw_error *err)
 {
     memset(a, 0, sizeof *a);
     a->fit_path = fit_path;
     a->opt = pw_column_default_options();
-    a->json = pw_cli_has(p, "--json");
-    a->energy = pw_cli_has(p, "--energy");
-    a->exit_verdict = pw_cli_has(p, "--exit-verdict");
-    a->components = pw_cli_text(p, "--components");
-    a->minimum = pw_cli_text(p, "--minimum");
-    const pw_cli_value *v = pw_cli_get(p, "--factors");
+    a->json = cli_has(p, "--json");
+    a->energy = cli_has(p, "--energy");
+    a->exit_verdict = cli_has(p, "--exit-verdict");
+    a->components = cli_text(p, "--components");
+    a->minimum = cli_text(p, "--minimum");
+    const cli_value *v = cli_get(p, "--factors");
     if (v) {
         if (v->n_list > PW_COLUMN_MAX_FACTORS)
             return pw_error_set(err, PW_EINVAL, NULL, 0, "%s: at most %d values", v->spelt,
@@ -66,22 +66,22 @@ pw_status pw_reflux_args_from(const pw_cli_args *p, const char *fit_path, pw_ref
         memcpy(a->opt.factors, v->list, v->n_list * sizeof v->list[0]);
     }
     /* the uncertainty step (reflux_uncert.c) reads these pairs */
-    a->uncertainty = pw_cli_has(p, "--uncertainty");
+    a->uncertainty = cli_has(p, "--uncertainty");
     static const char *const extra[] = {"--samples", "--seed"};
     for (size_t k = 0; k < 2; k++)
-        if ((v = pw_cli_get(p, extra[k]))) {
+        if ((v = cli_get(p, extra[k]))) {
             a->extra[a->n_extra++] = extra[k];
             a->extra[a->n_extra++] = v->text;
         }
-    for (v = pw_cli_next(p, "--compare", NULL); v; v = pw_cli_next(p, "--compare", v)) {
+    for (v = cli_next(p, "--compare", NULL); v; v = cli_next(p, "--compare", v)) {
         if (a->n_extra + 2 > (int)(sizeof a->extra / sizeof a->extra[0]))
             return pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
                                 (int)(sizeof a->extra / sizeof a->extra[0]) / 2 - 2);
         a->extra[a->n_extra++] = "--compare";
         a->extra[a->n_extra++] = v->text;
     }
-    pw_cli_targets tg;
-    pw_cli_targets_get(p, &tg, a->given);
+    cli_targets tg;
+    cli_targets_get(p, &tg, a->given);
     a->P_Pa = tg.P_Pa;
     a->spec = (pw_column_spec){.xd = tg.xd, .xb = tg.xb, .zf = tg.zf, .q = tg.q};
     a->have_P = tg.have_P, a->have_xd = tg.have_xd, a->have_xb = tg.have_xb;
@@ -93,14 +93,14 @@ pw_status pw_reflux_args_from(const pw_cli_args *p, const char *fit_path, pw_ref
     return PW_OK;
 }
 
-pw_status pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err)
+pw_status cli_reflux_parse_args(int argc, char **argv, cli_reflux_args *a, pw_error *err)
 {
-    pw_cli_args p;
+    cli_args p;
     memset(a, 0, sizeof *a);
-    pw_status st = pw_cli_parse(&pw_reflux_spec, argc, argv, &p, err);
+    pw_status st = cli_parse(&cli_reflux_spec, argc, argv, &p, err);
     if (st != PW_OK || (a->help = p.help))
         return st;
-    return pw_reflux_args_from(&p, p.n_pos ? p.pos[0] : NULL, a, err);
+    return cli_reflux_args_from(&p, p.n_pos ? p.pos[0] : NULL, a, err);
 }
 
 /* The targets in mole fractions: xb < zf < xd, or xd < zf < xb (component 1 to the bottoms). */
@@ -117,11 +117,11 @@ static pw_status check_targets(const pw_column_spec *s, pw_error *err)
     return PW_OK;
 }
 
-pw_status pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err)
+pw_status cli_reflux_compute(const cli_reflux_args *a, cli_reflux_run *run, pw_error *err)
 {
     memset(run, 0, sizeof *run);
-    pw_status st = pw_cli_read_fit("reflux", a->fit_path, a->components, &run->fit, err);
-    if (st == PW_OK && (st = pw_cli_apply_minimum("reflux", &run->fit, a->minimum, &run->minimum,
+    pw_status st = cli_read_fit("reflux", a->fit_path, a->components, &run->fit, err);
+    if (st == PW_OK && (st = cli_apply_minimum("reflux", &run->fit, a->minimum, &run->minimum,
                                                   err)) != PW_OK)
         pw_fit_result_free(&run->fit);
     if (st != PW_OK)
@@ -131,7 +131,7 @@ pw_status pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_erro
     if (a->basis[0] == PW_BASIS_MASS || a->basis[1] == PW_BASIS_MASS ||
         a->basis[2] == PW_BASIS_MASS)
         memcpy(run->given, a->given, sizeof run->given);
-    st = pw_cli_targets_to_mole(&run->spec.xd, &run->spec.xb, &run->spec.zf, a->basis,
+    st = cli_targets_to_mole(&run->spec.xd, &run->spec.xb, &run->spec.zf, a->basis,
                                 &run->fit.sys, err);
     pw_status rc = st == PW_OK ? check_targets(&run->spec, err) : st;
     if (rc != PW_OK) {
@@ -168,13 +168,13 @@ pw_status pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_erro
     return PW_OK;
 }
 
-void pw_reflux_run_free(pw_reflux_run *run)
+void cli_reflux_run_free(cli_reflux_run *run)
 {
     pw_design_table_free(&run->design);
     pw_fit_result_free(&run->fit);
 }
 
-void pw_reflux_warn(const pw_reflux_run *run)
+void cli_reflux_warn(const cli_reflux_run *run)
 {
     const pw_fit_result *r = &run->fit;
     double Ts[2] = {run->T_top_K, run->T_bottom_K};
@@ -183,7 +183,7 @@ void pw_reflux_warn(const pw_reflux_run *run)
         for (int k = 0; k < 2; k++) {
             double ex = isfinite(Ts[k]) ? pw_component_range_excess_K(c, Ts[k]) : 0.0;
             if (ex != 0.0)
-                pw_cli_warnf("reflux", "the column %s at %.1f K lies %.1f K %s the vapor-pressure "
+                cli_warnf("reflux", "the column %s at %.1f K lies %.1f K %s the vapor-pressure "
                              "range of %s",
                              k == 0 ? "top" : "bottom", Ts[k], fabs(ex), ex < 0 ? "below" : "above",
                              c->name);
@@ -192,25 +192,25 @@ void pw_reflux_warn(const pw_reflux_run *run)
     if (isfinite(r->T_min_K) && isfinite(run->T_top_K) &&
         (fmin(run->T_top_K, run->T_bottom_K) < r->T_min_K - 5.0 ||
          fmax(run->T_top_K, run->T_bottom_K) > r->T_max_K + 5.0))
-        pw_cli_warnf("reflux", "the column runs at %.1f-%.1f K, outside the fitted data's %.1f-%.1f K "
+        cli_warnf("reflux", "the column runs at %.1f-%.1f K, outside the fitted data's %.1f-%.1f K "
                      "by more than 5 K: the model is extrapolated",
                      fmin(run->T_top_K, run->T_bottom_K), fmax(run->T_top_K, run->T_bottom_K),
                      r->T_min_K, r->T_max_K);
     double mis = pw_latent_heat_mismatch(&r->sys);
     if (!run->energy && mis > 0.10)
-        pw_cli_warnf("reflux", "the heats of vaporization of %s and %s differ by %.0f %%: constant "
+        cli_warnf("reflux", "the heats of vaporization of %s and %s differ by %.0f %%: constant "
                      "molal overflow is doubtful above about 10 %% (common practice); consider "
                      "--energy",
                      r->sys.comp[0].name, r->sys.comp[1].name, 100.0 * mis);
     if (!r->converged)
-        pw_cli_warnf("reflux", "%s: the fit did not converge; do not design with it", r->dataset_path);
-    pw_cli_warn_vapor_association("reflux", &r->sys);
+        cli_warnf("reflux", "%s: the fit did not converge; do not design with it", r->dataset_path);
+    cli_warn_vapor_association("reflux", &r->sys);
     if (r->split)
-        pw_cli_warnf("reflux", "the fitted model predicts a liquid-liquid split (x1 = %.3f at %.1f K)",
+        cli_warnf("reflux", "the fitted model predicts a liquid-liquid split (x1 = %.3f at %.1f K)",
                      r->split_x, r->split_T_K);
     if (run->energy ? run->energy_res.feasible && run->energy_res.pinch.kind == PW_PINCH_TANGENT
                     : run->col.feasible && run->col.pinch.kind == PW_PINCH_TANGENT)
-        pw_cli_warnf("reflux", "tangent pinch: stage counts near R_min are very sensitive to the "
+        cli_warnf("reflux", "tangent pinch: stage counts near R_min are very sensitive to the "
                      "model%s",
                      run->with_uncertainty ? " (see the intervals below)" : "; consider --uncertainty");
 }

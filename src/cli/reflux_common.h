@@ -1,6 +1,6 @@
 /* The reflux command's argument parsing and computation, shared with options that extend it. */
-#ifndef PW_CLI_REFLUX_COMMON_H
-#define PW_CLI_REFLUX_COMMON_H
+#ifndef CLI_REFLUX_COMMON_H
+#define CLI_REFLUX_COMMON_H
 
 #include <jansson.h>
 #include <pinchwise/column.h>
@@ -11,7 +11,7 @@
 
 #include "cli_options.h"
 
-typedef struct pw_reflux_args {
+typedef struct cli_reflux_args {
     const char *fit_path;
     const char *components; /* --components FILE: replaces vapor-pressure rows */
     double P_Pa;
@@ -20,7 +20,7 @@ typedef struct pw_reflux_args {
     bool json;
     bool energy; /* --energy: energy balances instead of constant molal overflow */
     bool have_P, have_xd, have_xb, have_zf;
-    pw_basis basis[3]; /* of xd, xb, zf as given; converted to mole fractions in pw_reflux_compute */
+    pw_basis basis[3]; /* of xd, xb, zf as given; converted to mole fractions in cli_reflux_compute */
     const char *given[3]; /* xd, xb, zf as typed, for the text output */
     /* options other commands add; unknown ones are rejected */
     bool uncertainty;
@@ -29,9 +29,9 @@ typedef struct pw_reflux_args {
     bool help;           /* --help was asked for: nothing else is set */
     const char *extra[20];
     int n_extra;
-} pw_reflux_args;
+} cli_reflux_args;
 
-typedef struct pw_reflux_run {
+typedef struct cli_reflux_run {
     pw_fit_result fit;
     double P_Pa;
     pw_column_spec spec;
@@ -44,33 +44,33 @@ typedef struct pw_reflux_run {
     bool with_uncertainty; /* --uncertainty given: the warnings do not suggest it */
     size_t minimum;        /* --minimum N applied (0: the fit's own choice) */
     const char *given[3];  /* xd, xb, zf as typed when any was given by mass, else NULL */
-} pw_reflux_run;
+} cli_reflux_run;
 
-/* Frees what pw_reflux_compute allocated (the fit and the design table). */
-void pw_reflux_run_free(pw_reflux_run *run);
+/* Frees what cli_reflux_compute allocated (the fit and the design table). */
+void cli_reflux_run_free(cli_reflux_run *run);
 
 /* The reflux command's options (its --help is made from them). */
-extern const pw_cli_spec pw_reflux_spec;
+extern const cli_spec cli_reflux_spec;
 
-/* Parses the reflux command's argv (pw_reflux_spec) into a; a->help when --help was asked for.
+/* Parses the reflux command's argv (cli_reflux_spec) into a; a->help when --help was asked for.
  * PW_OK or PW_EINVAL with err. */
-pw_status pw_reflux_parse_args(int argc, char **argv, pw_reflux_args *a, pw_error *err);
+pw_status cli_reflux_parse_args(int argc, char **argv, cli_reflux_args *a, pw_error *err);
 
 /* The column arguments of parsed options p (any spec that holds the reflux options it uses:
  * those it lacks are simply absent) and fit_path into a. PW_OK or PW_EINVAL with err when a
  * required one is missing. */
-pw_status pw_reflux_args_from(const pw_cli_args *p, const char *fit_path, pw_reflux_args *a,
+pw_status cli_reflux_args_from(const cli_args *p, const char *fit_path, cli_reflux_args *a,
                               pw_error *err);
 
 /* Reads the fit file and runs the column analysis. PW_OK or the status with err. The caller
  * frees run->fit. */
-pw_status pw_reflux_compute(const pw_reflux_args *a, pw_reflux_run *run, pw_error *err);
+pw_status cli_reflux_compute(const cli_reflux_args *a, cli_reflux_run *run, pw_error *err);
 
 /* Warnings on stderr: temperatures outside a component's vapor-pressure range or the fit's data
  * range, non-converged fit, predicted liquid split. */
-void pw_reflux_warn(const pw_reflux_run *run);
+void cli_reflux_warn(const cli_reflux_run *run);
 
 /* The --json object of CONTRACT.md plus the design table. New reference. */
-json_t *pw_reflux_json(const pw_reflux_run *run);
+json_t *cli_reflux_json(const cli_reflux_run *run);
 
 #endif

@@ -14,7 +14,7 @@
 static pw_status whole_number(const char *opt, const char *v, double lo, double hi, double *out,
                         pw_error *err)
 {
-    if (pw_cli_number(opt, v, out, err) != PW_OK)
+    if (cli_number(opt, v, out, err) != PW_OK)
         return PW_EINVAL;
     if (*out != floor(*out) || *out < lo || *out > hi) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected a whole number from %.0f to %.0f",
@@ -24,7 +24,7 @@ static pw_status whole_number(const char *opt, const char *v, double lo, double 
     return PW_OK;
 }
 
-static pw_status parse_extra(const pw_reflux_args *a, pw_reflux_uncert *u, pw_error *err)
+static pw_status parse_extra(const cli_reflux_args *a, cli_reflux_uncert *u, pw_error *err)
 {
     for (int i = 0; i + 1 < a->n_extra; i += 2) {
         const char *opt = a->extra[i], *v = a->extra[i + 1];
@@ -40,9 +40,9 @@ static pw_status parse_extra(const pw_reflux_args *a, pw_reflux_uncert *u, pw_er
             u->opt.seed = (unsigned long)d;
             u->propagate = true;
         } else if (!strcmp(opt, "--compare")) {
-            if (u->n_compare == PW_CLI_MAX_COMPARE) {
+            if (u->n_compare == CLI_MAX_COMPARE) {
                 pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
-                             PW_CLI_MAX_COMPARE);
+                             CLI_MAX_COMPARE);
                 return PW_EINVAL;
             }
             u->compare_paths[u->n_compare++] = v;
@@ -51,11 +51,11 @@ static pw_status parse_extra(const pw_reflux_args *a, pw_reflux_uncert *u, pw_er
     return PW_OK;
 }
 
-static pw_status compare_models(const pw_reflux_args *a, const pw_reflux_run *run, pw_reflux_uncert *u,
+static pw_status compare_models(const cli_reflux_args *a, const cli_reflux_run *run, cli_reflux_uncert *u,
                           pw_error *err)
 {
     pw_fit_result *fits = calloc(u->n_compare, sizeof *fits);
-    const pw_fit_result *ptr[PW_CLI_MAX_COMPARE + 1];
+    const pw_fit_result *ptr[CLI_MAX_COMPARE + 1];
     if (!fits)
         return pw_error_set(err, PW_ENOMEM, NULL, 0, "out of memory");
     ptr[0] = &run->fit;
@@ -63,7 +63,7 @@ static pw_status compare_models(const pw_reflux_args *a, const pw_reflux_run *ru
     pw_status st = PW_OK;
     size_t n_read = 0;
     for (size_t i = 0; i < u->n_compare && st == PW_OK; i++) {
-        st = pw_cli_read_fit("reflux", u->compare_paths[i], a->components, &fits[i], err);
+        st = cli_read_fit("reflux", u->compare_paths[i], a->components, &fits[i], err);
         if (st != PW_OK)
             break;
         n_read++;
@@ -86,7 +86,7 @@ static pw_status compare_models(const pw_reflux_args *a, const pw_reflux_run *ru
     return st == PW_OK ? 0 : st;
 }
 
-pw_status pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_reflux_uncert *u,
+pw_status cli_reflux_uncert_run(const cli_reflux_args *a, const cli_reflux_run *run, cli_reflux_uncert *u,
                          pw_error *err)
 {
     memset(u, 0, sizeof *u);
@@ -108,9 +108,9 @@ pw_status pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run
         u->col.factor = a->opt.factors[0];
     u->plan_status = PW_EINVAL;
     if (u->propagate) {
-        pw_cli_progress_ctx pc = {"reflux", "parameter sets sampled"};
-        if (pw_cli_progress_wanted()) {
-            u->opt.progress = pw_cli_progress_tenths;
+        cli_progress_ctx pc = {"reflux", "parameter sets sampled"};
+        if (cli_progress_wanted()) {
+            u->opt.progress = cli_progress_tenths;
             u->opt.progress_ctx = &pc;
         }
         pw_unc_column_assessment as;
@@ -126,12 +126,12 @@ pw_status pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run
     return u->n_compare ? compare_models(a, run, u, err) : 0;
 }
 
-json_t *pw_cli_json_pair(const double v[2])
+json_t *cli_json_pair(const double v[2])
 {
     return pw_json_pair(v);
 }
 
-json_t *pw_cli_unc_output_json(const pw_unc_output *o)
+json_t *cli_unc_output_json(const pw_unc_output *o)
 {
     return pw_unc_output_doc(o);
 }
@@ -146,7 +146,7 @@ static const char *class_name(pw_unc_model_class c)
     }
 }
 
-static json_t *models_json(const pw_reflux_uncert *u)
+static json_t *models_json(const cli_reflux_uncert *u)
 {
     const pw_unc_models *m = &u->models;
     json_t *j = json_object(), *rows = json_array();
@@ -155,9 +155,9 @@ static json_t *models_json(const pw_reflux_uncert *u)
         json_t *o = json_object();
         json_object_set_new(o, "model", json_string(r->model->name));
         json_object_set_new(o, "fit_file", json_string(u->paths[i]));
-        json_object_set_new(o, "aicc", pw_cli_json_num(r->aicc));
-        json_object_set_new(o, "delta_aicc", pw_cli_json_num(r->delta_aicc));
-        json_object_set_new(o, "akaike_weight", pw_cli_json_num(r->weight));
+        json_object_set_new(o, "aicc", cli_json_num(r->aicc));
+        json_object_set_new(o, "delta_aicc", cli_json_num(r->delta_aicc));
+        json_object_set_new(o, "akaike_weight", cli_json_num(r->weight));
         json_object_set_new(o, "support", json_string(class_name(r->cls)));
         json_object_set_new(o, "feasible", r->status == PW_OK        ? json_true()
                                            : r->status == PW_EINFEASIBLE ? json_false()
@@ -165,16 +165,16 @@ static json_t *models_json(const pw_reflux_uncert *u)
         json_object_set_new(o, "error", r->status == PW_OK || r->status == PW_EINFEASIBLE
                                             ? json_null()
                                             : json_string(pw_strerror(r->status)));
-        json_object_set_new(o, "r_min", pw_cli_json_num(r->out[PW_UNC_RMIN]));
-        json_object_set_new(o, "boilup_min", pw_cli_json_num(r->out[PW_UNC_SMIN]));
-        json_object_set_new(o, "stages_operating", pw_cli_json_num(r->out[PW_UNC_STAGES]));
+        json_object_set_new(o, "r_min", cli_json_num(r->out[PW_UNC_RMIN]));
+        json_object_set_new(o, "boilup_min", cli_json_num(r->out[PW_UNC_SMIN]));
+        json_object_set_new(o, "stages_operating", cli_json_num(r->out[PW_UNC_STAGES]));
         json_array_append_new(rows, o);
     }
     json_object_set_new(j, "models", rows);
-    json_object_set_new(j, "r_min_range", pw_cli_json_pair((const double[2]){m->lo[PW_UNC_RMIN],
+    json_object_set_new(j, "r_min_range", cli_json_pair((const double[2]){m->lo[PW_UNC_RMIN],
                                                                  m->hi[PW_UNC_RMIN]}));
     json_object_set_new(j, "feasibility_differs", json_boolean(m->feasibility_differs));
-    json_object_set_new(j, "operating_factor", pw_cli_json_num(u->col.factor));
+    json_object_set_new(j, "operating_factor", cli_json_num(u->col.factor));
     json_object_set_new(j, "balance", json_string(pw_balance_name(u->col.heat ? PW_BALANCE_ENERGY
                                                                               : PW_BALANCE_CMO)));
     json_object_set_new(j, "basis",
@@ -183,7 +183,7 @@ static json_t *models_json(const pw_reflux_uncert *u)
     return j;
 }
 
-void pw_reflux_uncert_json(const pw_reflux_uncert *u, json_t *o)
+void cli_reflux_uncert_json(const cli_reflux_uncert *u, json_t *o)
 {
     if (u->propagate)
         pw_reflux_unc_doc(o, &u->res, &u->opt, u->col.factor, u->plan_status, &u->plan);
@@ -204,7 +204,7 @@ static void print_output(const char *label, const pw_unc_output *o)
                "parameters over this range\n", "", o->ci_lin[0], o->ci_lin[1]);
 }
 
-void pw_reflux_uncert_print(const pw_reflux_uncert *u, const pw_reflux_run *run)
+void cli_reflux_uncert_print(const cli_reflux_uncert *u, const cli_reflux_run *run)
 {
     (void)run;
     char words[PW_REASON_MAX * 2];

@@ -1,17 +1,17 @@
 /* --uncertainty, --samples, --seed and --compare on the reflux command (and on commands built on
  * it): the library's propagation, feasibility risk, measurement plan and model comparison, as
  * JSON keys and as text. */
-#ifndef PW_CLI_REFLUX_UNCERT_H
-#define PW_CLI_REFLUX_UNCERT_H
+#ifndef CLI_REFLUX_UNCERT_H
+#define CLI_REFLUX_UNCERT_H
 
 #include "reflux_common.h"
 
 #include <jansson.h>
 #include <pinchwise/uncertainty.h>
 
-#define PW_CLI_MAX_COMPARE 8
+#define CLI_MAX_COMPARE 8
 
-typedef struct pw_reflux_uncert {
+typedef struct cli_reflux_uncert {
     bool propagate;          /* --uncertainty (or --samples / --seed) given */
     pw_unc_options opt;
     pw_unc_column_ctx col;
@@ -19,27 +19,27 @@ typedef struct pw_reflux_uncert {
     pw_status plan_status;
     pw_unc_plan plan;
     size_t n_compare;        /* fit files given with --compare */
-    const char *compare_paths[PW_CLI_MAX_COMPARE];
+    const char *compare_paths[CLI_MAX_COMPARE];
     pw_unc_models models;    /* row 0 is the main fit, then the --compare ones */
-    char paths[PW_CLI_MAX_COMPARE + 1][PW_PATH_MAX];
-} pw_reflux_uncert;
+    char paths[CLI_MAX_COMPARE + 1][PW_PATH_MAX];
+} cli_reflux_uncert;
 
 /* Reads --samples/--seed/--compare from a->extra and runs what was asked for. PW_OK or the
  * status with err filled. */
-pw_status pw_reflux_uncert_run(const pw_reflux_args *a, const pw_reflux_run *run, pw_reflux_uncert *u,
+pw_status cli_reflux_uncert_run(const cli_reflux_args *a, const cli_reflux_run *run, cli_reflux_uncert *u,
                          pw_error *err);
 
 /* Adds the CONTRACT keys r_min_ci95 and feasible_probability (with --uncertainty) and the
  * "uncertainty" and "model_comparison" objects to o. */
-void pw_reflux_uncert_json(const pw_reflux_uncert *u, json_t *o);
+void cli_reflux_uncert_json(const cli_reflux_uncert *u, json_t *o);
 
 /* [a, b] as a JSON array, or null when either is not finite. New reference. */
-json_t *pw_cli_json_pair(const double v[2]);
+json_t *cli_json_pair(const double v[2]);
 
 /* One propagated output: value, ci95 (and where from), both intervals, sds, disagreement. */
-json_t *pw_cli_unc_output_json(const pw_unc_output *o);
+json_t *cli_unc_output_json(const pw_unc_output *o);
 
 /* The same as text on stdout. */
-void pw_reflux_uncert_print(const pw_reflux_uncert *u, const pw_reflux_run *run);
+void cli_reflux_uncert_print(const cli_reflux_uncert *u, const cli_reflux_run *run);
 
 #endif

@@ -11,7 +11,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-static pw_status check_even(pw_cli_value *v, pw_error *err)
+static pw_status check_even(cli_value *v, pw_error *err)
 {
     if ((long long)v->num % 2 != 0)
         return pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected an even number", v->spelt,
@@ -19,31 +19,31 @@ static pw_status check_even(pw_cli_value *v, pw_error *err)
     return PW_OK;
 }
 
-static const pw_cli_option test_options[] = {
-    {.name = "--x", .kind = PW_CLI_NUMBER, .metavar = "X", .help = "a number"},
-    {.name = "--flag", .kind = PW_CLI_FLAG, .help = "a flag"},
-    {.name = "--name", .alias = "--nom", .kind = PW_CLI_STRING, .metavar = "TEXT",
+static const cli_option test_options[] = {
+    {.name = "--x", .kind = CLI_NUMBER, .metavar = "X", .help = "a number"},
+    {.name = "--flag", .kind = CLI_FLAG, .help = "a flag"},
+    {.name = "--name", .alias = "--nom", .kind = CLI_STRING, .metavar = "TEXT",
      .help = "a name\nover two lines"},
-    {.name = "--many", .kind = PW_CLI_STRING, .metavar = "FILE", .repeatable = true,
+    {.name = "--many", .kind = CLI_STRING, .metavar = "FILE", .repeatable = true,
      .help = "repeatable"},
-    {.name = "--p", .kind = PW_CLI_QUANTITY, .unit = PW_QTY_PRESSURE, .metavar = "P",
+    {.name = "--p", .kind = CLI_QUANTITY, .unit = PW_QTY_PRESSURE, .metavar = "P",
      .help = "a pressure"},
-    {.name = "--frac", .kind = PW_CLI_FRACTION, .metavar = "X", .help = "a composition"},
-    {.name = "--n", .kind = PW_CLI_INTEGER, .metavar = "N", .lo = 1.0, .hi = 10.0,
+    {.name = "--frac", .kind = CLI_FRACTION, .metavar = "X", .help = "a composition"},
+    {.name = "--n", .kind = CLI_INTEGER, .metavar = "N", .lo = 1.0, .hi = 10.0,
      .help = "a whole number"},
-    {.name = "--r", .kind = PW_CLI_NUMBER, .metavar = "R", .lo = 0.5, .hi = 2.0, .what = "a ratio",
+    {.name = "--r", .kind = CLI_NUMBER, .metavar = "R", .lo = 0.5, .hi = 2.0, .what = "a ratio",
      .help = "a ranged number"},
-    {.name = "--list", .kind = PW_CLI_LIST, .metavar = "F,F", .help = "numbers"},
-    {.name = "--even", .kind = PW_CLI_NUMBER, .metavar = "E", .check = check_even,
+    {.name = "--list", .kind = CLI_LIST, .metavar = "F,F", .help = "numbers"},
+    {.name = "--even", .kind = CLI_NUMBER, .metavar = "E", .check = check_even,
      .help = "an even number (a check callback)"},
-    {.name = "--a-very-long-option-name", .kind = PW_CLI_STRING, .metavar = "VALUE",
+    {.name = "--a-very-long-option-name", .kind = CLI_STRING, .metavar = "VALUE",
      .help = "the help starts on the next line"},
-    PW_CLI_END,
+    CLI_END,
 };
 
-static const pw_cli_option *const test_blocks[] = {test_options, pw_cli_block_uncertainty, NULL};
+static const cli_option *const test_blocks[] = {test_options, cli_block_uncertainty, NULL};
 
-static const pw_cli_spec spec = {
+static const cli_spec spec = {
     .cmd = "demo",
     .synopsis = "usage: pinchwise demo FILE [options]\n\nA paragraph above the options.\n",
     .blocks = test_blocks,
@@ -92,21 +92,21 @@ static const parse_case cases[] = {
     {{"-"}, PW_OK, NULL},                    /* "-" alone is a positional */
 };
 
-static pw_status run(const char *const *words, pw_cli_args *out, pw_error *err)
+static pw_status run(const char *const *words, cli_args *out, pw_error *err)
 {
     char *argv[10] = {"demo"};
     int argc = 1;
     for (int i = 0; i < 8 && words[i]; i++)
         argv[argc++] = (char *)words[i];
     pw_error_clear(err);
-    return pw_cli_parse(&spec, argc, argv, out, err);
+    return cli_parse(&spec, argc, argv, out, err);
 }
 
 static void table_of_cases(void **state)
 {
     (void)state;
     for (size_t k = 0; k < sizeof cases / sizeof cases[0]; k++) {
-        pw_cli_args a;
+        cli_args a;
         pw_error err;
         pw_status st = run(cases[k].argv, &a, &err);
         if (st != cases[k].want || (cases[k].fragment && !strstr(err.msg, cases[k].fragment)))
@@ -121,37 +121,37 @@ static void table_of_cases(void **state)
 static void values_are_parsed(void **state)
 {
     (void)state;
-    pw_cli_args a;
+    cli_args a;
     pw_error err;
     const char *w1[8] = {"file.json", "--x=2.5",  "--p",          "1 atm", "--frac",
                          "50wt%",     "--n=7",    "--list=1.2,1.3"};
     assert_int_equal(run(w1, &a, &err), PW_OK);
     assert_int_equal(a.n_pos, 1);
     assert_string_equal(a.pos[0], "file.json");
-    assert_true(pw_cli_get(&a, "--x")->num == 2.5);
+    assert_true(cli_get(&a, "--x")->num == 2.5);
     /* 1 atm = 101325 Pa exactly (definition) */
-    assert_true(pw_cli_get(&a, "--p")->num == 101325.0);
-    assert_true(pw_cli_get(&a, "--frac")->num == 0.5);
-    assert_int_equal(pw_cli_get(&a, "--frac")->basis, PW_BASIS_MASS);
-    assert_int_equal(pw_cli_get(&a, "--n")->whole, 7);
-    const pw_cli_value *l = pw_cli_get(&a, "--list");
+    assert_true(cli_get(&a, "--p")->num == 101325.0);
+    assert_true(cli_get(&a, "--frac")->num == 0.5);
+    assert_int_equal(cli_get(&a, "--frac")->basis, PW_BASIS_MASS);
+    assert_int_equal(cli_get(&a, "--n")->whole, 7);
+    const cli_value *l = cli_get(&a, "--list");
     assert_int_equal(l->n_list, 2);
     assert_true(l->list[0] == 1.2 && l->list[1] == 1.3);
-    assert_false(pw_cli_has(&a, "--flag"));
-    assert_null(pw_cli_text(&a, "--name"));
+    assert_false(cli_has(&a, "--flag"));
+    assert_null(cli_text(&a, "--name"));
 
     const char *w2[8] = {"--nom", "abc", "--many", "a", "--many=b", "--flag", "--", "--x"};
     assert_int_equal(run(w2, &a, &err), PW_OK);
-    const pw_cli_value *v = pw_cli_get(&a, "--name");
+    const cli_value *v = cli_get(&a, "--name");
     assert_string_equal(v->text, "abc");
     assert_string_equal(v->spelt, "--nom");
-    const pw_cli_value *m1 = pw_cli_next(&a, "--many", NULL);
-    const pw_cli_value *m2 = pw_cli_next(&a, "--many", m1);
+    const cli_value *m1 = cli_next(&a, "--many", NULL);
+    const cli_value *m2 = cli_next(&a, "--many", m1);
     assert_string_equal(m1->text, "a");
     assert_string_equal(m2->text, "b");
-    assert_null(pw_cli_next(&a, "--many", m2));
-    assert_true(pw_cli_has(&a, "--flag"));
-    assert_null(pw_cli_get(&a, "--flag")->text);
+    assert_null(cli_next(&a, "--many", m2));
+    assert_true(cli_has(&a, "--flag"));
+    assert_null(cli_get(&a, "--flag")->text);
     assert_int_equal(a.n_pos, 1);
     assert_string_equal(a.pos[0], "--x");
     assert_false(a.help);
@@ -163,24 +163,24 @@ static void values_are_parsed(void **state)
     /* the uncertainty block: --samples implies --uncertainty */
     const char *w4[8] = {"--samples", "30", "--seed=5"};
     assert_int_equal(run(w4, &a, &err), PW_OK);
-    pw_cli_uncertainty u = pw_cli_uncertainty_get(&a);
+    cli_uncertainty u = cli_uncertainty_get(&a);
     assert_true(u.on && u.have_samples && u.have_seed);
     assert_int_equal(u.samples, 30);
     assert_int_equal(u.seed, 5);
     const char *w5[8] = {"--uncertainty"};
     assert_int_equal(run(w5, &a, &err), PW_OK);
-    u = pw_cli_uncertainty_get(&a);
+    u = cli_uncertainty_get(&a);
     assert_true(u.on && !u.have_samples && !u.have_seed);
 }
 
 static void nearest_names(void **state)
 {
     (void)state;
-    assert_string_equal(pw_cli_nearest(&spec, "--x"), "--x");
-    assert_string_equal(pw_cli_nearest(&spec, "--nomm"), "--nom");
-    assert_string_equal(pw_cli_nearest(&spec, "--a-very-long-optoin-name"),
+    assert_string_equal(cli_nearest(&spec, "--x"), "--x");
+    assert_string_equal(cli_nearest(&spec, "--nomm"), "--nom");
+    assert_string_equal(cli_nearest(&spec, "--a-very-long-optoin-name"),
                         "--a-very-long-option-name");
-    assert_null(pw_cli_nearest(&spec, "--completely-different"));
+    assert_null(cli_nearest(&spec, "--completely-different"));
 }
 
 static void help_lists_every_option(void **state)
@@ -190,13 +190,13 @@ static void help_lists_every_option(void **state)
     size_t len = 0;
     FILE *f = open_memstream(&text, &len);
     assert_non_null(f);
-    pw_cli_help(&spec, f);
+    cli_help(&spec, f);
     fclose(f);
     assert_non_null(strstr(text, "usage: pinchwise demo FILE [options]\n\nA paragraph"));
     assert_non_null(strstr(text, "A footer."));
     assert_non_null(strstr(text, "-h, --help"));
-    for (const pw_cli_option *const *b = spec.blocks; *b; b++)
-        for (const pw_cli_option *o = *b; o->name; o++) {
+    for (const cli_option *const *b = spec.blocks; *b; b++)
+        for (const cli_option *o = *b; o->name; o++) {
             char entry[128];
             snprintf(entry, sizeof entry, "\n  %s%s%s", o->name, o->metavar ? " " : "",
                      o->metavar ? o->metavar : "");
