@@ -62,6 +62,15 @@ const char *const *pw_check_cautions(size_t *n);
 
 /* ---- azeotrope ---- */
 
+/* The azeotrope command's computation at one condition (P in Pa or T in K by mode): the
+ * homogeneous azeotropes (pw_azeotrope_find) into r, then the heterogeneous check
+ * (pw_azeotrope_heterogeneous) into tp, which drops crossings inside the two-liquid region from r
+ * and counts them in *n_removed (may be NULL). On failure err names where (file, may be NULL)
+ * and which search failed. */
+pw_status pw_azeotrope_solve(const pw_system *sys, pw_az_mode mode, double fixed,
+                             const char *where, pw_az_result *r, pw_three_phase *tp,
+                             size_t *n_removed, pw_error *err);
+
 /* One azeotrope with the keys x1, T_K, P_kPa, kind and more. */
 json_t *pw_azeotrope_entry_json(const pw_azeotrope *az);
 

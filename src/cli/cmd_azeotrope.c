@@ -266,20 +266,11 @@ pw_status cli_azeotrope(int argc, char **argv)
     }
     pw_az_result r;
     pw_az_scan *sc = NULL;
-    st = pw_azeotrope_find(&fit.sys, a.mode, a.fixed, NULL, &r);
-    if (st != PW_OK) {
-        pw_error_set(&err, st, a.fit_path, 0, "azeotrope search failed near x1 = %.4g: %s",
-                     r.fail_x1, pw_strerror(st));
-        pw_fit_result_free(&fit);
-        return cli_fail(CMD, &err);
-    }
     pw_three_phase tp;
     size_t n_removed = 0;
     pw_three_phase *tps = NULL;
-    st = pw_azeotrope_heterogeneous(&fit.sys, (int)a.mode, a.fixed, &r, &tp, &n_removed);
+    st = pw_azeotrope_solve(&fit.sys, a.mode, a.fixed, a.fit_path, &r, &tp, &n_removed, &err);
     if (st != PW_OK) {
-        pw_error_set(&err, st, a.fit_path, 0, "three-phase (two liquids and vapor) search failed: %s",
-                     pw_strerror(st));
         pw_fit_result_free(&fit);
         return cli_fail(CMD, &err);
     }

@@ -254,20 +254,11 @@ pw_status pw_api_azeotrope(const char *fit_path, const char *fit_text, const cha
         fixed = mode == PW_AZ_ISOBARIC ? fit.P_fixed_Pa : fit.T_fixed_K;
     }
     pw_az_result r;
-    if (st == PW_OK) {
-        st = pw_azeotrope_find(&fit.sys, mode, fixed, NULL, &r);
-        if (st != PW_OK)
-            pw_error_set(err, st, fit_where(fit_path, name), 0,
-                         "azeotrope search failed near x1 = %.4g: %s", r.fail_x1, pw_strerror(st));
-    }
     pw_three_phase tp;
     memset(&tp, 0, sizeof tp);
-    if (st == PW_OK) {
-        st = pw_azeotrope_heterogeneous(&fit.sys, (int)mode, fixed, &r, &tp, NULL);
-        if (st != PW_OK)
-            pw_error_set(err, st, fit_where(fit_path, name), 0,
-                         "three-phase (two liquids and vapor) search failed: %s", pw_strerror(st));
-    }
+    if (st == PW_OK)
+        st = pw_azeotrope_solve(&fit.sys, mode, fixed, fit_where(fit_path, name), &r, &tp, NULL,
+                                err);
     bool unc = false;
     pw_unc_options uo;
     pw_unc_result res[PW_AZ_MAX];

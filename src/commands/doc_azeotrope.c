@@ -2,6 +2,7 @@
  * src/cli/analysis_common.c). */
 #include <pinchwise/commands.h>
 #include <pinchwise/lle.h>
+#include <string.h>
 
 json_t *pw_azeotrope_entry_json(const pw_azeotrope *az)
 {
@@ -108,4 +109,23 @@ json_t *pw_azeotrope_doc(const pw_system *sys, pw_az_mode mode, double fixed,
     json_object_set_new(o, "three_phase", three_phase_json(tp));
     json_object_set_new(o, "caution", json_string(pw_caution_text()));
     return o;
+}
+
+pw_status pw_azeotrope_solve(const pw_system *sys, pw_az_mode mode, double fixed,
+                             const char *where, pw_az_result *r, pw_three_phase *tp,
+                             size_t *n_removed, pw_error *err)
+{
+    memset(tp, 0, sizeof *tp);
+    if (n_removed)
+        *n_removed = 0;
+    pw_status st = pw_azeotrope_find(sys, mode, fixed, NULL, r);
+    if (st != PW_OK)
+        return pw_error_set(err, st, where, 0, "azeotrope search failed near x1 = %.4g: %s",
+                            r->fail_x1, pw_strerror(st));
+    st = pw_azeotrope_heterogeneous(sys, (int)mode, fixed, r, tp, n_removed);
+    if (st != PW_OK)
+        return pw_error_set(err, st, where, 0,
+                            "three-phase (two liquids and vapor) search failed: %s",
+                            pw_strerror(st));
+    return PW_OK;
 }
