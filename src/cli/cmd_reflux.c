@@ -95,7 +95,7 @@ pw_status cli_reflux(int argc, char **argv)
     if (rc != PW_OK)
         return cli_fail("reflux", &err);
     cli_reflux_uncert unc;
-    bool with_unc = a.uncertainty || a.n_extra;
+    bool with_unc = a.unc.on || a.n_compare;
     if (with_unc && (rc = cli_reflux_uncert_run(&a, &run, &unc, &err)) != PW_OK) {
         cli_reflux_run_free(&run);
         return cli_fail("reflux", &err);

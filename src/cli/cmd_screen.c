@@ -52,8 +52,7 @@ typedef struct args {
     bool uncertainty, exit_verdict;
     bool energy; /* --energy: R_min of the rough column also with energy balances */
     const char *components, *minimum;
-    const char *extra[4]; /* --samples N, --seed N for the uncertainty extension */
-    int n_extra;
+    cli_uncertainty unc; /* --uncertainty, --samples, --seed */
     pw_screen_options opt;
 } args;
 
@@ -108,16 +107,8 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
     a->exit_verdict = cli_has(&p, "--exit-verdict");
     a->components = cli_text(&p, "--components");
     a->minimum = cli_text(&p, "--minimum");
-    a->uncertainty = cli_uncertainty_get(&p).on;
-    /* for the uncertainty step, which reads them as reflux's */
-    static const char *const extra[] = {"--samples", "--seed"};
-    for (size_t k = 0; k < 2; k++) {
-        const char *v = cli_text(&p, extra[k]);
-        if (v) {
-            a->extra[a->n_extra++] = extra[k];
-            a->extra[a->n_extra++] = v;
-        }
-    }
+    a->unc = cli_uncertainty_get(&p);
+    a->uncertainty = a->unc.on;
     cli_targets tg;
     cli_targets_get(&p, &tg, NULL);
     a->P_Pa = tg.P_Pa, a->have_P = tg.have_P;
@@ -225,9 +216,7 @@ pw_status cli_screen(int argc, char **argv)
         ra.spec = (pw_column_spec){.xd = r.xd, .xb = r.xb, .zf = r.zf, .q = a.opt.q};
         ra.opt = pw_column_default_options();
         ra.uncertainty = true;
-        for (int k = 0; k < a.n_extra; k++)
-            ra.extra[k] = a.extra[k];
-        ra.n_extra = a.n_extra;
+        ra.unc = a.unc;
         run.fit = fit; /* borrowed: freed once below */
         run.P_Pa = a.P_Pa;
         run.spec = ra.spec;

@@ -254,7 +254,7 @@ pw_status cli_study(int argc, char **argv)
     step(a.uncertainty ? "propagating the uncertainty" : "no uncertainty asked for", 4);
     cli_reflux_uncert unc;
     memset(&unc, 0, sizeof unc);
-    if (ra.uncertainty || ra.n_extra) {
+    if (ra.unc.on || ra.n_compare) {
         if ((rc = cli_reflux_uncert_run(&ra, &run, &unc, &err)) != PW_OK) {
             cli_reflux_run_free(&run);
             rc = cli_fail(CMD, &err);
@@ -353,7 +353,7 @@ pw_status cli_study(int argc, char **argv)
         json_object_set_new(o, "azeotropes_at_column_pressure",
                             az_col_ok ? az_json(&az_col) : json_null());
         json_t *rj = cli_reflux_json(&run);
-        if (ra.uncertainty || ra.n_extra)
+        if (ra.unc.on || ra.n_compare)
             cli_reflux_uncert_json(&unc, rj);
         json_object_set_new(o, "reflux", rj);
         json_object_set_new(o, "report", json_string(report_path));
@@ -391,7 +391,7 @@ pw_status cli_study(int argc, char **argv)
                        i + 1 < c->n_design ? "," : "");
             printf("\n");
         }
-        if (ra.uncertainty || ra.n_extra)
+        if (ra.unc.on || ra.n_compare)
             cli_reflux_uncert_print(&unc, &run);
         printf("  report                %s\n", report_path);
         printf("\n  Screening estimate only: verify with rigorous simulation and pilot data; size\n"

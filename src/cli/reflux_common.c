@@ -65,20 +65,14 @@ pw_status cli_reflux_args_from(const cli_args *p, const char *fit_path, cli_refl
         a->opt.n_factors = v->n_list;
         memcpy(a->opt.factors, v->list, v->n_list * sizeof v->list[0]);
     }
-    /* the uncertainty step (reflux_uncert.c) reads these pairs */
+    /* the uncertainty step (reflux_uncert.c) takes these as parsed */
     a->uncertainty = cli_has(p, "--uncertainty");
-    static const char *const extra[] = {"--samples", "--seed"};
-    for (size_t k = 0; k < 2; k++)
-        if ((v = cli_get(p, extra[k]))) {
-            a->extra[a->n_extra++] = extra[k];
-            a->extra[a->n_extra++] = v->text;
-        }
+    a->unc = cli_uncertainty_get(p);
     for (v = cli_next(p, "--compare", NULL); v; v = cli_next(p, "--compare", v)) {
-        if (a->n_extra + 2 > (int)(sizeof a->extra / sizeof a->extra[0]))
+        if (a->n_compare == CLI_MAX_COMPARE)
             return pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
-                                (int)(sizeof a->extra / sizeof a->extra[0]) / 2 - 2);
-        a->extra[a->n_extra++] = "--compare";
-        a->extra[a->n_extra++] = v->text;
+                                CLI_MAX_COMPARE);
+        a->compare[a->n_compare++] = v->text;
     }
     cli_targets tg;
     cli_targets_get(p, &tg, a->given);

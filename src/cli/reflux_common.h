@@ -11,6 +11,8 @@
 
 #include "cli_options.h"
 
+#define CLI_MAX_COMPARE 8
+
 typedef struct cli_reflux_args {
     const char *fit_path;
     const char *components; /* --components FILE: replaces vapor-pressure rows */
@@ -22,13 +24,15 @@ typedef struct cli_reflux_args {
     bool have_P, have_xd, have_xb, have_zf;
     pw_basis basis[3]; /* of xd, xb, zf as given; converted to mole fractions in cli_reflux_compute */
     const char *given[3]; /* xd, xb, zf as typed, for the text output */
-    /* options other commands add; unknown ones are rejected */
-    bool uncertainty;
+    /* the uncertainty block (--uncertainty, --samples, --seed; samples or seed imply it) and the
+     * fits of the same data given with --compare */
+    cli_uncertainty unc;
+    size_t n_compare;
+    const char *compare[CLI_MAX_COMPARE];
+    bool uncertainty; /* --uncertainty itself was given (the warnings then do not suggest it) */
     bool exit_verdict; /* --exit-verdict: status 7 for an infeasible split */
     const char *minimum; /* --minimum N as given, or NULL */
     bool help;           /* --help was asked for: nothing else is set */
-    const char *extra[20];
-    int n_extra;
 } cli_reflux_args;
 
 typedef struct cli_reflux_run {

@@ -9,48 +9,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define MAX_SAMPLES 100000
-
-static pw_status whole_number(const char *opt, const char *v, double lo, double hi, double *out,
-                        pw_error *err)
-{
-    if (cli_number(opt, v, out, err) != PW_OK)
-        return PW_EINVAL;
-    if (*out != floor(*out) || *out < lo || *out > hi) {
-        pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected a whole number from %.0f to %.0f",
-                     opt, v, lo, hi);
-        return PW_EINVAL;
-    }
-    return PW_OK;
-}
-
-static pw_status parse_extra(const cli_reflux_args *a, cli_reflux_uncert *u, pw_error *err)
-{
-    for (int i = 0; i + 1 < a->n_extra; i += 2) {
-        const char *opt = a->extra[i], *v = a->extra[i + 1];
-        double d;
-        if (!strcmp(opt, "--samples")) {
-            if (whole_number(opt, v, 0.0, MAX_SAMPLES, &d, err))
-                return PW_EINVAL;
-            u->opt.samples = (size_t)d;
-            u->propagate = true;
-        } else if (!strcmp(opt, "--seed")) {
-            if (whole_number(opt, v, 0.0, 4294967295.0, &d, err))
-                return PW_EINVAL;
-            u->opt.seed = (unsigned long)d;
-            u->propagate = true;
-        } else if (!strcmp(opt, "--compare")) {
-            if (u->n_compare == CLI_MAX_COMPARE) {
-                pw_error_set(err, PW_EINVAL, NULL, 0, "--compare: at most %d fit files",
-                             CLI_MAX_COMPARE);
-                return PW_EINVAL;
-            }
-            u->compare_paths[u->n_compare++] = v;
-        }
-    }
-    return PW_OK;
-}
-
 static pw_status compare_models(const cli_reflux_args *a, const cli_reflux_run *run, cli_reflux_uncert *u,
                           pw_error *err)
 {
@@ -91,10 +49,13 @@ pw_status cli_reflux_uncert_run(const cli_reflux_args *a, const cli_reflux_run *
 {
     memset(u, 0, sizeof *u);
     u->opt = pw_unc_default_options();
-    u->propagate = a->uncertainty;
-    pw_status rc = parse_extra(a, u, err);
-    if (rc != PW_OK)
-        return rc;
+    u->propagate = a->unc.on;
+    if (a->unc.have_samples)
+        u->opt.samples = (size_t)a->unc.samples;
+    if (a->unc.have_seed)
+        u->opt.seed = (unsigned long)a->unc.seed;
+    u->n_compare = a->n_compare;
+    memcpy(u->compare_paths, a->compare, a->n_compare * sizeof a->compare[0]);
     u->col = pw_unc_column_ctx_make(run->P_Pa, &run->spec);
     u->col.opt = a->opt;
     if (run->energy)

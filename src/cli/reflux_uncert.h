@@ -9,7 +9,6 @@
 #include <jansson.h>
 #include <pinchwise/uncertainty.h>
 
-#define CLI_MAX_COMPARE 8
 
 typedef struct cli_reflux_uncert {
     bool propagate;          /* --uncertainty (or --samples / --seed) given */
@@ -24,7 +23,7 @@ typedef struct cli_reflux_uncert {
     char paths[CLI_MAX_COMPARE + 1][PW_PATH_MAX];
 } cli_reflux_uncert;
 
-/* Reads --samples/--seed/--compare from a->extra and runs what was asked for. PW_OK or the
+/* Runs what a's uncertainty options and --compare fits ask for. PW_OK or the
  * status with err filled. */
 pw_status cli_reflux_uncert_run(const cli_reflux_args *a, const cli_reflux_run *run, cli_reflux_uncert *u,
                          pw_error *err);
