@@ -21,6 +21,7 @@
 #include <math.h>
 #include <pinchwise/column_direction.h>
 #include <pinchwise/curve.h>
+#include <pinchwise/lle.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -696,6 +697,33 @@ static pw_status rmin_search(en *c, size_t grid, double rtol, pw_energy_result *
     return e_bubble(c, out->pinch.x, &out->pinch.y, &T);
 }
 
+/* A stage whose liquid lies inside the two-liquid region holds two layers, whose enthalpy (the
+ * layers' enthalpies weighted by the lever rule) the energy column does not model yet: refused
+ * with a reason (PW_ERANGE) when the column's liquids, between its products, reach into the
+ * layers' gap at the three-phase temperature, where every liquid of the gap boils at the column
+ * pressure. Models that cannot split are not checked. Every caller (reflux, screen, report, the
+ * uncertainty draws) gets the refusal, since it is made here. */
+static pw_status two_liquids(const pw_system *sys, double P_Pa, const pw_column_spec *spec,
+                                    pw_energy_result *energy)
+{
+    if (!pw_model_can_split(sys->model))
+        return PW_OK;
+    pw_three_phase tp;
+    pw_status st = pw_three_phase_at_P(sys, P_Pa, &tp);
+    if (st != PW_OK)
+        return st;
+    const double lo = fmin(spec->xb, spec->xd), hi = fmax(spec->xb, spec->xd);
+    if (!tp.exists || !(lo < tp.x[1] && hi > tp.x[0]))
+        return PW_OK;
+    energy->feasible = false;
+    snprintf(energy->reason, sizeof energy->reason,
+             "liquids x1 %.4g to %.4g reach into the two-liquid region (layers %.4f, %.4f at "
+             "%.2f K): a stage there holds two liquids, whose enthalpy --energy does not model "
+             "yet (the decanter scheme applies)",
+             lo, hi, tp.x[0], tp.x[1], tp.T_K);
+    return PW_ERANGE;
+}
+
 pw_status pw_energy_column_solve(const pw_system *sys, const pw_heat_data *heat, double P_Pa,
                                  const pw_column_spec *spec, const pw_column_options *opt,
                                  pw_energy_result *out, pw_design_table *design)
@@ -732,6 +760,9 @@ pw_status pw_energy_column_solve(const pw_system *sys, const pw_heat_data *heat,
         return st;
     }
     out->n_min = col.n_min;
+    st = two_liquids(sys, P_Pa, spec, out);
+    if (st != PW_OK)
+        return st;
     en c;
     st = en_init(&c, sys, heat, P_Pa, spec, bottoms(spec));
     if (st == PW_OK) {

@@ -2,35 +2,8 @@
 #include <math.h>
 #include <pinchwise/commands.h>
 #include <pinchwise/design_doc.h>
-#include <pinchwise/lle.h>
 #include <stdio.h>
 #include <string.h>
-
-/* A stage whose liquid lies inside the two-liquid region holds two layers, whose enthalpy (the
- * layers' enthalpies weighted by the lever rule) the energy column does not model yet: refused
- * with a reason (PW_ERANGE) when the column's liquids, between its products, reach into the
- * layers' gap at the three-phase temperature, where every liquid of the gap boils at the column
- * pressure. Models that cannot split are not checked. */
-static pw_status energy_two_liquids(const pw_system *sys, double P_Pa, const pw_column_spec *spec,
-                                    pw_energy_result *energy)
-{
-    if (!pw_model_can_split(sys->model))
-        return PW_OK;
-    pw_three_phase tp;
-    pw_status st = pw_three_phase_at_P(sys, P_Pa, &tp);
-    if (st != PW_OK)
-        return st;
-    const double lo = fmin(spec->xb, spec->xd), hi = fmax(spec->xb, spec->xd);
-    if (!tp.exists || !(lo < tp.x[1] && hi > tp.x[0]))
-        return PW_OK;
-    energy->feasible = false;
-    snprintf(energy->reason, sizeof energy->reason,
-             "liquids x1 %.4g to %.4g reach into the two-liquid region (layers %.4f, %.4f at "
-             "%.2f K): a stage there holds two liquids, whose enthalpy --energy does not model "
-             "yet; see pinchwise decanter",
-             lo, hi, tp.x[0], tp.x[1], tp.T_K);
-    return PW_ERANGE;
-}
 
 pw_status pw_reflux_design(const pw_system *sys, double P_Pa, const pw_column_spec *spec,
                            const pw_column_options *opt, const pw_column_result *col,
@@ -44,12 +17,8 @@ pw_status pw_reflux_design(const pw_system *sys, double P_Pa, const pw_column_sp
         design->balance = PW_BALANCE_ENERGY;
         if (!energy)
             return PW_EINVAL;
-        if (col->feasible) {
-            pw_status st = energy_two_liquids(sys, P_Pa, spec, energy);
-            if (st != PW_OK)
-                return st;
+        if (col->feasible)
             return pw_energy_column_solve(sys, heat, P_Pa, spec, opt, energy, design);
-        }
         energy->feasible = false;
         snprintf(energy->reason, sizeof energy->reason, "%s", col->reason);
         return PW_OK;

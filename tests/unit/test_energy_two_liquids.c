@@ -53,6 +53,12 @@ static void test_gap_refused(void **state)
     assert_false(e.feasible);
     assert_non_null(strstr(e.reason, "two-liquid region"));
     print_message("refused: %s\n", e.reason);
+    /* the energy solver itself refuses (screen, report and the uncertainty draws call it
+     * directly, not through pw_reflux_design) */
+    pw_energy_result e2;
+    assert_int_equal(pw_energy_column_solve(&sys, &h, P_PA, &into, NULL, &e2, NULL), PW_ERANGE);
+    assert_false(e2.feasible);
+    assert_non_null(strstr(e2.reason, "two-liquid region"));
 }
 
 int main(void)
