@@ -2,7 +2,7 @@
 #include "azeo_uncert.h"
 
 #include "cli.h"
-#include "reflux_uncert.h"
+#include "column_uncert.h"
 
 #include <math.h>
 #include <stdio.h>

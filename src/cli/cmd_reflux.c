@@ -2,8 +2,8 @@
  * table at 1.2, 1.3 and 1.5 times R_min, for a fitted model at a pressure. */
 #include "cli.h"
 #include "cli_units.h"
-#include "reflux_common.h"
-#include "reflux_uncert.h"
+#include "column_common.h"
+#include "column_uncert.h"
 #include "design_out.h"
 
 #include <math.h>
@@ -18,18 +18,18 @@ static const char *section(pw_section s)
 }
 
 /* With --energy the headline numbers are the energy balance's (pw_energy_headline). */
-static pw_column_result headline(const cli_reflux_run *run)
+static pw_column_result headline(const cli_column_run *run)
 {
     return pw_energy_headline(&run->col, run->energy ? &run->energy_res : NULL);
 }
 
-json_t *cli_reflux_json(const cli_reflux_run *run)
+json_t *cli_column_json(const cli_column_run *run)
 {
     return pw_reflux_design_doc(&run->col, &run->design, run->energy ? &run->energy_res : NULL,
                                 run->P_Pa, &run->spec, run->T_top_K, run->T_bottom_K);
 }
 
-static void print_table(const cli_reflux_run *run)
+static void print_table(const cli_column_run *run)
 {
     const pw_column_result view = headline(run);
     const pw_column_result *c = &view;
@@ -80,7 +80,7 @@ static void print_table(const cli_reflux_run *run)
 
 pw_status cli_reflux(int argc, char **argv)
 {
-    cli_reflux_args a;
+    cli_column_args a;
     pw_error err;
     pw_error_clear(&err);
     if (cli_reflux_parse_args(argc, argv, &a, &err) != PW_OK)
@@ -90,32 +90,32 @@ pw_status cli_reflux(int argc, char **argv)
         return PW_OK;
     }
     pw_status rc;
-    cli_reflux_run run;
-    rc = cli_reflux_compute(&a, &run, &err);
+    cli_column_run run;
+    rc = cli_column_compute(&a, &run, &err);
     if (rc != PW_OK)
         return cli_fail("reflux", &err);
-    cli_reflux_uncert unc;
+    cli_column_uncert unc;
     bool with_unc = a.unc.on || a.n_compare;
-    if (with_unc && (rc = cli_reflux_uncert_run(&a, &run, &unc, &err)) != PW_OK) {
-        cli_reflux_run_free(&run);
+    if (with_unc && (rc = cli_column_uncert_run(&a, &run, &unc, &err)) != PW_OK) {
+        cli_column_run_free(&run);
         return cli_fail("reflux", &err);
     }
     run.with_uncertainty = a.uncertainty;
-    cli_reflux_warn(&run);
+    cli_column_warn(&run);
     if (a.json) {
-        json_t *o = cli_reflux_json(&run);
+        json_t *o = cli_column_json(&run);
         if (run.minimum)
             json_object_set_new(o, "minimum", json_integer((json_int_t)run.minimum));
         if (with_unc)
-            cli_reflux_uncert_json(&unc, o);
+            cli_column_uncert_json(&unc, o);
         rc = cli_print_json(o);
     } else {
         print_table(&run);
         if (with_unc)
-            cli_reflux_uncert_print(&unc, &run);
+            cli_column_uncert_print(&unc, &run);
     }
     bool infeasible = !run.col.feasible || (run.energy && !run.energy_res.feasible);
-    cli_reflux_run_free(&run);
+    cli_column_run_free(&run);
     if (rc == PW_OK && a.exit_verdict && infeasible)
         rc = PW_EINFEASIBLE;
     return rc;

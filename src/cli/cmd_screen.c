@@ -3,7 +3,7 @@
 #include "cli.h"
 #include "cli_units.h"
 #include "cli_options.h"
-#include "reflux_uncert.h"
+#include "column_uncert.h"
 
 #include <math.h>
 #include <pinchwise/design_doc.h>
@@ -201,15 +201,15 @@ pw_status cli_screen(int argc, char **argv)
     cli_warn_fit(CMD, &fit);
     cli_warn_T_range(CMD, &fit, r.T_lo_K, r.T_hi_K, "the temperatures used");
     /* --uncertainty: the reflux command's propagation, for the screen's rough column (q = 1). */
-    cli_reflux_uncert u;
-    cli_reflux_run run;
+    cli_column_uncert u;
+    cli_column_run run;
     memset(&u, 0, sizeof u);
     memset(&run, 0, sizeof run);
     bool unc = a.uncertainty && r.column_ran;
     if (a.uncertainty && !r.column_ran)
         cli_warnf(CMD, "no column was solved for this split, so there is nothing to propagate");
     if (unc) {
-        cli_reflux_args ra;
+        cli_column_args ra;
         memset(&ra, 0, sizeof ra);
         ra.fit_path = a.fit_path;
         ra.P_Pa = a.P_Pa;
@@ -221,7 +221,7 @@ pw_status cli_screen(int argc, char **argv)
         run.P_Pa = a.P_Pa;
         run.spec = ra.spec;
         run.col = r.column;
-        if ((rc = cli_reflux_uncert_run(&ra, &run, &u, &err)) != PW_OK) {
+        if ((rc = cli_column_uncert_run(&ra, &run, &u, &err)) != PW_OK) {
             pw_fit_result_free(&fit);
             return cli_fail(CMD, &err);
         }
@@ -253,7 +253,7 @@ pw_status cli_screen(int argc, char **argv)
         if (minimum)
             json_object_set_new(j, "minimum", json_integer((json_int_t)minimum));
         if (unc)
-            cli_reflux_uncert_json(&u, j);
+            cli_column_uncert_json(&u, j);
         rc = cli_print_json(j);
     } else {
         print_text(&fit, &r);
@@ -264,7 +264,7 @@ pw_status cli_screen(int argc, char **argv)
         else if (with_energy)
             printf("  with energy balances: %s\n", en.reason);
         if (unc)
-            cli_reflux_uncert_print(&u, &run);
+            cli_column_uncert_print(&u, &run);
         rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     pw_fit_result_free(&fit);

@@ -12,8 +12,8 @@
 #include "cli_units.h"
 #include "cli_options.h"
 #include "fit_common.h"
-#include "reflux_common.h"
-#include "reflux_uncert.h"
+#include "column_common.h"
+#include "column_uncert.h"
 
 #include <errno.h>
 #include <math.h>
@@ -66,7 +66,7 @@ typedef struct study_args {
     bool help; /* --help was asked for: nothing else is set */
     const char *data, *model_name, *out_dir, *components;
     bool json, force, uncertainty, exit_verdict;
-    cli_args opts; /* the column options, read again by cli_reflux_args_from */
+    cli_args opts; /* the column options, read again by cli_column_args_from */
 } study_args;
 
 /* PW_OK (a->help set when --help was asked for), or PW_EINVAL with err filled. */
@@ -176,8 +176,8 @@ pw_status cli_study(int argc, char **argv)
                             "unknown model '%s' (expected one of %s)", a.model_name,
                             pw_model_names(names, sizeof names));
     /* the column options are checked before any work, by the reflux parser itself */
-    cli_reflux_args ra;
-    if (cli_reflux_args_from(&a.opts, a.data /* a placeholder */, &ra, &err) != PW_OK)
+    cli_column_args ra;
+    if (cli_column_args_from(&a.opts, a.data /* a placeholder */, &ra, &err) != PW_OK)
         return cli_fail(CMD, &err);
     if (mkdir(a.out_dir, 0755) != 0 && errno != EEXIST)
         return cli_failf(CMD, PW_EIO, "%s: cannot create the folder",
@@ -244,19 +244,19 @@ pw_status cli_study(int argc, char **argv)
 
     /* 3. the column, 4. its uncertainty */
     step("solving the column", 3);
-    cli_reflux_args_from(&a.opts, chosen->path, &ra, &err);
+    cli_column_args_from(&a.opts, chosen->path, &ra, &err);
     ra.components = a.components;
-    cli_reflux_run run;
-    if ((rc = cli_reflux_compute(&ra, &run, &err)) != PW_OK) {
+    cli_column_run run;
+    if ((rc = cli_column_compute(&ra, &run, &err)) != PW_OK) {
         rc = cli_fail(CMD, &err);
         goto out;
     }
     step(a.uncertainty ? "propagating the uncertainty" : "no uncertainty asked for", 4);
-    cli_reflux_uncert unc;
+    cli_column_uncert unc;
     memset(&unc, 0, sizeof unc);
     if (ra.unc.on || ra.n_compare) {
-        if ((rc = cli_reflux_uncert_run(&ra, &run, &unc, &err)) != PW_OK) {
-            cli_reflux_run_free(&run);
+        if ((rc = cli_column_uncert_run(&ra, &run, &unc, &err)) != PW_OK) {
+            cli_column_run_free(&run);
             rc = cli_fail(CMD, &err);
             goto out;
         }
@@ -286,7 +286,7 @@ pw_status cli_study(int argc, char **argv)
             *dot = '\0';
         if (snprintf(report_path, sizeof report_path, "%s/%s.report.html", a.out_dir, stem) >=
             (int)sizeof report_path) {
-            cli_reflux_run_free(&run);
+            cli_column_run_free(&run);
             rc = cli_failf(CMD, PW_EINVAL, "output path too long");
             goto out;
         }
@@ -316,12 +316,12 @@ pw_status cli_study(int argc, char **argv)
         st = pw_report_save_html(rep, report_path, a.force, &err);
     pw_report_free(rep);
     if (st != PW_OK) {
-        cli_reflux_run_free(&run);
+        cli_column_run_free(&run);
         rc = cli_fail(CMD, &err);
         goto out;
     }
 
-    cli_reflux_warn(&run);
+    cli_column_warn(&run);
     if (a.json) {
         json_t *o = json_object();
         json_object_set_new(o, "dataset", json_string(a.data));
@@ -352,9 +352,9 @@ pw_status cli_study(int argc, char **argv)
                             az_data_ok ? az_json(&az_data) : json_null());
         json_object_set_new(o, "azeotropes_at_column_pressure",
                             az_col_ok ? az_json(&az_col) : json_null());
-        json_t *rj = cli_reflux_json(&run);
+        json_t *rj = cli_column_json(&run);
         if (ra.unc.on || ra.n_compare)
-            cli_reflux_uncert_json(&unc, rj);
+            cli_column_uncert_json(&unc, rj);
         json_object_set_new(o, "reflux", rj);
         json_object_set_new(o, "report", json_string(report_path));
         rc = cli_print_json(o);
@@ -392,7 +392,7 @@ pw_status cli_study(int argc, char **argv)
             printf("\n");
         }
         if (ra.unc.on || ra.n_compare)
-            cli_reflux_uncert_print(&unc, &run);
+            cli_column_uncert_print(&unc, &run);
         printf("  report                %s\n", report_path);
         printf("\n  Screening estimate only: verify with rigorous simulation and pilot data; size\n"
                "  equipment and relief per local codes under licensed engineering review.\n");
@@ -400,7 +400,7 @@ pw_status cli_study(int argc, char **argv)
     }
     if (rc == PW_OK && a.exit_verdict && (!run.col.feasible || !cr.consistent))
         rc = PW_EINFEASIBLE;
-    cli_reflux_run_free(&run);
+    cli_column_run_free(&run);
 out:
     for (size_t i = 0; i < n_models; i++)
         if (fits[i].rc == 0)

@@ -1,6 +1,6 @@
 /* The reflux command's uncertainty options: design results under the fit's parameter
  * uncertainty, the feasibility risk, where to measure next, and other models of the same data. */
-#include "reflux_uncert.h"
+#include "column_uncert.h"
 
 #include "cli.h"
 
@@ -9,7 +9,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-static pw_status compare_models(const cli_reflux_args *a, const cli_reflux_run *run, cli_reflux_uncert *u,
+static pw_status compare_models(const cli_column_args *a, const cli_column_run *run, cli_column_uncert *u,
                           pw_error *err)
 {
     pw_fit_result *fits = calloc(u->n_compare, sizeof *fits);
@@ -44,7 +44,7 @@ static pw_status compare_models(const cli_reflux_args *a, const cli_reflux_run *
     return st == PW_OK ? 0 : st;
 }
 
-pw_status cli_reflux_uncert_run(const cli_reflux_args *a, const cli_reflux_run *run, cli_reflux_uncert *u,
+pw_status cli_column_uncert_run(const cli_column_args *a, const cli_column_run *run, cli_column_uncert *u,
                          pw_error *err)
 {
     memset(u, 0, sizeof *u);
@@ -107,7 +107,7 @@ static const char *class_name(pw_unc_model_class c)
     }
 }
 
-static json_t *models_json(const cli_reflux_uncert *u)
+static json_t *models_json(const cli_column_uncert *u)
 {
     const pw_unc_models *m = &u->models;
     json_t *j = json_object(), *rows = json_array();
@@ -144,7 +144,7 @@ static json_t *models_json(const cli_reflux_uncert *u)
     return j;
 }
 
-void cli_reflux_uncert_json(const cli_reflux_uncert *u, json_t *o)
+void cli_column_uncert_json(const cli_column_uncert *u, json_t *o)
 {
     if (u->propagate)
         pw_reflux_unc_doc(o, &u->res, &u->opt, u->col.factor, u->plan_status, &u->plan);
@@ -165,7 +165,7 @@ static void print_output(const char *label, const pw_unc_output *o)
                "parameters over this range\n", "", o->ci_lin[0], o->ci_lin[1]);
 }
 
-void cli_reflux_uncert_print(const cli_reflux_uncert *u, const cli_reflux_run *run)
+void cli_column_uncert_print(const cli_column_uncert *u, const cli_column_run *run)
 {
     (void)run;
     char words[PW_REASON_MAX * 2];

@@ -1,4 +1,4 @@
-#include "reflux_common.h"
+#include "column_common.h"
 
 #include "cli.h"
 #include "cli_units.h"
@@ -46,7 +46,7 @@ const cli_spec cli_reflux_spec = {
     .positional = "one fit file",
 };
 
-pw_status cli_reflux_args_from(const cli_args *p, const char *fit_path, cli_reflux_args *a,
+pw_status cli_column_args_from(const cli_args *p, const char *fit_path, cli_column_args *a,
                               pw_error *err)
 {
     memset(a, 0, sizeof *a);
@@ -65,7 +65,7 @@ pw_status cli_reflux_args_from(const cli_args *p, const char *fit_path, cli_refl
         a->opt.n_factors = v->n_list;
         memcpy(a->opt.factors, v->list, v->n_list * sizeof v->list[0]);
     }
-    /* the uncertainty step (reflux_uncert.c) takes these as parsed */
+    /* the uncertainty step (column_uncert.c) takes these as parsed */
     a->uncertainty = cli_has(p, "--uncertainty");
     a->unc = cli_uncertainty_get(p);
     for (v = cli_next(p, "--compare", NULL); v; v = cli_next(p, "--compare", v)) {
@@ -87,14 +87,14 @@ pw_status cli_reflux_args_from(const cli_args *p, const char *fit_path, cli_refl
     return PW_OK;
 }
 
-pw_status cli_reflux_parse_args(int argc, char **argv, cli_reflux_args *a, pw_error *err)
+pw_status cli_reflux_parse_args(int argc, char **argv, cli_column_args *a, pw_error *err)
 {
     cli_args p;
     memset(a, 0, sizeof *a);
     pw_status st = cli_parse(&cli_reflux_spec, argc, argv, &p, err);
     if (st != PW_OK || (a->help = p.help))
         return st;
-    return cli_reflux_args_from(&p, p.n_pos ? p.pos[0] : NULL, a, err);
+    return cli_column_args_from(&p, p.n_pos ? p.pos[0] : NULL, a, err);
 }
 
 /* The targets in mole fractions: xb < zf < xd, or xd < zf < xb (component 1 to the bottoms). */
@@ -111,7 +111,7 @@ static pw_status check_targets(const pw_column_spec *s, pw_error *err)
     return PW_OK;
 }
 
-pw_status cli_reflux_compute(const cli_reflux_args *a, cli_reflux_run *run, pw_error *err)
+pw_status cli_column_compute(const cli_column_args *a, cli_column_run *run, pw_error *err)
 {
     memset(run, 0, sizeof *run);
     pw_status st = cli_read_fit("reflux", a->fit_path, a->components, &run->fit, err);
@@ -162,13 +162,13 @@ pw_status cli_reflux_compute(const cli_reflux_args *a, cli_reflux_run *run, pw_e
     return PW_OK;
 }
 
-void cli_reflux_run_free(cli_reflux_run *run)
+void cli_column_run_free(cli_column_run *run)
 {
     pw_design_table_free(&run->design);
     pw_fit_result_free(&run->fit);
 }
 
-void cli_reflux_warn(const cli_reflux_run *run)
+void cli_column_warn(const cli_column_run *run)
 {
     const pw_fit_result *r = &run->fit;
     double Ts[2] = {run->T_top_K, run->T_bottom_K};
