@@ -295,6 +295,11 @@ json_t *pw_fitfile_to_json(const pw_fit_result *r)
     return fitfile_json(r, true);
 }
 
+json_t *pw_fitfile_json_without_points(const pw_fit_result *r)
+{
+    return fitfile_json(r, false);
+}
+
 /* The file's text is the dump of pw_fitfile_to_json (indent 1, reals in their shortest round
  * trip: 0.8, not 0.80000000000000004) with a final newline. The points are most of it (about 300
  * bytes each, and ten times that as a jansson tree), so they are not built as a tree: the rest is
@@ -381,7 +386,7 @@ static pw_status emit_points(const pw_fit_result *r, size_t pad, pw_outset_emit 
 static pw_status fitfile_emit(void *ctx, pw_outset_emit emit, void *sink)
 {
     const pw_fit_result *r = ctx;
-    json_t *o = fitfile_json(r, false);
+    json_t *o = pw_fitfile_json_without_points(r);
     char *full = o ? json_dumps(o, JSON_INDENT(1) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER)
                    : NULL;
     json_decref(o);
