@@ -67,6 +67,16 @@ pw_status pw_outset_mkdir(pw_outset *s, const char *dir, pw_error *err);
 pw_status pw_outset_add(pw_outset *s, const char *path, const char *text, size_t len,
                         pw_error *err);
 
+/* The same as _add for a text made piece by piece, so that no whole copy of a large file needs
+ * to be held: produce(ctx, emit, sink) is called once and passes its pieces in order to
+ * emit(sink, piece, len) (which returns PW_EIO when writing failed; produce should then stop and
+ * return it); the file is their concatenation. A status other than PW_OK from produce drops the
+ * file and is returned (PW_EIO after a failed write names the system's reason). */
+typedef pw_status (*pw_outset_emit)(void *sink, const char *text, size_t len);
+typedef pw_status (*pw_outset_producer)(void *ctx, pw_outset_emit emit, void *sink);
+pw_status pw_outset_add_stream(pw_outset *s, const char *path, pw_outset_producer produce,
+                               void *ctx, pw_error *err);
+
 /* Moves every added file into place, all or none (see above). After a failure the set is as if
  * nothing had been added. Committing an empty set is PW_OK. */
 pw_status pw_outset_commit(pw_outset *s, pw_error *err);

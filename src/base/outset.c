@@ -222,8 +222,69 @@ static void drop_temp(const pw_outset *s, char **name)
     *name = NULL;
 }
 
+/* Where a producer's pieces go: a buffer in front of the temporary file, so that many small
+ * pieces cost few system calls and no piece is kept after it was written. */
+#define SINK_BUF 65536
+
+typedef struct file_sink {
+    int fd;
+    char *buf;
+    size_t n;
+    int saved; /* errno of the first failed write */
+} file_sink;
+
+static pw_status sink_flush(file_sink *k)
+{
+    if (k->n == 0)
+        return PW_OK;
+    pw_status st = write_all(k->fd, k->buf, k->n);
+    if (st != PW_OK)
+        k->saved = errno;
+    k->n = 0;
+    return st;
+}
+
+static pw_status sink_emit(void *sink, const char *text, size_t len)
+{
+    file_sink *k = sink;
+    if (k->saved)
+        return PW_EIO;
+    if (k->n + len > SINK_BUF) {
+        if (sink_flush(k) != PW_OK)
+            return PW_EIO;
+        if (len >= SINK_BUF) { /* a large piece goes straight through */
+            if (write_all(k->fd, text, len) != PW_OK) {
+                k->saved = errno;
+                return PW_EIO;
+            }
+            return PW_OK;
+        }
+    }
+    memcpy(k->buf + k->n, text, len);
+    k->n += len;
+    return PW_OK;
+}
+
+typedef struct whole_text {
+    const char *text;
+    size_t len;
+} whole_text;
+
+static pw_status emit_whole(void *ctx, pw_outset_emit emit, void *sink)
+{
+    const whole_text *w = ctx;
+    return emit(sink, w->text, w->len);
+}
+
 pw_status pw_outset_add(pw_outset *s, const char *path, const char *text, size_t len,
                         pw_error *err)
+{
+    whole_text w = {text, len};
+    return pw_outset_add_stream(s, path, emit_whole, &w, err);
+}
+
+pw_status pw_outset_add_stream(pw_outset *s, const char *path, pw_outset_producer produce,
+                               void *ctx, pw_error *err)
 {
     pw_status st = pw_outset_check(s, path, err);
     if (st != PW_OK)
@@ -259,8 +320,12 @@ pw_status pw_outset_add(pw_outset *s, const char *path, const char *text, size_t
         return pw_error_set(err, PW_EIO, path, 0, "cannot create a file beside it: %s",
                             strerror(saved));
     }
-    st = write_all(fd, text, len);
-    saved = errno;
+    file_sink k = {.fd = fd, .buf = malloc(SINK_BUF)};
+    st = k.buf ? produce(ctx, sink_emit, &k) : PW_ENOMEM;
+    if (st == PW_OK)
+        st = sink_flush(&k);
+    free(k.buf);
+    saved = k.saved;
     if (st == PW_OK && fsync(fd) != 0) {
         st = PW_EIO;
         saved = errno;
@@ -272,7 +337,10 @@ pw_status pw_outset_add(pw_outset *s, const char *path, const char *text, size_t
     if (st != PW_OK) {
         drop_temp(s, &e.tmp);
         free(e.target);
-        return pw_error_set(err, PW_EIO, path, 0, "write failed: %s", strerror(saved));
+        if (st == PW_EIO && saved)
+            return pw_error_set(err, PW_EIO, path, 0, "write failed: %s", strerror(saved));
+        return pw_error_set(err, st, path, 0, "%s",
+                            st == PW_ENOMEM ? "out of memory" : pw_strerror(st));
     }
     s->e[s->n++] = e;
     return PW_OK;

@@ -2,9 +2,11 @@
 #include <pinchwise/commands.h>
 #include <pinchwise/fitjson.h>
 
+#include "fit/fitfile_internal.h"
+
 json_t *pw_fit_doc(const pw_fit_result *r, const char *fit_file)
 {
-    json_t *o = pw_fitfile_to_json(r);
+    json_t *o = pw_fitfile_json_without_points(r); /* "data" goes: no need to build the points */
     json_object_del(o, "data");
     json_object_del(o, "component_data");
     json_object_del(o, "format");

@@ -20,4 +20,9 @@ bool pw_fitfile_read_convergence(const json_t *root, pw_fit_result *r, char *why
 pw_status pw_fitfile_check(const json_t *root, const pw_fit_result *r, const char *name,
                            pw_error *err);
 
+/* The fit file's document with a placeholder string where the points' array goes (for
+ * documents that leave the "data" block out, and for the writer, which writes the points
+ * itself). NULL on allocation failure. */
+json_t *pw_fitfile_json_without_points(const pw_fit_result *r);
+
 #endif

@@ -144,7 +144,30 @@ static json_t *convergence_json(const pw_fit_result *r)
     return c;
 }
 
-json_t *pw_fitfile_to_json(const pw_fit_result *r)
+/* The data points' array stands as this string in the document that fitfile_emit dumps. */
+#define POINTS_MARK "(the points are written here)"
+
+static json_t *point_json(const pw_fit_point *p)
+{
+    json_t *pj = json_object();
+    json_object_set_new(pj, "line", json_integer(p->meas.line));
+    json_object_set_new(pj, "x1", num(p->meas.x1));
+    json_object_set_new(pj, "y1", num(p->meas.y1));
+    json_object_set_new(pj, "T_K", num(p->meas.T_K));
+    json_object_set_new(pj, "P_Pa", num(p->meas.P_Pa));
+    json_object_set_new(pj, "excluded", json_boolean(p->excluded));
+    if (p->three_phase)
+        json_object_set_new(pj, "three_phase", json_true());
+    json_object_set_new(pj, "T_calc_K", num(p->T_calc_K));
+    json_object_set_new(pj, "P_calc_Pa", num(p->P_calc_Pa));
+    json_object_set_new(pj, "y1_calc", num(p->y_calc));
+    json_object_set_new(pj, "ln_gamma1_exp", num(p->lngamma_exp[0]));
+    json_object_set_new(pj, "ln_gamma2_exp", num(p->lngamma_exp[1]));
+    return pj;
+}
+
+/* with_points false: the points' array is the string POINTS_MARK. */
+static json_t *fitfile_json(const pw_fit_result *r, bool with_points)
 {
     const pw_model_type *m = r->sys.model;
     json_t *o = pw_fitfile_summary_json(r);
@@ -236,25 +259,9 @@ json_t *pw_fitfile_to_json(const pw_fit_result *r)
     json_object_set_new(data, "P_fixed_Pa", num(r->P_fixed_Pa));
     json_object_set_new(data, "T_fixed_K", num(r->T_fixed_K));
     json_object_set_new(data, "has_y", json_boolean(r->has_y));
-    json_t *pts = json_array();
-    for (size_t i = 0; i < r->n_pts; i++) {
-        const pw_fit_point *p = &r->pts[i];
-        json_t *pj = json_object();
-        json_object_set_new(pj, "line", json_integer(p->meas.line));
-        json_object_set_new(pj, "x1", num(p->meas.x1));
-        json_object_set_new(pj, "y1", num(p->meas.y1));
-        json_object_set_new(pj, "T_K", num(p->meas.T_K));
-        json_object_set_new(pj, "P_Pa", num(p->meas.P_Pa));
-        json_object_set_new(pj, "excluded", json_boolean(p->excluded));
-        if (p->three_phase)
-            json_object_set_new(pj, "three_phase", json_true());
-        json_object_set_new(pj, "T_calc_K", num(p->T_calc_K));
-        json_object_set_new(pj, "P_calc_Pa", num(p->P_calc_Pa));
-        json_object_set_new(pj, "y1_calc", num(p->y_calc));
-        json_object_set_new(pj, "ln_gamma1_exp", num(p->lngamma_exp[0]));
-        json_object_set_new(pj, "ln_gamma2_exp", num(p->lngamma_exp[1]));
-        json_array_append_new(pts, pj);
-    }
+    json_t *pts = with_points ? json_array() : json_string(POINTS_MARK);
+    for (size_t i = 0; with_points && i < r->n_pts; i++)
+        json_array_append_new(pts, point_json(&r->pts[i]));
     json_object_set_new(data, "points", pts);
     json_object_set_new(o, "data", data);
 
@@ -283,47 +290,148 @@ json_t *pw_fitfile_to_json(const pw_fit_result *r)
     return o;
 }
 
-/* The file's text (with a final newline), malloc'd. */
-static char *fitfile_text(const pw_fit_result *r, size_t *len)
+json_t *pw_fitfile_to_json(const pw_fit_result *r)
 {
-    json_t *o = pw_fitfile_to_json(r);
+    return fitfile_json(r, true);
+}
+
+json_t *pw_fitfile_json_without_points(const pw_fit_result *r)
+{
+    return fitfile_json(r, false);
+}
+
+/* The file's text is the dump of pw_fitfile_to_json (indent 1, reals in their shortest round
+ * trip: 0.8, not 0.80000000000000004) with a final newline. The points are most of it (about 300
+ * bytes each, and ten times that as a jansson tree), so they are not built as a tree: the rest is
+ * dumped with a marker in their place, and the points are formatted one at a time straight into
+ * the file, in the same layout (tests/unit/test_fitfile_stream.c compares the two). */
+
+static size_t put(char *buf, size_t n, const char *s)
+{
+    size_t k = strlen(s);
+    memcpy(buf + n, s, k);
+    return n + k;
+}
+
+static size_t put_spaces(char *buf, size_t n, size_t k)
+{
+    memset(buf + n, ' ', k);
+    return n + k;
+}
+
+/* ",\n<pad>\"key\": " (without the comma for the first key) */
+static size_t put_key(char *buf, size_t n, size_t pad, const char *key, bool first)
+{
+    n = put(buf, n, first ? "\n" : ",\n");
+    n = put_spaces(buf, n, pad);
+    n = put(buf, n, "\"");
+    n = put(buf, n, key);
+    return put(buf, n, "\": ");
+}
+
+static size_t put_num(char *buf, size_t n, double v)
+{
+    char tok[40];
+    return put(buf, n, isfinite(v) ? pw_json_format_real(v, tok, sizeof tok) : "null");
+}
+
+#define POINT_MAX_INDENT 64
+#define POINT_BUF 2048 /* 12 keys of at most 16 characters, 9 reals of at most 25, indents */
+
+/* One point as jansson dumps it at the depth whose lines start with pad + 1 spaces ("{" with
+ * its keys at pad + 2 and its "}" at pad + 1; pad is the indent of the "points" key). */
+static size_t point_text(char *buf, const pw_fit_point *p, size_t pad)
+{
+    char tok[32];
+    size_t n = put(buf, 0, "{");
+    n = put_key(buf, n, pad + 2, "line", true);
+    snprintf(tok, sizeof tok, "%" JSON_INTEGER_FORMAT, (json_int_t)p->meas.line);
+    n = put(buf, n, tok);
+    n = put_num(buf, put_key(buf, n, pad + 2, "x1", false), p->meas.x1);
+    n = put_num(buf, put_key(buf, n, pad + 2, "y1", false), p->meas.y1);
+    n = put_num(buf, put_key(buf, n, pad + 2, "T_K", false), p->meas.T_K);
+    n = put_num(buf, put_key(buf, n, pad + 2, "P_Pa", false), p->meas.P_Pa);
+    n = put(buf, put_key(buf, n, pad + 2, "excluded", false), p->excluded ? "true" : "false");
+    if (p->three_phase)
+        n = put(buf, put_key(buf, n, pad + 2, "three_phase", false), "true");
+    n = put_num(buf, put_key(buf, n, pad + 2, "T_calc_K", false), p->T_calc_K);
+    n = put_num(buf, put_key(buf, n, pad + 2, "P_calc_Pa", false), p->P_calc_Pa);
+    n = put_num(buf, put_key(buf, n, pad + 2, "y1_calc", false), p->y_calc);
+    n = put_num(buf, put_key(buf, n, pad + 2, "ln_gamma1_exp", false), p->lngamma_exp[0]);
+    n = put_num(buf, put_key(buf, n, pad + 2, "ln_gamma2_exp", false), p->lngamma_exp[1]);
+    n = put(buf, n, "\n");
+    n = put_spaces(buf, n, pad + 1);
+    return put(buf, n, "}");
+}
+
+static pw_status emit_points(const pw_fit_result *r, size_t pad, pw_outset_emit emit, void *sink)
+{
+    if (r->n_pts == 0)
+        return emit(sink, "[]", 2);
+    char buf[POINT_BUF];
+    pw_status st = emit(sink, "[", 1);
+    for (size_t i = 0; st == PW_OK && i < r->n_pts; i++) {
+        size_t n = put(buf, 0, i ? ",\n" : "\n");
+        n = put_spaces(buf, n, pad + 1);
+        st = emit(sink, buf, n);
+        if (st == PW_OK)
+            st = emit(sink, buf, point_text(buf, &r->pts[i], pad));
+    }
+    if (st != PW_OK)
+        return st;
+    size_t n = put_spaces(buf, put(buf, 0, "\n"), pad);
+    return emit(sink, buf, put(buf, n, "]"));
+}
+
+static pw_status fitfile_emit(void *ctx, pw_outset_emit emit, void *sink)
+{
+    const pw_fit_result *r = ctx;
+    json_t *o = pw_fitfile_json_without_points(r);
     char *full = o ? json_dumps(o, JSON_INDENT(1) | JSON_REAL_PRECISION(17) | JSON_PRESERVE_ORDER)
                    : NULL;
     json_decref(o);
-    char *text = pw_json_shortest_reals(full); /* 0.8, not 0.80000000000000004 */
+    char *text = pw_json_shortest_reals(full);
     free(full);
     if (!text)
-        return NULL;
-    *len = strlen(text);
-    char *withnl = realloc(text, *len + 2);
-    if (!withnl) {
-        free(text);
-        return NULL;
+        return PW_ENOMEM;
+    static const char key[] = "\"points\": \"" POINTS_MARK "\"";
+    char *at = strstr(text, key);
+    const char *line = at;
+    while (line && line > text && line[-1] == ' ')
+        line--;
+    size_t pad = at ? (size_t)(at - line) : 0;
+    pw_status st = PW_OK;
+    /* one marker alone on its line, or the layout is not the one assumed here (a bug) */
+    if (!at || line == text || line[-1] != '\n' || strstr(at + 1, key) || pad > POINT_MAX_INDENT)
+        st = PW_EINVAL;
+    if (st == PW_OK)
+        st = emit(sink, text, (size_t)(at - text) + strlen("\"points\": "));
+    if (st == PW_OK)
+        st = emit_points(r, pad, emit, sink);
+    if (st == PW_OK) {
+        const char *rest = at + strlen(key);
+        st = emit(sink, rest, strlen(rest));
     }
-    withnl[(*len)++] = '\n';
-    withnl[*len] = '\0';
-    return withnl;
+    if (st == PW_OK)
+        st = emit(sink, "\n", 1);
+    free(text);
+    return st;
 }
 
 pw_status pw_fitfile_stage(struct pw_outset *set, const char *path, const pw_fit_result *r,
                            pw_error *err)
 {
-    size_t len = 0;
-    char *text = fitfile_text(r, &len);
-    if (!text)
-        return pw_error_set(err, PW_ENOMEM, path, 0, "out of memory");
-    pw_status st = pw_outset_add(set, path, text, len, err);
-    free(text);
-    return st;
+    return pw_outset_add_stream(set, path, fitfile_emit, (void *)r, err);
 }
 
 pw_status pw_fitfile_write(const char *path, const pw_fit_result *r, bool force, pw_error *err)
 {
-    size_t len = 0;
-    char *text = fitfile_text(r, &len);
-    if (!text)
-        return pw_error_set(err, PW_ENOMEM, path, 0, "out of memory");
-    pw_status st = pw_atomic_write(path, text, len, force, err);
-    free(text);
+    pw_outset *s = NULL;
+    pw_status st = pw_outset_new(force, NULL, &s, err);
+    if (st == PW_OK)
+        st = pw_fitfile_stage(s, path, r, err);
+    if (st == PW_OK)
+        st = pw_outset_commit(s, err);
+    pw_outset_free(s);
     return st;
 }

@@ -332,6 +332,75 @@ static void long_fields_survive_every_chunking(void **state)
     free(text);
 }
 
+/* A file made piece by piece: small pieces, one larger than the writer's buffer, empty ones;
+ * the file is their concatenation, byte for byte. */
+typedef struct pieces {
+    const char *text;
+    size_t len;
+    const size_t *cuts; /* piece lengths, in order, summing to len */
+    size_t n_cuts;
+    pw_status fail; /* returned after the second piece when not PW_OK */
+} pieces;
+
+static pw_status produce_pieces(void *ctx, pw_outset_emit emit, void *sink)
+{
+    const pieces *p = ctx;
+    size_t at = 0;
+    for (size_t k = 0; k < p->n_cuts; k++) {
+        pw_status st = emit(sink, p->text + at, p->cuts[k]);
+        if (st != PW_OK)
+            return st;
+        at += p->cuts[k];
+        if (k == 1 && p->fail != PW_OK)
+            return p->fail;
+    }
+    return PW_OK;
+}
+
+static void streamed_file_is_the_concatenation(void **state)
+{
+    (void)state;
+    size_t len = 200000;
+    char *text = malloc(len);
+    assert_non_null(text);
+    for (size_t i = 0; i < len; i++)
+        text[i] = (char)('a' + (i * 7 + i / 13) % 26);
+    const size_t cuts[] = {1, 0, 65535, 1, 2, 100000, 34461}; /* sum 200000 */
+    pieces p = {text, len, cuts, sizeof cuts / sizeof cuts[0], PW_OK};
+    pw_outset *s = NULL;
+    char a[512];
+    assert_int_equal(pw_outset_new(false, NULL, &s, NULL), PW_OK);
+    assert_int_equal(pw_outset_add_stream(s, at(a, "s.txt"), produce_pieces, &p, NULL), PW_OK);
+    assert_int_equal(pw_outset_commit(s, NULL), PW_OK);
+    pw_outset_free(s);
+    char *back = NULL;
+    size_t n = 0;
+    assert_int_equal(pw_read_file(a, len + 1, &back, &n, NULL), PW_OK);
+    assert_int_equal(n, len);
+    assert_memory_equal(back, text, len);
+    free(back);
+    free(text);
+}
+
+/* A producer that fails leaves no file, no temporary, and its status is returned. */
+static void failing_producer_leaves_nothing(void **state)
+{
+    (void)state;
+    const size_t cuts[] = {3, 3, 3};
+    pieces p = {"abcdefghi", 9, cuts, 3, PW_ENOMEM};
+    pw_outset *s = NULL;
+    char a[512];
+    pw_error err;
+    assert_int_equal(pw_outset_new(false, NULL, &s, NULL), PW_OK);
+    assert_int_equal(pw_outset_add_stream(s, at(a, "f.txt"), produce_pieces, &p, &err),
+                     PW_ENOMEM);
+    assert_non_null(strstr(err.msg, "out of memory"));
+    assert_int_equal(temps_left(dir), 0);
+    assert_int_equal(pw_outset_commit(s, NULL), PW_OK);
+    pw_outset_free(s);
+    assert_null(get("f.txt"));
+}
+
 int main(void)
 {
     pw_test_init();
@@ -345,6 +414,8 @@ int main(void)
         cmocka_unit_test_setup_teardown(non_regular_inputs_are_refused_at_once, setup, teardown),
         cmocka_unit_test(start_allocation_failure_is_an_error),
         cmocka_unit_test(long_fields_survive_every_chunking),
+        cmocka_unit_test_setup_teardown(streamed_file_is_the_concatenation, setup, teardown),
+        cmocka_unit_test_setup_teardown(failing_producer_leaves_nothing, setup, teardown),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
