@@ -91,7 +91,8 @@ typedef struct pw_fit_options {
     /* Run every start to its end (default false: a run whose iterate enters the neighbourhood
      * of a minimum already found, with an objective not below that minimum's, is counted as
      * one more start that ends there and stopped; docs/fitting.md, "Multistart"). For tests and
-     * checks of that rule; the answer is the same either way up to the LM tolerances. */
+     * checks of that rule; the answer is the same either way up to the LM tolerances
+     * (tests/unit/test_fit_basins.c). */
     bool exhaustive_starts;
 } pw_fit_options;
 
