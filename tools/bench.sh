@@ -3,6 +3,7 @@
 #   (a) NRTL fit of 200 generated 30-point datasets (INVENTED data, acetone/methanol, seeded
 #       random parameters and noise): pinchwise in-process (default multistart and one start)
 #       against the same fit in Python with SciPy (tests/bench/scipy_nrtl.py), per-dataset ratio;
+#       and every model on every set with and without the multistart's known-basin rule;
 #   (b) time per reflux analysis (pw_column_solve, tangent-pinch search) on the demo NRTL fit;
 #   (c) fit time and peak resident memory for 10, 100, 1000 and 10000 points;
 #   (d) the design-grade column: energy-balance R_min with design rows, rating (pw-bench-design).
@@ -55,6 +56,10 @@ print(f"    ratio SciPy/pinchwise per dataset, one start:          median {st.me
 print(f"    same chi2 (rel 1e-6) one-start pinchwise vs SciPy: {same}/{len(names)}; multistart chi2 <= SciPy's: {lower}/{len(names)}")
 PY
 echo "    per-dataset times: $work/c_default.tsv, c_one.tsv, py.tsv (deleted at exit; copy with KEEP=1)"
+echo "    known basins (docs/fitting.md): every model on every set, default multistart against exhaustive_starts:"
+"$bench" basins "${files[@]}" > "$work/basins.tsv" || true
+tail -1 "$work/basins.tsv" | sed 's/^/    /'
+grep -h DIFFERENT "$work/basins.tsv" | sed 's/^/    /' || true
 [ "${KEEP:-0}" = 1 ] && cp "$work"/*.tsv "$bld/"
 
 # (b) ---------------------------------------------------------------------------------------

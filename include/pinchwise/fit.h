@@ -88,6 +88,12 @@ typedef struct pw_fit_options {
     size_t n_tie_lines;
     double sigma_x_lle;    /* NAN: PW_LLE_SIGMA_X_DEFAULT */
     bool three_phase_points;
+    /* Run every start to its end (default false: a run whose iterate enters the neighbourhood
+     * of a minimum already found, with an objective not below that minimum's, is counted as
+     * one more start that ends there and stopped; docs/fitting.md, "Multistart"). For tests and
+     * checks of that rule; the answer is the same either way up to the LM tolerances
+     * (tests/unit/test_fit_basins.c). */
+    bool exhaustive_starts;
 } pw_fit_options;
 
 /* Defaults as documented above. */

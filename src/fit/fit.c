@@ -133,7 +133,10 @@ typedef struct run_result {
     run_class cls;
     bool exact;
     size_t iterations;
+    int basin; /* >= 0: stopped early in the basin of this known minimum (r->minima index) */
 } run_result;
+
+static bool same_minimum(const fit_problem *fp, const double *a, const double *b);
 
 /* GSL's codes, every one explicitly (gsl_multifit_nlinear_driver, GSL 2.7): status GSL_SUCCESS
  * with info 1 (step test, xtol), 2 (gradient test, gtol), 3 (ftol test; compiled out in GSL but
@@ -191,9 +194,63 @@ static bool chi2_exact(double chi2, size_t n_res)
     return n_res > 0 && isfinite(chi2) && chi2 <= (double)n_res * PW_FIT_EXACT_RMS * PW_FIT_EXACT_RMS;
 }
 
-/* One LM run from the full parameter vector start. */
+/* The known minimum (index into known->minima) whose neighbourhood the current LM iterate has
+ * entered, or -1: every fitted parameter within the clustering tolerance of same_minimum() and
+ * the objective not below the minimum's (docs/fitting.md, "Multistart", known basins). */
+static int known_basin(const fit_problem *fp, const pw_fit_result *known,
+                       gsl_multifit_nlinear_workspace *w)
+{
+    if (!known || known->n_minima == 0)
+        return -1;
+    double p[PW_MAX_PARAMS];
+    fit_unpack(fp, gsl_multifit_nlinear_position(w)->data, p);
+    const gsl_vector *f = gsl_multifit_nlinear_residual(w);
+    double chi2 = 0.0;
+    for (size_t i = 0; i < f->size; i++)
+        chi2 += f->data[i] * f->data[i];
+    if (!isfinite(chi2))
+        return -1;
+    for (size_t i = 0; i < known->n_minima; i++)
+        if (chi2 >= known->minima[i].chi2 && same_minimum(fp, p, known->minima[i].params))
+            return (int)i;
+    return -1;
+}
+
+/* GSL 2.7's gsl_multifit_nlinear_driver (multifit_nlinear/fdf.c) step by step, with the same
+ * tests in the same order and the same status and info, so that a run given no known minima
+ * ends exactly where the driver ends. After each iteration that did not converge, a run stops
+ * early when its iterate lies in the basin of a known minimum (*basin set, else -1). */
+static int lm_drive(gsl_multifit_nlinear_workspace *w, const fit_problem *fp,
+                    const pw_fit_result *known, const pw_fit_options *o, int *info, int *basin)
+{
+    size_t iter = 0;
+    int status;
+    *basin = -1;
+    do {
+        status = gsl_multifit_nlinear_iterate(w);
+        if (status == GSL_ENOPROG && iter == 0) { /* no step lowers the cost from the start */
+            *info = status;
+            return GSL_EMAXITER;
+        }
+        ++iter;
+        status = gsl_multifit_nlinear_test(o->xtol, o->gtol, 0.0, info, w);
+        if (status == GSL_CONTINUE && (*basin = known_basin(fp, known, w)) >= 0)
+            return GSL_CONTINUE;
+    } while (status == GSL_CONTINUE && iter < o->max_iter);
+    if (status == GSL_ETOLF || status == GSL_ETOLX || status == GSL_ETOLG) {
+        *info = status; /* converged to within machine precision */
+        status = GSL_SUCCESS;
+    }
+    if (iter >= o->max_iter && status != GSL_SUCCESS)
+        status = GSL_EMAXITER;
+    return status;
+}
+
+/* One LM run from the full parameter vector start; known (NULL: none) holds the minima found
+ * so far, whose basins end the run early (out->basin). */
 static void run_lm(gsl_multifit_nlinear_workspace *w, gsl_multifit_nlinear_fdf *fdf, lm_ctx *c,
-                   const double *start, const pw_fit_options *o, run_result *out)
+                   const double *start, const pw_fit_options *o, const pw_fit_result *known,
+                   run_result *out)
 {
     const fit_problem *fp = c->fp;
     double u0[PW_MAX_PARAMS];
@@ -205,14 +262,16 @@ static void run_lm(gsl_multifit_nlinear_workspace *w, gsl_multifit_nlinear_fdf *
     out->exact = false;
     out->chi2 = INFINITY;
     out->iterations = 0;
+    out->basin = -1;
     memcpy(out->params, start, sizeof out->params);
     if (gsl_multifit_nlinear_init(&x0.vector, fdf, w) != GSL_SUCCESS)
         return;
     int info = 0;
-    int status = gsl_multifit_nlinear_driver(o->max_iter, o->xtol, o->gtol, 0.0, NULL, NULL,
-                                             &info, w);
-    out->stop = map_stop(status, info);
+    int status = lm_drive(w, fp, known, o, &info, &out->basin);
     out->iterations = gsl_multifit_nlinear_niter(w);
+    if (out->basin >= 0) /* it would end at that minimum: no further evaluation */
+        return;
+    out->stop = map_stop(status, info);
     fit_unpack(fp, gsl_multifit_nlinear_position(w)->data, out->params);
     double *work = malloc(sizeof(double) * fp->n_res);
     if (fp->T3_warm_K) /* the run's chi2 from the canonical three-phase start */
@@ -571,9 +630,13 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     for (size_t c = 0; c < n_cand; c++) {
         run_result run;
         T3_warm = NAN;
-        run_lm(w, &fdf, &ctx, cand[c].p, &o, &run);
+        run_lm(w, &fdf, &ctx, cand[c].p, &o, o.exhaustive_starts ? NULL : out, &run);
         out->iterations += run.iterations;
         out->n_runs++;
+        if (run.basin >= 0) { /* a known minimum, confirmed once more */
+            out->minima[run.basin].hits++;
+            continue;
+        }
         if (run.cls == RUN_STATIONARY)
             add_minimum(out, &fp, &run);
         if (run.cls == RUN_RUNAWAY) {

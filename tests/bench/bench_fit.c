@@ -2,7 +2,10 @@
  *   pw-bench fit [--starts N] [--reps R] FILE...   one line per file: name, median seconds of
  *                                                 pw_fit_run over R repetitions, converged, chi2
  *   pw-bench reflux FIT.json P_kPa xd xb zf q N     median seconds per pw_column_solve call
- *   pw-bench scale FILE                            seconds of one fit and peak resident set */
+ *   pw-bench scale FILE                            seconds of one fit and peak resident set
+ *   pw-bench basins FILE...                        every model, default multistart against
+ *                                                 exhaustive_starts: one line per file and
+ *                                                 model, "same" or "DIFFERENT", LM iterations */
 #include <gsl/gsl_errno.h>
 #include <math.h>
 #include <pinchwise/column.h>
@@ -82,6 +85,47 @@ static int fit_one(const pw_complib *lib, const char *path, size_t starts, size_
     return 0;
 }
 
+/* Same minima (count, order, starts, chi2 to 1e-9), choice and class with and without the
+ * known-basin rule (docs/fitting.md); 1 when they differ. */
+static int basins_one(const pw_complib *lib, const char *path, size_t *it_a, size_t *it_b)
+{
+    static const char *const models[] = {"margules", "vanlaar", "wilson", "nrtl", "uniquac"};
+    pw_dataset ds;
+    pw_error err;
+    if (pw_dataset_read(path, &ds, &err) != PW_OK)
+        return fail(&err);
+    const pw_component *c1 = pw_complib_find(lib, ds.names[0]), *c2 = pw_complib_find(lib, ds.names[1]);
+    int rc = c1 && c2 ? 0 : 1;
+    const char *base = strrchr(path, '/');
+    for (size_t k = 0; rc == 0 && k < sizeof models / sizeof models[0]; k++) {
+        pw_fit_options o = pw_fit_default_options();
+        pw_fit_result a, b;
+        o.exhaustive_starts = true;
+        pw_status sa = pw_fit_run(&ds, c1, c2, pw_model_find(models[k]), &o, &a, &err);
+        o.exhaustive_starts = false;
+        pw_status sb = pw_fit_run(&ds, c1, c2, pw_model_find(models[k]), &o, &b, &err);
+        bool same = sa == sb;
+        if (sa == PW_OK && sb == PW_OK) {
+            same = a.n_minima == b.n_minima && a.fit_class == b.fit_class &&
+                   fabs(a.chi2 - b.chi2) <= 1e-9 * fmax(a.chi2, 1e-3);
+            for (size_t i = 0; same && i < a.n_minima; i++)
+                same = a.minima[i].hits == b.minima[i].hits &&
+                       fabs(a.minima[i].chi2 - b.minima[i].chi2) <= 1e-9 * fmax(a.minima[i].chi2, 1e-3);
+            printf("%s\t%s\t%s\t%zu\t%zu\n", base ? base + 1 : path, models[k],
+                   same ? "same" : "DIFFERENT", a.iterations, b.iterations);
+            *it_a += a.iterations;
+            *it_b += b.iterations;
+        }
+        if (sa == PW_OK)
+            pw_fit_result_free(&a);
+        if (sb == PW_OK)
+            pw_fit_result_free(&b);
+        rc = same ? 0 : 1;
+    }
+    pw_dataset_free(&ds);
+    return rc;
+}
+
 int main(int argc, char **argv)
 {
     gsl_set_error_handler_off();
@@ -109,6 +153,14 @@ int main(int argc, char **argv)
             reps = 5;
         for (; i < argc && rc == 0; i++)
             rc = fit_one(&lib, argv[i], starts, reps, scale);
+    } else if (!strcmp(argv[1], "basins")) {
+        size_t it_a = 0, it_b = 0;
+        int bad = 0;
+        for (int i = 2; i < argc; i++)
+            bad += basins_one(&lib, argv[i], &it_a, &it_b);
+        printf("LM iterations: %zu exhaustive, %zu with known basins; %d file(s) differ\n", it_a,
+               it_b, bad);
+        rc = bad ? 1 : 0;
     } else if (!strcmp(argv[1], "reflux") && argc == 9) {
         pw_fit_result r;
         if (pw_fitfile_read(argv[2], &r, &err) != PW_OK)
