@@ -5,6 +5,8 @@
  * (NIST SP 811, Appendix B.8). */
 #include <pinchwise/units.h>
 
+#include "base/decimal_internal.h"
+
 #include <ctype.h>
 #include <errno.h>
 #include <math.h>
@@ -129,12 +131,12 @@ pw_status pw_units_from_si(pw_quantity q, double si, const char *unit, double *v
     return PW_OK;
 }
 
-/* Strict decimal number: optional sign, digits with an optional '.', optional exponent; nothing
- * else (no hex, inf or nan spellings), finite. */
-static bool strict_number(const char *text, double *out)
+bool pw_decimal_syntax_ok(const char *text)
 {
     const char *p = text;
     bool digits = false;
+    if (!p)
+        return false;
     if (*p == '+' || *p == '-')
         p++;
     while (isdigit((unsigned char)*p))
@@ -155,7 +157,13 @@ static bool strict_number(const char *text, double *out)
         while (isdigit((unsigned char)*p))
             p++;
     }
-    if (*p != '\0')
+    return *p == '\0';
+}
+
+/* Strict decimal number (pw_decimal_syntax_ok), finite and not under- or overflowing. */
+static bool strict_number(const char *text, double *out)
+{
+    if (!pw_decimal_syntax_ok(text))
         return false;
     errno = 0;
     double v = strtod(text, NULL);

@@ -100,7 +100,7 @@ pw_status cli_reflux_parse_args(int argc, char **argv, cli_column_args *a, pw_er
 /* The targets in mole fractions: xb < zf < xd, or xd < zf < xb (component 1 to the bottoms). */
 static pw_status check_targets(const pw_column_spec *s, pw_error *err)
 {
-    if (!((s->xb < s->zf && s->zf < s->xd) || (s->xd < s->zf && s->zf < s->xb))) {
+    if (pw_column_direction_of(s) == PW_DIRECTION_NONE) {
         pw_error_set(err, PW_EINVAL, NULL, 0,
                      "the feed must lie between the products: xb < zf < xd (component 1 goes "
                      "overhead) or xd < zf < xb (component 1 leaves with the bottoms); got xb %g, "

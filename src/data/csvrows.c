@@ -1,6 +1,7 @@
 /* Row reader on top of libcsv with physical line numbers; see csvrows.h. */
 #include "data/csvrows.h"
 
+#include "base/decimal_internal.h"
 #include "base/fileio_internal.h"
 
 #include <ctype.h>
@@ -309,35 +310,7 @@ void pw_csvrows_free(pw_csvrows *r)
 
 bool pw_csvrows_number(const char *text, double *out)
 {
-    const char *p = text;
-    bool digits = false;
-    if (!p)
-        return false;
-    if (*p == '+' || *p == '-')
-        p++;
-    while (isdigit((unsigned char)*p)) {
-        p++;
-        digits = true;
-    }
-    if (*p == '.') {
-        p++;
-        while (isdigit((unsigned char)*p)) {
-            p++;
-            digits = true;
-        }
-    }
-    if (!digits)
-        return false;
-    if (*p == 'e' || *p == 'E') {
-        p++;
-        if (*p == '+' || *p == '-')
-            p++;
-        if (!isdigit((unsigned char)*p))
-            return false;
-        while (isdigit((unsigned char)*p))
-            p++;
-    }
-    if (*p != '\0')
+    if (!pw_decimal_syntax_ok(text))
         return false;
     double v = strtod(text, NULL);
     if (!isfinite(v))

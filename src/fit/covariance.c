@@ -87,3 +87,26 @@ pw_status fit_identify(const fit_problem *fp, const double *J, size_t n, double 
         }
     return PW_OK;
 }
+
+void fit_store_identify(pw_fit_result *r, const fit_problem *fp, const fit_info *info, double t95)
+{
+    memcpy(r->cov, info->cov, sizeof r->cov);
+    r->sv_ratio = info->sv_ratio;
+    r->identifiable = info->rank == fp->n_fit;
+    memcpy(r->weak_dir, info->weak_dir, sizeof r->weak_dir);
+    for (size_t j = 0; j < fp->n_fit; j++) {
+        size_t k = fp->idx[j];
+        if (!info->meaningful[k])
+            continue;
+        r->stderr_meaningful[k] = true;
+        r->stderr_[k] = sqrt(r->cov[k][k]);
+        r->ci95[k][0] = r->sys.params[k] - t95 * r->stderr_[k];
+        r->ci95[k][1] = r->sys.params[k] + t95 * r->stderr_[k];
+    }
+    for (size_t a = 0; a < fp->n_fit; a++)
+        for (size_t b = 0; b < fp->n_fit; b++) {
+            size_t ka = fp->idx[a], kb = fp->idx[b];
+            double d = sqrt(r->cov[ka][ka] * r->cov[kb][kb]);
+            r->corr[ka][kb] = d > 0.0 ? r->cov[ka][kb] / d : (ka == kb ? 1.0 : 0.0);
+        }
+}

@@ -702,25 +702,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
         double t = gsl_cdf_tdist_Pinv(0.975, (double)out->dof);
         cst = fit_identify(&fp, J, fp.n_res, s2, t, &info);
         if (cst == PW_OK) {
-            memcpy(out->cov, info.cov, sizeof out->cov);
-            out->sv_ratio = info.sv_ratio;
-            out->identifiable = info.rank == fp.n_fit;
-            memcpy(out->weak_dir, info.weak_dir, sizeof out->weak_dir);
-            for (size_t j = 0; j < fp.n_fit; j++) {
-                size_t k = fp.idx[j];
-                if (!info.meaningful[k])
-                    continue;
-                out->stderr_meaningful[k] = true;
-                out->stderr_[k] = sqrt(out->cov[k][k]);
-                out->ci95[k][0] = out->sys.params[k] - t * out->stderr_[k];
-                out->ci95[k][1] = out->sys.params[k] + t * out->stderr_[k];
-            }
-            for (size_t a2 = 0; a2 < fp.n_fit; a2++)
-                for (size_t b2 = 0; b2 < fp.n_fit; b2++) {
-                    size_t ka = fp.idx[a2], kb = fp.idx[b2];
-                    double d = sqrt(out->cov[ka][ka] * out->cov[kb][kb]);
-                    out->corr[ka][kb] = d > 0.0 ? out->cov[ka][kb] / d : (ka == kb ? 1.0 : 0.0);
-                }
+            fit_store_identify(out, &fp, &info, t);
         } else {
             out->identifiable = false;
         }

@@ -113,6 +113,11 @@ typedef struct fit_info {
 pw_status fit_identify(const fit_problem *fp, const double *J, size_t n, double s2, double t95,
                       fit_info *info);
 
+/* Stores info in r at its parameters r->sys.params: covariance, singular-value ratio,
+ * identifiability, weak direction, the meaningful standard errors with their 95 % intervals
+ * (t95 the t quantile) and the correlation matrix of the fitted parameters. */
+void fit_store_identify(pw_fit_result *r, const fit_problem *fp, const fit_info *info, double t95);
+
 /* The model's ideal-solution point (G^E = 0 at T_ref) with s's fixed parameters: zero
  * interaction constants and energies, Wilson a12 = T_ref ln(V2_V1) = -a21. false when the model
  * has none the fit could start from (fit_class.c). */

@@ -69,25 +69,7 @@ pw_status pw_fit_use_minimum(pw_fit_result *r, size_t n, pw_error *err)
     bool exact = r->fit_class == PW_FIT_EXACT;
     if (r->dof > 0 &&
         fit_identify(&fp, J, fp.n_res, exact ? 1.0 : chi2 / (double)r->dof, t, &info) == PW_OK) {
-        memcpy(r->cov, info.cov, sizeof r->cov);
-        r->sv_ratio = info.sv_ratio;
-        r->identifiable = info.rank == fp.n_fit;
-        memcpy(r->weak_dir, info.weak_dir, sizeof r->weak_dir);
-        for (size_t j = 0; j < fp.n_fit; j++) {
-            size_t k = fp.idx[j];
-            if (!info.meaningful[k])
-                continue;
-            r->stderr_meaningful[k] = true;
-            r->stderr_[k] = sqrt(r->cov[k][k]);
-            r->ci95[k][0] = p[k] - t * r->stderr_[k];
-            r->ci95[k][1] = p[k] + t * r->stderr_[k];
-        }
-        for (size_t a = 0; a < fp.n_fit; a++)
-            for (size_t b = 0; b < fp.n_fit; b++) {
-                size_t ka = fp.idx[a], kb = fp.idx[b];
-                double d = sqrt(r->cov[ka][ka] * r->cov[kb][kb]);
-                r->corr[ka][kb] = d > 0.0 ? r->cov[ka][kb] / d : (ka == kb ? 1.0 : 0.0);
-            }
+        fit_store_identify(r, &fp, &info, t);
     }
     free(f);
     free(used);

@@ -58,6 +58,23 @@ static void draw_set(pw_sbuf *b, const pw_frame *f, const pw_xyset *s, const pw_
         pw_svg_markers(b, f, s->x, s->y, s->n, st, cls);
 }
 
+/* The measured liquid (filled circles) and vapor (open triangles) of a phase diagram, with their
+ * legend rows; size is the circles' (the triangles are one unit larger). */
+static void draw_measured(pw_sbuf *b, const pw_frame *f, pw_legend *lg, const pw_xyset *liquid,
+                          const pw_xyset *vapor, double size)
+{
+    pw_style ml = st_mark(C_INK, PW_MARK_CIRCLE, true, size);
+    pw_style mv = st_mark(C_BRICK, PW_MARK_TRIANGLE, false, size + 1.0);
+    if (liquid->n) {
+        draw_set(b, f, liquid, &ml, false, "pw-points pw-measured-liquid");
+        pw_legend_add(lg, "measured liquid x\xe2\x82\x81", &ml, false);
+    }
+    if (vapor->n) {
+        draw_set(b, f, vapor, &mv, false, "pw-points pw-measured-vapor");
+        pw_legend_add(lg, "measured vapor y\xe2\x82\x81", &mv, false);
+    }
+}
+
 static const char *pinch_kind_name(pw_pinch_kind k)
 {
     return k == PW_PINCH_TANGENT ? "tangent" : "feed";
@@ -316,16 +333,7 @@ pw_status pw_plot_phase(pw_sbuf *b, const pw_plot_phase_in *in)
                  in->layers.x[1]);
         pw_legend_add(&lg, lab, &lay, false);
     }
-    pw_style ml = st_mark(C_INK, PW_MARK_CIRCLE, true, 7.0);
-    pw_style mv = st_mark(C_BRICK, PW_MARK_TRIANGLE, false, 8.0);
-    if (in->meas_liquid.n) {
-        draw_set(b, &f, &in->meas_liquid, &ml, false, "pw-points pw-measured-liquid");
-        pw_legend_add(&lg, "measured liquid x\xe2\x82\x81", &ml, false);
-    }
-    if (in->meas_vapor.n) {
-        draw_set(b, &f, &in->meas_vapor, &mv, false, "pw-points pw-measured-vapor");
-        pw_legend_add(&lg, "measured vapor y\xe2\x82\x81", &mv, false);
-    }
+    draw_measured(b, &f, &lg, &in->meas_liquid, &in->meas_vapor, 7.0);
     pw_style az = st_mark(C_GRAPHITE, PW_MARK_DIAMOND, true, 10.0);
     if (in->azeotropes.n) {
         draw_set(b, &f, &in->azeotropes, &az, false, "pw-points pw-azeotrope");
@@ -378,16 +386,7 @@ pw_status pw_plot_models(pw_sbuf *b, const pw_plot_models_in *in)
         snprintf(lab, sizeof lab, "%s: bubble (thick) and dew (thin)", in->label[k] ? in->label[k] : "?");
         pw_legend_add(&lg, lab, &line, true);
     }
-    pw_style ml = st_mark(C_INK, PW_MARK_CIRCLE, true, 6.0);
-    pw_style mv = st_mark(C_BRICK, PW_MARK_TRIANGLE, false, 7.0);
-    if (in->meas_liquid.n) {
-        draw_set(b, &f, &in->meas_liquid, &ml, false, "pw-points pw-measured-liquid");
-        pw_legend_add(&lg, "measured liquid x\xe2\x82\x81", &ml, false);
-    }
-    if (in->meas_vapor.n) {
-        draw_set(b, &f, &in->meas_vapor, &mv, false, "pw-points pw-measured-vapor");
-        pw_legend_add(&lg, "measured vapor y\xe2\x82\x81", &mv, false);
-    }
+    draw_measured(b, &f, &lg, &in->meas_liquid, &in->meas_vapor, 6.0);
     pw_svg_end_data(b);
     pw_svg_legend(b, &f, &lg, PW_LEGEND_BELOW);
     pw_svg_end(b, &f);
