@@ -76,3 +76,16 @@ pw_component pw_test_svna(const char *name)
     fail();
     return pw_test_antoine(name, NAN, NAN, NAN, PW_LN, "kPa", "C", NAN, NAN);
 }
+
+int pw_test_read_complib(pw_complib *lib)
+{
+    char path[1024];
+    pw_error err;
+    pw_complib_init(lib);
+    if (pw_complib_read(lib, pw_test_path(path, sizeof path, "datasets/components.csv"), &err) ==
+        PW_OK)
+        return 0;
+    print_error("pw_test_read_complib: %s\n", err.msg);
+    pw_complib_free(lib);
+    return -1;
+}

@@ -34,4 +34,8 @@ pw_component pw_test_antoine(const char *name, double A, double B, double C, pw_
  * name fails the test. No validity range. */
 pw_component pw_test_svna(const char *name);
 
+/* Reads the shipped component library (datasets/components.csv) into lib, for a cmocka setup:
+ * 0 on success, -1 (lib freed, the reason printed) on failure. */
+int pw_test_read_complib(pw_complib *lib);
+
 #endif

@@ -205,14 +205,8 @@ static void invented_datasets(void **state)
 static int setup(void **state)
 {
     (void)state;
-    char path[1024];
-    pw_error err;
     pw_test_init();
-    pw_complib_init(&lib);
-    return pw_complib_read(&lib, pw_test_path(path, sizeof path, "datasets/components.csv"), &err) ==
-                   PW_OK
-               ? 0
-               : -1;
+    return pw_test_read_complib(&lib);
 }
 
 static int teardown(void **state)

@@ -399,13 +399,7 @@ static void test_random_fits(void **state)
 static int setup(void **state)
 {
     (void)state;
-    char path[1024];
-    pw_complib_init(&lib);
-    pw_error err;
-    return pw_complib_read(&lib, pw_test_path(path, sizeof path, "datasets/components.csv"), &err) ==
-                   PW_OK
-               ? 0
-               : -1;
+    return pw_test_read_complib(&lib);
 }
 
 static int teardown(void **state)
