@@ -956,179 +956,14 @@ static pw_status rate_residual(void *p, double w, double *f)
     return st;
 }
 
-#define RATE_SCAN 48
-#define RATE_MAX_EVALS 3000    /* residual evaluations for the proof (each steps the column) */
-#define RATE_RESTARTS 8        /* K raised when a midpoint shows more curvature than K allows */
-#define RATE_NOISE 1e-12       /* absolute precision assumed of the mismatch (a liquid fraction) */
-#define RATE_EDGE_REL 1e-9     /* the edge of the products' domain is located to this (relative) */
-#define RATE_MIN_CELL_REL 1e-13
 #define RATE_MAX_ROOTS 32
-#define RATE_STACK 256
 
-/* ---- every steady state of the rating, by a root enumeration that cannot miss one ----
+/* ---- every steady state of the rating ----
  * The mismatch r(w) of the two sections at the feed stage is smooth where it is defined (trial
- * products with a reboiler duty and a staircase on both sides). Assumption: |r''| <= K there, K
- * from the scan's second differences (x 4, plus a floor), checked at every midpoint sampled (a
- * larger deviation raises K and restarts). A cell [a, b] with both ends defined then holds
- *   - no root when min(|r_a|, |r_b|) > K h^2/8 + noise (same signs), or when r' cannot vanish
- *     (r' lies within K h/2 + 2 noise/h of the chord's slope) and the signs agree;
- *   - exactly one root when the signs differ and r' cannot vanish (Brent finds it);
- * any other cell is halved. A cell with one undefined end is halved until the domain's edge is
- * located to RATE_EDGE_REL of the range; one with two undefined ends is outside the domain (the
- * stated limit: a domain island narrower than the scan's spacing would be missed). */
-typedef struct rpt {
-    double w, r;
-    bool ok;
-} rpt;
-
-typedef struct rroots {
-    rate_en *q;
-    double K, lo, hi;
-    double root[RATE_MAX_ROOTS];
-    size_t n_root;
-    unsigned long evals;
-    bool restart;
-} rroots;
-
-static pw_status rr_eval(rroots *z, double w, rpt *p)
-{
-    if (++z->evals > RATE_MAX_EVALS)
-        return PW_ENOCONV;
-    p->w = w;
-    p->r = NAN;
-    pw_status st = rate_residual(z->q, w, &p->r);
-    p->ok = st == PW_OK && isfinite(p->r);
-    if (p->ok || st == PW_OK || st == PW_EINFEASIBLE || st == PW_ENOBRACKET || st == PW_EDOM)
-        return PW_OK; /* outside the domain: no steady state with these products */
-    return st;
-}
-
-static void rr_add(rroots *z, double w)
-{
-    for (size_t i = 0; i < z->n_root; i++)
-        if (fabs(z->root[i] - w) <= 1e-10 * (z->hi - z->lo))
-            return;
-    if (z->n_root < RATE_MAX_ROOTS)
-        z->root[z->n_root++] = w;
-}
-
-static pw_status rr_brent(rroots *z, const rpt *a, const rpt *b)
-{
-    if (a->r == 0.0 || b->r == 0.0) {
-        rr_add(z, a->r == 0.0 ? a->w : b->w);
-        return PW_OK;
-    }
-    pw_solve1d_opts o = pw_solve1d_default_opts();
-    o.xtol_abs = 1e-300; /* a product near 0 is resolved to full relative precision */
-    o.xtol_rel = 4.0 * DBL_EPSILON;
-    o.max_iter = ROOT_ITER;
-    double w = NAN;
-    pw_status st = pw_root1d(rate_residual, z->q, a->w, b->w, a->r, b->r, &o, &w, NULL);
-    if (st != PW_OK && st != PW_EMAXITER)
-        return st;
-    rr_add(z, w);
-    return PW_OK;
-}
-
-static pw_status rr_cell(rroots *z, rpt a0, rpt b0)
-{
-    struct {
-        rpt a, b;
-    } stack[RATE_STACK];
-    size_t top = 0;
-    stack[top].a = a0;
-    stack[top++].b = b0;
-    const double range = z->hi - z->lo;
-    while (top > 0) {
-        --top;
-        const rpt a = stack[top].a, b = stack[top].b;
-        const double h = b.w - a.w;
-        pw_status st;
-        if (!a.ok && !b.ok)
-            continue;
-        if (a.ok && b.ok) {
-            const bool change = (a.r <= 0.0) != (b.r <= 0.0) || a.r == 0.0 || b.r == 0.0;
-            const double s = (b.r - a.r) / h, ds = 0.5 * z->K * h + 2.0 * RATE_NOISE / h;
-            const bool monotone = fabs(s) > ds;
-            if (change && monotone) {
-                if ((st = rr_brent(z, &a, &b)) != PW_OK)
-                    return st;
-                continue;
-            }
-            if (!change && (monotone || fmin(fabs(a.r), fabs(b.r)) >
-                                            z->K * h * h / 8.0 + RATE_NOISE))
-                continue;
-            if (h < RATE_MIN_CELL_REL * range) {
-                if (change && (st = rr_brent(z, &a, &b)) != PW_OK)
-                    return st;
-                continue; /* a double root at rounding level is not resolved further */
-            }
-        } else if (h < RATE_EDGE_REL * range) {
-            continue; /* the domain's edge, located */
-        }
-        rpt m;
-        if ((st = rr_eval(z, a.w + 0.5 * h, &m)) != PW_OK)
-            return st;
-        if (a.ok && b.ok && m.ok) {
-            double dev = fabs(0.5 * (a.r + b.r) - m.r);
-            if (dev > z->K * h * h / 8.0 + 2.0 * RATE_NOISE) {
-                z->K = fmax(2.0 * z->K, 32.0 * dev / (h * h));
-                z->restart = true;
-                return PW_OK;
-            }
-        }
-        if (top + 2 > RATE_STACK)
-            return PW_ENOCONV;
-        stack[top].a = a;
-        stack[top++].b = m;
-        stack[top].a = m;
-        stack[top++].b = b;
-    }
-    return PW_OK;
-}
-
-static int cmp_double(const void *x, const void *y)
-{
-    double a = *(const double *)x, b = *(const double *)y;
-    return (a > b) - (a < b);
-}
-
-/* Every root of the mismatch on [lo, hi], sorted. */
-static pw_status rate_all_roots(rroots *z)
-{
-    rpt p[RATE_SCAN];
-    for (int i = 0; i < RATE_SCAN; i++) {
-        pw_status st =
-            rr_eval(z, i + 1 == RATE_SCAN ? z->hi
-                                          : z->lo + (z->hi - z->lo) * (double)i / (RATE_SCAN - 1),
-                    &p[i]);
-        if (st != PW_OK)
-            return st;
-    }
-    double d2max = 0.0;
-    for (int i = 1; i + 1 < RATE_SCAN; i++)
-        if (p[i - 1].ok && p[i].ok && p[i + 1].ok) {
-            double h = p[i].w - p[i - 1].w;
-            d2max = fmax(d2max, fabs(p[i + 1].r - 2.0 * p[i].r + p[i - 1].r) / (h * h));
-        }
-    z->K = 4.0 * d2max + 1e-6;
-    for (int round = 0;; round++) {
-        z->restart = false;
-        z->n_root = 0;
-        for (int i = 0; i + 1 < RATE_SCAN && !z->restart; i++) {
-            pw_status st = rr_cell(z, p[i], p[i + 1]);
-            if (st != PW_OK)
-                return st;
-        }
-        if (!z->restart)
-            break;
-        if (round + 1 >= RATE_RESTARTS)
-            return PW_ENOCONV;
-    }
-    qsort(z->root, z->n_root, sizeof z->root[0], cmp_double);
-    return PW_OK;
-}
-
+ * products with a reboiler duty and a staircase on both sides). Its roots are enumerated by
+ * pw_roots1d_all (src/base/solve1d.h), which cannot miss one under a curvature bound it checks at
+ * every midpoint; where r is undefined (no products the stages can make) the search treats the
+ * point as outside the domain and locates the domain's edge. */
 
 pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double P_Pa,
                          const pw_rate_spec *spec, pw_rate_result *out, double *Q_C, double *Q_R,
@@ -1163,15 +998,18 @@ pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double 
     }
     /* Energy balances can give more than one steady state: every root of the mismatch, proved
      * (under the curvature bound) to be all of them; the first is reported with their count. */
-    rroots rz = {.q = &q, .lo = lo, .hi = hi};
-    st = rate_all_roots(&rz);
+    const pw_roots1d_opts ro = pw_roots1d_default_opts();
+    double roots[RATE_MAX_ROOTS];
+    size_t n_root = 0;
+    unsigned long evals = 0;
+    st = pw_roots1d_all(rate_residual, &q, lo, hi, &ro, roots, RATE_MAX_ROOTS, &n_root, &evals);
     double w_sol = NAN;
-    if (st == PW_OK && rz.n_root > 0) {
+    if (st == PW_OK && n_root > 0) {
         /* the lowest distillate purity: the lowest xd, or the highest xb */
-        w_sol = q.by_xb ? rz.root[rz.n_root - 1] : rz.root[0];
-        *n_roots = rz.n_root;
+        w_sol = q.by_xb ? roots[n_root - 1] : roots[0];
+        *n_roots = n_root;
     }
-    out->iterations = (int)rz.evals;
+    out->iterations = (int)evals;
     if (st == PW_OK && !isfinite(w_sol))
         st = PW_ENOBRACKET;
     if (st == PW_OK) {
@@ -1200,8 +1038,12 @@ pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double 
             return pw_error_set(err, st, NULL, 0,
                                 "rating with energy balances: the search for every steady state "
                                 "did not complete (the feed-stage mismatch curves too sharply "
-                                "for %d residual evaluations)",
-                                RATE_MAX_EVALS);
+                                "for %lu residual evaluations)",
+                                ro.max_evals);
+        if (st == PW_ERANGE)
+            return pw_error_set(err, PW_ENOCONV, NULL, 0,
+                                "rating with energy balances: more than %d steady states",
+                                RATE_MAX_ROOTS);
         return pw_error_set(err, st, NULL, 0, "rating with energy balances: %s", pw_strerror(st));
     }
     return PW_OK;
