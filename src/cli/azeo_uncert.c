@@ -32,10 +32,7 @@ pw_status cli_azeo_uncert_run(const pw_fit_result *fit, const pw_az_result *r, c
         one.n = 1;
         one.az[0] = r->az[i];
         snprintf(what, sizeof what, "parameter sets sampled (azeotrope %zu of %zu)", i + 1, r->n);
-        if (cli_progress_wanted()) {
-            o.progress = cli_progress_tenths;
-            o.progress_ctx = &pc;
-        }
+        cli_progress_attach(&o.progress, &o.progress_ctx, &pc);
         /* one azeotrope per call: the progress line names it */
         pw_status st = pw_azeotrope_unc_run(fit, &one, &o, &u->res[i], err);
         if (st != PW_OK)
@@ -49,10 +46,7 @@ pw_status cli_azeo_uncert_run_het(const pw_fit_result *fit, pw_az_mode mode, dou
 {
     cli_progress_ctx pc = {"azeotrope", "parameter sets sampled (heterogeneous azeotrope)"};
     pw_unc_options o = u->opt;
-    if (cli_progress_wanted()) {
-        o.progress = cli_progress_tenths;
-        o.progress_ctx = &pc;
-    }
+    cli_progress_attach(&o.progress, &o.progress_ctx, &pc);
     pw_unc_het_ctx c = pw_unc_het_azeo_ctx(mode, fixed);
     pw_status st = pw_het_unc_run(fit, &c, &o, &u->res_het, err);
     if (st != PW_OK)

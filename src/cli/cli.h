@@ -112,6 +112,10 @@ typedef struct cli_progress_ctx {
  * first unit, at every tenth of total and at the end. Always PW_OK. */
 pw_status cli_progress_tenths(void *ctx, size_t done, size_t total);
 
+/* Hooks cli_progress_tenths with pc into a library call's progress fields when progress is
+ * wanted (stderr is a terminal); clears them otherwise. */
+void cli_progress_attach(pw_progress_fn *fn, void **ctx, cli_progress_ctx *pc);
+
 /* Temporary output files (cli_tmpfiles.c): hooks for pw_outset_new that register every
  * temporary file, and handlers for SIGINT, SIGTERM and SIGHUP (installed once by main) that
  * remove the registered files before the program ends with that signal. */

@@ -157,6 +157,13 @@ pw_status cli_progress_tenths(void *ctx, size_t done, size_t total)
     return PW_OK;
 }
 
+void cli_progress_attach(pw_progress_fn *fn, void **ctx, cli_progress_ctx *pc)
+{
+    const bool on = cli_progress_wanted();
+    *fn = on ? cli_progress_tenths : NULL;
+    *ctx = on ? pc : NULL;
+}
+
 void cli_warn_vapor_association(const char *cmd, const pw_system *sys)
 {
     for (int i = 0; i < 2; i++)

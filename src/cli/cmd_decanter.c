@@ -162,10 +162,7 @@ pw_status cli_decanter(int argc, char **argv)
     if (unc) {
         cli_progress_ctx pc = {CMD, "parameter sets sampled"};
         pw_unc_options o = a.unc.opt;
-        if (cli_progress_wanted()) {
-            o.progress = cli_progress_tenths;
-            o.progress_ctx = &pc;
-        }
+        cli_progress_attach(&o.progress, &o.progress_ctx, &pc);
         pw_unc_het_ctx c = pw_unc_decanter_ctx(&a.spec, &a.opt);
         if (pw_het_unc_run(&fit, &c, &o, &ures, &err) != PW_OK) {
             pw_fit_result_free(&fit);

@@ -291,10 +291,7 @@ pw_status cli_report(int argc, char **argv)
     if (a.unc.on) {
         in.uncertainty = true;
         in.unc = a.unc.opt;
-        if (cli_progress_wanted()) {
-            in.unc.progress = cli_progress_tenths;
-            in.unc.progress_ctx = &pc;
-        }
+        cli_progress_attach(&in.unc.progress, &in.unc.progress_ctx, &pc);
     }
     pw_fit_result others[REPORT_MAX_OTHERS];
     const pw_fit_result *other_ptr[REPORT_MAX_OTHERS];

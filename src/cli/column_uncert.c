@@ -70,10 +70,7 @@ pw_status cli_column_uncert_run(const cli_column_args *a, const cli_column_run *
     u->plan_status = PW_EINVAL;
     if (u->propagate) {
         cli_progress_ctx pc = {"reflux", "parameter sets sampled"};
-        if (cli_progress_wanted()) {
-            u->opt.progress = cli_progress_tenths;
-            u->opt.progress_ctx = &pc;
-        }
+        cli_progress_attach(&u->opt.progress, &u->opt.progress_ctx, &pc);
         pw_unc_column_assessment as;
         pw_status st = pw_reflux_unc_run(&run->fit, &u->col, &u->opt, a->fit_path, &as, err);
         u->opt.progress = NULL;
