@@ -53,6 +53,58 @@ static double nrtl_term_ub(double d, double alpha, double ua, double ub, double 
     return v;
 }
 
+/* A lower bound of (tau - 1)(tau/A^2 + 1/A) over the box, with A = tau + theta (1 - tau) (tau
+ * in [tlo, thi], theta in [ua, ub]): A is bilinear in (theta, tau) and positive, so its range is
+ * at the corners; tau/A^2 + 1/A is positive, monotone in tau and in A; the product of the two
+ * factors' ranges bounds the term (each factor bounded on its own: valid, if not tight). */
+static double uniquac_term_lb(double tlo, double thi, double ua, double ub, double *mag)
+{
+    double Alo = min4(tlo + ua * (1.0 - tlo), tlo + ub * (1.0 - tlo), thi + ua * (1.0 - thi),
+                      thi + ub * (1.0 - thi));
+    double Ahi = max4(tlo + ua * (1.0 - tlo), tlo + ub * (1.0 - tlo), thi + ua * (1.0 - thi),
+                      thi + ub * (1.0 - thi));
+    double wlo = tlo / (Ahi * Ahi) + 1.0 / Ahi, whi = thi / (Alo * Alo) + 1.0 / Alo;
+    double flo = tlo - 1.0, fhi = thi - 1.0;
+    double lo = min4(flo * wlo, flo * whi, fhi * wlo, fhi * whi);
+    *mag += max4(fabs(flo * wlo), fabs(flo * whi), fabs(fhi * wlo), fabs(fhi * whi));
+    return lo;
+}
+
+/* UNIQUAC (src/thermo/models/uniquac.c; docs/heterogeneous.md, "Excluding a split"): with
+ * R = r1 x1 + r2 x2, Q = q1 x1 + q2 x2, theta = q1 x1 / Q, A = tau21 + theta (1 - tau21),
+ * B = tau12 + (1 - theta)(1 - tau12),
+ *   D = 1/(x1 x2) + (r1 - r2)^2 / R^2 - (z/2) (q1 r2 - q2 r1)^2 / (R^2 Q)
+ *       + (q1 q2)^2 / Q^3 [(tau21 - 1)(tau21/A^2 + 1/A) + (tau12 - 1)(tau12/B^2 + 1/B)].
+ * The residual part is the perspective Q h(theta) of h = -theta ln A - (1 - theta) ln B, whose
+ * second derivative in x is h''(theta) (q1 q2)^2 / Q^3. R, Q and theta are monotone in x,
+ * tau_ij in T. */
+static double uniquac_lower(const double *p, const box *b, double id, double *mag)
+{
+    const double r1 = p[2], q1 = p[3], r2 = p[4], q2 = p[5];
+    if (!(r1 > 0.0 && q1 > 0.0 && r2 > 0.0 && q2 > 0.0))
+        return NAN;
+    double Ra = r2 + (r1 - r2) * b->xa, Rb = r2 + (r1 - r2) * b->xb;
+    double Qa = q2 + (q1 - q2) * b->xa, Qb = q2 + (q1 - q2) * b->xb;
+    double Rlo = fmin(Ra, Rb), Rhi = fmax(Ra, Rb), Qlo = fmin(Qa, Qb), Qhi = fmax(Qa, Qb);
+    double fh = (r1 - r2) * (r1 - r2) / (Rhi * Rhi);
+    double k = q1 * r2 - q2 * r1;
+    double sg = 5.0 * k * k / (Rlo * Rlo * Qlo); /* z/2 = 5 */
+    double tha = q1 * b->xa / Qa, thb = q1 * b->xb / Qb;
+    double t12a = exp(-p[0] / b->Ta), t12b = exp(-p[0] / b->Tb);
+    double t21a = exp(-p[1] / b->Ta), t21b = exp(-p[1] / b->Tb);
+    if (!(isfinite(t12a) && isfinite(t12b) && isfinite(t21a) && isfinite(t21b)) ||
+        !(fmin(t12a, t12b) > 0.0 && fmin(t21a, t21b) > 0.0))
+        return NAN;
+    double rm = 0.0;
+    double s = uniquac_term_lb(fmin(t21a, t21b), fmax(t21a, t21b), tha, thb, &rm) +
+               uniquac_term_lb(fmin(t12a, t12b), fmax(t12a, t12b), 1.0 - thb, 1.0 - tha, &rm);
+    double q12 = q1 * q2 * q1 * q2;
+    double clo = q12 / (Qhi * Qhi * Qhi), chi = q12 / (Qlo * Qlo * Qlo);
+    double res = s >= 0.0 ? clo * s : chi * s;
+    *mag += fh + sg + chi * rm;
+    return id + fh - sg + res;
+}
+
 /* Lower bound of D over the box, or NAN when the model has no bound here. *mag receives the size
  * of the terms (for the rounding margin). */
 static double D_lower(const pw_system *s, const box *b, double *mag)
@@ -95,6 +147,8 @@ static double D_lower(const pw_system *s, const box *b, double *mag)
         *mag += max4(fabs(sa * ca), fabs(sa * cb), fabs(sb * ca), fabs(sb * cb));
         return id + lo;
     }
+    if (m == &pw_model_uniquac)
+        return uniquac_lower(p, b, id, mag);
     return NAN;
 }
 
@@ -106,6 +160,15 @@ static bool D_at(const pw_system *s, double x, double T, double *D)
         return false;
     *D = 1.0 / (x * (1.0 - x)) + a.d2gE_dx2;
     return isfinite(*D);
+}
+
+double pw_thermo_split_D_lower(const pw_system *s, double x_a, double x_b, double T_a, double T_b)
+{
+    if (!s || !s->model || !(0.0 <= x_a && x_a <= x_b && x_b <= 1.0) || !(0.0 < T_a && T_a <= T_b))
+        return NAN;
+    box b = {x_a, x_b, T_a, T_b};
+    double mag;
+    return D_lower(s, &b, &mag);
 }
 
 bool pw_thermo_split_excluded(const pw_system *s, double T_a, double T_b)
