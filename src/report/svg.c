@@ -137,19 +137,29 @@ pw_status pw_sbuf_coord(pw_sbuf *b, double v)
         v = 1e6;
     if (v < -1e6)
         v = -1e6;
-    double r = round(v * 100.0) / 100.0;
-    if (r == 0.0)
-        r = 0.0; /* no "-0" */
-    char buf[40];
-    int n = snprintf(buf, sizeof buf, "%.2f", r);
-    /* trim trailing zeros: "12.50" -> "12.5", "12.00" -> "12" */
-    while (n > 0 && buf[n - 1] == '0')
-        buf[--n] = '\0';
-    if (n > 0 && buf[n - 1] == '.')
-        buf[--n] = '\0';
-    if (!strcmp(buf, "-0"))
-        strcpy(buf, "0");
-    return pw_sbuf_puts(b, buf);
+    /* two decimals, trailing zeros trimmed ("12.5", "12", never "-0"): the digits of
+     * k = round(100 v) written directly, the same text as "%.2f" of k / 100 trimmed (k / 100.0 is
+     * the double nearest that decimal, |k| <= 1e8), without a formatted print per coordinate */
+    long long k = llround(v * 100.0);
+    char buf[40], *e = buf + sizeof buf, *q = e;
+    *--q = '\0';
+    bool neg = k < 0;
+    unsigned long long u = (unsigned long long)(neg ? -k : k);
+    unsigned frac = (unsigned)(u % 100u);
+    u /= 100u;
+    if (frac != 0) {
+        if (frac % 10u != 0)
+            *--q = (char)('0' + frac % 10u);
+        *--q = (char)('0' + frac / 10u);
+        *--q = '.';
+    }
+    do {
+        *--q = (char)('0' + u % 10u);
+        u /= 10u;
+    } while (u != 0);
+    if (neg)
+        *--q = '-';
+    return pw_sbuf_puts(b, q);
 }
 
 /* ---- ticks ---- */

@@ -78,6 +78,43 @@ static void ticks_follow_one_two_five(void **state)
     assert_string_equal(pw_svg_format_tick(-2.0, 0, buf, sizeof buf), "\xe2\x88\x92" "2");
 }
 
+/* The coordinate writer prints the digits of round(100 v) itself; it must give the same text as
+ * the formatted print it replaced: "%.2f" of round(100 v)/100, trailing zeros and "-0" trimmed. */
+static void coord_text_equals_the_formatted_print(void **state)
+{
+    (void)state;
+    unsigned long long st = 0x2545f4914f6cdd1dULL;
+    for (int i = 0; i < 200000; i++) {
+        st ^= st << 13;
+        st ^= st >> 7;
+        st ^= st << 17;
+        double u = (double)(st >> 11) / 9007199254740992.0;
+        /* magnitudes from 1e-4 to 1e6, both signs, and exact halves of the last digit */
+        double v = (i % 2 ? -1.0 : 1.0) * pow(10.0, -4.0 + 10.0 * u);
+        if (i % 7 == 0)
+            v = (double)((long long)(v * 100.0)) / 100.0 + (i % 14 == 0 ? 0.005 : 0.0);
+        if (v > 1e6 || v < -1e6)
+            continue;
+        char want[48];
+        double r = round(v * 100.0) / 100.0;
+        if (r == 0.0)
+            r = 0.0;
+        int n = snprintf(want, sizeof want, "%.2f", r);
+        while (n > 0 && want[n - 1] == '0')
+            want[--n] = '\0';
+        if (n > 0 && want[n - 1] == '.')
+            want[--n] = '\0';
+        if (!strcmp(want, "-0"))
+            strcpy(want, "0");
+        pw_sbuf b;
+        pw_sbuf_init(&b);
+        assert_int_equal(pw_sbuf_coord(&b, v), PW_OK);
+        if (strcmp(pw_sbuf_str(&b), want) != 0)
+            fail_msg("v = %.17g: wrote %s, the formatted print gives %s", v, pw_sbuf_str(&b), want);
+        pw_sbuf_free(&b);
+    }
+}
+
 static void text_is_escaped(void **state)
 {
     (void)state;
@@ -255,6 +292,7 @@ int main(void)
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(frame_maps_corners_and_centre),
         cmocka_unit_test(ticks_follow_one_two_five),
+        cmocka_unit_test(coord_text_equals_the_formatted_print),
         cmocka_unit_test(text_is_escaped),
         cmocka_unit_test(non_finite_never_reaches_the_output),
         cmocka_unit_test(buffer_grows_without_a_fixed_size),
