@@ -89,6 +89,12 @@ typedef struct pw_draw_phase {
 pw_status pw_draw_phase_compute(const pw_system *s, bool isothermal, double fixed,
                                 pw_draw_phase *out);
 
+/* The same, reusing a search already made: known is pw_azeotrope_find's result (default options)
+ * for s at the same condition (a pw_rank_assess row's, for example), so the homogeneous azeotrope
+ * search is not run again; NULL searches as pw_draw_phase_compute does. */
+pw_status pw_draw_phase_compute_known(const pw_system *s, bool isothermal, double fixed,
+                                      const pw_az_result *known, pw_draw_phase *out);
+
 /* The equilibrium curve at a column pressure: y[k] = y*(x[k]) of the bubble point at P (the
  * curve the column module steps on; inside a two-liquid region the homogeneous, metastable
  * branch). stable_y is the curve as the liquids behave: the three-phase vapor between the

@@ -26,12 +26,18 @@ static bool fixed_ok(double v)
 
 /* The azeotropes at one condition (drawing.h): the module's search, then the heterogeneous
  * correction for a model that can split. */
-static void azeotropes(const pw_system *s, bool isothermal, double fixed, pw_draw_azeotropes *a)
+static void azeotropes(const pw_system *s, bool isothermal, double fixed, const pw_az_result *known,
+                       pw_draw_azeotropes *a)
 {
     memset(a, 0, sizeof *a);
     a->three_phase.exists = false;
     pw_az_mode mode = isothermal ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC;
-    a->status = pw_azeotrope_find(s, mode, fixed, NULL, &a->found);
+    if (known) {
+        a->status = PW_OK;
+        a->found = *known;
+    } else {
+        a->status = pw_azeotrope_find(s, mode, fixed, NULL, &a->found);
+    }
     if (a->status != PW_OK)
         return;
     if (pw_model_can_split(s->model)) {
@@ -93,12 +99,18 @@ static bool dew_unstable(const pw_system *s, const pw_three_phase *tp, const pw_
 pw_status pw_draw_phase_compute(const pw_system *s, bool isothermal, double fixed,
                                 pw_draw_phase *o)
 {
+    return pw_draw_phase_compute_known(s, isothermal, fixed, NULL, o);
+}
+
+pw_status pw_draw_phase_compute_known(const pw_system *s, bool isothermal, double fixed,
+                                      const pw_az_result *known, pw_draw_phase *o)
+{
     if (!s || !s->model || !o || !fixed_ok(fixed))
         return PW_EINVAL;
     memset(o, 0, sizeof *o);
     o->isothermal = isothermal;
     o->fixed = fixed;
-    azeotropes(s, isothermal, fixed, &o->az);
+    azeotropes(s, isothermal, fixed, known, &o->az);
     /* an overall liquid inside the two-liquid region boils at the three-phase condition: the
      * bubble curve is flat there (docs/heterogeneous.md) */
     const pw_three_phase *tp = &o->az.three_phase;
@@ -158,7 +170,7 @@ pw_status pw_draw_xy_compute(const pw_system *s, double P_Pa, pw_draw_xy *o)
     if (st != PW_OK)
         return st;
     pw_curve curve = pw_system_curve_bind(&sc);
-    azeotropes(s, false, P_Pa, &o->az);
+    azeotropes(s, false, P_Pa, NULL, &o->az);
     const pw_three_phase *tp = &o->az.three_phase;
     for (size_t i = 0; i < PW_DRAW_GRID; i++) {
         double x = pw_draw_grid_x(i), y;

@@ -123,8 +123,16 @@ static pw_status other_models(pw_report_curves *c, const pw_report_input *in)
         const pw_fit_result *o = in->others[i];
         if (!o || !o->sys.model || o->kind != c->fit->kind)
             continue;
-        pw_status st = pw_draw_phase_compute(&o->sys, c->isothermal, c->phase.fixed,
-                                             &c->model_phase[c->n_models]);
+        /* the ranking already searched this fit's azeotropes at the data's condition */
+        const pw_az_result *known = NULL;
+        for (size_t k = 0; c->rank && c->rank_status == PW_OK && k < c->rank->n; k++) {
+            const pw_rank_row *r = &c->rank->rows[k];
+            double f = c->isothermal ? o->T_fixed_K : o->P_fixed_Pa;
+            if (r->fit == o && r->az_status == PW_OK && f == c->phase.fixed)
+                known = &r->az;
+        }
+        pw_status st = pw_draw_phase_compute_known(&o->sys, c->isothermal, c->phase.fixed, known,
+                                                   &c->model_phase[c->n_models]);
         if (st == PW_ENOMEM)
             return st;
         if (st == PW_OK)
@@ -158,8 +166,8 @@ pw_status pw_report_curves_compute(pw_report_curves *c, const pw_report_input *i
         if (st != PW_OK)
             return st;
     }
-    st = other_models(c, in);
-    return st == PW_OK ? rank_models(c, in) : st;
+    st = rank_models(c, in);
+    return st == PW_OK ? other_models(c, in) : st;
 }
 
 void pw_report_curves_free(pw_report_curves *c)
