@@ -57,11 +57,49 @@ static pw_status tb_fn1d(void *vp, double T, double *f)
     return PW_OK;
 }
 
-/* T at which x1 g1 P1sat(T) + x2 g2 P2sat(T) = P, for T-independent gammas. The bracket is
- * exact: at min_i Tsat_i(P/(x_i g_i)) one term alone reaches P; at min_i Tsat_i(P/(2 x_i g_i))
- * (over the terms that can reach P/2) neither term exceeds P/2. */
-static pw_status bubble_T(const cs_data *d, const double xg[2], double P, double *T)
+/* T at which x1 g1 P1sat(T) + x2 g2 P2sat(T) = P, for T-independent gammas: the root of
+ * f(T) = ln(sum_i x_i g_i P_i^sat(T)) - ln P, strictly increasing in T, so the root is unique.
+ * Newton from T0 (the measured temperature: close to the root), f' = sum_i p_i dlnP_i^sat/dT /
+ * sum_i p_i, accepted once a step is below 4 DBL_EPSILON of T; when it does not get there in
+ * NEWTON_MAX steps or leaves the vapor-pressure range, GSL Brent on an exact bracket: at
+ * min_i Tsat_i(P/(x_i g_i)) one term alone reaches P; at min_i Tsat_i(P/(2 x_i g_i)) (over the
+ * terms that can reach P/2) neither term exceeds P/2. */
+#define NEWTON_MAX 12
+
+static pw_status bubble_T_newton(const cs_data *d, const double xg[2], double P, double T0,
+                                 double *T)
 {
+    if (!(T0 > 0.0) || !isfinite(T0))
+        return PW_ENOCONV;
+    const double lnP = log(P);
+    double t = T0;
+    for (int it = 0; it < NEWTON_MAX; it++) {
+        double s = 0.0, ds = 0.0;
+        for (int c = 0; c < 2; c++) {
+            double Ps, dl;
+            if (pw_psat(d->comp[c], t, &Ps, &dl) != PW_OK)
+                return PW_ENOCONV;
+            s += xg[c] * Ps;
+            ds += xg[c] * Ps * dl;
+        }
+        if (!(s > 0.0) || !(ds > 0.0) || !isfinite(s) || !isfinite(ds))
+            return PW_ENOCONV;
+        double step = (log(s) - lnP) * s / ds;
+        if (!isfinite(step) || fabs(step) > 0.2 * t)
+            return PW_ENOCONV;
+        t -= step;
+        if (fabs(step) <= 4.0 * DBL_EPSILON * t) {
+            *T = t;
+            return PW_OK;
+        }
+    }
+    return PW_ENOCONV;
+}
+
+static pw_status bubble_T(const cs_data *d, const double xg[2], double P, double T0, double *T)
+{
+    if (bubble_T_newton(d, xg, P, T0, T) == PW_OK)
+        return PW_OK;
     double hi = INFINITY, lo = INFINITY;
     for (int c = 0; c < 2; c++) {
         double Th, Tl;
@@ -97,7 +135,7 @@ static pw_status bubble(const cs_data *d, const pw_model_type *m, const double *
         b->Psat[0] = q->Psat_Pa[0];
         b->Psat[1] = q->Psat_Pa[1];
     } else {
-        st = bubble_T(d, xg, d->ds->P_fixed_Pa, &T);
+        st = bubble_T(d, xg, d->ds->P_fixed_Pa, q->T_K, &T);
         for (int c = 0; c < 2 && st == PW_OK; c++)
             st = pw_psat(d->comp[c], T, &b->Psat[c], &dlnP[c]);
         if (st != PW_OK)
