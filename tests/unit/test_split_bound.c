@@ -88,6 +88,18 @@ static pw_system uniquac_random(void)
     return s;
 }
 
+/* A random parameter set of one of the four models that can split. */
+static pw_system random_system(const pw_model_type *m)
+{
+    if (m == &pw_model_nrtl)
+        return sys_of(m, uniform(-400.0, 1200.0), uniform(-400.0, 1200.0), uniform(0.1, 0.6));
+    if (m == &pw_model_margules)
+        return sys_of(m, uniform(-1.5, 3.5), uniform(-1.5, 3.5), 0.0);
+    if (m == &pw_model_vanlaar)
+        return sys_of(m, uniform(0.1, 4.0), uniform(0.1, 4.0), 0.0);
+    return uniquac_random();
+}
+
 static double D_model(const pw_system *s, double x, double T)
 {
     pw_activity a;
@@ -103,16 +115,7 @@ static void bound_is_D_on_a_point_and_below_it_on_a_box(void **state)
     rng_state = 0x5851f42d4c957f2dULL;
     for (int mi = 0; mi < 4; mi++)
         for (int t = 0; t < 500; t++) {
-            pw_system s;
-            if (models[mi] == &pw_model_nrtl)
-                s = sys_of(models[mi], uniform(-400.0, 1200.0), uniform(-400.0, 1200.0),
-                           uniform(0.1, 0.6));
-            else if (models[mi] == &pw_model_margules)
-                s = sys_of(models[mi], uniform(-1.5, 3.5), uniform(-1.5, 3.5), 0.0);
-            else if (models[mi] == &pw_model_vanlaar)
-                s = sys_of(models[mi], uniform(0.1, 4.0), uniform(0.1, 4.0), 0.0);
-            else
-                s = uniquac_random();
+            pw_system s = random_system(models[mi]);
             double x = uniform(0.001, 0.999), T = uniform(250.0, 450.0);
             double D = D_model(&s, x, T);
             double lb = pw_thermo_split_D_lower(&s, x, x, T, T);
@@ -144,16 +147,7 @@ static void random_sets(void **state)
         rng_state = 0x9e3779b97f4a7c15ULL + (unsigned long long)mi;
         int n_excluded = 0, n_split = 0, n_convex = 0, n_convex_proved = 0;
         for (int t = 0; t < 60; t++) {
-            pw_system s;
-            if (models[mi] == &pw_model_nrtl)
-                s = sys_of(models[mi], uniform(-400.0, 1200.0), uniform(-400.0, 1200.0),
-                           uniform(0.1, 0.6));
-            else if (models[mi] == &pw_model_margules)
-                s = sys_of(models[mi], uniform(-1.5, 3.5), uniform(-1.5, 3.5), 0.0);
-            else if (models[mi] == &pw_model_vanlaar)
-                s = sys_of(models[mi], uniform(0.1, 4.0), uniform(0.1, 4.0), 0.0);
-            else
-                s = uniquac_random();
+            pw_system s = random_system(models[mi]);
             double Ta = uniform(260.0, 400.0), Tb = Ta + uniform(0.0, 80.0);
             bool excluded = pw_thermo_split_excluded(&s, Ta, Tb), convex;
             bool split = full_scan_splits(&s, Ta, Tb, 25, &convex);
