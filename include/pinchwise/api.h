@@ -91,6 +91,15 @@ pw_status pw_api_decanter(const char *fit_path, const char *fit_text, const char
                           const char *components, const char *pressure, double zf, double x1_rich,
                           double x1_lean, double q, char **doc, pw_error *err);
 
+/* `decanter ... [--uncertainty --samples N --seed N] --json`: pw_api_decanter with the fit's
+ * covariance carried into the decanter and both minimum boil-ups (uncertainty, samples, seed as
+ * for pw_api_reflux; nothing is propagated when the scheme is infeasible at the estimate, as on
+ * the command line). */
+pw_status pw_api_decanter_ex(const char *fit_path, const char *fit_text, const char *name,
+                             const char *components, const char *pressure, double zf,
+                             double x1_rich, double x1_lean, double q, int uncertainty,
+                             long samples, long seed, char **doc, pw_error *err);
+
 /* `rate FIT --pressure P --stages N --feed-stage K --reflux R --zf X --distillate D --q Q
  * [--energy] --json`: the products of a given column. stages, feed_stage 1..100000; zf in
  * [0, 1]; q in [-10, 10]; energy != 0: energy balances (adds the duties). */

@@ -9,8 +9,11 @@
  * column is y = x + (x - x_B)/S (x_B its bottoms), and
  *     S_min = max over x between x_B and the top layer of (x - x_B)/(y*(x) - x),
  * reached at the top (the layer's vapor is the three-phase vapor y3: a top pinch) or inside the
- * column (a tangent pinch). The maximum is found on a grid of `grid` points per column with every
- * interior grid maximum and the top end refined by GSL Brent minimisation. Stages are stepped from
+ * column (a tangent pinch). The maximum is found by the single column's section search
+ * (docs/column.md section 3: a branch and bound over the cells of a coarse table of `grid` points,
+ * each cell bounded under a checked bound on the curve's convexity, local maxima refined by GSL
+ * Brent), which cannot miss a tangent pinch and does not depend on `grid`; a column whose bottoms
+ * is rich in 1 is searched on the mirror image x -> 1 - x. Stages are stepped from
  * the top on the single-liquid branch of the curve (the partial reboiler counted, the last step
  * fractional as in pw_column_total_reflux). q changes no flow (the feed enters the decanter).
  * Methods and sources: docs/heterogeneous.md. */
@@ -50,7 +53,8 @@ typedef struct pw_stripper_result {
  * equilibrium curve y*(x) (any pw_curve: a fitted model, or a closed form in tests). The curve
  * is evaluated on the side of x_top towards x_bottom and beyond to the pure end; it must not
  * reach y* = x strictly between x_bottom and x_top (feasible false with a reason otherwise).
- * opt may be NULL for the defaults (grid 2000 here at least). */
+ * opt may be NULL for the defaults; PW_EINVAL for options outside pw_column_solve's ranges,
+ * PW_ENOCONV when the search's convexity bound had to be raised too often (no unproved answer). */
 pw_status pw_stripper_solve(const pw_curve *curve, const pw_stripper_spec *spec,
                             const pw_column_options *opt, pw_stripper_result *out);
 

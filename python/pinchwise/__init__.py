@@ -167,6 +167,8 @@ def _declare(lib):
                                err]),
         "pw_api_decanter": (c_int, [c_str, c_str, c_str, c_str, c_str, c_double, c_double,
                                     c_double, c_double, out, err]),
+        "pw_api_decanter_ex": (c_int, [c_str, c_str, c_str, c_str, c_str, c_double, c_double,
+                                       c_double, c_double, c_int, c_long, c_long, out, err]),
         "pw_api_rate": (c_int, [c_str, c_str, c_str, c_str, c_str, c_long, c_long, c_double,
                                 c_double, c_double, c_double, c_int, out, err]),
     }
@@ -414,7 +416,8 @@ def lle(fit, temperature, scan=None, components=None):
                  t_from, t_to, n)
 
 
-def decanter(fit, pressure, zf, x1_rich, x1_lean, q=1.0, components=None):
+def decanter(fit, pressure, zf, x1_rich, x1_lean, q=1.0, components=None, uncertainty=False,
+             samples=None, seed=None):
     """The decanter and two stripping columns of a partly miscible binary with a heterogeneous
     azeotrope; like ``pinchwise decanter --json``.
 
@@ -423,14 +426,19 @@ def decanter(fit, pressure, zf, x1_rich, x1_lean, q=1.0, components=None):
     bottoms has x1 = x1_rich, the other layer tops a second one with bottoms x1 = x1_lean. zf
     lies strictly between 0 and 1; q changes the condenser duty only (the feed enters the
     decanter). An impossible specification returns ``"feasible": False`` with a ``"reason"``.
+    uncertainty, samples, seed: as ``--uncertainty --samples N --seed N`` (giving samples or
+    seed switches it on): when the scheme is feasible, each column adds boilup_min_ci95 and the
+    dict adds "uncertainty" (T_K, vapor_x1, x1_layers, boilup_min, feasible_probability, draws,
+    seed) from the fit's parameter covariance.
 
     Returns a dict with feasible, reason, decanter (T_K, x1_layers, vapor_x1), columns (bottoms
     rich in 1 first: bottoms_x1, top_x1, boilup_min, n_min, design rows, pinch),
     bottoms_per_mol_feed, balance_closure, q, caution."""
     fit_path, fit_text, name = _fit_source(fit)
-    return _call("pw_api_decanter", fit_path, fit_text, name, _b(components), _b(pressure),
+    return _call("pw_api_decanter_ex", fit_path, fit_text, name, _b(components), _b(pressure),
                  _fraction("zf", zf), _fraction("x1_rich", x1_rich),
-                 _fraction("x1_lean", x1_lean), _fraction("q", q))
+                 _fraction("x1_lean", x1_lean), _fraction("q", q), 1 if uncertainty else 0,
+                 _count("samples", samples), _count("seed", seed))
 
 
 def rate(fit, pressure, stages, feed_stage, reflux, zf, distillate, q=1.0, energy=False,

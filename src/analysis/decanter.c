@@ -7,21 +7,11 @@
 #include <pinchwise/decanter.h>
 
 #include <gsl/gsl_errno.h>
-#include <gsl/gsl_min.h>
 #include <gsl/gsl_roots.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
-
-#define MIN_GRID 2000
-#define PROBE_REL 1e-9
-
-typedef struct sctx {
-    const pw_curve *curve;
-    double xB;
-    pw_status st;
-} sctx;
 
 static pw_status curve_y(const pw_curve *c, double x, double *y)
 {
@@ -31,55 +21,6 @@ static pw_status curve_y(const pw_curve *c, double x, double *y)
     if (st == PW_OK && !isfinite(*y))
         return PW_EDOM;
     return st;
-}
-
-/* r(x) = (x - xB)/(y*(x) - x); the minimiser works on -r. */
-static double neg_ratio(double x, void *p)
-{
-    sctx *c = p;
-    double y;
-    pw_status st = curve_y(c->curve, x, &y);
-    if (st != PW_OK) {
-        if (c->st == PW_OK)
-            c->st = st;
-        return GSL_NAN;
-    }
-    return -(x - c->xB) / (y - x);
-}
-
-static pw_status refine(sctx *c, gsl_min_fminimizer *mn, double a, double m, double b, double *x,
-                        double *r)
-{
-    gsl_function F = {neg_ratio, c};
-    if (a > b) {
-        double t = a;
-        a = b;
-        b = t;
-    }
-    double fa = neg_ratio(a, c), fm = neg_ratio(m, c), fb = neg_ratio(b, c);
-    if (c->st != PW_OK)
-        return c->st;
-    *x = m;
-    *r = -fm;
-    if (!(fm < fa && fm < fb))
-        return PW_OK;
-    if (gsl_min_fminimizer_set_with_values(mn, &F, m, fm, a, fa, b, fb) != GSL_SUCCESS)
-        return PW_OK;
-    for (int it = 0; it < 200; it++) {
-        if (gsl_min_fminimizer_iterate(mn) != GSL_SUCCESS)
-            break;
-        if (c->st != PW_OK)
-            return c->st;
-        if (gsl_min_test_interval(gsl_min_fminimizer_x_lower(mn), gsl_min_fminimizer_x_upper(mn),
-                                  1e-14, 1e-12) == GSL_SUCCESS)
-            break;
-    }
-    double f = gsl_min_fminimizer_f_minimum(mn);
-    if (isfinite(f) && -f > *r) {
-        *r = -f;
-        *x = gsl_min_fminimizer_x_minimum(mn);
-    }
-    return PW_OK;
 }
 
 typedef struct inv_ctx {
@@ -101,15 +42,20 @@ static double inv_fn(double x, void *p)
     return y - c->y;
 }
 
-/* x*(y) on the branch from x_top towards the pure end beyond x_bottom: the first sign change of
- * y*(x) - y met walking from x_top (cells of width h), refined by Brent. */
-static pw_status x_of_y(const pw_curve *curve, const pw_stripper_spec *sp, double y, double *x)
+/* x*(y) on the branch from x_from (the current stage's liquid, on the top's side of the answer)
+ * towards the pure end beyond x_bottom: the first sign change of y*(x) - y met walking from x_from
+ * in cells of width |end - x_top|/400, refined by Brent. Below x_from the answer cannot lie: the
+ * curve rises with x where one liquid is stable (a binary at fixed pressure). */
+static pw_status x_of_y(const pw_curve *curve, const pw_stripper_spec *sp, double y, double x_from,
+                        double *x)
 {
     double end = sp->x_bottom > sp->x_top ? 1.0 : 0.0;
-    double span = end - sp->x_top;
-    const int cells = 400;
+    double h = (end - sp->x_top) / 400.0;
+    int cells = (int)ceil((end - x_from) / h);
+    if (cells < 1)
+        cells = 1;
     inv_ctx c = {curve, y, PW_OK};
-    double xa = sp->x_top, fa = inv_fn(xa, &c);
+    double xa = x_from, fa = inv_fn(xa, &c);
     if (c.st != PW_OK)
         return c.st;
     if (fa == 0.0) {
@@ -117,7 +63,7 @@ static pw_status x_of_y(const pw_curve *curve, const pw_stripper_spec *sp, doubl
         return PW_OK;
     }
     for (int k = 1; k <= cells; k++) {
-        double xb = k == cells ? end : sp->x_top + span * k / cells;
+        double xb = k == cells ? end : x_from + h * k;
         double fb = inv_fn(xb, &c);
         if (c.st != PW_OK)
             return c.st;
@@ -171,7 +117,7 @@ pw_status pw_stripper_stages_trace(const pw_curve *curve, const pw_stripper_spec
         double y = isinf(S) ? x : x + (x - sp->x_bottom) / S;
         pw_stair_trace_add(trace, x, y);
         double xn;
-        pw_status st = x_of_y(curve, sp, y, &xn);
+        pw_status st = x_of_y(curve, sp, y, x, &xn);
         if (st == PW_ENOBRACKET)
             return PW_EINFEASIBLE; /* the operating line has crossed the curve: below S_min */
         if (st != PW_OK)
@@ -188,6 +134,35 @@ pw_status pw_stripper_stages_trace(const pw_curve *curve, const pw_stripper_spec
     return PW_EMAXITER;
 }
 
+/* The curve seen from a column whose bottoms lies on the left of its top: y*(x) itself, or for a
+ * bottoms on the right the mirror image x -> 1 - x, y -> 1 - y (the ratio (x - xB)/(y* - x) is
+ * unchanged by it). */
+typedef struct mirror {
+    const pw_curve *curve;
+    bool flip;
+} mirror;
+
+static pw_status mirror_y(void *ctx, double x, double *y)
+{
+    const mirror *m = ctx;
+    if (!m->flip)
+        return m->curve->y_of_x(m->curve->ctx, x, y);
+    double yy;
+    pw_status st = m->curve->y_of_x(m->curve->ctx, 1.0 - x, &yy);
+    *y = 1.0 - yy;
+    return st;
+}
+
+static void infeasible_touch(pw_stripper_result *out, const pw_stripper_spec *sp, double x_at)
+{
+    out->feasible = false;
+    snprintf(out->reason, sizeof out->reason,
+             "the equilibrium curve reaches y = x (at x1 = %.5g) between the top layer (%.5g) and "
+             "the bottoms (%.5g): a homogeneous azeotrope or pinch blocks this column, no finite "
+             "boil-up reaches the bottoms",
+             x_at, sp->x_top, sp->x_bottom);
+}
+
 pw_status pw_stripper_solve(const pw_curve *curve, const pw_stripper_spec *sp,
                             const pw_column_options *opt, pw_stripper_result *out)
 {
@@ -199,6 +174,8 @@ pw_status pw_stripper_solve(const pw_curve *curve, const pw_stripper_spec *sp,
         || sp->x_top == sp->x_bottom)
         return PW_EINVAL;
     pw_column_options o = opt ? *opt : pw_column_default_options();
+    if (!(o.rtol > 0.0 && o.rtol <= 1e-4) || o.grid < 16 || o.grid > 10000000)
+        return PW_EINVAL;
     if (sp->x_bottom <= 0.0 || sp->x_bottom >= 1.0) {
         snprintf(out->reason, sizeof out->reason,
                  "a pure bottoms product (x1 = %g) needs infinitely many stages: give a purity "
@@ -206,84 +183,56 @@ pw_status pw_stripper_solve(const pw_curve *curve, const pw_stripper_spec *sp,
                  sp->x_bottom);
         return PW_OK;
     }
-    size_t n = o.grid > MIN_GRID ? o.grid : MIN_GRID;
-    double dir = sp->x_bottom > sp->x_top ? 1.0 : -1.0;
-    sctx c = {curve, sp->x_bottom, PW_OK};
-    double *xs = malloc((n + 1) * sizeof *xs), *rs = malloc((n + 1) * sizeof *rs);
-    gsl_min_fminimizer *mn = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
-    pw_status st = xs && rs && mn ? PW_OK : PW_ENOMEM;
-    /* grid from the bottoms (k = 0, excluded: r = 0 there) to the top (k = n) */
-    for (size_t k = 1; st == PW_OK && k <= n; k++) {
-        xs[k] = sp->x_bottom + (sp->x_top - sp->x_bottom) * (double)k / (double)n;
-        if (k == n)
-            xs[k] = sp->x_top;
-        double y;
-        st = curve_y(curve, xs[k], &y);
-        if (st != PW_OK)
-            break;
-        double d = (y - xs[k]) * dir; /* must be < 0: the vapor leans away from the bottoms */
-        if (!(d < 0.0)) {
-            out->feasible = false;
-            snprintf(out->reason, sizeof out->reason,
-                     "the equilibrium curve reaches y = x at x1 = %.5g between the top layer (%.5g) "
-                     "and the bottoms (%.5g): a homogeneous azeotrope or pinch blocks this column",
-                     xs[k], sp->x_top, sp->x_bottom);
-            free(xs);
-            free(rs);
-            gsl_min_fminimizer_free(mn);
-            return PW_OK;
-        }
-        rs[k] = (xs[k] - sp->x_bottom) / (y - xs[k]);
-    }
-    double best_r = -INFINITY, best_x = NAN;
-    bool tangent = false;
-    for (size_t k = 1; st == PW_OK && k <= n; k++) {
-        bool up = k == 1 || rs[k] >= rs[k - 1];
-        bool down = k == n || rs[k] >= rs[k + 1];
-        if (!(up && down))
-            continue;
-        double xr = xs[k], rr = rs[k];
-        if (k > 1 && k < n) {
-            st = refine(&c, mn, xs[k - 1], xs[k], xs[k + 1], &xr, &rr);
-        } else if (k == n) {
-            /* the top: does r still rise just inside? */
-            double eps = -PROBE_REL * (sp->x_top - sp->x_bottom);
-            double rp = -neg_ratio(sp->x_top + eps, &c);
-            st = c.st;
-            if (st == PW_OK && rp > rr) {
-                /* r(x_top + eps) exceeds both r(x_top) and r(xs[n-1]): a maximum inside */
-                double xr2, rr2;
-                st = refine(&c, mn, xs[n - 1], sp->x_top + eps, sp->x_top, &xr2, &rr2);
-                if (st == PW_OK && rr2 > rr) {
-                    xr = xr2;
-                    rr = rr2;
-                }
-            }
-        }
-        if (st == PW_OK && rr > best_r) {
-            best_r = rr;
-            best_x = xr;
-            tangent = k < n || xr != sp->x_top;
-        }
-    }
-    free(xs);
-    free(rs);
-    gsl_min_fminimizer_free(mn);
+    /* Work with the bottoms on the left (mirrored for a bottoms rich in 1): the section search of
+     * the single column's stripping section, pole xb' = the bottoms, range [xb', xt'], the top as
+     * the end candidate. It returns s_lim = min over the range of (y* - xb')/(x - xb'), proved
+     * (docs/column.md section 3); S_min = 1/(s_lim - 1) = max of (x - xB)/(y* - x). */
+    const bool flip = sp->x_bottom > sp->x_top;
+    const double xb = flip ? 1.0 - sp->x_bottom : sp->x_bottom;
+    const double xt = flip ? 1.0 - sp->x_top : sp->x_top;
+    mirror m = {curve, flip};
+    pw_curve mc = {mirror_y, &m};
+    pw_column_ws w;
+    pw_status st = pw_column_ws_init(&w, &mc, o.rtol);
     if (st != PW_OK)
         return st;
-    if (!(best_r > 0.0) || !isfinite(best_r)) {
-        out->feasible = false;
-        snprintf(out->reason, sizeof out->reason,
-                 "the equilibrium curve touches y = x between the top layer and the bottoms: no "
-                 "finite boil-up reaches x1 = %.5g",
-                 sp->x_bottom);
+    const size_t n = o.grid;
+    double *xg = malloc(2 * n * sizeof *xg);
+    if (!xg)
+        return PW_ENOMEM;
+    double *yg = xg + n;
+    for (size_t k = 0; st == PW_OK && k < n; k++) {
+        xg[k] = k + 1 == n ? xt : xb + (xt - xb) * (double)k / (double)(n - 1);
+        st = pw_column_y(&w, xg[k], &yg[k]);
+    }
+    double slope = NAN, x_lim = NAN, y_lim = NAN;
+    bool at_top = false;
+    if (st == PW_OK) {
+        w.tab_x = xg;
+        w.tab_y = yg;
+        w.tab_n = n;
+        pw_column_spec cs = {.xd = xt, .xb = xb, .zf = xt, .q = 1.0};
+        st = pw_column_section_search(&w, &cs, PW_SECTION_STRIPPING, xb, yg[0], xt, yg[n - 1], xt,
+                                      yg[n - 1], &slope, &x_lim, &y_lim, &at_top);
+    }
+    free(xg);
+    if (st != PW_OK)
+        return st;
+    if (flip) {
+        x_lim = 1.0 - x_lim;
+        y_lim = 1.0 - y_lim;
+    }
+    /* s_lim <= 1: somewhere y* <= x (the vapor no longer leans away from the bottoms) */
+    if (!(slope > 1.0) || !isfinite(1.0 / (slope - 1.0))) {
+        infeasible_touch(out, sp, x_lim);
         return PW_OK;
     }
+    const double best_r = 1.0 / (slope - 1.0);
     out->feasible = true;
     out->boilup_min = best_r;
-    out->tangent = tangent;
-    out->x_pinch = best_x;
-    st = curve_y(curve, best_x, &out->y_pinch);
+    out->tangent = !at_top;
+    out->x_pinch = at_top ? sp->x_top : x_lim;
+    st = curve_y(curve, out->x_pinch, &out->y_pinch);
     if (st != PW_OK)
         return st;
     out->y_top_min = sp->x_top + (sp->x_top - sp->x_bottom) / best_r;

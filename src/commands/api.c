@@ -464,6 +464,15 @@ pw_status pw_api_decanter(const char *fit_path, const char *fit_text, const char
                           const char *components, const char *pressure, double zf, double x1_rich,
                           double x1_lean, double q, char **doc, pw_error *err)
 {
+    return pw_api_decanter_ex(fit_path, fit_text, name, components, pressure, zf, x1_rich,
+                              x1_lean, q, 0, -1, -1, doc, err);
+}
+
+pw_status pw_api_decanter_ex(const char *fit_path, const char *fit_text, const char *name,
+                             const char *components, const char *pressure, double zf,
+                             double x1_rich, double x1_lean, double q, int uncertainty,
+                             long samples, long seed, char **doc, pw_error *err)
+{
     if (doc_slot(doc, err) != PW_OK)
         return PW_EINVAL;
     pw_decanter_spec spec = {.zf = zf, .q = q, .x_rich = x1_rich, .x_lean = x1_lean};
@@ -476,6 +485,10 @@ pw_status pw_api_decanter(const char *fit_path, const char *fit_text, const char
         st = fraction("x1_lean", x1_lean, err);
     if (st == PW_OK)
         st = ranged("q", q, -10.0, 10.0, err);
+    bool unc = false;
+    pw_unc_options uo;
+    if (st == PW_OK)
+        st = unc_options(uncertainty, samples, seed, &unc, &uo, err);
     if (st != PW_OK)
         return st;
     pw_fit_result fit;
@@ -485,8 +498,18 @@ pw_status pw_api_decanter(const char *fit_path, const char *fit_text, const char
     pw_column_options opt = pw_column_default_options();
     pw_decanter_result r;
     st = pw_decanter_run(&fit.sys, &spec, &opt, fit_where(fit_path, name), &r, err);
-    if (st == PW_OK)
-        st = finish(pw_decanter_doc(&r, &spec), doc, err);
+    unc = unc && st == PW_OK && r.feasible; /* as the command: no interval without a scheme */
+    pw_unc_result res;
+    if (unc) {
+        pw_unc_het_ctx hc = pw_unc_decanter_ctx(&spec, &opt);
+        st = pw_het_unc_run(&fit, &hc, &uo, &res, err);
+    }
+    if (st == PW_OK) {
+        json_t *o = pw_decanter_doc(&r, &spec);
+        if (o && unc)
+            pw_decanter_unc_doc(o, &res, uo.seed);
+        st = finish(o, doc, err);
+    }
     pw_fit_result_free(&fit);
     return st;
 }

@@ -240,6 +240,36 @@ class NewCommandsEqualToCommandLine(unittest.TestCase):
                 self.assertEqual(pinchwise.decanter(f, "101.325kPa", zf, rich, lean, q=q), want)
         self.assertEqual(seen, {True, False})  # both shapes of the document
 
+    def test_decanter_uncertainty(self):
+        """decanter --uncertainty --samples N --seed N: the same draws and intervals as the
+        program's --json for the same seed (also from the dict fit() returned); giving samples or
+        seed alone switches it on; an infeasible scheme gets no interval, as on the command
+        line."""
+        out = self.fits[self.BW, "nrtl"]
+        f = pinchwise.fit(self.BW, "nrtl")
+        spec = ["--pressure", "1atm", "--zf", "0.2", "--x1-rich", "0.99", "--x1-lean", "0.001"]
+        want = cli("decanter", out, *spec, "--uncertainty", "--samples", "12", "--seed", "7",
+                   "--json")
+        self.assertTrue(want["feasible"])
+        self.assertEqual(want["uncertainty"]["seed"], 7)
+        self.assertEqual(want["uncertainty"]["draws"]["evaluated"], 12)
+        self.assertIn("boilup_min_ci95", want["columns"][0])
+        got = pinchwise.decanter(out, "1atm", 0.2, 0.99, 0.001, uncertainty=True, samples=12,
+                                 seed=7)
+        self.assertEqual(got, want)
+        self.assertEqual(pinchwise.decanter(f, "1atm", 0.2, 0.99, 0.001, samples=12, seed=7), want)
+        other = pinchwise.decanter(out, "1atm", 0.2, 0.99, 0.001, samples=12, seed=8)
+        self.assertEqual(other["uncertainty"]["seed"], 8)
+        self.assertEqual(other, cli("decanter", out, *spec, "--samples", "12", "--seed", "8",
+                                    "--json"))
+        want = cli("decanter", out, "--pressure", "1atm", "--zf", "0.2", "--x1-rich", "0.3",
+                   "--x1-lean", "0.001", "--samples", "12", "--json")
+        self.assertFalse(want["feasible"])
+        self.assertNotIn("uncertainty", want)
+        self.assertEqual(pinchwise.decanter(out, "1atm", 0.2, 0.3, 0.001, samples=12), want)
+        with self.assertRaises(pinchwise.PinchwiseError):
+            pinchwise.decanter(out, "1atm", 0.2, 0.99, 0.001, samples=-3)
+
     def test_decanter_every_fit(self):
         for (data, model), out in self.fits.items():
             with self.subTest(data=os.path.basename(data), model=model):

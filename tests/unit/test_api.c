@@ -158,11 +158,46 @@ static void test_new_commands(void **state)
     assert_non_null(strstr(a, "\"feasible\": true"));
     pw_api_free(a);
     pw_api_free(b);
-    /* an impossible specification is a document, not an error */
+    /* pw_api_decanter is pw_api_decanter_ex without uncertainty; with it, the same draws from
+     * the fit file and from its text (tests/python: equal to the command's --json) */
+    assert_int_equal(
+        pw_api_decanter(out, NULL, NULL, NULL, "1atm", 0.3, 0.99, 0.001, 1.0, &a, &err), PW_OK);
+    assert_int_equal(pw_api_decanter_ex(NULL, text, "bw", NULL, "1atm", 0.3, 0.99, 0.001, 1.0, 0,
+                                        -1, -1, &b, &err),
+                     PW_OK);
+    assert_string_equal(a, b);
+    assert_null(strstr(a, "\"uncertainty\""));
+    pw_api_free(a);
+    pw_api_free(b);
+    assert_int_equal(pw_api_decanter_ex(out, NULL, NULL, NULL, "1atm", 0.3, 0.99, 0.001, 1.0, 1, 8,
+                                        5, &a, &err),
+                     PW_OK);
+    assert_int_equal(pw_api_decanter_ex(NULL, text, "bw", NULL, "1atm", 0.3, 0.99, 0.001, 1.0, 0,
+                                        8, 5, &b, &err),
+                     PW_OK);
+    assert_string_equal(a, b);
+    assert_non_null(strstr(a, "\"boilup_min_ci95\": ["));
+    assert_non_null(strstr(a, "\"evaluated\": 8"));
+    assert_non_null(strstr(a, "\"seed\": 5"));
+    pw_api_free(a);
+    pw_api_free(b);
+    /* an impossible specification is a document, not an error (and gets no interval) */
     assert_int_equal(
         pw_api_decanter(NULL, text, "bw", NULL, "1atm", 0.3, 0.3, 0.001, 1.0, &a, &err), PW_OK);
     assert_non_null(strstr(a, "\"feasible\": false"));
     pw_api_free(a);
+    assert_int_equal(pw_api_decanter_ex(NULL, text, "bw", NULL, "1atm", 0.3, 0.3, 0.001, 1.0, 1, 8,
+                                        5, &a, &err),
+                     PW_OK);
+    assert_non_null(strstr(a, "\"feasible\": false"));
+    assert_null(strstr(a, "\"uncertainty\""));
+    pw_api_free(a);
+    doc = (char *)"untouched";
+    assert_int_equal(pw_api_decanter_ex(NULL, text, "bw", NULL, "1atm", 0.3, 0.99, 0.001, 1.0, 1,
+                                        200000, -1, &doc, &err),
+                     PW_EINVAL);
+    assert_null(doc);
+    assert_non_null(strstr(err.msg, "samples 200000"));
     unlink(out);
 
     /* the invented demo: rate both balances, reflux with and without energy balances */
