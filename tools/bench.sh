@@ -7,7 +7,8 @@
 #   (b) time per reflux analysis (pw_column_solve, tangent-pinch search) on the demo NRTL fit;
 #   (c) fit time and peak resident memory for 10, 100, 1000 and 10000 points;
 #   (d) the design-grade column: energy-balance R_min with design rows, rating (pw-bench-design).
-# Usage: tools/bench.sh [N_DATASETS]   (default 200). Needs /usr/bin/python3 with python3-scipy.
+# Usage: tools/bench.sh [N_DATASETS]   (default 200). The SciPy comparison needs /usr/bin/python3
+# with python3-scipy (optional extra; without it that comparison is skipped with a message).
 set -euo pipefail
 cd "$(dirname "$0")/.."
 root=$PWD
@@ -34,6 +35,9 @@ done
 files=("$work"/sets/*.csv)
 "$bench" fit --reps 5 "${files[@]}" > "$work/c_default.tsv"
 "$bench" fit --reps 5 --starts 1 "${files[@]}" > "$work/c_one.tsv"
+if ! "$py" -c "import scipy.optimize" 2> /dev/null; then
+  echo "(a) skipped: SciPy not installed (optional extra of the benchmarks: apt-get install -y python3-scipy)"
+else
 "$py" "$root/tests/bench/scipy_nrtl.py" "$comps" "${files[@]}" > "$work/py.tsv"
 "$py" - "$work" <<'PY'
 import statistics as st, sys
@@ -55,6 +59,7 @@ print(f"    ratio SciPy/pinchwise per dataset, default multistart: median {st.me
 print(f"    ratio SciPy/pinchwise per dataset, one start:          median {st.median(r_1):.1f}x (min {min(r_1):.1f}, max {max(r_1):.1f})")
 print(f"    same chi2 (rel 1e-6) one-start pinchwise vs SciPy: {same}/{len(names)}; multistart chi2 <= SciPy's: {lower}/{len(names)}")
 PY
+fi
 echo "    per-dataset times: $work/c_default.tsv, c_one.tsv, py.tsv (deleted at exit; copy with KEEP=1)"
 echo "    known basins (docs/fitting.md): every model on every set, default multistart against exhaustive_starts:"
 "$bench" basins "${files[@]}" > "$work/basins.tsv" || true

@@ -209,7 +209,10 @@ pw_status pw_fit_result_copy(pw_fit_result *dst, const pw_fit_result *src);
  * path exists and force is false. Read validates structure, names and numbers; the reading
  * itself computes nothing, and the values derived from the parameters and components (per-point
  * model values, statistics, infinite dilution, stability screen; pw_fit_evaluate, the stored
- * chi2 kept) are computed once after it, from the components the result ends up with. */
+ * chi2 kept) are computed once after it, from the components the result ends up with; without
+ * replaced components the file's stability screen is kept where it cannot be stale (every
+ * recomputed per-point value equal to the file's to the last bit, the data range the points',
+ * the screen one the five-temperature screen can give; docs/fit-file.md). */
 pw_status pw_fitfile_write(const char *path, const pw_fit_result *r, bool force, pw_error *err);
 pw_status pw_fitfile_read(const char *path, pw_fit_result *r, pw_error *err);
 pw_status pw_fitfile_parse(const char *buf, size_t len, const char *name, pw_fit_result *r,

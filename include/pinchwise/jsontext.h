@@ -4,7 +4,8 @@
  * Every JSON writer of pinchwise (fit files, the command line's --json) dumps with
  * JSON_REAL_PRECISION(17), which round-trips exactly, and passes the text through
  * pw_json_shortest_reals: for each real it tries 15, 16 and 17 significant digits and keeps the
- * first that strtod reads back to the identical double. Reals keep a '.' or an exponent, so they
+ * first that strtod reads back to the identical double (computed by exact 128-bit integer
+ * arithmetic, the same text to the byte; the C library where that does not reach). Reals keep a '.' or an exponent, so they
  * stay reals for a reader that distinguishes them from integers; integers and strings are copied
  * unchanged. */
 #ifndef PINCHWISE_JSONTEXT_H

@@ -15,6 +15,8 @@ typedef struct pw_az_ctx {
     double sign;        /* +1 or -1: which side of zero the minimiser works on */
     double T_lo_K, T_hi_K;
     size_t n_evals;
+    double T_warm_K;    /* isobaric: the last bubble temperature, where the next Newton starts
+                         * (0: none); the same roots, fewer steps (pw_bubble_T_from) */
 } pw_az_ctx;
 
 /* ln alpha12 at x1 through the context (counts evaluations, keeps the first failure). */

@@ -50,10 +50,17 @@ static void note_T(pw_az_ctx *c, double T_K)
         c->T_hi_K = T_K;
 }
 
+static pw_status ln_alpha_at(const pw_system *s, pw_az_mode mode, double fixed, double x1,
+                             double T_guess_K, double *ln_alpha, pw_eq_point *bubble);
+
 pw_status pw_az_ctx_eval(pw_az_ctx *c, double x1, double *f, pw_eq_point *eq)
 {
-    pw_status st = pw_azeotrope_ln_alpha(c->s, c->mode, c->fixed, x1, f, eq);
+    pw_status st = !(x1 >= 0.0 && x1 <= 1.0) || !(c->fixed > 0.0) || !isfinite(c->fixed)
+                       ? PW_EINVAL
+                       : ln_alpha_at(c->s, c->mode, c->fixed, x1, c->T_warm_K, f, eq);
     c->n_evals++;
+    if (st == PW_OK && c->mode == PW_AZ_ISOBARIC)
+        c->T_warm_K = eq->T_K;
     if (st != PW_OK) {
         if (c->status == PW_OK) {
             c->status = st;
@@ -71,7 +78,13 @@ pw_status pw_azeotrope_ln_alpha(const pw_system *s, pw_az_mode mode, double fixe
     if (!s || !ln_alpha || !bubble || !(x1 >= 0.0 && x1 <= 1.0) || !(fixed > 0.0) ||
         !isfinite(fixed))
         return PW_EINVAL;
-    pw_status st = mode == PW_AZ_ISOBARIC ? pw_bubble_T(s, fixed, x1, bubble)
+    return ln_alpha_at(s, mode, fixed, x1, NAN, ln_alpha, bubble);
+}
+
+static pw_status ln_alpha_at(const pw_system *s, pw_az_mode mode, double fixed, double x1,
+                             double T_guess_K, double *ln_alpha, pw_eq_point *bubble)
+{
+    pw_status st = mode == PW_AZ_ISOBARIC ? pw_bubble_T_from(s, fixed, x1, T_guess_K, bubble)
                                           : pw_bubble_P(s, fixed, x1, bubble);
     if (st != PW_OK)
         return st;

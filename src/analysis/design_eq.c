@@ -58,6 +58,7 @@ pw_status pw_eqp_init(pw_eqp *e, const pw_system *sys, double P_Pa)
     e->sys = sys;
     e->P_Pa = P_Pa;
     e->T_last = NAN;
+    e->x_last = e->y_last = e->slope_last = NAN;
     return PW_OK;
 }
 
@@ -83,6 +84,8 @@ pw_status pw_eqp_bubble(pw_eqp *e, double x, double *y, double *T_K)
     double k1 = x * p.gamma[0] * p.Psat_Pa[0], k2 = (1.0 - x) * p.gamma[1] * p.Psat_Pa[1];
     double yn = k1 / (k1 + k2);
     *y = isfinite(yn) ? yn : fmin(1.0, fmax(0.0, p.y1));
+    e->x_last = x;
+    e->y_last = *y;
     if (T_K)
         *T_K = p.T_K;
     return PW_OK;
@@ -113,6 +116,67 @@ static pw_status brent(inv_ctx *c, double a, double b, double *x)
     return pw_root1d(inv_f, c, a, b, NAN, NAN, &o, x, NULL);
 }
 
+/* The liquid x* of vapor y at constant relative volatility alpha. */
+static double x_const_alpha(double alpha, double y)
+{
+    return y / (alpha - (alpha - 1.0) * y);
+}
+
+/* The fast inverse: x with |y*(x) - y| <= Y_TOL from the latest bubble point (x_l, y_l) (a
+ * stage stepped from the one before has a nearby liquid): the first step along the slope dy/dx
+ * of the latest inverse (else at the latest point's relative volatility), then secant steps
+ * starting from (x_l, y_l), which costs no evaluation, kept inside the bracket once the residual
+ * has changed sign (where a step leaves it: the step at the latest point's relative volatility,
+ * else bisection). false when it does not get there
+ * in 8 evaluations: the caller then takes the dew point and Brent's bracketed solve, which always
+ * do. */
+static bool x_of_y_seeded(pw_eqp *e, double y, double *x, double *T_K)
+{
+    double xl = e->x_last, yl = e->y_last;
+    if (!(xl > 0.0 && xl < 1.0 && yl > 0.0 && yl < 1.0))
+        return false;
+    double alpha = yl * (1.0 - xl) / (xl * (1.0 - yl));
+    if (!(alpha > 0.0) || !isfinite(alpha))
+        return false;
+    double xk = e->slope_last > 0.0 && isfinite(e->slope_last)
+                    ? xl + (y - yl) / e->slope_last
+                    : x_const_alpha(alpha, y);
+    double a = 0.0, b = 1.0, fb = 1.0 - y; /* y*(0) = 0, y*(1) = 1 */
+    double xp = xl, fp = yl - y;
+    for (int k = 0; k < 8; k++) {
+        if (!(xk > a && xk < b)) /* a long step: the latest point's volatility, else bisection */
+            xk = x_const_alpha(fp + y > 0.0 && fp + y < 1.0
+                                   ? (fp + y) * (1.0 - xp) / (xp * (1.0 - fp - y))
+                                   : alpha,
+                               y);
+        if (!(xk > a && xk < b))
+            xk = 0.5 * (a + b);
+        double yk, Tk;
+        if (pw_eqp_bubble(e, xk, &yk, &Tk) != PW_OK)
+            return false;
+        double fk = yk - y;
+        if (fabs(fk) <= Y_TOL) {
+            if (xk != xp && fk != fp)
+                e->slope_last = (fk - fp) / (xk - xp);
+            *x = xk;
+            if (T_K)
+                *T_K = Tk;
+            return true;
+        }
+        if ((fk > 0.0) == (fb > 0.0)) {
+            b = xk;
+            fb = fk;
+        } else {
+            a = xk;
+        }
+        double xn = fk != fp ? xk - fk * (xk - xp) / (fk - fp) : 0.5 * (a + b);
+        xp = xk;
+        fp = fk;
+        xk = xn;
+    }
+    return false;
+}
+
 pw_status pw_eqp_x_of_y(pw_eqp *e, double y, double *x, double *T_K)
 {
     if (!(y >= 0.0 && y <= 1.0))
@@ -122,6 +186,8 @@ pw_status pw_eqp_x_of_y(pw_eqp *e, double y, double *x, double *T_K)
         double yy;
         return pw_eqp_bubble(e, y, &yy, T_K);
     }
+    if (x_of_y_seeded(e, y, x, T_K))
+        return PW_OK;
     inv_ctx c = {e, y};
     double x0 = NAN, f0 = NAN;
     pw_eq_point d;

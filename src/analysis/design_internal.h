@@ -10,6 +10,8 @@ typedef struct pw_eqp {
     const pw_system *sys;
     double P_Pa;
     double T_last; /* the latest bubble temperature: Newton's next start */
+    double x_last, y_last; /* the latest bubble point (NAN: none): the inverse's seed */
+    double slope_last;     /* dy/dx of y*(x) where the latest fast inverse ended (NAN: none) */
     unsigned long n_bubble;
 } pw_eqp;
 

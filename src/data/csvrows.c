@@ -6,7 +6,9 @@
 
 #include <ctype.h>
 #include <errno.h>
+#include <float.h>
 #include <math.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -308,10 +310,79 @@ void pw_csvrows_free(pw_csvrows *r)
     memset(r, 0, sizeof *r);
 }
 
+/* strtod's value of a decimal (syntax already checked) by one correctly rounded IEEE operation
+ * where that is exact: at most 15 significant digits D and a power of ten 10^|e| <= 10^22, both
+ * exactly representable, so D * 10^e or D / 10^-e is the correctly rounded value (Clinger, PLDI
+ * 1990), the value strtod gives. false: not in that range (the caller takes strtod). */
+static bool decimal_fast(const char *t, double *out)
+{
+    static const double p10[23] = {1e0,  1e1,  1e2,  1e3,  1e4,  1e5,  1e6,  1e7,
+                                   1e8,  1e9,  1e10, 1e11, 1e12, 1e13, 1e14, 1e15,
+                                   1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22};
+#if !defined(FLT_EVAL_METHOD) || FLT_EVAL_METHOD != 0
+    return false; /* wider intermediate precision would round twice */
+#endif
+    bool neg = *t == '-';
+    if (*t == '-' || *t == '+')
+        t++;
+    uint64_t D = 0;
+    int nd = 0, e = 0;
+    bool point = false, any = false;
+    for (;; t++) {
+        if (*t >= '0' && *t <= '9') {
+            any = true;
+            if (D == 0 && *t == '0') { /* a leading zero: no significant digit yet */
+                if (point)
+                    e--;
+                continue;
+            }
+            if (++nd > 15)
+                return false;
+            D = 10 * D + (uint64_t)(*t - '0');
+            if (point)
+                e--;
+        } else if (*t == '.' && !point) {
+            point = true;
+        } else {
+            break;
+        }
+    }
+    if (!any)
+        return false;
+    if (*t == 'e' || *t == 'E') {
+        t++;
+        bool eneg = *t == '-';
+        if (*t == '-' || *t == '+')
+            t++;
+        int x = 0, nx = 0;
+        for (; *t >= '0' && *t <= '9'; t++) {
+            if (++nx > 4)
+                return false;
+            x = 10 * x + (*t - '0');
+        }
+        if (nx == 0)
+            return false;
+        e += eneg ? -x : x;
+    }
+    if (*t != '\0')
+        return false;
+    if (D == 0) {
+        *out = neg ? -0.0 : 0.0;
+        return true;
+    }
+    if (e > 22 || e < -22)
+        return false;
+    double v = e >= 0 ? (double)D * p10[e] : (double)D / p10[-e];
+    *out = neg ? -v : v;
+    return true;
+}
+
 bool pw_csvrows_number(const char *text, double *out)
 {
     if (!pw_decimal_syntax_ok(text))
         return false;
+    if (decimal_fast(text, out))
+        return true;
     double v = strtod(text, NULL);
     if (!isfinite(v))
         return false;

@@ -56,7 +56,8 @@ static void lngamma_from_point(const pw_system *s, const pw_point *p, bool has_y
             out[i] = log(y[i] * Phi[i] * p->P_Pa / (x[i] * Ps[i]));
 }
 
-pw_status pw_fit_evaluate(pw_fit_result *r)
+/* pw_fit_evaluate; screen false keeps r's liquid-stability screen as it is. */
+static pw_status evaluate(pw_fit_result *r, bool screen)
 {
     if (!r || !r->sys.model)
         return PW_EINVAL;
@@ -145,11 +146,94 @@ pw_status pw_fit_evaluate(pw_fit_result *r)
     }
 
     /* Liquid-stability screen (METHODS 1.6) over the data's temperature range. */
-    double lo = isfinite(r->T_min_K) ? r->T_min_K : r->sys.T_ref_K;
-    double hi = isfinite(r->T_max_K) ? r->T_max_K : r->sys.T_ref_K;
+    if (screen) {
+        double lo, hi;
+        fit_screen_range(r, &lo, &hi);
+        fit_stability_screen(&r->sys, lo, hi, &r->split_min_D, &r->split_x, &r->split_T_K);
+        r->split = r->split_min_D < 0.0;
+    }
+    return first_failure;
+}
+
+pw_status pw_fit_evaluate(pw_fit_result *r)
+{
+    return evaluate(r, true);
+}
+
+void fit_screen_range(const pw_fit_result *r, double *lo, double *hi)
+{
+    *lo = isfinite(r->T_min_K) ? r->T_min_K : r->sys.T_ref_K;
+    *hi = isfinite(r->T_max_K) ? r->T_max_K : r->sys.T_ref_K;
+}
+
+static bool same_stored(double stored, double now)
+{
+    return stored == now || (isnan(stored) && isnan(now));
+}
+
+/* Whether the screen r holds (as read) is one the five-temperature screen over r's range can
+ * have given, that range being the fit's own (the points' temperatures): a screened temperature, a composition inside (0, 1), predicted = (min_D < 0); or
+ * no screened temperature at all. */
+static bool screen_shape_ok(const pw_fit_result *r)
+{
+    /* the range is the fit's: the measured temperatures of the points not excluded */
+    double T_lo = INFINITY, T_hi = -INFINITY;
+    for (size_t i = 0; i < r->n_pts; i++)
+        if (!r->pts[i].excluded) {
+            T_lo = fmin(T_lo, r->pts[i].meas.T_K);
+            T_hi = fmax(T_hi, r->pts[i].meas.T_K);
+        }
+    if (!(r->T_min_K == T_lo && r->T_max_K == T_hi))
+        return false;
+    if (isnan(r->split_min_D) || isinf(r->split_min_D))
+        return !r->split && isnan(r->split_x) && isnan(r->split_T_K);
+    if (r->split != (r->split_min_D < 0.0) || !(r->split_x > 0.0 && r->split_x < 1.0))
+        return false;
+    double lo, hi;
+    fit_screen_range(r, &lo, &hi);
+    for (int i = 0; i < 5; i++)
+        if (r->split_T_K == lo + (hi - lo) * i / 4.0)
+            return true;
+    return false;
+}
+
+pw_status fit_evaluate_reusing_screen(pw_fit_result *r, bool *reused)
+{
+    *reused = false;
+    if (!r || !r->sys.model)
+        return PW_EINVAL;
+    /* the per-point values the file holds, before they are recomputed */
+    size_t n = r->n_pts;
+    double *was = n ? malloc(sizeof *was * 3 * n) : NULL;
+    if (n && !was)
+        return pw_fit_evaluate(r);
+    size_t n_finite = 0;
+    for (size_t i = 0; i < n; i++) {
+        was[3 * i] = r->pts[i].T_calc_K;
+        was[3 * i + 1] = r->pts[i].P_calc_Pa;
+        was[3 * i + 2] = r->pts[i].y_calc;
+        n_finite +=
+            isfinite(r->pts[i].T_calc_K) && !r->pts[i].excluded && !fit_is_pure(&r->pts[i].meas);
+    }
+    bool shape = screen_shape_ok(r);
+    pw_status st = evaluate(r, false);
+    bool same = shape && n_finite > 0 && st == PW_OK;
+    for (size_t i = 0; same && i < n; i++)
+        same = same_stored(was[3 * i], r->pts[i].T_calc_K) &&
+               same_stored(was[3 * i + 1], r->pts[i].P_calc_Pa) &&
+               same_stored(was[3 * i + 2], r->pts[i].y_calc);
+    free(was);
+    if (same) {
+        if (isnan(r->split_min_D)) /* written as null: no temperature could be screened */
+            r->split_min_D = INFINITY;
+        *reused = true;
+        return st;
+    }
+    double lo, hi;
+    fit_screen_range(r, &lo, &hi);
     fit_stability_screen(&r->sys, lo, hi, &r->split_min_D, &r->split_x, &r->split_T_K);
     r->split = r->split_min_D < 0.0;
-    return first_failure;
+    return st;
 }
 
 void fit_stability_screen(const pw_system *s, double T_lo, double T_hi, double *min_D,

@@ -77,17 +77,28 @@ pw_status fit_swap_components(pw_fit_result *r, const pw_complib *lib, bool chan
     return PW_OK;
 }
 
-pw_status fit_derive(pw_fit_result *r, const char *name, pw_error *err)
+static pw_status derive(pw_fit_result *r, const char *name, bool read, pw_error *err)
 {
     /* chi2 is the fit's own record (of the objective at the fit): kept */
     double chi2 = r->chi2;
-    pw_status st = pw_fit_evaluate(r);
+    bool reused;
+    pw_status st = read ? fit_evaluate_reusing_screen(r, &reused) : pw_fit_evaluate(r);
     r->chi2 = chi2;
     /* a point whose bubble point fails is NAN in the tables, not a failure of the whole fit */
     if (st != PW_OK && st != PW_ENOBRACKET && st != PW_EMAXITER && st != PW_ENOCONV)
         return pw_error_set(err, st, name, 0, "the fitted model cannot be evaluated: %s",
                             pw_strerror(st));
     return PW_OK;
+}
+
+pw_status fit_derive(pw_fit_result *r, const char *name, pw_error *err)
+{
+    return derive(r, name, false, err);
+}
+
+pw_status fit_derive_read(pw_fit_result *r, const char *name, pw_error *err)
+{
+    return derive(r, name, true, err);
 }
 
 pw_status pw_fit_replace_components(pw_fit_result *r, const char *path, bool changed[2],

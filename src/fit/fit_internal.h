@@ -38,6 +38,20 @@ static inline bool fit_is_pure(const pw_point *p) { return p->x1 <= 0.0 || p->x1
 void fit_stability_screen(const pw_system *s, double T_lo, double T_hi, double *min_D,
                           double *x_at_min, double *T_at_min);
 
+/* The temperature range of the stability screen: the data's, else the reference temperature. */
+void fit_screen_range(const pw_fit_result *r, double *lo, double *hi);
+
+/* pw_fit_evaluate for a fit just read from a file, whose points hold the file's T_calc_K,
+ * P_calc_Pa, y_calc and whose split fields hold the file's liquid-stability screen: everything is
+ * recomputed, except that the file's screen is kept (*reused true) when it cannot be stale: the
+ * recomputed per-point values equal the file's to the last bit on every point (at least one of
+ * them a finite mixture value), which they do only for the parameters, components and reference
+ * temperature the file was written from, the file's data range is the fit's (lowest and highest
+ * temperature of the points not excluded), and the screen is one the five-temperature screen over
+ * that range can give (a screened temperature, predicted = min_D < 0). Otherwise
+ * the screen is recomputed as well. Returns what pw_fit_evaluate returns. */
+pw_status fit_evaluate_reusing_screen(pw_fit_result *r, bool *reused);
+
 /* Replaces the components of r that lib names (keeping r's spelling of the names) and the fixed
  * parameters taken from their data (fit_components.c); recomputes nothing: fit_derive does.
  * changed[i] (may be NULL): component i's vapor-pressure correlation differs. */
@@ -46,6 +60,10 @@ pw_status fit_swap_components(pw_fit_result *r, const pw_complib *lib, bool chan
 /* Everything derived from the parameters and components of r (pw_fit_evaluate), keeping the
  * fit's own chi2; per-point solve failures are NAN, not errors. name labels an error. */
 pw_status fit_derive(pw_fit_result *r, const char *name, pw_error *err);
+
+/* fit_derive through fit_evaluate_reusing_screen (a fit as read from its file, components not
+ * replaced). */
+pw_status fit_derive_read(pw_fit_result *r, const char *name, pw_error *err);
 
 /* Residual count of one point for the objective. */
 size_t fit_residuals_per_point(pw_objective obj);

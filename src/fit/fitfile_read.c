@@ -50,6 +50,14 @@ static double get_num(reader *rd, const json_t *obj, const char *key, bool nulla
     return NAN;
 }
 
+/* A value the file holds that the reader recomputes anyway: NAN unless a finite number. */
+static double stored_num(const json_t *obj, const char *key)
+{
+    const json_t *v = json_object_get(obj, key);
+    double d = v && json_is_number(v) ? json_number_value(v) : (double)NAN;
+    return isfinite(d) ? d : (double)NAN;
+}
+
 static const char *get_str(reader *rd, const json_t *obj, const char *key)
 {
     const json_t *v = json_object_get(obj, key);
@@ -207,6 +215,10 @@ static void read_points(reader *rd, const json_t *data, pw_fit_result *r)
         fp->meas.y1 = get_num(rd, p, "y1", true);
         fp->meas.T_K = get_num(rd, p, "T_K", false);
         fp->meas.P_Pa = get_num(rd, p, "P_Pa", false);
+        /* the file's model values: kept only where they cannot be stale (fit_derive_read) */
+        fp->T_calc_K = stored_num(p, "T_calc_K");
+        fp->P_calc_Pa = stored_num(p, "P_calc_Pa");
+        fp->y_calc = stored_num(p, "y1_calc");
         fp->excluded = json_is_true(json_object_get(p, "excluded"));
         fp->three_phase = json_is_true(json_object_get(p, "three_phase"));
         r->n_three_phase += fp->three_phase && !fp->excluded;
@@ -368,6 +380,12 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
             r->n_minima = i + 1;
         }
     }
+    /* the file's liquid-stability screen: kept only where it cannot be stale (fit_derive_read) */
+    const json_t *split = json_object_get(root, "liquid_split");
+    r->split = json_is_true(json_object_get(split, "predicted"));
+    r->split_min_D = stored_num(split, "min_D");
+    r->split_x = stored_num(split, "x1_at_min");
+    r->split_T_K = stored_num(split, "T_K_at_min");
     const json_t *range = json_object_get(root, "data_range");
     r->T_min_K = json_is_object(range) ? get_num(rd, range, "T_min_K", true) : (double)NAN;
     r->T_max_K = json_is_object(range) ? get_num(rd, range, "T_max_K", true) : (double)NAN;
@@ -433,7 +451,7 @@ static pw_status load(const char *buf, size_t len, const char *name, const char 
         pw_complib_free(&lib);
     }
     if (st == PW_OK)
-        st = fit_derive(r, name, err);
+        st = components ? fit_derive(r, name, err) : fit_derive_read(r, name, err);
     if (st != PW_OK)
         pw_fit_result_free(r);
     return st;

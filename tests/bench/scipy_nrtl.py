@@ -13,7 +13,12 @@ import math
 import sys
 import time
 
-from scipy.optimize import brentq, least_squares
+try:
+    from scipy.optimize import brentq, least_squares
+except ImportError:
+    sys.stderr.write("scipy_nrtl.py: SciPy is not installed (optional extra of the benchmarks: "
+                     "apt-get install -y python3-scipy); the SciPy comparison is skipped\n")
+    sys.exit(77)
 
 TO_KPA = {"kPa": 1.0, "Pa": 1e-3, "MPa": 1e3, "bar": 100.0, "atm": 101.325,
           "mmHg": 101.325 / 760.0, "psia": 6.894757293168361}
