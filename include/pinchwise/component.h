@@ -59,6 +59,8 @@ typedef struct pw_component {
     double T_min_K, T_max_K; /* validity range, converted to K */
     double V_L_cm3mol;       /* liquid molar volume, NAN when unknown */
     char source[PW_SOURCE_MAX];
+    char origin[PW_PATH_MAX]; /* the component file the row came from ("" when built in code) */
+    long origin_line;         /* its line there (0: none) */
     char aliases[256];       /* other names, ";"-separated (optional column "aliases") */
     double prop[PW_PROP_COUNT]; /* optional constants in SI, NAN when unknown (pw_comp_prop) */
     /* The units as affine maps to SI (si = (value + offset) * scale), filled by

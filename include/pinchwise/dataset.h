@@ -52,6 +52,7 @@ typedef struct pw_dataset {
      * consistency code refuses a dataset with either flag still set. */
     bool mass_x, mass_y;
     long composition_line; /* the header line, for messages about the composition columns */
+    long components_line;  /* the '# components:' line, for messages about the names (0: none) */
 } pw_dataset;
 
 /* Limits of the reader (see docs/inputs.md): a dataset file holds at most PW_DATASET_MAX_POINTS

@@ -32,6 +32,7 @@ typedef struct pw_tie_line {
 typedef struct pw_lle_dataset {
     char path[PW_PATH_MAX];
     char names[2][PW_NAME_MAX];
+    long components_line;      /* the '# components:' line (0: none) */
     double P_Pa;               /* NAN when not given */
     double sigma_x;
     bool sigma_x_given;

@@ -242,10 +242,8 @@ pw_status cli_check(int argc, char **argv)
     pw_dataset one;
     memset(&het, 0, sizeof het);
     memset(&one, 0, sizeof one);
-    if (st == PW_OK && pw_het_check_run(&ds, c[0], c[1], &one, &het) != PW_OK)
-        st = pw_error_set(&err, PW_ENOMEM, ds.path, 0, "out of memory");
     if (st == PW_OK)
-        st = pw_consistency_run(het.n ? &one : &ds, c[0], c[1], &o, &r, &err);
+        st = pw_check_solve(&ds, c[0], c[1], &o, &het, &one, &r, &err);
     pw_status code = PW_OK;
     if (st != PW_OK) {
         code = cli_fail("check", &err);

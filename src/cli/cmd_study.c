@@ -19,9 +19,11 @@
 #include <math.h>
 #include <pinchwise/assess.h>
 #include <pinchwise/azeotrope.h>
+#include <pinchwise/commands.h>
 #include <pinchwise/composition.h>
 #include <pinchwise/consistency.h>
 #include <pinchwise/dataset.h>
+#include <pinchwise/hetcheck.h>
 #include <pinchwise/report.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -108,17 +110,17 @@ static pw_status consistency(const study_args *a, const pw_complib *lib, pw_cons
     pw_status st = pw_dataset_read(a->data, &ds, err);
     if (st != PW_OK)
         return st;
-    const pw_component *c1 = pw_complib_find(lib, ds.names[0]);
-    const pw_component *c2 = pw_complib_find(lib, ds.names[1]);
-    if (!c1 || !c2)
-        st = pw_error_set(err, PW_ENOTFOUND, ds.path, 0,
-                          "component '%s' is not in the component library (add it with "
-                          "--components FILE)",
-                          c1 ? ds.names[1] : ds.names[0]);
+    pw_component comp[2];
+    st = pw_dataset_components(lib, &ds, comp, err); /* as `check` finds them */
     if (st == PW_OK)
-        st = pw_dataset_to_mole(&ds, c1, c2, err);
+        st = pw_dataset_to_mole(&ds, &comp[0], &comp[1], err);
+    pw_het_check het;
+    pw_dataset one;
+    memset(&het, 0, sizeof het);
+    memset(&one, 0, sizeof one);
     if (st == PW_OK)
-        st = pw_consistency_run(&ds, c1, c2, NULL, cr, err);
+        st = pw_check_solve(&ds, &comp[0], &comp[1], NULL, &het, &one, cr, err);
+    pw_het_check_free(&het, &one);
     pw_dataset_free(&ds);
     return st;
 }

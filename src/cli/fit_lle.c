@@ -12,9 +12,10 @@ pw_status cli_fit_tie_lines(const pw_lle_dataset *lle, const pw_dataset *ds,
     bool same = !strcasecmp(lle->names[0], ds->names[0]) && !strcasecmp(lle->names[1], ds->names[1]);
     bool rev = !strcasecmp(lle->names[0], ds->names[1]) && !strcasecmp(lle->names[1], ds->names[0]);
     if (!same && !rev)
-        return pw_error_set(err, PW_EINVAL, lle->path, 0,
-                            "components '%s, %s' differ from the dataset's '%s, %s'",
-                            lle->names[0], lle->names[1], ds->names[0], ds->names[1]);
+        return pw_error_set(err, PW_EPARSE, lle->path, lle->components_line,
+                            "components '%s, %s' differ from the dataset's '%s, %s' (%s; expected "
+                            "tie lines of the same two components)",
+                            lle->names[0], lle->names[1], ds->names[0], ds->names[1], ds->path);
     fo->tie_lines = lle->rows;
     fo->n_tie_lines = lle->n;
     fo->sigma_x_lle = lle->sigma_x;

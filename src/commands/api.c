@@ -215,12 +215,7 @@ pw_status pw_api_check(const char *data, const char *components, int strict, cha
     /* points inside the two-liquid region: out of the one-liquid tests */
     pw_het_check het;
     pw_dataset one;
-    memset(&het, 0, sizeof het);
-    memset(&one, 0, sizeof one);
-    if (st == PW_OK && pw_het_check_run(&ds, &found[0], &found[1], &one, &het) != PW_OK)
-        st = pw_error_set(err, PW_ENOMEM, ds.path, 0, "out of memory");
-    if (st == PW_OK)
-        st = pw_consistency_run(het.n ? &one : &ds, &found[0], &found[1], &o, &r, err);
+    st = pw_check_solve(&ds, &found[0], &found[1], &o, &het, &one, &r, err);
     if (st == PW_OK)
         st = finish(pw_check_doc(&ds, &r, strict != 0, &het), doc, err);
     pw_het_check_free(&het, &one);

@@ -54,7 +54,7 @@ static pw_status find_component(const pw_complib *lib, const pw_dataset *ds, int
         if (len < sizeof hint)
             snprintf(hint + len, sizeof hint - len, "?");
     }
-    return pw_error_set(err, PW_ENOTFOUND, ds->path, 0,
+    return pw_error_set(err, PW_ENOTFOUND, ds->path, ds->components_line,
                         "component '%s' is not in the component library (add it with --components "
                         "FILE%s)",
                         ds->names[i], hint);

@@ -51,6 +51,8 @@ static pw_status add_row(reader *rd, const pw_component *c, long line, pw_error 
         rd->cap = cap;
     }
     rd->rows[rd->n] = *c;
+    snprintf(rd->rows[rd->n].origin, sizeof rd->rows[rd->n].origin, "%s", rd->name ? rd->name : "");
+    rd->rows[rd->n].origin_line = line;
     if (pw_component_prepare(&rd->rows[rd->n]) != PW_OK)
         return pw_error_set(err, PW_EPARSE, rd->name, line, "unknown unit");
     rd->lines[rd->n] = line;

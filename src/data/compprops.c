@@ -61,7 +61,8 @@ pw_status pw_component_require(const pw_component *c, pw_comp_prop p, double *si
      * every field) then counts as unknown for every constant whose range excludes 0. */
     double v = c->prop[p], scale = props[p].to_si;
     if (!(v > props[p].lo * scale && v < props[p].hi * scale))
-        return pw_error_set(err, PW_ENOTFOUND, NULL, 0,
+        return pw_error_set(err, PW_ENOTFOUND, c->origin[0] ? c->origin : NULL,
+                            c->origin[0] ? c->origin_line : 0,
                             "component '%s' has no %s (expected a value in that column of the "
                             "component library, or of a --components file)",
                             c->name, props[p].column);

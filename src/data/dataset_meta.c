@@ -110,6 +110,7 @@ static pw_status components(pw_ds_reader *rd, const char *value, long line, pw_e
                             "components: '%s' is given twice (expected two different components)",
                             nc.names[0]);
     memcpy(rd->ds.names, nc.names, sizeof rd->ds.names);
+    rd->ds.components_line = line;
     rd->have_components = true;
     return PW_OK;
 }

@@ -150,6 +150,7 @@ pw_status pw_lle_dataset_parse(const char *buf, size_t len, const char *name, pw
     if (st == PW_OK) {
         snprintf(out->path, sizeof out->path, "%s", name);
         memcpy(out->names, r.meta.ds.names, sizeof out->names);
+        out->components_line = r.meta.ds.components_line;
         snprintf(out->source, sizeof out->source, "%s", r.meta.ds.source);
         out->P_Pa = r.meta.have_pressure ? r.meta.ds.P_fixed_Pa : (double)NAN;
         out->sigma_x_given = false;

@@ -236,12 +236,21 @@ pw_status fit_het_setup(const pw_dataset *ds, const pw_fit_options *o, pw_fit_re
 {
     const pw_model_type *m = r->sys.model;
     bool can = pw_model_can_split(m);
-    if (o->n_tie_lines && !can)
+    if (o->n_tie_lines && !can) {
+        /* the models that can split, from the model table */
+        char names[160] = "";
+        size_t n_all, len = 0;
+        const pw_model_type *const *all = pw_model_all(&n_all);
+        for (size_t k = 0; k < n_all && len < sizeof names; k++)
+            if (pw_model_can_split(all[k]))
+                len += (size_t)snprintf(names + len, sizeof names - len, "%s%s",
+                                        len ? ", " : "", all[k]->name);
         return pw_error_set(err, PW_EINVAL, ds->path, 0,
                             "the %s model cannot describe two liquid layers (Wilson's equation "
                             "never predicts a split), so it cannot be fitted to tie lines: use "
-                            "nrtl, margules or vanlaar",
-                            m->name);
+                            "one of %s",
+                            m->name, names);
+    }
     if (o->n_tie_lines && !o->tie_lines)
         return pw_error_set(err, PW_EINVAL, ds->path, 0, "tie lines missing");
     r->n_tie_lines = o->n_tie_lines;

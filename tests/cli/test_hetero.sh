@@ -144,6 +144,10 @@ PY
 "$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model wilson --lle "$SRC/datasets/lle/butanol_water_25C_ties.csv" \
     --out "$TMP/bwlw.json" > /dev/null 2> "$TMP/err.txt" && fail "wilson accepted with --lle"
 grep -q "cannot" "$TMP/err.txt" || fail "wilson refusal message: $(cat "$TMP/err.txt")"
+# every model that can split is offered (from the model table), UNIQUAC included
+for m in nrtl margules vanlaar uniquac; do
+    grep -q "$m" "$TMP/err.txt" || fail "the refusal does not offer $m: $(cat "$TMP/err.txt")"
+done
 # a bad LLE file: file and line named
 printf '# components: 1-butanol, water\nT[C],x1_I,x1_II\n25,0.5,0.1\n' > "$TMP/bad_lle.csv"
 "$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model nrtl --lle "$TMP/bad_lle.csv" --out "$TMP/no.json" \

@@ -76,5 +76,6 @@ if "$pw" fit "$src/datasets/ethanol_water_1atm.csv" --model uniquac --components
     fail "fit without r and q succeeded"
 fi
 grep -q "ethanol" err.txt && grep -q "has no r" err.txt || fail "message: $(cat err.txt)"
+grep -q "c.csv:2: component 'ethanol'" err.txt || fail "no component file and line in: $(cat err.txt)"
 [ -e x.json ] && fail "a fit file was written after the refusal"
 echo "ok"
