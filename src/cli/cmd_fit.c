@@ -199,6 +199,11 @@ static void print_table(const pw_fit_result *r, const char *path, const pw_displ
     if (r->n_minima > 1)
         printf("  %zu distinct local minima found by the multistart (best chi2 %.4g, next %.4g)\n",
                r->n_minima, r->minima[0].chi2, r->minima[1].chi2);
+    if (r->minimum_split_skipped)
+        printf("  chosen: minimum %zu, not the lowest: minima 1 to %zu predict a liquid-liquid split\n"
+               "  the data do not show, and minimum %zu fits as well (chi2 within a factor\n"
+               "  max(1.01, exp(2/n)) of the lowest; docs/fitting.md); --minimum 1 takes the lowest\n",
+               r->minimum_default, r->minimum_split_skipped, r->minimum_default);
     printf("  fit file: %s\n", path);
 }
 
