@@ -828,7 +828,8 @@ static void how_sure_section(pw_sbuf *b, const pw_report_curves *c)
 static void figure(pw_sbuf *b, const pw_report_file *f, const char *caption)
 {
     /* the enlarged view is a small plot: shown at its own size, not the column's width */
-    pw_sbuf_puts(b, !strcmp(f->name, "xy_pinch.svg") ? "<figure class=\"pw-small\">\n" : "<figure>\n");
+    bool small = !strcmp(f->name, "xy_pinch.svg") || !strncmp(f->name, "xy_decanter_", 12);
+    pw_sbuf_puts(b, small ? "<figure class=\"pw-small\">\n" : "<figure>\n");
     pw_sbuf_puts(b, pw_sbuf_str(&f->text));
     pw_sbuf_puts(b, "<figcaption>");
     esc(b, caption);
@@ -845,6 +846,12 @@ static const char *caption_for(const char *name, const pw_report_curves *c)
     if (!strcmp(name, "xy_pinch.svg"))
         return "The same construction enlarged around the limiting pinch, where the stage steps "
                "crowd: every step drawn is one the column module counted.";
+    if (!strncmp(name, "xy_decanter_", 12))
+        return name[12] == 'a'
+                   ? "Column A of the decanter scheme enlarged: from the layer rich in component 1 "
+                     "down to its bottoms, its operating line and every stage step counted."
+                   : "Column B of the decanter scheme enlarged: from the layer lean in component 1 "
+                     "down to its bottoms, where the steps crowd near the pure end.";
     if (!strcmp(name, "models.svg"))
         return "Every model fitted to these data, each in its own colour and dash, over the "
                "measured points: where the curves part, the choice of model matters.";
