@@ -8,7 +8,10 @@
 
 #include <math.h>
 #include <pinchwise/dataset.h>
+#include <jansson.h>
 #include <pinchwise/fit_minimum.h>
+#include <pinchwise/fitjson.h>
+#include <stdlib.h>
 #include <string.h>
 
 static void fit(const char *dataset, const char *model, pw_fit_result *r)
@@ -162,6 +165,33 @@ static void driver_records_its_choice(void **state)
         assert_int_equal(r.minimum_default, k);
         assert_int_equal(r.minimum_split_skipped, skipped);
         assert_memory_equal(r.sys.params, r.minima[k - 1].params, sizeof r.sys.params);
+        /* the fit file records the choice and reads it back */
+        json_t *doc = pw_fitfile_to_json(&r);
+        assert_non_null(doc);
+        json_t *ch = json_object_get(doc, "minimum_choice");
+        assert_non_null(ch);
+        assert_int_equal(json_integer_value(json_object_get(ch, "minimum")), (json_int_t)k);
+        if (i == 1) { /* MEK/toluene NRTL: two minima; the record of a passed-over split */
+            assert_true(r.n_minima >= 2);
+            pw_fit_result c = r;
+            c.minimum_default = 2;
+            c.minimum_split_skipped = 1;
+            json_t *d2 = pw_fitfile_to_json(&c);
+            json_t *c2 = json_object_get(d2, "minimum_choice");
+            assert_int_equal(json_integer_value(json_object_get(c2, "split_skipped")), 1);
+            assert_non_null(strstr(json_string_value(json_object_get(c2, "because")),
+                                   "predict a liquid-liquid split"));
+            char *text = json_dumps(d2, 0);
+            pw_fit_result back;
+            pw_error err;
+            assert_int_equal(pw_fitfile_parse(text, strlen(text), "mem", &back, &err), PW_OK);
+            assert_int_equal(back.minimum_default, 2);
+            assert_int_equal(back.minimum_split_skipped, 1);
+            pw_fit_result_free(&back);
+            free(text);
+            json_decref(d2);
+        }
+        json_decref(doc);
         pw_fit_result_free(&r);
     }
 }
