@@ -182,7 +182,8 @@ static void print_table(const pw_az_result *r, const pw_three_phase *tp, const p
     }
     snprintf(b1, sizeof b1, "T [%s]", pw_units_display_T_symbol(u));
     snprintf(b2, sizeof b2, "P [%s]", pw_units_display_P_symbol(u));
-    printf("  %-10s %-10s %-11s %-16s %s\n", "x1", b1, b2, "kind", "gamma1, gamma2");
+    printf("  %-10s %-*s %-11s %-16s %s\n", "x1", cli_width(10, b1), b1, b2, "kind",
+           "gamma1, gamma2");
     for (size_t i = 0; i < r->n; i++) {
         const pw_azeotrope *z = &r->az[i];
         printf("  %-10.6f %-10.3f %-11.6g %-16s %.4f, %.4f%s\n", z->x1,
@@ -218,8 +219,9 @@ static void print_text(const pw_fit_result *fit, const args *a, const pw_az_resu
         bool isP = sc->mode == PW_AZ_ISOBARIC;
         snprintf(b1, sizeof b1, "T [%s]", pw_units_display_T_symbol(u));
         snprintf(b2, sizeof b2, "P [%s]", pw_units_display_P_symbol(u));
-        printf("\nScan over %s:\n  %-12s %-10s %-10s %s\n", isP ? "pressure" : "temperature",
-               isP ? b2 : b1, "x1", isP ? b1 : b2, "kind");
+        printf("\nScan over %s:\n  %-*s %-10s %-*s %s\n", isP ? "pressure" : "temperature",
+               cli_width(12, isP ? b2 : b1), isP ? b2 : b1, "x1", cli_width(10, isP ? b1 : b2),
+               isP ? b1 : b2, "kind");
         for (size_t k = 0; k < sc->n_points; k++) {
             const pw_az_result *p = &sc->points[k];
             double v = isP ? pw_units_display_P(u, sc->at[k]) : pw_units_display_T(u, sc->at[k]);

@@ -168,8 +168,9 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r,
     if (r->tests[PW_CTEST_POINT].ran) {
         char dT_head[24];
         snprintf(dT_head, sizeof dT_head, "dT [%s]", pw_units_display_dT_symbol(u));
-        printf("\n  %6s %8s %8s %8s %9s %10s %10s\n", "line", "x1", "y1", "y1 calc", "dy",
-               "dln(g1/g2)", ds->kind == PW_DATA_ISOTHERMAL ? "dP/P" : dT_head);
+        printf("\n  %6s %8s %8s %8s %9s %10s %*s\n", "line", "x1", "y1", "y1 calc", "dy",
+               "dln(g1/g2)", cli_width(10, ds->kind == PW_DATA_ISOTHERMAL ? "dP/P" : dT_head),
+               ds->kind == PW_DATA_ISOTHERMAL ? "dP/P" : dT_head);
         for (size_t i = 0; i < r->n_pts; i++) {
             const pw_cpoint *p = &r->pts[i];
             printf("  %6ld %8.4f %8.4f %8.4f %+9.4f %+10.4f %+10.3g%s\n", p->line, p->x1, p->y_exp,

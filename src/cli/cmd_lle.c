@@ -164,7 +164,7 @@ pw_status cli_lle(int argc, char **argv)
         }
         if (pts) {
             snprintf(b1, sizeof b1, "T [%s]", pw_units_display_T_symbol(u));
-            printf("\n  %-10s %-12s %s\n", b1, "x1 layer I", "x1 layer II");
+            printf("\n  %-*s %-12s %s\n", cli_width(10, b1), b1, "x1 layer I", "x1 layer II");
             for (size_t k = 0; k < a.n; k++) {
                 double T = pw_units_display_T(u, pts[k].T_K);
                 if (pts[k].split)

@@ -208,8 +208,8 @@ pw_status cli_fit_batch(const char *dir, const char *out_dir, const pw_model_typ
         char hT[24], hP[24];
         snprintf(hT, sizeof hT, "AAD T/%s", pw_units_display_dT_symbol(&co->units));
         snprintf(hP, sizeof hP, "AAD P/%s", pw_units_display_P_symbol(&co->units));
-        printf("  %-32s %-13s %6s %9s %8s %8s %9s  %s\n", "dataset", "status", "points",
-               "chi2/dof", "AAD y", hT, hP, "fit file");
+        printf("  %-32s %-13s %6s %9s %8s %*s %9s  %s\n", "dataset", "status", "points",
+               "chi2/dof", "AAD y", cli_width(8, hT), hT, hP, "fit file");
         for (size_t i = 0; i < n; i++) {
             char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
             const job *j = &jobs[i];

@@ -234,8 +234,8 @@ pw_status cli_fit_all_models(const char *input, const char *out_dir, const cli_f
         char hT[24], hP[24];
         snprintf(hT, sizeof hT, "AAD T/%s", pw_units_display_dT_symbol(&co->units));
         snprintf(hP, sizeof hP, "AAD P/%s", pw_units_display_P_symbol(&co->units));
-        printf("  %-4s %-9s %9s %-17s %10s %10s %10s %10s  %s\n", "rank", "model", "dAICc", "class",
-               "AAD y", hT, hP, "x1 azeo.", "notes");
+        printf("  %-4s %-9s %9s %-17s %10s %*s %10s %10s  %s\n", "rank", "model", "dAICc", "class",
+               "AAD y", cli_width(10, hT), hT, hP, "x1 azeo.", "notes");
         for (size_t j = 0; j < rk->n; j++) {
             const pw_rank_row *w = &rk->rows[j];
             const pw_fit_result *r = w->fit;
