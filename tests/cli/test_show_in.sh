@@ -45,6 +45,14 @@ run dec decanter bw.json --pressure 1atm --zf 0.3 --x1-rich 0.9 --x1-lean 0.001
 run study study "$SRC/datasets/ethanol_water_1atm.csv" --model nrtl --pressure 1atm --xd 0.8 \
     --xb 0.02 --zf 0.3 --out-dir st --force
 
+# the report: a library reason (the single column refused at the heterogeneous azeotrope) in the
+# page's units, its JSON twin (reflux --json) in K
+"$PW" report bw.json --out bw.html --pressure 1atm --xd 0.001 --xb 0.995 --zf 0.2 --show-in C,bar \
+    > /dev/null 2> rep.err || fail "report: $(cat rep.err)"
+"$PW" reflux bw.json --pressure 1atm --xd 0.001 --xb 0.995 --zf 0.2 --json > bwr.json 2> /dev/null \
+    || fail "reflux of butanol/water"
+cp bw.html page.html.txt
+
 if grep -l $'\x1e' ./*.txt ./*.err ./*.json ./*.json2 st/*.html 2> /dev/null; then
     fail "a library mark reached an output"
 fi
@@ -148,6 +156,14 @@ m = re.search(r"azeotropes at the data's condition: minimum-boiling at x1 = [\d.
               + C + r", P = ([\d.]+) bar", txt("study"))
 assert m, txt("study")
 near(float(m.group(1)) + 273.15, z["T_K"], 0.006, "study azeotrope T")
+
+# the report's reason in C equals the JSON's in K
+why = js("bwr")["reason"] if "reason" in js("bwr") else js("bwr")["column"]["reason"]
+mK = re.search(r"heterogeneous azeotrope \(x1 = [\d.]+ at ([\d.]+) K,", why)
+page = open("page.html.txt", encoding="utf-8").read()
+mC = re.search(r"heterogeneous azeotrope \(x1 = [\d.]+ at ([\d.]+) " + C + ",", page)
+assert mK and mC, (why, mC)
+near(float(mC.group(1)) + 273.15, float(mK.group(1)), 0.006, "report reason T")
 
 # warnings on stderr follow the display units too (no "K" temperature in C)
 for name in ("az", "screen"):
