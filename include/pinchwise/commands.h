@@ -30,6 +30,11 @@ extern "C" {
 /* A JSON number, or null when v is not finite. New reference. */
 json_t *pw_json_num(double v);
 
+/* A JSON string of a library reason or warning, its marked quantities written in K and kPa
+ * (pw_units_display_text with no display units): the documents never change with --show-in.
+ * New reference. */
+json_t *pw_json_reason(const char *text);
+
 /* The text of doc exactly as the command-line program prints it (two-space indent, 17
  * significant digits, keys in insertion order), without a final newline. malloc'd: the caller
  * frees it with free(); NULL when out of memory. */

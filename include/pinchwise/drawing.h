@@ -128,6 +128,10 @@ typedef struct pw_draw_decanter {
     double boilup[2];             /* S of column A (rich layer) and B (lean layer) as drawn */
     double op_x[2][2], op_y[2][2];/* each column's operating line from its top to its bottoms */
     pw_draw_stairs stairs[2];
+    /* per column (A, B), a window holding its operating line and its whole staircase (margins of
+     * 8 % of each span, inside [0, 1]; NAN when the column is not drawn), for an enlarged view:
+     * at full scale a column whose bottoms lie near a pure end (x1 below about 0.02) is unreadable */
+    double zoom_x[2][2], zoom_y[2][2];
 } pw_draw_decanter;
 
 typedef struct pw_draw_column {

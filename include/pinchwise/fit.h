@@ -154,6 +154,10 @@ typedef struct pw_fit_result {
     double lngamma_inf[2];     /* at T_ref: ln gamma1 at x1 -> 0, ln gamma2 at x1 -> 1 */
     pw_fit_minimum minima[PW_FIT_MAX_MINIMA];
     size_t n_minima;
+    /* the default minimum the fit chose (1-based in minima; 0 when the answer is no stationary
+     * point) and how many lower ones it passed over because they predict a liquid split the data
+     * do not show (pw_fit_default_minimum, docs/fitting.md) */
+    size_t minimum_default, minimum_split_skipped;
     bool split;                /* parameters predict a liquid-liquid split in 0 < x1 < 1 */
     double split_min_D, split_x, split_T_K;
     double T_min_K, T_max_K;   /* range of the data (validity range of the fit) */

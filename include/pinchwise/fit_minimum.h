@@ -21,6 +21,16 @@ extern "C" {
  * The covariance is left zero with NAN standard errors when the Jacobian there is singular. */
 pw_status pw_fit_use_minimum(pw_fit_result *r, size_t n, pw_error *err);
 
+/* The default among r->minima (sorted, lowest chi2 first), by the rule of docs/fitting.md: of the
+ * minima that fit as well as the best (pw_fit_competing_minima: chi2 within a factor
+ * max(1.01, exp(2/n)) of the lowest, n the number of residuals), the first whose parameters
+ * predict no liquid-liquid split over the data's temperatures (r->T_min_K to r->T_max_K; r->sys
+ * gives the model and components). The lowest when none of them is free of a split, when only one
+ * competes, or for partly miscible data (three-phase points or tie lines: the split is measured).
+ * Returns the 1-based index (0 when r records no minimum); *n_split_skipped (may be NULL) is how
+ * many lower minima were passed over because they predict a split. */
+size_t pw_fit_default_minimum(const pw_fit_result *r, size_t *n_split_skipped);
+
 #ifdef __cplusplus
 }
 #endif

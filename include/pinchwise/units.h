@@ -100,6 +100,36 @@ double pw_units_display_P(const pw_display_units *u, double P_Pa);
  * (UTF-8, static). */
 const char *pw_units_display_T_symbol(const pw_display_units *u);
 const char *pw_units_display_P_symbol(const pw_display_units *u);
+/* The symbol after a displayed temperature difference: "K" for K and C (a kelvin is a Celsius
+ * degree), "\u00b0F" for F. */
+const char *pw_units_display_dT_symbol(const pw_display_units *u);
+
+/* What a displayed quantity is. */
+typedef enum { PW_SHOW_T, PW_SHOW_DT, PW_SHOW_P } pw_show_kind;
+
+/* One value in SI (K, K, Pa) as "<number> <symbol>" in the display units (u NULL: K and kPa),
+ * the number written with the printf conversion spec ("%" + spec, for example ".2f", ".4g").
+ * Returns out (always terminated; "?" for a spec that is not one of [.digits]f/g/e). */
+char *pw_units_display_value(const pw_display_units *u, pw_show_kind kind, const char *spec,
+                             double si, char *out, size_t n);
+
+/* Quantities inside library text (reasons, warnings): a library message that quotes a
+ * temperature or a pressure writes it as a marked SI value, so that the caller, not the
+ * library, chooses the unit it is shown in. In a format string:
+ *     snprintf(buf, n, "azeotrope at T = " PW_TEXT_T(".2f") " ...", T_K);
+ * marks T_K (kelvin, printed later with %.2f in the display unit and its symbol). PW_TEXT_DT
+ * marks a temperature difference in K, PW_TEXT_P a pressure in Pa. The mark is
+ * 0x1e, the kind letter, the spec, 0x1f, the value with 17 digits, 0x1d; it never reaches a
+ * reader: every place that shows such a text (the command line, the report, the JSON
+ * documents and the fit file) passes it through pw_units_display_text first. */
+#define PW_TEXT_T(spec) "\x1e" "T" spec "\x1f" "%.17g" "\x1d"
+#define PW_TEXT_DT(spec) "\x1e" "D" spec "\x1f" "%.17g" "\x1d"
+#define PW_TEXT_P(spec) "\x1e" "P" spec "\x1f" "%.17g" "\x1d"
+
+/* text with its marked values written in the display units (u NULL: K and kPa, the text as it
+ * reads in JSON) into out (n bytes, always terminated; a mark cut short by truncation is
+ * dropped). Text without marks is copied unchanged. Returns out. */
+char *pw_units_display_text(const pw_display_units *u, const char *text, char *out, size_t n);
 
 #ifdef __cplusplus
 }

@@ -19,6 +19,7 @@
 
 #include <float.h>
 #include <math.h>
+#include <pinchwise/units.h>
 #include <pinchwise/column_direction.h>
 #include <pinchwise/curve.h>
 #include <pinchwise/lle.h>
@@ -718,7 +719,7 @@ static pw_status two_liquids(const pw_system *sys, double P_Pa, const pw_column_
     energy->feasible = false;
     snprintf(energy->reason, sizeof energy->reason,
              "liquids x1 %.4g to %.4g reach into the two-liquid region (layers %.4f, %.4f at "
-             "%.2f K): a stage there holds two liquids, whose enthalpy --energy does not model "
+             PW_TEXT_T(".2f") "): a stage there holds two liquids, whose enthalpy --energy does not model "
              "yet (the decanter scheme applies)",
              lo, hi, tp.x[0], tp.x[1], tp.T_K);
     return PW_ERANGE;

@@ -2,6 +2,7 @@
 #include "consistency_internal.h"
 
 #include <math.h>
+#include <pinchwise/units.h>
 #include <stdarg.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -110,7 +111,18 @@ static void verdict(const cs_data *d, pw_consistency_result *r)
                                                  : " %";
         if (i == PW_CTEST_ENDPOINT && r->kind == PW_DATA_ISOTHERMAL)
             sc = 100.0;
-        if (!t->pass && primary) {
+        /* a temperature difference is a marked quantity (pinchwise/units.h) */
+        bool dT = i == PW_CTEST_ENDPOINT && r->kind != PW_DATA_ISOTHERMAL;
+        if (!t->pass && primary && dT) {
+            n_fail++;
+            add_reason(r, "%s failed (" PW_TEXT_DT(".4g") ", limit " PW_TEXT_DT(".4g") "): %s",
+                       t->name, t->value, t->limit, t->meaning);
+        } else if (!t->pass && dT) {
+            n_warn++;
+            add_reason(r, "warning: %s failed (" PW_TEXT_DT(".4g") ", limit " PW_TEXT_DT(".4g")
+                       "), a secondary test: %s",
+                       t->name, t->value, t->limit, t->meaning);
+        } else if (!t->pass && primary) {
             n_fail++;
             add_reason(r, "%s failed (%.4g%s, limit %.4g%s): %s", t->name, t->value * sc, u,
                        t->limit * sc, u, t->meaning);

@@ -3,6 +3,7 @@
  * docs/heterogeneous.md. */
 #include "analysis/staircase_internal.h"
 
+#include <pinchwise/units.h>
 #include <pinchwise/curve.h>
 #include <pinchwise/decanter.h>
 
@@ -275,7 +276,8 @@ pw_status pw_column_hetero_block(const pw_system *s, double P_Pa, double x_a, do
     if (tp->exists && tp->heterogeneous_azeotrope && lo < tp->y1 && tp->y1 < hi) {
         *blocked = true;
         snprintf(reason, len,
-                 "a heterogeneous azeotrope (x1 = %.4f at %.2f K, liquid layers x1 = %.4f and %.4f) "
+                 "a heterogeneous azeotrope (x1 = %.4f at " PW_TEXT_T(".2f")
+                 ", liquid layers x1 = %.4f and %.4f) "
                  "lies between the bottoms and distillate targets: one column cannot cross it; use "
                  "the decanter scheme (decanter plus two stripping columns: pinchwise decanter)",
                  tp->y1, tp->T_K, tp->x[0], tp->x[1]);
@@ -324,13 +326,15 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
     }
     if (!(sp->x_rich > tp->x[1])) {
         snprintf(out->reason, sizeof out->reason,
-                 "--x1-rich %.5g must exceed the layer rich in component 1 (x1 = %.5g at %.2f K)",
+                 "--x1-rich %.5g must exceed the layer rich in component 1 (x1 = %.5g at "
+                 PW_TEXT_T(".2f") ")",
                  sp->x_rich, tp->x[1], tp->T_K);
         return PW_OK;
     }
     if (!(sp->x_lean < tp->x[0])) {
         snprintf(out->reason, sizeof out->reason,
-                 "--x1-lean %.5g must lie below the layer lean in component 1 (x1 = %.5g at %.2f K)",
+                 "--x1-lean %.5g must lie below the layer lean in component 1 (x1 = %.5g at "
+                 PW_TEXT_T(".2f") ")",
                  sp->x_lean, tp->x[0], tp->T_K);
         return PW_OK;
     }

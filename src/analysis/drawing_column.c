@@ -81,6 +81,33 @@ static void zoom(pw_draw_column *o)
     }
 }
 
+/* Each decanter column's enlarged view: the box of its operating line and staircase corners,
+ * 8 % of each span added on both sides (at least 0.002), inside [0, 1]. */
+static void decanter_windows(pw_draw_decanter *d)
+{
+    for (int k = 0; k < 2; k++) {
+        double xl = INFINITY, xh = -INFINITY, yl = INFINITY, yh = -INFINITY;
+        const pw_draw_stairs *t = &d->stairs[k];
+        for (size_t i = 0; i < 2; i++) {
+            xl = fmin(xl, d->op_x[k][i]), xh = fmax(xh, d->op_x[k][i]);
+            yl = fmin(yl, d->op_y[k][i]), yh = fmax(yh, d->op_y[k][i]);
+        }
+        for (size_t i = 0; i < t->n; i++) {
+            xl = fmin(xl, t->x[i]), xh = fmax(xh, t->x[i]);
+            yl = fmin(yl, t->y[i]), yh = fmax(yh, t->y[i]);
+        }
+        if (!(xh >= xl && yh >= yl)) {
+            d->zoom_x[k][0] = d->zoom_x[k][1] = d->zoom_y[k][0] = d->zoom_y[k][1] = NAN;
+            continue;
+        }
+        double mx = fmax(0.002, 0.08 * (xh - xl)), my = fmax(0.002, 0.08 * (yh - yl));
+        d->zoom_x[k][0] = fmax(0.0, xl - mx);
+        d->zoom_x[k][1] = fmin(1.0, xh + mx);
+        d->zoom_y[k][0] = fmax(0.0, yl - my);
+        d->zoom_y[k][1] = fmin(1.0, yh + my);
+    }
+}
+
 /* The decanter scheme (decanter.h) for the targets of o, drawn at o->factor times each column's
  * minimum boil-up. */
 static pw_status decanter(const pw_system *s, const pw_column_options *opt, pw_draw_column *o)
@@ -97,6 +124,7 @@ static pw_status decanter(const pw_system *s, const pw_column_options *opt, pw_d
         d->stairs[k].status = PW_EINVAL;
         d->stairs[k].stages = NAN;
         d->boilup[k] = NAN;
+        d->zoom_x[k][0] = d->zoom_x[k][1] = d->zoom_y[k][0] = d->zoom_y[k][1] = NAN;
     }
     if (d->status != PW_OK || !d->res.feasible)
         return PW_OK;
@@ -121,6 +149,7 @@ static pw_status decanter(const pw_system *s, const pw_column_options *opt, pw_d
         if (t->status != PW_OK)
             t->stages = NAN;
     }
+    decanter_windows(d);
     return PW_OK;
 }
 

@@ -1,6 +1,7 @@
 /* Feasibility screen of a binary split: relative volatility along the column, azeotrope
  * barrier, azeotrope shift with pressure, rough R_min and stage counts.
  * See include/pinchwise/screen.h and docs/screen.md. */
+#include <pinchwise/units.h>
 #include <pinchwise/column_direction.h>
 #include <pinchwise/curve.h>
 #include <pinchwise/screen.h>
@@ -147,22 +148,25 @@ static void swing_reasons(const pw_screen_options *o, pw_screen_result *r)
 {
     if (!r->scanned)
         return;
-    double lo = r->P_lo_Pa / 1e3, hi = r->P_hi_Pa / 1e3;
+    double lo = r->P_lo_Pa, hi = r->P_hi_Pa;
     if (r->vanishes)
         reason(r, PW_REASON_VANISHES,
-               "the azeotrope reaches a pure end at about %.4g kPa within %.4g-%.4g kPa: a column "
-               "pressure beyond that point avoids it",
-               r->P_vanish_Pa / 1e3, lo, hi);
+               "the azeotrope reaches a pure end at about " PW_TEXT_P(".4g") " within "
+               PW_TEXT_P(".4g") " to " PW_TEXT_P(".4g") ": a column pressure beyond that point "
+               "avoids it",
+               r->P_vanish_Pa, lo, hi);
     if (isfinite(r->shift) && r->shift >= o->shift_low)
         reason(r, PW_REASON_SWING,
-               "the azeotrope moves by %.3f in x1 between %.4g and %.4g kPa: pressure swing is "
+               "the azeotrope moves by %.3f in x1 between " PW_TEXT_P(".4g") " and "
+               PW_TEXT_P(".4g") ": pressure swing is "
                "worth a look (%.2f-%.2f in mole fraction, rule of thumb, common "
                "practice)%s",
                r->shift, lo, hi, o->shift_low, o->shift_high,
                r->shift >= o->shift_high ? "; above the upper end" : "");
     else if (isfinite(r->shift))
         reason(r, PW_REASON_SWING_SMALL,
-               "the azeotrope moves only %.3f in x1 between %.4g and %.4g kPa: below %.2f, "
+               "the azeotrope moves only %.3f in x1 between " PW_TEXT_P(".4g") " and "
+               PW_TEXT_P(".4g") ": below %.2f, "
                "pressure swing is unlikely to pay (rule of thumb, common practice; docs/screen.md); "
                "consider an entrainer",
                r->shift, lo, hi, o->shift_low);
@@ -242,7 +246,8 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
             out->barrier = true;
             out->x_barrier = het.y1;
             reason(out, PW_REASON_BARRIER,
-                   "heterogeneous azeotrope at x1 = %.4f (T = %.2f K, liquid layers %.4f and %.4f) "
+                   "heterogeneous azeotrope at x1 = %.4f (T = " PW_TEXT_T(".2f")
+                   ", liquid layers %.4f and %.4f) "
                    "lies between xb and xd: use the decanter scheme (pinchwise decanter)",
                    het.y1, het.T_K, het.x[0], het.x[1]);
         }
@@ -252,7 +257,8 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
             out->barrier = true;
             out->x_barrier = out->az.az[i].x1;
             reason(out, PW_REASON_BARRIER,
-                   "%s azeotrope at x1 = %.4f (T = %.2f K) lies between xb = %.4g and xd = %.4g: "
+                   "%s azeotrope at x1 = %.4f (T = " PW_TEXT_T(".2f")
+                   ") lies between xb = %.4g and xd = %.4g: "
                    "simple distillation cannot cross it",
                    pw_az_kind_name(out->az.az[i].kind), out->az.az[i].x1, out->az.az[i].T_K, xb,
                    xd);

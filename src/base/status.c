@@ -1,4 +1,5 @@
 #include <pinchwise/status.h>
+#include <pinchwise/units.h>
 
 #include <stdarg.h>
 #include <stdio.h>
@@ -39,6 +40,13 @@ pw_status pw_error_set(pw_error *err, pw_status status, const char *file, long l
     va_start(ap, fmt);
     vsnprintf(err->msg, sizeof err->msg, fmt, ap);
     va_end(ap);
+    /* a library reason quoted in an error: its marked quantities in K and kPa (errors carry no
+     * display units; pinchwise/units.h) */
+    if (strchr(err->msg, '\x1e')) {
+        char tmp[sizeof err->msg];
+        pw_units_display_text(NULL, err->msg, tmp, sizeof tmp);
+        memcpy(err->msg, tmp, sizeof tmp);
+    }
     return status;
 }
 

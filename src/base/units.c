@@ -454,3 +454,106 @@ const char *pw_units_display_P_symbol(const pw_display_units *u)
     const char *p = pw_units_canonical(PW_QTY_PRESSURE, u->P);
     return p ? p : "kPa";
 }
+
+const char *pw_units_display_dT_symbol(const pw_display_units *u)
+{
+    const char *t = pw_units_canonical(PW_QTY_TEMPERATURE, u->T);
+    return t && !strcmp(t, "F") ? "\xc2\xb0" "F" : "K";
+}
+
+/* A printf spec of the form [.digits](f|g|e), at most 4 characters. */
+static bool spec_ok(const char *spec)
+{
+    size_t n = strlen(spec), i = 0;
+    if (n < 1 || n > 4)
+        return false;
+    if (spec[0] == '.') {
+        i = 1;
+        if (!isdigit((unsigned char)spec[i]))
+            return false;
+        while (isdigit((unsigned char)spec[i]))
+            i++;
+    }
+    return i == n - 1 && strchr("fge", spec[i]) != NULL;
+}
+
+char *pw_units_display_value(const pw_display_units *u, pw_show_kind kind, const char *spec,
+                             double si, char *out, size_t n)
+{
+    if (!out || n == 0)
+        return out;
+    const pw_display_units d = pw_units_display_default();
+    if (!u)
+        u = &d;
+    if (!spec || !spec_ok(spec)) {
+        snprintf(out, n, "?");
+        return out;
+    }
+    double v;
+    const char *sym;
+    switch (kind) {
+    case PW_SHOW_T:
+        v = pw_units_display_T(u, si);
+        sym = pw_units_display_T_symbol(u);
+        break;
+    case PW_SHOW_DT:
+        v = pw_units_display_dT(u, si);
+        sym = pw_units_display_dT_symbol(u);
+        break;
+    default:
+        v = pw_units_display_P(u, si);
+        sym = pw_units_display_P_symbol(u);
+        break;
+    }
+    char fmt[16];
+    snprintf(fmt, sizeof fmt, "%%%s %%s", spec);
+#if defined(__GNUC__)
+#pragma GCC diagnostic push
+#pragma GCC diagnostic ignored "-Wformat-nonliteral"
+#endif
+    snprintf(out, n, fmt, v, sym);
+#if defined(__GNUC__)
+#pragma GCC diagnostic pop
+#endif
+    return out;
+}
+
+char *pw_units_display_text(const pw_display_units *u, const char *text, char *out, size_t n)
+{
+    if (!out || n == 0)
+        return out;
+    size_t o = 0;
+    out[0] = '\0';
+    if (!text)
+        return out;
+    for (const char *p = text; *p && o + 1 < n;) {
+        if (*p != '\x1e') {
+            out[o++] = *p++;
+            continue;
+        }
+        /* a mark: kind, spec, 0x1f, value, 0x1d; a mark cut short ends the text */
+        const char *sep = strchr(p, '\x1f'), *end = sep ? strchr(sep, '\x1d') : NULL;
+        if (!sep || !end || sep - p < 3 || sep - p > 6)
+            break;
+        char spec[8], num[40];
+        memcpy(spec, p + 2, (size_t)(sep - p - 2));
+        spec[sep - p - 2] = '\0';
+        size_t len = (size_t)(end - sep - 1);
+        if (len >= sizeof num)
+            break;
+        memcpy(num, sep + 1, len);
+        num[len] = '\0';
+        char *tail;
+        double si = strtod(num, &tail);
+        if (tail == num || *tail)
+            break;
+        pw_show_kind kind = p[1] == 'T' ? PW_SHOW_T : p[1] == 'D' ? PW_SHOW_DT : PW_SHOW_P;
+        char val[64];
+        pw_units_display_value(u, kind, spec, si, val, sizeof val);
+        for (const char *v = val; *v && o + 1 < n; v++)
+            out[o++] = *v;
+        p = end + 1;
+    }
+    out[o] = '\0';
+    return out;
+}

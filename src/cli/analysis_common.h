@@ -6,15 +6,16 @@
 #include <jansson.h>
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/fit.h>
+#include <pinchwise/units.h>
 #include <stdio.h>
 
 /* Warns on stderr for each component whose Antoine range does not hold T_lo..T_hi [K] (saying
- * by how many K) and when that range leaves the fit's data range. what names the use. */
+ * by how much), in the display units u and when that range leaves the fit's data range. what names the use. */
 void cli_warn_T_range(const char *cmd, const pw_fit_result *fit, double T_lo_K, double T_hi_K,
-                         const char *what);
+                         const char *what, const pw_display_units *u);
 
 /* Warns when the fit did not converge or predicts a liquid-liquid split. */
-void cli_warn_fit(const char *cmd, const pw_fit_result *fit);
+void cli_warn_fit(const char *cmd, const pw_fit_result *fit, const pw_display_units *u);
 
 /* The screening caution (METHODS 8), for the readable output, and as one JSON string. */
 void cli_print_caution(FILE *f);

@@ -63,6 +63,16 @@ void cli_azeo_uncert_json(const cli_azeo_uncert *u, const pw_az_result *r, json_
         pw_het_azeo_unc_doc(json_array_get(list, r->n), &u->res_het, u->het_mode, u->opt.seed);
 }
 
+/* The library's T (K) or P (kPa) output o in the display units. */
+static pw_unc_output shown(const pw_unc_output *o, bool isP, const pw_display_units *u)
+{
+    pw_unc_output s = *o;
+    double *v[3] = {&s.value, &s.ci[0], &s.ci[1]};
+    for (int i = 0; i < 3; i++)
+        *v[i] = isP ? pw_units_display_P(u, *v[i] * 1e3) : pw_units_display_T(u, *v[i]);
+    return s;
+}
+
 static void print_interval(const char *what, const pw_unc_output *o, const char *unit)
 {
     if (!isfinite(o->ci[0]))
@@ -73,13 +83,14 @@ static void print_interval(const char *what, const pw_unc_output *o, const char 
 }
 
 void cli_het_uncert_print(const pw_unc_result *res, const pw_unc_options *opt, pw_az_mode mode,
-                         bool decanter)
+                         bool decanter, const pw_display_units *u)
 {
     bool isP = mode == PW_AZ_ISOBARIC;
     printf("\nUncertainty of the %s from the fit's parameter covariance (%zu draws, seed %lu):\n",
            decanter ? "decanter scheme" : "heterogeneous azeotrope", opt->samples, opt->seed);
-    print_interval(isP ? "three-phase T" : "three-phase P", &res->out[PW_UNC_HET_TP],
-                   isP ? "K" : "kPa");
+    pw_unc_output tp = shown(&res->out[PW_UNC_HET_TP], !isP, u);
+    print_interval(isP ? "three-phase T" : "three-phase P", &tp,
+                   isP ? pw_units_display_T_symbol(u) : pw_units_display_P_symbol(u));
     print_interval("vapor x1", &res->out[PW_UNC_HET_Y], "");
     print_interval("layer lean in 1, x1", &res->out[PW_UNC_HET_XI], "");
     print_interval("layer rich in 1, x1", &res->out[PW_UNC_HET_XII], "");
@@ -102,7 +113,8 @@ void cli_het_uncert_print(const pw_unc_result *res, const pw_unc_options *opt, p
         }
 }
 
-void cli_azeo_uncert_print(const cli_azeo_uncert *u, const pw_az_result *r)
+void cli_azeo_uncert_print(const cli_azeo_uncert *u, const pw_az_result *r,
+                           const pw_display_units *units)
 {
     bool isP = r->mode == PW_AZ_ISOBARIC;
     if (u->n)
@@ -111,9 +123,11 @@ void cli_azeo_uncert_print(const cli_azeo_uncert *u, const pw_az_result *r)
     for (size_t i = 0; i < u->n; i++) {
         const pw_unc_result *res = &u->res[i];
         const pw_unc_output *x = &res->out[PW_UNC_AZ_X1], *t = &res->out[PW_UNC_AZ_TP];
+        const pw_unc_output ts = shown(t, !isP, units);
         printf("  azeotrope at x1 = %.4f: 95 %% interval x1 %.4f to %.4f, %s %.5g to %.5g %s (%s)\n",
-               x->value, x->ci[0], x->ci[1], isP ? "T" : "P", t->ci[0], t->ci[1],
-               isP ? "K" : "kPa", x->ci_sampled ? "sampled" : "linearised");
+               x->value, x->ci[0], x->ci[1], isP ? "T" : "P", ts.ci[0], ts.ci[1],
+               isP ? pw_units_display_T_symbol(units) : pw_units_display_P_symbol(units),
+               x->ci_sampled ? "sampled" : "linearised");
         if (res->n_infeasible)
             printf("    it is absent in %.0f %% of the parameter sets drawn from the fit's "
                    "uncertainty\n", 100.0 * (1.0 - res->p_feasible));

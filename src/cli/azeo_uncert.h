@@ -32,13 +32,14 @@ pw_status cli_azeo_uncert_run_het(const pw_fit_result *fit, pw_az_mode mode, dou
 /* Text lines for a heterogeneous azeotrope's or a decanter's result (decanter true: the two
  * minimum boil-ups too). */
 void cli_het_uncert_print(const pw_unc_result *res, const pw_unc_options *opt, pw_az_mode mode,
-                         bool decanter);
+                          bool decanter, const pw_display_units *u);
 
 /* Adds x1_ci95 and T_K_ci95 / P_kPa_ci95 (CONTRACT) and an "uncertainty" object to each element
  * of the azeotrope list. */
 void cli_azeo_uncert_json(const cli_azeo_uncert *u, const pw_az_result *r, json_t *list);
 
 /* Text lines after the azeotrope table. */
-void cli_azeo_uncert_print(const cli_azeo_uncert *u, const pw_az_result *r);
+void cli_azeo_uncert_print(const cli_azeo_uncert *u, const pw_az_result *r,
+                           const pw_display_units *units);
 
 #endif

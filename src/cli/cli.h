@@ -43,6 +43,10 @@ pw_status cli_failf(const char *cmd, pw_status st, const char *fmt, ...) __attri
 /* Prints a warning line "pinchwise CMD: warning: ..." on stderr (never on stdout). */
 void cli_warnf(const char *cmd, const char *fmt, ...) __attribute__((format(printf, 2, 3)));
 
+/* The printf field width that shows s (UTF-8, such as "T [\u00b0C]") in w columns: w plus the
+ * bytes beyond one per character. */
+int cli_width(int w, const char *s);
+
 /* Loads the shipped component library, then extra_path (may be NULL) whose rows take precedence.
  * The shipped library is found at $PINCHWISE_COMPONENTS, then beside the source tree the
  * program was built from, then the installed data directory. */

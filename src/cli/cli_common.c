@@ -227,3 +227,11 @@ pw_status cli_finish_stdout(const char *cmd)
             e ? strerror(e) : "write error");
     return PW_EIO;
 }
+
+int cli_width(int w, const char *s)
+{
+    int extra = 0;
+    for (const unsigned char *p = (const unsigned char *)s; *p; p++)
+        extra += (*p & 0xC0) == 0x80; /* a continuation byte */
+    return w + extra;
+}

@@ -98,6 +98,34 @@ const cli_option cli_block_uncertainty[] = {
     CLI_END,
 };
 
+/* --show-in: checked while parsing, so cli_show_in_get cannot fail. */
+static pw_status check_show_in(cli_value *v, pw_error *err)
+{
+    pw_display_units u;
+    pw_error inner;
+    pw_error_clear(&inner);
+    if (pw_units_display_parse(v->text, &u, &inner) != PW_OK)
+        return pw_error_set(err, PW_EINVAL, NULL, 0, "%s: %s", v->spelt, inner.msg);
+    return PW_OK;
+}
+
+const cli_option cli_block_show_in[] = {
+    {.name = "--show-in", .kind = CLI_STRING, .metavar = "UNITS", .check = check_show_in,
+     .help = "temperature and/or pressure unit of the text output, e.g. C,bar\n"
+             "or degF,psia (default K,kPa; --json output and CSV files stay in\n"
+             "K and kPa)"},
+    CLI_END,
+};
+
+pw_display_units cli_show_in_get(const cli_args *a)
+{
+    pw_display_units u = pw_units_display_default();
+    const char *t = cli_text(a, "--show-in");
+    if (t && pw_units_display_parse(t, &u, NULL) != PW_OK)
+        u = pw_units_display_default(); /* not reached: check_show_in refused it */
+    return u;
+}
+
 /* ---- lookup ------------------------------------------------------------------------------ */
 
 static const cli_option *find(const cli_spec *spec, const char *name, size_t len)

@@ -125,6 +125,10 @@ extern const cli_option cli_block_products[];    /* --xd X --xb X */
 extern const cli_option cli_block_feed[];        /* --zf X --q Q */
 extern const cli_option cli_block_factors[];     /* --factors F,F,... (--operating-factor) */
 extern const cli_option cli_block_uncertainty[]; /* --uncertainty --samples N --seed N */
+extern const cli_option cli_block_show_in[];     /* --show-in UNITS */
+
+/* The display units of --show-in (K and kPa when not given). */
+pw_display_units cli_show_in_get(const cli_args *a);
 
 /* The column targets given with the pressure, products and feed blocks, into t (q 1 unless
  * given; given[] the compositions as typed, xd xb zf, NULL when absent). */

@@ -29,7 +29,7 @@ static const cli_option azeo_options[] = {
 
 static const cli_option *const azeo_blocks[] = {
     azeo_options, cli_block_uncertainty, cli_block_components, cli_block_minimum,
-    cli_block_json, NULL,
+    cli_block_show_in, cli_block_json, NULL,
 };
 
 static const cli_spec azeo_spec = {
@@ -56,6 +56,7 @@ typedef struct args {
     size_t n;
     cli_azeo_uncert unc;
     const char *components;
+    pw_display_units units; /* --show-in */
     const char *scan_text; /* --sweep (or --scan) as given */
     const char *scan_opt;  /* which of the two spellings was used, for the messages */
     const char *minimum;   /* --minimum N as given */
@@ -122,6 +123,7 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
     }
     a->minimum = cli_text(&p, "--minimum");
     a->components = cli_text(&p, "--components");
+    a->units = cli_show_in_get(&p);
     a->fit_path = p.n_pos ? p.pos[0] : NULL;
     if (!a->fit_path) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file is required");
@@ -159,12 +161,15 @@ static pw_status scan_progress(void *ctx, size_t done, size_t total)
     return PW_OK;
 }
 
-static void print_table(const pw_az_result *r, const pw_three_phase *tp)
+static void print_table(const pw_az_result *r, const pw_three_phase *tp, const pw_display_units *u)
 {
+    char b1[48], b2[48];
     if (tp->exists)
-        printf("  three liquids-and-vapor line at T = %.3f K, P = %.4f kPa: layers x1 = %.6f and %.6f,"
+        printf("  three liquids-and-vapor line at T = %s, P = %s: layers x1 = %.6f and %.6f,"
                " vapor y1 = %.6f\n  -> %s\n",
-               tp->T_K, tp->P_Pa / 1000.0, tp->x[0], tp->x[1], tp->y1,
+               pw_units_display_value(u, PW_SHOW_T, ".3f", tp->T_K, b1, sizeof b1),
+               pw_units_display_value(u, PW_SHOW_P, ".6g", tp->P_Pa, b2, sizeof b2), tp->x[0],
+               tp->x[1], tp->y1,
                tp->heterogeneous_azeotrope
                    ? "a heterogeneous (minimum-boiling) azeotrope: the vapor lies between the layers"
                    : "no azeotrope on it: the vapor lies outside the layers (heterogeneous "
@@ -175,13 +180,16 @@ static void print_table(const pw_az_result *r, const pw_three_phase *tp)
         printf("  no azeotrope in 0 < x1 < 1\n");
         return;
     }
-    printf("  %-10s %-10s %-10s %-11s %-16s %s\n", "x1", "T [K]", "T [C]", "P [kPa]", "kind",
+    snprintf(b1, sizeof b1, "T [%s]", pw_units_display_T_symbol(u));
+    snprintf(b2, sizeof b2, "P [%s]", pw_units_display_P_symbol(u));
+    printf("  %-10s %-*s %-11s %-16s %s\n", "x1", cli_width(10, b1), b1, b2, "kind",
            "gamma1, gamma2");
     for (size_t i = 0; i < r->n; i++) {
         const pw_azeotrope *z = &r->az[i];
-        printf("  %-10.6f %-10.3f %-10.3f %-11.4f %-16s %.4f, %.4f%s\n", z->x1, z->T_K,
-               z->T_K - 273.15, z->P_Pa / 1000.0, pw_az_kind_name(z->kind), z->gamma[0],
-               z->gamma[1], z->tangential ? "  (tangential: a double root)" : "");
+        printf("  %-10.6f %-10.3f %-11.6g %-16s %.4f, %.4f%s\n", z->x1,
+               pw_units_display_T(u, z->T_K), pw_units_display_P(u, z->P_Pa),
+               pw_az_kind_name(z->kind), z->gamma[0], z->gamma[1],
+               z->tangential ? "  (tangential: a double root)" : "");
     }
 }
 
@@ -190,13 +198,14 @@ static void print_text(const pw_fit_result *fit, const args *a, const pw_az_resu
                        const pw_three_phase *tps)
 {
     const pw_system *s = &fit->sys;
-    if (a->mode == PW_AZ_ISOBARIC)
-        printf("Azeotropes of %s (1) / %s (2), %s model, at %.6g kPa\n", s->comp[0].name,
-               s->comp[1].name, s->model->name, a->fixed / 1000.0);
-    else
-        printf("Azeotropes of %s (1) / %s (2), %s model, at %.6g K (%.3f C)\n", s->comp[0].name,
-               s->comp[1].name, s->model->name, a->fixed, a->fixed - 273.15);
-    print_table(r, tp);
+    const pw_display_units *u = &a->units;
+    char b1[48], b2[48];
+    bool fixedP = a->mode == PW_AZ_ISOBARIC;
+    printf("Azeotropes of %s (1) / %s (2), %s model, at %s\n", s->comp[0].name, s->comp[1].name,
+           s->model->name,
+           pw_units_display_value(u, fixedP ? PW_SHOW_P : PW_SHOW_T, fixedP ? ".6g" : ".6g",
+                                  a->fixed, b1, sizeof b1));
+    print_table(r, tp, u);
     if (n_removed)
         printf("  %zu crossing(s) of y1 = x1 inside the two-liquid region ignored: not azeotropes\n",
                n_removed);
@@ -208,26 +217,35 @@ static void print_text(const pw_fit_result *fit, const args *a, const pw_az_resu
            exp(r->ln_alpha_end[0]), exp(r->ln_alpha_end[1]));
     if (sc) {
         bool isP = sc->mode == PW_AZ_ISOBARIC;
-        printf("\nScan over %s:\n  %-12s %-10s %-10s %s\n", isP ? "pressure" : "temperature",
-               isP ? "P [kPa]" : "T [K]", "x1", isP ? "T [K]" : "P [kPa]", "kind");
+        snprintf(b1, sizeof b1, "T [%s]", pw_units_display_T_symbol(u));
+        snprintf(b2, sizeof b2, "P [%s]", pw_units_display_P_symbol(u));
+        printf("\nScan over %s:\n  %-*s %-10s %-*s %s\n", isP ? "pressure" : "temperature",
+               cli_width(12, isP ? b2 : b1), isP ? b2 : b1, "x1", cli_width(10, isP ? b1 : b2),
+               isP ? b1 : b2, "kind");
         for (size_t k = 0; k < sc->n_points; k++) {
             const pw_az_result *p = &sc->points[k];
-            double v = isP ? sc->at[k] / 1000.0 : sc->at[k];
+            double v = isP ? pw_units_display_P(u, sc->at[k]) : pw_units_display_T(u, sc->at[k]);
             bool het = tps && tps[k].exists && tps[k].heterogeneous_azeotrope;
             if (p->n == 0 && !het)
                 printf("  %-12.5g %s\n", v, "none");
             if (het)
-                printf("  %-12.5g %-10.6f %-10.4f %s, heterogeneous (layers %.4f, %.4f)\n", v,
-                       tps[k].y1, isP ? tps[k].T_K : tps[k].P_Pa / 1000.0, "minimum-boiling",
+                printf("  %-12.5g %-10.6f %-10.5g %s, heterogeneous (layers %.4f, %.4f)\n", v,
+                       tps[k].y1,
+                       isP ? pw_units_display_T(u, tps[k].T_K) : pw_units_display_P(u, tps[k].P_Pa),
+                       "minimum-boiling",
                        tps[k].x[0], tps[k].x[1]);
             for (size_t i = 0; i < p->n; i++)
-                printf("  %-12.5g %-10.6f %-10.4f %s\n", v, p->az[i].x1,
-                       isP ? p->az[i].T_K : p->az[i].P_Pa / 1000.0, pw_az_kind_name(p->az[i].kind));
+                printf("  %-12.5g %-10.6f %-10.5g %s\n", v, p->az[i].x1,
+                       isP ? pw_units_display_T(u, p->az[i].T_K)
+                           : pw_units_display_P(u, p->az[i].P_Pa),
+                       pw_az_kind_name(p->az[i].kind));
         }
         for (size_t k = 0; k < sc->n_boundaries; k++) {
             const pw_az_boundary *b = &sc->boundaries[k];
-            printf("  the azeotrope reaches x1 = %d at %s = %.5g %s; it exists %s that\n", b->end,
-                   isP ? "P" : "T", isP ? b->at / 1000.0 : b->at, isP ? "kPa" : "K",
+            printf("  the azeotrope reaches x1 = %d at %s = %s; it exists %s that\n", b->end,
+                   isP ? "P" : "T",
+                   pw_units_display_value(u, isP ? PW_SHOW_P : PW_SHOW_T, ".5g", b->at, b1,
+                                          sizeof b1),
                    b->present_above ? "above" : "below");
         }
         if (isfinite(sc->x1_shift))
@@ -312,8 +330,8 @@ pw_status cli_azeotrope(int argc, char **argv)
         Tlo = fmin(Tlo, sc->points[k].T_lo_K);
         Thi = fmax(Thi, sc->points[k].T_hi_K);
     }
-    cli_warn_fit(CMD, &fit);
-    cli_warn_T_range(CMD, &fit, Tlo, Thi, "the bubble temperatures used");
+    cli_warn_fit(CMD, &fit, &a.units);
+    cli_warn_T_range(CMD, &fit, Tlo, Thi, "the bubble temperatures used", &a.units);
     if (a.json) {
         json_t *o = pw_azeotrope_doc(&fit.sys, a.mode, a.fixed, &r, sc, &tp, tps);
         if (a.unc.on)
@@ -324,9 +342,9 @@ pw_status cli_azeotrope(int argc, char **argv)
     } else {
         print_text(&fit, &a, &r, &tp, n_removed, sc, tps);
         if (a.unc.on)
-            cli_azeo_uncert_print(&a.unc, &r);
+            cli_azeo_uncert_print(&a.unc, &r, &a.units);
         if (a.unc.het)
-            cli_het_uncert_print(&a.unc.res_het, &a.unc.opt, a.mode, false);
+            cli_het_uncert_print(&a.unc.res_het, &a.unc.opt, a.mode, false, &a.units);
         rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     free(tps);

@@ -33,7 +33,7 @@ static const cli_option check_verdict[] = {
 };
 
 static const cli_option *const check_blocks[] = {
-    check_options, cli_block_components, check_verdict, cli_block_json, NULL,
+    check_options, cli_block_components, check_verdict, cli_block_show_in, cli_block_json, NULL,
 };
 
 static const cli_spec check_spec = {
@@ -104,7 +104,8 @@ static const char *with_unit(double v, bool fixed3, const char *unit, const char
     return buf;
 }
 
-static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
+static void print_text(const pw_dataset *ds, const pw_consistency_result *r,
+                       const pw_display_units *u)
 {
     bool iso = ds->kind == PW_DATA_ISOTHERMAL;
     printf("Consistency of %s\n  %s (1) / %s (2), %s, %zu rows\n\n", ds->path, ds->names[0],
@@ -117,13 +118,17 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
         const char *what, *unit;
         double sc;
         value_words(t, iso, &what, &unit, &sc);
+        if (!strcmp(unit, "K")) { /* a temperature difference */
+            sc = pw_units_display_dT(u, 1.0);
+            unit = pw_units_display_dT_symbol(u);
+        }
         char v[64], l[64];
         printf("  %-16s %-22s %-20s %-7s %s\n", t->name,
                with_unit(t->value * sc, false, unit, NULL, v, sizeof v),
                with_unit(t->limit * sc, false, unit, NULL, l, sizeof l),
                t->pass ? "pass" : "FAIL", r->primary[i] ? "decides" : "supports");
         printf("  %-16s   value: %s\n", "", what);
-        if (t->id == PW_CTEST_HERINGTON)
+        if (t->id == PW_CTEST_HERINGTON) /* the allowance's formula needs kelvin: always K */
             printf("  %-16s   D = %.4g %%, J = %.4g %% (J = 150 x %.4g K / %.4g K)\n", "",
                    r->herington_D, r->herington_J, r->herington_theta_K, r->herington_Tmin_K);
     }
@@ -131,16 +136,19 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
         if (!r->tests[i].ran)
             printf("  %-16s not run, because %s\n", r->tests[i].name, r->tests[i].why_not);
     if (r->uncertainty_based)
-        printf("  limits from the stated uncertainties: sigma_y %.3g, sigma_x %.3g, %s %.3g%s\n",
+        printf("  limits from the stated uncertainties: sigma_y %.3g, sigma_x %.3g, %s %.3g %s\n",
                r->sigma_y_used, r->sigma_x_used,
                r->kind == PW_DATA_ISOTHERMAL ? "sigma_P" : "sigma_T",
-               r->kind == PW_DATA_ISOTHERMAL ? 100.0 * r->sigma_P_used_rel : r->sigma_T_used_K,
-               r->kind == PW_DATA_ISOTHERMAL ? " %" : " K");
+               r->kind == PW_DATA_ISOTHERMAL ? 100.0 * r->sigma_P_used_rel
+                                             : pw_units_display_dT(u, r->sigma_T_used_K),
+               r->kind == PW_DATA_ISOTHERMAL ? "%" : pw_units_display_dT_symbol(u));
     else
         printf("  no sigma_y stated: the point test uses the classic limit (docs/consistency.md)\n");
     printf("\n  => %s\n", r->consistent ? "CONSISTENT" : "NOT SHOWN CONSISTENT");
-    for (size_t i = 0; i < r->n_reasons; i++)
-        printf("     - %s\n", r->reasons[i]);
+    for (size_t i = 0; i < r->n_reasons; i++) {
+        char why[PW_CONSISTENCY_REASON_MAX + 64];
+        printf("     - %s\n", pw_units_display_text(u, r->reasons[i], why, sizeof why));
+    }
     if (r->legendre_terms)
         printf("\n  Legendre G^E by Barker's method: %zu terms, Van Ness index %d (rms of d ln(g1/g2) "
                "%.3g, dimensionless)\n",
@@ -158,13 +166,17 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r)
                with_unit(q->F_pure, true, "", r->tests[PW_CTEST_ENDPOINT].why_not, e, sizeof e));
     }
     if (r->tests[PW_CTEST_POINT].ran) {
-        printf("\n  %6s %8s %8s %8s %9s %10s %10s\n", "line", "x1", "y1", "y1 calc", "dy",
-               "dln(g1/g2)", ds->kind == PW_DATA_ISOTHERMAL ? "dP/P" : "dT [K]");
+        char dT_head[24];
+        snprintf(dT_head, sizeof dT_head, "dT [%s]", pw_units_display_dT_symbol(u));
+        printf("\n  %6s %8s %8s %8s %9s %10s %*s\n", "line", "x1", "y1", "y1 calc", "dy",
+               "dln(g1/g2)", cli_width(10, ds->kind == PW_DATA_ISOTHERMAL ? "dP/P" : dT_head),
+               ds->kind == PW_DATA_ISOTHERMAL ? "dP/P" : dT_head);
         for (size_t i = 0; i < r->n_pts; i++) {
             const pw_cpoint *p = &r->pts[i];
             printf("  %6ld %8.4f %8.4f %8.4f %+9.4f %+10.4f %+10.3g%s\n", p->line, p->x1, p->y_exp,
                    p->y_calc, p->dy, p->dlnratio,
-                   ds->kind == PW_DATA_ISOTHERMAL ? p->dP_rel : p->dT_K, p->flagged ? "  <-" : "");
+                   ds->kind == PW_DATA_ISOTHERMAL ? p->dP_rel : pw_units_display_dT(u, p->dT_K),
+                   p->flagged ? "  <-" : "");
         }
         for (size_t i = 0; i < r->n_pts; i++)
             if (r->pts[i].flagged)
@@ -204,6 +216,7 @@ pw_status cli_check(int argc, char **argv)
     const char *sigma_y = cli_text(&p, "--sigma-y");
     bool json = cli_has(&p, "--json"), strict = cli_has(&p, "--strict");
     bool exit_verdict = cli_has(&p, "--exit-verdict");
+    const pw_display_units units = cli_show_in_get(&p);
     if (!data) {
         return cli_failf("check", PW_EINVAL, "no data file given");
     }
@@ -253,15 +266,22 @@ pw_status cli_check(int argc, char **argv)
             for (size_t k = 0; k < ds.n; k++)
                 Tlo = fmin(Tlo, ds.pts[k].T_K), Thi = fmax(Thi, ds.pts[k].T_K);
             if (pw_component_range_excess_K(c[i], Tlo) != 0.0 || pw_component_range_excess_K(c[i], Thi) != 0.0)
-                cli_warnf("check", "%s: the data's temperatures %.2f-%.2f K leave the validity "
-                             "range %.2f-%.2f K of the %s vapor-pressure correlation", ds.path, Tlo,
-                             Thi, c[i]->T_min_K, c[i]->T_max_K, c[i]->name);
+            {
+                char b[4][48];
+                cli_warnf("check", "%s: the data's temperatures %s to %s leave the validity "
+                          "range %s to %s of the %s vapor-pressure correlation", ds.path,
+                          pw_units_display_value(&units, PW_SHOW_T, ".2f", Tlo, b[0], 48),
+                          pw_units_display_value(&units, PW_SHOW_T, ".2f", Thi, b[1], 48),
+                          pw_units_display_value(&units, PW_SHOW_T, ".2f", c[i]->T_min_K, b[2], 48),
+                          pw_units_display_value(&units, PW_SHOW_T, ".2f", c[i]->T_max_K, b[3], 48),
+                          c[i]->name);
+            }
         }
         if (json) {
             code = cli_print_json(pw_check_doc(&ds, &r, strict, &het));
         } else {
             print_het(&het);
-            print_text(&ds, &r);
+            print_text(&ds, &r, &units);
         }
         if (code == PW_OK && exit_verdict && !r.consistent)
             code = PW_EINFEASIBLE;

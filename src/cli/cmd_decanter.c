@@ -22,6 +22,7 @@ typedef struct args {
     bool have_P, have_z, have_rich, have_lean, json;
     cli_azeo_uncert unc; /* --uncertainty, --samples, --seed (the azeotrope command's parser) */
     pw_basis basis[3]; /* of --zf, --x1-rich, --x1-lean as given (mole, or mass: wt, wt%) */
+    pw_display_units units; /* --show-in */
 } args;
 
 /* Design boil-up ratios: above the minimum. */
@@ -51,7 +52,7 @@ static const cli_option decanter_options[] = {
 
 static const cli_option *const decanter_blocks[] = {
     cli_block_pressure, cli_block_feed, decanter_options, cli_block_uncertainty,
-    cli_block_components, cli_block_json, NULL,
+    cli_block_components, cli_block_show_in, cli_block_json, NULL,
 };
 
 static const cli_spec decanter_spec = {
@@ -82,6 +83,7 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
         return PW_OK;
     a->json = cli_has(&p, "--json");
     a->components = cli_text(&p, "--components");
+    a->units = cli_show_in_get(&p);
     cli_azeo_uncert_from(&p, &a->unc);
     const cli_value *v;
     if ((v = cli_get(&p, "--x1-rich")))
@@ -176,14 +178,19 @@ pw_status cli_decanter(int argc, char **argv)
         rc = cli_print_json(doc);
     } else {
         const pw_system *s = &fit.sys;
-        printf("Decanter scheme for %s (1) / %s (2), %s model, at %.6g kPa\n", s->comp[0].name,
-               s->comp[1].name, s->model->name, a.spec.P_Pa / 1000.0);
+        const pw_display_units *u = &a.units;
+        char b1[48];
+        printf("Decanter scheme for %s (1) / %s (2), %s model, at %s\n", s->comp[0].name,
+               s->comp[1].name, s->model->name,
+               pw_units_display_value(u, PW_SHOW_P, ".6g", a.spec.P_Pa, b1, sizeof b1));
         if (tp->exists)
-            printf("  decanter at the three-phase temperature %.3f K (%.2f C): layers x1 = %.5f and "
+            printf("  decanter at the three-phase temperature %s: layers x1 = %.5f and "
                    "%.5f, vapor x1 = %.5f\n",
-                   tp->T_K, tp->T_K - 273.15, tp->x[0], tp->x[1], tp->y1);
+                   pw_units_display_value(u, PW_SHOW_T, ".3f", tp->T_K, b1, sizeof b1), tp->x[0],
+                   tp->x[1], tp->y1);
         if (!r.feasible) {
-            printf("  not feasible: %s\n", r.reason);
+            char why[PW_REASON_MAX + 64];
+            printf("  not feasible: %s\n", pw_units_display_text(u, r.reason, why, sizeof why));
         } else {
             print_column("A", &r.col[0], r.top_x1[0], a.spec.x_rich);
             print_column("B", &r.col[1], r.top_x1[1], a.spec.x_lean);
@@ -195,7 +202,7 @@ pw_status cli_decanter(int argc, char **argv)
                    a.spec.q);
         }
         if (unc)
-            cli_het_uncert_print(&ures, &a.unc.opt, PW_AZ_ISOBARIC, true);
+            cli_het_uncert_print(&ures, &a.unc.opt, PW_AZ_ISOBARIC, true, u);
         else if (a.unc.on)
             printf("\nThe scheme is not feasible at the estimate: no interval to give.\n");
         cli_print_caution(stdout);

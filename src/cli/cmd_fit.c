@@ -126,7 +126,7 @@ static const cli_option fit_options[] = {
 };
 
 static const cli_option *const fit_blocks[] = {
-    fit_options, cli_block_components, cli_block_json, NULL,
+    fit_options, cli_block_components, cli_block_show_in, cli_block_json, NULL,
 };
 
 static void usage(FILE *f, const cli_spec *spec)
@@ -151,8 +151,9 @@ static const cli_spec fit_spec = {
     .positional = "one dataset or folder",
 };
 
-static void print_table(const pw_fit_result *r, const char *path)
+static void print_table(const pw_fit_result *r, const char *path, const pw_display_units *u)
 {
+    char tref[48];
     const pw_model_type *m = r->sys.model;
     printf("%s fit of %s (1) / %s (2), %s data, %zu points\n", m->name, r->sys.comp[0].name,
            r->sys.comp[1].name, r->kind == PW_DATA_ISOBARIC ? "isobaric" : "isothermal", r->n_pts);
@@ -176,22 +177,33 @@ static void print_table(const pw_fit_result *r, const char *path)
             printf("  correlation %s/%s: %+.3f%s\n", m->param_names[idx[a]], m->param_names[idx[b]],
                    r->corr[idx[a]][idx[b]],
                    fabs(r->corr[idx[a]][idx[b]]) > 0.95 ? "  (poorly identifiable)" : "");
-    printf("  ln gamma_inf at %.2f K: %.4f (1 in 2), %.4f (2 in 1)\n", r->sys.T_ref_K,
+    printf("  ln gamma_inf at %s: %.4f (1 in 2), %.4f (2 in 1)\n",
+           pw_units_display_value(u, PW_SHOW_T, ".2f", r->sys.T_ref_K, tref, sizeof tref),
            r->lngamma_inf[0], r->lngamma_inf[1]);
     if (r->has_y)
         printf("  y:  AAD %.4f  bias %+.4f  max %.4f (line %ld)\n", r->dev_y.aad, r->dev_y.bias,
                r->dev_y.max_abs, r->dev_y.max_line);
     if (r->kind == PW_DATA_ISOBARIC)
-        printf("  T:  AAD %.3f K  bias %+.3f K  max %.3f K (line %ld)\n", r->dev_T_K.aad,
-               r->dev_T_K.bias, r->dev_T_K.max_abs, r->dev_T_K.max_line);
+        printf("  T:  AAD %.3f %s  bias %+.3f %s  max %.3f %s (line %ld)\n",
+               pw_units_display_dT(u, r->dev_T_K.aad), pw_units_display_dT_symbol(u),
+               pw_units_display_dT(u, r->dev_T_K.bias), pw_units_display_dT_symbol(u),
+               pw_units_display_dT(u, r->dev_T_K.max_abs), pw_units_display_dT_symbol(u),
+               r->dev_T_K.max_line);
     else
-        printf("  P:  AAD %.4f kPa  bias %+.4f kPa  max %.4f kPa (line %ld)\n",
-               r->dev_P_Pa.aad / 1e3, r->dev_P_Pa.bias / 1e3, r->dev_P_Pa.max_abs / 1e3,
+        printf("  P:  AAD %.4g %s  bias %+.4g %s  max %.4g %s (line %ld)\n",
+               pw_units_display_P(u, r->dev_P_Pa.aad), pw_units_display_P_symbol(u),
+               pw_units_display_P(u, r->dev_P_Pa.bias), pw_units_display_P_symbol(u),
+               pw_units_display_P(u, r->dev_P_Pa.max_abs), pw_units_display_P_symbol(u),
                r->dev_P_Pa.max_line);
     printf("  chi2/dof %.4g, AICc %.4g\n", r->chi2_red, r->aicc);
     if (r->n_minima > 1)
         printf("  %zu distinct local minima found by the multistart (best chi2 %.4g, next %.4g)\n",
                r->n_minima, r->minima[0].chi2, r->minima[1].chi2);
+    if (r->minimum_split_skipped)
+        printf("  chosen: minimum %zu, not the lowest: minima 1 to %zu predict a liquid-liquid split\n"
+               "  the data do not show, and minimum %zu fits as well (chi2 within a factor\n"
+               "  max(1.01, exp(2/n)) of the lowest; docs/fitting.md); --minimum 1 takes the lowest\n",
+               r->minimum_default, r->minimum_split_skipped, r->minimum_default);
     printf("  fit file: %s\n", path);
 }
 
@@ -219,6 +231,7 @@ pw_status cli_fit(int argc, char **argv)
     lle_path = cli_text(&p, "--lle");
     json = cli_has(&p, "--json");
     co.force = cli_has(&p, "--force");
+    co.units = cli_show_in_get(&p);
     co.fit.fit_alpha = cli_has(&p, "--fit-alpha");
     const cli_value *v;
     if ((v = cli_get(&p, "--vapor")) && pw_vapor_parse(v->text, &co.fit.vapor) != PW_OK)
@@ -296,7 +309,7 @@ pw_status cli_fit(int argc, char **argv)
                 json_t *o = cli_fit_json(&r, path);
                 rc = cli_print_json(o);
             } else {
-                print_table(&r, path);
+                print_table(&r, path, &co.units);
             }
             pw_fit_result_free(&r);
         } else {

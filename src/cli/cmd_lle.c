@@ -24,7 +24,7 @@ static const cli_option lle_options[] = {
 };
 
 static const cli_option *const lle_blocks[] = {
-    lle_options, cli_block_components, cli_block_json, NULL,
+    lle_options, cli_block_components, cli_block_show_in, cli_block_json, NULL,
 };
 
 static const cli_spec lle_spec = {
@@ -46,6 +46,7 @@ typedef struct args {
     double T, from, to;
     size_t n;
     bool have_T, json;
+    pw_display_units units; /* --show-in */
 } args;
 
 static pw_status parse_scan(const char *text, args *a, pw_error *err)
@@ -85,6 +86,7 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
         return PW_OK;
     a->json = cli_has(&p, "--json");
     a->components = cli_text(&p, "--components");
+    a->units = cli_show_in_get(&p);
     a->scan_text = cli_text(&p, "--scan");
     const cli_value *T = cli_get(&p, "--temperature");
     if (T)
@@ -139,8 +141,11 @@ pw_status cli_lle(int argc, char **argv)
     if (a.json) {
         rc = cli_print_json(pw_lle_doc(s, a.T, &r, pts, a.n, crit, n_crit));
     } else {
-        printf("Liquid-liquid equilibrium of %s (1) / %s (2), %s model, at %.3f K (%.2f C)\n",
-               s->comp[0].name, s->comp[1].name, s->model->name, a.T, a.T - 273.15);
+        const pw_display_units *u = &a.units;
+        char b1[48];
+        printf("Liquid-liquid equilibrium of %s (1) / %s (2), %s model, at %s\n", s->comp[0].name,
+               s->comp[1].name, s->model->name,
+               pw_units_display_value(u, PW_SHOW_T, ".3f", a.T, b1, sizeof b1));
         if (!can)
             printf("  the %s model cannot predict two liquids for any parameters; use NRTL, "
                    "UNIQUAC, Margules or van Laar for partly miscible liquids\n",
@@ -158,17 +163,19 @@ pw_status cli_lle(int argc, char **argv)
                    r.min_D, r.x_min_D);
         }
         if (pts) {
-            printf("\n  %-10s %-10s %-12s %s\n", "T [K]", "T [C]", "x1 layer I", "x1 layer II");
+            snprintf(b1, sizeof b1, "T [%s]", pw_units_display_T_symbol(u));
+            printf("\n  %-*s %-12s %s\n", cli_width(10, b1), b1, "x1 layer I", "x1 layer II");
             for (size_t k = 0; k < a.n; k++) {
+                double T = pw_units_display_T(u, pts[k].T_K);
                 if (pts[k].split)
-                    printf("  %-10.3f %-10.3f %-12.6g %.6g\n", pts[k].T_K, pts[k].T_K - 273.15,
-                           pts[k].x[0], pts[k].x[1]);
+                    printf("  %-10.3f %-12.6g %.6g\n", T, pts[k].x[0], pts[k].x[1]);
                 else
-                    printf("  %-10.3f %-10.3f one liquid\n", pts[k].T_K, pts[k].T_K - 273.15);
+                    printf("  %-10.3f one liquid\n", T);
             }
             for (size_t k = 0; k < n_crit; k++)
-                printf("  %s critical solution temperature %.4f K (%.3f C) at x1 = %.5f\n",
-                       crit[k].upper ? "upper" : "lower", crit[k].T_K, crit[k].T_K - 273.15,
+                printf("  %s critical solution temperature %s at x1 = %.5f\n",
+                       crit[k].upper ? "upper" : "lower",
+                       pw_units_display_value(u, PW_SHOW_T, ".4f", crit[k].T_K, b1, sizeof b1),
                        crit[k].x1);
         }
         printf("  Layers predicted from a fit to vapor-liquid data can be far from measured "

@@ -19,6 +19,7 @@ typedef struct rate_args {
     pw_rate_spec spec;
     bool json, energy, have_N, have_K, have_R, have_D;
     cli_targets tg;
+    pw_display_units units; /* --show-in */
 } rate_args;
 
 static const cli_option rate_options[] = {
@@ -38,7 +39,7 @@ static const cli_option rate_options[] = {
 
 static const cli_option *const rate_blocks[] = {
     cli_block_pressure, cli_block_feed, rate_options, cli_block_components,
-    cli_block_json, NULL,
+    cli_block_show_in, cli_block_json, NULL,
 };
 
 static const cli_spec rate_spec = {
@@ -68,6 +69,7 @@ static pw_status parse(int argc, char **argv, rate_args *a, pw_error *err)
     a->json = cli_has(&p, "--json");
     a->energy = cli_has(&p, "--energy");
     a->components = cli_text(&p, "--components");
+    a->units = cli_show_in_get(&p);
     cli_targets_get(&p, &a->tg, NULL);
     const cli_value *v;
     if ((v = cli_get(&p, "--stages")))
@@ -135,24 +137,28 @@ pw_status cli_rate(int argc, char **argv)
             const pw_component *c = &fit.sys.comp[i];
             double ex = fmax(fabs(pw_component_range_excess_K(c, Tlo)),
                              fabs(pw_component_range_excess_K(c, Thi)));
+            char b[48];
             if (ex > 0.0)
-                cli_warnf(CMD, "the column runs %.1f K outside the vapor-pressure range of %s",
-                             ex, c->name);
+                cli_warnf(CMD, "the column runs %s outside the vapor-pressure range of %s",
+                          pw_units_display_value(&a.units, PW_SHOW_DT, ".1f", ex, b, sizeof b),
+                          c->name);
         }
     }
     if (a.json) {
         rc = cli_print_json(pw_rate_doc(&fit.sys, a.P_Pa, &a.spec, a.energy, &r, &en));
     } else {
-        printf("given column at %.4g kPa (%s / %s): %d stages, feed on stage %d, R %.4g, "
+        char b[48];
+        printf("given column at %s (%s / %s): %d stages, feed on stage %d, R %.4g, "
                "D/F %.4g, zf %.4g, q %.4g\n",
-               a.P_Pa / 1e3, fit.sys.comp[0].name, fit.sys.comp[1].name, a.spec.n_stages,
+               pw_units_display_value(&a.units, PW_SHOW_P, ".4g", a.P_Pa, b, sizeof b),
+               fit.sys.comp[0].name, fit.sys.comp[1].name, a.spec.n_stages,
                a.spec.feed_stage, a.spec.R, a.spec.d_frac, a.spec.zf, a.spec.q);
         printf("  distillate x1 %.8f   bottoms x1 %.8f\n", r.xd, r.xb);
         if (a.energy)
             printf("  energy balances: condenser %.4f kJ, reboiler %.4f kJ per mol feed\n",
                    en.Q_C / 1e3, en.Q_R / 1e3);
         printf("\n");
-        cli_profile_print(&r.profile);
+        cli_profile_print(&r.profile, &a.units);
         printf("\n  Screening estimate only (equilibrium stages, %s): verify\n",
                a.energy ? "energy balances" : "constant molal overflow");
         printf("  with rigorous simulation and plant data; operate per local codes under licensed\n"

@@ -33,7 +33,9 @@ static void print_table(const cli_column_run *run)
 {
     const pw_column_result view = headline(run);
     const pw_column_result *c = &view;
-    printf("column at %.4g kPa: xd %.4g, xb %.4g, zf %.4g, q %.4g (%s / %s)\n", run->P_Pa / 1e3,
+    char b[PW_REASON_MAX + 64];
+    printf("column at %s: xd %.4g, xb %.4g, zf %.4g, q %.4g (%s / %s)\n",
+           pw_units_display_value(&run->units, PW_SHOW_P, ".4g", run->P_Pa, b, sizeof b),
            run->spec.xd, run->spec.xb, run->spec.zf, run->spec.q, run->fit.sys.comp[0].name,
            run->fit.sys.comp[1].name);
     if (run->given[0] && run->given[1] && run->given[2])
@@ -41,7 +43,8 @@ static void print_table(const cli_column_run *run)
                "  fit file's components; every composition below is a mole fraction)\n",
                run->given[0], run->given[1], run->given[2]);
     if (!c->feasible) {
-        printf("  NOT FEASIBLE by simple distillation: %s\n", c->reason);
+        printf("  NOT FEASIBLE by simple distillation: %s\n",
+               pw_units_display_text(&run->units, c->reason, b, sizeof b));
         return;
     }
     if (isfinite(c->s_min))

@@ -37,9 +37,6 @@ static const cli_option report_options[] = {
     {.name = "--energy", .kind = CLI_FLAG,
      .help = "with the column: also the energy-balance column (needs heat\n"
              "data in the component rows)"},
-    {.name = "--show-in", .kind = CLI_STRING, .metavar = "UNITS",
-     .help = "temperature and/or pressure unit of the page, e.g. C,bar\n"
-             "(default K,kPa; --json output and CSV files unchanged)"},
     {.name = "--svg", .kind = CLI_STRING, .metavar = "DIR",
      .help = "also write each plot as DIR/<name>.svg"},
     {.name = "--csv", .kind = CLI_STRING, .metavar = "DIR",
@@ -60,7 +57,8 @@ static const cli_option report_json[] = {
 
 static const cli_option *const report_blocks[] = {
     report_options, cli_block_pressure, cli_block_products, cli_block_feed,
-    cli_block_uncertainty, cli_block_components, cli_block_minimum, report_json, NULL,
+    cli_block_uncertainty, cli_block_components, cli_block_minimum, cli_block_show_in,
+    report_json, NULL,
 };
 
 static const cli_spec report_spec = {
@@ -160,10 +158,7 @@ static pw_status parse(int argc, char **argv, report_args *a, pw_error *err)
     a->csv = cli_text(&p, "--csv");
     a->components = cli_text(&p, "--components");
     a->minimum = cli_text(&p, "--minimum");
-    a->units = pw_units_display_default();
-    const char *show_in = cli_text(&p, "--show-in");
-    if (show_in && pw_units_display_parse(show_in, &a->units, err) != PW_OK)
-        return PW_EINVAL;
+    a->units = cli_show_in_get(&p);
     for (const cli_value *v = cli_next(&p, "--compare", NULL); v;
          v = cli_next(&p, "--compare", v)) {
         if (a->n_compare == REPORT_MAX_OTHERS) {

@@ -25,7 +25,7 @@ static const cli_option screen_options[] = {
 static const cli_option *const screen_blocks[] = {
     cli_block_pressure, cli_block_products, cli_block_feed, screen_options,
     cli_block_uncertainty, cli_block_components, cli_block_minimum,
-    cli_block_verdict, cli_block_json, NULL,
+    cli_block_verdict, cli_block_show_in, cli_block_json, NULL,
 };
 
 static const cli_spec screen_spec = {
@@ -52,6 +52,7 @@ typedef struct args {
     bool uncertainty, exit_verdict;
     bool energy; /* --energy: R_min of the rough column also with energy balances */
     const char *components, *minimum;
+    pw_display_units units; /* --show-in */
     cli_uncertainty unc; /* --uncertainty, --samples, --seed */
     pw_screen_options opt;
 } args;
@@ -107,6 +108,7 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
     a->exit_verdict = cli_has(&p, "--exit-verdict");
     a->components = cli_text(&p, "--components");
     a->minimum = cli_text(&p, "--minimum");
+    a->units = cli_show_in_get(&p);
     a->unc = cli_uncertainty_get(&p);
     a->uncertainty = a->unc.on;
     cli_targets tg;
@@ -145,15 +147,18 @@ static pw_status check_targets(const args *a, pw_error *err)
     return PW_OK;
 }
 
-static void print_text(const pw_fit_result *fit, const pw_screen_result *r)
+static void print_text(const pw_fit_result *fit, const pw_screen_result *r,
+                       const pw_display_units *u)
 {
-    printf("Split screen: %s (1) / %s (2), %s model, at %.6g kPa\n", fit->sys.comp[0].name,
-           fit->sys.comp[1].name, fit->sys.model->name, r->P_Pa / 1000.0);
+    char b[PW_REASON_MAX + 64];
+    printf("Split screen: %s (1) / %s (2), %s model, at %s\n", fit->sys.comp[0].name,
+           fit->sys.comp[1].name, fit->sys.model->name,
+           pw_units_display_value(u, PW_SHOW_P, ".6g", r->P_Pa, b, sizeof b));
     printf("  targets: xd = %.4g, xb = %.4g, zf = %.4g%s\n", r->xd, r->xb, r->zf,
            r->zf_default ? " (default)" : "");
     printf("  verdict: %s\n", pw_verdict_name(r->verdict));
     for (size_t i = 0; i < r->n_reasons; i++)
-        printf("   - %s\n", r->reasons[i].text);
+        printf("   - %s\n", pw_units_display_text(u, r->reasons[i].text, b, sizeof b));
     printf("  relative volatility: lowest %.4f at x1 = %.4f; %.4f at xd, %.4f at xb\n",
            r->alpha_min, r->x_alpha_min, r->alpha_top, r->alpha_bottom);
     if (r->column_ran && r->column.feasible)
@@ -198,8 +203,8 @@ pw_status cli_screen(int argc, char **argv)
         pw_fit_result_free(&fit);
         return cli_fail(CMD, &err);
     }
-    cli_warn_fit(CMD, &fit);
-    cli_warn_T_range(CMD, &fit, r.T_lo_K, r.T_hi_K, "the temperatures used");
+    cli_warn_fit(CMD, &fit, &a.units);
+    cli_warn_T_range(CMD, &fit, r.T_lo_K, r.T_hi_K, "the temperatures used", &a.units);
     /* --uncertainty: the reflux command's propagation, for the screen's rough column (q = 1). */
     cli_column_uncert u;
     cli_column_run run;
@@ -256,13 +261,16 @@ pw_status cli_screen(int argc, char **argv)
             cli_column_uncert_json(&u, j);
         rc = cli_print_json(j);
     } else {
-        print_text(&fit, &r);
+        print_text(&fit, &r, &a.units);
         if (with_energy && en.feasible)
             printf("  with energy balances: R_min %.4g (constant molal overflow %.4g), %s pinch\n",
                    en.r_min, r.column.r_min,
                    en.pinch.kind == PW_PINCH_TANGENT ? "tangent" : "feed");
-        else if (with_energy)
-            printf("  with energy balances: %s\n", en.reason);
+        else if (with_energy) {
+            char why[PW_REASON_MAX + 64];
+            printf("  with energy balances: %s\n",
+                   pw_units_display_text(&a.units, en.reason, why, sizeof why));
+        }
         if (unc)
             cli_column_uncert_print(&u, &run);
         rc = fflush(stdout) ? PW_EIO : PW_OK;

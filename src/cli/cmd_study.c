@@ -48,7 +48,7 @@ static const cli_option study_options[] = {
 static const cli_option *const study_blocks[] = {
     cli_block_pressure, cli_block_products, cli_block_feed, study_options,
     cli_block_factors, cli_block_uncertainty, cli_block_components,
-    cli_block_verdict, cli_block_json, NULL,
+    cli_block_verdict, cli_block_show_in, cli_block_json, NULL,
 };
 
 static const cli_spec study_spec = {
@@ -145,8 +145,9 @@ static json_t *az_json(const pw_az_result *r)
     return arr;
 }
 
-static void az_text(const char *where, const pw_az_result *r, bool ok)
+static void az_text(const char *where, const pw_az_result *r, bool ok, const pw_display_units *u)
 {
+    char bT[48], bP[48];
     printf("  azeotropes %s: ", where);
     if (!ok) {
         printf("not found: the search failed\n");
@@ -155,8 +156,10 @@ static void az_text(const char *where, const pw_az_result *r, bool ok)
     if (r->n == 0)
         printf("none\n");
     for (size_t i = 0; i < r->n; i++)
-        printf("%s%s at x1 = %.4f, T = %.2f K, P = %.4g kPa\n", i ? "; " : "",
-               pw_az_kind_name(r->az[i].kind), r->az[i].x1, r->az[i].T_K, r->az[i].P_Pa / 1000.0);
+        printf("%s%s at x1 = %.4f, T = %s, P = %s\n", i ? "; " : "",
+               pw_az_kind_name(r->az[i].kind), r->az[i].x1,
+               pw_units_display_value(u, PW_SHOW_T, ".2f", r->az[i].T_K, bT, sizeof bT),
+               pw_units_display_value(u, PW_SHOW_P, ".4g", r->az[i].P_Pa, bP, sizeof bP));
 }
 
 pw_status cli_study(int argc, char **argv)
@@ -305,6 +308,7 @@ pw_status cli_study(int argc, char **argv)
         if (fabs(ra.opt.factors[k] - 1.3) < 1e-12)
             in.operating_factor = 1.3;
     in.uncertainty = a.uncertainty;
+    in.units = ra.units;
     const pw_fit_result *others[8];
     size_t n_others = 0;
     for (size_t i = 0; i < n_models && n_others < 8; i++)
@@ -376,12 +380,14 @@ pw_status cli_study(int argc, char **argv)
         }
         printf("\n  chosen                %s (%s)\n", chosen->model->name,
                only ? "named with --model" : "converged, no liquid split, lowest AICc");
-        az_text("at the data's condition", &az_data, az_data_ok);
-        az_text("at the column pressure", &az_col, az_col_ok);
+        az_text("at the data's condition", &az_data, az_data_ok, &ra.units);
+        az_text("at the column pressure", &az_col, az_col_ok, &ra.units);
         const pw_column_result *c = &run.col;
-        if (!c->feasible)
-            printf("  column                NOT FEASIBLE by simple distillation: %s\n", c->reason);
-        else {
+        char why[PW_REASON_MAX + 64];
+        if (!c->feasible) {
+            printf("  column                NOT FEASIBLE by simple distillation: %s\n",
+                   pw_units_display_text(&ra.units, c->reason, why, sizeof why));
+        } else {
             printf("  minimum reflux        R_min %.5g, %s pinch in the %s section at x = %.4f\n",
                    c->r_min, c->pinch.kind == PW_PINCH_FEED ? "feed" : "tangent",
                    c->pinch.section == PW_SECTION_RECTIFYING ? "rectifying" : "stripping",

@@ -28,7 +28,7 @@ static const cli_option reflux_options[] = {
 static const cli_option *const reflux_blocks[] = {
     cli_block_pressure, cli_block_products, cli_block_feed, cli_block_factors,
     reflux_options, cli_block_uncertainty, cli_block_components, cli_block_minimum,
-    cli_block_verdict, cli_block_json, NULL,
+    cli_block_verdict, cli_block_show_in, cli_block_json, NULL,
 };
 
 const cli_spec cli_reflux_spec = {
@@ -57,6 +57,7 @@ pw_status cli_column_args_from(const cli_args *p, const char *fit_path, cli_colu
     a->exit_verdict = cli_has(p, "--exit-verdict");
     a->components = cli_text(p, "--components");
     a->minimum = cli_text(p, "--minimum");
+    a->units = cli_show_in_get(p);
     const cli_value *v = cli_get(p, "--factors");
     if (v) {
         if (v->n_list > PW_COLUMN_MAX_FACTORS)
@@ -122,6 +123,7 @@ pw_status cli_column_compute(const cli_column_args *a, cli_column_run *run, pw_e
         return st;
     run->P_Pa = a->P_Pa;
     run->spec = a->spec;
+    run->units = a->units;
     if (a->basis[0] == PW_BASIS_MASS || a->basis[1] == PW_BASIS_MASS ||
         a->basis[2] == PW_BASIS_MASS)
         memcpy(run->given, a->given, sizeof run->given);
@@ -150,9 +152,12 @@ pw_status cli_column_compute(const cli_column_args *a, cli_column_run *run, pw_e
     if (st == PW_OK) {
         st = pw_reflux_design(&run->fit.sys, a->P_Pa, &run->spec, &a->opt, &run->col,
                               run->energy ? &run->heat : NULL, &run->design, &run->energy_res);
+        char why[PW_REASON_MAX + 64];
         if (st != PW_OK)
             pw_error_set(err, st, a->fit_path, 0, "%s%s%s", pw_strerror(st),
-                         run->energy_res.reason[0] ? ": " : "", run->energy_res.reason);
+                         run->energy_res.reason[0] ? ": " : "",
+                         pw_units_display_text(&a->units, run->energy_res.reason, why,
+                                               sizeof why));
     }
     if (st != PW_OK) {
         pw_design_table_free(&run->design);
@@ -171,25 +176,33 @@ void cli_column_run_free(cli_column_run *run)
 void cli_column_warn(const cli_column_run *run)
 {
     const pw_fit_result *r = &run->fit;
+    const pw_display_units *u = &run->units;
     double Ts[2] = {run->T_top_K, run->T_bottom_K};
+    char b[4][48];
     for (int i = 0; i < 2; i++) {
         const pw_component *c = &r->sys.comp[i];
         for (int k = 0; k < 2; k++) {
             double ex = isfinite(Ts[k]) ? pw_component_range_excess_K(c, Ts[k]) : 0.0;
             if (ex != 0.0)
-                cli_warnf("reflux", "the column %s at %.1f K lies %.1f K %s the vapor-pressure "
+                cli_warnf("reflux", "the column %s at %s lies %s %s the vapor-pressure "
                              "range of %s",
-                             k == 0 ? "top" : "bottom", Ts[k], fabs(ex), ex < 0 ? "below" : "above",
-                             c->name);
+                             k == 0 ? "top" : "bottom",
+                             pw_units_display_value(u, PW_SHOW_T, ".1f", Ts[k], b[0], 48),
+                             pw_units_display_value(u, PW_SHOW_DT, ".1f", fabs(ex), b[1], 48),
+                             ex < 0 ? "below" : "above", c->name);
         }
     }
     if (isfinite(r->T_min_K) && isfinite(run->T_top_K) &&
         (fmin(run->T_top_K, run->T_bottom_K) < r->T_min_K - 5.0 ||
          fmax(run->T_top_K, run->T_bottom_K) > r->T_max_K + 5.0))
-        cli_warnf("reflux", "the column runs at %.1f-%.1f K, outside the fitted data's %.1f-%.1f K "
+        cli_warnf("reflux", "the column runs at %s to %s, outside the fitted data's %s to %s "
                      "by more than 5 K: the model is extrapolated",
-                     fmin(run->T_top_K, run->T_bottom_K), fmax(run->T_top_K, run->T_bottom_K),
-                     r->T_min_K, r->T_max_K);
+                     pw_units_display_value(u, PW_SHOW_T, ".1f",
+                                            fmin(run->T_top_K, run->T_bottom_K), b[0], 48),
+                     pw_units_display_value(u, PW_SHOW_T, ".1f",
+                                            fmax(run->T_top_K, run->T_bottom_K), b[1], 48),
+                     pw_units_display_value(u, PW_SHOW_T, ".1f", r->T_min_K, b[2], 48),
+                     pw_units_display_value(u, PW_SHOW_T, ".1f", r->T_max_K, b[3], 48));
     double mis = pw_latent_heat_mismatch(&r->sys);
     if (!run->energy && mis > 0.10)
         cli_warnf("reflux", "the heats of vaporization of %s and %s differ by %.0f %%: constant "
@@ -200,8 +213,9 @@ void cli_column_warn(const cli_column_run *run)
         cli_warnf("reflux", "%s: the fit did not converge; do not design with it", r->dataset_path);
     cli_warn_vapor_association("reflux", &r->sys);
     if (r->split)
-        cli_warnf("reflux", "the fitted model predicts a liquid-liquid split (x1 = %.3f at %.1f K)",
-                     r->split_x, r->split_T_K);
+        cli_warnf("reflux", "the fitted model predicts a liquid-liquid split (x1 = %.3f at %s)",
+                     r->split_x,
+                     pw_units_display_value(u, PW_SHOW_T, ".1f", r->split_T_K, b[0], 48));
     if (run->energy ? run->energy_res.feasible && run->energy_res.pinch.kind == PW_PINCH_TANGENT
                     : run->col.feasible && run->col.pinch.kind == PW_PINCH_TANGENT)
         cli_warnf("reflux", "tangent pinch: stage counts near R_min are very sensitive to the "

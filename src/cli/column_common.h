@@ -34,6 +34,7 @@ typedef struct cli_column_args {
     bool uncertainty; /* --uncertainty itself was given (the warnings then do not suggest it) */
     bool exit_verdict; /* --exit-verdict: status 7 for an infeasible split */
     const char *minimum; /* --minimum N as given, or NULL */
+    pw_display_units units; /* --show-in (text output and warnings) */
     bool help;           /* --help was asked for: nothing else is set */
 } cli_column_args;
 
@@ -50,6 +51,7 @@ typedef struct cli_column_run {
     bool with_uncertainty; /* --uncertainty given: the warnings do not suggest it */
     size_t minimum;        /* --minimum N applied (0: the fit's own choice) */
     const char *given[3];  /* xd, xb, zf as typed when any was given by mass, else NULL */
+    pw_display_units units; /* --show-in (text output and warnings) */
 } cli_column_run;
 
 /* Frees what cli_column_compute allocated (the fit and the design table). */

@@ -39,12 +39,16 @@ void cli_design_print(const pw_design_table *t)
     printf("  Design reflux of 1.2-1.5 R_min is common practice.\n");
 }
 
-void cli_profile_print(const pw_profile *p)
+void cli_profile_print(const pw_profile *p, const pw_display_units *u)
 {
-    printf("  %5s %10s %10s %9s %9s %9s\n", "stage", "x1", "y1", "T K", "L/F", "V/F");
+    char head[16];
+    snprintf(head, sizeof head, "T %s", pw_units_display_T_symbol(u));
+    printf("  %5s %10s %10s %*s %9s %9s\n", "stage", "x1", "y1", cli_width(9, head), head, "L/F",
+           "V/F");
     for (size_t i = 0; i < p->n; i++) {
         const pw_stage *s = &p->stage[i];
-        printf("  %5zu %10.6f %10.6f %9.3f %9.4f %9.4f%s\n", i + 1, s->x, s->y, s->T_K, s->L, s->V,
+        printf("  %5zu %10.6f %10.6f %9.3f %9.4f %9.4f%s\n", i + 1, s->x, s->y,
+               pw_units_display_T(u, s->T_K), s->L, s->V,
                (int)i + 1 == p->feed_stage ? "  feed"
                : i + 1 == p->n             ? "  reboiler"
                                            : "");

@@ -205,16 +205,21 @@ pw_status cli_fit_batch(const char *dir, const char *out_dir, const pw_model_typ
         printf("%zu of %zu %s fitted with %s into %s (%zu converged, %zu failed)\n", ok, n,
                model ? "datasets" : "dataset-model pairs", model ? model->name : "every model",
                out_dir, conv, n - ok);
-        printf("  %-32s %-13s %6s %9s %8s %8s %9s  %s\n", "dataset", "status", "points",
-               "chi2/dof", "AAD y", "AAD T/K", "AAD P/kPa", "fit file");
+        char hT[24], hP[24];
+        snprintf(hT, sizeof hT, "AAD T/%s", pw_units_display_dT_symbol(&co->units));
+        snprintf(hP, sizeof hP, "AAD P/%s", pw_units_display_P_symbol(&co->units));
+        printf("  %-32s %-13s %6s %9s %8s %*s %9s  %s\n", "dataset", "status", "points",
+               "chi2/dof", "AAD y", cli_width(8, hT), hT, hP, "fit file");
         for (size_t i = 0; i < n; i++) {
             char buf[PW_PATH_MAX + PW_ERROR_MSG_MAX + 8];
             const job *j = &jobs[i];
             if (j->rc == 0) {
                 char cy[16], cT[16], cP[16];
                 snprintf(cy, sizeof cy, isfinite(j->aad_y) ? "%.4f" : "-", j->aad_y);
-                snprintf(cT, sizeof cT, isfinite(j->aad_T_K) ? "%.3f" : "-", j->aad_T_K);
-                snprintf(cP, sizeof cP, isfinite(j->aad_P_Pa) ? "%.4f" : "-", j->aad_P_Pa / 1e3);
+                snprintf(cT, sizeof cT, isfinite(j->aad_T_K) ? "%.3f" : "-",
+                         pw_units_display_dT(&co->units, j->aad_T_K));
+                snprintf(cP, sizeof cP, isfinite(j->aad_P_Pa) ? "%.4g" : "-",
+                         pw_units_display_P(&co->units, j->aad_P_Pa));
                 printf("  %-32s %-13s %6zu %9.3g %8s %8s %9s  %s\n", model ? j->name : j->path,
                        j->converged ? "converged" : "NOT converged", j->n_pts, j->chi2_red, cy, cT,
                        cP, j->path);
@@ -227,7 +232,8 @@ pw_status cli_fit_batch(const char *dir, const char *out_dir, const pw_model_typ
     if (!co->quiet)
         for (size_t i = 0; i < n; i++)
             if (jobs[i].rc == 0)
-                cli_fit_print_diags(jobs[i].input, &jobs[i].diags, i % n_models == 0);
+                cli_fit_print_diags(jobs[i].input, &jobs[i].diags, i % n_models == 0,
+                                    &co->units);
     if (!co->json)
         for (size_t i = 0; i < n; i++)
             if (jobs[i].rc != 0) {

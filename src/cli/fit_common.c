@@ -26,18 +26,21 @@ static void file_stem(const char *path, char *out, size_t n)
         *dot = '\0';
 }
 
-void cli_fit_print_diags(const char *input, const pw_fit_diags *d, bool ranges)
+void cli_fit_print_diags(const char *input, const pw_fit_diags *d, bool ranges,
+                         const pw_display_units *u)
 {
+    char msg[PW_FIT_DIAG_MSG_MAX + 64];
     for (size_t i = 0; i < d->n; i++) {
         const pw_fit_diag *g = &d->items[i];
         if (!ranges && (g->kind == PW_DIAG_RANGE_BELOW || g->kind == PW_DIAG_RANGE_ABOVE))
             continue;
         /* the library's sentence names no command; the program adds where to go next */
         const char *next = g->kind == PW_DIAG_HETEROGENEOUS ? "; see pinchwise lle and decanter" : "";
+        pw_units_display_text(u, g->message, msg, sizeof msg);
         if (g->line > 0)
-            cli_warnf("fit", "%s:%ld: %s%s", input, g->line, g->message, next);
+            cli_warnf("fit", "%s:%ld: %s%s", input, g->line, msg, next);
         else
-            cli_warnf("fit", "%s: %s%s", input, g->message, next);
+            cli_warnf("fit", "%s: %s%s", input, msg, next);
     }
 }
 
@@ -96,7 +99,7 @@ pw_status cli_fit_one(const char *input, const pw_model_type *model, const char 
         pw_fit_diags *d = co->diags ? co->diags : malloc(sizeof *d);
         st = d ? pw_fit_diagnose(r, d) : PW_ENOMEM;
         if (st == PW_OK && !co->quiet)
-            cli_fit_print_diags(input, d, !co->no_range_warning);
+            cli_fit_print_diags(input, d, !co->no_range_warning, &co->units);
         if (d != co->diags)
             free(d);
         if (st != PW_OK) {
@@ -228,15 +231,20 @@ pw_status cli_fit_all_models(const char *input, const char *out_dir, const cli_f
     } else {
         printf("models ranked by AICc (dAICc = AICc - AICc of the best; lower is better; < 2: the data "
                "cannot tell them apart, >= 10: no support; Burnham & Anderson 2002)\n");
-        printf("  %-4s %-9s %9s %-17s %10s %10s %10s %10s  %s\n", "rank", "model", "dAICc", "class",
-               "AAD y", "AAD T/K", "AAD P/kPa", "x1 azeo.", "notes");
+        char hT[24], hP[24];
+        snprintf(hT, sizeof hT, "AAD T/%s", pw_units_display_dT_symbol(&co->units));
+        snprintf(hP, sizeof hP, "AAD P/%s", pw_units_display_P_symbol(&co->units));
+        printf("  %-4s %-9s %9s %-17s %10s %*s %10s %10s  %s\n", "rank", "model", "dAICc", "class",
+               "AAD y", cli_width(10, hT), hT, hP, "x1 azeo.", "notes");
         for (size_t j = 0; j < rk->n; j++) {
             const pw_rank_row *w = &rk->rows[j];
             const pw_fit_result *r = w->fit;
             char cy[16], cT[16], cP[16], cd[16];
             snprintf(cy, sizeof cy, isfinite(r->dev_y.aad) ? "%.4f" : "-", r->dev_y.aad);
-            snprintf(cT, sizeof cT, isfinite(r->dev_T_K.aad) ? "%.3f" : "-", r->dev_T_K.aad);
-            snprintf(cP, sizeof cP, isfinite(r->dev_P_Pa.aad) ? "%.4f" : "-", r->dev_P_Pa.aad / 1e3);
+            snprintf(cT, sizeof cT, isfinite(r->dev_T_K.aad) ? "%.3f" : "-",
+                     pw_units_display_dT(&co->units, r->dev_T_K.aad));
+            snprintf(cP, sizeof cP, isfinite(r->dev_P_Pa.aad) ? "%.4g" : "-",
+                     pw_units_display_P(&co->units, r->dev_P_Pa.aad));
             snprintf(cd, sizeof cd, isfinite(w->delta_aicc) ? "%.2f" : "-", w->delta_aicc);
             char ca[32] = "none";
             if (w->az_status != PW_OK)

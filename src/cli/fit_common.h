@@ -7,6 +7,7 @@
 #include <pinchwise/fit.h>
 #include <pinchwise/fit_diagnostics.h>
 #include <pinchwise/lledata.h>
+#include <pinchwise/units.h>
 #include <stdbool.h>
 #include <stddef.h>
 
@@ -20,11 +21,13 @@ typedef struct cli_fit_opts {
     const char *inputs[4]; /* files read besides the dataset (component files): never written */
     size_t n_inputs;
     pw_fit_diags *diags; /* when not NULL, receives the fit's diagnostics (batch workers) */
+    pw_display_units units; /* --show-in: the text output's and the warnings' units */
 } cli_fit_opts;
 
 /* Prints the diagnostics on stderr as warnings, each prefixed with input (and the data line);
  * ranges false leaves out the data-range ones (--model all: given once, not per model). */
-void cli_fit_print_diags(const char *input, const pw_fit_diags *d, bool ranges);
+void cli_fit_print_diags(const char *input, const pw_fit_diags *d, bool ranges,
+                         const pw_display_units *u);
 
 /* Reads input, fits model, writes the fit file (out, else out_dir/<stem>.<model>.json, else
  * fits/<stem>.<model>.json) and leaves the result in r (caller frees) and its path in path.

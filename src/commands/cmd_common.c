@@ -4,6 +4,7 @@
 #include <math.h>
 #include <pinchwise/commands.h>
 #include <pinchwise/jsontext.h>
+#include <pinchwise/units.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -11,6 +12,12 @@
 json_t *pw_json_num(double v)
 {
     return isfinite(v) ? json_real(v) : json_null();
+}
+
+json_t *pw_json_reason(const char *text)
+{
+    char buf[2048];
+    return json_string(pw_units_display_text(NULL, text, buf, sizeof buf));
 }
 
 char *pw_json_text(const json_t *doc)

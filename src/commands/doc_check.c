@@ -140,7 +140,7 @@ json_t *pw_check_doc(const pw_dataset *ds, const pw_consistency_result *r, bool 
                                              "other failures are warnings"));
     json_t *reasons = json_array();
     for (size_t i = 0; i < r->n_reasons; i++)
-        json_array_append_new(reasons, json_string(r->reasons[i]));
+        json_array_append_new(reasons, pw_json_reason(r->reasons[i]));
     json_object_set_new(o, "reasons", reasons);
 
     json_t *leg = json_object(), *coef = json_array(), *aicc = json_object();

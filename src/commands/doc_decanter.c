@@ -33,7 +33,7 @@ json_t *pw_decanter_doc(const pw_decanter_result *r, const pw_decanter_spec *spe
     const pw_three_phase *tp = &r->decanter;
     json_t *o = json_object();
     json_object_set_new(o, "feasible", json_boolean(r->feasible));
-    json_object_set_new(o, "reason", r->feasible ? json_null() : json_string(r->reason));
+    json_object_set_new(o, "reason", r->feasible ? json_null() : pw_json_reason(r->reason));
     json_object_set_new(o, "decanter",
                         tp->exists
                             ? json_pack("{s:o,s:[o,o],s:o}", "T_K", pw_json_num(tp->T_K),

@@ -56,7 +56,7 @@ json_t *pw_reflux_doc(const pw_column_result *c, double P_Pa, const pw_column_sp
 {
     json_t *o = json_object();
     json_object_set_new(o, "feasible", json_boolean(c->feasible));
-    json_object_set_new(o, "reason", c->feasible ? json_null() : json_string(c->reason));
+    json_object_set_new(o, "reason", c->feasible ? json_null() : pw_json_reason(c->reason));
     json_object_set_new(o, "r_min", c->feasible ? pw_json_num(c->r_min) : json_null());
     if (c->feasible && !c->reflux_limited) {
         json_t *p = json_object();

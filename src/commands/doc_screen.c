@@ -6,9 +6,9 @@ json_t *pw_screen_doc(const pw_system *sys, const pw_screen_result *r, const pw_
     json_t *j = json_object(), *reasons = json_array(), *az = json_array();
     json_object_set_new(j, "verdict", json_string(pw_verdict_name(r->verdict)));
     for (size_t i = 0; i < r->n_reasons; i++)
-        json_array_append_new(reasons, json_pack("{s:s,s:s}", "key",
+        json_array_append_new(reasons, json_pack("{s:s,s:o}", "key",
                                                  pw_screen_reason_key(r->reasons[i].code), "text",
-                                                 r->reasons[i].text));
+                                                 pw_json_reason(r->reasons[i].text)));
     json_object_set_new(j, "reasons", reasons);
     json_object_set_new(
         j, "thresholds",

@@ -7,6 +7,7 @@
 #include <gsl/gsl_multifit_nlinear.h>
 #include <gsl/gsl_rng.h>
 #include <math.h>
+#include <pinchwise/fit_minimum.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -654,21 +655,17 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     /* Among minima as good as the best (METHODS 3.5: S <= 1.01 S_best or delta-AICc < 2), take
      * the first that predicts no liquid split over the data's temperature range. */
     out->n_residuals = fp.n_res;
-    size_t competing = best.cls == RUN_STATIONARY ? pw_fit_competing_minima(out) : 0;
-    /* (not for partly miscible data, where the split is measured) */
-    if (out->n_three_phase || out->n_tie_lines)
-        competing = 0;
-    for (size_t i = 0; competing > 1 && i < competing; i++) {
-        pw_system s = out->sys;
-        memcpy(s.params, out->minima[i].params, sizeof s.params);
-        double D, x, T;
-        fit_stability_screen(&s, out->T_min_K, out->T_max_K, &D, &x, &T);
-        if (!(D < 0.0)) {
-            memcpy(best.params, out->minima[i].params, sizeof best.params);
-            best.chi2 = out->minima[i].chi2;
+    /* (not for partly miscible data, where the split is measured: pw_fit_default_minimum) */
+    out->minimum_default = 0;
+    out->minimum_split_skipped = 0;
+    if (best.cls == RUN_STATIONARY) {
+        size_t k = pw_fit_default_minimum(out, &out->minimum_split_skipped);
+        if (k > 1) {
+            memcpy(best.params, out->minima[k - 1].params, sizeof best.params);
+            best.chi2 = out->minima[k - 1].chi2;
             best.exact = chi2_exact(best.chi2, fp.n_res);
-            break;
         }
+        out->minimum_default = k;
     }
     memcpy(out->sys.params, best.params, sizeof best.params);
     out->stop = best.stop;

@@ -4,6 +4,7 @@
 #include "fit_internal.h"
 
 #include <math.h>
+#include <pinchwise/units.h>
 #include <pinchwise/fit_diagnostics.h>
 #include <pinchwise/fitjson.h>
 #include <stdarg.h>
@@ -93,13 +94,15 @@ static void ranges(const pw_fit_result *r, pw_fit_diags *d)
             g->comp = i;
             g->value = -lo;
             g->value_unit = "K";
-            say(g, "the data reach %.1f K below the vapor-pressure range of %s", -lo, c->name);
+            say(g, "the data reach " PW_TEXT_DT(".1f") " below the vapor-pressure range of %s",
+                -lo, c->name);
         }
         if (hi > 0.0 && (g = add(d, PW_DIAG_RANGE_ABOVE, PW_DIAG_WARNING))) {
             g->comp = i;
             g->value = hi;
             g->value_unit = "K";
-            say(g, "the data reach %.1f K above the vapor-pressure range of %s", hi, c->name);
+            say(g, "the data reach " PW_TEXT_DT(".1f") " above the vapor-pressure range of %s", hi,
+                c->name);
         }
     }
 }
@@ -282,7 +285,7 @@ static void liquids(const pw_fit_result *r, pw_fit_diags *d)
         g->value3 = r->split_T_K;
         say(g,
             "the %s parameters predict a liquid-liquid split (d2(Gmix/RT)/dx1^2 = %.3g at "
-            "x1 = %.3f, %.1f K); if the liquids are known to mix, the fit is spurious",
+            "x1 = %.3f, " PW_TEXT_T(".1f") "); if the liquids are known to mix, the fit is spurious",
             r->sys.model->name, r->split_min_D, r->split_x, r->split_T_K);
     }
 }
@@ -371,7 +374,9 @@ json_t *pw_fit_diags_json(const pw_fit_diags *d, const pw_system *sys)
                             g->count ? json_integer((json_int_t)g->count) : json_null());
         json_object_set_new(o, "value", num_or_null(g->value));
         json_object_set_new(o, "unit", json_string(g->value_unit ? g->value_unit : ""));
-        json_object_set_new(o, "message", json_string(g->message));
+        char msg[PW_FIT_DIAG_MSG_MAX + 64]; /* marked quantities in K and kPa */
+        json_object_set_new(o, "message",
+                            json_string(pw_units_display_text(NULL, g->message, msg, sizeof msg)));
         json_array_append_new(arr, o);
     }
     return arr;

@@ -78,3 +78,26 @@ pw_status pw_fit_use_minimum(pw_fit_result *r, size_t n, pw_error *err)
         return pw_error_set(err, st, r->dataset_path, 0, "minimum %zu: %s", n, pw_strerror(st));
     return PW_OK;
 }
+
+size_t pw_fit_default_minimum(const pw_fit_result *r, size_t *n_split_skipped)
+{
+    if (n_split_skipped)
+        *n_split_skipped = 0;
+    if (!r || r->n_minima == 0 || !r->sys.model)
+        return 0;
+    size_t competing = pw_fit_competing_minima(r);
+    if (r->n_three_phase || r->n_tie_lines) /* partly miscible data: the split is measured */
+        competing = 0;
+    for (size_t i = 0; competing > 1 && i < competing; i++) {
+        pw_system s = r->sys;
+        memcpy(s.params, r->minima[i].params, sizeof s.params);
+        double D, x, T;
+        fit_stability_screen(&s, r->T_min_K, r->T_max_K, &D, &x, &T);
+        if (!(D < 0.0)) {
+            if (n_split_skipped)
+                *n_split_skipped = i;
+            return i + 1;
+        }
+    }
+    return 1;
+}

@@ -386,6 +386,16 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
     r->split_min_D = stored_num(split, "min_D");
     r->split_x = stored_num(split, "x1_at_min");
     r->split_T_K = stored_num(split, "T_K_at_min");
+    const json_t *choice = json_object_get(root, "minimum_choice"); /* absent in older files */
+    if (json_is_object(choice)) {
+        const json_t *k = json_object_get(choice, "minimum"), *s = json_object_get(choice, "split_skipped");
+        if (json_is_integer(k) && json_integer_value(k) >= 1 &&
+            (size_t)json_integer_value(k) <= r->n_minima)
+            r->minimum_default = (size_t)json_integer_value(k);
+        if (json_is_integer(s) && json_integer_value(s) >= 0 &&
+            (size_t)json_integer_value(s) < r->n_minima)
+            r->minimum_split_skipped = (size_t)json_integer_value(s);
+    }
     const json_t *range = json_object_get(root, "data_range");
     r->T_min_K = json_is_object(range) ? get_num(rd, range, "T_min_K", true) : (double)NAN;
     r->T_max_K = json_is_object(range) ? get_num(rd, range, "T_max_K", true) : (double)NAN;

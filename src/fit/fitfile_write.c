@@ -231,6 +231,25 @@ static json_t *fitfile_json(const pw_fit_result *r, bool with_points)
         json_array_append_new(mins, mi);
     }
     json_object_set_new(o, "minima", mins);
+    /* which of them the fit chose, and why (pw_fit_default_minimum; docs/fitting.md) */
+    if (r->minimum_default > 0) {
+        char why[320];
+        if (r->minimum_split_skipped)
+            snprintf(why, sizeof why,
+                     "minima 1 to %zu predict a liquid-liquid split over the data's temperatures; "
+                     "minimum %zu fits as well (chi-square within a factor max(1.01, exp(2/n)) of "
+                     "the lowest, n = %zu residuals) and predicts none",
+                     r->minimum_split_skipped, r->minimum_default, r->n_residuals);
+        else
+            snprintf(why, sizeof why, "the lowest chi-square%s",
+                     r->n_minima > 1 && r->minimum_default == 1 && r->split
+                         ? " (no minimum as good predicts no liquid-liquid split)"
+                         : "");
+        json_object_set_new(o, "minimum_choice",
+                            json_pack("{s:I,s:I,s:s}", "minimum", (json_int_t)r->minimum_default,
+                                      "split_skipped", (json_int_t)r->minimum_split_skipped,
+                                      "because", why));
+    }
 
     json_t *split = json_object();
     json_object_set_new(split, "predicted", json_boolean(r->split));

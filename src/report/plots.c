@@ -127,12 +127,12 @@ pw_status pw_plot_xy(pw_sbuf *b, const pw_plot_xy_in *in)
         return st;
     bool col = in->column && in->feasible, dec = in->column && in->decanter;
     /* the legend goes below the square: inside it would cover the construction */
-    size_t n_leg = 1 + (col ? 4 : 0) + (dec ? 4 : 0) + (in->three_phase.n && !dec ? 1 : 0) +
+    size_t n_leg = 1 + (col ? 4 : 0) + (dec ? (in->dec_only ? 3 : 4) : 0) + (in->three_phase.n && !dec ? 1 : 0) +
                    (in->measured.n && !in->zoom ? 1 : 0) + (in->azeotropes.n && !in->zoom ? 1 : 0);
     pw_frame_reserve_legend(&f, n_leg);
     char title[PW_SVG_LABEL_MAX], xl[PW_SVG_LABEL_MAX], yl[PW_SVG_LABEL_MAX], lab[PW_SVG_LABEL_MAX];
     if (in->zoom)
-        snprintf(title, sizeof title, "Near the pinch, enlarged");
+        snprintf(title, sizeof title, "%s", in->title ? in->title : "Near the pinch, enlarged");
     else
         snprintf(title, sizeof title, "Vapor against liquid, %s%s", in->column ? "column at " : "",
                  in->condition ? in->condition : "");
@@ -196,13 +196,18 @@ pw_status pw_plot_xy(pw_sbuf *b, const pw_plot_xy_in *in)
             pw_style dsteps[2] = {st_line(C_TEAL, 1.6, NULL), st_line(C_BRICK, 1.6, NULL)};
             pw_style dop[2] = {st_line(C_AMBER, 2.0, NULL), st_line(C_AMBER, 2.0, "7 3")};
             for (int k = 0; k < 2; k++) {
+                if (in->dec_only && k != in->dec_only - 1)
+                    continue;
                 draw_set(b, &f, &in->dec_op[k], &dop[k], true, "pw-curve pw-decanter-opline");
                 draw_set(b, &f, &in->dec_steps[k], &dsteps[k], true, "pw-curve pw-decanter-steps");
                 snprintf(lab, sizeof lab, "column %s: stage steps (%.1f stages) at V/B = %.3g",
                          nm[k], in->dec_stages[k], in->dec_boilup[k]);
                 pw_legend_add(&lg, lab, &dsteps[k], true);
             }
-            pw_legend_add(&lg, "stripping operating lines (A solid, B dashed)", &dop[0], true);
+            if (in->dec_only)
+                pw_legend_add(&lg, "stripping operating line", &dop[in->dec_only - 1], true);
+            else
+                pw_legend_add(&lg, "stripping operating lines (A solid, B dashed)", &dop[0], true);
             pw_style band = {C_SKY, 8.0, NULL, PW_MARK_NONE, false, 0.0, 0.5};
             snprintf(lab, sizeof lab, "two liquids: decanter layers x = %.3f and %.3f",
                      in->layers[0], in->layers[1]);

@@ -25,6 +25,7 @@ typedef struct pw_plot_xy_in {
     bool zoom;                    /* an enlarged view: only the window below is shown, no
                                      targets' labels, measured points outside it are left out */
     double win_x[2], win_y[2];    /* the window (zoom only) */
+    const char *title;            /* zoom only: the title (NULL: "Near the pinch, enlarged") */
     pw_xyset curve;               /* model y*(x) */
     pw_xyset three_phase;         /* the three-phase vapor over the two-liquid region (flat);
                                      n = 0 for none */
@@ -46,6 +47,7 @@ typedef struct pw_plot_xy_in {
     double y3;                    /* the three-phase vapor */
     pw_xyset dec_op[2], dec_steps[2]; /* each stripping column's operating line and staircase */
     double dec_boilup[2], dec_stages[2];
+    int dec_only;                 /* 0: both columns; 1: column A only; 2: column B only */
 } pw_plot_xy_in;
 
 /* The x-y (McCabe-Thiele) diagram: diagonal, curve, data, and with column: q-line, operating

@@ -66,6 +66,14 @@ static void esc(pw_sbuf *b, const char *s)
     pw_sbuf_escape(b, s);
 }
 
+/* A library reason or warning: its marked temperatures and pressures in the page's units
+ * (pw_units_display_text), then escaped. */
+static void esc_text(pw_sbuf *b, const pw_report_curves *c, const char *s)
+{
+    char buf[1024];
+    pw_sbuf_escape(b, pw_units_display_text(&c->units, s, buf, sizeof buf));
+}
+
 /* A number cell: %.*g, or an en dash for a missing value. */
 static void num(pw_sbuf *b, double v, int digits)
 {
@@ -303,7 +311,7 @@ static void diagnostics_section(pw_sbuf *b, const pw_report_curves *c)
             pw_sbuf_printf(b, "<td class=\"num\">%ld</td><td>", g->line);
         else
             pw_sbuf_puts(b, "<td></td><td>");
-        esc(b, g->message);
+        esc_text(b, c, g->message);
         pw_sbuf_puts(b, "</td></tr>\n");
     }
     if (c->diags.n)
@@ -358,7 +366,7 @@ static void consistency_section(pw_sbuf *b, const pw_report_curves *c)
         pw_sbuf_puts(b, "<ul>\n");
         for (size_t i = 0; i < k->n_reasons; i++) {
             pw_sbuf_puts(b, "<li>");
-            esc(b, k->reasons[i]);
+            esc_text(b, c, k->reasons[i]);
             pw_sbuf_puts(b, "</li>\n");
         }
         pw_sbuf_puts(b, "</ul>\n");
@@ -512,13 +520,13 @@ static void energy_section(pw_sbuf *b, const pw_report_curves *c)
     pw_sbuf_puts(b, "<h3>With energy balances</h3>\n");
     if (c->energy_status != PW_OK) {
         pw_sbuf_puts(b, "<p class=\"verdict-fail\">Not computed: ");
-        esc(b, c->energy_error[0] ? c->energy_error : pw_strerror(c->energy_status));
+        esc_text(b, c, c->energy_error[0] ? c->energy_error : pw_strerror(c->energy_status));
         pw_sbuf_puts(b, "</p>\n");
         return;
     }
     if (!e->feasible) {
         pw_sbuf_puts(b, "<p class=\"verdict-fail\">");
-        esc(b, e->reason);
+        esc_text(b, c, e->reason);
         pw_sbuf_puts(b, "</p>\n");
         return;
     }
@@ -581,7 +589,7 @@ static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
                    fmax(c->spec.xd, c->spec.xb), fmin(c->spec.xd, c->spec.xb));
     if (d->status != PW_OK || !r->feasible) {
         pw_sbuf_puts(b, "<p class=\"verdict-fail\">Not sized: ");
-        esc(b, d->status != PW_OK ? pw_strerror(d->status) : r->reason);
+        esc_text(b, c, d->status != PW_OK ? pw_strerror(d->status) : r->reason);
         pw_sbuf_puts(b, "</p>\n");
         return;
     }
@@ -638,7 +646,7 @@ static void column_section(pw_sbuf *b, const pw_report_curves *c)
         esc(b, pw_strerror(c->dc.status));
         if (k->reason[0]) {
             pw_sbuf_puts(b, ": ");
-            esc(b, k->reason);
+            esc_text(b, c, k->reason);
         }
         pw_sbuf_puts(b, "</p></section>\n");
         return;
@@ -646,7 +654,7 @@ static void column_section(pw_sbuf *b, const pw_report_curves *c)
     if (!k->feasible) {
         pw_sbuf_puts(b, "<p><strong class=\"verdict-fail\">This split cannot be made by ordinary "
                         "distillation at this pressure:</strong> ");
-        esc(b, k->reason);
+        esc_text(b, c, k->reason);
         pw_sbuf_puts(b, "</p>\n");
         if (c->dc.hetero_blocked)
             decanter_section(b, c);
@@ -820,7 +828,8 @@ static void how_sure_section(pw_sbuf *b, const pw_report_curves *c)
 static void figure(pw_sbuf *b, const pw_report_file *f, const char *caption)
 {
     /* the enlarged view is a small plot: shown at its own size, not the column's width */
-    pw_sbuf_puts(b, !strcmp(f->name, "xy_pinch.svg") ? "<figure class=\"pw-small\">\n" : "<figure>\n");
+    bool small = !strcmp(f->name, "xy_pinch.svg") || !strncmp(f->name, "xy_decanter_", 12);
+    pw_sbuf_puts(b, small ? "<figure class=\"pw-small\">\n" : "<figure>\n");
     pw_sbuf_puts(b, pw_sbuf_str(&f->text));
     pw_sbuf_puts(b, "<figcaption>");
     esc(b, caption);
@@ -837,6 +846,12 @@ static const char *caption_for(const char *name, const pw_report_curves *c)
     if (!strcmp(name, "xy_pinch.svg"))
         return "The same construction enlarged around the limiting pinch, where the stage steps "
                "crowd: every step drawn is one the column module counted.";
+    if (!strncmp(name, "xy_decanter_", 12))
+        return name[12] == 'a'
+                   ? "Column A of the decanter scheme enlarged: from the layer rich in component 1 "
+                     "down to its bottoms, its operating line and every stage step counted."
+                   : "Column B of the decanter scheme enlarged: from the layer lean in component 1 "
+                     "down to its bottoms, where the steps crowd near the pure end.";
     if (!strcmp(name, "models.svg"))
         return "Every model fitted to these data, each in its own colour and dash, over the "
                "measured points: where the curves part, the choice of model matters.";
@@ -1040,7 +1055,7 @@ static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
         } else if (!k->feasible) {
             pw_sbuf_puts(b, "<span class=\"verdict-fail\">not feasible by ordinary distillation at "
                             "this pressure</span>: ");
-            esc(b, k->reason);
+            esc_text(b, c, k->reason);
         } else {
             pw_sbuf_printf(b, "<span class=\"verdict-pass\">feasible</span>: x<sub>D</sub> %.4g, "
                               "x<sub>B</sub> %.4g from z<sub>F</sub> %.4g (q = %.3g)",

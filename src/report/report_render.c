@@ -279,6 +279,25 @@ pw_status pw_report_render_plots(struct pw_report *rep, const pw_report_curves *
         st = f ? pw_plot_xy(&f->text, &z) : PW_ENOMEM;
     }
 
+    /* 1c. each decanter column's staircase, enlarged (the library's windows) */
+    for (int k = 0; st == PW_OK && xy.decanter && k < 2; k++) {
+        const pw_draw_decanter *dk = &c->dc.decanter;
+        if (!(isfinite(dk->zoom_x[k][0]) && dk->zoom_x[k][1] > dk->zoom_x[k][0] &&
+              dk->zoom_y[k][1] > dk->zoom_y[k][0]))
+            continue;
+        pw_plot_xy_in z = xy;
+        z.id = k == 0 ? "plot-xy-decanter-a" : "plot-xy-decanter-b";
+        z.zoom = true;
+        z.dec_only = k + 1;
+        z.title = k == 0 ? "Column A (rich layer), enlarged" : "Column B (lean layer), enlarged";
+        memcpy(z.win_x, dk->zoom_x[k], sizeof z.win_x);
+        memcpy(z.win_y, dk->zoom_y[k], sizeof z.win_y);
+        f = new_file(rep->svg, &rep->n_svg, k == 0 ? "xy_decanter_a.svg" : "xy_decanter_b.svg",
+                     k == 0 ? "Decanter column A's staircase, enlarged"
+                            : "Decanter column B's staircase, enlarged");
+        st = f ? pw_plot_xy(&f->text, &z) : PW_ENOMEM;
+    }
+
     /* 2. T-x-y or P-x-y, in the display units */
     double bub_v[PW_REPORT_GRID], dew_v[PW_REPORT_GRID];
     double bin_v[PW_DRAW_BINODAL], lay_x[2], lay_v[2];

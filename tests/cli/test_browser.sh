@@ -67,9 +67,15 @@ assert txy.count("pw-binodal") == 2 and "pw-layers" in txy, "binodal and layers 
 assert "T / \u00b0C" in txy, "temperature axis in degrees Celsius"
 assert 'id="decanter"' in page and "Decanter scheme" in page
 assert "column at 1.013 bar" in page
+# each decanter column enlarged: only its own staircase, inside the window the library chose
+for k in "ab":
+    z = plot("plot-xy-decanter-" + k)
+    assert z.count("pw-decanter-steps") == 1, "one staircase in the enlarged view of column " + k
+assert "Column B (lean layer), enlarged" in page
 PY
 python3 "$SRC/tests/cli/browser_check.py" "$CHROMIUM" "$TMP/report_bw.html" \
-    "$ART/report_heterogeneous.png" plot-xy plot-txy plot-residual-y plot-residual-t plot-lngamma \
+    "$ART/report_heterogeneous.png" plot-xy plot-xy-decanter-a plot-xy-decanter-b plot-txy \
+    plot-residual-y plot-residual-t plot-lngamma \
     || exit 1
 
 # With --uncertainty: the band of sampled equilibrium curves near the pinch as one more plot.

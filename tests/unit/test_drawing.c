@@ -357,7 +357,23 @@ static void split_liquids_and_decanter(void **state)
         pw_assert_close(st->stages, n, 1e-12, 0.0, "stripper stages equal the module's");
         pw_assert_close(k->op_y[j][0], k->op_x[j][0] + (k->op_x[j][0] - xB) / S, 0.0, 1e-15,
                         "operating line top");
+        /* the enlarged view's window holds every corner and both ends of the operating line,
+         * inside [0, 1], with room around them */
+        const double *wx = k->zoom_x[j], *wy = k->zoom_y[j];
+        assert_true(wx[0] >= 0.0 && wx[1] <= 1.0 && wx[0] < wx[1]);
+        assert_true(wy[0] >= 0.0 && wy[1] <= 1.0 && wy[0] < wy[1]);
+        for (size_t i = 0; i < st->n; i++) {
+            assert_true(st->x[i] >= wx[0] && st->x[i] <= wx[1]);
+            assert_true(st->y[i] >= wy[0] && st->y[i] <= wy[1]);
+        }
+        for (int e = 0; e < 2; e++) {
+            assert_true(k->op_x[j][e] >= wx[0] && k->op_x[j][e] <= wx[1]);
+            assert_true(k->op_y[j][e] >= wy[0] && k->op_y[j][e] <= wy[1]);
+        }
     }
+    /* column B runs from the lean layer (x1 about 0.02) to 0.001: its window is a few hundredths
+     * wide, an enlargement of at least 20 times in x over the full square */
+    assert_true(k->zoom_x[1][1] - k->zoom_x[1][0] < 0.05);
 }
 
 /* A search already made (pw_azeotrope_find at the same condition) gives the same drawing, bit for
