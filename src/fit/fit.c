@@ -74,7 +74,9 @@ static int lm_f(const gsl_vector *u, void *data, gsl_vector *f)
     double params[PW_MAX_PARAMS];
     fit_unpack(fp, u->data, params);
     c->n_fev++;
-    pw_status st = fit_eval(fp, params, f->data, c->J_cache);
+    /* With kept roots the Jacobian waits for lm_df (rejected trial steps never need it);
+     * three-phase points and tie lines compute it with the residuals. */
+    pw_status st = fit_eval(fp, params, f->data, fp->roots ? NULL : c->J_cache);
     if (st != PW_OK) {
         for (size_t i = 0; i < fp->n_res; i++)
             gsl_vector_set(f, i, PENALTY_RESIDUAL);
@@ -92,7 +94,12 @@ static int lm_df(const gsl_vector *u, void *data, gsl_matrix *J)
     const fit_problem *fp = c->fp;
     c->n_jev++;
     bool same = c->cache_ok && memcmp(c->u_cache, u->data, sizeof(double) * fp->n_fit) == 0;
-    if (!same) {
+    if (same && fp->roots) { /* at the roots lm_f just found */
+        double params[PW_MAX_PARAMS];
+        fit_unpack(fp, u->data, params);
+        if (fit_jacobian_at_roots(fp, params, c->J_cache) != PW_OK)
+            return GSL_EDOM;
+    } else if (!same) {
         double params[PW_MAX_PARAMS];
         fit_unpack(fp, u->data, params);
         double *f = malloc(sizeof(double) * fp->n_res);
@@ -264,6 +271,8 @@ static void run_lm(gsl_multifit_nlinear_workspace *w, gsl_multifit_nlinear_fdf *
     out->iterations = 0;
     out->basin = -1;
     memcpy(out->params, start, sizeof out->params);
+    fit_roots_reset(fp);
+    c->cache_ok = false;
     if (gsl_multifit_nlinear_init(&x0.vector, fdf, w) != GSL_SUCCESS)
         return;
     int info = 0;
@@ -276,6 +285,7 @@ static void run_lm(gsl_multifit_nlinear_workspace *w, gsl_multifit_nlinear_fdf *
     double *work = malloc(sizeof(double) * fp->n_res);
     if (fp->T3_warm_K) /* the run's chi2 from the canonical three-phase start */
         *fp->T3_warm_K = NAN;
+    fit_roots_reset(fp); /* and from the measured temperatures */
     out->chi2 = work ? fit_chi2(fp, out->params, work) : (double)INFINITY;
     free(work);
     if (!isfinite(out->chi2)) {
@@ -323,6 +333,7 @@ pw_status fit_build_problem(const pw_fit_result *r, fit_problem *fp, pw_point **
 {
     memset(fp, 0, sizeof *fp);
     fp->sys = r->sys;
+    pw_thermo_kernel_init(&fp->sys, &fp->kern);
     fp->objective = r->objective;
     fp->sigma_T_K = r->sigma_T_K;
     fp->sigma_P_rel = r->sigma_P_rel;
@@ -563,6 +574,13 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
         fp.n_res += 2 * o.n_tie_lines;
     }
     double *J = st == PW_OK ? malloc(sizeof(double) * fp.n_res * fp.n_fit) : NULL;
+    fit_root *roots = NULL;
+    if (st == PW_OK && !fp.three_phase && !fp.n_ties) {
+        roots = calloc(fp.n_pts ? fp.n_pts : 1, sizeof *roots);
+        if (!roots)
+            st = PW_ENOMEM;
+    }
+    fp.roots = roots;
     gsl_rng *rng = gsl_rng_alloc(gsl_rng_mt19937);
     gsl_multifit_nlinear_parameters params = gsl_multifit_nlinear_default_parameters();
     params.trs = gsl_multifit_nlinear_trs_lm;
@@ -585,6 +603,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     if (st != PW_OK) {
         free(used);
         free(J);
+        free(roots);
         free(cand);
         free(work);
         gsl_rng_free(rng);
@@ -615,6 +634,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
         if (model->check(cand[n_cand].p) != PW_OK)
             continue;
         T3_warm = NAN;
+        fit_roots_reset(&fp);
         cand[n_cand].chi2 = fit_chi2(&fp, cand[n_cand].p, work);
         ctx.n_fev++;
         if (isfinite(cand[n_cand].chi2))
@@ -694,6 +714,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     }
     double *f = malloc(sizeof(double) * fp.n_res);
     fp.T3_warm_K = NULL;
+    fit_roots_reset(&fp);
     pw_status cst = f ? fit_eval(&fp, out->sys.params, f, J) : PW_ENOMEM;
     free(f);
     if (cst == PW_OK && out->dof > 0) {
@@ -714,6 +735,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     fit_het_finish(&fp, out);
     free(used);
     free(J);
+    free(roots);
     gsl_rng_free(rng);
     gsl_multifit_nlinear_free(w);
     st = pw_fit_evaluate(out);

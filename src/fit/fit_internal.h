@@ -4,6 +4,15 @@
 
 #include <pinchwise/fit.h>
 
+#include "thermo/thermo_internal.h"
+
+/* The last bubble point of one used point (the lean kernel, objective.c): the next
+ * evaluation's Newton start and, at the same parameters, the root the Jacobian is taken at. */
+typedef struct fit_root {
+    pw_bubble_lean b;
+    bool ok;
+} fit_root;
+
 /* The regression problem: which points and parameters, the weights, the fixed values. */
 typedef struct fit_problem {
     pw_system sys;              /* parameters here are the current full vector */
@@ -27,7 +36,21 @@ typedef struct fit_problem {
     const pw_tie_line *ties;
     size_t n_ties;
     double sigma_x_lle;
+    /* The vapor-pressure constants of the lean bubble-point kernel (fit_build_problem). */
+    pw_thermo_kernel kern;
+    /* One entry per used point (NULL: none kept): the roots of the latest evaluation, written by
+     * every fit_eval. Reset (fit_roots_reset) before every LM run, every screened start and the
+     * final evaluation, so that each of them starts Newton from the measured values. */
+    fit_root *roots;
 } fit_problem;
+
+/* Forgets the kept roots (the next evaluation starts from the measured values). */
+void fit_roots_reset(const fit_problem *fp);
+
+/* The Jacobian (row-major n_res x n_fit, internal unknowns) at params from the roots the latest
+ * fit_eval at the same params kept: one full model evaluation per point for d ln gamma/dp, no
+ * bubble-point solve. Only for problems without three-phase points and tie lines, with roots. */
+pw_status fit_jacobian_at_roots(const fit_problem *fp, const double *params, double *J);
 
 /* A pure-component row (x1 = 0 or 1): no information on the activity parameters. */
 static inline bool fit_is_pure(const pw_point *p) { return p->x1 <= 0.0 || p->x1 >= 1.0; }

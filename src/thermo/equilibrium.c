@@ -115,6 +115,74 @@ static pw_status eval_point(const pw_system *s, double x1, double T, double P, t
     return PW_OK;
 }
 
+/* The lean evaluation (pw_thermo_kernel): the model's eval_lean (or eval when it has none), the
+ * vapor pressures from the kernel's Antoine constants in natural-log form (pw_psat otherwise),
+ * and one exponential for each x_i gamma_i P_i^sat. Fills lngamma and dlngamma_dT of tp->act,
+ * dlnPs, k, sum, f and df; not Ps (tp->Ps is NAN where the kernel's form was used). The
+ * virial vapor, and a null kernel, take eval_point. */
+static pw_status eval_point_lean(const pw_system *s, const pw_thermo_kernel *kern, double x1,
+                                 double T, double P, tpoint *tp)
+{
+    if (!kern || s->vapor == PW_VAPOR_VIRIAL)
+        return eval_point(s, x1, T, P, tp);
+    pw_status st;
+    if (s->model->eval_lean) {
+        if (!(T > 0.0) || !isfinite(T))
+            return PW_EDOM;
+        st = s->model->eval_lean(s->params, s->T_ref_K, x1, T, tp->act.lngamma,
+                                 tp->act.dlngamma_dT);
+    } else {
+        st = pw_system_activity(s, x1, T, &tp->act);
+    }
+    if (st != PW_OK)
+        return st;
+    double x[2] = {x1, 1.0 - x1};
+    double dsum = 0.0;
+    tp->sum = 0.0;
+    for (int i = 0; i < 2; i++) {
+        if (kern->antoine[i]) {
+            double den = T * kern->Tinv[i] + kern->c[i];
+            if (!(den > 0.0))
+                return PW_EDOM; /* at or beyond the Antoine pole */
+            tp->Ps[i] = NAN;
+            tp->dlnPs[i] = kern->b[i] / (den * den) * kern->Tinv[i];
+            tp->k[i] = x[i] * exp(tp->act.lngamma[i] + kern->a[i] - kern->b[i] / den);
+        } else {
+            st = pw_psat(&s->comp[i], T, &tp->Ps[i], &tp->dlnPs[i]);
+            if (st != PW_OK)
+                return st;
+            tp->k[i] = x[i] * exp(tp->act.lngamma[i]) * tp->Ps[i];
+        }
+        tp->sum += tp->k[i];
+        tp->Phi[i] = 1.0;
+    }
+    for (int i = 0; i < 2; i++)
+        dsum += tp->k[i] * (tp->act.dlngamma_dT[i] + tp->dlnPs[i]);
+    if (!(tp->sum > 0.0) || !isfinite(tp->sum) || !isfinite(dsum))
+        return PW_EDOM;
+    tp->f = isfinite(P) ? log(tp->sum / P) : 0.0;
+    tp->df = dsum / tp->sum;
+    return PW_OK;
+}
+
+void pw_thermo_kernel_init(const pw_system *s, pw_thermo_kernel *k)
+{
+    for (int i = 0; i < 2; i++) {
+        const pw_component *c = &s->comp[i];
+        /* Antoine, units resolved (pw_component_prepare), no pressure offset: ln P_i^sat in Pa
+         * is a - b/(T Tinv + c) with a = base A + ln P_scale, b = base B, c = C - T_offset. */
+        k->antoine[i] = c->equation != PW_PSAT_IAPWS_IF97 && c->T_scale > 0.0 &&
+                        c->P_scale > 0.0 && c->P_offset == 0.0;
+        double base = c->log == PW_LN ? 1.0 : 2.302585092994045684;
+        k->a[i] = k->antoine[i] ? base * c->A + log(c->P_scale) : 0.0;
+        k->b[i] = base * c->B;
+        k->c[i] = c->C - c->T_offset;
+        k->Tinv[i] = k->antoine[i] ? 1.0 / c->T_scale : 0.0;
+        k->antoine[i] = k->antoine[i] && isfinite(k->a[i]) && isfinite(k->b[i]) &&
+                        isfinite(k->c[i]) && isfinite(k->Tinv[i]);
+    }
+}
+
 static void fill_point(const tpoint *tp, double x1, double T, double P, int iters,
                        pw_eq_point *out)
 {
@@ -255,7 +323,8 @@ static pw_status pure_bracket(const pw_system *s, double P, double Ts[2], double
 /* Bubble T at P for liquid x1, starting from T_guess (NAN: from the pure Tsat). Fills tp at
  * the returned T. */
 static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T_guess,
-                               bool newton, double *T_out, tpoint *tp, int *iters)
+                               bool newton, double *T_out, tpoint *tp, int *iters,
+                               const pw_thermo_kernel *kern)
 {
     double lim_lo, lim_hi;
     eval_limits(s, &lim_lo, &lim_hi);
@@ -278,7 +347,8 @@ static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T
     *iters = 0;
     for (int it = 0; newton && it < NEWTON_MAXIT; it++) {
         (*iters)++;
-        if (eval_point(s, x1, T, P, tp) != PW_OK)
+        if ((kern ? eval_point_lean(s, kern, x1, T, P, tp) : eval_point(s, x1, T, P, tp)) !=
+            PW_OK)
             break;
         if (tp->f == 0.0) {
             *T_out = T;
@@ -339,7 +409,7 @@ static pw_status bubble_T(const pw_system *s, double P_Pa, double x1, bool newto
     tpoint tp;
     double T;
     int iters;
-    pw_status st = bubble_T_core(s, P_Pa, x1, T_guess, newton, &T, &tp, &iters);
+    pw_status st = bubble_T_core(s, P_Pa, x1, T_guess, newton, &T, &tp, &iters, NULL);
     if (st != PW_OK)
         return st;
     fill_point(&tp, x1, T, P_Pa, iters, out);
@@ -361,6 +431,48 @@ pw_status pw_bubble_T_from(const pw_system *s, double P_Pa, double x1, double T_
 pw_status pw_thermo_bubble_T_brent(const pw_system *s, double P_Pa, double x1, pw_eq_point *out)
 {
     return bubble_T(s, P_Pa, x1, false, NAN, out);
+}
+
+pw_status pw_thermo_bubble_T_lean(const pw_system *s, const pw_thermo_kernel *k, double P_Pa,
+                                  double x1, double T_guess_K, pw_bubble_lean *out)
+{
+    if (!state_ok(s) || !out)
+        return PW_EINVAL;
+    if (!isfinite(P_Pa) || P_Pa <= 0.0 || !frac_ok(x1))
+        return PW_EDOM;
+    tpoint tp;
+    int iters;
+    double T, guess = isfinite(T_guess_K) && T_guess_K > 0.0 ? T_guess_K : (double)NAN;
+    pw_status st = bubble_T_core(s, P_Pa, x1, guess, true, &T, &tp, &iters, k);
+    if (st != PW_OK)
+        return st;
+    out->T_K = T;
+    out->P_Pa = P_Pa;
+    out->y1 = tp.k[0] / tp.sum;
+    for (int i = 0; i < 2; i++)
+        out->dlnk_dT[i] = tp.act.dlngamma_dT[i] + tp.dlnPs[i];
+    out->iterations = iters;
+    return PW_OK;
+}
+
+pw_status pw_thermo_bubble_P_lean(const pw_system *s, const pw_thermo_kernel *k, double T_K,
+                                  double x1, pw_bubble_lean *out)
+{
+    if (!state_ok(s) || !out)
+        return PW_EINVAL;
+    if (!isfinite(T_K) || T_K <= 0.0 || !frac_ok(x1))
+        return PW_EDOM;
+    tpoint tp;
+    pw_status st = eval_point_lean(s, k, x1, T_K, NAN, &tp);
+    if (st != PW_OK)
+        return st;
+    out->T_K = T_K;
+    out->P_Pa = tp.sum;
+    out->y1 = tp.k[0] / tp.sum;
+    for (int i = 0; i < 2; i++)
+        out->dlnk_dT[i] = tp.act.dlngamma_dT[i] + tp.dlnPs[i];
+    out->iterations = 0;
+    return PW_OK;
 }
 
 pw_status pw_bubble_P(const pw_system *s, double T_K, double x1, pw_eq_point *out)
@@ -394,7 +506,7 @@ static pw_status dew_eval(dew_ctx *c, double x1, double *y1, double *dy1)
     double x2 = 1.0 - x1;
     if (c->isobaric) {
         int its = 0;
-        st = bubble_T_core(c->s, c->P, x1, c->T, true, &c->T, tp, &its);
+        st = bubble_T_core(c->s, c->P, x1, c->T, true, &c->T, tp, &its, NULL);
         c->iters += its;
     } else {
         st = eval_point(c->s, x1, c->T, NAN, tp);
