@@ -629,17 +629,35 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
             cand[n_fixed++].chi2 = -1.0;
     }
     size_t n_cand = n_fixed;
+    /* Only the best n_keep draws run; a draw whose partial sum of squares already exceeds the
+     * n_keep-th best full chi2 so far cannot be among them, and its sum stops there (the kept
+     * draws, their order and their chi2 are those of the full screen). best_keep holds the
+     * n_keep smallest full chi2 so far, ascending. */
+    size_t n_keep = n_runs > n_fixed ? n_runs - n_fixed : 0, n_best = 0;
+    double *best_keep = malloc(sizeof(double) * (n_keep ? n_keep : 1));
     for (size_t s = 1; s <= n_draw; s++) {
         make_start(out, &fp, rng, s, cand[n_cand].p);
         if (model->check(cand[n_cand].p) != PW_OK)
             continue;
         T3_warm = NAN;
         fit_roots_reset(&fp);
-        cand[n_cand].chi2 = fit_chi2(&fp, cand[n_cand].p, work);
+        double cap = best_keep && n_keep && n_best == n_keep ? best_keep[n_keep - 1] : (double)INFINITY;
+        double chi2 = fit_chi2_capped(&fp, cand[n_cand].p, work, cap);
+        cand[n_cand].chi2 = chi2;
         ctx.n_fev++;
-        if (isfinite(cand[n_cand].chi2))
-            n_cand++;
+        if (!isfinite(chi2))
+            continue;
+        n_cand++;
+        if (!best_keep || !n_keep || chi2 > cap)
+            continue;
+        size_t at = n_best < n_keep ? n_best++ : n_keep - 1; /* insert, dropping the largest */
+        while (at > 0 && best_keep[at - 1] > chi2) {
+            best_keep[at] = best_keep[at - 1];
+            at--;
+        }
+        best_keep[at] = chi2;
     }
+    free(best_keep);
     free(work);
     qsort(cand, n_cand, sizeof *cand, cmp_cand);
     if (n_cand > n_runs)

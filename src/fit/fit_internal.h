@@ -120,6 +120,11 @@ pw_status fit_build_problem(const pw_fit_result *r, fit_problem *fp, pw_point **
 /* Sum of squares of the weighted residuals at params; INFINITY when a point fails. */
 double fit_chi2(const fit_problem *fp, const double *params, double *work);
 
+/* fit_chi2, except that the sum stops as soon as it exceeds cap (the partial sum is returned:
+ * a value above cap, below the full chi2); INFINITY when a point evaluated fails. Problems with
+ * three-phase points or tie lines, and cap INFINITY, take fit_chi2. */
+double fit_chi2_capped(const fit_problem *fp, const double *params, double *work, double cap);
+
 /* What the Jacobian at the optimum says about the parameters (covariance.c). */
 typedef struct fit_info {
     double cov[PW_MAX_PARAMS][PW_MAX_PARAMS]; /* s2 (J^T J)^+ over the identified directions,

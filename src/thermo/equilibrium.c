@@ -639,6 +639,15 @@ typedef struct {
 static double stab_D(double x1, void *vp)
 {
     stab_ctx *c = vp;
+    if (c->s->model->d2gE_dx2) { /* the model's own scan function: no other derivatives */
+        double d2;
+        pw_status st = c->s->model->d2gE_dx2(c->s->params, c->s->T_ref_K, c->T, 1, &x1, &d2);
+        if (st != PW_OK) {
+            c->status = st;
+            return (double)NAN;
+        }
+        return 1.0 / (x1 * (1.0 - x1)) + d2;
+    }
     pw_activity a;
     pw_status st = pw_system_activity(c->s, x1, c->T, &a);
     if (st != PW_OK) {
@@ -668,7 +677,27 @@ pw_status pw_stability_min(const pw_system *s, double T_K, double *min_D, double
     const double h = 1.0 / (STAB_GRID + 1);
     int kmin = 1;
     double Dmin = INFINITY;
-    for (int k = 1; k <= STAB_GRID; k++) {
+    if (s->model->d2gE_dx2) {
+        /* The whole grid in one call (NRTL: the temperature's exponentials once); the same
+         * values as the point-by-point scan below. */
+        pw_status st = s->model->check(s->params);
+        if (st != PW_OK)
+            return st;
+        double xg[STAB_GRID], d2[STAB_GRID];
+        for (int k = 1; k <= STAB_GRID; k++)
+            xg[k - 1] = k * h;
+        st = s->model->d2gE_dx2(s->params, s->T_ref_K, T_K, STAB_GRID, xg, d2);
+        if (st != PW_OK)
+            return st;
+        for (int k = 1; k <= STAB_GRID; k++) {
+            double x1 = xg[k - 1], D = 1.0 / (x1 * (1.0 - x1)) + d2[k - 1];
+            if (D < Dmin) {
+                Dmin = D;
+                kmin = k;
+            }
+        }
+    }
+    for (int k = 1; !s->model->d2gE_dx2 && k <= STAB_GRID; k++) {
         double D = stab_D(k * h, &c);
         if (c.status != PW_OK)
             return c.status;
