@@ -6,8 +6,8 @@
 
 #include "thermo/thermo_internal.h"
 
-/* The last bubble point of one used point (the lean kernel, objective.c): the next
- * evaluation's Newton start and, at the same parameters, the root the Jacobian is taken at. */
+/* The last bubble point of one used point (the lean kernel, objective.c): at the same
+ * parameters, the root the Jacobian is taken at. */
 typedef struct fit_root {
     pw_bubble_lean b;
     bool ok;
@@ -39,8 +39,9 @@ typedef struct fit_problem {
     /* The vapor-pressure constants of the lean bubble-point kernel (fit_build_problem). */
     pw_thermo_kernel kern;
     /* One entry per used point (NULL: none kept): the roots of the latest evaluation, written by
-     * every fit_eval. Reset (fit_roots_reset) before every LM run, every screened start and the
-     * final evaluation, so that each of them starts Newton from the measured values. */
+     * every fit_eval (Newton itself always starts from the measured temperature: a start from
+     * the previous root was tried and saved nothing). Reset (fit_roots_reset) before every LM
+     * run, every screened start and the final evaluation. */
     fit_root *roots;
 } fit_problem;
 

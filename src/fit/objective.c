@@ -7,7 +7,7 @@
  * Isothermal point (x, T): P_calc = sum_i x_i gamma_i P_i^sat explicitly,
  *   dP/dp_j = P sum_i y_i dln gamma_i/dp_j,  dy1/dp_j = y1 (dln gamma1/dp_j - dln P/dp_j).
  * The residuals come from the lean bubble-point kernel (ln gamma and its T derivative only, no
- * parameter derivatives in the Newton steps, Newton started from the point's previous root);
+ * parameter derivatives in the Newton steps, Newton started from the measured temperature);
  * the Jacobian takes the parameter derivatives once, at the converged root (docs/fitting.md,
  * "Lean bubble-point kernel"). */
 #include "fit_internal.h"
@@ -88,8 +88,7 @@ static pw_status eval_point_res(const fit_problem *fp, const pw_system *s, size_
     pw_bubble_lean b;
     pw_status st;
     if (isobaric) {
-        double guess = keep && keep->ok ? keep->b.T_K : pt->T_K;
-        st = pw_thermo_bubble_T_lean(s, &fp->kern, pt->P_Pa, pt->x1, guess, &b);
+        st = pw_thermo_bubble_T_lean(s, &fp->kern, pt->P_Pa, pt->x1, pt->T_K, &b);
     } else {
         st = pw_thermo_bubble_P_lean(s, &fp->kern, pt->T_K, pt->x1, &b);
     }
