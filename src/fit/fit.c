@@ -253,6 +253,24 @@ static int lm_drive(gsl_multifit_nlinear_workspace *w, const fit_problem *fp,
     return status;
 }
 
+/* chi2 from the residual vector GSL holds at its position, summed as fit_chi2 sums; false when
+ * that vector is lm_f's penalty (the model could not be evaluated there) or not finite. */
+static bool residual_at_position(gsl_multifit_nlinear_workspace *w, double *chi2)
+{
+    const gsl_vector *f = gsl_multifit_nlinear_residual(w);
+    double s = 0.0;
+    for (size_t i = 0; i < f->size; i++) {
+        double v = gsl_vector_get(f, i);
+        if (v == PENALTY_RESIDUAL)
+            return false;
+        s += v * v;
+    }
+    if (!isfinite(s))
+        return false;
+    *chi2 = s;
+    return true;
+}
+
 /* One LM run from the full parameter vector start; known (NULL: none) holds the minima found
  * so far, whose basins end the run early (out->basin). */
 static void run_lm(gsl_multifit_nlinear_workspace *w, gsl_multifit_nlinear_fdf *fdf, lm_ctx *c,
@@ -282,12 +300,18 @@ static void run_lm(gsl_multifit_nlinear_workspace *w, gsl_multifit_nlinear_fdf *
         return;
     out->stop = map_stop(status, info);
     fit_unpack(fp, gsl_multifit_nlinear_position(w)->data, out->params);
-    double *work = malloc(sizeof(double) * fp->n_res);
-    if (fp->T3_warm_K) /* the run's chi2 from the canonical three-phase start */
-        *fp->T3_warm_K = NAN;
-    fit_roots_reset(fp); /* and from the measured temperatures */
-    out->chi2 = work ? fit_chi2(fp, out->params, work) : (double)INFINITY;
-    free(work);
+    if (fp->roots && residual_at_position(w, &out->chi2)) {
+        /* The residuals GSL holds at its position are fit_eval's at these parameters, which
+         * depend on nothing else (each Newton solve starts from the measured values): chi2 is
+         * summed from them in fit_chi2's order, the same number without a new evaluation. */
+    } else {
+        double *work = malloc(sizeof(double) * fp->n_res);
+        if (fp->T3_warm_K) /* the run's chi2 from the canonical three-phase start */
+            *fp->T3_warm_K = NAN;
+        fit_roots_reset(fp);
+        out->chi2 = work ? fit_chi2(fp, out->params, work) : (double)INFINITY;
+        free(work);
+    }
     if (!isfinite(out->chi2)) {
         out->stop = PW_STOP_FAILED;
         return;
