@@ -50,8 +50,16 @@ static pw_status jac_rows(const fit_problem *fp, const pw_system *s, const pw_po
     double y[2] = {b->y1, 1.0 - b->y1};
     size_t nf = fp->n_fit;
     if (isobaric) {
+        /* d ln k_i/dT at the root itself: an inexact Jacobian would move the point where LM
+         * finds J^T f = 0 along the flat directions of the objective */
+        double dlnPs[2], dlnk[2];
+        st = pw_thermo_kernel_dlnpsat(s, &fp->kern, b->T_K, dlnPs);
+        if (st != PW_OK)
+            return st;
+        for (int i = 0; i < 2; i++)
+            dlnk[i] = a.dlngamma_dT[i] + dlnPs[i];
         bool with_y = fp->objective == PW_OBJ_TXY;
-        double dFdT = y[0] * b->dlnk_dT[0] + y[1] * b->dlnk_dT[1];
+        double dFdT = y[0] * dlnk[0] + y[1] * dlnk[1];
         if (!(fabs(dFdT) > 0.0))
             return PW_ESINGULAR;
         for (size_t j = 0; j < nf; j++) {
@@ -60,7 +68,7 @@ static pw_status jac_rows(const fit_problem *fp, const pw_system *s, const pw_po
             double dTdp = -dFdp / dFdT * fp->scale[j];
             J[j] = dTdp / fp->sigma_T_K;
             if (with_y) {
-                double dy = y[0] * (a.dlngamma_dp[0][k] * fp->scale[j] + b->dlnk_dT[0] * dTdp);
+                double dy = y[0] * (a.dlngamma_dp[0][k] * fp->scale[j] + dlnk[0] * dTdp);
                 J[nf + j] = dy / fp->sigma_y;
             }
         }

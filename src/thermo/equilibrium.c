@@ -120,10 +120,30 @@ static pw_status eval_point(const pw_system *s, double x1, double T, double P, t
     return PW_OK;
 }
 
-/* The lean evaluation (pw_thermo_kernel): the model's eval_lean (or eval when it has none), the
- * vapor pressures from the kernel's Antoine constants in natural-log form (pw_psat otherwise),
- * and one exponential for each x_i gamma_i P_i^sat. Fills lngamma and dlngamma_dT of tp->act,
- * dlnPs, k, sum, f and df; not Ps (tp->Ps is NAN where the kernel's form was used). The
+/* pw_psat's Antoine branch, the same operations in the same order (the same bits), without
+ * the unit lookup and the argument checks. */
+static pw_status kernel_psat(const pw_kernel_antoine *a, double T_K, double *P_Pa,
+                             double *dlnP_dT)
+{
+    double T_u = T_K / a->Ts - a->To;
+    double den = T_u + a->C;
+    if (!(den > 0.0))
+        return PW_EDOM; /* at or beyond the Antoine pole */
+    double P_u = exp(a->base * (a->A - a->B / den));
+    if (!isfinite(P_u) || P_u <= 0.0)
+        return PW_EDOM;
+    double P = (P_u + a->Po) * a->Ps;
+    if (!isfinite(P) || P <= 0.0)
+        return PW_EDOM;
+    *P_Pa = P;
+    double dTu_dTK = 1.0 / a->Ts;
+    *dlnP_dT = a->base * a->B / (den * den) * dTu_dTK;
+    return PW_OK;
+}
+
+/* The lean evaluation (pw_thermo_kernel): the model's eval_lean (or eval when it has none) and
+ * the vapor pressures from the kernel's Antoine constants (pw_psat otherwise), the same values
+ * as eval_point's. Fills lngamma and dlngamma_dT of tp->act, Ps, dlnPs, k, sum, f and df. The
  * virial vapor, and a null kernel, take eval_point. */
 static pw_status eval_point_lean(const pw_system *s, const pw_thermo_kernel *kern, double x1,
                                  double T, double P, tpoint *tp)
@@ -146,12 +166,10 @@ static pw_status eval_point_lean(const pw_system *s, const pw_thermo_kernel *ker
     tp->sum = 0.0;
     for (int i = 0; i < 2; i++) {
         if (kern->antoine[i]) {
-            double den = T * kern->Tinv[i] + kern->c[i];
-            if (!(den > 0.0))
-                return PW_EDOM; /* at or beyond the Antoine pole */
-            tp->Ps[i] = NAN;
-            tp->dlnPs[i] = kern->b[i] / (den * den) * kern->Tinv[i];
-            tp->k[i] = x[i] * exp(tp->act.lngamma[i] + kern->a[i] - kern->b[i] / den);
+            st = kernel_psat(&kern->an[i], T, &tp->Ps[i], &tp->dlnPs[i]);
+            if (st != PW_OK)
+                return st;
+            tp->k[i] = x[i] * exp(tp->act.lngamma[i]) * tp->Ps[i];
         } else {
             st = pw_psat(&s->comp[i], T, &tp->Ps[i], &tp->dlnPs[i]);
             if (st != PW_OK)
@@ -170,21 +188,39 @@ static pw_status eval_point_lean(const pw_system *s, const pw_thermo_kernel *ker
     return PW_OK;
 }
 
+pw_status pw_thermo_kernel_dlnpsat(const pw_system *s, const pw_thermo_kernel *k, double T,
+                                   double dlnPs[2])
+{
+    for (int i = 0; i < 2; i++) {
+        double P;
+        if (k->antoine[i]) {
+            pw_status st = kernel_psat(&k->an[i], T, &P, &dlnPs[i]);
+            if (st != PW_OK)
+                return st;
+        } else {
+            pw_status st = pw_psat(&s->comp[i], T, NULL, &dlnPs[i]);
+            if (st != PW_OK)
+                return st;
+        }
+    }
+    return PW_OK;
+}
+
 void pw_thermo_kernel_init(const pw_system *s, pw_thermo_kernel *k)
 {
     for (int i = 0; i < 2; i++) {
         const pw_component *c = &s->comp[i];
-        /* Antoine, units resolved (pw_component_prepare), no pressure offset: ln P_i^sat in Pa
-         * is a - b/(T Tinv + c) with a = base A + ln P_scale, b = base B, c = C - T_offset. */
-        k->antoine[i] = c->equation != PW_PSAT_IAPWS_IF97 && c->T_scale > 0.0 &&
-                        c->P_scale > 0.0 && c->P_offset == 0.0;
-        double base = c->log == PW_LN ? 1.0 : 2.302585092994045684;
-        k->a[i] = k->antoine[i] ? base * c->A + log(c->P_scale) : 0.0;
-        k->b[i] = base * c->B;
-        k->c[i] = c->C - c->T_offset;
-        k->Tinv[i] = k->antoine[i] ? 1.0 / c->T_scale : 0.0;
-        k->antoine[i] = k->antoine[i] && isfinite(k->a[i]) && isfinite(k->b[i]) &&
-                        isfinite(k->c[i]) && isfinite(k->Tinv[i]);
+        /* Antoine with its units resolved (pw_component_prepare) */
+        k->antoine[i] = c->equation != PW_PSAT_IAPWS_IF97 && c->T_scale > 0.0 && c->P_scale > 0.0;
+        pw_kernel_antoine *a = &k->an[i];
+        a->A = c->A;
+        a->B = c->B;
+        a->C = c->C;
+        a->base = c->log == PW_LN ? 1.0 : 2.302585092994045684;
+        a->Ts = c->T_scale;
+        a->To = c->T_offset;
+        a->Ps = c->P_scale;
+        a->Po = c->P_offset;
     }
 }
 

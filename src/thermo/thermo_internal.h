@@ -20,28 +20,39 @@ bool pw_thermo_split_excluded(const pw_system *s, double T_a, double T_b);
 pw_status pw_thermo_three_phase_at_P_full(const pw_system *s, double P_Pa, pw_three_phase *out);
 
 /* The lean bubble-point kernel of the fit (docs/fitting.md, "Lean bubble-point kernel"): the
- * vapor-pressure constants of the two components in natural-log form, set once per system by
- * pw_thermo_kernel_init (Antoine in prepared units without a pressure offset; other components
- * take pw_psat). */
+ * Antoine constants of the two components with their unit maps, set once per system by
+ * pw_thermo_kernel_init (components with prepared units; others, and IAPWS-IF97, take
+ * pw_psat). */
+typedef struct pw_kernel_antoine {
+    double A, B, C, base, Ts, To, Ps, Po;
+} pw_kernel_antoine;
+
 typedef struct pw_thermo_kernel {
     bool antoine[2];
-    double a[2], b[2], c[2], Tinv[2]; /* ln P_i^sat [Pa] = a - b/(T Tinv + c) */
+    pw_kernel_antoine an[2];
 } pw_thermo_kernel;
 
 void pw_thermo_kernel_init(const pw_system *s, pw_thermo_kernel *k);
 
+/* d ln P_i^sat/dT of both components at T, as the kernel computes it. */
+pw_status pw_thermo_kernel_dlnpsat(const pw_system *s, const pw_thermo_kernel *k, double T,
+                                   double dlnPs[2]);
+
 /* What the fit needs of a bubble point: T (isobaric) or P (isothermal), y1, and
- * d ln(x_i gamma_i P_i^sat)/dT = d ln gamma_i/dT + d ln P_i^sat/dT at the root. */
+ * d ln(x_i gamma_i P_i^sat)/dT = d ln gamma_i/dT + d ln P_i^sat/dT at the last Newton
+ * evaluation (within the last step, at most 1e-6 K, of the root; the Jacobian takes them at the
+ * root itself). */
 typedef struct pw_bubble_lean {
     double T_K, P_Pa, y1;
     double dlnk_dT[2];
     int iterations;
 } pw_bubble_lean;
 
-/* pw_bubble_T_from with the lean evaluation in its Newton steps (the model's eval_lean, one
- * exponential per x_i gamma_i P_i^sat, no parameter derivatives); the same Newton iteration,
- * tests and Brent fallback, so the same root to within the Newton tolerance (the vapor
- * pressure in natural-log form moves the last bits). The virial vapor takes the full path. */
+/* pw_bubble_T_from with the lean evaluation in its Newton steps (the model's eval_lean, the
+ * kernel's vapor pressures: no parameter derivatives, the same values); the same Newton
+ * iteration, tests and Brent fallback, except that a last Newton step of at most 1e-6 K is
+ * taken without a confirming evaluation (y1 carried to first order). The virial vapor takes
+ * the full path. */
 pw_status pw_thermo_bubble_T_lean(const pw_system *s, const pw_thermo_kernel *k, double P_Pa,
                                   double x1, double T_guess_K, pw_bubble_lean *out);
 
