@@ -50,14 +50,8 @@ static pw_status jac_rows(const fit_problem *fp, const pw_system *s, const pw_po
     double y[2] = {b->y1, 1.0 - b->y1};
     size_t nf = fp->n_fit;
     if (isobaric) {
-        /* d ln k_i/dT at the root itself: an inexact Jacobian would move the point where LM
-         * finds J^T f = 0 along the flat directions of the objective */
-        double dlnPs[2], dlnk[2];
-        st = pw_thermo_kernel_dlnpsat(s, &fp->kern, b->T_K, dlnPs);
-        if (st != PW_OK)
-            return st;
-        for (int i = 0; i < 2; i++)
-            dlnk[i] = a.dlngamma_dT[i] + dlnPs[i];
+        /* d ln k_i/dT at the root, as the full evaluation there gives it */
+        double dlnk[2] = {a.dlngamma_dT[0] + b->dlnPs[0], a.dlngamma_dT[1] + b->dlnPs[1]};
         bool with_y = fp->objective == PW_OBJ_TXY;
         double dFdT = y[0] * dlnk[0] + y[1] * dlnk[1];
         if (!(fabs(dFdT) > 0.0))

@@ -15,11 +15,6 @@
 #define T_EPSABS 1e-10
 #define T_EPSREL (4.0 * DBL_EPSILON)
 #define NEWTON_MAXIT 30
-/* The lean kernel (fit) takes T + dT as the root without evaluating there when the Newton step
- * dT is at most this: Newton's quadratic convergence then puts T + dT within about
- * |f''/(2 f')| dT^2 (below 1e-13 K for |f''/f'| < 0.2/K) of the root, closer than the step test
- * T_EPSABS the full path stops at; y and d ln k/dT are carried to T + dT to first order. */
-#define LEAN_TAIL_K 1e-6
 #define NEWTON_MAX_STEP_K 25.0
 #define BRENT_MAXIT 200
 #define BRACKET_BELOW_K 60.0 /* search from min pure Tsat - 60 K ... */
@@ -188,24 +183,6 @@ static pw_status eval_point_lean(const pw_system *s, const pw_thermo_kernel *ker
     return PW_OK;
 }
 
-pw_status pw_thermo_kernel_dlnpsat(const pw_system *s, const pw_thermo_kernel *k, double T,
-                                   double dlnPs[2])
-{
-    for (int i = 0; i < 2; i++) {
-        double P;
-        if (k->antoine[i]) {
-            pw_status st = kernel_psat(&k->an[i], T, &P, &dlnPs[i]);
-            if (st != PW_OK)
-                return st;
-        } else {
-            pw_status st = pw_psat(&s->comp[i], T, NULL, &dlnPs[i]);
-            if (st != PW_OK)
-                return st;
-        }
-    }
-    return PW_OK;
-}
-
 void pw_thermo_kernel_init(const pw_system *s, pw_thermo_kernel *k)
 {
     for (int i = 0; i < 2; i++) {
@@ -365,10 +342,8 @@ static pw_status pure_bracket(const pw_system *s, double P, double Ts[2], double
  * the returned T. */
 static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T_guess,
                                bool newton, double *T_out, tpoint *tp, int *iters,
-                               const pw_thermo_kernel *kern, double *tail)
+                               const pw_thermo_kernel *kern)
 {
-    if (tail)
-        *tail = 0.0;
     double lim_lo, lim_hi;
     eval_limits(s, &lim_lo, &lim_hi);
     /* The pure boiling points set the start (without a guess) and the fallback bracket; with a
@@ -406,11 +381,6 @@ static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T
         double dT = -tp->f / tp->df;
         if (fabs(dT) <= T_EPSABS + T_EPSREL * fabs(T)) {
             *T_out = T;
-            return PW_OK;
-        }
-        if (tail && fabs(dT) <= LEAN_TAIL_K && T + dT > neg && T + dT < pos) {
-            *tail = dT; /* tp stays at T */
-            *T_out = T + dT;
             return PW_OK;
         }
         dT = fmax(fmin(dT, NEWTON_MAX_STEP_K), -NEWTON_MAX_STEP_K);
@@ -457,7 +427,7 @@ static pw_status bubble_T(const pw_system *s, double P_Pa, double x1, bool newto
     tpoint tp;
     double T;
     int iters;
-    pw_status st = bubble_T_core(s, P_Pa, x1, T_guess, newton, &T, &tp, &iters, NULL, NULL);
+    pw_status st = bubble_T_core(s, P_Pa, x1, T_guess, newton, &T, &tp, &iters, NULL);
     if (st != PW_OK)
         return st;
     fill_point(&tp, x1, T, P_Pa, iters, out);
@@ -490,18 +460,15 @@ pw_status pw_thermo_bubble_T_lean(const pw_system *s, const pw_thermo_kernel *k,
         return PW_EDOM;
     tpoint tp;
     int iters;
-    double T, tail, guess = isfinite(T_guess_K) && T_guess_K > 0.0 ? T_guess_K : (double)NAN;
-    pw_status st = bubble_T_core(s, P_Pa, x1, guess, true, &T, &tp, &iters, k, &tail);
+    double T, guess = isfinite(T_guess_K) && T_guess_K > 0.0 ? T_guess_K : (double)NAN;
+    pw_status st = bubble_T_core(s, P_Pa, x1, guess, true, &T, &tp, &iters, k);
     if (st != PW_OK)
         return st;
     out->T_K = T;
     out->P_Pa = P_Pa;
-    /* y1 = k1/sum carried from T - tail to T: d ln y1/dT = d ln k1/dT - d ln sum/dT */
-    double y1 = tp.k[0] / tp.sum;
-    double dlnk0 = tp.act.dlngamma_dT[0] + tp.dlnPs[0];
-    out->y1 = y1 + y1 * (dlnk0 - tp.df) * tail;
+    out->y1 = tp.k[0] / tp.sum;
     for (int i = 0; i < 2; i++)
-        out->dlnk_dT[i] = tp.act.dlngamma_dT[i] + tp.dlnPs[i];
+        out->dlnPs[i] = tp.dlnPs[i];
     out->iterations = iters;
     return PW_OK;
 }
@@ -521,7 +488,7 @@ pw_status pw_thermo_bubble_P_lean(const pw_system *s, const pw_thermo_kernel *k,
     out->P_Pa = tp.sum;
     out->y1 = tp.k[0] / tp.sum;
     for (int i = 0; i < 2; i++)
-        out->dlnk_dT[i] = tp.act.dlngamma_dT[i] + tp.dlnPs[i];
+        out->dlnPs[i] = tp.dlnPs[i];
     out->iterations = 0;
     return PW_OK;
 }
@@ -557,7 +524,7 @@ static pw_status dew_eval(dew_ctx *c, double x1, double *y1, double *dy1)
     double x2 = 1.0 - x1;
     if (c->isobaric) {
         int its = 0;
-        st = bubble_T_core(c->s, c->P, x1, c->T, true, &c->T, tp, &its, NULL, NULL);
+        st = bubble_T_core(c->s, c->P, x1, c->T, true, &c->T, tp, &its, NULL);
         c->iters += its;
     } else {
         st = eval_point(c->s, x1, c->T, NAN, tp);

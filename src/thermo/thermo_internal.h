@@ -34,25 +34,19 @@ typedef struct pw_thermo_kernel {
 
 void pw_thermo_kernel_init(const pw_system *s, pw_thermo_kernel *k);
 
-/* d ln P_i^sat/dT of both components at T, as the kernel computes it. */
-pw_status pw_thermo_kernel_dlnpsat(const pw_system *s, const pw_thermo_kernel *k, double T,
-                                   double dlnPs[2]);
 
 /* What the fit needs of a bubble point: T (isobaric) or P (isothermal), y1, and
- * d ln(x_i gamma_i P_i^sat)/dT = d ln gamma_i/dT + d ln P_i^sat/dT at the last Newton
- * evaluation (within the last step, at most 1e-6 K, of the root; the Jacobian takes them at the
- * root itself). */
+ * d ln P_i^sat/dT at the root. */
 typedef struct pw_bubble_lean {
     double T_K, P_Pa, y1;
-    double dlnk_dT[2];
+    double dlnPs[2];
     int iterations;
 } pw_bubble_lean;
 
 /* pw_bubble_T_from with the lean evaluation in its Newton steps (the model's eval_lean, the
  * kernel's vapor pressures: no parameter derivatives, the same values); the same Newton
- * iteration, tests and Brent fallback, except that a last Newton step of at most 1e-6 K is
- * taken without a confirming evaluation (y1 carried to first order). The virial vapor takes
- * the full path. */
+ * iteration, tests and Brent fallback, so the same root, y1 and slopes to the bit. The virial
+ * vapor takes the full path. */
 pw_status pw_thermo_bubble_T_lean(const pw_system *s, const pw_thermo_kernel *k, double P_Pa,
                                   double x1, double T_guess_K, pw_bubble_lean *out);
 
