@@ -568,6 +568,91 @@ static void make_start(const pw_fit_result *r, const fit_problem *fp, gsl_rng *r
     }
 }
 
+typedef struct screen_item {
+    size_t c;     /* index into cand */
+    size_t next;  /* points summed so far */
+    double sum;   /* their sum of squares */
+} screen_item;
+
+static int cmp_screen(const void *a, const void *b)
+{
+    double sa = ((const screen_item *)a)->sum, sb = ((const screen_item *)b)->sum;
+    return (sa > sb) - (sa < sb);
+}
+
+#define SCREEN_FIRST_POINTS 4
+
+/* Draws n_draw starts after cand[n_fixed - 1] and screens them; returns the new count of
+ * candidates. Only the best n_runs - n_fixed draws will run, so a draw needs its full chi2 only
+ * while it can be among them. Every draw first sums its first SCREEN_FIRST_POINTS points; then,
+ * in the order of those partial sums (the promising draws first), each sum is carried on and
+ * stops once it exceeds the (n_runs - n_fixed)-th best full chi2 so far: such a draw cannot be
+ * among the best, and keeps its partial sum, above every kept draw's chi2. The kept draws,
+ * their chi2 (to the bit: the same sums in the same order) and so their order are those of
+ * the full screen; draws that cannot be evaluated are dropped, as there. */
+static size_t screen_draws(const pw_fit_result *out, const fit_problem *fp, gsl_rng *rng,
+                           size_t n_draw, size_t n_runs, size_t n_fixed, start_cand *cand,
+                           double *work, size_t *n_fev)
+{
+    size_t n_cand = n_fixed, n_items = 0;
+    screen_item *it = malloc(sizeof *it * (n_draw ? n_draw : 1));
+    size_t n_keep = n_runs > n_fixed ? n_runs - n_fixed : 0, n_best = 0;
+    double *best = malloc(sizeof(double) * (n_keep ? n_keep : 1));
+    for (size_t s = 1; s <= n_draw; s++) {
+        make_start(out, fp, rng, s, cand[n_cand].p);
+        if (out->sys.model->check(cand[n_cand].p) != PW_OK)
+            continue;
+        (*n_fev)++;
+        cand[n_cand].chi2 = NAN;
+        if (it)
+            it[n_items++] = (screen_item){.c = n_cand, .next = 0, .sum = 0.0};
+        n_cand++;
+    }
+    if (!it || !best) { /* no memory for the order: every sum in full */
+        for (size_t c = n_fixed; c < n_cand; c++) {
+            size_t next = 0;
+            double sum = 0.0;
+            cand[c].chi2 = fit_chi2_continue(fp, cand[c].p, fp->n_pts, INFINITY, &next, &sum, work)
+                               ? sum : (double)INFINITY;
+        }
+    } else {
+        for (size_t i = 0; i < n_items; i++)
+            if (!fit_chi2_continue(fp, cand[it[i].c].p, SCREEN_FIRST_POINTS, INFINITY,
+                                   &it[i].next, &it[i].sum, work))
+                it[i].sum = INFINITY;
+        qsort(it, n_items, sizeof *it, cmp_screen);
+        for (size_t i = 0; i < n_items; i++) {
+            start_cand *cd = &cand[it[i].c];
+            if (!isfinite(it[i].sum)) {
+                cd->chi2 = INFINITY;
+                continue;
+            }
+            double cap = n_keep && n_best == n_keep ? best[n_keep - 1] : (double)INFINITY;
+            if (!fit_chi2_continue(fp, cd->p, fp->n_pts, cap, &it[i].next, &it[i].sum, work)) {
+                cd->chi2 = INFINITY;
+                continue;
+            }
+            cd->chi2 = it[i].sum;
+            if (!n_keep || it[i].sum > cap)
+                continue;
+            size_t at = n_best < n_keep ? n_best++ : n_keep - 1; /* insert, dropping the largest */
+            while (at > 0 && best[at - 1] > it[i].sum) {
+                best[at] = best[at - 1];
+                at--;
+            }
+            best[at] = it[i].sum;
+        }
+    }
+    free(it);
+    free(best);
+    /* drop the draws that could not be evaluated, keeping the draw order */
+    size_t kept = n_fixed;
+    for (size_t c = n_fixed; c < n_cand; c++)
+        if (isfinite(cand[c].chi2))
+            cand[kept++] = cand[c];
+    return kept;
+}
+
 pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_component *c2,
                      const pw_model_type *model, const pw_fit_options *opt, pw_fit_result *out,
                      pw_error *err)
@@ -653,35 +738,20 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
             cand[n_fixed++].chi2 = -1.0;
     }
     size_t n_cand = n_fixed;
-    /* Only the best n_keep draws run; a draw whose partial sum of squares already exceeds the
-     * n_keep-th best full chi2 so far cannot be among them, and its sum stops there (the kept
-     * draws, their order and their chi2 are those of the full screen). best_keep holds the
-     * n_keep smallest full chi2 so far, ascending. */
-    size_t n_keep = n_runs > n_fixed ? n_runs - n_fixed : 0, n_best = 0;
-    double *best_keep = malloc(sizeof(double) * (n_keep ? n_keep : 1));
-    for (size_t s = 1; s <= n_draw; s++) {
-        make_start(out, &fp, rng, s, cand[n_cand].p);
-        if (model->check(cand[n_cand].p) != PW_OK)
-            continue;
-        T3_warm = NAN;
-        fit_roots_reset(&fp);
-        double cap = best_keep && n_keep && n_best == n_keep ? best_keep[n_keep - 1] : (double)INFINITY;
-        double chi2 = fit_chi2_capped(&fp, cand[n_cand].p, work, cap);
-        cand[n_cand].chi2 = chi2;
-        ctx.n_fev++;
-        if (!isfinite(chi2))
-            continue;
-        n_cand++;
-        if (!best_keep || !n_keep || chi2 > cap)
-            continue;
-        size_t at = n_best < n_keep ? n_best++ : n_keep - 1; /* insert, dropping the largest */
-        while (at > 0 && best_keep[at - 1] > chi2) {
-            best_keep[at] = best_keep[at - 1];
-            at--;
+    if (fp.three_phase || fp.n_ties) {
+        for (size_t s = 1; s <= n_draw; s++) {
+            make_start(out, &fp, rng, s, cand[n_cand].p);
+            if (model->check(cand[n_cand].p) != PW_OK)
+                continue;
+            T3_warm = NAN;
+            cand[n_cand].chi2 = fit_chi2(&fp, cand[n_cand].p, work);
+            ctx.n_fev++;
+            if (isfinite(cand[n_cand].chi2))
+                n_cand++;
         }
-        best_keep[at] = chi2;
+    } else {
+        n_cand = screen_draws(out, &fp, rng, n_draw, n_runs, n_fixed, cand, work, &ctx.n_fev);
     }
-    free(best_keep);
     free(work);
     qsort(cand, n_cand, sizeof *cand, cmp_cand);
     if (n_cand > n_runs)

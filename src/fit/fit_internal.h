@@ -121,10 +121,14 @@ pw_status fit_build_problem(const pw_fit_result *r, fit_problem *fp, pw_point **
 /* Sum of squares of the weighted residuals at params; INFINITY when a point fails. */
 double fit_chi2(const fit_problem *fp, const double *params, double *work);
 
-/* fit_chi2, except that the sum stops as soon as it exceeds cap (the partial sum is returned:
- * a value above cap, below the full chi2); INFINITY when a point evaluated fails. Problems with
- * three-phase points or tie lines, and cap INFINITY, take fit_chi2. */
-double fit_chi2_capped(const fit_problem *fp, const double *params, double *work, double cap);
+/* A sum of squares of the weighted residuals in steps: adds the squared residuals of the used
+ * points *next, *next + 1, ... up to end (exclusive) to *sum, in fit_chi2's order (a sum
+ * carried to n_pts from *next = 0, *sum = 0 is fit_chi2's number to the bit), and stops after
+ * the point that takes *sum above cap; *next is where to continue. False when the parameters
+ * or a point cannot be evaluated, or the sum is not finite (fit_chi2's INFINITY). work holds
+ * one point's residuals. Only for problems without three-phase points and tie lines. */
+bool fit_chi2_continue(const fit_problem *fp, const double *params, size_t end, double cap,
+                       size_t *next, double *sum, double *work);
 
 /* What the Jacobian at the optimum says about the parameters (covariance.c). */
 typedef struct fit_info {

@@ -176,26 +176,26 @@ double fit_chi2(const fit_problem *fp, const double *params, double *work)
     return isfinite(s) ? s : (double)INFINITY;
 }
 
-double fit_chi2_capped(const fit_problem *fp, const double *params, double *work, double cap)
+bool fit_chi2_continue(const fit_problem *fp, const double *params, size_t end, double cap,
+                       size_t *next, double *sum, double *work)
 {
-    if (fp->three_phase || fp->n_ties || !(cap < (double)INFINITY))
-        return fit_chi2(fp, params, work);
     pw_system s;
     system_at(fp, params, &s);
     if (s.model->check(s.params) != PW_OK)
-        return INFINITY;
+        return false;
     size_t m = fit_residuals_per_point(fp->objective);
     bool isobaric = fp->objective == PW_OBJ_TXY || fp->objective == PW_OBJ_TX;
-    double sum = 0.0;
-    for (size_t i = 0; i < fp->n_pts; i++) {
-        if (eval_point_res(fp, &s, i, isobaric, work, NULL) != PW_OK)
-            return INFINITY;
+    if (end > fp->n_pts)
+        end = fp->n_pts;
+    while (*next < end) {
+        if (eval_point_res(fp, &s, (*next)++, isobaric, work, NULL) != PW_OK)
+            return false;
         for (size_t r = 0; r < m; r++)
-            sum += work[r] * work[r];
-        if (!isfinite(sum))
-            return INFINITY;
-        if (sum > cap)
-            return sum; /* already above the cap: the rest cannot bring it below */
+            *sum += work[r] * work[r];
+        if (!isfinite(*sum))
+            return false;
+        if (*sum > cap)
+            return true; /* already above the cap: the rest cannot bring it below */
     }
-    return sum;
+    return true;
 }
