@@ -67,6 +67,17 @@ typedef struct pw_model_type {
      * naming the component and the missing column, when a needed constant is unknown. */
     pw_status (*from_components)(const pw_component *c1, const pw_component *c2, double *p,
                                  pw_error *err);
+    /* Optional lean evaluation for the solvers' inner loops (bubble points of the fit): ln
+     * gamma_i and d ln gamma_i/dT at (x1, T), the same values eval gives to the bit, without
+     * the parameter and composition derivatives and without eval's parameter check; p must have
+     * passed check. PW_EDOM where a result is not finite. NULL: the solvers use eval. */
+    pw_status (*eval_lean)(const double *p, double T_ref_K, double x1, double T_K,
+                           double lngamma[2], double dlngamma_dT[2]);
+    /* Optional: d^2(G^E/RT)/dx1^2 at the n compositions x1[k] at one T (the stability scan),
+     * the same values as eval's d2gE_dx2 to the bit; p must have passed check. PW_EDOM where a
+     * value is not finite. NULL: the scan uses eval. */
+    pw_status (*d2gE_dx2)(const double *p, double T_ref_K, double T_K, size_t n,
+                          const double *x1, double *out);
 } pw_model_type;
 
 extern const pw_model_type pw_model_margules;

@@ -75,7 +75,9 @@ static int lm_f(const gsl_vector *u, void *data, gsl_vector *f)
     double params[PW_MAX_PARAMS];
     fit_unpack(fp, u->data, params);
     c->n_fev++;
-    pw_status st = fit_eval(fp, params, f->data, c->J_cache);
+    /* With kept roots the Jacobian waits for lm_df (rejected trial steps never need it);
+     * three-phase points and tie lines compute it with the residuals. */
+    pw_status st = fit_eval(fp, params, f->data, fp->roots ? NULL : c->J_cache);
     if (st != PW_OK) {
         for (size_t i = 0; i < fp->n_res; i++)
             gsl_vector_set(f, i, PENALTY_RESIDUAL);
@@ -93,7 +95,12 @@ static int lm_df(const gsl_vector *u, void *data, gsl_matrix *J)
     const fit_problem *fp = c->fp;
     c->n_jev++;
     bool same = c->cache_ok && memcmp(c->u_cache, u->data, sizeof(double) * fp->n_fit) == 0;
-    if (!same) {
+    if (same && fp->roots) { /* at the roots lm_f just found */
+        double params[PW_MAX_PARAMS];
+        fit_unpack(fp, u->data, params);
+        if (fit_jacobian_at_roots(fp, params, c->J_cache) != PW_OK)
+            return GSL_EDOM;
+    } else if (!same) {
         double params[PW_MAX_PARAMS];
         fit_unpack(fp, u->data, params);
         double *f = malloc(sizeof(double) * fp->n_res);
@@ -247,6 +254,24 @@ static int lm_drive(gsl_multifit_nlinear_workspace *w, const fit_problem *fp,
     return status;
 }
 
+/* chi2 from the residual vector GSL holds at its position, summed as fit_chi2 sums; false when
+ * that vector is lm_f's penalty (the model could not be evaluated there) or not finite. */
+static bool residual_at_position(gsl_multifit_nlinear_workspace *w, double *chi2)
+{
+    const gsl_vector *f = gsl_multifit_nlinear_residual(w);
+    double s = 0.0;
+    for (size_t i = 0; i < f->size; i++) {
+        double v = gsl_vector_get(f, i);
+        if (v == PENALTY_RESIDUAL)
+            return false;
+        s += v * v;
+    }
+    if (!isfinite(s))
+        return false;
+    *chi2 = s;
+    return true;
+}
+
 /* One LM run from the full parameter vector start; known (NULL: none) holds the minima found
  * so far, whose basins end the run early (out->basin). */
 static void run_lm(gsl_multifit_nlinear_workspace *w, gsl_multifit_nlinear_fdf *fdf, lm_ctx *c,
@@ -265,6 +290,8 @@ static void run_lm(gsl_multifit_nlinear_workspace *w, gsl_multifit_nlinear_fdf *
     out->iterations = 0;
     out->basin = -1;
     memcpy(out->params, start, sizeof out->params);
+    fit_roots_reset(fp);
+    c->cache_ok = false;
     if (gsl_multifit_nlinear_init(&x0.vector, fdf, w) != GSL_SUCCESS)
         return;
     int info = 0;
@@ -274,11 +301,18 @@ static void run_lm(gsl_multifit_nlinear_workspace *w, gsl_multifit_nlinear_fdf *
         return;
     out->stop = map_stop(status, info);
     fit_unpack(fp, gsl_multifit_nlinear_position(w)->data, out->params);
-    double *work = malloc(sizeof(double) * fp->n_res);
-    if (fp->T3_warm_K) /* the run's chi2 from the canonical three-phase start */
-        *fp->T3_warm_K = NAN;
-    out->chi2 = work ? fit_chi2(fp, out->params, work) : (double)INFINITY;
-    free(work);
+    if (fp->roots && residual_at_position(w, &out->chi2)) {
+        /* The residuals GSL holds at its position are fit_eval's at these parameters, which
+         * depend on nothing else (each Newton solve starts from the measured values): chi2 is
+         * summed from them in fit_chi2's order, the same number without a new evaluation. */
+    } else {
+        double *work = malloc(sizeof(double) * fp->n_res);
+        if (fp->T3_warm_K) /* the run's chi2 from the canonical three-phase start */
+            *fp->T3_warm_K = NAN;
+        fit_roots_reset(fp);
+        out->chi2 = work ? fit_chi2(fp, out->params, work) : (double)INFINITY;
+        free(work);
+    }
     if (!isfinite(out->chi2)) {
         out->stop = PW_STOP_FAILED;
         return;
@@ -324,6 +358,7 @@ pw_status fit_build_problem(const pw_fit_result *r, fit_problem *fp, pw_point **
 {
     memset(fp, 0, sizeof *fp);
     fp->sys = r->sys;
+    pw_thermo_kernel_init(&fp->sys, &fp->kern);
     fp->objective = r->objective;
     fp->sigma_T_K = r->sigma_T_K;
     fp->sigma_P_rel = r->sigma_P_rel;
@@ -534,6 +569,91 @@ static void make_start(const pw_fit_result *r, const fit_problem *fp, gsl_rng *r
     }
 }
 
+typedef struct screen_item {
+    size_t c;     /* index into cand */
+    size_t next;  /* points summed so far */
+    double sum;   /* their sum of squares */
+} screen_item;
+
+static int cmp_screen(const void *a, const void *b)
+{
+    double sa = ((const screen_item *)a)->sum, sb = ((const screen_item *)b)->sum;
+    return (sa > sb) - (sa < sb);
+}
+
+#define SCREEN_FIRST_POINTS 4
+
+/* Draws n_draw starts after cand[n_fixed - 1] and screens them; returns the new count of
+ * candidates. Only the best n_runs - n_fixed draws will run, so a draw needs its full chi2 only
+ * while it can be among them. Every draw first sums its first SCREEN_FIRST_POINTS points; then,
+ * in the order of those partial sums (the promising draws first), each sum is carried on and
+ * stops once it exceeds the (n_runs - n_fixed)-th best full chi2 so far: such a draw cannot be
+ * among the best, and keeps its partial sum, above every kept draw's chi2. The kept draws,
+ * their chi2 (to the bit: the same sums in the same order) and so their order are those of
+ * the full screen; draws that cannot be evaluated are dropped, as there. */
+static size_t screen_draws(const pw_fit_result *out, const fit_problem *fp, gsl_rng *rng,
+                           size_t n_draw, size_t n_runs, size_t n_fixed, start_cand *cand,
+                           double *work, size_t *n_fev)
+{
+    size_t n_cand = n_fixed, n_items = 0;
+    screen_item *it = malloc(sizeof *it * (n_draw ? n_draw : 1));
+    size_t n_keep = n_runs > n_fixed ? n_runs - n_fixed : 0, n_best = 0;
+    double *best = malloc(sizeof(double) * (n_keep ? n_keep : 1));
+    for (size_t s = 1; s <= n_draw; s++) {
+        make_start(out, fp, rng, s, cand[n_cand].p);
+        if (out->sys.model->check(cand[n_cand].p) != PW_OK)
+            continue;
+        (*n_fev)++;
+        cand[n_cand].chi2 = NAN;
+        if (it)
+            it[n_items++] = (screen_item){.c = n_cand, .next = 0, .sum = 0.0};
+        n_cand++;
+    }
+    if (!it || !best) { /* no memory for the order: every sum in full */
+        for (size_t c = n_fixed; c < n_cand; c++) {
+            size_t next = 0;
+            double sum = 0.0;
+            cand[c].chi2 = fit_chi2_continue(fp, cand[c].p, fp->n_pts, INFINITY, &next, &sum, work)
+                               ? sum : (double)INFINITY;
+        }
+    } else {
+        for (size_t i = 0; i < n_items; i++)
+            if (!fit_chi2_continue(fp, cand[it[i].c].p, SCREEN_FIRST_POINTS, INFINITY,
+                                   &it[i].next, &it[i].sum, work))
+                it[i].sum = INFINITY;
+        qsort(it, n_items, sizeof *it, cmp_screen);
+        for (size_t i = 0; i < n_items; i++) {
+            start_cand *cd = &cand[it[i].c];
+            if (!isfinite(it[i].sum)) {
+                cd->chi2 = INFINITY;
+                continue;
+            }
+            double cap = n_keep && n_best == n_keep ? best[n_keep - 1] : (double)INFINITY;
+            if (!fit_chi2_continue(fp, cd->p, fp->n_pts, cap, &it[i].next, &it[i].sum, work)) {
+                cd->chi2 = INFINITY;
+                continue;
+            }
+            cd->chi2 = it[i].sum;
+            if (!n_keep || it[i].sum > cap)
+                continue;
+            size_t at = n_best < n_keep ? n_best++ : n_keep - 1; /* insert, dropping the largest */
+            while (at > 0 && best[at - 1] > it[i].sum) {
+                best[at] = best[at - 1];
+                at--;
+            }
+            best[at] = it[i].sum;
+        }
+    }
+    free(it);
+    free(best);
+    /* drop the draws that could not be evaluated, keeping the draw order */
+    size_t kept = n_fixed;
+    for (size_t c = n_fixed; c < n_cand; c++)
+        if (isfinite(cand[c].chi2))
+            cand[kept++] = cand[c];
+    return kept;
+}
+
 pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_component *c2,
                      const pw_model_type *model, const pw_fit_options *opt, pw_fit_result *out,
                      pw_error *err)
@@ -564,6 +684,13 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
         fp.n_res += 2 * o.n_tie_lines;
     }
     double *J = st == PW_OK ? malloc(sizeof(double) * fp.n_res * fp.n_fit) : NULL;
+    fit_root *roots = NULL;
+    if (st == PW_OK && !fp.three_phase && !fp.n_ties) {
+        roots = calloc(fp.n_pts ? fp.n_pts : 1, sizeof *roots);
+        if (!roots)
+            st = PW_ENOMEM;
+    }
+    fp.roots = roots;
     gsl_rng *rng = gsl_rng_alloc(gsl_rng_mt19937);
     gsl_multifit_nlinear_parameters params = gsl_multifit_nlinear_default_parameters();
     params.trs = gsl_multifit_nlinear_trs_lm;
@@ -586,6 +713,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     if (st != PW_OK) {
         free(used);
         free(J);
+        free(roots);
         free(cand);
         free(work);
         gsl_rng_free(rng);
@@ -611,15 +739,19 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
             cand[n_fixed++].chi2 = -1.0;
     }
     size_t n_cand = n_fixed;
-    for (size_t s = 1; s <= n_draw; s++) {
-        make_start(out, &fp, rng, s, cand[n_cand].p);
-        if (model->check(cand[n_cand].p) != PW_OK)
-            continue;
-        T3_warm = NAN;
-        cand[n_cand].chi2 = fit_chi2(&fp, cand[n_cand].p, work);
-        ctx.n_fev++;
-        if (isfinite(cand[n_cand].chi2))
-            n_cand++;
+    if (fp.three_phase || fp.n_ties) {
+        for (size_t s = 1; s <= n_draw; s++) {
+            make_start(out, &fp, rng, s, cand[n_cand].p);
+            if (model->check(cand[n_cand].p) != PW_OK)
+                continue;
+            T3_warm = NAN;
+            cand[n_cand].chi2 = fit_chi2(&fp, cand[n_cand].p, work);
+            ctx.n_fev++;
+            if (isfinite(cand[n_cand].chi2))
+                n_cand++;
+        }
+    } else {
+        n_cand = screen_draws(out, &fp, rng, n_draw, n_runs, n_fixed, cand, work, &ctx.n_fev);
     }
     free(work);
     qsort(cand, n_cand, sizeof *cand, cmp_cand);
@@ -691,6 +823,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     }
     double *f = malloc(sizeof(double) * fp.n_res);
     fp.T3_warm_K = NULL;
+    fit_roots_reset(&fp);
     pw_status cst = f ? fit_eval(&fp, out->sys.params, f, J) : PW_ENOMEM;
     free(f);
     if (cst == PW_OK && out->dof > 0) {
@@ -711,6 +844,7 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
     fit_het_finish(&fp, out);
     free(used);
     free(J);
+    free(roots);
     gsl_rng_free(rng);
     gsl_multifit_nlinear_free(w);
     st = pw_fit_evaluate(out);

@@ -4,6 +4,15 @@
 
 #include <pinchwise/fit.h>
 
+#include "thermo/thermo_internal.h"
+
+/* The last bubble point of one used point (the lean kernel, objective.c): at the same
+ * parameters, the root the Jacobian is taken at. */
+typedef struct fit_root {
+    pw_bubble_lean b;
+    bool ok;
+} fit_root;
+
 /* The regression problem: which points and parameters, the weights, the fixed values. */
 typedef struct fit_problem {
     pw_system sys;              /* parameters here are the current full vector */
@@ -27,7 +36,22 @@ typedef struct fit_problem {
     const pw_tie_line *ties;
     size_t n_ties;
     double sigma_x_lle;
+    /* The vapor-pressure constants of the lean bubble-point kernel (fit_build_problem). */
+    pw_thermo_kernel kern;
+    /* One entry per used point (NULL: none kept): the roots of the latest evaluation, written by
+     * every fit_eval (Newton itself always starts from the measured temperature: a start from
+     * the previous root was tried and saved nothing). Reset (fit_roots_reset) before every LM
+     * run, every screened start and the final evaluation. */
+    fit_root *roots;
 } fit_problem;
+
+/* Forgets the kept roots (the next evaluation starts from the measured values). */
+void fit_roots_reset(const fit_problem *fp);
+
+/* The Jacobian (row-major n_res x n_fit, internal unknowns) at params from the roots the latest
+ * fit_eval at the same params kept: one full model evaluation per point for d ln gamma/dp, no
+ * bubble-point solve. Only for problems without three-phase points and tie lines, with roots. */
+pw_status fit_jacobian_at_roots(const fit_problem *fp, const double *params, double *J);
 
 /* A pure-component row (x1 = 0 or 1): no information on the activity parameters. */
 static inline bool fit_is_pure(const pw_point *p) { return p->x1 <= 0.0 || p->x1 >= 1.0; }
@@ -114,6 +138,15 @@ pw_status fit_build_problem(const pw_fit_result *r, fit_problem *fp, pw_point **
 
 /* Sum of squares of the weighted residuals at params; INFINITY when a point fails. */
 double fit_chi2(const fit_problem *fp, const double *params, double *work);
+
+/* A sum of squares of the weighted residuals in steps: adds the squared residuals of the used
+ * points *next, *next + 1, ... up to end (exclusive) to *sum, in fit_chi2's order (a sum
+ * carried to n_pts from *next = 0, *sum = 0 is fit_chi2's number to the bit), and stops after
+ * the point that takes *sum above cap; *next is where to continue. False when the parameters
+ * or a point cannot be evaluated, or the sum is not finite (fit_chi2's INFINITY). work holds
+ * one point's residuals. Only for problems without three-phase points and tie lines. */
+bool fit_chi2_continue(const fit_problem *fp, const double *params, size_t end, double cap,
+                       size_t *next, double *sum, double *work);
 
 /* What the Jacobian at the optimum says about the parameters (covariance.c). */
 typedef struct fit_info {

@@ -115,6 +115,92 @@ static pw_status eval_point(const pw_system *s, double x1, double T, double P, t
     return PW_OK;
 }
 
+/* pw_psat's Antoine branch, the same operations in the same order (the same bits), without
+ * the unit lookup and the argument checks. */
+static pw_status kernel_psat(const pw_kernel_antoine *a, double T_K, double *P_Pa,
+                             double *dlnP_dT)
+{
+    double T_u = T_K / a->Ts - a->To;
+    double den = T_u + a->C;
+    if (!(den > 0.0))
+        return PW_EDOM; /* at or beyond the Antoine pole */
+    double P_u = exp(a->base * (a->A - a->B / den));
+    if (!isfinite(P_u) || P_u <= 0.0)
+        return PW_EDOM;
+    double P = (P_u + a->Po) * a->Ps;
+    if (!isfinite(P) || P <= 0.0)
+        return PW_EDOM;
+    *P_Pa = P;
+    double dTu_dTK = 1.0 / a->Ts;
+    *dlnP_dT = a->base * a->B / (den * den) * dTu_dTK;
+    return PW_OK;
+}
+
+/* The lean evaluation (pw_thermo_kernel): the model's eval_lean (or eval when it has none) and
+ * the vapor pressures from the kernel's Antoine constants (pw_psat otherwise), the same values
+ * as eval_point's. Fills lngamma and dlngamma_dT of tp->act, Ps, dlnPs, k, sum, f and df. The
+ * virial vapor, and a null kernel, take eval_point. */
+static pw_status eval_point_lean(const pw_system *s, const pw_thermo_kernel *kern, double x1,
+                                 double T, double P, tpoint *tp)
+{
+    if (!kern || s->vapor == PW_VAPOR_VIRIAL)
+        return eval_point(s, x1, T, P, tp);
+    pw_status st;
+    if (s->model->eval_lean) {
+        if (!(T > 0.0) || !isfinite(T))
+            return PW_EDOM;
+        st = s->model->eval_lean(s->params, s->T_ref_K, x1, T, tp->act.lngamma,
+                                 tp->act.dlngamma_dT);
+    } else {
+        st = pw_system_activity(s, x1, T, &tp->act);
+    }
+    if (st != PW_OK)
+        return st;
+    double x[2] = {x1, 1.0 - x1};
+    double dsum = 0.0;
+    tp->sum = 0.0;
+    for (int i = 0; i < 2; i++) {
+        if (kern->antoine[i]) {
+            st = kernel_psat(&kern->an[i], T, &tp->Ps[i], &tp->dlnPs[i]);
+            if (st != PW_OK)
+                return st;
+            tp->k[i] = x[i] * exp(tp->act.lngamma[i]) * tp->Ps[i];
+        } else {
+            st = pw_psat(&s->comp[i], T, &tp->Ps[i], &tp->dlnPs[i]);
+            if (st != PW_OK)
+                return st;
+            tp->k[i] = x[i] * exp(tp->act.lngamma[i]) * tp->Ps[i];
+        }
+        tp->sum += tp->k[i];
+        tp->Phi[i] = 1.0;
+    }
+    for (int i = 0; i < 2; i++)
+        dsum += tp->k[i] * (tp->act.dlngamma_dT[i] + tp->dlnPs[i]);
+    if (!(tp->sum > 0.0) || !isfinite(tp->sum) || !isfinite(dsum))
+        return PW_EDOM;
+    tp->f = isfinite(P) ? log(tp->sum / P) : 0.0;
+    tp->df = dsum / tp->sum;
+    return PW_OK;
+}
+
+void pw_thermo_kernel_init(const pw_system *s, pw_thermo_kernel *k)
+{
+    for (int i = 0; i < 2; i++) {
+        const pw_component *c = &s->comp[i];
+        /* Antoine with its units resolved (pw_component_prepare) */
+        k->antoine[i] = c->equation != PW_PSAT_IAPWS_IF97 && c->T_scale > 0.0 && c->P_scale > 0.0;
+        pw_kernel_antoine *a = &k->an[i];
+        a->A = c->A;
+        a->B = c->B;
+        a->C = c->C;
+        a->base = c->log == PW_LN ? 1.0 : 2.302585092994045684;
+        a->Ts = c->T_scale;
+        a->To = c->T_offset;
+        a->Ps = c->P_scale;
+        a->Po = c->P_offset;
+    }
+}
+
 static void fill_point(const tpoint *tp, double x1, double T, double P, int iters,
                        pw_eq_point *out)
 {
@@ -255,7 +341,8 @@ static pw_status pure_bracket(const pw_system *s, double P, double Ts[2], double
 /* Bubble T at P for liquid x1, starting from T_guess (NAN: from the pure Tsat). Fills tp at
  * the returned T. */
 static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T_guess,
-                               bool newton, double *T_out, tpoint *tp, int *iters)
+                               bool newton, double *T_out, tpoint *tp, int *iters,
+                               const pw_thermo_kernel *kern)
 {
     double lim_lo, lim_hi;
     eval_limits(s, &lim_lo, &lim_hi);
@@ -278,7 +365,8 @@ static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T
     *iters = 0;
     for (int it = 0; newton && it < NEWTON_MAXIT; it++) {
         (*iters)++;
-        if (eval_point(s, x1, T, P, tp) != PW_OK)
+        if ((kern ? eval_point_lean(s, kern, x1, T, P, tp) : eval_point(s, x1, T, P, tp)) !=
+            PW_OK)
             break;
         if (tp->f == 0.0) {
             *T_out = T;
@@ -339,7 +427,7 @@ static pw_status bubble_T(const pw_system *s, double P_Pa, double x1, bool newto
     tpoint tp;
     double T;
     int iters;
-    pw_status st = bubble_T_core(s, P_Pa, x1, T_guess, newton, &T, &tp, &iters);
+    pw_status st = bubble_T_core(s, P_Pa, x1, T_guess, newton, &T, &tp, &iters, NULL);
     if (st != PW_OK)
         return st;
     fill_point(&tp, x1, T, P_Pa, iters, out);
@@ -361,6 +449,48 @@ pw_status pw_bubble_T_from(const pw_system *s, double P_Pa, double x1, double T_
 pw_status pw_thermo_bubble_T_brent(const pw_system *s, double P_Pa, double x1, pw_eq_point *out)
 {
     return bubble_T(s, P_Pa, x1, false, NAN, out);
+}
+
+pw_status pw_thermo_bubble_T_lean(const pw_system *s, const pw_thermo_kernel *k, double P_Pa,
+                                  double x1, double T_guess_K, pw_bubble_lean *out)
+{
+    if (!state_ok(s) || !out)
+        return PW_EINVAL;
+    if (!isfinite(P_Pa) || P_Pa <= 0.0 || !frac_ok(x1))
+        return PW_EDOM;
+    tpoint tp;
+    int iters;
+    double T, guess = isfinite(T_guess_K) && T_guess_K > 0.0 ? T_guess_K : (double)NAN;
+    pw_status st = bubble_T_core(s, P_Pa, x1, guess, true, &T, &tp, &iters, k);
+    if (st != PW_OK)
+        return st;
+    out->T_K = T;
+    out->P_Pa = P_Pa;
+    out->y1 = tp.k[0] / tp.sum;
+    for (int i = 0; i < 2; i++)
+        out->dlnPs[i] = tp.dlnPs[i];
+    out->iterations = iters;
+    return PW_OK;
+}
+
+pw_status pw_thermo_bubble_P_lean(const pw_system *s, const pw_thermo_kernel *k, double T_K,
+                                  double x1, pw_bubble_lean *out)
+{
+    if (!state_ok(s) || !out)
+        return PW_EINVAL;
+    if (!isfinite(T_K) || T_K <= 0.0 || !frac_ok(x1))
+        return PW_EDOM;
+    tpoint tp;
+    pw_status st = eval_point_lean(s, k, x1, T_K, NAN, &tp);
+    if (st != PW_OK)
+        return st;
+    out->T_K = T_K;
+    out->P_Pa = tp.sum;
+    out->y1 = tp.k[0] / tp.sum;
+    for (int i = 0; i < 2; i++)
+        out->dlnPs[i] = tp.dlnPs[i];
+    out->iterations = 0;
+    return PW_OK;
 }
 
 pw_status pw_bubble_P(const pw_system *s, double T_K, double x1, pw_eq_point *out)
@@ -394,7 +524,7 @@ static pw_status dew_eval(dew_ctx *c, double x1, double *y1, double *dy1)
     double x2 = 1.0 - x1;
     if (c->isobaric) {
         int its = 0;
-        st = bubble_T_core(c->s, c->P, x1, c->T, true, &c->T, tp, &its);
+        st = bubble_T_core(c->s, c->P, x1, c->T, true, &c->T, tp, &its, NULL);
         c->iters += its;
     } else {
         st = eval_point(c->s, x1, c->T, NAN, tp);
@@ -527,6 +657,15 @@ typedef struct {
 static double stab_D(double x1, void *vp)
 {
     stab_ctx *c = vp;
+    if (c->s->model->d2gE_dx2) { /* the model's own scan function: no other derivatives */
+        double d2;
+        pw_status st = c->s->model->d2gE_dx2(c->s->params, c->s->T_ref_K, c->T, 1, &x1, &d2);
+        if (st != PW_OK) {
+            c->status = st;
+            return (double)NAN;
+        }
+        return 1.0 / (x1 * (1.0 - x1)) + d2;
+    }
     pw_activity a;
     pw_status st = pw_system_activity(c->s, x1, c->T, &a);
     if (st != PW_OK) {
@@ -556,7 +695,27 @@ pw_status pw_stability_min(const pw_system *s, double T_K, double *min_D, double
     const double h = 1.0 / (STAB_GRID + 1);
     int kmin = 1;
     double Dmin = INFINITY;
-    for (int k = 1; k <= STAB_GRID; k++) {
+    if (s->model->d2gE_dx2) {
+        /* The whole grid in one call (NRTL: the temperature's exponentials once); the same
+         * values as the point-by-point scan below. */
+        pw_status st = s->model->check(s->params);
+        if (st != PW_OK)
+            return st;
+        double xg[STAB_GRID], d2[STAB_GRID];
+        for (int k = 1; k <= STAB_GRID; k++)
+            xg[k - 1] = k * h;
+        st = s->model->d2gE_dx2(s->params, s->T_ref_K, T_K, STAB_GRID, xg, d2);
+        if (st != PW_OK)
+            return st;
+        for (int k = 1; k <= STAB_GRID; k++) {
+            double x1 = xg[k - 1], D = 1.0 / (x1 * (1.0 - x1)) + d2[k - 1];
+            if (D < Dmin) {
+                Dmin = D;
+                kmin = k;
+            }
+        }
+    }
+    for (int k = 1; !s->model->d2gE_dx2 && k <= STAB_GRID; k++) {
         double D = stab_D(k * h, &c);
         if (c.status != PW_OK)
             return c.status;

@@ -5,7 +5,14 @@
  *   pw-bench scale FILE                            seconds of one fit and peak resident set
  *   pw-bench basins FILE...                        every model, default multistart against
  *                                                 exhaustive_starts: one line per file and
- *                                                 model, "same" or "DIFFERENT", LM iterations */
+ *                                                 model, "same" or "DIFFERENT", LM iterations
+ *   pw-bench minima FILE...                        every model, default options: one line per
+ *                                                 file and model with the class, chosen chi2 and
+ *                                                 parameters, every minimum (chi2, starts,
+ *                                                 parameters), the stability screen's minimum
+ *                                                 D and the LM iterations, to 17 digits; two
+ *                                                 builds' outputs are compared by
+ *                                                 tests/bench/compare_minima.py */
 #include <gsl/gsl_errno.h>
 #include <math.h>
 #include <pinchwise/column.h>
@@ -126,6 +133,44 @@ static int basins_one(const pw_complib *lib, const char *path, size_t *it_a, siz
     return rc;
 }
 
+/* One line per model of the fit of path (pw-bench minima). */
+static int minima_one(const pw_complib *lib, const char *path)
+{
+    pw_dataset ds;
+    pw_error err;
+    if (pw_dataset_read(path, &ds, &err) != PW_OK)
+        return fail(&err);
+    const pw_component *c1 = pw_complib_find(lib, ds.names[0]), *c2 = pw_complib_find(lib, ds.names[1]);
+    if (!c1 || !c2) {
+        pw_dataset_free(&ds);
+        return 1;
+    }
+    const char *base = strrchr(path, '/');
+    size_t n_models;
+    const pw_model_type *const *models = pw_model_all(&n_models);
+    for (size_t k = 0; k < n_models; k++) {
+        pw_fit_options o = pw_fit_default_options();
+        pw_fit_result r;
+        pw_status st = pw_fit_run(&ds, c1, c2, models[k], &o, &r, &err);
+        printf("%s\t%s\t%d", base ? base + 1 : path, models[k]->name, (int)st);
+        if (st == PW_OK) {
+            printf("\t%d\t%.17g\t%zu", (int)r.fit_class, r.chi2, models[k]->n_params);
+            for (size_t j = 0; j < models[k]->n_params; j++)
+                printf("\t%.17g", r.sys.params[j]);
+            printf("\t%.17g\t%zu\t%zu\t%zu", r.split_min_D, r.iterations, r.n_fev, r.n_minima);
+            for (size_t i = 0; i < r.n_minima; i++) {
+                printf("\t%.17g\t%zu", r.minima[i].chi2, r.minima[i].hits);
+                for (size_t j = 0; j < models[k]->n_params; j++)
+                    printf("\t%.17g", r.minima[i].params[j]);
+            }
+            pw_fit_result_free(&r);
+        }
+        printf("\n");
+    }
+    pw_dataset_free(&ds);
+    return 0;
+}
+
 int main(int argc, char **argv)
 {
     gsl_set_error_handler_off();
@@ -161,6 +206,9 @@ int main(int argc, char **argv)
         printf("LM iterations: %zu exhaustive, %zu with known basins; %d file(s) differ\n", it_a,
                it_b, bad);
         rc = bad ? 1 : 0;
+    } else if (!strcmp(argv[1], "minima")) {
+        for (int i = 2; i < argc; i++)
+            rc |= minima_one(&lib, argv[i]);
     } else if (!strcmp(argv[1], "reflux") && argc == 9) {
         pw_fit_result r;
         if (pw_fitfile_read(argv[2], &r, &err) != PW_OK)

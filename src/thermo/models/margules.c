@@ -43,6 +43,43 @@ static pw_status eval(const double *p, double T_ref_K, double x1, double T_K, pw
     return pw_model_finish(out, x1, T_K);
 }
 
+/* ln gamma_i and d ln gamma_i/dT only: eval's expressions (pw_model_type.eval_lean). */
+static pw_status eval_lean(const double *p, double T_ref_K, double x1, double T_K,
+                           double lngamma[2], double dlngamma_dT[2])
+{
+    if (!pw_model_state_ok(x1, T_K) || !isfinite(T_ref_K) || T_ref_K <= 0.0)
+        return PW_EDOM;
+    double x2 = 1.0 - x1;
+    double s = T_ref_K / T_K;
+    double a = p[0] * s, b = p[1] * s;
+    lngamma[0] = x2 * x2 * (a + 2.0 * (b - a) * x1);
+    lngamma[1] = x1 * x1 * (b + 2.0 * (a - b) * x2);
+    for (int i = 0; i < 2; i++)
+        dlngamma_dT[i] = -lngamma[i] / T_K;
+    bool ok = isfinite(lngamma[0]) && isfinite(lngamma[1]) && isfinite(dlngamma_dT[0]) &&
+              isfinite(dlngamma_dT[1]);
+    return ok ? PW_OK : PW_EDOM;
+}
+
+/* d2(G^E/RT)/dx1^2 at n compositions (pw_model_type.d2gE_dx2). */
+static pw_status d2gE(const double *p, double T_ref_K, double T_K, size_t n, const double *x,
+                      double *out)
+{
+    if (!pw_model_state_ok(0.5, T_K) || !isfinite(T_ref_K) || T_ref_K <= 0.0)
+        return PW_EDOM;
+    double s = T_ref_K / T_K;
+    double a = p[0] * s, b = p[1] * s;
+    for (size_t k = 0; k < n; k++) {
+        double x1 = x[k];
+        if (!pw_model_state_ok(x1, T_K))
+            return PW_EDOM;
+        out[k] = 2.0 * b * (1.0 - 3.0 * x1) + 2.0 * a * (3.0 * x1 - 2.0);
+        if (!isfinite(out[k]))
+            return PW_EDOM;
+    }
+    return PW_OK;
+}
+
 const pw_model_type pw_model_margules = {
     .name = "margules",
     .title = "Two-parameter Margules (Margules 1895), A_ij(T) = A_ij T_ref/T",
@@ -54,4 +91,6 @@ const pw_model_type pw_model_margules = {
     .check = check,
     .eval = eval,
     .start_range = starts,
+    .eval_lean = eval_lean,
+    .d2gE_dx2 = d2gE,
 };

@@ -67,6 +67,62 @@ static pw_status eval(const double *p, double T_ref_K, double x1, double T_K, pw
     return pw_model_finish(out, x1, T_K);
 }
 
+/* ln gamma_i and d ln gamma_i/dT only: eval's expressions, in eval's order. */
+static pw_status eval_lean(const double *p, double T_ref_K, double x1, double T_K,
+                           double lngamma[2], double dlngamma_dT[2])
+{
+    (void)T_ref_K;
+    if (!pw_model_state_ok(x1, T_K))
+        return PW_EDOM;
+    double x2 = 1.0 - x1;
+    double al = p[2];
+    double t12 = p[0] / T_K, t21 = p[1] / T_K;
+    double G12 = exp(-al * t12), G21 = exp(-al * t21);
+    if (!isfinite(G12) || !isfinite(G21) || !(G12 > 0.0) || !(G21 > 0.0))
+        return PW_EDOM;
+    double D1 = x1 + x2 * G21, D2 = x2 + x1 * G12;
+    double D1s = D1 * D1, D2s = D2 * D2, D1c = D1s * D1, D2c = D2s * D2;
+    double xx1 = x1 * x1, xx2 = x2 * x2;
+    lngamma[0] = xx2 * (t21 * G21 * G21 / D1s + t12 * G12 / D2s);
+    lngamma[1] = xx1 * (t12 * G12 * G12 / D2s + t21 * G21 / D1s);
+    double g1_t21 = xx2 * G21 * G21 / D1s, g1_G21 = xx2 * 2.0 * t21 * G21 * x1 / D1c;
+    double g1_t12 = xx2 * G12 / D2s, g1_G12 = xx2 * t12 * (x2 - G12 * x1) / D2c;
+    double g2_t12 = xx1 * G12 * G12 / D2s, g2_G12 = xx1 * 2.0 * t12 * G12 * x2 / D2c;
+    double g2_t21 = xx1 * G21 / D1s, g2_G21 = xx1 * t21 * (x1 - G21 * x2) / D1c;
+    double d1_t12 = g1_t12 - al * G12 * g1_G12, d1_t21 = g1_t21 - al * G21 * g1_G21;
+    double d2_t12 = g2_t12 - al * G12 * g2_G12, d2_t21 = g2_t21 - al * G21 * g2_G21;
+    dlngamma_dT[0] = -(t12 * d1_t12 + t21 * d1_t21) / T_K;
+    dlngamma_dT[1] = -(t12 * d2_t12 + t21 * d2_t21) / T_K;
+    bool ok = isfinite(lngamma[0]) && isfinite(lngamma[1]) && isfinite(dlngamma_dT[0]) &&
+              isfinite(dlngamma_dT[1]);
+    return ok ? PW_OK : PW_EDOM;
+}
+
+/* d2(G^E/RT)/dx1^2 at n compositions, one T: G12, G21 once. */
+static pw_status d2gE(const double *p, double T_ref_K, double T_K, size_t n, const double *x,
+                      double *out)
+{
+    (void)T_ref_K;
+    if (!pw_model_state_ok(0.5, T_K))
+        return PW_EDOM;
+    double al = p[2];
+    double t12 = p[0] / T_K, t21 = p[1] / T_K;
+    double G12 = exp(-al * t12), G21 = exp(-al * t21);
+    if (!isfinite(G12) || !isfinite(G21) || !(G12 > 0.0) || !(G21 > 0.0))
+        return PW_EDOM;
+    for (size_t k = 0; k < n; k++) {
+        double x1 = x[k], x2 = 1.0 - x1;
+        if (!pw_model_state_ok(x1, T_K))
+            return PW_EDOM;
+        double D1 = x1 + x2 * G21, D2 = x2 + x1 * G12;
+        double D1s = D1 * D1, D2s = D2 * D2, D1c = D1s * D1, D2c = D2s * D2;
+        out[k] = -2.0 * t21 * G21 * G21 / D1c - 2.0 * t12 * G12 * G12 / D2c;
+        if (!isfinite(out[k]))
+            return PW_EDOM;
+    }
+    return PW_OK;
+}
+
 const pw_model_type pw_model_nrtl = {
     .name = "nrtl",
     .title = "NRTL (Renon & Prausnitz 1968), tau_ij = dg_ij/T, one alpha",
@@ -79,4 +135,6 @@ const pw_model_type pw_model_nrtl = {
     .eval = eval,
     .start_range = starts,
     .param_aliases = aliases,
+    .eval_lean = eval_lean,
+    .d2gE_dx2 = d2gE,
 };

@@ -64,6 +64,56 @@ static pw_status eval(const double *p, double T_ref_K, double x1, double T_K, pw
     return pw_model_finish(out, x1, T_K);
 }
 
+/* ln gamma_i and d ln gamma_i/dT only: eval's expressions (pw_model_type.eval_lean). */
+static pw_status eval_lean(const double *p, double T_ref_K, double x1, double T_K,
+                           double lngamma[2], double dlngamma_dT[2])
+{
+    if (!pw_model_state_ok(x1, T_K) || !isfinite(T_ref_K) || T_ref_K <= 0.0)
+        return PW_EDOM;
+    if (p[0] == 0.0 && p[1] == 0.0) { /* ideal solution */
+        lngamma[0] = lngamma[1] = dlngamma_dT[0] = dlngamma_dT[1] = 0.0;
+        return PW_OK;
+    }
+    double x2 = 1.0 - x1;
+    double s = T_ref_K / T_K;
+    double a = p[0] * s, b = p[1] * s;
+    double D = a * x1 + b * x2;
+    double z1 = b * x2 / D, z2 = a * x1 / D;
+    lngamma[0] = a * z1 * z1;
+    lngamma[1] = b * z2 * z2;
+    for (int i = 0; i < 2; i++)
+        dlngamma_dT[i] = -lngamma[i] / T_K;
+    bool ok = isfinite(lngamma[0]) && isfinite(lngamma[1]) && isfinite(dlngamma_dT[0]) &&
+              isfinite(dlngamma_dT[1]);
+    return ok ? PW_OK : PW_EDOM;
+}
+
+/* d2(G^E/RT)/dx1^2 at n compositions (pw_model_type.d2gE_dx2). */
+static pw_status d2gE(const double *p, double T_ref_K, double T_K, size_t n, const double *x,
+                      double *out)
+{
+    if (!pw_model_state_ok(0.5, T_K) || !isfinite(T_ref_K) || T_ref_K <= 0.0)
+        return PW_EDOM;
+    bool ideal = p[0] == 0.0 && p[1] == 0.0;
+    double s = T_ref_K / T_K;
+    double a = p[0] * s, b = p[1] * s;
+    for (size_t k = 0; k < n; k++) {
+        double x1 = x[k], x2 = 1.0 - x1;
+        if (!pw_model_state_ok(x1, T_K))
+            return PW_EDOM;
+        if (ideal) {
+            out[k] = 0.0;
+            continue;
+        }
+        double D = a * x1 + b * x2;
+        double D3 = D * D * D;
+        out[k] = -2.0 * a * a * b * b / D3;
+        if (!isfinite(out[k]))
+            return PW_EDOM;
+    }
+    return PW_OK;
+}
+
 const pw_model_type pw_model_vanlaar = {
     .name = "vanlaar",
     .title = "van Laar (van Laar 1910), A_ij(T) = A_ij T_ref/T",
@@ -76,4 +126,6 @@ const pw_model_type pw_model_vanlaar = {
     .eval = eval,
     .start_range = starts,
     .starts_same_sign = true,
+    .eval_lean = eval_lean,
+    .d2gE_dx2 = d2gE,
 };

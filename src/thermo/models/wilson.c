@@ -74,6 +74,57 @@ static pw_status eval(const double *p, double T_ref_K, double x1, double T_K, pw
     return pw_model_finish(out, x1, T_K);
 }
 
+/* ln gamma_i and d ln gamma_i/dT only: eval's expressions (pw_model_type.eval_lean). */
+static pw_status eval_lean(const double *p, double T_ref_K, double x1, double T_K,
+                           double lngamma[2], double dlngamma_dT[2])
+{
+    (void)T_ref_K;
+    if (!pw_model_state_ok(x1, T_K))
+        return PW_EDOM;
+    double x2 = 1.0 - x1;
+    double r = p[2];
+    double L12 = r * exp(-p[0] / T_K), L21 = exp(-p[1] / T_K) / r;
+    if (!isfinite(L12) || !isfinite(L21) || !(L12 > 0.0) || !(L21 > 0.0))
+        return PW_EDOM;
+    double S1 = x1 + L12 * x2, S2 = x2 + L21 * x1;
+    double C = L12 / S1 - L21 / S2;
+    lngamma[0] = -log(S1) + x2 * C;
+    lngamma[1] = -log(S2) - x1 * C;
+    double g1_L12 = -L12 * x2 * x2 / (S1 * S1), g1_L21 = -x2 * x2 / (S2 * S2);
+    double g2_L12 = -x1 * x1 / (S1 * S1), g2_L21 = -L21 * x1 * x1 / (S2 * S2);
+    double L12_T = L12 * p[0] / (T_K * T_K), L21_T = L21 * p[1] / (T_K * T_K);
+    dlngamma_dT[0] = g1_L12 * L12_T + g1_L21 * L21_T;
+    dlngamma_dT[1] = g2_L12 * L12_T + g2_L21 * L21_T;
+    bool ok = isfinite(lngamma[0]) && isfinite(lngamma[1]) && isfinite(dlngamma_dT[0]) &&
+              isfinite(dlngamma_dT[1]);
+    return ok ? PW_OK : PW_EDOM;
+}
+
+/* d2(G^E/RT)/dx1^2 at n compositions (pw_model_type.d2gE_dx2): L12, L21 once. */
+static pw_status d2gE(const double *p, double T_ref_K, double T_K, size_t n, const double *x,
+                      double *out)
+{
+    (void)T_ref_K;
+    if (!pw_model_state_ok(0.5, T_K))
+        return PW_EDOM;
+    double r = p[2];
+    double L12 = r * exp(-p[0] / T_K), L21 = exp(-p[1] / T_K) / r;
+    if (!isfinite(L12) || !isfinite(L21) || !(L12 > 0.0) || !(L21 > 0.0))
+        return PW_EDOM;
+    double v = 1.0 - L12, u = L21 - 1.0;
+    for (size_t k = 0; k < n; k++) {
+        double x1 = x[k], x2 = 1.0 - x1;
+        if (!pw_model_state_ok(x1, T_K))
+            return PW_EDOM;
+        double S1 = x1 + L12 * x2, S2 = x2 + L21 * x1;
+        out[k] = -2.0 * v / S1 + x1 * v * v / (S1 * S1) + 2.0 * u / S2
+                 + x2 * u * u / (S2 * S2);
+        if (!isfinite(out[k]))
+            return PW_EDOM;
+    }
+    return PW_OK;
+}
+
 const pw_model_type pw_model_wilson = {
     .name = "wilson",
     .title = "Wilson (Wilson 1964), L12 = V2_V1 exp(-dlambda12/T), L21 = exp(-dlambda21/T)/V2_V1",
@@ -87,4 +138,6 @@ const pw_model_type pw_model_wilson = {
     .start_range = starts,
     .param_aliases = aliases,
     .from_components = from_components,
+    .eval_lean = eval_lean,
+    .d2gE_dx2 = d2gE,
 };
