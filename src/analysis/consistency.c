@@ -103,9 +103,11 @@ static void verdict(const cs_data *d, pw_consistency_result *r)
         r->primary[i] = primary;
         n_gd += primary && i != PW_CTEST_ENDPOINT;
         /* the value with its unit: % for the area and Kojima tests, a mole fraction for the point
-         * test, K or % of P_sat for the pure-component end points */
+         * test, a multiple of the stated uncertainties for the scatter test, K or % of P_sat for
+         * the pure-component end points */
         double sc = 1.0;
         const char *u = i == PW_CTEST_POINT ? " (mole fraction)"
+                        : i == PW_CTEST_SCATTER ? " x stated"
                         : i == PW_CTEST_HERINGTON ? " % points"
                         : i == PW_CTEST_ENDPOINT ? (r->kind == PW_DATA_ISOTHERMAL ? " % of P_sat" : " K")
                                                  : " %";

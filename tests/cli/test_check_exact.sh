@@ -68,6 +68,9 @@ t = {t["name"]: t for t in d["tests"]}
 assert t["point_scatter"]["pass"] is False and t["point_scatter"]["primary"] is True
 assert t["legendre_point"]["limit"] < 0.01
 assert d["uncertainties"]["sigma_T_K"] == 0.05
+# the reason quotes the scatter as a multiple of the stated uncertainties, not as a percentage
+r = [x for x in d["reasons"] if x.startswith("point_scatter failed")][0]
+assert " x stated, limit " in r and "%" not in r.split(":")[0], r
 PY
 # ... passes the classic limit without them (the reason to state them) ...
 "$pw" check mw_off_nosigma.csv --components water.csv --json > out.json 2>err.txt || fail "check: $(cat err.txt)"
