@@ -75,8 +75,8 @@ pw_status cli_targets_to_mole(double *xd, double *xb, double *zf, const pw_basis
     return PW_OK;
 }
 
-pw_status cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *text,
-                               size_t *chosen, pw_error *err)
+pw_status cli_apply_minimum(const char *cmd, const char *fit_path, pw_fit_result *fit,
+                            const char *text, size_t *chosen, pw_error *err)
 {
     *chosen = 0;
     if (!text)
@@ -93,6 +93,8 @@ pw_status cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *tex
     if (k <= fit->n_minima)
         was = !memcmp(fit->minima[k - 1].params, fit->sys.params, sizeof fit->sys.params);
     pw_status st = pw_fit_use_minimum(fit, k, err);
+    if (st == PW_EINVAL && err && fit_path) /* a minimum the file does not record */
+        snprintf(err->file, sizeof err->file, "%s", fit_path);
     if (st != PW_OK)
         return st;
     *chosen = k;
@@ -100,4 +102,18 @@ pw_status cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *tex
         cli_warnf(cmd, "using minimum %zu of %zu (chi-square %.6g), not the one the fit chose%s",
                      k, fit->n_minima, fit->chi2, fit->split ? "; it predicts a liquid split" : "");
     return PW_OK;
+}
+
+pw_status cli_read_fit_at(const char *cmd, const char *path, const char *components,
+                          const char *minimum_text, pw_fit_result *fit, size_t *chosen,
+                          pw_error *err)
+{
+    *chosen = 0;
+    pw_status st = cli_read_fit(cmd, path, components, fit, err);
+    if (st != PW_OK)
+        return st;
+    st = cli_apply_minimum(cmd, path, fit, minimum_text, chosen, err);
+    if (st != PW_OK)
+        pw_fit_result_free(fit);
+    return st;
 }

@@ -32,7 +32,13 @@ pw_status cli_composition_to_mole(const char *opt, double *x, pw_basis b, const 
 
 /* --minimum N on a command that reads a fit file: makes the fit's N-th distinct minimum (1 = the
  * lowest chi-square) its parameters, covariance recomputed (pw_fit_use_minimum), and says so on
- * stderr. text NULL: nothing. *chosen is N, or 0 when not given. */
-pw_status cli_apply_minimum(const char *cmd, pw_fit_result *fit, const char *text,
-                               size_t *chosen, pw_error *err);
+ * stderr. text NULL: nothing. *chosen is N, or 0 when not given. A minimum the fit does not
+ * record is refused naming fit_path, the file the user gave. */
+pw_status cli_apply_minimum(const char *cmd, const char *fit_path, pw_fit_result *fit,
+                            const char *text, size_t *chosen, pw_error *err);
+
+/* cli_read_fit, then cli_apply_minimum with minimum_text (NULL: none); frees the fit on failure. */
+pw_status cli_read_fit_at(const char *cmd, const char *path, const char *components,
+                          const char *minimum_text, pw_fit_result *fit, size_t *chosen,
+                          pw_error *err);
 #endif

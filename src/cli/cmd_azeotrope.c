@@ -274,7 +274,7 @@ pw_status cli_azeotrope(int argc, char **argv)
     if (st != PW_OK)
         return cli_fail(CMD, &err);
     size_t minimum = 0;
-    if (cli_apply_minimum(CMD, &fit, a.minimum, &minimum, &err) != PW_OK) {
+    if (cli_apply_minimum(CMD, a.fit_path, &fit, a.minimum, &minimum, &err) != PW_OK) {
         pw_fit_result_free(&fit);
         return cli_fail(CMD, &err);
     }

@@ -16,7 +16,7 @@
 
 typedef struct args {
     bool help; /* --help was asked for: nothing else is set */
-    const char *fit_path, *components;
+    const char *fit_path, *components, *minimum;
     pw_decanter_spec spec;
     pw_column_options opt;
     bool have_P, have_z, have_rich, have_lean, json;
@@ -52,7 +52,7 @@ static const cli_option decanter_options[] = {
 
 static const cli_option *const decanter_blocks[] = {
     cli_block_pressure, cli_block_feed, decanter_options, cli_block_uncertainty,
-    cli_block_components, cli_block_show_in, cli_block_json, NULL,
+    cli_block_components, cli_block_minimum, cli_block_show_in, cli_block_json, NULL,
 };
 
 static const cli_spec decanter_spec = {
@@ -83,6 +83,7 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
         return PW_OK;
     a->json = cli_has(&p, "--json");
     a->components = cli_text(&p, "--components");
+    a->minimum = cli_text(&p, "--minimum");
     a->units = cli_show_in_get(&p);
     cli_azeo_uncert_from(&p, &a->unc);
     const cli_value *v;
@@ -139,7 +140,8 @@ pw_status cli_decanter(int argc, char **argv)
     pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
-    pw_status st = cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
+    size_t minimum = 0;
+    pw_status st = cli_read_fit_at(CMD, a.fit_path, a.components, a.minimum, &fit, &minimum, &err);
     if (st != PW_OK)
         return cli_fail(CMD, &err);
     /* compositions given by mass: mole fractions with the fit file's molar masses */
@@ -173,6 +175,8 @@ pw_status cli_decanter(int argc, char **argv)
     }
     if (a.json) {
         json_t *doc = pw_decanter_doc(&r, &a.spec);
+        if (doc && minimum) /* the minimum used, as azeotrope records it */
+            json_object_set_new(doc, "minimum", json_integer((json_int_t)minimum));
         if (unc)
             pw_decanter_unc_doc(doc, &ures, a.unc.opt.seed);
         rc = cli_print_json(doc);

@@ -3,6 +3,7 @@
  * Parses, calls src/thermo/lle.c and prints; computes nothing itself. */
 #include "analysis_common.h"
 #include "cli.h"
+#include "cli_units.h"
 #include "cli_options.h"
 
 #include <math.h>
@@ -24,7 +25,7 @@ static const cli_option lle_options[] = {
 };
 
 static const cli_option *const lle_blocks[] = {
-    lle_options, cli_block_components, cli_block_show_in, cli_block_json, NULL,
+    lle_options, cli_block_components, cli_block_minimum, cli_block_show_in, cli_block_json, NULL,
 };
 
 static const cli_spec lle_spec = {
@@ -42,7 +43,7 @@ static const cli_spec lle_spec = {
 
 typedef struct args {
     bool help; /* --help was asked for: nothing else is set */
-    const char *fit_path, *components, *scan_text;
+    const char *fit_path, *components, *scan_text, *minimum;
     double T, from, to;
     size_t n;
     bool have_T, json;
@@ -86,6 +87,7 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
         return PW_OK;
     a->json = cli_has(&p, "--json");
     a->components = cli_text(&p, "--components");
+    a->minimum = cli_text(&p, "--minimum");
     a->units = cli_show_in_get(&p);
     a->scan_text = cli_text(&p, "--scan");
     const cli_value *T = cli_get(&p, "--temperature");
@@ -113,7 +115,8 @@ pw_status cli_lle(int argc, char **argv)
     pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
-    pw_status st = cli_read_fit(CMD, a.fit_path, a.components, &fit, &err);
+    size_t minimum = 0;
+    pw_status st = cli_read_fit_at(CMD, a.fit_path, a.components, a.minimum, &fit, &minimum, &err);
     if (st != PW_OK)
         return cli_fail(CMD, &err);
     const pw_system *s = &fit.sys;
@@ -139,7 +142,10 @@ pw_status cli_lle(int argc, char **argv)
     }
     bool can = pw_model_can_split(s->model);
     if (a.json) {
-        rc = cli_print_json(pw_lle_doc(s, a.T, &r, pts, a.n, crit, n_crit));
+        json_t *doc = pw_lle_doc(s, a.T, &r, pts, a.n, crit, n_crit);
+        if (doc && minimum) /* the minimum used, as azeotrope records it */
+            json_object_set_new(doc, "minimum", json_integer((json_int_t)minimum));
+        rc = cli_print_json(doc);
     } else {
         const pw_display_units *u = &a.units;
         char b1[48];

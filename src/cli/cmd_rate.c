@@ -14,7 +14,7 @@
 
 typedef struct rate_args {
     bool help; /* --help was asked for: nothing else is set */
-    const char *fit_path, *components;
+    const char *fit_path, *components, *minimum;
     double P_Pa;
     pw_rate_spec spec;
     bool json, energy, have_N, have_K, have_R, have_D;
@@ -38,7 +38,7 @@ static const cli_option rate_options[] = {
 };
 
 static const cli_option *const rate_blocks[] = {
-    cli_block_pressure, cli_block_feed, rate_options, cli_block_components,
+    cli_block_pressure, cli_block_feed, rate_options, cli_block_components, cli_block_minimum,
     cli_block_show_in, cli_block_json, NULL,
 };
 
@@ -69,6 +69,7 @@ static pw_status parse(int argc, char **argv, rate_args *a, pw_error *err)
     a->json = cli_has(&p, "--json");
     a->energy = cli_has(&p, "--energy");
     a->components = cli_text(&p, "--components");
+    a->minimum = cli_text(&p, "--minimum");
     a->units = cli_show_in_get(&p);
     cli_targets_get(&p, &a->tg, NULL);
     const cli_value *v;
@@ -108,7 +109,8 @@ pw_status cli_rate(int argc, char **argv)
     pw_status rc = PW_OK;
     pw_fit_result fit;
     memset(&fit, 0, sizeof fit);
-    if (cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
+    size_t minimum = 0;
+    if (cli_read_fit_at(CMD, a.fit_path, a.components, a.minimum, &fit, &minimum, &err) != PW_OK)
         return cli_fail(CMD, &err);
     /* --zf given by mass: a mole fraction with the fit file's molar masses */
     if (cli_composition_to_mole("--zf", &a.spec.zf, a.tg.basis[2], &fit.sys, &err) != PW_OK) {
@@ -145,7 +147,10 @@ pw_status cli_rate(int argc, char **argv)
         }
     }
     if (a.json) {
-        rc = cli_print_json(pw_rate_doc(&fit.sys, a.P_Pa, &a.spec, a.energy, &r, &en));
+        json_t *doc = pw_rate_doc(&fit.sys, a.P_Pa, &a.spec, a.energy, &r, &en);
+        if (doc && minimum) /* the minimum used, as azeotrope records it */
+            json_object_set_new(doc, "minimum", json_integer((json_int_t)minimum));
+        rc = cli_print_json(doc);
     } else {
         char b[48];
         printf("given column at %s (%s / %s): %d stages, feed on stage %d, R %.4g, "

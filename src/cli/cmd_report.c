@@ -241,7 +241,7 @@ pw_status cli_report(int argc, char **argv)
         return cli_fail("report", &err);
     }
     size_t minimum = 0;
-    if (cli_apply_minimum("report", &fit, a.minimum, &minimum, &err) != PW_OK) {
+    if (cli_apply_minimum("report", a.fit, &fit, a.minimum, &minimum, &err) != PW_OK) {
         pw_fit_result_free(&fit);
         pw_outset_free(set);
         return cli_fail("report", &err);

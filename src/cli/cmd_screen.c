@@ -190,7 +190,7 @@ pw_status cli_screen(int argc, char **argv)
     if (cli_read_fit(CMD, a.fit_path, a.components, &fit, &err) != PW_OK)
         return cli_fail(CMD, &err);
     size_t minimum = 0;
-    if (cli_apply_minimum(CMD, &fit, a.minimum, &minimum, &err) != PW_OK ||
+    if (cli_apply_minimum(CMD, a.fit_path, &fit, a.minimum, &minimum, &err) != PW_OK ||
         cli_targets_to_mole(&a.xd, &a.xb, &a.zf, a.basis, &fit.sys, &err) != PW_OK ||
         check_targets(&a, &err) != 0) {
         pw_fit_result_free(&fit);

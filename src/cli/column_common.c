@@ -116,7 +116,7 @@ pw_status cli_column_compute(const cli_column_args *a, cli_column_run *run, pw_e
 {
     memset(run, 0, sizeof *run);
     pw_status st = cli_read_fit("reflux", a->fit_path, a->components, &run->fit, err);
-    if (st == PW_OK && (st = cli_apply_minimum("reflux", &run->fit, a->minimum, &run->minimum,
+    if (st == PW_OK && (st = cli_apply_minimum("reflux", a->fit_path, &run->fit, a->minimum, &run->minimum,
                                                   err)) != PW_OK)
         pw_fit_result_free(&run->fit);
     if (st != PW_OK)

@@ -18,9 +18,9 @@ declare -A had=(
   [reflux]="--pressure --xd --xb --zf --q --factors --operating-factor --energy --uncertainty --samples --seed --compare --components --minimum --exit-verdict --json"
   [screen]="--pressure --xd --xb --zf --q --sweep --swing-range --uncertainty --samples --seed --energy --components --minimum --exit-verdict --json"
   [report]="--out --pressure --xd --xb --zf --q --factors --operating-factor --energy --uncertainty --samples --seed --svg --csv --components --minimum --compare --force --json"
-  [lle]="--temperature --scan --components --json"
-  [decanter]="--pressure --zf --x1-rich --x1-lean --q --factors --components --json"
-  [rate]="--pressure --stages --feed-stage --reflux --zf --distillate --q --energy --components --json"
+  [lle]="--temperature --scan --components --minimum --json"
+  [decanter]="--pressure --zf --x1-rich --x1-lean --q --factors --components --minimum --json"
+  [rate]="--pressure --stages --feed-stage --reflux --zf --distillate --q --energy --components --minimum --json"
   [study]="--pressure --xd --xb --zf --q --model --out-dir --factors --uncertainty --samples --seed --force --components --exit-verdict --json"
 )
 

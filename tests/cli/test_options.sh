@@ -93,6 +93,18 @@ done
 "$pw" report mt.json --out mrep.html --minimum 1 >/dev/null 2>&1 || fail "report --minimum 1"
 "$pw" reflux mt.json --pressure 40kPa --xd 0.9 --xb 0.1 --zf 0.5 --minimum 3 2> e.txt >/dev/null && fail "--minimum 3 accepted"
 grep -q "records 2 distinct minima" e.txt || fail "message: $(cat e.txt)"
+grep -q "mt.json" e.txt || fail "--minimum 3: the message does not name the fit file: $(cat e.txt)"
+# lle, decanter and rate read a fit too: --minimum there, recorded in their JSON
+for c in "lle mt.json --temperature 50C" "rate mt.json --pressure 40kPa --stages 12 --feed-stage 6 --reflux 3 --zf 0.5 --distillate 0.5"; do
+  "$pw" $c --minimum 1 --json > mm.json 2>/dev/null || fail "$c --minimum 1"
+  python3 -c 'import json; assert json.load(open("mm.json"))["minimum"] == 1' || fail "$c: minimum not recorded"
+done
+"$pw" fit "$src/datasets/butanol_water_1atm.csv" --model nrtl --out bw.json >/dev/null 2>&1 || fail "butanol/water fit"
+"$pw" decanter bw.json --pressure 1atm --zf 0.1 --x1-rich 0.99 --x1-lean 0.001 --minimum 1 --json > mm.json 2>/dev/null \
+  || fail "decanter --minimum 1"
+python3 -c 'import json; assert json.load(open("mm.json"))["minimum"] == 1' || fail "decanter: minimum not recorded"
+"$pw" lle mt.json --temperature 50C --minimum 3 2> e.txt >/dev/null && fail "lle --minimum 3 accepted"
+grep -q "mt.json" e.txt || fail "lle --minimum 3: message: $(cat e.txt)"
 
 # --exit-verdict: a negative verdict becomes status 7 for scripts; without it, status 0.
 "$pw" reflux ew.json --pressure 1atm --xd 0.95 --xb 0.05 --zf 0.3 --json > inf.json 2>/dev/null || fail "infeasible split is a result"
