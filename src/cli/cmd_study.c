@@ -392,11 +392,17 @@ pw_status cli_study(int argc, char **argv)
                    c->r_min, c->pinch.kind == PW_PINCH_FEED ? "feed" : "tangent",
                    c->pinch.section == PW_SECTION_RECTIFYING ? "rectifying" : "stripping",
                    c->pinch.x);
-            printf("  stages                %.3f at total reflux;", c->n_min);
-            for (size_t i = 0; i < c->n_design; i++)
-                printf(" %.3f at %.3g R_min (feed stage %d)%s", c->design[i].stages,
-                       c->design[i].factor, c->design[i].feed_stage,
-                       i + 1 < c->n_design ? "," : "");
+            /* the design rows are pw_reflux_design's (run.design), as reflux prints them */
+            const pw_design_table *dt = &run.design;
+            printf("  stages                %.3f at total reflux", c->n_min);
+            for (size_t i = 0; i < dt->n; i++) {
+                const pw_design_case *d = &dt->row[i];
+                if (d->reachable)
+                    printf("; %.3f at %.3g R_min (feed stage %d)", d->stages, d->factor,
+                           d->feed_stage);
+                else
+                    printf("; none at %.3g R_min (%s)", d->factor, pw_strerror(d->why));
+            }
             printf("\n");
         }
         if (ra.unc.on || ra.n_compare)

@@ -38,6 +38,17 @@ assert d["reflux"]["design"] == r["design"]
 assert [z["x1"] for z in d["azeotropes_at_data_condition"]] == [z["x1"] for z in a["azeotropes"]]
 assert d["consistent"] == c["consistent"]
 PY
+# the text's stages line lists the design rows of the same run (1.2, 1.3, 1.5 R_min by default)
+"$pw" study "$D" --pressure 1atm --xd 0.8 --xb 0.02 --zf 0.2 --out-dir st > st.txt 2>/dev/null || fail "study text"
+python3 - <<'PY' || fail "study text without the design rows: $(grep stages st.txt)"
+import json, re
+r = json.load(open("r.json"))
+line = [l for l in open("st.txt") if l.strip().startswith("stages")][0]
+got = [(float(f), float(n)) for n, f in re.findall(r"([0-9.]+) at ([0-9.]+) R_min", line)]
+want = [(row["factor"], round(row["stages"], 3)) for row in r["design"]]
+assert len(got) == len(want) == 3, (line, want)
+assert all(abs(g[0] - w[0]) < 1e-9 and abs(g[1] - w[1]) < 6e-4 for g, w in zip(got, want)), (got, want)
+PY
 grep -q 'id="answers"' s/ethanol_water_1atm.report.html || fail "report without the answers block"
 grep -q "Models fitted to these data, side by side" s/ethanol_water_1atm.report.html || fail "report without the other models"
 
