@@ -49,7 +49,9 @@ json_t *pw_reflux_doc(const pw_column_result *c, double P_Pa, const pw_column_sp
     json_object_set_new(o, "feasible", json_boolean(c->feasible));
     json_object_set_new(o, "reason", c->feasible ? json_null() : json_string(c->reason));
     json_object_set_new(o, "r_min", c->feasible ? pw_json_num(c->r_min) : json_null());
-    if (c->feasible && !c->reflux_limited) {
+    /* the contract: a pinch object whenever feasible (also when a flow, not a pinch, limits:
+     * "limit" then says which and what the point is) */
+    if (c->feasible) {
         json_t *p = json_object();
         json_object_set_new(p, "kind", json_string(pinch_kind(c->pinch.kind)));
         json_object_set_new(p, "section", json_string(section(c->pinch.section)));
@@ -67,11 +69,15 @@ json_t *pw_reflux_doc(const pw_column_result *c, double P_Pa, const pw_column_sp
                         : c->reflux_limited
                             ? json_string("no reflux needed: at R = 0 the operating lines clear the "
                                           "equilibrium curve (a stripping column with the feed on "
-                                          "top makes the distillate); no pinch limits")
+                                          "top makes the distillate); no pinch limits: pinch is where "
+                                          "the operating lines come closest to the curve, which "
+                                          "they would touch only at a negative reflux")
                         : c->boilup_limited && c->pinch.kind == PW_PINCH_FEED
                             ? json_string("zero boil-up: the feed's vapor is all the rectifying "
-                                          "section gets; the operating lines meet on the q-line "
-                                          "at xb")
+                                          "section gets (R_min = (1 - q) F / D - 1); the "
+                                          "operating lines meet on the q-line at xb, below the "
+                                          "curve, and pinch is the reboiler's point (xb, y*(xb)) "
+                                          "where the vertical stripping line meets the curve")
                             : json_string("pinch"));
     json_object_set_new(o, "boilup_min", c->feasible ? pw_json_num(c->s_min) : json_null());
     json_object_set_new(o, "r_min_feed_point_only", c->feasible ? pw_json_num(c->r_feed) : json_null());
