@@ -92,6 +92,23 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *spec,
 pw_status pw_column_hetero_block(const pw_system *s, double P_Pa, double x_a, double x_b,
                                  pw_three_phase *tp, bool *blocked, char *reason, size_t len);
 
+/* The single column's wider check: blocked as pw_column_hetero_block (its reason kept), and also
+ * when the products' interval [min, max] of x_a, x_b overlaps the open two-liquid interval
+ * (x_I, x_II) at P, where the single-liquid column does not apply (docs/heterogeneous.md, "The
+ * single column and the two-liquid region"); reason names the layers and the decanter scheme. */
+pw_status pw_column_two_liquid_block(const pw_system *s, double P_Pa, double x_a, double x_b,
+                                     pw_three_phase *tp, bool *blocked, char *reason, size_t len);
+
+/* The single column of a fitted system at P, either direction: refused (PW_OK, feasible false,
+ * reason from pw_column_two_liquid_block) for a model that splits when the targets reach into the
+ * two-liquid region, else pw_column_solve_any on the system's bubble-point curve. Every command
+ * that solves the single column calls this. tp_out (may be NULL) receives the three-phase state
+ * (exists false when none or the model cannot split); *hetero_az (may be NULL) is true when the
+ * refusal is a heterogeneous azeotrope between the targets. */
+pw_status pw_column_solve_system(const pw_system *s, double P_Pa, const pw_column_spec *spec,
+                                 const pw_column_options *opt, pw_column_result *out,
+                                 pw_three_phase *tp_out, bool *hetero_az);
+
 #ifdef __cplusplus
 }
 #endif

@@ -147,6 +147,13 @@ pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double 
                          const pw_rate_spec *spec, pw_rate_result *out, double *Q_C, double *Q_R,
                          size_t *n_roots, pw_error *err);
 
+/* The checks every rating ends with (pw_rate_cmo and pw_rate_energy call it): a stage liquid
+ * inside the two-liquid region of a model that splits at P is refused (PW_EINFEASIBLE, the layers
+ * and the decanter scheme named), and a feed-stage mismatch above 1e-8 is no steady state
+ * (PW_ENOCONV with the reason). On failure out is freed and err says why, prefixed with what. */
+pw_status pw_rate_verify(const pw_system *sys, double P_Pa, pw_rate_result *out,
+                         const char *what, pw_error *err);
+
 void pw_rate_result_free(pw_rate_result *r);
 
 #ifdef __cplusplus

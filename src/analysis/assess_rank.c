@@ -2,6 +2,7 @@
 #include <pinchwise/assess.h>
 #include <pinchwise/column_direction.h>
 #include <pinchwise/curve.h>
+#include <pinchwise/decanter.h>
 
 #include <math.h>
 #include <stdlib.h>
@@ -114,12 +115,9 @@ pw_status pw_rank_fits(const pw_fit_result *const *fits, size_t n, pw_ranking *o
 static void solve_column(pw_rank_row *r, const pw_rank_column *col)
 {
     r->column = true;
-    pw_system_curve sc;
-    r->col_status = pw_system_curve_init(&sc, &r->fit->sys, col->P_Pa);
-    if (r->col_status != PW_OK)
-        return;
-    pw_curve cv = pw_system_curve_bind(&sc);
-    r->col_status = pw_column_solve_any(&cv, &col->spec, NULL, &r->col); /* either direction */
+    /* either direction; refused inside the two-liquid region */
+    r->col_status = pw_column_solve_system(&r->fit->sys, col->P_Pa, &col->spec, NULL, &r->col,
+                                           NULL, NULL);
 }
 
 pw_status pw_rank_assess(const pw_fit_result *const *fits, size_t n, const pw_rank_column *col,

@@ -1028,6 +1028,8 @@ pw_status pw_rate_energy(const pw_system *sys, const pw_heat_data *heat, double 
             *Q_R = q.Q_R;
     }
     en_free(&q.c);
+    if (st == PW_OK)
+        return pw_rate_verify(sys, P_Pa, out, "rating with energy balances", err);
     if (st != PW_OK) {
         pw_rate_result_free(out);
         if (st == PW_ENOBRACKET)

@@ -186,7 +186,9 @@ pw_status pw_column_check_feasible(pw_column_ws *w, const double *xg, const doub
     if (n_bad == n) {
         snprintf(reason, len,
                  "y* <= x on the whole range [%.4g, %.4g]: component 1 is not the more volatile "
-                 "component there (check the component order)",
+                 "component there, so it cannot go overhead; the targets must satisfy xb < zf < xd "
+                 "(component 1 overhead, where it is the more volatile) or xd < zf < xb "
+                 "(component 1 to the bottoms, where it is the less volatile)",
                  xb, xd);
         return PW_OK;
     }

@@ -11,12 +11,18 @@
 
 #include "base/solve1d.h"
 
+#include <pinchwise/lle.h>
+#include <stdio.h>
+
 #include <float.h>
 #include <math.h>
 #include <string.h>
 
 #define RATE_MAX_ITER 300
 #define RATE_MAX_STAGES 5000 /* far beyond any real column; bounds the work of a hostile input */
+/* A steady state matches the two sections' liquids at the feed stage; a larger mismatch at the
+ * end of the search is a jump across zero, not a root (see pw_rate_verify). */
+#define RATE_MISMATCH_TOL 1e-8
 
 typedef struct rate_ctx {
     pw_eqp *e;
@@ -162,7 +168,7 @@ pw_status pw_rate_cmo(const pw_system *sys, double P_Pa, const pw_rate_spec *spe
         lo = fmax(0.0, (spec->zf - c.B) / c.D);
         hi = 1.0;
     }
-    double flo, fhi, w = NAN;
+    double flo = NAN, fhi = NAN, w = NAN;
     st = residual_fn(&c, lo, &flo);
     if (st == PW_OK)
         st = residual_fn(&c, hi, &fhi);
@@ -179,10 +185,17 @@ pw_status pw_rate_cmo(const pw_system *sys, double P_Pa, const pw_rate_spec *spe
         st = pw_root1d(residual_fn, &c, lo, hi, flo, fhi, &o, &w, &it);
         out->iterations = (int)it;
     }
-    if (st == PW_OK) {
+    if (st == PW_ENOBRACKET) {
+        /* no sign change over the whole range: the profile at the end nearer zero tells
+         * whether the liquids entered a two-liquid region (then refused as such below) */
+        w = fabs(flo) <= fabs(fhi) ? lo : hi;
+    }
+    if (st == PW_OK || st == PW_ENOBRACKET) {
         double a, b, xd, xb;
         products(&c, w, &xd, &xb);
-        st = sections(&c, xd, xb, &a, &b, &out->profile);
+        pw_status ps = sections(&c, xd, xb, &a, &b, &out->profile);
+        if (ps != PW_OK)
+            st = ps;
         out->residual = a - b;
         out->xd = xd;
         out->xb = xb;
@@ -190,10 +203,56 @@ pw_status pw_rate_cmo(const pw_system *sys, double P_Pa, const pw_rate_spec *spe
         out->profile.feed_stage = spec->feed_stage;
     }
     pw_eqp_free(&e);
+    if (st == PW_OK || st == PW_ENOBRACKET) {
+        pw_status vs = pw_rate_verify(sys, P_Pa, out, "rating", err);
+        if (vs != PW_OK)
+            return vs; /* out freed */
+    }
     if (st != PW_OK) {
         pw_rate_result_free(out);
         return pw_error_set(err, st, NULL, 0, "rating: %s (shooting on the distillate composition)",
                             pw_strerror(st));
+    }
+    return PW_OK;
+}
+
+pw_status pw_rate_verify(const pw_system *sys, double P_Pa, pw_rate_result *out,
+                         const char *what, pw_error *err)
+{
+    if (pw_model_can_split(sys->model)) {
+        pw_three_phase tp;
+        pw_status st = pw_three_phase_at_P(sys, P_Pa, &tp);
+        if (st != PW_OK) {
+            pw_rate_result_free(out);
+            return pw_error_set(err, st, NULL, 0, "%s: the three-phase state: %s", what,
+                                pw_strerror(st));
+        }
+        for (size_t i = 0; tp.exists && i < out->profile.n; i++) {
+            const pw_stage *g = &out->profile.stage[i];
+            if (!(g->x > tp.x[0] && g->x < tp.x[1]))
+                continue;
+            char msg[PW_ERROR_MSG_MAX];
+            snprintf(msg, sizeof msg,
+                     "%s: the liquid of stage %zu (x1 = %.4g, as one liquid at %.2f K) lies "
+                     "inside the two-liquid region at this pressure (layers x1 = %.4f and %.4f, "
+                     "boiling together at %.2f K): a stage there holds two liquids, which the "
+                     "single-liquid stage model does not describe, so no steady state of this "
+                     "column is given; decant the layers (decanter scheme: pinchwise decanter)",
+                     what, i + 1, g->x, g->T_K, tp.x[0], tp.x[1], tp.T_K);
+            pw_rate_result_free(out);
+            return pw_error_set(err, PW_EINFEASIBLE, NULL, 0, "%s", msg);
+        }
+    }
+    if (!(fabs(out->residual) <= RATE_MISMATCH_TOL)) {
+        double r = out->residual, xd = out->xd, xb = out->xb;
+        pw_rate_result_free(out);
+        return pw_error_set(err, PW_ENOCONV, NULL, 0,
+                            "%s: no steady state found: the two sections' liquids at the feed "
+                            "stage still differ by %.3g at the closest products (xd %.17g, xb "
+                            "%.3g); the mismatch jumps across zero between neighbouring "
+                            "representable products (a product purer than double precision "
+                            "resolves, 1 - xd or xb below about 1e-15) or never reaches it",
+                            what, r, xd, xb);
     }
     return PW_OK;
 }

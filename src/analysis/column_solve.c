@@ -37,6 +37,10 @@ static void clear_result(pw_column_result *r)
     r->n_min = r->n_fenske = r->alpha_top = r->alpha_bottom = NAN;
 }
 
+/* R_min equal to the feed-point value within this relative tolerance (10^3 times the default
+ * rtol of the search) is a feed pinch. */
+#define FEED_MATCH_RTOL 1e-7
+
 typedef struct col_buffers {
     double *xg, *yg, *fg;
 } col_buffers;
@@ -56,7 +60,7 @@ static pw_status tabulate(pw_column_ws *w, const pw_column_spec *s, size_t n, co
  * below zero, the limit is a flow, not a pinch: R_min is 0 (a stripping column with the feed on
  * top makes the distillate) or the R at which the boil-up vanishes (the feed brings all the vapor
  * the rectifying section needs). gap(R) grows with R, so the largest of these bounds is R_min. */
-static void apply_flow_limits(const pw_column_spec *s, pw_column_result *out)
+static void apply_flow_limits(const pw_column_spec *s, double y_xb, pw_column_result *out)
 {
     if (!(out->r_min > 0.0)) {
         out->r_min = 0.0;
@@ -68,8 +72,11 @@ static void apply_flow_limits(const pw_column_spec *s, pw_column_result *out)
         out->boilup_limited = true;
         out->pinch.kind = PW_PINCH_FEED;
         out->pinch.section = PW_SECTION_STRIPPING;
+        /* no pinch: zero boil-up limits. The stripping line has turned vertical at x = xb and
+         * meets the curve at the reboiler, (xb, y*(xb)), the point reported; the operating lines
+         * themselves meet the q-line at (xb, y_q(xb)) below the curve. */
         out->pinch.x = s->xb;
-        out->pinch.y = (s->q * s->xb - s->zf) / (s->q - 1.0);
+        out->pinch.y = y_xb;
     }
     out->s_min = fmax(pw_column_boilup(s, out->r_min), 0.0);
 }
@@ -94,7 +101,7 @@ static pw_status reflux_limited_rmin(pw_column_ws *w, const pw_column_spec *s, c
     out->pinch.section = PW_SECTION_STRIPPING;
     out->pinch.x = xs;
     out->pinch.y = ys;
-    apply_flow_limits(s, out);
+    apply_flow_limits(s, b->yg[0], out);
     return PW_OK;
 }
 
@@ -128,7 +135,16 @@ static pw_status find_rmin(pw_column_ws *w, const pw_column_spec *s, size_t n, c
     out->pinch.kind = (rect ? feed_r : feed_s) ? PW_PINCH_FEED : PW_PINCH_TANGENT;
     out->pinch.x = rect ? xr : xs;
     out->pinch.y = rect ? yr : ys;
-    apply_flow_limits(s, out);
+    /* The limiting point is the q-line intersection whenever R_min is the feed-point value (within
+     * the search's tolerance): a feed pinch, whatever point of a flat neighbourhood the search
+     * stopped at. */
+    if (fabs(out->r_min - out->r_feed) <= FEED_MATCH_RTOL * fmax(1.0, fabs(out->r_feed))) {
+        out->pinch.kind = PW_PINCH_FEED;
+        out->pinch.section = PW_SECTION_RECTIFYING;
+        out->pinch.x = xq;
+        out->pinch.y = yq;
+    }
+    apply_flow_limits(s, b->yg[0], out);
     return PW_OK;
 }
 
@@ -155,8 +171,8 @@ static pw_status boilup_limited_rmin(pw_column_ws *w, const pw_column_spec *s, s
         out->r_min = out->r_feed; /* exactly the zero-boil-up reflux */
         out->pinch.kind = PW_PINCH_FEED;
         out->pinch.section = PW_SECTION_STRIPPING;
-        out->pinch.x = s->xb;
-        out->pinch.y = y_i;
+        out->pinch.x = s->xb; /* zero boil-up: the reboiler's point on the curve (see */
+        out->pinch.y = b->yg[0]; /* apply_flow_limits); y_i is the q-line's, below it */
     } else {
         out->pinch.kind = PW_PINCH_TANGENT;
         out->pinch.section = PW_SECTION_RECTIFYING;

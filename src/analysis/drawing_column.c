@@ -187,28 +187,17 @@ pw_status pw_draw_column_compute(const pw_system *s, double P_Pa, const pw_colum
     pw_eq_point e;
     o->T_top_K = pw_bubble_T(s, P_Pa, spec->xd, &e) == PW_OK ? e.T_K : (double)NAN;
     o->T_bottom_K = pw_bubble_T(s, P_Pa, spec->xb, &e) == PW_OK ? e.T_K : (double)NAN;
-    o->status = pw_column_solve_any(&curve, spec, &opt, &o->col);
+    /* refused when the targets reach into the two-liquid region; a heterogeneous azeotrope
+     * between them (one column cannot cross it) draws the decanter scheme */
+    bool het_az = false;
+    o->status = pw_column_solve_system(s, P_Pa, spec, &opt, &o->col, NULL, &het_az);
     if (o->status == PW_ENOMEM)
         return PW_ENOMEM;
     if (o->status != PW_OK)
         return PW_OK;
-    /* a heterogeneous azeotrope between the targets: one column cannot cross it */
-    if (pw_model_can_split(s->model)) {
-        pw_three_phase tp;
-        bool blocked = false;
-        char why[PW_REASON_MAX];
-        pw_status hs = pw_column_hetero_block(s, P_Pa, fmin(spec->xb, spec->xd),
-                                              fmax(spec->xb, spec->xd), &tp, &blocked, why,
-                                              sizeof why);
-        if (hs == PW_ENOMEM)
-            return PW_ENOMEM;
-        if (hs == PW_OK && blocked) {
-            o->hetero_blocked = true;
-            o->col.feasible = false;
-            o->col.n_design = 0;
-            memcpy(o->col.reason, why, sizeof why);
-            return decanter(s, &opt, o);
-        }
+    if (het_az) {
+        o->hetero_blocked = true;
+        return decanter(s, &opt, o);
     }
     if (!o->col.feasible)
         return PW_OK;

@@ -4,6 +4,7 @@
 #include <pinchwise/units.h>
 #include <pinchwise/column_direction.h>
 #include <pinchwise/curve.h>
+#include <pinchwise/decanter.h>
 #include <pinchwise/screen.h>
 
 #include <math.h>
@@ -174,13 +175,9 @@ static void swing_reasons(const pw_screen_options *o, pw_screen_result *r)
 
 static pw_status rough_column(const pw_system *s, const pw_screen_options *o, pw_screen_result *r)
 {
-    pw_system_curve sc;
-    pw_status st = pw_system_curve_init(&sc, s, r->P_Pa);
-    if (st != PW_OK)
-        return st;
-    pw_curve curve = pw_system_curve_bind(&sc);
     pw_column_spec spec = {r->xd, r->xb, r->zf, o->q};
-    st = pw_column_solve_any(&curve, &spec, &o->column, &r->column);
+    /* refused inside the two-liquid region, as every single column is */
+    pw_status st = pw_column_solve_system(s, r->P_Pa, &spec, &o->column, &r->column, NULL, NULL);
     if (st != PW_OK)
         return st;
     r->column_ran = true;

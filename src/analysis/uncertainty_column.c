@@ -1,6 +1,7 @@
 /* Column results as a propagation function (R_min, boil-up at R_min, stages at the operating
  * reflux), and the feasibility risk in words. */
 #include <pinchwise/curve.h>
+#include <pinchwise/decanter.h>
 #include <pinchwise/design.h>
 #include <pinchwise/column_direction.h>
 #include <pinchwise/uncertainty.h>
@@ -50,13 +51,9 @@ pw_status pw_unc_column_fn(void *ctx, const pw_system *sys, double *out)
     o.n_factors = 1;
     if (c->heat)
         return energy_fn(c, sys, &o, out);
-    pw_system_curve sc;
-    pw_status st = pw_system_curve_init(&sc, sys, c->P_Pa);
-    if (st != PW_OK)
-        return st;
-    pw_curve curve = pw_system_curve_bind(&sc);
     pw_column_result r;
-    st = pw_column_solve_any(&curve, &c->spec, &o, &r);
+    /* a draw whose liquids reach into its two-liquid region is infeasible for the single column */
+    pw_status st = pw_column_solve_system(sys, c->P_Pa, &c->spec, &o, &r, NULL, NULL);
     /* An infeasible split is an outcome; so is a split no pinch limits (PW_ERANGE with a
      * reason): both mean the design basis does not hold for this parameter set. */
     if ((st == PW_OK && !r.feasible) || (st == PW_ERANGE && r.reason[0]))

@@ -59,7 +59,9 @@ static void print_table(const cli_column_run *run)
     else if (c->boilup_limited && c->pinch.kind == PW_PINCH_FEED)
         printf("  limited by zero boil-up   the q-line meets the curve below xb: the feed brings\n"
                "                            more vapor than the rectifying section needs, so R\n"
-               "                            cannot fall below this without cooling the feed\n");
+               "                            cannot fall below this without cooling the feed\n"
+               "                            (reported point: the reboiler's x = %.5f, y* = %.5f)\n",
+               c->pinch.x, c->pinch.y);
     else
         printf("  limiting pinch            %s pinch in the %s section at x = %.5f, y = %.5f\n",
                pinch_kind(c->pinch.kind), section(c->pinch.section), c->pinch.x, c->pinch.y);

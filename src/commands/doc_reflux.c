@@ -21,25 +21,10 @@ pw_status pw_reflux_solve(const pw_system *sys, double P_Pa, const pw_column_spe
 {
     memset(col, 0, sizeof *col);
     *T_top_K = *T_bottom_K = (double)NAN;
-    pw_status st;
-    pw_system_curve sc;
-    st = pw_system_curve_init(&sc, sys, P_Pa);
-    if (st == PW_OK) {
-        pw_curve curve = pw_system_curve_bind(&sc);
-        st = pw_column_solve_any(&curve, spec, opt, col); /* either split direction */
-    }
-    if (st == PW_OK) { /* a heterogeneous azeotrope between the targets: the decanter scheme */
-        pw_three_phase tp;
-        bool blocked = false;
-        char why[PW_REASON_MAX];
-        double lo = fmin(spec->xb, spec->xd), hi = fmax(spec->xb, spec->xd);
-        st = pw_column_hetero_block(sys, P_Pa, lo, hi, &tp, &blocked, why, sizeof why);
-        if (st == PW_OK && blocked) {
-            memcpy(col->reason, why, sizeof why);
-            col->feasible = false;
-            col->n_design = 0;
-        }
-    }
+    /* either split direction; refused when the targets reach into the two-liquid region (a
+     * heterogeneous azeotrope between them included): the decanter scheme */
+    pw_three_phase tp;
+    pw_status st = pw_column_solve_system(sys, P_Pa, spec, opt, col, &tp, NULL);
     if (st != PW_OK) {
         pw_error_set(err, st, where, 0, "%s%s%s", pw_strerror(st),
                      col->reason[0] ? ": " : "", col->reason);
@@ -48,6 +33,12 @@ pw_status pw_reflux_solve(const pw_system *sys, double P_Pa, const pw_column_spe
     pw_eq_point e;
     *T_top_K = pw_bubble_T(sys, P_Pa, spec->xd, &e) == PW_OK ? e.T_K : (double)NAN;
     *T_bottom_K = pw_bubble_T(sys, P_Pa, spec->xb, &e) == PW_OK ? e.T_K : (double)NAN;
+    /* a product inside the two-liquid region is two layers, which boil at the three-phase
+     * temperature (not at the metastable single liquid's bubble point) */
+    if (tp.exists && spec->xd > tp.x[0] && spec->xd < tp.x[1])
+        *T_top_K = tp.T_K;
+    if (tp.exists && spec->xb > tp.x[0] && spec->xb < tp.x[1])
+        *T_bottom_K = tp.T_K;
     return PW_OK;
 }
 
@@ -58,7 +49,9 @@ json_t *pw_reflux_doc(const pw_column_result *c, double P_Pa, const pw_column_sp
     json_object_set_new(o, "feasible", json_boolean(c->feasible));
     json_object_set_new(o, "reason", c->feasible ? json_null() : pw_json_reason(c->reason));
     json_object_set_new(o, "r_min", c->feasible ? pw_json_num(c->r_min) : json_null());
-    if (c->feasible && !c->reflux_limited) {
+    /* the contract: a pinch object whenever feasible (also when a flow, not a pinch, limits:
+     * "limit" then says which and what the point is) */
+    if (c->feasible) {
         json_t *p = json_object();
         json_object_set_new(p, "kind", json_string(pinch_kind(c->pinch.kind)));
         json_object_set_new(p, "section", json_string(section(c->pinch.section)));
@@ -76,11 +69,15 @@ json_t *pw_reflux_doc(const pw_column_result *c, double P_Pa, const pw_column_sp
                         : c->reflux_limited
                             ? json_string("no reflux needed: at R = 0 the operating lines clear the "
                                           "equilibrium curve (a stripping column with the feed on "
-                                          "top makes the distillate); no pinch limits")
+                                          "top makes the distillate); no pinch limits: pinch is where "
+                                          "the operating lines come closest to the curve, which "
+                                          "they would touch only at a negative reflux")
                         : c->boilup_limited && c->pinch.kind == PW_PINCH_FEED
                             ? json_string("zero boil-up: the feed's vapor is all the rectifying "
-                                          "section gets; the operating lines meet on the q-line "
-                                          "at xb")
+                                          "section gets (R_min = (1 - q) F / D - 1); the "
+                                          "operating lines meet on the q-line at xb, below the "
+                                          "curve, and pinch is the reboiler's point (xb, y*(xb)) "
+                                          "where the vertical stripping line meets the curve")
                             : json_string("pinch"));
     json_object_set_new(o, "boilup_min", c->feasible ? pw_json_num(c->s_min) : json_null());
     json_object_set_new(o, "r_min_feed_point_only", c->feasible ? pw_json_num(c->r_feed) : json_null());
