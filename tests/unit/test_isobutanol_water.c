@@ -155,9 +155,7 @@ static int setup(void **state)
     (void)state;
     char path[1024];
     pw_error err;
-    pw_complib_init(&lib);
-    pw_test_path(path, sizeof path, "datasets/components.csv");
-    if (pw_complib_read(&lib, path, &err) != PW_OK)
+    if (pw_test_read_complib(&lib) != 0)
         return -1;
     pw_test_path(path, sizeof path, "datasets/lle/isobutanol_water_25C_ties.csv");
     return pw_lle_dataset_read(path, &ties, &err) == PW_OK ? 0 : -1;

@@ -172,11 +172,7 @@ static void stability_scan(void **state)
 static int setup(void **state)
 {
     (void)state;
-    char path[1024];
-    pw_error err;
-    pw_complib_init(&lib);
-    pw_test_path(path, sizeof path, "datasets/components.csv");
-    return pw_complib_read(&lib, path, &err) == PW_OK ? 0 : -1;
+    return pw_test_read_complib(&lib);
 }
 
 static int teardown(void **state)
