@@ -89,3 +89,30 @@ int pw_test_read_complib(pw_complib *lib)
     pw_complib_free(lib);
     return -1;
 }
+
+void pw_test_invented_isobaric(pw_dataset *ds, const pw_system *s, size_t n)
+{
+    memset(ds, 0, sizeof *ds);
+    snprintf(ds->path, sizeof ds->path, "invented.csv");
+    snprintf(ds->names[0], sizeof ds->names[0], "%s", s->comp[0].name);
+    snprintf(ds->names[1], sizeof ds->names[1], "%s", s->comp[1].name);
+    ds->kind = PW_DATA_ISOBARIC;
+    ds->has_y = true;
+    ds->P_fixed_Pa = 101325.0;
+    ds->T_fixed_K = NAN;
+    ds->sigma_T_K = 0.1, ds->sigma_P_rel = 1e-3, ds->sigma_P_abs_Pa = NAN, ds->sigma_y = 0.004;
+    ds->sigma_x = 0.001;
+    ds->pts = calloc(n, sizeof *ds->pts);
+    assert_non_null(ds->pts);
+    ds->n = n;
+    for (size_t i = 0; i < n; i++) {
+        double x = 0.05 + 0.9 * (double)i / (double)(n - 1);
+        pw_eq_point e;
+        assert_int_equal(pw_bubble_T(s, 101325.0, x, &e), PW_OK);
+        ds->pts[i] = (pw_point){.x1 = x,
+                                .y1 = e.y1 + 0.003 * sin(3.1 * (double)i),
+                                .T_K = e.T_K + 0.08 * cos(1.7 * (double)i),
+                                .P_Pa = 101325.0,
+                                .line = (long)i + 4};
+    }
+}

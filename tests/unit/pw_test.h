@@ -8,6 +8,8 @@
 #include <stdint.h>
 #include <cmocka.h>
 #include <pinchwise/component.h>
+#include <pinchwise/dataset.h>
+#include <pinchwise/equilibrium.h>
 
 /* Asserts |got - want| <= rtol*|want| + atol. NaN or Inf in either value fails unless both are
  * the same non-finite value. Prints both numbers, the tolerance and the label on failure. */
@@ -37,5 +39,10 @@ pw_component pw_test_svna(const char *name);
 /* Reads the shipped component library (datasets/components.csv) into lib, for a cmocka setup:
  * 0 on success, -1 (lib freed, the reason printed) on failure. */
 int pw_test_read_complib(pw_complib *lib);
+
+/* Invented isobaric data at 101.325 kPa: n points of system s from x1 0.05 to 0.95 (bubble
+ * points, with small deterministic deviations in y and T), stated sigmas, lines 4.. ; for
+ * round-trip tests. The caller frees with pw_dataset_free. */
+void pw_test_invented_isobaric(pw_dataset *ds, const pw_system *s, size_t n);
 
 #endif

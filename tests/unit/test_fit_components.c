@@ -72,33 +72,6 @@ static const char *const REPLACEMENT_PSAT_ONLY =
     "name,A,B,C,log,P_unit,T_unit,T_min,T_max,source\n"
     "methanol,16.61,3638.27,239.500,ln,kPa,C,-20,180,invented\n";
 
-/* Invented T-x-y data at 1 atm from the system s (a little deterministic noise). */
-static void make_data(pw_dataset *ds, const pw_system *s, size_t n)
-{
-    memset(ds, 0, sizeof *ds);
-    snprintf(ds->path, sizeof ds->path, "invented.csv");
-    snprintf(ds->names[0], sizeof ds->names[0], "%s", s->comp[0].name);
-    snprintf(ds->names[1], sizeof ds->names[1], "%s", s->comp[1].name);
-    ds->kind = PW_DATA_ISOBARIC;
-    ds->has_y = true;
-    ds->P_fixed_Pa = 101325.0;
-    ds->T_fixed_K = NAN;
-    ds->sigma_T_K = 0.1, ds->sigma_P_rel = 1e-3, ds->sigma_P_abs_Pa = NAN, ds->sigma_y = 0.004;
-    ds->sigma_x = 0.001;
-    ds->pts = calloc(n, sizeof *ds->pts);
-    assert_non_null(ds->pts);
-    ds->n = n;
-    for (size_t i = 0; i < n; i++) {
-        double x = 0.05 + 0.9 * (double)i / (double)(n - 1);
-        pw_eq_point e;
-        assert_int_equal(pw_bubble_T(s, 101325.0, x, &e), PW_OK);
-        ds->pts[i] = (pw_point){.x1 = x,
-                                .y1 = e.y1 + 0.003 * sin(3.1 * (double)i),
-                                .T_K = e.T_K + 0.08 * cos(1.7 * (double)i),
-                                .P_Pa = 101325.0,
-                                .line = (long)i + 4};
-    }
-}
 
 /* Fits model to invented data of c1, c2 and writes the fit file; returns its path in buf. */
 static void fit_file(const pw_model_type *m, const double *truth, const pw_fit_options *o,
@@ -108,7 +81,7 @@ static void fit_file(const pw_model_type *m, const double *truth, const pw_fit_o
     pw_system s = {.comp = {c1, c2}, .model = m, .T_ref_K = 350.0};
     memcpy(s.params, truth, sizeof s.params);
     pw_dataset ds;
-    make_data(&ds, &s, 11);
+    pw_test_invented_isobaric(&ds, &s, 11);
     pw_fit_result r;
     pw_error err;
     if (pw_fit_run(&ds, &c1, &c2, m, o, &r, &err) != PW_OK)

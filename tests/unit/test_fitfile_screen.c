@@ -15,33 +15,6 @@
 #include <string.h>
 #include <unistd.h>
 
-/* Invented T-x-y data at 1 atm from the system s (a little deterministic noise). */
-static void make_data(pw_dataset *ds, const pw_system *s, size_t n)
-{
-    memset(ds, 0, sizeof *ds);
-    snprintf(ds->path, sizeof ds->path, "invented.csv");
-    snprintf(ds->names[0], sizeof ds->names[0], "%s", s->comp[0].name);
-    snprintf(ds->names[1], sizeof ds->names[1], "%s", s->comp[1].name);
-    ds->kind = PW_DATA_ISOBARIC;
-    ds->has_y = true;
-    ds->P_fixed_Pa = 101325.0;
-    ds->T_fixed_K = NAN;
-    ds->sigma_T_K = 0.1, ds->sigma_P_rel = 1e-3, ds->sigma_P_abs_Pa = NAN, ds->sigma_y = 0.004;
-    ds->sigma_x = 0.001;
-    ds->pts = calloc(n, sizeof *ds->pts);
-    assert_non_null(ds->pts);
-    ds->n = n;
-    for (size_t i = 0; i < n; i++) {
-        double x = 0.05 + 0.9 * (double)i / (double)(n - 1);
-        pw_eq_point e;
-        assert_int_equal(pw_bubble_T(s, 101325.0, x, &e), PW_OK);
-        ds->pts[i] = (pw_point){.x1 = x,
-                                .y1 = e.y1 + 0.003 * sin(3.1 * (double)i),
-                                .T_K = e.T_K + 0.08 * cos(1.7 * (double)i),
-                                .P_Pa = 101325.0,
-                                .line = (long)i + 4};
-    }
-}
 
 /* A fit of invented methanol/water data with the NRTL parameters dg12, dg21 put in place of the
  * fitted ones and everything derived from them (pw_fit_evaluate), as text of its fit file. */
@@ -54,7 +27,7 @@ static char *fit_text(double dg12, double dg21)
     pw_system s = {.comp = {c1, c2}, .model = &pw_model_nrtl, .T_ref_K = 350.0};
     s.params[0] = 100.0, s.params[1] = 300.0, s.params[2] = 0.3;
     pw_dataset ds;
-    make_data(&ds, &s, 11);
+    pw_test_invented_isobaric(&ds, &s, 11);
     pw_fit_options o = pw_fit_default_options();
     o.n_starts = 1;
     pw_fit_result r;
