@@ -83,6 +83,20 @@ static pw_status apply_virial(const pw_system *s, double T, double P, const doub
     return PW_ENOCONV;
 }
 
+/* f = ln(sum/P) (0 when P is NAN) and its T derivative df from tp's k, d ln gamma/dT and
+ * d ln Psat/dT. */
+static pw_status point_slope(tpoint *tp, double P)
+{
+    double dsum = 0.0;
+    for (int i = 0; i < 2; i++)
+        dsum += tp->k[i] * (tp->act.dlngamma_dT[i] + tp->dlnPs[i]);
+    if (!(tp->sum > 0.0) || !isfinite(tp->sum) || !isfinite(dsum))
+        return PW_EDOM;
+    tp->f = isfinite(P) ? log(tp->sum / P) : 0.0;
+    tp->df = dsum / tp->sum;
+    return PW_OK;
+}
+
 /* Evaluates at (x1, T); P is the specified pressure (used for f and the vapor correction), or
  * NAN when the pressure is the bubble pressure (then f = 0). */
 static pw_status eval_point(const pw_system *s, double x1, double T, double P, tpoint *tp)
@@ -91,7 +105,6 @@ static pw_status eval_point(const pw_system *s, double x1, double T, double P, t
     if (st != PW_OK)
         return st;
     double x[2] = {x1, 1.0 - x1};
-    double dsum = 0.0;
     tp->sum = 0.0;
     for (int i = 0; i < 2; i++) {
         st = pw_psat(&s->comp[i], T, &tp->Ps[i], &tp->dlnPs[i]);
@@ -106,13 +119,7 @@ static pw_status eval_point(const pw_system *s, double x1, double T, double P, t
         if ((st = apply_virial(s, T, P, kid, tp)) != PW_OK)
             return st;
     }
-    for (int i = 0; i < 2; i++)
-        dsum += tp->k[i] * (tp->act.dlngamma_dT[i] + tp->dlnPs[i]);
-    if (!(tp->sum > 0.0) || !isfinite(tp->sum) || !isfinite(dsum))
-        return PW_EDOM;
-    tp->f = isfinite(P) ? log(tp->sum / P) : 0.0;
-    tp->df = dsum / tp->sum;
-    return PW_OK;
+    return point_slope(tp, P);
 }
 
 /* pw_psat's Antoine branch, the same operations in the same order (the same bits), without
@@ -157,30 +164,17 @@ static pw_status eval_point_lean(const pw_system *s, const pw_thermo_kernel *ker
     if (st != PW_OK)
         return st;
     double x[2] = {x1, 1.0 - x1};
-    double dsum = 0.0;
     tp->sum = 0.0;
     for (int i = 0; i < 2; i++) {
-        if (kern->antoine[i]) {
-            st = kernel_psat(&kern->an[i], T, &tp->Ps[i], &tp->dlnPs[i]);
-            if (st != PW_OK)
-                return st;
-            tp->k[i] = x[i] * exp(tp->act.lngamma[i]) * tp->Ps[i];
-        } else {
-            st = pw_psat(&s->comp[i], T, &tp->Ps[i], &tp->dlnPs[i]);
-            if (st != PW_OK)
-                return st;
-            tp->k[i] = x[i] * exp(tp->act.lngamma[i]) * tp->Ps[i];
-        }
+        st = kern->antoine[i] ? kernel_psat(&kern->an[i], T, &tp->Ps[i], &tp->dlnPs[i])
+                              : pw_psat(&s->comp[i], T, &tp->Ps[i], &tp->dlnPs[i]);
+        if (st != PW_OK)
+            return st;
+        tp->k[i] = x[i] * exp(tp->act.lngamma[i]) * tp->Ps[i];
         tp->sum += tp->k[i];
         tp->Phi[i] = 1.0;
     }
-    for (int i = 0; i < 2; i++)
-        dsum += tp->k[i] * (tp->act.dlngamma_dT[i] + tp->dlnPs[i]);
-    if (!(tp->sum > 0.0) || !isfinite(tp->sum) || !isfinite(dsum))
-        return PW_EDOM;
-    tp->f = isfinite(P) ? log(tp->sum / P) : 0.0;
-    tp->df = dsum / tp->sum;
-    return PW_OK;
+    return point_slope(tp, P);
 }
 
 void pw_thermo_kernel_init(const pw_system *s, pw_thermo_kernel *k)
