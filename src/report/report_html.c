@@ -328,14 +328,33 @@ static void consistency_section(pw_sbuf *b, const pw_report_curves *c)
         return;
     }
     const pw_consistency_result *k = &c->cons;
-    pw_sbuf_printf(b, "<p><strong>Verdict: <span class=\"%s\">%s</span></strong></p>\n",
-                   k->consistent ? "verdict-pass" : "verdict-fail",
+    pw_sbuf_printf(b, "<p><strong>Verdict: <span class=\"%s\" data-consistent=\"%d\">%s</span>"
+                      "</strong></p>\n",
+                   k->consistent ? "verdict-pass" : "verdict-fail", k->consistent ? 1 : 0,
                    k->consistent ? "consistent" : "not shown to be consistent");
+    const pw_het_check *h = &c->cons_het;
+    if (h->n) {
+        pw_sbuf_printf(b, "<p>%zu three-phase point(s) (line", h->n);
+        for (size_t i = 0; i < h->n; i++)
+            pw_sbuf_printf(b, "%s %ld", i ? "," : "", h->pts[i].line);
+        pw_sbuf_puts(b, "): ");
+        esc(b, pw_het_check_reason());
+        pw_sbuf_printf(b, ". Largest apparent activity y<sub>i</sub>P/P<sub>i</sub><sup>sat</sup>: "
+                          "%.4f (%s).</p>\n",
+                       h->max_bound, h->bound_ok ? "within the bound 1"
+                                                 : "above 1: y, T or P of these points is doubtful");
+    }
     pw_sbuf_puts(b, "<table><tr><th>Test</th><th>Value</th><th>Limit</th><th>Result</th>"
                     "<th>Published source</th></tr>\n");
     for (int i = 0; i < PW_CTEST_COUNT; i++) {
         const pw_ctest *t = &k->tests[i];
-        pw_sbuf_puts(b, "<tr><td>");
+        /* the exact numbers as data attributes, for machine comparison with `check --json` */
+        if (t->ran)
+            pw_sbuf_printf(b, "<tr data-test=\"%s\" data-value=\"%.17g\" data-limit=\"%.17g\" "
+                              "data-pass=\"%d\"><td>",
+                           t->name, t->value, t->limit, t->pass ? 1 : 0);
+        else
+            pw_sbuf_printf(b, "<tr data-test=\"%s\" data-ran=\"0\"><td>", t->name);
         esc(b, t->title);
         if (k->primary[i])
             pw_sbuf_puts(b, " <em>(verdict rests on it)</em>");
