@@ -105,15 +105,20 @@ static pw_status other_models(pw_report_curves *c, const pw_report_input *in)
         if (!o || !o->sys.model || o->kind != c->fit->kind)
             continue;
         /* the ranking already searched this fit's azeotropes at the data's condition */
+        /* (pw_azeotrope_search's results: the homogeneous roots outside the two-liquid region
+         * and the three-phase state, as the drawing takes them) */
         const pw_az_result *known = NULL;
+        const pw_three_phase *known_tp = NULL;
         for (size_t k = 0; c->rank && c->rank_status == PW_OK && k < c->rank->n; k++) {
             const pw_rank_row *r = &c->rank->rows[k];
             double f = c->isothermal ? o->T_fixed_K : o->P_fixed_Pa;
-            if (r->fit == o && r->az_status == PW_OK && f == c->phase.fixed)
+            if (r->fit == o && r->az_status == PW_OK && f == c->phase.fixed) {
                 known = &r->az;
+                known_tp = &r->tp;
+            }
         }
         pw_status st = pw_draw_phase_compute_known(&o->sys, c->isothermal, c->phase.fixed, known,
-                                                   &c->model_phase[c->n_models]);
+                                                   known_tp, &c->model_phase[c->n_models]);
         if (st == PW_ENOMEM)
             return st;
         if (st == PW_OK)
