@@ -904,7 +904,8 @@ static void ranking(pw_sbuf *b, const pw_report_curves *c)
     pw_sbuf_puts(b, "<th>Notes</th></tr>\n");
     for (size_t i = 0; i < rk->n; i++) {
         const pw_rank_row *w = &rk->rows[i];
-        pw_sbuf_printf(b, "<tr><td class=\"num\">%zu</td><td>", i + 1);
+        pw_sbuf_printf(b, "<tr data-model=\"%s\"><td class=\"num\">%zu</td><td>",
+                       w->fit->sys.model->name, i + 1);
         esc(b, w->fit->sys.model->name);
         pw_sbuf_puts(b, w->fit == c->fit ? " (this report)</td>" : "</td>");
         num(b, w->delta_aicc, 3);
