@@ -339,10 +339,14 @@ static void consistency_section(pw_sbuf *b, const pw_report_curves *c)
             pw_sbuf_printf(b, "%s %ld", i ? "," : "", h->pts[i].line);
         pw_sbuf_puts(b, "): ");
         esc(b, pw_het_check_reason());
-        pw_sbuf_printf(b, ". Largest apparent activity y<sub>i</sub>P/P<sub>i</sub><sup>sat</sup>: "
-                          "%.4f (%s).</p>\n",
-                       h->max_bound, h->bound_ok ? "within the bound 1"
-                                                 : "above 1: y, T or P of these points is doubtful");
+        if (isfinite(h->max_bound))
+            pw_sbuf_printf(b, ". Largest apparent activity y<sub>i</sub>P/P<sub>i</sub><sup>sat</sup>: "
+                              "%.4f (%s).</p>\n",
+                           h->max_bound, h->bound_ok ? "within the bound 1"
+                                                     : "above 1: y, T or P of these points is doubtful");
+        else
+            pw_sbuf_puts(b, ". Their apparent activity could not be evaluated (a vapor pressure "
+                            "failed there).</p>\n");
     }
     pw_sbuf_puts(b, "<table><tr><th>Test</th><th>Value</th><th>Limit</th><th>Result</th>"
                     "<th>Published source</th></tr>\n");
