@@ -2,7 +2,8 @@
  * plain results (they only render them).
  *
  * Model ranking. Every fit of the same data is ranked by one rule: sound fits first (converged,
- * and no liquid split predicted unless the data hold three-phase points or tie lines), then by AICc (Hurvich & Tsai 1989). delta = AICc - AICc of the
+ * and no liquid split predicted unless the data hold three-phase points or tie lines), then by
+ * AICc (Hurvich & Tsai 1989). delta = AICc - AICc of the
  * best sound fit; the classes follow Burnham & Anderson (2002, Model Selection and Multimodel
  * Inference, 2nd ed., sec. 2.6): delta < 2 the data cannot tell the model from the best, < 10
  * considered, >= 10 essentially no support. Akaike weights exp(-delta/2), normalised over the
@@ -17,6 +18,7 @@
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/column.h>
 #include <pinchwise/fit.h>
+#include <pinchwise/lle.h>
 #include <pinchwise/status.h>
 #include <stdbool.h>
 #include <stddef.h>
@@ -51,6 +53,15 @@ typedef struct pw_rank_column {
     double P_Pa;
 } pw_rank_column;
 
+/* One azeotrope as the ranking lists it, in the azeotrope command's order: the homogeneous
+ * roots outside the two-liquid region, then the heterogeneous one (heterogeneous true: x1 is the
+ * three-phase vapor between the layers, T/P the three-phase condition; minimum-boiling). */
+typedef struct pw_rank_az {
+    double x1, T_K, P_Pa;
+    pw_az_kind kind;
+    bool heterogeneous;
+} pw_rank_az;
+
 typedef struct pw_rank_row {
     size_t index;              /* position in the caller's array of fits */
     const pw_fit_result *fit;  /* borrowed from the caller */
@@ -58,8 +69,11 @@ typedef struct pw_rank_row {
     double delta_aicc;         /* NAN when no sound fit exists or the AICc is not finite */
     double weight;             /* Akaike weight; 0 outside the considered sound fits */
     pw_rank_class cls;
-    pw_status az_status;       /* of the azeotrope search at the data's condition */
-    pw_az_result az;
+    pw_status az_status;       /* of pw_azeotrope_search at the data's condition */
+    pw_az_result az;           /* its homogeneous roots outside the two-liquid region */
+    pw_three_phase tp;         /* its three-phase state (tp.exists false: none) */
+    pw_rank_az azs[PW_AZ_MAX + 1]; /* every azeotrope, as the azeotrope command lists them */
+    size_t n_azs;
     bool column;               /* a column was asked for */
     pw_status col_status;      /* of pw_column_solve (PW_OK also when infeasible) */
     pw_column_result col;
@@ -71,7 +85,7 @@ typedef struct pw_ranking {
     /* model risk among the considered fits */
     bool az_existence_differs;     /* some place an azeotrope at the data's condition, some none */
     bool az_place_differs;         /* placements spread more than PW_AZ_DISAGREE_X */
-    double az_x_lo, az_x_hi;       /* spread of the first azeotrope's x1 (NAN when none) */
+    double az_x_lo, az_x_hi;       /* spread of the first azeotrope's x1 (azs[0]; NAN when none) */
     bool feasibility_differs;      /* the column is feasible with some, not with others */
     bool rmin_differs;             /* R_min spread above PW_RMIN_DISAGREE_REL of the lowest */
     double rmin_lo, rmin_hi;       /* NAN when no considered fit gives one */
@@ -83,10 +97,23 @@ typedef struct pw_ranking {
  * only). Classes and weights only; no equilibrium is computed. */
 pw_status pw_rank_fits(const pw_fit_result *const *fits, size_t n, pw_ranking *out);
 
-/* pw_rank_fits, then each fit's azeotropes at its data's condition and, with col, its column;
+/* pw_rank_fits, then each fit's azeotropes at its data's condition (pw_azeotrope_search, the
+ * azeotrope command's search, heterogeneous ones included) and, with col, its column;
  * fills the model-risk flags. A failed search or solve is recorded in the row, not returned. */
 pw_status pw_rank_assess(const pw_fit_result *const *fits, size_t n, const pw_rank_column *col,
                          pw_ranking *out);
+
+/* The azeotropes of one pw_azeotrope_search (r, tp) as one list in the azeotrope command's
+ * order into out (room for PW_AZ_MAX + 1); returns how many. */
+size_t pw_rank_az_list(const pw_az_result *r, const pw_three_phase *tp, pw_rank_az *out);
+
+/* The sound-fit rule that applied to these fits, in words (static string): whether a predicted
+ * liquid split made a fit unsound (one-liquid data) or was allowed (the data hold three-phase
+ * points or tie lines). For the reasons the command line and the report print. */
+const char *pw_rank_rule_text(const pw_ranking *rk);
+
+/* True when a predicted liquid split is allowed for fits of these data (measured two liquids). */
+bool pw_rank_split_allowed(const pw_fit_result *r);
 
 #ifdef __cplusplus
 }

@@ -62,15 +62,6 @@ struct pw_het_check;
 json_t *pw_check_doc(const pw_dataset *ds, const pw_consistency_result *r, bool strict,
                      const struct pw_het_check *het);
 
-/* The check command's computation, for every caller that shows a data verdict (check, the flat
- * API, study): the three-phase points of ds set apart (pw_het_check_run into het and one_liquid),
- * then pw_consistency_run with o (NULL: defaults) on the one-liquid points, or on ds when there
- * are none. The caller frees with pw_het_check_free(het, one_liquid) and
- * pw_consistency_result_free (also after a failure). */
-pw_status pw_check_solve(const pw_dataset *ds, const pw_component *c1, const pw_component *c2,
-                         const pw_consistency_options *o, struct pw_het_check *het,
-                         pw_dataset *one_liquid, pw_consistency_result *r, pw_error *err);
-
 /* The cautions the check document carries; *n receives how many. Static strings. */
 const char *const *pw_check_cautions(size_t *n);
 

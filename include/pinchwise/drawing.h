@@ -89,11 +89,14 @@ typedef struct pw_draw_phase {
 pw_status pw_draw_phase_compute(const pw_system *s, bool isothermal, double fixed,
                                 pw_draw_phase *out);
 
-/* The same, reusing a search already made: known is pw_azeotrope_find's result (default options)
- * for s at the same condition (a pw_rank_assess row's, for example), so the homogeneous azeotrope
- * search is not run again; NULL searches as pw_draw_phase_compute does. */
+/* The same, reusing a search already made: known and known_tp are pw_azeotrope_search's results
+ * (the homogeneous roots already filtered by the heterogeneous check, and the three-phase state)
+ * for s at the same condition (a pw_rank_assess row's az and tp, for example), so neither search
+ * is run again; known NULL searches as pw_draw_phase_compute does. PW_EINVAL when only one of
+ * the two is given. */
 pw_status pw_draw_phase_compute_known(const pw_system *s, bool isothermal, double fixed,
-                                      const pw_az_result *known, pw_draw_phase *out);
+                                      const pw_az_result *known, const pw_three_phase *known_tp,
+                                      pw_draw_phase *out);
 
 /* The equilibrium curve at a column pressure: y[k] = y*(x[k]) of the bubble point at P (the
  * curve the column module steps on; inside a two-liquid region the homogeneous, metastable

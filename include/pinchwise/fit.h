@@ -162,6 +162,13 @@ typedef struct pw_fit_result {
     double split_min_D, split_x, split_T_K;
     double T_min_K, T_max_K;   /* range of the data (validity range of the fit) */
     double sigma_T_K, sigma_P_rel, sigma_y;
+    /* The dataset's own uncertainty metadata (stated in its file or the reader's defaults), kept
+     * apart from the weights above (which fit options may override) so that the consistency
+     * tests can be run from the fit file exactly as `check` runs them on the file
+     * (pw_fit_dataset). data_sigma_known false: an older fit file without them. */
+    bool data_sigma_known;
+    double data_sigma_T_K, data_sigma_P_rel, data_sigma_P_abs_Pa, data_sigma_y, data_sigma_x;
+    bool data_sigma_y_stated, data_sigma_x_stated;
     pw_fit_point *pts;         /* all measured points, excluded ones flagged */
     size_t n_pts;
     char exclude_reason[256];
@@ -202,6 +209,12 @@ int pw_fit_class_from_name(const char *name);
  * documented bounds (PW_FIT_BOUND_*), else the index of the first one beyond. */
 int pw_fit_runaway_param(const pw_model_type *m, const bool *fitted, const double *params,
                          double T_ref_K);
+
+/* The measured data set again from a fit result: names, kind, fixed condition, has_y, source,
+ * path, the dataset's uncertainty metadata (data_sigma_*; for an older fit file without them the
+ * fit's weights, none stated) and every point (excluded ones too) in file order. ds owns its
+ * points (pw_dataset_free). PW_ENOMEM, PW_EINVAL (NULL arguments). */
+pw_status pw_fit_dataset(const pw_fit_result *r, pw_dataset *ds);
 
 /* Frees r->pts; accepts NULL. */
 void pw_fit_result_free(pw_fit_result *r);

@@ -8,6 +8,7 @@
 #ifndef PINCHWISE_HETCHECK_H
 #define PINCHWISE_HETCHECK_H
 
+#include <pinchwise/consistency.h>
 #include <pinchwise/dataset.h>
 #include <pinchwise/lledata.h>
 
@@ -35,6 +36,15 @@ pw_status pw_het_check_run(const pw_dataset *ds, const pw_component *c1, const p
                            pw_dataset *one_liquid, pw_het_check *out);
 
 void pw_het_check_free(pw_het_check *out, pw_dataset *one_liquid);
+
+/* What `check` runs on a data set, the one function for every place that judges data
+ * (check, the report): the three-phase points split off into het (pw_het_check_run), then
+ * pw_consistency_run on the one-liquid rest (ds itself when there are none) with options o
+ * (NULL: the defaults). On PW_OK the caller frees het (pw_het_check_free(het, NULL)) and r
+ * (pw_consistency_result_free); on failure nothing is left to free and err says why. */
+pw_status pw_check_data(const pw_dataset *ds, const pw_component *c1, const pw_component *c2,
+                        const pw_consistency_options *o, pw_het_check *het,
+                        pw_consistency_result *r, pw_error *err);
 
 /* Why three-phase points are left out of the consistency tests, in words (static string). */
 const char *pw_het_check_reason(void);

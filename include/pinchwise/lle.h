@@ -146,6 +146,16 @@ pw_status pw_azeotrope_heterogeneous(const pw_system *s, int mode, double fixed,
                                      struct pw_az_result *r, pw_three_phase *tp,
                                      size_t *n_removed);
 
+/* Every azeotrope at one condition: the one search that every place listing azeotropes uses
+ * (the azeotrope command, the ranking of fit --model all, study and the report). The
+ * homogeneous roots of pw_azeotrope_find into r, then pw_azeotrope_heterogeneous (crossings
+ * inside the two-liquid region dropped from r and counted in *n_removed, the three-phase state
+ * into tp). tp is cleared first (tp->exists false). *het_failed (may be NULL) is set true when the
+ * failure came from the three-phase step (r then holds the homogeneous roots, unfiltered); a
+ * failure of the homogeneous search leaves r->fail_x1 saying where. */
+pw_status pw_azeotrope_search(const pw_system *s, int mode, double fixed, struct pw_az_result *r,
+                              pw_three_phase *tp, size_t *n_removed, bool *het_failed);
+
 #ifdef __cplusplus
 }
 #endif

@@ -38,10 +38,53 @@ static bool same_data(const pw_fit_result *a, const pw_fit_result *b)
 
 /* Sound: converged, a finite AICc, and no predicted liquid split unless the data themselves show
  * two liquids (three-phase points or tie lines fitted: the split is then measured, not spurious). */
+bool pw_rank_split_allowed(const pw_fit_result *r)
+{
+    return r && (r->n_three_phase > 0 || r->n_tie_lines > 0);
+}
+
 static bool is_sound(const pw_fit_result *r)
 {
-    bool measured_split = r->n_three_phase > 0 || r->n_tie_lines > 0;
-    return r->converged && (!r->split || measured_split) && isfinite(r->aicc);
+    return r->converged && (!r->split || pw_rank_split_allowed(r)) && isfinite(r->aicc);
+}
+
+const char *pw_rank_rule_text(const pw_ranking *rk)
+{
+    bool allowed = false, fewer = false;
+    for (size_t i = 0; rk && i < rk->n; i++) {
+        allowed = allowed || pw_rank_split_allowed(rk->rows[i].fit);
+        fewer = fewer || rk->rows[i].cls == PW_RANK_FEWER;
+    }
+    static const char *const text[2][2] = {
+        {"sound fits first (converged, a finite AICc, no predicted liquid split: the data show "
+         "one liquid), then lowest AICc",
+         "sound fits first (converged, a finite AICc, no predicted liquid split: the data show "
+         "one liquid), then lowest AICc; fits of fewer residuals are not comparable and rank "
+         "last"},
+        {"sound fits first (converged, a finite AICc; a predicted liquid split is allowed, since "
+         "the data hold three-phase points or tie lines), then lowest AICc",
+         "sound fits first (converged, a finite AICc; a predicted liquid split is allowed, since "
+         "the data hold three-phase points or tie lines), then lowest AICc; fits of fewer "
+         "residuals (a model that cannot split leaves the three-phase points out) are not "
+         "comparable and rank last"},
+    };
+    return text[allowed][fewer];
+}
+
+size_t pw_rank_az_list(const pw_az_result *r, const pw_three_phase *tp, pw_rank_az *out)
+{
+    size_t n = 0;
+    for (size_t k = 0; k < r->n && n < PW_AZ_MAX + 1; k++)
+        out[n++] = (pw_rank_az){r->az[k].x1, r->az[k].T_K, r->az[k].P_Pa, r->az[k].kind, false};
+    if (tp->exists && tp->heterogeneous_azeotrope && n < PW_AZ_MAX + 1)
+        out[n++] = (pw_rank_az){tp->y1, tp->T_K, tp->P_Pa, PW_AZ_MINIMUM_BOILING, true};
+    return n;
+}
+
+/* The row's azeotropes in the azeotrope command's order (include/pinchwise/assess.h). */
+static void list_azeotropes(pw_rank_row *r)
+{
+    r->n_azs = r->az_status == PW_OK ? pw_rank_az_list(&r->az, &r->tp, r->azs) : 0;
 }
 
 /* Order: sound, then unsound, then fits of fewer residuals; by AICc within each. */
@@ -132,19 +175,21 @@ pw_status pw_rank_assess(const pw_fit_result *const *fits, size_t n, const pw_ra
         pw_rank_row *r = &out->rows[i];
         const pw_fit_result *f = r->fit;
         bool iso = f->kind == PW_DATA_ISOTHERMAL;
-        r->az_status = pw_azeotrope_find(&f->sys, iso ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC,
-                                         iso ? f->T_fixed_K : f->P_fixed_Pa, NULL, &r->az);
+        r->az_status = pw_azeotrope_search(&f->sys, iso ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC,
+                                           iso ? f->T_fixed_K : f->P_fixed_Pa, &r->az, &r->tp,
+                                           NULL, NULL);
+        list_azeotropes(r);
         if (col)
             solve_column(r, col);
         if (r->cls > PW_RANK_CONSIDERED)
             continue;
         if (r->az_status == PW_OK) {
-            if (r->az.n == 0)
+            if (r->n_azs == 0)
                 without++;
             else {
                 with++;
-                xlo = fmin(xlo, r->az.az[0].x1);
-                xhi = fmax(xhi, r->az.az[0].x1);
+                xlo = fmin(xlo, r->azs[0].x1);
+                xhi = fmax(xhi, r->azs[0].x1);
             }
         }
         if (r->column && r->col_status == PW_OK) {

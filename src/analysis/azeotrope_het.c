@@ -39,3 +39,22 @@ pw_status pw_azeotrope_heterogeneous(const pw_system *s, int mode, double fixed,
     r->n = keep;
     return PW_OK;
 }
+
+pw_status pw_azeotrope_search(const pw_system *s, int mode, double fixed, struct pw_az_result *r,
+                              pw_three_phase *tp, size_t *n_removed, bool *het_failed)
+{
+    if (het_failed)
+        *het_failed = false;
+    if (n_removed)
+        *n_removed = 0;
+    if (!tp || !r)
+        return PW_EINVAL;
+    memset(tp, 0, sizeof *tp);
+    pw_status st = pw_azeotrope_find(s, (pw_az_mode)mode, fixed, NULL, r);
+    if (st != PW_OK)
+        return st;
+    st = pw_azeotrope_heterogeneous(s, mode, fixed, r, tp, n_removed);
+    if (st != PW_OK && het_failed)
+        *het_failed = true;
+    return st;
+}

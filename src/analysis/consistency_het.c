@@ -72,3 +72,21 @@ void pw_het_check_free(pw_het_check *out, pw_dataset *one_liquid)
         one_liquid->n = 0;
     }
 }
+
+pw_status pw_check_data(const pw_dataset *ds, const pw_component *c1, const pw_component *c2,
+                        const pw_consistency_options *o, pw_het_check *het,
+                        pw_consistency_result *r, pw_error *err)
+{
+    memset(het, 0, sizeof *het);
+    memset(r, 0, sizeof *r);
+    pw_dataset one;
+    memset(&one, 0, sizeof one);
+    if (pw_het_check_run(ds, c1, c2, &one, het) != PW_OK)
+        return pw_error_set(err, PW_ENOMEM, ds->path, 0, "out of memory");
+    pw_consistency_options def = pw_consistency_default_options();
+    pw_status st = pw_consistency_run(het->n ? &one : ds, c1, c2, o ? o : &def, r, err);
+    pw_het_check_free(NULL, &one);
+    if (st != PW_OK)
+        pw_het_check_free(het, NULL);
+    return st;
+}

@@ -27,20 +27,21 @@ static bool fixed_ok(double v)
 /* The azeotropes at one condition (drawing.h): the module's search, then the heterogeneous
  * correction for a model that can split. */
 static void azeotropes(const pw_system *s, bool isothermal, double fixed, const pw_az_result *known,
-                       pw_draw_azeotropes *a)
+                       const pw_three_phase *known_tp, pw_draw_azeotropes *a)
 {
     memset(a, 0, sizeof *a);
     a->three_phase.exists = false;
     pw_az_mode mode = isothermal ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC;
-    if (known) {
+    if (known) { /* pw_azeotrope_search's: already checked against the two-liquid region */
         a->status = PW_OK;
         a->found = *known;
+        a->three_phase = *known_tp;
     } else {
         a->status = pw_azeotrope_find(s, mode, fixed, NULL, &a->found);
     }
     if (a->status != PW_OK)
         return;
-    if (pw_model_can_split(s->model)) {
+    if (!known && pw_model_can_split(s->model)) {
         pw_az_result res = a->found;
         pw_three_phase tp;
         if (pw_azeotrope_heterogeneous(s, mode, fixed, &res, &tp, NULL) == PW_OK) {
@@ -99,18 +100,19 @@ static bool dew_unstable(const pw_system *s, const pw_three_phase *tp, const pw_
 pw_status pw_draw_phase_compute(const pw_system *s, bool isothermal, double fixed,
                                 pw_draw_phase *o)
 {
-    return pw_draw_phase_compute_known(s, isothermal, fixed, NULL, o);
+    return pw_draw_phase_compute_known(s, isothermal, fixed, NULL, NULL, o);
 }
 
 pw_status pw_draw_phase_compute_known(const pw_system *s, bool isothermal, double fixed,
-                                      const pw_az_result *known, pw_draw_phase *o)
+                                      const pw_az_result *known, const pw_three_phase *known_tp,
+                                      pw_draw_phase *o)
 {
-    if (!s || !s->model || !o || !fixed_ok(fixed))
+    if (!s || !s->model || !o || !fixed_ok(fixed) || (!known != !known_tp))
         return PW_EINVAL;
     memset(o, 0, sizeof *o);
     o->isothermal = isothermal;
     o->fixed = fixed;
-    azeotropes(s, isothermal, fixed, known, &o->az);
+    azeotropes(s, isothermal, fixed, known, known_tp, &o->az);
     /* an overall liquid inside the two-liquid region boils at the three-phase condition: the
      * bubble curve is flat there (docs/heterogeneous.md) */
     const pw_three_phase *tp = &o->az.three_phase;
@@ -170,7 +172,7 @@ pw_status pw_draw_xy_compute(const pw_system *s, double P_Pa, pw_draw_xy *o)
     if (st != PW_OK)
         return st;
     pw_curve curve = pw_system_curve_bind(&sc);
-    azeotropes(s, false, P_Pa, NULL, &o->az);
+    azeotropes(s, false, P_Pa, NULL, NULL, &o->az);
     const pw_three_phase *tp = &o->az.three_phase;
     for (size_t i = 0; i < PW_DRAW_GRID; i++) {
         double x = pw_draw_grid_x(i), y;

@@ -252,11 +252,9 @@ pw_status cli_check(int argc, char **argv)
     }
     /* points inside the two-liquid region: out of the one-liquid tests (docs/heterogeneous.md) */
     pw_het_check het;
-    pw_dataset one;
     memset(&het, 0, sizeof het);
-    memset(&one, 0, sizeof one);
     if (st == PW_OK)
-        st = pw_check_solve(&ds, c[0], c[1], &o, &het, &one, &r, &err);
+        st = pw_check_data(&ds, c[0], c[1], &o, &het, &r, &err);
     pw_status code = PW_OK;
     if (st != PW_OK) {
         code = cli_fail("check", &err);
@@ -286,7 +284,7 @@ pw_status cli_check(int argc, char **argv)
         if (code == PW_OK && exit_verdict && !r.consistent)
             code = PW_EINFEASIBLE;
     }
-    pw_het_check_free(&het, &one);
+    pw_het_check_free(&het, NULL);
     pw_consistency_result_free(&r);
     pw_dataset_free(&ds);
     pw_complib_free(&lib);

@@ -2,8 +2,9 @@
  *
  * Steps, each done by the library through the same code as the single commands: consistency of
  * the data (check), every model fitted (fit --model all) or the one named, the model chosen by
- * the rule of `fit --model all` (converged fits that predict no liquid split first, then lowest
- * AICc) unless --model names one, the azeotropes at the data's condition and at the column
+ * the rule of `fit --model all` (converged fits first, those predicting a liquid split among them
+ * only when the data hold three-phase points or tie lines; then lowest AICc; pinchwise/assess.h)
+ * unless --model names one, the azeotropes at the data's condition and at the column
  * pressure (azeotrope), the column with its design table (reflux, either split direction),
  * optionally the fit's uncertainty (--uncertainty), and the HTML report with every model side by
  * side (report). One progress display on a terminal, one summary (or one JSON object), one exit
@@ -114,13 +115,9 @@ static pw_status consistency(const study_args *a, const pw_complib *lib, pw_cons
     st = pw_dataset_components(lib, &ds, comp, err); /* as `check` finds them */
     if (st == PW_OK)
         st = pw_dataset_to_mole(&ds, &comp[0], &comp[1], err);
-    pw_het_check het;
-    pw_dataset one;
-    memset(&het, 0, sizeof het);
-    memset(&one, 0, sizeof one);
-    if (st == PW_OK)
-        st = pw_check_solve(&ds, &comp[0], &comp[1], NULL, &het, &one, cr, err);
-    pw_het_check_free(&het, &one);
+    pw_het_check het; /* three-phase points out of the one-liquid tests, as check does */
+    if (st == PW_OK && (st = pw_check_data(&ds, &comp[0], &comp[1], NULL, &het, cr, err)) == PW_OK)
+        pw_het_check_free(&het, NULL);
     pw_dataset_free(&ds);
     return st;
 }
@@ -133,33 +130,53 @@ typedef struct model_fit {
     pw_error err;
 } model_fit;
 
-static json_t *az_json(const pw_az_result *r)
+/* The azeotropes of one pw_azeotrope_search, as the azeotrope command lists them. */
+typedef struct study_az {
+    bool ok;
+    pw_rank_az az[PW_AZ_MAX + 1];
+    size_t n;
+} study_az;
+
+static void az_search(const pw_system *s, pw_az_mode mode, double fixed, study_az *out)
 {
+    pw_az_result r;
+    pw_three_phase tp;
+    out->ok = pw_azeotrope_search(s, (int)mode, fixed, &r, &tp, NULL, NULL) == PW_OK;
+    out->n = out->ok ? pw_rank_az_list(&r, &tp, out->az) : 0;
+}
+
+static json_t *az_json(const study_az *r)
+{
+    if (!r->ok)
+        return json_null();
     json_t *arr = json_array();
     for (size_t i = 0; i < r->n; i++)
-        json_array_append_new(arr,
-                              json_pack("{s:o,s:o,s:o,s:s}", "x1", cli_json_num(r->az[i].x1),
-                                        "T_K", cli_json_num(r->az[i].T_K), "P_kPa",
-                                        cli_json_num(r->az[i].P_Pa / 1000.0), "kind",
-                                        pw_az_kind_name(r->az[i].kind)));
+        json_array_append_new(arr, json_pack("{s:o,s:o,s:o,s:s,s:b}", "x1",
+                                             cli_json_num(r->az[i].x1), "T_K",
+                                             cli_json_num(r->az[i].T_K), "P_kPa",
+                                             cli_json_num(r->az[i].P_Pa / 1000.0), "kind",
+                                             pw_az_kind_name(r->az[i].kind), "heterogeneous",
+                                             r->az[i].heterogeneous));
     return arr;
 }
 
-static void az_text(const char *where, const pw_az_result *r, bool ok, const pw_display_units *u)
+static void az_text(const char *where, const study_az *r, const pw_display_units *u)
 {
     char bT[48], bP[48];
     printf("  azeotropes %s: ", where);
-    if (!ok) {
+    if (!r->ok) {
         printf("not found: the search failed\n");
         return;
     }
     if (r->n == 0)
         printf("none\n");
     for (size_t i = 0; i < r->n; i++)
-        printf("%s%s at x1 = %.4f, T = %s, P = %s\n", i ? "; " : "",
-               pw_az_kind_name(r->az[i].kind), r->az[i].x1,
+        printf("%s%s%s at x1 = %.4f, T = %s, P = %s%s", i ? "; " : "",
+               pw_az_kind_name(r->az[i].kind), r->az[i].heterogeneous ? " heterogeneous" : "",
+               r->az[i].x1,
                pw_units_display_value(u, PW_SHOW_T, ".2f", r->az[i].T_K, bT, sizeof bT),
-               pw_units_display_value(u, PW_SHOW_P, ".4g", r->az[i].P_Pa, bP, sizeof bP));
+               pw_units_display_value(u, PW_SHOW_P, ".4g", r->az[i].P_Pa, bP, sizeof bP),
+               i + 1 == r->n ? "\n" : "");
 }
 
 pw_status cli_study(int argc, char **argv)
@@ -219,6 +236,7 @@ pw_status cli_study(int argc, char **argv)
     co.force = a.force;
     co.quiet = true;
     size_t best = 0;
+    char chosen_because[512] = "the only model fitted";
     for (size_t i = 0; i < n_models; i++) {
         fits[i].model = models[i];
         pw_error_clear(&fits[i].err);
@@ -235,9 +253,11 @@ pw_status cli_study(int argc, char **argv)
                 map[n_ok++] = i;
             }
         pw_ranking *rk = n_ok ? malloc(sizeof *rk) : NULL;
-        if (rk && pw_rank_fits(ok, n_ok, rk) == PW_OK && rk->n > 0)
+        if (rk && pw_rank_fits(ok, n_ok, rk) == PW_OK && rk->n > 0) {
             best = map[rk->rows[0].index];
-        else if (n_ok)
+            snprintf(chosen_because, sizeof chosen_because, "rank 1 by the rule of fit --model all: %s",
+                     pw_rank_rule_text(rk));
+        } else if (n_ok)
             best = map[0];
         free(rk);
     }
@@ -272,11 +292,10 @@ pw_status cli_study(int argc, char **argv)
     step("finding the azeotropes", 5);
     const pw_fit_result *f = &run.fit;
     bool iso = f->kind == PW_DATA_ISOTHERMAL;
-    pw_az_result az_data, az_col;
-    bool az_data_ok =
-        pw_azeotrope_find(&f->sys, iso ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC,
-                          iso ? f->T_fixed_K : f->P_fixed_Pa, NULL, &az_data) == PW_OK;
-    bool az_col_ok = pw_azeotrope_find(&f->sys, PW_AZ_ISOBARIC, run.P_Pa, NULL, &az_col) == PW_OK;
+    study_az az_data, az_col; /* pw_azeotrope_search: the azeotrope command's search */
+    az_search(&f->sys, iso ? PW_AZ_ISOTHERMAL : PW_AZ_ISOBARIC, iso ? f->T_fixed_K : f->P_fixed_Pa,
+              &az_data);
+    az_search(&f->sys, PW_AZ_ISOBARIC, run.P_Pa, &az_col);
 
     /* 6. the report, with the other models side by side */
     step("writing the report", 6);
@@ -351,13 +370,11 @@ pw_status cli_study(int argc, char **argv)
         json_object_set_new(o, "models", ms);
         json_object_set_new(o, "chosen_model", json_string(chosen->model->name));
         json_object_set_new(o, "chosen_because",
-                            json_string(only ? "named with --model"
-                                             : "converged, no predicted liquid split, lowest AICc "
-                                               "(the rule of fit --model all)"));
+                            json_string(only ? "named with --model" : chosen_because));
         json_object_set_new(o, "azeotropes_at_data_condition",
-                            az_data_ok ? az_json(&az_data) : json_null());
+                            az_json(&az_data));
         json_object_set_new(o, "azeotropes_at_column_pressure",
-                            az_col_ok ? az_json(&az_col) : json_null());
+                            az_json(&az_col));
         json_t *rj = cli_column_json(&run);
         if (ra.unc.on || ra.n_compare)
             cli_column_uncert_json(&unc, rj);
@@ -374,14 +391,17 @@ pw_status cli_study(int argc, char **argv)
             if (fits[i].rc == 0)
                 printf("%s%s AICc %.4g%s%s", i ? ", " : "", fits[i].model->name, fits[i].r.aicc,
                        fits[i].r.converged ? "" : " (not converged)",
-                       fits[i].r.split ? " (predicts a liquid split)" : "");
+                       !fits[i].r.split                  ? ""
+                       : pw_rank_split_allowed(&fits[i].r) ? " (predicts a liquid split, allowed: "
+                                                             "two liquids measured)"
+                                                           : " (predicts a liquid split)");
             else
                 printf("%s%s failed", i ? ", " : "", fits[i].model->name);
         }
         printf("\n  chosen                %s (%s)\n", chosen->model->name,
-               only ? "named with --model" : "converged, no liquid split, lowest AICc");
-        az_text("at the data's condition", &az_data, az_data_ok, &ra.units);
-        az_text("at the column pressure", &az_col, az_col_ok, &ra.units);
+               only ? "named with --model" : chosen_because);
+        az_text("at the data's condition", &az_data, &ra.units);
+        az_text("at the column pressure", &az_col, &ra.units);
         const pw_column_result *c = &run.col;
         char why[PW_REASON_MAX + 64];
         if (!c->feasible) {

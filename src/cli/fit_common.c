@@ -138,13 +138,13 @@ static json_t *az_json(const pw_rank_row *w)
     if (w->az_status != PW_OK)
         return json_null();
     json_t *azs = json_array();
-    for (size_t k = 0; k < w->az.n; k++)
-        json_array_append_new(azs, json_pack("{s:o,s:o,s:o,s:s}", "x1", cli_json_num(w->az.az[k].x1),
-                                             "T_K", cli_json_num(w->az.az[k].T_K), "P_kPa",
-                                             cli_json_num(w->az.az[k].P_Pa / 1e3), "kind",
-                                             w->az.az[k].kind == PW_AZ_MINIMUM_BOILING
-                                                 ? "minimum-boiling"
-                                                 : "maximum-boiling"));
+    for (size_t k = 0; k < w->n_azs; k++)
+        json_array_append_new(azs, json_pack("{s:o,s:o,s:o,s:s,s:b}", "x1",
+                                             cli_json_num(w->azs[k].x1), "T_K",
+                                             cli_json_num(w->azs[k].T_K), "P_kPa",
+                                             cli_json_num(w->azs[k].P_Pa / 1e3), "kind",
+                                             pw_az_kind_name(w->azs[k].kind), "heterogeneous",
+                                             w->azs[k].heterogeneous));
     return azs;
 }
 
@@ -200,9 +200,12 @@ pw_status cli_fit_all_models(const char *input, const char *out_dir, const cli_f
     pw_status rc = PW_OK;
     if (co->json) {
         json_t *o = json_object();
-        json_object_set_new(o, "ranking", json_string("sound fits (converged, no liquid split) by AICc "
-                                                      "(Hurvich & Tsai 1989), classes after Burnham & "
-                                                      "Anderson (2002); unsound fits rank last"));
+        char rule[512];
+        snprintf(rule, sizeof rule,
+                 "%s (AICc after Hurvich & Tsai 1989), classes after Burnham & Anderson (2002); "
+                 "unsound fits rank below sound ones",
+                 pw_rank_rule_text(rk));
+        json_object_set_new(o, "ranking", json_string(rule));
         json_t *arr = json_array(), *failed = json_array();
         for (size_t j = 0; j < rk->n; j++) {
             const pw_rank_row *w = &rk->rows[j];
@@ -249,17 +252,25 @@ pw_status cli_fit_all_models(const char *input, const char *out_dir, const cli_f
             char ca[32] = "none";
             if (w->az_status != PW_OK)
                 snprintf(ca, sizeof ca, "?");
-            else if (w->az.n == 1)
-                snprintf(ca, sizeof ca, "%.4f", w->az.az[0].x1);
-            else if (w->az.n > 1)
-                snprintf(ca, sizeof ca, "%.3f,%.3f", w->az.az[0].x1, w->az.az[1].x1);
+            else if (w->n_azs == 1)
+                snprintf(ca, sizeof ca, "%.4f%s", w->azs[0].x1, w->azs[0].heterogeneous ? "h" : "");
+            else if (w->n_azs > 1)
+                snprintf(ca, sizeof ca, "%.3f,%.3f", w->azs[0].x1, w->azs[1].x1);
             printf("  %-4zu %-9s %9s %-17s %10s %10s %10s %10s  %s%s\n", j + 1, r->sys.model->name, cd,
                    pw_rank_class_name(w->cls), cy, cT, cP, ca, r->converged ? "" : "not converged ",
-                   r->split ? "liquid split predicted" : "");
+                   !r->split                  ? ""
+                   : pw_rank_split_allowed(r) ? "liquid split predicted (allowed: measured)"
+                                              : "liquid split predicted");
         }
         bool negative = false;
         for (size_t j = 0; j < rk->n; j++)
             negative = negative || rk->rows[j].delta_aicc < 0.0;
+        printf("  rule: %s\n", pw_rank_rule_text(rk));
+        for (size_t j = 0; j < rk->n; j++)
+            if (rk->rows[j].n_azs && rk->rows[j].azs[0].heterogeneous) {
+                printf("  x1 azeo. with h: heterogeneous (the three-phase vapor)\n");
+                break;
+            }
         printf("  dAICc = AICc - AICc of rank 1 (positive: fits worse than rank 1)%s\n",
                negative ? "; a negative value is a fit with a lower AICc ranked below rank 1 "
                           "(see its class)"

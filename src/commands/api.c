@@ -214,11 +214,11 @@ pw_status pw_api_check(const char *data, const char *components, int strict, cha
     o.strict_verdict = strict != 0;
     /* points inside the two-liquid region: out of the one-liquid tests */
     pw_het_check het;
-    pw_dataset one;
-    st = pw_check_solve(&ds, &found[0], &found[1], &o, &het, &one, &r, err);
-    if (st == PW_OK)
+    st = pw_check_data(&ds, &found[0], &found[1], &o, &het, &r, err);
+    if (st == PW_OK) {
         st = finish(pw_check_doc(&ds, &r, strict != 0, &het), doc, err);
-    pw_het_check_free(&het, &one);
+        pw_het_check_free(&het, NULL);
+    }
     pw_consistency_result_free(&r);
     pw_dataset_free(&ds);
     return st;

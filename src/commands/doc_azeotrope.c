@@ -115,14 +115,11 @@ pw_status pw_azeotrope_solve(const pw_system *sys, pw_az_mode mode, double fixed
                              const char *where, pw_az_result *r, pw_three_phase *tp,
                              size_t *n_removed, pw_error *err)
 {
-    memset(tp, 0, sizeof *tp);
-    if (n_removed)
-        *n_removed = 0;
-    pw_status st = pw_azeotrope_find(sys, mode, fixed, NULL, r);
-    if (st != PW_OK)
+    bool het_failed = false;
+    pw_status st = pw_azeotrope_search(sys, (int)mode, fixed, r, tp, n_removed, &het_failed);
+    if (st != PW_OK && !het_failed)
         return pw_error_set(err, st, where, 0, "azeotrope search failed near x1 = %.4g: %s",
                             r->fail_x1, pw_strerror(st));
-    st = pw_azeotrope_heterogeneous(sys, (int)mode, fixed, r, tp, n_removed);
     if (st != PW_OK)
         return pw_error_set(err, st, where, 0,
                             "three-phase (two liquids and vapor) search failed: %s",

@@ -201,15 +201,3 @@ json_t *pw_check_doc(const pw_dataset *ds, const pw_consistency_result *r, bool 
         json_object_set_new(o, "three_phase_points", het_json(het));
     return o;
 }
-
-pw_status pw_check_solve(const pw_dataset *ds, const pw_component *c1, const pw_component *c2,
-                         const pw_consistency_options *o, pw_het_check *het,
-                         pw_dataset *one_liquid, pw_consistency_result *r, pw_error *err)
-{
-    memset(het, 0, sizeof *het);
-    memset(one_liquid, 0, sizeof *one_liquid);
-    memset(r, 0, sizeof *r);
-    if (pw_het_check_run(ds, c1, c2, one_liquid, het) != PW_OK)
-        return pw_error_set(err, PW_ENOMEM, ds->path, 0, "out of memory");
-    return pw_consistency_run(het->n ? one_liquid : ds, c1, c2, o, r, err);
-}

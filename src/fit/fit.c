@@ -448,6 +448,14 @@ static pw_status init_result(const pw_dataset *ds, const pw_component *c1, const
     r->T_fixed_K = ds->T_fixed_K;
     r->objective = ds->kind == PW_DATA_ISOBARIC ? (ds->has_y ? PW_OBJ_TXY : PW_OBJ_TX)
                                                 : (ds->has_y ? PW_OBJ_PXY : PW_OBJ_PX);
+    r->data_sigma_known = true;
+    r->data_sigma_T_K = ds->sigma_T_K;
+    r->data_sigma_P_rel = ds->sigma_P_rel;
+    r->data_sigma_P_abs_Pa = ds->sigma_P_abs_Pa;
+    r->data_sigma_y = ds->sigma_y;
+    r->data_sigma_x = ds->sigma_x;
+    r->data_sigma_y_stated = ds->sigma_y_stated;
+    r->data_sigma_x_stated = ds->sigma_x_stated;
     r->sigma_T_K = isfinite(o->sigma_T_K) ? o->sigma_T_K : ds->sigma_T_K;
     r->sigma_y = isfinite(o->sigma_y) ? o->sigma_y : ds->sigma_y;
     /* an option overrides the file: relative first, then absolute */

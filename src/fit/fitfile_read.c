@@ -69,6 +69,43 @@ static const char *get_str(reader *rd, const json_t *obj, const char *key)
 
 static void copy_str(char *dst, size_t n, const char *src) { snprintf(dst, n, "%s", src); }
 
+/* The optional "data.uncertainties" object (absent in older fit files: data_sigma_known stays
+ * false and pw_fit_dataset falls back on the weights): the dataset's own sigma metadata. Each
+ * sigma is null or a positive finite number, at least one of the two sigma_P given; the
+ * "stated" flags booleans. */
+static void read_data_sigmas(reader *rd, const json_t *u, pw_fit_result *r)
+{
+    if (!u)
+        return;
+    if (!json_is_object(u)) {
+        fail(rd, "key \"data.uncertainties\" must be an object");
+        return;
+    }
+    const char *keys[] = {"sigma_T_K", "sigma_P_relative", "sigma_P_abs_Pa", "sigma_y", "sigma_x"};
+    double *dst[] = {&r->data_sigma_T_K, &r->data_sigma_P_rel, &r->data_sigma_P_abs_Pa,
+                     &r->data_sigma_y, &r->data_sigma_x};
+    for (int k = 0; k < 5 && rd->st == PW_OK; k++) {
+        *dst[k] = get_num(rd, u, keys[k], true);
+        if (rd->st == PW_OK && !(isnan(*dst[k]) || (*dst[k] > 0.0 && *dst[k] < 1e10)))
+            fail(rd, "key \"data.uncertainties.%s\" = %g must be positive (or null)", keys[k],
+                 *dst[k]);
+    }
+    const char *flags[] = {"sigma_y_stated", "sigma_x_stated"};
+    bool *fdst[] = {&r->data_sigma_y_stated, &r->data_sigma_x_stated};
+    for (int k = 0; k < 2 && rd->st == PW_OK; k++) {
+        const json_t *f = json_object_get(u, flags[k]);
+        if (!json_is_boolean(f))
+            fail(rd, "key \"data.uncertainties.%s\" must be true or false", flags[k]);
+        else
+            *fdst[k] = json_is_true(f);
+    }
+    if (rd->st == PW_OK && (r->data_sigma_y_stated && isnan(r->data_sigma_y)))
+        fail(rd, "key \"data.uncertainties.sigma_y\" is null but sigma_y_stated is true");
+    if (rd->st == PW_OK && (r->data_sigma_x_stated && isnan(r->data_sigma_x)))
+        fail(rd, "key \"data.uncertainties.sigma_x\" is null but sigma_x_stated is true");
+    r->data_sigma_known = rd->st == PW_OK;
+}
+
 /* The optional "constants" object of a component (absent in older fit files): every key must be
  * a column of pw_comp_prop, every value a number inside its plausible range. */
 static void read_constants(reader *rd, const json_t *obj, pw_component *out)
@@ -342,6 +379,7 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
     r->objective = r->kind == PW_DATA_ISOBARIC ? (r->has_y ? PW_OBJ_TXY : PW_OBJ_TX)
                                                : (r->has_y ? PW_OBJ_PXY : PW_OBJ_PX);
     read_points(rd, data, r);
+    read_data_sigmas(rd, json_object_get(data, "uncertainties"), r);
 
     const json_t *st = json_object_get(root, "statistics");
     if (json_is_object(st)) {

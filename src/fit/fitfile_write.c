@@ -278,6 +278,14 @@ static json_t *fitfile_json(const pw_fit_result *r, bool with_points)
     json_object_set_new(data, "P_fixed_Pa", num(r->P_fixed_Pa));
     json_object_set_new(data, "T_fixed_K", num(r->T_fixed_K));
     json_object_set_new(data, "has_y", json_boolean(r->has_y));
+    if (r->data_sigma_known) /* the dataset's own metadata, for the consistency tests */
+        json_object_set_new(
+            data, "uncertainties",
+            json_pack("{s:o,s:o,s:o,s:o,s:o,s:b,s:b}", "sigma_T_K", num(r->data_sigma_T_K),
+                      "sigma_P_relative", num(r->data_sigma_P_rel), "sigma_P_abs_Pa",
+                      num(r->data_sigma_P_abs_Pa), "sigma_y", num(r->data_sigma_y), "sigma_x",
+                      num(r->data_sigma_x), "sigma_y_stated", r->data_sigma_y_stated,
+                      "sigma_x_stated", r->data_sigma_x_stated));
     json_t *pts = with_points ? json_array() : json_string(POINTS_MARK);
     for (size_t i = 0; with_points && i < r->n_pts; i++)
         json_array_append_new(pts, point_json(&r->pts[i]));

@@ -48,43 +48,24 @@ static pw_status column(pw_report_curves *c, const pw_report_input *in)
     return PW_OK;
 }
 
-/* The measured points as a dataset again, for the consistency tests. */
+/* The consistency tests exactly as `check` runs them on the data file (pw_check_data): the data
+ * set rebuilt from the fit file with its own metadata (pw_fit_dataset), the three-phase points
+ * left out, the default options. */
 static void consistency(pw_report_curves *c)
 {
-    const pw_fit_result *r = c->fit;
     pw_dataset ds;
-    memset(&ds, 0, sizeof ds);
-    snprintf(ds.path, sizeof ds.path, "%s", r->dataset_path[0] ? r->dataset_path : "(fit file)");
-    snprintf(ds.names[0], sizeof ds.names[0], "%s", r->sys.comp[0].name);
-    snprintf(ds.names[1], sizeof ds.names[1], "%s", r->sys.comp[1].name);
-    ds.kind = r->kind;
-    ds.P_fixed_Pa = r->P_fixed_Pa;
-    ds.T_fixed_K = r->T_fixed_K;
-    ds.has_y = r->has_y;
-    snprintf(ds.source, sizeof ds.source, "%s", r->source);
-    ds.sigma_T_K = r->sigma_T_K;
-    ds.sigma_P_rel = r->sigma_P_rel;
-    ds.sigma_P_abs_Pa = PW_NAN;
-    ds.sigma_y = r->sigma_y;
-    ds.sigma_x = 0.001;
-    snprintf(ds.T_unit, sizeof ds.T_unit, "K");
-    snprintf(ds.P_unit, sizeof ds.P_unit, "kPa");
-    ds.n = r->n_pts;
-    ds.pts = malloc((r->n_pts ? r->n_pts : 1) * sizeof *ds.pts);
-    if (!ds.pts) {
-        c->cons_status = PW_ENOMEM;
-        snprintf(c->cons_error, sizeof c->cons_error, "%s", pw_strerror(PW_ENOMEM));
-        return;
-    }
-    for (size_t i = 0; i < r->n_pts; i++)
-        ds.pts[i] = r->pts[i].meas;
     pw_error err;
     pw_error_clear(&err);
-    c->cons_status = pw_consistency_run(&ds, &r->sys.comp[0], &r->sys.comp[1], NULL, &c->cons, &err);
+    c->cons_status = pw_fit_dataset(c->fit, &ds);
+    if (c->cons_status == PW_OK) {
+        c->cons_status = pw_check_data(&ds, &c->fit->sys.comp[0], &c->fit->sys.comp[1], NULL,
+                                       &c->cons_het, &c->cons, &err);
+        pw_dataset_free(&ds);
+    }
     c->cons_ran = c->cons_status == PW_OK;
     if (!c->cons_ran)
-        snprintf(c->cons_error, sizeof c->cons_error, "%s", err.msg[0] ? err.msg : pw_strerror(c->cons_status));
-    free(ds.pts);
+        snprintf(c->cons_error, sizeof c->cons_error, "%s",
+                 err.msg[0] ? err.msg : pw_strerror(c->cons_status));
 }
 
 /* The report's fit and the others of the same data, ranked by the library's one rule, each with
@@ -124,15 +105,20 @@ static pw_status other_models(pw_report_curves *c, const pw_report_input *in)
         if (!o || !o->sys.model || o->kind != c->fit->kind)
             continue;
         /* the ranking already searched this fit's azeotropes at the data's condition */
+        /* (pw_azeotrope_search's results: the homogeneous roots outside the two-liquid region
+         * and the three-phase state, as the drawing takes them) */
         const pw_az_result *known = NULL;
+        const pw_three_phase *known_tp = NULL;
         for (size_t k = 0; c->rank && c->rank_status == PW_OK && k < c->rank->n; k++) {
             const pw_rank_row *r = &c->rank->rows[k];
             double f = c->isothermal ? o->T_fixed_K : o->P_fixed_Pa;
-            if (r->fit == o && r->az_status == PW_OK && f == c->phase.fixed)
+            if (r->fit == o && r->az_status == PW_OK && f == c->phase.fixed) {
                 known = &r->az;
+                known_tp = &r->tp;
+            }
         }
         pw_status st = pw_draw_phase_compute_known(&o->sys, c->isothermal, c->phase.fixed, known,
-                                                   &c->model_phase[c->n_models]);
+                                                   known_tp, &c->model_phase[c->n_models]);
         if (st == PW_ENOMEM)
             return st;
         if (st == PW_OK)
@@ -174,8 +160,10 @@ void pw_report_curves_free(pw_report_curves *c)
 {
     if (!c)
         return;
-    if (c->cons_ran)
+    if (c->cons_ran) {
         pw_consistency_result_free(&c->cons);
+        pw_het_check_free(&c->cons_het, NULL);
+    }
     c->cons_ran = false;
     free(c->band_y);
     c->band_y = NULL;

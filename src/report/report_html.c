@@ -336,14 +336,37 @@ static void consistency_section(pw_sbuf *b, const pw_report_curves *c)
         return;
     }
     const pw_consistency_result *k = &c->cons;
-    pw_sbuf_printf(b, "<p><strong>Verdict: <span class=\"%s\">%s</span></strong></p>\n",
-                   k->consistent ? "verdict-pass" : "verdict-fail",
+    pw_sbuf_printf(b, "<p><strong>Verdict: <span class=\"%s\" data-consistent=\"%d\">%s</span>"
+                      "</strong></p>\n",
+                   k->consistent ? "verdict-pass" : "verdict-fail", k->consistent ? 1 : 0,
                    k->consistent ? "consistent" : "not shown to be consistent");
+    const pw_het_check *h = &c->cons_het;
+    if (h->n) {
+        pw_sbuf_printf(b, "<p>%zu three-phase point(s) (line", h->n);
+        for (size_t i = 0; i < h->n; i++)
+            pw_sbuf_printf(b, "%s %ld", i ? "," : "", h->pts[i].line);
+        pw_sbuf_puts(b, "): ");
+        esc(b, pw_het_check_reason());
+        if (isfinite(h->max_bound))
+            pw_sbuf_printf(b, ". Largest apparent activity y<sub>i</sub>P/P<sub>i</sub><sup>sat</sup>: "
+                              "%.4f (%s).</p>\n",
+                           h->max_bound, h->bound_ok ? "within the bound 1"
+                                                     : "above 1: y, T or P of these points is doubtful");
+        else
+            pw_sbuf_puts(b, ". Their apparent activity could not be evaluated (a vapor pressure "
+                            "failed there).</p>\n");
+    }
     pw_sbuf_puts(b, "<table><tr><th>Test</th><th>Value</th><th>Limit</th><th>Result</th>"
                     "<th>Published source</th></tr>\n");
     for (int i = 0; i < PW_CTEST_COUNT; i++) {
         const pw_ctest *t = &k->tests[i];
-        pw_sbuf_puts(b, "<tr><td>");
+        /* the exact numbers as data attributes, for machine comparison with `check --json` */
+        if (t->ran)
+            pw_sbuf_printf(b, "<tr data-test=\"%s\" data-value=\"%.17g\" data-limit=\"%.17g\" "
+                              "data-pass=\"%d\"><td>",
+                           t->name, t->value, t->limit, t->pass ? 1 : 0);
+        else
+            pw_sbuf_printf(b, "<tr data-test=\"%s\" data-ran=\"0\"><td>", t->name);
         esc(b, t->title);
         if (k->primary[i])
             pw_sbuf_puts(b, " <em>(verdict rests on it)</em>");
@@ -900,7 +923,8 @@ static void ranking(pw_sbuf *b, const pw_report_curves *c)
     pw_sbuf_puts(b, "<th>Notes</th></tr>\n");
     for (size_t i = 0; i < rk->n; i++) {
         const pw_rank_row *w = &rk->rows[i];
-        pw_sbuf_printf(b, "<tr><td class=\"num\">%zu</td><td>", i + 1);
+        pw_sbuf_printf(b, "<tr data-model=\"%s\"><td class=\"num\">%zu</td><td>",
+                       w->fit->sys.model->name, i + 1);
         esc(b, w->fit->sys.model->name);
         pw_sbuf_puts(b, w->fit == c->fit ? " (this report)</td>" : "</td>");
         num(b, w->delta_aicc, 3);
@@ -908,12 +932,21 @@ static void ranking(pw_sbuf *b, const pw_report_curves *c)
         num(b, w->fit->dev_y.aad, 3);
         num(b, pw_units_display_dT(&c->units, w->fit->dev_T_K.aad), 3);
         num(b, pw_units_display_P(&c->units, w->fit->dev_P_Pa.aad), 3);
+        /* every azeotrope as the azeotrope command lists it (pw_rank_row.azs) */
         if (w->az_status != PW_OK)
             pw_sbuf_puts(b, "<td>search failed</td>");
-        else if (w->az.n == 0)
-            pw_sbuf_puts(b, "<td>none</td>");
-        else
-            num(b, w->az.az[0].x1, 4);
+        else if (w->n_azs == 0)
+            pw_sbuf_puts(b, "<td data-az=\"\">none</td>");
+        else {
+            pw_sbuf_puts(b, "<td class=\"num\" data-az=\"");
+            for (size_t k = 0; k < w->n_azs; k++)
+                pw_sbuf_printf(b, "%s%.17g", k ? " " : "", w->azs[k].x1);
+            pw_sbuf_puts(b, "\">");
+            for (size_t k = 0; k < w->n_azs; k++)
+                pw_sbuf_printf(b, "%s%.4f%s", k ? "; " : "", w->azs[k].x1,
+                               w->azs[k].heterogeneous ? " (heterogeneous)" : "");
+            pw_sbuf_puts(b, "</td>");
+        }
         if (c->column) {
             if (w->col_status == PW_OK && w->col.feasible)
                 num(b, w->col.r_min, 4);
@@ -921,12 +954,17 @@ static void ranking(pw_sbuf *b, const pw_report_curves *c)
                 pw_sbuf_puts(b, w->col_status == PW_OK ? "<td>infeasible</td>" : "<td>not solved</td>");
         }
         pw_sbuf_printf(b, "<td>%s%s</td></tr>\n", w->fit->converged ? "" : "did not converge. ",
-                       w->fit->split ? "predicts a liquid split." : "");
+                       !w->fit->split                      ? ""
+                       : pw_rank_split_allowed(w->fit) ? "predicts a liquid split (allowed: two "
+                                                         "liquids were measured)."
+                                                       : "predicts a liquid split.");
     }
     pw_sbuf_puts(b, "</table>\n<p class=\"note\">Ranked by AICc (Hurvich &amp; Tsai 1989): "
                     "\xce\x94" "AICc below 2 means the data cannot tell the models apart, 10 or more "
-                    "that a model has essentially no support (Burnham &amp; Anderson 2002). Fits that "
-                    "did not converge or predict a liquid split rank last. \xce\x94" "AICc is the "
+                    "that a model has essentially no support (Burnham &amp; Anderson 2002). Rule "
+                    "applied: ");
+    esc(b, pw_rank_rule_text(rk));
+    pw_sbuf_puts(b, ". \xce\x94" "AICc is the "
                     "model's AICc minus that of rank 1: positive values fit worse; a negative value "
                     "is a fit with a lower AICc ranked below rank 1 for the reason in its support "
                     "class or notes.");
@@ -1029,7 +1067,12 @@ static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
             pw_sbuf_puts(b, ") <a href=\"#ranking\">side by side</a>");
         }
     }
-    pw_sbuf_printf(b, "; mean |\xce\x94y| %.4f", r->dev_y.aad);
+    if (isfinite(r->dev_y.aad))
+        pw_sbuf_printf(b, "; mean |\xce\x94y| %.4f", r->dev_y.aad);
+    else if (!r->has_y)
+        pw_sbuf_puts(b, "; mean |\xce\x94y| not applicable, because the data have no y");
+    else
+        pw_sbuf_puts(b, "; mean |\xce\x94y| not available (no point was fitted)");
     answer_end(b);
     answer(b, "Azeotropes");
     pw_sbuf_puts(b, "at ");

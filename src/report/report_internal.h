@@ -12,6 +12,7 @@
 #include <pinchwise/drawing.h>
 #include <pinchwise/fit.h>
 #include <pinchwise/fit_diagnostics.h>
+#include <pinchwise/hetcheck.h>
 #include <pinchwise/report.h>
 #include <pinchwise/uncertainty.h>
 #include <pinchwise/units.h>
@@ -84,6 +85,7 @@ typedef struct pw_report_curves {
     pw_status cons_status;
     char cons_error[PW_ERROR_MSG_MAX];
     pw_consistency_result cons;
+    pw_het_check cons_het; /* three-phase points left out of the tests (as `check` does) */
 } pw_report_curves;
 
 /* Fills c from the fit (and the column input). Per-point solve failures leave NAN. */
