@@ -35,3 +35,10 @@ pw_status pw_model_finish(pw_activity *out, double x1, double T_K)
     }
     return ok ? PW_OK : PW_EDOM;
 }
+
+pw_status pw_model_lean_finish(const double lngamma[2], const double dlngamma_dT[2])
+{
+    bool ok = isfinite(lngamma[0]) && isfinite(lngamma[1]) && isfinite(dlngamma_dT[0]) &&
+              isfinite(dlngamma_dT[1]);
+    return ok ? PW_OK : PW_EDOM;
+}

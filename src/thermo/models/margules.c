@@ -56,9 +56,7 @@ static pw_status eval_lean(const double *p, double T_ref_K, double x1, double T_
     lngamma[1] = x1 * x1 * (b + 2.0 * (a - b) * x2);
     for (int i = 0; i < 2; i++)
         dlngamma_dT[i] = -lngamma[i] / T_K;
-    bool ok = isfinite(lngamma[0]) && isfinite(lngamma[1]) && isfinite(dlngamma_dT[0]) &&
-              isfinite(dlngamma_dT[1]);
-    return ok ? PW_OK : PW_EDOM;
+    return pw_model_lean_finish(lngamma, dlngamma_dT);
 }
 
 /* d2(G^E/RT)/dx1^2 at n compositions (pw_model_type.d2gE_dx2). */

@@ -18,4 +18,7 @@ bool pw_model_params_finite(const double *p, size_t n);
  * Returns PW_EDOM when any field is not finite. */
 pw_status pw_model_finish(pw_activity *out, double x1, double T_K);
 
+/* The end of every eval_lean: PW_OK when ln gamma_i and d ln gamma_i/dT are finite, else PW_EDOM. */
+pw_status pw_model_lean_finish(const double lngamma[2], const double dlngamma_dT[2]);
+
 #endif
