@@ -8,6 +8,7 @@
 #define PINCHWISE_COMMANDS_H
 
 #include <jansson.h>
+#include <pinchwise/assess.h>
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/column.h>
 #include <pinchwise/component.h>
@@ -78,6 +79,10 @@ pw_status pw_azeotrope_solve(const pw_system *sys, pw_az_mode mode, double fixed
 
 /* One azeotrope with the keys x1, T_K, P_kPa, kind and more. */
 json_t *pw_azeotrope_entry_json(const pw_azeotrope *az);
+
+/* The azeotropes of a ranking row or a study (pw_rank_az_list) as a JSON array of
+ * {x1, T_K, P_kPa, kind, heterogeneous}; ok false: null (the search failed). */
+json_t *pw_rank_az_json(const pw_rank_az *az, size_t n, bool ok);
 
 /* The `azeotrope --json` document for sys at the fixed condition (P in Pa or T in K by mode):
  * the homogeneous azeotropes of r (as left by pw_azeotrope_heterogeneous) and the heterogeneous

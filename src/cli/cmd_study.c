@@ -145,21 +145,6 @@ static void az_search(const pw_system *s, pw_az_mode mode, double fixed, study_a
     out->n = out->ok ? pw_rank_az_list(&r, &tp, out->az) : 0;
 }
 
-static json_t *az_json(const study_az *r)
-{
-    if (!r->ok)
-        return json_null();
-    json_t *arr = json_array();
-    for (size_t i = 0; i < r->n; i++)
-        json_array_append_new(arr, json_pack("{s:o,s:o,s:o,s:s,s:b}", "x1",
-                                             cli_json_num(r->az[i].x1), "T_K",
-                                             cli_json_num(r->az[i].T_K), "P_kPa",
-                                             cli_json_num(r->az[i].P_Pa / 1000.0), "kind",
-                                             pw_az_kind_name(r->az[i].kind), "heterogeneous",
-                                             r->az[i].heterogeneous));
-    return arr;
-}
-
 static void az_text(const char *where, const study_az *r, const pw_display_units *u)
 {
     char bT[48], bP[48];
@@ -372,9 +357,9 @@ pw_status cli_study(int argc, char **argv)
         json_object_set_new(o, "chosen_because",
                             json_string(only ? "named with --model" : chosen_because));
         json_object_set_new(o, "azeotropes_at_data_condition",
-                            az_json(&az_data));
+                            pw_rank_az_json(az_data.az, az_data.n, az_data.ok));
         json_object_set_new(o, "azeotropes_at_column_pressure",
-                            az_json(&az_col));
+                            pw_rank_az_json(az_col.az, az_col.n, az_col.ok));
         json_t *rj = cli_column_json(&run);
         if (ra.unc.on || ra.n_compare)
             cli_column_uncert_json(&unc, rj);

@@ -133,21 +133,6 @@ typedef struct ranked {
     pw_error err;
 } ranked;
 
-static json_t *az_json(const pw_rank_row *w)
-{
-    if (w->az_status != PW_OK)
-        return json_null();
-    json_t *azs = json_array();
-    for (size_t k = 0; k < w->n_azs; k++)
-        json_array_append_new(azs, json_pack("{s:o,s:o,s:o,s:s,s:b}", "x1",
-                                             cli_json_num(w->azs[k].x1), "T_K",
-                                             cli_json_num(w->azs[k].T_K), "P_kPa",
-                                             cli_json_num(w->azs[k].P_Pa / 1e3), "kind",
-                                             pw_az_kind_name(w->azs[k].kind), "heterogeneous",
-                                             w->azs[k].heterogeneous));
-    return azs;
-}
-
 pw_status cli_fit_all_models(const char *input, const char *out_dir, const cli_fit_opts *co)
 {
     size_t n;
@@ -215,7 +200,8 @@ pw_status cli_fit_all_models(const char *input, const char *out_dir, const cli_f
             json_object_set_new(m, "delta_aicc", cli_json_num(w->delta_aicc));
             json_object_set_new(m, "class", json_string(pw_rank_class_name(w->cls)));
             json_object_set_new(m, "akaike_weight", cli_json_num(w->weight));
-            json_object_set_new(m, "azeotropes_at_data_condition", az_json(w));
+            json_object_set_new(m, "azeotropes_at_data_condition",
+                                pw_rank_az_json(w->azs, w->n_azs, w->az_status == PW_OK));
             json_array_append_new(arr, m);
         }
         for (size_t i = 0; i < n; i++) {

@@ -126,3 +126,17 @@ pw_status pw_azeotrope_solve(const pw_system *sys, pw_az_mode mode, double fixed
                             pw_strerror(st));
     return PW_OK;
 }
+
+json_t *pw_rank_az_json(const pw_rank_az *az, size_t n, bool ok)
+{
+    if (!ok)
+        return json_null();
+    json_t *arr = json_array();
+    for (size_t i = 0; i < n; i++)
+        json_array_append_new(arr, json_pack("{s:o,s:o,s:o,s:s,s:b}", "x1", pw_json_num(az[i].x1),
+                                             "T_K", pw_json_num(az[i].T_K), "P_kPa",
+                                             pw_json_num(az[i].P_Pa / 1000.0), "kind",
+                                             pw_az_kind_name(az[i].kind), "heterogeneous",
+                                             az[i].heterogeneous));
+    return arr;
+}
