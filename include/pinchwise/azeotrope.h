@@ -3,9 +3,10 @@
  * The search works on the smooth function
  *     f(x1) = ln alpha12 = ln[gamma1 P1^sat / (gamma2 P2^sat)]   at the bubble point of x1
  * (bubble T at fixed P, or the given T), which is zero exactly where y1 = x1. It tabulates f on a
- * fine interior grid, brackets every sign change, refines each with GSL's Brent solver, and also
- * refines every interior local minimum of |f| without a sign change (a near-tangential, double
- * root, or two roots inside one grid cell). Roots at the pure ends x1 = 0 and 1 are never
+ * coarse interior table and, under a bound on |f''| checked wherever it samples, decides every
+ * cell: free of roots, or holding exactly one (refined by GSL's Brent solver), halving or cutting
+ * at a Brent minimum of |f| the cells it cannot yet decide; interior minima of |f| that stay on
+ * one side are reported as near-tangential points. Roots at the pure ends x1 = 0 and 1 are never
  * reported. Each root is classified from the extremum of the bubble curve: at fixed P a
  * temperature minimum is minimum-boiling; at fixed T a pressure maximum is minimum-boiling.
  * Units: T in K, P in Pa, mole fractions of component 1. Methods and sources: docs/azeotrope.md. */
@@ -28,7 +29,8 @@ typedef enum { PW_AZ_MINIMUM_BOILING = 0, PW_AZ_MAXIMUM_BOILING = 1 } pw_az_kind
 
 /* Tunables of the search; take pw_azeotrope_default_options() and change what you need. */
 typedef struct pw_az_options {
-    size_t grid;        /* interior grid points on [x_edge, 1 - x_edge]; default 1000, minimum 50 */
+    size_t grid;        /* points of the starting table on [x_edge, 1 - x_edge]; default 64,
+                         * minimum 8 (more points tighten the curvature assumption) */
     double x_edge;      /* distance of the first and last grid points from the pure ends;
                          * default 1e-6 */
     double xtol_abs;    /* Brent stops when the bracket width < xtol_abs + xtol_rel*|x|;   */

@@ -1,10 +1,13 @@
-/* Azeotrope search at fixed P or T: grid of ln alpha12, Brent on every sign change, Brent
- * minimisation on every interior minimum of |ln alpha12|, extremum classification.
+/* Azeotrope search at fixed P or T: a branch and bound over the cells of a coarse table of
+ * ln alpha12 that proves every cell free of roots or holding exactly one (under a checked bound
+ * on the curvature), Brent on every root, Brent minimisation on every interior minimum of
+ * |ln alpha12| it meets, extremum classification.
  * See include/pinchwise/azeotrope.h and docs/azeotrope.md. */
 #include <pinchwise/azeotrope.h>
 
 #include <float.h>
 #include <math.h>
+#include <stdbool.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -14,7 +17,7 @@
 pw_az_options pw_azeotrope_default_options(void)
 {
     pw_az_options o;
-    o.grid = 1000;
+    o.grid = 64;
     o.x_edge = 1e-6;
     o.xtol_abs = 1e-12;
     o.xtol_rel = 64.0 * DBL_EPSILON;
@@ -31,7 +34,7 @@ const char *pw_az_kind_name(pw_az_kind kind)
 
 static pw_status check_options(const pw_az_options *o)
 {
-    if (o->grid < 50 || o->grid > 10000000)
+    if (o->grid < 8 || o->grid > 10000000)
         return PW_EINVAL;
     if (!(o->x_edge > 0.0 && o->x_edge < 0.01))
         return PW_EINVAL;
@@ -191,49 +194,6 @@ static void add_root(pw_az_result *out, double x, size_t *count, double *roots)
     roots[(*count)++] = x;
 }
 
-/* Refines the interior minimum of |f| at grid index i; adds roots or a touch point. */
-static pw_status refine_minimum(pw_az_ctx *c, pw_az_result *out, const double *x,
-                                const double *f, size_t i, size_t *nr, double *roots)
-{
-    c->sign = f[i] > 0.0 ? 1.0 : -1.0;
-    double xm;
-    pw_status st = brent_min(c, x[i - 1], x[i], x[i + 1], f[i], f[i - 1], f[i + 1], &xm);
-    if (st != PW_OK && st != PW_EMAXITER)
-        return st;
-    double fm;
-    pw_eq_point eq;
-    st = pw_az_ctx_eval(c, xm, &fm, &eq);
-    if (st != PW_OK)
-        return st;
-    if (sgn(fm) == 0) {
-        add_root(out, xm, nr, roots);
-        return PW_OK;
-    }
-    if (sgn(fm) != sgn(f[i])) { /* two roots inside the cell */
-        double r1, r2;
-        st = pw_az_brent_root(c, x[i - 1], xm, &r1);
-        if (st == PW_OK)
-            st = pw_az_brent_root(c, xm, x[i + 1], &r2);
-        if (st != PW_OK)
-            return st;
-        add_root(out, r1, nr, roots);
-        add_root(out, r2, nr, roots);
-        return PW_OK;
-    }
-    if (fabs(fm) <= c->opt.touch_tol && out->n_touch < PW_AZ_MAX) {
-        double dx = x[1] - x[0];
-        for (size_t k = 0; k < out->n_touch; k++)
-            if (fabs(out->touch[k].x1 - xm) < 2.0 * dx)
-                return PW_OK;
-        pw_az_touch *t = &out->touch[out->n_touch++];
-        t->x1 = xm;
-        t->ln_alpha = fm;
-        t->T_K = eq.T_K;
-        t->P_Pa = eq.P_Pa;
-    }
-    return PW_OK;
-}
-
 /* Bubble T (isobaric) or P (isothermal) at x. */
 static pw_status bubble_value(pw_az_ctx *c, double x, double *v, double *f)
 {
@@ -297,50 +257,330 @@ void pw_az_result_clear(pw_az_result *out, pw_az_mode mode, double fixed)
     out->fail_x1 = NAN;
 }
 
+/* ---- the search: branch and bound over the cells of a coarse table ----
+ *
+ * Assumption (checked wherever the search samples): |f''| <= K on [x_edge, 1 - x_edge], with K
+ * four times the largest second divided difference of the table plus a floor; a midpoint further
+ * from its chord than K h^2/8 (+ 2 eps) raises K and the search starts again. Under it, on a
+ * cell [a, b] of width h with chord slope s:
+ *   - |f' - s| <= K h/2 everywhere on the cell, so |s| > K h/2 (+ noise) proves f strictly
+ *     monotone there: exactly one root when the ends differ in sign, none otherwise, and no
+ *     interior extremum of |f|;
+ *   - f lies within K h^2/8 of its chord, so ends of one sign with min |f| > K h^2/8 + eps prove
+ *     the cell free of roots, and min |f| > touch_tol + K h^2/8 + eps free of near-tangential
+ *     points too.
+ * Every other cell is halved (one evaluation), or, when its midpoint lies below both ends in
+ * |f|, Brent's minimiser finds the interior minimum of |f| and the cell is cut there.
+ * docs/azeotrope.md, "Search". */
+
+#define AZ_SAFETY 4.0      /* K = 4 x the table's largest |second difference| ... */
+#define AZ_K_FLOOR 1e-6    /* ... plus this */
+#define AZ_EPS 1e-11       /* absolute precision assumed of an f value (bubble T to ~1e-13 K) */
+#define AZ_MIN_WIDTH 1e-13 /* cells narrower than this are not halved */
+#define AZ_MAX_RESTARTS 8
+#define AZ_STACK 512
+
+typedef struct az_cell {
+    double a, b, fa, fb;
+} az_cell;
+
+typedef struct az_bb {
+    pw_az_ctx *c;
+    pw_az_result *out;
+    double K;
+    double roots[PW_AZ_MAX];
+    size_t nr;
+    bool restart;
+    double *sx, *sf; /* every point the search evaluated (not Brent's inner ones) */
+    size_t ns, cap;
+    double h_touch;  /* root-free cells narrower than this are not halved for touches */
+} az_bb;
+
+static pw_status bb_eval(az_bb *bb, double x, double *f, pw_eq_point *eq)
+{
+    pw_status st = pw_az_ctx_eval(bb->c, x, f, eq);
+    if (st != PW_OK)
+        return st;
+    if (*f == 0.0)
+        add_root(bb->out, x, &bb->nr, bb->roots);
+    if (bb->ns == bb->cap) {
+        size_t cap = bb->cap ? 2 * bb->cap : 256;
+        double *sx = realloc(bb->sx, cap * sizeof *sx);
+        if (!sx)
+            return PW_ENOMEM;
+        bb->sx = sx;
+        double *sf = realloc(bb->sf, cap * sizeof *sf);
+        if (!sf)
+            return PW_ENOMEM;
+        bb->sf = sf;
+        bb->cap = cap;
+    }
+    bb->sx[bb->ns] = x;
+    bb->sf[bb->ns++] = *f;
+    return PW_OK;
+}
+
+static bool cell_monotone(const az_bb *bb, const az_cell *e)
+{
+    const double h = e->b - e->a;
+    return fabs(e->fb - e->fa) > 0.5 * bb->K * h * h + 2.0 * AZ_EPS;
+}
+
+/* A lower bound of |f| on a cell whose ends have one sign (not zero). */
+static double cell_floor(const az_bb *bb, const az_cell *e)
+{
+    const double h = e->b - e->a;
+    return fmin(fabs(e->fa), fabs(e->fb)) - bb->K * h * h / 8.0 - AZ_EPS;
+}
+
+static bool curvature_ok(az_bb *bb, const az_cell *e, double fm)
+{
+    const double h = e->b - e->a;
+    double off = fabs(fm - 0.5 * (e->fa + e->fb));
+    if (off <= bb->K * h * h / 8.0 + 2.0 * AZ_EPS)
+        return true;
+    bb->K = fmax(2.0 * bb->K, AZ_SAFETY * 8.0 * off / (h * h));
+    return false;
+}
+
+static void add_touch(pw_az_result *out, double x, double f, const pw_eq_point *eq)
+{
+    for (size_t k = 0; k < out->n_touch; k++)
+        if (fabs(out->touch[k].x1 - x) < 1e-9)
+            return;
+    if (out->n_touch >= PW_AZ_MAX)
+        return;
+    pw_az_touch *t = &out->touch[out->n_touch++];
+    t->x1 = x;
+    t->ln_alpha = f;
+    t->T_K = eq->T_K;
+    t->P_Pa = eq->P_Pa;
+}
+
+/* The interior minimum of |f| in a cell whose midpoint m lies below both ends; *xm, *fxm the
+ * point Brent ends at (where f crosses zero, when it does). */
+static pw_status cell_minimum(az_bb *bb, const az_cell *e, double m, double fm, double *xm,
+                              double *fxm, pw_eq_point *eq)
+{
+    pw_az_ctx *c = bb->c;
+    c->sign = fm > 0.0 ? 1.0 : -1.0;
+    pw_status st = brent_min(c, e->a, m, e->b, fm, e->fa, e->fb, xm);
+    if (st != PW_OK && st != PW_EMAXITER)
+        return st;
+    if (!(*xm > e->a && *xm < e->b))
+        *xm = m;
+    return bb_eval(bb, *xm, fxm, eq);
+}
+
+static pw_status search_cells(az_bb *bb, const az_cell *start)
+{
+    pw_az_ctx *c = bb->c;
+    az_cell stack[AZ_STACK];
+    size_t top = 0;
+    stack[top++] = *start;
+    while (top > 0) {
+        az_cell e = stack[--top];
+        const double h = e.b - e.a;
+        const int sa = sgn(e.fa), sb = sgn(e.fb);
+        const bool narrow = h < AZ_MIN_WIDTH * fmax(1.0, fabs(e.a));
+        bool root_free = false;
+        if (sa * sb < 0) {
+            if (narrow || cell_monotone(bb, &e)) { /* exactly one root */
+                double r;
+                pw_status st = pw_az_brent_root(c, e.a, e.b, &r);
+                if (st != PW_OK)
+                    return st;
+                add_root(bb->out, r, &bb->nr, bb->roots);
+                continue;
+            }
+        } else if (sa == 0 || sb == 0) { /* a root at an end (already counted) */
+            if (narrow || cell_monotone(bb, &e))
+                continue;
+        } else {
+            double lb = cell_floor(bb, &e);
+            root_free = lb > 0.0;
+            if (narrow || (root_free && (lb > c->opt.touch_tol || h < bb->h_touch ||
+                                         cell_monotone(bb, &e))))
+                continue;
+        }
+        const double m = e.a + 0.5 * h;
+        double fm;
+        pw_eq_point eq;
+        pw_status st = bb_eval(bb, m, &fm, &eq);
+        if (st != PW_OK)
+            return st;
+        if (!curvature_ok(bb, &e, fm)) {
+            bb->restart = true;
+            return PW_OK;
+        }
+        double cut = m, fcut = fm;
+        if (!root_free && sa != 0 && sa == sb && sgn(fm) == sa && fabs(fm) < fabs(e.fa) &&
+            fabs(fm) < fabs(e.fb)) { /* two roots or none: cut where |f| is least */
+            double xm, fxm;
+            st = cell_minimum(bb, &e, m, fm, &xm, &fxm, &eq);
+            if (st != PW_OK)
+                return st;
+            cut = xm;
+            fcut = fxm;
+        }
+        if (top + 2 > AZ_STACK)
+            return PW_ENOCONV;
+        stack[top++] = (az_cell){cut, e.b, fcut, e.fb}; /* the left half is searched first */
+        stack[top++] = (az_cell){e.a, cut, e.fa, fcut};
+    }
+    return PW_OK;
+}
+
+static void sort_doubles(double *v, size_t n)
+{
+    for (size_t i = 1; i < n; i++) /* few values: insertion sort */
+        for (size_t j = i; j > 0 && v[j - 1] > v[j]; j--) {
+            double t = v[j];
+            v[j] = v[j - 1];
+            v[j - 1] = t;
+        }
+}
+
+static void sort_touches(pw_az_result *out)
+{
+    for (size_t i = 1; i < out->n_touch; i++)
+        for (size_t j = i; j > 0 && out->touch[j - 1].x1 > out->touch[j].x1; j--) {
+            pw_az_touch t = out->touch[j];
+            out->touch[j] = out->touch[j - 1];
+            out->touch[j - 1] = t;
+        }
+}
+
+typedef struct az_sample {
+    double x, f;
+} az_sample;
+
+static int cmp_sample(const void *a, const void *b)
+{
+    double xa = ((const az_sample *)a)->x, xb = ((const az_sample *)b)->x;
+    return (xa > xb) - (xa < xb);
+}
+
+static bool near_root(const az_bb *bb, double x, double d)
+{
+    for (size_t k = 0; k < bb->nr; k++)
+        if (fabs(bb->roots[k] - x) < d)
+            return true;
+    return false;
+}
+
+/* Near-tangential points: every interior local minimum of |f| among the points the search
+ * evaluated, on one side of zero and within reach of touch_tol under the curvature bound, is
+ * refined by Brent's minimiser (a crossing found there adds its two roots). */
+static pw_status find_touches(az_bb *bb)
+{
+    pw_az_ctx *c = bb->c;
+    const size_t n = bb->ns;
+    az_sample *p = malloc((n ? n : 1) * sizeof *p);
+    if (!p)
+        return PW_ENOMEM;
+    for (size_t i = 0; i < n; i++)
+        p[i] = (az_sample){bb->sx[i], bb->sf[i]};
+    qsort(p, n, sizeof *p, cmp_sample);
+    size_t m = 0;
+    for (size_t i = 0; i < n; i++)
+        if (m == 0 || p[i].x > p[m - 1].x)
+            p[m++] = p[i];
+    pw_status st = PW_OK;
+    for (size_t i = 1; i + 1 < m && st == PW_OK; i++) {
+        const double f = p[i].f, h = p[i + 1].x - p[i - 1].x;
+        if (sgn(f) == 0 || sgn(p[i - 1].f) != sgn(f) || sgn(p[i + 1].f) != sgn(f) ||
+            !(fabs(f) <= fabs(p[i - 1].f) && fabs(f) < fabs(p[i + 1].f)) ||
+            fabs(f) - bb->K * h * h / 8.0 - AZ_EPS > c->opt.touch_tol)
+            continue;
+        c->sign = f > 0.0 ? 1.0 : -1.0;
+        double xm = p[i].x, fm; /* a tie with the left neighbour: a rounding-level plateau */
+        if (fabs(f) < fabs(p[i - 1].f)) {
+            st = brent_min(c, p[i - 1].x, p[i].x, p[i + 1].x, f, p[i - 1].f, p[i + 1].f, &xm);
+            if (st != PW_OK && st != PW_EMAXITER)
+                break;
+        }
+        pw_eq_point eq;
+        st = pw_az_ctx_eval(c, xm, &fm, &eq);
+        if (st != PW_OK)
+            break;
+        if (sgn(fm) == 0) {
+            add_root(bb->out, xm, &bb->nr, bb->roots);
+        } else if (sgn(fm) != sgn(f)) { /* two roots the bound did not foresee */
+            double r1, r2;
+            st = pw_az_brent_root(c, p[i - 1].x, xm, &r1);
+            if (st == PW_OK)
+                st = pw_az_brent_root(c, xm, p[i + 1].x, &r2);
+            if (st == PW_OK) {
+                add_root(bb->out, r1, &bb->nr, bb->roots);
+                add_root(bb->out, r2, &bb->nr, bb->roots);
+            }
+        } else if (fabs(fm) <= c->opt.touch_tol && !near_root(bb, xm, 2.0 * bb->h_touch)) {
+            bool seen = false;
+            for (size_t k = 0; k < bb->out->n_touch; k++)
+                seen = seen || fabs(bb->out->touch[k].x1 - xm) < 2.0 * bb->h_touch;
+            if (!seen)
+                add_touch(bb->out, xm, fm, &eq);
+        }
+    }
+    free(p);
+    return st;
+}
+
 static pw_status scan_grid(pw_az_ctx *c, pw_az_result *out, double *x, double *f)
 {
     const size_t n = c->opt.grid;
     const double span = 1.0 - 2.0 * c->opt.x_edge;
-    for (size_t i = 0; i < n; i++) {
-        x[i] = c->opt.x_edge + span * (double)i / (double)(n - 1);
+    az_bb bb = {.c = c, .out = out, .h_touch = 1e-3 * span};
+    pw_status st = PW_OK;
+    for (size_t i = 0; i < n && st == PW_OK; i++) {
+        x[i] = i + 1 == n ? 1.0 - c->opt.x_edge
+                          : c->opt.x_edge + span * (double)i / (double)(n - 1);
         pw_eq_point eq;
-        pw_status st = pw_az_ctx_eval(c, x[i], &f[i], &eq);
-        if (st != PW_OK)
-            return st;
+        st = bb_eval(&bb, x[i], &f[i], &eq);
     }
-    double roots[PW_AZ_MAX];
-    size_t nr = 0;
-    for (size_t i = 0; i < n; i++) {
-        pw_status st = PW_OK;
-        if (f[i] == 0.0 && (i == 0 || f[i - 1] != 0.0))
-            add_root(out, x[i], &nr, roots);
-        if (i + 1 < n && sgn(f[i]) * sgn(f[i + 1]) < 0) {
-            double r;
-            st = pw_az_brent_root(c, x[i], x[i + 1], &r);
-            if (st == PW_OK)
-                add_root(out, r, &nr, roots);
+    if (st != PW_OK)
+        goto done;
+    double d2max = 0.0;
+    for (size_t i = 1; i + 1 < n; i++) {
+        double s1 = (f[i] - f[i - 1]) / (x[i] - x[i - 1]);
+        double s2 = (f[i + 1] - f[i]) / (x[i + 1] - x[i]);
+        d2max = fmax(d2max, fabs(2.0 * (s2 - s1) / (x[i + 1] - x[i - 1])));
+    }
+    bb.K = AZ_SAFETY * d2max + AZ_K_FLOOR;
+    for (int round = 0;; round++) {
+        bb.restart = false;
+        bb.nr = 0;
+        out->n_touch = 0;
+        out->truncated = false;
+        for (size_t i = 0; i < n; i++)
+            if (f[i] == 0.0)
+                add_root(out, x[i], &bb.nr, bb.roots);
+        for (size_t i = 0; i + 1 < n && !bb.restart && st == PW_OK; i++) {
+            az_cell e = {x[i], x[i + 1], f[i], f[i + 1]};
+            st = search_cells(&bb, &e);
         }
-        if (st == PW_OK && i > 0 && i + 1 < n && sgn(f[i - 1]) == sgn(f[i]) &&
-            sgn(f[i]) == sgn(f[i + 1]) && sgn(f[i]) != 0 && fabs(f[i]) < fabs(f[i - 1]) &&
-            fabs(f[i]) < fabs(f[i + 1]))
-            st = refine_minimum(c, out, x, f, i, &nr, roots);
-        if (st != PW_OK)
-            return st;
-    }
-    /* sort (few roots: insertion sort) */
-    for (size_t i = 1; i < nr; i++)
-        for (size_t j = i; j > 0 && roots[j - 1] > roots[j]; j--) {
-            double t = roots[j];
-            roots[j] = roots[j - 1];
-            roots[j - 1] = t;
+        if (st != PW_OK || !bb.restart)
+            break;
+        if (round + 1 >= AZ_MAX_RESTARTS) {
+            st = PW_ENOCONV;
+            break;
         }
-    for (size_t i = 0; i < nr; i++) {
-        pw_status st = classify(c, roots[i], &out->az[i]);
-        if (st != PW_OK)
-            return st;
     }
-    out->n = nr;
-    return PW_OK;
+    if (st == PW_OK)
+        st = find_touches(&bb);
+    if (st != PW_OK)
+        goto done;
+    sort_doubles(bb.roots, bb.nr);
+    sort_touches(out);
+    for (size_t i = 0; i < bb.nr && st == PW_OK; i++)
+        st = classify(c, bb.roots[i], &out->az[i]);
+    if (st == PW_OK)
+        out->n = bb.nr;
+done:
+    free(bb.sx);
+    free(bb.sf);
+    return st;
 }
 
 pw_status pw_azeotrope_find(const pw_system *s, pw_az_mode mode, double fixed,
