@@ -48,6 +48,14 @@ pw_status pw_bubble_P(const pw_system *s, double T_K, double x1, pw_eq_point *ou
 pw_status pw_dew_T(const pw_system *s, double P_Pa, double y1, pw_eq_point *out);
 /* Dew pressure at T for vapor y1. */
 pw_status pw_dew_P(const pw_system *s, double T_K, double y1, pw_eq_point *out);
+/* The same two, with the safeguarded Newton iteration on the liquid x1 started at x_guess (and,
+ * at fixed P, the inner bubble-point Newton at T_guess_K), e.g. interpolated from a tabulated
+ * bubble curve; NAN (or a guess outside (0, 1), or a non-positive T) means none, as above. The
+ * same root to the solver's tolerance (|dx1| <= 1e-13), fewer steps. */
+pw_status pw_dew_T_from(const pw_system *s, double P_Pa, double y1, double x_guess,
+                        double T_guess_K, pw_eq_point *out);
+pw_status pw_dew_P_from(const pw_system *s, double T_K, double y1, double x_guess,
+                        pw_eq_point *out);
 
 /* Liquid-phase stability at T: scans D(x1) = d^2(G_mix/RT)/dx1^2 = 1/(x1 x2) + d^2(G^E/RT)/dx1^2
  * over 0 < x1 < 1 (grid of at least 400 points, refined at the minimum) and returns the

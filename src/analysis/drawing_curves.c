@@ -97,6 +97,30 @@ static bool dew_unstable(const pw_system *s, const pw_three_phase *tp, const pw_
     return pw_lle_solve(s, e->T_K, &r) == PW_OK && r.split && e->x1 > r.x[0] && e->x1 < r.x[1];
 }
 
+/* A start for the dew point of vapor y: the liquid and temperature interpolated on the tabulated
+ * bubble curve where its y brackets y - only when exactly one cell of one liquid does (else NAN:
+ * the dew solver's own start, so that no other root is chosen than without the table). */
+static void dew_seed(const pw_draw_phase *o, const pw_three_phase *tp, double y, double *xg,
+                     double *Tg)
+{
+    *xg = *Tg = NAN;
+    size_t found = 0;
+    for (size_t j = 0; j + 1 < PW_DRAW_GRID; j++) {
+        double y0 = o->bub_y[j], y1 = o->bub_y[j + 1];
+        if (!isfinite(y0) || !isfinite(y1) || y0 == y1 || !((y0 - y) * (y1 - y) <= 0.0))
+            continue;
+        if (tp->exists && o->x[j + 1] > tp->x[0] && o->x[j] < tp->x[1])
+            continue; /* flat: the three-phase line, not a one-liquid bubble curve */
+        if (++found > 1) {
+            *xg = *Tg = NAN;
+            return;
+        }
+        double t = (y - y0) / (y1 - y0);
+        *xg = o->x[j] + t * (o->x[j + 1] - o->x[j]);
+        *Tg = o->bub_T[j] + t * (o->bub_T[j + 1] - o->bub_T[j]);
+    }
+}
+
 pw_status pw_draw_phase_compute(const pw_system *s, bool isothermal, double fixed,
                                 pw_draw_phase *o)
 {
@@ -123,6 +147,7 @@ pw_status pw_draw_phase_compute_known(const pw_system *s, bool isothermal, doubl
         if (st == PW_OK && t3.exists)
             o->az.three_phase = t3;
     }
+    double T_prev = NAN; /* each bubble Newton starts at the previous point's temperature */
     for (size_t i = 0; i < PW_DRAW_GRID; i++) {
         double x = pw_draw_grid_x(i);
         o->x[i] = x;
@@ -134,8 +159,9 @@ pw_status pw_draw_phase_compute_known(const pw_system *s, bool isothermal, doubl
             o->bub_T[i] = tp->T_K;
             o->bub_P[i] = tp->P_Pa;
             o->bub_y[i] = tp->y1;
-        } else if ((isothermal ? pw_bubble_P(s, fixed, x, &e) : pw_bubble_T(s, fixed, x, &e)) ==
-                   PW_OK) {
+        } else if ((isothermal ? pw_bubble_P(s, fixed, x, &e)
+                               : pw_bubble_T_from(s, fixed, x, T_prev, &e)) == PW_OK) {
+            T_prev = e.T_K;
             o->bub_T[i] = e.T_K;
             o->bub_P[i] = e.P_Pa;
             o->bub_y[i] = e.y1;
@@ -148,7 +174,13 @@ pw_status pw_draw_phase_compute_known(const pw_system *s, bool isothermal, doubl
             o->lngamma[0][i] = act.lngamma[0];
             o->lngamma[1][i] = act.lngamma[1];
         }
-        if ((isothermal ? pw_dew_P(s, fixed, x, &e) : pw_dew_T(s, fixed, x, &e)) == PW_OK) {
+    }
+    for (size_t i = 0; i < PW_DRAW_GRID; i++) {
+        double xg, Tg;
+        dew_seed(o, tp, o->x[i], &xg, &Tg);
+        pw_eq_point e;
+        if ((isothermal ? pw_dew_P_from(s, fixed, o->x[i], xg, &e)
+                        : pw_dew_T_from(s, fixed, o->x[i], xg, Tg, &e)) == PW_OK) {
             if (!dew_unstable(s, tp, &e)) {
                 o->dew_T[i] = e.T_K;
                 o->dew_P[i] = e.P_Pa;

@@ -597,20 +597,34 @@ static pw_status raoult_x(const pw_system *s, double T, double y1, double *x1)
     return PW_OK;
 }
 
+static bool guess_ok(double x)
+{
+    return x > 0.0 && x < 1.0;
+}
+
 pw_status pw_dew_T(const pw_system *s, double P_Pa, double y1, pw_eq_point *out)
+{
+    return pw_dew_T_from(s, P_Pa, y1, NAN, NAN, out);
+}
+
+pw_status pw_dew_T_from(const pw_system *s, double P_Pa, double y1, double x_guess,
+                        double T_guess_K, pw_eq_point *out)
 {
     if (!state_ok(s) || !out)
         return PW_EINVAL;
     if (!isfinite(P_Pa) || P_Pa <= 0.0 || !frac_ok(y1))
         return PW_EDOM;
-    double Ts[2];
-    for (int i = 0; i < 2; i++) {
-        pw_status st = pw_tsat(&s->comp[i], P_Pa, &Ts[i]);
-        if (st != PW_OK)
-            return st;
+    double T0 = T_guess_K, x0 = x_guess;
+    if (!(isfinite(T0) && T0 > 0.0)) {
+        double Ts[2];
+        for (int i = 0; i < 2; i++) {
+            pw_status st = pw_tsat(&s->comp[i], P_Pa, &Ts[i]);
+            if (st != PW_OK)
+                return st;
+        }
+        T0 = y1 * Ts[0] + (1.0 - y1) * Ts[1];
     }
-    double T0 = y1 * Ts[0] + (1.0 - y1) * Ts[1], x0;
-    if (raoult_x(s, T0, y1, &x0) != PW_OK)
+    if (!guess_ok(x0) && raoult_x(s, T0, y1, &x0) != PW_OK)
         x0 = y1;
     dew_ctx c = {.s = s, .isobaric = true, .P = P_Pa, .T = T0, .iters = 0};
     double x1;
@@ -624,12 +638,20 @@ pw_status pw_dew_T(const pw_system *s, double P_Pa, double y1, pw_eq_point *out)
 
 pw_status pw_dew_P(const pw_system *s, double T_K, double y1, pw_eq_point *out)
 {
+    return pw_dew_P_from(s, T_K, y1, NAN, out);
+}
+
+pw_status pw_dew_P_from(const pw_system *s, double T_K, double y1, double x_guess,
+                        pw_eq_point *out)
+{
     if (!state_ok(s) || !out)
         return PW_EINVAL;
     if (!isfinite(T_K) || T_K <= 0.0 || !frac_ok(y1))
         return PW_EDOM;
-    double x0;
-    pw_status st = raoult_x(s, T_K, y1, &x0);
+    double x0 = x_guess;
+    pw_status st = PW_OK;
+    if (!guess_ok(x0))
+        st = raoult_x(s, T_K, y1, &x0);
     if (st != PW_OK)
         return st;
     dew_ctx c = {.s = s, .isobaric = false, .P = NAN, .T = T_K, .iters = 0};
