@@ -47,20 +47,58 @@ static pw_status check(const double *p)
     return PW_OK;
 }
 
-static pw_status eval(const double *p, double T_ref_K, double x1, double T_K, pw_activity *out)
+/* The terms eval, eval_lean and the scan function share, in one order (the same bits for all):
+ * tau_ij, the sums Rb = sum r_j x_j, Qb = sum q_j x_j, A = Qb (theta1 + theta2 tau21),
+ * B = Qb (theta2 + theta1 tau12), the combinatorial and residual parts, ln gamma_i, the partial
+ * derivatives of ln gamma_i in tau_ij and d ln gamma_i/dT. */
+typedef struct uniquac_terms {
+    double t12, t21, Rb, Qb, A, B, JL1, JL2, S1, S2, F1, F2;
+    double lng[2], dT[2];
+    double g1_t12, g1_t21, g2_t21, g2_t12;
+} uniquac_terms;
+
+/* tau12 = exp(-du12/T), tau21 = exp(-du21/T); PW_EDOM unless both are finite and positive. */
+static pw_status taus_at(const double *p, double T_K, double *t12, double *t21)
 {
-    (void)T_ref_K;
-    if (!out || check(p) != PW_OK || !pw_model_state_ok(x1, T_K))
+    *t12 = exp(-p[0] / T_K), *t21 = exp(-p[1] / T_K);
+    if (!isfinite(*t12) || !isfinite(*t21) || !(*t12 > 0.0) || !(*t21 > 0.0))
         return PW_EDOM;
-    memset(out, 0, sizeof *out);
+    return PW_OK;
+}
+
+/* The sums Rb = r1 x1 + r2 x2, Qb = q1 x1 + q2 x2, A = Qb (theta1 + theta2 tau21) and
+ * B = Qb (theta2 + theta1 tau12). */
+static void sums_at(const double *p, double x1, double x2, double t12, double t21, double s[4])
+{
+    const double r1 = p[2], q1 = p[3], r2 = p[4], q2 = p[5];
+    s[0] = r1 * x1 + r2 * x2, s[1] = q1 * x1 + q2 * x2;
+    s[2] = q1 * x1 + q2 * x2 * t21, s[3] = q2 * x2 + q1 * x1 * t12;
+}
+
+/* d2(G^E/RT)/dx1^2: G^E/RT = linear(x) - ln Rb + (z/2) Qb (ln Rb - ln Qb)
+ * - q1 x1 ln A - q2 x2 ln B + Qb ln Qb (docs/thermo.md). */
+static double d2gE_at(const double *p, double x1, double x2, double t12, double t21, double Rb,
+                      double Qb, double A, double B)
+{
+    const double r1 = p[2], q1 = p[3], r2 = p[4], q2 = p[5];
+    double dR = r1 - r2, dQ = q1 - q2, dA = q1 - q2 * t21, dB = q1 * t12 - q2;
+    double comb = dR * dR / (Rb * Rb) +
+                  Z_HALF * (2.0 * dQ * dR / Rb - Qb * dR * dR / (Rb * Rb) - dQ * dQ / Qb);
+    double res = -2.0 * q1 * dA / A + q1 * x1 * dA * dA / (A * A) + 2.0 * q2 * dB / B +
+                 q2 * x2 * dB * dB / (B * B) + dQ * dQ / Qb;
+    return comb + res;
+}
+
+static pw_status terms_at(const double *p, double x1, double T_K, uniquac_terms *t)
+{
     const double r1 = p[2], q1 = p[3], r2 = p[4], q2 = p[5];
     double x2 = 1.0 - x1;
-    double t12 = exp(-p[0] / T_K), t21 = exp(-p[1] / T_K);
-    if (!isfinite(t12) || !isfinite(t21) || !(t12 > 0.0) || !(t21 > 0.0))
+    double t12, t21;
+    if (taus_at(p, T_K, &t12, &t21) != PW_OK)
         return PW_EDOM;
-    double Rb = r1 * x1 + r2 * x2, Qb = q1 * x1 + q2 * x2;
-    /* A = Qb (theta1 + theta2 tau21), B = Qb (theta2 + theta1 tau12) */
-    double A = q1 * x1 + q2 * x2 * t21, B = q2 * x2 + q1 * x1 * t12;
+    double sm[4];
+    sums_at(p, x1, x2, t12, t21, sm);
+    double Rb = sm[0], Qb = sm[1], A = sm[2], B = sm[3];
 
     /* combinatorial part, S_i = ln(J_i/L_i) + 1 - J_i/L_i */
     double J1 = r1 / Rb, J2 = r2 / Rb, JL1 = r1 * Qb / (q1 * Rb), JL2 = r2 * Qb / (q2 * Rb);
@@ -68,34 +106,51 @@ static pw_status eval(const double *p, double T_ref_K, double x1, double T_K, pw
     double c1 = log(J1) + 1.0 - J1 - Z_HALF * q1 * S1;
     double c2 = log(J2) + 1.0 - J2 - Z_HALF * q2 * S2;
     /* residual part, F_i = 1 - ln(A or B) + ln Qb - ... */
-    double F1 = 1.0 - log(A) + log(Qb) - q1 * x1 / A - q2 * x2 * t12 / B;
-    double F2 = 1.0 - log(B) + log(Qb) - q2 * x2 / B - q1 * x1 * t21 / A;
-    out->lngamma[0] = c1 + q1 * F1;
-    out->lngamma[1] = c2 + q2 * F2;
-    out->gE_RT = x1 * out->lngamma[0] + x2 * out->lngamma[1];
-
-    /* d2(G^E/RT)/dx1^2: G^E/RT = linear(x) - ln Rb + (z/2) Qb (ln Rb - ln Qb)
-     * - q1 x1 ln A - q2 x2 ln B + Qb ln Qb (docs/thermo.md). */
-    double dR = r1 - r2, dQ = q1 - q2, dA = q1 - q2 * t21, dB = q1 * t12 - q2;
-    double comb = dR * dR / (Rb * Rb) +
-                  Z_HALF * (2.0 * dQ * dR / Rb - Qb * dR * dR / (Rb * Rb) - dQ * dQ / Qb);
-    double res = -2.0 * q1 * dA / A + q1 * x1 * dA * dA / (A * A) + 2.0 * q2 * dB / B +
-                 q2 * x2 * dB * dB / (B * B) + dQ * dQ / Qb;
-    out->d2gE_dx2 = comb + res;
+    double lnQb = log(Qb);
+    double F1 = 1.0 - log(A) + lnQb - q1 * x1 / A - q2 * x2 * t12 / B;
+    double F2 = 1.0 - log(B) + lnQb - q2 * x2 / B - q1 * x1 * t21 / A;
+    *t = (uniquac_terms){.t12 = t12, .t21 = t21, .Rb = Rb, .Qb = Qb, .A = A, .B = B,
+                         .JL1 = JL1, .JL2 = JL2, .S1 = S1, .S2 = S2, .F1 = F1, .F2 = F2};
+    t->lng[0] = c1 + q1 * F1;
+    t->lng[1] = c2 + q2 * F2;
 
     /* in tau12 and tau21 */
-    double g1_t12 = -q1 * q2 * q2 * x2 * x2 / (B * B);
-    double g1_t21 = -q1 * q2 * q2 * x2 * x2 * t21 / (A * A);
-    double g2_t21 = -q2 * q1 * q1 * x1 * x1 / (A * A);
-    double g2_t12 = -q2 * q1 * q1 * x1 * x1 * t12 / (B * B);
-    /* dtau_ij/dT = tau_ij du_ij/T^2, dtau_ij/ddu_ij = -tau_ij/T */
+    t->g1_t12 = -q1 * q2 * q2 * x2 * x2 / (B * B);
+    t->g1_t21 = -q1 * q2 * q2 * x2 * x2 * t21 / (A * A);
+    t->g2_t21 = -q2 * q1 * q1 * x1 * x1 / (A * A);
+    t->g2_t12 = -q2 * q1 * q1 * x1 * x1 * t12 / (B * B);
+    /* dtau_ij/dT = tau_ij du_ij/T^2 */
     double t12_T = t12 * p[0] / (T_K * T_K), t21_T = t21 * p[1] / (T_K * T_K);
-    out->dlngamma_dT[0] = g1_t12 * t12_T + g1_t21 * t21_T;
-    out->dlngamma_dT[1] = g2_t12 * t12_T + g2_t21 * t21_T;
-    out->dlngamma_dp[0][0] = -g1_t12 * t12 / T_K;
-    out->dlngamma_dp[0][1] = -g1_t21 * t21 / T_K;
-    out->dlngamma_dp[1][0] = -g2_t12 * t12 / T_K;
-    out->dlngamma_dp[1][1] = -g2_t21 * t21 / T_K;
+    t->dT[0] = t->g1_t12 * t12_T + t->g1_t21 * t21_T;
+    t->dT[1] = t->g2_t12 * t12_T + t->g2_t21 * t21_T;
+    return PW_OK;
+}
+
+static pw_status eval(const double *p, double T_ref_K, double x1, double T_K, pw_activity *out)
+{
+    (void)T_ref_K;
+    if (!out || check(p) != PW_OK || !pw_model_state_ok(x1, T_K))
+        return PW_EDOM;
+    memset(out, 0, sizeof *out);
+    uniquac_terms t;
+    if (terms_at(p, x1, T_K, &t) != PW_OK)
+        return PW_EDOM;
+    const double r1 = p[2], q1 = p[3], r2 = p[4], q2 = p[5];
+    double x2 = 1.0 - x1;
+    double t12 = t.t12, t21 = t.t21, Rb = t.Rb, Qb = t.Qb, A = t.A, B = t.B;
+    double JL1 = t.JL1, JL2 = t.JL2, S1 = t.S1, S2 = t.S2, F1 = t.F1, F2 = t.F2;
+    out->lngamma[0] = t.lng[0];
+    out->lngamma[1] = t.lng[1];
+    out->gE_RT = x1 * out->lngamma[0] + x2 * out->lngamma[1];
+    out->d2gE_dx2 = d2gE_at(p, x1, x2, t12, t21, Rb, Qb, A, B);
+
+    out->dlngamma_dT[0] = t.dT[0];
+    out->dlngamma_dT[1] = t.dT[1];
+    /* in du12 and du21: dtau_ij/ddu_ij = -tau_ij/T */
+    out->dlngamma_dp[0][0] = -t.g1_t12 * t12 / T_K;
+    out->dlngamma_dp[0][1] = -t.g1_t21 * t21 / T_K;
+    out->dlngamma_dp[1][0] = -t.g2_t12 * t12 / T_K;
+    out->dlngamma_dp[1][1] = -t.g2_t21 * t21 / T_K;
 
     /* in r1 and r2 (combinatorial part only; dRb/dr_i = x_i) */
     double R2 = Rb * Rb;
@@ -126,6 +181,47 @@ static pw_status eval(const double *p, double T_ref_K, double x1, double T_K, pw
     return pw_model_finish(out, x1, T_K);
 }
 
+/* ln gamma_i and d ln gamma_i/dT only (pw_model_type.eval_lean): eval's terms. */
+static pw_status eval_lean(const double *p, double T_ref_K, double x1, double T_K,
+                           double lngamma[2], double dlngamma_dT[2])
+{
+    (void)T_ref_K;
+    if (!pw_model_state_ok(x1, T_K))
+        return PW_EDOM;
+    uniquac_terms t;
+    if (terms_at(p, x1, T_K, &t) != PW_OK)
+        return PW_EDOM;
+    for (int i = 0; i < 2; i++) {
+        lngamma[i] = t.lng[i];
+        dlngamma_dT[i] = t.dT[i];
+    }
+    return pw_model_lean_finish(lngamma, dlngamma_dT);
+}
+
+/* d2(G^E/RT)/dx1^2 at n compositions (pw_model_type.d2gE_dx2): tau12, tau21 once, eval's
+ * formula (d2gE_at) at each x1. */
+static pw_status d2gE(const double *p, double T_ref_K, double T_K, size_t n, const double *x,
+                      double *out)
+{
+    (void)T_ref_K;
+    if (!pw_model_state_ok(0.5, T_K))
+        return PW_EDOM;
+    double t12, t21;
+    if (taus_at(p, T_K, &t12, &t21) != PW_OK)
+        return PW_EDOM;
+    for (size_t k = 0; k < n; k++) {
+        double x1 = x[k], x2 = 1.0 - x1;
+        if (!pw_model_state_ok(x1, T_K))
+            return PW_EDOM;
+        double sm[4];
+        sums_at(p, x1, x2, t12, t21, sm);
+        out[k] = d2gE_at(p, x1, x2, t12, t21, sm[0], sm[1], sm[2], sm[3]);
+        if (!isfinite(out[k]))
+            return PW_EDOM;
+    }
+    return PW_OK;
+}
+
 const pw_model_type pw_model_uniquac = {
     .name = "uniquac",
     .title = "UNIQUAC (Abrams & Prausnitz 1975), z = 10, tau_ij = exp(-du_ij/T), r and q of the "
@@ -139,4 +235,6 @@ const pw_model_type pw_model_uniquac = {
     .eval = eval,
     .start_range = starts,
     .from_components = from_components,
+    .eval_lean = eval_lean,
+    .d2gE_dx2 = d2gE,
 };
