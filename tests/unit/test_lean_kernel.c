@@ -3,7 +3,8 @@
  *  - each model's eval_lean gives eval's ln gamma_i and d ln gamma_i/dT, and its d2gE_dx2 scan
  *    function eval's d2(G^E/RT)/dx1^2, at seeded random parameters, compositions and
  *    temperatures (every model; the parameters taken from the components, Wilson's volume ratio
- *    and UNIQUAC's r and q, are drawn too);
+ *    and UNIQUAC's r and q, are drawn too); where the model splits eval_lean in two (lean_x,
+ *    eval_lean_x: UNIQUAC), the two parts give eval_lean's values and status to the bit;
  *  - pw_thermo_bubble_T_lean gives pw_bubble_T_from's T and y1 (and the same status), and
  *    pw_thermo_bubble_P_lean pw_bubble_P's P and y1, for every model on real pairs from the
  *    component library, one with the IAPWS-IF97 water (pw_psat) and one of two Antoine
@@ -54,6 +55,11 @@ static void random_params(const pw_model_type *m, double *p)
     }
 }
 
+static bool same_bits(double a, double b)
+{
+    return memcmp(&a, &b, sizeof a) == 0;
+}
+
 /* The parameters a fit holds fixed at the components' values (Wilson's volume ratio, UNIQUAC's
  * r and q), drawn from their start ranges. */
 static void random_fixed_params(const pw_model_type *m, double *p)
@@ -66,7 +72,7 @@ static void random_fixed_params(const pw_model_type *m, double *p)
 static void model_functions(void **state)
 {
     (void)state;
-    size_t n_models, n_checked = 0, n_fixed_drawn = 0;
+    size_t n_models, n_checked = 0, n_fixed_drawn = 0, n_split_checked = 0;
     const pw_model_type *const *models = pw_model_all(&n_models);
     for (size_t im = 0; im < n_models; im++) {
         const pw_model_type *m = models[im];
@@ -90,6 +96,17 @@ static void model_functions(void **state)
             if (m->eval_lean) {
                 double lg[2], dT[2];
                 pw_status sl = m->eval_lean(p, T_ref, x1, T, lg, dT);
+                if (m->lean_x) {
+                    double xt[PW_LEAN_XTERMS], lgx[2], dTx[2];
+                    assert_non_null(m->eval_lean_x);
+                    m->lean_x(p, x1, xt);
+                    assert_int_equal(m->eval_lean_x(p, T_ref, x1, xt, T, lgx, dTx), sl);
+                    for (int i = 0; sl == PW_OK && i < 2; i++) {
+                        assert_true(same_bits(lgx[i], lg[i]));
+                        assert_true(same_bits(dTx[i], dT[i]));
+                    }
+                    n_split_checked += sl == PW_OK;
+                }
                 if (st == PW_OK) {
                     assert_int_equal(sl, PW_OK);
                     for (int i = 0; i < 2; i++) {
@@ -108,6 +125,7 @@ static void model_functions(void **state)
     }
     assert_true(n_checked > 1000);
     assert_true(n_fixed_drawn >= 4000); /* Wilson and UNIQUAC */
+    assert_true(n_split_checked > 1000); /* UNIQUAC */
 }
 
 static void bubble_points(void **state)
@@ -202,18 +220,15 @@ static void stability_scan(void **state)
     }
 }
 
-/* A copy of m without its lean evaluation and scan function: the solvers then take eval. */
+/* A copy of m without its lean evaluations and scan function: the solvers then take eval. */
 static pw_model_type full_path_copy(const pw_model_type *m)
 {
     pw_model_type f = *m;
     f.eval_lean = NULL;
+    f.lean_x = NULL;
+    f.eval_lean_x = NULL;
     f.d2gE_dx2 = NULL;
     return f;
-}
-
-static bool same_bits(double a, double b)
-{
-    return memcmp(&a, &b, sizeof a) == 0;
 }
 
 /* Fits ds with m through its lean functions and through the full path; every result the same
