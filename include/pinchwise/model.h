@@ -30,6 +30,8 @@ extern "C" {
 #endif
 
 #define PW_MAX_PARAMS 6
+/* Room for a model's terms that do not depend on T (pw_model_type.lean_x). */
+#define PW_LEAN_XTERMS 12
 #define PW_GAS_CONSTANT 8.314462618 /* J/(mol K), CODATA 2018 exact value */
 
 typedef struct pw_activity {
@@ -78,6 +80,14 @@ typedef struct pw_model_type {
      * value is not finite. NULL: the scan uses eval. */
     pw_status (*d2gE_dx2)(const double *p, double T_ref_K, double T_K, size_t n,
                           const double *x1, double *out);
+    /* Optional, both or neither, with eval_lean: eval_lean in two parts for a solver that holds
+     * x1 while T moves (the bubble temperature's Newton steps). lean_x stores in xt
+     * (PW_LEAN_XTERMS doubles) the terms at x1 that do not depend on T; eval_lean_x gives from
+     * them eval_lean's values and status at (x1, T_K) to the bit. p must have passed check.
+     * NULL: the solvers use eval_lean. */
+    void (*lean_x)(const double *p, double x1, double *xt);
+    pw_status (*eval_lean_x)(const double *p, double T_ref_K, double x1, const double *xt,
+                             double T_K, double lngamma[2], double dlngamma_dT[2]);
 } pw_model_type;
 
 extern const pw_model_type pw_model_margules;

@@ -108,7 +108,7 @@ static const double legendre_starts[PW_MAX_PARAMS][2] = {{-2.5, 3.0}, {-2.5, 3.0
     static const pw_model_type legendre_##N = {                                                   \
         "legendre" #N, "Legendre series G^E, " #N " terms (Fredenslund, Gmehling & Rasmussen 1977)", \
         N, legendre_names, legendre_units, legendre_zero, legendre_fitted, legendre_check_##N,   \
-        legendre_eval_##N, legendre_starts, false, NULL, NULL, NULL, NULL};
+        legendre_eval_##N, legendre_starts, false, NULL, NULL, NULL, NULL, NULL, NULL};
 
 LEGENDRE_TYPE(1)
 LEGENDRE_TYPE(2)

@@ -460,13 +460,48 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
         fail(rd, "%s", why);
 }
 
+/* buf[0..len) without the blanks and tabs that follow each newline, in a new buffer of *out_len
+ * bytes; NULL when out of memory. jansson reads its input a byte at a time (about 64
+ * instructions a byte: a call for each byte and its line and column bookkeeping), and the
+ * writer's indentation is about 14 % of a fit file (docs/performance.md, "Fit-file reading").
+ * The JSON is the same, valid or not: only blanks and tabs right after a newline go, and the
+ * newline stays. Where the newline is outside strings, the run removed was whitespace between
+ * two tokens and the newline still separates them: the same tokens in the same order. Where it
+ * is inside a string, that string holds a raw control character, which JSON forbids, and it
+ * still does (quotes and backslashes are never removed, so every string begins and ends where
+ * it did). Line numbers are kept too. */
+static char *without_indentation(const char *buf, size_t len, size_t *out_len)
+{
+    char *out = malloc(len + 1);
+    if (!out)
+        return NULL;
+    size_t r = 0, w = 0;
+    while (r < len) {
+        const char *nl = memchr(buf + r, '\n', len - r);
+        size_t seg = nl ? (size_t)(nl - (buf + r)) + 1 : len - r;
+        memcpy(out + w, buf + r, seg);
+        w += seg;
+        r += seg;
+        while (nl && r < len && (buf[r] == ' ' || buf[r] == '\t'))
+            r++;
+    }
+    *out_len = w;
+    return out;
+}
+
 /* Reads and validates the file's text into r; computes nothing (fit_derive does). */
 static pw_status parse_only(const char *buf, size_t len, const char *name, pw_fit_result *r,
                             pw_error *err)
 {
     memset(r, 0, sizeof *r);
     json_error_t jerr;
-    json_t *root = json_loadb(buf, len, JSON_REJECT_DUPLICATES, &jerr);
+    size_t tlen = 0;
+    char *text = without_indentation(buf, len, &tlen);
+    json_t *root = text ? json_loadb(text, tlen, JSON_REJECT_DUPLICATES, &jerr) : NULL;
+    free(text);
+    /* Not valid (or out of memory): the text as given, for jansson's own message about it. */
+    if (!root)
+        root = json_loadb(buf, len, JSON_REJECT_DUPLICATES, &jerr);
     if (!root)
         return pw_error_set(err, PW_EPARSE, name, jerr.line > 0 ? jerr.line : 0,
                             "not valid JSON: %s (expected a pinchwise fit file)", jerr.text);

@@ -145,15 +145,21 @@ static pw_status kernel_psat(const pw_kernel_antoine *a, double T_K, double *P_P
 
 /* The lean evaluation (pw_thermo_kernel): the model's eval_lean (or eval when it has none) and
  * the vapor pressures from the kernel's Antoine constants (pw_psat otherwise), the same values
- * as eval_point's. Fills lngamma and dlngamma_dT of tp->act, Ps, dlnPs, k, sum, f and df. The
- * virial vapor, and a null kernel, take eval_point. */
-static pw_status eval_point_lean(const pw_system *s, const pw_thermo_kernel *kern, double x1,
-                                 double T, double P, tpoint *tp)
+ * as eval_point's. xt: the model's terms at x1 from its lean_x (then eval_lean_x, the same
+ * values as eval_lean), or NULL. Fills lngamma and dlngamma_dT of tp->act, Ps, dlnPs, k, sum, f
+ * and df. The virial vapor, and a null kernel, take eval_point. */
+static pw_status eval_point_lean(const pw_system *s, const pw_thermo_kernel *kern,
+                                 const double *xt, double x1, double T, double P, tpoint *tp)
 {
     if (!kern || s->vapor == PW_VAPOR_VIRIAL)
         return eval_point(s, x1, T, P, tp);
     pw_status st;
-    if (s->model->eval_lean) {
+    if (xt) {
+        if (!(T > 0.0) || !isfinite(T))
+            return PW_EDOM;
+        st = s->model->eval_lean_x(s->params, s->T_ref_K, x1, xt, T, tp->act.lngamma,
+                                   tp->act.dlngamma_dT);
+    } else if (s->model->eval_lean) {
         if (!(T > 0.0) || !isfinite(T))
             return PW_EDOM;
         st = s->model->eval_lean(s->params, s->T_ref_K, x1, T, tp->act.lngamma,
@@ -333,10 +339,11 @@ static pw_status pure_bracket(const pw_system *s, double P, double Ts[2], double
 }
 
 /* Bubble T at P for liquid x1, starting from T_guess (NAN: from the pure Tsat). Fills tp at
- * the returned T. */
+ * the returned T. kern: the lean evaluation in the Newton steps (eval_point_lean, with the
+ * model's terms at x1 xt when not NULL); NULL: eval_point. */
 static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T_guess,
                                bool newton, double *T_out, tpoint *tp, int *iters,
-                               const pw_thermo_kernel *kern)
+                               const pw_thermo_kernel *kern, const double *xt)
 {
     double lim_lo, lim_hi;
     eval_limits(s, &lim_lo, &lim_hi);
@@ -359,7 +366,7 @@ static pw_status bubble_T_core(const pw_system *s, double P, double x1, double T
     *iters = 0;
     for (int it = 0; newton && it < NEWTON_MAXIT; it++) {
         (*iters)++;
-        if ((kern ? eval_point_lean(s, kern, x1, T, P, tp) : eval_point(s, x1, T, P, tp)) !=
+        if ((kern ? eval_point_lean(s, kern, xt, x1, T, P, tp) : eval_point(s, x1, T, P, tp)) !=
             PW_OK)
             break;
         if (tp->f == 0.0) {
@@ -421,7 +428,7 @@ static pw_status bubble_T(const pw_system *s, double P_Pa, double x1, bool newto
     tpoint tp;
     double T;
     int iters;
-    pw_status st = bubble_T_core(s, P_Pa, x1, T_guess, newton, &T, &tp, &iters, NULL);
+    pw_status st = bubble_T_core(s, P_Pa, x1, T_guess, newton, &T, &tp, &iters, NULL, NULL);
     if (st != PW_OK)
         return st;
     fill_point(&tp, x1, T, P_Pa, iters, out);
@@ -455,7 +462,14 @@ pw_status pw_thermo_bubble_T_lean(const pw_system *s, const pw_thermo_kernel *k,
     tpoint tp;
     int iters;
     double T, guess = isfinite(T_guess_K) && T_guess_K > 0.0 ? T_guess_K : (double)NAN;
-    pw_status st = bubble_T_core(s, P_Pa, x1, guess, true, &T, &tp, &iters, k);
+    /* x1 is held: the model's terms at x1 alone once (lean_x), for every Newton step */
+    double xt_buf[PW_LEAN_XTERMS];
+    const double *xt = NULL;
+    if (s->model->lean_x) { /* unused where eval_point_lean takes eval_point */
+        s->model->lean_x(s->params, x1, xt_buf);
+        xt = xt_buf;
+    }
+    pw_status st = bubble_T_core(s, P_Pa, x1, guess, true, &T, &tp, &iters, k, xt);
     if (st != PW_OK)
         return st;
     out->T_K = T;
@@ -475,7 +489,7 @@ pw_status pw_thermo_bubble_P_lean(const pw_system *s, const pw_thermo_kernel *k,
     if (!isfinite(T_K) || T_K <= 0.0 || !frac_ok(x1))
         return PW_EDOM;
     tpoint tp;
-    pw_status st = eval_point_lean(s, k, x1, T_K, NAN, &tp);
+    pw_status st = eval_point_lean(s, k, NULL, x1, T_K, NAN, &tp);
     if (st != PW_OK)
         return st;
     out->T_K = T_K;
@@ -518,7 +532,7 @@ static pw_status dew_eval(dew_ctx *c, double x1, double *y1, double *dy1)
     double x2 = 1.0 - x1;
     if (c->isobaric) {
         int its = 0;
-        st = bubble_T_core(c->s, c->P, x1, c->T, true, &c->T, tp, &its, NULL);
+        st = bubble_T_core(c->s, c->P, x1, c->T, true, &c->T, tp, &its, NULL, NULL);
         c->iters += its;
     } else {
         st = eval_point(c->s, x1, c->T, NAN, tp);
