@@ -21,6 +21,11 @@ extern "C" {
  * Returns buf. */
 char *pw_json_format_real(double v, char *buf, size_t cap);
 
+/* printf's "%.17g" of v (any double), the same text to the byte, from the exact integer
+ * arithmetic above where it reaches (the C library elsewhere); for CSV files, whose readers
+ * expect every double written with 17 significant digits. Returns buf (cap >= 32). */
+char *pw_format_g17(double v, char *buf, size_t cap);
+
 /* A malloc'd copy of the JSON text with every real rewritten by pw_json_format_real; NULL when
  * out of memory. The input must be JSON as jansson writes it (no NaN or Inf). */
 char *pw_json_shortest_reals(const char *text);

@@ -136,8 +136,9 @@ static int reads_back(u128 D, int e, double a)
     return (e >= 0 ? d * POW10_EXACT[e] : d / POW10_EXACT[-e]) == a;
 }
 
-/* %.{p}g of the value with digits D (p of them) and exponent X, sign neg; then ".0" if needed. */
-static char *print_g(bool neg, u128 D, int p, int X, char *buf)
+/* %.{p}g of the value with digits D (p of them) and exponent X, sign neg; then ".0" if needed
+ * and real. */
+static char *print_g(bool neg, u128 D, int p, int X, bool real, char *buf)
 {
     char dig[40];
     for (int i = p - 1; i >= 0; i--) {
@@ -182,7 +183,7 @@ static char *print_g(bool neg, u128 D, int p, int X, char *buf)
             *o++ = '.';
             memcpy(o, dig + ip, (size_t)(nd - ip));
             o += nd - ip;
-        } else {
+        } else if (real) {
             *o++ = '.';
             *o++ = '0';
         }
@@ -208,18 +209,43 @@ char *pw_json_format_real(double v, char *buf, size_t cap)
             return format_real_libc(v, buf, cap);
         int rb = p == 17 ? 1 : reads_back(D, X - p + 1, a);
         if (rb < 0) {
-            print_g(false, D, p, X, buf);
+            print_g(false, D, p, X, true, buf);
             rb = strtod(buf, NULL) == a;
         }
         if (rb)
-            return print_g(signbit(v), D, p, X, buf);
+            return print_g(signbit(v), D, p, X, true, buf);
     }
     return format_real_libc(v, buf, cap); /* not reached: 17 digits always read back */
+}
+
+char *pw_format_g17(double v, char *buf, size_t cap)
+{
+    double a = fabs(v);
+    if (!(a >= 1e-290 && a <= 1e290) || cap < 32) {
+        snprintf(buf, cap, "%.17g", v);
+        return buf;
+    }
+    int ex;
+    double fr = frexp(a, &ex);
+    uint64_t m = (uint64_t)ldexp(fr, 53);
+    u128 D;
+    int X;
+    if (!digits_of(m, ex - 53, (int)floor(log10(a)), 17, &D, &X)) {
+        snprintf(buf, cap, "%.17g", v);
+        return buf;
+    }
+    return print_g(signbit(v), D, 17, X, false, buf);
 }
 #else /* no 128-bit integers: the C library's way */
 char *pw_json_format_real(double v, char *buf, size_t cap)
 {
     return format_real_libc(v, buf, cap);
+}
+
+char *pw_format_g17(double v, char *buf, size_t cap)
+{
+    snprintf(buf, cap, "%.17g", v);
+    return buf;
 }
 #endif
 

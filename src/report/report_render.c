@@ -3,6 +3,7 @@
 #include "report/report_internal.h"
 
 #include <csv.h>
+#include <pinchwise/jsontext.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -453,8 +454,10 @@ static void csv_row(pw_sbuf *b, const double *v, size_t n)
     for (size_t i = 0; i < n; i++) {
         if (i)
             pw_sbuf_puts(b, ",");
-        if (isfinite(v[i]))
-            pw_sbuf_printf(b, "%.17g", v[i]);
+        if (isfinite(v[i])) {
+            char num[40];
+            pw_sbuf_puts(b, pw_format_g17(v[i], num, sizeof num));
+        }
     }
     pw_sbuf_puts(b, "\n");
 }
