@@ -314,8 +314,9 @@ static pw_status newton_below(pw_column_ws *w, double y, double *x, bool *done)
     if (!(d0 > 0.0) || !(xk > 0.0 && xk < x0))
         return PW_OK;
     double lo = 0.0, hi = x0, flo = NAN, fhi = y0 - y;
-    const double M = 2.0 * fabs(w->conv_bound);
-    pw_status st = newton_bracketed(w, y, xk, M, &lo, &hi, &flo, &fhi, x, done);
+    /* no bound on |y*''| below the table (the curve may bend hard towards x = 0): the step rule
+     * alone ends it */
+    pw_status st = newton_bracketed(w, y, xk, INFINITY, &lo, &hi, &flo, &fhi, x, done);
     if (st == PW_OK && *done && !(*x > 0.0 && *x < x0))
         *done = false;
     return st;
