@@ -67,13 +67,16 @@ void pw_eqp_free(pw_eqp *e)
     (void)e; /* nothing allocated; kept for symmetry */
 }
 
-pw_status pw_eqp_bubble(pw_eqp *e, double x, double *y, double *T_K)
+/* pw_eqp_bubble, and with d non-NULL also the slope dy* / dx there (pw_bubble_T_slope_from: the
+ * same point to the bit). */
+static pw_status bubble(pw_eqp *e, double x, double *y, double *d, double *T_K)
 {
     if (!(x >= 0.0 && x <= 1.0))
         return PW_EDOM;
     pw_eq_point p;
     e->n_bubble++;
-    pw_status st = pw_bubble_T_from(e->sys, e->P_Pa, x, e->T_last, &p);
+    pw_status st = d ? pw_bubble_T_slope_from(e->sys, e->P_Pa, x, e->T_last, &p, d)
+                     : pw_bubble_T_from(e->sys, e->P_Pa, x, e->T_last, &p);
     if (st != PW_OK)
         return st;
     if (!isfinite(p.y1) || !isfinite(p.T_K))
@@ -89,6 +92,11 @@ pw_status pw_eqp_bubble(pw_eqp *e, double x, double *y, double *T_K)
     if (T_K)
         *T_K = p.T_K;
     return PW_OK;
+}
+
+pw_status pw_eqp_bubble(pw_eqp *e, double x, double *y, double *T_K)
+{
+    return bubble(e, x, y, NULL, T_K);
 }
 
 typedef struct inv_ctx {
@@ -124,14 +132,18 @@ static double x_const_alpha(double alpha, double y)
 
 /* The fast inverse: x with |y*(x) - y| <= Y_TOL from the latest bubble point (x_l, y_l) (a
  * stage stepped from the one before has a nearby liquid): the first step along the slope dy/dx
- * of the latest inverse (else at the latest point's relative volatility), then secant steps
- * starting from (x_l, y_l), which costs no evaluation, kept inside the bracket once the residual
+ * of the latest inverse (else at the latest point's relative volatility), then Newton steps with
+ * the analytic slope dy* / dx of each bubble point (ideal vapor; secant steps starting from
+ * (x_l, y_l), which costs no evaluation, otherwise), kept inside the bracket once the residual
  * has changed sign (where a step leaves it: the step at the latest point's relative volatility,
  * else bisection). false when it does not get there
  * in 8 evaluations: the caller then takes the dew point and Brent's bracketed solve, which always
  * do. */
 static bool x_of_y_seeded(pw_eqp *e, double y, double *x, double *T_K)
 {
+    /* the slope is exact for the ideal vapor only; with the virial vapor Newton would converge
+     * linearly, the secant converges faster */
+    const bool use_d = e->sys->vapor == PW_VAPOR_IDEAL;
     double xl = e->x_last, yl = e->y_last;
     if (!(xl > 0.0 && xl < 1.0 && yl > 0.0 && yl < 1.0))
         return false;
@@ -151,12 +163,14 @@ static bool x_of_y_seeded(pw_eqp *e, double y, double *x, double *T_K)
                                y);
         if (!(xk > a && xk < b))
             xk = 0.5 * (a + b);
-        double yk, Tk;
-        if (pw_eqp_bubble(e, xk, &yk, &Tk) != PW_OK)
+        double yk, Tk, dk = NAN;
+        if (bubble(e, xk, &yk, use_d ? &dk : NULL, &Tk) != PW_OK)
             return false;
         double fk = yk - y;
         if (fabs(fk) <= Y_TOL) {
-            if (xk != xp && fk != fp)
+            if (dk > 0.0 && isfinite(dk))
+                e->slope_last = dk;
+            else if (xk != xp && fk != fp)
                 e->slope_last = (fk - fp) / (xk - xp);
             *x = xk;
             if (T_K)
@@ -169,7 +183,10 @@ static bool x_of_y_seeded(pw_eqp *e, double y, double *x, double *T_K)
         } else {
             a = xk;
         }
-        double xn = fk != fp ? xk - fk * (xk - xp) / (fk - fp) : 0.5 * (a + b);
+        /* Newton with the analytic slope (the secant where the slope is not usable) */
+        double xn = dk > 0.0 && isfinite(dk) ? xk - fk / dk
+                    : fk != fp              ? xk - fk * (xk - xp) / (fk - fp)
+                                            : 0.5 * (a + b);
         xp = xk;
         fp = fk;
         xk = xn;
