@@ -58,8 +58,11 @@ typedef struct pw_design_row {
 
 typedef struct pw_column_options {
     double rtol;          /* relative tolerance on R_min; default 1e-10 */
-    size_t grid;          /* points of the table: the coarse bracket of the pinch search; default
-                           * 200 (the answer does not depend on it; docs/column.md section 3) */
+    size_t grid;          /* density of the table, the coarse bracket of the pinch search:
+                           * without the curve's slope `grid` points, with it max(9, grid/8)
+                           * points (values and slopes) refined where the curvature is not
+                           * resolved; default 200 (the answer does not depend on it;
+                           * docs/column.md sections 1 and 3) */
     double factors[PW_COLUMN_MAX_FACTORS]; /* R/R_min for the design table; default 1.2, 1.3, 1.5 */
     size_t n_factors;
     size_t max_stages;    /* stepping gives up beyond this; default 500 */
