@@ -17,6 +17,8 @@
  * Agreement demanded: R_min 1e-9 relative (the search's rtol is 1e-10). */
 #include "pw_test.h"
 
+#include "analysis/column_internal.h"
+
 #include <gsl/gsl_rng.h>
 #include <math.h>
 #include <pinchwise/column.h>
@@ -388,6 +390,136 @@ static void random_against_dense(void **state)
     gsl_rng_free(r);
 }
 
+/* Invented curve (constant alpha 2.5 with a narrow dip towards the diagonal, Gaussian, width
+ * 0.02 at x = 0.6, half a cell of the default 25-point table): the dip's convex middle makes a
+ * rectifying tangent pinch that the unrefined table does not resolve. Value and slope in closed
+ * form. */
+typedef struct dip {
+    double alpha, A, c, w;
+} dip;
+
+static void dip_eval(const dip *d, double x, double *y, double *dy)
+{
+    double den = 1.0 + (d->alpha - 1.0) * x, z = (x - d->c) / d->w, g = d->A * exp(-z * z);
+    *y = d->alpha * x / den - g;
+    *dy = d->alpha / (den * den) + g * 2.0 * z / d->w;
+}
+
+static pw_status dip_y(void *ctx, double x, double *y)
+{
+    double dy;
+    dip_eval(ctx, x, y, &dy);
+    return PW_OK;
+}
+
+static pw_status dip_y_dy(void *ctx, double x, double *y, double *dy)
+{
+    dip_eval(ctx, x, y, dy);
+    return PW_OK;
+}
+
+/* Constant alpha 30 (y = alpha x/(1 + (alpha - 1) x)) with xb = 0.005: y*'' falls from about
+ * -1200 at xb to -30 within a few cells, the one-sided estimates of the 25-point table disagree
+ * there, and the table is refined beside xb only. R_min for a saturated-liquid feed at constant
+ * alpha (a feed pinch): R_min = [xd/zf - alpha (1 - xd)/(1 - zf)]/(alpha - 1) (Underwood 1948;
+ * King, Separation Processes, 2nd ed., ch. 5; from memory). */
+static void refined_table_steep_end(void **state)
+{
+    (void)state;
+    dip d = {30.0, 0.0, 0.5, 1.0};
+    pw_curve c = {dip_y, &d};
+    pw_column_spec sp = {.xd = 0.99, .xb = 0.005, .zf = 0.5, .q = 1.0};
+    pw_column_ws w;
+    assert_int_equal(pw_column_ws_init(&w, &c, 1e-10), PW_OK);
+    w.dy = dip_y_dy;
+    double x[264], y[264], dd[264];
+    size_t n = 0;
+    assert_int_equal(pw_column_tabulate_dy(&w, sp.xb, sp.xd, 25, 264, x, y, dd, &n), PW_OK);
+    assert_true(n > 25);
+    size_t added_low = 0;
+    for (size_t i = 0; i < n; i++)
+        added_low += x[i] < 0.2;
+    assert_true(added_low >= n - 25 + 4); /* 0.005 ... 0.2 holds 4 or 5 of the 25 points */
+    for (size_t i = 1; i + 1 < n; i++) {
+        double hl = x[i] - x[i - 1], hr = x[i + 1] - x[i];
+        double sl = (y[i] - y[i - 1]) / hl, sr = (y[i + 1] - y[i]) / hr;
+        double cl = (2.0 * dd[i - 1] + 4.0 * dd[i] - 6.0 * sl) / hl;
+        double cr = (6.0 * sr - 4.0 * dd[i] - 2.0 * dd[i + 1]) / hr;
+        if (x[i + 1] - x[i - 1] > 4.0 * (sp.xd - sp.xb) / 4096.0)
+            assert_true(fmax(cl, cr) + fabs(cl - cr) <= w.conv_bound);
+    }
+    pw_column_result a;
+    pw_column_options o = pw_column_default_options();
+    assert_int_equal(pw_column_solve_dy(&c, dip_y_dy, &sp, &o, &a), PW_OK);
+    const double al = d.alpha;
+    double r = (sp.xd / sp.zf - al * (1.0 - sp.xd) / (1.0 - sp.zf)) / (al - 1.0);
+    pw_assert_close(a.r_min, r, 1e-10, 0.0, "alpha 30: R_min vs Underwood");
+    assert_int_equal(a.pinch.kind, PW_PINCH_FEED);
+    printf("# alpha 30: table %zu points (%zu below x = 0.2)\n", n, added_low);
+}
+
+static void refined_table_against_dense(void **state)
+{
+    (void)state;
+    dip d = {2.5, 0.12, 0.6, 0.02};
+    pw_curve c = {dip_y, &d};
+    pw_column_spec sp = {.xd = 0.95, .xb = 0.05, .zf = 0.3, .q = 1.0};
+    /* the table refines beside the dip, and the criterion holds on the result */
+    pw_column_ws w;
+    assert_int_equal(pw_column_ws_init(&w, &c, 1e-10), PW_OK);
+    w.dy = dip_y_dy;
+    double x[264], y[264], dd[264];
+    size_t n = 0;
+    assert_int_equal(pw_column_tabulate_dy(&w, sp.xb, sp.xd, 25, 264, x, y, dd, &n), PW_OK);
+    for (size_t i = 1; i + 1 < n; i++) {
+        double hl = x[i] - x[i - 1], hr = x[i + 1] - x[i];
+        double sl = (y[i] - y[i - 1]) / hl, sr = (y[i + 1] - y[i]) / hr;
+        double cl = (2.0 * dd[i - 1] + 4.0 * dd[i] - 6.0 * sl) / hl;
+        double cr = (6.0 * sr - 4.0 * dd[i] - 2.0 * dd[i + 1]) / hr;
+        assert_true(fmax(cl, cr) + fabs(cl - cr) <= w.conv_bound);
+    }
+    /* R_min against a dense scan of m* = (xd - y)/(xd - x) on [zf, xd) (q = 1), golden-refined */
+    pw_column_result a, b;
+    pw_column_options o = pw_column_default_options();
+    assert_int_equal(pw_column_solve_dy(&c, dip_y_dy, &sp, &o, &a), PW_OK);
+    assert_int_equal(pw_column_solve(&c, &sp, &o, &b), PW_OK);
+    const int N = 200000;
+    double best = -INFINITY, xbest = 0.0;
+    for (int i = 0; i < N; i++) {
+        double xx = sp.zf + (sp.xd - sp.zf) * i / N, yy;
+        dip_y(&d, xx, &yy);
+        double m = (sp.xd - yy) / (sp.xd - xx);
+        if (m > best) {
+            best = m;
+            xbest = xx;
+        }
+    }
+    double lo = xbest - (sp.xd - sp.zf) / N, hi = xbest + (sp.xd - sp.zf) / N;
+    const double g = 0.5 * (sqrt(5.0) - 1.0);
+    while (hi - lo > 1e-13) {
+        double c1 = hi - g * (hi - lo), c2 = lo + g * (hi - lo), y1, y2;
+        dip_y(&d, c1, &y1);
+        dip_y(&d, c2, &y2);
+        if ((sp.xd - y1) / (sp.xd - c1) > (sp.xd - y2) / (sp.xd - c2))
+            hi = c2;
+        else
+            lo = c1;
+    }
+    double yy;
+    dip_y(&d, 0.5 * (lo + hi), &yy);
+    best = fmax(best, (sp.xd - yy) / (sp.xd - 0.5 * (lo + hi)));
+    double r_dense = best / (1.0 - best);
+    assert_int_equal(a.pinch.kind, PW_PINCH_TANGENT);
+    pw_assert_close(a.r_min, r_dense, 1e-9, 0.0, "dip: R_min with the slope vs dense");
+    pw_assert_close(b.r_min, r_dense, 1e-9, 0.0, "dip: R_min without the slope vs dense");
+    pw_assert_close(a.pinch.x, 0.5 * (lo + hi), 0.0, 1e-5, "dip: pinch x");
+    pw_assert_close(a.n_min, b.n_min, 1e-9, 1e-9, "dip: N_min with and without the slope");
+    for (size_t i = 0; i < a.n_design; i++)
+        pw_assert_close(a.design[i].stages, b.design[i].stages, 1e-9, 1e-9, "dip: design row");
+    printf("# dip: table %zu points, K %.4g; R_min %.17g (dense %.17g) at x %.6f\n", n,
+           w.conv_bound, a.r_min, r_dense, a.pinch.x);
+}
+
 static int setup(void **state)
 {
     (void)state;
@@ -405,6 +537,8 @@ int main(void)
 {
     pw_test_init();
     const struct CMUnitTest tests[] = {
+        cmocka_unit_test(refined_table_steep_end),
+        cmocka_unit_test(refined_table_against_dense),
         cmocka_unit_test(random_against_dense),
     };
     return cmocka_run_group_tests(tests, setup, teardown);
