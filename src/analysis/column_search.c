@@ -64,8 +64,8 @@ pw_status pw_column_tabulate_dy(pw_column_ws *w, double xb, double xd, size_t n0
     for (int round = 0; round < REFINE_ROUNDS; round++) {
         const double K = hermite_bound(x, y, d, n);
         /* Point i (interior) is resolved when its two one-sided estimates cL, cR of y*'' satisfy
-         * max(cL, cR) + |cL - cR| <= K; else both cells beside it are halved. */
-        /* Rebuild from the right: a cell j is halved when point j or point j + 1 is unresolved. */
+         * max(cL, cR) + |cL - cR| <= K; else both cells beside it are halved (not below min_w).
+         * The table then grows in place from the right. */
         bool *split = calloc(n, sizeof *split);
         if (!split)
             return PW_ENOMEM;
