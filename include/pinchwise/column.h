@@ -25,6 +25,10 @@ typedef struct pw_curve {
     void *ctx;
 } pw_curve;
 
+/* Optional: y*(x) and its slope dy* / dx together, for the same ctx; y must be y_of_x's value to
+ * the bit and the slope exact to rounding (the search uses it to locate tangent points). */
+typedef pw_status (*pw_curve_dy_fn)(void *ctx, double x, double *y, double *dydx);
+
 typedef struct pw_column_spec {
     double xd, xb, zf, q;
 } pw_column_spec;
@@ -54,8 +58,11 @@ typedef struct pw_design_row {
 
 typedef struct pw_column_options {
     double rtol;          /* relative tolerance on R_min; default 1e-10 */
-    size_t grid;          /* points of the table: the coarse bracket of the pinch search; default
-                           * 200 (the answer does not depend on it; docs/column.md section 3) */
+    size_t grid;          /* density of the table, the coarse bracket of the pinch search:
+                           * without the curve's slope `grid` points, with it max(9, grid/8)
+                           * points (values and slopes) refined where the curvature is not
+                           * resolved; default 200 (the answer does not depend on it;
+                           * docs/column.md sections 1 and 3) */
     double factors[PW_COLUMN_MAX_FACTORS]; /* R/R_min for the design table; default 1.2, 1.3, 1.5 */
     size_t n_factors;
     size_t max_stages;    /* stepping gives up beyond this; default 500 */
@@ -97,6 +104,12 @@ typedef struct pw_column_result {
  * Errors: PW_EINVAL for an inconsistent spec (not 0 <= xb < zf < xd <= 1), curve failures. */
 pw_status pw_column_solve(const pw_curve *curve, const pw_column_spec *spec,
                           const pw_column_options *opt, pw_column_result *out);
+
+/* The same with the curve's slope (dy may be NULL: then exactly pw_column_solve): the stage
+ * inversion takes Newton steps and the pinch search locates tangent points as roots of the
+ * value's derivative (docs/column.md sections 3-4). Same answers within the tolerances. */
+pw_status pw_column_solve_dy(const pw_curve *curve, pw_curve_dy_fn dy, const pw_column_spec *spec,
+                             const pw_column_options *opt, pw_column_result *out);
 
 /* Steps stages from the top at reflux R with the optimal feed stage. */
 pw_status pw_column_step(const pw_curve *curve, const pw_column_spec *spec, double R,

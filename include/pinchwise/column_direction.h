@@ -36,6 +36,7 @@ pw_column_direction pw_column_direction_of(const pw_column_spec *spec);
 /* A curve that evaluates y'(x') = 1 - y(1 - x') of the borrowed curve m->inner. */
 typedef struct pw_curve_mirror {
     pw_curve inner;
+    pw_curve_dy_fn inner_dy; /* the inner curve's slope function, or NULL */
 } pw_curve_mirror;
 
 /* Binds m (which must outlive the returned curve) to curve. */
@@ -48,6 +49,10 @@ pw_column_spec pw_column_spec_mirror(const pw_column_spec *spec);
  * between the products. */
 pw_status pw_column_solve_any(const pw_curve *curve, const pw_column_spec *spec,
                               const pw_column_options *opt, pw_column_result *out);
+/* The same with the curve's slope function (may be NULL): pw_column_solve_dy either way. */
+pw_status pw_column_solve_any_dy(const pw_curve *curve, pw_curve_dy_fn dy,
+                                 const pw_column_spec *spec, const pw_column_options *opt,
+                                 pw_column_result *out);
 
 /* pw_column_step in either direction (stages from the top at reflux R, optimal feed stage). */
 pw_status pw_column_step_any(const pw_curve *curve, const pw_column_spec *spec, double R,

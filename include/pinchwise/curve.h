@@ -32,6 +32,14 @@ pw_status pw_system_curve_init(pw_system_curve *sc, const pw_system *sys, double
  * pw_bubble_T's status (PW_EDOM for x outside [0,1]). ctx is a pw_system_curve. */
 pw_status pw_system_curve_y(void *ctx, double x, double *y);
 
+/* y* and its slope dy* / dx at x (pw_bubble_T_slope_from; the same y as pw_system_curve_y, to
+ * the bit): a pw_curve_dy_fn. PW_EINVAL for a system with the virial vapor, whose slope is not
+ * exact (the column then works without slopes). */
+pw_status pw_system_curve_y_dy(void *ctx, double x, double *y, double *dydx);
+
+/* The slope function for sc: pw_system_curve_y_dy, or NULL where it does not apply (virial vapor). */
+pw_curve_dy_fn pw_system_curve_dy(const pw_system_curve *sc);
+
 /* A pw_curve that evaluates sc (borrowed, see above). */
 pw_curve pw_system_curve_bind(pw_system_curve *sc);
 

@@ -42,6 +42,11 @@ pw_status pw_bubble_T(const pw_system *s, double P_Pa, double x1, pw_eq_point *o
  * previous point of a curve); NAN or a non-positive guess means none. Same result, fewer steps. */
 pw_status pw_bubble_T_from(const pw_system *s, double P_Pa, double x1, double T_guess_K,
                            pw_eq_point *out);
+/* pw_bubble_T_from (the same point, to the bit) and the slope dy1/dx1 of the isobaric y*(x) there,
+ * by implicit differentiation of the bubble-point condition (docs/thermo.md). Exact for the ideal
+ * vapor; for the virial vapor the fugacity coefficients are held constant in the derivative. */
+pw_status pw_bubble_T_slope_from(const pw_system *s, double P_Pa, double x1, double T_guess_K,
+                                 pw_eq_point *out, double *dy1_dx1);
 /* Bubble pressure at T for liquid x1 (explicit; no iteration). */
 pw_status pw_bubble_P(const pw_system *s, double T_K, double x1, pw_eq_point *out);
 /* Dew temperature at P for vapor y1 (and the liquid x1). */

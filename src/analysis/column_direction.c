@@ -26,9 +26,21 @@ static pw_status mirror_y(void *ctx, double x, double *y)
     return st;
 }
 
+/* The mirrored slope: d(1 - y(1 - x))/dx = y'(1 - x). */
+static pw_status mirror_y_dy(void *ctx, double x, double *y, double *d)
+{
+    const pw_curve_mirror *m = ctx;
+    double yi;
+    pw_status st = m->inner_dy(m->inner.ctx, 1.0 - x, &yi, d);
+    if (st == PW_OK)
+        *y = 1.0 - yi;
+    return st;
+}
+
 pw_curve pw_curve_mirror_bind(pw_curve_mirror *m, const pw_curve *curve)
 {
     m->inner = *curve;
+    m->inner_dy = NULL;
     return (pw_curve){mirror_y, m};
 }
 
@@ -64,16 +76,24 @@ static void map_back(pw_column_result *r)
 pw_status pw_column_solve_any(const pw_curve *curve, const pw_column_spec *spec,
                               const pw_column_options *opt, pw_column_result *out)
 {
+    return pw_column_solve_any_dy(curve, NULL, spec, opt, out);
+}
+
+pw_status pw_column_solve_any_dy(const pw_curve *curve, pw_curve_dy_fn dy,
+                                 const pw_column_spec *spec, const pw_column_options *opt,
+                                 pw_column_result *out)
+{
     if (!curve || !spec || !out)
         return PW_EINVAL;
     switch (pw_column_direction_of(spec)) {
     case PW_DIRECTION_OVERHEAD:
-        return pw_column_solve(curve, spec, opt, out);
+        return pw_column_solve_dy(curve, dy, spec, opt, out);
     case PW_DIRECTION_BOTTOMS: {
         pw_curve_mirror m;
         pw_curve c = pw_curve_mirror_bind(&m, curve);
+        m.inner_dy = dy;
         pw_column_spec s = pw_column_spec_mirror(spec);
-        pw_status st = pw_column_solve(&c, &s, opt, out);
+        pw_status st = pw_column_solve_dy(&c, dy ? mirror_y_dy : NULL, &s, opt, out);
         map_back(out);
         return st;
     }

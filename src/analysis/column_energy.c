@@ -752,7 +752,7 @@ pw_status pw_energy_column_solve(const pw_system *sys, const pw_heat_data *heat,
     oc.n_factors = 0;
     if (st == PW_OK) {
         pw_curve curve = pw_system_curve_bind(&sc);
-        st = pw_column_solve_any(&curve, spec, &oc, &col);
+        st = pw_column_solve_any_dy(&curve, pw_system_curve_dy(&sc), spec, &oc, &col);
     }
     if (st != PW_OK && !col.reason[0])
         return st;

@@ -14,6 +14,7 @@
 
 typedef struct pw_column_ws {
     const pw_curve *curve;
+    pw_curve_dy_fn dy;        /* y* and dy* / dx together for curve->ctx, or NULL (no slopes) */
     double rtol;              /* relative tolerance on R_min */
     double root_xtol;         /* absolute x tolerance of root solves */
     double min_xtol;          /* absolute x tolerance of minimisations */
@@ -22,6 +23,7 @@ typedef struct pw_column_ws {
     double y_noise;           /* absolute precision assumed of a curve value */
     const double *tab_x, *tab_y; /* y*(x) tabulated on [xb, xd] (NULL when not yet): brackets */
     size_t tab_n;                /* the inversions x*(y) between neighbouring grid points */
+    const double *tab_d;         /* dy* / dx at the table's points (NULL: no slopes) */
 } pw_column_ws;
 
 /* Sets the workspace up; rtol is the relative tolerance on R_min (see docs/column.md for how it
@@ -32,6 +34,17 @@ void pw_column_ws_free(pw_column_ws *w);
 
 /* y*(x) through the callback; PW_EDOM for x outside [0,1] or a non-finite answer. */
 pw_status pw_column_y(pw_column_ws *w, double x, double *y);
+
+/* y*(x) and dy* / dx through w->dy (PW_EINVAL when w->dy is NULL); PW_EDOM as pw_column_y. */
+pw_status pw_column_y_dy(pw_column_ws *w, double x, double *y, double *d);
+
+/* The table with slopes (docs/column.md section 3): n0 evenly spaced points of [xb, xd], then
+ * cells halved where the two one-sided curvature estimates at a point (from the cubic Hermite
+ * interpolant of each neighbouring cell) do not resolve y*'' against K (see
+ * pw_column_set_conv_bound); at most cap points in all. x, y, d hold cap entries; *n receives the
+ * count. w->conv_bound is set from the final table. */
+pw_status pw_column_tabulate_dy(pw_column_ws *w, double xb, double xd, size_t n0, size_t cap,
+                                double *x, double *y, double *d, size_t *n);
 
 /* Root of f(x) = 0 bracketed by [a, b] with fa = f(a), fb = f(b) of opposite signs (or one
  * zero), by GSL Brent. f returns a status through the workspace. */
@@ -107,6 +120,10 @@ typedef struct pw_section_fn {
     double (*tol)(void *ctx, double best, const pw_section_pt *at);
     /* the coarse bracket: point i of n (the section's ends are points 0 and n - 1) */
     void (*point)(void *ctx, size_t i, pw_section_pt *pt);
+    /* optional (NULL: none): dv/dx at a point from its quantities, NAN where unknown; a local
+     * maximum bracketed by a sign change of dv/dx is then located as its root (GSL Brent's root
+     * solver) instead of by Brent's minimiser */
+    double (*dvalue)(void *ctx, double x, const double *q);
     double noise[PW_SECTION_MAXQ]; /* absolute precision of each quantity */
     double K[PW_SECTION_MAXQ];     /* curvature bounds in use; raised by the search (in/out) */
     double xtol;                   /* absolute x tolerance of the Brent refinements */

@@ -13,6 +13,7 @@
 #include <float.h>
 #include <math.h>
 #include <stdbool.h>
+#include <stdlib.h>
 
 #define CONV_SAFETY 4.0    /* K = 4 x the largest second difference of the table ... */
 #define CONV_FLOOR 1e-6    /* ... plus this (a straight table still gets a bound) */
@@ -22,8 +23,102 @@
 #define MIN_CELL_REL 1e-13 /* cells narrower than this (relative to xd - xb) are not halved */
 #define MIN_MAX_ITER 100
 
+/* The curvature estimates of the cubic Hermite interpolant of the cell [x0, x1] (values and
+ * slopes at both ends) at its two ends: the straight line through them is the linear function with
+ * the same integral and first moment over the cell as y*'' itself. */
+static void hermite_curv(double x0, double y0, double d0, double x1, double y1, double d1,
+                         double *c0, double *c1)
+{
+    const double h = x1 - x0, sl = (y1 - y0) / h;
+    *c0 = (6.0 * sl - 4.0 * d0 - 2.0 * d1) / h;
+    *c1 = (2.0 * d0 + 4.0 * d1 - 6.0 * sl) / h;
+}
+
+static double hermite_bound(const double *x, const double *y, const double *d, size_t n)
+{
+    double cmax = 0.0;
+    for (size_t j = 0; j + 1 < n; j++) {
+        double c0, c1;
+        hermite_curv(x[j], y[j], d[j], x[j + 1], y[j + 1], d[j + 1], &c0, &c1);
+        cmax = fmax(cmax, fmax(c0, c1));
+    }
+    return CONV_SAFETY * cmax + CONV_FLOOR;
+}
+
+#define REFINE_ROUNDS 16
+#define REFINE_MIN_REL (1.0 / 4096.0) /* cells narrower than this (of xd - xb) are not halved */
+
+pw_status pw_column_tabulate_dy(pw_column_ws *w, double xb, double xd, size_t n0, size_t cap,
+                                double *x, double *y, double *d, size_t *n_out)
+{
+    if (n0 < 3 || cap < n0 || !w->dy)
+        return PW_EINVAL;
+    size_t n = n0;
+    for (size_t j = 0; j < n; j++) {
+        x[j] = j + 1 == n ? xd : xb + (xd - xb) * (double)j / (double)(n - 1);
+        pw_status st = pw_column_y_dy(w, x[j], &y[j], &d[j]);
+        if (st != PW_OK)
+            return st;
+    }
+    const double min_w = REFINE_MIN_REL * (xd - xb);
+    for (int round = 0; round < REFINE_ROUNDS; round++) {
+        const double K = hermite_bound(x, y, d, n);
+        /* Point i (interior) is resolved when its two one-sided estimates cL, cR of y*'' satisfy
+         * max(cL, cR) + |cL - cR| <= K; else both cells beside it are halved (not below min_w).
+         * The table then grows in place from the right. */
+        bool *split = calloc(n, sizeof *split);
+        if (!split)
+            return PW_ENOMEM;
+        size_t n_split = 0;
+        for (size_t i = 1; i + 1 < n; i++) {
+            double a0, a1, b0, b1;
+            hermite_curv(x[i - 1], y[i - 1], d[i - 1], x[i], y[i], d[i], &a0, &a1);
+            hermite_curv(x[i], y[i], d[i], x[i + 1], y[i + 1], d[i + 1], &b0, &b1);
+            if (fmax(a1, b0) + fabs(a1 - b0) > K) {
+                split[i - 1] = true;
+                split[i] = true;
+            }
+        }
+        for (size_t j = 0; j + 1 < n; j++)
+            if (split[j] && !(x[j + 1] - x[j] > 2.0 * min_w))
+                split[j] = false;
+        for (size_t j = 0; j + 1 < n; j++)
+            n_split += split[j];
+        if (n_split == 0 || n + n_split > cap) {
+            free(split);
+            break; /* resolved, or the table is full (the search's midpoint checks remain) */
+        }
+        size_t k = n + n_split; /* new count */
+        size_t dst = k;
+        pw_status st = PW_OK;
+        for (size_t jj = n; jj-- > 0 && st == PW_OK;) {
+            /* point jj, and before it the midpoint of cell jj - 1 when halved */
+            dst--;
+            x[dst] = x[jj];
+            y[dst] = y[jj];
+            d[dst] = d[jj];
+            if (jj > 0 && split[jj - 1]) {
+                dst--;
+                x[dst] = x[jj - 1] + 0.5 * (x[jj] - x[jj - 1]);
+                st = pw_column_y_dy(w, x[dst], &y[dst], &d[dst]);
+            }
+        }
+        free(split);
+        if (st != PW_OK)
+            return st;
+        n = k;
+    }
+    *n_out = n;
+    w->conv_bound = hermite_bound(x, y, d, n);
+    return PW_OK;
+}
+
 void pw_column_set_conv_bound(pw_column_ws *w)
 {
+    if (w->tab_d) {
+        w->conv_bound = hermite_bound(w->tab_x, w->tab_y, w->tab_d, w->tab_n);
+        return;
+    }
     double d2max = 0.0;
     const double *x = w->tab_x, *y = w->tab_y;
     for (size_t j = 1; j + 1 < w->tab_n; j++) {
@@ -119,11 +214,65 @@ static pw_status neg_value(void *ctx, double x, double *f)
     return PW_OK;
 }
 
+static double dval(const bb *c, const pw_section_pt *p)
+{
+    return c->f->dvalue ? c->f->dvalue(c->f->ctx, p->x, p->q) : (double)NAN;
+}
+
+static pw_status dvalue_fn(void *ctx, double x, double *f)
+{
+    bb *c = ctx;
+    pw_section_pt p;
+    double v;
+    pw_status st = eval(c, x, &p, &v);
+    if (st != PW_OK)
+        return st;
+    if (v > c->brent_v) {
+        c->brent_v = v;
+        c->brent_pt = p;
+    }
+    *f = dval(c, &p);
+    return isfinite(*f) ? PW_OK : PW_EDOM;
+}
+
+/* With the derivative: the local maximum inside [a, b] with dv(a) > 0 > dv(b) as the root of dv
+ * by GSL Brent's root solver (superlinear; the value's derivative is smooth where the curve is). */
+static pw_status refine_root(bb *c, const pw_section_pt *a, const pw_section_pt *b, double da,
+                             double db, const pw_section_pt *seed, double vseed, pw_section_pt *pm)
+{
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = c->f->xtol;
+    o.xtol_rel = 0.0;
+    o.max_iter = MIN_MAX_ITER;
+    c->brent_pt = *seed;
+    c->brent_v = vseed;
+    double xr;
+    pw_status st = pw_root1d(dvalue_fn, c, a->x, b->x, da, db, &o, &xr, NULL);
+    if (st != PW_OK && st != PW_EMAXITER)
+        return st;
+    offer(c, &c->brent_pt, c->brent_v);
+    *pm = c->brent_pt;
+    return PW_OK;
+}
+
 /* GSL Brent on -value over (a, m, b), a bracketed local maximum; the maximum found is offered and
- * returned in *pm. */
+ * returned in *pm. With the value's derivative known at the three points and a sign change of it
+ * beside m, the root of the derivative instead. */
 static pw_status refine(bb *c, const pw_section_pt *a, const pw_section_pt *m,
                         const pw_section_pt *b, double va, double vm, double vb, pw_section_pt *pm)
 {
+    const double dm = dval(c, m);
+    if (dm == 0.0) {
+        *pm = *m;
+        return PW_OK;
+    }
+    if (isfinite(dm)) {
+        const pw_section_pt *e = dm > 0.0 ? b : a;
+        double de = dval(c, e);
+        if (isfinite(de) && (dm > 0.0 ? de < 0.0 : de > 0.0))
+            return dm > 0.0 ? refine_root(c, m, b, dm, de, m, vm, pm)
+                            : refine_root(c, a, m, de, dm, m, vm, pm);
+    }
     pw_solve1d_opts o = pw_solve1d_default_opts();
     o.xtol_abs = c->f->xtol;
     o.xtol_rel = 0.0;
@@ -225,6 +374,42 @@ pw_status pw_section_maximise(pw_section_fn *f, size_t n, const pw_section_pt *e
             ibest = i;
         }
     }
+    if (f->dvalue) {
+        /* Every coarse cell whose ends bracket a local maximum (dv > 0 at the left, < 0 at the
+         * right), highest first, unless its bound already falls below the best value. */
+        size_t done[8];
+        for (size_t pass = 0; pass < 8; pass++) {
+            size_t pick = 0;
+            double vpick = -INFINITY;
+            f->point(f->ctx, 0, &pl);
+            for (size_t i = 0; i + 1 < n; i++) {
+                f->point(f->ctx, i + 1, &pr);
+                double dl = dval(&c, &pl), dr = dval(&c, &pr);
+                double hv = fmax(val(&c, &pl), val(&c, &pr));
+                bool seen = false;
+                for (size_t k = 0; k < pass; k++)
+                    seen = seen || done[k] == i + 1;
+                if (!seen && dl > 0.0 && dr < 0.0 && pl.x < pr.x && hv > vpick &&
+                    f->bound(f->ctx, &pl, &pr, f->K) > c.best + f->tol(f->ctx, c.best, &c.at)) {
+                    pick = i + 1;
+                    vpick = hv;
+                }
+                pl = pr;
+            }
+            if (pick == 0)
+                break;
+            done[pass] = pick;
+            f->point(f->ctx, pick - 1, &pl);
+            f->point(f->ctx, pick, &pr);
+            double vl = val(&c, &pl), vr = val(&c, &pr);
+            pw_section_pt s;
+            pw_status st = refine_root(&c, &pl, &pr, dval(&c, &pl), dval(&c, &pr),
+                                       vl >= vr ? &pl : &pr, fmax(vl, vr), &s);
+            if (st != PW_OK)
+                return st;
+        }
+        ibest = 0; /* the minimiser's first run is not needed */
+    }
     if (ibest > 0) {
         f->point(f->ctx, ibest - 1, &pl);
         f->point(f->ctx, ibest, &p);
@@ -286,7 +471,34 @@ static double cmo_value(void *ctx, double x, const double *q)
 static pw_status cmo_sample(void *ctx, double x, double *q)
 {
     sect *c = ctx;
+    if (c->w->dy && c->w->tab_d)
+        return pw_column_y_dy(c->w, x, &q[0], &q[1]); /* q[1]: the slope, not a bounded quantity */
+    q[1] = NAN;
     return pw_column_y(c->w, x, &q[0]);
+}
+
+/* dv/dx of v = (p - y*)/u, u = |p - x| = dir (p - x): (dir (p - y*) - y*' u) / u^2 (NAN without
+ * the slope). */
+static double cmo_dvalue(void *ctx, double x, const double *q)
+{
+    const sect *c = ctx;
+    double u = fabs(c->p - x);
+    if (!(u > 0.0) || !isfinite(q[1]))
+        return NAN;
+    return (c->dir * (c->p - q[0]) - q[1] * u) / (u * u);
+}
+
+/* The table's slope at x when x is one of its ends (the section's ends may be the q-line point,
+ * which is not tabulated: NAN). */
+static double end_slope(const pw_column_ws *w, double x)
+{
+    if (!w->tab_d)
+        return NAN;
+    if (x == w->tab_x[0])
+        return w->tab_d[0];
+    if (x == w->tab_x[w->tab_n - 1])
+        return w->tab_d[w->tab_n - 1];
+    return NAN;
 }
 
 static void cmo_point(void *ctx, size_t i, pw_section_pt *pt)
@@ -295,12 +507,15 @@ static void cmo_point(void *ctx, size_t i, pw_section_pt *pt)
     if (i == 0) {
         pt->x = c->lo;
         pt->q[0] = c->ylo;
+        pt->q[1] = end_slope(c->w, c->lo);
     } else if (i + 1 == c->np) {
         pt->x = c->hi;
         pt->q[0] = c->yhi;
+        pt->q[1] = end_slope(c->w, c->hi);
     } else {
         pt->x = c->w->tab_x[c->j0 + i - 1];
         pt->q[0] = c->w->tab_y[c->j0 + i - 1];
+        pt->q[1] = c->w->tab_d ? c->w->tab_d[c->j0 + i - 1] : (double)NAN;
     }
 }
 
@@ -385,11 +600,12 @@ pw_status pw_column_section_search(pw_column_ws *w, const pw_column_spec *s, pw_
                        .bound = cmo_bound,
                        .tol = cmo_tol,
                        .point = cmo_point,
+                       .dvalue = w->dy && w->tab_d ? cmo_dvalue : NULL,
                        .noise = {w->y_noise},
                        .K = {w->conv_bound},
                        .xtol = w->min_xtol,
                        .min_width = MIN_CELL_REL * (s->xd - s->xb)};
-    pw_section_pt end = {.x = xe, .q = {ye}}, best;
+    pw_section_pt end = {.x = xe, .q = {ye, NAN}}, best;
     double v;
     pw_status st = pw_section_maximise(&f, c.np, &end, &best, &v, at_feed);
     if (st != PW_OK)

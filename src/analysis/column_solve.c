@@ -42,11 +42,30 @@ static void clear_result(pw_column_result *r)
 #define FEED_MATCH_RTOL 1e-7
 
 typedef struct col_buffers {
-    double *xg, *yg, *fg;
+    double *xg, *yg, *fg, *dg; /* dg: slopes (NULL without them) */
+    size_t n, cap;             /* points tabulated; room for */
 } col_buffers;
 
-static pw_status tabulate(pw_column_ws *w, const pw_column_spec *s, size_t n, col_buffers *b)
+/* With the curve's slope the table is coarse, grid/8 points (at least 9; each carries a value
+ * and a slope), refined where it does not resolve the curvature (docs/column.md section 3). */
+#define DY_GRID_DIV 8
+#define DY_GRID_MIN 9
+#define DY_CAP_FACTOR 8
+#define DY_CAP_EXTRA 64
+
+static size_t dy_n0(size_t grid)
 {
+    size_t n0 = (grid + DY_GRID_DIV - 1) / DY_GRID_DIV;
+    return n0 < DY_GRID_MIN ? DY_GRID_MIN : n0;
+}
+
+static pw_status tabulate(pw_column_ws *w, const pw_column_spec *s, size_t grid, col_buffers *b)
+{
+    if (b->dg)
+        return pw_column_tabulate_dy(w, s->xb, s->xd, dy_n0(grid), b->cap, b->xg, b->yg, b->dg,
+                                     &b->n);
+    const size_t n = grid;
+    b->n = n;
     for (size_t j = 0; j < n; j++) {
         b->xg[j] = j + 1 == n ? s->xd : s->xb + (s->xd - s->xb) * (double)j / (double)(n - 1);
         pw_status st = pw_column_y(w, b->xg[j], &b->yg[j]);
@@ -235,12 +254,13 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
                                 const pw_column_options *o, col_buffers *b,
                                 pw_column_result *out)
 {
-    const size_t n = o->grid;
-    pw_status st = tabulate(w, s, n, b);
+    pw_status st = tabulate(w, s, o->grid, b);
     if (st != PW_OK)
         return st;
+    const size_t n = b->n;
     w->tab_x = b->xg;
     w->tab_y = b->yg;
+    w->tab_d = b->dg;
     w->tab_n = n;
     pw_column_set_conv_bound(w);
     out->alpha_bottom = pw_column_alpha(b->xg[0], b->yg[0]);
@@ -305,6 +325,12 @@ static pw_status solve_feasible(pw_column_ws *w, const pw_column_spec *s,
 pw_status pw_column_solve(const pw_curve *curve, const pw_column_spec *spec,
                           const pw_column_options *opt, pw_column_result *out)
 {
+    return pw_column_solve_dy(curve, NULL, spec, opt, out);
+}
+
+pw_status pw_column_solve_dy(const pw_curve *curve, pw_curve_dy_fn dy, const pw_column_spec *spec,
+                             const pw_column_options *opt, pw_column_result *out)
+{
     if (!curve || !curve->y_of_x || !spec || !out)
         return PW_EINVAL;
     clear_result(out);
@@ -315,13 +341,14 @@ pw_status pw_column_solve(const pw_curve *curve, const pw_column_spec *spec,
     pw_status st = check_options(&o);
     if (st != PW_OK)
         return st;
-    const size_t n = o.grid;
-    double *mem = malloc(3 * n * sizeof *mem);
+    const size_t cap = dy ? DY_CAP_FACTOR * dy_n0(o.grid) + DY_CAP_EXTRA : o.grid;
+    double *mem = malloc((dy ? 4 : 3) * cap * sizeof *mem);
     if (!mem)
         return PW_ENOMEM;
-    col_buffers b = {mem, mem + n, mem + 2 * n};
+    col_buffers b = {mem, mem + cap, mem + 2 * cap, dy ? mem + 3 * cap : NULL, 0, cap};
     pw_column_ws w = {0};
     st = pw_column_ws_init(&w, curve, o.rtol);
+    w.dy = dy;
     if (st == PW_OK)
         st = solve_feasible(&w, &s, &o, &b, out);
     pw_column_ws_free(&w);

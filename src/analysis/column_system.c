@@ -77,5 +77,5 @@ pw_status pw_column_solve_system(const pw_system *s, double P_Pa, const pw_colum
     if (st != PW_OK)
         return st;
     pw_curve curve = pw_system_curve_bind(&sc);
-    return pw_column_solve_any(&curve, spec, opt, out);
+    return pw_column_solve_any_dy(&curve, pw_system_curve_dy(&sc), spec, opt, out);
 }

@@ -5,6 +5,7 @@
 
 #include <float.h>
 #include <math.h>
+#include <stdbool.h>
 
 #define ROOT_MAX_ITER 200
 /* Absolute precision assumed of a curve value y*(x): a bubble point converged by Newton gives
@@ -14,6 +15,9 @@
 pw_status pw_column_ws_init(pw_column_ws *w, const pw_curve *curve, double rtol)
 {
     w->curve = curve;
+    w->dy = NULL;
+    w->tab_x = w->tab_y = w->tab_d = NULL;
+    w->tab_n = 0;
     w->rtol = rtol;
     w->n_eval = 0;
     /* x tolerances: roots to well below rtol (a root error enters R linearly); minimisers to
@@ -36,6 +40,21 @@ pw_status pw_column_y(pw_column_ws *w, double x, double *y)
     if (st != PW_OK)
         return st;
     if (!isfinite(*y))
+        return PW_EDOM;
+    return PW_OK;
+}
+
+pw_status pw_column_y_dy(pw_column_ws *w, double x, double *y, double *d)
+{
+    if (!w->dy)
+        return PW_EINVAL;
+    if (!(x >= 0.0 && x <= 1.0))
+        return PW_EDOM;
+    w->n_eval++;
+    pw_status st = w->dy(w->curve->ctx, x, y, d);
+    if (st != PW_OK)
+        return st;
+    if (!isfinite(*y) || !isfinite(*d))
         return PW_EDOM;
     return PW_OK;
 }
@@ -194,6 +213,115 @@ static pw_status invert_in_cell(pw_column_ws *w, double y, size_t j, double flo,
     return pw_column_root(w, curve_minus_target, &target, lo, hi, flo, fhi, x);
 }
 
+/* The cubic Hermite interpolant of the table's cell j (values and slopes at both ends) at x. */
+static void hermite(const pw_column_ws *w, size_t j, double x, double *p, double *dp)
+{
+    const double a = w->tab_x[j], h = w->tab_x[j + 1] - a, t = (x - a) / h;
+    const double y0 = w->tab_y[j], y1 = w->tab_y[j + 1];
+    const double m0 = w->tab_d[j] * h, m1 = w->tab_d[j + 1] * h;
+    const double t2 = t * t, t3 = t2 * t;
+    *p = (2.0 * t3 - 3.0 * t2 + 1.0) * y0 + (t3 - 2.0 * t2 + t) * m0 + (-2.0 * t3 + 3.0 * t2) * y1 +
+         (t3 - t2) * m1;
+    *dp = ((6.0 * t2 - 6.0 * t) * y0 + (3.0 * t2 - 4.0 * t + 1.0) * m0 + (-6.0 * t2 + 6.0 * t) * y1 +
+           (3.0 * t2 - 2.0 * t) * m1) /
+          h;
+}
+
+/* Newton steps on y*(x) = y with the analytic slope dy* / dx from xk, every iterate kept inside
+ * the bracket [lo, hi] (f = y* - y: flo < 0 < fhi, flo NAN when not known), which the signs seen
+ * narrow. It ends at a step of at most root_xtol (the secant path's rule), or earlier when the
+ * step's square, scaled by M / (2 |dy* / dx|) (M bounds |y*''| with a margin), is already that
+ * small: Newton's error after the step. *done false: give the bracket to a safer solver. */
+static pw_status newton_bracketed(pw_column_ws *w, double y, double xk, double M, double *lo,
+                                  double *hi, double *flo, double *fhi, double *x, bool *done)
+{
+    *done = false;
+    for (int it = 0; it < NEWTON_MAX; it++) {
+        double yk, dk;
+        pw_status st = pw_column_y_dy(w, xk, &yk, &dk);
+        if (st != PW_OK)
+            return st;
+        double fk = yk - y;
+        if (fk == 0.0) {
+            *x = xk;
+            *done = true;
+            return PW_OK;
+        }
+        if (fk < 0.0) {
+            *lo = xk;
+            *flo = fk;
+        } else {
+            *hi = xk;
+            *fhi = fk;
+        }
+        double step = -fk / dk, xn = xk + step;
+        if (!isfinite(xn) || !(xn >= *lo && xn <= *hi))
+            return PW_OK;
+        if (fabs(step) <= w->root_xtol || 0.5 * M * step * step <= w->root_xtol * fabs(dk)) {
+            *x = xn;
+            *done = true;
+            return PW_OK;
+        }
+        xk = xn;
+    }
+    return PW_OK;
+}
+
+/* x*(y) inside table cell j (ty[j] < y < ty[j+1]) with the curve's slope: the start solves the
+ * cell's cubic Hermite interpolant for y (no curve evaluation; good to about h^4), then
+ * newton_bracketed. Usually two curve evaluations. Anything else falls back to GSL Brent on the
+ * bracket. */
+static pw_status newton_in_cell(pw_column_ws *w, double y, size_t j, double flo, double fhi,
+                                double *x)
+{
+    double lo = w->tab_x[j], hi = w->tab_x[j + 1];
+    double xk = lo + (hi - lo) * (-flo) / (fhi - flo);
+    for (int it = 0; it < 8; it++) { /* Newton on the interpolant, safeguarded */
+        double p, dp;
+        hermite(w, j, xk, &p, &dp);
+        double xn = xk - (p - y) / dp;
+        if (!isfinite(xn) || !(xn > lo && xn < hi))
+            break;
+        bool small = fabs(xn - xk) <= 1e-3 * w->root_xtol;
+        xk = xn;
+        if (small)
+            break;
+    }
+    /* |y*''| on the cell: twice the interpolant's end curvatures, at least K */
+    const double h = hi - lo, sl = (w->tab_y[j + 1] - w->tab_y[j]) / h;
+    const double c0 = (6.0 * sl - 4.0 * w->tab_d[j] - 2.0 * w->tab_d[j + 1]) / h;
+    const double c1 = (2.0 * w->tab_d[j] + 4.0 * w->tab_d[j + 1] - 6.0 * sl) / h;
+    const double M = fmax(2.0 * fmax(fabs(c0), fabs(c1)), fabs(w->conv_bound));
+    bool done;
+    pw_status st = newton_bracketed(w, y, xk, M, &lo, &hi, &flo, &fhi, x, &done);
+    if (st != PW_OK || done)
+        return st;
+    if (flo == 0.0 || fhi == 0.0) {
+        *x = flo == 0.0 ? lo : hi;
+        return PW_OK;
+    }
+    double target = y;
+    return pw_column_root(w, curve_minus_target, &target, lo, hi, flo, fhi, x);
+}
+
+/* x*(y) below the table (y < y*(xb): the last stage's liquid lies below xb): Newton from the
+ * tangent at xb, inside (0, xb). *done false when it does not get there. */
+static pw_status newton_below(pw_column_ws *w, double y, double *x, bool *done)
+{
+    *done = false;
+    const double x0 = w->tab_x[0], y0 = w->tab_y[0], d0 = w->tab_d[0];
+    double xk = x0 + (y - y0) / d0;
+    if (!(d0 > 0.0) || !(xk > 0.0 && xk < x0))
+        return PW_OK;
+    double lo = 0.0, hi = x0, flo = NAN, fhi = y0 - y;
+    /* no bound on |y*''| below the table (the curve may bend hard towards x = 0): the step rule
+     * alone ends it */
+    pw_status st = newton_bracketed(w, y, xk, INFINITY, &lo, &hi, &flo, &fhi, x, done);
+    if (st == PW_OK && *done && !(*x > 0.0 && *x < x0))
+        *done = false;
+    return st;
+}
+
 pw_status pw_column_x_of_y(pw_column_ws *w, double y, double xlo, double *x)
 {
     if (!(y > 0.0 && y <= 1.0) || !(xlo >= 0.0 && xlo < y))
@@ -209,7 +337,15 @@ pw_status pw_column_x_of_y(pw_column_ws *w, double y, double xlo, double *x)
             *x = w->tab_x[j + 1];
             return PW_OK;
         }
+        if (w->dy && w->tab_d)
+            return newton_in_cell(w, y, j, fa, fb, x);
         return invert_in_cell(w, y, j, fa, fb, x);
+    }
+    if (w->dy && w->tab_d && w->tab_n >= 2 && y < w->tab_y[0] && xlo == w->tab_x[0]) {
+        bool done;
+        pw_status st = newton_below(w, y, x, &done);
+        if (st != PW_OK || done)
+            return st;
     }
     double target = y, flo, fhi;
     pw_status st = curve_minus_target(w, &target, xlo, &flo);

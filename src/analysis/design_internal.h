@@ -12,6 +12,7 @@ typedef struct pw_eqp {
     double T_last; /* the latest bubble temperature: Newton's next start */
     double x_last, y_last; /* the latest bubble point (NAN: none): the inverse's seed */
     double slope_last;     /* dy/dx of y*(x) where the latest fast inverse ended (NAN: none) */
+    double x_end, curv_last; /* where it ended, and y*'' estimated from the last two ends' slopes */
     unsigned long n_bubble;
 } pw_eqp;
 

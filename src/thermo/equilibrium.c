@@ -515,6 +515,45 @@ pw_status pw_bubble_P(const pw_system *s, double T_K, double x1, pw_eq_point *ou
     return PW_OK;
 }
 
+/* dy1/dx1 along the bubble curve at the point tp (x1), by implicit differentiation: at constant
+ * P (isobaric) or at constant T. Phi is held constant in the derivative (exact for the ideal
+ * vapor; for the virial vapor a slope of the right sign, all the dew point's safeguarded Newton
+ * needs). */
+static double bubble_slope(const tpoint *tp, double x1, bool isobaric)
+{
+    double x2 = 1.0 - x1;
+    double g1Ps1 = exp(tp->act.lngamma[0]) * tp->Ps[0] / tp->Phi[0];
+    double g2Ps2 = exp(tp->act.lngamma[1]) * tp->Ps[1] / tp->Phi[1];
+    double dk1 = g1Ps1 * (1.0 + x1 * tp->act.dlngamma_dx1[0]); /* at constant T */
+    double dk2 = g2Ps2 * (-1.0 + x2 * tp->act.dlngamma_dx1[1]);
+    if (isobaric) {
+        /* On the bubble curve sum = P, so dy1/dx1 = (dk1 + k1 dln k1/dT dT/dx1) / P with
+         * dT/dx1 = -(dk1 + dk2) / (sum df/dT). */
+        double dT_dx = -(dk1 + dk2) / (tp->sum * tp->df);
+        return (dk1 + tp->k[0] * (tp->act.dlngamma_dT[0] + tp->dlnPs[0]) * dT_dx) / tp->sum;
+    }
+    double y1 = tp->k[0] / tp->sum;
+    return (dk1 - y1 * (dk1 + dk2)) / tp->sum;
+}
+
+pw_status pw_bubble_T_slope_from(const pw_system *s, double P_Pa, double x1, double T_guess_K,
+                                 pw_eq_point *out, double *dy1_dx1)
+{
+    if (!state_ok(s) || !out || !dy1_dx1)
+        return PW_EINVAL;
+    if (!isfinite(P_Pa) || P_Pa <= 0.0 || !frac_ok(x1))
+        return PW_EDOM;
+    tpoint tp;
+    double T, guess = isfinite(T_guess_K) && T_guess_K > 0.0 ? T_guess_K : (double)NAN;
+    int iters;
+    pw_status st = bubble_T_core(s, P_Pa, x1, guess, true, &T, &tp, &iters, NULL);
+    if (st != PW_OK)
+        return st;
+    fill_point(&tp, x1, T, P_Pa, iters, out);
+    *dy1_dx1 = bubble_slope(&tp, x1, true);
+    return PW_OK;
+}
+
 /* Dew points as a root in x1 of h(x1) = y1_bubble(x1) - y1 on [0, 1]. */
 typedef struct {
     const pw_system *s;
@@ -529,7 +568,6 @@ static pw_status dew_eval(dew_ctx *c, double x1, double *y1, double *dy1)
 {
     tpoint *tp = &c->tp;
     pw_status st;
-    double x2 = 1.0 - x1;
     if (c->isobaric) {
         int its = 0;
         st = bubble_T_core(c->s, c->P, x1, c->T, true, &c->T, tp, &its, NULL, NULL);
@@ -541,21 +579,8 @@ static pw_status dew_eval(dew_ctx *c, double x1, double *y1, double *dy1)
     }
     if (st != PW_OK)
         return st;
-    /* Phi held constant in the derivative (exact for the ideal vapor; the safeguarded Newton
-     * below needs only a slope of the right sign for the virial vapor) */
-    double g1Ps1 = exp(tp->act.lngamma[0]) * tp->Ps[0] / tp->Phi[0];
-    double g2Ps2 = exp(tp->act.lngamma[1]) * tp->Ps[1] / tp->Phi[1];
-    double dk1 = g1Ps1 * (1.0 + x1 * tp->act.dlngamma_dx1[0]); /* at constant T */
-    double dk2 = g2Ps2 * (-1.0 + x2 * tp->act.dlngamma_dx1[1]);
     *y1 = tp->k[0] / tp->sum;
-    if (c->isobaric) {
-        /* On the bubble curve sum = P, so dy1/dx1 = (dk1 + k1 dln k1/dT dT/dx1) / P with
-         * dT/dx1 = -(dk1 + dk2) / (sum df/dT). */
-        double dT_dx = -(dk1 + dk2) / (tp->sum * tp->df);
-        *dy1 = (dk1 + tp->k[0] * (tp->act.dlngamma_dT[0] + tp->dlnPs[0]) * dT_dx) / tp->sum;
-    } else {
-        *dy1 = (dk1 - *y1 * (dk1 + dk2)) / tp->sum;
-    }
+    *dy1 = bubble_slope(tp, x1, c->isobaric);
     return PW_OK;
 }
 
