@@ -546,7 +546,7 @@ pw_status pw_bubble_T_slope_from(const pw_system *s, double P_Pa, double x1, dou
     tpoint tp;
     double T, guess = isfinite(T_guess_K) && T_guess_K > 0.0 ? T_guess_K : (double)NAN;
     int iters;
-    pw_status st = bubble_T_core(s, P_Pa, x1, guess, true, &T, &tp, &iters, NULL);
+    pw_status st = bubble_T_core(s, P_Pa, x1, guess, true, &T, &tp, &iters, NULL, NULL);
     if (st != PW_OK)
         return st;
     fill_point(&tp, x1, T, P_Pa, iters, out);
