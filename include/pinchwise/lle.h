@@ -57,11 +57,15 @@ typedef struct pw_lle_result {
     double spinodal[2];         /* ends of the region D < 0 holding the reported pair */
     double residual;            /* max |ln a_i(x_I) - ln a_i(x_II)| */
     double min_tpd;             /* smallest height of Gmix/RT above the common tangent (>= -1e-10) */
+    double x2[2];               /* 1 - x[i], the layers' mole fractions of component 2, exact
+                                 * where x[i] is within rounding of 1 (use them for a2 there) */
 } pw_lle_result;
 
 /* Coexisting layers at T. No split is PW_OK with out->split false. Errors: PW_EINVAL (NULL or a
  * system without a model), PW_EDOM (T not positive or model failures), PW_ERANGE (a layer
- * closer than PW_LLE_X_MIN to a pure end), PW_ENOCONV (the pair failed its verification). */
+ * closer than PW_LLE_X_MIN to a pure end: split stays false, but x, x2 and a then describe the
+ * pair as far as double precision resolves it, NAN where it could not be described),
+ * PW_ENOCONV (the pair failed its verification; not expected for one unstable region). */
 pw_status pw_lle_solve(const pw_system *s, double T_K, pw_lle_result *out);
 /* The same with the tangent-plane verification on tpd_points (>= 100) points: inner loops that
  * only bracket (temperature searches) use fewer and solve their final state with 20,000. */
