@@ -84,6 +84,9 @@ typedef struct pw_lle_scan_point {
     double T_K;
     bool split;
     double x[2];
+    double x2[2];               /* 1 - x[i], exact near x1 = 1 */
+    bool beyond_floor;          /* split, with a layer closer than PW_LLE_X_MIN to a pure end
+                                 * (x, x2 as far as double precision resolves them) */
 } pw_lle_scan_point;
 
 typedef struct pw_lle_critical {
@@ -96,7 +99,8 @@ typedef struct pw_lle_critical {
 
 /* Solves the LLE at n (>= 2) temperatures from T_from to T_to (linear; points[] holds n
  * entries), and locates every critical solution temperature between neighbouring points with and
- * without a split, by bisection on min D (to 1e-6 K). */
+ * without a split, by bisection on min D (to 1e-6 K). A temperature whose split has a layer
+ * beyond PW_LLE_X_MIN is a point with split and beyond_floor true, not a failure. */
 pw_status pw_lle_scan(const pw_system *s, double T_from, double T_to, size_t n,
                       pw_lle_scan_point *points, pw_lle_critical *crit, size_t *n_crit);
 
@@ -111,7 +115,8 @@ typedef struct pw_three_phase {
     bool heterogeneous_azeotrope; /* x_I < y1 < x_II */
 } pw_three_phase;
 
-/* At fixed T: explicit after the LLE. exists = false when the model does not split at T. */
+/* At fixed T: explicit after the LLE. exists = false when the model does not split at T.
+ * PW_ERANGE (a layer beyond PW_LLE_X_MIN): x and a still describe the refused pair (or NAN). */
 pw_status pw_three_phase_at_T(const pw_system *s, double T_K, pw_three_phase *out);
 
 /* At fixed P: the temperature where the layers boil. The search runs from 80 K below the lower
