@@ -499,6 +499,66 @@ static int cmp_region(const void *a, const void *b)
     return (x > y) - (x < y);
 }
 
+/* x (1 - x) D as a function of the logit: about 1 where the ideal part dominates, so its grid
+ * minima are not hidden by the 1/x trend of D on a coarse geometric grid. */
+static double xD_fn(double u, void *p)
+{
+    double D = D_fn(u, p);
+    xpt q = xp_logit(u);
+    return q.x * q.xc * D;
+}
+
+/* Whether Gmix/RT is unstable somewhere beyond the floor (x or 1 - x from PW_LLE_X_MIN down to
+ * about 1e-300): then a split has a layer there. Coarse geometric grid (a factor of about 7.4 in
+ * x per point) of x(1 - x) D with every grid minimum refined by Brent. */
+static pw_status unstable_beyond_floor(dctx *c, gsl_min_fminimizer *mn, bool *found)
+{
+    *found = false;
+    double u_floor = -logit(xp_of(PW_LLE_X_MIN)), du = 2.0;
+    size_t n = (size_t)((U_EXT - u_floor) / du) + 1;
+    gsl_function F = {xD_fn, c};
+    for (int side = -1; side <= 1; side += 2) {
+        double f_prev2 = NAN, f_prev = NAN;
+        for (size_t k = 0; k <= n; k++) {
+            double u = side * (u_floor + du * (double)k), f = xD_fn(u, c);
+            if (c->st != PW_OK)
+                return c->st;
+            if (f < 0.0) {
+                *found = true;
+                return PW_OK;
+            }
+            if (k >= 2 && f_prev <= f_prev2 && f_prev <= f) {
+                double a = side * (u_floor + du * (double)(k - 2)), m = u - side * du;
+                double lo = fmin(a, u), hi = fmax(a, u);
+                if (f_prev < f_prev2 && f_prev < f
+                    && gsl_min_fminimizer_set_with_values(mn, &F, m, f_prev, lo,
+                                                          side < 0 ? f : f_prev2, hi,
+                                                          side < 0 ? f_prev2 : f) == GSL_SUCCESS) {
+                    for (int it = 0; it < 100; it++) {
+                        if (gsl_min_fminimizer_iterate(mn) != GSL_SUCCESS || c->st != PW_OK)
+                            break;
+                        if (gsl_min_fminimizer_f_minimum(mn) < 0.0)
+                            break;
+                        if (gsl_min_test_interval(gsl_min_fminimizer_x_lower(mn),
+                                                  gsl_min_fminimizer_x_upper(mn), 1e-10,
+                                                  0.0) == GSL_SUCCESS)
+                            break;
+                    }
+                    if (c->st != PW_OK)
+                        return c->st;
+                    if (gsl_min_fminimizer_f_minimum(mn) < 0.0) {
+                        *found = true;
+                        return PW_OK;
+                    }
+                }
+            }
+            f_prev2 = f_prev;
+            f_prev = f;
+        }
+    }
+    return PW_OK;
+}
+
 static pw_status solve_impl(const pw_system *s, double T, pw_lle_result *out, xpt *grid,
                             double *G, double *D, size_t *hull, size_t tpd_points)
 {
@@ -519,6 +579,7 @@ static pw_status solve_impl(const pw_system *s, double T, pw_lle_result *out, xp
     region reg[MAX_REGIONS];
     size_t nreg = 0;
     bool at_floor = D[0] < 0.0 || D[GRID_N - 1] < 0.0;
+    st = PW_OK;
     out->min_D = INFINITY;
     /* every local minimum of D on the grid, refined: a dip below zero between grid points is a
      * region of its own */
@@ -542,7 +603,12 @@ static pw_status solve_impl(const pw_system *s, double T, pw_lle_result *out, xp
         if (Dm < 0.0 && D[k] >= 0.0 && nreg < MAX_REGIONS)
             reg[nreg++] = (region){ua, um, um, ub, NAN, NAN};
     }
+    bool beyond_unstable = false;
+    if (!(D[0] < 0.0 || D[GRID_N - 1] < 0.0))
+        st = unstable_beyond_floor(&c, mn, &beyond_unstable);
     gsl_min_fminimizer_free(mn);
+    if (st != PW_OK)
+        return st;
     /* runs of negative grid points */
     for (size_t k = 1; k + 1 < GRID_N; k++) {
         if (!(D[k] < 0.0) || D[k - 1] < 0.0)
@@ -558,8 +624,9 @@ static pw_status solve_impl(const pw_system *s, double T, pw_lle_result *out, xp
     }
     out->split = false;
     out->n_pairs = 0;
-    if (at_floor)
-        return PW_ERANGE; /* D < 0 at the floor: that composition is unstable, a layer beyond */
+    if (at_floor || beyond_unstable)
+        return PW_ERANGE; /* D < 0 at or beyond the floor: a layer lies beyond it (the pair is
+                           * not described) */
     if (nreg == 0)
         return PW_OK;
     qsort(reg, nreg, sizeof reg[0], cmp_region);

@@ -332,6 +332,11 @@ static pw_status scan_at_P(const pw_system *s, double P_Pa, pw_three_phase *out,
             st = pw_three_phase_at_T(s, 0.5 * (a + b), out);
             if (st != PW_OK)
                 return st;
+            /* A bracket end refused beyond the solubility floor whose pair could not be
+             * described enters with a1 = a2 = 1; a "root" at the edge of the refused range is
+             * then no three-phase state: the true one lies in the refused range. */
+            if (!out->exists || !(fabs(out->P_Pa - P_Pa) <= 1e-6 * P_Pa))
+                return PW_ERANGE;
             out->P_Pa = P_Pa; /* y1 from a1 P1sat / P3 equals it to the bisection tolerance */
             return PW_OK;
         }
@@ -404,6 +409,8 @@ pw_status pw_three_phase_at_P_near(const pw_system *s, double P_Pa, double T_gue
             return st;
     }
     pw_status st = three_phase_T(s, T, TPD_QUICK, out);
+    if (st == PW_OK && (!out->exists || !(fabs(out->P_Pa - P_Pa) <= 1e-6 * P_Pa)))
+        return PW_ERANGE; /* at the edge of a range refused beyond the floor (as above) */
     if (st == PW_OK)
         out->P_Pa = P_Pa;
     return st;
