@@ -4,19 +4,22 @@
  * i.e. equal activities of both components in the two layers, for any activity-model descriptor
  * (the code never looks at which model it is, except pw_model_can_split). The search depends on
  * no start value and never returns the trivial solution:
- *   1. D(x) = d2(Gmix/RT)/dx^2 is scanned on a grid of fixed size (uniform in x plus geometric
- *      towards both ends, 1e-12 .. 1 - 1e-12) and every local minimum is refined (Brent); the
- *      model splits at T iff D < 0 somewhere (a binary at fixed T: METHODS2 2.2). A dip of D
- *      below zero is found when it makes a grid-local minimum (at most one minimum per cell).
- *   2. With one region of D < 0 (spinodal s1 < s2, refined by Brent), the common tangent is found
- *      by bisection on its slope m in [G'(s2), G'(s1)]: the two tangent points x_L(m) < s1 and
- *      x_R(m) > s2 are unique there, and h(m) = [G - m x](x_L) - [G - m x](x_R) is strictly
- *      increasing in m (dh/dm = x_R - x_L > 0), so the bracket always holds a single root
- *      (Maxwell's construction). With several regions, the lower convex hull of G on the grid
- *      gives each segment's start values.
- *   3. Newton in logit variables polishes the pair (METHODS2 2.3); the pair is then verified by
- *      the tangent-plane test on 20,000 points (Michelsen 1982): G lies nowhere below the common
- *      tangent by more than 1e-10.
+ *   1. D(x) = d2(Gmix/RT)/dx^2 is scanned on a sorted grid of fixed size (uniform in x plus
+ *      geometric towards both ends, 1e-12 .. 1 - 1e-12, complements exact near x = 1) and every
+ *      local minimum is refined (Brent, in the logit); the model splits at T iff D < 0 somewhere
+ *      (a binary at fixed T: METHODS2 2.2). A dip of D below zero is found when it makes a
+ *      grid-local minimum (at most one minimum per cell). A coarse scan beyond the floor (to
+ *      about 1e-300) finds instability there (then a layer lies beyond the floor: PW_ERANGE).
+ *   2. The unstable regions (spinodal points by bisection in the logit) cut the range into convex
+ *      pieces. The common tangent of two pieces is found by bisection on its slope m:
+ *      h(m) = min over A of (G - m x) - min over B of (G - m x) is continuous and strictly
+ *      increasing (dh/dm = x_B - x_A > 0, the tangent points clamped at the pieces' ends), so
+ *      it has one root (Maxwell's construction); a root clamped at the 1e-12 floor means a layer
+ *      beyond it, decided exactly. With one region the pieces are its two sides; with several,
+ *      the lower convex hull of G on the grid names them.
+ *   3. Newton in logit variables polishes the pair inside its pieces (METHODS2 2.3); the pair is
+ *      then verified by the tangent-plane test on 20,000 points (Michelsen 1982): G lies nowhere
+ *      below the common tangent by more than 1e-10.
  * Three-phase equilibrium (ideal vapor, modified Raoult's law): a1 = x_I gamma1(x_I) =
  * x_II gamma1(x_II), a2 likewise, P = a1 P1sat(T) + a2 P2sat(T), y3 = a1 P1sat / P. At fixed T it is
  * explicit after the LLE; at fixed P a root in T (bracketed on a 1 K grid, then GSL Brent).

@@ -74,7 +74,10 @@ json_t *pw_lle_doc(const pw_system *s, double T_K, const pw_lle_result *r,
         json_t *sc = json_array(), *cr = json_array();
         for (size_t k = 0; k < n_pts; k++) {
             json_t *pt = json_pack("{s:o,s:b,s:o}", "T_K", pw_json_num(pts[k].T_K), "split",
-                                   pts[k].split, "x1", pair_json(pts[k].split, pts[k].x));
+                                   pts[k].split, "x1",
+                                   pair_json(pts[k].split && isfinite(pts[k].x[0])
+                                                 && isfinite(pts[k].x[1]),
+                                             pts[k].x));
             if (pt && pts[k].beyond_floor) /* a layer within 1e-12 of a pure component */
                 json_object_set_new(pt, "beyond_floor", json_true());
             json_array_append_new(sc, pt);

@@ -1,6 +1,7 @@
 /* Binary liquid-liquid equilibrium at fixed T: D-scan for existence, Maxwell bisection on the
- * common tangent's slope (or convex-hull starts when the model has several unstable regions),
- * Newton polish in logit variables, tangent-plane verification. See include/pinchwise/lle.h and
+ * common tangent's slope between two convex pieces of G (named by the convex hull when the model
+ * has several unstable regions), the 1e-12 floor decided exactly, Newton polish in logit
+ * variables, tangent-plane verification. See include/pinchwise/lle.h and
  * docs/heterogeneous.md. */
 #include <pinchwise/lle.h>
 
@@ -510,7 +511,10 @@ static double xD_fn(double u, void *p)
 
 /* Whether Gmix/RT is unstable somewhere beyond the floor (x or 1 - x from PW_LLE_X_MIN down to
  * about 1e-300): then a split has a layer there. Coarse geometric grid (a factor of about 7.4 in
- * x per point) of x(1 - x) D with every grid minimum refined by Brent. */
+ * x per point) of x(1 - x) D with every grid minimum below DIP refined by Brent (a dip to
+ * below zero between two points a factor 7.4 apart that leaves both within 0.1 % of the ideal
+ * value is not found). */
+#define DIP 0.999 /* x (1 - x) D = 1 for an ideal solution: minima below this are refined */
 static pw_status unstable_beyond_floor(dctx *c, gsl_min_fminimizer *mn, bool *found)
 {
     *found = false;
@@ -530,7 +534,7 @@ static pw_status unstable_beyond_floor(dctx *c, gsl_min_fminimizer *mn, bool *fo
             if (k >= 2 && f_prev <= f_prev2 && f_prev <= f) {
                 double a = side * (u_floor + du * (double)(k - 2)), m = u - side * du;
                 double lo = fmin(a, u), hi = fmax(a, u);
-                if (f_prev < f_prev2 && f_prev < f
+                if (f_prev < f_prev2 && f_prev < f && f_prev < DIP
                     && gsl_min_fminimizer_set_with_values(mn, &F, m, f_prev, lo,
                                                           side < 0 ? f : f_prev2, hi,
                                                           side < 0 ? f_prev2 : f) == GSL_SUCCESS) {
