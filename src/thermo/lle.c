@@ -696,9 +696,10 @@ static pw_status solve_impl(const pw_system *s, double T, pw_lle_result *out, xp
             beyond = true;
             continue;
         }
-        if (mo.clampI || mo.clampII)
-            return PW_ENOCONV; /* clamped at a spinodal point: not a common tangent of these
-                                * pieces (possible only with several regions) */
+        /* A root clamped at a spinodal point is either no common tangent of these pieces (a
+         * hull that named the wrong piece: the residual test below fails) or, next to a
+         * critical point, one that double precision cannot tell from it (G' over the unstable
+         * region varies by less than its rounding: the residual and tangent-plane tests pass). */
         double res;
         st = newton(s, T, &pc[pa[p]], &pc[pb[p]], &mo.pI, &mo.pII, &res);
         if (st != PW_OK)

@@ -308,6 +308,37 @@ static void mek_toluene_second_minimum(void **state)
     assert_true(beyond > 0 && beyond < 17);
 }
 
+/* Next to a critical point: symmetric Margules A = 2 + 10^-k (critical at A = 2, layers
+ * 1/2 -+ d with d^2 = 3 (A - 2)/8 to leading order, from ln[x/(1-x)] = A (2x - 1)). Solved for
+ * every k up to 15, never PW_ENOCONV; the identity ln[x/(1-x)] = A (2x - 1) holds to 1e-9 while
+ * the layers are more than 1e-2 apart, and the layers lie on either side of 1/2 with equal
+ * activities throughout (closer in, double precision no longer resolves them:
+ * docs/heterogeneous.md). */
+static void near_critical(void **state)
+{
+    (void)state;
+    tally t = {0};
+    char why[240];
+    for (int k = 2; k <= 15; k++) {
+        double A = 2.0 + pow(10.0, -k), p[2] = {A, A};
+        pw_system s = make_sys(&pw_model_margules, p, 2);
+        pw_lle_result r;
+        pw_status st = pw_lle_solve(&s, 300.0, &r);
+        if (st != PW_OK || !r.split)
+            fail_msg("A - 2 = 1e-%d: status %s, split %d", k, pw_strerror(st), r.split);
+        assert_true(r.x[0] < 0.5 && r.x[1] > 0.5);
+        if (check_one(&s, 300.0, st, &r, &t, why, sizeof why))
+            fail_msg("A - 2 = 1e-%d: %s", k, why);
+        if (k <= 3)
+            for (int i = 0; i < 2; i++)
+                pw_assert_close(log(r.x[i] / r.x2[i]), A * (2.0 * r.x[i] - 1.0), 0.0, 1e-9,
+                                "ln[x/(1-x)] = A(2x-1)");
+        if (k <= 6)
+            pw_assert_close(0.5 * (r.x[1] - r.x[0]), sqrt(3.0 * (A - 2.0) / 8.0), 0.01, 0.0,
+                            "half-width of the split, leading order");
+    }
+}
+
 /* The binodal scan and the three-phase state on extreme random models: never a failure other
  * than a refusal beyond the floor (PW_ERANGE) at a single temperature; every three-phase state
  * found has equal activities of its layers and P = a1 P1sat + a2 P2sat. Components: acetone and
@@ -363,6 +394,7 @@ int main(void)
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(mek_toluene_second_minimum),
         cmocka_unit_test(randomised_extreme),
+        cmocka_unit_test(near_critical),
         cmocka_unit_test(scan_and_three_phase),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
