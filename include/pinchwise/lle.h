@@ -4,19 +4,22 @@
  * i.e. equal activities of both components in the two layers, for any activity-model descriptor
  * (the code never looks at which model it is, except pw_model_can_split). The search depends on
  * no start value and never returns the trivial solution:
- *   1. D(x) = d2(Gmix/RT)/dx^2 is scanned on a grid of fixed size (uniform in x plus geometric
- *      towards both ends, 1e-12 .. 1 - 1e-12) and every local minimum is refined (Brent); the
- *      model splits at T iff D < 0 somewhere (a binary at fixed T: METHODS2 2.2). A dip of D
- *      below zero is found when it makes a grid-local minimum (at most one minimum per cell).
- *   2. With one region of D < 0 (spinodal s1 < s2, refined by Brent), the common tangent is found
- *      by bisection on its slope m in [G'(s2), G'(s1)]: the two tangent points x_L(m) < s1 and
- *      x_R(m) > s2 are unique there, and h(m) = [G - m x](x_L) - [G - m x](x_R) is strictly
- *      increasing in m (dh/dm = x_R - x_L > 0), so the bracket always holds a single root
- *      (Maxwell's construction). With several regions, the lower convex hull of G on the grid
- *      gives each segment's start values.
- *   3. Newton in logit variables polishes the pair (METHODS2 2.3); the pair is then verified by
- *      the tangent-plane test on 20,000 points (Michelsen 1982): G lies nowhere below the common
- *      tangent by more than 1e-10.
+ *   1. D(x) = d2(Gmix/RT)/dx^2 is scanned on a sorted grid of fixed size (uniform in x plus
+ *      geometric towards both ends, 1e-12 .. 1 - 1e-12, complements exact near x = 1) and every
+ *      local minimum is refined (Brent, in the logit); the model splits at T iff D < 0 somewhere
+ *      (a binary at fixed T: METHODS2 2.2). A dip of D below zero is found when it makes a
+ *      grid-local minimum (at most one minimum per cell). A coarse scan beyond the floor (to
+ *      about 1e-300) finds instability there (then a layer lies beyond the floor: PW_ERANGE).
+ *   2. The unstable regions (spinodal points by bisection in the logit) cut the range into convex
+ *      pieces. The common tangent of two pieces is found by bisection on its slope m:
+ *      h(m) = min over A of (G - m x) - min over B of (G - m x) is continuous and strictly
+ *      increasing (dh/dm = x_B - x_A > 0, the tangent points clamped at the pieces' ends), so
+ *      it has one root (Maxwell's construction); a root clamped at the 1e-12 floor means a layer
+ *      beyond it, decided exactly. With one region the pieces are its two sides; with several,
+ *      the lower convex hull of G on the grid names them.
+ *   3. Newton in logit variables polishes the pair inside its pieces (METHODS2 2.3); the pair is
+ *      then verified by the tangent-plane test on 20,000 points (Michelsen 1982): G lies nowhere
+ *      below the common tangent by more than 1e-10.
  * Three-phase equilibrium (ideal vapor, modified Raoult's law): a1 = x_I gamma1(x_I) =
  * x_II gamma1(x_II), a2 likewise, P = a1 P1sat(T) + a2 P2sat(T), y3 = a1 P1sat / P. At fixed T it is
  * explicit after the LLE; at fixed P a root in T (bracketed on a 1 K grid, then GSL Brent).
@@ -57,11 +60,15 @@ typedef struct pw_lle_result {
     double spinodal[2];         /* ends of the region D < 0 holding the reported pair */
     double residual;            /* max |ln a_i(x_I) - ln a_i(x_II)| */
     double min_tpd;             /* smallest height of Gmix/RT above the common tangent (>= -1e-10) */
+    double x2[2];               /* 1 - x[i], the layers' mole fractions of component 2, exact
+                                 * where x[i] is within rounding of 1 (use them for a2 there) */
 } pw_lle_result;
 
 /* Coexisting layers at T. No split is PW_OK with out->split false. Errors: PW_EINVAL (NULL or a
  * system without a model), PW_EDOM (T not positive or model failures), PW_ERANGE (a layer
- * closer than PW_LLE_X_MIN to a pure end), PW_ENOCONV (the pair failed its verification). */
+ * closer than PW_LLE_X_MIN to a pure end: split stays false, but x, x2 and a then describe the
+ * pair as far as double precision resolves it, NAN where it could not be described),
+ * PW_ENOCONV (the pair failed its verification; not expected for one unstable region). */
 pw_status pw_lle_solve(const pw_system *s, double T_K, pw_lle_result *out);
 /* The same with the tangent-plane verification on tpd_points (>= 100) points: inner loops that
  * only bracket (temperature searches) use fewer and solve their final state with 20,000. */
@@ -80,6 +87,9 @@ typedef struct pw_lle_scan_point {
     double T_K;
     bool split;
     double x[2];
+    double x2[2];               /* 1 - x[i], exact near x1 = 1 */
+    bool beyond_floor;          /* split, with a layer closer than PW_LLE_X_MIN to a pure end
+                                 * (x, x2 as far as double precision resolves them) */
 } pw_lle_scan_point;
 
 typedef struct pw_lle_critical {
@@ -92,7 +102,8 @@ typedef struct pw_lle_critical {
 
 /* Solves the LLE at n (>= 2) temperatures from T_from to T_to (linear; points[] holds n
  * entries), and locates every critical solution temperature between neighbouring points with and
- * without a split, by bisection on min D (to 1e-6 K). */
+ * without a split, by bisection on min D (to 1e-6 K). A temperature whose split has a layer
+ * beyond PW_LLE_X_MIN is a point with split and beyond_floor true, not a failure. */
 pw_status pw_lle_scan(const pw_system *s, double T_from, double T_to, size_t n,
                       pw_lle_scan_point *points, pw_lle_critical *crit, size_t *n_crit);
 
@@ -107,7 +118,8 @@ typedef struct pw_three_phase {
     bool heterogeneous_azeotrope; /* x_I < y1 < x_II */
 } pw_three_phase;
 
-/* At fixed T: explicit after the LLE. exists = false when the model does not split at T. */
+/* At fixed T: explicit after the LLE. exists = false when the model does not split at T.
+ * PW_ERANGE (a layer beyond PW_LLE_X_MIN): x and a still describe the refused pair (or NAN). */
 pw_status pw_three_phase_at_T(const pw_system *s, double T_K, pw_three_phase *out);
 
 /* At fixed P: the temperature where the layers boil. The search runs from 80 K below the lower

@@ -50,6 +50,16 @@ typedef struct args {
     pw_display_units units; /* --show-in */
 } args;
 
+/* A layer's x1 for the text output; near pure component 1 as 1 - x2, which keeps its digits. */
+static const char *layer_text(double x1, double x2, char *buf, size_t n)
+{
+    if (x2 < 1e-4)
+        snprintf(buf, n, "1 - %.4g", x2);
+    else
+        snprintf(buf, n, "%.6g", x1);
+    return buf;
+}
+
 static pw_status parse_scan(const char *text, args *a, pw_error *err)
 {
     char buf[256];
@@ -157,7 +167,10 @@ pw_status cli_lle(int argc, char **argv)
                    "UNIQUAC, Margules or van Laar for partly miscible liquids\n",
                    s->model->name);
         if (r.split) {
-            printf("  two liquids: x1 = %.6g (layer I) and %.6g (layer II)\n", r.x[0], r.x[1]);
+            char l0[48], l1[48];
+            printf("  two liquids: x1 = %s (layer I) and %s (layer II)\n",
+                   layer_text(r.x[0], r.x2[0], l0, sizeof l0),
+                   layer_text(r.x[1], r.x2[1], l1, sizeof l1));
             printf("  activities a1 = %.6g, a2 = %.6g; tangent-plane check: min distance %.2g\n",
                    r.a[0], r.a[1], r.min_tpd);
             for (size_t p = 1; p < r.n_pairs; p++)
@@ -173,8 +186,14 @@ pw_status cli_lle(int argc, char **argv)
             printf("\n  %-*s %-12s %s\n", cli_width(10, b1), b1, "x1 layer I", "x1 layer II");
             for (size_t k = 0; k < a.n; k++) {
                 double T = pw_units_display_T(u, pts[k].T_K);
+                char l0[48], l1[48];
                 if (pts[k].split)
-                    printf("  %-10.3f %-12.6g %.6g\n", T, pts[k].x[0], pts[k].x[1]);
+                    printf("  %-10.3f %-12s %s%s\n", T,
+                           layer_text(pts[k].x[0], pts[k].x2[0], l0, sizeof l0),
+                           layer_text(pts[k].x[1], pts[k].x2[1], l1, sizeof l1),
+                           pts[k].beyond_floor ? " (a layer within 1e-12 of a pure component: "
+                                                 "practically immiscible)"
+                                               : "");
                 else
                     printf("  %-10.3f one liquid\n", T);
             }

@@ -1,18 +1,34 @@
 /* The lle command's computation and its `--json` document (moved from src/cli/cmd_lle.c). */
 #include <math.h>
 #include <pinchwise/commands.h>
+#include <stdio.h>
 #include <stdlib.h>
 
 pw_status pw_lle_run(const pw_system *sys, double T_K, const char *where, pw_lle_result *r,
                      pw_error *err)
 {
     pw_status st = pw_lle_solve(sys, T_K, r);
-    if (st != PW_OK)
+    if (st == PW_ERANGE && isfinite(r->x[0]) && isfinite(r->x2[1])) {
+        /* the refused pair, each layer as x1 or, near pure component 1, as 1 - x2 */
+        char l[2][48];
+        for (int i = 0; i < 2; i++) {
+            if (r->x2[i] < 1e-4)
+                snprintf(l[i], sizeof l[i], "1 - %.3g", r->x2[i]);
+            else
+                snprintf(l[i], sizeof l[i], "%.6g", r->x[i]);
+        }
+        pw_error_set(err, st, where, 0,
+                     "liquid-liquid solve at %.3f K refused: %s (the layers are x1 = %s and "
+                     "x1 = %s; a layer within %.0e of a pure component is beyond what the "
+                     "solver resolves: practically immiscible)",
+                     T_K, pw_strerror(st), l[0], l[1], PW_LLE_X_MIN);
+    } else if (st != PW_OK) {
         pw_error_set(err, st, where, 0, "liquid-liquid solve at %.3f K failed: %s%s", T_K,
                      pw_strerror(st),
                      st == PW_ERANGE ? " (a layer is within 1e-12 of a pure component: "
                                        "practically immiscible)"
                                      : "");
+    }
     return st;
 }
 
@@ -56,10 +72,16 @@ json_t *pw_lle_doc(const pw_system *s, double T_K, const pw_lle_result *r,
     }
     if (pts) {
         json_t *sc = json_array(), *cr = json_array();
-        for (size_t k = 0; k < n_pts; k++)
-            json_array_append_new(sc, json_pack("{s:o,s:b,s:o}", "T_K", pw_json_num(pts[k].T_K),
-                                                "split", pts[k].split, "x1",
-                                                pair_json(pts[k].split, pts[k].x)));
+        for (size_t k = 0; k < n_pts; k++) {
+            json_t *pt = json_pack("{s:o,s:b,s:o}", "T_K", pw_json_num(pts[k].T_K), "split",
+                                   pts[k].split, "x1",
+                                   pair_json(pts[k].split && isfinite(pts[k].x[0])
+                                                 && isfinite(pts[k].x[1]),
+                                             pts[k].x));
+            if (pt && pts[k].beyond_floor) /* a layer within 1e-12 of a pure component */
+                json_object_set_new(pt, "beyond_floor", json_true());
+            json_array_append_new(sc, pt);
+        }
         for (size_t k = 0; k < n_crit; k++)
             json_array_append_new(cr, json_pack("{s:o,s:o,s:s}", "T_K", pw_json_num(crit[k].T_K),
                                                 "x1", pw_json_num(crit[k].x1), "kind",

@@ -1,6 +1,7 @@
 /* Binary liquid-liquid equilibrium at fixed T: D-scan for existence, Maxwell bisection on the
- * common tangent's slope (or convex-hull starts when the model has several unstable regions),
- * Newton polish in logit variables, tangent-plane verification. See include/pinchwise/lle.h and
+ * common tangent's slope between two convex pieces of G (named by the convex hull when the model
+ * has several unstable regions), the 1e-12 floor decided exactly, Newton polish in logit
+ * variables, tangent-plane verification. See include/pinchwise/lle.h and
  * docs/heterogeneous.md. */
 #include <pinchwise/lle.h>
 
@@ -17,8 +18,8 @@
 #define TPD_POINTS 20000
 #define TPD_TOL 1e-10
 #define RES_TOL 1e-11 /* accepted max |ln a_i(I) - ln a_i(II)| */
-#define TRIVIAL_TOL 1e-6
-#define BISECT_MAX 200
+#define U_EXT 690.0 /* logit of about 1e-300: describes a pair beyond the floor */
+#define BISECT_MAX 400
 #define NEWTON_MAX 60
 
 bool pw_model_can_split(const pw_model_type *m)
@@ -85,11 +86,14 @@ pw_status pw_lle_gmix(const pw_system *s, double T_K, double x, double *g, doubl
     return PW_OK;
 }
 
-/* The fixed grid: uniform interior points plus geometric tails, sorted. */
+/* The fixed grid, increasing in x: geometric tails from just below PW_LLE_X_MIN up to half the
+ * uniform spacing, and the uniform interior points k/(GRID_UNIFORM+1). Near x = 1 the points are
+ * held by their complements, so the tail there is as fine as at x = 0. */
 static void make_grid(xpt *g)
 {
     size_t k = 0;
-    double r = pow(1e-3 / PW_LLE_X_MIN, 1.0 / (GRID_TAIL - 1));
+    double top = 0.5 / (GRID_UNIFORM + 1);
+    double r = pow(top / PW_LLE_X_MIN, 1.0 / (GRID_TAIL - 1));
     for (size_t i = 0; i < GRID_TAIL; i++)
         g[k++] = xp_of(PW_LLE_X_MIN * pow(r, (double)i) * 0.999);
     for (size_t i = 1; i <= GRID_UNIFORM; i++)
@@ -104,11 +108,12 @@ typedef struct dctx {
     pw_status st;
 } dctx;
 
-static double D_fn(double x, void *p)
+/* D as a function of the logit u (the complement exact near x = 1). */
+static double D_fn(double u, void *p)
 {
     dctx *c = p;
     lle_eval e;
-    pw_status st = eval_at(c->s, c->T, xp_of(x), &e);
+    pw_status st = eval_at(c->s, c->T, xp_logit(u), &e);
     if (st != PW_OK) {
         if (c->st == PW_OK)
             c->st = st;
@@ -117,17 +122,18 @@ static double D_fn(double x, void *p)
     return e.D;
 }
 
-/* Refines a grid minimum of D on [a, b] around m; returns the smaller of the grid and refined. */
+/* Refines a grid minimum of D on [a, b] around m (logits); returns the smaller of the grid and
+ * the refined value. */
 static pw_status refine_min(dctx *c, gsl_min_fminimizer *mn, double a, double m, double b,
-                            double *x_min, double *D_min)
+                            double *u_min, double *D_min)
 {
     gsl_function F = {D_fn, c};
     double fa = D_fn(a, c), fm = D_fn(m, c), fb = D_fn(b, c);
     if (c->st != PW_OK)
         return c->st;
-    *x_min = m;
+    *u_min = m;
     *D_min = fm;
-    if (!(fm < fa && fm < fb))
+    if (!(fm < fa && fm < fb) || !(a < m && m < b))
         return PW_OK;
     if (gsl_min_fminimizer_set_with_values(mn, &F, m, fm, a, fa, b, fb) != GSL_SUCCESS)
         return PW_OK;
@@ -137,24 +143,27 @@ static pw_status refine_min(dctx *c, gsl_min_fminimizer *mn, double a, double m,
         if (c->st != PW_OK)
             return c->st;
         double lo = gsl_min_fminimizer_x_lower(mn), hi = gsl_min_fminimizer_x_upper(mn);
-        if (gsl_min_test_interval(lo, hi, 1e-13, 1e-10) == GSL_SUCCESS)
+        if (gsl_min_test_interval(lo, hi, 1e-13, 1e-12) == GSL_SUCCESS)
             break;
     }
     double f = gsl_min_fminimizer_f_minimum(mn);
     if (isfinite(f) && f < *D_min) {
         *D_min = f;
-        *x_min = gsl_min_fminimizer_x_minimum(mn);
+        *u_min = gsl_min_fminimizer_x_minimum(mn);
     }
     return PW_OK;
 }
 
-/* Root of D between a (D > 0 side or < 0) and b (opposite sign), by bisection (monotone enough;
- * bisection cannot leave the bracket). */
-static pw_status D_root(dctx *c, double a, double b, double *x)
+/* Root of D between the logits a and b (D of opposite signs there) by bisection in u: the
+ * spinodal, to the last bits of u (so of x, or of 1 - x near x = 1). */
+static pw_status D_root(dctx *c, double a, double b, double *u)
 {
     double fa = D_fn(a, c);
-    for (int it = 0; it < 200 && fabs(b - a) > 1e-15 * fmax(1.0, fabs(a)); it++) {
-        double m = 0.5 * (a + b), fm = D_fn(m, c);
+    for (int it = 0; it < 200; it++) {
+        double m = 0.5 * (a + b);
+        if (m == a || m == b)
+            break;
+        double fm = D_fn(m, c);
         if (c->st != PW_OK)
             return c->st;
         if ((fm > 0.0) == (fa > 0.0)) {
@@ -164,28 +173,21 @@ static pw_status D_root(dctx *c, double a, double b, double *x)
             b = m;
         }
     }
-    *x = 0.5 * (a + b);
+    *u = 0.5 * (a + b);
     return c->st;
 }
 
-/* Tangent point on one convex branch: G'(x) = m with x in (lo, hi) given in logit u (G' is
- * increasing there since D > 0). Bisection in u; PW_ERANGE when the root lies outside. */
+/* Tangent point on one convex branch: G'(x) = m with x in (ulo, uhi) given in logit u (G' is
+ * increasing there since D > 0; the caller has checked G'(ulo) < m < G'(uhi)). */
 static pw_status branch_point(const pw_system *s, double T, double m, double ulo, double uhi,
                               xpt *out, lle_eval *e)
 {
-    lle_eval el, eh;
-    pw_status st = eval_at(s, T, xp_logit(ulo), &el);
-    if (st == PW_OK)
-        st = eval_at(s, T, xp_logit(uhi), &eh);
-    if (st != PW_OK)
-        return st;
-    if (el.dg > m || eh.dg < m)
-        return PW_ERANGE;
     /* Newton in u (dG'/du = D x (1 - x) > 0 on the branch) kept inside the bracket, with
      * bisection wherever a step would leave it or shrink less than half the step before (the
      * safeguard of Numerical Recipes' rtsafe); once Newton's step is below the tolerance, one
      * step just past the estimated root closes the bracket. The bracket shrinks to the same width
      * as plain bisection. */
+    pw_status st;
     double u = 0.5 * (ulo + uhi), dx = uhi - ulo, dx_old = dx;
     for (int it = 0; it < 200; it++) {
         double tol = 1e-14 * fmax(1.0, fabs(ulo));
@@ -224,64 +226,139 @@ static pw_status branch_point(const pw_system *s, double T, double m, double ulo
     return eval_at(s, T, *out, e);
 }
 
-/* Maxwell's construction for one unstable region (s1, s2) with D > 0 outside it on (lo1, s1) and
- * (s2, hi2) (logit bounds): bisection on the tangent's slope. */
-static pw_status maxwell(const pw_system *s, double T, double u_lo, double u_s1, double u_s2,
-                         double u_hi, xpt *pI, xpt *pII)
+/* A convex piece of G: D > 0 on the open logit interval (ua, ub), whose ends are spinodal
+ * points or the solubility floor (PW_LLE_X_MIN, or U_EXT when describing a refused pair). */
+typedef struct piece {
+    double ua, ub;
+    bool floor_a, floor_b; /* the end is a floor, not a spinodal point */
+    lle_eval ea, eb;       /* G and its derivatives at the ends */
+} piece;
+
+/* The point of piece p minimising G - m x: where G' = m, or the end where that is clamped
+ * (*clamp -1 at ua, +1 at ub, 0 inside). */
+static pw_status piece_point(const pw_system *s, double T, double m, const piece *p, xpt *x,
+                             lle_eval *e, int *clamp)
 {
-    lle_eval e1, e2;
-    pw_status st = eval_at(s, T, xp_logit(u_s1), &e1);
-    if (st == PW_OK)
-        st = eval_at(s, T, xp_logit(u_s2), &e2);
-    if (st != PW_OK)
-        return st;
-    double m_lo = e2.dg, m_hi = e1.dg; /* G'(s2) <= m <= G'(s1) */
-    if (!(m_lo <= m_hi))
+    if (!(m > p->ea.dg)) {
+        *clamp = -1;
+        *x = xp_logit(p->ua);
+        *e = p->ea;
+        return PW_OK;
+    }
+    if (!(m < p->eb.dg)) {
+        *clamp = 1;
+        *x = xp_logit(p->ub);
+        *e = p->eb;
+        return PW_OK;
+    }
+    *clamp = 0;
+    return branch_point(s, T, m, p->ua, p->ub, x, e);
+}
+
+/* x_b - x_a without cancellation near either pure end (complements near x = 1). */
+static double xdiff(xpt b, xpt a)
+{
+    return (a.x > 0.5 && b.x > 0.5) ? a.xc - b.xc : b.x - a.x;
+}
+
+typedef struct maxwell_out {
+    xpt pI, pII;
+    lle_eval eI, eII;
+    int clampI, clampII;
+} maxwell_out;
+
+/* Common tangent of the convex pieces A (left) and B (right) by bisection on its slope m.
+ * With phi_P(m) = min over P of (G - m x) (the end values when the tangent point is clamped at an
+ * end of P), h(m) = phi_A(m) - phi_B(m) is continuous and increasing on the whole real line:
+ * dh/dm = x_B(m) - x_A(m) >= gap = x(B.ua) - x(A.ub) > 0 (envelope theorem). So h has exactly
+ * one root; it is bracketed from G'(B.ua) and G'(A.ub) (which already bracket it when one
+ * unstable region lies between the pieces: Maxwell's construction), and otherwise by steps of
+ * 2|h|/gap, each of which is guaranteed to change the sign. A tangent point clamped at a floor
+ * at the root means the true layer lies beyond that floor: phi is a minimum over a subset there,
+ * so the unclamped h is on the same side (docs/heterogeneous.md). */
+static pw_status maxwell(const pw_system *s, double T, const piece *A, const piece *B,
+                         maxwell_out *o)
+{
+    double gap = xdiff(xp_logit(B->ua), xp_logit(A->ub));
+    if (!(gap > 0.0))
         return PW_ENOCONV;
+    double m_lo = fmin(B->ea.dg, A->eb.dg), m_hi = fmax(B->ea.dg, A->eb.dg);
+    double h_lo = NAN, h_hi = NAN;
+    pw_status st;
+    /* h at one slope; fills o */
+    for (int side = 0; side < 2; side++) {
+        double *mm = side ? &m_hi : &m_lo, *hh = side ? &h_hi : &h_lo;
+        for (int k = 0; k < 80; k++) {
+            st = piece_point(s, T, *mm, A, &o->pI, &o->eI, &o->clampI);
+            if (st == PW_OK)
+                st = piece_point(s, T, *mm, B, &o->pII, &o->eII, &o->clampII);
+            if (st != PW_OK)
+                return st;
+            *hh = (o->eI.g - o->eII.g) + *mm * xdiff(o->pII, o->pI);
+            if (side ? *hh >= 0.0 : *hh <= 0.0)
+                break;
+            double step = 2.0 * fabs(*hh) / gap + 1e-12 * fmax(1.0, fabs(*mm));
+            *mm += side ? step : -step;
+            if (!isfinite(*mm))
+                return PW_ENOCONV;
+        }
+        if (!(side ? *hh >= 0.0 : *hh <= 0.0))
+            return PW_ENOCONV;
+    }
+    if (h_lo == 0.0)
+        m_hi = m_lo;
+    else if (h_hi == 0.0)
+        m_lo = m_hi;
+    double m = 0.5 * (m_lo + m_hi);
     for (int it = 0; it < BISECT_MAX; it++) {
-        double m = 0.5 * (m_lo + m_hi);
-        xpt xl, xr;
-        lle_eval el, er;
-        st = branch_point(s, T, m, u_lo, u_s1, &xl, &el);
+        m = 0.5 * (m_lo + m_hi);
+        if (m <= m_lo || m >= m_hi)
+            break;
+        st = piece_point(s, T, m, A, &o->pI, &o->eI, &o->clampI);
         if (st == PW_OK)
-            st = branch_point(s, T, m, u_s2, u_hi, &xr, &er);
+            st = piece_point(s, T, m, B, &o->pII, &o->eII, &o->clampII);
         if (st != PW_OK)
             return st;
-        *pI = xl;
-        *pII = xr;
-        double h = (el.g - m * xl.x) - (er.g - m * xr.x);
+        double h = (o->eI.g - o->eII.g) + m * xdiff(o->pII, o->pI);
+        if (h == 0.0)
+            return PW_OK;
         if (h < 0.0)
             m_lo = m;
         else
             m_hi = m;
-        if (m_hi - m_lo <= 1e-13 * fmax(1.0, fabs(m)))
+        if (m_hi - m_lo <= 1e-15 * fmax(1.0, fabs(m)))
             break;
     }
-    return PW_OK;
+    m = 0.5 * (m_lo + m_hi);
+    st = piece_point(s, T, m, A, &o->pI, &o->eI, &o->clampI);
+    if (st == PW_OK)
+        st = piece_point(s, T, m, B, &o->pII, &o->eII, &o->clampII);
+    return st;
 }
 
-/* Newton polish in logit variables; keeps the pair apart. */
-static pw_status newton(const pw_system *s, double T, xpt *pI, xpt *pII, double *res)
+/* Residual scale: what double precision resolves in ln a_i at the pair. */
+static double res_of(const lle_eval *a, const lle_eval *b)
+{
+    return fmax(fabs(a->lna[0] - b->lna[0]), fabs(a->lna[1] - b->lna[1]));
+}
+
+/* Newton polish in logit variables, each kept inside its piece (so the pair keeps straddling the
+ * unstable region between them: never the trivial solution); a step is taken only when it lowers
+ * the residual. */
+static pw_status newton(const pw_system *s, double T, const piece *A, const piece *B, xpt *pI,
+                        xpt *pII, double *res)
 {
     double u = logit(*pI), v = logit(*pII);
     lle_eval a, b;
-    pw_status st;
-    double best = INFINITY;
-    for (int it = 0; it < NEWTON_MAX; it++) {
-        st = eval_at(s, T, xp_logit(u), &a);
-        if (st == PW_OK)
-            st = eval_at(s, T, xp_logit(v), &b);
-        if (st != PW_OK)
-            return st;
+    pw_status st = eval_at(s, T, *pI, &a);
+    if (st == PW_OK)
+        st = eval_at(s, T, *pII, &b);
+    if (st != PW_OK)
+        return st;
+    double nrm = res_of(&a, &b);
+    for (int it = 0; it < NEWTON_MAX && nrm > 0.0; it++) {
         double F1 = a.lna[0] - b.lna[0], F2 = a.lna[1] - b.lna[1];
-        double nrm = fmax(fabs(F1), fabs(F2));
-        best = nrm;
-        *pI = xp_logit(u);
-        *pII = xp_logit(v);
-        if (nrm < 1e-14)
-            break;
-        xpt xa = xp_logit(u), xb = xp_logit(v);
-        double ja = xa.x * xa.xc, jb = xb.x * xb.xc;
+        double ja = pI->x * pI->xc, jb = pII->x * pII->xc;
         double J11 = a.dlna[0] * ja, J12 = -b.dlna[0] * jb;
         double J21 = a.dlna[1] * ja, J22 = -b.dlna[1] * jb;
         double det = J11 * J22 - J12 * J21;
@@ -292,15 +369,16 @@ static pw_status newton(const pw_system *s, double T, xpt *pI, xpt *pII, double 
         bool improved = false;
         for (int ls = 0; ls < 30; ls++, sc *= 0.5) {
             double un = u + sc * du, vn = v + sc * dv;
-            if (!(un < vn))
+            if (!(un > A->ua && un < A->ub && vn > B->ua && vn < B->ub))
                 continue;
             lle_eval an, bn;
-            if (eval_at(s, T, xp_logit(un), &an) != PW_OK || eval_at(s, T, xp_logit(vn), &bn) != PW_OK)
+            xpt xa = xp_logit(un), xb = xp_logit(vn);
+            if (eval_at(s, T, xa, &an) != PW_OK || eval_at(s, T, xb, &bn) != PW_OK)
                 continue;
-            double n2 = fmax(fabs(an.lna[0] - bn.lna[0]), fabs(an.lna[1] - bn.lna[1]));
+            double n2 = res_of(&an, &bn);
             if (n2 < nrm) {
-                u = un;
-                v = vn;
+                u = un, v = vn, a = an, b = bn, nrm = n2;
+                *pI = xa, *pII = xb;
                 improved = true;
                 break;
             }
@@ -308,32 +386,21 @@ static pw_status newton(const pw_system *s, double T, xpt *pI, xpt *pII, double 
         if (!improved)
             break;
     }
-    *res = best;
-    st = eval_at(s, T, xp_logit(u), &a);
-    if (st == PW_OK)
-        st = eval_at(s, T, xp_logit(v), &b);
-    if (st != PW_OK)
-        return st;
-    *res = fmax(fabs(a.lna[0] - b.lna[0]), fabs(a.lna[1] - b.lna[1]));
-    *pI = xp_logit(u);
-    *pII = xp_logit(v);
+    *res = nrm;
     return PW_OK;
 }
 
-pw_status pw_lle_tpd_min(const pw_system *s, double T_K, double x_I, double x_II, size_t n,
-                         double *min_tpd, double *x_at)
+/* Smallest height of G above the line through (pI, G(pI)) and (pII, G(pII)) on n points. */
+static pw_status tpd_min_xp(const pw_system *s, double T_K, xpt pI, xpt pII, size_t n,
+                            double *min_tpd, double *x_at)
 {
-    if (!s || !s->model || !min_tpd || n < 100)
-        return PW_EINVAL;
-    if (!(x_I > 0.0 && x_I < x_II && x_II < 1.0))
-        return PW_EDOM;
     lle_eval eI, eII;
-    pw_status st = eval_at(s, T_K, xp_of(x_I), &eI);
+    pw_status st = eval_at(s, T_K, pI, &eI);
     if (st == PW_OK)
-        st = eval_at(s, T_K, xp_of(x_II), &eII);
+        st = eval_at(s, T_K, pII, &eII);
     if (st != PW_OK)
         return st;
-    double slope = (eII.g - eI.g) / (x_II - x_I);
+    double slope = (eII.g - eI.g) / xdiff(pII, pI);
     double best = INFINITY, xb = NAN;
     size_t nt = n / 4, nu = n - 2 * nt;
     double r = pow(0.25 / PW_LLE_X_MIN, 1.0 / (double)(nt - 1));
@@ -349,7 +416,9 @@ pw_status pw_lle_tpd_min(const pw_system *s, double T_K, double x_I, double x_II
         st = eval_at(s, T_K, p, &e);
         if (st != PW_OK)
             return st;
-        double tpd = e.g - (eI.g + slope * (p.x - x_I));
+        /* the line measured from the nearer layer, its offset without cancellation */
+        double tpd = p.x < 0.5 ? e.g - (eI.g + slope * xdiff(p, pI))
+                               : e.g - (eII.g - slope * xdiff(pII, p));
         if (tpd < best) {
             best = tpd;
             xb = p.x;
@@ -361,6 +430,16 @@ pw_status pw_lle_tpd_min(const pw_system *s, double T_K, double x_I, double x_II
     return PW_OK;
 }
 
+pw_status pw_lle_tpd_min(const pw_system *s, double T_K, double x_I, double x_II, size_t n,
+                         double *min_tpd, double *x_at)
+{
+    if (!s || !s->model || !min_tpd || n < 100)
+        return PW_EINVAL;
+    if (!(x_I > 0.0 && x_I < x_II && x_II < 1.0))
+        return PW_EDOM;
+    return tpd_min_xp(s, T_K, xp_of(x_I), xp_of(x_II), n, min_tpd, x_at);
+}
+
 /* Lower convex hull of the grid (monotone chain); idx receives the hull's grid indices. */
 static size_t lower_hull(const xpt *g, const double *G, size_t n, size_t *idx)
 {
@@ -368,7 +447,7 @@ static size_t lower_hull(const xpt *g, const double *G, size_t n, size_t *idx)
     for (size_t i = 0; i < n; i++) {
         while (m >= 2) {
             size_t a = idx[m - 2], b = idx[m - 1];
-            double cross = (g[b].x - g[a].x) * (G[i] - G[a]) - (G[b] - G[a]) * (g[i].x - g[a].x);
+            double cross = xdiff(g[b], g[a]) * (G[i] - G[a]) - (G[b] - G[a]) * xdiff(g[i], g[a]);
             if (cross <= 0.0)
                 m--;
             else
@@ -379,9 +458,110 @@ static size_t lower_hull(const xpt *g, const double *G, size_t n, size_t *idx)
     return m;
 }
 
+/* An unstable region: D >= 0 at the logits lo and hi, D < 0 at neg_lo <= neg_hi between them;
+ * its spinodal points s1 < s2. */
 typedef struct region {
-    size_t k0, k1; /* grid indices: D < 0 on k0..k1 (inclusive) */
+    double lo, neg_lo, neg_hi, hi;
+    double s1, s2;
 } region;
+
+#define MAX_REGIONS (PW_LLE_MAX_PAIRS * 4)
+
+static pw_status make_piece(const pw_system *s, double T, double ua, double ub, bool fa, bool fb,
+                            piece *p)
+{
+    p->ua = ua;
+    p->ub = ub;
+    p->floor_a = fa;
+    p->floor_b = fb;
+    pw_status st = eval_at(s, T, xp_logit(ua), &p->ea);
+    if (st == PW_OK)
+        st = eval_at(s, T, xp_logit(ub), &p->eb);
+    return st;
+}
+
+/* The pieces between the regions: piece 0 from the floor (logit -u_floor) to region 0's s1,
+ * piece k from region k-1's s2 to region k's s1, the last one up to the floor +u_floor. */
+static pw_status make_pieces(const pw_system *s, double T, const region *reg, size_t nreg,
+                             double u_floor, piece *pc)
+{
+    for (size_t k = 0; k <= nreg; k++) {
+        double ua = k == 0 ? -u_floor : reg[k - 1].s2, ub = k == nreg ? u_floor : reg[k].s1;
+        pw_status st = make_piece(s, T, ua, ub, k == 0, k == nreg, &pc[k]);
+        if (st != PW_OK)
+            return st;
+    }
+    return PW_OK;
+}
+
+static int cmp_region(const void *a, const void *b)
+{
+    double x = ((const region *)a)->neg_lo, y = ((const region *)b)->neg_lo;
+    return (x > y) - (x < y);
+}
+
+/* x (1 - x) D as a function of the logit: about 1 where the ideal part dominates, so its grid
+ * minima are not hidden by the 1/x trend of D on a coarse geometric grid. */
+static double xD_fn(double u, void *p)
+{
+    double D = D_fn(u, p);
+    xpt q = xp_logit(u);
+    return q.x * q.xc * D;
+}
+
+/* Whether Gmix/RT is unstable somewhere beyond the floor (x or 1 - x from PW_LLE_X_MIN down to
+ * about 1e-300): then a split has a layer there. Coarse geometric grid (a factor of about 7.4 in
+ * x per point) of x(1 - x) D with every grid minimum below DIP refined by Brent (a dip to
+ * below zero between two points a factor 7.4 apart that leaves both within 0.1 % of the ideal
+ * value is not found). */
+#define DIP 0.999 /* x (1 - x) D = 1 for an ideal solution: minima below this are refined */
+static pw_status unstable_beyond_floor(dctx *c, gsl_min_fminimizer *mn, bool *found)
+{
+    *found = false;
+    double u_floor = -logit(xp_of(PW_LLE_X_MIN)), du = 2.0;
+    size_t n = (size_t)((U_EXT - u_floor) / du) + 1;
+    gsl_function F = {xD_fn, c};
+    for (int side = -1; side <= 1; side += 2) {
+        double f_prev2 = NAN, f_prev = NAN;
+        for (size_t k = 0; k <= n; k++) {
+            double u = side * (u_floor + du * (double)k), f = xD_fn(u, c);
+            if (c->st != PW_OK)
+                return c->st;
+            if (f < 0.0) {
+                *found = true;
+                return PW_OK;
+            }
+            if (k >= 2 && f_prev <= f_prev2 && f_prev <= f) {
+                double a = side * (u_floor + du * (double)(k - 2)), m = u - side * du;
+                double lo = fmin(a, u), hi = fmax(a, u);
+                if (f_prev < f_prev2 && f_prev < f && f_prev < DIP
+                    && gsl_min_fminimizer_set_with_values(mn, &F, m, f_prev, lo,
+                                                          side < 0 ? f : f_prev2, hi,
+                                                          side < 0 ? f_prev2 : f) == GSL_SUCCESS) {
+                    for (int it = 0; it < 100; it++) {
+                        if (gsl_min_fminimizer_iterate(mn) != GSL_SUCCESS || c->st != PW_OK)
+                            break;
+                        if (gsl_min_fminimizer_f_minimum(mn) < 0.0)
+                            break;
+                        if (gsl_min_test_interval(gsl_min_fminimizer_x_lower(mn),
+                                                  gsl_min_fminimizer_x_upper(mn), 1e-10,
+                                                  0.0) == GSL_SUCCESS)
+                            break;
+                    }
+                    if (c->st != PW_OK)
+                        return c->st;
+                    if (gsl_min_fminimizer_f_minimum(mn) < 0.0) {
+                        *found = true;
+                        return PW_OK;
+                    }
+                }
+            }
+            f_prev2 = f_prev;
+            f_prev = f;
+        }
+    }
+    return PW_OK;
+}
 
 static pw_status solve_impl(const pw_system *s, double T, pw_lle_result *out, xpt *grid,
                             double *G, double *D, size_t *hull, size_t tpd_points)
@@ -400,116 +580,156 @@ static pw_status solve_impl(const pw_system *s, double T, pw_lle_result *out, xp
     if (!mn)
         return PW_ENOMEM;
     dctx c = {s, T, PW_OK};
-    /* Every local minimum of D on the grid, refined: where D dips below zero between points. */
-    region reg[PW_LLE_MAX_PAIRS * 4];
+    region reg[MAX_REGIONS];
     size_t nreg = 0;
+    bool at_floor = D[0] < 0.0 || D[GRID_N - 1] < 0.0;
+    st = PW_OK;
     out->min_D = INFINITY;
-    bool neg_prev = false;
+    /* every local minimum of D on the grid, refined: a dip below zero between grid points is a
+     * region of its own */
     for (size_t k = 0; k < GRID_N; k++) {
-        bool neg = D[k] < 0.0;
-        if (k > 0 && k + 1 < GRID_N && D[k] <= D[k - 1] && D[k] <= D[k + 1]) {
-            double xm, Dm;
-            st = refine_min(&c, mn, grid[k - 1].x, grid[k].x, grid[k + 1].x, &xm, &Dm);
-            if (st != PW_OK) {
-                gsl_min_fminimizer_free(mn);
-                return st;
-            }
-            if (Dm < out->min_D) {
-                out->min_D = Dm;
-                out->x_min_D = xm;
-            }
-            if (Dm < 0.0 && !neg && !neg_prev && nreg < sizeof reg / sizeof reg[0]) {
-                /* a thin unstable region between grid points: k-1 .. k+1 brackets it */
-                reg[nreg++] = (region){k, k};
-                neg_prev = true;
-                continue;
-            }
+        if (D[k] < out->min_D) {
+            out->min_D = D[k];
+            out->x_min_D = grid[k].x;
         }
-        if (neg && !neg_prev) {
-            if (nreg < sizeof reg / sizeof reg[0])
-                reg[nreg++] = (region){k, k};
-        } else if (neg && nreg > 0) {
-            reg[nreg - 1].k1 = k;
+        if (!(k > 0 && k + 1 < GRID_N && D[k] <= D[k - 1] && D[k] <= D[k + 1]))
+            continue;
+        double um, Dm, ua = logit(grid[k - 1]), ub = logit(grid[k + 1]);
+        st = refine_min(&c, mn, ua, logit(grid[k]), ub, &um, &Dm);
+        if (st != PW_OK) {
+            gsl_min_fminimizer_free(mn);
+            return st;
         }
-        neg_prev = neg;
+        if (Dm < out->min_D) {
+            out->min_D = Dm;
+            out->x_min_D = xp_logit(um).x;
+        }
+        if (Dm < 0.0 && D[k] >= 0.0 && nreg < MAX_REGIONS)
+            reg[nreg++] = (region){ua, um, um, ub, NAN, NAN};
     }
+    bool beyond_unstable = false;
+    if (!(D[0] < 0.0 || D[GRID_N - 1] < 0.0))
+        st = unstable_beyond_floor(&c, mn, &beyond_unstable);
     gsl_min_fminimizer_free(mn);
+    if (st != PW_OK)
+        return st;
+    /* runs of negative grid points */
+    for (size_t k = 1; k + 1 < GRID_N; k++) {
+        if (!(D[k] < 0.0) || D[k - 1] < 0.0)
+            continue;
+        size_t k1 = k;
+        while (k1 + 1 < GRID_N - 1 && D[k1 + 1] < 0.0)
+            k1++;
+        if (D[k1 + 1] < 0.0)
+            break; /* reaches the floor: at_floor */
+        if (nreg < MAX_REGIONS)
+            reg[nreg++] = (region){logit(grid[k - 1]), logit(grid[k]), logit(grid[k1]),
+                                   logit(grid[k1 + 1]), NAN, NAN};
+    }
     out->split = false;
     out->n_pairs = 0;
+    if (at_floor || beyond_unstable)
+        return PW_ERANGE; /* D < 0 at or beyond the floor: a layer lies beyond it (the pair is
+                           * not described) */
     if (nreg == 0)
         return PW_OK;
-    xpt pI, pII;
-    double res = INFINITY;
-    if (nreg == 1) {
-        /* One unstable region: spinodal by bisection, then Maxwell. */
-        size_t k0 = reg[0].k0, k1 = reg[0].k1;
-        if (k0 == 0 || k1 + 1 >= GRID_N)
-            return PW_ERANGE;
-        double s1, s2;
-        double a = grid[k0 - 1].x, b = grid[k1 + 1].x;
-        double xm = out->x_min_D;
-        if (!(xm > a && xm < b))
-            xm = 0.5 * (grid[k0].x + grid[k1].x);
-        st = D_root(&c, a, xm, &s1);
+    qsort(reg, nreg, sizeof reg[0], cmp_region);
+    for (size_t r = 0; r < nreg; r++) {
+        st = D_root(&c, reg[r].lo, reg[r].neg_lo, &reg[r].s1);
         if (st == PW_OK)
-            st = D_root(&c, xm, b, &s2);
+            st = D_root(&c, reg[r].neg_hi, reg[r].hi, &reg[r].s2);
         if (st != PW_OK)
             return st;
-        out->spinodal[0] = s1;
-        out->spinodal[1] = s2;
-        double u_lo = logit(xp_of(PW_LLE_X_MIN)), u_hi = -u_lo;
-        st = maxwell(s, T, u_lo, logit(xp_of(s1)), logit(xp_of(s2)), u_hi, &pI, &pII);
-        if (st != PW_OK)
-            return st;
-        st = newton(s, T, &pI, &pII, &res);
-        if (st != PW_OK)
-            return st;
-        out->pairs[0][0] = pI.x;
-        out->pairs[0][1] = pII.x;
-        out->n_pairs = 1;
-    } else {
-        /* Several unstable regions: every hull segment covering a region is a split. */
-        size_t m = lower_hull(grid, G, GRID_N, hull);
-        res = 0.0;
-        for (size_t h = 0; h + 1 < m && out->n_pairs < PW_LLE_MAX_PAIRS; h++) {
-            size_t i = hull[h], j = hull[h + 1];
-            bool covers = false;
-            for (size_t r = 0; r < nreg; r++)
-                if (reg[r].k0 > i && reg[r].k1 < j)
-                    covers = true;
-            if (!covers)
-                continue;
-            pI = grid[i];
-            pII = grid[j];
-            double r1;
-            st = newton(s, T, &pI, &pII, &r1);
-            if (st != PW_OK)
-                return st;
-            res = fmax(res, r1);
-            out->pairs[out->n_pairs][0] = pI.x;
-            out->pairs[out->n_pairs][1] = pII.x;
-            out->n_pairs++;
-        }
-        if (out->n_pairs == 0)
-            return PW_ENOCONV;
-        out->spinodal[0] = out->spinodal[1] = NAN;
     }
-    out->residual = res;
-    if (!(res <= RES_TOL))
+    piece pc[MAX_REGIONS + 1];
+    double u_floor = -logit(xp_of(PW_LLE_X_MIN));
+    st = make_pieces(s, T, reg, nreg, u_floor, pc);
+    if (st != PW_OK)
+        return st;
+    /* which pieces hold the two layers of each split */
+    size_t pa[PW_LLE_MAX_PAIRS], pb[PW_LLE_MAX_PAIRS], npair = 0;
+    if (nreg == 1) {
+        pa[0] = 0, pb[0] = 1, npair = 1;
+    } else {
+        /* the lower convex hull of G on the grid: each hull segment over an unstable region is
+         * one split; its end points name the pieces */
+        size_t m = lower_hull(grid, G, GRID_N, hull);
+        for (size_t h = 0; h + 1 < m && npair < PW_LLE_MAX_PAIRS; h++) {
+            double ui = logit(grid[hull[h]]), uj = logit(grid[hull[h + 1]]);
+            size_t a = nreg + 1, b = nreg + 1;
+            for (size_t r = 0; r < nreg; r++)
+                if (reg[r].neg_lo > ui && reg[r].neg_hi < uj) {
+                    if (a > nreg)
+                        a = r; /* left of region r */
+                    b = r + 1; /* right of region r */
+                }
+            if (a > nreg || (npair > 0 && pa[npair - 1] == a && pb[npair - 1] == b))
+                continue;
+            pa[npair] = a, pb[npair] = b, npair++;
+        }
+        if (npair == 0)
+            return PW_ENOCONV;
+    }
+    double res_all = 0.0;
+    bool beyond = false;
+    xpt lay[PW_LLE_MAX_PAIRS][2];
+    for (size_t p = 0; p < npair; p++) {
+        maxwell_out mo;
+        st = maxwell(s, T, &pc[pa[p]], &pc[pb[p]], &mo);
+        if (st != PW_OK)
+            return st;
+        bool fl = (mo.clampI < 0 && pc[pa[p]].floor_a) || (mo.clampII > 0 && pc[pb[p]].floor_b);
+        if (fl) {
+            /* the layer lies beyond the floor: describe the pair in the extended range */
+            if (!beyond) {
+                piece A = pc[pa[p]], B = pc[pb[p]];
+                if ((!A.floor_a || make_piece(s, T, -U_EXT, A.ub, true, false, &A) == PW_OK)
+                    && (!B.floor_b || make_piece(s, T, B.ua, U_EXT, false, true, &B) == PW_OK)
+                    && maxwell(s, T, &A, &B, &mo) == PW_OK) {
+                    out->x[0] = mo.pI.x, out->x[1] = mo.pII.x;
+                    out->x2[0] = mo.pI.xc, out->x2[1] = mo.pII.xc;
+                    const lle_eval *in = mo.clampI ? &mo.eII : &mo.eI; /* the resolved layer */
+                    out->a[0] = exp(in->lna[0]);
+                    out->a[1] = exp(in->lna[1]);
+                }
+            }
+            beyond = true;
+            continue;
+        }
+        /* A root clamped at a spinodal point is either no common tangent of these pieces (a
+         * hull that named the wrong piece: the residual test below fails) or, next to a
+         * critical point, one that double precision cannot tell from it (G' over the unstable
+         * region varies by less than its rounding: the residual and tangent-plane tests pass). */
+        double res;
+        st = newton(s, T, &pc[pa[p]], &pc[pb[p]], &mo.pI, &mo.pII, &res);
+        if (st != PW_OK)
+            return st;
+        res_all = fmax(res_all, res);
+        lay[p][0] = mo.pI;
+        lay[p][1] = mo.pII;
+    }
+    if (beyond)
+        return PW_ERANGE;
+    out->residual = res_all;
+    for (size_t p = 0; p < npair; p++) {
+        out->pairs[p][0] = lay[p][0].x;
+        out->pairs[p][1] = lay[p][1].x;
+    }
+    out->n_pairs = npair;
+    if (nreg == 1) {
+        out->spinodal[0] = xp_logit(reg[0].s1).x;
+        out->spinodal[1] = xp_logit(reg[0].s2).x;
+    }
+    if (!(res_all <= RES_TOL))
         return PW_ENOCONV;
     size_t wide = 0;
-    for (size_t p = 0; p < out->n_pairs; p++) {
-        if (!(out->pairs[p][1] - out->pairs[p][0] > TRIVIAL_TOL))
-            return PW_ENOCONV; /* never the trivial solution */
-        if (out->pairs[p][0] < PW_LLE_X_MIN || out->pairs[p][1] > 1.0 - PW_LLE_X_MIN)
-            return PW_ERANGE;
-        if (out->pairs[p][1] - out->pairs[p][0] > out->pairs[wide][1] - out->pairs[wide][0])
+    for (size_t p = 1; p < npair; p++)
+        if (xdiff(lay[p][1], lay[p][0]) > xdiff(lay[wide][1], lay[wide][0]))
             wide = p;
-    }
     out->min_tpd = INFINITY;
-    for (size_t p = 0; p < out->n_pairs; p++) {
+    for (size_t p = 0; p < npair; p++) {
         double tpd;
-        st = pw_lle_tpd_min(s, T, out->pairs[p][0], out->pairs[p][1], tpd_points, &tpd, NULL);
+        st = tpd_min_xp(s, T, lay[p][0], lay[p][1], tpd_points, &tpd, NULL);
         if (st != PW_OK)
             return st;
         out->min_tpd = fmin(out->min_tpd, tpd);
@@ -517,10 +737,12 @@ static pw_status solve_impl(const pw_system *s, double T, pw_lle_result *out, xp
     if (!(out->min_tpd >= -TPD_TOL))
         return PW_ENOCONV;
     out->split = true;
-    out->x[0] = out->pairs[wide][0];
-    out->x[1] = out->pairs[wide][1];
+    out->x[0] = lay[wide][0].x;
+    out->x[1] = lay[wide][1].x;
+    out->x2[0] = lay[wide][0].xc;
+    out->x2[1] = lay[wide][1].xc;
     lle_eval e;
-    st = eval_at(s, T, xp_of(out->x[0]), &e);
+    st = eval_at(s, T, lay[wide][0], &e);
     if (st != PW_OK)
         return st;
     out->a[0] = exp(e.lna[0]);
@@ -543,6 +765,7 @@ pw_status pw_lle_solve_n(const pw_system *s, double T_K, size_t tpd_points, pw_l
     out->T_K = T_K;
     out->x[0] = out->x[1] = NAN;
     out->a[0] = out->a[1] = NAN;
+    out->x2[0] = out->x2[1] = NAN;
     out->spinodal[0] = out->spinodal[1] = NAN;
     out->min_tpd = NAN;
     out->residual = NAN;

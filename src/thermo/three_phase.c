@@ -38,12 +38,17 @@ pw_status pw_lle_scan(const pw_system *s, double T_from, double T_to, size_t n,
         double T = T_from + (T_to - T_from) * (double)k / (double)(n - 1);
         pw_lle_result r;
         pw_status st = pw_lle_solve(s, T, &r);
-        if (st != PW_OK)
+        /* a layer beyond the solubility floor: two liquids, one practically pure */
+        bool beyond = st == PW_ERANGE;
+        if (st != PW_OK && !beyond)
             return st;
         points[k].T_K = T;
-        points[k].split = r.split;
+        points[k].split = r.split || beyond;
+        points[k].beyond_floor = beyond;
         points[k].x[0] = r.x[0];
         points[k].x[1] = r.x[1];
+        points[k].x2[0] = r.x2[0];
+        points[k].x2[1] = r.x2[1];
         if (k == 0 || points[k].split == points[k - 1].split || !crit
             || *n_crit >= PW_LLE_MAX_CRITICAL)
             continue;
@@ -92,6 +97,12 @@ static pw_status three_phase_T(const pw_system *s, double T_K, size_t tpd, pw_th
     out->x[0] = out->x[1] = NAN;
     pw_lle_result r;
     pw_status st = pw_lle_solve_n(s, T_K, tpd, &r);
+    if (st == PW_ERANGE) { /* refused, but the pair is described: keep it for the caller */
+        out->x[0] = r.x[0];
+        out->x[1] = r.x[1];
+        out->a[0] = r.a[0];
+        out->a[1] = r.a[1];
+    }
     if (st != PW_OK)
         return st;
     if (!r.split)
@@ -134,13 +145,15 @@ static pw_status p3_minus(const pw_system *s, double P, double T, double *f, boo
     }
     st = three_phase_T(s, T, TPD_QUICK, tp);
     if (st == PW_ERANGE) {
-        /* layers beyond the solubility floor: practically immiscible here, a1 = a2 = 1 to
-         * within 1e-12, enough to bracket (the final state is solved exactly, or refused) */
+        /* a layer beyond the solubility floor: the split exists and its activities are
+         * known (the refused pair is described; a_i = 1 if it could not be), enough to bracket
+         * (the final state is solved exactly, or refused) */
         double p1, p2;
         if (pw_psat(&s->comp[0], T, &p1, NULL) != PW_OK || pw_psat(&s->comp[1], T, &p2, NULL) != PW_OK)
             return st;
+        double a1 = isfinite(tp->a[0]) ? tp->a[0] : 1.0, a2 = isfinite(tp->a[1]) ? tp->a[1] : 1.0;
         *split = true;
-        *f = p1 + p2 - P;
+        *f = a1 * p1 + a2 * p2 - P;
         return PW_OK;
     }
     if (st != PW_OK)
@@ -319,6 +332,11 @@ static pw_status scan_at_P(const pw_system *s, double P_Pa, pw_three_phase *out,
             st = pw_three_phase_at_T(s, 0.5 * (a + b), out);
             if (st != PW_OK)
                 return st;
+            /* A bracket end refused beyond the solubility floor whose pair could not be
+             * described enters with a1 = a2 = 1; a "root" at the edge of the refused range is
+             * then no three-phase state: the true one lies in the refused range. */
+            if (!out->exists || !(fabs(out->P_Pa - P_Pa) <= 1e-6 * P_Pa))
+                return PW_ERANGE;
             out->P_Pa = P_Pa; /* y1 from a1 P1sat / P3 equals it to the bisection tolerance */
             return PW_OK;
         }
@@ -391,6 +409,8 @@ pw_status pw_three_phase_at_P_near(const pw_system *s, double P_Pa, double T_gue
             return st;
     }
     pw_status st = three_phase_T(s, T, TPD_QUICK, out);
+    if (st == PW_OK && (!out->exists || !(fabs(out->P_Pa - P_Pa) <= 1e-6 * P_Pa)))
+        return PW_ERANGE; /* at the edge of a range refused beyond the floor (as above) */
     if (st == PW_OK)
         out->P_Pa = P_Pa;
     return st;
