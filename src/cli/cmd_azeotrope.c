@@ -38,8 +38,10 @@ static const cli_spec azeo_spec = {
         "usage: pinchwise azeotrope FIT.json [--pressure P | --temperature T] [--sweep FROM:TO[:N]]\n"
         "                           [options]\n"
         "\n"
-        "Azeotropes of the fitted model: where y1 = x1, found on a fine composition grid and\n"
-        "refined by Brent's method; classified from the extremum of the bubble curve. With\n"
+        "Azeotropes of the fitted model: where y1 = x1. Every part of the composition range is\n"
+        "shown to hold none or exactly one (under a curvature bound checked where the search\n"
+        "samples; docs/azeotrope.md), each refined by Brent's method and classified from the\n"
+        "extremum of the bubble curve. With\n"
         "--uncertainty: 95 % intervals of each azeotrope from the fit's parameter covariance\n"
         "(linearised and sampled).\n",
     .blocks = azeo_blocks,
