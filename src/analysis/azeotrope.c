@@ -343,10 +343,11 @@ static bool curvature_ok(az_bb *bb, const az_cell *e, double fm)
     return false;
 }
 
-static void add_touch(pw_az_result *out, double x, double f, const pw_eq_point *eq)
+/* Adds a near-tangential point unless one lies within `apart` of it. */
+static void add_touch(pw_az_result *out, double x, double f, const pw_eq_point *eq, double apart)
 {
     for (size_t k = 0; k < out->n_touch; k++)
-        if (fabs(out->touch[k].x1 - x) < 1e-9)
+        if (fabs(out->touch[k].x1 - x) < apart)
             return;
     if (out->n_touch >= PW_AZ_MAX)
         return;
@@ -516,11 +517,7 @@ static pw_status find_touches(az_bb *bb)
                 add_root(bb->out, r2, &bb->nr, bb->roots);
             }
         } else if (fabs(fm) <= c->opt.touch_tol && !near_root(bb, xm, 2.0 * bb->h_touch)) {
-            bool seen = false;
-            for (size_t k = 0; k < bb->out->n_touch; k++)
-                seen = seen || fabs(bb->out->touch[k].x1 - xm) < 2.0 * bb->h_touch;
-            if (!seen)
-                add_touch(bb->out, xm, fm, &eq);
+            add_touch(bb->out, xm, fm, &eq, 2.0 * bb->h_touch);
         }
     }
     free(p);

@@ -198,20 +198,25 @@ static pw_status eval(bb *c, double x, pw_section_pt *p, double *v)
     return st;
 }
 
+/* eval, keeping the best point the current Brent run has seen. */
+static pw_status eval_brent(bb *c, double x, pw_section_pt *p, double *v)
+{
+    pw_status st = eval(c, x, p, v);
+    if (st == PW_OK && *v > c->brent_v) {
+        c->brent_v = *v;
+        c->brent_pt = *p;
+    }
+    return st;
+}
+
 static pw_status neg_value(void *ctx, double x, double *f)
 {
-    bb *c = ctx;
     pw_section_pt p;
     double v;
-    pw_status st = eval(c, x, &p, &v);
-    if (st != PW_OK)
-        return st;
-    if (v > c->brent_v) {
-        c->brent_v = v;
-        c->brent_pt = p;
-    }
-    *f = -v;
-    return PW_OK;
+    pw_status st = eval_brent(ctx, x, &p, &v);
+    if (st == PW_OK)
+        *f = -v;
+    return st;
 }
 
 static double dval(const bb *c, const pw_section_pt *p)
@@ -224,13 +229,9 @@ static pw_status dvalue_fn(void *ctx, double x, double *f)
     bb *c = ctx;
     pw_section_pt p;
     double v;
-    pw_status st = eval(c, x, &p, &v);
+    pw_status st = eval_brent(c, x, &p, &v);
     if (st != PW_OK)
         return st;
-    if (v > c->brent_v) {
-        c->brent_v = v;
-        c->brent_pt = p;
-    }
     *f = dval(c, &p);
     return isfinite(*f) ? PW_OK : PW_EDOM;
 }

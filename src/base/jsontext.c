@@ -192,16 +192,24 @@ static char *print_g(bool neg, u128 D, int p, int X, bool real, char *buf)
     return buf;
 }
 
+/* a (positive, normal) = m 2^k with m < 2^53, and X0 an estimate of its decimal exponent. */
+static void split_real(double a, uint64_t *m, int *k, int *X0)
+{
+    int ex;
+    double fr = frexp(a, &ex); /* a = fr 2^ex, 0.5 <= fr < 1 */
+    *m = (uint64_t)ldexp(fr, 53);
+    *k = ex - 53;
+    *X0 = (int)floor(log10(a));
+}
+
 char *pw_json_format_real(double v, char *buf, size_t cap)
 {
     double a = fabs(v);
     if (!(a >= 1e-290 && a <= 1e290) || cap < 32)
         return format_real_libc(v, buf, cap);
-    int ex;
-    double fr = frexp(a, &ex); /* a = fr 2^ex, 0.5 <= fr < 1 */
-    uint64_t m = (uint64_t)ldexp(fr, 53);
-    int k = ex - 53;
-    int X0 = (int)floor(log10(a));
+    uint64_t m;
+    int k, X0;
+    split_real(a, &m, &k, &X0);
     for (int p = 15; p <= 17; p++) {
         u128 D;
         int X;
@@ -225,12 +233,12 @@ char *pw_format_g17(double v, char *buf, size_t cap)
         snprintf(buf, cap, "%.17g", v);
         return buf;
     }
-    int ex;
-    double fr = frexp(a, &ex);
-    uint64_t m = (uint64_t)ldexp(fr, 53);
+    uint64_t m;
+    int k, X0;
+    split_real(a, &m, &k, &X0);
     u128 D;
     int X;
-    if (!digits_of(m, ex - 53, (int)floor(log10(a)), 17, &D, &X)) {
+    if (!digits_of(m, k, X0, 17, &D, &X)) {
         snprintf(buf, cap, "%.17g", v);
         return buf;
     }
