@@ -128,14 +128,12 @@ static pw_status three_phase_T(const pw_system *s, double T_K, size_t tpd, pw_th
 static pw_status p3_minus(const pw_system *s, double P, double T, double *f, bool *split,
                           pw_three_phase *tp, bool prune)
 {
-    /* A binary liquid can split only where d^2(G_mix/RT)/dx1^2 < 0 somewhere: where the
-     * stability scan finds it positive everywhere, G_mix is convex and no split exists, so the
-     * full liquid-liquid solve is skipped (most temperatures of a miscible system). */
-    double min_D = NAN, x_min;
-    pw_status st = PW_OK;
-    if (!prune || !pw_thermo_split_excluded(s, T, T))
-        st = pw_stability_min(s, T, &min_D, &x_min);
-    if (st == PW_OK && !(min_D <= 0.0)) {
+    /* Where the split bound proves the liquid stable (src/thermo/split_bound.c) the liquid-
+     * liquid solve is skipped; everywhere else it decides, so "no split" here is exactly
+     * pw_lle_solve's answer (its graded grid down to the solubility floor and its scan beyond
+     * it). A coarser stability scan used to stand in front of it; it looked neither near the
+     * pure ends nor beyond the floor and, measured, saved nothing. */
+    if (prune && pw_thermo_split_excluded(s, T, T)) {
         *split = false;
         *f = (double)NAN;
         memset(tp, 0, sizeof *tp);
@@ -143,7 +141,7 @@ static pw_status p3_minus(const pw_system *s, double P, double T, double *f, boo
         tp->P_Pa = tp->y1 = tp->x[0] = tp->x[1] = (double)NAN;
         return PW_OK;
     }
-    st = three_phase_T(s, T, TPD_QUICK, tp);
+    pw_status st = three_phase_T(s, T, TPD_QUICK, tp);
     if (st == PW_ERANGE) {
         /* a layer beyond the solubility floor: the split exists and its activities are
          * known (the refused pair is described; a_i = 1 if it could not be), enough to bracket

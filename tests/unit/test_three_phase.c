@@ -14,9 +14,16 @@
  *    T3 = 365.8298 K, layers 0.019001 / 0.387724, y3 = 0.243893), and its T3 against the
  *    handbook azeotrope 92.4 C (CRC 44th / Lange's 10th azeotrope table, per METHODS2 3.5) and
  *    92.7 C (Horsley, from memory) within 0.5 K;
- *  - the bubble point of either layer equals the three-phase point (an identity). */
+ *  - the bubble point of either layer equals the three-phase point (an identity);
+ *  - a split held entirely near a pure end (NRTL with a large tau12: the region where
+ *    d2(Gmix/RT)/dx2 < 0 lies within 2e-3 of x1 = 1, between the points of a uniform 499-point
+ *    scan): the three-phase search at fixed P finds it, and the state found satisfies its
+ *    defining equations (equal activities, P = a1 P1sat + a2 P2sat, tangent plane) checked
+ *    here; with a layer beyond the 1e-12 floor it is refused (PW_ERANGE), not "no split".
+ *    The parameters are a model case, not data. */
 #include "pw_test.h"
 
+#include <float.h>
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_roots.h>
 #include <math.h>
@@ -210,6 +217,64 @@ static void butanol_water_nrtl(void **state)
     pw_assert_close(tq.P_Pa, P, 1e-7, 0.0, "P3 at T3");
 }
 
+/* NRTL water (1) / 1-butanol (2) with tau12 = b12/T large and tau21 = 0: the term
+ * tau12 G12 / (x2 + x1 G12) bends Gmix down only where x2 ~ G12 = exp(-alpha tau12). */
+static pw_system end_split(double tau12_at_360, double alpha)
+{
+    pw_system s;
+    memset(&s, 0, sizeof s);
+    s.comp[0] = comp("water");
+    s.comp[1] = comp("1-butanol");
+    s.model = &pw_model_nrtl;
+    s.params[0] = tau12_at_360 * 360.0;
+    s.params[1] = 0.0;
+    s.params[2] = alpha;
+    s.T_ref_K = 360.0;
+    return s;
+}
+
+static void split_near_pure_end(void **state)
+{
+    (void)state;
+    const double P = 101325.0;
+    static const double cases[][2] = {{13, 0.60}, {16, 0.55}, {18, 0.45}, {21, 0.40}};
+    for (size_t k = 0; k < sizeof cases / sizeof cases[0]; k++) {
+        pw_system s = end_split(cases[k][0], cases[k][1]);
+        pw_three_phase tp;
+        assert_int_equal(pw_three_phase_at_P(&s, P, &tp), PW_OK);
+        if (!tp.exists)
+            fail_msg("tau12 %g alpha %g: no three-phase state found", cases[k][0], cases[k][1]);
+        /* the coarse uniform scan sees a stable liquid here: the split lies between its points */
+        double min_D, x_min;
+        assert_int_equal(pw_stability_min(&s, tp.T_K, &min_D, &x_min), PW_OK);
+        assert_true(min_D > 0.0);
+        assert_true(1.0 - tp.x[0] < 2e-2 && tp.x[0] < tp.x[1]);
+        /* defining equations, from the model's activities at both layers (the complement of a
+         * layer within 1e-8 of x1 = 1 carries the rounding of 1 - x1: eps / x2 relative) */
+        pw_activity aI, aII;
+        assert_int_equal(pw_system_activity(&s, tp.x[0], tp.T_K, &aI), PW_OK);
+        assert_int_equal(pw_system_activity(&s, tp.x[1], tp.T_K, &aII), PW_OK);
+        double x2I = 1.0 - tp.x[0], x2II = 1.0 - tp.x[1];
+        double la1I = log(tp.x[0]) + aI.lngamma[0], la1II = log(tp.x[1]) + aII.lngamma[0];
+        double la2I = log(x2I) + aI.lngamma[1], la2II = log(x2II) + aII.lngamma[1];
+        pw_assert_close(la1I, la1II, 0.0, 1e-9, "ln a1 equal in both layers");
+        pw_assert_close(la2I, la2II, 0.0, 1e-9 + 4.0 * DBL_EPSILON / x2II, "ln a2 equal");
+        double p1, p2;
+        assert_int_equal(pw_psat(&s.comp[0], tp.T_K, &p1, NULL), PW_OK);
+        assert_int_equal(pw_psat(&s.comp[1], tp.T_K, &p2, NULL), PW_OK);
+        double P3 = exp(la1I) * p1 + exp(la2I) * p2;
+        pw_assert_close(P3, P, 1e-7, 0.0, "a1 P1sat + a2 P2sat = P");
+        pw_assert_close(tp.y1, exp(la1I) * p1 / P3, 1e-7, 0.0, "y3 = a1 P1sat / P");
+        double tpd;
+        assert_int_equal(pw_lle_tpd_min(&s, tp.T_K, tp.x[0], tp.x[1], 10001, &tpd, NULL), PW_OK);
+        assert_true(tpd >= -1e-10);
+    }
+    /* a layer beyond the floor: refused, never "no three-phase state" */
+    pw_system s = end_split(30.0, 0.30);
+    pw_three_phase tp;
+    assert_int_equal(pw_three_phase_at_P(&s, P, &tp), PW_ERANGE);
+}
+
 static int setup(void **state)
 {
     (void)state;
@@ -230,6 +295,7 @@ int main(void)
         cmocka_unit_test(closed_form_symmetric),
         cmocka_unit_test(immiscible_limit),
         cmocka_unit_test(butanol_water_nrtl),
+        cmocka_unit_test(split_near_pure_end),
     };
     return cmocka_run_group_tests(tests, setup, teardown);
 }
