@@ -125,9 +125,10 @@ pw_status pw_three_phase_at_T(const pw_system *s, double T_K, pw_three_phase *ou
 /* At fixed P: the temperature where the layers boil. The search runs from 80 K below the lower
  * pure boiling point up to the higher one on a 1 K grid (the LLE re-solved at each grid
  * temperature where the three-phase pressure could reach P, unless no split is proven for the
- * rest of the range: docs/heterogeneous.md section 2), so a three-phase line anywhere in that
- * range is found; exists = false when there is none (the split vanishes first, or there is no
- * split). */
+ * rest of the range: docs/heterogeneous.md section 2); a critical solution temperature between
+ * grid temperatures is located by bisection, so a three-phase line anywhere in that range is
+ * found (but for a split that begins and ends inside one 1 K cell); exists = false when there is
+ * none (the split vanishes first, or there is no split). */
 pw_status pw_three_phase_at_P(const pw_system *s, double P_Pa, pw_three_phase *out);
 
 /* The same from a temperature guess (e.g. a measured three-phase temperature): the root of

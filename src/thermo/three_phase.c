@@ -246,6 +246,71 @@ pw_status pw_thermo_three_phase_at_P_full(const pw_system *s, double P_Pa, pw_th
     return scan_at_P(s, P_Pa, out, false);
 }
 
+/* GSL Brent on a bracket [a, b] of split temperatures with P3 - P changing sign (the split holds
+ * at both ends and cannot vanish inside: PW_ENOCONV if it does), to a width of 1e-10 relative,
+ * then the state at its middle. */
+static pw_status solve_bracket(const pw_system *s, double P_Pa, double a, double b, bool prune,
+                               pw_three_phase *out)
+{
+    near_ctx c = {s, P_Pa, PW_OK, false, prune};
+    gsl_root_fsolver *rs = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+    if (!rs)
+        return PW_ENOMEM;
+    gsl_function F = {near_fn, &c};
+    pw_status st = PW_OK;
+    if (gsl_root_fsolver_set(rs, &F, a, b) != GSL_SUCCESS)
+        st = PW_ENOCONV;
+    for (int it = 0; st == PW_OK && it < 100 && b - a > 1e-10 * b; it++) {
+        if (gsl_root_fsolver_iterate(rs) != GSL_SUCCESS)
+            st = PW_ENOCONV;
+        a = gsl_root_fsolver_x_lower(rs);
+        b = gsl_root_fsolver_x_upper(rs);
+    }
+    gsl_root_fsolver_free(rs);
+    if (c.st != PW_OK)
+        return c.st;
+    if (c.lost || st != PW_OK)
+        return PW_ENOCONV;
+    st = pw_three_phase_at_T(s, 0.5 * (a + b), out);
+    if (st != PW_OK)
+        return st;
+    /* A bracket end refused beyond the solubility floor whose pair could not be described
+     * enters with a1 = a2 = 1; a "root" at the edge of the refused range is then no three-phase
+     * state: the true one lies in the refused range. */
+    if (!out->exists || !(fabs(out->P_Pa - P_Pa) <= 1e-6 * P_Pa))
+        return PW_ERANGE;
+    out->P_Pa = P_Pa; /* y1 from a1 P1sat / P3 equals it to the bisection tolerance */
+    return PW_OK;
+}
+
+#define EDGE_TOL_K 1e-9
+
+/* Where the split ends between T_in (splits, P3 - P = f_in) and T_out (does not split), either
+ * order: bisection on "splits" down to EDGE_TOL_K. *T_edge is the split temperature nearest the
+ * end found and *f_edge its P3 - P. */
+static pw_status split_edge(const pw_system *s, double P_Pa, double T_in, double f_in,
+                            double T_out, bool prune, double *T_edge, double *f_edge)
+{
+    double a = T_in, fa = f_in, b = T_out;
+    while (fabs(b - a) > EDGE_TOL_K) {
+        double m = 0.5 * (a + b), f;
+        bool split;
+        pw_three_phase tp;
+        pw_status st = p3_minus(s, P_Pa, m, &f, &split, &tp, prune);
+        if (st != PW_OK)
+            return st;
+        if (split) {
+            a = m;
+            fa = f;
+        } else {
+            b = m;
+        }
+    }
+    *T_edge = a;
+    *f_edge = fa;
+    return PW_OK;
+}
+
 static pw_status scan_at_P(const pw_system *s, double P_Pa, pw_three_phase *out, bool prune)
 {
     if (!s || !s->model || !out)
@@ -289,7 +354,7 @@ static pw_status scan_at_P(const pw_system *s, double P_Pa, pw_three_phase *out,
         return PW_OK;
     }
     double T_prev = NAN, f_prev = NAN;
-    bool split_prev = false;
+    bool split_prev = false, evaluated_prev = false;
     pw_three_phase tp;
     live_next = !prune || grid_live(s, P_Pa, T_lo, T_hi, k_first);
     for (size_t k = k_first; k <= n; k++) {
@@ -297,52 +362,44 @@ static pw_status scan_at_P(const pw_system *s, double P_Pa, pw_three_phase *out,
         bool split;
         bool live = live_next;
         live_next = !prune || (k < n && grid_live(s, P_Pa, T_lo, T_hi, k + 1));
-        if (!live && !live_next) {
-            split_prev = false; /* f < 0 here and at the next point: no bracket ends there */
+        if (!live && !live_next && !split_prev) {
+            /* f < 0 here and at the next point: no bracket ends there (after a split point the
+             * point is solved all the same: the split may end in between, see below) */
+            evaluated_prev = false;
             continue;
         }
         pw_status st = p3_minus(s, P_Pa, T, &f, &split, &tp, prune);
         if (st != PW_OK)
             return st;
-        if (split && split_prev && f_prev < 0.0 && f >= 0.0) {
-            /* GSL Brent on the bracket (the split holds at both ends and cannot vanish inside a
-             * bracket of splits: PW_ENOCONV if it does), to the same width as a bisection would */
-            near_ctx c = {s, P_Pa, PW_OK, false, prune};
-            gsl_root_fsolver *rs = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-            if (!rs)
-                return PW_ENOMEM;
-            gsl_function F = {near_fn, &c};
-            double a = T_prev, b = T;
-            st = PW_OK;
-            if (gsl_root_fsolver_set(rs, &F, a, b) != GSL_SUCCESS)
-                st = PW_ENOCONV;
-            for (int it = 0; st == PW_OK && it < 100 && b - a > 1e-10 * b; it++) {
-                if (gsl_root_fsolver_iterate(rs) != GSL_SUCCESS)
-                    st = PW_ENOCONV;
-                a = gsl_root_fsolver_x_lower(rs);
-                b = gsl_root_fsolver_x_upper(rs);
-            }
-            gsl_root_fsolver_free(rs);
-            if (c.st != PW_OK)
-                return c.st;
-            if (c.lost || st != PW_OK)
-                return PW_ENOCONV;
-            st = pw_three_phase_at_T(s, 0.5 * (a + b), out);
+        if (split && split_prev && f_prev < 0.0 && f >= 0.0)
+            return solve_bracket(s, P_Pa, T_prev, T, prune, out);
+        if (evaluated_prev && split_prev && !split && f_prev < 0.0) {
+            /* the split ends between the grid points (an upper critical solution temperature):
+             * the three-phase state lies between them when the split still boils at or above
+             * P at its last temperature */
+            double T_edge, f_edge;
+            st = split_edge(s, P_Pa, T_prev, f_prev, T, prune, &T_edge, &f_edge);
             if (st != PW_OK)
                 return st;
-            /* A bracket end refused beyond the solubility floor whose pair could not be
-             * described enters with a1 = a2 = 1; a "root" at the edge of the refused range is
-             * then no three-phase state: the true one lies in the refused range. */
-            if (!out->exists || !(fabs(out->P_Pa - P_Pa) <= 1e-6 * P_Pa))
-                return PW_ERANGE;
-            out->P_Pa = P_Pa; /* y1 from a1 P1sat / P3 equals it to the bisection tolerance */
-            return PW_OK;
+            if (f_edge >= 0.0)
+                return solve_bracket(s, P_Pa, T_prev, T_edge, prune, out);
+        }
+        if (evaluated_prev && !split_prev && split && f >= 0.0) {
+            /* the split begins between the grid points (a lower critical solution
+             * temperature): below P at its first temperature, the state lies above it */
+            double T_edge, f_edge;
+            st = split_edge(s, P_Pa, T, f, T_prev, prune, &T_edge, &f_edge);
+            if (st != PW_OK)
+                return st;
+            if (f_edge < 0.0)
+                return solve_bracket(s, P_Pa, T_edge, T, prune, out);
         }
         if (split && f >= 0.0)
             break; /* the split already boils below the grid start: none in range */
         T_prev = T;
         f_prev = f;
         split_prev = split;
+        evaluated_prev = true;
     }
     out->exists = false;
     return PW_OK;

@@ -20,7 +20,15 @@
  *    scan): the three-phase search at fixed P finds it, and the state found satisfies its
  *    defining equations (equal activities, P = a1 P1sat + a2 P2sat, tangent plane) checked
  *    here; with a layer beyond the 1e-12 floor it is refused (PW_ERANGE), not "no split".
- *    The parameters are a model case, not data. */
+ *    The parameters are a model case, not data;
+ *  - a critical solution temperature between two temperatures of the search's 1 K grid:
+ *    symmetric Margules splits exactly while A(T) > 2 (A(T) = A Tref/T: an upper critical
+ *    temperature Tc = A Tref/2; A(T) = A T/Tref, a model written here: a lower one, Tc = 2 Tref/A),
+ *    its layers are x and 1 - x with a1 = a2 = a, so P3 = a (P1sat + P2sat) (METHODS2 3.3, as
+ *    above). T3 is solved here independently (the layer from ln[x/(1-x)] = A(2x - 1) and then
+ *    a (P1sat + P2sat) = P, both by GSL Brent) for Tc moved in steps of 0.05 K across 1.2 K around
+ *    the temperature where the critical liquid boils at P: the search must find the state exactly
+ *    when it exists, however Tc falls between its grid points. */
 #include "pw_test.h"
 
 #include <float.h>
@@ -275,6 +283,197 @@ static void split_near_pure_end(void **state)
     assert_int_equal(pw_three_phase_at_P(&s, P, &tp), PW_ERANGE);
 }
 
+/* Symmetric Margules with A(T) = A T / T_ref: splits above Tc = 2 T_ref / A (a lower critical
+ * solution temperature), written here as a model of its own. */
+static pw_status lcst_check(const double *p)
+{
+    return isfinite(p[0]) ? PW_OK : PW_EDOM;
+}
+
+static pw_status lcst_eval(const double *p, double T_ref_K, double x1, double T_K, pw_activity *out)
+{
+    if (!out || !(x1 >= 0.0 && x1 <= 1.0) || !(T_K > 0.0))
+        return PW_EDOM;
+    memset(out, 0, sizeof *out);
+    double x2 = 1.0 - x1, A = p[0] * T_K / T_ref_K;
+    out->lngamma[0] = A * x2 * x2;
+    out->lngamma[1] = A * x1 * x1;
+    out->gE_RT = A * x1 * x2;
+    out->d2gE_dx2 = -2.0 * A;
+    out->dlngamma_dx1[0] = x2 * out->d2gE_dx2;
+    out->dlngamma_dx1[1] = -x1 * out->d2gE_dx2;
+    out->dlngamma_dT[0] = out->lngamma[0] / T_K;
+    out->dlngamma_dT[1] = out->lngamma[1] / T_K;
+    out->dlngamma_dp[0][0] = T_K / T_ref_K * x2 * x2;
+    out->dlngamma_dp[1][0] = T_K / T_ref_K * x1 * x1;
+    out->hE_Jmol = -PW_GAS_CONSTANT * T_K * T_K
+                   * (x1 * out->dlngamma_dT[0] + x2 * out->dlngamma_dT[1]);
+    return PW_OK;
+}
+
+static const char *const lcst_names[] = {"A"};
+static const char *const lcst_units[] = {"-"};
+static const double lcst_defaults[] = {0.0};
+static const bool lcst_fitted[] = {true};
+static const double lcst_starts[][2] = {{0.0, 3.0}};
+static const pw_model_type lcst_model = {
+    .name = "test-lcst",
+    .title = "symmetric Margules with A(T) = A T/T_ref (test model)",
+    .n_params = 1,
+    .param_names = lcst_names,
+    .param_units = lcst_units,
+    .defaults = lcst_defaults,
+    .fitted_default = lcst_fitted,
+    .check = lcst_check,
+    .eval = lcst_eval,
+    .start_range = lcst_starts,
+};
+
+typedef struct {
+    double A; /* A(T) of the symmetric split */
+    const pw_system *s;
+    double P, A0;
+    bool lower; /* A(T) = A0 T/Tref, else A0 Tref/T */
+} sym_ctx;
+
+static double layer_eq(double x, void *vp)
+{
+    const sym_ctx *c = vp;
+    return log(x / (1.0 - x)) - c->A * (2.0 * x - 1.0);
+}
+
+/* a of the symmetric split at A > 2 (independent of the library's LLE solver) */
+static double sym_activity(double A)
+{
+    sym_ctx c = {.A = A};
+    gsl_function F = {layer_eq, &c};
+    gsl_root_fsolver *rs = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+    assert_non_null(rs);
+    /* the lower layer lies in (0, 1/2): g < 0 near 0, g > 0 just below the inflection */
+    double hi = 0.5 - sqrt(3.0 * (A - 2.0) / (2.0 * A * A * A)) * 0.5, lo = 1e-300;
+    while (layer_eq(hi, &c) <= 0.0)
+        hi = 0.5 * (hi + 0.5);
+    assert_int_equal(gsl_root_fsolver_set(rs, &F, lo, hi), GSL_SUCCESS);
+    double x = NAN;
+    for (int it = 0; it < 400; it++) {
+        gsl_root_fsolver_iterate(rs);
+        x = gsl_root_fsolver_root(rs);
+        if (gsl_root_test_interval(gsl_root_fsolver_x_lower(rs), gsl_root_fsolver_x_upper(rs),
+                                   0.0, 1e-15) == GSL_SUCCESS)
+            break;
+    }
+    gsl_root_fsolver_free(rs);
+    return x * exp(A * (1.0 - x) * (1.0 - x));
+}
+
+static double sym_A(const sym_ctx *c, double T)
+{
+    return c->lower ? c->A0 * T / c->s->T_ref_K : c->A0 * c->s->T_ref_K / T;
+}
+
+static double sum_psat(const pw_system *s, double T)
+{
+    double p1, p2;
+    assert_int_equal(pw_psat(&s->comp[0], T, &p1, NULL), PW_OK);
+    assert_int_equal(pw_psat(&s->comp[1], T, &p2, NULL), PW_OK);
+    return p1 + p2;
+}
+
+static double p3_minus_P(double T, void *vp)
+{
+    const sym_ctx *c = vp;
+    double A = sym_A(c, T);
+    double a = A > 2.0 ? sym_activity(A) : 0.5 * exp(0.5); /* the critical liquid at A = 2 */
+    return a * sum_psat(c->s, T) - c->P;
+}
+
+static double brent(double (*f)(double, void *), void *c, double lo, double hi)
+{
+    gsl_function F = {f, c};
+    gsl_root_fsolver *rs = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+    assert_non_null(rs);
+    assert_int_equal(gsl_root_fsolver_set(rs, &F, lo, hi), GSL_SUCCESS);
+    double r = NAN;
+    for (int it = 0; it < 200; it++) {
+        gsl_root_fsolver_iterate(rs);
+        r = gsl_root_fsolver_root(rs);
+        if (gsl_root_test_interval(gsl_root_fsolver_x_lower(rs), gsl_root_fsolver_x_upper(rs),
+                                   1e-10, 0.0) == GSL_SUCCESS)
+            break;
+    }
+    gsl_root_fsolver_free(rs);
+    return r;
+}
+
+static void critical_point_in_grid_cell(void **state)
+{
+    (void)state;
+    const double P = 101325.0;
+    pw_system s;
+    memset(&s, 0, sizeof s);
+    s.comp[0] = comp("ethanol");
+    s.comp[1] = comp("water");
+    s.T_ref_K = 300.0;
+    /* T*: the critical liquid (A = 2, a = e^0.5 / 2) boils at P: 0.5 e^0.5 (P1sat + P2sat) = P */
+    double Tstar, lo = 300.0, hi = 380.0;
+    for (int it = 0; it < 200; it++) {
+        double m = 0.5 * (lo + hi);
+        if (0.5 * exp(0.5) * sum_psat(&s, m) < P)
+            lo = m;
+        else
+            hi = m;
+    }
+    Tstar = 0.5 * (lo + hi);
+    size_t found_u = 0, none_u = 0, found_l = 0, none_l = 0;
+    for (int k = -6; k <= 18; k++) {
+        for (int lower = 0; lower <= 1; lower++) {
+            /* upper critical point: Tc from T* - 0.3 K up; lower: from T* + 0.3 K down */
+            double Tc = lower ? Tstar + 0.3 - 0.05 * (k + 6) : Tstar - 0.3 + 0.05 * (k + 6);
+            sym_ctx c = {.s = &s, .P = P, .lower = lower != 0};
+            if (lower) {
+                s.model = &lcst_model;
+                c.A0 = 2.0 * s.T_ref_K / Tc;
+                s.params[0] = c.A0;
+            } else {
+                s.model = &pw_model_margules;
+                c.A0 = 2.0 * Tc / s.T_ref_K;
+                s.params[0] = s.params[1] = c.A0;
+            }
+            /* the independent answer: P3 rises with T on the split side; a state exists when P
+             * lies between P3 at the critical point and P3 5 K into the split */
+            double Tin = lower ? Tc + 1e-9 : Tc - 1e-9, Tfar = lower ? Tc + 5.0 : Tc - 5.0;
+            double fin = p3_minus_P(Tin, &c), ffar = p3_minus_P(Tfar, &c);
+            bool exists = lower ? (fin < 0.0 && ffar > 0.0) : (fin > 0.0 && ffar < 0.0);
+            pw_three_phase tp;
+            pw_status st = pw_three_phase_at_P(&s, P, &tp);
+            if (st != PW_OK || tp.exists != exists)
+                fail_msg("%s critical point at T* %+.2f K: status %d, exists %d, expected %d",
+                         lower ? "lower" : "upper", Tc - Tstar, st, tp.exists, exists);
+            if (!exists) {
+                if (lower)
+                    none_l++;
+                else
+                    none_u++;
+                continue;
+            }
+            if (lower)
+                found_l++;
+            else
+                found_u++;
+            double T3 = brent(p3_minus_P, &c, fmin(Tin, Tfar), fmax(Tin, Tfar));
+            pw_assert_close(tp.T_K, T3, 0.0, 1e-6, "T3 against the closed form");
+            double p1, p2;
+            assert_int_equal(pw_psat(&s.comp[0], T3, &p1, NULL), PW_OK);
+            assert_int_equal(pw_psat(&s.comp[1], T3, &p2, NULL), PW_OK);
+            pw_assert_close(tp.y1, p1 / (p1 + p2), 0.0, 1e-6, "y3 = P1sat/(P1sat + P2sat)");
+            pw_assert_close(tp.x[0] + tp.x[1], 1.0, 0.0, 1e-6, "symmetric layers");
+        }
+    }
+    /* both outcomes on both sides, so the grid cells with a critical point were exercised */
+    print_message("upper: %zu found, %zu none; lower: %zu found, %zu none\n", found_u, none_u, found_l, none_l);
+    assert_true(found_u >= 10 && none_u >= 5 && found_l >= 10 && none_l >= 5);
+}
+
 static int setup(void **state)
 {
     (void)state;
@@ -296,6 +495,7 @@ int main(void)
         cmocka_unit_test(immiscible_limit),
         cmocka_unit_test(butanol_water_nrtl),
         cmocka_unit_test(split_near_pure_end),
+        cmocka_unit_test(critical_point_in_grid_cell),
     };
     return cmocka_run_group_tests(tests, setup, teardown);
 }
