@@ -28,6 +28,9 @@
 #define DEW_RESID_MAX 1e-9
 #define STAB_GRID 499
 #define STAB_MAXIT 100
+/* Geometric points at each end between STAB_TAIL_MIN and the first point of the even grid. */
+#define STAB_TAIL 48
+#define STAB_TAIL_MIN 1e-12
 
 /* Everything evaluated at one (x1, T). */
 typedef struct {
@@ -740,6 +743,79 @@ static pw_status stab_fn1d(void *vp, double x1, double *D)
     return PW_OK;
 }
 
+/* D at x = e (side 0) or x = 1 - e (side 1), as a function of u = ln e. */
+typedef struct {
+    stab_ctx *c;
+    int side;
+} tail_ctx;
+
+static double tail_x(int side, double e)
+{
+    return side ? 1.0 - e : e;
+}
+
+static pw_status tail_fn1d(void *vp, double u, double *D)
+{
+    tail_ctx *t = vp;
+    double v = stab_D(tail_x(t->side, exp(u)), t->c);
+    if (t->c->status != PW_OK)
+        return t->c->status;
+    *D = v;
+    return PW_OK;
+}
+
+/* The geometric tails: STAB_TAIL points e_j = STAB_TAIL_MIN r^j (j = 0 .. STAB_TAIL - 1, e_STAB_TAIL
+ * = h, the even grid's first point) at each end; every local minimum below *min_D is refined by
+ * Brent in ln e between its neighbours. */
+static pw_status stability_tails(const pw_system *s, double T_K, double h, stab_ctx *c,
+                                 double *min_D, double *x_at_min)
+{
+    double r = pow(h / STAB_TAIL_MIN, 1.0 / STAB_TAIL);
+    for (int side = 0; side < 2; side++) {
+        double xg[STAB_TAIL + 1], D[STAB_TAIL + 1];
+        for (int j = 0; j <= STAB_TAIL; j++)
+            xg[j] = tail_x(side, j == STAB_TAIL ? h : STAB_TAIL_MIN * pow(r, (double)j));
+        if (s->model->d2gE_dx2) {
+            double d2[STAB_TAIL + 1];
+            pw_status st = s->model->d2gE_dx2(s->params, s->T_ref_K, T_K, STAB_TAIL + 1, xg, d2);
+            if (st != PW_OK)
+                return st;
+            for (int j = 0; j <= STAB_TAIL; j++)
+                D[j] = 1.0 / (xg[j] * (1.0 - xg[j])) + d2[j];
+        } else {
+            for (int j = 0; j <= STAB_TAIL; j++) {
+                D[j] = stab_D(xg[j], c);
+                if (c->status != PW_OK)
+                    return c->status;
+            }
+        }
+        for (int j = 0; j < STAB_TAIL; j++) {
+            if (!(D[j] < *min_D))
+                continue;
+            *min_D = D[j];
+            *x_at_min = xg[j];
+            if (j == 0 || !(D[j] < D[j - 1] && D[j] < D[j + 1]))
+                continue;
+            tail_ctx t = {c, side};
+            double ua = log(STAB_TAIL_MIN) + (j - 1) * log(r), ub = ua + 2.0 * log(r);
+            pw_solve1d_opts o = pw_solve1d_default_opts();
+            o.xtol_abs = 1e-10;
+            o.xtol_rel = 0.0;
+            o.max_iter = STAB_MAXIT;
+            double um, Dm;
+            pw_status st = pw_min1d(tail_fn1d, &t, ua, ua + log(r), ub, D[j - 1], D[j], D[j + 1],
+                                    &o, &um, &Dm, NULL);
+            if (st != PW_OK && st != PW_EMAXITER && st != PW_ENOBRACKET)
+                return st;
+            if ((st == PW_OK || st == PW_EMAXITER) && isfinite(Dm) && Dm <= *min_D) {
+                *min_D = Dm;
+                *x_at_min = tail_x(side, exp(um));
+            }
+        }
+    }
+    return PW_OK;
+}
+
 pw_status pw_stability_min(const pw_system *s, double T_K, double *min_D, double *x_at_min)
 {
     if (!state_ok(s) || !min_D || !x_at_min)
@@ -781,20 +857,23 @@ pw_status pw_stability_min(const pw_system *s, double T_K, double *min_D, double
     }
     *min_D = Dmin;
     *x_at_min = kmin * h;
-    if (kmin == 1 || kmin == STAB_GRID)
-        return PW_OK; /* D rises to +inf at both ends; the grid point is the answer */
     double a = (kmin - 1) * h, b = (kmin + 1) * h;
-    if (!(Dmin < stab_D(a, &c) && Dmin < stab_D(b, &c)))
-        return PW_OK; /* flat: the grid value stands */
-    pw_solve1d_opts o = pw_solve1d_default_opts();
-    o.xtol_abs = 1e-10;
-    o.xtol_rel = 0.0;
-    o.max_iter = STAB_MAXIT;
-    double xm, fm;
-    pw_status st = pw_min1d(stab_fn1d, &c, a, kmin * h, b, NAN, Dmin, NAN, &o, &xm, &fm, NULL);
-    if ((st == PW_OK || st == PW_EMAXITER) && isfinite(fm) && fm <= Dmin) {
-        *min_D = fm;
-        *x_at_min = xm;
+    if (kmin > 1 && kmin < STAB_GRID && Dmin < stab_D(a, &c) && Dmin < stab_D(b, &c)) {
+        /* an interior minimum of the even grid (not flat): refined */
+        pw_solve1d_opts o = pw_solve1d_default_opts();
+        o.xtol_abs = 1e-10;
+        o.xtol_rel = 0.0;
+        o.max_iter = STAB_MAXIT;
+        double xm, fm;
+        pw_status st = pw_min1d(stab_fn1d, &c, a, kmin * h, b, NAN, Dmin, NAN, &o, &xm, &fm, NULL);
+        if (st != PW_OK && st != PW_EMAXITER && st != PW_ENOBRACKET)
+            return st;
+        if ((st == PW_OK || st == PW_EMAXITER) && isfinite(fm) && fm <= Dmin) {
+            *min_D = fm;
+            *x_at_min = xm;
+        }
     }
-    return st == PW_EMAXITER || st == PW_ENOBRACKET ? PW_OK : st;
+    if (c.status != PW_OK)
+        return c.status;
+    return stability_tails(s, T_K, h, &c, min_D, x_at_min);
 }

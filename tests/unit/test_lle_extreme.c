@@ -252,6 +252,14 @@ static void randomised_extreme(void **state)
             fail_msg("case %d (%s %.17g %.17g %.17g %.17g %.17g %.17g): %s", c, s.model->name,
                      s.params[0], s.params[1], s.params[2], s.params[3], s.params[4],
                      s.params[5], why);
+        /* the stability scan agrees: D < 0 somewhere exactly when the liquid splits (D < 0
+         * makes a split; a split within the floor has D < 0 where the scan looks) */
+        double D, xD;
+        assert_int_equal(pw_stability_min(&s, 300.0, &D, &xD), PW_OK);
+        if ((st == PW_OK && r.split && !(D < 0.0)) || (D < 0.0 && !(st == PW_ERANGE || r.split)))
+            fail_msg("case %d (%s %.17g %.17g %.17g): stability scan min D %.6g at %.6g, split "
+                     "solve status %d split %d", c, s.model->name, s.params[0], s.params[1],
+                     s.params[2], D, xD, st, r.split);
     }
     gsl_rng_free(rng);
     printf("# %d splits (%d with a layer 1e-10..1e-2 of a pure end, %d within 1e-6, %d within "

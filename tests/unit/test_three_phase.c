@@ -17,7 +17,8 @@
  *  - the bubble point of either layer equals the three-phase point (an identity);
  *  - a split held entirely near a pure end (NRTL with a large tau12: the region where
  *    d2(Gmix/RT)/dx2 < 0 lies within 2e-3 of x1 = 1, between the points of a uniform 499-point
- *    scan): the three-phase search at fixed P finds it, and the state found satisfies its
+ *    scan; pw_stability_min's geometric tails see it): the three-phase search at fixed P finds
+ *    it, and the state found satisfies its
  *    defining equations (equal activities, P = a1 P1sat + a2 P2sat, tangent plane) checked
  *    here; with a layer beyond the 1e-12 floor it is refused (PW_ERANGE), not "no split".
  *    The parameters are a model case, not data;
@@ -252,10 +253,18 @@ static void split_near_pure_end(void **state)
         assert_int_equal(pw_three_phase_at_P(&s, P, &tp), PW_OK);
         if (!tp.exists)
             fail_msg("tau12 %g alpha %g: no three-phase state found", cases[k][0], cases[k][1]);
-        /* the coarse uniform scan sees a stable liquid here: the split lies between its points */
+        /* the split lies between the points of an even 499-point scan (D > 0 at all of them,
+         * computed here); the stability scan's geometric tails see it */
+        double min_even = INFINITY;
+        for (int k = 1; k <= 499; k++) {
+            pw_activity a;
+            assert_int_equal(pw_system_activity(&s, k / 500.0, tp.T_K, &a), PW_OK);
+            min_even = fmin(min_even, 1.0 / (k / 500.0 * (1.0 - k / 500.0)) + a.d2gE_dx2);
+        }
+        assert_true(min_even > 0.0);
         double min_D, x_min;
         assert_int_equal(pw_stability_min(&s, tp.T_K, &min_D, &x_min), PW_OK);
-        assert_true(min_D > 0.0);
+        assert_true(min_D < 0.0 && x_min > 0.998);
         assert_true(1.0 - tp.x[0] < 2e-2 && tp.x[0] < tp.x[1]);
         /* defining equations, from the model's activities at both layers (the complement of a
          * layer within 1e-8 of x1 = 1 carries the rounding of 1 - x1: eps / x2 relative) */
