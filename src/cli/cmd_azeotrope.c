@@ -167,7 +167,7 @@ static void print_table(const pw_az_result *r, const pw_three_phase *tp, const p
 {
     char b1[48], b2[48];
     if (tp->exists)
-        printf("  three liquids-and-vapor line at T = %s, P = %s: layers x1 = %.6f and %.6f,"
+        printf("  three-phase line (two liquids and vapor) at T = %s, P = %s: layers x1 = %.6f and %.6f,"
                " vapor y1 = %.6f\n  -> %s\n",
                pw_units_display_value(u, PW_SHOW_T, ".3f", tp->T_K, b1, sizeof b1),
                pw_units_display_value(u, PW_SHOW_P, ".6g", tp->P_Pa, b2, sizeof b2), tp->x[0],

@@ -4,6 +4,7 @@
 #include "fit_internal.h"
 
 #include <math.h>
+#include <pinchwise/lle.h>
 #include <pinchwise/units.h>
 #include <pinchwise/fit_diagnostics.h>
 #include <pinchwise/fitjson.h>
@@ -269,7 +270,18 @@ static void convergence(const pw_fit_result *r, pw_fit_diags *d)
 static void liquids(const pw_fit_result *r, pw_fit_diags *d)
 {
     pw_fit_diag *g;
-    if (r->n_three_phase || r->n_tie_lines) {
+    if ((r->n_three_phase || r->n_tie_lines) && !pw_model_can_split(r->sys.model)) {
+        if ((g = add(d, PW_DIAG_HETEROGENEOUS, PW_DIAG_WARNING))) {
+            g->count = r->n_three_phase;
+            g->count2 = r->n_tie_lines;
+            say(g,
+                "partly miscible liquids: %zu three-phase point%s that the %s model cannot "
+                "represent (it never splits) were left out; its one-liquid results across the "
+                "measured two-liquid region are not valid: fit NRTL, UNIQUAC, Margules or van Laar "
+                "(docs/heterogeneous.md)",
+                r->n_three_phase, r->n_three_phase == 1 ? "" : "s", r->sys.model->name);
+        }
+    } else if (r->n_three_phase || r->n_tie_lines) {
         if ((g = add(d, PW_DIAG_HETEROGENEOUS, PW_DIAG_NOTE))) {
             g->count = r->n_three_phase;
             g->count2 = r->n_tie_lines;

@@ -319,6 +319,17 @@ static void liquid_split(void **state)
     assert_non_null(g);
     assert_int_equal(g->count, 2);
     assert_non_null(strstr(g->message, "2 three-phase points and 0 tie lines"));
+    /* a model that can never split (Wilson's equation): the same points left out, a warning
+     * naming the model, never "fitted as such" */
+    const pw_model_type *fitted = r.sys.model;
+    r.sys.model = &pw_model_wilson;
+    assert_int_equal(pw_fit_diagnose(&r, &d), PW_OK);
+    g = find_kind(&d, PW_DIAG_HETEROGENEOUS);
+    assert_non_null(g);
+    assert_int_equal(g->severity, PW_DIAG_WARNING);
+    assert_non_null(strstr(g->message, "that the wilson model cannot represent"));
+    assert_null(strstr(g->message, "fitted as such"));
+    r.sys.model = fitted;
     pw_fit_result_free(&r);
     pw_dataset_free(&ds);
 }
