@@ -270,26 +270,24 @@ static void convergence(const pw_fit_result *r, pw_fit_diags *d)
 static void liquids(const pw_fit_result *r, pw_fit_diags *d)
 {
     pw_fit_diag *g;
-    if ((r->n_three_phase || r->n_tie_lines) && !pw_model_can_split(r->sys.model)) {
-        if ((g = add(d, PW_DIAG_HETEROGENEOUS, PW_DIAG_WARNING))) {
+    if (r->n_three_phase || r->n_tie_lines) {
+        bool can_split = pw_model_can_split(r->sys.model);
+        if ((g = add(d, PW_DIAG_HETEROGENEOUS, can_split ? PW_DIAG_NOTE : PW_DIAG_WARNING))) {
             g->count = r->n_three_phase;
             g->count2 = r->n_tie_lines;
-            say(g,
-                "partly miscible liquids: %zu three-phase point%s that the %s model cannot "
-                "represent (it never splits) were left out; its one-liquid results across the "
-                "measured two-liquid region are not valid: fit NRTL, UNIQUAC, Margules or van Laar "
-                "(docs/heterogeneous.md)",
-                r->n_three_phase, r->n_three_phase == 1 ? "" : "s", r->sys.model->name);
-        }
-    } else if (r->n_three_phase || r->n_tie_lines) {
-        if ((g = add(d, PW_DIAG_HETEROGENEOUS, PW_DIAG_NOTE))) {
-            g->count = r->n_three_phase;
-            g->count2 = r->n_tie_lines;
-            say(g,
-                "partly miscible liquids: %zu three-phase point%s and %zu tie line%s fitted "
-                "as such (docs/heterogeneous.md)",
-                r->n_three_phase, r->n_three_phase == 1 ? "" : "s", r->n_tie_lines,
-                r->n_tie_lines == 1 ? "" : "s");
+            const char *pl = r->n_three_phase == 1 ? "" : "s";
+            if (can_split)
+                say(g,
+                    "partly miscible liquids: %zu three-phase point%s and %zu tie line%s fitted "
+                    "as such (docs/heterogeneous.md)",
+                    r->n_three_phase, pl, r->n_tie_lines, r->n_tie_lines == 1 ? "" : "s");
+            else
+                say(g,
+                    "partly miscible liquids: %zu three-phase point%s that the %s model cannot "
+                    "represent (it never splits) were left out; its one-liquid results across "
+                    "the measured two-liquid region are not valid: fit NRTL, UNIQUAC, Margules "
+                    "or van Laar (docs/heterogeneous.md)",
+                    r->n_three_phase, pl, r->sys.model->name);
         }
     } else if (r->split && (g = add(d, PW_DIAG_LIQUID_SPLIT, PW_DIAG_WARNING))) {
         g->value = r->split_min_D;

@@ -743,6 +743,51 @@ static pw_status stab_fn1d(void *vp, double x1, double *D)
     return PW_OK;
 }
 
+/* D at the n compositions xg: the model's scan function in one call where it has one (NRTL: the
+ * temperature's exponentials once; the same values as stab_D point by point), else stab_D. */
+static pw_status stab_values(stab_ctx *c, size_t n, const double *xg, double *D)
+{
+    const pw_system *s = c->s;
+    if (s->model->d2gE_dx2) {
+        pw_status st = s->model->check(s->params);
+        if (st == PW_OK)
+            st = s->model->d2gE_dx2(s->params, s->T_ref_K, c->T, n, xg, D);
+        if (st != PW_OK)
+            return st;
+        for (size_t k = 0; k < n; k++)
+            D[k] += 1.0 / (xg[k] * (1.0 - xg[k]));
+        return PW_OK;
+    }
+    for (size_t k = 0; k < n; k++) {
+        D[k] = stab_D(xg[k], c);
+        if (c->status != PW_OK)
+            return c->status;
+    }
+    return PW_OK;
+}
+
+/* Brent's minimiser on (a, b) around the grid minimum at m (values fa, fm, fb; NAN when not
+ * known); *u and *D take its result when it is no larger than *D. */
+static pw_status stab_refine(pw_fn1d fn, void *ctx, double a, double m, double b, double fa,
+                             double fm, double fb, double *u, double *D, bool *better)
+{
+    pw_solve1d_opts o = pw_solve1d_default_opts();
+    o.xtol_abs = 1e-10;
+    o.xtol_rel = 0.0;
+    o.max_iter = STAB_MAXIT;
+    double um, Dm;
+    pw_status st = pw_min1d(fn, ctx, a, m, b, fa, fm, fb, &o, &um, &Dm, NULL);
+    *better = false;
+    if (st != PW_OK && st != PW_EMAXITER && st != PW_ENOBRACKET)
+        return st;
+    if ((st == PW_OK || st == PW_EMAXITER) && isfinite(Dm) && Dm <= *D) {
+        *D = Dm;
+        *u = um;
+        *better = true;
+    }
+    return PW_OK;
+}
+
 /* D at x = e (side 0) or x = 1 - e (side 1), as a function of u = ln e. */
 typedef struct {
     stab_ctx *c;
@@ -757,38 +802,22 @@ static double tail_x(int side, double e)
 static pw_status tail_fn1d(void *vp, double u, double *D)
 {
     tail_ctx *t = vp;
-    double v = stab_D(tail_x(t->side, exp(u)), t->c);
-    if (t->c->status != PW_OK)
-        return t->c->status;
-    *D = v;
-    return PW_OK;
+    return stab_fn1d(t->c, tail_x(t->side, exp(u)), D);
 }
 
 /* The geometric tails: STAB_TAIL points e_j = STAB_TAIL_MIN r^j (j = 0 .. STAB_TAIL - 1, e_STAB_TAIL
  * = h, the even grid's first point) at each end; every local minimum below *min_D is refined by
  * Brent in ln e between its neighbours. */
-static pw_status stability_tails(const pw_system *s, double T_K, double h, stab_ctx *c,
-                                 double *min_D, double *x_at_min)
+static pw_status stability_tails(double h, stab_ctx *c, double *min_D, double *x_at_min)
 {
-    double r = pow(h / STAB_TAIL_MIN, 1.0 / STAB_TAIL);
+    double r = pow(h / STAB_TAIL_MIN, 1.0 / STAB_TAIL), lr = log(r);
     for (int side = 0; side < 2; side++) {
         double xg[STAB_TAIL + 1], D[STAB_TAIL + 1];
         for (int j = 0; j <= STAB_TAIL; j++)
             xg[j] = tail_x(side, j == STAB_TAIL ? h : STAB_TAIL_MIN * pow(r, (double)j));
-        if (s->model->d2gE_dx2) {
-            double d2[STAB_TAIL + 1];
-            pw_status st = s->model->d2gE_dx2(s->params, s->T_ref_K, T_K, STAB_TAIL + 1, xg, d2);
-            if (st != PW_OK)
-                return st;
-            for (int j = 0; j <= STAB_TAIL; j++)
-                D[j] = 1.0 / (xg[j] * (1.0 - xg[j])) + d2[j];
-        } else {
-            for (int j = 0; j <= STAB_TAIL; j++) {
-                D[j] = stab_D(xg[j], c);
-                if (c->status != PW_OK)
-                    return c->status;
-            }
-        }
+        pw_status st = stab_values(c, STAB_TAIL + 1, xg, D);
+        if (st != PW_OK)
+            return st;
         for (int j = 0; j < STAB_TAIL; j++) {
             if (!(D[j] < *min_D))
                 continue;
@@ -797,20 +826,14 @@ static pw_status stability_tails(const pw_system *s, double T_K, double h, stab_
             if (j == 0 || !(D[j] < D[j - 1] && D[j] < D[j + 1]))
                 continue;
             tail_ctx t = {c, side};
-            double ua = log(STAB_TAIL_MIN) + (j - 1) * log(r), ub = ua + 2.0 * log(r);
-            pw_solve1d_opts o = pw_solve1d_default_opts();
-            o.xtol_abs = 1e-10;
-            o.xtol_rel = 0.0;
-            o.max_iter = STAB_MAXIT;
-            double um, Dm;
-            pw_status st = pw_min1d(tail_fn1d, &t, ua, ua + log(r), ub, D[j - 1], D[j], D[j + 1],
-                                    &o, &um, &Dm, NULL);
-            if (st != PW_OK && st != PW_EMAXITER && st != PW_ENOBRACKET)
+            double ua = log(STAB_TAIL_MIN) + (j - 1) * lr, um;
+            bool better;
+            st = stab_refine(tail_fn1d, &t, ua, ua + lr, ua + 2.0 * lr, D[j - 1], D[j], D[j + 1],
+                             &um, min_D, &better);
+            if (st != PW_OK)
                 return st;
-            if ((st == PW_OK || st == PW_EMAXITER) && isfinite(Dm) && Dm <= *min_D) {
-                *min_D = Dm;
+            if (better)
                 *x_at_min = tail_x(side, exp(um));
-            }
         }
     }
     return PW_OK;
@@ -824,56 +847,30 @@ pw_status pw_stability_min(const pw_system *s, double T_K, double *min_D, double
         return PW_EDOM;
     stab_ctx c = {s, T_K, PW_OK};
     const double h = 1.0 / (STAB_GRID + 1);
+    double xg[STAB_GRID], D[STAB_GRID];
+    for (int k = 1; k <= STAB_GRID; k++)
+        xg[k - 1] = k * h;
+    pw_status st = stab_values(&c, STAB_GRID, xg, D);
+    if (st != PW_OK)
+        return st;
     int kmin = 1;
     double Dmin = INFINITY;
-    if (s->model->d2gE_dx2) {
-        /* The whole grid in one call (NRTL: the temperature's exponentials once); the same
-         * values as the point-by-point scan below. */
-        pw_status st = s->model->check(s->params);
-        if (st != PW_OK)
-            return st;
-        double xg[STAB_GRID], d2[STAB_GRID];
-        for (int k = 1; k <= STAB_GRID; k++)
-            xg[k - 1] = k * h;
-        st = s->model->d2gE_dx2(s->params, s->T_ref_K, T_K, STAB_GRID, xg, d2);
-        if (st != PW_OK)
-            return st;
-        for (int k = 1; k <= STAB_GRID; k++) {
-            double x1 = xg[k - 1], D = 1.0 / (x1 * (1.0 - x1)) + d2[k - 1];
-            if (D < Dmin) {
-                Dmin = D;
-                kmin = k;
-            }
-        }
-    }
-    for (int k = 1; !s->model->d2gE_dx2 && k <= STAB_GRID; k++) {
-        double D = stab_D(k * h, &c);
-        if (c.status != PW_OK)
-            return c.status;
-        if (D < Dmin) {
-            Dmin = D;
+    for (int k = 1; k <= STAB_GRID; k++)
+        if (D[k - 1] < Dmin) {
+            Dmin = D[k - 1];
             kmin = k;
         }
-    }
     *min_D = Dmin;
     *x_at_min = kmin * h;
     double a = (kmin - 1) * h, b = (kmin + 1) * h;
     if (kmin > 1 && kmin < STAB_GRID && Dmin < stab_D(a, &c) && Dmin < stab_D(b, &c)) {
         /* an interior minimum of the even grid (not flat): refined */
-        pw_solve1d_opts o = pw_solve1d_default_opts();
-        o.xtol_abs = 1e-10;
-        o.xtol_rel = 0.0;
-        o.max_iter = STAB_MAXIT;
-        double xm, fm;
-        pw_status st = pw_min1d(stab_fn1d, &c, a, kmin * h, b, NAN, Dmin, NAN, &o, &xm, &fm, NULL);
-        if (st != PW_OK && st != PW_EMAXITER && st != PW_ENOBRACKET)
+        bool better;
+        st = stab_refine(stab_fn1d, &c, a, kmin * h, b, NAN, Dmin, NAN, x_at_min, min_D, &better);
+        if (st != PW_OK)
             return st;
-        if ((st == PW_OK || st == PW_EMAXITER) && isfinite(fm) && fm <= Dmin) {
-            *min_D = fm;
-            *x_at_min = xm;
-        }
     }
     if (c.status != PW_OK)
         return c.status;
-    return stability_tails(s, T_K, h, &c, min_D, x_at_min);
+    return stability_tails(h, &c, min_D, x_at_min);
 }

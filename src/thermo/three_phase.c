@@ -373,7 +373,7 @@ static pw_status scan_at_P(const pw_system *s, double P_Pa, pw_three_phase *out,
             return st;
         if (split && split_prev && f_prev < 0.0 && f >= 0.0)
             return solve_bracket(s, P_Pa, T_prev, T, prune, out);
-        if (evaluated_prev && split_prev && !split && f_prev < 0.0) {
+        if (split_prev && !split && f_prev < 0.0) { /* (split_prev: evaluated, never skipped) */
             /* the split ends between the grid points (an upper critical solution temperature):
              * the three-phase state lies between them when the split still boils at or above
              * P at its last temperature */

@@ -119,23 +119,31 @@ static double psat_sum(double T, void *p)
     return p1 + p2 - c->P;
 }
 
+/* A root of f on [lo, hi] by GSL Brent, to the given interval tolerances. */
+static double brent(double (*f)(double, void *), void *c, double lo, double hi, double epsabs,
+                    double epsrel)
+{
+    gsl_function F = {f, c};
+    gsl_root_fsolver *rs = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+    assert_non_null(rs);
+    assert_int_equal(gsl_root_fsolver_set(rs, &F, lo, hi), GSL_SUCCESS);
+    double r = NAN;
+    for (int it = 0; it < 400; it++) {
+        gsl_root_fsolver_iterate(rs);
+        r = gsl_root_fsolver_root(rs);
+        if (gsl_root_test_interval(gsl_root_fsolver_x_lower(rs), gsl_root_fsolver_x_upper(rs),
+                                   epsabs, epsrel) == GSL_SUCCESS)
+            break;
+    }
+    gsl_root_fsolver_free(rs);
+    return r;
+}
+
 /* Independent root of P1sat + P2sat = P by GSL Brent. */
 static double immiscible_T(const pw_component *c1, const pw_component *c2, double P)
 {
     sum_ctx c = {c1, c2, P};
-    gsl_function F = {psat_sum, &c};
-    gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    gsl_root_fsolver_set(s, &F, 280.0, 372.0);
-    double T = NAN;
-    for (int i = 0; i < 200; i++) {
-        gsl_root_fsolver_iterate(s);
-        T = gsl_root_fsolver_root(s);
-        if (gsl_root_test_interval(gsl_root_fsolver_x_lower(s), gsl_root_fsolver_x_upper(s), 1e-12,
-                                   0.0) == GSL_SUCCESS)
-            break;
-    }
-    gsl_root_fsolver_free(s);
-    return T;
+    return brent(psat_sum, &c, 280.0, 372.0, 1e-12, 0.0);
 }
 
 static void immiscible_limit(void **state)
@@ -355,23 +363,11 @@ static double layer_eq(double x, void *vp)
 static double sym_activity(double A)
 {
     sym_ctx c = {.A = A};
-    gsl_function F = {layer_eq, &c};
-    gsl_root_fsolver *rs = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    assert_non_null(rs);
     /* the lower layer lies in (0, 1/2): g < 0 near 0, g > 0 just below the inflection */
     double hi = 0.5 - sqrt(3.0 * (A - 2.0) / (2.0 * A * A * A)) * 0.5, lo = 1e-300;
     while (layer_eq(hi, &c) <= 0.0)
         hi = 0.5 * (hi + 0.5);
-    assert_int_equal(gsl_root_fsolver_set(rs, &F, lo, hi), GSL_SUCCESS);
-    double x = NAN;
-    for (int it = 0; it < 400; it++) {
-        gsl_root_fsolver_iterate(rs);
-        x = gsl_root_fsolver_root(rs);
-        if (gsl_root_test_interval(gsl_root_fsolver_x_lower(rs), gsl_root_fsolver_x_upper(rs),
-                                   0.0, 1e-15) == GSL_SUCCESS)
-            break;
-    }
-    gsl_root_fsolver_free(rs);
+    double x = brent(layer_eq, &c, lo, hi, 0.0, 1e-15);
     return x * exp(A * (1.0 - x) * (1.0 - x));
 }
 
@@ -396,24 +392,6 @@ static double p3_minus_P(double T, void *vp)
     return a * sum_psat(c->s, T) - c->P;
 }
 
-static double brent(double (*f)(double, void *), void *c, double lo, double hi)
-{
-    gsl_function F = {f, c};
-    gsl_root_fsolver *rs = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    assert_non_null(rs);
-    assert_int_equal(gsl_root_fsolver_set(rs, &F, lo, hi), GSL_SUCCESS);
-    double r = NAN;
-    for (int it = 0; it < 200; it++) {
-        gsl_root_fsolver_iterate(rs);
-        r = gsl_root_fsolver_root(rs);
-        if (gsl_root_test_interval(gsl_root_fsolver_x_lower(rs), gsl_root_fsolver_x_upper(rs),
-                                   1e-10, 0.0) == GSL_SUCCESS)
-            break;
-    }
-    gsl_root_fsolver_free(rs);
-    return r;
-}
-
 static void critical_point_in_grid_cell(void **state)
 {
     (void)state;
@@ -424,15 +402,7 @@ static void critical_point_in_grid_cell(void **state)
     s.comp[1] = comp("water");
     s.T_ref_K = 300.0;
     /* T*: the critical liquid (A = 2, a = e^0.5 / 2) boils at P: 0.5 e^0.5 (P1sat + P2sat) = P */
-    double Tstar, lo = 300.0, hi = 380.0;
-    for (int it = 0; it < 200; it++) {
-        double m = 0.5 * (lo + hi);
-        if (0.5 * exp(0.5) * sum_psat(&s, m) < P)
-            lo = m;
-        else
-            hi = m;
-    }
-    Tstar = 0.5 * (lo + hi);
+    double Tstar = immiscible_T(&s.comp[0], &s.comp[1], P / (0.5 * exp(0.5)));
     size_t found_u = 0, none_u = 0, found_l = 0, none_l = 0;
     for (int k = -6; k <= 18; k++) {
         for (int lower = 0; lower <= 1; lower++) {
@@ -469,7 +439,7 @@ static void critical_point_in_grid_cell(void **state)
                 found_l++;
             else
                 found_u++;
-            double T3 = brent(p3_minus_P, &c, fmin(Tin, Tfar), fmax(Tin, Tfar));
+            double T3 = brent(p3_minus_P, &c, fmin(Tin, Tfar), fmax(Tin, Tfar), 1e-10, 0.0);
             pw_assert_close(tp.T_K, T3, 0.0, 1e-6, "T3 against the closed form");
             double p1, p2;
             assert_int_equal(pw_psat(&s.comp[0], T3, &p1, NULL), PW_OK);
