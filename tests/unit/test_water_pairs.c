@@ -180,6 +180,9 @@ static void check_pair(const pair_case *c)
     assert_true(r.split);
     pw_assert_close(r.x[0], c->t.x_I, 1e-7, 1e-12, "library LLE, water-rich layer");
     pw_assert_close(r.x[1], c->t.x_II, 0.0, 1e-7, "library LLE, organic-rich layer");
+    assert_int_equal(r.n_pairs, 1);
+    assert_true(r.residual < 1e-9);
+    assert_true(r.min_tpd >= -1e-10);
     /* prediction: the heterogeneous azeotrope at 1 atm */
     pw_three_phase tp;
     assert_int_equal(pw_three_phase_at_P(&s, 101325.0, &tp), PW_OK);
