@@ -231,10 +231,17 @@ pw_status pw_plot_xy(pw_sbuf *b, const pw_plot_xy_in *in)
     pw_svg_end_data(b);
     if (in->column && !in->zoom) {
         const pw_column_spec *sp = &in->spec;
+        /* the decanter scheme has two bottoms and no distillate: name them by their columns
+         * (A's bottoms rich in component 1) */
+        bool xd_high = sp->xd > sp->xb;
         const char *nm[3] = {"xB", "zF", "xD"};
+        if (in->decanter) {
+            nm[0] = xd_high ? "B bottoms" : "A bottoms";
+            nm[2] = xd_high ? "A bottoms" : "B bottoms";
+        }
         double tx[3] = {sp->xb, sp->zf, sp->xd};
         /* above the axis, nudged apart when two targets sit close together */
-        double last = -1e9;
+        double last = -1e9, gap = in->decanter ? 60.0 : 24.0;
         int order[3] = {0, 1, 2};
         for (int i = 0; i < 3; i++)
             for (int j = i + 1; j < 3; j++)
@@ -246,9 +253,9 @@ pw_status pw_plot_xy(pw_sbuf *b, const pw_plot_xy_in *in)
         for (int k = 0; k < 3; k++) {
             int i = order[k];
             double px = pw_frame_px(&f, tx[i]);
-            if (px < last + 24.0)
-                px = last + 24.0;
-            px = fmin(fmax(px, f.ml + 12.0), f.width - f.mr - 12.0);
+            if (px < last + gap)
+                px = last + gap;
+            px = fmin(fmax(px, f.ml + 0.5 * gap), f.width - f.mr - 0.5 * gap);
             last = px;
             pw_svg_text_px(b, px, pw_frame_py(&f, 0.0) - 8.0, "middle", 11.0, true, C_GRAPHITE,
                            nm[i], "pw-target-label");
