@@ -76,8 +76,14 @@ typedef struct pw_decanter_result {
     pw_stripper_result col[2];  /* [0]: column A (layer II -> x_rich), [1]: column B */
     double top_x1[2];           /* x_II, x_I */
     double bottoms_per_mol_feed[2]; /* B_A/F, B_B/F */
-    double closure;             /* |component balance of the decanter| at the first design row,
-                                 * per mole of feed */
+    double closure;             /* largest |component balance of the decanter| over the design
+                                 * rows (the minimum when there are none), per mole of feed */
+    /* Streams per mole of fresh feed at design row k of column i (as col[i].design[k]): the
+     * vapor V = S B its reboiler sends up, condensed into the decanter, and the layer
+     * L = V + B the decanter returns to its top stage. The decanter's layers leave as L_A + L_B
+     * = 1 + V_A + V_B (a total balance the test checks). */
+    double vapor_per_mol_feed[2][PW_COLUMN_MAX_FACTORS];
+    double layer_per_mol_feed[2][PW_COLUMN_MAX_FACTORS];
 } pw_decanter_result;
 
 /* Sizes the scheme at P for the fitted system (its curve y*(x) by pw_system_curve). Infeasible

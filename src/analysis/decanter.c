@@ -365,13 +365,28 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
     double BA = (sp->zf - sp->x_lean) / span, BB = (sp->x_rich - sp->zf) / span;
     out->bottoms_per_mol_feed[0] = BA;
     out->bottoms_per_mol_feed[1] = BB;
-    /* decanter component balance at the first design row (or the minimum) */
-    double SA = out->col[0].n_design ? out->col[0].design[0].boilup : out->col[0].boilup_min;
-    double SB = out->col[1].n_design ? out->col[1].design[0].boilup : out->col[1].boilup_min;
-    double yA = tp->x[1] - (sp->x_rich - tp->x[1]) / SA, yB = tp->x[0] + (tp->x[0] - sp->x_lean) / SB;
-    double in = sp->zf + SA * BA * yA + SB * BB * yB;
-    double outf = (SA + 1.0) * BA * tp->x[1] + (SB + 1.0) * BB * tp->x[0];
-    out->closure = fabs(in - outf);
+    /* the streams of every design row, and the decanter's component balance over them (at the
+     * minimum when there are no rows): in, the fresh feed and both condensed top vapors (each
+     * column's top vapor from its operating line at the layer); out, the two layers */
+    double B[2] = {BA, BB}, xt[2] = {tp->x[1], tp->x[0]}, xb[2] = {sp->x_rich, sp->x_lean};
+    size_t nrow = out->col[0].n_design < out->col[1].n_design ? out->col[0].n_design
+                                                              : out->col[1].n_design;
+    double worst = 0.0;
+    for (size_t k = 0; k < (nrow ? nrow : 1); k++) {
+        double in = sp->zf, outf = 0.0;
+        for (int i = 0; i < 2; i++) {
+            double S = nrow ? out->col[i].design[k].boilup : out->col[i].boilup_min;
+            double V = S * B[i], y = xt[i] + (xt[i] - xb[i]) / S;
+            if (nrow) {
+                out->vapor_per_mol_feed[i][k] = V;
+                out->layer_per_mol_feed[i][k] = V + B[i];
+            }
+            in += V * y;
+            outf += (V + B[i]) * xt[i];
+        }
+        worst = fmax(worst, fabs(in - outf));
+    }
+    out->closure = worst;
     out->feasible = true;
     return PW_OK;
 }

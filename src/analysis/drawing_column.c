@@ -123,7 +123,7 @@ static pw_status decanter(const pw_system *s, const pw_column_options *opt, pw_d
     for (int k = 0; k < 2; k++) {
         d->stairs[k].status = PW_EINVAL;
         d->stairs[k].stages = NAN;
-        d->boilup[k] = NAN;
+        d->boilup[k] = d->vapor[k] = d->layer[k] = NAN;
         d->zoom_x[k][0] = d->zoom_x[k][1] = d->zoom_y[k][0] = d->zoom_y[k][1] = NAN;
     }
     if (d->status != PW_OK || !d->res.feasible)
@@ -138,6 +138,8 @@ static pw_status decanter(const pw_system *s, const pw_column_options *opt, pw_d
         pw_stripper_spec cs = {d->res.top_x1[k], bottoms[k]};
         double S = o->factor * d->res.col[k].boilup_min;
         d->boilup[k] = S;
+        d->vapor[k] = S * d->res.bottoms_per_mol_feed[k];
+        d->layer[k] = d->vapor[k] + d->res.bottoms_per_mol_feed[k];
         d->op_x[k][0] = cs.x_top;
         d->op_y[k][0] = cs.x_top + (cs.x_top - cs.x_bottom) / S;
         d->op_x[k][1] = d->op_y[k][1] = cs.x_bottom;

@@ -114,16 +114,21 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
     return PW_OK;
 }
 
-static void print_column(const char *name, const pw_stripper_result *c, double top, double bottom)
+static void print_column(const pw_decanter_result *r, int col, double bottom)
 {
+    const char *name = col == 0 ? "A" : "B";
+    const pw_stripper_result *c = &r->col[col];
+    double top = r->top_x1[col];
     printf("\n  Column %s: top feed x1 = %.5f, bottoms x1 = %.5g\n", name, top, bottom);
     printf("    minimum boil-up V/B = %.5g (%s pinch at x1 = %.5f, y1 = %.5f)\n", c->boilup_min,
            c->tangent ? "tangent" : "top", c->x_pinch, c->y_pinch);
     printf("    stages at total boil-up: %.3f (partial reboiler counted)\n", c->n_min);
-    printf("    %-8s %-10s %-10s %s\n", "factor", "V/B", "stages", "top vapor x1");
+    printf("    %-8s %-10s %-10s %-13s %-10s %s\n", "factor", "V/B", "stages", "top vapor x1",
+           "vapor/F", "layer/F");
     for (size_t i = 0; i < c->n_design; i++)
-        printf("    %-8.2f %-10.5g %-10.3f %.5f\n", c->design[i].factor, c->design[i].boilup,
-               c->design[i].stages, c->design[i].y_top);
+        printf("    %-8.2f %-10.5g %-10.3f %-13.5f %-10.5g %.5g\n", c->design[i].factor,
+               c->design[i].boilup, c->design[i].stages, c->design[i].y_top,
+               r->vapor_per_mol_feed[col][i], r->layer_per_mol_feed[col][i]);
 }
 
 pw_status cli_decanter(int argc, char **argv)
@@ -196,10 +201,12 @@ pw_status cli_decanter(int argc, char **argv)
             char why[PW_REASON_MAX + 64];
             printf("  not feasible: %s\n", pw_units_display_text(u, r.reason, why, sizeof why));
         } else {
-            print_column("A", &r.col[0], r.top_x1[0], a.spec.x_rich);
-            print_column("B", &r.col[1], r.top_x1[1], a.spec.x_lean);
+            print_column(&r, 0, a.spec.x_rich);
+            print_column(&r, 1, a.spec.x_lean);
             printf("\n  bottoms per mole of feed: A %.6f, B %.6f (balance closes to %.1e)\n",
                    r.bottoms_per_mol_feed[0], r.bottoms_per_mol_feed[1], r.closure);
+            printf("  vapor/F: boil-up per mole of feed, condensed into the decanter; layer/F: the\n"
+                   "  decanter layer returned to the column's top, per mole of feed.\n");
             printf("  q = %g: the feed enters the decanter, so q changes the condenser duty only.\n"
                    "  The decanter is taken at the three-phase temperature; a cooled decanter has\n"
                    "  other layers (check them with pinchwise lle at its temperature).\n",

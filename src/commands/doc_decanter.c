@@ -12,15 +12,19 @@ pw_status pw_decanter_run(const pw_system *sys, const pw_decanter_spec *spec,
     return st;
 }
 
-static json_t *column_json(const pw_stripper_result *c, double top, double bottom)
+static json_t *column_json(const pw_decanter_result *r, int col, double bottom)
 {
+    const pw_stripper_result *c = &r->col[col];
+    double top = r->top_x1[col];
     json_t *d = json_array();
     for (size_t i = 0; i < c->n_design; i++)
-        json_array_append_new(d, json_pack("{s:o,s:o,s:o,s:o}", "factor",
-                                           pw_json_num(c->design[i].factor), "boilup",
-                                           pw_json_num(c->design[i].boilup), "stages",
-                                           pw_json_num(c->design[i].stages), "top_vapor_x1",
-                                           pw_json_num(c->design[i].y_top)));
+        json_array_append_new(
+            d, json_pack("{s:o,s:o,s:o,s:o,s:o,s:o}", "factor", pw_json_num(c->design[i].factor),
+                         "boilup", pw_json_num(c->design[i].boilup), "stages",
+                         pw_json_num(c->design[i].stages), "top_vapor_x1",
+                         pw_json_num(c->design[i].y_top), "vapor_per_mol_feed",
+                         pw_json_num(r->vapor_per_mol_feed[col][i]), "layer_per_mol_feed",
+                         pw_json_num(r->layer_per_mol_feed[col][i])));
     return json_pack("{s:o,s:o,s:o,s:o,s:o,s:{s:s,s:o,s:o}}", "bottoms_x1", pw_json_num(bottom),
                      "top_x1", pw_json_num(top), "boilup_min", pw_json_num(c->boilup_min), "n_min",
                      pw_json_num(c->n_min), "design", d, "pinch", "kind",
@@ -42,8 +46,8 @@ json_t *pw_decanter_doc(const pw_decanter_result *r, const pw_decanter_spec *spe
                             : json_null());
     if (r->feasible) {
         json_object_set_new(o, "columns",
-                            json_pack("[o,o]", column_json(&r->col[0], r->top_x1[0], spec->x_rich),
-                                      column_json(&r->col[1], r->top_x1[1], spec->x_lean)));
+                            json_pack("[o,o]", column_json(r, 0, spec->x_rich),
+                                      column_json(r, 1, spec->x_lean)));
         json_object_set_new(o, "bottoms_per_mol_feed",
                             json_pack("[o,o]", pw_json_num(r->bottoms_per_mol_feed[0]),
                                       pw_json_num(r->bottoms_per_mol_feed[1])));

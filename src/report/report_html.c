@@ -626,7 +626,8 @@ static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
     kv(b, "Bottoms flows", t, false);
     pw_sbuf_puts(b, "</table>\n<table><tr><th>Column</th><th>Top (layer) x\xe2\x82\x81</th>"
                     "<th>Bottoms x\xe2\x82\x81</th><th>Minimum boil-up V/B</th><th>Limit</th>"
-                    "<th>N<sub>min</sub></th><th>Drawn at V/B</th><th>Stages there</th></tr>\n");
+                    "<th>N<sub>min</sub></th><th>Drawn at V/B</th><th>Stages there</th>"
+                    "<th>Vapor per mol feed</th><th>Layer per mol feed</th></tr>\n");
     const char *nm[2] = {"A", "B"};
     const double bottoms[2] = {fmax(c->spec.xd, c->spec.xb), fmin(c->spec.xd, c->spec.xb)};
     for (int i = 0; i < 2; i++) {
@@ -643,11 +644,14 @@ static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
             num(b, d->stairs[i].stages, 3);
         else
             pw_sbuf_printf(b, "<td>not reached: %s</td>", pw_strerror(d->stairs[i].status));
+        num(b, d->vapor[i], 4);
+        num(b, d->layer[i], 4);
         pw_sbuf_puts(b, "</tr>\n");
     }
     pw_sbuf_printf(b, "</table>\n<p class=\"note\">Each column is drawn and stepped at %.2g times its "
                       "minimum boil-up (the operating factor); stages include the partial reboiler, "
-                      "with a fractional last step. See docs/heterogeneous.md for the method.</p>\n",
+                      "with a fractional last step. Vapor: the column's boil-up, condensed into the "
+                      "decanter; layer: the decanter layer returned to its top. See docs/heterogeneous.md for the method.</p>\n",
                    d->factor);
 }
 

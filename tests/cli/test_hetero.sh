@@ -112,6 +112,13 @@ for c in (A, B):
     assert all(abs(r["boilup"] - r["factor"] * c["boilup_min"]) < 1e-9 * r["boilup"] for r in c["design"]), c
 bA, bB = d["bottoms_per_mol_feed"]
 assert abs(bA + bB - 1) < 1e-12, d
+# streams per mole of feed: V = S B, L = V + B; the layers carry the feed and both vapors
+for k in range(3):
+    V = [c["design"][k]["vapor_per_mol_feed"] for c in (A, B)]
+    L = [c["design"][k]["layer_per_mol_feed"] for c in (A, B)]
+    for c, b, v, l in zip((A, B), (bA, bB), V, L):
+        assert abs(v - c["design"][k]["boilup"] * b) < 1e-12 and abs(l - v - b) < 1e-12, c
+    assert abs(sum(L) - 1 - sum(V)) < 1e-12, (L, V)
 assert abs(bA * 0.995 + bB * 0.001 - 0.2) < 1e-12, d
 PY
 # an impossible specification: exit 0, feasible false with a reason

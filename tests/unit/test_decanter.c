@@ -194,6 +194,27 @@ static void worked_case(void **state)
     double V = r.col[0].design[0].boilup * r.bottoms_per_mol_feed[0]
                + r.col[1].design[0].boilup * r.bottoms_per_mol_feed[1];
     pw_assert_close(V, 1.09116, 1e-4, 0.0, "total boil-up per mole of feed");
+    /* the streams of every row: V = S B, L = V + B, and the decanter's split of everything that
+     * enters it (fresh feed and both condensed top vapors, whose compositions are the operating
+     * lines at the layers) by the lever rule between the layers */
+    for (size_t k = 0; k < 3; k++) {
+        double in = 1.0, in1 = sp.zf, L = 0.0;
+        const double xt[2] = {r.decanter.x[1], r.decanter.x[0]}, xb[2] = {sp.x_rich, sp.x_lean};
+        for (int i = 0; i < 2; i++) {
+            double S = r.col[i].design[k].boilup, B = r.bottoms_per_mol_feed[i];
+            pw_assert_close(r.vapor_per_mol_feed[i][k], S * B, 1e-15, 0.0, "V = S B");
+            pw_assert_close(r.layer_per_mol_feed[i][k], S * B + B, 1e-15, 0.0, "L = V + B");
+            double y = xt[i] + (xt[i] - xb[i]) / S;
+            pw_assert_close(r.col[i].design[k].y_top, y, 0.0, 1e-12, "top vapor on the operating line");
+            in += S * B;
+            in1 += S * B * y;
+            L += r.layer_per_mol_feed[i][k];
+        }
+        pw_assert_close(L, in, 1e-14, 0.0, "decanter total balance");
+        double z = in1 / in;
+        double lever = (z - r.decanter.x[0]) / (r.decanter.x[1] - r.decanter.x[0]);
+        pw_assert_close(r.layer_per_mol_feed[0][k] / L, lever, 0.0, 1e-12, "lever rule");
+    }
     /* second case of METHODS2 4.5 */
     pw_decanter_spec sp2 = {.P_Pa = 101325.0, .zf = 0.1, .q = 1.0, .x_rich = 0.99, .x_lean = 0.0005};
     assert_int_equal(pw_decanter_solve(&s, &sp2, &o, &r), PW_OK);
