@@ -195,6 +195,11 @@ static void print_table(const pw_fit_result *r, const char *path, const pw_displ
                pw_units_display_P(u, r->dev_P_Pa.bias), pw_units_display_P_symbol(u),
                pw_units_display_P(u, r->dev_P_Pa.max_abs), pw_units_display_P_symbol(u),
                r->dev_P_Pa.max_line);
+    if (r->n_three_phase)
+        printf("  three-phase points: %zu, modelled as two liquids and vapor\n", r->n_three_phase);
+    if (r->n_tie_lines)
+        printf("  tie lines: %zu; layers x1 AAD %.4f (sigma_x %.3g)\n", r->n_tie_lines,
+               r->aad_x_lle, r->sigma_x_lle);
     printf("  chi2/dof %.4g, AICc %.4g\n", r->chi2_red, r->aicc);
     if (r->n_minima > 1)
         printf("  %zu distinct local minima found by the multistart (best chi2 %.4g, next %.4g)\n",

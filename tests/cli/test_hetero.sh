@@ -137,6 +137,11 @@ grep -q "x1-lean" "$TMP/err.txt" || fail "missing option not named"
 # T_ref_K stays the mean T of the VLE data
 "$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model nrtl --lle "$SRC/datasets/lle/butanol_water_25C_ties.csv" \
     --out "$TMP/bwl.json" --json > "$TMP/fitl.json" 2> "$TMP/err.txt" || fail "fit --lle: $(cat "$TMP/err.txt")"
+# the text output names the three-phase points and the tie-line misfit
+"$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model nrtl --lle "$SRC/datasets/lle/butanol_water_25C_ties.csv" \
+    --out "$TMP/bwl_text.json" > "$TMP/fitl.txt" 2> /dev/null || fail "fit --lle text"
+grep -q "three-phase points: 7" "$TMP/fitl.txt" && grep -q "tie lines: 1; layers x1 AAD" "$TMP/fitl.txt" \
+    || fail "fit text lacks the three-phase points or the tie-line misfit: $(cat "$TMP/fitl.txt")"
 python3 - "$TMP/fitl.json" "$SRC/datasets/butanol_water_1atm.csv" <<'PY' || fail "fit --lle JSON"
 import json, sys, csv
 d = json.load(open(sys.argv[1]))
