@@ -95,6 +95,8 @@ typedef struct pw_column_result {
     double alpha_top, alpha_bottom;
     pw_design_row design[PW_COLUMN_MAX_FACTORS];
     size_t n_design;
+    bool measured_split;        /* refused: the data show two liquids between the targets that
+                                 * the model cannot represent (pw_column_solve_system) */
 } pw_column_result;
 
 /* The whole analysis: feasibility, R_min with the limiting pinch (global search in both

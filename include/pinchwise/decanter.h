@@ -84,6 +84,10 @@ typedef struct pw_decanter_result {
      * = 1 + V_A + V_B (a total balance the test checks). */
     double vapor_per_mol_feed[2][PW_COLUMN_MAX_FACTORS];
     double layer_per_mol_feed[2][PW_COLUMN_MAX_FACTORS];
+    double T_lo_K, T_hi_K;      /* temperatures the scheme used, for range warnings
+                                 * (pw_fit_range_check): the three-phase temperature and, when
+                                 * feasible, the bottoms' bubble points; NAN when no three-phase
+                                 * state was found */
 } pw_decanter_result;
 
 /* Sizes the scheme at P for the fitted system (its curve y*(x) by pw_system_curve). Infeasible
@@ -105,9 +109,27 @@ pw_status pw_column_hetero_block(const pw_system *s, double P_Pa, double x_a, do
 pw_status pw_column_two_liquid_block(const pw_system *s, double P_Pa, double x_a, double x_b,
                                      pw_three_phase *tp, bool *blocked, char *reason, size_t len);
 
+/* true when the system's data show two liquids (s->measured.n > 0, filled from the fit) that
+ * its model cannot represent (pw_model_can_split false: Wilson's equation). Its one-liquid
+ * answers across the measured range are then not valid (docs/heterogeneous.md section 3). */
+bool pw_system_split_unmodelled(const pw_system *s);
+
+/* true when the closed interval between x_a and x_b (either order) meets the measured range
+ * [m->x_lo, m->x_hi]: a target inside it, or targets on both sides. false when m->n is 0. */
+bool pw_measured_split_overlaps(const pw_measured_split *m, double x_a, double x_b);
+
+/* The single column's guard for a model that cannot split: *blocked when
+ * pw_system_split_unmodelled(s) and the targets x_a, x_b overlap the measured range; reason then
+ * names the range, the measured condition, the models that can split (fit --lle) and the
+ * decanter scheme. PW_EINVAL for NULL arguments or len 0. */
+pw_status pw_column_measured_split_block(const pw_system *s, double x_a, double x_b,
+                                         bool *blocked, char *reason, size_t len);
+
 /* The single column of a fitted system at P, either direction: refused (PW_OK, feasible false,
  * reason from pw_column_two_liquid_block) for a model that splits when the targets reach into the
- * two-liquid region, else pw_column_solve_any on the system's bubble-point curve. Every command
+ * two-liquid region, and (reason from pw_column_measured_split_block, out->measured_split set)
+ * for a model that cannot split when the targets overlap the two liquids its data show; else
+ * pw_column_solve_any on the system's bubble-point curve. Every command
  * that solves the single column calls this. tp_out (may be NULL) receives the three-phase state
  * (exists false when none or the model cannot split); *hetero_az (may be NULL) is true when the
  * refusal is a heterogeneous azeotrope between the targets. */

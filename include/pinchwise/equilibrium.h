@@ -16,12 +16,25 @@
 extern "C" {
 #endif
 
+/* Two liquids that the fitted data show: the three-phase points of the data set (a run of points
+ * boiling at one temperature with one vapor, docs/heterogeneous.md section 4), whether the model
+ * represents them or not. Their overall compositions span [x_lo, x_hi]; the layers themselves lie
+ * at or beyond these ends. T_K and P_Pa: the mean measured condition of those points. n = 0 (a
+ * zeroed struct, the default): the data show none, or the system was not built from a fit. */
+typedef struct pw_measured_split {
+    size_t n;
+    double x_lo, x_hi;
+    double T_K, P_Pa;
+} pw_measured_split;
+
 typedef struct pw_system {
     pw_component comp[2];
     const pw_model_type *model;
     double params[PW_MAX_PARAMS];
     double T_ref_K; /* reference temperature of the Margules / van Laar temperature form */
     pw_vapor_model vapor; /* PW_VAPOR_IDEAL (0, the default) or PW_VAPOR_VIRIAL */
+    pw_measured_split measured; /* filled from the fit (pw_fit_measured_split); used by the
+                                 * single column's guard (pw_column_solve_system) */
 } pw_system;
 
 /* One equilibrium state. */

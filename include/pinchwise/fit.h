@@ -195,6 +195,32 @@ pw_status pw_fit_run(const pw_dataset *ds, const pw_component *c1, const pw_comp
  * current parameters (used after reading a fit file or perturbing parameters). */
 pw_status pw_fit_evaluate(pw_fit_result *r);
 
+/* The two liquids r's data show: the points flagged three_phase (modelled as such by a model
+ * that can split, or left out by one that cannot), whether excluded or not. Zeroed (n = 0) when
+ * there are none. pw_fit_evaluate stores it in r->sys.measured, so every system taken from a fit
+ * carries it. */
+pw_measured_split pw_fit_measured_split(const pw_fit_result *r);
+
+/* Temperatures a calculation used, against the validity ranges behind it: how far T_lo_K lies
+ * below and T_hi_K above each component's vapor-pressure range (0 inside; docs/thermo.md), and
+ * whether [T_lo_K, T_hi_K] leaves the fitted data's range [T_min_K, T_max_K] by more than
+ * PW_RANGE_DATA_MARGIN_K. One check for every command that renders range warnings. */
+#define PW_RANGE_DATA_MARGIN_K 1.0
+typedef struct pw_range_check {
+    double T_lo_K, T_hi_K;
+    double below_K[2], above_K[2]; /* per component, >= 0 */
+    bool outside_data;             /* false when the data range is unknown */
+    double data_T_min_K, data_T_max_K;
+} pw_range_check;
+
+/* Fills out for the range [T_lo_K, T_hi_K] (a single temperature: both equal). PW_EINVAL for
+ * NULL arguments or a range that is not finite or not ordered. */
+pw_status pw_fit_range_check(const pw_fit_result *r, double T_lo_K, double T_hi_K,
+                             pw_range_check *out);
+
+/* true when any warning applies (a component's range left, or the data range). */
+bool pw_range_check_any(const pw_range_check *c);
+
 /* How many of r->minima (sorted by chi2) fit as well as the best: chi2 within a factor
  * max(1.01, exp(2/n)) of it, i.e. delta-AICc < 2 for one model (docs/fitting.md). */
 size_t pw_fit_competing_minima(const pw_fit_result *r);

@@ -12,7 +12,8 @@
  * The split may go either way: xb < zf < xd (component 1 overhead) or xd < zf < xb (component 1
  * with the bottoms; column_direction.h). The relative volatility reported is then that of the
  * component that goes overhead to the other one (alpha21 = 1/alpha12).
- * Verdict: infeasible (a barrier), difficult (lowest alpha below alpha_difficult, or a
+ * Verdict: infeasible (a barrier, or two liquids the data show between the targets that the
+ * model cannot represent: docs/heterogeneous.md section 3), difficult (lowest alpha below alpha_difficult, or a
  * near-tangential pinch of alpha toward 1), else feasible. Thresholds and their origin are in
  * pw_screen_options and docs/screen.md. Screening only: not a design. */
 #ifndef PINCHWISE_SCREEN_H
@@ -61,7 +62,9 @@ typedef enum {
     PW_REASON_SWING_SMALL,     /* it moves, but too little */
     PW_REASON_VANISHES,        /* it leaves the composition range inside the pressure range */
     PW_REASON_TANGENT_PINCH,   /* the column's R_min is set by a tangent pinch */
-    PW_REASON_EASY             /* lowest alpha at or above the threshold */
+    PW_REASON_EASY,            /* lowest alpha at or above the threshold */
+    PW_REASON_TWO_LIQUIDS      /* the data show two liquids between xb and xd that the model
+                                * cannot represent (pw_column_measured_split_block) */
 } pw_screen_reason_code;
 
 typedef struct pw_screen_reason {
@@ -79,6 +82,9 @@ typedef struct pw_screen_result {
     pw_az_result az;               /* azeotropes at P */
     bool barrier;
     double x_barrier;              /* the azeotrope inside (xb, xd); NAN when none */
+    bool measured_split;           /* infeasible: the data show two liquids between the targets
+                                    * that the model cannot represent (its azeotropes and alpha
+                                    * there are not taken as barriers or verdicts) */
     bool scanned;                  /* the pressure scan ran */
     double P_lo_Pa, P_hi_Pa;
     double x_az_lo, x_az_hi;       /* azeotrope at P_lo and P_hi (NAN when absent) */

@@ -292,6 +292,7 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
         return PW_EINVAL;
     memset(out, 0, sizeof *out);
     out->closure = NAN;
+    out->T_lo_K = out->T_hi_K = NAN;
     for (int i = 0; i < 2; i++)
         out->bottoms_per_mol_feed[i] = out->top_x1[i] = NAN;
     if (!(sp->P_Pa > 0.0) || !isfinite(sp->P_Pa) || !(sp->zf > 0.0 && sp->zf < 1.0)
@@ -309,6 +310,8 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
     if (st != PW_OK)
         return st;
     const pw_three_phase *tp = &out->decanter;
+    if (tp->exists)
+        out->T_lo_K = out->T_hi_K = tp->T_K;
     if (!tp->exists) {
         snprintf(out->reason, sizeof out->reason,
                  "the model predicts no two-liquid region at its boiling temperatures at this "
@@ -388,5 +391,14 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
     }
     out->closure = worst;
     out->feasible = true;
+    /* the bottoms boil above the decanter (each on its single-liquid branch) */
+    const double xb[2] = {sp->x_rich, sp->x_lean};
+    for (int i = 0; i < 2; i++) {
+        pw_eq_point e;
+        if (pw_bubble_T(s, sp->P_Pa, xb[i], &e) == PW_OK) {
+            out->T_lo_K = fmin(out->T_lo_K, e.T_K);
+            out->T_hi_K = fmax(out->T_hi_K, e.T_K);
+        }
+    }
     return PW_OK;
 }

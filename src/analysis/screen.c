@@ -45,7 +45,8 @@ const char *pw_screen_reason_key(pw_screen_reason_code c)
 {
     static const char *const keys[] = {"azeotrope-barrier", "beyond-azeotrope", "low-volatility",
                                        "near-pinch",        "pressure-swing",   "shift-small",
-                                       "azeotrope-vanishes", "tangent-pinch",   "volatility-ok"};
+                                       "azeotrope-vanishes", "tangent-pinch",   "volatility-ok",
+                                       "two-liquids-unmodelled"};
     return (size_t)c < sizeof keys / sizeof keys[0] ? keys[c] : "unknown";
 }
 
@@ -249,7 +250,15 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
                    het.y1, het.T_K, het.x[0], het.x[1]);
         }
     }
-    for (size_t i = 0; !out->barrier && i < out->az.n; i++)
+    /* a model that cannot split, on data that show two liquids between the targets: its
+     * one-liquid azeotropes and volatilities there decide nothing (the single column refuses) */
+    char why[PW_REASON_MAX];
+    st = pw_column_measured_split_block(s, xb, xd, &out->measured_split, why, sizeof why);
+    if (st != PW_OK)
+        return st;
+    if (out->measured_split)
+        reason(out, PW_REASON_TWO_LIQUIDS, "%s", why);
+    for (size_t i = 0; !out->barrier && !out->measured_split && i < out->az.n; i++)
         if (out->az.az[i].x1 > lo && out->az.az[i].x1 < hi) {
             out->barrier = true;
             out->x_barrier = out->az.az[i].x1;
@@ -261,14 +270,14 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
                    xd);
             break;
         }
-    bool beyond = !out->barrier && out->alpha_min <= 1.0;
+    bool beyond = !out->barrier && !out->measured_split && out->alpha_min <= 1.0;
     if (beyond)
         reason(out, PW_REASON_BEYOND,
                "%s = %.4f <= 1 at x1 = %.4f: component %d, which should go overhead, is not the "
                "lighter one over that part of the range between xb and xd, so the target lies "
                "beyond an azeotrope (or past the pure end)",
                an, out->alpha_min, out->x_alpha_min, down ? 2 : 1);
-    bool infeasible = out->barrier || beyond;
+    bool infeasible = out->barrier || beyond || out->measured_split;
     bool touch = false;
     for (size_t i = 0; i < out->az.n_touch; i++)
         if (out->az.touch[i].x1 > lo && out->az.touch[i].x1 < hi) {

@@ -3,40 +3,82 @@
 #include "cli.h"
 
 #include <math.h>
+#include <pinchwise/decanter.h>
 
-void cli_warn_T_range(const char *cmd, const pw_fit_result *fit, double T_lo_K, double T_hi_K,
-                         const char *what, const pw_display_units *u)
+/* Renders pw_fit_range_check's findings; vapor false leaves out the vapor-pressure ranges (a
+ * calculation that uses no vapor pressure). */
+static void warn_range(const char *cmd, const pw_fit_result *fit, double T_lo_K, double T_hi_K,
+                       const char *what, const pw_display_units *u, bool vapor)
 {
-    if (!isfinite(T_lo_K) || !isfinite(T_hi_K))
+    pw_range_check rc;
+    if (pw_fit_range_check(fit, T_lo_K, T_hi_K, &rc) != PW_OK)
         return;
     char a[48], b[48], c1[48], c2[48], d[48];
-    for (int i = 0; i < 2; i++) {
+    for (int i = 0; vapor && i < 2; i++) {
         const pw_component *c = &fit->sys.comp[i];
-        double lo = pw_component_range_excess_K(c, T_lo_K);
-        double hi = pw_component_range_excess_K(c, T_hi_K);
         pw_units_display_value(u, PW_SHOW_T, ".2f", c->T_min_K, c1, sizeof c1);
         pw_units_display_value(u, PW_SHOW_T, ".2f", c->T_max_K, c2, sizeof c2);
-        if (lo < 0.0)
+        if (rc.below_K[i] > 0.0)
             cli_warnf(cmd, "%s reach %s, %s below the vapor-pressure range of %s "
                          "(%s to %s): extrapolated",
                          what, pw_units_display_value(u, PW_SHOW_T, ".2f", T_lo_K, a, sizeof a),
-                         pw_units_display_value(u, PW_SHOW_DT, ".1f", -lo, d, sizeof d), c->name,
-                         c1, c2);
-        if (hi > 0.0)
+                         pw_units_display_value(u, PW_SHOW_DT, ".1f", rc.below_K[i], d, sizeof d),
+                         c->name, c1, c2);
+        if (rc.above_K[i] > 0.0)
             cli_warnf(cmd, "%s reach %s, %s above the vapor-pressure range of %s "
                          "(%s to %s): extrapolated",
                          what, pw_units_display_value(u, PW_SHOW_T, ".2f", T_hi_K, a, sizeof a),
-                         pw_units_display_value(u, PW_SHOW_DT, ".1f", hi, d, sizeof d), c->name,
-                         c1, c2);
+                         pw_units_display_value(u, PW_SHOW_DT, ".1f", rc.above_K[i], d, sizeof d),
+                         c->name, c1, c2);
     }
-    if (isfinite(fit->T_min_K) && isfinite(fit->T_max_K) &&
-        (T_lo_K < fit->T_min_K - 1.0 || T_hi_K > fit->T_max_K + 1.0))
+    if (rc.outside_data && T_lo_K == T_hi_K)
+        cli_warnf(cmd, "%s, %s, lies outside the fitted data's %s to %s: the model parameters "
+                     "are extrapolated in temperature",
+                     what, pw_units_display_value(u, PW_SHOW_T, ".2f", T_lo_K, a, sizeof a),
+                     pw_units_display_value(u, PW_SHOW_T, ".2f", rc.data_T_min_K, c1, sizeof c1),
+                     pw_units_display_value(u, PW_SHOW_T, ".2f", rc.data_T_max_K, c2, sizeof c2));
+    else if (rc.outside_data)
         cli_warnf(cmd, "%s span %s to %s, outside the fitted data's %s to %s: the model "
                      "parameters are extrapolated in temperature",
                      what, pw_units_display_value(u, PW_SHOW_T, ".2f", T_lo_K, a, sizeof a),
                      pw_units_display_value(u, PW_SHOW_T, ".2f", T_hi_K, b, sizeof b),
-                     pw_units_display_value(u, PW_SHOW_T, ".2f", fit->T_min_K, c1, sizeof c1),
-                     pw_units_display_value(u, PW_SHOW_T, ".2f", fit->T_max_K, c2, sizeof c2));
+                     pw_units_display_value(u, PW_SHOW_T, ".2f", rc.data_T_min_K, c1, sizeof c1),
+                     pw_units_display_value(u, PW_SHOW_T, ".2f", rc.data_T_max_K, c2, sizeof c2));
+}
+
+void cli_warn_T_range(const char *cmd, const pw_fit_result *fit, double T_lo_K, double T_hi_K,
+                      const char *what, const pw_display_units *u)
+{
+    warn_range(cmd, fit, T_lo_K, T_hi_K, what, u, true);
+}
+
+void cli_warn_data_T_range(const char *cmd, const pw_fit_result *fit, double T_lo_K,
+                           double T_hi_K, const char *what, const pw_display_units *u)
+{
+    warn_range(cmd, fit, T_lo_K, T_hi_K, what, u, false);
+}
+
+void cli_warn_measured_split(const char *cmd, const pw_fit_result *fit, const pw_az_result *az,
+                             const pw_display_units *u)
+{
+    const pw_system *s = &fit->sys;
+    if (!pw_system_split_unmodelled(s))
+        return;
+    const pw_measured_split *m = &s->measured;
+    char t[48], p[48];
+    cli_warnf(cmd, "the data show two liquids between x1 = %.4g and %.4g (%zu three-phase point%s "
+                 "at %s, %s) that the %s model cannot represent (it never splits): its one-liquid "
+                 "results across that range are not valid; refit with a model that can split "
+                 "(fit --lle) and use the decanter scheme (docs/heterogeneous.md)",
+                 m->x_lo, m->x_hi, m->n, m->n == 1 ? "" : "s",
+                 pw_units_display_value(u, PW_SHOW_T, ".2f", m->T_K, t, sizeof t),
+                 pw_units_display_value(u, PW_SHOW_P, ".6g", m->P_Pa, p, sizeof p),
+                 s->model->name);
+    for (size_t i = 0; az && i < az->n; i++)
+        if (pw_measured_split_overlaps(m, az->az[i].x1, az->az[i].x1))
+            cli_warnf(cmd, "the %s azeotrope at x1 = %.4f lies in that range: a one-liquid "
+                         "answer where the data show two liquids",
+                         pw_az_kind_name(az->az[i].kind), az->az[i].x1);
 }
 
 void cli_warn_fit(const char *cmd, const pw_fit_result *fit, const pw_display_units *u)

@@ -14,6 +14,15 @@
 void cli_warn_T_range(const char *cmd, const pw_fit_result *fit, double T_lo_K, double T_hi_K,
                          const char *what, const pw_display_units *u);
 
+/* The same for a calculation that uses no vapor pressure (lle): the fitted data's range only. */
+void cli_warn_data_T_range(const char *cmd, const pw_fit_result *fit, double T_lo_K,
+                           double T_hi_K, const char *what, const pw_display_units *u);
+
+/* Warns when the fit's data show two liquids its model cannot represent
+ * (pw_system_split_unmodelled), naming the range and every azeotrope of az (may be NULL) in it. */
+void cli_warn_measured_split(const char *cmd, const pw_fit_result *fit, const pw_az_result *az,
+                             const pw_display_units *u);
+
 /* Warns when the fit did not converge or predicts a liquid-liquid split. */
 void cli_warn_fit(const char *cmd, const pw_fit_result *fit, const pw_display_units *u);
 

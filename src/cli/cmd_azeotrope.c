@@ -333,6 +333,7 @@ pw_status cli_azeotrope(int argc, char **argv)
         Thi = fmax(Thi, sc->points[k].T_hi_K);
     }
     cli_warn_fit(CMD, &fit, &a.units);
+    cli_warn_measured_split(CMD, &fit, &r, &a.units);
     cli_warn_T_range(CMD, &fit, Tlo, Thi, "the bubble temperatures used", &a.units);
     if (a.json) {
         json_t *o = pw_azeotrope_doc(&fit.sys, a.mode, a.fixed, &r, sc, &tp, tps);

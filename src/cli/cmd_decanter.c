@@ -166,6 +166,8 @@ pw_status cli_decanter(int argc, char **argv)
         return cli_fail(CMD, &err);
     }
     const pw_three_phase *tp = &r.decanter;
+    /* the decanter and the bottoms against the vapor-pressure and fitted ranges */
+    cli_warn_T_range(CMD, &fit, r.T_lo_K, r.T_hi_K, "the scheme's temperatures", &a.units);
     pw_unc_result ures;
     bool unc = a.unc.on && r.feasible;
     if (unc) {

@@ -151,6 +151,15 @@ pw_status cli_lle(int argc, char **argv)
         }
     }
     bool can = pw_model_can_split(s->model);
+    /* no vapor pressure enters the layers: the fitted data's range only */
+    double Tlo = a.T, Thi = a.T;
+    if (a.scan_text) {
+        Tlo = fmin(Tlo, fmin(a.from, a.to));
+        Thi = fmax(Thi, fmax(a.from, a.to));
+    }
+    cli_warn_data_T_range(CMD, &fit, Tlo, Thi, a.scan_text ? "the temperatures asked for"
+                                                           : "the temperature asked for", &a.units);
+    cli_warn_measured_split(CMD, &fit, NULL, &a.units);
     if (a.json) {
         json_t *doc = pw_lle_doc(s, a.T, &r, pts, a.n, crit, n_crit);
         if (doc && minimum) /* the minimum used, as azeotrope records it */

@@ -204,6 +204,7 @@ pw_status cli_screen(int argc, char **argv)
         return cli_fail(CMD, &err);
     }
     cli_warn_fit(CMD, &fit, &a.units);
+    cli_warn_measured_split(CMD, &fit, &r.az, &a.units);
     cli_warn_T_range(CMD, &fit, r.T_lo_K, r.T_hi_K, "the temperatures used", &a.units);
     /* --uncertainty: the reflux command's propagation, for the screen's rough column (q = 1). */
     cli_column_uncert u;

@@ -64,6 +64,8 @@ static pw_status evaluate(pw_fit_result *r, bool screen)
     pw_status st = r->sys.model->check(r->sys.params);
     if (st != PW_OK)
         return st;
+    /* the two liquids the data show travel with the system (the single column's guard) */
+    r->sys.measured = pw_fit_measured_split(r);
     bool isobaric = r->kind == PW_DATA_ISOBARIC;
     pw_fit_stat dy, dT, dP;
     stat_init(&dy);
@@ -76,7 +78,7 @@ static pw_status evaluate(pw_fit_result *r, bool screen)
     double T3 = 0.0;
     size_t n3 = 0;
     for (size_t i = 0; i < r->n_pts; i++)
-        if (r->pts[i].three_phase) {
+        if (r->pts[i].three_phase && !r->pts[i].excluded) { /* left out by a model that cannot split */
             T3 += r->pts[i].meas.T_K;
             n3++;
         }
@@ -88,7 +90,7 @@ static pw_status evaluate(pw_fit_result *r, bool screen)
         const pw_point *m = &fpnt->meas;
         pw_eq_point eq;
         pw_status pst;
-        if (fpnt->three_phase && tp.exists) {
+        if (fpnt->three_phase && !fpnt->excluded && tp.exists) {
             memset(&eq, 0, sizeof eq);
             eq.T_K = tp.T_K;
             eq.P_Pa = tp.P_Pa;

@@ -258,7 +258,7 @@ static void read_points(reader *rd, const json_t *data, pw_fit_result *r)
         fp->y_calc = stored_num(p, "y1_calc");
         fp->excluded = json_is_true(json_object_get(p, "excluded"));
         fp->three_phase = json_is_true(json_object_get(p, "three_phase"));
-        r->n_three_phase += fp->three_phase && !fp->excluded;
+        r->n_three_phase += fp->three_phase; /* left out too, by a model that cannot split */
         if (rd->st == PW_OK && (!(fp->meas.x1 >= 0.0 && fp->meas.x1 <= 1.0) ||
                                 !(fp->meas.T_K > 0.0) || !(fp->meas.P_Pa > 0.0)))
             fail(rd, "a data point has x1 outside [0, 1] or non-positive T or P");

@@ -271,11 +271,11 @@ pw_status fit_het_setup(const pw_dataset *ds, const pw_fit_options *o, pw_fit_re
     for (size_t i = 0; i < r->n_pts; i++) {
         if (!flags[i] || r->pts[i].excluded)
             continue;
-        if (can) {
-            r->pts[i].three_phase = true;
-        } else {
+        /* flagged either way, so the fit file records the two liquids the data show
+         * (pw_fit_measured_split) */
+        r->pts[i].three_phase = true;
+        if (!can)
             r->pts[i].excluded = true; /* a one-liquid model cannot represent them */
-        }
         r->n_three_phase++;
     }
     if (!can && r->n_three_phase) {

@@ -93,6 +93,70 @@ PY
 python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); assert d["verdict"]=="infeasible" and any("decanter" in r["text"] for r in d["reasons"]), d' \
     "$TMP/scr.json" || fail "screen does not propose the decanter scheme"
 
+# Wilson's equation on the same data (it never splits): the fit file records the seven
+# three-phase points it left out, and later commands do not answer for one liquid across them
+# (docs/heterogeneous.md, "Two liquids the model cannot represent")
+python3 - "$TMP/bw_wilson.json" <<'PY' || fail "wilson fit file does not record the three-phase points"
+import json, sys
+d = json.load(open(sys.argv[1]))
+tp = [p for p in d["data"]["points"] if p.get("three_phase")]
+assert len(tp) == 7 and all(p["excluded"] for p in tp), tp
+assert min(p["x1"] for p in tp) == 0.018 and max(p["x1"] for p in tp) == 0.448, tp
+PY
+# reflux across the measured range, either direction: refused like the heterogeneous azeotrope
+for spec in "--xd 0.99 --xb 0.001 --zf 0.2" "--xd 0.3 --xb 0.99 --zf 0.6"; do
+    "$PW" reflux "$TMP/bw_wilson.json" --pressure 1atm $spec --json > "$TMP/rfw.json" 2> "$TMP/err.txt" \
+        || fail "wilson reflux $spec exited $?: $(cat "$TMP/err.txt")"
+    python3 - "$TMP/rfw.json" <<'PY' || fail "wilson reflux across the measured two liquids ($spec)"
+import json, sys
+d = json.load(open(sys.argv[1]))
+assert d["feasible"] is False and d["r_min"] is None and d["pinch"] is None and d["n_min"] is None, d
+r = d["reason"]
+assert "two liquids between x1 = 0.018 and 0.448" in r and "wilson" in r, r
+assert "nrtl" in r and "fit --lle" in r and "decanter" in r, r
+PY
+done
+# a column on the water side, clear of the measured range, is still computed
+"$PW" reflux "$TMP/bw_wilson.json" --pressure 1atm --xd 0.015 --xb 0.001 --zf 0.005 --json \
+    > "$TMP/rfw2.json" 2> /dev/null || fail "wilson reflux clear of the range exited $?"
+python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); assert d["feasible"] is True, d' \
+    "$TMP/rfw2.json" || fail "wilson reflux clear of the measured range refused"
+# screen: not feasible, with its own reason; a warning on stderr
+"$PW" screen "$TMP/bw_wilson.json" --pressure 1atm --xd 0.3 --xb 0.99 --json > "$TMP/scrw.json" \
+    2> "$TMP/err.txt" || fail "wilson screen exited $?"
+python3 - "$TMP/scrw.json" <<'PY' || fail "wilson screen across the measured two liquids"
+import json, sys
+d = json.load(open(sys.argv[1]))
+assert d["verdict"] == "infeasible", d
+keys = [r["key"] for r in d["reasons"]]
+assert "two-liquids-unmodelled" in keys and "volatility-ok" not in keys, keys
+PY
+grep -q "data show two liquids between x1 = 0.018 and 0.448" "$TMP/err.txt" \
+    || fail "wilson screen: no warning: $(cat "$TMP/err.txt")"
+# azeotrope: the JSON keeps its keys; stderr warns and names the one-liquid azeotrope in the range
+"$PW" azeotrope "$TMP/bw_wilson.json" --pressure 1atm --json > "$TMP/azw.json" 2> "$TMP/err.txt" \
+    || fail "wilson azeotrope exited $?"
+python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); assert all(a["heterogeneous"] is False for a in d["azeotropes"]), d' \
+    "$TMP/azw.json" || fail "wilson azeotrope JSON"
+grep -q "wilson model cannot represent" "$TMP/err.txt" && grep -q "azeotrope at x1 = .* lies in that range" "$TMP/err.txt" \
+    || fail "wilson azeotrope: no warning: $(cat "$TMP/err.txt")"
+# the NRTL fit represents the split itself: no such warning
+"$PW" azeotrope "$TMP/bw.json" --pressure 1atm > /dev/null 2> "$TMP/err.txt" || fail "nrtl azeotrope text"
+grep -q "cannot represent" "$TMP/err.txt" && fail "nrtl azeotrope warned: $(cat "$TMP/err.txt")"
+
+# range warnings on decanter and lle, computed as azeotrope's (pw_fit_range_check): at 5 MPa the
+# three-phase temperature lies far above 1-butanol's vapor-pressure range and the data's
+"$PW" decanter "$TMP/bw.json" --pressure 5MPa --zf 0.2 --x1-rich 0.995 --x1-lean 0.001 --json \
+    > /dev/null 2> "$TMP/err.txt" || fail "decanter at 5 MPa exited $?"
+grep -q "above the vapor-pressure range of 1-butanol" "$TMP/err.txt" \
+    && grep -q "outside the fitted data's" "$TMP/err.txt" \
+    || fail "decanter at 5 MPa: no range warning: $(cat "$TMP/err.txt")"
+"$PW" lle "$TMP/bw.json" --temperature 25C --json > /dev/null 2> "$TMP/err.txt" || fail "lle at 25 C"
+grep -q "outside the fitted data's" "$TMP/err.txt" || fail "lle at 25 C: no range warning"
+grep -q "vapor-pressure" "$TMP/err.txt" && fail "lle warned about vapor pressures, which it does not use"
+"$PW" lle "$TMP/bw.json" --temperature 92C --json > /dev/null 2> "$TMP/err.txt" || fail "lle at 92 C"
+[ ! -s "$TMP/err.txt" ] || fail "lle inside the fitted range warned: $(cat "$TMP/err.txt")"
+
 # decanter: CONTRACT keys, mass balance, rows at 1.2/1.3/1.5
 "$PW" decanter "$TMP/bw.json" --pressure 1atm --zf 0.2 --x1-rich 0.995 --x1-lean 0.001 --json \
     > "$TMP/dec.json" 2> "$TMP/err.txt" || fail "decanter exited $?: $(cat "$TMP/err.txt")"
