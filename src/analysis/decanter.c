@@ -392,7 +392,6 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
     out->closure = worst;
     out->feasible = true;
     /* the bottoms boil above the decanter (each on its single-liquid branch) */
-    const double xb[2] = {sp->x_rich, sp->x_lean};
     for (int i = 0; i < 2; i++) {
         pw_eq_point e;
         if (pw_bubble_T(s, sp->P_Pa, xb[i], &e) == PW_OK) {
