@@ -88,8 +88,8 @@ void cli_warn_fit(const char *cmd, const pw_fit_result *fit, const pw_display_un
     cli_warn_vapor_association(cmd, &fit->sys);
     char t[48];
     if (fit->split)
-        cli_warnf(cmd, "the fitted model predicts a liquid-liquid split (x1 = %.3f at %s); "
-                     "homogeneous results may be wrong there",
+        cli_warnf(cmd, "the fitted model predicts two liquid phases (least stable liquid at "
+                     "x1 = %.3f, %s; the layers: pinchwise lle)",
                      fit->split_x,
                      pw_units_display_value(u, PW_SHOW_T, ".1f", fit->split_T_K, t, sizeof t));
 }

@@ -213,7 +213,8 @@ void cli_column_warn(const cli_column_run *run)
         cli_warnf("reflux", "%s: the fit did not converge; do not design with it", r->dataset_path);
     cli_warn_vapor_association("reflux", &r->sys);
     if (r->split)
-        cli_warnf("reflux", "the fitted model predicts a liquid-liquid split (x1 = %.3f at %s)",
+        cli_warnf("reflux", "the fitted model predicts two liquid phases (least stable liquid at "
+                            "x1 = %.3f, %s; the layers: pinchwise lle)",
                      r->split_x,
                      pw_units_display_value(u, PW_SHOW_T, ".1f", r->split_T_K, b[0], 48));
     if (run->energy ? run->energy_res.feasible && run->energy_res.pinch.kind == PW_PINCH_TANGENT
