@@ -6,6 +6,7 @@
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/lle.h>
 
+#include <float.h>
 #include <math.h>
 #include <string.h>
 
@@ -20,12 +21,16 @@
 /* A change of G across the final bracket above this is a jump, not a crossing of zero. */
 #define HET_JUMP 1e-4
 
-/* G from a three-phase state (false: no state, G = -1). */
+/* G from a three-phase state (no state: G = -1). An exact zero (the vapor on a layer, not
+ * between them: not heterogeneous) is handed to Brent as the smallest negative number, so that
+ * the sign is the label everywhere and Brent goes on to the stated width instead of stopping
+ * at the zero with a wider bracket of labels. */
 static double het_G(const pw_three_phase *tp)
 {
     if (!tp->exists)
         return -1.0;
-    return fmin(tp->y1 - tp->x[0], tp->x[1] - tp->y1);
+    double G = fmin(tp->y1 - tp->x[0], tp->x[1] - tp->y1);
+    return G > 0.0 ? G : fmin(G, -DBL_MIN);
 }
 
 typedef struct het_eval {
@@ -100,11 +105,8 @@ static pw_status locate_het(const pw_system *s, pw_az_scan *sc, const pw_three_p
         return PW_OK;
     pw_az_boundary *bd = &sc->boundaries[sc->n_boundaries++];
     memset(bd, 0, sizeof *bd);
-    bd->at = root;
-    /* a root outside the pair (an exact zero of G met at an end) is moved into it */
     double lo = fmin(h->v, nh->v), hi = fmax(h->v, nh->v);
-    if (!(root >= lo && root <= hi))
-        bd->at = h->G > 0.0 && nh->G == 0.0 ? nh->v : 0.5 * (lo + hi);
+    bd->at = root >= lo && root <= hi ? root : 0.5 * (lo + hi);
     bd->bracket[0] = lo;
     bd->bracket[1] = hi;
     bd->end = -1;
