@@ -104,6 +104,8 @@ typedef enum {
     PW_AZ_BOUNDARY_LINE_JUMPS = 3,     /* a three-phase state on both sides, but the distance of
                                         * the vapor from the layers jumps: the search lands on
                                         * another three-phase line */
+    PW_AZ_BOUNDARY_NOT_LOCATED = 4,    /* the labels differ across bracket[] but the three-phase
+                                        * search failed inside it (`status` says why): at is NAN */
 } pw_az_boundary_kind;
 
 /* Where an azeotrope enters or leaves the composition range inside a scan (kind
@@ -125,6 +127,7 @@ typedef struct pw_az_boundary {
                            * in component 1 (x_I), 1 the richer (x_II); -1 otherwise */
     double x_layers[2];   /* the layers and the vapor of the three-phase state at the bracket */
     double y3;            /* end on the heterogeneous side */
+    pw_status status;     /* PW_OK, or for PW_AZ_BOUNDARY_NOT_LOCATED the search's failure */
 } pw_az_boundary;
 
 /* A scan over the other variable: over pressure for PW_AZ_ISOBARIC, over temperature for

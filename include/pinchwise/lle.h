@@ -179,10 +179,13 @@ pw_status pw_azeotrope_search(const pw_system *s, int mode, double fixed, struct
  * GSL Brent on G to a bracket of relative width 1e-9 in P (or T) and appended to
  * scan->boundaries with kind PW_AZ_BOUNDARY_VAPOR_AT_LAYER (G crosses zero continuously: y3
  * reaches a layer), PW_AZ_BOUNDARY_LINE_ENDS (no three-phase state on the homogeneous side: the
- * layers merge, or the line ends) or PW_AZ_BOUNDARY_LINE_JUMPS. Brent keeps a change of sign
- * inside its bracket, so a change of label between two points is always located; two changes
- * inside one interval whose ends carry the same label are not looked for. Errors: PW_EINVAL,
- * the three-phase search's status. */
+ * layers merge, or the line ends) or PW_AZ_BOUNDARY_LINE_JUMPS (an exact zero of G counts as
+ * not heterogeneous). Brent keeps a change of sign inside its bracket, so a change of label
+ * between two points is always located; two changes inside one interval whose ends carry the
+ * same label are not looked for. When the three-phase search fails inside an interval the change
+ * is still appended, as PW_AZ_BOUNDARY_NOT_LOCATED with the narrowest bracket evaluated and the
+ * failure in `status`. Errors: PW_EINVAL, PW_ENOMEM, the three-phase search's status at a scan
+ * point. */
 struct pw_az_scan;
 pw_status pw_azeotrope_scan_heterogeneous(const pw_system *s, struct pw_az_scan *scan,
                                           pw_three_phase *tps);

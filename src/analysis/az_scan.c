@@ -82,6 +82,7 @@ static pw_status add_boundary(const pw_system *s, pw_az_mode mode, pw_az_scan *s
     b->at = v;
     b->end = end;
     b->kind = PW_AZ_BOUNDARY_PURE_END;
+    b->status = PW_OK;
     b->bracket[0] = b->bracket[1] = b->x_layers[0] = b->x_layers[1] = b->y3 = NAN;
     b->layer = -1;
     double f;

@@ -85,9 +85,9 @@ static pw_status locate_het(const pw_system *s, pw_az_scan *sc, const pw_three_p
     so.xtol_abs = 0.0;
     so.xtol_rel = HET_XTOL_REL;
     so.max_iter = HET_MAX_ITER;
-    double root;
+    double root = NAN;
     pw_status st = pw_root1d(het_fn, c, a, b, fa, fb, &so, &root, NULL);
-    if (st != PW_OK)
+    if (st == PW_ENOMEM || st == PW_EINVAL)
         return st;
     /* The narrowest pair of evaluated values with different labels (G > 0 and G <= 0): a change
      * of label lies between them whatever G does in between. Brent's own bracket is such a pair. */
@@ -109,6 +109,7 @@ static pw_status locate_het(const pw_system *s, pw_az_scan *sc, const pw_three_p
     bd->at = root >= lo && root <= hi ? root : 0.5 * (lo + hi);
     bd->bracket[0] = lo;
     bd->bracket[1] = hi;
+    bd->status = st;
     bd->end = -1;
     bd->present_above = h->v > nh->v;
     bd->T_K = h->tp.T_K;
@@ -117,7 +118,11 @@ static pw_status locate_het(const pw_system *s, pw_az_scan *sc, const pw_three_p
     bd->x_layers[1] = h->tp.x[1];
     bd->y3 = h->tp.y1;
     bd->layer = -1;
-    if (!nh->tp.exists) {
+    if (st != PW_OK) {
+        /* the change lies in [lo, hi] (its ends were evaluated), but not located further */
+        bd->kind = PW_AZ_BOUNDARY_NOT_LOCATED;
+        bd->at = NAN;
+    } else if (!nh->tp.exists) {
         bd->kind = PW_AZ_BOUNDARY_LINE_ENDS;
     } else if (fabs(h->G - nh->G) > HET_JUMP) {
         bd->kind = PW_AZ_BOUNDARY_LINE_JUMPS;

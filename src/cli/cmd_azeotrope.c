@@ -253,6 +253,18 @@ static void print_text(const pw_fit_result *fit, const args *a, const pw_az_resu
                        isP ? "P" : "T", b1, b->present_above ? "above" : "below");
                 continue;
             }
+            if (b->kind == PW_AZ_BOUNDARY_NOT_LOCATED) {
+                printf("  the azeotrope is heterogeneous %s and not %s a value of %s between ",
+                       b->present_above ? "above" : "below", b->present_above ? "below" : "above",
+                       isP ? "P" : "T");
+                printf("%s and ", pw_units_display_value(u, isP ? PW_SHOW_P : PW_SHOW_T, ".8g",
+                                                         b->bracket[0], b2, sizeof b2));
+                printf("%s, not located further: the three-phase search failed there (%s)\n",
+                       pw_units_display_value(u, isP ? PW_SHOW_P : PW_SHOW_T, ".8g",
+                                              b->bracket[1], b2, sizeof b2),
+                       pw_strerror(b->status));
+                continue;
+            }
             printf("  the azeotrope is heterogeneous %s %s = %s and not %s (",
                    b->present_above ? "above" : "below", isP ? "P" : "T", b1,
                    b->present_above ? "below" : "above");

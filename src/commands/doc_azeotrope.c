@@ -86,7 +86,8 @@ static json_t *scan_json(const pw_az_scan *sc, const pw_three_phase *tps)
         }
         const char *kind = b->kind == PW_AZ_BOUNDARY_VAPOR_AT_LAYER ? "vapor-at-layer"
                            : b->kind == PW_AZ_BOUNDARY_LINE_ENDS    ? "three-phase-line-ends"
-                                                                    : "three-phase-line-jumps";
+                           : b->kind == PW_AZ_BOUNDARY_LINE_JUMPS   ? "three-phase-line-jumps"
+                                                                    : "not-located";
         json_array_append_new(
             het, json_pack("{s:o,s:s,s:[o,o],s:o,s:o,s:o,s:[o,o],s:o,s:s}",
                            isP ? "P_kPa" : "T_K", pw_json_num(b->at * scale), "kind", kind,
@@ -97,6 +98,8 @@ static json_t *scan_json(const pw_az_scan *sc, const pw_three_phase *tps)
                            "x1_liquids", pw_json_num(b->x_layers[0]),
                            pw_json_num(b->x_layers[1]), "y1", pw_json_num(b->y3),
                            "heterogeneous", b->present_above ? "above" : "below"));
+        json_object_set_new(json_array_get(het, json_array_size(het) - 1), "error",
+                            b->status == PW_OK ? json_null() : json_string(pw_strerror(b->status)));
     }
     json_object_set_new(o, "points", pts);
     json_object_set_new(o, "boundaries", bnd);

@@ -21,7 +21,9 @@
  *    and the labels here just outside the reported bracket differ;
  *  - seeded random asymmetric Margules cases (no closed form): the located value satisfies the
  *    event equation y3 = x_layer on the library's own three-phase state there, and the labels at
- *    the reported bracket's ends differ.
+ *    the reported bracket's ends differ;
+ *  - a model whose evaluation fails inside the interval holding the change: the change is
+ *    reported as not located, in a bracket that holds T* (above), and the scan succeeds.
  * The vapor-pressure constants and parameters are model cases, not data. */
 #include "pw_test.h"
 
@@ -457,6 +459,40 @@ static void random_asymmetric(void **state)
     assert_true(n_changes >= 8);
 }
 
+/* Margules whose evaluation fails between 381 and 383 K (a stand-in for any failure of the
+ * three-phase search inside an interval): a test model. */
+static pw_status gap_eval(const double *p, double T_ref_K, double x1, double T_K, pw_activity *out)
+{
+    if (T_K > 381.0 && T_K < 383.0)
+        return PW_EDOM;
+    return pw_model_margules.eval(p, T_ref_K, x1, T_K, out);
+}
+
+/* A failure inside the interval: the change is still reported, in the narrowest bracket of
+ * evaluations with different labels, as not located, and the scan itself succeeds. */
+static void failure_inside_interval(void **state)
+{
+    (void)state;
+    sym m = make_sym(8.0 / 3.0, 300.0, 12.213, 3224.1, 15.0, 4000.0);
+    pw_model_type gap = pw_model_margules;
+    gap.eval = gap_eval;
+    m.s.model = &gap;
+    g_ctx gc = {&m, false, 0.0};
+    double Tstar = brent(g_fn, &gc, 300.0, 399.999, 1e-12, 0.0); /* 381.99 K */
+    pw_three_phase *tps;
+    pw_az_scan *sc = run_scan(&m.s, PW_AZ_ISOTHERMAL, 300.0, 420.0, 7, &tps);
+    assert_int_equal(n_het(sc), 1);
+    const pw_az_boundary *b = first_het(sc);
+    assert_int_equal(b->kind, PW_AZ_BOUNDARY_NOT_LOCATED);
+    assert_int_not_equal(b->status, PW_OK);
+    assert_true(isnan(b->at));
+    assert_true(b->bracket[0] >= 380.0 && b->bracket[1] <= 400.0);
+    assert_true(b->bracket[0] < Tstar && Tstar < b->bracket[1]);
+    assert_false(b->present_above);
+    free(tps);
+    pw_az_scan_free(sc);
+}
+
 static void bad_arguments(void **state)
 {
     (void)state;
@@ -477,6 +513,7 @@ int main(void)
         cmocka_unit_test(vapor_meets_layer),
         cmocka_unit_test(random_symmetric),
         cmocka_unit_test(random_asymmetric),
+        cmocka_unit_test(failure_inside_interval),
         cmocka_unit_test(bad_arguments),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
