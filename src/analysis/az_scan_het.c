@@ -16,8 +16,8 @@
  * at fixed P is solved to 1e-10 relative, so G is known far below what this width moves it. */
 #define HET_XTOL_REL 1e-9
 #define HET_MAX_ITER 200u
-/* Evaluations kept for the final bracket (Brent stops well before: 2 per halving at worst). */
-#define HET_MAX_EVALS (2 * HET_MAX_ITER + 8)
+/* Evaluations kept for the final bracket: the two ends and one per Brent step. */
+#define HET_MAX_EVALS (HET_MAX_ITER + 8)
 /* A change of G across the final bracket above this is a jump, not a crossing of zero. */
 #define HET_JUMP 1e-4
 
@@ -147,7 +147,7 @@ pw_status pw_azeotrope_scan_heterogeneous(const pw_system *s, pw_az_scan *scan,
         if (st != PW_OK)
             return st;
     }
-    het_ctx c; /* ~100 kB of kept evaluations: on the stack of this call only */
+    het_ctx c; /* about 25 kB of kept evaluations, on the stack of this call only */
     for (size_t k = 0; k + 1 < n; k++) {
         bool h0 = het_G(&tps[k]) > 0.0, h1 = het_G(&tps[k + 1]) > 0.0;
         if (h0 == h1)
