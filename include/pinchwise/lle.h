@@ -169,8 +169,9 @@ pw_status pw_azeotrope_heterogeneous(const pw_system *s, int mode, double fixed,
 pw_status pw_azeotrope_search(const pw_system *s, int mode, double fixed, struct pw_az_result *r,
                               pw_three_phase *tp, size_t *n_removed, bool *het_failed);
 
-/* The points of a scan (pw_azeotrope_scan, done first) against the two-liquid region, and where
- * the heterogeneous azeotrope turns homogeneous or the reverse. At every point
+/* The points of a scan (pw_azeotrope_scan, done first; call this once after it) against the
+ * two-liquid region, and where the heterogeneous azeotrope turns homogeneous or the reverse.
+ * At every point
  * pw_azeotrope_heterogeneous is run (tps[k], n_points entries owned by the caller, receives the
  * three-phase state; artefact crossings are dropped from scan->points[k]). A point is labelled
  * heterogeneous when tps[k] exists with x_I < y3 < x_II, i.e. when
