@@ -87,13 +87,47 @@ pw_status pw_azeotrope_find(const pw_system *s, pw_az_mode mode, double fixed,
 pw_status pw_azeotrope_ln_alpha(const pw_system *s, pw_az_mode mode, double fixed, double x1,
                                 double *ln_alpha, pw_eq_point *bubble);
 
-/* Where an azeotrope enters or leaves the composition range inside a scan: the pressure (or
- * temperature) at which ln alpha12 at the end x1 = end crosses zero. */
+/* What happens at a boundary of a scan. PW_AZ_BOUNDARY_PURE_END is found by pw_azeotrope_scan;
+ * the others by pw_azeotrope_scan_heterogeneous (include/pinchwise/lle.h), where the label
+ * "heterogeneous azeotrope" (a three-phase state with its vapor strictly between the layers)
+ * differs between two neighbouring scan points. */
+typedef enum {
+    PW_AZ_BOUNDARY_PURE_END = 0,       /* ln alpha12 at the pure end `end` crosses zero: an
+                                        * azeotrope enters or leaves the composition range */
+    PW_AZ_BOUNDARY_VAPOR_AT_LAYER = 1, /* the three-phase vapor reaches layer `layer` (y3 = x_I
+                                        * or y3 = x_II): on the far side the three-phase line is
+                                        * a heterogeneous non-azeotrope (an azeotrope there is
+                                        * homogeneous, outside the layers) */
+    PW_AZ_BOUNDARY_LINE_ENDS = 2,      /* the three-phase line ends with the vapor still between
+                                        * the layers (the layers merge at a critical point, or
+                                        * no three-phase state is found beyond) */
+    PW_AZ_BOUNDARY_LINE_JUMPS = 3,     /* a three-phase state on both sides, but the distance of
+                                        * the vapor from the layers jumps: the search lands on
+                                        * another three-phase line */
+    PW_AZ_BOUNDARY_NOT_LOCATED = 4,    /* the labels differ across bracket[] but the three-phase
+                                        * search failed inside it (`status` says why): at is NAN */
+} pw_az_boundary_kind;
+
+/* Where an azeotrope enters or leaves the composition range inside a scan (kind
+ * PW_AZ_BOUNDARY_PURE_END: the pressure, or temperature, at which ln alpha12 at the end
+ * x1 = end crosses zero), or where a heterogeneous azeotrope turns homogeneous or the reverse
+ * (the other kinds). */
 typedef struct pw_az_boundary {
     double at;            /* P in Pa (scan over pressure) or T in K (scan over temperature) */
-    int end;              /* 0 or 1: the pure end the azeotrope reaches */
-    double T_K, P_Pa;     /* the pure component's boiling point there */
-    bool present_above;   /* an azeotrope near that end exists just above `at` */
+    int end;              /* 0 or 1: the pure end the azeotrope reaches; -1 for the other kinds */
+    double T_K, P_Pa;     /* the pure component's boiling point there; for the other kinds the
+                           * three-phase condition at bracket[] end on the heterogeneous side */
+    bool present_above;   /* an azeotrope near that end exists just above `at`; for the other
+                           * kinds: the azeotrope is heterogeneous just above `at` */
+    pw_az_boundary_kind kind;
+    /* Only for the kinds other than PW_AZ_BOUNDARY_PURE_END (NAN or -1 otherwise): */
+    double bracket[2];    /* the narrowest pair of values evaluated with different labels,
+                           * lower first: a change of label lies between them */
+    int layer;            /* PW_AZ_BOUNDARY_VAPOR_AT_LAYER: 0 when y3 reaches the layer poorer
+                           * in component 1 (x_I), 1 the richer (x_II); -1 otherwise */
+    double x_layers[2];   /* the layers and the vapor of the three-phase state at the bracket */
+    double y3;            /* end on the heterogeneous side */
+    pw_status status;     /* PW_OK, or for PW_AZ_BOUNDARY_NOT_LOCATED the search's failure */
 } pw_az_boundary;
 
 /* A scan over the other variable: over pressure for PW_AZ_ISOBARIC, over temperature for
@@ -115,7 +149,8 @@ typedef struct pw_az_scan {
     void *progress_ctx;
 } pw_az_scan;
 
-/* Allocates a scan of n_points (>= 2) with room for 2*n_points boundaries; NULL on failure. */
+/* Allocates a scan of n_points (>= 2) with room for 3*n_points boundaries (two pure ends and one
+ * change of the heterogeneous label per interval); NULL on failure. */
 pw_az_scan *pw_az_scan_alloc(size_t n_points);
 /* Frees a scan; accepts NULL. */
 void pw_az_scan_free(pw_az_scan *scan);

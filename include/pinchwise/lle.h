@@ -169,6 +169,28 @@ pw_status pw_azeotrope_heterogeneous(const pw_system *s, int mode, double fixed,
 pw_status pw_azeotrope_search(const pw_system *s, int mode, double fixed, struct pw_az_result *r,
                               pw_three_phase *tp, size_t *n_removed, bool *het_failed);
 
+/* The points of a scan (pw_azeotrope_scan, done first; call this once after it) against the
+ * two-liquid region, and where the heterogeneous azeotrope turns homogeneous or the reverse.
+ * At every point
+ * pw_azeotrope_heterogeneous is run (tps[k], n_points entries owned by the caller, receives the
+ * three-phase state; artefact crossings are dropped from scan->points[k]). A point is labelled
+ * heterogeneous when tps[k] exists with x_I < y3 < x_II, i.e. when
+ *     G(v) = min(y3 - x_I, x_II - y3)   (three-phase state at v;  G = -1 where there is none)
+ * is > 0. Between every two neighbouring points whose labels differ, the change is located by
+ * GSL Brent on G to a bracket of relative width 1e-9 in P (or T) and appended to
+ * scan->boundaries with kind PW_AZ_BOUNDARY_VAPOR_AT_LAYER (G crosses zero continuously: y3
+ * reaches a layer), PW_AZ_BOUNDARY_LINE_ENDS (no three-phase state on the homogeneous side: the
+ * layers merge, or the line ends) or PW_AZ_BOUNDARY_LINE_JUMPS (an exact zero of G counts as
+ * not heterogeneous). Brent keeps a change of sign inside its bracket, so a change of label
+ * between two points is always located; two changes inside one interval whose ends carry the
+ * same label are not looked for. When the three-phase search fails inside an interval the change
+ * is still appended, as PW_AZ_BOUNDARY_NOT_LOCATED with the narrowest bracket evaluated and the
+ * failure in `status`. Errors: PW_EINVAL, PW_ENOMEM, the three-phase search's status at a scan
+ * point. */
+struct pw_az_scan;
+pw_status pw_azeotrope_scan_heterogeneous(const pw_system *s, struct pw_az_scan *scan,
+                                          pw_three_phase *tps);
+
 #ifdef __cplusplus
 }
 #endif

@@ -17,7 +17,7 @@ pw_az_scan *pw_az_scan_alloc(size_t n_points)
     if (!sc)
         return NULL;
     sc->n_points = n_points;
-    sc->max_boundaries = 2 * n_points;
+    sc->max_boundaries = 3 * n_points;
     sc->at = calloc(n_points, sizeof *sc->at);
     sc->points = calloc(n_points, sizeof *sc->points);
     sc->boundaries = calloc(sc->max_boundaries, sizeof *sc->boundaries);
@@ -81,6 +81,10 @@ static pw_status add_boundary(const pw_system *s, pw_az_mode mode, pw_az_scan *s
     pw_az_boundary *b = &sc->boundaries[sc->n_boundaries++];
     b->at = v;
     b->end = end;
+    b->kind = PW_AZ_BOUNDARY_PURE_END;
+    b->status = PW_OK;
+    b->bracket[0] = b->bracket[1] = b->x_layers[0] = b->x_layers[1] = b->y3 = NAN;
+    b->layer = -1;
     double f;
     st = pw_az_end_ln_alpha(s, mode, v, end, &f, &b->T_K, &b->P_Pa);
     if (st != PW_OK)

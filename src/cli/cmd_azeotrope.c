@@ -23,7 +23,8 @@ static const cli_option azeo_options[] = {
     {.name = "--sweep", .alias = "--scan", .kind = CLI_STRING, .metavar = "FROM:TO[:N]",
      .help = "also solve at N values (default 12) from FROM to TO (pressures\n"
              "when the condition is a pressure, geometric; temperatures,\n"
-             "linear) and report where the azeotrope reaches a pure end"},
+             "linear) and report where the azeotrope reaches a pure end\n"
+             "and where it turns from heterogeneous to homogeneous"},
     CLI_END,
 };
 
@@ -244,11 +245,54 @@ static void print_text(const pw_fit_result *fit, const args *a, const pw_az_resu
         }
         for (size_t k = 0; k < sc->n_boundaries; k++) {
             const pw_az_boundary *b = &sc->boundaries[k];
-            printf("  the azeotrope reaches x1 = %d at %s = %s; it exists %s that\n", b->end,
-                   isP ? "P" : "T",
-                   pw_units_display_value(u, isP ? PW_SHOW_P : PW_SHOW_T, ".5g", b->at, b1,
-                                          sizeof b1),
-                   b->present_above ? "above" : "below");
+            pw_units_display_value(u, isP ? PW_SHOW_P : PW_SHOW_T, ".8g", b->at, b1, sizeof b1);
+            if (b->kind == PW_AZ_BOUNDARY_PURE_END) {
+                pw_units_display_value(u, isP ? PW_SHOW_P : PW_SHOW_T, ".5g", b->at, b1,
+                                       sizeof b1);
+                printf("  the azeotrope reaches x1 = %d at %s = %s; it exists %s that\n", b->end,
+                       isP ? "P" : "T", b1, b->present_above ? "above" : "below");
+                continue;
+            }
+            if (b->kind == PW_AZ_BOUNDARY_NOT_LOCATED) {
+                printf("  the azeotrope is heterogeneous %s and not %s a value of %s between ",
+                       b->present_above ? "above" : "below", b->present_above ? "below" : "above",
+                       isP ? "P" : "T");
+                printf("%s and ", pw_units_display_value(u, isP ? PW_SHOW_P : PW_SHOW_T, ".8g",
+                                                         b->bracket[0], b2, sizeof b2));
+                printf("%s, not located further: the three-phase search failed there (%s)\n",
+                       pw_units_display_value(u, isP ? PW_SHOW_P : PW_SHOW_T, ".8g",
+                                              b->bracket[1], b2, sizeof b2),
+                       pw_strerror(b->status));
+                continue;
+            }
+            printf("  the azeotrope is heterogeneous %s %s = %s and not %s (",
+                   b->present_above ? "above" : "below", isP ? "P" : "T", b1,
+                   b->present_above ? "below" : "above");
+            if (isP)
+                printf("T = %s there)",
+                       pw_units_display_value(u, PW_SHOW_T, ".3f", b->T_K, b2, sizeof b2));
+            else
+                printf("P = %s there)",
+                       pw_units_display_value(u, PW_SHOW_P, ".6g", b->P_Pa, b2, sizeof b2));
+            if (b->kind == PW_AZ_BOUNDARY_VAPOR_AT_LAYER)
+                printf(":\n    the three-phase vapor reaches the layer %s in %s (y1 = x1 = %.6f, "
+                       "other layer %.6f); beyond it an azeotrope is homogeneous\n",
+                       b->layer == 0 ? "poorer" : "richer", s->comp[0].name, b->y3,
+                       b->x_layers[b->layer == 0 ? 1 : 0]);
+            else if (b->kind == PW_AZ_BOUNDARY_LINE_ENDS)
+                printf(":\n    the three-phase line ends with the vapor between the layers "
+                       "(y1 = %.6f, layers %.6f and %.6f): they merge, or no three-phase state "
+                       "is found beyond\n",
+                       b->y3, b->x_layers[0], b->x_layers[1]);
+            else
+                printf(":\n    the three-phase state jumps to another line (y1 = %.6f, layers "
+                       "%.6f and %.6f on the heterogeneous side)\n",
+                       b->y3, b->x_layers[0], b->x_layers[1]);
+            double half = 0.5 * (b->bracket[1] - b->bracket[0]);
+            printf("    located to +/- %.2g %s\n",
+                   isP ? pw_units_display_P(u, half) - pw_units_display_P(u, 0.0)
+                       : pw_units_display_T(u, half) - pw_units_display_T(u, 0.0),
+                   isP ? pw_units_display_P_symbol(u) : pw_units_display_T_symbol(u));
         }
         if (isfinite(sc->x1_shift))
             printf("  the azeotrope moves by %.4f in x1 over the scan (pressure swing is worth a look "
@@ -314,10 +358,7 @@ pw_status cli_azeotrope(int argc, char **argv)
             return cli_fail(CMD, &err);
         }
         tps = calloc(a.n, sizeof *tps);
-        st = tps ? PW_OK : PW_ENOMEM;
-        for (size_t k = 0; st == PW_OK && k < a.n; k++)
-            st = pw_azeotrope_heterogeneous(&fit.sys, (int)a.mode, sc->at[k], &sc->points[k],
-                                            &tps[k], NULL);
+        st = tps ? pw_azeotrope_scan_heterogeneous(&fit.sys, sc, tps) : PW_ENOMEM;
         if (st != PW_OK) {
             pw_error_set(&err, st, a.fit_path, 0, "three-phase search in the scan failed: %s",
                          pw_strerror(st));

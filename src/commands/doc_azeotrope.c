@@ -72,16 +72,38 @@ static json_t *scan_json(const pw_az_scan *sc, const pw_three_phase *tps)
         json_object_set_new(p, "azeotropes", result_json(&sc->points[k], tps ? &tps[k] : NULL));
         json_array_append_new(pts, p);
     }
+    json_t *het = json_array();
+    const double scale = isP ? 1e-3 : 1.0;
     for (size_t k = 0; k < sc->n_boundaries; k++) {
         const pw_az_boundary *b = &sc->boundaries[k];
+        if (b->kind == PW_AZ_BOUNDARY_PURE_END) {
+            json_array_append_new(
+                bnd, json_pack("{s:o,s:i,s:o,s:o,s:s}", isP ? "P_kPa" : "T_K",
+                               pw_json_num(b->at * scale), "end", b->end, "T_K_end",
+                               pw_json_num(b->T_K), "P_kPa_end", pw_json_num(b->P_Pa / 1000.0),
+                               "present", b->present_above ? "above" : "below"));
+            continue;
+        }
+        const char *kind = b->kind == PW_AZ_BOUNDARY_VAPOR_AT_LAYER ? "vapor-at-layer"
+                           : b->kind == PW_AZ_BOUNDARY_LINE_ENDS    ? "three-phase-line-ends"
+                           : b->kind == PW_AZ_BOUNDARY_LINE_JUMPS   ? "three-phase-line-jumps"
+                                                                    : "not-located";
         json_array_append_new(
-            bnd, json_pack("{s:o,s:i,s:o,s:o,s:s}", isP ? "P_kPa" : "T_K",
-                           pw_json_num(isP ? b->at / 1000.0 : b->at), "end", b->end, "T_K_end",
-                           pw_json_num(b->T_K), "P_kPa_end", pw_json_num(b->P_Pa / 1000.0),
-                           "present", b->present_above ? "above" : "below"));
+            het, json_pack("{s:o,s:s,s:[o,o],s:o,s:o,s:o,s:[o,o],s:o,s:s}",
+                           isP ? "P_kPa" : "T_K", pw_json_num(b->at * scale), "kind", kind,
+                           "bracket", pw_json_num(b->bracket[0] * scale),
+                           pw_json_num(b->bracket[1] * scale), "layer",
+                           b->layer >= 0 ? json_integer(b->layer) : json_null(), "T_K_3",
+                           pw_json_num(b->T_K), "P_kPa_3", pw_json_num(b->P_Pa / 1000.0),
+                           "x1_liquids", pw_json_num(b->x_layers[0]),
+                           pw_json_num(b->x_layers[1]), "y1", pw_json_num(b->y3),
+                           "heterogeneous", b->present_above ? "above" : "below"));
+        json_object_set_new(json_array_get(het, json_array_size(het) - 1), "error",
+                            b->status == PW_OK ? json_null() : json_string(pw_strerror(b->status)));
     }
     json_object_set_new(o, "points", pts);
     json_object_set_new(o, "boundaries", bnd);
+    json_object_set_new(o, "heterogeneous_boundaries", het);
     json_object_set_new(o, "x1_shift", pw_json_num(sc->x1_shift));
     return o;
 }

@@ -258,4 +258,69 @@ PY
     --svg "$TMP/svg" > /dev/null 2>&1 || fail "report with the decanter scheme exited $?"
 labels=$(grep -o 'pw-target-label">[^<]*' "$TMP/svg/xy.svg" | sed 's/.*">//' | tr '\n' ',')
 [ "$labels" = "B bottoms,zF,A bottoms," ] || fail "decanter target labels: $labels"
+# azeotrope --sweep: where the heterogeneous azeotrope turns homogeneous (issue 14). On the
+# Margules fit the three-phase vapor reaches the layer poorer in 1-butanol between the sweep's
+# points; the located pressure must carry different labels just on either side (checked by
+# `azeotrope --pressure` at the bracket's ends, a separate call), satisfy y3 = x_I there, not
+# depend on the grid or the direction of the sweep, and meet the temperature sweep's location
+# at the same (T, P). The NRTL fit stays heterogeneous over 50-3000 kPa: no change reported.
+"$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model margules --out "$TMP/bwm.json" \
+    > /dev/null 2> "$TMP/err.txt" || fail "margules fit: $(cat "$TMP/err.txt")"
+"$PW" azeotrope "$TMP/bwm.json" --sweep 50kPa:3000kPa:12 --json > "$TMP/sw1.json" 2> /dev/null \
+    || fail "azeotrope --sweep exited $?"
+"$PW" azeotrope "$TMP/bwm.json" --sweep 3000kPa:100kPa:5 --json > "$TMP/sw2.json" 2> /dev/null \
+    || fail "azeotrope --sweep (down) exited $?"
+"$PW" azeotrope "$TMP/bwm.json" --temperature 100C --sweep 60C:250C:6 --json > "$TMP/sw3.json" \
+    2> /dev/null || fail "azeotrope --temperature --sweep exited $?"
+"$PW" azeotrope "$TMP/bw.json" --sweep 50kPa:3000kPa:8 --json > "$TMP/sw4.json" 2> /dev/null \
+    || fail "azeotrope --sweep (nrtl) exited $?"
+python3 - "$TMP/sw1.json" "$TMP/sw2.json" "$TMP/sw3.json" "$TMP/sw4.json" > "$TMP/bracket.txt" <<'PY' \
+    || fail "sweep: heterogeneous boundary"
+import json, sys
+s1, s2, s3, s4 = (json.load(open(f))["scan"] for f in sys.argv[1:5])
+def het(p):
+    return any(a["heterogeneous"] for a in p["azeotropes"])
+for s in (s1, s2, s3):
+    assert s["boundaries"] == [] or all("end" in b for b in s["boundaries"]), s["boundaries"]
+    hb = s["heterogeneous_boundaries"]
+    assert len(hb) == 1, hb
+    b = hb[0]
+    assert b["kind"] == "vapor-at-layer" and b["layer"] == 0, b
+    assert b["heterogeneous"] == "below", b
+    key = s["variable"]
+    lo, hi = b["bracket"]
+    assert lo <= b[key] <= hi and hi - lo <= 2e-9 * hi, b
+    assert abs(b["y1"] - b["x1_liquids"][0]) < 1e-6, b
+    # the grid cell holding it: heterogeneous below, not above
+    pts = sorted(s["points"], key=lambda p: p[key])
+    below = [p for p in pts if p[key] < b[key]]
+    above = [p for p in pts if p[key] > b[key]]
+    assert below and above and het(below[-1]) and not het(above[0]), b
+    # and no other change of label anywhere in the sweep
+    labels = [het(p) for p in pts]
+    assert sum(labels[i] != labels[i + 1] for i in range(len(labels) - 1)) == 1, labels
+b1, b2, b3 = (s["heterogeneous_boundaries"][0] for s in (s1, s2, s3))
+# the grid (12 or 5 points, up or down) does not move it; the temperature sweep meets it at the
+# same (T, P): within the located widths
+assert abs(b1["P_kPa"] - b2["P_kPa"]) < 1e-8 * b1["P_kPa"], (b1, b2)
+assert abs(b3["T_K"] - b1["T_K_3"]) < 1e-6 and abs(b3["P_kPa_3"] - b1["P_kPa"]) < 1e-5, (b1, b3)
+# between the two fits' scans of the issue (1203 and 3000 kPa)
+assert 1203 < b1["P_kPa"] < 3000, b1
+assert s4["heterogeneous_boundaries"] == [] and all(het(p) for p in s4["points"]), s4
+print("%.17gkPa %.17gkPa" % tuple(b1["bracket"]))
+PY
+read -r P_LO P_HI < "$TMP/bracket.txt"
+# each end of the bracket, by the one-condition search
+"$PW" azeotrope "$TMP/bwm.json" --pressure "$P_LO" --json > "$TMP/lo.json" 2> /dev/null || fail "azeotrope at $P_LO"
+"$PW" azeotrope "$TMP/bwm.json" --pressure "$P_HI" --json > "$TMP/hi.json" 2> /dev/null || fail "azeotrope at $P_HI"
+python3 - "$TMP/lo.json" "$TMP/hi.json" <<'PY' || fail "labels at the bracket's ends"
+import json, sys
+lo, hi = (json.load(open(f)) for f in sys.argv[1:3])
+assert any(a["heterogeneous"] for a in lo["azeotropes"]), lo
+assert not any(a["heterogeneous"] for a in hi["azeotropes"]), hi
+assert hi["three_phase"] is not None and not hi["three_phase"]["heterogeneous_azeotrope"], hi
+PY
+"$PW" azeotrope "$TMP/bwm.json" --sweep 50kPa:3000kPa:12 > "$TMP/sw.txt" 2> /dev/null || fail "sweep text"
+grep -q "heterogeneous below P = " "$TMP/sw.txt" || fail "sweep text: no heterogeneous boundary"
+grep -q "reaches the layer poorer in 1-butanol" "$TMP/sw.txt" || fail "sweep text: which layer"
 echo "ok"
