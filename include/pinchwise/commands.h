@@ -80,6 +80,11 @@ pw_status pw_azeotrope_solve(const pw_system *sys, pw_az_mode mode, double fixed
 /* One azeotrope with the keys x1, T_K, P_kPa, kind and more. */
 json_t *pw_azeotrope_entry_json(const pw_azeotrope *az);
 
+/* The azeotrope list of `azeotrope --json`: the homogeneous azeotropes of r (each with
+ * "heterogeneous": false), then the heterogeneous one of tp (may be NULL) when its vapor lies
+ * between the layers (x1 the vapor, T_K and P_kPa the three-phase condition, x1_liquids). */
+json_t *pw_azeotrope_list_json(const pw_az_result *r, const pw_three_phase *tp);
+
 /* The azeotropes of a ranking row or a study (pw_rank_az_list) as a JSON array of
  * {x1, T_K, P_kPa, kind, heterogeneous}; ok false: null (the search failed). */
 json_t *pw_rank_az_json(const pw_rank_az *az, size_t n, bool ok);

@@ -22,6 +22,7 @@
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/column.h>
 #include <pinchwise/equilibrium.h>
+#include <pinchwise/lle.h>
 #include <pinchwise/status.h>
 #include <stdbool.h>
 #include <stddef.h>
@@ -80,6 +81,9 @@ typedef struct pw_screen_result {
                                     * the products, and its x1 */
     double alpha_top, alpha_bottom, alpha_mean; /* at xd, at xb, geometric mean */
     pw_az_result az;               /* azeotropes at P */
+    pw_three_phase het;            /* the three-phase state at P (exists false when none or
+                                    * the model cannot split); a heterogeneous azeotrope when
+                                    * het.heterogeneous_azeotrope */
     bool barrier;
     double x_barrier;              /* the azeotrope inside (xb, xd); NAN when none */
     bool measured_split;           /* infeasible: the data show two liquids between the targets

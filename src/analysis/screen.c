@@ -236,6 +236,7 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
     /* partly miscible liquids: crossings inside the two-liquid region are no azeotropes; a
      * heterogeneous azeotrope between the targets calls for the decanter scheme */
     pw_three_phase het;
+    memset(&het, 0, sizeof het);
     if (pw_model_can_split(s->model)) {
         st = pw_azeotrope_heterogeneous(s, PW_AZ_ISOBARIC, P_Pa, &out->az, &het, NULL);
         if (st != PW_OK)
@@ -250,6 +251,7 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
                    het.y1, het.T_K, het.x[0], het.x[1]);
         }
     }
+    out->het = het;
     /* a model that cannot split, on data that show two liquids between the targets: its
      * one-liquid azeotropes and volatilities there decide nothing (the single column refuses) */
     char why[PW_REASON_MAX];

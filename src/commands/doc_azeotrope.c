@@ -21,7 +21,7 @@ json_t *pw_azeotrope_entry_json(const pw_azeotrope *az)
 /* The azeotropes of r (homogeneous), then the heterogeneous one of tp (the three-phase line with
  * the vapor between the layers) when there is one: x1 is then the vapor's composition, T_K and
  * P_kPa the three-phase condition, x1_liquids the layers. */
-static json_t *result_json(const pw_az_result *r, const pw_three_phase *tp)
+json_t *pw_azeotrope_list_json(const pw_az_result *r, const pw_three_phase *tp)
 {
     json_t *list = json_array();
     for (size_t i = 0; i < r->n; i++) {
@@ -69,7 +69,7 @@ static json_t *scan_json(const pw_az_scan *sc, const pw_three_phase *tps)
         json_t *p = json_object();
         json_object_set_new(p, isP ? "P_kPa" : "T_K",
                             pw_json_num(isP ? sc->at[k] / 1000.0 : sc->at[k]));
-        json_object_set_new(p, "azeotropes", result_json(&sc->points[k], tps ? &tps[k] : NULL));
+        json_object_set_new(p, "azeotropes", pw_azeotrope_list_json(&sc->points[k], tps ? &tps[k] : NULL));
         json_array_append_new(pts, p);
     }
     json_t *het = json_array();
@@ -113,7 +113,7 @@ json_t *pw_azeotrope_doc(const pw_system *sys, pw_az_mode mode, double fixed,
                          const pw_three_phase *tps)
 {
     json_t *o = json_object();
-    json_t *list = result_json(r, tp);
+    json_t *list = pw_azeotrope_list_json(r, tp);
     json_object_set_new(o, "azeotropes", list);
     json_object_set_new(o, "mode", json_string(mode == PW_AZ_ISOBARIC ? "isobaric"
                                                                         : "isothermal"));

@@ -3,7 +3,7 @@
 
 json_t *pw_screen_doc(const pw_system *sys, const pw_screen_result *r, const pw_screen_options *o)
 {
-    json_t *j = json_object(), *reasons = json_array(), *az = json_array();
+    json_t *j = json_object(), *reasons = json_array();
     json_object_set_new(j, "verdict", json_string(pw_verdict_name(r->verdict)));
     for (size_t i = 0; i < r->n_reasons; i++)
         json_array_append_new(reasons, json_pack("{s:s,s:o}", "key",
@@ -29,9 +29,7 @@ json_t *pw_screen_doc(const pw_system *sys, const pw_screen_result *r, const pw_
     json_object_set_new(j, "x_alpha_min", pw_json_num(r->x_alpha_min));
     json_object_set_new(j, "alpha_top", pw_json_num(r->alpha_top));
     json_object_set_new(j, "alpha_bottom", pw_json_num(r->alpha_bottom));
-    for (size_t i = 0; i < r->az.n; i++)
-        json_array_append_new(az, pw_azeotrope_entry_json(&r->az.az[i]));
-    json_object_set_new(j, "azeotropes", az);
+    json_object_set_new(j, "azeotropes", pw_azeotrope_list_json(&r->az, &r->het));
     json_object_set_new(j, "barrier_x1", pw_json_num(r->x_barrier));
     json_object_set_new(
         j, "pressure_shift",

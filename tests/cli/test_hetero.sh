@@ -92,6 +92,14 @@ PY
     || fail "screen exited $?"
 python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); assert d["verdict"]=="infeasible" and any("decanter" in r["text"] for r in d["reasons"]), d' \
     "$TMP/scr.json" || fail "screen does not propose the decanter scheme"
+# its azeotrope list is azeotrope's: the heterogeneous entry with its layers, at the barrier
+python3 - "$TMP/scr.json" "$TMP/az.json" <<'PY' || fail "screen's azeotrope list"
+import json, sys
+d, a = (json.load(open(f)) for f in sys.argv[1:3])
+assert d["azeotropes"] == a["azeotropes"], (d["azeotropes"], a["azeotropes"])
+het = [z for z in d["azeotropes"] if z["heterogeneous"]]
+assert len(het) == 1 and het[0]["x1"] == d["barrier_x1"], d
+PY
 
 # Wilson's equation on the same data (it never splits): the fit file records the seven
 # three-phase points it left out, and later commands do not answer for one liquid across them
