@@ -42,12 +42,22 @@ pw_status pw_column_two_liquid_block(const pw_system *s, double P_Pa, double x_a
     const double lo = fmin(x_a, x_b), hi = fmax(x_a, x_b);
     if (lo < tp->x[1] && hi > tp->x[0]) {
         *blocked = true;
-        snprintf(reason, len,
-                 "the liquids between the products (x1 %.4g to %.4g) reach into the two-liquid "
-                 "region at this pressure (layers x1 = %.4f and %.4f, boiling together at "
-                 "%.2f K): a single-liquid column does not apply there; decant the two layers "
-                 "(decanter scheme: pinchwise decanter)",
-                 lo, hi, tp->x[0], tp->x[1], tp->T_K);
+        /* the decanter scheme needs a heterogeneous azeotrope; beside a heterogeneous
+         * non-azeotrope (vapor outside the layers) it does not apply either */
+        if (tp->heterogeneous_azeotrope)
+            snprintf(reason, len,
+                     "the liquids between the products (x1 %.4g to %.4g) reach into the two-liquid "
+                     "region at this pressure (layers x1 = %.4f and %.4f, boiling together at "
+                     "%.2f K): a single-liquid column does not apply there; decant the two layers "
+                     "(decanter scheme: pinchwise decanter)",
+                     lo, hi, tp->x[0], tp->x[1], tp->T_K);
+        else
+            snprintf(reason, len,
+                     "the products (x1 %.4g to %.4g) reach into the two-liquid region (layers "
+                     "x1 = %.4f and %.4f at %.2f K; vapor x1 = %.4f lies outside them, so no "
+                     "decanter scheme): trays there hold two liquids, which this single-liquid "
+                     "column does not model; keep the products outside the layers",
+                     lo, hi, tp->x[0], tp->x[1], tp->T_K, tp->y1);
     }
     return PW_OK;
 }

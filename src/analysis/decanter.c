@@ -323,7 +323,8 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
     if (!tp->heterogeneous_azeotrope) {
         snprintf(out->reason, sizeof out->reason,
                  "the three-phase vapor (x1 = %.4f) lies outside the liquid layers (%.4f, %.4f): a "
-                 "heterogeneous non-azeotrope, which one column separates",
+                 "heterogeneous non-azeotrope: the decanter scheme does not apply; see pinchwise "
+                 "azeotrope and reflux for a single column",
                  tp->y1, tp->x[0], tp->x[1]);
         return PW_OK;
     }

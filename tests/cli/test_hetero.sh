@@ -331,4 +331,19 @@ PY
 "$PW" azeotrope "$TMP/bwm.json" --sweep 50kPa:3000kPa:12 > "$TMP/sw.txt" 2> /dev/null || fail "sweep text"
 grep -q "heterogeneous below P = " "$TMP/sw.txt" || fail "sweep text: no heterogeneous boundary"
 grep -q "reaches the layer poorer in 1-butanol" "$TMP/sw.txt" || fail "sweep text: which layer"
+# just above that pressure the three-phase vapor lies outside the layers (a heterogeneous
+# non-azeotrope): reflux across the layers and decanter both refuse, and neither sends the user
+# to the other (no decanter scheme without a heterogeneous azeotrope)
+"$PW" reflux "$TMP/bwm.json" --pressure 1530kPa --xd 0.995 --xb 0.001 --zf 0.31 --json > "$TMP/rfn.json" \
+    2> /dev/null || fail "reflux beside the non-azeotrope exited $?"
+"$PW" decanter "$TMP/bwm.json" --pressure 1530kPa --zf 0.31 --x1-rich 0.995 --x1-lean 0.001 --json \
+    > "$TMP/dcn.json" 2> /dev/null || fail "decanter beside the non-azeotrope exited $?"
+python3 - "$TMP/rfn.json" "$TMP/dcn.json" <<'PY' || fail "non-azeotrope reasons"
+import json, sys
+r, d = (json.load(open(f)) for f in sys.argv[1:3])
+assert r["feasible"] is False and "no decanter scheme" in r["reason"], r
+assert "pinchwise decanter" not in r["reason"], r
+assert d["feasible"] is False and "does not apply" in d["reason"], d
+assert "one column separates" not in d["reason"], d
+PY
 echo "ok"
