@@ -122,6 +122,14 @@ typedef struct pw_fit_stat {
     long max_line;             /* line of the largest deviation */
 } pw_fit_stat;
 
+/* One tie line a fit used: measured and calculated layers (mole fractions of component 1; the
+ * calculated ones NAN when the model gives no split at T_K, 0 and 1 beyond the solver's floor). */
+typedef struct pw_fit_tie {
+    long line;                 /* its line in the LLE file (0 when not known) */
+    double T_K, x_I, x_II;
+    double calc_I, calc_II;
+} pw_fit_tie;
+
 typedef struct pw_fit_result {
     pw_system sys;             /* components, model, fitted parameters, T_ref */
     pw_objective objective;
@@ -181,6 +189,8 @@ typedef struct pw_fit_result {
     size_t n_tie_lines;        /* tie lines fitted together with the VLE points */
     double sigma_x_lle;
     double aad_x_lle;          /* mean |x_calc - x| over both layers of every tie line; NAN */
+    pw_fit_tie *ties;          /* the n_tie_lines tie lines, measured and calculated (NULL
+                                * when none, or from a fit file written before they were kept) */
 } pw_fit_result;
 
 /* Fits model to ds with components c1, c2 (in the dataset's order). out is filled even when

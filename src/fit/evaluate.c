@@ -275,6 +275,8 @@ void pw_fit_result_free(pw_fit_result *r)
     free(r->pts);
     r->pts = NULL;
     r->n_pts = 0;
+    free(r->ties);
+    r->ties = NULL;
 }
 
 pw_status pw_fit_result_copy(pw_fit_result *dst, const pw_fit_result *src)
@@ -288,6 +290,15 @@ pw_status pw_fit_result_copy(pw_fit_result *dst, const pw_fit_result *src)
             return PW_ENOMEM;
         }
         memcpy(dst->pts, src->pts, sizeof *dst->pts * src->n_pts);
+    }
+    dst->ties = NULL;
+    if (src->ties && src->n_tie_lines) {
+        dst->ties = malloc(sizeof *dst->ties * src->n_tie_lines);
+        if (!dst->ties) {
+            pw_fit_result_free(dst);
+            return PW_ENOMEM;
+        }
+        memcpy(dst->ties, src->ties, sizeof *dst->ties * src->n_tie_lines);
     }
     return PW_OK;
 }

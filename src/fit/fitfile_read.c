@@ -267,6 +267,62 @@ static void read_points(reader *rd, const json_t *data, pw_fit_result *r)
     }
 }
 
+/* The tie lines a fit used (optional block "lle"): their count, sigma_x, the layer misfit and,
+ * from files that keep them, every tie line's measured and calculated layers. Read as stored:
+ * refitting needs the LLE file. */
+static void read_lle(reader *rd, const json_t *lle, pw_fit_result *r)
+{
+    if (!lle)
+        return;
+    const json_t *n = json_object_get(lle, "tie_lines");
+    if (!json_is_object(lle) || !json_is_integer(n) || json_integer_value(n) < 1
+        || json_integer_value(n) > PW_LLE_MAX_ROWS) {
+        fail(rd, "key \"lle\" must be an object with a tie_lines count from 1 to %d",
+             PW_LLE_MAX_ROWS);
+        return;
+    }
+    r->n_tie_lines = (size_t)json_integer_value(n);
+    r->sigma_x_lle = get_num(rd, lle, "sigma_x", false);
+    r->aad_x_lle = get_num(rd, lle, "aad_x", true);
+    const json_t *rows = json_object_get(lle, "rows");
+    if (!rows)
+        return;
+    if (!json_is_array(rows) || json_array_size(rows) != r->n_tie_lines) {
+        fail(rd, "key \"lle.rows\" must be an array of tie_lines = %zu rows", r->n_tie_lines);
+        return;
+    }
+    r->ties = calloc(r->n_tie_lines, sizeof *r->ties);
+    if (!r->ties) {
+        fail(rd, "out of memory");
+        return;
+    }
+    for (size_t i = 0; i < r->n_tie_lines && rd->st == PW_OK; i++) {
+        const json_t *o = json_array_get(rows, i), *line = json_object_get(o, "line");
+        const json_t *x = json_object_get(o, "x1"), *c = json_object_get(o, "x1_calc");
+        pw_fit_tie *t = &r->ties[i];
+        if (!json_is_object(o) || !json_is_integer(line) || !json_is_array(x)
+            || json_array_size(x) != 2 || !json_is_array(c) || json_array_size(c) != 2) {
+            fail(rd, "key \"lle.rows\": row %zu must hold line, T_K, x1 [2] and x1_calc [2]", i + 1);
+            return;
+        }
+        t->line = (long)json_integer_value(line);
+        t->T_K = get_num(rd, o, "T_K", false);
+        const json_t *v[4] = {json_array_get(x, 0), json_array_get(x, 1), json_array_get(c, 0),
+                              json_array_get(c, 1)};
+        double *dst[4] = {&t->x_I, &t->x_II, &t->calc_I, &t->calc_II};
+        for (int k = 0; k < 4; k++) {
+            bool ok = json_is_number(v[k]) && isfinite(json_number_value(v[k]))
+                      && json_number_value(v[k]) >= 0.0 && json_number_value(v[k]) <= 1.0;
+            if (!ok && !(k >= 2 && json_is_null(v[k]))) {
+                fail(rd, "key \"lle.rows\": row %zu: compositions must be numbers in [0, 1]%s",
+                     i + 1, k >= 2 ? " or null" : "");
+                return;
+            }
+            *dst[k] = ok ? json_number_value(v[k]) : (double)NAN;
+        }
+    }
+}
+
 static void read_matrix(reader *rd, const json_t *o, const char *key, size_t n,
                         double out[PW_MAX_PARAMS][PW_MAX_PARAMS])
 {
@@ -434,6 +490,7 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
             (size_t)json_integer_value(s) < r->n_minima)
             r->minimum_split_skipped = (size_t)json_integer_value(s);
     }
+    read_lle(rd, json_object_get(root, "lle"), r);
     const json_t *range = json_object_get(root, "data_range");
     r->T_min_K = json_is_object(range) ? get_num(rd, range, "T_min_K", true) : (double)NAN;
     r->T_max_K = json_is_object(range) ? get_num(rd, range, "T_max_K", true) : (double)NAN;

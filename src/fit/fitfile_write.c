@@ -258,10 +258,22 @@ static json_t *fitfile_json(const pw_fit_result *r, bool with_points)
     json_object_set_new(split, "T_K_at_min", num(r->split_T_K));
     json_object_set_new(o, "liquid_split", split);
     json_object_set_new(o, "three_phase_points", json_integer((json_int_t)r->n_three_phase));
-    if (r->n_tie_lines)
-        json_object_set_new(o, "lle", json_pack("{s:I,s:o,s:o}", "tie_lines",
-                                                (json_int_t)r->n_tie_lines, "sigma_x",
-                                                num(r->sigma_x_lle), "aad_x", num(r->aad_x_lle)));
+    if (r->n_tie_lines) {
+        json_t *lle = json_pack("{s:I,s:o,s:o}", "tie_lines", (json_int_t)r->n_tie_lines,
+                                "sigma_x", num(r->sigma_x_lle), "aad_x", num(r->aad_x_lle));
+        if (r->ties) { /* the measured and calculated layers of every tie line */
+            json_t *rows = json_array();
+            for (size_t i = 0; i < r->n_tie_lines; i++) {
+                const pw_fit_tie *t = &r->ties[i];
+                json_array_append_new(
+                    rows, json_pack("{s:I,s:o,s:[o,o],s:[o,o]}", "line", (json_int_t)t->line,
+                                    "T_K", num(t->T_K), "x1", num(t->x_I), num(t->x_II),
+                                    "x1_calc", num(t->calc_I), num(t->calc_II)));
+            }
+            json_object_set_new(lle, "rows", rows);
+        }
+        json_object_set_new(o, "lle", lle);
+    }
 
     json_t *range = json_object();
     json_object_set_new(range, "T_min_K", num(r->T_min_K));

@@ -14,6 +14,7 @@
 #include <math.h>
 #include <pinchwise/lle.h>
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
 
 #define TPD_FIT 1000
@@ -296,6 +297,8 @@ void fit_het_finish(const fit_problem *fp, pw_fit_result *r)
     double f[2 * 64];
     double sum = 0.0;
     size_t cnt = 0;
+    free(r->ties);
+    r->ties = calloc(fp->n_ties, sizeof *r->ties); /* NULL (out of memory): counts only */
     for (size_t t0 = 0; t0 < fp->n_ties; t0 += 64) {
         fit_problem part = *fp;
         part.ties = fp->ties + t0;
@@ -305,6 +308,18 @@ void fit_het_finish(const fit_problem *fp, pw_fit_result *r)
         for (size_t i = 0; i < 2 * part.n_ties; i++) {
             sum += fabs(f[i]) * fp->sigma_x_lle;
             cnt++;
+        }
+        for (size_t i = 0; r->ties && i < part.n_ties; i++) {
+            const pw_tie_line *tl = &part.ties[i];
+            pw_fit_tie *o = &r->ties[t0 + i];
+            o->line = tl->line;
+            o->T_K = tl->T_K;
+            o->x_I = tl->x_I;
+            o->x_II = tl->x_II;
+            o->calc_I = tl->x_I + f[2 * i] * fp->sigma_x_lle;
+            o->calc_II = tl->x_II + f[2 * i + 1] * fp->sigma_x_lle;
+            if (!(o->calc_I < o->calc_II)) /* no split at T: one composition stood in for both */
+                o->calc_I = o->calc_II = NAN;
         }
     }
     r->aad_x_lle = cnt ? sum / (double)cnt : (double)NAN;

@@ -237,6 +237,28 @@ static void deviations(pw_sbuf *b, const pw_fit_result *r, const pw_display_unit
     snprintf(lab, sizeof lab, "bubble pressure / %s", pw_units_display_P_symbol(u));
     dev_row(b, lab, &r->dev_P_Pa, pw_units_display_P(u, 1.0));
     pw_sbuf_puts(b, "</table>\n");
+    if (r->n_tie_lines) {
+        pw_sbuf_printf(b, "<h3>Tie lines fitted with the data</h3>\n<p>%zu tie line%s, weighted "
+                          "by Ï<sub>x</sub> = %.3g; mean |deviation| of the layers %.4g.</p>\n",
+                       r->n_tie_lines, r->n_tie_lines == 1 ? "" : "s", r->sigma_x_lle,
+                       r->aad_x_lle);
+        if (r->ties) {
+            pw_sbuf_puts(b, "<table><tr><th>File line</th><th>T</th><th>Layer I xâ "
+                            "measured</th><th>calculated</th><th>Layer II xâ measured</th>"
+                            "<th>calculated</th></tr>\n");
+            for (size_t i = 0; i < r->n_tie_lines; i++) {
+                const pw_fit_tie *t = &r->ties[i];
+                pw_report_T(u, t->T_K, 2, tb, sizeof tb);
+                pw_sbuf_printf(b, "<tr><td class=\"num\">%ld</td><td>%s</td>", t->line, tb);
+                num(b, t->x_I, 4);
+                num(b, t->calc_I, 4);
+                num(b, t->x_II, 4);
+                num(b, t->calc_II, 4);
+                pw_sbuf_puts(b, "</tr>\n");
+            }
+            pw_sbuf_puts(b, "</table>\n");
+        }
+    }
     pw_report_T(u, r->sys.T_ref_K, 2, tb, sizeof tb);
     pw_sbuf_printf(b, "<h3>Infinite dilution (at T_ref = %s)</h3>\n<table><tr><th>Limit</th>"
                       "<th>ln \xce\xb3\xe2\x88\x9e</th><th>\xce\xb3\xe2\x88\x9e</th></tr>\n",
@@ -256,9 +278,13 @@ static void deviations(pw_sbuf *b, const pw_fit_result *r, const pw_display_unit
     if (r->split)
         pw_sbuf_printf(b, "<span class=\"verdict-fail\">The fitted parameters predict two liquid "
                           "phases</span> (d\xc2\xb2(\xce\x94G/RT)/dx\xc2\xb2 = %.3g at x\xe2\x82\x81 = %.3f, "
-                          "T = %s). A model fitted to vapor-liquid data alone is not reliable "
-                          "for liquid-liquid behaviour; check for a split experimentally.",
-                       r->split_min_D, r->split_x, tb);
+                          "T = %s). %s",
+                       r->split_min_D, r->split_x, tb,
+                       r->n_three_phase || r->n_tie_lines
+                           ? "The data show two liquids too; their three-phase points and tie "
+                             "lines were fitted as such (docs/heterogeneous.md)."
+                           : "A model fitted to vapor-liquid data alone is not reliable for "
+                             "liquid-liquid behaviour; check for a split experimentally.");
     else
         pw_sbuf_printf(b, "<span class=\"verdict-pass\">No liquid-liquid split predicted</span> "
                           "(smallest d\xc2\xb2(\xce\x94G/RT)/dx\xc2\xb2 = %.3g at x\xe2\x82\x81 = %.3f, "

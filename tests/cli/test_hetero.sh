@@ -224,6 +224,26 @@ rows = [r for r in csv.reader(l for l in open(sys.argv[2]) if not l.startswith("
 T = [float(r[2]) for r in rows]
 assert abs(d["T_ref_K"] - sum(T) / len(T)) < 1e-9, (d["T_ref_K"], sum(T) / len(T))
 PY
+# the fit file keeps the tie line: file line, T, measured and calculated layers, and aad_x is
+# their mean |calculated - measured|; the report reads them back
+python3 - "$TMP/bwl.json" <<'PY' || fail "fit file tie-line rows"
+import json, sys
+d = json.load(open(sys.argv[1]))["lle"]
+(r,) = d["rows"]
+assert r["line"] == 6 and r["T_K"] == 298.15 and r["x1"] == [0.019, 0.488], r
+c = r["x1_calc"]
+assert 0 < c[0] < c[1] < 1, r
+aad = (abs(c[0] - 0.019) + abs(c[1] - 0.488)) / 2
+assert abs(aad - d["aad_x"]) < 1e-12, (aad, d)
+PY
+"$PW" report "$TMP/bwl.json" --out "$TMP/rl.html" > /dev/null 2>&1 || fail "report of the fit --lle file"
+grep -q "7 three-phase points and 1 tie line" "$TMP/rl.html" && grep -q "Tie lines fitted with the data" "$TMP/rl.html" \
+    || fail "report does not show the tie line"
+# a fit file whose tie-line rows do not match their count is refused, naming the key
+python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); d["lle"]["tie_lines"]=2; json.dump(d,open(sys.argv[2],"w"))' \
+    "$TMP/bwl.json" "$TMP/bwl_bad.json"
+"$PW" lle "$TMP/bwl_bad.json" --temperature 25C > /dev/null 2> "$TMP/err.txt" && fail "bad lle block accepted"
+grep -q "lle.rows" "$TMP/err.txt" || fail "bad lle block message: $(cat "$TMP/err.txt")"
 # Wilson is refused with tie lines, with the reason
 "$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model wilson --lle "$SRC/datasets/lle/butanol_water_25C_ties.csv" \
     --out "$TMP/bwlw.json" > /dev/null 2> "$TMP/err.txt" && fail "wilson accepted with --lle"
