@@ -52,6 +52,9 @@ typedef enum pw_fit_diag_kind {
                                   value3 = T_K */
     PW_DIAG_COMPETING_MINIMA,  /* count distinct minima fit about equally well */
     PW_DIAG_CORRELATED,        /* param and param2 correlated: value = correlation */
+    PW_DIAG_TIES_DISAGREE,     /* two tie lines at one temperature (value3, K) whose layers
+                                * differ by value (> 3 sigma_x): their LLE-file lines in count,
+                                * count2 (line, line2 are data-file lines: 0 here) */
     PW_DIAG_KIND_COUNT
 } pw_fit_diag_kind;
 

@@ -29,6 +29,7 @@ static const char *const kind_names[PW_DIAG_KIND_COUNT] = {
     [PW_DIAG_LIQUID_SPLIT] = "liquid-split",
     [PW_DIAG_COMPETING_MINIMA] = "competing-minima",
     [PW_DIAG_CORRELATED] = "correlated-parameters",
+    [PW_DIAG_TIES_DISAGREE] = "tie-lines-disagree",
 };
 
 const char *pw_fit_diag_kind_name(pw_fit_diag_kind k)
@@ -267,6 +268,41 @@ static void convergence(const pw_fit_result *r, pw_fit_diags *d)
     }
 }
 
+/* Two tie lines at the same temperature (within 0.05 K) must give the same layers: a binary at
+ * one temperature has one pair (phase rule). Layers further apart than 3 sigma_x point at a typing
+ * error or a mislabelled row. Reported once, for the most distant such pair. */
+static void tie_lines_agree(const pw_fit_result *r, pw_fit_diags *d)
+{
+    if (!r->ties || r->n_tie_lines < 2)
+        return;
+    double worst = 0.0;
+    size_t wi = 0, wj = 0;
+    for (size_t i = 0; i < r->n_tie_lines; i++)
+        for (size_t j = i + 1; j < r->n_tie_lines; j++) {
+            const pw_fit_tie *a = &r->ties[i], *b = &r->ties[j];
+            if (fabs(a->T_K - b->T_K) > 0.05)
+                continue;
+            double dx = fmax(fabs(a->x_I - b->x_I), fabs(a->x_II - b->x_II));
+            if (dx > worst) {
+                worst = dx;
+                wi = i;
+                wj = j;
+            }
+        }
+    pw_fit_diag *g;
+    if (!(worst > 3.0 * r->sigma_x_lle) || !(g = add(d, PW_DIAG_TIES_DISAGREE, PW_DIAG_WARNING)))
+        return;
+    g->count = (size_t)(r->ties[wi].line > 0 ? r->ties[wi].line : 0);
+    g->count2 = (size_t)(r->ties[wj].line > 0 ? r->ties[wj].line : 0);
+    g->value = worst;
+    g->value3 = r->ties[wi].T_K;
+    say(g,
+        "tie lines on lines %zu and %zu of the LLE file are at the same temperature (" PW_TEXT_T(".2f")
+        ") but their layers differ by %.3g in x1, more than 3 sigma_x (%.3g): a binary at one "
+        "temperature has one pair of layers; check those rows",
+        g->count, g->count2, g->value3, worst, 3.0 * r->sigma_x_lle);
+}
+
 static void liquids(const pw_fit_result *r, pw_fit_diags *d)
 {
     pw_fit_diag *g;
@@ -308,9 +344,12 @@ static void minima_and_correlation(const pw_fit_result *r, pw_fit_diags *d)
     if (competing > 1 && (g = add(d, PW_DIAG_COMPETING_MINIMA, PW_DIAG_WARNING))) {
         g->count = competing;
         say(g,
-            "%zu distinct minima fit the data about equally well (delta-AICc < 2); the one "
-            "without a liquid split and lowest chi2 is used, all are in the fit file",
-            competing);
+            "%zu distinct minima fit the data about equally well (delta-AICc < 2); %s, all are "
+            "in the fit file",
+            competing,
+            r->n_three_phase || r->n_tie_lines
+                ? "the data show two liquids, so the lowest chi2 is used"
+                : "the one without a liquid split and lowest chi2 is used");
     }
     if (!r->identifiable) /* the correlations are not meaningful then */
         return;
@@ -344,6 +383,7 @@ pw_status pw_fit_diagnose(const pw_fit_result *r, pw_fit_diags *out)
     convergence(r, out);
     liquids(r, out);
     minima_and_correlation(r, out);
+    tie_lines_agree(r, out);
     return PW_OK;
 }
 

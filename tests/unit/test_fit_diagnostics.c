@@ -330,6 +330,32 @@ static void liquid_split(void **state)
     assert_non_null(strstr(g->message, "that the wilson model cannot represent"));
     assert_null(strstr(g->message, "fitted as such"));
     r.sys.model = fitted;
+    /* two tie lines at one temperature must give one pair of layers (phase rule): layers more
+     * than 3 sigma_x apart are flagged with their LLE-file lines; other temperatures, or layers
+     * within 3 sigma_x, are not */
+    r.n_tie_lines = 2;
+    r.sigma_x_lle = 0.003;
+    r.ties = calloc(2, sizeof *r.ties);
+    assert_non_null(r.ties);
+    r.ties[0] = (pw_fit_tie){4, 298.15, 0.019, 0.488, 0.02, 0.49};
+    r.ties[1] = (pw_fit_tie){5, 298.17, 0.3, 0.5, 0.02, 0.49};
+    assert_int_equal(pw_fit_diagnose(&r, &d), PW_OK);
+    g = find_kind(&d, PW_DIAG_TIES_DISAGREE);
+    assert_non_null(g);
+    assert_int_equal(g->severity, PW_DIAG_WARNING);
+    assert_int_equal(g->count, 4);
+    assert_int_equal(g->count2, 5);
+    assert_int_equal(g->line, 0);
+    pw_assert_close(g->value, 0.3 - 0.019, 0.0, 1e-15, "largest layer difference");
+    r.ties[1].T_K = 308.15;
+    assert_int_equal(pw_fit_diagnose(&r, &d), PW_OK);
+    assert_int_equal(count_kind(&d, PW_DIAG_TIES_DISAGREE), 0);
+    r.ties[1] = (pw_fit_tie){5, 298.15, 0.019 + 0.0089, 0.488 - 0.0089, 0.02, 0.49};
+    assert_int_equal(pw_fit_diagnose(&r, &d), PW_OK);
+    assert_int_equal(count_kind(&d, PW_DIAG_TIES_DISAGREE), 0);
+    r.ties[1].x_II = 0.488 - 0.0091;
+    assert_int_equal(pw_fit_diagnose(&r, &d), PW_OK);
+    assert_int_equal(count_kind(&d, PW_DIAG_TIES_DISAGREE), 1);
     pw_fit_result_free(&r);
     pw_dataset_free(&ds);
 }
