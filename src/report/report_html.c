@@ -892,7 +892,14 @@ static void figure(pw_sbuf *b, const pw_report_file *f, const char *caption)
 static const char *caption_for(const char *name, const pw_report_curves *c)
 {
     bool column = c->column;
-    if (!strcmp(name, "xy.svg") && column && c->dc.hetero_blocked)
+    bool decanter = column && c->dc.hetero_blocked && c->dc.decanter.status == PW_OK
+                    && c->dc.decanter.res.feasible;
+    bool sized = c->dc.status == PW_OK && c->dc.col.feasible;
+    if (!strcmp(name, "xy.svg") && column && !decanter && !sized)
+        return "Equilibrium curve at the column pressure with the measured points and the "
+               "targets. No construction is drawn: the column was not sized (the reason is under "
+               "\"Column targets\").";
+    if (!strcmp(name, "xy.svg") && decanter)
         return "Equilibrium curve at the column pressure (flat over the two-liquid region, shaded) "
                "with the decanter scheme: each stripping column's operating line and stage steps "
                "from its decanter layer to its bottoms.";

@@ -286,6 +286,12 @@ PY
     --svg "$TMP/svg" > /dev/null 2>&1 || fail "report with the decanter scheme exited $?"
 labels=$(grep -o 'pw-target-label">[^<]*' "$TMP/svg/xy.svg" | sed 's/.*">//' | tr '\n' ',')
 [ "$labels" = "B bottoms,zF,A bottoms," ] || fail "decanter target labels: $labels"
+# targets reaching into the two-liquid region without crossing the azeotrope: the column is
+# refused, and the x-y caption does not describe a construction that is not drawn
+"$PW" report "$TMP/bw.json" --out "$TMP/rg.html" --pressure 1atm --xd 0.2 --xb 0.001 --zf 0.01 \
+    > /dev/null 2>&1 || fail "report with targets in the gap exited $?"
+grep -q "two-liquid region" "$TMP/rg.html" && grep -q "No construction is drawn" "$TMP/rg.html" \
+    || fail "report of a refused column: reason or caption"
 # azeotrope --sweep: where the heterogeneous azeotrope turns homogeneous (issue 14). On the
 # Margules fit the three-phase vapor reaches the layer poorer in 1-butanol between the sweep's
 # points; the located pressure must carry different labels just on either side (checked by
