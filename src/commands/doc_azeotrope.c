@@ -139,6 +139,16 @@ pw_status pw_azeotrope_solve(const pw_system *sys, pw_az_mode mode, double fixed
 {
     bool het_failed = false;
     pw_status st = pw_azeotrope_search(sys, (int)mode, fixed, r, tp, n_removed, &het_failed);
+    if (st == PW_ERANGE && !het_failed) /* a bubble point without a vapor pressure */
+        return pw_error_set(err, st, where, 0,
+                            "azeotrope search failed near x1 = %.4g: no bubble point there at "
+                            "%s %.6g %s: it would lie outside the range of water's IAPWS-IF97 "
+                            "vapor pressure (273.15 to 647.096 K, the critical point), the one "
+                            "vapor-pressure equation that is not extrapolated; this condition "
+                            "is too far from the data",
+                            r->fail_x1, mode == PW_AZ_ISOBARIC ? "P =" : "T =",
+                            mode == PW_AZ_ISOBARIC ? fixed / 1000.0 : fixed,
+                            mode == PW_AZ_ISOBARIC ? "kPa" : "K");
     if (st != PW_OK && !het_failed)
         return pw_error_set(err, st, where, 0, "azeotrope search failed near x1 = %.4g: %s",
                             r->fail_x1, pw_strerror(st));

@@ -70,6 +70,9 @@ for a in d["azeotropes"]:
     if not a["heterogeneous"]:
         assert not (xI < a["x1"] < xII), a
 PY
+# far beyond the data: the refusal says why (water's vapor pressure is not extrapolated)
+"$PW" azeotrope "$TMP/bw.json" --pressure 20MPa > /dev/null 2> "$TMP/err.txt" && fail "20 MPa accepted"
+grep -q "IAPWS-IF97" "$TMP/err.txt" || fail "20 MPa message: $(cat "$TMP/err.txt")"
 # a homogeneous system keeps heterogeneous: false
 "$PW" fit "$SRC/datasets/ethanol_water_1atm.csv" --model nrtl --out "$TMP/ew.json" > /dev/null 2>&1 \
     || fail "ethanol/water fit"
