@@ -294,10 +294,16 @@ static void print_text(const pw_fit_result *fit, const args *a, const pw_az_resu
                        : pw_units_display_T(u, half) - pw_units_display_T(u, 0.0),
                    isP ? pw_units_display_P_symbol(u) : pw_units_display_T_symbol(u));
         }
+        bool any_het = false;
+        for (size_t k = 0; tps && k < sc->n_points; k++)
+            any_het = any_het || (tps[k].exists && tps[k].heterogeneous_azeotrope);
         if (isfinite(sc->x1_shift))
             printf("  the azeotrope moves by %.4f in x1 over the scan (pressure swing is worth a look "
                    "from about 0.05-0.10: rule of thumb, common practice)\n",
                    sc->x1_shift);
+        if (any_het)
+            printf("  where it is heterogeneous, the decanter scheme crosses it at one pressure "
+                   "(pinchwise decanter); no pressure swing is needed for that\n");
     }
     cli_print_caution(stdout);
 }

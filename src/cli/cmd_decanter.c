@@ -65,7 +65,8 @@ static const cli_spec decanter_spec = {
         "temperature; its layer rich in component 1 tops stripping column A (bottoms\n"
         "--x1-rich), the other layer tops stripping column B (bottoms --x1-lean). Each column\n"
         "has a partial reboiler and no condenser of its own; constant molal overflow. The feed\n"
-        "enters the decanter, so --q changes the condenser duty only, not the flows.\n",
+        "enters the decanter, so --q changes no flow or stage count (a vapor feed only adds\n"
+        "to the condenser's load, which is not computed).\n",
     .blocks = decanter_blocks,
     .max_positional = 1,
     .positional = "one fit file",
@@ -209,7 +210,8 @@ pw_status cli_decanter(int argc, char **argv)
                    r.bottoms_per_mol_feed[0], r.bottoms_per_mol_feed[1], r.closure);
             printf("  vapor/F: boil-up per mole of feed, condensed into the decanter; layer/F: the\n"
                    "  decanter layer returned to the column's top, per mole of feed.\n");
-            printf("  q = %g: the feed enters the decanter, so q changes the condenser duty only.\n"
+            printf("  q = %g: the feed enters the decanter, so q changes no flow or stage count\n"
+                   "  (a vapor feed only adds to the condenser's load; duties are not computed).\n"
                    "  The decanter is taken at the three-phase temperature; a cooled decanter has\n"
                    "  other layers (check them with pinchwise lle at its temperature).\n",
                    a.spec.q);

@@ -360,6 +360,7 @@ PY
 "$PW" azeotrope "$TMP/bwm.json" --sweep 50kPa:3000kPa:12 > "$TMP/sw.txt" 2> /dev/null || fail "sweep text"
 grep -q "heterogeneous below P = " "$TMP/sw.txt" || fail "sweep text: no heterogeneous boundary"
 grep -q "reaches the layer poorer in 1-butanol" "$TMP/sw.txt" || fail "sweep text: which layer"
+grep -q "the decanter scheme crosses it" "$TMP/sw.txt" || fail "sweep text: no decanter hint"
 # just above that pressure the three-phase vapor lies outside the layers (a heterogeneous
 # non-azeotrope): reflux across the layers and decanter both refuse, and neither sends the user
 # to the other (no decanter scheme without a heterogeneous azeotrope)
