@@ -1062,6 +1062,14 @@ static void az_answer(pw_sbuf *b, const pw_report_curves *c, const pw_draw_az *a
             pw_sbuf_puts(b, ", ");
             temp(b, &c->units, az[i].T_K);
         }
+        /* a model that cannot split, inside the two liquids the data show */
+        const pw_system *sys = &c->fit->sys;
+        if (pw_system_split_unmodelled(sys)
+            && pw_measured_split_overlaps(&sys->measured, az[i].x1, az[i].x1))
+            pw_sbuf_printf(b, " <span class=\"verdict-fail\">(inside the two liquids the data "
+                              "show, xâ %.3f to %.3f, which the %s model cannot "
+                              "represent: not valid)</span>",
+                           sys->measured.x_lo, sys->measured.x_hi, sys->model->name);
     }
 }
 

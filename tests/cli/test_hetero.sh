@@ -284,6 +284,9 @@ z = [a for a in json.load(open(sys.argv[2]))["azeotropes"] if a["heterogeneous"]
 xs = [float(v) for v in re.findall(r"azeotrope x = ([0-9.]+)", html)]
 assert xs and all(abs(x - z["x1"]) < 0.002 for x in xs), (xs, z)
 PY
+# the report of a Wilson fit flags its azeotrope inside the two liquids the data show
+"$PW" report "$TMP/bw_wilson.json" --out "$TMP/rw.html" > /dev/null 2>&1 || fail "report of the wilson fit"
+grep -q "inside the two liquids the data show" "$TMP/rw.html" || fail "wilson report: azeotrope not flagged"
 # the report's decanter drawing names the two bottoms by their columns (no distillate there)
 "$PW" report "$TMP/bw.json" --out "$TMP/rd.html" --pressure 1atm --xd 0.995 --xb 0.001 --zf 0.2 \
     --svg "$TMP/svg" > /dev/null 2>&1 || fail "report with the decanter scheme exited $?"
