@@ -42,6 +42,12 @@ size_t pw_api_error_size(void);
 pw_status pw_api_fit(const char *data, const char *model, const char *components, const char *out,
                      int force, char **doc, char **fit_file, pw_error *err);
 
+/* As pw_api_fit, with the tie lines of the LLE file lle (may be NULL: none) fitted together with
+ * the VLE data, as `fit DATA --lle LLE`; an out that names the LLE file is refused. */
+pw_status pw_api_fit_lle(const char *data, const char *model, const char *components,
+                         const char *lle, const char *out, int force, char **doc, char **fit_file,
+                         pw_error *err);
+
 /* `check DATA [--components FILE] [--strict] --json`. */
 pw_status pw_api_check(const char *data, const char *components, int strict, char **doc,
                        pw_error *err);

@@ -193,6 +193,13 @@ typedef struct pw_fit_result {
                                 * when none, or from a fit file written before they were kept) */
 } pw_fit_result;
 
+/* fit --lle: points fo at the tie lines of lle in the dataset's component order (a swapped copy
+ * in *swapped, which the caller frees after the fit, when the LLE file names the components the
+ * other way round; NULL otherwise) with the file's sigma_x. PW_EPARSE naming the LLE file's
+ * components line when its components are not the dataset's. */
+pw_status pw_fit_attach_tie_lines(const pw_lle_dataset *lle, const pw_dataset *ds,
+                                  pw_fit_options *fo, pw_tie_line **swapped, pw_error *err);
+
 /* Fits model to ds with components c1, c2 (in the dataset's order). out is filled even when
  * the fit does not converge (converged = false, stop says why); the return is then PW_OK.
  * Errors: PW_ETOOFEW (fewer usable points than parameters + 1), PW_EINVAL, PW_ENOMEM.

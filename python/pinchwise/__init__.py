@@ -154,6 +154,7 @@ def _declare(lib):
         "pw_model_names": (c_str, [ctypes.c_char_p, ctypes.c_size_t]),
         "pw_error_format": (c_str, [err, ctypes.c_char_p, ctypes.c_size_t]),
         "pw_api_fit": (c_int, [c_str, c_str, c_str, c_str, c_int, out, out, err]),
+        "pw_api_fit_lle": (c_int, [c_str, c_str, c_str, c_str, c_str, c_int, out, out, err]),
         "pw_api_check": (c_int, [c_str, c_str, c_int, out, err]),
         "pw_api_azeotrope": (c_int, [c_str, c_str, c_str, c_str, c_str, c_str, c_int, c_long,
                                      c_long, out, err]),
@@ -318,7 +319,7 @@ def _fit_source(fit):
                          "contents", status="invalid argument")
 
 
-def fit(path, model, components=None, out=None, force=False):
+def fit(path, model, components=None, out=None, force=False, lle=None):
     """Fits an activity model to a measured binary VLE file; like ``pinchwise fit --json``.
 
     path: the dataset (CSV with ``# components:`` and ``# pressure:`` or ``# temperature:``).
@@ -327,10 +328,12 @@ def fit(path, model, components=None, out=None, force=False):
     components: an extra component file whose rows take precedence over the shipped library.
     out: where to write the fit file (atomically; an existing file is replaced only with
     force=True). Without out nothing is written and the result's ``"fit_file"`` is None.
+    lle: a tie-line file (``T[UNIT]``, ``x1_I``, ``x1_II``) fitted together with the VLE data,
+    as ``pinchwise fit --lle``; the model must be one that can split.
 
     Returns a :class:`Fit` (a dict with the command's keys: model, converged, components,
     parameters, stderr, ln_gamma_inf, T_ref_K, aad_y, aad_T_K, aad_P_kPa, statistics, ...)."""
-    doc, text = _call("pw_api_fit", _b(path), _b(model), _b(components), _b(out),
+    doc, text = _call("pw_api_fit_lle", _b(path), _b(model), _b(components), _b(lle), _b(out),
                       1 if force else 0, extra_out=True)
     return Fit(doc, text)
 

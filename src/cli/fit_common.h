@@ -36,11 +36,6 @@ pw_status cli_fit_one(const char *input, const pw_model_type *model, const char 
                const cli_fit_opts *co, pw_fit_result *r, char *path, size_t path_len,
                pw_error *err);
 
-/* fit --lle: points fo at the tie lines of lle in the dataset's component order (a swapped copy
- * in *swapped, which the caller frees, when the file names them the other way round). */
-pw_status cli_fit_tie_lines(const pw_lle_dataset *lle, const pw_dataset *ds,
-                               pw_fit_options *fo, pw_tie_line **swapped, pw_error *err);
-
 /* The --json object of one fit: the fit file without the data and component blocks, plus
  * "fit_file". New reference. */
 json_t *cli_fit_json(const pw_fit_result *r, const char *path);

@@ -12,6 +12,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <sys/stat.h>
 
 #include "pinchwise_version.h"
 
@@ -115,6 +116,14 @@ static pw_status unc_options(int uncertainty, long samples, long seed, bool *on,
     return PW_OK;
 }
 
+/* true when both paths name one existing file (an output must never replace an input) */
+static bool same_file(const char *a, const char *b)
+{
+    struct stat sa, sb;
+    return stat(a, &sa) == 0 && stat(b, &sb) == 0 && sa.st_dev == sb.st_dev
+           && sa.st_ino == sb.st_ino;
+}
+
 static const char *fit_where(const char *fit_path, const char *name)
 {
     return fit_path ? fit_path : name ? name : "fit";
@@ -146,6 +155,13 @@ static pw_status read_data(const char *data, const char *components, pw_dataset 
 pw_status pw_api_fit(const char *data, const char *model, const char *components, const char *out,
                      int force, char **doc, char **fit_file, pw_error *err)
 {
+    return pw_api_fit_lle(data, model, components, NULL, out, force, doc, fit_file, err);
+}
+
+pw_status pw_api_fit_lle(const char *data, const char *model, const char *components,
+                         const char *lle, const char *out, int force, char **doc, char **fit_file,
+                         pw_error *err)
+{
     if (doc_slot(doc, err) != PW_OK)
         return PW_EINVAL;
     if (fit_file)
@@ -169,7 +185,20 @@ pw_status pw_api_fit(const char *data, const char *model, const char *components
     pw_fit_result r;
     memset(&r, 0, sizeof r);
     pw_fit_options o = pw_fit_default_options();
-    st = pw_fit_run(&ds, &found[0], &found[1], m, &o, &r, err);
+    pw_lle_dataset ties;
+    memset(&ties, 0, sizeof ties);
+    pw_tie_line *swapped = NULL;
+    if (lle) /* tie lines: same components, in either order; never written over */
+        st = out && same_file(out, lle)
+                 ? pw_error_set(err, PW_EINVAL, out, 0, "the output would replace the LLE file")
+                 : pw_lle_dataset_read(lle, &ties, err);
+    if (st == PW_OK && lle)
+        st = pw_fit_attach_tie_lines(&ties, &ds, &o, &swapped, err);
+    if (st == PW_OK)
+        st = pw_fit_run(&ds, &found[0], &found[1], m, &o, &r, err);
+    free(swapped);
+    if (lle)
+        pw_lle_dataset_free(&ties);
     pw_dataset_free(&ds);
     if (st != PW_OK)
         return st;

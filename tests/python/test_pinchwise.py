@@ -224,6 +224,33 @@ class NewCommandsEqualToCommandLine(unittest.TestCase):
                 same_as_cli(self, lambda: pinchwise.lle(out, "300K", scan="280K:380K:5"), "lle",
                             out, "--temperature", "300K", "--scan", "280K:380K:5")
 
+    def test_fit_with_tie_lines(self):
+        """fit(..., lle=...) gives the program's `fit --lle --json`, for the tie lines named in
+        either component order, and the same refusal for a model that cannot split."""
+        ties = os.path.join(SRC, "datasets", "lle", "butanol_water_25C_ties.csv")
+        out = os.path.join(self.tmp.name, "bw_lle.json")
+        want = cli("fit", self.BW, "--model", "nrtl", "--lle", ties, "--out", out, "--json")
+        self.assertEqual(want["lle"]["tie_lines"], 1)
+        got = pinchwise.fit(self.BW, "nrtl", lle=ties, out=out, force=True)
+        self.assertEqual(without_created(got), without_created(want))
+        swapped = os.path.join(self.tmp.name, "ties_swapped.csv")
+        with open(swapped, "w", encoding="utf-8") as f:
+            f.write("# components: water, 1-butanol\n# sigma_x: 0.003\nT[K],x1_I,x1_II\n"
+                    "298.15,0.512,0.981\n")
+        again = pinchwise.fit(self.BW, "nrtl", lle=swapped)
+        for k, v in want["parameters"].items():  # 1 - x rounds in the last digit
+            self.assertAlmostEqual(again["parameters"][k], v, delta=1e-10 * max(1.0, abs(v)))
+        code, msg = cli_error("fit", self.BW, "--model", "wilson", "--lle", ties, "--out",
+                              os.path.join(self.tmp.name, "w.json"))
+        self.assertNotEqual(code, 0)
+        with self.assertRaises(pinchwise.PinchwiseError) as e:
+            pinchwise.fit(self.BW, "wilson", lle=ties)
+        self.assertIn("cannot", str(e.exception))
+        with self.assertRaises(pinchwise.PinchwiseError):
+            pinchwise.fit(self.BW, "nrtl", lle=swapped, out=swapped, force=True)
+        with open(swapped, encoding="utf-8") as f:
+            self.assertIn("0.512", f.read())
+
     def test_decanter(self):
         """The specifications of the command-line tests (tests/cli/test_hetero.sh) and the one of
         the module's documentation, feasible and not."""

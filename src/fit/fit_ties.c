@@ -1,12 +1,13 @@
-/* fit --lle: the tie lines of an LLE file matched to the dataset's component order. */
-#include "cli.h"
-#include "fit_common.h"
+/* fit --lle: the tie lines of an LLE file matched to the dataset's component order (moved from
+ * src/cli so that the command line and the API share it). */
+#include <pinchwise/fit.h>
+#include <pinchwise/lledata.h>
 
 #include <stdlib.h>
 #include <strings.h>
 
-pw_status cli_fit_tie_lines(const pw_lle_dataset *lle, const pw_dataset *ds,
-                               pw_fit_options *fo, pw_tie_line **swapped, pw_error *err)
+pw_status pw_fit_attach_tie_lines(const pw_lle_dataset *lle, const pw_dataset *ds,
+                                  pw_fit_options *fo, pw_tie_line **swapped, pw_error *err)
 {
     *swapped = NULL;
     bool same = !strcasecmp(lle->names[0], ds->names[0]) && !strcasecmp(lle->names[1], ds->names[1]);
