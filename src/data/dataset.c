@@ -72,6 +72,14 @@ static char tp_column(const char *f, char *unit, size_t cap)
 
 static pw_status header_row(pw_ds_reader *rd, char **f, size_t n, long line, pw_error *err)
 {
+    /* a tie-line (LLE) file given where VLE data are expected */
+    for (size_t i = 0; i < n; i++)
+        if (!strcasecmp(f[i], "x1_I") || !strcasecmp(f[i], "x1_II"))
+            return pw_error_set(err, PW_EPARSE, rd->name, line,
+                                "the header row has the tie-line column '%.20s': this is a "
+                                "liquid-liquid (LLE) file, not vapor-liquid data; give it to "
+                                "fit with --lle beside a VLE data file",
+                                f[i]);
     pw_status st = pw_ds_meta_complete(rd, line, err);
     if (st != PW_OK)
         return st;

@@ -247,6 +247,10 @@ python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); d["lle"]["tie_lines
     "$TMP/bwl.json" "$TMP/bwl_bad.json"
 "$PW" lle "$TMP/bwl_bad.json" --temperature 25C > /dev/null 2> "$TMP/err.txt" && fail "bad lle block accepted"
 grep -q "lle.rows" "$TMP/err.txt" || fail "bad lle block message: $(cat "$TMP/err.txt")"
+# a tie-line file given as the VLE data: refused, pointing to --lle, naming file and line
+"$PW" fit "$SRC/datasets/lle/butanol_water_25C_ties.csv" --model nrtl --out "$TMP/no_ties.json" \
+    > /dev/null 2> "$TMP/err.txt" && fail "tie-line file accepted as VLE data"
+grep -q "butanol_water_25C_ties.csv:5: .*--lle" "$TMP/err.txt" || fail "tie-line file as data: $(cat "$TMP/err.txt")"
 # Wilson is refused with tie lines, with the reason
 "$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model wilson --lle "$SRC/datasets/lle/butanol_water_25C_ties.csv" \
     --out "$TMP/bwlw.json" > /dev/null 2> "$TMP/err.txt" && fail "wilson accepted with --lle"
