@@ -31,6 +31,13 @@ static pw_status on_line(void *ctx, const char *text, size_t len, long line, boo
     return pw_ds_meta_line(&r->meta, text, len, line, err);
 }
 
+/* A number of the file, its decimal comma made a point where the file uses ';' fields. */
+static bool number(const lle_reader *r, const char *text, double *out)
+{
+    char num[64];
+    return pw_ds_decimal_point(&r->meta, text, num, sizeof num) && pw_csvrows_number(num, out);
+}
+
 static pw_status header(lle_reader *r, char **f, size_t n, long line, pw_error *err)
 {
     const char *name = r->meta.name;
@@ -88,14 +95,14 @@ static pw_status row(void *ctx, char **f, size_t n, long line, pw_error *err)
         return pw_error_set(err, PW_EPARSE, name, line, "%zu fields, expected at least %ld", n,
                             need + 1);
     double T, a, b, TK;
-    if (!pw_csvrows_number(f[r->col_T], &T))
+    if (!number(r, f[r->col_T], &T))
         return pw_error_set(err, PW_EPARSE, name, line, "temperature '%.40s' is not a number",
                             f[r->col_T]);
     if (pw_units_to_si(PW_QTY_TEMPERATURE, T, r->T_unit, &TK) != PW_OK || !(TK > 1.0)
         || !(TK < 5000.0))
         return pw_error_set(err, PW_EPARSE, name, line,
                             "temperature %g %s is outside 1-5000 K", T, r->T_unit);
-    if (!pw_csvrows_number(f[r->col_a], &a) || !pw_csvrows_number(f[r->col_b], &b))
+    if (!number(r, f[r->col_a], &a) || !number(r, f[r->col_b], &b))
         return pw_error_set(err, PW_EPARSE, name, line,
                             "x1_I and x1_II must be numbers (got '%.40s', '%.40s')", f[r->col_a],
                             f[r->col_b]);
@@ -137,8 +144,13 @@ pw_status pw_lle_dataset_parse(const char *buf, size_t len, const char *name, pw
     memset(&r, 0, sizeof r);
     pw_ds_reader_init(&r.meta, name);
     r.d = out;
+    /* a spreadsheet export may separate fields with ';' (and then write decimal commas), as in
+     * dataset files */
+    r.meta.delim = pw_csvrows_detect_delim(buf, len);
+    r.meta.decimal_comma = r.meta.delim != ',';
     pw_csvrows rows;
     st = pw_csvrows_init(&rows, name, on_line, row, &r, err);
+    pw_csvrows_set_delim(&rows, r.meta.delim);
     if (st == PW_OK)
         st = pw_csvrows_feed_all(&rows, buf, len, 0);
     pw_csvrows_free(&rows);

@@ -43,6 +43,15 @@ static void reader(void **state)
     pw_assert_close(d.rows[0].x_I, 0.512, 0.0, 1e-15, "swapped x_I");
     pw_assert_close(d.rows[0].x_II, 0.981, 0.0, 1e-15, "swapped x_II");
     pw_lle_dataset_free(&d);
+    /* a spreadsheet export: ';' fields and decimal commas, as dataset files accept */
+    const char *semi = "# components: 1-butanol; water\nT[C];x1_I;x1_II\n25,5;0,019;0,488\n";
+    assert_int_equal(pw_lle_dataset_parse(semi, strlen(semi), "s.csv", &d, &err), PW_OK);
+    assert_int_equal(d.n, 1);
+    pw_assert_close(d.rows[0].T_K, 298.65, 0.0, 1e-12, "T with a decimal comma");
+    pw_assert_close(d.rows[0].x_I, 0.019, 0.0, 0.0, "x_I with a decimal comma");
+    pw_assert_close(d.rows[0].x_II, 0.488, 0.0, 0.0, "x_II with a decimal comma");
+    assert_string_equal(d.names[1], "water");
+    pw_lle_dataset_free(&d);
     const char *sig = "# components: a, b\n# pressure: 1 bar\n# sigma_x: 0.002\nT[K],x1_I,x1_II\n"
                       "300,0.1,0.9\n";
     assert_int_equal(pw_lle_dataset_parse(sig, strlen(sig), "s.csv", &d, &err), PW_OK);
