@@ -43,6 +43,9 @@ static const cli_option study_options[] = {
     {.name = "--out-dir", .kind = CLI_STRING, .metavar = "DIR",
      .help = "folder for the fit files and the report (default: study)"},
     {.name = "--force", .kind = CLI_FLAG, .help = "replace existing fit files and report"},
+    {.name = "--lle", .kind = CLI_STRING, .metavar = "LLE.csv",
+     .help = "measured tie lines fitted together with the data, as fit --lle\n"
+             "(models that cannot split are then left out of the choice)"},
     CLI_END,
 };
 
@@ -67,7 +70,7 @@ static const cli_spec study_spec = {
 
 typedef struct study_args {
     bool help; /* --help was asked for: nothing else is set */
-    const char *data, *model_name, *out_dir, *components;
+    const char *data, *model_name, *out_dir, *components, *lle;
     bool json, force, uncertainty, exit_verdict;
     cli_args opts; /* the column options, read again by cli_column_args_from */
 } study_args;
@@ -90,6 +93,7 @@ static pw_status parse(int argc, char **argv, study_args *a, pw_error *err)
     if (!a->out_dir)
         a->out_dir = "study";
     a->components = cli_text(p, "--components");
+    a->lle = cli_text(p, "--lle");
     a->data = p->n_pos ? p->pos[0] : NULL;
     if (!a->data) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "a data file is required");
@@ -220,6 +224,19 @@ pw_status cli_study(int argc, char **argv)
     co.lib = &lib;
     co.force = a.force;
     co.quiet = true;
+    pw_lle_dataset ties;
+    memset(&ties, 0, sizeof ties);
+    if (a.lle) {
+        pw_error lerr;
+        if (pw_lle_dataset_read(a.lle, &ties, &lerr) != PW_OK) {
+            free(fits);
+            pw_consistency_result_free(&cr);
+            pw_complib_free(&lib);
+            return cli_fail(CMD, &lerr);
+        }
+        co.lle = &ties;
+        co.inputs[co.n_inputs++] = a.lle;
+    }
     size_t best = 0;
     char chosen_because[512] = "the only model fitted";
     for (size_t i = 0; i < n_models; i++) {
@@ -228,6 +245,8 @@ pw_status cli_study(int argc, char **argv)
         fits[i].rc = cli_fit_one(a.data, models[i], NULL, a.out_dir, &co, &fits[i].r, fits[i].path,
                                 sizeof fits[i].path, &fits[i].err);
     }
+    pw_lle_dataset_free(&ties); /* the fits hold what they need of the tie lines */
+    co.lle = NULL;
     /* the one ranking rule of `fit --model all` and the report (pinchwise/assess.h) */
     {
         const pw_fit_result *ok[PW_RANK_MAX];

@@ -247,6 +247,17 @@ python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); d["lle"]["tie_lines
     "$TMP/bwl.json" "$TMP/bwl_bad.json"
 "$PW" lle "$TMP/bwl_bad.json" --temperature 25C > /dev/null 2> "$TMP/err.txt" && fail "bad lle block accepted"
 grep -q "lle.rows" "$TMP/err.txt" || fail "bad lle block message: $(cat "$TMP/err.txt")"
+# study --lle: the tie lines reach every fit; Wilson is left out of the choice with its reason
+"$PW" study "$SRC/datasets/butanol_water_1atm.csv" --lle "$SRC/datasets/lle/butanol_water_25C_ties.csv" \
+    --pressure 1atm --xd 0.995 --xb 0.001 --zf 0.2 --out-dir "$TMP/st" --json > "$TMP/st.json" 2> /dev/null
+python3 - "$TMP/st.json" "$TMP/st" <<'PY' || fail "study --lle"
+import json, sys, os
+d = json.load(open(sys.argv[1]))
+assert d["chosen_model"] != "wilson", d["chosen_model"]
+f = json.load(open(os.path.join(sys.argv[2], "butanol_water_1atm.%s.json" % d["chosen_model"])))
+assert f["lle"]["tie_lines"] == 1, f["lle"]
+assert d["reflux"]["feasible"] is False and "decanter" in d["reflux"]["reason"], d["reflux"]
+PY
 # a tie-line file given as the VLE data: refused, pointing to --lle, naming file and line
 "$PW" fit "$SRC/datasets/lle/butanol_water_25C_ties.csv" --model nrtl --out "$TMP/no_ties.json" \
     > /dev/null 2> "$TMP/err.txt" && fail "tie-line file accepted as VLE data"
