@@ -303,8 +303,11 @@ void fit_het_finish(const fit_problem *fp, pw_fit_result *r)
         fit_problem part = *fp;
         part.ties = fp->ties + t0;
         part.n_ties = fp->n_ties - t0 < 64 ? fp->n_ties - t0 : 64;
-        if (fit_ties_eval(&part, &s, f, NULL) != PW_OK)
+        if (fit_ties_eval(&part, &s, f, NULL) != PW_OK) {
+            free(r->ties); /* no half-filled table: counts only */
+            r->ties = NULL;
             return;
+        }
         for (size_t i = 0; i < 2 * part.n_ties; i++) {
             sum += fabs(f[i]) * fp->sigma_x_lle;
             cnt++;
