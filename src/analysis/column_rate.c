@@ -11,6 +11,7 @@
 
 #include "base/solve1d.h"
 
+#include <pinchwise/decanter.h>
 #include <pinchwise/lle.h>
 #include <stdio.h>
 
@@ -242,6 +243,23 @@ pw_status pw_rate_verify(const pw_system *sys, double P_Pa, pw_rate_result *out,
             pw_rate_result_free(out);
             return pw_error_set(err, PW_EINFEASIBLE, NULL, 0, "%s", msg);
         }
+    }
+    /* a model that cannot split, on data that show two liquids: a stage inside the measured
+     * range is not described by it (docs/heterogeneous.md section 3) */
+    for (size_t i = 0; pw_system_split_unmodelled(sys) && i < out->profile.n; i++) {
+        const pw_stage *g = &out->profile.stage[i];
+        if (!pw_measured_split_overlaps(&sys->measured, g->x, g->x))
+            continue;
+        char msg[PW_ERROR_MSG_MAX];
+        snprintf(msg, sizeof msg,
+                 "%s: the liquid of stage %zu (x1 = %.4g) lies inside the two liquids the data "
+                 "show (x1 %.4g to %.4g at %.2f K, %.2f kPa), which the %s model cannot "
+                 "represent: its stage there is not valid; refit with a model that can split "
+                 "(fit --lle) and decant the layers (pinchwise decanter)",
+                 what, i + 1, g->x, sys->measured.x_lo, sys->measured.x_hi, sys->measured.T_K,
+                 sys->measured.P_Pa / 1000.0, sys->model->name);
+        pw_rate_result_free(out);
+        return pw_error_set(err, PW_EINFEASIBLE, NULL, 0, "%s", msg);
     }
     if (!(fabs(out->residual) <= RATE_MISMATCH_TOL)) {
         double r = out->residual, xd = out->xd, xb = out->xb;

@@ -299,6 +299,12 @@ z = [a for a in json.load(open(sys.argv[2]))["azeotropes"] if a["heterogeneous"]
 xs = [float(v) for v in re.findall(r"azeotrope x = ([0-9.]+)", html)]
 assert xs and all(abs(x - z["x1"]) < 0.002 for x in xs), (xs, z)
 PY
+# rate on the Wilson fit: a stage inside the two liquids the data show is refused (exit 7)
+"$PW" rate "$TMP/bw_wilson.json" --pressure 1atm --stages 10 --feed-stage 5 --reflux 2 --zf 0.2 \
+    --distillate 0.2 > /dev/null 2> "$TMP/err.txt"
+rc=$?
+[ "$rc" = 7 ] && grep -q "inside the two liquids the data show" "$TMP/err.txt" \
+    || fail "wilson rate across the measured two liquids: exit $rc, $(cat "$TMP/err.txt")"
 # the report of a Wilson fit flags its azeotrope inside the two liquids the data show
 "$PW" report "$TMP/bw_wilson.json" --out "$TMP/rw.html" > /dev/null 2>&1 || fail "report of the wilson fit"
 grep -q "inside the two liquids the data show" "$TMP/rw.html" || fail "wilson report: azeotrope not flagged"
