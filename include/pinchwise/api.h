@@ -106,6 +106,15 @@ pw_status pw_api_decanter_ex(const char *fit_path, const char *fit_text, const c
                              double x1_rich, double x1_lean, double q, int uncertainty,
                              long samples, long seed, char **doc, pw_error *err);
 
+/* `decanter ... [--decanter-temperature T]`: pw_api_decanter_ex with a cooled decanter at
+ * decanter_temperature (a temperature with its unit, e.g. "30C"; NULL or "" for the three-phase
+ * temperature). */
+pw_status pw_api_decanter_ex2(const char *fit_path, const char *fit_text, const char *name,
+                              const char *components, const char *pressure, double zf,
+                              double x1_rich, double x1_lean, double q, int uncertainty,
+                              long samples, long seed, const char *decanter_temperature,
+                              char **doc, pw_error *err);
+
 /* `rate FIT --pressure P --stages N --feed-stage K --reflux R --zf X --distillate D --q Q
  * [--energy] --json`: the products of a given column. stages, feed_stage 1..100000; zf in
  * [0, 1]; q in [-10, 10]; energy != 0: energy balances (adds the duties). */

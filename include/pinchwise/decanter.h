@@ -67,6 +67,11 @@ pw_status pw_stripper_stages(const pw_curve *curve, const pw_stripper_spec *spec
 typedef struct pw_decanter_spec {
     double P_Pa, zf, q;
     double x_rich, x_lean;      /* bottoms of column A (rich in 1) and of column B */
+    double T_decanter_K;        /* the decanter's temperature: 0 or NAN for the three-phase
+                                 * temperature T3 (the default). Below T3 (a cooled decanter)
+                                 * the layers are pw_lle_solve's at this temperature, and each
+                                 * is heated back to its bubble point before it tops its column
+                                 * (the reheat duty below); docs/heterogeneous.md section 3. */
 } pw_decanter_spec;
 
 typedef struct pw_decanter_result {
@@ -84,6 +89,22 @@ typedef struct pw_decanter_result {
      * = 1 + V_A + V_B (a total balance the test checks). */
     double vapor_per_mol_feed[2][PW_COLUMN_MAX_FACTORS];
     double layer_per_mol_feed[2][PW_COLUMN_MAX_FACTORS];
+    double T_decanter_K;        /* the decanter's temperature (T3 unless cooled) */
+    bool cooled;                /* T_decanter_K lies below T3 */
+    /* Duties per mole of fresh feed at design row k, J/mol (the project's enthalpy model,
+     * include/pinchwise/enthalpy.h, on the constant-molal-overflow flows above), filled when
+     * duties is true (both components' heat data known; else NAN and duties_note says why):
+     * reboiler of column i, V_i [H_V(y*, T_B) - h_L(x_B, T_B)] at its bottoms' bubble point;
+     * reheat of the layer returned to column i, L_i [h_L(x, T_bubble) - h_L(x, T_decanter)]
+     * (0 when the decanter is not cooled); the one condenser, which condenses both top vapors
+     * (each at its top stage's temperature) and takes the fresh feed (enthalpy from q, as
+     * pw_enthalpy_feed, a liquid feed inside the two-liquid region as two layers at T3) to
+     * the decanter's layers at T_decanter_K. All three are positive for heat moved as named. */
+    bool duties;
+    char duties_note[PW_REASON_MAX];
+    double reboiler_J[2][PW_COLUMN_MAX_FACTORS];
+    double reheat_J[2][PW_COLUMN_MAX_FACTORS];
+    double condenser_J[PW_COLUMN_MAX_FACTORS];
     double T_lo_K, T_hi_K;      /* temperatures the scheme used, for range warnings
                                  * (pw_fit_range_check): the three-phase temperature and, when
                                  * feasible, the bottoms' bubble points; NAN when no three-phase
@@ -91,8 +112,11 @@ typedef struct pw_decanter_result {
 } pw_decanter_result;
 
 /* Sizes the scheme at P for the fitted system (its curve y*(x) by pw_system_curve). Infeasible
- * specifications are PW_OK with feasible false and a reason. Errors: PW_EINVAL for values
- * outside (0, 1) or P not positive; solver failures. */
+ * specifications are PW_OK with feasible false and a reason: among them a cooled decanter above
+ * T3, one whose temperature gives no split, and one whose layer lies inside the layers that
+ * boil at T3 (heated back, it would boil as two liquids on its column's top stage, which the
+ * single-liquid stage model does not describe). Errors: PW_EINVAL for values outside (0, 1),
+ * P not positive or a decanter temperature not positive; solver failures. */
 pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *spec,
                             const pw_column_options *opt, pw_decanter_result *out);
 

@@ -170,6 +170,9 @@ def _declare(lib):
                                     c_double, c_double, out, err]),
         "pw_api_decanter_ex": (c_int, [c_str, c_str, c_str, c_str, c_str, c_double, c_double,
                                        c_double, c_double, c_int, c_long, c_long, out, err]),
+        "pw_api_decanter_ex2": (c_int, [c_str, c_str, c_str, c_str, c_str, c_double, c_double,
+                                        c_double, c_double, c_int, c_long, c_long, c_str, out,
+                                        err]),
         "pw_api_rate": (c_int, [c_str, c_str, c_str, c_str, c_str, c_long, c_long, c_double,
                                 c_double, c_double, c_double, c_int, out, err]),
     }
@@ -420,12 +423,14 @@ def lle(fit, temperature, scan=None, components=None):
 
 
 def decanter(fit, pressure, zf, x1_rich, x1_lean, q=1.0, components=None, uncertainty=False,
-             samples=None, seed=None):
+             samples=None, seed=None, decanter_temperature=None):
     """The decanter and two stripping columns of a partly miscible binary with a heterogeneous
     azeotrope; like ``pinchwise decanter --json``.
 
     The fresh feed (zf, liquid fraction q) and both condensed overheads enter one decanter at
-    the three-phase temperature; its layer rich in component 1 tops a stripping column whose
+    the three-phase temperature (or, cooled, at decanter_temperature, a temperature with its unit
+    such as "30C", as ``--decanter-temperature``: its layers there, each reheated to its bubble
+    point before it tops its column); its layer rich in component 1 tops a stripping column whose
     bottoms has x1 = x1_rich, the other layer tops a second one with bottoms x1 = x1_lean. zf
     lies strictly between 0 and 1; q changes the condenser duty only (the feed enters the
     decanter). An impossible specification returns ``"feasible": False`` with a ``"reason"``.
@@ -434,14 +439,16 @@ def decanter(fit, pressure, zf, x1_rich, x1_lean, q=1.0, components=None, uncert
     dict adds "uncertainty" (T_K, vapor_x1, x1_layers, boilup_min, feasible_probability, draws,
     seed) from the fit's parameter covariance.
 
-    Returns a dict with feasible, reason, decanter (T_K, x1_layers, vapor_x1), columns (bottoms
-    rich in 1 first: bottoms_x1, top_x1, boilup_min, n_min, design rows, pinch),
-    bottoms_per_mol_feed, balance_closure, q, caution."""
+    Returns a dict with feasible, reason, decanter (T_K, x1_layers, vapor_x1, cooled),
+    three_phase (T_K, x1_layers, vapor_x1), columns (bottoms rich in 1 first: bottoms_x1, top_x1,
+    boilup_min, n_min, design rows with reboiler_kJ_per_mol_feed and reheat_kJ_per_mol_feed,
+    pinch), bottoms_per_mol_feed, balance_closure, condenser_kJ_per_mol_feed (per design row;
+    None without heat data, duties_note then says why), q, caution."""
     fit_path, fit_text, name = _fit_source(fit)
-    return _call("pw_api_decanter_ex", fit_path, fit_text, name, _b(components), _b(pressure),
+    return _call("pw_api_decanter_ex2", fit_path, fit_text, name, _b(components), _b(pressure),
                  _fraction("zf", zf), _fraction("x1_rich", x1_rich),
                  _fraction("x1_lean", x1_lean), _fraction("q", q), 1 if uncertainty else 0,
-                 _count("samples", samples), _count("seed", seed))
+                 _count("samples", samples), _count("seed", seed), _b(decanter_temperature))
 
 
 def rate(fit, pressure, stages, feed_stage, reflux, zf, distillate, q=1.0, energy=False,

@@ -6,6 +6,7 @@
 #include <pinchwise/units.h>
 #include <pinchwise/curve.h>
 #include <pinchwise/decanter.h>
+#include <pinchwise/enthalpy.h>
 
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_roots.h>
@@ -285,6 +286,153 @@ pw_status pw_column_hetero_block(const pw_system *s, double P_Pa, double x_a, do
     return PW_OK;
 }
 
+/* The layers the decanter returns: the three-phase layers at T3, or pw_lle_solve's at a cooled
+ * decanter's temperature, checked to lie outside the layers that boil at T3. false with
+ * out->reason when the cooled decanter cannot work. */
+static pw_status decanter_layers(const pw_system *s, const pw_decanter_spec *sp,
+                                 pw_decanter_result *out, bool *ok)
+{
+    const pw_three_phase *tp = &out->decanter;
+    *ok = false;
+    out->T_decanter_K = tp->T_K;
+    out->top_x1[0] = tp->x[1];
+    out->top_x1[1] = tp->x[0];
+    double Td = sp->T_decanter_K;
+    if (Td == 0.0 || isnan(Td) || fabs(Td - tp->T_K) <= 1e-9 * tp->T_K) {
+        *ok = true;
+        return PW_OK;
+    }
+    if (Td > tp->T_K) {
+        snprintf(out->reason, sizeof out->reason,
+                 "a decanter at " PW_TEXT_T(".2f") " lies above the three-phase temperature "
+                 PW_TEXT_T(".2f") ": its liquid would boil; give a decanter temperature at or "
+                 "below it",
+                 Td, tp->T_K);
+        return PW_OK;
+    }
+    pw_lle_result l;
+    pw_status st = pw_lle_solve(s, Td, &l);
+    if (st == PW_ERANGE) {
+        snprintf(out->reason, sizeof out->reason,
+                 "at the decanter temperature " PW_TEXT_T(".2f") " the model puts a layer within "
+                 "1e-12 of a pure component: the split cannot be resolved there",
+                 Td);
+        return PW_OK;
+    }
+    if (st != PW_OK)
+        return st;
+    if (!l.split) {
+        snprintf(out->reason, sizeof out->reason,
+                 "the model predicts one liquid at the decanter temperature " PW_TEXT_T(".2f")
+                 ": there is nothing to decant there",
+                 Td);
+        return PW_OK;
+    }
+    out->cooled = true;
+    out->T_decanter_K = Td;
+    out->top_x1[0] = l.x[1];
+    out->top_x1[1] = l.x[0];
+    if (l.x[1] < tp->x[1] || l.x[0] > tp->x[0]) {
+        bool rich = l.x[1] < tp->x[1];
+        snprintf(out->reason, sizeof out->reason,
+                 "at the decanter's " PW_TEXT_T(".2f") " the layer %s in 1 (x1 = %.5g) lies "
+                 "inside the layers boiling at " PW_TEXT_T(".2f") " (%.5g, %.5g): reheated, it "
+                 "would boil as two liquids atop column %s (not modelled); warm the decanter",
+                 Td, rich ? "rich" : "lean", rich ? l.x[1] : l.x[0], tp->T_K, tp->x[0], tp->x[1],
+                 rich ? "A" : "B");
+        return PW_OK;
+    }
+    *ok = true;
+    return PW_OK;
+}
+
+/* Saturated liquid feed of overall composition z at P: inside the two-liquid region its two
+ * layers at T3 (lever rule), else the one liquid at its bubble point. */
+static pw_status feed_liquid_enthalpy(const pw_system *s, const pw_heat_data *h, double P_Pa,
+                                      double z, const pw_three_phase *tp, double *hL)
+{
+    if (tp->exists && z > tp->x[0] && z < tp->x[1]) {
+        double hI, hII;
+        pw_status st = pw_enthalpy_liquid(s, h, tp->x[0], tp->T_K, &hI);
+        if (st == PW_OK)
+            st = pw_enthalpy_liquid(s, h, tp->x[1], tp->T_K, &hII);
+        double beta = (z - tp->x[0]) / (tp->x[1] - tp->x[0]);
+        *hL = (1.0 - beta) * hI + beta * hII;
+        return st;
+    }
+    return pw_enthalpy_sat_liquid(s, h, P_Pa, z, hL, NULL);
+}
+
+/* The duties of every design row (see pw_decanter_result). */
+static pw_status decanter_duties(const pw_system *s, const pw_decanter_spec *sp,
+                                 const pw_curve *curve, size_t nrow, pw_decanter_result *out)
+{
+    pw_heat_data h;
+    pw_error err;
+    pw_error_clear(&err);
+    pw_status st = pw_heat_data_from_system(s, &h, &err);
+    if (st == PW_ENOTFOUND) {
+        snprintf(out->duties_note, sizeof out->duties_note, "duties not computed: %.*s",
+                 (int)(sizeof out->duties_note - 32), err.msg);
+        return PW_OK;
+    }
+    if (st != PW_OK)
+        return st;
+    const pw_three_phase *tp = &out->decanter;
+    double hF, hL;
+    st = feed_liquid_enthalpy(s, &h, sp->P_Pa, sp->zf, tp, &hL);
+    if (st == PW_OK && sp->q != 1.0) {
+        double HV;
+        st = pw_enthalpy_sat_vapor(s, &h, sp->P_Pa, sp->zf, &HV, NULL);
+        hF = HV - sp->q * (HV - hL);
+    } else {
+        hF = hL;
+    }
+    const double xb[2] = {sp->x_rich, sp->x_lean};
+    double lat[2] = {NAN, NAN}, lay_hot[2] = {0.0, 0.0}, lay_cold[2];
+    for (int i = 0; st == PW_OK && i < 2; i++) {
+        /* the reboiler: V moles of its equilibrium vapor raised from the bottoms' liquid */
+        pw_eq_point e;
+        st = pw_bubble_T(s, sp->P_Pa, xb[i], &e);
+        double hB;
+        if (st == PW_OK)
+            st = pw_enthalpy_liquid(s, &h, xb[i], e.T_K, &hB);
+        lat[i] = pw_enthalpy_vapor(&h, e.y1, e.T_K) - hB;
+        /* the layer at the decanter and at its bubble point */
+        if (st == PW_OK)
+            st = pw_enthalpy_liquid(s, &h, out->top_x1[i], out->T_decanter_K, &lay_cold[i]);
+        if (st == PW_OK && out->cooled) {
+            st = pw_bubble_T(s, sp->P_Pa, out->top_x1[i], &e);
+            if (st == PW_OK)
+                st = pw_enthalpy_liquid(s, &h, out->top_x1[i], e.T_K, &lay_hot[i]);
+        }
+    }
+    for (size_t k = 0; st == PW_OK && k < nrow; k++) {
+        double Qc = hF;
+        for (int i = 0; st == PW_OK && i < 2; i++) {
+            double V = out->vapor_per_mol_feed[i][k], L = out->layer_per_mol_feed[i][k];
+            double y = out->col[i].design[k].y_top;
+            /* the top vapor at its stage's temperature: the bubble point of the top stage's
+             * liquid, the one in equilibrium with y on the column's branch */
+            pw_stripper_spec cs = {out->top_x1[i], xb[i]};
+            double x1s;
+            st = x_of_y(curve, &cs, y, cs.x_top, &x1s);
+            pw_eq_point e;
+            if (st == PW_OK)
+                st = pw_bubble_T(s, sp->P_Pa, x1s, &e);
+            if (st != PW_OK)
+                break;
+            Qc += V * pw_enthalpy_vapor(&h, y, e.T_K) - L * lay_cold[i];
+            out->reboiler_J[i][k] = V * lat[i];
+            out->reheat_J[i][k] = out->cooled ? L * (lay_hot[i] - lay_cold[i]) : 0.0;
+        }
+        out->condenser_J[k] = Qc;
+    }
+    if (st == PW_OK)
+        out->duties = true;
+    return st;
+}
+
 pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
                             const pw_column_options *opt, pw_decanter_result *out)
 {
@@ -292,12 +440,17 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
         return PW_EINVAL;
     memset(out, 0, sizeof *out);
     out->closure = NAN;
-    out->T_lo_K = out->T_hi_K = NAN;
+    out->T_lo_K = out->T_hi_K = out->T_decanter_K = NAN;
     for (int i = 0; i < 2; i++)
         out->bottoms_per_mol_feed[i] = out->top_x1[i] = NAN;
+    for (size_t k = 0; k < PW_COLUMN_MAX_FACTORS; k++) {
+        out->condenser_J[k] = NAN;
+        for (int i = 0; i < 2; i++)
+            out->reboiler_J[i][k] = out->reheat_J[i][k] = NAN;
+    }
     if (!(sp->P_Pa > 0.0) || !isfinite(sp->P_Pa) || !(sp->zf > 0.0 && sp->zf < 1.0)
         || !(sp->x_rich > 0.0 && sp->x_rich <= 1.0) || !(sp->x_lean >= 0.0 && sp->x_lean < 1.0)
-        || !isfinite(sp->q))
+        || !isfinite(sp->q) || sp->T_decanter_K < 0.0 || isinf(sp->T_decanter_K))
         return PW_EINVAL;
     if (!pw_model_can_split(s->model)) {
         snprintf(out->reason, sizeof out->reason,
@@ -318,9 +471,9 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
                  "pressure: there is nothing to decant");
         return PW_OK;
     }
-    out->top_x1[0] = tp->x[1];
-    out->top_x1[1] = tp->x[0];
     if (!tp->heterogeneous_azeotrope) {
+        out->top_x1[0] = tp->x[1];
+        out->top_x1[1] = tp->x[0];
         snprintf(out->reason, sizeof out->reason,
                  "the three-phase vapor (x1 = %.4f) lies outside the liquid layers (%.4f, %.4f): a "
                  "heterogeneous non-azeotrope: the decanter scheme does not apply; see pinchwise "
@@ -328,18 +481,23 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
                  tp->y1, tp->x[0], tp->x[1]);
         return PW_OK;
     }
-    if (!(sp->x_rich > tp->x[1])) {
+    bool ok;
+    st = decanter_layers(s, sp, out, &ok);
+    if (st != PW_OK || !ok)
+        return st;
+    const double lay_rich = out->top_x1[0], lay_lean = out->top_x1[1];
+    if (!(sp->x_rich > lay_rich)) {
         snprintf(out->reason, sizeof out->reason,
                  "--x1-rich %.5g must exceed the layer rich in component 1 (x1 = %.5g at "
                  PW_TEXT_T(".2f") ")",
-                 sp->x_rich, tp->x[1], tp->T_K);
+                 sp->x_rich, lay_rich, out->T_decanter_K);
         return PW_OK;
     }
-    if (!(sp->x_lean < tp->x[0])) {
+    if (!(sp->x_lean < lay_lean)) {
         snprintf(out->reason, sizeof out->reason,
                  "--x1-lean %.5g must lie below the layer lean in component 1 (x1 = %.5g at "
                  PW_TEXT_T(".2f") ")",
-                 sp->x_lean, tp->x[0], tp->T_K);
+                 sp->x_lean, lay_lean, out->T_decanter_K);
         return PW_OK;
     }
     if (!(sp->x_lean < sp->zf && sp->zf < sp->x_rich)) {
@@ -353,7 +511,7 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
     if (st != PW_OK)
         return st;
     pw_curve curve = pw_system_curve_bind(&sc);
-    pw_stripper_spec cs[2] = {{tp->x[1], sp->x_rich}, {tp->x[0], sp->x_lean}};
+    pw_stripper_spec cs[2] = {{lay_rich, sp->x_rich}, {lay_lean, sp->x_lean}};
     for (int i = 0; i < 2; i++) {
         st = pw_stripper_solve(&curve, &cs[i], opt, &out->col[i]);
         if (st != PW_OK)
@@ -372,7 +530,7 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
     /* the streams of every design row, and the decanter's component balance over them (at the
      * minimum when there are no rows): in, the fresh feed and both condensed top vapors (each
      * column's top vapor from its operating line at the layer); out, the two layers */
-    double B[2] = {BA, BB}, xt[2] = {tp->x[1], tp->x[0]}, xb[2] = {sp->x_rich, sp->x_lean};
+    double B[2] = {BA, BB}, xt[2] = {lay_rich, lay_lean}, xb[2] = {sp->x_rich, sp->x_lean};
     size_t nrow = out->col[0].n_design < out->col[1].n_design ? out->col[0].n_design
                                                               : out->col[1].n_design;
     double worst = 0.0;
@@ -400,5 +558,5 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
             out->T_hi_K = fmax(out->T_hi_K, e.T_K);
         }
     }
-    return PW_OK;
+    return decanter_duties(s, sp, &curve, nrow, out);
 }

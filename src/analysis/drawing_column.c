@@ -115,7 +115,7 @@ static pw_status decanter(const pw_system *s, const pw_column_options *opt, pw_d
     pw_draw_decanter *d = &o->decanter;
     memset(d, 0, sizeof *d);
     pw_decanter_spec ds = {o->P_Pa, o->spec.zf, o->spec.q, fmax(o->spec.xd, o->spec.xb),
-                           fmin(o->spec.xd, o->spec.xb)};
+                           fmin(o->spec.xd, o->spec.xb), 0.0};
     d->factor = o->factor;
     d->status = pw_decanter_solve(s, &ds, opt, &d->res);
     if (d->status == PW_ENOMEM)

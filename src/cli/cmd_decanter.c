@@ -45,6 +45,11 @@ static const cli_option decanter_options[] = {
              "fraction, or with mol%, wt or wt%"},
     {.name = "--x1-lean", .kind = CLI_FRACTION, .metavar = "X",
      .help = "bottoms of column B (below the other layer), as --x1-rich"},
+    {.name = "--decanter-temperature", .kind = CLI_QUANTITY, .unit = PW_QTY_TEMPERATURE,
+     .metavar = "T",
+     .help = "a cooled decanter at T (at or below the three-phase temperature,\n"
+             "e.g. 35C): its layers at T, each reheated to its bubble point\n"
+             "before it tops its column (default: at the three-phase temperature)"},
     {.name = "--factors", .kind = CLI_LIST, .metavar = "F,F,...", .check = check_boilup_factors,
      .help = "design boil-up as multiples of the minimum (default 1.2,1.3,1.5)"},
     CLI_END,
@@ -62,11 +67,11 @@ static const cli_spec decanter_spec = {
         "                          [options]\n"
         "\n"
         "Fresh feed and both condensed overheads enter one decanter at the three-phase\n"
-        "temperature; its layer rich in component 1 tops stripping column A (bottoms\n"
-        "--x1-rich), the other layer tops stripping column B (bottoms --x1-lean). Each column\n"
-        "has a partial reboiler and no condenser of its own; constant molal overflow. The feed\n"
-        "enters the decanter, so --q changes no flow or stage count (a vapor feed only adds\n"
-        "to the condenser's load, which is not computed).\n",
+        "temperature (or, cooled, at --decanter-temperature); its layer rich in component 1\n"
+        "tops stripping column A (bottoms --x1-rich), the other layer tops stripping column B\n"
+        "(bottoms --x1-lean). Each column has a partial reboiler and no condenser of its own;\n"
+        "constant molal overflow. The feed enters the decanter, so --q changes no flow or\n"
+        "stage count, only the condenser duty. Duties need the components' heat data.\n",
     .blocks = decanter_blocks,
     .max_positional = 1,
     .positional = "one fit file",
@@ -92,6 +97,12 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
         a->spec.x_rich = v->num, a->basis[1] = v->basis, a->have_rich = true;
     if ((v = cli_get(&p, "--x1-lean")))
         a->spec.x_lean = v->num, a->basis[2] = v->basis, a->have_lean = true;
+    if ((v = cli_get(&p, "--decanter-temperature"))) {
+        if (!(v->num > 0.0))
+            return pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected a temperature above "
+                                "absolute zero", v->spelt, v->text);
+        a->spec.T_decanter_K = v->num;
+    }
     if ((v = cli_get(&p, "--factors"))) {
         a->opt.n_factors = v->n_list;
         memcpy(a->opt.factors, v->list, v->n_list * sizeof v->list[0]);
@@ -124,12 +135,20 @@ static void print_column(const pw_decanter_result *r, int col, double bottom)
     printf("    minimum boil-up V/B = %.5g (%s pinch at x1 = %.5f, y1 = %.5f)\n", c->boilup_min,
            c->tangent ? "tangent" : "top", c->x_pinch, c->y_pinch);
     printf("    stages at total boil-up: %.3f (partial reboiler counted)\n", c->n_min);
-    printf("    %-8s %-10s %-10s %-13s %-10s %s\n", "factor", "V/B", "stages", "top vapor x1",
-           "vapor/F", "layer/F");
-    for (size_t i = 0; i < c->n_design; i++)
-        printf("    %-8.2f %-10.5g %-10.3f %-13.5f %-10.5g %.5g\n", c->design[i].factor,
+    printf("    %-8s %-10s %-10s %-13s %-10s %-10s %s\n", "factor", "V/B", "stages",
+           "top vapor x1", "vapor/F", "layer/F", r->duties ? (r->cooled ? "reboiler, reheat kJ/F"
+                                                                         : "reboiler kJ/F")
+                                                             : "");
+    for (size_t i = 0; i < c->n_design; i++) {
+        printf("    %-8.2f %-10.5g %-10.3f %-13.5f %-10.5g %-10.5g", c->design[i].factor,
                c->design[i].boilup, c->design[i].stages, c->design[i].y_top,
                r->vapor_per_mol_feed[col][i], r->layer_per_mol_feed[col][i]);
+        if (r->duties && r->cooled)
+            printf(" %.4g, %.4g", r->reboiler_J[col][i] / 1e3, r->reheat_J[col][i] / 1e3);
+        else if (r->duties)
+            printf(" %.4g", r->reboiler_J[col][i] / 1e3);
+        printf("\n");
+    }
 }
 
 pw_status cli_decanter(int argc, char **argv)
@@ -169,6 +188,9 @@ pw_status cli_decanter(int argc, char **argv)
     const pw_three_phase *tp = &r.decanter;
     /* the decanter and the bottoms against the vapor-pressure and fitted ranges */
     cli_warn_T_range(CMD, &fit, r.T_lo_K, r.T_hi_K, "the scheme's temperatures", &a.units);
+    if (r.cooled) /* the layers there use the model only: no vapor pressure */
+        cli_warn_data_T_range(CMD, &fit, r.T_decanter_K, r.T_decanter_K,
+                              "the decanter temperature", &a.units);
     pw_unc_result ures;
     bool unc = a.unc.on && r.feasible;
     if (unc) {
@@ -196,10 +218,15 @@ pw_status cli_decanter(int argc, char **argv)
                s->comp[1].name, s->model->name,
                pw_units_display_value(u, PW_SHOW_P, ".6g", a.spec.P_Pa, b1, sizeof b1));
         if (tp->exists)
-            printf("  decanter at the three-phase temperature %s: layers x1 = %.5f and "
-                   "%.5f, vapor x1 = %.5f\n",
+            printf("  %s at the three-phase temperature %s: layers x1 = %.5f and "
+                   "%.5f, vapor x1 = %.5f\n", r.cooled ? "boiling" : "decanter",
                    pw_units_display_value(u, PW_SHOW_T, ".3f", tp->T_K, b1, sizeof b1), tp->x[0],
                    tp->x[1], tp->y1);
+        if (r.cooled)
+            printf("  decanter cooled to %s: layers x1 = %.5f and %.5f, each reheated to its\n"
+                   "  bubble point before it tops its column\n",
+                   pw_units_display_value(u, PW_SHOW_T, ".3f", r.T_decanter_K, b1, sizeof b1),
+                   r.top_x1[1], r.top_x1[0]);
         if (!r.feasible) {
             char why[PW_REASON_MAX + 64];
             printf("  not feasible: %s\n", pw_units_display_text(u, r.reason, why, sizeof why));
@@ -210,11 +237,23 @@ pw_status cli_decanter(int argc, char **argv)
                    r.bottoms_per_mol_feed[0], r.bottoms_per_mol_feed[1], r.closure);
             printf("  vapor/F: boil-up per mole of feed, condensed into the decanter; layer/F: the\n"
                    "  decanter layer returned to the column's top, per mole of feed.\n");
-            printf("  q = %g: the feed enters the decanter, so q changes no flow or stage count\n"
-                   "  (a vapor feed only adds to the condenser's load; duties are not computed).\n"
-                   "  The decanter is taken at the three-phase temperature; a cooled decanter has\n"
-                   "  other layers (check them with pinchwise lle at its temperature).\n",
+            if (r.duties) {
+                size_t nrow = r.col[0].n_design < r.col[1].n_design ? r.col[0].n_design
+                                                                    : r.col[1].n_design;
+                printf("  condenser duty, kJ per mole of feed, by design row:");
+                for (size_t k = 0; k < nrow; k++)
+                    printf(" %.4g (%.2f)", r.condenser_J[k] / 1e3, r.col[0].design[k].factor);
+                printf("\n  (duties from the components' heat data on the constant-molal-overflow\n"
+                       "  flows: screening values)\n");
+            } else {
+                printf("  %s\n", r.duties_note);
+            }
+            printf("  q = %g: the feed enters the decanter, so q changes no flow or stage count,\n"
+                   "  only the condenser duty.\n",
                    a.spec.q);
+            if (!r.cooled)
+                printf("  The decanter is taken at the three-phase temperature; a cooled decanter:\n"
+                       "  --decanter-temperature.\n");
         }
         if (unc)
             cli_het_uncert_print(&ures, &a.unc.opt, PW_AZ_ISOBARIC, true, u);

@@ -497,10 +497,28 @@ pw_status pw_api_decanter_ex(const char *fit_path, const char *fit_text, const c
                              double x1_rich, double x1_lean, double q, int uncertainty,
                              long samples, long seed, char **doc, pw_error *err)
 {
+    return pw_api_decanter_ex2(fit_path, fit_text, name, components, pressure, zf, x1_rich,
+                               x1_lean, q, uncertainty, samples, seed, NULL, doc, err);
+}
+
+pw_status pw_api_decanter_ex2(const char *fit_path, const char *fit_text, const char *name,
+                              const char *components, const char *pressure, double zf,
+                              double x1_rich, double x1_lean, double q, int uncertainty,
+                              long samples, long seed, const char *decanter_temperature,
+                              char **doc, pw_error *err)
+{
     if (doc_slot(doc, err) != PW_OK)
         return PW_EINVAL;
     pw_decanter_spec spec = {.zf = zf, .q = q, .x_rich = x1_rich, .x_lean = x1_lean};
     pw_status st = required(PW_QTY_PRESSURE, "pressure", "a pressure", pressure, &spec.P_Pa, err);
+    if (st == PW_OK && decanter_temperature && decanter_temperature[0]) {
+        st = quantity(PW_QTY_TEMPERATURE, "decanter_temperature", decanter_temperature,
+                      &spec.T_decanter_K, err);
+        if (st == PW_OK && !(spec.T_decanter_K > 0.0))
+            st = pw_error_set(err, PW_EINVAL, NULL, 0,
+                              "decanter_temperature %s: expected a temperature above absolute "
+                              "zero", decanter_temperature);
+    }
     if (st == PW_OK && !(isfinite(zf) && zf > 0.0 && zf < 1.0))
         st = pw_error_set(err, PW_EINVAL, NULL, 0, "zf %g: must lie strictly between 0 and 1", zf);
     if (st == PW_OK)

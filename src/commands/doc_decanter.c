@@ -2,6 +2,8 @@
  * src/cli/cmd_decanter.c). */
 #include <pinchwise/commands.h>
 
+#include <math.h>
+
 pw_status pw_decanter_run(const pw_system *sys, const pw_decanter_spec *spec,
                           const pw_column_options *opt, const char *where, pw_decanter_result *r,
                           pw_error *err)
@@ -12,6 +14,12 @@ pw_status pw_decanter_run(const pw_system *sys, const pw_decanter_spec *spec,
     return st;
 }
 
+/* A duty in kJ per mole of feed, or null when the duties were not computed. */
+static json_t *kj(const pw_decanter_result *r, double J)
+{
+    return r->duties ? pw_json_num(J / 1e3) : json_null();
+}
+
 static json_t *column_json(const pw_decanter_result *r, int col, double bottom)
 {
     const pw_stripper_result *c = &r->col[col];
@@ -19,12 +27,15 @@ static json_t *column_json(const pw_decanter_result *r, int col, double bottom)
     json_t *d = json_array();
     for (size_t i = 0; i < c->n_design; i++)
         json_array_append_new(
-            d, json_pack("{s:o,s:o,s:o,s:o,s:o,s:o}", "factor", pw_json_num(c->design[i].factor),
-                         "boilup", pw_json_num(c->design[i].boilup), "stages",
+            d, json_pack("{s:o,s:o,s:o,s:o,s:o,s:o,s:o,s:o}", "factor",
+                         pw_json_num(c->design[i].factor), "boilup",
+                         pw_json_num(c->design[i].boilup), "stages",
                          pw_json_num(c->design[i].stages), "top_vapor_x1",
                          pw_json_num(c->design[i].y_top), "vapor_per_mol_feed",
                          pw_json_num(r->vapor_per_mol_feed[col][i]), "layer_per_mol_feed",
-                         pw_json_num(r->layer_per_mol_feed[col][i])));
+                         pw_json_num(r->layer_per_mol_feed[col][i]), "reboiler_kJ_per_mol_feed",
+                         kj(r, r->reboiler_J[col][i]), "reheat_kJ_per_mol_feed",
+                         kj(r, r->reheat_J[col][i])));
     return json_pack("{s:o,s:o,s:o,s:o,s:o,s:{s:s,s:o,s:o}}", "bottoms_x1", pw_json_num(bottom),
                      "top_x1", pw_json_num(top), "boilup_min", pw_json_num(c->boilup_min), "n_min",
                      pw_json_num(c->n_min), "design", d, "pinch", "kind",
@@ -38,7 +49,17 @@ json_t *pw_decanter_doc(const pw_decanter_result *r, const pw_decanter_spec *spe
     json_t *o = json_object();
     json_object_set_new(o, "feasible", json_boolean(r->feasible));
     json_object_set_new(o, "reason", r->feasible ? json_null() : pw_json_reason(r->reason));
+    /* the decanter (at T3 unless cooled) and the three-phase state itself */
+    bool at = tp->exists && isfinite(r->T_decanter_K);
     json_object_set_new(o, "decanter",
+                        tp->exists
+                            ? json_pack("{s:o,s:[o,o],s:o,s:b}", "T_K",
+                                        pw_json_num(at ? r->T_decanter_K : tp->T_K), "x1_layers",
+                                        pw_json_num(at ? r->top_x1[1] : tp->x[0]),
+                                        pw_json_num(at ? r->top_x1[0] : tp->x[1]), "vapor_x1",
+                                        pw_json_num(tp->y1), "cooled", r->cooled)
+                            : json_null());
+    json_object_set_new(o, "three_phase",
                         tp->exists
                             ? json_pack("{s:o,s:[o,o],s:o}", "T_K", pw_json_num(tp->T_K),
                                         "x1_layers", pw_json_num(tp->x[0]), pw_json_num(tp->x[1]),
@@ -52,6 +73,19 @@ json_t *pw_decanter_doc(const pw_decanter_result *r, const pw_decanter_spec *spe
                             json_pack("[o,o]", pw_json_num(r->bottoms_per_mol_feed[0]),
                                       pw_json_num(r->bottoms_per_mol_feed[1])));
         json_object_set_new(o, "balance_closure", pw_json_num(r->closure));
+        size_t nrow = r->col[0].n_design < r->col[1].n_design ? r->col[0].n_design
+                                                              : r->col[1].n_design;
+        json_t *qc = json_array();
+        for (size_t k = 0; k < nrow; k++)
+            json_array_append_new(qc, pw_json_num(r->condenser_J[k] / 1e3));
+        if (r->duties) {
+            json_object_set_new(o, "condenser_kJ_per_mol_feed", qc);
+            json_object_set_new(o, "duties_note", json_null());
+        } else {
+            json_decref(qc);
+            json_object_set_new(o, "condenser_kJ_per_mol_feed", json_null());
+            json_object_set_new(o, "duties_note", json_string(r->duties_note));
+        }
     } else {
         json_object_set_new(o, "columns", json_null());
         json_object_set_new(o, "bottoms_per_mol_feed", json_null());

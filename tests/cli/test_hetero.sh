@@ -247,6 +247,37 @@ python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); d["lle"]["tie_lines
     "$TMP/bwl.json" "$TMP/bwl_bad.json"
 "$PW" lle "$TMP/bwl_bad.json" --temperature 25C > /dev/null 2> "$TMP/err.txt" && fail "bad lle block accepted"
 grep -q "lle.rows" "$TMP/err.txt" || fail "bad lle block message: $(cat "$TMP/err.txt")"
+# a cooled decanter (--decanter-temperature) on the fit with the 25 C tie line: its layers are
+# lle's at 25 C, the three-phase state stays the default decanter's, the duties are given (the
+# reheat of each returned layer positive), and a decanter above the three-phase temperature
+# is refused with a reason
+"$PW" decanter "$TMP/bwl.json" --pressure 1atm --zf 0.2 --x1-rich 0.995 --x1-lean 0.001 --json \
+    > "$TMP/dech.json" 2> /dev/null || fail "decanter on the fit --lle file"
+"$PW" decanter "$TMP/bwl.json" --pressure 1atm --zf 0.2 --x1-rich 0.995 --x1-lean 0.001 \
+    --decanter-temperature 25C --json > "$TMP/decc.json" 2> /dev/null || fail "cooled decanter"
+"$PW" lle "$TMP/bwl.json" --temperature 25C --json > "$TMP/lle25.json" 2> /dev/null || fail "lle 25C"
+"$PW" decanter "$TMP/bwl.json" --pressure 1atm --zf 0.2 --x1-rich 0.995 --x1-lean 0.001 \
+    --decanter-temperature 120C --json > "$TMP/dech2.json" 2> /dev/null || fail "hot decanter exited $?"
+python3 - "$TMP/dech.json" "$TMP/decc.json" "$TMP/lle25.json" "$TMP/dech2.json" <<'PY' || fail "cooled decanter JSON"
+import json, sys
+hot, cold, lle, bad = (json.load(open(p)) for p in sys.argv[1:])
+assert hot["feasible"] and cold["feasible"], (hot, cold)
+assert hot["decanter"]["cooled"] is False and cold["decanter"]["cooled"] is True
+assert hot["decanter"]["x1_layers"] == hot["three_phase"]["x1_layers"]
+assert cold["three_phase"] == hot["three_phase"], (cold["three_phase"], hot["three_phase"])
+assert cold["decanter"]["T_K"] == 298.15 and cold["decanter"]["x1_layers"] == lle["x1"], cold
+assert [c["top_x1"] for c in cold["columns"]] == lle["x1"][::-1]
+for d in (hot, cold):
+    assert len(d["condenser_kJ_per_mol_feed"]) == 3 and d["duties_note"] is None, d
+    for c in d["columns"]:
+        for r in c["design"]:
+            assert r["reboiler_kJ_per_mol_feed"] > 0, r
+            assert (r["reheat_kJ_per_mol_feed"] > 0) == d["decanter"]["cooled"], r
+# cooling the condensate to 25 C adds to the condenser what the reheat gives back and more
+assert all(c > h for c, h in zip(cold["condenser_kJ_per_mol_feed"], hot["condenser_kJ_per_mol_feed"]))
+assert bad["feasible"] is False and "above the three-phase" in bad["reason"], bad
+PY
+
 # study --lle: the tie lines reach every fit; Wilson is left out of the choice with its reason
 "$PW" study "$SRC/datasets/butanol_water_1atm.csv" --lle "$SRC/datasets/lle/butanol_water_25C_ties.csv" \
     --pressure 1atm --xd 0.995 --xb 0.001 --zf 0.2 --out-dir "$TMP/st" --json > "$TMP/st.json" 2> /dev/null

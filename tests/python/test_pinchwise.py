@@ -266,6 +266,14 @@ class NewCommandsEqualToCommandLine(unittest.TestCase):
                 self.assertEqual(pinchwise.decanter(out, "1atm", zf, rich, lean, q=q), want)
                 self.assertEqual(pinchwise.decanter(f, "101.325kPa", zf, rich, lean, q=q), want)
         self.assertEqual(seen, {True, False})  # both shapes of the document
+        # a cooled decanter (--decanter-temperature), feasible and above the boiling layers
+        for T in ("40C", "150C"):
+            with self.subTest(decanter_temperature=T):
+                want = cli("decanter", out, "--pressure", "1atm", "--zf", "0.2", "--x1-rich",
+                           "0.995", "--x1-lean", "0.001", "--decanter-temperature", T, "--json")
+                self.assertEqual(pinchwise.decanter(out, "1atm", 0.2, 0.995, 0.001,
+                                                    decanter_temperature=T), want)
+                self.assertEqual(want["feasible"], T == "40C")
 
     def test_decanter_uncertainty(self):
         """decanter --uncertainty --samples N --seed N: the same draws and intervals as the

@@ -183,11 +183,12 @@ class Schemas(unittest.TestCase):
         seen = set()
         for _, out, _ in self.fits:
             for rich in ("0.99", "0.3"):
-                doc = run("decanter", out, "--pressure", "1atm", "--zf", "0.3", "--x1-rich", rich,
-                          "--x1-lean", "0.001", "--json")
-                seen.add(doc["feasible"])
-                with self.subTest(fit=os.path.basename(out), rich=rich):
-                    self.valid("decanter", doc)
+                for cool in ([], ["--decanter-temperature", "30C"]):
+                    doc = run("decanter", out, "--pressure", "1atm", "--zf", "0.3", "--x1-rich",
+                              rich, "--x1-lean", "0.001", "--json", *cool)
+                    seen.add(doc["feasible"])
+                    with self.subTest(fit=os.path.basename(out), rich=rich, cool=cool):
+                        self.valid("decanter", doc)
         self.assertEqual(seen, {True, False})
 
     def test_rate(self):

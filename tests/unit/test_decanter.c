@@ -12,9 +12,12 @@
  *    relative, stages to 1e-2), the mass balance closing to 1e-12, and the refusals. */
 #include "pw_test.h"
 
+#include <gsl/gsl_errno.h>
 #include <gsl/gsl_rng.h>
+#include <gsl/gsl_roots.h>
 #include <math.h>
 #include <pinchwise/decanter.h>
+#include <pinchwise/enthalpy.h>
 #include <string.h>
 
 typedef struct lin {
@@ -291,6 +294,172 @@ static void refusals(void **state)
     assert_false(blocked);
 }
 
+/* The stage liquid on column cs's branch in equilibrium with vapor y: Brent on y*(x) - y between
+ * the top layer and the bottoms, written here (the library steps cells from the top). */
+typedef struct inv {
+    const pw_system *s;
+    double y;
+} inv;
+
+static double inv_f(double x, void *p)
+{
+    const inv *c = p;
+    pw_eq_point e;
+    if (pw_bubble_T(c->s, 101325.0, x, &e) != PW_OK)
+        return GSL_NAN;
+    return e.y1 - c->y;
+}
+
+static double stage_T(const pw_system *s, double x_top, double x_bottom, double y)
+{
+    inv c = {s, y};
+    gsl_function F = {inv_f, &c};
+    gsl_root_fsolver *r = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+    gsl_root_fsolver_set(r, &F, fmin(x_top, x_bottom), fmax(x_top, x_bottom));
+    for (int it = 0; it < 200; it++) {
+        gsl_root_fsolver_iterate(r);
+        if (gsl_root_test_interval(gsl_root_fsolver_x_lower(r), gsl_root_fsolver_x_upper(r), 1e-15,
+                                   1e-14) == GSL_SUCCESS)
+            break;
+    }
+    double x = gsl_root_fsolver_root(r);
+    gsl_root_fsolver_free(r);
+    pw_eq_point e;
+    assert_int_equal(pw_bubble_T(s, 101325.0, x, &e), PW_OK);
+    return e.T_K;
+}
+
+/* A cooled decanter (spec.T_decanter_K). At T3 (or 0: the default) the scheme is the default one
+ * to the bit; below T3 the column tops are pw_lle_solve's layers at that temperature, outside
+ * the layers boiling at T3, each top pinch obeys S_min = (x_t - x_B)/(y*(x_t) - x_t), and the
+ * decanter's balance closes. Duties (J per mole of feed) against an independent evaluation of
+ * their definitions with the enthalpy model, the pure-bottoms limit (the reboiler's duty per
+ * mole of vapor is the bottoms' heat of vaporization, 40.65 kJ/mol for water at 100 C from the
+ * steam tables, IAPWS-IF97, and 43.29 kJ/mol for 1-butanol at its boiling point, CRC Handbook;
+ * both from memory and both in datasets/components.csv), q moving only the condenser's duty,
+ * by the feed's heat of vaporization, and the refusals. */
+static void cooled_decanter(void **state)
+{
+    (void)state;
+    pw_system s = butanol_water();
+    pw_decanter_spec sp = {.P_Pa = 101325.0, .zf = 0.2, .q = 1.0, .x_rich = 0.995, .x_lean = 0.001};
+    pw_decanter_result r0, r1, r;
+    assert_int_equal(pw_decanter_solve(&s, &sp, NULL, &r0), PW_OK);
+    assert_true(r0.feasible);
+    assert_false(r0.cooled);
+    assert_true(r0.T_decanter_K == r0.decanter.T_K);
+    sp.T_decanter_K = r0.decanter.T_K;
+    assert_int_equal(pw_decanter_solve(&s, &sp, NULL, &r1), PW_OK);
+    assert_false(r1.cooled);
+    for (int i = 0; i < 2; i++) {
+        assert_true(r1.col[i].boilup_min == r0.col[i].boilup_min);
+        for (size_t k = 0; k < r0.col[i].n_design; k++) {
+            assert_true(r1.col[i].design[k].stages == r0.col[i].design[k].stages);
+            assert_true(r0.reheat_J[i][k] == 0.0);
+        }
+    }
+    /* Cooled to 30 C, this set's rich layer (x1 = 0.367) is wetter than the one boiling at T3
+     * (0.388; the measured layers move the other way, 0.488 at 25 C): refused. */
+    sp.T_decanter_K = 303.15;
+    assert_int_equal(pw_decanter_solve(&s, &sp, NULL, &r), PW_OK);
+    assert_false(r.feasible);
+    assert_non_null(strstr(r.reason, "column A"));
+    /* A set near the NRTL fit of the shipped 1 atm data with the 25 C tie line (fit --lle,
+     * rounded), whose layers widen on cooling as measured. */
+    s.params[0] = -23.1;
+    s.params[1] = 1499.4;
+    s.params[2] = 0.3;
+    s.T_ref_K = 370.5;
+    sp.T_decanter_K = 0.0;
+    assert_int_equal(pw_decanter_solve(&s, &sp, NULL, &r0), PW_OK);
+    assert_true(r0.feasible);
+    sp.T_decanter_K = 303.15;
+    assert_int_equal(pw_decanter_solve(&s, &sp, NULL, &r), PW_OK);
+    assert_true(r.feasible);
+    assert_true(r.cooled);
+    pw_lle_result l;
+    assert_int_equal(pw_lle_solve(&s, 303.15, &l), PW_OK);
+    assert_true(l.split);
+    pw_assert_close(r.top_x1[0], l.x[1], 0.0, 1e-12, "rich layer at 30 C");
+    pw_assert_close(r.top_x1[1], l.x[0], 0.0, 1e-12, "lean layer at 30 C");
+    assert_true(r.top_x1[0] > r.decanter.x[1] && r.top_x1[1] < r.decanter.x[0]);
+    assert_true(r.closure < 1e-12);
+    const double xb[2] = {sp.x_rich, sp.x_lean};
+    for (int i = 0; i < 2; i++) {
+        assert_false(r.col[i].tangent);
+        pw_eq_point e;
+        assert_int_equal(pw_bubble_T(&s, sp.P_Pa, r.top_x1[i], &e), PW_OK);
+        pw_assert_close(r.col[i].boilup_min, (r.top_x1[i] - xb[i]) / (e.y1 - r.top_x1[i]), 1e-9,
+                        0.0, "top pinch of the cooled layer");
+    }
+    /* the cooled layers are purer, so both columns need less boil-up than at T3 */
+    assert_true(r.col[1].boilup_min < r0.col[1].boilup_min);
+    /* duties, independently from their definitions */
+    assert_true(r.duties && r0.duties);
+    pw_heat_data h;
+    pw_error err;
+    assert_int_equal(pw_heat_data_from_system(&s, &h, &err), PW_OK);
+    double hF;
+    {
+        double hI, hII;
+        const pw_three_phase *tp = &r.decanter;
+        assert_true(sp.zf > tp->x[0] && sp.zf < tp->x[1]); /* a two-liquid feed */
+        assert_int_equal(pw_enthalpy_liquid(&s, &h, tp->x[0], tp->T_K, &hI), PW_OK);
+        assert_int_equal(pw_enthalpy_liquid(&s, &h, tp->x[1], tp->T_K, &hII), PW_OK);
+        double beta = (sp.zf - tp->x[0]) / (tp->x[1] - tp->x[0]);
+        hF = (1.0 - beta) * hI + beta * hII;
+    }
+    for (size_t k = 0; k < r.col[0].n_design; k++) {
+        double Qc = hF;
+        for (int i = 0; i < 2; i++) {
+            double V = r.vapor_per_mol_feed[i][k], L = r.layer_per_mol_feed[i][k];
+            double y = r.col[i].design[k].y_top, hc, hh;
+            pw_eq_point e;
+            assert_int_equal(pw_bubble_T(&s, sp.P_Pa, xb[i], &e), PW_OK);
+            double hB;
+            assert_int_equal(pw_enthalpy_liquid(&s, &h, xb[i], e.T_K, &hB), PW_OK);
+            pw_assert_close(r.reboiler_J[i][k], V * (pw_enthalpy_vapor(&h, e.y1, e.T_K) - hB),
+                            1e-12, 0.0, "reboiler duty");
+            assert_int_equal(pw_enthalpy_liquid(&s, &h, r.top_x1[i], 303.15, &hc), PW_OK);
+            assert_int_equal(pw_bubble_T(&s, sp.P_Pa, r.top_x1[i], &e), PW_OK);
+            assert_int_equal(pw_enthalpy_liquid(&s, &h, r.top_x1[i], e.T_K, &hh), PW_OK);
+            pw_assert_close(r.reheat_J[i][k], L * (hh - hc), 1e-12, 0.0, "reheat duty");
+            assert_true(r.reheat_J[i][k] > 0.0);
+            double Tt = stage_T(&s, r.top_x1[i], xb[i], y);
+            Qc += V * pw_enthalpy_vapor(&h, y, Tt) - L * hc;
+        }
+        pw_assert_close(r.condenser_J[k], Qc, 1e-9, 0.0, "condenser duty");
+    }
+    /* q = 0: the condenser also condenses the feed, H_V(zf at its dew point) - h_F(q = 1) */
+    pw_decanter_spec sq = sp;
+    sq.q = 0.0;
+    pw_decanter_result rq;
+    assert_int_equal(pw_decanter_solve(&s, &sq, NULL, &rq), PW_OK);
+    double HV;
+    assert_int_equal(pw_enthalpy_sat_vapor(&s, &h, sp.P_Pa, sp.zf, &HV, NULL), PW_OK);
+    for (size_t k = 0; k < r.col[0].n_design; k++) {
+        pw_assert_close(rq.condenser_J[k] - r.condenser_J[k], HV - hF, 1e-9, 0.0, "q moves Q_C");
+        for (int i = 0; i < 2; i++)
+            assert_true(rq.reboiler_J[i][k] == r.reboiler_J[i][k]);
+    }
+    /* nearly pure bottoms: the reboiler's duty per mole of vapor is the heat of vaporization */
+    pw_decanter_spec sp3 = {.P_Pa = 101325.0, .zf = 0.2, .q = 1.0, .x_rich = 1.0 - 1e-6,
+                            .x_lean = 1e-6};
+    assert_int_equal(pw_decanter_solve(&s, &sp3, NULL, &r), PW_OK);
+    assert_true(r.feasible && r.duties);
+    pw_assert_close(r.reboiler_J[1][0] / r.vapor_per_mol_feed[1][0], 40650.0, 0.005, 0.0,
+                    "water's heat of vaporization at 100 C");
+    pw_assert_close(r.reboiler_J[0][0] / r.vapor_per_mol_feed[0][0], 43290.0, 0.005, 0.0,
+                    "1-butanol's heat of vaporization at its boiling point");
+    /* refusals: above T3, a temperature not positive */
+    sp.T_decanter_K = r0.decanter.T_K + 1.0;
+    assert_int_equal(pw_decanter_solve(&s, &sp, NULL, &r), PW_OK);
+    assert_false(r.feasible);
+    assert_non_null(strstr(r.reason, "above the three-phase"));
+    sp.T_decanter_K = -1.0;
+    assert_int_equal(pw_decanter_solve(&s, &sp, NULL, &r), PW_EINVAL);
+}
+
 static int setup(void **state)
 {
     (void)state;
@@ -312,6 +481,7 @@ int main(void)
         cmocka_unit_test(tangent_and_random),
         cmocka_unit_test(worked_case),
         cmocka_unit_test(refusals),
+        cmocka_unit_test(cooled_decanter),
     };
     return cmocka_run_group_tests(tests, setup, teardown);
 }
