@@ -131,6 +131,9 @@ typedef struct pw_draw_decanter {
     double boilup[2];             /* S of column A (rich layer) and B (lean layer) as drawn */
     double vapor[2], layer[2];    /* as drawn, per mole of feed: boil-up V = S B and the layer
                                    * L = V + B the decanter returns to the column's top */
+    bool duties;                  /* the design row at the drawn factor has duties (heat data
+                                   * known): reboiler[] and condenser below, J per mole of feed */
+    double reboiler_J[2], condenser_J;
     double op_x[2][2], op_y[2][2];/* each column's operating line from its top to its bottoms */
     pw_draw_stairs stairs[2];
     /* per column (A, B), a window holding its operating line and its whole staircase (margins of

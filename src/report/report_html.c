@@ -650,10 +650,16 @@ static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
     snprintf(t, sizeof t, "A %.4g, B %.4g mol per mol of feed (mass balance closes to %.1e)",
              r->bottoms_per_mol_feed[0], r->bottoms_per_mol_feed[1], r->closure);
     kv(b, "Bottoms flows", t, false);
-    pw_sbuf_puts(b, "</table>\n<table><tr><th>Column</th><th>Top (layer) x\xe2\x82\x81</th>"
-                    "<th>Bottoms x\xe2\x82\x81</th><th>Minimum boil-up V/B</th><th>Limit</th>"
-                    "<th>N<sub>min</sub></th><th>Drawn at V/B</th><th>Stages there</th>"
-                    "<th>Vapor per mol feed</th><th>Layer per mol feed</th></tr>\n");
+    if (d->duties) {
+        snprintf(t, sizeof t, "%.4g kJ per mol of feed (both overhead vapors and the feed, "
+                              "condensed into the decanter)", d->condenser_J / 1e3);
+        kv(b, "Condenser duty", t, false);
+    }
+    pw_sbuf_printf(b, "</table>\n<table><tr><th>Column</th><th>Top (layer) x\xe2\x82\x81</th>"
+                      "<th>Bottoms x\xe2\x82\x81</th><th>Minimum boil-up V/B</th><th>Limit</th>"
+                      "<th>N<sub>min</sub></th><th>Drawn at V/B</th><th>Stages there</th>"
+                      "<th>Vapor per mol feed</th><th>Layer per mol feed</th>%s</tr>\n",
+                   d->duties ? "<th>Reboiler kJ per mol feed</th>" : "");
     const char *nm[2] = {"A", "B"};
     const double bottoms[2] = {fmax(c->spec.xd, c->spec.xb), fmin(c->spec.xd, c->spec.xb)};
     for (int i = 0; i < 2; i++) {
@@ -672,13 +678,17 @@ static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
             pw_sbuf_printf(b, "<td>not reached: %s</td>", pw_strerror(d->stairs[i].status));
         num(b, d->vapor[i], 4);
         num(b, d->layer[i], 4);
+        if (d->duties)
+            num(b, d->reboiler_J[i] / 1e3, 4);
         pw_sbuf_puts(b, "</tr>\n");
     }
     pw_sbuf_printf(b, "</table>\n<p class=\"note\">Each column is drawn and stepped at %.2g times its "
                       "minimum boil-up (the operating factor); stages include the partial reboiler, "
                       "with a fractional last step. Vapor: the column's boil-up, condensed into the "
-                      "decanter; layer: the decanter layer returned to its top. See docs/heterogeneous.md for the method.</p>\n",
-                   d->factor);
+                      "decanter; layer: the decanter layer returned to its top.%s See docs/heterogeneous.md for the method.</p>\n",
+                   d->factor,
+                   d->duties ? " Duties from the components' heat data on these "
+                               "constant-molal-overflow flows: screening values." : "");
 }
 
 static void column_section(pw_sbuf *b, const pw_report_curves *c)

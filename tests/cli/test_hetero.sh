@@ -344,6 +344,20 @@ grep -q "inside the two liquids the data show" "$TMP/rw.html" || fail "wilson re
     --svg "$TMP/svg" > /dev/null 2>&1 || fail "report with the decanter scheme exited $?"
 labels=$(grep -o 'pw-target-label">[^<]*' "$TMP/svg/xy.svg" | sed 's/.*">//' | tr '\n' ',')
 [ "$labels" = "B bottoms,zF,A bottoms," ] || fail "decanter target labels: $labels"
+# the report's decanter table gives the duties of the decanter command's row at the drawn
+# factor (1.3, the second design row)
+"$PW" decanter "$TMP/bw.json" --pressure 1atm --zf 0.2 --x1-rich 0.995 --x1-lean 0.001 --json \
+    > "$TMP/decr.json" 2> /dev/null || fail "decanter for the report's duties"
+python3 - "$TMP/rd.html" "$TMP/decr.json" <<'PY' || fail "report decanter duties"
+import json, re, sys
+h = open(sys.argv[1]).read()
+d = json.load(open(sys.argv[2]))
+seg = h[h.index('id="decanter"'):]
+assert "Condenser duty</th><td>%.4g kJ" % d["condenser_kJ_per_mol_feed"][1] in seg, seg[:2000]
+cells = re.findall(r'<td class="num">([^<]*)</td></tr>', seg[:seg.index("</table>", seg.index("Reboiler kJ"))])
+want = ["%.4g" % c["design"][1]["reboiler_kJ_per_mol_feed"] for c in d["columns"]]
+assert cells[:2] == want, (cells, want)
+PY
 # targets reaching into the two-liquid region without crossing the azeotrope: the column is
 # refused, and the x-y caption does not describe a construction that is not drawn
 "$PW" report "$TMP/bw.json" --out "$TMP/rg.html" --pressure 1atm --xd 0.2 --xb 0.001 --zf 0.01 \
