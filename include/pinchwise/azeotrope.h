@@ -161,6 +161,12 @@ void pw_az_scan_free(pw_az_scan *scan);
 pw_status pw_azeotrope_scan(const pw_system *s, pw_az_mode mode, double from, double to,
                             const pw_az_options *opt, pw_az_scan *scan);
 
+/* The temperatures a search used, for the range checks (pw_fit_range_check): r's T_lo_K to
+ * T_hi_K, widened by every point of scan (may be NULL). Values that are not finite are passed
+ * over. PW_EINVAL for a NULL r or argument, or no finite temperature. */
+pw_status pw_az_T_range(const pw_az_result *r, const pw_az_scan *scan, double *T_lo_K,
+                        double *T_hi_K);
+
 /* Static name of a kind: "minimum-boiling" or "maximum-boiling". */
 const char *pw_az_kind_name(pw_az_kind kind);
 
