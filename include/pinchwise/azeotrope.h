@@ -103,7 +103,10 @@ typedef enum {
                                         * no three-phase state is found beyond) */
     PW_AZ_BOUNDARY_LINE_JUMPS = 3,     /* a three-phase state on both sides, but the distance of
                                         * the vapor from the layers jumps: the search lands on
-                                        * another three-phase line */
+                                        * another three-phase line (two separate two-liquid
+                                        * regions at one T: where the other becomes the wider
+                                        * one, whose state pw_three_phase_at_T reports;
+                                        * docs/heterogeneous.md section 2) */
     PW_AZ_BOUNDARY_NOT_LOCATED = 4,    /* the labels differ across bracket[] but the three-phase
                                         * search failed inside it (`status` says why): at is NAN */
 } pw_az_boundary_kind;
