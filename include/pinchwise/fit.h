@@ -241,14 +241,15 @@ pw_status pw_fit_range_check(const pw_fit_result *r, double T_lo_K, double T_hi_
 pw_status pw_fit_range_check_margin(const pw_fit_result *r, double T_lo_K, double T_hi_K,
                                     double margin_K, pw_range_check *out);
 
-/* The margin of a column's end temperatures against the fitted data's range. The ends are the
- * bubble points of nearly pure products, while VLE data sets commonly stop short of the pure
- * components (their pure-component rows, when present, carry no mixture information); the
- * products' bubble points then lie a few kelvin outside the data's temperatures although the
- * column never leaves the composition range the data cover, and there the major component's
- * activity coefficient tends to 1 whatever the parameters. 5 K lets that ordinary case pass and
- * still flags a column run at another pressure than the data's. A choice of this project, not a
- * published value. */
+/* The margin of a column's end temperatures against the fitted data's range (reflux and the
+ * report). The ends are the bubble points of nearly pure products; a data set that stops short
+ * of the pure components (or whose pure rows carry no mixture information) leaves them a few
+ * kelvin outside its temperatures even when the column runs at the data's pressure, and near a
+ * pure end the major component's activity coefficient tends to 1 whatever the parameters, so
+ * little is extrapolated there. 5 K lets that case pass and still flags a column run at another
+ * pressure than the data's (a few per cent in P moves a boiling point by about 1 K). A choice of
+ * this project, not a published value; a calculation at one condition inside the composition
+ * range keeps PW_RANGE_DATA_MARGIN_K. */
 #define PW_RANGE_COLUMN_MARGIN_K 5.0
 
 /* A column's two end temperatures against the ranges: ends[0] the top at T_top_K and ends[1]
