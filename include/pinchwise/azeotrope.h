@@ -103,7 +103,10 @@ typedef enum {
                                         * no three-phase state is found beyond) */
     PW_AZ_BOUNDARY_LINE_JUMPS = 3,     /* a three-phase state on both sides, but the distance of
                                         * the vapor from the layers jumps: the search lands on
-                                        * another three-phase line */
+                                        * another three-phase line (two separate two-liquid
+                                        * regions at one T: where the other becomes the wider
+                                        * one, whose state pw_three_phase_at_T reports;
+                                        * docs/heterogeneous.md section 2) */
     PW_AZ_BOUNDARY_NOT_LOCATED = 4,    /* the labels differ across bracket[] but the three-phase
                                         * search failed inside it (`status` says why): at is NAN */
 } pw_az_boundary_kind;
@@ -160,6 +163,12 @@ void pw_az_scan_free(pw_az_scan *scan);
  * point's status (points before it are filled). */
 pw_status pw_azeotrope_scan(const pw_system *s, pw_az_mode mode, double from, double to,
                             const pw_az_options *opt, pw_az_scan *scan);
+
+/* The temperatures a search used, for the range checks (pw_fit_range_check): r's T_lo_K to
+ * T_hi_K, widened by every point of scan (may be NULL). Values that are not finite are passed
+ * over. PW_EINVAL for a NULL r or argument, or no finite temperature. */
+pw_status pw_az_T_range(const pw_az_result *r, const pw_az_scan *scan, double *T_lo_K,
+                        double *T_hi_K);
 
 /* Static name of a kind: "minimum-boiling" or "maximum-boiling". */
 const char *pw_az_kind_name(pw_az_kind kind);

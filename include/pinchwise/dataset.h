@@ -80,6 +80,11 @@ pw_status pw_dataset_parse(const char *buf, size_t len, const char *name, pw_dat
 /* Frees the points; ds is left empty. Accepts NULL. */
 void pw_dataset_free(pw_dataset *ds);
 
+/* The lowest and highest temperature of ds's points (points whose T is not finite are passed
+ * over). PW_EINVAL for NULL arguments or a data set without a finite temperature (empty).
+ * In src/fit/fit_ranges.c with the other range checks. */
+pw_status pw_dataset_T_range(const pw_dataset *ds, double *T_lo_K, double *T_hi_K);
+
 /* The SHA-256 of a buffer (libmd) as 32 bytes, and as 64 lowercase hex chars + NUL. */
 void pw_sha256(const void *buf, size_t len, unsigned char out[32]);
 void pw_sha256_hex(const unsigned char digest[32], char out[65]);

@@ -42,6 +42,11 @@ typedef struct pw_profile {
 /* Frees the stages; accepts a zeroed or already freed profile. */
 void pw_profile_free(pw_profile *p);
 
+/* The lowest and highest stage temperature of p (stages whose T is not finite are passed over;
+ * in a column they are the top and the reboiler, but no order is assumed). PW_EINVAL for NULL
+ * arguments or a profile without a finite stage temperature. In src/fit/fit_ranges.c. */
+pw_status pw_profile_T_range(const pw_profile *p, double *T_lo_K, double *T_hi_K);
+
 /* One row of a design table at R = factor R_min. reachable = false when stepping cannot reach
  * xb (a pinch at this reflux: why = PW_EINFEASIBLE, or more than max_stages: PW_EMAXITER); the
  * row is then reported as such, not as an error. */

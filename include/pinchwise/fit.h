@@ -235,6 +235,39 @@ typedef struct pw_range_check {
 pw_status pw_fit_range_check(const pw_fit_result *r, double T_lo_K, double T_hi_K,
                              pw_range_check *out);
 
+/* The same with the data range widened by margin_K (>= 0, finite; PW_EINVAL otherwise) instead
+ * of PW_RANGE_DATA_MARGIN_K: outside_data when T_lo_K < T_min_K - margin_K or
+ * T_hi_K > T_max_K + margin_K. */
+pw_status pw_fit_range_check_margin(const pw_fit_result *r, double T_lo_K, double T_hi_K,
+                                    double margin_K, pw_range_check *out);
+
+/* The margin of a column's end temperatures against the fitted data's range (reflux and the
+ * report). The ends are the bubble points of nearly pure products; a data set that stops short
+ * of the pure components (or whose pure rows carry no mixture information) leaves them a few
+ * kelvin outside its temperatures even when the column runs at the data's pressure, and near a
+ * pure end the major component's activity coefficient tends to 1 whatever the parameters, so
+ * little is extrapolated there. 5 K lets that case pass and still flags a column run at another
+ * pressure than the data's (a few per cent in P moves a boiling point by about 1 K). A choice of
+ * this project, not a published value; a calculation at one condition inside the composition
+ * range keeps PW_RANGE_DATA_MARGIN_K. */
+#define PW_RANGE_COLUMN_MARGIN_K 5.0
+
+/* A column's two end temperatures against the ranges: ends[0] the top at T_top_K and ends[1]
+ * the bottom at T_bottom_K, each checked as a single temperature (pw_fit_range_check; an end
+ * that is not finite, e.g. a bubble point that failed, is zeroed with T_lo_K = T_hi_K = NAN
+ * and warns of nothing), and *span, the range from the lower to the higher finite end, against
+ * the data range widened by margin_K (pw_fit_range_check_margin). PW_EINVAL for NULL
+ * arguments, a bad margin, or no finite end. */
+pw_status pw_fit_range_check_ends(const pw_fit_result *r, double T_top_K, double T_bottom_K,
+                                  double margin_K, pw_range_check ends[2], pw_range_check *span);
+
+/* The vapor-pressure ranges alone, for a calculation without a fit (e.g. a data set's
+ * temperatures against its two components): below_K and above_K as pw_fit_range_check fills
+ * them, outside_data false and the data range NAN. PW_EINVAL for NULL arguments or a range
+ * that is not finite or not ordered. */
+pw_status pw_component_range_check(const pw_component *c1, const pw_component *c2,
+                                   double T_lo_K, double T_hi_K, pw_range_check *out);
+
 /* true when any warning applies (a component's range left, or the data range). */
 bool pw_range_check_any(const pw_range_check *c);
 

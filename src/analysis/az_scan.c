@@ -28,6 +28,26 @@ pw_az_scan *pw_az_scan_alloc(size_t n_points)
     return sc;
 }
 
+pw_status pw_az_T_range(const pw_az_result *r, const pw_az_scan *scan, double *T_lo_K,
+                        double *T_hi_K)
+{
+    if (!r || !T_lo_K || !T_hi_K || (scan && scan->n_points && !scan->points))
+        return PW_EINVAL;
+    double lo = isfinite(r->T_lo_K) ? r->T_lo_K : (double)INFINITY;
+    double hi = isfinite(r->T_hi_K) ? r->T_hi_K : -(double)INFINITY;
+    for (size_t k = 0; scan && k < scan->n_points; k++) {
+        if (isfinite(scan->points[k].T_lo_K))
+            lo = fmin(lo, scan->points[k].T_lo_K);
+        if (isfinite(scan->points[k].T_hi_K))
+            hi = fmax(hi, scan->points[k].T_hi_K);
+    }
+    if (!(lo <= hi))
+        return PW_EINVAL;
+    *T_lo_K = lo;
+    *T_hi_K = hi;
+    return PW_OK;
+}
+
 void pw_az_scan_free(pw_az_scan *scan)
 {
     if (!scan)

@@ -125,6 +125,8 @@ static pw_status locate_het(const pw_system *s, pw_az_scan *sc, const pw_three_p
     } else if (!nh->tp.exists) {
         bd->kind = PW_AZ_BOUNDARY_LINE_ENDS;
     } else if (fabs(h->G - nh->G) > HET_JUMP) {
+        /* e.g. two separate two-liquid regions at one T, the wider one reported on each side:
+         * the state moves to the other three-phase line (tests/unit/test_az_sweep_jump.c) */
         bd->kind = PW_AZ_BOUNDARY_LINE_JUMPS;
     } else {
         bd->kind = PW_AZ_BOUNDARY_VAPOR_AT_LAYER;

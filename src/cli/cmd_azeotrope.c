@@ -374,14 +374,12 @@ pw_status cli_azeotrope(int argc, char **argv)
             return cli_fail(CMD, &err);
         }
     }
-    double Tlo = r.T_lo_K, Thi = r.T_hi_K;
-    for (size_t k = 0; sc && k < sc->n_points; k++) {
-        Tlo = fmin(Tlo, sc->points[k].T_lo_K);
-        Thi = fmax(Thi, sc->points[k].T_hi_K);
-    }
+    double Tlo, Thi;
+    pw_status range_st = pw_az_T_range(&r, sc, &Tlo, &Thi);
     cli_warn_fit(CMD, &fit, &a.units);
     cli_warn_measured_split(CMD, &fit, &r, &a.units);
-    cli_warn_T_range(CMD, &fit, Tlo, Thi, "the bubble temperatures used", &a.units);
+    if (range_st == PW_OK)
+        cli_warn_T_range(CMD, &fit, Tlo, Thi, "the bubble temperatures used", &a.units);
     if (a.json) {
         json_t *o = pw_azeotrope_doc(&fit.sys, a.mode, a.fixed, &r, sc, &tp, tps);
         if (a.unc.on)

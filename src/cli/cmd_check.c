@@ -12,6 +12,7 @@
 #include <math.h>
 #include <pinchwise/consistency.h>
 #include <pinchwise/dataset.h>
+#include <pinchwise/fit.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -259,12 +260,13 @@ pw_status cli_check(int argc, char **argv)
     if (st != PW_OK) {
         code = cli_fail("check", &err);
     } else {
-        for (int i = 0; i < 2; i++) {
-            double Tlo = INFINITY, Thi = -INFINITY;
-            for (size_t k = 0; k < ds.n; k++)
-                Tlo = fmin(Tlo, ds.pts[k].T_K), Thi = fmax(Thi, ds.pts[k].T_K);
-            if (pw_component_range_excess_K(c[i], Tlo) != 0.0 || pw_component_range_excess_K(c[i], Thi) != 0.0)
-            {
+        double Tlo, Thi;
+        pw_range_check range;
+        if (pw_dataset_T_range(&ds, &Tlo, &Thi) == PW_OK &&
+            pw_component_range_check(c[0], c[1], Tlo, Thi, &range) == PW_OK)
+            for (int i = 0; i < 2; i++) {
+                if (!(range.below_K[i] > 0.0 || range.above_K[i] > 0.0))
+                    continue;
                 char b[4][48];
                 cli_warnf("check", "%s: the data's temperatures %s to %s leave the validity "
                           "range %s to %s of the %s vapor-pressure correlation", ds.path,
@@ -274,7 +276,6 @@ pw_status cli_check(int argc, char **argv)
                           pw_units_display_value(&units, PW_SHOW_T, ".2f", c[i]->T_max_K, b[3], 48),
                           c[i]->name);
             }
-        }
         if (json) {
             code = cli_print_json(pw_check_doc(&ds, &r, strict, &het));
         } else {

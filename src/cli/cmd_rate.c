@@ -133,17 +133,17 @@ pw_status cli_rate(int argc, char **argv)
     cli_warn_vapor_association(CMD, &fit.sys);
     if (!fit.converged)
         cli_warnf(CMD, "%s: the fit did not converge; do not rate with it", a.fit_path);
-    if (r.profile.n) {
-        double Tlo = r.profile.stage[0].T_K, Thi = r.profile.stage[r.profile.n - 1].T_K;
+    double Tlo, Thi;
+    pw_range_check range;
+    if (pw_profile_T_range(&r.profile, &Tlo, &Thi) == PW_OK &&
+        pw_fit_range_check(&fit, Tlo, Thi, &range) == PW_OK) {
         for (int i = 0; i < 2; i++) {
-            const pw_component *c = &fit.sys.comp[i];
-            double ex = fmax(fabs(pw_component_range_excess_K(c, Tlo)),
-                             fabs(pw_component_range_excess_K(c, Thi)));
+            double ex = fmax(range.below_K[i], range.above_K[i]);
             char b[48];
             if (ex > 0.0)
                 cli_warnf(CMD, "the column runs %s outside the vapor-pressure range of %s",
                           pw_units_display_value(&a.units, PW_SHOW_DT, ".1f", ex, b, sizeof b),
-                          c->name);
+                          fit.sys.comp[i].name);
         }
     }
     if (a.json) {

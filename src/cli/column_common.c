@@ -177,32 +177,33 @@ void cli_column_warn(const cli_column_run *run)
 {
     const pw_fit_result *r = &run->fit;
     const pw_display_units *u = &run->units;
-    double Ts[2] = {run->T_top_K, run->T_bottom_K};
     char b[4][48];
-    for (int i = 0; i < 2; i++) {
-        const pw_component *c = &r->sys.comp[i];
-        for (int k = 0; k < 2; k++) {
-            double ex = isfinite(Ts[k]) ? pw_component_range_excess_K(c, Ts[k]) : 0.0;
-            if (ex != 0.0)
-                cli_warnf("reflux", "the column %s at %s lies %s %s the vapor-pressure "
-                             "range of %s",
-                             k == 0 ? "top" : "bottom",
-                             pw_units_display_value(u, PW_SHOW_T, ".1f", Ts[k], b[0], 48),
-                             pw_units_display_value(u, PW_SHOW_DT, ".1f", fabs(ex), b[1], 48),
-                             ex < 0 ? "below" : "above", c->name);
-        }
+    pw_range_check end[2], span;
+    if (pw_fit_range_check_ends(r, run->T_top_K, run->T_bottom_K, PW_RANGE_COLUMN_MARGIN_K, end,
+                                &span) == PW_OK) {
+        for (int i = 0; i < 2; i++)
+            for (int k = 0; k < 2; k++) {
+                /* a single temperature: at most one of the two is positive */
+                double below = end[k].below_K[i], above = end[k].above_K[i];
+                if (below > 0.0 || above > 0.0)
+                    cli_warnf("reflux", "the column %s at %s lies %s %s the vapor-pressure "
+                                 "range of %s",
+                                 k == 0 ? "top" : "bottom",
+                                 pw_units_display_value(u, PW_SHOW_T, ".1f", end[k].T_lo_K, b[0],
+                                                        48),
+                                 pw_units_display_value(u, PW_SHOW_DT, ".1f",
+                                                        below > 0.0 ? below : above, b[1], 48),
+                                 below > 0.0 ? "below" : "above", r->sys.comp[i].name);
+            }
+        if (span.outside_data)
+            cli_warnf("reflux", "the column runs at %s to %s, outside the fitted data's %s to %s "
+                         "by more than %g K: the model is extrapolated",
+                         pw_units_display_value(u, PW_SHOW_T, ".1f", span.T_lo_K, b[0], 48),
+                         pw_units_display_value(u, PW_SHOW_T, ".1f", span.T_hi_K, b[1], 48),
+                         pw_units_display_value(u, PW_SHOW_T, ".1f", span.data_T_min_K, b[2], 48),
+                         pw_units_display_value(u, PW_SHOW_T, ".1f", span.data_T_max_K, b[3], 48),
+                         PW_RANGE_COLUMN_MARGIN_K);
     }
-    if (isfinite(r->T_min_K) && isfinite(run->T_top_K) &&
-        (fmin(run->T_top_K, run->T_bottom_K) < r->T_min_K - 5.0 ||
-         fmax(run->T_top_K, run->T_bottom_K) > r->T_max_K + 5.0))
-        cli_warnf("reflux", "the column runs at %s to %s, outside the fitted data's %s to %s "
-                     "by more than 5 K: the model is extrapolated",
-                     pw_units_display_value(u, PW_SHOW_T, ".1f",
-                                            fmin(run->T_top_K, run->T_bottom_K), b[0], 48),
-                     pw_units_display_value(u, PW_SHOW_T, ".1f",
-                                            fmax(run->T_top_K, run->T_bottom_K), b[1], 48),
-                     pw_units_display_value(u, PW_SHOW_T, ".1f", r->T_min_K, b[2], 48),
-                     pw_units_display_value(u, PW_SHOW_T, ".1f", r->T_max_K, b[3], 48));
     double mis = pw_latent_heat_mismatch(&r->sys);
     if (!run->energy && mis > 0.10)
         cli_warnf("reflux", "the heats of vaporization of %s and %s differ by %.0f %%: constant "

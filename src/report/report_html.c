@@ -754,8 +754,10 @@ static void column_section(pw_sbuf *b, const pw_report_curves *c)
     snprintf(t, sizeof t, "top %s, bottom %s (data span %s to %s)", t1, t2, t3, t4);
     kv(b, "Bubble temperatures", t, false);
     pw_sbuf_puts(b, "</table>\n");
-    if (c->dc.T_top_K < c->fit->T_min_K - 1.0 || c->dc.T_bottom_K > c->fit->T_max_K + 1.0 ||
-        c->dc.T_bottom_K < c->fit->T_min_K - 1.0 || c->dc.T_top_K > c->fit->T_max_K + 1.0)
+    /* the same check and margin as the reflux command's warning (pw_fit_range_check_ends) */
+    pw_range_check ends[2], span;
+    if (pw_fit_range_check_ends(c->fit, c->dc.T_top_K, c->dc.T_bottom_K, PW_RANGE_COLUMN_MARGIN_K,
+                                ends, &span) == PW_OK && span.outside_data)
         pw_sbuf_puts(b, "<p class=\"verdict-fail\">The column runs outside the temperature range of "
                         "the data: the model is extrapolated.</p>\n");
     pw_sbuf_puts(b, "<h3>Design table</h3><table><tr><th>R / R_min</th><th>R</th><th>Boil-up "
