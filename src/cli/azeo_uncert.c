@@ -92,8 +92,12 @@ void cli_het_uncert_print(const pw_unc_result *res, const pw_unc_options *opt, p
     print_interval(isP ? "three-phase T" : "three-phase P", &tp,
                    isP ? pw_units_display_T_symbol(u) : pw_units_display_P_symbol(u));
     print_interval("vapor x1", &res->out[PW_UNC_HET_Y], "");
-    print_interval("layer lean in 1, x1", &res->out[PW_UNC_HET_XI], "");
-    print_interval("layer rich in 1, x1", &res->out[PW_UNC_HET_XII], "");
+    /* the layers boiling at the three-phase temperature (a cooled decanter's own layers are
+     * not propagated) */
+    print_interval(decanter ? "boiling layer lean, x1" : "layer lean in 1, x1",
+                   &res->out[PW_UNC_HET_XI], "");
+    print_interval(decanter ? "boiling layer rich, x1" : "layer rich in 1, x1",
+                   &res->out[PW_UNC_HET_XII], "");
     if (decanter) {
         print_interval("column A minimum V/B", &res->out[PW_UNC_DEC_SA], "");
         print_interval("column B minimum V/B", &res->out[PW_UNC_DEC_SB], "");
