@@ -102,6 +102,11 @@ typedef struct pw_decanter_result {
      * the decanter's layers at T_decanter_K. All three are positive for heat moved as named. */
     bool duties;
     char duties_note[PW_REASON_MAX];
+    /* The plant's first-law residual at each design row, J per mole of feed: h_F + sum Q_R +
+     * sum Q_H - Q_C - sum_i B_i h_L(x_B,i, T_B,i). Zero for an exact energy balance; here it
+     * measures how far the constant-molal-overflow flows are from one (a few percent of the
+     * reboilers' duty for 1-butanol/water). NAN without duties. */
+    double energy_closure_J[PW_COLUMN_MAX_FACTORS];
     double reboiler_J[2][PW_COLUMN_MAX_FACTORS];
     double reheat_J[2][PW_COLUMN_MAX_FACTORS];
     double condenser_J[PW_COLUMN_MAX_FACTORS];

@@ -389,15 +389,14 @@ static pw_status decanter_duties(const pw_system *s, const pw_decanter_spec *sp,
         hF = hL;
     }
     const double xb[2] = {sp->x_rich, sp->x_lean};
-    double lat[2] = {NAN, NAN}, lay_hot[2] = {0.0, 0.0}, lay_cold[2];
+    double lat[2] = {NAN, NAN}, lay_hot[2] = {0.0, 0.0}, lay_cold[2], hB[2] = {NAN, NAN};
     for (int i = 0; st == PW_OK && i < 2; i++) {
         /* the reboiler: V moles of its equilibrium vapor raised from the bottoms' liquid */
         pw_eq_point e;
         st = pw_bubble_T(s, sp->P_Pa, xb[i], &e);
-        double hB;
         if (st == PW_OK)
-            st = pw_enthalpy_liquid(s, &h, xb[i], e.T_K, &hB);
-        lat[i] = pw_enthalpy_vapor(&h, e.y1, e.T_K) - hB;
+            st = pw_enthalpy_liquid(s, &h, xb[i], e.T_K, &hB[i]);
+        lat[i] = pw_enthalpy_vapor(&h, e.y1, e.T_K) - hB[i];
         /* the layer at the decanter and at its bubble point */
         if (st == PW_OK)
             st = pw_enthalpy_liquid(s, &h, out->top_x1[i], out->T_decanter_K, &lay_cold[i]);
@@ -427,6 +426,11 @@ static pw_status decanter_duties(const pw_system *s, const pw_decanter_spec *sp,
             out->reheat_J[i][k] = out->cooled ? L * (lay_hot[i] - lay_cold[i]) : 0.0;
         }
         out->condenser_J[k] = Qc;
+        double E = hF - Qc;
+        for (int i = 0; i < 2; i++)
+            E += out->reboiler_J[i][k] + out->reheat_J[i][k]
+                 - out->bottoms_per_mol_feed[i] * hB[i];
+        out->energy_closure_J[k] = E;
     }
     if (st == PW_OK)
         out->duties = true;
@@ -444,7 +448,7 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
     for (int i = 0; i < 2; i++)
         out->bottoms_per_mol_feed[i] = out->top_x1[i] = NAN;
     for (size_t k = 0; k < PW_COLUMN_MAX_FACTORS; k++) {
-        out->condenser_J[k] = NAN;
+        out->condenser_J[k] = out->energy_closure_J[k] = NAN;
         for (int i = 0; i < 2; i++)
             out->reboiler_J[i][k] = out->reheat_J[i][k] = NAN;
     }

@@ -32,7 +32,7 @@ static void warn_range(const char *cmd, const pw_fit_result *fit, double T_lo_K,
                          c->name, c1, c2);
     }
     if (rc.outside_data && T_lo_K == T_hi_K)
-        cli_warnf(cmd, "%s, %s, lies outside the fitted data's %s to %s: the model parameters "
+        cli_warnf(cmd, "%s, %s: outside the fitted data's %s to %s; the model parameters "
                      "are extrapolated in temperature",
                      what, pw_units_display_value(u, PW_SHOW_T, ".2f", T_lo_K, a, sizeof a),
                      pw_units_display_value(u, PW_SHOW_T, ".2f", rc.data_T_min_K, c1, sizeof c1),

@@ -196,7 +196,10 @@ static void print_table(const pw_fit_result *r, const char *path, const pw_displ
                pw_units_display_P(u, r->dev_P_Pa.max_abs), pw_units_display_P_symbol(u),
                r->dev_P_Pa.max_line);
     if (r->n_three_phase)
-        printf("  three-phase points: %zu, modelled as two liquids and vapor\n", r->n_three_phase);
+        printf("  three-phase points: %zu, %s\n", r->n_three_phase,
+               pw_model_can_split(r->sys.model)
+                   ? "modelled as two liquids and vapor"
+                   : "left out of the fit (this model cannot split)");
     if (r->n_tie_lines)
         printf("  tie lines: %zu; layers x1 AAD %.4f (sigma_x %.3g)\n", r->n_tie_lines,
                r->aad_x_lle, r->sigma_x_lle);

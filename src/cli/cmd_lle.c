@@ -212,9 +212,14 @@ pw_status cli_lle(int argc, char **argv)
                        pw_units_display_value(u, PW_SHOW_T, ".4f", crit[k].T_K, b1, sizeof b1),
                        crit[k].x1);
         }
-        printf("  Layers predicted from a fit to vapor-liquid data can be far from measured "
-               "solubilities, above all away from the fitted temperatures; check against\n"
-               "  measured tie lines before sizing a decanter.\n");
+        if (fit.n_tie_lines)
+            printf("  Layers from a fit with %zu measured tie line%s: away from the tie lines'\n"
+                   "  temperatures they can still be far from measured solubilities.\n",
+                   fit.n_tie_lines, fit.n_tie_lines == 1 ? "" : "s");
+        else
+            printf("  Layers predicted from a fit to vapor-liquid data can be far from measured "
+                   "solubilities, above all away from the fitted temperatures; check against\n"
+                   "  measured tie lines before sizing a decanter.\n");
         cli_print_caution(stdout);
         rc = fflush(stdout) ? PW_EIO : PW_OK;
     }

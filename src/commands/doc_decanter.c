@@ -9,8 +9,25 @@ pw_status pw_decanter_run(const pw_system *sys, const pw_decanter_spec *spec,
                           pw_error *err)
 {
     pw_status st = pw_decanter_solve(sys, spec, opt, r);
-    if (st != PW_OK)
-        pw_error_set(err, st, where, 0, "decanter scheme: %s", pw_strerror(st));
+    bool cooled = spec->T_decanter_K > 0.0;
+    bool if97 = sys->comp[0].equation == PW_PSAT_IAPWS_IF97
+                || sys->comp[1].equation == PW_PSAT_IAPWS_IF97;
+    if (st == PW_ERANGE)
+        pw_error_set(err, st, where, 0,
+                     "decanter scheme at P = %.6g kPa: a temperature the scheme needs lies outside "
+                     "a component's vapor-pressure range%s: this pressure is too far from the data",
+                     spec->P_Pa / 1000.0,
+                     if97 ? " (water's IAPWS-IF97 equation, the one that is not extrapolated, "
+                            "covers 273.15 to 647.096 K)"
+                          : "");
+    else if (st == PW_EDOM && cooled)
+        pw_error_set(err, st, where, 0,
+                     "decanter scheme: the model cannot be evaluated at the decanter temperature "
+                     "%.6g K (or at a temperature of the scheme at P = %.6g kPa): %s",
+                     spec->T_decanter_K, spec->P_Pa / 1000.0, pw_strerror(st));
+    else if (st != PW_OK)
+        pw_error_set(err, st, where, 0, "decanter scheme at P = %.6g kPa: %s",
+                     spec->P_Pa / 1000.0, pw_strerror(st));
     return st;
 }
 
@@ -57,7 +74,8 @@ json_t *pw_decanter_doc(const pw_decanter_result *r, const pw_decanter_spec *spe
                                         pw_json_num(at ? r->T_decanter_K : tp->T_K), "x1_layers",
                                         pw_json_num(at ? r->top_x1[1] : tp->x[0]),
                                         pw_json_num(at ? r->top_x1[0] : tp->x[1]), "vapor_x1",
-                                        pw_json_num(tp->y1), "cooled", r->cooled)
+                                        r->cooled ? json_null() : pw_json_num(tp->y1), "cooled",
+                                        r->cooled)
                             : json_null());
     json_object_set_new(o, "three_phase",
                         tp->exists
@@ -75,15 +93,20 @@ json_t *pw_decanter_doc(const pw_decanter_result *r, const pw_decanter_spec *spe
         json_object_set_new(o, "balance_closure", pw_json_num(r->closure));
         size_t nrow = r->col[0].n_design < r->col[1].n_design ? r->col[0].n_design
                                                               : r->col[1].n_design;
-        json_t *qc = json_array();
-        for (size_t k = 0; k < nrow; k++)
+        json_t *qc = json_array(), *ec = json_array();
+        for (size_t k = 0; k < nrow; k++) {
             json_array_append_new(qc, pw_json_num(r->condenser_J[k] / 1e3));
+            json_array_append_new(ec, pw_json_num(r->energy_closure_J[k] / 1e3));
+        }
         if (r->duties) {
             json_object_set_new(o, "condenser_kJ_per_mol_feed", qc);
+            json_object_set_new(o, "energy_closure_kJ_per_mol_feed", ec);
             json_object_set_new(o, "duties_note", json_null());
         } else {
             json_decref(qc);
+            json_decref(ec);
             json_object_set_new(o, "condenser_kJ_per_mol_feed", json_null());
+            json_object_set_new(o, "energy_closure_kJ_per_mol_feed", json_null());
             json_object_set_new(o, "duties_note", json_string(r->duties_note));
         }
     } else {

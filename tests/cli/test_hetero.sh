@@ -168,6 +168,12 @@ grep -q "vapor-pressure" "$TMP/err.txt" && fail "lle warned about vapor pressure
 "$PW" lle "$TMP/bw.json" --temperature 92C --json > /dev/null 2> "$TMP/err.txt" || fail "lle at 92 C"
 [ ! -s "$TMP/err.txt" ] || fail "lle inside the fitted range warned: $(cat "$TMP/err.txt")"
 
+# a pressure where the scheme leaves water's IAPWS-IF97 range: an error that names the pressure
+# and the range, not a bare status
+if "$PW" decanter "$TMP/bw.json" --pressure 0.1kPa --zf 0.2 --x1-rich 0.995 --x1-lean 0.001 \
+    > /dev/null 2> "$TMP/err.txt"; then fail "decanter at 0.1 kPa succeeded"; fi
+grep -q "P = 0.1 kPa.*vapor-pressure range.*IAPWS-IF97" "$TMP/err.txt" \
+    || fail "decanter at 0.1 kPa: $(cat "$TMP/err.txt")"
 # decanter: CONTRACT keys, mass balance, rows at 1.2/1.3/1.5
 "$PW" decanter "$TMP/bw.json" --pressure 1atm --zf 0.2 --x1-rich 0.995 --x1-lean 0.001 --json \
     > "$TMP/dec.json" 2> "$TMP/err.txt" || fail "decanter exited $?: $(cat "$TMP/err.txt")"
@@ -266,9 +272,13 @@ assert hot["decanter"]["cooled"] is False and cold["decanter"]["cooled"] is True
 assert hot["decanter"]["x1_layers"] == hot["three_phase"]["x1_layers"]
 assert cold["three_phase"] == hot["three_phase"], (cold["three_phase"], hot["three_phase"])
 assert cold["decanter"]["T_K"] == 298.15 and cold["decanter"]["x1_layers"] == lle["x1"], cold
+assert cold["decanter"]["vapor_x1"] is None and hot["decanter"]["vapor_x1"] == hot["three_phase"]["vapor_x1"]
 assert [c["top_x1"] for c in cold["columns"]] == lle["x1"][::-1]
 for d in (hot, cold):
     assert len(d["condenser_kJ_per_mol_feed"]) == 3 and d["duties_note"] is None, d
+    # the first-law residual of the CMO flows: reported, and small against the reboilers' duty
+    qr = [sum(c["design"][k]["reboiler_kJ_per_mol_feed"] for c in d["columns"]) for k in range(3)]
+    assert all(abs(e) < 0.1 * q for e, q in zip(d["energy_closure_kJ_per_mol_feed"], qr)), d
     for c in d["columns"]:
         for r in c["design"]:
             assert r["reboiler_kJ_per_mol_feed"] > 0, r

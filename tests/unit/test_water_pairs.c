@@ -275,8 +275,8 @@ static void ethyl_acetate_measured(void **state)
     const char *f = "datasets/lle/ethyl_acetate_water_25C_60C_ties.csv";
     layers t = layers_from_file(f, o, 8, 0);
     pw_assert_close(t.T_K, 298.15, 0.0, 1e-9, "T of the first tie line");
-    /* the table's lower layer (8.7 wt%, x = 0.0191) and the measured one agree within 15 % */
-    pw_assert_close(t.x_I, mole_fraction(o, 8.7), 0.15, 0.0, "water-rich layer vs the table");
+    /* (the table's lower layer, 8.7 wt% or x = 0.0191, lies 17 % above the measured 0.0163: the
+     * sources' spread, stated in datasets/README.md, not a check of this code) */
     pair_case c = {o, t, 70.4, 91.9, 1.0, 1.0};
     check_pair(&c);
 }
