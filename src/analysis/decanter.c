@@ -310,6 +310,16 @@ static pw_status decanter_layers(const pw_system *s, const pw_decanter_spec *sp,
                  Td, tp->T_K);
         return PW_OK;
     }
+    /* water (the one component with its own vapor-pressure equation, IAPWS-IF97) freezes at
+     * 273.15 K; a water-rich layer below it would hold ice, which no model here describes */
+    for (int i = 0; i < 2; i++)
+        if (s->comp[i].equation == PW_PSAT_IAPWS_IF97 && Td < 273.15) {
+            snprintf(out->reason, sizeof out->reason,
+                     "a decanter at " PW_TEXT_T(".2f") " lies below the freezing point of water "
+                     "(273.15 K): the water-rich layer would freeze; give a temperature above it",
+                     Td);
+            return PW_OK;
+        }
     pw_lle_result l;
     pw_status st = pw_lle_solve(s, Td, &l);
     if (st == PW_ERANGE) {

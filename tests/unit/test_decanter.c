@@ -465,6 +465,14 @@ static void cooled_decanter(void **state)
     assert_non_null(strstr(r.reason, "above the three-phase"));
     sp.T_decanter_K = -1.0;
     assert_int_equal(pw_decanter_solve(&s, &sp, NULL, &r), PW_EINVAL);
+    /* below water's freezing point (273.15 K): refused, at 273.15 K itself not */
+    sp.T_decanter_K = 273.0;
+    assert_int_equal(pw_decanter_solve(&s, &sp, NULL, &r), PW_OK);
+    assert_false(r.feasible);
+    assert_non_null(strstr(r.reason, "freezing"));
+    sp.T_decanter_K = 273.15;
+    assert_int_equal(pw_decanter_solve(&s, &sp, NULL, &r), PW_OK);
+    assert_null(strstr(r.reason, "freezing"));
 }
 
 static int setup(void **state)
