@@ -442,8 +442,10 @@ def decanter(fit, pressure, zf, x1_rich, x1_lean, q=1.0, components=None, uncert
     Returns a dict with feasible, reason, decanter (T_K, x1_layers, vapor_x1, cooled),
     three_phase (T_K, x1_layers, vapor_x1), columns (bottoms rich in 1 first: bottoms_x1, top_x1,
     boilup_min, n_min, design rows with reboiler_kJ_per_mol_feed and reheat_kJ_per_mol_feed,
-    pinch), bottoms_per_mol_feed, balance_closure, condenser_kJ_per_mol_feed (per design row;
-    None without heat data, duties_note then says why), q, caution."""
+    pinch), bottoms_per_mol_feed, balance_closure, condenser_kJ_per_mol_feed and
+    energy_closure_kJ_per_mol_feed (per design row: the condenser's duty and the first-law residual
+    of the constant-molal-overflow flows; None without heat data, duties_note then says why), q,
+    caution. For a cooled decanter, decanter.vapor_x1 is None (three_phase holds the vapor)."""
     fit_path, fit_text, name = _fit_source(fit)
     return _call("pw_api_decanter_ex2", fit_path, fit_text, name, _b(components), _b(pressure),
                  _fraction("zf", zf), _fraction("x1_rich", x1_rich),
