@@ -132,8 +132,9 @@ typedef struct pw_draw_decanter {
     double vapor[2], layer[2];    /* as drawn, per mole of feed: boil-up V = S B and the layer
                                    * L = V + B the decanter returns to the column's top */
     bool duties;                  /* the design row at the drawn factor has duties (heat data
-                                   * known): reboiler[] and condenser below, J per mole of feed */
-    double reboiler_J[2], condenser_J;
+                                   * known): reboiler[], reheat[] and condenser below, J per mole
+                                   * of feed */
+    double reboiler_J[2], reheat_J[2], condenser_J;
     double op_x[2][2], op_y[2][2];/* each column's operating line from its top to its bottoms */
     pw_draw_stairs stairs[2];
     /* per column (A, B), a window holding its operating line and its whole staircase (margins of
@@ -172,6 +173,11 @@ typedef struct pw_draw_column {
 pw_status pw_draw_column_compute(const pw_system *s, double P_Pa, const pw_column_spec *spec,
                                  double factor, const pw_column_options *opt,
                                  pw_draw_column *out);
+/* The same with the decanter scheme's decanter at T_decanter_K (0: at the three-phase
+ * temperature; pw_decanter_spec.T_decanter_K). */
+pw_status pw_draw_column_compute_ex(const pw_system *s, double P_Pa, const pw_column_spec *spec,
+                                    double factor, const pw_column_options *opt,
+                                    double T_decanter_K, pw_draw_column *out);
 
 /* Enthalpies of saturated liquid (at its bubble point) and saturated vapor (at its dew point) on
  * the grid, J/mol, at P_Pa, from the system's heat data (enthalpy.h); NAN where a solve failed.

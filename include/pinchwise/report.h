@@ -47,6 +47,10 @@ typedef struct pw_report_input {
     bool energy;                   /* with a column: add the energy-balance column (R_min, pinch,
                                       design rows with condenser and reboiler duties) from the
                                       fit's heat data; missing data are named in the page */
+    double decanter_T_K;           /* with a column whose targets cross a heterogeneous
+                                      azeotrope: the decanter scheme's decanter temperature (0:
+                                      at the three-phase temperature; a cooled decanter below it,
+                                      as decanter --decanter-temperature) */
     pw_display_units units;        /* units of the temperatures and pressures shown (page, plots,
                                       CSV headers say theirs); default K and kPa */
 } pw_report_input;

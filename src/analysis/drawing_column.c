@@ -110,12 +110,13 @@ static void decanter_windows(pw_draw_decanter *d)
 
 /* The decanter scheme (decanter.h) for the targets of o, drawn at o->factor times each column's
  * minimum boil-up. */
-static pw_status decanter(const pw_system *s, const pw_column_options *opt, pw_draw_column *o)
+static pw_status decanter(const pw_system *s, const pw_column_options *opt, double T_decanter_K,
+                          pw_draw_column *o)
 {
     pw_draw_decanter *d = &o->decanter;
     memset(d, 0, sizeof *d);
     pw_decanter_spec ds = {o->P_Pa, o->spec.zf, o->spec.q, fmax(o->spec.xd, o->spec.xb),
-                           fmin(o->spec.xd, o->spec.xb), 0.0};
+                           fmin(o->spec.xd, o->spec.xb), T_decanter_K};
     d->factor = o->factor;
     d->status = pw_decanter_solve(s, &ds, opt, &d->res);
     if (d->status == PW_ENOMEM)
@@ -153,13 +154,15 @@ static pw_status decanter(const pw_system *s, const pw_column_options *opt, pw_d
     }
     /* the duties of the design row at the drawn factor (the operating factor is among the
      * design factors, pw_draw_column_compute) */
-    d->reboiler_J[0] = d->reboiler_J[1] = d->condenser_J = NAN;
+    d->reboiler_J[0] = d->reboiler_J[1] = d->reheat_J[0] = d->reheat_J[1] = d->condenser_J = NAN;
     for (size_t k = 0; d->res.duties && k < d->res.col[0].n_design && k < d->res.col[1].n_design;
          k++)
         if (fabs(d->res.col[0].design[k].factor - o->factor) < 1e-12) {
             d->duties = true;
             d->reboiler_J[0] = d->res.reboiler_J[0][k];
             d->reboiler_J[1] = d->res.reboiler_J[1][k];
+            d->reheat_J[0] = d->res.reheat_J[0][k];
+            d->reheat_J[1] = d->res.reheat_J[1][k];
             d->condenser_J = d->res.condenser_J[k];
             break;
         }
@@ -170,6 +173,13 @@ static pw_status decanter(const pw_system *s, const pw_column_options *opt, pw_d
 pw_status pw_draw_column_compute(const pw_system *s, double P_Pa, const pw_column_spec *spec,
                                  double factor, const pw_column_options *opt_in,
                                  pw_draw_column *o)
+{
+    return pw_draw_column_compute_ex(s, P_Pa, spec, factor, opt_in, 0.0, o);
+}
+
+pw_status pw_draw_column_compute_ex(const pw_system *s, double P_Pa, const pw_column_spec *spec,
+                                    double factor, const pw_column_options *opt_in,
+                                    double T_decanter_K, pw_draw_column *o)
 {
     if (!s || !s->model || !spec || !o || !(isfinite(P_Pa) && P_Pa > 0.0))
         return PW_EINVAL;
@@ -211,7 +221,7 @@ pw_status pw_draw_column_compute(const pw_system *s, double P_Pa, const pw_colum
         return PW_OK;
     if (het_az) {
         o->hetero_blocked = true;
-        return decanter(s, &opt, o);
+        return decanter(s, &opt, T_decanter_K, o);
     }
     if (!o->col.feasible)
         return PW_OK;

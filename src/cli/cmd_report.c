@@ -37,6 +37,10 @@ static const cli_option report_options[] = {
     {.name = "--energy", .kind = CLI_FLAG,
      .help = "with the column: also the energy-balance column (needs heat\n"
              "data in the component rows)"},
+    {.name = "--decanter-temperature", .kind = CLI_QUANTITY, .unit = PW_QTY_TEMPERATURE,
+     .metavar = "T",
+     .help = "with the column, where a decanter scheme is drawn: its decanter\n"
+             "cooled to T (as decanter --decanter-temperature)"},
     {.name = "--svg", .kind = CLI_STRING, .metavar = "DIR",
      .help = "also write each plot as DIR/<name>.svg"},
     {.name = "--csv", .kind = CLI_STRING, .metavar = "DIR",
@@ -81,6 +85,7 @@ typedef struct report_args {
     const char *fit, *out, *svg, *csv, *components, *minimum;
     pw_display_units units;  /* --show-in */
     bool json, force, energy;
+    double decanter_T_K; /* --decanter-temperature, 0 when not given */
     bool have_P, have_xd, have_xb, have_zf;
     double P_Pa, factor;
     pw_column_spec spec;
@@ -152,6 +157,15 @@ static pw_status parse(int argc, char **argv, report_args *a, pw_error *err)
     a->json = cli_has(&p, "--json");
     a->force = cli_has(&p, "--force");
     a->energy = cli_has(&p, "--energy");
+    const cli_value *dT = cli_get(&p, "--decanter-temperature");
+    if (dT) {
+        if (!(dT->num > 0.0)) {
+            pw_error_set(err, PW_EINVAL, NULL, 0, "%s %s: expected a temperature above absolute "
+                         "zero", dT->spelt, dT->text);
+            return PW_EINVAL;
+        }
+        a->decanter_T_K = dT->num;
+    }
     cli_azeo_uncert_from(&p, &a->unc);
     a->out = cli_text(&p, "--out");
     a->svg = cli_text(&p, "--svg");
@@ -190,6 +204,10 @@ static pw_status parse(int argc, char **argv, report_args *a, pw_error *err)
     }
     if (a->energy && n_col == 0) {
         pw_error_set(err, PW_EINVAL, NULL, 0, "--energy needs the column options");
+        return PW_EINVAL;
+    }
+    if (a->decanter_T_K > 0.0 && n_col == 0) {
+        pw_error_set(err, PW_EINVAL, NULL, 0, "--decanter-temperature needs the column options");
         return PW_EINVAL;
     }
     memcpy(a->basis, tg.basis, sizeof a->basis);
@@ -281,6 +299,7 @@ pw_status cli_report(int argc, char **argv)
         in.column_P_Pa = a.P_Pa;
         in.operating_factor = a.factor;
         in.energy = a.energy;
+        in.decanter_T_K = a.decanter_T_K;
     }
     cli_progress_ctx pc = {"report", "parameter sets sampled"};
     if (a.unc.on) {

@@ -18,7 +18,8 @@ static pw_status column(pw_report_curves *c, const pw_report_input *in)
         return st;
     c->n_failed += c->xy.n_failed;
     c->az_from_module = c->az_from_module && c->xy.az.status == PW_OK;
-    st = pw_draw_column_compute(s, c->P_col_Pa, &c->spec, c->factor, NULL, &c->dc);
+    st = pw_draw_column_compute_ex(s, c->P_col_Pa, &c->spec, c->factor, NULL, in->decanter_T_K,
+                                   &c->dc);
     if (st != PW_OK)
         return st;
     pw_column_options opt = pw_column_default_options();

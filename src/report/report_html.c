@@ -629,9 +629,12 @@ static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
     const pw_decanter_result *r = &d->res;
     const pw_three_phase *tp = &r->decanter;
     char t[320], t1[48];
-    pw_sbuf_puts(b, "<h3 id=\"decanter\">The decanter scheme</h3>\n<p>Fresh feed and both condensed "
-                    "overhead vapors enter one decanter at the three-phase temperature; the layer "
-                    "rich in component 1 tops stripping column A (bottoms x<sub>1</sub> = ");
+    pw_sbuf_printf(b, "<h3 id=\"decanter\">The decanter scheme</h3>\n<p>Fresh feed and both "
+                      "condensed overhead vapors enter one decanter %s; the layer rich in component "
+                      "1 tops stripping column A (bottoms x<sub>1</sub> = ",
+                   r->cooled ? "cooled below the three-phase temperature, each layer reheated to "
+                               "its bubble point before it tops its column"
+                             : "at the three-phase temperature");
     pw_sbuf_printf(b, "%.4g), the other layer tops stripping column B (bottoms x<sub>1</sub> = %.4g). "
                       "Each column has a partial reboiler and no condenser of its own; constant "
                       "molal overflow.</p>\n",
@@ -646,7 +649,14 @@ static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
     pw_report_T(&c->units, tp->T_K, 2, t1, sizeof t1);
     snprintf(t, sizeof t, "%s; layers x\xe2\x82\x81 = %.4f and %.4f; vapor y\xe2\x82\x81 = %.4f", t1,
              tp->x[0], tp->x[1], tp->y1);
-    kv(b, "Decanter (three-phase state)", t, false);
+    kv(b, r->cooled ? "Three-phase state (boiling layers)" : "Decanter (three-phase state)", t,
+       false);
+    if (r->cooled) {
+        pw_report_T(&c->units, r->T_decanter_K, 2, t1, sizeof t1);
+        snprintf(t, sizeof t, "%s; layers x\xe2\x82\x81 = %.4f and %.4f", t1, r->top_x1[1],
+                 r->top_x1[0]);
+        kv(b, "Decanter (cooled)", t, false);
+    }
     snprintf(t, sizeof t, "A %.4g, B %.4g mol per mol of feed (mass balance closes to %.1e)",
              r->bottoms_per_mol_feed[0], r->bottoms_per_mol_feed[1], r->closure);
     kv(b, "Bottoms flows", t, false);
@@ -659,7 +669,10 @@ static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
                       "<th>Bottoms x\xe2\x82\x81</th><th>Minimum boil-up V/B</th><th>Limit</th>"
                       "<th>N<sub>min</sub></th><th>Drawn at V/B</th><th>Stages there</th>"
                       "<th>Vapor per mol feed</th><th>Layer per mol feed</th>%s</tr>\n",
-                   d->duties ? "<th>Reboiler kJ per mol feed</th>" : "");
+                   d->duties ? (r->cooled ? "<th>Reboiler kJ per mol feed</th><th>Reheat kJ per "
+                                            "mol feed</th>"
+                                          : "<th>Reboiler kJ per mol feed</th>")
+                             : "");
     const char *nm[2] = {"A", "B"};
     const double bottoms[2] = {fmax(c->spec.xd, c->spec.xb), fmin(c->spec.xd, c->spec.xb)};
     for (int i = 0; i < 2; i++) {
@@ -680,6 +693,8 @@ static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
         num(b, d->layer[i], 4);
         if (d->duties)
             num(b, d->reboiler_J[i] / 1e3, 4);
+        if (d->duties && r->cooled)
+            num(b, d->reheat_J[i] / 1e3, 4);
         pw_sbuf_puts(b, "</tr>\n");
     }
     pw_sbuf_printf(b, "</table>\n<p class=\"note\">Each column is drawn and stepped at %.2g times its "
@@ -1170,10 +1185,10 @@ static void answers(pw_sbuf *b, const pw_report_curves *c, const char *cond)
         const pw_draw_decanter *dk = &c->dc.decanter;
         if (c->dc.hetero_blocked && dk->status == PW_OK && dk->res.feasible) {
             char t1[48];
-            pw_report_T(&c->units, dk->res.decanter.T_K, 2, t1, sizeof t1);
+            pw_report_T(&c->units, dk->res.T_decanter_K, 2, t1, sizeof t1);
             answer(b, "Decanter scheme");
-            pw_sbuf_printf(b, "layers x\xe2\x82\x81 = %.4f and %.4f at %s; ", dk->res.decanter.x[0],
-                           dk->res.decanter.x[1], t1);
+            pw_sbuf_printf(b, "layers x\xe2\x82\x81 = %.4f and %.4f at %s%s; ", dk->res.top_x1[1],
+                           dk->res.top_x1[0], t1, dk->res.cooled ? " (cooled)" : "");
             for (int i = 0; i < 2; i++)
                 pw_sbuf_printf(b, "%scolumn %s minimum V/B %.4g, %.3g stages at %.2g times it",
                                i ? "; " : "", i ? "B" : "A", dk->res.col[i].boilup_min,

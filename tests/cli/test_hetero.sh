@@ -288,6 +288,27 @@ assert all(c > h for c, h in zip(cold["condenser_kJ_per_mol_feed"], hot["condens
 assert bad["feasible"] is False and "above the three-phase" in bad["reason"], bad
 PY
 
+# the report with a cooled decanter (--decanter-temperature): the cooled layers and the reheat
+# duties of the decanter command's row at the drawn factor (1.3)
+"$PW" report "$TMP/bwl.json" --out "$TMP/rcool.html" --pressure 1atm --xd 0.995 --xb 0.001 \
+    --zf 0.2 --decanter-temperature 25C > /dev/null 2>&1 || fail "report with a cooled decanter"
+python3 - "$TMP/rcool.html" "$TMP/decc.json" <<'PY' || fail "report cooled decanter"
+import json, re, sys
+h = open(sys.argv[1]).read()
+d = json.load(open(sys.argv[2]))
+seg = h[h.index('id="decanter"'):]
+xI, xII = d["decanter"]["x1_layers"]
+assert "Decanter (cooled)</th><td>298.15 K; layers x\u2081 = %.4f and %.4f" % (xI, xII) in seg, seg[:1500]
+body = seg[:seg.index("</table>", seg.index("Reheat kJ"))]
+rows = [r for r in (re.findall(r"<td class=\"num\">([^<]*)</td>", t) for t in body.split("<tr>")) if r]
+want = [["%.4g" % c["design"][1]["reboiler_kJ_per_mol_feed"], "%.4g" % c["design"][1]["reheat_kJ_per_mol_feed"]]
+        for c in d["columns"]]
+assert [r[-2:] for r in rows] == want, (rows, want)
+PY
+if "$PW" report "$TMP/bwl.json" --out "$TMP/rcool2.html" --decanter-temperature 25C > /dev/null 2>&1; then
+    fail "report --decanter-temperature without the column options succeeded"
+fi
+
 # study --lle: the tie lines reach every fit; Wilson is left out of the choice with its reason
 "$PW" study "$SRC/datasets/butanol_water_1atm.csv" --lle "$SRC/datasets/lle/butanol_water_25C_ties.csv" \
     --pressure 1atm --xd 0.995 --xb 0.001 --zf 0.2 --out-dir "$TMP/st" --json > "$TMP/st.json" 2> /dev/null
