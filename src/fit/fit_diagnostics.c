@@ -449,8 +449,10 @@ static void liquid_in_gap(const pw_fit_result *r, pw_fit_diags *d)
     char lines[64];
     if (count == 1)
         snprintf(lines, sizeof lines, "line %ld", first);
+    else if (count == 2)
+        snprintf(lines, sizeof lines, "lines %ld and %ld", first, last);
     else
-        snprintf(lines, sizeof lines, "lines %ld to %ld", first, last);
+        snprintf(lines, sizeof lines, "first line %ld, last line %ld", first, last);
     say(g,
         "%zu measured one-liquid point%s (%s) lie%s inside the %s model's two liquid layers "
         "(x1 = %.4f and %.4f at " PW_TEXT_T(".2f") "): the model's layer contradicts the data, "

@@ -28,13 +28,13 @@ g = [x for x in d["diagnostics"] if x["kind"] == "liquid-inside-layers"]
 assert len(g) == 1, d["diagnostics"]
 g = g[0]
 assert g["severity"] == "warning" and g["line"] == 22 and g["other_line"] == 23, g
-assert g["count"] == 2 and "lines 22 to 23" in g["message"], g
+assert g["count"] == 2 and "lines 22 and 23" in g["message"], g
 w = json.load(open(sys.argv[2]))
 assert not [x for x in w["diagnostics"] if x["kind"] == "liquid-inside-layers"], w["diagnostics"]
 PY
 "$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model nrtl --out "$TMP/bw_text.json" \
     > /dev/null 2> "$TMP/fit_text.txt" || fail "fit text"
-grep -q "butanol_water_1atm.csv:22: 2 measured one-liquid points (lines 22 to 23) lie inside" \
+grep -q "butanol_water_1atm.csv:22: 2 measured one-liquid points (lines 22 and 23) lie inside" \
     "$TMP/fit_text.txt" || fail "fit text lacks the diagnostic: $(cat "$TMP/fit_text.txt")"
 
 # lle: CONTRACT keys, layers ordered, equal activities reported

@@ -90,7 +90,7 @@ static void butanol_water_nrtl_flags_lines_22_23(void **state)
     assert_int_equal(g->line, 22);
     assert_int_equal(g->line2, 23);
     assert_string_equal(pw_fit_diag_kind_name(g->kind), "liquid-inside-layers");
-    assert_non_null(strstr(g->message, "lines 22 to 23"));
+    assert_non_null(strstr(g->message, "lines 22 and 23"));
     assert_non_null(strstr(g->message, "cannot produce"));
 
     double xI, xII, T3;
@@ -247,6 +247,9 @@ static void random_points_against_direct_computation(void **state)
             assert_int_equal(g->count, want);
             assert_int_equal(g->line, first);
             assert_int_equal(g->line2, last);
+            assert_non_null(strstr(g->message, want == 1   ? "point (line"
+                                               : want == 2 ? "points (lines"
+                                                           : "points (first line"));
             /* the layers shown are those of the first flagged point's condition */
             int k = -1;
             for (size_t i = 0; i < n && k < 0; i++)
