@@ -230,8 +230,9 @@ static void random_points_against_direct_computation(void **state)
             if (i == 1) { /* one point against the library's heterogeneous bubble point */
                 pw_eq_point eq;
                 bool three = false;
-                assert_int_equal(isobaric ? pw_bubble_T_het(&r.sys, cond[k], p->meas.x1, &eq, &three)
-                                          : pw_bubble_P_het(&r.sys, cond[k], p->meas.x1, &eq, &three),
+                assert_int_equal(isobaric
+                                     ? pw_bubble_T_het(&r.sys, cond[k], p->meas.x1, &eq, &three)
+                                     : pw_bubble_P_het(&r.sys, cond[k], p->meas.x1, &eq, &three),
                                  PW_OK);
                 assert_true(three == (p->meas.x1 > xI[k] && p->meas.x1 < xII[k]));
             }
