@@ -16,7 +16,11 @@
  *     memory);
  *   identifiability and convergence classes: PW_FIT_IDENT_SV_RATIO, PW_FIT_UNFIXED_HALFWIDTH,
  *     PW_FIT_EXACT_RMS (include/pinchwise/fit.h, docs/fitting.md);
- *   competing minima: delta-AICc < 2 (Burnham & Anderson 2002, sec. 2.6). */
+ *   competing minima: delta-AICc < 2 (Burnham & Anderson 2002, sec. 2.6);
+ *   measured one-liquid points inside the model's layers: strictly between the layers of
+ *     pw_three_phase_at_P at the point's P (isobaric) or pw_three_phase_at_T at its T
+ *     (isothermal), the test pw_bubble_T_het / pw_bubble_P_het use (an identity, no tolerance;
+ *     docs/heterogeneous.md section 4). */
 #ifndef PINCHWISE_FIT_DIAGNOSTICS_H
 #define PINCHWISE_FIT_DIAGNOSTICS_H
 
@@ -55,6 +59,10 @@ typedef enum pw_fit_diag_kind {
     PW_DIAG_TIES_DISAGREE,     /* two tie lines at one temperature (value3, K) whose layers
                                 * differ by value (> 3 sigma_x): their LLE-file lines in count,
                                 * count2 (line, line2 are data-file lines: 0 here) */
+    PW_DIAG_LIQUID_IN_GAP,     /* count measured one-liquid points (not three-phase, not
+                                * excluded) lie strictly inside the model's two liquid layers at
+                                * their three-phase condition: line, line2 the first and last of
+                                * them; value, value2 the layers x_I < x_II; value3 their T_K */
     PW_DIAG_KIND_COUNT
 } pw_fit_diag_kind;
 

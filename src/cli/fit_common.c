@@ -35,7 +35,9 @@ void cli_fit_print_diags(const char *input, const pw_fit_diags *d, bool ranges,
         if (!ranges && (g->kind == PW_DIAG_RANGE_BELOW || g->kind == PW_DIAG_RANGE_ABOVE))
             continue;
         /* the library's sentence names no command; the program adds where to go next */
-        const char *next = g->kind == PW_DIAG_HETEROGENEOUS ? "; see pinchwise lle and decanter" : "";
+        const char *next = g->kind == PW_DIAG_HETEROGENEOUS   ? "; see pinchwise lle and decanter"
+                           : g->kind == PW_DIAG_LIQUID_IN_GAP ? "; see pinchwise fit --lle"
+                                                              : "";
         pw_units_display_text(u, g->message, msg, sizeof msg);
         if (g->line > 0)
             cli_warnf("fit", "%s:%ld: %s%s", input, g->line, msg, next);

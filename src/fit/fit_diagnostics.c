@@ -30,6 +30,7 @@ static const char *const kind_names[PW_DIAG_KIND_COUNT] = {
     [PW_DIAG_COMPETING_MINIMA] = "competing-minima",
     [PW_DIAG_CORRELATED] = "correlated-parameters",
     [PW_DIAG_TIES_DISAGREE] = "tie-lines-disagree",
+    [PW_DIAG_LIQUID_IN_GAP] = "liquid-inside-layers",
 };
 
 const char *pw_fit_diag_kind_name(pw_fit_diag_kind k)
@@ -367,6 +368,101 @@ static void minima_and_correlation(const pw_fit_result *r, pw_fit_diags *d)
             }
 }
 
+/* The model's layers at one condition (the fixed P of an isobaric point, the fixed T of an
+ * isothermal one), solved once and kept for the other points there. */
+#define GAP_CACHE 8
+typedef struct gap_condition {
+    double at;  /* P_Pa (isobaric) or T_K (isothermal) */
+    bool split; /* a three-phase state with both layers resolved exists there */
+    double x[2], T_K;
+} gap_condition;
+
+static gap_condition gap_at(const pw_fit_result *r, bool isobaric, double at)
+{
+    gap_condition c = {.at = at, .split = false, .x = {NAN, NAN}, .T_K = NAN};
+    pw_three_phase tp;
+    pw_status st = isobaric ? pw_three_phase_at_P(&r->sys, at, &tp)
+                            : pw_three_phase_at_T(&r->sys, at, &tp);
+    if (st == PW_OK && tp.exists && tp.x[0] < tp.x[1]) {
+        c.split = true;
+        c.x[0] = tp.x[0];
+        c.x[1] = tp.x[1];
+        c.T_K = tp.T_K;
+    }
+    return c;
+}
+
+/* Measured one-liquid points inside the model's two-liquid region. A point not flagged
+ * three-phase was measured as one liquid boiling alone; when its x1 lies strictly between the
+ * layers of the model's three-phase state at the point's own P (isobaric) or T (isothermal),
+ * the model says that liquid boils as two liquids at T3 (P3): exactly the test of
+ * pw_bubble_T_het / pw_bubble_P_het. The model's layer then contradicts the data, and the
+ * one-liquid bubble point the fit compares with the point is a metastable non-solution
+ * (docs/heterogeneous.md sections 3 and 4). The layers at the three-phase condition are used,
+ * not those at the measured T: an isobaric point's condition is its P, and the measured T is an
+ * outcome the model disagrees with. One solve per distinct condition. The fit does not penalise
+ * such points yet; this record says so. */
+static void liquid_in_gap(const pw_fit_result *r, pw_fit_diags *d)
+{
+    if (!pw_model_can_split(r->sys.model) || r->n_pts == 0)
+        return;
+    bool isobaric = r->kind == PW_DATA_ISOBARIC;
+    gap_condition cache[GAP_CACHE];
+    size_t n_cache = 0, next = 0, count = 0;
+    long first = 0, last = 0;
+    gap_condition shown = {.split = false};
+    for (size_t i = 0; i < r->n_pts; i++) {
+        const pw_fit_point *p = &r->pts[i];
+        const pw_point *m = &p->meas;
+        if (p->three_phase || p->excluded || !(m->x1 > 0.0 && m->x1 < 1.0))
+            continue;
+        double at = isobaric ? (isfinite(m->P_Pa) ? m->P_Pa : r->P_fixed_Pa)
+                             : (isfinite(m->T_K) ? m->T_K : r->T_fixed_K);
+        if (!(isfinite(at) && at > 0.0))
+            continue;
+        const gap_condition *c = NULL;
+        for (size_t k = 0; k < n_cache && !c; k++)
+            if (cache[k].at == at)
+                c = &cache[k];
+        if (!c) {
+            size_t slot = n_cache < GAP_CACHE ? n_cache++ : next++ % GAP_CACHE;
+            cache[slot] = gap_at(r, isobaric, at);
+            c = &cache[slot];
+        }
+        if (!c->split || !(m->x1 > c->x[0] && m->x1 < c->x[1]))
+            continue;
+        if (count++ == 0) {
+            first = m->line;
+            shown = *c;
+        }
+        last = m->line;
+    }
+    pw_fit_diag *g;
+    if (!count || !(g = add(d, PW_DIAG_LIQUID_IN_GAP, PW_DIAG_WARNING)))
+        return;
+    g->count = count;
+    g->line = first;
+    g->line2 = last;
+    g->value = shown.x[0];
+    g->value2 = shown.x[1];
+    g->value3 = shown.T_K;
+    char lines[64];
+    if (count == 1)
+        snprintf(lines, sizeof lines, "line %ld", first);
+    else if (count == 2)
+        snprintf(lines, sizeof lines, "lines %ld and %ld", first, last);
+    else
+        snprintf(lines, sizeof lines, "first line %ld, last line %ld", first, last);
+    say(g,
+        "%zu measured one-liquid point%s (%s) lie%s inside the %s model's two liquid layers "
+        "(x1 = %.4f and %.4f at " PW_TEXT_T(".2f") "): the model's layer contradicts the data, "
+        "and the calculated values there are one-liquid bubble points the model cannot "
+        "produce; fit with measured tie lines, try another model, or check those points "
+        "(docs/heterogeneous.md)",
+        count, count == 1 ? "" : "s", lines, count == 1 ? "s" : "", r->sys.model->name,
+        shown.x[0], shown.x[1], shown.T_K);
+}
+
 pw_status pw_fit_diagnose(const pw_fit_result *r, pw_fit_diags *out)
 {
     if (!out)
@@ -384,6 +480,7 @@ pw_status pw_fit_diagnose(const pw_fit_result *r, pw_fit_diags *out)
     liquids(r, out);
     minima_and_correlation(r, out);
     tie_lines_agree(r, out);
+    liquid_in_gap(r, out);
     return PW_OK;
 }
 

@@ -14,9 +14,28 @@ trap 'rm -rf "$TMP"' EXIT
 fail() { echo "FAIL: $*" >&2; exit 1; }
 
 "$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model nrtl --out "$TMP/bw.json" --json \
-    > /dev/null 2> "$TMP/err.txt" || fail "fit of butanol/water: $(cat "$TMP/err.txt")"
+    > "$TMP/bw_fit.json" 2> "$TMP/err.txt" || fail "fit of butanol/water: $(cat "$TMP/err.txt")"
 "$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model wilson --out "$TMP/bw_wilson.json" \
-    --json > /dev/null 2> "$TMP/err.txt" || fail "wilson fit: $(cat "$TMP/err.txt")"
+    --json > "$TMP/bw_wilson_fit.json" 2> "$TMP/err.txt" || fail "wilson fit: $(cat "$TMP/err.txt")"
+
+# the NRTL fit's layers at its three-phase temperature enclose the one-liquid points on data
+# lines 22 and 23 (x1 = 0.494, 0.504): the fit says so (docs/heterogeneous.md section 4);
+# Wilson's equation cannot split, so it has nothing to say here
+python3 - "$TMP/bw_fit.json" "$TMP/bw_wilson_fit.json" <<'PY' || fail "liquid-inside-layers diagnostic"
+import json, sys
+d = json.load(open(sys.argv[1]))
+g = [x for x in d["diagnostics"] if x["kind"] == "liquid-inside-layers"]
+assert len(g) == 1, d["diagnostics"]
+g = g[0]
+assert g["severity"] == "warning" and g["line"] == 22 and g["other_line"] == 23, g
+assert g["count"] == 2 and "lines 22 and 23" in g["message"], g
+w = json.load(open(sys.argv[2]))
+assert not [x for x in w["diagnostics"] if x["kind"] == "liquid-inside-layers"], w["diagnostics"]
+PY
+"$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model nrtl --out "$TMP/bw_text.json" \
+    > /dev/null 2> "$TMP/fit_text.txt" || fail "fit text"
+grep -q "butanol_water_1atm.csv:22: 2 measured one-liquid points (lines 22 and 23) lie inside" \
+    "$TMP/fit_text.txt" || fail "fit text lacks the diagnostic: $(cat "$TMP/fit_text.txt")"
 
 # lle: CONTRACT keys, layers ordered, equal activities reported
 "$PW" lle "$TMP/bw.json" --temperature 25C --json > "$TMP/lle.json" 2> "$TMP/err.txt" \
