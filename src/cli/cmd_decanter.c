@@ -188,6 +188,7 @@ pw_status cli_decanter(int argc, char **argv)
     const pw_three_phase *tp = &r.decanter;
     /* the decanter and the bottoms against the vapor-pressure and fitted ranges */
     cli_warn_T_range(CMD, &fit, r.T_lo_K, r.T_hi_K, "the scheme's temperatures", &a.units);
+    cli_warn_layers_contradicted(CMD, &fit, &a.units);
     if (r.cooled) /* the layers there use the model only: no vapor pressure */
         cli_warn_data_T_range(CMD, &fit, r.T_decanter_K, r.T_decanter_K,
                               "the decanter temperature", &a.units);

@@ -160,6 +160,7 @@ pw_status cli_lle(int argc, char **argv)
     cli_warn_data_T_range(CMD, &fit, Tlo, Thi, a.scan_text ? "the temperatures asked for"
                                                            : "the temperature asked for", &a.units);
     cli_warn_measured_split(CMD, &fit, NULL, &a.units);
+    cli_warn_layers_contradicted(CMD, &fit, &a.units);
     if (a.json) {
         json_t *doc = pw_lle_doc(s, a.T, &r, pts, a.n, crit, n_crit);
         if (doc && minimum) /* the minimum used, as azeotrope records it */

@@ -196,6 +196,9 @@ grep -q "P = 0.1 kPa.*vapor-pressure range.*IAPWS-IF97" "$TMP/err.txt" \
 # decanter: CONTRACT keys, mass balance, rows at 1.2/1.3/1.5
 "$PW" decanter "$TMP/bw.json" --pressure 1atm --zf 0.2 --x1-rich 0.995 --x1-lean 0.001 --json \
     > "$TMP/dec.json" 2> "$TMP/err.txt" || fail "decanter exited $?: $(cat "$TMP/err.txt")"
+# the fit's layer contradicts measured one-liquid points (lines 22 and 23): decanter says so
+grep -q "lines 22 and 23) lie inside the nrtl model's two liquid layers.*the layers used here" \
+    "$TMP/err.txt" || fail "decanter: no warning of the contradicted layer: $(cat "$TMP/err.txt")"
 python3 - "$TMP/dec.json" <<'PY' || fail "decanter JSON"
 import json, sys
 d = json.load(open(sys.argv[1]))
