@@ -128,7 +128,9 @@ pw_status pw_three_phase_at_T(const pw_system *s, double T_K, pw_three_phase *ou
  * rest of the range: docs/heterogeneous.md section 2); a critical solution temperature between
  * grid temperatures is located by bisection, so a three-phase line anywhere in that range is
  * found (but for a split that begins and ends inside one 1 K cell); exists = false when there is
- * none (the split vanishes first, or there is no split). */
+ * none (the split vanishes first, or there is no split). PW_ERANGE when the state lies where a
+ * layer is beyond PW_LLE_X_MIN; PW_ENOCONV when P lies inside a jump of the three-phase pressure
+ * (two separate two-liquid regions whose wider pair, the one followed, changes: section 2). */
 pw_status pw_three_phase_at_P(const pw_system *s, double P_Pa, pw_three_phase *out);
 
 /* The same from a temperature guess (e.g. a measured three-phase temperature): the root of

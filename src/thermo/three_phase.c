@@ -216,6 +216,8 @@ typedef struct near_ctx {
     pw_status st;
     bool lost; /* the split vanished at a trial temperature */
     bool prune; /* p3_minus may use the split proof */
+    bool floor; /* a trial temperature's split had a layer beyond PW_LLE_X_MIN (a1 = a2 = 1 may
+                 * have stood in for its activities) */
 } near_ctx;
 
 static double near_fn(double T, void *p)
@@ -225,6 +227,7 @@ static double near_fn(double T, void *p)
     double f;
     bool split;
     pw_status st = p3_minus(c->s, c->P, T, &f, &split, &tp, c->prune);
+    c->floor = c->floor || (st == PW_OK && split && !tp.exists);
     if (st != PW_OK || !split) {
         if (st != PW_OK && c->st == PW_OK)
             c->st = st;
@@ -252,7 +255,7 @@ pw_status pw_thermo_three_phase_at_P_full(const pw_system *s, double P_Pa, pw_th
 static pw_status solve_bracket(const pw_system *s, double P_Pa, double a, double b, bool prune,
                                pw_three_phase *out)
 {
-    near_ctx c = {s, P_Pa, PW_OK, false, prune};
+    near_ctx c = {s, P_Pa, PW_OK, false, prune, false};
     gsl_root_fsolver *rs = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
     if (!rs)
         return PW_ENOMEM;
@@ -276,9 +279,12 @@ static pw_status solve_bracket(const pw_system *s, double P_Pa, double a, double
         return st;
     /* A bracket end refused beyond the solubility floor whose pair could not be described
      * enters with a1 = a2 = 1; a "root" at the edge of the refused range is then no three-phase
-     * state: the true one lies in the refused range. */
+     * state: the true one lies in the refused range (PW_ERANGE). Without the floor, a "root"
+     * that is none is a jump of P3(T): with two separate two-liquid regions the widest pair,
+     * which the search follows, changes there (docs/heterogeneous.md section 2), and the
+     * pressure lies inside the jump: no state of that pair, PW_ENOCONV. */
     if (!out->exists || !(fabs(out->P_Pa - P_Pa) <= 1e-6 * P_Pa))
-        return PW_ERANGE;
+        return c.floor || !out->exists ? PW_ERANGE : PW_ENOCONV;
     out->P_Pa = P_Pa; /* y1 from a1 P1sat / P3 equals it to the bisection tolerance */
     return PW_OK;
 }
@@ -412,7 +418,7 @@ pw_status pw_three_phase_at_P_near(const pw_system *s, double P_Pa, double T_gue
         return PW_EINVAL;
     if (!(P_Pa > 0.0) || !isfinite(P_Pa) || !(T_guess_K > 0.0) || !isfinite(T_guess_K))
         return PW_EDOM;
-    near_ctx c = {s, P_Pa, PW_OK, false, true};
+    near_ctx c = {s, P_Pa, PW_OK, false, true, false};
     double a = T_guess_K, fa = near_fn(a, &c);
     if (c.st != PW_OK)
         return c.st;
