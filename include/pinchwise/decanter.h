@@ -87,6 +87,7 @@ typedef struct pw_decanter_result {
      * vapor V = S B its reboiler sends up, condensed into the decanter, and the layer
      * L = V + B the decanter returns to its top stage. The decanter's layers leave as L_A + L_B
      * = 1 + V_A + V_B (a total balance the test checks). */
+    size_t n_rows;              /* design rows both columns have (the rows below; feasible) */
     double vapor_per_mol_feed[2][PW_COLUMN_MAX_FACTORS];
     double layer_per_mol_feed[2][PW_COLUMN_MAX_FACTORS];
     double T_decanter_K;        /* the decanter's temperature (T3 unless cooled) */
@@ -107,6 +108,8 @@ typedef struct pw_decanter_result {
      * measures how far the constant-molal-overflow flows are from one (a few percent of the
      * reboilers' duty for 1-butanol/water). NAN without duties. */
     double energy_closure_J[PW_COLUMN_MAX_FACTORS];
+    bool condenser_negative;    /* some row's condenser duty is negative: the feed is cold
+                                 * enough to take up more heat than the top vapors give off */
     double reboiler_J[2][PW_COLUMN_MAX_FACTORS];
     double reheat_J[2][PW_COLUMN_MAX_FACTORS];
     double condenser_J[PW_COLUMN_MAX_FACTORS];

@@ -132,9 +132,9 @@ typedef struct pw_draw_decanter {
     double vapor[2], layer[2];    /* as drawn, per mole of feed: boil-up V = S B and the layer
                                    * L = V + B the decanter returns to the column's top */
     bool duties;                  /* the design row at the drawn factor has duties (heat data
-                                   * known): reboiler[], reheat[] and condenser below, J per mole
-                                   * of feed */
-    double reboiler_J[2], reheat_J[2], condenser_J;
+                                   * known): res's reboiler_J, reheat_J and condenser_J at
+                                   * duty_row */
+    size_t duty_row;
     double op_x[2][2], op_y[2][2];/* each column's operating line from its top to its bottoms */
     pw_draw_stairs stairs[2];
     /* per column (A, B), a window holding its operating line and its whole staircase (margins of

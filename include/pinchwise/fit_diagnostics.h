@@ -97,6 +97,10 @@ typedef struct pw_fit_diags {
  * PW_ENOMEM when the duplicate search cannot allocate. out is a plain value: nothing to free. */
 pw_status pw_fit_diagnose(const pw_fit_result *r, pw_fit_diags *out);
 
+/* Only the liquid-inside-layers check of pw_fit_diagnose (out holds its one record, or none):
+ * for commands whose answers are the model's layers, without the rest of the diagnosis. */
+pw_status pw_fit_diagnose_liquid_in_gap(const pw_fit_result *r, pw_fit_diags *out);
+
 /* True when c looks like a carboxylic acid (its name contains "acid", any case): such vapors
  * dimerise, and the ideal-vapor model can then be off by tens of percent even at 1 atm
  * (Marek & Standart 1954; Hayden & O'Connell 1975). */

@@ -286,17 +286,15 @@ pw_status pw_column_hetero_block(const pw_system *s, double P_Pa, double x_a, do
     return PW_OK;
 }
 
-/* The layers the decanter returns: the three-phase layers at T3, or pw_lle_solve's at a cooled
- * decanter's temperature, checked to lie outside the layers that boil at T3. false with
- * out->reason when the cooled decanter cannot work. */
+/* The layers the decanter returns: out->top_x1 and T_decanter_K hold the three-phase layers at
+ * T3 on entry; a cooled decanter replaces them with pw_lle_solve's at its temperature, checked
+ * to lie outside the layers that boil at T3. false with out->reason when the cooled decanter
+ * cannot work. */
 static pw_status decanter_layers(const pw_system *s, const pw_decanter_spec *sp,
                                  pw_decanter_result *out, bool *ok)
 {
     const pw_three_phase *tp = &out->decanter;
     *ok = false;
-    out->T_decanter_K = tp->T_K;
-    out->top_x1[0] = tp->x[1];
-    out->top_x1[1] = tp->x[0];
     double Td = sp->T_decanter_K;
     if (Td == 0.0 || isnan(Td) || fabs(Td - tp->T_K) <= 1e-9 * tp->T_K) {
         *ok = true;
@@ -375,7 +373,8 @@ static pw_status feed_liquid_enthalpy(const pw_system *s, const pw_heat_data *h,
 
 /* The duties of every design row (see pw_decanter_result). */
 static pw_status decanter_duties(const pw_system *s, const pw_decanter_spec *sp,
-                                 const pw_curve *curve, size_t nrow, pw_decanter_result *out)
+                                 const pw_curve *curve, const pw_eq_point bottoms[2],
+                                 const pw_status bottoms_st[2], pw_decanter_result *out)
 {
     pw_heat_data h;
     pw_error err;
@@ -402,21 +401,23 @@ static pw_status decanter_duties(const pw_system *s, const pw_decanter_spec *sp,
     double lat[2] = {NAN, NAN}, lay_hot[2] = {0.0, 0.0}, lay_cold[2], hB[2] = {NAN, NAN};
     for (int i = 0; st == PW_OK && i < 2; i++) {
         /* the reboiler: V moles of its equilibrium vapor raised from the bottoms' liquid */
-        pw_eq_point e;
-        st = pw_bubble_T(s, sp->P_Pa, xb[i], &e);
+        const pw_eq_point *eb = &bottoms[i];
+        st = bottoms_st[i];
         if (st == PW_OK)
-            st = pw_enthalpy_liquid(s, &h, xb[i], e.T_K, &hB[i]);
-        lat[i] = pw_enthalpy_vapor(&h, e.y1, e.T_K) - hB[i];
+            st = pw_enthalpy_liquid(s, &h, xb[i], eb->T_K, &hB[i]);
+        if (st == PW_OK)
+            lat[i] = pw_enthalpy_vapor(&h, eb->y1, eb->T_K) - hB[i];
         /* the layer at the decanter and at its bubble point */
         if (st == PW_OK)
             st = pw_enthalpy_liquid(s, &h, out->top_x1[i], out->T_decanter_K, &lay_cold[i]);
         if (st == PW_OK && out->cooled) {
+            pw_eq_point e;
             st = pw_bubble_T(s, sp->P_Pa, out->top_x1[i], &e);
             if (st == PW_OK)
                 st = pw_enthalpy_liquid(s, &h, out->top_x1[i], e.T_K, &lay_hot[i]);
         }
     }
-    for (size_t k = 0; st == PW_OK && k < nrow; k++) {
+    for (size_t k = 0; st == PW_OK && k < out->n_rows; k++) {
         double Qc = hF;
         for (int i = 0; st == PW_OK && i < 2; i++) {
             double V = out->vapor_per_mol_feed[i][k], L = out->layer_per_mol_feed[i][k];
@@ -436,6 +437,7 @@ static pw_status decanter_duties(const pw_system *s, const pw_decanter_spec *sp,
             out->reheat_J[i][k] = out->cooled ? L * (lay_hot[i] - lay_cold[i]) : 0.0;
         }
         out->condenser_J[k] = Qc;
+        out->condenser_negative = out->condenser_negative || Qc < 0.0;
         double E = hF - Qc;
         for (int i = 0; i < 2; i++)
             E += out->reboiler_J[i][k] + out->reheat_J[i][k]
@@ -477,8 +479,11 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
     if (st != PW_OK)
         return st;
     const pw_three_phase *tp = &out->decanter;
-    if (tp->exists)
-        out->T_lo_K = out->T_hi_K = tp->T_K;
+    if (tp->exists) {
+        out->T_lo_K = out->T_hi_K = out->T_decanter_K = tp->T_K;
+        out->top_x1[0] = tp->x[1];
+        out->top_x1[1] = tp->x[0];
+    }
     if (!tp->exists) {
         snprintf(out->reason, sizeof out->reason,
                  "the model predicts no two-liquid region at its boiling temperatures at this "
@@ -486,8 +491,6 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
         return PW_OK;
     }
     if (!tp->heterogeneous_azeotrope) {
-        out->top_x1[0] = tp->x[1];
-        out->top_x1[1] = tp->x[0];
         snprintf(out->reason, sizeof out->reason,
                  "the three-phase vapor (x1 = %.4f) lies outside the liquid layers (%.4f, %.4f): a "
                  "heterogeneous non-azeotrope: the decanter scheme does not apply; see pinchwise "
@@ -547,6 +550,7 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
     double B[2] = {BA, BB}, xt[2] = {lay_rich, lay_lean}, xb[2] = {sp->x_rich, sp->x_lean};
     size_t nrow = out->col[0].n_design < out->col[1].n_design ? out->col[0].n_design
                                                               : out->col[1].n_design;
+    out->n_rows = nrow;
     double worst = 0.0;
     for (size_t k = 0; k < (nrow ? nrow : 1); k++) {
         double in = sp->zf, outf = 0.0;
@@ -564,13 +568,16 @@ pw_status pw_decanter_solve(const pw_system *s, const pw_decanter_spec *sp,
     }
     out->closure = worst;
     out->feasible = true;
-    /* the bottoms boil above the decanter (each on its single-liquid branch) */
+    /* the bottoms boil above the decanter (each on its single-liquid branch): their bubble
+     * points serve the range warnings and the reboilers' duties */
+    pw_eq_point eb[2];
+    pw_status st_b[2];
     for (int i = 0; i < 2; i++) {
-        pw_eq_point e;
-        if (pw_bubble_T(s, sp->P_Pa, xb[i], &e) == PW_OK) {
-            out->T_lo_K = fmin(out->T_lo_K, e.T_K);
-            out->T_hi_K = fmax(out->T_hi_K, e.T_K);
+        st_b[i] = pw_bubble_T(s, sp->P_Pa, xb[i], &eb[i]);
+        if (st_b[i] == PW_OK) {
+            out->T_lo_K = fmin(out->T_lo_K, eb[i].T_K);
+            out->T_hi_K = fmax(out->T_hi_K, eb[i].T_K);
         }
     }
-    return decanter_duties(s, sp, &curve, nrow, out);
+    return decanter_duties(s, sp, &curve, eb, st_b, out);
 }

@@ -154,17 +154,10 @@ static pw_status decanter(const pw_system *s, const pw_column_options *opt, doub
     }
     /* the duties of the design row at the drawn factor (the operating factor is among the
      * design factors, pw_draw_column_compute) */
-    d->reboiler_J[0] = d->reboiler_J[1] = d->reheat_J[0] = d->reheat_J[1] = d->condenser_J = NAN;
-    for (size_t k = 0; d->res.duties && k < d->res.col[0].n_design && k < d->res.col[1].n_design;
-         k++)
+    for (size_t k = 0; d->res.duties && k < d->res.n_rows && !d->duties; k++)
         if (fabs(d->res.col[0].design[k].factor - o->factor) < 1e-12) {
             d->duties = true;
-            d->reboiler_J[0] = d->res.reboiler_J[0][k];
-            d->reboiler_J[1] = d->res.reboiler_J[1][k];
-            d->reheat_J[0] = d->res.reheat_J[0][k];
-            d->reheat_J[1] = d->res.reheat_J[1][k];
-            d->condenser_J = d->res.condenser_J[k];
-            break;
+            d->duty_row = k;
         }
     decanter_windows(d);
     return PW_OK;

@@ -119,16 +119,14 @@ void cli_warn_layers_contradicted(const char *cmd, const pw_fit_result *fit,
                                   const pw_display_units *u)
 {
     pw_fit_diags *d = malloc(sizeof *d);
-    if (!d || pw_fit_diagnose(fit, d) != PW_OK) {
+    if (!d || pw_fit_diagnose_liquid_in_gap(fit, d) != PW_OK) {
         free(d);
         return;
     }
-    for (size_t i = 0; i < d->n; i++)
-        if (d->items[i].kind == PW_DIAG_LIQUID_IN_GAP) {
-            char msg[PW_FIT_DIAG_MSG_MAX + 64];
-            cli_warnf(cmd, "%s: %s; the layers used here come from that model",
-                      fit->dataset_path,
-                      pw_units_display_text(u, d->items[i].message, msg, sizeof msg));
-        }
+    for (size_t i = 0; i < d->n; i++) {
+        char msg[PW_FIT_DIAG_MSG_MAX + 64];
+        cli_warnf(cmd, "%s: %s; the layers used here come from that model", fit->dataset_path,
+                  pw_units_display_text(u, d->items[i].message, msg, sizeof msg));
+    }
     free(d);
 }

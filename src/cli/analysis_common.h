@@ -18,13 +18,14 @@ void cli_warn_T_range(const char *cmd, const pw_fit_result *fit, double T_lo_K, 
 void cli_warn_data_T_range(const char *cmd, const pw_fit_result *fit, double T_lo_K,
                            double T_hi_K, const char *what, const pw_display_units *u);
 
-/* Warns when the fit's data show two liquids its model cannot represent
- * (pw_system_split_unmodelled), naming the range and every azeotrope of az (may be NULL) in it. */
-/* Renders the fit's liquid-inside-layers diagnostics (pw_fit_diagnose): measured one-liquid
- * points inside the model's own layers, so the layers this command uses contradict the data. */
+/* Renders the fit's liquid-inside-layers diagnostic (pw_fit_diagnose_liquid_in_gap): measured
+ * one-liquid points inside the model's own layers, so the layers this command uses contradict the
+ * data. */
 void cli_warn_layers_contradicted(const char *cmd, const pw_fit_result *fit,
                                   const pw_display_units *u);
 
+/* Warns when the fit's data show two liquids its model cannot represent
+ * (pw_system_split_unmodelled), naming the range and every azeotrope of az (may be NULL) in it. */
 void cli_warn_measured_split(const char *cmd, const pw_fit_result *fit, const pw_az_result *az,
                              const pw_display_units *u);
 

@@ -239,21 +239,16 @@ pw_status cli_decanter(int argc, char **argv)
             printf("  vapor/F: boil-up per mole of feed, condensed into the decanter; layer/F: the\n"
                    "  decanter layer returned to the column's top, per mole of feed.\n");
             if (r.duties) {
-                size_t nrow = r.col[0].n_design < r.col[1].n_design ? r.col[0].n_design
-                                                                    : r.col[1].n_design;
                 printf("  condenser duty, kJ per mole of feed, by design row:");
-                for (size_t k = 0; k < nrow; k++)
+                for (size_t k = 0; k < r.n_rows; k++)
                     printf(" %.4g (%.2f)", r.condenser_J[k] / 1e3, r.col[0].design[k].factor);
                 printf("\n  first-law residual of these flows, kJ per mole of feed:");
-                bool cold = false;
-                for (size_t k = 0; k < nrow; k++) {
+                for (size_t k = 0; k < r.n_rows; k++)
                     printf(" %.3g", r.energy_closure_J[k] / 1e3);
-                    cold = cold || r.condenser_J[k] < 0.0;
-                }
                 printf("\n  (duties from the components' heat data on the constant-molal-overflow\n"
                        "  flows: screening values; the residual shows how far those flows are from an\n"
                        "  energy balance)\n");
-                if (cold)
+                if (r.condenser_negative)
                     printf("  A negative condenser duty: the feed is cold enough to take up more heat\n"
                            "  than the overhead vapors give off; the decanter then needs heating to stay\n"
                            "  at its temperature, or runs colder (--decanter-temperature).\n");

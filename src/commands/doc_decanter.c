@@ -2,8 +2,6 @@
  * src/cli/cmd_decanter.c). */
 #include <pinchwise/commands.h>
 
-#include <math.h>
-
 pw_status pw_decanter_run(const pw_system *sys, const pw_decanter_spec *spec,
                           const pw_column_options *opt, const char *where, pw_decanter_result *r,
                           pw_error *err)
@@ -67,13 +65,12 @@ json_t *pw_decanter_doc(const pw_decanter_result *r, const pw_decanter_spec *spe
     json_object_set_new(o, "feasible", json_boolean(r->feasible));
     json_object_set_new(o, "reason", r->feasible ? json_null() : pw_json_reason(r->reason));
     /* the decanter (at T3 unless cooled) and the three-phase state itself */
-    bool at = tp->exists && isfinite(r->T_decanter_K);
     json_object_set_new(o, "decanter",
                         tp->exists
                             ? json_pack("{s:o,s:[o,o],s:o,s:b}", "T_K",
-                                        pw_json_num(at ? r->T_decanter_K : tp->T_K), "x1_layers",
-                                        pw_json_num(at ? r->top_x1[1] : tp->x[0]),
-                                        pw_json_num(at ? r->top_x1[0] : tp->x[1]), "vapor_x1",
+                                        pw_json_num(r->T_decanter_K), "x1_layers",
+                                        pw_json_num(r->top_x1[1]), pw_json_num(r->top_x1[0]),
+                                        "vapor_x1",
                                         r->cooled ? json_null() : pw_json_num(tp->y1), "cooled",
                                         r->cooled)
                             : json_null());
@@ -91,10 +88,8 @@ json_t *pw_decanter_doc(const pw_decanter_result *r, const pw_decanter_spec *spe
                             json_pack("[o,o]", pw_json_num(r->bottoms_per_mol_feed[0]),
                                       pw_json_num(r->bottoms_per_mol_feed[1])));
         json_object_set_new(o, "balance_closure", pw_json_num(r->closure));
-        size_t nrow = r->col[0].n_design < r->col[1].n_design ? r->col[0].n_design
-                                                              : r->col[1].n_design;
         json_t *qc = json_array(), *ec = json_array();
-        for (size_t k = 0; k < nrow; k++) {
+        for (size_t k = 0; k < r->n_rows; k++) {
             json_array_append_new(qc, pw_json_num(r->condenser_J[k] / 1e3));
             json_array_append_new(ec, pw_json_num(r->energy_closure_J[k] / 1e3));
         }

@@ -484,6 +484,17 @@ pw_status pw_fit_diagnose(const pw_fit_result *r, pw_fit_diags *out)
     return PW_OK;
 }
 
+pw_status pw_fit_diagnose_liquid_in_gap(const pw_fit_result *r, pw_fit_diags *out)
+{
+    if (!out)
+        return PW_EINVAL;
+    out->n = 0;
+    if (!r || !r->sys.model || (r->n_pts && !r->pts))
+        return PW_EINVAL;
+    liquid_in_gap(r, out);
+    return PW_OK;
+}
+
 static json_t *num_or_null(double v)
 {
     return isfinite(v) ? json_real(v) : json_null();

@@ -662,7 +662,7 @@ static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
     kv(b, "Bottoms flows", t, false);
     if (d->duties) {
         snprintf(t, sizeof t, "%.4g kJ per mol of feed (both overhead vapors and the feed, "
-                              "condensed into the decanter)", d->condenser_J / 1e3);
+                              "condensed into the decanter)", r->condenser_J[d->duty_row] / 1e3);
         kv(b, "Condenser duty", t, false);
     }
     pw_sbuf_printf(b, "</table>\n<table><tr><th>Column</th><th>Top (layer) x\xe2\x82\x81</th>"
@@ -692,9 +692,9 @@ static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
         num(b, d->vapor[i], 4);
         num(b, d->layer[i], 4);
         if (d->duties)
-            num(b, d->reboiler_J[i] / 1e3, 4);
+            num(b, r->reboiler_J[i][d->duty_row] / 1e3, 4);
         if (d->duties && r->cooled)
-            num(b, d->reheat_J[i] / 1e3, 4);
+            num(b, r->reheat_J[i][d->duty_row] / 1e3, 4);
         pw_sbuf_puts(b, "</tr>\n");
     }
     pw_sbuf_printf(b, "</table>\n<p class=\"note\">Each column is drawn and stepped at %.2g times its "
