@@ -250,8 +250,10 @@ pw_status pw_thermo_three_phase_at_P_full(const pw_system *s, double P_Pa, pw_th
 }
 
 /* GSL Brent on a bracket [a, b] of split temperatures with P3 - P changing sign (the split holds
- * at both ends and cannot vanish inside: PW_ENOCONV if it does), to a width of 1e-10 relative,
- * then the state at its middle. */
+ * at both ends and cannot vanish inside: PW_ENOCONV if it does), to a width of 1e-13 relative,
+ * then the state at Brent's last estimate (inside the bracket). The tight width matters to the
+ * fit, whose objective holds T3 (fit/objective_het.c): a looser T3 is noise in the residuals
+ * that the Levenberg-Marquardt step test then stops on. */
 static pw_status solve_bracket(const pw_system *s, double P_Pa, double a, double b, bool prune,
                                pw_three_phase *out)
 {
@@ -263,18 +265,22 @@ static pw_status solve_bracket(const pw_system *s, double P_Pa, double a, double
     pw_status st = PW_OK;
     if (gsl_root_fsolver_set(rs, &F, a, b) != GSL_SUCCESS)
         st = PW_ENOCONV;
-    for (int it = 0; st == PW_OK && it < 100 && b - a > 1e-10 * b; it++) {
+    double root = 0.5 * (a + b);
+    for (int it = 0; st == PW_OK && it < 100 && b - a > 1e-13 * b; it++) {
         if (gsl_root_fsolver_iterate(rs) != GSL_SUCCESS)
             st = PW_ENOCONV;
         a = gsl_root_fsolver_x_lower(rs);
         b = gsl_root_fsolver_x_upper(rs);
+        root = gsl_root_fsolver_root(rs);
     }
+    if (!(root >= a && root <= b))
+        root = 0.5 * (a + b);
     gsl_root_fsolver_free(rs);
     if (c.st != PW_OK)
         return c.st;
     if (c.lost || st != PW_OK)
         return PW_ENOCONV;
-    st = pw_three_phase_at_T(s, 0.5 * (a + b), out);
+    st = pw_three_phase_at_T(s, root, out);
     if (st != PW_OK)
         return st;
     /* A bracket end refused beyond the solubility floor whose pair could not be described
@@ -457,7 +463,7 @@ pw_status pw_three_phase_at_P_near(const pw_system *s, double P_Pa, double T_gue
                 break;
             }
             if (gsl_root_test_interval(gsl_root_fsolver_x_lower(rs), gsl_root_fsolver_x_upper(rs),
-                                       1e-9, 0.0) == GSL_SUCCESS) {
+                                       0.0, 1e-14) == GSL_SUCCESS) {
                 st = PW_OK;
                 break;
             }
