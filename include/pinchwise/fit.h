@@ -107,6 +107,11 @@ typedef struct pw_fit_point {
     double lngamma_exp[2];                /* from y, T, P and P^sat; NAN when not derivable */
     bool three_phase;                     /* a point inside the two-liquid region: modelled as
                                            * the three-phase state (T3 or P3 and y3) */
+    bool in_layers;                       /* a one-liquid point (not three_phase) whose x1 the
+                                           * model puts strictly between its layers at the
+                                           * data's three-phase condition (only for data with
+                                           * three-phase points): modelled, and its calculated
+                                           * values given, as the three-phase state too */
 } pw_fit_point;
 
 /* A distinct local minimum found by the multistart. */

@@ -400,15 +400,16 @@ static gap_condition gap_at(const pw_fit_result *r, bool isobaric, double at)
  * one-liquid bubble point the fit compares with the point is a metastable non-solution
  * (docs/heterogeneous.md sections 3 and 4). The layers at the three-phase condition are used,
  * not those at the measured T: an isobaric point's condition is its P, and the measured T is an
- * outcome the model disagrees with. One solve per distinct condition. The fit does not penalise
- * such points yet; this record says so. */
+ * outcome the model disagrees with. One solve per distinct condition. With three-phase points in
+ * the data the fit scores such points by the three-phase state, the model's stable prediction
+ * (pw_fit_point.in_layers); without, by the one-liquid bubble point. The record says which. */
 static void liquid_in_gap(const pw_fit_result *r, pw_fit_diags *d)
 {
     if (!pw_model_can_split(r->sys.model) || r->n_pts == 0)
         return;
     bool isobaric = r->kind == PW_DATA_ISOBARIC;
     gap_condition cache[GAP_CACHE];
-    size_t n_cache = 0, next = 0, count = 0;
+    size_t n_cache = 0, next = 0, count = 0, n_scored3 = 0;
     long first = 0, last = 0;
     gap_condition shown = {.split = false};
     for (size_t i = 0; i < r->n_pts; i++) {
@@ -431,6 +432,7 @@ static void liquid_in_gap(const pw_fit_result *r, pw_fit_diags *d)
         }
         if (!c->split || !(m->x1 > c->x[0] && m->x1 < c->x[1]))
             continue;
+        n_scored3 += p->in_layers;
         if (count++ == 0) {
             first = m->line;
             shown = *c;
@@ -453,14 +455,17 @@ static void liquid_in_gap(const pw_fit_result *r, pw_fit_diags *d)
         snprintf(lines, sizeof lines, "lines %ld and %ld", first, last);
     else
         snprintf(lines, sizeof lines, "first line %ld, last line %ld", first, last);
+    const char *scored =
+        n_scored3 == count
+            ? "the fit scores them by the model's three-phase state"
+            : "the calculated values there are one-liquid bubble points the model cannot produce";
     say(g,
         "%zu measured one-liquid point%s (%s) lie%s inside the %s model's two liquid layers "
         "(x1 = %.4f and %.4f at " PW_TEXT_T(".2f") "): the model's layer contradicts the data, "
-        "and the calculated values there are one-liquid bubble points the model cannot "
-        "produce; fit with measured tie lines, try another model, or check those points "
+        "and %s; fit with measured tie lines, try another model, or check those points "
         "(docs/heterogeneous.md)",
         count, count == 1 ? "" : "s", lines, count == 1 ? "s" : "", r->sys.model->name,
-        shown.x[0], shown.x[1], shown.T_K);
+        shown.x[0], shown.x[1], shown.T_K, scored);
 }
 
 pw_status pw_fit_diagnose(const pw_fit_result *r, pw_fit_diags *out)

@@ -104,6 +104,7 @@ pw_status fit_eval(const fit_problem *fp, const double *params, double *f, doubl
 typedef struct fit_het_state {
     bool exists;
     double T_K, P_Pa, y1;
+    double x_lo, x_hi;         /* the two layers (x1), x_lo < x_hi */
     double dM[PW_MAX_PARAMS];  /* d(T3)/du_j (isobaric) or d(P3)/du_j (isothermal) */
     double dy[PW_MAX_PARAMS];  /* d(y3)/du_j */
 } fit_het_state;
@@ -112,6 +113,10 @@ typedef struct fit_het_state {
  * PW_OK with h->exists false: the caller then uses the one-liquid bubble point. */
 pw_status fit_het_state_eval(const fit_problem *fp, const pw_system *s, bool want_J,
                              fit_het_state *h);
+
+/* Whether a one-liquid point at x1 lies strictly inside the layers of h: the model's stable
+ * prediction there is the three-phase state, not the one-liquid bubble point. */
+bool fit_het_inside(const fit_het_state *h, double x1);
 
 /* Residuals of one three-phase point from h: (T3 - T)/sigma_T or (P3 - P)/sigma_P, and
  * (y3 - y)/sigma_y when the objective has y; rows of J when J is not NULL. */

@@ -158,6 +158,8 @@ static json_t *point_json(const pw_fit_point *p)
     json_object_set_new(pj, "excluded", json_boolean(p->excluded));
     if (p->three_phase)
         json_object_set_new(pj, "three_phase", json_true());
+    if (p->in_layers)
+        json_object_set_new(pj, "inside_layers", json_true());
     json_object_set_new(pj, "T_calc_K", num(p->T_calc_K));
     json_object_set_new(pj, "P_calc_Pa", num(p->P_calc_Pa));
     json_object_set_new(pj, "y1_calc", num(p->y_calc));
@@ -393,6 +395,8 @@ static size_t point_text(char *buf, const pw_fit_point *p, size_t pad)
     n = put(buf, put_key(buf, n, pad + 2, "excluded", false), p->excluded ? "true" : "false");
     if (p->three_phase)
         n = put(buf, put_key(buf, n, pad + 2, "three_phase", false), "true");
+    if (p->in_layers)
+        n = put(buf, put_key(buf, n, pad + 2, "inside_layers", false), "true");
     n = put_num(buf, put_key(buf, n, pad + 2, "T_calc_K", false), p->T_calc_K);
     n = put_num(buf, put_key(buf, n, pad + 2, "P_calc_Pa", false), p->P_calc_Pa);
     n = put_num(buf, put_key(buf, n, pad + 2, "y1_calc", false), p->y_calc);

@@ -153,7 +153,11 @@ pw_status fit_eval(const fit_problem *fp, const double *params, double *f, doubl
     }
     for (size_t i = 0; i < fp->n_pts; i++) {
         double *Ji = J ? J + i * m * fp->n_fit : NULL;
-        if (fp->three_phase && fp->three_phase[i] && het.exists) {
+        /* a three-phase point, or a one-liquid point inside the model's layers: both are
+         * scored by the state the model predicts for them, the three-phase one (the one-liquid
+         * bubble point inside the layers is metastable; docs/heterogeneous.md 4) */
+        if (fp->three_phase && het.exists &&
+            (fp->three_phase[i] || fit_het_inside(&het, fp->pts[i].x1))) {
             fit_het_point(fp, &het, &fp->pts[i], f + i * m, Ji);
             continue;
         }

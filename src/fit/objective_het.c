@@ -119,6 +119,8 @@ static pw_status het_isothermal(const fit_problem *fp, const pw_system *s, bool 
     h->T_K = tp.T_K;
     h->P_Pa = tp.P_Pa;
     h->y1 = tp.y1;
+    h->x_lo = fmin(tp.x[0], tp.x[1]);
+    h->x_hi = fmax(tp.x[0], tp.x[1]);
     if (!want_J)
         return PW_OK;
     layer L1, L2;
@@ -157,6 +159,8 @@ static pw_status het_isobaric(const fit_problem *fp, const pw_system *s, bool wa
     h->T_K = tp.T_K;
     h->P_Pa = fp->P_fixed_Pa;
     h->y1 = tp.y1;
+    h->x_lo = fmin(tp.x[0], tp.x[1]);
+    h->x_hi = fmax(tp.x[0], tp.x[1]);
     if (!want_J)
         return PW_OK;
     layer L1, L2;
@@ -209,6 +213,11 @@ pw_status fit_het_state_eval(const fit_problem *fp, const pw_system *s, bool wan
         return PW_OK;
     }
     return st;
+}
+
+bool fit_het_inside(const fit_het_state *h, double x1)
+{
+    return h->exists && x1 > h->x_lo && x1 < h->x_hi;
 }
 
 void fit_het_point(const fit_problem *fp, const fit_het_state *h, const pw_point *pt, double *f,

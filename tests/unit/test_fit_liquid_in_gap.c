@@ -6,6 +6,11 @@
  *    exactly those lines, its layers and temperature agree with an independent liquid-liquid
  *    solve (pw_lle_solve) at that temperature whose pressure is the data's, and no flagged point
  *    is a three-phase point. The record survives a write and a read of the fit file.
+ *  - The objective those points enter: with three-phase points in the data, a one-liquid point
+ *    inside the model's layers is scored by the three-phase state, the model's stable
+ *    prediction. The fit's chi2 is recomputed here point by point from pw_bubble_T_het (which
+ *    decides by itself whether the liquid splits) and the three-phase state, and must equal the
+ *    fit's; the metastable one-liquid scoring must not (so the check can tell them apart).
  *  - Counter-cases: Wilson's equation cannot split (Wilson 1964), so the same data give no
  *    record; methanol/water at 1 atm (miscible) fitted by NRTL gives none.
  *  - Seeded random cases: random points (random x1, three-phase and excluded flags, two
@@ -91,7 +96,8 @@ static void butanol_water_nrtl_flags_lines_22_23(void **state)
     assert_int_equal(g->line2, 23);
     assert_string_equal(pw_fit_diag_kind_name(g->kind), "liquid-inside-layers");
     assert_non_null(strstr(g->message, "lines 22 and 23"));
-    assert_non_null(strstr(g->message, "cannot produce"));
+    assert_non_null(strstr(g->message, "three-phase state"));
+    assert_non_null(strstr(g->message, "(docs/heterogeneous.md)")); /* not cut short */
 
     double xI, xII, T3;
     pw_assert_close(r.P_fixed_Pa, 101330.0, 1e-12, 0, "the file's '# pressure: 101.33 kPa'");
@@ -108,9 +114,10 @@ static void butanol_water_nrtl_flags_lines_22_23(void **state)
             continue;
         inside++;
         assert_true(p->meas.line == 22 || p->meas.line == 23);
-        /* measured above T3 as one liquid; the one-liquid value the fit compares lies below */
+        /* measured above T3 as one liquid; the model's value is the three-phase state */
         assert_true(p->meas.T_K > T3);
-        assert_true(p->T_calc_K < T3);
+        assert_true(p->in_layers);
+        pw_assert_close(p->T_calc_K, T3, 0, 1e-6, "calculated T of a point inside the layers");
     }
     assert_int_equal(inside, 2);
     for (size_t i = 0; i < r.n_pts; i++)
@@ -151,6 +158,53 @@ static void butanol_water_nrtl_flags_lines_22_23(void **state)
     assert_null(find_gap(&d2));
     free(u.pts);
     pw_fit_result_free(&back);
+    pw_fit_result_free(&r);
+}
+
+static double sq(double v)
+{
+    return v * v;
+}
+
+/* The fit's chi2 at its optimum, recomputed from the stable prediction of every used point. */
+static void objective_scores_the_stable_prediction(void **state)
+{
+    (void)state;
+    pw_fit_result r;
+    fit_file("datasets/butanol_water_1atm.csv", "1-butanol", "water", &pw_model_nrtl, &r);
+    pw_three_phase tp;
+    assert_int_equal(pw_three_phase_at_P(&r.sys, r.P_fixed_Pa, &tp), PW_OK);
+    assert_true(tp.exists);
+    double S = 0.0, S_meta = 0.0;
+    size_t n_in = 0, n_used = 0;
+    for (size_t i = 0; i < r.n_pts; i++) {
+        const pw_fit_point *p = &r.pts[i];
+        const pw_point *m = &p->meas;
+        if (p->excluded || m->x1 <= 0.0 || m->x1 >= 1.0)
+            continue;
+        n_used++;
+        double T = tp.T_K, y = tp.y1, T_meta = tp.T_K, y_meta = tp.y1;
+        if (!p->three_phase) {
+            pw_eq_point eq, one;
+            bool three = false;
+            assert_int_equal(pw_bubble_T_het(&r.sys, r.P_fixed_Pa, m->x1, &eq, &three), PW_OK);
+            assert_int_equal(pw_bubble_T(&r.sys, r.P_fixed_Pa, m->x1, &one), PW_OK);
+            assert_true(three == p->in_layers);
+            n_in += three;
+            T = eq.T_K;
+            y = eq.y1;
+            T_meta = one.T_K;
+            y_meta = one.y1;
+            pw_assert_close(p->T_calc_K, T, 0, 1e-6, "calculated T");
+            pw_assert_close(p->y_calc, y, 0, 1e-8, "calculated y");
+        }
+        S += sq((T - m->T_K) / r.sigma_T_K) + sq((y - m->y1) / r.sigma_y);
+        S_meta += sq((T_meta - m->T_K) / r.sigma_T_K) + sq((y_meta - m->y1) / r.sigma_y);
+    }
+    assert_int_equal(n_in, 2); /* lines 22 and 23 */
+    assert_int_equal(r.n_residuals, 2 * n_used);
+    pw_assert_close(r.chi2, S, 1e-6, 0, "chi2 from the stable predictions");
+    assert_true(fabs(S_meta - S) > 1e-3 * S); /* the metastable scoring is another number */
     pw_fit_result_free(&r);
 }
 
@@ -284,6 +338,7 @@ int main(void)
     pw_test_init();
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(butanol_water_nrtl_flags_lines_22_23),
+        cmocka_unit_test(objective_scores_the_stable_prediction),
         cmocka_unit_test(wilson_and_miscible_data_give_none),
         cmocka_unit_test(random_points_against_direct_computation),
     };
