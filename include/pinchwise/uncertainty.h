@@ -187,12 +187,15 @@ pw_status pw_unc_azeo_assess(const pw_fit_result *fit, const pw_az_result *r,
 /* ---- Heterogeneous azeotrope and the decanter scheme (src/analysis/uncertainty_het.c) ----- */
 
 /* Outputs of pw_unc_het_fn: the three-phase temperature [K] at fixed P (pressure [kPa] at fixed
- * T), the vapor y3 (the heterogeneous azeotrope's composition), the layers x_I < x_II; with the
- * decanter also the minimum boil-up V/B of column A (bottoms rich in 1) and of column B. */
+ * T), the vapor y3 (the heterogeneous azeotrope's composition), the layers x_I < x_II boiling at
+ * it; with the decanter also the minimum boil-up V/B of column A (bottoms rich in 1) and of
+ * column B, and the decanter's own layers, lean and rich in 1, that top columns B and A (those
+ * of a cooled decanter, pw_decanter_spec.T_decanter_K; else the boiling layers again). */
 enum {
     PW_UNC_HET_TP = 0, PW_UNC_HET_Y = 1, PW_UNC_HET_XI = 2, PW_UNC_HET_XII = 3,
     PW_UNC_HET_NOUT = 4,
-    PW_UNC_DEC_SA = 4, PW_UNC_DEC_SB = 5, PW_UNC_DEC_NOUT = 6
+    PW_UNC_DEC_SA = 4, PW_UNC_DEC_SB = 5, PW_UNC_DEC_TOP_LEAN = 6, PW_UNC_DEC_TOP_RICH = 7,
+    PW_UNC_DEC_NOUT = 8
 };
 
 typedef struct pw_unc_het_ctx {

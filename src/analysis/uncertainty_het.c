@@ -58,6 +58,8 @@ pw_status pw_unc_het_fn(void *ctx, const pw_system *sys, double *out)
         put_three_phase(&r.decanter, true, out);
         out[PW_UNC_DEC_SA] = r.col[0].boilup_min;
         out[PW_UNC_DEC_SB] = r.col[1].boilup_min;
+        out[PW_UNC_DEC_TOP_LEAN] = r.top_x1[1]; /* the decanter's layers (cooled or not) */
+        out[PW_UNC_DEC_TOP_RICH] = r.top_x1[0];
         return PW_OK;
     }
     bool isobaric = c->mode == PW_AZ_ISOBARIC;

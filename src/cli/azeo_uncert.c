@@ -83,7 +83,7 @@ static void print_interval(const char *what, const pw_unc_output *o, const char 
 }
 
 void cli_het_uncert_print(const pw_unc_result *res, const pw_unc_options *opt, pw_az_mode mode,
-                         bool decanter, const pw_display_units *u)
+                         bool decanter, bool cooled, const pw_display_units *u)
 {
     bool isP = mode == PW_AZ_ISOBARIC;
     printf("\nUncertainty of the %s from the fit's parameter covariance (%zu draws, seed %lu):\n",
@@ -92,8 +92,7 @@ void cli_het_uncert_print(const pw_unc_result *res, const pw_unc_options *opt, p
     print_interval(isP ? "three-phase T" : "three-phase P", &tp,
                    isP ? pw_units_display_T_symbol(u) : pw_units_display_P_symbol(u));
     print_interval("vapor x1", &res->out[PW_UNC_HET_Y], "");
-    /* the layers boiling at the three-phase temperature (a cooled decanter's own layers are
-     * not propagated) */
+    /* the layers boiling at the three-phase temperature; a cooled decanter's own layers below */
     print_interval(decanter ? "boiling layer lean, x1" : "layer lean in 1, x1",
                    &res->out[PW_UNC_HET_XI], "");
     print_interval(decanter ? "boiling layer rich, x1" : "layer rich in 1, x1",
@@ -101,6 +100,10 @@ void cli_het_uncert_print(const pw_unc_result *res, const pw_unc_options *opt, p
     if (decanter) {
         print_interval("column A minimum V/B", &res->out[PW_UNC_DEC_SA], "");
         print_interval("column B minimum V/B", &res->out[PW_UNC_DEC_SB], "");
+        if (cooled) {
+            print_interval("cooled layer lean, x1", &res->out[PW_UNC_DEC_TOP_LEAN], "");
+            print_interval("cooled layer rich, x1", &res->out[PW_UNC_DEC_TOP_RICH], "");
+        }
     }
     if (res->n_infeasible)
         printf("    in %zu of %zu parameter sets drawn (%.0f %%) %s\n", res->n_infeasible,

@@ -30,9 +30,9 @@ pw_status cli_azeo_uncert_run_het(const pw_fit_result *fit, pw_az_mode mode, dou
                                  cli_azeo_uncert *u, pw_error *err);
 
 /* Text lines for a heterogeneous azeotrope's or a decanter's result (decanter true: the two
- * minimum boil-ups too). */
+ * minimum boil-ups too; cooled true: a cooled decanter's own layers too). */
 void cli_het_uncert_print(const pw_unc_result *res, const pw_unc_options *opt, pw_az_mode mode,
-                          bool decanter, const pw_display_units *u);
+                          bool decanter, bool cooled, const pw_display_units *u);
 
 /* Adds x1_ci95 and T_K_ci95 / P_kPa_ci95 (CONTRACT) and an "uncertainty" object to each element
  * of the azeotrope list. */

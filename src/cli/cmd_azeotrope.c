@@ -392,7 +392,7 @@ pw_status cli_azeotrope(int argc, char **argv)
         if (a.unc.on)
             cli_azeo_uncert_print(&a.unc, &r, &a.units);
         if (a.unc.het)
-            cli_het_uncert_print(&a.unc.res_het, &a.unc.opt, a.mode, false, &a.units);
+            cli_het_uncert_print(&a.unc.res_het, &a.unc.opt, a.mode, false, false, &a.units);
         rc = fflush(stdout) ? PW_EIO : PW_OK;
     }
     free(tps);

@@ -263,7 +263,7 @@ pw_status cli_decanter(int argc, char **argv)
                        "  --decanter-temperature.\n");
         }
         if (unc)
-            cli_het_uncert_print(&ures, &a.unc.opt, PW_AZ_ISOBARIC, true, u);
+            cli_het_uncert_print(&ures, &a.unc.opt, PW_AZ_ISOBARIC, true, r.cooled, u);
         else if (a.unc.on)
             printf("\nThe scheme is not feasible at the estimate: no interval to give.\n");
         cli_print_caution(stdout);

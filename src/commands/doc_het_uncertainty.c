@@ -59,6 +59,10 @@ void pw_decanter_unc_doc(json_t *doc, const pw_unc_result *res, unsigned long se
     json_object_set_new(j, "boilup_min", json_pack("[o,o]",
                                                    pw_unc_output_doc(&res->out[PW_UNC_DEC_SA]),
                                                    pw_unc_output_doc(&res->out[PW_UNC_DEC_SB])));
+    /* the decanter's own layers (a cooled decanter's; else x1_layers again) */
+    json_object_set_new(j, "decanter_x1_layers",
+                        json_pack("[o,o]", pw_unc_output_doc(&res->out[PW_UNC_DEC_TOP_LEAN]),
+                                  pw_unc_output_doc(&res->out[PW_UNC_DEC_TOP_RICH])));
     json_object_set_new(j, "feasible_probability", pw_json_num(res->p_feasible));
     json_object_set_new(j, "draws", draws_doc(res, "feasible", "infeasible"));
     json_object_set_new(j, "seed", json_integer((json_int_t)seed));

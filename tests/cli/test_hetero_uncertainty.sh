@@ -54,7 +54,33 @@ assert lo <= d["decanter"]["T_K"] <= hi, u
 dr = u["draws"]
 assert dr["feasible"] + dr["infeasible"] + dr["failed"] == dr["evaluated"] == 20, dr
 assert 0 <= u["feasible_probability"] <= 1, u
+# not cooled: the decanter's own layers are the boiling ones
+assert u["decanter_x1_layers"] == u["x1_layers"], u
 PY
+
+# a cooled decanter (fit with the 25 C tie line, decanter at 25 C): its own layers get intervals,
+# their values lle's at 25 C, and the text names them
+"$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model nrtl \
+    --lle "$SRC/datasets/lle/butanol_water_25C_ties.csv" --out "$TMP/bwl.json" \
+    > /dev/null 2> "$TMP/err.txt" || fail "fit --lle: $(cat "$TMP/err.txt")"
+"$PW" lle "$TMP/bwl.json" --temperature 25C --json > "$TMP/lle25.json" 2> /dev/null || fail "lle 25C"
+"$PW" decanter "$TMP/bwl.json" --pressure 1atm --zf 0.2 --x1-rich 0.995 --x1-lean 0.001 \
+    --decanter-temperature 25C --uncertainty --samples 20 --json > "$TMP/decc.json" \
+    2> "$TMP/err.txt" || fail "cooled decanter --uncertainty exited $?: $(cat "$TMP/err.txt")"
+python3 - "$TMP/decc.json" "$TMP/lle25.json" <<'PY' || fail "cooled decanter uncertainty JSON"
+import json, sys
+d, l = (json.load(open(p)) for p in sys.argv[1:])
+assert d["feasible"] is True and d["decanter"]["cooled"] is True, d
+u = d["uncertainty"]
+for o, x in zip(u["decanter_x1_layers"], l["x1"]):
+    assert o["value"] == x, (o, x)
+    assert o["ci95"][0] <= x <= o["ci95"][1], o
+assert [o["value"] for o in u["x1_layers"]] == d["three_phase"]["x1_layers"], u
+PY
+"$PW" decanter "$TMP/bwl.json" --pressure 1atm --zf 0.2 --x1-rich 0.995 --x1-lean 0.001 \
+    --decanter-temperature 25C --uncertainty --samples 20 > "$TMP/decc.txt" 2> /dev/null \
+    || fail "cooled decanter text exited $?"
+grep -q "cooled layer rich, x1" "$TMP/decc.txt" || fail "no cooled-layer interval in the text"
 
 # text output: the intervals are named
 "$PW" decanter "$TMP/bw.json" --pressure 1atm --zf 0.2 --x1-rich 0.99 --x1-lean 0.001 \

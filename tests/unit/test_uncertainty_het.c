@@ -14,11 +14,16 @@
  *    independent central difference of pw_three_phase_at_P; the same seed gives the same sampled
  *    interval, another seed another one.
  *  - A decanter whose column A bottoms sits just above the rich layer: draws that move the layer
- *    past it make the scheme infeasible, counted, not an error. */
+ *    past it make the scheme infeasible, counted, not an error.
+ *  - A cooled decanter (30 C) on the NRTL set of test_decanter.c whose layers widen on cooling:
+ *    its own layers' point values are pw_lle_solve's at 30 C, and their linearised standard
+ *    deviations equal the delta method from an independent central difference of pw_lle_solve;
+ *    without cooling they are the boiling layers. */
 #include "pw_test.h"
 
 #include <gsl/gsl_cdf.h>
 #include <math.h>
+#include <pinchwise/lle.h>
 #include <pinchwise/uncertainty.h>
 #include <string.h>
 
@@ -187,6 +192,60 @@ static void butanol_decanter(void **state)
                   r2.n_samples);
 }
 
+static void cooled_decanter_layers(void **state)
+{
+    (void)state;
+    pw_decanter_spec sp = {.P_Pa = 101325.0, .zf = 0.2, .q = 1.0, .x_rich = 0.995, .x_lean = 0.001,
+                           .T_decanter_K = 303.15};
+    pw_unc_het_ctx c = pw_unc_decanter_ctx(&sp, NULL);
+    pw_unc_problem pb;
+    butanol_problem(&pb, &c, PW_UNC_DEC_NOUT);
+    /* test_decanter.c's set near the NRTL fit with the 25 C tie line */
+    pb.sys.params[0] = -23.1;
+    pb.sys.params[1] = 1499.4;
+    pb.sys.params[2] = 0.3;
+    pb.sys.T_ref_K = 370.5;
+    pw_unc_options o = pw_unc_default_options();
+    o.samples = 40;
+    pw_unc_result r;
+    assert_int_equal(pw_unc_propagate(&pb, &o, &r), PW_OK);
+    assert_int_equal(r.point_status, PW_OK);
+    contains(&r, PW_UNC_DEC_NOUT);
+    pw_lle_result l;
+    assert_int_equal(pw_lle_solve(&pb.sys, 303.15, &l), PW_OK);
+    assert_true(l.split);
+    pw_assert_close(r.out[PW_UNC_DEC_TOP_LEAN].value, l.x[0], 0.0, 1e-9, "cooled lean layer");
+    pw_assert_close(r.out[PW_UNC_DEC_TOP_RICH].value, l.x[1], 0.0, 1e-9, "cooled rich layer");
+    /* cooled: not the boiling layers */
+    assert_true(fabs(r.out[PW_UNC_DEC_TOP_LEAN].value - r.out[PW_UNC_HET_XI].value) > 1e-3);
+    /* delta method from central differences of the layers at 30 C (steps 0.5 K) */
+    double g[2][2];
+    for (int k = 0; k < 2; k++) {
+        pw_system s = pb.sys;
+        pw_lle_result lp, lm;
+        s.params[k] += 0.5;
+        assert_int_equal(pw_lle_solve(&s, 303.15, &lp), PW_OK);
+        s.params[k] -= 1.0;
+        assert_int_equal(pw_lle_solve(&s, 303.15, &lm), PW_OK);
+        for (int j = 0; j < 2; j++)
+            g[j][k] = lp.x[j] - lm.x[j];
+    }
+    for (int j = 0; j < 2; j++) {
+        double var = g[j][0] * g[j][0] * pb.cov[0][0] + 2.0 * g[j][0] * g[j][1] * pb.cov[0][1]
+                     + g[j][1] * g[j][1] * pb.cov[1][1];
+        pw_assert_close(r.out[j == 0 ? PW_UNC_DEC_TOP_LEAN : PW_UNC_DEC_TOP_RICH].sd_lin, sqrt(var),
+                        0.02, 0.0, "sd of a cooled layer (delta method)");
+    }
+    /* not cooled: the decanter's layers are the boiling ones */
+    sp.T_decanter_K = 0.0;
+    c = pw_unc_decanter_ctx(&sp, NULL);
+    pb.ctx = &c;
+    o.samples = 10;
+    assert_int_equal(pw_unc_propagate(&pb, &o, &r), PW_OK);
+    assert_true(r.out[PW_UNC_DEC_TOP_LEAN].value == r.out[PW_UNC_HET_XI].value);
+    assert_true(r.out[PW_UNC_DEC_TOP_RICH].value == r.out[PW_UNC_HET_XII].value);
+}
+
 static int setup(void **state)
 {
     (void)state;
@@ -207,6 +266,7 @@ int main(void)
         cmocka_unit_test(split_disappears),
         cmocka_unit_test(butanol_azeotrope),
         cmocka_unit_test(butanol_decanter),
+        cmocka_unit_test(cooled_decanter_layers),
     };
     return cmocka_run_group_tests(tests, setup, teardown);
 }
