@@ -205,6 +205,16 @@ typedef struct pw_fit_result {
 pw_status pw_fit_attach_tie_lines(const pw_lle_dataset *lle, const pw_dataset *ds,
                                   pw_fit_options *fo, pw_tie_line **swapped, pw_error *err);
 
+/* As pw_fit_attach_tie_lines, with the components c1, c2 in the dataset's order (those the fit
+ * uses): tie lines given as mass fractions (lle->mass, w1_I / w1_II columns) are converted to mole
+ * fractions with their molar masses into the copy *copy (which the caller frees; NULL when the
+ * rows are used as they are). Without c1, c2 (both functions) mass-fraction tie lines are
+ * PW_EINVAL; a component without a molar mass is PW_ENOTFOUND naming it and the LLE file's
+ * header line. */
+pw_status pw_fit_attach_tie_lines_ex(const pw_lle_dataset *lle, const pw_dataset *ds,
+                                     const pw_component *c1, const pw_component *c2,
+                                     pw_fit_options *fo, pw_tie_line **copy, pw_error *err);
+
 /* Fits model to ds with components c1, c2 (in the dataset's order). out is filled even when
  * the fit does not converge (converged = false, stop says why); the return is then PW_OK.
  * Errors: PW_ETOOFEW (fewer usable points than parameters + 1), PW_EINVAL, PW_ENOMEM.

@@ -5,7 +5,11 @@
  * informational; "# source:" optional; "# sigma_x: VALUE" is the standard uncertainty of a layer
  * mole fraction (default PW_LLE_SIGMA_X_DEFAULT). Header row: T[UNIT], x1_I, x1_II in any order
  * (further columns ignored); each row one tie line, x1_I < x1_II mole fractions of NAME1 in the
- * two layers, strictly between 0 and 1. Errors name the file and line. */
+ * two layers, strictly between 0 and 1. Instead of x1_I and x1_II the columns w1_I and w1_II give
+ * mass fractions of NAME1 (solubility tables often do): the dataset is then marked `mass`, and
+ * pw_fit_attach_tie_lines_ex converts them with the components' molar masses (x1 = (w1/M1) /
+ * (w1/M1 + (1 - w1)/M2), which keeps the order of the layers). sigma_x is a mole-fraction
+ * uncertainty either way. Errors name the file and line. */
 #ifndef PINCHWISE_LLEDATA_H
 #define PINCHWISE_LLEDATA_H
 
@@ -39,6 +43,8 @@ typedef struct pw_lle_dataset {
     char source[PW_SOURCE_MAX];
     pw_tie_line *rows;
     size_t n;
+    bool mass;                 /* the rows hold mass fractions (w1_I, w1_II columns) */
+    long header_line;          /* the header row's line */
 } pw_lle_dataset;
 
 pw_status pw_lle_dataset_read(const char *path, pw_lle_dataset *out, pw_error *err);

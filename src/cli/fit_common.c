@@ -88,7 +88,7 @@ pw_status cli_fit_one(const char *input, const pw_model_type *model, const char 
     pw_fit_options fo = co->fit;
     pw_tie_line *swapped = NULL;
     if (st == PW_OK && co->lle) /* tie lines: same components, in either order */
-        st = pw_fit_attach_tie_lines(co->lle, &ds, &fo, &swapped, err);
+        st = pw_fit_attach_tie_lines_ex(co->lle, &ds, c1, c2, &fo, &swapped, err);
     if (st == PW_OK)
         st = pw_fit_run(&ds, c1, c2, model, &fo, r, err);
     free(swapped);

@@ -193,7 +193,7 @@ pw_status pw_api_fit_lle(const char *data, const char *model, const char *compon
                  ? pw_error_set(err, PW_EINVAL, out, 0, "the output would replace the LLE file")
                  : pw_lle_dataset_read(lle, &ties, err);
     if (st == PW_OK && lle)
-        st = pw_fit_attach_tie_lines(&ties, &ds, &o, &swapped, err);
+        st = pw_fit_attach_tie_lines_ex(&ties, &ds, &found[0], &found[1], &o, &swapped, err);
     if (st == PW_OK)
         st = pw_fit_run(&ds, &found[0], &found[1], m, &o, &r, err);
     free(swapped);

@@ -15,8 +15,8 @@ typedef struct lle_reader {
     pw_ds_reader meta;
     pw_lle_dataset *d;
     size_t cap;
-    bool header_seen;
-    long col_T, col_a, col_b;
+    bool header_seen, mass;
+    long col_T, col_a, col_b, header_line;
     char T_unit[PW_UNIT_MAX];
 } lle_reader;
 
@@ -45,12 +45,20 @@ static pw_status header(lle_reader *r, char **f, size_t n, long line, pw_error *
         return pw_error_set(err, PW_EPARSE, name, line,
                             "no '# components: NAME1, NAME2' line before the header row");
     r->col_T = r->col_a = r->col_b = -1;
+    bool by_mole = false, by_mass = false;
     for (size_t i = 0; i < n; i++) {
         long *slot = NULL;
-        if (!strcasecmp(f[i], "x1_I")) {
-            slot = &r->col_a;
-        } else if (!strcasecmp(f[i], "x1_II")) {
-            slot = &r->col_b;
+        bool w = !strcasecmp(f[i], "w1_I") || !strcasecmp(f[i], "w1_II");
+        if (w || !strcasecmp(f[i], "x1_I") || !strcasecmp(f[i], "x1_II")) {
+            if (w ? by_mole : by_mass)
+                return pw_error_set(err, PW_EPARSE, name, line,
+                                    "column '%s': the layers are given both as mole fractions "
+                                    "(x1_I, x1_II) and as mass fractions (w1_I, w1_II); keep one",
+                                    f[i]);
+            by_mass |= w;
+            by_mole |= !w;
+            bool lean = !strcasecmp(f[i] + 2, "_I");
+            slot = lean ? &r->col_a : &r->col_b;
         } else if ((f[i][0] == 'T' || f[i][0] == 't') && f[i][1] == '[') {
             size_t len = strlen(f[i]);
             if (f[i][len - 1] != ']' || len - 3 >= sizeof r->T_unit || len < 4)
@@ -74,11 +82,14 @@ static pw_status header(lle_reader *r, char **f, size_t n, long line, pw_error *
             *slot = (long)i;
         }
     }
+    const char *ca = by_mass ? "w1_I" : "x1_I", *cb = by_mass ? "w1_II" : "x1_II";
     if (r->col_T < 0 || r->col_a < 0 || r->col_b < 0)
         return pw_error_set(err, PW_EPARSE, name, line,
-                            "the header row needs the columns T[UNIT], x1_I and x1_II (got %zu "
-                            "columns without %s)",
-                            n, r->col_T < 0 ? "T[UNIT]" : r->col_a < 0 ? "x1_I" : "x1_II");
+                            "the header row needs the columns T[UNIT], x1_I and x1_II (or w1_I "
+                            "and w1_II for mass fractions; got %zu columns without %s)",
+                            n, r->col_T < 0 ? "T[UNIT]" : r->col_a < 0 ? ca : cb);
+    r->mass = by_mass;
+    r->header_line = line;
     r->header_seen = true;
     return PW_OK;
 }
@@ -102,19 +113,24 @@ static pw_status row(void *ctx, char **f, size_t n, long line, pw_error *err)
         || !(TK < 5000.0))
         return pw_error_set(err, PW_EPARSE, name, line,
                             "temperature %g %s is outside 1-5000 K", T, r->T_unit);
+    const char *ca = r->mass ? "w1_I" : "x1_I", *cb = r->mass ? "w1_II" : "x1_II";
     if (!number(r, f[r->col_a], &a) || !number(r, f[r->col_b], &b))
         return pw_error_set(err, PW_EPARSE, name, line,
-                            "x1_I and x1_II must be numbers (got '%.40s', '%.40s')", f[r->col_a],
-                            f[r->col_b]);
+                            "%s and %s must be numbers (got '%.40s', '%.40s')", ca, cb,
+                            f[r->col_a], f[r->col_b]);
     if (!(a > 0.0 && a < 1.0 && b > 0.0 && b < 1.0))
         return pw_error_set(err, PW_EPARSE, name, line,
-                            "layer compositions must lie strictly between 0 and 1 (got %g, %g)",
-                            a, b);
+                            "layer compositions must lie strictly between 0 and 1 (got %g, %g)%s",
+                            a, b,
+                            (a > 1.0 && a <= 100.0) || (b > 1.0 && b <= 100.0)
+                                ? (r->mass ? ": looks like mass percent; divide by 100"
+                                           : ": looks like mole percent; divide by 100")
+                                : "");
     if (!(a < b))
         return pw_error_set(err, PW_EPARSE, name, line,
-                            "x1_I (%g) must be below x1_II (%g): the layer lean in component 1 "
+                            "%s (%g) must be below %s (%g): the layer lean in component 1 "
                             "first",
-                            a, b);
+                            ca, a, cb, b);
     pw_lle_dataset *d = r->d;
     if (d->n >= PW_LLE_MAX_ROWS)
         return pw_error_set(err, PW_EPARSE, name, line, "more than %d tie lines",
@@ -165,6 +181,8 @@ pw_status pw_lle_dataset_parse(const char *buf, size_t len, const char *name, pw
         out->components_line = r.meta.ds.components_line;
         snprintf(out->source, sizeof out->source, "%s", r.meta.ds.source);
         out->P_Pa = r.meta.have_pressure ? r.meta.ds.P_fixed_Pa : (double)NAN;
+        out->mass = r.mass;
+        out->header_line = r.header_line;
         out->sigma_x_given = false;
         for (size_t k = 0; k < r.meta.nkeys; k++)
             if (!strcmp(r.meta.keys[k].key, "sigma_x"))

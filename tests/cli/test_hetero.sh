@@ -271,6 +271,24 @@ assert 0 < c[0] < c[1] < 1, r
 aad = (abs(c[0] - 0.019) + abs(c[1] - 0.488)) / 2
 assert abs(aad - d["aad_x"]) < 1e-12, (aad, d)
 PY
+# the same tie line as the source states it, in weight percent (Letcher & Siswana 1992 via NIST
+# SRD 106: 7.4 and 79.7 wt% 1-butanol, in the header of the shipped file): w1_I, w1_II columns,
+# converted with the components' molar masses to the compiler's mole fractions 0.019 and 0.488
+# (to their rounding), and a fit that agrees with the mole-fraction one
+printf '# components: water, 1-butanol\n# sigma_x: 0.003\nT[C],w1_I,w1_II\n25.0,0.203,0.926\n' \
+    > "$TMP/ties_w.csv"
+"$PW" fit "$SRC/datasets/butanol_water_1atm.csv" --model nrtl --lle "$TMP/ties_w.csv" \
+    --out "$TMP/bwlm.json" --json > "$TMP/fitlw.json" 2> "$TMP/err.txt" \
+    || fail "fit --lle with mass fractions: $(cat "$TMP/err.txt")"
+python3 - "$TMP/bwlm.json" "$TMP/fitl.json" "$TMP/fitlw.json" <<'PY' || fail "fit --lle with mass fractions"
+import json, sys
+f, mole, mass = (json.load(open(p)) for p in sys.argv[1:])
+(r,) = f["lle"]["rows"]
+assert abs(r["x1"][0] - 0.019) < 5e-4 and abs(r["x1"][1] - 0.488) < 5e-4, r
+for k, v in mole["parameters"].items():  # fitted ones within 5 % of their standard error
+    se = mole["stderr"][k]
+    assert abs(mass["parameters"][k] - v) <= (0.05 * se if se is not None else 0.0), (k, v, mass)
+PY
 "$PW" report "$TMP/bwl.json" --out "$TMP/rl.html" > /dev/null 2>&1 || fail "report of the fit --lle file"
 grep -q "7 three-phase points and 1 tie line" "$TMP/rl.html" && grep -q "Tie lines fitted with the data" "$TMP/rl.html" \
     || fail "report does not show the tie line"

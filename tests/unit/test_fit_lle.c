@@ -2,7 +2,8 @@
  * src/data/lle_data.c, src/data/three_phase_detect.c).
  *
  *  - the LLE file reader: columns in any order, the documented sigma_x default, swapped
- *    components, and errors naming file and line;
+ *    components, and errors naming file and line; mass-fraction columns converted with the
+ *    molar masses;
  *  - the analytic Jacobian rows of three-phase points (isobaric and isothermal) and of tie lines
  *    against central differences (an identity of the implicit-function theorem);
  *  - a noise-free round trip on INVENTED data generated from a known NRTL set (the METHODS2 4.5
@@ -81,6 +82,79 @@ static void reader(void **state)
             fail_msg("case %zu: message '%s' lacks '%s'", i, err.msg, bad[i].needle);
         assert_string_equal(err.file, "b.csv");
     }
+}
+
+/* Tie lines as mass fractions (w1_I, w1_II): read as such, converted by
+ * pw_fit_attach_tie_lines_ex with the components' molar masses, x1 = (w1/M1) / (w1/M1 +
+ * (1 - w1)/M2) written out here, in either component order of the dataset. */
+static void mass_fractions(void **state)
+{
+    (void)state;
+    pw_lle_dataset d;
+    pw_error err;
+    const char *w = "# components: 1-butanol, water\nT[C],w1_II,w1_I\n25,0.796,0.073\n";
+    assert_int_equal(pw_lle_dataset_parse(w, strlen(w), "w.csv", &d, &err), PW_OK);
+    assert_true(d.mass);
+    assert_int_equal(d.header_line, 2);
+    const pw_component *bu = pw_complib_find(&lib, "1-butanol"), *wa = pw_complib_find(&lib, "water");
+    assert_non_null(bu);
+    assert_non_null(wa);
+    double M1 = bu->prop[PW_PROP_M], M2 = wa->prop[PW_PROP_M];
+    assert_true(M1 > 0.0 && M2 > 0.0);
+    double xI = (0.073 / M1) / (0.073 / M1 + 0.927 / M2);
+    double xII = (0.796 / M1) / (0.796 / M1 + 0.204 / M2);
+    pw_dataset ds;
+    memset(&ds, 0, sizeof ds);
+    snprintf(ds.path, sizeof ds.path, "%s", "vle.csv");
+    for (int order = 0; order < 2; order++) {
+        snprintf(ds.names[0], sizeof ds.names[0], "%s", order ? "water" : "1-butanol");
+        snprintf(ds.names[1], sizeof ds.names[1], "%s", order ? "1-butanol" : "water");
+        const pw_component *c1 = order ? wa : bu, *c2 = order ? bu : wa;
+        pw_fit_options fo = pw_fit_default_options();
+        pw_tie_line *copy = NULL;
+        assert_int_equal(pw_fit_attach_tie_lines_ex(&d, &ds, c1, c2, &fo, &copy, &err), PW_OK);
+        assert_non_null(copy);
+        assert_true(fo.tie_lines == copy && fo.n_tie_lines == 1);
+        pw_assert_close(copy[0].x_I, order ? 1.0 - xII : xI, 1e-14, 0.0, "lean layer, mole");
+        pw_assert_close(copy[0].x_II, order ? 1.0 - xI : xII, 1e-14, 0.0, "rich layer, mole");
+        pw_assert_close(copy[0].T_K, 298.15, 0.0, 1e-12, "T");
+        free(copy);
+        /* without the components: refused, naming the header line */
+        assert_int_equal(pw_fit_attach_tie_lines(&d, &ds, &fo, &copy, &err), PW_EINVAL);
+        assert_null(copy);
+        assert_int_equal(err.line, 2);
+        assert_non_null(strstr(err.msg, "mass fractions"));
+        /* a component without a molar mass: refused, naming it */
+        pw_component nom = *c1;
+        nom.prop[PW_PROP_M] = NAN;
+        assert_int_equal(pw_fit_attach_tie_lines_ex(&d, &ds, &nom, c2, &fo, &copy, &err),
+                         PW_ENOTFOUND);
+        assert_null(copy);
+        assert_string_equal(err.file, "w.csv");
+        assert_non_null(strstr(err.msg, "molar mass"));
+    }
+    pw_lle_dataset_free(&d);
+    /* mole fractions in the dataset's order: no copy */
+    const char *x = "# components: 1-butanol, water\nT[C],x1_I,x1_II\n25,0.019,0.488\n";
+    assert_int_equal(pw_lle_dataset_parse(x, strlen(x), "x.csv", &d, &err), PW_OK);
+    assert_false(d.mass);
+    snprintf(ds.names[0], sizeof ds.names[0], "%s", "1-butanol");
+    snprintf(ds.names[1], sizeof ds.names[1], "%s", "water");
+    pw_fit_options fo = pw_fit_default_options();
+    pw_tie_line *copy = NULL;
+    assert_int_equal(pw_fit_attach_tie_lines_ex(&d, &ds, bu, wa, &fo, &copy, &err), PW_OK);
+    assert_null(copy);
+    assert_true(fo.tie_lines == d.rows);
+    pw_lle_dataset_free(&d);
+    /* both kinds in one header, and percent instead of fractions */
+    const char *mixed = "# components: a, b\nT[K],x1_I,w1_II\n300,0.1,0.9\n";
+    assert_int_not_equal(pw_lle_dataset_parse(mixed, strlen(mixed), "m.csv", &d, &err), PW_OK);
+    assert_int_equal(err.line, 2);
+    assert_non_null(strstr(err.msg, "keep one"));
+    const char *pct = "# components: a, b\nT[K],w1_I,w1_II\n300,7.3,79.6\n";
+    assert_int_not_equal(pw_lle_dataset_parse(pct, strlen(pct), "p.csv", &d, &err), PW_OK);
+    assert_int_equal(err.line, 3);
+    assert_non_null(strstr(err.msg, "mass percent"));
 }
 
 static pw_system butanol_water(void)
@@ -299,6 +373,7 @@ int main(void)
     pw_test_init();
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(reader),
+        cmocka_unit_test(mass_fractions),
         cmocka_unit_test(jacobian),
         cmocka_unit_test(round_trip),
         cmocka_unit_test(detection),
