@@ -32,6 +32,7 @@ static const cli_spec lle_spec = {
     .cmd = CMD,
     .synopsis =
         "usage: pinchwise lle FIT.json --temperature T [--scan FROM:TO:N] [options]\n"
+        "       pinchwise lle FIT.json --scan FROM:TO:N [options]   (the layers at FROM first)\n"
         "\n"
         "Liquid-liquid split of the fitted model: the two layers with equal activities of\n"
         "both components (common tangent of Gmix/RT), checked by the tangent-plane test.\n"
@@ -104,11 +105,17 @@ static pw_status parse(int argc, char **argv, args *a, pw_error *err)
     if (T)
         a->T = T->num, a->have_T = true;
     a->fit_path = p.n_pos ? p.pos[0] : NULL;
-    if (!a->fit_path || !a->have_T) {
-        pw_error_set(err, PW_EINVAL, NULL, 0, "a fit file and --temperature are required");
+    if (!a->fit_path || (!a->have_T && !a->scan_text)) {
+        pw_error_set(err, PW_EINVAL, NULL, 0,
+                     "a fit file and --temperature (or --scan FROM:TO:N) are required");
         return PW_EINVAL;
     }
-    return a->scan_text ? parse_scan(a->scan_text, a, err) : 0;
+    if (!a->scan_text)
+        return PW_OK;
+    pw_status st = parse_scan(a->scan_text, a, err);
+    if (st == PW_OK && !a->have_T) /* a scan alone: its first temperature is the one reported */
+        a->T = a->from;
+    return st;
 }
 
 pw_status cli_lle(int argc, char **argv)

@@ -58,6 +58,14 @@ python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); assert d["split"] i
     || fail "lle --scan exited $?"
 python3 -c 'import json,sys; d=json.load(open(sys.argv[1])); assert len(d["scan"]) == 6 and all("split" in p for p in d["scan"]), d' \
     "$TMP/scan.json" || fail "scan JSON"
+# --scan alone: the single-temperature answer is the one at FROM, the rest as with --temperature
+"$PW" lle "$TMP/bw.json" --scan 20C:120C:6 --json > "$TMP/scan2.json" 2> /dev/null \
+    || fail "lle --scan without --temperature exited $?"
+"$PW" lle "$TMP/bw.json" --temperature 20C --scan 20C:120C:6 --json > "$TMP/scan3.json" 2> /dev/null \
+    || fail "lle --temperature 20C --scan exited $?"
+cmp -s "$TMP/scan2.json" "$TMP/scan3.json" || fail "lle --scan alone differs from --temperature FROM"
+"$PW" lle "$TMP/bw.json" > /dev/null 2> "$TMP/err.txt" && fail "lle without a temperature accepted"
+grep -q "\-\-scan" "$TMP/err.txt" || fail "lle without a temperature: $(cat "$TMP/err.txt")"
 "$PW" lle "$TMP/bw.json" --temperature 25C > "$TMP/lle.txt" 2> /dev/null || fail "lle text"
 grep -q "two liquids" "$TMP/lle.txt" || fail "lle text has no layers"
 
