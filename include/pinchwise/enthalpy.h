@@ -51,8 +51,15 @@ pw_status pw_enthalpy_feed(const pw_system *sys, const pw_heat_data *h, double P
                            double q, double *h_F);
 
 /* |dHvap_1 - dHvap_2| / min(dHvap_1, dHvap_2), or NAN when either is unknown: constant molal
- * overflow is doubtful above about 0.10 (common practice). */
+ * overflow is doubtful above about PW_CMO_MISMATCH_MAX (common practice). */
 double pw_latent_heat_mismatch(const pw_system *sys);
+
+#define PW_CMO_MISMATCH_MAX 0.10
+
+/* Whether the heats of vaporization differ by more than PW_CMO_MISMATCH_MAX (false when either
+ * is unknown): the constant-molal-overflow column is then doubtful and the energy balance
+ * advisable. */
+bool pw_cmo_doubtful(const pw_system *sys);
 
 #ifdef __cplusplus
 }

@@ -176,7 +176,8 @@ static void print_table(const pw_fit_result *r, const char *path, const pw_displ
         for (size_t b = a + 1; b < nf; b++)
             printf("  correlation %s/%s: %+.3f%s\n", m->param_names[idx[a]], m->param_names[idx[b]],
                    r->corr[idx[a]][idx[b]],
-                   fabs(r->corr[idx[a]][idx[b]]) > 0.95 ? "  (poorly identifiable)" : "");
+                   fabs(r->corr[idx[a]][idx[b]]) > PW_DIAG_CORRELATION ? "  (poorly identifiable)"
+                                                                       : "");
     printf("  ln gamma_inf at %s: %.4f (1 in 2), %.4f (2 in 1)\n",
            pw_units_display_value(u, PW_SHOW_T, ".2f", r->sys.T_ref_K, tref, sizeof tref),
            r->lngamma_inf[0], r->lngamma_inf[1]);

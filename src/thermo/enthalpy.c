@@ -98,3 +98,8 @@ double pw_latent_heat_mismatch(const pw_system *sys)
         return NAN;
     return fabs(a - b) / fmin(a, b);
 }
+
+bool pw_cmo_doubtful(const pw_system *sys)
+{
+    return pw_latent_heat_mismatch(sys) > PW_CMO_MISMATCH_MAX; /* NAN compares false */
+}

@@ -431,6 +431,14 @@ static void test_pure_vapor_enthalpy(void **state)
                             "Kirchhoff");
     }
     pw_assert_close(pw_latent_heat_mismatch(&sys), 5450.0 / 35210.0, 1e-12, 0, "mismatch");
+    assert_true(pw_cmo_doubtful(&sys)); /* 15.5 % > 10 % (common practice) */
+    {
+        pw_system t = sys; /* equal heats: not doubtful; one unknown: not decided */
+        t.comp[1].prop[PW_PROP_DHVAP] = t.comp[0].prop[PW_PROP_DHVAP];
+        assert_false(pw_cmo_doubtful(&t));
+        t.comp[1].prop[PW_PROP_DHVAP] = NAN;
+        assert_false(pw_cmo_doubtful(&t));
+    }
     sys.comp[1].prop[PW_PROP_CPV] = NAN;
     assert_int_equal(pw_heat_data_from_system(&sys, &g, &err), PW_ENOTFOUND);
     assert_non_null(strstr(err.msg, "heavy (invented)"));
