@@ -237,6 +237,26 @@ static void jacobian(void **state)
     fp.sigma_x_lle = 0.005;
     fp.n_res = 3 * 2 + 2 * 2;
     check_jacobian(&fp, "isobaric, three-phase point and tie lines");
+    /* a one-liquid point inside the layers (x1 = 0.3; layers 0.019 / 0.388 at T3): scored, with
+     * its Jacobian rows, by the three-phase state, as the three-phase point beside it */
+    pw_point pin[3] = {{0.005, 0.10, 368.0, 101325.0, 1}, {0.2, 0.24, 365.8, 101325.0, 2},
+                       {0.3, 0.26, 366.4, 101325.0, 3}};
+    fp.pts = pin;
+    fp.n_ties = 0;
+    fp.n_res = 3 * 2;
+    check_jacobian(&fp, "isobaric, one-liquid point inside the layers");
+    {
+        double f[6], J[12];
+        assert_int_equal(fit_eval(&fp, fp.sys.params, f, J), PW_OK);
+        pw_three_phase t3;
+        assert_int_equal(pw_three_phase_at_P(&fp.sys, 101325.0, &t3), PW_OK);
+        assert_true(t3.exists && t3.x[0] < 0.3 && 0.3 < t3.x[1]);
+        pw_assert_close(f[4], (t3.T_K - 366.4) / 0.1, 0.0, 1e-7, "T residual from T3");
+        pw_assert_close(f[5], (t3.y1 - 0.26) / 0.005, 0.0, 1e-7, "y residual from y3");
+        for (int k = 0; k < 4; k++) /* the same rows as the three-phase point's */
+            pw_assert_close(J[8 + k], J[4 + k], 0.0, 1e-12, "rows of the point inside");
+    }
+    fp.pts = pts;
     /* isothermal three-phase point */
     pw_point q[2] = {{0.2, 0.25, 350.0, 40000.0, 1}, {0.8, 0.3, 350.0, 30000.0, 2}};
     bool tq[2] = {true, false};
