@@ -402,12 +402,12 @@ def screen(fit, pressure, xd, xb, zf=None, components=None):
                  float("nan") if zf is None else _fraction("zf", zf))
 
 
-def lle(fit, temperature, scan=None, components=None):
+def lle(fit, temperature=None, scan=None, components=None):
     """The two liquid layers a fitted model predicts at a temperature; like
     ``pinchwise lle --json``.
 
     fit: a fit-file path or the dict :func:`fit` returned. temperature: with its unit ("25C",
-    "298.15K"). scan: ``"FROM:TO:N"`` (e.g. ``"20C:120C:11"``) or a tuple ``("20C", "120C", 11)``:
+    "298.15K"); None with a scan: the scan's FROM (as the command without --temperature). scan: ``"FROM:TO:N"`` (e.g. ``"20C:120C:11"``) or a tuple ``("20C", "120C", 11)``:
     also the layers at N temperatures from FROM to TO (N from 2 to 1000) and the critical
     solution temperatures between them.
 
@@ -418,8 +418,10 @@ def lle(fit, temperature, scan=None, components=None):
     against measured tie lines before sizing a decanter."""
     fit_path, fit_text, name = _fit_source(fit)
     t_from, t_to, n = _scan(scan)
-    return _call("pw_api_lle", fit_path, fit_text, name, _b(components), _b(temperature),
-                 t_from, t_to, n)
+    if temperature is None and scan is None:
+        raise PinchwiseError("a temperature (or a scan) is required", status="invalid argument")
+    return _call("pw_api_lle", fit_path, fit_text, name, _b(components),
+                 _b(temperature) if temperature is not None else t_from, t_from, t_to, n)
 
 
 def decanter(fit, pressure, zf, x1_rich, x1_lean, q=1.0, components=None, uncertainty=False,

@@ -215,6 +215,12 @@ class NewCommandsEqualToCommandLine(unittest.TestCase):
         self.assertEqual(len(want["scan"]), 6)
         self.assertEqual(pinchwise.lle(out, "25C", scan="20C:120C:6"), want)
         self.assertEqual(pinchwise.lle(f, "25C", scan=("20C", "120C", 6)), want)
+        # a scan alone: the answer at FROM, as the command without --temperature
+        alone = cli("lle", out, "--scan", "20C:120C:6", "--json")
+        self.assertEqual(pinchwise.lle(out, scan="20C:120C:6"), alone)
+        self.assertEqual(pinchwise.lle(out, scan=("20C", "120C", 6)), alone)
+        with self.assertRaises(pinchwise.PinchwiseError):
+            pinchwise.lle(out)
 
     def test_lle_every_dataset(self):
         for (data, model), out in self.fits.items():
