@@ -191,6 +191,11 @@ typedef struct pw_fit_result {
     char version[32];
     char created[40];          /* ISO 8601 UTC */
     size_t n_three_phase;      /* points modelled as three-phase points */
+    bool layers_scored;        /* one-liquid points inside the model's layers are scored (and
+                                * given calculated values) by the three-phase state
+                                * (pw_fit_point.in_layers): every fit since 3 December 2026;
+                                * false for a fit file written before, whose objective scored
+                                * them by one-liquid bubble points ("inside_layers_scored") */
     size_t n_tie_lines;        /* tie lines fitted together with the VLE points */
     double sigma_x_lle;
     double aad_x_lle;          /* mean |x_calc - x| over both layers of every tie line; NAN */

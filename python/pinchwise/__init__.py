@@ -331,7 +331,8 @@ def fit(path, model, components=None, out=None, force=False, lle=None):
     components: an extra component file whose rows take precedence over the shipped library.
     out: where to write the fit file (atomically; an existing file is replaced only with
     force=True). Without out nothing is written and the result's ``"fit_file"`` is None.
-    lle: a tie-line file (``T[UNIT]``, ``x1_I``, ``x1_II``) fitted together with the VLE data,
+    lle: a tie-line file (``T[UNIT]``, ``x1_I``, ``x1_II``, or ``w1_I``, ``w1_II`` as mass
+    fractions) fitted together with the VLE data,
     as ``pinchwise fit --lle``; the model must be one that can split.
 
     Returns a :class:`Fit` (a dict with the command's keys: model, converged, components,
@@ -438,8 +439,9 @@ def decanter(fit, pressure, zf, x1_rich, x1_lean, q=1.0, components=None, uncert
     decanter). An impossible specification returns ``"feasible": False`` with a ``"reason"``.
     uncertainty, samples, seed: as ``--uncertainty --samples N --seed N`` (giving samples or
     seed switches it on): when the scheme is feasible, each column adds boilup_min_ci95 and the
-    dict adds "uncertainty" (T_K, vapor_x1, x1_layers, boilup_min, feasible_probability, draws,
-    seed) from the fit's parameter covariance.
+    dict adds "uncertainty" (T_K, vapor_x1, x1_layers, boilup_min, decanter_x1_layers (a cooled
+    decanter's own layers; else x1_layers again), feasible_probability, draws, seed) from the
+    fit's parameter covariance.
 
     Returns a dict with feasible, reason, decanter (T_K, x1_layers, vapor_x1, cooled),
     three_phase (T_K, x1_layers, vapor_x1), columns (bottoms rich in 1 first: bottoms_x1, top_x1,

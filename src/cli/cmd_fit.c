@@ -120,8 +120,9 @@ static const cli_option fit_options[] = {
     {.name = "--exclude-reason", .kind = CLI_STRING, .metavar = "TEXT",
      .help = "why they are left out (recorded in the fit file)"},
     {.name = "--lle", .kind = CLI_STRING, .metavar = "LLE.csv",
-     .help = "measured tie lines (T[UNIT], x1_I, x1_II) fitted together with\n"
-             "the VLE data (not with wilson, which cannot split)"},
+     .help = "measured tie lines (T[UNIT], x1_I, x1_II; or w1_I, w1_II as mass\n"
+             "fractions) fitted together with the VLE data (not with wilson,\n"
+             "which cannot split)"},
     CLI_END,
 };
 

@@ -92,7 +92,8 @@ static pw_status evaluate(pw_fit_result *r, bool screen)
         pw_status pst;
         /* a one-liquid point inside the model's layers boils, by the model, as two liquids:
          * it is scored by the three-phase state as the fit scored it (objective.c) */
-        fpnt->in_layers = !fpnt->three_phase && !fpnt->excluded && !fit_is_pure(m) && tp.exists &&
+        fpnt->in_layers = r->layers_scored && !fpnt->three_phase && !fpnt->excluded &&
+                          !fit_is_pure(m) && tp.exists &&
                           m->x1 > fmin(tp.x[0], tp.x[1]) && m->x1 < fmax(tp.x[0], tp.x[1]);
         if ((fpnt->three_phase || fpnt->in_layers) && !fpnt->excluded && tp.exists) {
             memset(&eq, 0, sizeof eq);

@@ -411,6 +411,7 @@ static pw_status init_result(const pw_dataset *ds, const pw_component *c1, const
                              pw_error *err)
 {
     memset(r, 0, sizeof *r);
+    r->layers_scored = true; /* the objective of objective.c */
     r->sys.comp[0] = *c1;
     r->sys.comp[1] = *c2;
     r->sys.model = model;

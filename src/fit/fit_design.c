@@ -1,22 +1,56 @@
 /* Information of measurements at the fitted parameters (for measurement planning): the weighted
  * Jacobian of the fit's own objective (objective.c) at given points, with unit scaling so that it
- * is expressed in the parameters' units. */
+ * is expressed in the parameters' units. Where the fit scores one-liquid points inside the
+ * model's layers by the three-phase state (data with three-phase points), a planned point there
+ * is valued and weighted the same way. */
 #include "fit/fit_design.h"
 
 #include "fit/fit_internal.h"
 
 #include <math.h>
+#include <pinchwise/lle.h>
 #include <stdlib.h>
 #include <string.h>
+
+/* Whether the fit's objective scores one-liquid points inside the model's layers by the
+ * three-phase state (objective.c: data with three-phase points, a model that can split). */
+static bool scores_layers(const pw_fit_result *r)
+{
+    if (!r->layers_scored || !pw_model_can_split(r->sys.model))
+        return false;
+    for (size_t i = 0; i < r->n_pts; i++)
+        if (r->pts[i].three_phase && !r->pts[i].excluded)
+            return true;
+    return false;
+}
+
+/* The mean measured T of the used three-phase points (the fit's start of the three-phase
+ * search, fit.c fit_build_problem). */
+static double three_phase_T_guess(const pw_fit_result *r)
+{
+    double T = 0.0;
+    size_t n = 0;
+    for (size_t i = 0; i < r->n_pts; i++)
+        if (r->pts[i].three_phase && !r->pts[i].excluded) {
+            T += r->pts[i].meas.T_K;
+            n++;
+        }
+    return n ? T / (double)n : (double)NAN;
+}
 
 pw_status fit_hypothetical_point(const pw_fit_result *r, double x1, pw_point *pt)
 {
     if (!r || !r->sys.model || !pt || !(x1 > 0.0 && x1 < 1.0))
         return PW_EINVAL;
     pw_eq_point eq;
-    bool isobaric = r->kind == PW_DATA_ISOBARIC;
-    pw_status st = isobaric ? pw_bubble_T(&r->sys, r->P_fixed_Pa, x1, &eq)
-                            : pw_bubble_P(&r->sys, r->T_fixed_K, x1, &eq);
+    bool isobaric = r->kind == PW_DATA_ISOBARIC, three = false;
+    pw_status st;
+    if (scores_layers(r)) /* the stable prediction, as the fit scores a point there */
+        st = isobaric ? pw_bubble_T_het(&r->sys, r->P_fixed_Pa, x1, &eq, &three)
+                      : pw_bubble_P_het(&r->sys, r->T_fixed_K, x1, &eq, &three);
+    else
+        st = isobaric ? pw_bubble_T(&r->sys, r->P_fixed_Pa, x1, &eq)
+                      : pw_bubble_P(&r->sys, r->T_fixed_K, x1, &eq);
     if (st != PW_OK)
         return st;
     pt->x1 = x1;
@@ -54,10 +88,19 @@ pw_status fit_information(const pw_fit_result *r, const pw_point *pts, size_t n,
     fp.n_res = n * fit_residuals_per_point(fp.objective);
     if (fp.n_fit == 0 || n == 0)
         return PW_OK;
-    double *f = malloc(sizeof(double) * fp.n_res * (1 + fp.n_fit));
+    /* one block: residuals, Jacobian, and the (all false) three-phase flags of the planned
+     * points when the objective scores points inside the layers */
+    bool layers = scores_layers(r);
+    double *f = malloc(sizeof(double) * fp.n_res * (1 + fp.n_fit) + (layers ? sizeof(bool) * n : 0));
     if (!f)
         return PW_ENOMEM;
     double *J = f + fp.n_res;
+    if (layers) {
+        bool *flags = (bool *)(J + fp.n_res * fp.n_fit);
+        memset(flags, 0, sizeof(bool) * n);
+        fp.three_phase = flags; /* fit_eval computes the three-phase state */
+        fp.T3_guess_K = three_phase_T_guess(r);
+    }
     pw_status st = fit_eval(&fp, r->sys.params, f, J);
     if (st == PW_OK)
         for (size_t a = 0; a < fp.n_fit; a++)

@@ -455,10 +455,16 @@ static void liquid_in_gap(const pw_fit_result *r, pw_fit_diags *d)
         snprintf(lines, sizeof lines, "lines %ld and %ld", first, last);
     else
         snprintf(lines, sizeof lines, "first line %ld, last line %ld", first, last);
+    char mixed[96];
+    snprintf(mixed, sizeof mixed,
+             "the fit scores %zu of them by the three-phase state, the rest by one-liquid bubble "
+             "points",
+             n_scored3);
     const char *scored =
-        n_scored3 == count
-            ? "the fit scores them by the model's three-phase state"
-            : "the calculated values there are one-liquid bubble points the model cannot produce";
+        n_scored3 == count ? "the fit scores them by the model's three-phase state"
+        : n_scored3 == 0   ? "the calculated values there are one-liquid bubble points the model "
+                             "cannot produce"
+                           : mixed;
     say(g,
         "%zu measured one-liquid point%s (%s) lie%s inside the %s model's two liquid layers "
         "(x1 = %.4f and %.4f at " PW_TEXT_T(".2f") "): the model's layer contradicts the data, "

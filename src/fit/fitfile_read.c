@@ -491,6 +491,9 @@ static void read_body(reader *rd, const json_t *root, pw_fit_result *r)
             r->minimum_split_skipped = (size_t)json_integer_value(s);
     }
     read_lle(rd, json_object_get(root, "lle"), r);
+    /* absent in fit files written before the objective scored one-liquid points inside the
+     * model's layers by the three-phase state: their values stay the one-liquid ones */
+    r->layers_scored = json_is_true(json_object_get(root, "inside_layers_scored"));
     const json_t *range = json_object_get(root, "data_range");
     r->T_min_K = json_is_object(range) ? get_num(rd, range, "T_min_K", true) : (double)NAN;
     r->T_max_K = json_is_object(range) ? get_num(rd, range, "T_max_K", true) : (double)NAN;

@@ -260,6 +260,7 @@ static json_t *fitfile_json(const pw_fit_result *r, bool with_points)
     json_object_set_new(split, "T_K_at_min", num(r->split_T_K));
     json_object_set_new(o, "liquid_split", split);
     json_object_set_new(o, "three_phase_points", json_integer((json_int_t)r->n_three_phase));
+    json_object_set_new(o, "inside_layers_scored", json_boolean(r->layers_scored));
     if (r->n_tie_lines) {
         json_t *lle = json_pack("{s:I,s:o,s:o}", "tie_lines", (json_int_t)r->n_tie_lines,
                                 "sigma_x", num(r->sigma_x_lle), "aad_x", num(r->aad_x_lle));

@@ -482,15 +482,19 @@ pw_status pw_report_render_csv(struct pw_report *rep, const pw_report_curves *c)
     f = new_file(rep->csv, &rep->n_csv, "points.csv", "Measured points with the model's values");
     if (!f)
         return PW_ENOMEM;
-    static const char *const hp[] = {"line", "x1", "y1", "T_K", "P_kPa", "y1_calc", "T_calc_K",
-                                     "P_calc_kPa", "ln_gamma1_exp", "ln_gamma2_exp", "excluded"};
-    csv_header(&f->text, hp, 11);
+    /* three_phase, inside_layers: the points whose model values are the three-phase state */
+    static const char *const hp[] = {"line",          "x1",          "y1",           "T_K",
+                                     "P_kPa",         "y1_calc",     "T_calc_K",     "P_calc_kPa",
+                                     "ln_gamma1_exp", "ln_gamma2_exp", "excluded",   "three_phase",
+                                     "inside_layers"};
+    csv_header(&f->text, hp, 13);
     for (size_t i = 0; i < r->n_pts; i++) {
         const pw_fit_point *q = &r->pts[i];
-        double v[11] = {(double)q->meas.line, q->meas.x1, q->meas.y1, q->meas.T_K,
+        double v[13] = {(double)q->meas.line, q->meas.x1, q->meas.y1, q->meas.T_K,
                         q->meas.P_Pa / 1000.0, q->y_calc, q->T_calc_K, q->P_calc_Pa / 1000.0,
-                        q->lngamma_exp[0], q->lngamma_exp[1], q->excluded ? 1.0 : 0.0};
-        csv_row(&f->text, v, 11);
+                        q->lngamma_exp[0], q->lngamma_exp[1], q->excluded ? 1.0 : 0.0,
+                        q->three_phase ? 1.0 : 0.0, q->in_layers ? 1.0 : 0.0};
+        csv_row(&f->text, v, 13);
     }
     if (c->column) {
         f = new_file(rep->csv, &rep->n_csv, "column_curve.csv",

@@ -405,7 +405,21 @@ PY
     || fail "check text names no three-phase points"
 # report: the azeotrope marked is the heterogeneous one (the flat three-phase line crosses y = x
 # there), not the crossing of the unstable one-liquid curve inside the gap
-"$PW" report "$TMP/bw.json" --out "$TMP/r.html" --json > "$TMP/rep.json" 2> /dev/null || fail "report exited $?"
+"$PW" report "$TMP/bw.json" --out "$TMP/r.html" --json --csv "$TMP/rcsv" > "$TMP/rep.json" 2> /dev/null \
+    || fail "report exited $?"
+# points.csv marks the points whose model values are the three-phase state: lines 15-21 measured
+# as three-phase points, lines 22 and 23 one-liquid points inside the NRTL fit's layers; their
+# T_calc is the fit file's
+python3 - "$TMP/rcsv/points.csv" "$TMP/bw.json" <<'PY' || fail "points.csv three-phase columns"
+import csv, json, sys
+rows = {int(float(r["line"])): r for r in csv.DictReader(open(sys.argv[1]))}
+pts = {p["line"]: p for p in json.load(open(sys.argv[2]))["data"]["points"]}
+assert [l for l, r in rows.items() if float(r["three_phase"]) == 1] == list(range(15, 22)), rows
+assert [l for l, r in rows.items() if float(r["inside_layers"]) == 1] == [22, 23], rows
+for l in (22, 23):
+    assert pts[l].get("inside_layers") is True, pts[l]
+    assert abs(float(rows[l]["T_calc_K"]) - pts[l]["T_calc_K"]) < 1e-9 * pts[l]["T_calc_K"], (rows[l], pts[l])
+PY
 python3 - "$TMP/r.html" "$TMP/az.json" <<'PY' || fail "report azeotrope"
 import json, re, sys
 html = open(sys.argv[1]).read()

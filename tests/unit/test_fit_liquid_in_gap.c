@@ -10,7 +10,10 @@
  *    inside the model's layers is scored by the three-phase state, the model's stable
  *    prediction. The fit's chi2 is recomputed here point by point from pw_bubble_T_het (which
  *    decides by itself whether the liquid splits) and the three-phase state, and must equal the
- *    fit's; the metastable one-liquid scoring must not (so the check can tell them apart).
+ *    fit's; the metastable one-liquid scoring must not (so the check can tell them apart). A fit
+ *    file without "inside_layers_scored" (written before) is read as it was fitted.
+ *  - Measurement planning (fit_design.c) values and weights a planned point inside the layers
+ *    as the objective does: two such points carry the same information.
  *  - Counter-cases: Wilson's equation cannot split (Wilson 1964), so the same data give no
  *    record; methanol/water at 1 atm (miscible) fitted by NRTL gives none.
  *  - Seeded random cases: random points (random x1, three-phase and excluded flags, two
@@ -18,6 +21,8 @@
  *    direct computation here (layers by pw_lle_solve at the three-phase temperature, the interval
  *    test written out) and, for one point per case, with pw_bubble_T_het / pw_bubble_P_het. */
 #include "pw_test.h"
+
+#include "fit/fit_design.h"
 
 #include <math.h>
 #include <pinchwise/fit.h>
@@ -145,6 +150,42 @@ static void butanol_water_nrtl_flags_lines_22_23(void **state)
     assert_int_equal(g2->line, 22);
     assert_int_equal(g2->line2, 23);
     pw_assert_close(g2->value2, g->value2, 0, 1e-7, "layer after reading");
+    assert_true(back.layers_scored);
+    assert_non_null(strstr(g2->message, "three-phase state"));
+
+    /* a fit file written before the objective scored those points by the three-phase state
+     * (no "inside_layers_scored" key): read as it was fitted, one-liquid values, and the record
+     * says so */
+    {
+        assert_int_equal(pw_fitfile_write(tmpl, &r, false, &err), PW_OK); /* removed above */
+        FILE *fi = fopen(tmpl, "r");
+        assert_non_null(fi);
+        char *buf = calloc(1u << 22, 1);
+        assert_non_null(buf);
+        size_t len = fread(buf, 1, (1u << 22) - 1, fi);
+        fclose(fi);
+        char *k = strstr(buf, "\"inside_layers_scored\": true,");
+        assert_non_null(k);
+        size_t cut = strlen("\"inside_layers_scored\": true,");
+        memmove(k, k + cut, len - (size_t)(k - buf) - cut + 1);
+        fi = fopen(tmpl, "w");
+        assert_non_null(fi);
+        fputs(buf, fi);
+        fclose(fi);
+        free(buf);
+        pw_fit_result old;
+        assert_int_equal(pw_fitfile_read(tmpl, &old, &err), PW_OK);
+        unlink(tmpl);
+        assert_false(old.layers_scored);
+        for (size_t i = 0; i < old.n_pts; i++)
+            assert_false(old.pts[i].in_layers);
+        assert_int_equal(pw_fit_diagnose(&old, &d2), PW_OK);
+        const pw_fit_diag *g3 = find_gap(&d2);
+        assert_non_null(g3);
+        assert_int_equal(g3->count, 2);
+        assert_non_null(strstr(g3->message, "cannot produce"));
+        pw_fit_result_free(&old);
+    }
 
     /* the same points excluded: nothing left to report */
     pw_fit_result u = r;
@@ -205,6 +246,35 @@ static void objective_scores_the_stable_prediction(void **state)
     assert_int_equal(r.n_residuals, 2 * n_used);
     pw_assert_close(r.chi2, S, 1e-6, 0, "chi2 from the stable predictions");
     assert_true(fabs(S_meta - S) > 1e-3 * S); /* the metastable scoring is another number */
+    pw_fit_result_free(&r);
+}
+
+/* Measurement planning on the same fit: a planned point inside the model's layers is the
+ * three-phase state (its value and its Jacobian rows do not depend on where in the layers it
+ * lies), so two such points carry the same information; one outside carries other information. */
+static void planned_points_inside_the_layers(void **state)
+{
+    (void)state;
+    pw_fit_result r;
+    fit_file("datasets/butanol_water_1atm.csv", "1-butanol", "water", &pw_model_nrtl, &r);
+    pw_three_phase tp;
+    assert_int_equal(pw_three_phase_at_P(&r.sys, r.P_fixed_Pa, &tp), PW_OK);
+    assert_true(tp.exists && tp.x[0] < 0.2 && 0.45 < tp.x[1]);
+    pw_point a, b, c;
+    assert_int_equal(fit_hypothetical_point(&r, 0.2, &a), PW_OK);
+    assert_int_equal(fit_hypothetical_point(&r, 0.45, &b), PW_OK);
+    assert_int_equal(fit_hypothetical_point(&r, 0.8, &c), PW_OK);
+    pw_assert_close(a.T_K, tp.T_K, 0.0, 1e-6, "planned point inside: T3");
+    pw_assert_close(a.y1, tp.y1, 0.0, 1e-8, "planned point inside: y3");
+    double ia[PW_MAX_PARAMS][PW_MAX_PARAMS], ib[PW_MAX_PARAMS][PW_MAX_PARAMS],
+        ic[PW_MAX_PARAMS][PW_MAX_PARAMS];
+    assert_int_equal(fit_information(&r, &a, 1, ia), PW_OK);
+    assert_int_equal(fit_information(&r, &b, 1, ib), PW_OK);
+    assert_int_equal(fit_information(&r, &c, 1, ic), PW_OK);
+    for (int i = 0; i < 2; i++)
+        for (int j = 0; j < 2; j++)
+            pw_assert_close(ia[i][j], ib[i][j], 1e-8, 0.0, "same information inside the layers");
+    assert_true(fabs(ic[0][0] - ia[0][0]) > 1e-3 * fabs(ia[0][0]));
     pw_fit_result_free(&r);
 }
 
@@ -339,6 +409,7 @@ int main(void)
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(butanol_water_nrtl_flags_lines_22_23),
         cmocka_unit_test(objective_scores_the_stable_prediction),
+        cmocka_unit_test(planned_points_inside_the_layers),
         cmocka_unit_test(wilson_and_miscible_data_give_none),
         cmocka_unit_test(random_points_against_direct_computation),
     };

@@ -269,6 +269,24 @@ static void jacobian(void **state)
     fp.n_ties = 0;
     fp.n_res = 4;
     check_jacobian(&fp, "isothermal three-phase point");
+    /* isothermal, a one-liquid point inside the layers (x1 = 0.3 at 350 K): P3 and y3 */
+    pw_point qin[3] = {{0.2, 0.25, 350.0, 40000.0, 1}, {0.8, 0.3, 350.0, 30000.0, 2},
+                       {0.3, 0.26, 350.0, 41000.0, 3}};
+    bool tqin[3] = {true, false, false};
+    fp.pts = qin;
+    fp.n_pts = 3;
+    fp.three_phase = tqin;
+    fp.n_res = 6;
+    check_jacobian(&fp, "isothermal, one-liquid point inside the layers");
+    {
+        double f[6], J[12];
+        assert_int_equal(fit_eval(&fp, fp.sys.params, f, J), PW_OK);
+        pw_three_phase t3;
+        assert_int_equal(pw_three_phase_at_T(&fp.sys, 350.0, &t3), PW_OK);
+        assert_true(t3.exists && t3.x[0] < 0.3 && 0.3 < t3.x[1] && t3.x[1] < 0.8);
+        pw_assert_close(f[4], (t3.P_Pa - 41000.0) / (1e-3 * 41000.0), 0.0, 1e-7, "P residual from P3");
+        pw_assert_close(f[5], (t3.y1 - 0.26) / 0.005, 0.0, 1e-7, "y residual from y3");
+    }
 }
 
 static void round_trip(void **state)
