@@ -110,7 +110,8 @@ typedef struct pw_fit_point {
     bool in_layers;                       /* a one-liquid point (not three_phase) whose x1 the
                                            * model puts strictly between its layers at the
                                            * data's three-phase condition (only for data with
-                                           * three-phase points): modelled, and its calculated
+                                           * three-phase points or fitted tie lines): modelled,
+                                           * and its calculated
                                            * values given, as the three-phase state too */
 } pw_fit_point;
 

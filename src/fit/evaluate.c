@@ -82,8 +82,12 @@ static pw_status evaluate(pw_fit_result *r, bool screen)
             T3 += r->pts[i].meas.T_K;
             n3++;
         }
-    if (n3 && (isobaric ? pw_three_phase_at_P_near(&r->sys, r->P_fixed_Pa, T3 / (double)n3, &tp)
-                        : pw_three_phase_at_T(&r->sys, r->T_fixed_K, &tp)) != PW_OK)
+    /* the data say the liquids split (three-phase points or fitted tie lines): objective.c */
+    bool split_data = n3 || (r->n_tie_lines && pw_model_can_split(r->sys.model));
+    if (split_data &&
+        (isobaric ? (n3 ? pw_three_phase_at_P_near(&r->sys, r->P_fixed_Pa, T3 / (double)n3, &tp)
+                        : pw_three_phase_at_P(&r->sys, r->P_fixed_Pa, &tp))
+                  : pw_three_phase_at_T(&r->sys, r->T_fixed_K, &tp)) != PW_OK)
         tp.exists = false;
     for (size_t i = 0; i < r->n_pts; i++) {
         pw_fit_point *fpnt = &r->pts[i];

@@ -391,7 +391,10 @@ pw_status fit_build_problem(const pw_fit_result *r, fit_problem *fp, pw_point **
         }
     fp->pts = *used;
     fp->n_pts = n;
-    fp->three_phase = n_tp ? tp : NULL;
+    /* data that say the liquids split (three-phase points or tie lines): the three-phase state is
+     * computed in every evaluation and scores the points inside the model's layers too */
+    bool split_data = n_tp || (r->n_tie_lines && pw_model_can_split(r->sys.model));
+    fp->three_phase = split_data ? tp : NULL;
     fp->T3_guess_K = n_tp ? T3 / (double)n_tp : (double)NAN;
     fp->n_res = n * fit_residuals_per_point(fp->objective);
     return PW_OK;

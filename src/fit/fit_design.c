@@ -1,8 +1,8 @@
 /* Information of measurements at the fitted parameters (for measurement planning): the weighted
  * Jacobian of the fit's own objective (objective.c) at given points, with unit scaling so that it
  * is expressed in the parameters' units. Where the fit scores one-liquid points inside the
- * model's layers by the three-phase state (data with three-phase points), a planned point there
- * is valued and weighted the same way. */
+ * model's layers by the three-phase state (data with three-phase points or tie lines), a planned
+ * point there is valued and weighted the same way. */
 #include "fit/fit_design.h"
 
 #include "fit/fit_internal.h"
@@ -13,11 +13,14 @@
 #include <string.h>
 
 /* Whether the fit's objective scores one-liquid points inside the model's layers by the
- * three-phase state (objective.c: data with three-phase points, a model that can split). */
+ * three-phase state (objective.c: data with three-phase points or tie lines, a model that can
+ * split). */
 static bool scores_layers(const pw_fit_result *r)
 {
     if (!r->layers_scored || !pw_model_can_split(r->sys.model))
         return false;
+    if (r->n_tie_lines)
+        return true;
     for (size_t i = 0; i < r->n_pts; i++)
         if (r->pts[i].three_phase && !r->pts[i].excluded)
             return true;

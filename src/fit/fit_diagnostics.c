@@ -400,8 +400,8 @@ static gap_condition gap_at(const pw_fit_result *r, bool isobaric, double at)
  * one-liquid bubble point the fit compares with the point is a metastable non-solution
  * (docs/heterogeneous.md sections 3 and 4). The layers at the three-phase condition are used,
  * not those at the measured T: an isobaric point's condition is its P, and the measured T is an
- * outcome the model disagrees with. One solve per distinct condition. With three-phase points in
- * the data the fit scores such points by the three-phase state, the model's stable prediction
+ * outcome the model disagrees with. One solve per distinct condition. With three-phase points or
+ * tie lines in the data the fit scores such points by the three-phase state, the model's stable prediction
  * (pw_fit_point.in_layers); without, by the one-liquid bubble point. The record says which. */
 static void liquid_in_gap(const pw_fit_result *r, pw_fit_diags *d)
 {

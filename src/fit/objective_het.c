@@ -149,8 +149,10 @@ static pw_status het_isobaric(const fit_problem *fp, const pw_system *s, bool wa
 {
     pw_three_phase tp;
     bool warm = fp->T3_warm_K && isfinite(*fp->T3_warm_K);
-    pw_status st = pw_three_phase_at_P_near(s, fp->P_fixed_Pa, warm ? *fp->T3_warm_K : fp->T3_guess_K,
-                                            &tp);
+    double guess = warm ? *fp->T3_warm_K : fp->T3_guess_K;
+    /* no measured three-phase temperature to start from (tie lines only): the full search */
+    pw_status st = isfinite(guess) ? pw_three_phase_at_P_near(s, fp->P_fixed_Pa, guess, &tp)
+                                   : pw_three_phase_at_P(s, fp->P_fixed_Pa, &tp);
     if (st != PW_OK || !tp.exists)
         return st;
     if (fp->T3_warm_K)
@@ -210,6 +212,16 @@ pw_status fit_het_state_eval(const fit_problem *fp, const pw_system *s, bool wan
     pw_status st = isobaric ? het_isobaric(fp, s, want_J, h) : het_isothermal(fp, s, want_J, h);
     if (st == PW_ERANGE) { /* practically immiscible trial: treat the points as one-liquid */
         h->exists = false;
+        return PW_OK;
+    }
+    /* Without measured three-phase points (tie lines only) the state serves only the points
+     * inside the layers: a trial set whose state cannot be computed keeps them one-liquid, as
+     * the fit did before it scored them (a failure is not new to such a fit). */
+    bool measured = false;
+    for (size_t i = 0; i < fp->n_pts && !measured; i++)
+        measured = fp->three_phase[i];
+    if (st != PW_OK && st != PW_ENOMEM && !measured) {
+        memset(h, 0, sizeof *h);
         return PW_OK;
     }
     return st;

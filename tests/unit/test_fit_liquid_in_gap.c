@@ -14,6 +14,8 @@
  *    file without "inside_layers_scored" (written before) is read as it was fitted.
  *  - Measurement planning (fit_design.c) values and weights a planned point inside the layers
  *    as the objective does: two such points carry the same information.
+ *  - Tie lines alone (the set's three-phase lines excluded, the 25 C tie line fitted) also make
+ *    the fit score points inside the layers by the three-phase state (chi2 recomputed).
  *  - Counter-cases: Wilson's equation cannot split (Wilson 1964), so the same data give no
  *    record; methanol/water at 1 atm (miscible) fitted by NRTL gives none.
  *  - Seeded random cases: random points (random x1, three-phase and excluded flags, two
@@ -28,6 +30,7 @@
 #include <pinchwise/fit.h>
 #include <pinchwise/fit_diagnostics.h>
 #include <pinchwise/lle.h>
+#include <pinchwise/lledata.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -278,6 +281,61 @@ static void planned_points_inside_the_layers(void **state)
     pw_fit_result_free(&r);
 }
 
+/* Tie lines say the liquids split too: the shipped 1 atm set without its seven three-phase
+ * points (lines 15-21 excluded) fitted with the 25 C tie line. The one-liquid points inside the
+ * model's layers are scored by the three-phase state (found by the full search, no measured T3
+ * to start from): chi2 recomputed from pw_bubble_T_het and the tie lines' stored layers. */
+static void tie_lines_alone_say_the_liquids_split(void **state)
+{
+    (void)state;
+    char path[1024];
+    pw_dataset ds;
+    pw_lle_dataset ties;
+    pw_error err;
+    pw_test_path(path, sizeof path, "datasets/butanol_water_1atm.csv");
+    assert_int_equal(pw_dataset_read(path, &ds, &err), PW_OK);
+    pw_test_path(path, sizeof path, "datasets/lle/butanol_water_25C_ties.csv");
+    assert_int_equal(pw_lle_dataset_read(path, &ties, &err), PW_OK);
+    const pw_component *a = pw_complib_find(&lib, "1-butanol"), *b = pw_complib_find(&lib, "water");
+    pw_fit_options o = pw_fit_default_options();
+    for (long l = 15; l <= 21; l++)
+        o.exclude_lines[o.n_exclude++] = l;
+    pw_tie_line *copy = NULL;
+    assert_int_equal(pw_fit_attach_tie_lines_ex(&ties, &ds, a, b, &o, &copy, &err), PW_OK);
+    pw_fit_result r;
+    assert_int_equal(pw_fit_run(&ds, a, b, &pw_model_nrtl, &o, &r, &err), PW_OK);
+    free(copy);
+    assert_int_equal(r.n_three_phase, 0);
+    assert_int_equal(r.n_tie_lines, 1);
+    pw_three_phase tp;
+    assert_int_equal(pw_three_phase_at_P(&r.sys, r.P_fixed_Pa, &tp), PW_OK);
+    assert_true(tp.exists);
+    double S = 0.0;
+    size_t n_in = 0, n_used = 0;
+    for (size_t i = 0; i < r.n_pts; i++) {
+        const pw_fit_point *p = &r.pts[i];
+        const pw_point *m = &p->meas;
+        if (p->excluded || m->x1 <= 0.0 || m->x1 >= 1.0)
+            continue;
+        n_used++;
+        pw_eq_point eq;
+        bool three = false;
+        assert_int_equal(pw_bubble_T_het(&r.sys, r.P_fixed_Pa, m->x1, &eq, &three), PW_OK);
+        assert_true(three == p->in_layers);
+        n_in += three;
+        S += sq((eq.T_K - m->T_K) / r.sigma_T_K) + sq((eq.y1 - m->y1) / r.sigma_y);
+    }
+    assert_true(n_in >= 2); /* lines 22 and 23 at least */
+    assert_non_null(r.ties);
+    S += sq((r.ties[0].calc_I - r.ties[0].x_I) / r.sigma_x_lle) +
+         sq((r.ties[0].calc_II - r.ties[0].x_II) / r.sigma_x_lle);
+    assert_int_equal(r.n_residuals, 2 * n_used + 2);
+    pw_assert_close(r.chi2, S, 1e-6, 0, "chi2 with tie lines and points inside the layers");
+    pw_fit_result_free(&r);
+    pw_lle_dataset_free(&ties);
+    pw_dataset_free(&ds);
+}
+
 static void wilson_and_miscible_data_give_none(void **state)
 {
     (void)state;
@@ -410,6 +468,7 @@ int main(void)
         cmocka_unit_test(butanol_water_nrtl_flags_lines_22_23),
         cmocka_unit_test(objective_scores_the_stable_prediction),
         cmocka_unit_test(planned_points_inside_the_layers),
+        cmocka_unit_test(tie_lines_alone_say_the_liquids_split),
         cmocka_unit_test(wilson_and_miscible_data_give_none),
         cmocka_unit_test(random_points_against_direct_computation),
     };
