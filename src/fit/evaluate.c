@@ -73,20 +73,14 @@ static pw_status evaluate(pw_fit_result *r, bool screen)
     stat_init(&dP);
     size_t n_used = 0;
     pw_status first_failure = PW_OK;
-    /* three-phase points (docs/heterogeneous.md): one three-phase state for all of them */
+    /* three-phase points and points inside the layers (docs/heterogeneous.md): one three-phase
+     * state for all of them, as the objective has it (fit_het_plan_of) */
     pw_three_phase tp = {.exists = false};
-    double T3 = 0.0;
-    size_t n3 = 0;
-    for (size_t i = 0; i < r->n_pts; i++)
-        if (r->pts[i].three_phase && !r->pts[i].excluded) { /* left out by a model that cannot split */
-            T3 += r->pts[i].meas.T_K;
-            n3++;
-        }
-    /* the data say the liquids split (three-phase points or fitted tie lines): objective.c */
-    bool split_data = n3 || (r->n_tie_lines && pw_model_can_split(r->sys.model));
-    if (split_data &&
-        (isobaric ? (n3 ? pw_three_phase_at_P_near(&r->sys, r->P_fixed_Pa, T3 / (double)n3, &tp)
-                        : pw_three_phase_at_P(&r->sys, r->P_fixed_Pa, &tp))
+    fit_het_plan plan = fit_het_plan_of(r);
+    double g = plan.T3_guess_K;
+    if (plan.state &&
+        (isobaric ? (isfinite(g) ? pw_three_phase_at_P_near(&r->sys, r->P_fixed_Pa, g, &tp)
+                                 : pw_three_phase_at_P(&r->sys, r->P_fixed_Pa, &tp))
                   : pw_three_phase_at_T(&r->sys, r->T_fixed_K, &tp)) != PW_OK)
         tp.exists = false;
     for (size_t i = 0; i < r->n_pts; i++) {
@@ -96,7 +90,7 @@ static pw_status evaluate(pw_fit_result *r, bool screen)
         pw_status pst;
         /* a one-liquid point inside the model's layers boils, by the model, as two liquids:
          * it is scored by the three-phase state as the fit scored it (objective.c) */
-        fpnt->in_layers = r->layers_scored && !fpnt->three_phase && !fpnt->excluded &&
+        fpnt->in_layers = plan.inside && !fpnt->three_phase && !fpnt->excluded &&
                           !fit_is_pure(m) && tp.exists &&
                           m->x1 > fmin(tp.x[0], tp.x[1]) && m->x1 < fmax(tp.x[0], tp.x[1]);
         if ((fpnt->three_phase || fpnt->in_layers) && !fpnt->excluded && tp.exists) {

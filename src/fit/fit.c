@@ -378,24 +378,19 @@ pw_status fit_build_problem(const pw_fit_result *r, fit_problem *fp, pw_point **
     if (!*used)
         return PW_ENOMEM;
     bool *tp = (bool *)(*used + cap);
-    size_t n = 0, n_tp = 0;
-    double T3 = 0.0;
+    size_t n = 0;
     for (size_t i = 0; i < r->n_pts; i++)
         if (!r->pts[i].excluded && !fit_is_pure(&r->pts[i].meas)) {
             tp[n] = r->pts[i].three_phase;
-            if (tp[n]) {
-                T3 += r->pts[i].meas.T_K;
-                n_tp++;
-            }
             (*used)[n++] = r->pts[i].meas;
         }
     fp->pts = *used;
     fp->n_pts = n;
-    /* data that say the liquids split (three-phase points or tie lines): the three-phase state is
-     * computed in every evaluation and scores the points inside the model's layers too */
-    bool split_data = n_tp || (r->n_tie_lines && pw_model_can_split(r->sys.model));
-    fp->three_phase = split_data ? tp : NULL;
-    fp->T3_guess_K = n_tp ? T3 / (double)n_tp : (double)NAN;
+    /* the three-phase state, computed in every evaluation where it enters (fit_het_plan_of) */
+    fit_het_plan plan = fit_het_plan_of(r);
+    fp->three_phase = plan.state ? tp : NULL;
+    fp->T3_guess_K = plan.T3_guess_K;
+    fp->one_liquid_inside = !plan.inside;
     fp->n_res = n * fit_residuals_per_point(fp->objective);
     return PW_OK;
 }

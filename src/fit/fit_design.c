@@ -12,35 +12,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-/* Whether the fit's objective scores one-liquid points inside the model's layers by the
- * three-phase state (objective.c: data with three-phase points or tie lines, a model that can
- * split). */
-static bool scores_layers(const pw_fit_result *r)
-{
-    if (!r->layers_scored || !pw_model_can_split(r->sys.model))
-        return false;
-    if (r->n_tie_lines)
-        return true;
-    for (size_t i = 0; i < r->n_pts; i++)
-        if (r->pts[i].three_phase && !r->pts[i].excluded)
-            return true;
-    return false;
-}
-
-/* The mean measured T of the used three-phase points (the fit's start of the three-phase
- * search, fit.c fit_build_problem). */
-static double three_phase_T_guess(const pw_fit_result *r)
-{
-    double T = 0.0;
-    size_t n = 0;
-    for (size_t i = 0; i < r->n_pts; i++)
-        if (r->pts[i].three_phase && !r->pts[i].excluded) {
-            T += r->pts[i].meas.T_K;
-            n++;
-        }
-    return n ? T / (double)n : (double)NAN;
-}
-
 pw_status fit_hypothetical_point(const pw_fit_result *r, double x1, pw_point *pt)
 {
     if (!r || !r->sys.model || !pt || !(x1 > 0.0 && x1 < 1.0))
@@ -48,7 +19,7 @@ pw_status fit_hypothetical_point(const pw_fit_result *r, double x1, pw_point *pt
     pw_eq_point eq;
     bool isobaric = r->kind == PW_DATA_ISOBARIC, three = false;
     pw_status st;
-    if (scores_layers(r)) /* the stable prediction, as the fit scores a point there */
+    if (fit_het_plan_of(r).inside) /* the stable prediction, as the fit scores a point there */
         st = isobaric ? pw_bubble_T_het(&r->sys, r->P_fixed_Pa, x1, &eq, &three)
                       : pw_bubble_P_het(&r->sys, r->T_fixed_K, x1, &eq, &three);
     else
@@ -93,16 +64,17 @@ pw_status fit_information(const pw_fit_result *r, const pw_point *pts, size_t n,
         return PW_OK;
     /* one block: residuals, Jacobian, and the (all false) three-phase flags of the planned
      * points when the objective scores points inside the layers */
-    bool layers = scores_layers(r);
-    double *f = malloc(sizeof(double) * fp.n_res * (1 + fp.n_fit) + (layers ? sizeof(bool) * n : 0));
+    fit_het_plan plan = fit_het_plan_of(r);
+    double *f = malloc(sizeof(double) * fp.n_res * (1 + fp.n_fit) +
+                       (plan.inside ? sizeof(bool) * n : 0));
     if (!f)
         return PW_ENOMEM;
     double *J = f + fp.n_res;
-    if (layers) {
+    if (plan.inside) {
         bool *flags = (bool *)(J + fp.n_res * fp.n_fit);
         memset(flags, 0, sizeof(bool) * n);
         fp.three_phase = flags; /* fit_eval computes the three-phase state */
-        fp.T3_guess_K = three_phase_T_guess(r);
+        fp.T3_guess_K = plan.T3_guess_K;
     }
     pw_status st = fit_eval(&fp, r->sys.params, f, J);
     if (st == PW_OK)

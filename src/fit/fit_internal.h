@@ -28,7 +28,10 @@ typedef struct fit_problem {
     /* Partly miscible liquids (objective_het.c): which used points are three-phase points
      * (NULL: none) with a temperature guess for their three-phase state, and the tie lines. */
     const bool *three_phase;
-    double T3_guess_K;
+    double T3_guess_K;          /* NAN: no measured three-phase point (tie lines only) */
+    /* Points inside the model's layers keep their one-liquid scoring (a fit file written before
+     * they were scored by the three-phase state, pw_fit_result.layers_scored false). */
+    bool one_liquid_inside;
     /* The last three-phase temperature found within the current LM run, the next evaluation's
      * start (NULL or NAN: T3_guess_K). Reset before every run and before the final evaluation,
      * so that each run and the reported state start from T3_guess_K. */
@@ -113,6 +116,18 @@ typedef struct fit_het_state {
  * PW_OK with h->exists false: the caller then uses the one-liquid bubble point. */
 pw_status fit_het_state_eval(const fit_problem *fp, const pw_system *s, bool want_J,
                              fit_het_state *h);
+
+/* How a fit result's objective treats partly miscible data (objective.c): state, whether the
+ * three-phase state enters it (measured three-phase points among the used points, or points
+ * inside the layers to score); inside, whether one-liquid points inside the model's layers are
+ * scored by it (r->layers_scored, a model that can split, and three-phase points or tie lines:
+ * data that say the liquids split); T3_guess_K, the mean measured T of the used three-phase
+ * points (NAN when none). The one rule of fit_build_problem, pw_fit_evaluate and the planning. */
+typedef struct fit_het_plan {
+    bool state, inside;
+    double T3_guess_K;
+} fit_het_plan;
+fit_het_plan fit_het_plan_of(const pw_fit_result *r);
 
 /* Whether a one-liquid point at x1 lies strictly inside the layers of h: the model's stable
  * prediction there is the three-phase state, not the one-liquid bubble point. */

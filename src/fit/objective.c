@@ -157,7 +157,8 @@ pw_status fit_eval(const fit_problem *fp, const double *params, double *f, doubl
          * scored by the state the model predicts for them, the three-phase one (the one-liquid
          * bubble point inside the layers is metastable; docs/heterogeneous.md 4) */
         if (fp->three_phase && het.exists &&
-            (fp->three_phase[i] || fit_het_inside(&het, fp->pts[i].x1))) {
+            (fp->three_phase[i] ||
+             (!fp->one_liquid_inside && fit_het_inside(&het, fp->pts[i].x1)))) {
             fit_het_point(fp, &het, &fp->pts[i], f + i * m, Ji);
             continue;
         }

@@ -217,14 +217,30 @@ pw_status fit_het_state_eval(const fit_problem *fp, const pw_system *s, bool wan
     /* Without measured three-phase points (tie lines only) the state serves only the points
      * inside the layers: a trial set whose state cannot be computed keeps them one-liquid, as
      * the fit did before it scored them (a failure is not new to such a fit). */
-    bool measured = false;
-    for (size_t i = 0; i < fp->n_pts && !measured; i++)
-        measured = fp->three_phase[i];
-    if (st != PW_OK && st != PW_ENOMEM && !measured) {
+    if (st != PW_OK && st != PW_ENOMEM && !isfinite(fp->T3_guess_K)) {
         memset(h, 0, sizeof *h);
         return PW_OK;
     }
     return st;
+}
+
+fit_het_plan fit_het_plan_of(const pw_fit_result *r)
+{
+    fit_het_plan p = {.state = false, .inside = false, .T3_guess_K = NAN};
+    double T3 = 0.0;
+    size_t n = 0;
+    for (size_t i = 0; i < r->n_pts; i++) {
+        const pw_fit_point *q = &r->pts[i];
+        if (q->three_phase && !q->excluded && !fit_is_pure(&q->meas)) {
+            T3 += q->meas.T_K;
+            n++;
+        }
+    }
+    if (n)
+        p.T3_guess_K = T3 / (double)n;
+    p.inside = r->layers_scored && pw_model_can_split(r->sys.model) && (n || r->n_tie_lines);
+    p.state = n || p.inside;
+    return p;
 }
 
 bool fit_het_inside(const fit_het_state *h, double x1)
