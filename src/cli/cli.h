@@ -61,6 +61,9 @@ pw_status cli_override_components(const char *cmd, pw_system *sys, const char *p
 /* Warns on stderr when a component associates in the vapor (a carboxylic acid): modified
  * Raoult's law, which pinchwise uses, is then unreliable even at 1 atm. */
 void cli_warn_vapor_association(const char *cmd, const pw_system *sys);
+/* Warns when constant molal overflow is doubtful for sys (pw_cmo_doubtful); remedy, appended
+ * to the message, says what to do instead ("" for nothing). */
+void cli_warn_cmo(const char *cmd, const pw_system *sys, const char *remedy);
 
 /* Reads a fit file and, when components is not NULL, applies cli_override_components. On
  * failure fit is left freed and err filled. */

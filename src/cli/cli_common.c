@@ -174,6 +174,15 @@ void cli_warn_vapor_association(const char *cmd, const pw_system *sys)
                          sys->comp[i].name);
 }
 
+void cli_warn_cmo(const char *cmd, const pw_system *sys, const char *remedy)
+{
+    if (pw_cmo_doubtful(sys))
+        cli_warnf(cmd, "the heats of vaporization of %s and %s differ by %.0f %%: constant molal "
+                       "overflow is doubtful above about %.0f %% (common practice)%s",
+                  sys->comp[0].name, sys->comp[1].name, 100.0 * pw_latent_heat_mismatch(sys),
+                  100.0 * PW_CMO_MISMATCH_MAX, remedy);
+}
+
 pw_status cli_read_fit(const char *cmd, const char *path, const char *components,
                           pw_fit_result *fit, pw_error *err)
 {

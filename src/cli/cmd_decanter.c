@@ -189,6 +189,7 @@ pw_status cli_decanter(int argc, char **argv)
     /* the decanter and the bottoms against the vapor-pressure and fitted ranges */
     cli_warn_T_range(CMD, &fit, r.T_lo_K, r.T_hi_K, "the scheme's temperatures", &a.units);
     cli_warn_layers_contradicted(CMD, &fit, &a.units);
+    cli_warn_cmo(CMD, &fit.sys, "; the first-law residual of the flows (with the duties) shows its size");
     if (r.cooled) /* the layers there use the model only: no vapor pressure */
         cli_warn_data_T_range(CMD, &fit, r.T_decanter_K, r.T_decanter_K,
                               "the decanter temperature", &a.units);
@@ -205,7 +206,7 @@ pw_status cli_decanter(int argc, char **argv)
         }
     }
     if (a.json) {
-        json_t *doc = pw_decanter_doc(&r, &a.spec);
+        json_t *doc = pw_decanter_doc(&fit.sys, &r, &a.spec);
         if (doc && minimum) /* the minimum used, as azeotrope records it */
             json_object_set_new(doc, "minimum", json_integer((json_int_t)minimum));
         if (unc)

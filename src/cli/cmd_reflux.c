@@ -25,7 +25,7 @@ static pw_column_result headline(const cli_column_run *run)
 
 json_t *cli_column_json(const cli_column_run *run)
 {
-    return pw_reflux_design_doc(&run->col, &run->design, run->energy ? &run->energy_res : NULL,
+    return pw_reflux_design_doc(&run->fit.sys, &run->col, &run->design, run->energy ? &run->energy_res : NULL,
                                 run->P_Pa, &run->spec, run->T_top_K, run->T_bottom_K);
 }
 

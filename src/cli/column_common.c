@@ -204,12 +204,8 @@ void cli_column_warn(const cli_column_run *run)
                          pw_units_display_value(u, PW_SHOW_T, ".1f", span.data_T_max_K, b[3], 48),
                          PW_RANGE_COLUMN_MARGIN_K);
     }
-    if (!run->energy && pw_cmo_doubtful(&r->sys))
-        cli_warnf("reflux", "the heats of vaporization of %s and %s differ by %.0f %%: constant "
-                     "molal overflow is doubtful above about %.0f %% (common practice); consider "
-                     "--energy",
-                     r->sys.comp[0].name, r->sys.comp[1].name,
-                     100.0 * pw_latent_heat_mismatch(&r->sys), 100.0 * PW_CMO_MISMATCH_MAX);
+    if (!run->energy)
+        cli_warn_cmo("reflux", &r->sys, "; consider --energy");
     if (!r->converged)
         cli_warnf("reflux", "%s: the fit did not converge; do not design with it", r->dataset_path);
     cli_warn_vapor_association("reflux", &r->sys);

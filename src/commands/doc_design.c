@@ -120,7 +120,7 @@ json_t *pw_energy_doc(const pw_energy_result *e, double r_min_cmo)
     return o;
 }
 
-json_t *pw_reflux_design_doc(const pw_column_result *col, const pw_design_table *t,
+json_t *pw_reflux_design_doc(const pw_system *sys, const pw_column_result *col, const pw_design_table *t,
                              const pw_energy_result *e, double P_Pa, const pw_column_spec *spec,
                              double T_top_K, double T_bottom_K)
 {
@@ -130,6 +130,7 @@ json_t *pw_reflux_design_doc(const pw_column_result *col, const pw_design_table 
         return NULL;
     json_object_set_new(o, "balance", json_string(pw_balance_name(t->balance)));
     json_object_set_new(o, "design", view.feasible ? pw_design_doc(t) : json_array());
+    json_object_set_new(o, "overflow_check", pw_overflow_check_doc(sys, e == NULL));
     if (e) {
         json_object_set_new(o, "energy", pw_energy_doc(e, col->r_min));
         json_object_set_new(
@@ -141,6 +142,14 @@ json_t *pw_reflux_design_doc(const pw_column_result *col, const pw_design_table 
                         "data; design per local codes under licensed review."));
     }
     return o;
+}
+
+json_t *pw_overflow_check_doc(const pw_system *sys, bool cmo_used)
+{
+    const double m = pw_latent_heat_mismatch(sys);
+    return json_pack("{s:o,s:o,s:b,s:s}", "latent_heat_mismatch", pw_json_num(m), "limit",
+                     pw_json_num(PW_CMO_MISMATCH_MAX), "doubtful",
+                     cmo_used && pw_cmo_doubtful(sys), "basis", "common practice");
 }
 
 json_t *pw_screen_energy_doc(const pw_energy_result *e, double r_min_cmo)

@@ -623,6 +623,24 @@ static void energy_section(pw_sbuf *b, const pw_report_curves *c)
 
 /* The decanter scheme (pinchwise/decanter.h) drawn when a heterogeneous azeotrope blocks the
  * single column. */
+/* A note when constant molal overflow is doubtful for these components (pw_cmo_doubtful);
+ * remedy says what the reader can do instead. */
+static void cmo_note(pw_sbuf *b, const pw_report_curves *c, const char *remedy)
+{
+    const pw_system *s = &c->fit->sys;
+    if (!pw_cmo_doubtful(s))
+        return;
+    pw_sbuf_puts(b, "<p class=\"note\" id=\"overflow-doubt\">The heats of vaporization of ");
+    esc(b, s->comp[0].name);
+    pw_sbuf_puts(b, " and ");
+    esc(b, s->comp[1].name);
+    pw_sbuf_printf(b, " differ by %.0f %%: constant molal overflow is doubtful above about %.0f %% "
+                      "(common practice). ",
+                   100.0 * pw_latent_heat_mismatch(s), 100.0 * PW_CMO_MISMATCH_MAX);
+    pw_sbuf_puts(b, remedy);
+    pw_sbuf_puts(b, "</p>\n");
+}
+
 static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
 {
     const pw_draw_decanter *d = &c->dc.decanter;
@@ -639,6 +657,8 @@ static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
                       "Each column has a partial reboiler and no condenser of its own; constant "
                       "molal overflow.</p>\n",
                    fmax(c->spec.xd, c->spec.xb), fmin(c->spec.xd, c->spec.xb));
+    cmo_note(b, c, "The first-law residual of the flows (with the duties, where the components' "
+                   "heat data are known) shows how far they are from an energy balance.");
     if (d->status != PW_OK || !r->feasible) {
         pw_sbuf_puts(b, "<p class=\"verdict-fail\">Not sized: ");
         esc_text(b, c, d->status != PW_OK ? pw_strerror(d->status) : r->reason);
@@ -719,6 +739,9 @@ static void column_section(pw_sbuf *b, const pw_report_curves *c)
                    pc, sp->xd, sp->zf, sp->xb, sp->q);
     esc(b, c->fit->sys.comp[0].name);
     pw_sbuf_puts(b, "); constant molal overflow.</p>\n");
+    if (!c->energy)
+        cmo_note(b, c, "The report's --energy option adds the column with energy balances on every "
+                       "stage.");
     if (c->dc.status != PW_OK) {
         pw_sbuf_puts(b, "<p class=\"verdict-fail\">The column analysis failed: ");
         esc(b, pw_strerror(c->dc.status));

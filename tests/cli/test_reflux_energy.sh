@@ -37,10 +37,13 @@ for r in e["design"]:
     assert abs(lhs - rhs) < 1e-6 * abs(lhs), (lhs, rhs)
     assert [s["stage"] for s in r["profile"]] == list(range(1, len(r["profile"]) + 1))
 assert [r["factor"] for r in e["design"]] == [1.2, 1.3, 1.5]
+# overflow check: |40.66 - 29.10| / 29.10 = 39.7 % against the 10 % rule (common practice);
+# doubtful only where constant molal overflow was used
+for d, used in ((c, True), (e, False)):
+    o = d["overflow_check"]
+    assert abs(o["latent_heat_mismatch"] - (40.66 - 29.10) / 29.10) < 1e-12, o
+    assert o["limit"] == 0.1 and o["doubtful"] is used and o["basis"] == "common practice", o
 PY
-grep -q "heats of vaporization" warn.txt || fail "no latent-heat warning without --energy"
-"$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components heat.csv --energy 2>warn2.txt >/dev/null || fail "text"
-grep -q "heats of vaporization" warn2.txt && fail "latent-heat warning with --energy"
 # No heat data: refused, naming the component and the column.
 cat > noheat.csv <<'CSV'
 name,A,B,C,log,P_unit,T_unit,T_min,T_max,source,equation
@@ -49,6 +52,10 @@ acetone,14.3145,2756.22,228.060,ln,kPa,C,-26,77,"SVNA 7th ed. Table B.2 (from me
 CSV
 "$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components noheat.csv --energy 2>err.txt && fail "--energy without heat data accepted"
 grep -q "dHvap_kJ_mol" err.txt || fail "message lacks the column: $(cat err.txt)"
+# Without heats the mismatch is unknown (null) and never doubtful.
+"$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components noheat.csv --json > n.json 2>warn3.txt || fail "reflux without heats"
+python3 -c 'import json; o = json.load(open("n.json"))["overflow_check"]; assert o["doubtful"] is False and o["latent_heat_mismatch"] is None, o' || fail "overflow check without heats"
+grep -q "heats of vaporization" warn3.txt && fail "latent-heat warning without heats"
 "$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components nocpv.csv --energy 2>err.txt && fail "missing cpV accepted"
 grep -q "water" err.txt && grep -q "cpV_J_molK" err.txt || fail "message: $(cat err.txt)"
 # --uncertainty with --energy: the interval brackets the energy R_min (few draws: a smoke test of

@@ -34,6 +34,11 @@ for r in d["design"]:
 a = re.search(r'<section id="answers">.*?</section>', h, re.S)
 assert a and ("with energy balances R<sub>min</sub> = %.4g" % d["r_min"]) in a.group(0), "answers block"
 PY
+# Constant molal overflow doubtful (heats 40.66 and 29.10 kJ/mol: 40 % against the 10 % rule,
+# common practice): the CMO page says so and points to --energy; the --energy page does not.
+grep -q 'id="overflow-doubt"' c.html || fail "no overflow note on the CMO page"
+grep -q 'differ by 40 %' c.html || fail "overflow note without the mismatch"
+grep -q 'id="overflow-doubt"' e.html && fail "overflow note on the --energy page"
 cat > noheat.csv <<'CSV'
 name,A,B,C,log,P_unit,T_unit,T_min,T_max,source,equation
 water,16.3872,3885.70,230.170,ln,kPa,C,0,200,"SVNA 7th ed. Table B.2 (from memory); IAPWS-IF97",iapws-if97
@@ -41,6 +46,9 @@ acetone,14.3145,2756.22,228.060,ln,kPa,C,-26,77,"SVNA 7th ed. Table B.2 (from me
 CSV
 "$pw" report demo.json --out n.html --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components noheat.csv --energy >/dev/null 2>err.txt || fail "report --energy without heat data failed"
 grep -q "dHvap_kJ_mol" err.txt || fail "no warning"
+# without heats the mismatch is unknown: no overflow note on the CMO page
+"$pw" report demo.json --out nc.html --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components noheat.csv >/dev/null 2>&1 || fail "report without heat data"
+grep -q 'id="overflow-doubt"' nc.html && fail "overflow note without heat data"
 grep -q "Not computed" n.html && grep -q "dHvap_kJ_mol" n.html || fail "page does not name the missing column"
 "$pw" report demo.json --out x.html --energy 2>/dev/null && fail "--energy without a column accepted"
 echo "report --energy tests passed"
