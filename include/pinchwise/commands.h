@@ -142,10 +142,9 @@ pw_status pw_decanter_run(const pw_system *sys, const pw_decanter_spec *spec,
                           const pw_column_options *opt, const char *where, pw_decanter_result *r,
                           pw_error *err);
 
-/* The `decanter --json` document (CONTRACT keys, each column's pinch, q, the constant molal
- * overflow check for sys and the caution). */
-json_t *pw_decanter_doc(const pw_system *sys, const pw_decanter_result *r,
-                        const pw_decanter_spec *spec);
+/* The `decanter --json` document (CONTRACT keys, each column's pinch, q and the caution); the
+ * command adds "overflow_check" (pw_overflow_check_doc, design_doc.h). */
+json_t *pw_decanter_doc(const pw_decanter_result *r, const pw_decanter_spec *spec);
 
 /* ---- rate ---- */
 

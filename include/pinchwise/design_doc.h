@@ -35,16 +35,17 @@ json_t *pw_design_doc(const pw_design_table *t);
 /* The "energy" object of reflux --energy; r_min_cmo is constant molal overflow's R_min. */
 json_t *pw_energy_doc(const pw_energy_result *e, double r_min_cmo);
 
-/* The `reflux --json` document with the design rows, "balance" and "overflow_check" for sys
- * (and with e != NULL the energy balance's headline, "energy" and its caution): pw_reflux_doc
- * extended. */
-json_t *pw_reflux_design_doc(const pw_system *sys, const pw_column_result *col, const pw_design_table *t,
+/* The `reflux --json` document with the design rows and "balance" (and with e != NULL the
+ * energy balance's headline, "energy" and its caution): pw_reflux_doc extended. The command
+ * adds "overflow_check" (pw_overflow_check_doc). */
+json_t *pw_reflux_design_doc(const pw_column_result *col, const pw_design_table *t,
                              const pw_energy_result *e, double P_Pa, const pw_column_spec *spec,
                              double T_top_K, double T_bottom_K);
 
 /* The "overflow_check" object: {"latent_heat_mismatch": |dHvap1 - dHvap2| / min (null without
  * heat data), "limit": PW_CMO_MISMATCH_MAX, "doubtful": whether constant molal overflow was
- * used (cmo_used) and the mismatch exceeds the limit, "basis": "common practice"}. */
+ * used (cmo_used) and the mismatch exceeds the limit, "basis": "common practice"}; reflux
+ * (cmo_used: without an energy balance) and decanter (always) carry it. */
 json_t *pw_overflow_check_doc(const pw_system *sys, bool cmo_used);
 
 /* The "energy" object of screen --energy. */

@@ -1,7 +1,6 @@
 /* The decanter command's computation and its `--json` document (moved from
  * src/cli/cmd_decanter.c). */
 #include <pinchwise/commands.h>
-#include <pinchwise/design_doc.h>
 
 pw_status pw_decanter_run(const pw_system *sys, const pw_decanter_spec *spec,
                           const pw_column_options *opt, const char *where, pw_decanter_result *r,
@@ -59,7 +58,7 @@ static json_t *column_json(const pw_decanter_result *r, int col, double bottom)
                      pw_json_num(c->y_pinch));
 }
 
-json_t *pw_decanter_doc(const pw_system *sys, const pw_decanter_result *r, const pw_decanter_spec *spec)
+json_t *pw_decanter_doc(const pw_decanter_result *r, const pw_decanter_spec *spec)
 {
     const pw_three_phase *tp = &r->decanter;
     json_t *o = json_object();
@@ -110,8 +109,6 @@ json_t *pw_decanter_doc(const pw_system *sys, const pw_decanter_result *r, const
         json_object_set_new(o, "bottoms_per_mol_feed", json_null());
     }
     json_object_set_new(o, "q", pw_json_num(spec->q));
-    /* both columns and the decanter balance use constant molal overflow */
-    json_object_set_new(o, "overflow_check", pw_overflow_check_doc(sys, true));
     json_object_set_new(o, "caution", json_string(pw_caution_text()));
     return o;
 }

@@ -120,7 +120,7 @@ json_t *pw_energy_doc(const pw_energy_result *e, double r_min_cmo)
     return o;
 }
 
-json_t *pw_reflux_design_doc(const pw_system *sys, const pw_column_result *col, const pw_design_table *t,
+json_t *pw_reflux_design_doc(const pw_column_result *col, const pw_design_table *t,
                              const pw_energy_result *e, double P_Pa, const pw_column_spec *spec,
                              double T_top_K, double T_bottom_K)
 {
@@ -130,7 +130,6 @@ json_t *pw_reflux_design_doc(const pw_system *sys, const pw_column_result *col, 
         return NULL;
     json_object_set_new(o, "balance", json_string(pw_balance_name(t->balance)));
     json_object_set_new(o, "design", view.feasible ? pw_design_doc(t) : json_array());
-    json_object_set_new(o, "overflow_check", pw_overflow_check_doc(sys, e == NULL));
     if (e) {
         json_object_set_new(o, "energy", pw_energy_doc(e, col->r_min));
         json_object_set_new(
