@@ -73,6 +73,11 @@ typedef struct pw_consistency_options {
      * run; without a sigma_x, x is taken as exact. */
     double sigma_y, sigma_x, sigma_T_K, sigma_P_rel;
     double point_confidence;    /* one-sided confidence of the uncertainty-based limits (0.99) */
+    /* The x1 range that three-phase points spanned, left out of the data (pw_check_data sets
+     * it): the area tests then smooth each liquid branch on its own and bridge the gap by the
+     * step of G^E/RT between the one-liquid points beside it (docs/consistency.md). NAN
+     * (default): no gap, one polynomial over [0, 1]. */
+    double gap_x1[2];
     bool strict_verdict;        /* false (default): the verdict rests on legendre_point and
                                    pure_endpoints (the area and Kojima tests when the point test
                                    cannot run), other failures are warnings; true: every test that
@@ -126,7 +131,14 @@ typedef struct pw_consistency_result {
     pw_ctest tests[PW_CTEST_COUNT]; /* indexed by pw_ctest_id */
     /* details of the tests */
     double area_A, area_B;          /* areas above and below the axis (rk_area or herington) */
-    int area_degree;                /* degree of the ln(gamma1/gamma2) smoothing polynomial */
+    int area_degree;                /* degree of the ln(gamma1/gamma2) smoothing polynomial (of
+                                       the branch below a bridged gap) */
+    /* A bridged two-liquid gap (options.gap_x1): the one-liquid points beside it, the step
+     * g(x_b) - g(x_a) of G^E/RT = x1 ln gamma1 + x2 ln gamma2 measured there, which equals the
+     * integral of ln(gamma1/gamma2) over the gap, and the degree of the upper branch's
+     * polynomial; gap_bridge NAN and area_degree_upper -1 when no gap was bridged. */
+    double gap_bridge_x1[2], gap_bridge;
+    int area_degree_upper;
     double herington_D, herington_J, herington_theta_K, herington_Tmin_K;
     size_t legendre_terms;          /* chosen number of Legendre terms (0 when not fitted) */
     double legendre_a[PW_CONSISTENCY_MAX_TERMS];

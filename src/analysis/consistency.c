@@ -32,6 +32,7 @@ pw_consistency_options pw_consistency_default_options(void)
         .sigma_T_K = NAN,
         .sigma_P_rel = NAN,
         .point_confidence = 0.99,
+        .gap_x1 = {NAN, NAN},
         .strict_verdict = false,
     };
 }
@@ -193,7 +194,8 @@ pw_status pw_consistency_run(const pw_dataset *ds, const pw_component *c1, const
     }
     out->area_A = out->area_B = out->herington_D = out->herington_J = NAN;
     out->herington_theta_K = out->herington_Tmin_K = out->legendre_rms = out->rms_dlnratio = NAN;
-    out->area_degree = -1;
+    out->area_degree = out->area_degree_upper = -1;
+    out->gap_bridge = out->gap_bridge_x1[0] = out->gap_bridge_x1[1] = NAN;
     out->sigma_y_used = out->sigma_x_used = out->sigma_T_used_K = out->sigma_P_used_rel = NAN;
     out->point_dy_limit_sigma = out->scatter_chi2 = NAN;
     st = pw_cs_area_test(&d, out);

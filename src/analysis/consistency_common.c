@@ -229,9 +229,14 @@ static double poly_integral(const double *c, int deg, double a, double b)
 
 pw_status pw_cs_poly_areas(const double *c, int deg, double *A, double *B)
 {
+    return pw_cs_poly_areas_on(c, deg, 0.0, 1.0, A, B);
+}
+
+pw_status pw_cs_poly_areas_on(const double *c, int deg, double a, double b, double *A, double *B)
+{
     double cuts[8];
     size_t nc = 0;
-    cuts[nc++] = 0.0;
+    cuts[nc++] = a;
     int d = deg;
     while (d > 0 && c[d] == 0.0)
         d--;
@@ -246,11 +251,11 @@ pw_status pw_cs_poly_areas(const double *c, int deg, double *A, double *B)
             return PW_ENOCONV;
         for (int i = 0; i < d; i++) {
             double re = z[2 * i], im = z[2 * i + 1];
-            if (fabs(im) <= 1e-10 * (1.0 + fabs(re)) && re > 0.0 && re < 1.0)
+            if (fabs(im) <= 1e-10 * (1.0 + fabs(re)) && re > a && re < b)
                 cuts[nc++] = re;
         }
     }
-    cuts[nc++] = 1.0;
+    cuts[nc++] = b;
     gsl_sort(cuts, 1, nc);
     *A = *B = 0.0;
     for (size_t i = 0; i + 1 < nc; i++) {

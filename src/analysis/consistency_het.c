@@ -83,8 +83,15 @@ pw_status pw_check_data(const pw_dataset *ds, const pw_component *c1, const pw_c
     memset(&one, 0, sizeof one);
     if (pw_het_check_run(ds, c1, c2, &one, het) != PW_OK)
         return pw_error_set(err, PW_ENOMEM, ds->path, 0, "out of memory");
-    pw_consistency_options def = pw_consistency_default_options();
-    pw_status st = pw_consistency_run(het->n ? &one : ds, c1, c2, o ? o : &def, r, err);
+    pw_consistency_options use = o ? *o : pw_consistency_default_options();
+    if (het->n) { /* the area tests bridge the gap the three-phase points span */
+        use.gap_x1[0] = use.gap_x1[1] = het->pts[0].x1;
+        for (size_t i = 1; i < het->n; i++) {
+            use.gap_x1[0] = fmin(use.gap_x1[0], het->pts[i].x1);
+            use.gap_x1[1] = fmax(use.gap_x1[1], het->pts[i].x1);
+        }
+    }
+    pw_status st = pw_consistency_run(het->n ? &one : ds, c1, c2, &use, r, err);
     pw_het_check_free(NULL, &one);
     if (st != PW_OK)
         pw_het_check_free(het, NULL);

@@ -68,6 +68,8 @@ void pw_cs_outliers(const cs_data *d, pw_consistency_result *r);
 /* Signed area of the polynomial over [0, 1]: A = integral of its positive part, B = |integral
  * of its negative part| (real roots from gsl_poly_complex_solve). */
 pw_status pw_cs_poly_areas(const double *c, int deg, double *A, double *B);
+/* The same over [a, b]. */
+pw_status pw_cs_poly_areas_on(const double *c, int deg, double a, double b, double *A, double *B);
 
 /* Legendre series G^E/RT = x1 x2 sum_k a_k L_k(2 x1 - 1), temperature-independent (H^E = 0),
  * with 1..PW_CONSISTENCY_MAX_TERMS terms: pw_cs_legendre_model(n) is the descriptor with n

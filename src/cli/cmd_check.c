@@ -132,6 +132,11 @@ static void print_text(const pw_dataset *ds, const pw_consistency_result *r,
         if (t->id == PW_CTEST_HERINGTON) /* the allowance's formula needs kelvin: always K */
             printf("  %-16s   D = %.4g %%, J = %.4g %% (J = 150 x %.4g K / %.4g K)\n", "",
                    r->herington_D, r->herington_J, r->herington_theta_K, r->herington_Tmin_K);
+        if ((t->id == PW_CTEST_HERINGTON || t->id == PW_CTEST_AREA) && isfinite(r->gap_bridge))
+            printf("  %-16s   two-liquid gap bridged between x1 = %.4g and %.4g by the step of "
+                   "G^E/RT, %.4g;\n  %-16s   each liquid branch smoothed on its own (degrees %d "
+                   "and %d)\n", "", r->gap_bridge_x1[0], r->gap_bridge_x1[1], r->gap_bridge, "",
+                   r->area_degree, r->area_degree_upper);
     }
     for (int i = 0; i < PW_CTEST_COUNT; i++)
         if (!r->tests[i].ran)

@@ -20,6 +20,16 @@ const char *const *pw_check_cautions(size_t *n)
     return cautions;
 }
 
+/* The bridged two-liquid gap of the area tests, or null. */
+static json_t *gap_bridge(const pw_consistency_result *r)
+{
+    if (!isfinite(r->gap_bridge))
+        return json_null();
+    return json_pack("{s:[o,o],s:o,s:[i,i]}", "x1", pw_json_num(r->gap_bridge_x1[0]),
+                     pw_json_num(r->gap_bridge_x1[1]), "gE_RT_step", pw_json_num(r->gap_bridge),
+                     "branch_degrees", r->area_degree, r->area_degree_upper);
+}
+
 static json_t *test_details(const pw_consistency_result *r, const pw_ctest *t)
 {
     json_t *d = json_object();
@@ -29,6 +39,7 @@ static json_t *test_details(const pw_consistency_result *r, const pw_ctest *t)
         json_object_set_new(d, "area_below", pw_json_num(r->area_B));
         json_object_set_new(d, "smoothing_degree", json_integer(r->area_degree));
         json_object_set_new(d, "areas_at_rounding_level", json_boolean(r->areas_at_rounding));
+        json_object_set_new(d, "gap_bridge", gap_bridge(r));
         break;
     case PW_CTEST_HERINGTON:
         json_object_set_new(d, "D", pw_json_num(r->herington_D));
@@ -38,6 +49,7 @@ static json_t *test_details(const pw_consistency_result *r, const pw_ctest *t)
         json_object_set_new(d, "area_above", pw_json_num(r->area_A));
         json_object_set_new(d, "area_below", pw_json_num(r->area_B));
         json_object_set_new(d, "areas_at_rounding_level", json_boolean(r->areas_at_rounding));
+        json_object_set_new(d, "gap_bridge", gap_bridge(r));
         break;
     case PW_CTEST_POINT:
         json_object_set_new(d, "limit_from_sigma", pw_json_num(r->point_dy_limit_sigma));

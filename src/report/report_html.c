@@ -411,6 +411,12 @@ static void consistency_section(pw_sbuf *b, const pw_report_curves *c)
         pw_sbuf_puts(b, "</td></tr>\n");
     }
     pw_sbuf_puts(b, "</table>\n");
+    if (isfinite(k->gap_bridge))
+        pw_sbuf_printf(b, "<p class=\"note\" id=\"gap-bridge\">The area test bridges the "
+                          "two-liquid gap between x<sub>1</sub> = %.4g and %.4g exactly, by the "
+                          "step of G<sup>E</sup>/RT there (%.4g); each liquid branch is smoothed "
+                          "on its own (docs/consistency.md).</p>\n",
+                       k->gap_bridge_x1[0], k->gap_bridge_x1[1], k->gap_bridge);
     if (k->n_reasons) {
         pw_sbuf_puts(b, "<ul>\n");
         for (size_t i = 0; i < k->n_reasons; i++) {

@@ -431,9 +431,19 @@ h = d["three_phase_points"]
 assert len(h["points"]) == 7 and "two-liquid" in h["reason"], h
 assert h["activity_bound_ok"] is True and h["max_activity"] < 1.0, h
 assert all("pass" in t for t in d["tests"]), d
+# Herington across the gap: bridged between the one-liquid points beside the three-phase lines
+# (x1 = 0.015, line 14, and 0.494, line 22) by the step of G^E/RT measured there (the identity
+# itself is tested in test_consistency_gap.c)
+her = [t for t in d["tests"] if t["name"] == "herington"][0]
+gb = her["details"]["gap_bridge"]
+assert gb["x1"] == [0.015, 0.494] and gb["branch_degrees"] == [4, 4], gb
+assert her["details"]["D"] < 2.0 and her["pass"], her   # 0.74 %; one polynomial gave 19.3 %
+assert 0.0 < gb["gE_RT_step"] < 1.0, gb
+open(sys.argv[1] + ".step", "w").write("%.4g" % gb["gE_RT_step"])
 PY
-"$PW" check "$SRC/datasets/butanol_water_1atm.csv" 2> /dev/null | grep -q "Three-phase points" \
-    || fail "check text names no three-phase points"
+"$PW" check "$SRC/datasets/butanol_water_1atm.csv" > "$TMP/chk.txt" 2> /dev/null || fail "check text"
+grep -q "Three-phase points" "$TMP/chk.txt" || fail "check text names no three-phase points"
+grep -q "two-liquid gap bridged between x1 = 0.015 and 0.494" "$TMP/chk.txt" || fail "check text: no gap bridge"
 # report: the azeotrope marked is the heterogeneous one (the flat three-phase line crosses y = x
 # there), not the crossing of the unstable one-liquid curve inside the gap
 "$PW" report "$TMP/bw.json" --out "$TMP/r.html" --json --csv "$TMP/rcsv" > "$TMP/rep.json" 2> /dev/null \
@@ -458,6 +468,9 @@ z = [a for a in json.load(open(sys.argv[2]))["azeotropes"] if a["heterogeneous"]
 xs = [float(v) for v in re.findall(r"azeotrope x = ([0-9.]+)", html)]
 assert xs and all(abs(x - z["x1"]) < 0.002 for x in xs), (xs, z)
 PY
+# the report's consistency section: the same bridged gap as check --json
+grep -q "two-liquid gap between x<sub>1</sub> = 0.015 and 0.494 exactly, by the step of G<sup>E</sup>/RT there ($(cat "$TMP/chk.json.step"))" "$TMP/r.html" \
+    || fail "report: no gap bridge note"
 # rate on the Wilson fit: a stage inside the two liquids the data show is refused (exit 7)
 "$PW" rate "$TMP/bw_wilson.json" --pressure 1atm --stages 10 --feed-stage 5 --reflux 2 --zf 0.2 \
     --distillate 0.2 > /dev/null 2> "$TMP/err.txt"
