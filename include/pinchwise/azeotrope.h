@@ -39,6 +39,12 @@ typedef struct pw_az_options {
     double touch_tol;   /* a local minimum of |f| (no sign change) below this is reported as a
                          * near-tangential point; default 1e-3 (alpha within 0.1 % of 1) */
     double h_class;     /* half-width in x1 of the three-point extremum test; default 1e-3 */
+    double skip_x1[2];  /* an open interval of x1 left out of the search (its one-liquid bubble
+                         * points are not evaluated): pw_azeotrope_search passes the layers of
+                         * the three-phase state, where no one-liquid azeotrope can be and a
+                         * strongly non-ideal model may have no one-liquid bubble point at all;
+                         * default NAN, NAN: none. The search's guarantee then holds on each
+                         * side (docs/azeotrope.md). */
 } pw_az_options;
 
 pw_az_options pw_azeotrope_default_options(void);

@@ -163,13 +163,23 @@ pw_status pw_azeotrope_heterogeneous(const pw_system *s, int mode, double fixed,
 
 /* Every azeotrope at one condition: the one search that every place listing azeotropes uses
  * (the azeotrope command, the ranking of fit --model all, study and the report). The
- * homogeneous roots of pw_azeotrope_find into r, then pw_azeotrope_heterogeneous (crossings
- * inside the two-liquid region dropped from r and counted in *n_removed, the three-phase state
- * into tp). tp is cleared first (tp->exists false). *het_failed (may be NULL) is set true when the
- * failure came from the three-phase step (r then holds the homogeneous roots, unfiltered); a
- * failure of the homogeneous search leaves r->fail_x1 saying where. */
+ * three-phase state at the condition into tp; the homogeneous roots of pw_azeotrope_find into
+ * r, its search leaving out the three-phase layers (pw_az_options.skip_x1: no one-liquid
+ * azeotrope lies there, and a strongly non-ideal model may have no one-liquid bubble point
+ * inside them); then the roots whose liquid lies inside the two-liquid region at its own
+ * temperature dropped from r and counted in *n_removed, as pw_azeotrope_heterogeneous does.
+ * tp is cleared first (tp->exists false). *het_failed (may be NULL) is set true when the
+ * failure came from a three-phase or liquid-liquid step (r then holds the homogeneous roots,
+ * unfiltered; over the whole range when the three-phase state failed); a failure of the
+ * homogeneous search leaves r->fail_x1 saying where. */
 pw_status pw_azeotrope_search(const pw_system *s, int mode, double fixed, struct pw_az_result *r,
                               pw_three_phase *tp, size_t *n_removed, bool *het_failed);
+/* The same with the homogeneous search's options (NULL: the defaults; its skip_x1 is replaced
+ * by the three-phase layers when there are any). */
+struct pw_az_options;
+pw_status pw_azeotrope_search_opt(const pw_system *s, int mode, double fixed,
+                                  const struct pw_az_options *opt, struct pw_az_result *r,
+                                  pw_three_phase *tp, size_t *n_removed, bool *het_failed);
 
 /* The points of a scan (pw_azeotrope_scan, done first; call this once after it) against the
  * two-liquid region, and where the heterogeneous azeotrope turns homogeneous or the reverse.

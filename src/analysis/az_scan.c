@@ -2,6 +2,7 @@
  * composition range: the value at which ln alpha12 at a pure end crosses zero, by GSL Brent.
  * See include/pinchwise/azeotrope.h and docs/azeotrope.md (pressure dependence). */
 #include <pinchwise/azeotrope.h>
+#include <pinchwise/lle.h>
 
 #include <math.h>
 #include <stdlib.h>
@@ -138,7 +139,18 @@ pw_status pw_azeotrope_scan(const pw_system *s, pw_az_mode mode, double from, do
     }
     scan->at[n - 1] = to;
     for (size_t k = 0; k < n; k++) {
-        pw_status st = pw_azeotrope_find(s, mode, scan->at[k], &o, &scan->points[k]);
+        /* a model that splits: the three-phase layers at the point are left out of the search,
+         * as pw_azeotrope_search does (no one-liquid azeotrope lies there) */
+        pw_az_options ok = o;
+        pw_three_phase tp;
+        if (pw_model_can_split(s->model) &&
+            (mode == PW_AZ_ISOBARIC ? pw_three_phase_at_P(s, scan->at[k], &tp)
+                                    : pw_three_phase_at_T(s, scan->at[k], &tp)) == PW_OK &&
+            tp.exists) {
+            ok.skip_x1[0] = tp.x[0];
+            ok.skip_x1[1] = tp.x[1];
+        }
+        pw_status st = pw_azeotrope_find(s, mode, scan->at[k], &ok, &scan->points[k]);
         if (st == PW_OK && scan->progress)
             st = scan->progress(scan->progress_ctx, k + 1, n);
         if (st != PW_OK)

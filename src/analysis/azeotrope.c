@@ -24,6 +24,7 @@ pw_az_options pw_azeotrope_default_options(void)
     o.max_iter = 200;
     o.touch_tol = 1e-3;
     o.h_class = 1e-3;
+    o.skip_x1[0] = o.skip_x1[1] = NAN;
     return o;
 }
 
@@ -42,6 +43,9 @@ static pw_status check_options(const pw_az_options *o)
         return PW_EINVAL;
     if (o->max_iter < 1 || !(o->touch_tol >= 0.0) || !(o->h_class > 0.0 && o->h_class < 0.1))
         return PW_EINVAL;
+    if (!isnan(o->skip_x1[0]) || !isnan(o->skip_x1[1])) /* both set, ordered, inside [0, 1] */
+        if (!(o->skip_x1[0] >= 0.0 && o->skip_x1[0] < o->skip_x1[1] && o->skip_x1[1] <= 1.0))
+            return PW_EINVAL;
     return PW_OK;
 }
 
@@ -488,8 +492,11 @@ static pw_status find_touches(az_bb *bb)
         if (m == 0 || p[i].x > p[m - 1].x)
             p[m++] = p[i];
     pw_status st = PW_OK;
+    const double *skip = c->opt.skip_x1;
     for (size_t i = 1; i + 1 < m && st == PW_OK; i++) {
         const double f = p[i].f, h = p[i + 1].x - p[i - 1].x;
+        if (p[i - 1].x <= skip[0] && p[i + 1].x >= skip[1]) /* spans the skipped interval */
+            continue;
         if (sgn(f) == 0 || sgn(p[i - 1].f) != sgn(f) || sgn(p[i + 1].f) != sgn(f) ||
             !(fabs(f) <= fabs(p[i - 1].f) && fabs(f) < fabs(p[i + 1].f)) ||
             fabs(f) - bb->K * h * h / 8.0 - AZ_EPS > c->opt.touch_tol)
@@ -524,15 +531,44 @@ static pw_status find_touches(az_bb *bb)
     return st;
 }
 
+/* The starting table: n points on [x_edge, 1 - x_edge], or, with a skipped interval, on the
+ * parts of it left and right of that interval (each part's ends included, points shared in
+ * proportion to length, at least 4 on a part that has one); *n_left is the number of points
+ * left of the interval (n when none is skipped), so no cell of the table spans it. */
+static size_t table_x(const pw_az_options *o, double *x, size_t *n_left)
+{
+    const size_t n = o->grid;
+    const double lo = o->x_edge, hi = 1.0 - o->x_edge;
+    double a = o->skip_x1[0], b = o->skip_x1[1];
+    if (isnan(a) || b <= lo || a >= hi) { /* nothing skipped inside the range */
+        for (size_t i = 0; i < n; i++)
+            x[i] = i + 1 == n ? hi : lo + (hi - lo) * (double)i / (double)(n - 1);
+        *n_left = n;
+        return n;
+    }
+    const double len_l = a > lo ? a - lo : 0.0, len_r = b < hi ? hi - b : 0.0;
+    size_t nl = len_l > 0.0 ? (size_t)llround((double)n * len_l / (len_l + len_r)) : 0;
+    if (len_l > 0.0 && nl < 4)
+        nl = 4;
+    if (len_r > 0.0 && n - nl < 4)
+        nl = n - 4;
+    size_t nr = len_r > 0.0 ? n - nl : 0;
+    for (size_t i = 0; i < nl; i++)
+        x[i] = i + 1 == nl ? a : lo + len_l * (double)i / (double)(nl - 1);
+    for (size_t i = 0; i < nr; i++)
+        x[nl + i] = i + 1 == nr ? hi : b + len_r * (double)i / (double)(nr - 1);
+    *n_left = nl;
+    return nl + nr;
+}
+
 static pw_status scan_grid(pw_az_ctx *c, pw_az_result *out, double *x, double *f)
 {
-    const size_t n = c->opt.grid;
+    size_t n_left;
+    const size_t n = table_x(&c->opt, x, &n_left);
     const double span = 1.0 - 2.0 * c->opt.x_edge;
     az_bb bb = {.c = c, .out = out, .h_touch = 1e-3 * span};
     pw_status st = PW_OK;
     for (size_t i = 0; i < n && st == PW_OK; i++) {
-        x[i] = i + 1 == n ? 1.0 - c->opt.x_edge
-                          : c->opt.x_edge + span * (double)i / (double)(n - 1);
         pw_eq_point eq;
         st = bb_eval(&bb, x[i], &f[i], &eq);
     }
@@ -540,6 +576,8 @@ static pw_status scan_grid(pw_az_ctx *c, pw_az_result *out, double *x, double *f
         goto done;
     double d2max = 0.0;
     for (size_t i = 1; i + 1 < n; i++) {
+        if (i == n_left || i + 1 == n_left) /* a triple across the skipped interval */
+            continue;
         double s1 = (f[i] - f[i - 1]) / (x[i] - x[i - 1]);
         double s2 = (f[i + 1] - f[i]) / (x[i + 1] - x[i]);
         d2max = fmax(d2max, fabs(2.0 * (s2 - s1) / (x[i + 1] - x[i - 1])));
@@ -554,6 +592,8 @@ static pw_status scan_grid(pw_az_ctx *c, pw_az_result *out, double *x, double *f
             if (f[i] == 0.0)
                 add_root(out, x[i], &bb.nr, bb.roots);
         for (size_t i = 0; i + 1 < n && !bb.restart && st == PW_OK; i++) {
+            if (i + 1 == n_left) /* the skipped interval: not a cell */
+                continue;
             az_cell e = {x[i], x[i + 1], f[i], f[i + 1]};
             st = search_cells(&bb, &e);
         }

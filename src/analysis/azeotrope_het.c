@@ -5,18 +5,16 @@
 
 #include <string.h>
 
-pw_status pw_azeotrope_heterogeneous(const pw_system *s, int mode, double fixed,
-                                     struct pw_az_result *r, pw_three_phase *tp,
-                                     size_t *n_removed)
+static pw_status three_phase_at(const pw_system *s, int mode, double fixed, pw_three_phase *tp)
 {
-    if (!s || !r || !tp || (mode != PW_AZ_ISOBARIC && mode != PW_AZ_ISOTHERMAL))
-        return PW_EINVAL;
-    if (n_removed)
-        *n_removed = 0;
-    pw_status st = mode == PW_AZ_ISOBARIC ? pw_three_phase_at_P(s, fixed, tp)
-                                          : pw_three_phase_at_T(s, fixed, tp);
-    if (st != PW_OK)
-        return st;
+    return mode == PW_AZ_ISOBARIC ? pw_three_phase_at_P(s, fixed, tp)
+                                  : pw_three_phase_at_T(s, fixed, tp);
+}
+
+/* Drops the roots of r whose liquid lies inside the two-liquid region at its own temperature. */
+static pw_status drop_inside(const pw_system *s, struct pw_az_result *r, size_t *n_removed)
+{
+    pw_status st;
     size_t keep = 0;
     for (size_t i = 0; i < r->n; i++) {
         pw_lle_result l;
@@ -40,21 +38,50 @@ pw_status pw_azeotrope_heterogeneous(const pw_system *s, int mode, double fixed,
     return PW_OK;
 }
 
+pw_status pw_azeotrope_heterogeneous(const pw_system *s, int mode, double fixed,
+                                     struct pw_az_result *r, pw_three_phase *tp,
+                                     size_t *n_removed)
+{
+    if (!s || !r || !tp || (mode != PW_AZ_ISOBARIC && mode != PW_AZ_ISOTHERMAL))
+        return PW_EINVAL;
+    if (n_removed)
+        *n_removed = 0;
+    pw_status st = three_phase_at(s, mode, fixed, tp);
+    return st != PW_OK ? st : drop_inside(s, r, n_removed);
+}
+
 pw_status pw_azeotrope_search(const pw_system *s, int mode, double fixed, struct pw_az_result *r,
                               pw_three_phase *tp, size_t *n_removed, bool *het_failed)
+{
+    return pw_azeotrope_search_opt(s, mode, fixed, NULL, r, tp, n_removed, het_failed);
+}
+
+pw_status pw_azeotrope_search_opt(const pw_system *s, int mode, double fixed,
+                                  const struct pw_az_options *opt, struct pw_az_result *r,
+                                  pw_three_phase *tp, size_t *n_removed, bool *het_failed)
 {
     if (het_failed)
         *het_failed = false;
     if (n_removed)
         *n_removed = 0;
-    if (!tp || !r)
+    if (!s || !tp || !r || (mode != PW_AZ_ISOBARIC && mode != PW_AZ_ISOTHERMAL))
         return PW_EINVAL;
     memset(tp, 0, sizeof *tp);
-    pw_status st = pw_azeotrope_find(s, (pw_az_mode)mode, fixed, NULL, r);
+    pw_az_options o = opt ? *opt : pw_azeotrope_default_options();
+    /* the three-phase state first: its layers are left out of the one-liquid search (no
+     * azeotrope can lie there, and a strongly non-ideal model may have no one-liquid bubble
+     * point inside them) */
+    pw_status st_tp = three_phase_at(s, mode, fixed, tp);
+    if (st_tp == PW_OK && tp->exists) {
+        o.skip_x1[0] = tp->x[0];
+        o.skip_x1[1] = tp->x[1];
+    }
+    pw_status st = pw_azeotrope_find(s, (pw_az_mode)mode, fixed, &o, r);
     if (st != PW_OK)
         return st;
-    st = pw_azeotrope_heterogeneous(s, mode, fixed, r, tp, n_removed);
-    if (st != PW_OK && het_failed)
+    if (st_tp == PW_OK)
+        st_tp = drop_inside(s, r, n_removed);
+    if (st_tp != PW_OK && het_failed)
         *het_failed = true;
-    return st;
+    return st_tp;
 }

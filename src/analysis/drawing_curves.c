@@ -36,19 +36,19 @@ static void azeotropes(const pw_system *s, bool isothermal, double fixed, const 
         a->status = PW_OK;
         a->found = *known;
         a->three_phase = *known_tp;
+    } else if (pw_model_can_split(s->model)) { /* the azeotrope command's search */
+        pw_three_phase tp;
+        bool het_failed;
+        a->status = pw_azeotrope_search(s, mode, fixed, &a->found, &tp, NULL, &het_failed);
+        if (a->status == PW_OK)
+            a->three_phase = tp;
+        else if (het_failed) /* the one-liquid roots without the two-liquid region */
+            a->status = PW_OK;
     } else {
         a->status = pw_azeotrope_find(s, mode, fixed, NULL, &a->found);
     }
     if (a->status != PW_OK)
         return;
-    if (!known && pw_model_can_split(s->model)) {
-        pw_az_result res = a->found;
-        pw_three_phase tp;
-        if (pw_azeotrope_heterogeneous(s, mode, fixed, &res, &tp, NULL) == PW_OK) {
-            a->found = res;
-            a->three_phase = tp;
-        }
-    }
     for (size_t i = 0; i < a->found.n && a->n < PW_DRAW_MAX_AZ; i++) {
         const pw_azeotrope *z = &a->found.az[i];
         a->az[a->n++] = (pw_draw_az){z->x1, z->T_K, z->P_Pa, z->kind == PW_AZ_MINIMUM_BOILING,

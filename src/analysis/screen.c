@@ -88,11 +88,19 @@ static pw_status check(const pw_screen_options *o, double P, double xd, double x
 
 /* The overhead component's relative volatility (alpha12, or alpha21 = 1/alpha12 when component 1
  * leaves with the bottoms) from xb to xd on o->grid points. */
-static pw_status alpha_profile(const pw_system *s, pw_screen_result *r, size_t n)
+/* The relative volatility on n points from xb to xd, leaving out the points strictly inside
+ * the three-phase layers tp (when it exists): a liquid there boils as two layers, and its
+ * one-liquid volatility means nothing (a strongly non-ideal model may have no one-liquid bubble
+ * point there at all). */
+static pw_status alpha_profile(const pw_system *s, const pw_three_phase *tp, pw_screen_result *r,
+                               size_t n)
 {
     r->alpha_min = INFINITY;
+    r->alpha_bottom = r->alpha_top = NAN;
     for (size_t i = 0; i < n; i++) {
         double x = r->xb + (r->xd - r->xb) * (double)i / (double)(n - 1), f;
+        if (tp->exists && x > tp->x[0] && x < tp->x[1])
+            continue;
         pw_eq_point eq;
         pw_status st = pw_azeotrope_ln_alpha(s, PW_AZ_ISOBARIC, r->P_Pa, x, &f, &eq);
         if (st != PW_OK)
@@ -103,10 +111,9 @@ static pw_status alpha_profile(const pw_system *s, pw_screen_result *r, size_t n
             r->alpha_min = a;
             r->x_alpha_min = x;
         }
-        if (i == 0)
+        if (isnan(r->alpha_bottom))
             r->alpha_bottom = a;
-        if (i + 1 == n)
-            r->alpha_top = a;
+        r->alpha_top = a;
     }
     r->alpha_mean = sqrt(r->alpha_top * r->alpha_bottom);
     return PW_OK;
@@ -223,9 +230,16 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
         return st;
     init_result(out, P_Pa, xd, xb, zf, &o);
     out->zf_default = zf_default;
-    st = pw_azeotrope_find(s, PW_AZ_ISOBARIC, P_Pa, &o.az, &out->az);
+    /* partly miscible liquids: the search leaves out the three-phase layers and drops the
+     * crossings inside the two-liquid region, which are no azeotropes (pw_azeotrope_search) */
+    pw_three_phase het;
+    memset(&het, 0, sizeof het);
+    const bool can_split = pw_model_can_split(s->model);
+    st = can_split ? pw_azeotrope_search_opt(s, PW_AZ_ISOBARIC, P_Pa, &o.az, &out->az, &het,
+                                             NULL, NULL)
+                   : pw_azeotrope_find(s, PW_AZ_ISOBARIC, P_Pa, &o.az, &out->az);
     if (st == PW_OK)
-        st = alpha_profile(s, out, o.grid);
+        st = alpha_profile(s, &het, out, o.grid);
     if (st != PW_OK)
         return st;
     note_T(out, out->az.T_lo_K, out->az.T_hi_K);
@@ -233,14 +247,8 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
     const double lo = fmin(xb, xd), hi = fmax(xb, xd);
     const bool down = xd < xb; /* component 1 leaves with the bottoms */
     const char *an = down ? "alpha21" : "alpha12";
-    /* partly miscible liquids: crossings inside the two-liquid region are no azeotropes; a
-     * heterogeneous azeotrope between the targets calls for the decanter scheme */
-    pw_three_phase het;
-    memset(&het, 0, sizeof het);
-    if (pw_model_can_split(s->model)) {
-        st = pw_azeotrope_heterogeneous(s, PW_AZ_ISOBARIC, P_Pa, &out->az, &het, NULL);
-        if (st != PW_OK)
-            return st;
+    /* a heterogeneous azeotrope between the targets calls for the decanter scheme */
+    if (can_split) {
         if (het.exists && het.heterogeneous_azeotrope && het.y1 > lo && het.y1 < hi) {
             out->barrier = true;
             out->x_barrier = het.y1;

@@ -201,10 +201,105 @@ static void nrtl_random(void **state)
     assert_true(with_roots >= 10);
 }
 
+/* A skipped interval (pw_az_options.skip_x1, the three-phase layers in pw_azeotrope_search):
+ * random Margules at fixed T as above, a random interval [a, b], some of them with a root just
+ * outside an end (1e-9 .. 1e-3 away) or inside: the search must return exactly the closed-form
+ * roots outside [a, b], each part searched with the same guarantee as the whole range. */
+static void margules_skip_random(void **state)
+{
+    (void)state;
+    gsl_rng *rng = gsl_rng_alloc(gsl_rng_mt19937);
+    gsl_rng_set(rng, 20261203UL);
+    size_t n_kept = 0, n_skipped = 0, n_close = 0;
+    for (int t = 0; t < 600; t++) {
+        double A12 = -3.0 + 6.0 * gsl_rng_uniform(rng);
+        double A21 = -3.0 + 6.0 * gsl_rng_uniform(rng);
+        double lnr = -1.5 + 3.0 * gsl_rng_uniform(rng);
+        double c[3];
+        margules_coef(A12, A21, lnr, c);
+        double x0, x1;
+        int nq = gsl_poly_solve_quadratic(c[2], c[1], c[0], &x0, &x1);
+        double xs[2] = {x0, x1};
+        double a = 0.9 * gsl_rng_uniform(rng), b = a + (0.999 - a) * gsl_rng_uniform(rng);
+        if (t % 3 == 1 && nq > 0 && xs[0] > 0.01 && xs[0] < 0.99) { /* an end beside a root */
+            double d = pow(10.0, -9.0 + 6.0 * gsl_rng_uniform(rng));
+            if (gsl_rng_uniform(rng) < 0.5) {
+                a = xs[0] + d; /* the root just left of the interval */
+                b = fmin(a + 0.5, 0.999);
+            } else {
+                b = xs[0] - d; /* just right of it */
+                a = fmax(b - 0.5, 0.001);
+            }
+            n_close++;
+        }
+        if (!(a < b))
+            continue;
+        pw_system s = const_psat(&pw_model_margules, 100.0 * exp(lnr), 100.0);
+        s.params[0] = A12;
+        s.params[1] = A21;
+        pw_az_options o = pw_azeotrope_default_options();
+        o.skip_x1[0] = a;
+        o.skip_x1[1] = b;
+        pw_az_result r;
+        assert_int_equal(pw_azeotrope_find(&s, PW_AZ_ISOTHERMAL, 350.0, &o, &r), PW_OK);
+        size_t want = 0;
+        double expect[2];
+        for (int k = 0; k < nq; k++) {
+            if (!(xs[k] > X_EDGE + 1e-7 && xs[k] < 1.0 - X_EDGE - 1e-7) ||
+                (want > 0 && xs[k] == expect[0]))
+                continue;
+            if (xs[k] > a && xs[k] < b) {
+                n_skipped++;
+                continue;
+            }
+            expect[want++] = xs[k];
+        }
+        if (r.n != want)
+            fail_msg("draw %d: A12 %.17g A21 %.17g ln r %.17g, skip [%.17g, %.17g]: %zu roots, "
+                     "closed form %zu", t, A12, A21, lnr, a, b, r.n, want);
+        for (size_t k = 0; k < want; k++) {
+            double slope = fabs(c[1] + 2.0 * c[2] * expect[k]);
+            pw_assert_close(r.az[k].x1, expect[k], 1e-10 + 1e-13 / slope, 0.0, "root");
+            assert_false(r.az[k].x1 > a && r.az[k].x1 < b);
+        }
+        n_kept += want;
+    }
+    gsl_rng_free(rng);
+    assert_true(n_kept > 150);
+    assert_true(n_skipped > 50);
+    assert_true(n_close > 100);
+}
+
+/* Bad skip intervals are refused. */
+static void skip_options_checked(void **state)
+{
+    (void)state;
+    pw_system s = const_psat(&pw_model_margules, 100.0, 100.0);
+    s.params[0] = s.params[1] = 1.0;
+    const double bad[][2] = {{0.5, 0.4}, {0.3, 0.3}, {-0.1, 0.5}, {0.5, 1.1}, {NAN, 0.5}};
+    for (size_t i = 0; i < sizeof bad / sizeof bad[0]; i++) {
+        pw_az_options o = pw_azeotrope_default_options();
+        o.skip_x1[0] = bad[i][0];
+        o.skip_x1[1] = bad[i][1];
+        pw_az_result r;
+        assert_int_equal(pw_azeotrope_find(&s, PW_AZ_ISOTHERMAL, 350.0, &o, &r), PW_EINVAL);
+    }
+    /* the whole range skipped: nothing searched, no root, the ends still evaluated */
+    pw_az_options o = pw_azeotrope_default_options();
+    o.skip_x1[0] = 0.0;
+    o.skip_x1[1] = 1.0;
+    pw_az_result r;
+    assert_int_equal(pw_azeotrope_find(&s, PW_AZ_ISOTHERMAL, 350.0, &o, &r), PW_OK);
+    assert_int_equal(r.n, 0);
+    assert_true(isfinite(r.ln_alpha_end[0]) && isfinite(r.ln_alpha_end[1]));
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(margules_random),
+        cmocka_unit_test(margules_skip_random),
+        cmocka_unit_test(skip_options_checked),
         cmocka_unit_test(nrtl_random),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
