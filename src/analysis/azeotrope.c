@@ -223,6 +223,11 @@ static pw_status classify(pw_az_ctx *c, double x, pw_azeotrope *az)
         az->Psat_Pa[i] = eq.Psat_Pa[i];
     }
     double h = fmin(c->opt.h_class, 0.5 * fmin(x, 1.0 - x));
+    /* nor into a skipped interval (its bubble points may not exist) */
+    const double *skip = c->opt.skip_x1;
+    const double d_skip = x <= skip[0] ? skip[0] - x : x >= skip[1] ? x - skip[1] : (double)NAN;
+    if (d_skip > 0.0)
+        h = fmin(h, 0.5 * d_skip);
     double vm, vp, fm, fp;
     st = bubble_value(c, x - h, &vm, &fm);
     if (st == PW_OK)

@@ -210,7 +210,7 @@ static void margules_skip_random(void **state)
     (void)state;
     gsl_rng *rng = gsl_rng_alloc(gsl_rng_mt19937);
     gsl_rng_set(rng, 20261203UL);
-    size_t n_kept = 0, n_skipped = 0, n_close = 0;
+    size_t n_kept = 0, n_skipped = 0, n_close = 0, n_kind = 0;
     for (int t = 0; t < 600; t++) {
         double A12 = -3.0 + 6.0 * gsl_rng_uniform(rng);
         double A21 = -3.0 + 6.0 * gsl_rng_uniform(rng);
@@ -261,6 +261,25 @@ static void margules_skip_random(void **state)
             double slope = fabs(c[1] + 2.0 * c[2] * expect[k]);
             pw_assert_close(r.az[k].x1, expect[k], 1e-10 + 1e-13 / slope, 0.0, "root");
             assert_false(r.az[k].x1 > a && r.az[k].x1 < b);
+            /* the kind, from the sign of d ln alpha12/dx1 (Gibbs-Konovalov), also where the
+             * classification's probes had to stay short of the interval, */
+            double d_skip = fmin(fabs(expect[k] - a), fabs(expect[k] - b));
+            /* only for a stable liquid: inside the spinodal d ln a1/dx1 < 0 reverses the rule.
+             * Stability of one liquid: 1/(x1 x2) + d2(G^E/RT)/dx1^2 > 0, with
+             * G^E/RT = x1 x2 (A12 + (A21 - A12) x1) for this Margules form. */
+            const double xk = expect[k], Bm = A21 - A12;
+            const double stab = 1.0 / (xk * (1.0 - xk)) + 2.0 * Bm - 2.0 * A12 - 6.0 * Bm * xk;
+            if (d_skip > 1e-6 && slope > 1e-3 && stab > 0.1) {
+                pw_az_kind want_kind = c[1] + 2.0 * c[2] * expect[k] < 0.0
+                                           ? PW_AZ_MINIMUM_BOILING
+                                           : PW_AZ_MAXIMUM_BOILING;
+                if (r.az[k].kind != want_kind)
+                    fail_msg("draw %d: root %.17g (skip [%.17g, %.17g], d %.3g): kind %d, want %d "
+                             "(slope %g, tangential %d)", t, expect[k], a, b, d_skip,
+                             (int)r.az[k].kind, (int)want_kind, c[1] + 2.0 * c[2] * expect[k],
+                             (int)r.az[k].tangential);
+                n_kind += d_skip < 1e-3;
+            }
         }
         n_kept += want;
     }
@@ -268,6 +287,7 @@ static void margules_skip_random(void **state)
     assert_true(n_kept > 150);
     assert_true(n_skipped > 50);
     assert_true(n_close > 100);
+    assert_true(n_kind > 20); /* kinds checked on roots within 1e-3 of the interval */
 }
 
 /* Bad skip intervals are refused. */
