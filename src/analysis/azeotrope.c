@@ -222,21 +222,31 @@ static pw_status classify(pw_az_ctx *c, double x, pw_azeotrope *az)
         az->gamma[i] = eq.gamma[i];
         az->Psat_Pa[i] = eq.Psat_Pa[i];
     }
-    double h = fmin(c->opt.h_class, 0.5 * fmin(x, 1.0 - x));
-    /* nor into a skipped interval (its bubble points may not exist) */
+    /* Central probes x -/+ h; beside a skipped interval (whose bubble points may not exist)
+     * that a probe would reach, one-sided probes x + s h, x + 2 s h away from it (s = -1 when the
+     * interval lies to the right): the slope by the one-sided second-order formula, the
+     * curvature by the second difference of the three values. */
     const double *skip = c->opt.skip_x1;
-    const double d_skip = x <= skip[0] ? skip[0] - x : x >= skip[1] ? x - skip[1] : (double)NAN;
-    if (d_skip > 0.0)
-        h = fmin(h, 0.5 * d_skip);
-    double vm, vp, fm, fp;
-    st = bubble_value(c, x - h, &vm, &fm);
+    const int s = x <= skip[0] ? -1 : x >= skip[1] ? 1 : 0; /* 0: no interval (NAN) */
+    const double d_skip = s < 0 ? skip[0] - x : s > 0 ? x - skip[1] : (double)INFINITY;
+    double h = fmin(c->opt.h_class, 0.5 * fmin(x, 1.0 - x));
+    const bool one_sided = s != 0 && d_skip < h;
+    if (one_sided)
+        h = fmin(c->opt.h_class, 0.25 * (s < 0 ? x : 1.0 - x));
+    double v0 = c->mode == PW_AZ_ISOBARIC ? eq.T_K : eq.P_Pa;
+    double v1, v2, f1, f2;
+    st = bubble_value(c, one_sided ? x + s * h : x - h, &v1, &f1);
     if (st == PW_OK)
-        st = bubble_value(c, x + h, &vp, &fp);
+        st = bubble_value(c, one_sided ? x + 2.0 * s * h : x + h, &v2, &f2);
     if (st != PW_OK)
         return st;
-    double v0 = c->mode == PW_AZ_ISOBARIC ? eq.T_K : eq.P_Pa;
-    az->slope = (fp - fm) / (2.0 * h);
-    az->curvature = vm + vp - 2.0 * v0;
+    if (one_sided) {
+        az->slope = s * (-3.0 * f0 + 4.0 * f1 - f2) / (2.0 * h);
+        az->curvature = v0 + v2 - 2.0 * v1;
+    } else {
+        az->slope = (f2 - f1) / (2.0 * h);
+        az->curvature = v1 + v2 - 2.0 * v0;
+    }
     /* Gibbs-Konovalov: y1 > x1 where the bubble T falls (P rises) with x1, so ln alpha12
      * falling through zero marks a T minimum / P maximum: minimum-boiling. */
     pw_az_kind by_slope = az->slope < 0.0 ? PW_AZ_MINIMUM_BOILING : PW_AZ_MAXIMUM_BOILING;
@@ -287,6 +297,7 @@ void pw_az_result_clear(pw_az_result *out, pw_az_mode mode, double fixed)
 #define AZ_EPS 1e-11       /* absolute precision assumed of an f value (bubble T to ~1e-13 K) */
 #define AZ_MIN_WIDTH 1e-13 /* cells narrower than this are not halved */
 #define AZ_MAX_RESTARTS 8
+#define AZ_SLIVER 1e-7     /* a table part shorter than this share of the range: one cell */
 #define AZ_STACK 512
 
 typedef struct az_cell {
@@ -539,7 +550,9 @@ static pw_status find_touches(az_bb *bb)
 /* The starting table: n points on [x_edge, 1 - x_edge], or, with a skipped interval, on the
  * parts of it left and right of that interval (each part's ends included, points shared in
  * proportion to length, at least 4 on a part that has one); *n_left is the number of points
- * left of the interval (n when none is skipped), so no cell of the table spans it. */
+ * left of the interval (n when none is skipped), so no cell of the table spans it. A part
+ * shorter than AZ_SLIVER of the range is one cell, its two ends (a table packed into a sliver
+ * would turn rounding noise into a huge curvature bound). */
 static size_t table_x(const pw_az_options *o, double *x, size_t *n_left)
 {
     const size_t n = o->grid;
@@ -552,12 +565,22 @@ static size_t table_x(const pw_az_options *o, double *x, size_t *n_left)
         return n;
     }
     const double len_l = a > lo ? a - lo : 0.0, len_r = b < hi ? hi - b : 0.0;
-    size_t nl = len_l > 0.0 ? (size_t)llround((double)n * len_l / (len_l + len_r)) : 0;
-    if (len_l > 0.0 && nl < 4)
-        nl = 4;
-    if (len_r > 0.0 && n - nl < 4)
-        nl = n - 4;
-    size_t nr = len_r > 0.0 ? n - nl : 0;
+    const double sliver = AZ_SLIVER * (hi - lo);
+    size_t nl, nr;
+    if (len_l > 0.0 && len_l < sliver) {
+        nl = 2;
+        nr = len_r > 0.0 ? (len_r < sliver ? 2 : n - 2) : 0;
+    } else if (len_r > 0.0 && len_r < sliver) {
+        nr = 2;
+        nl = len_l > 0.0 ? n - 2 : 0;
+    } else {
+        nl = len_l > 0.0 ? (size_t)llround((double)n * len_l / (len_l + len_r)) : 0;
+        if (len_l > 0.0 && nl < 4)
+            nl = 4;
+        if (len_r > 0.0 && n - nl < 4)
+            nl = n - 4;
+        nr = len_r > 0.0 ? n - nl : 0;
+    }
     for (size_t i = 0; i < nl; i++)
         x[i] = i + 1 == nl ? a : lo + len_l * (double)i / (double)(nl - 1);
     for (size_t i = 0; i < nr; i++)

@@ -11,30 +11,31 @@ static pw_status three_phase_at(const pw_system *s, int mode, double fixed, pw_t
                                   : pw_three_phase_at_T(s, fixed, tp);
 }
 
-/* Drops the roots of r whose liquid lies inside the two-liquid region at its own temperature. */
+/* Drops the roots of r whose liquid lies inside the two-liquid region at its own temperature.
+ * All or nothing: on a failure r and *n_removed are left as they were. */
 static pw_status drop_inside(const pw_system *s, struct pw_az_result *r, size_t *n_removed)
 {
-    pw_status st;
-    size_t keep = 0;
+    bool drop[PW_AZ_MAX] = {false};
+    size_t n_drop = 0;
     for (size_t i = 0; i < r->n; i++) {
         pw_lle_result l;
-        st = pw_lle_solve(s, r->az[i].T_K, &l);
+        pw_status st = pw_lle_solve(s, r->az[i].T_K, &l);
         if (st != PW_OK)
             return st;
         bool inside = false;
         for (size_t p = 0; l.split && p < l.n_pairs; p++)
             if (r->az[i].x1 > l.pairs[p][0] && r->az[i].x1 < l.pairs[p][1])
                 inside = true;
-        if (inside) {
-            if (n_removed)
-                (*n_removed)++;
-            continue;
-        }
-        if (keep != i)
-            r->az[keep] = r->az[i];
-        keep++;
+        drop[i] = inside;
+        n_drop += inside;
     }
+    size_t keep = 0;
+    for (size_t i = 0; i < r->n; i++)
+        if (!drop[i])
+            r->az[keep++] = r->az[i];
     r->n = keep;
+    if (n_removed)
+        *n_removed += n_drop;
     return PW_OK;
 }
 

@@ -44,6 +44,9 @@ for d, used in ((c, True), (e, False)):
     assert abs(o["latent_heat_mismatch"] - (40.66 - 29.10) / 29.10) < 1e-12, o
     assert o["limit"] == 0.1 and o["doubtful"] is used and o["basis"] == "common practice", o
 PY
+grep -q "heats of vaporization" warn.txt || fail "no latent-heat warning without --energy"
+"$pw" reflux demo.json --pressure 1atm --xd 0.95 --xb 0.02 --zf 0.10 --components heat.csv --energy 2>warn2.txt >/dev/null || fail "text"
+grep -q "heats of vaporization" warn2.txt && fail "latent-heat warning with --energy"
 # No heat data: refused, naming the component and the column.
 cat > noheat.csv <<'CSV'
 name,A,B,C,log,P_unit,T_unit,T_min,T_max,source,equation

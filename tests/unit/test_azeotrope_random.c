@@ -210,7 +210,7 @@ static void margules_skip_random(void **state)
     (void)state;
     gsl_rng *rng = gsl_rng_alloc(gsl_rng_mt19937);
     gsl_rng_set(rng, 20261203UL);
-    size_t n_kept = 0, n_skipped = 0, n_close = 0, n_kind = 0;
+    size_t n_kept = 0, n_skipped = 0, n_close = 0, n_kind = 0, n_kind_close = 0;
     for (int t = 0; t < 600; t++) {
         double A12 = -3.0 + 6.0 * gsl_rng_uniform(rng);
         double A21 = -3.0 + 6.0 * gsl_rng_uniform(rng);
@@ -269,16 +269,22 @@ static void margules_skip_random(void **state)
              * G^E/RT = x1 x2 (A12 + (A21 - A12) x1) for this Margules form. */
             const double xk = expect[k], Bm = A21 - A12;
             const double stab = 1.0 / (xk * (1.0 - xk)) + 2.0 * Bm - 2.0 * A12 - 6.0 * Bm * xk;
-            if (d_skip > 1e-6 && slope > 1e-3 && stab > 0.1) {
+            if (slope > 1e-3 && stab > 0.1) {
                 pw_az_kind want_kind = c[1] + 2.0 * c[2] * expect[k] < 0.0
                                            ? PW_AZ_MINIMUM_BOILING
                                            : PW_AZ_MAXIMUM_BOILING;
+                /* a simple root, not a double one, however close the interval */
+                if (r.az[k].tangential)
+                    fail_msg("draw %d: simple root %.17g flagged tangential (skip [%.17g, "
+                             "%.17g], d %.3g, slope %g)", t, expect[k], a, b, d_skip,
+                             c[1] + 2.0 * c[2] * expect[k]);
                 if (r.az[k].kind != want_kind)
                     fail_msg("draw %d: root %.17g (skip [%.17g, %.17g], d %.3g): kind %d, want %d "
                              "(slope %g, tangential %d)", t, expect[k], a, b, d_skip,
                              (int)r.az[k].kind, (int)want_kind, c[1] + 2.0 * c[2] * expect[k],
                              (int)r.az[k].tangential);
                 n_kind += d_skip < 1e-3;
+                n_kind_close += d_skip < 1e-6;
             }
         }
         n_kept += want;
@@ -288,6 +294,41 @@ static void margules_skip_random(void **state)
     assert_true(n_skipped > 50);
     assert_true(n_close > 100);
     assert_true(n_kind > 20); /* kinds checked on roots within 1e-3 of the interval */
+    assert_true(n_kind_close > 5); /* ... and within 1e-6 */
+}
+
+/* A part of the table squeezed beside the interval (layers down to 1e-12 are accepted): the
+ * search stays cheap and exact, the sliver part being one cell. */
+static void sliver_part(void **state)
+{
+    (void)state;
+    pw_system s = const_psat(&pw_model_margules, 100.0 * exp(0.4), 100.0);
+    s.params[0] = 1.2; /* ln alpha12 = 1.6 - 1.2 x - 1.8 x^2: one root in (0, 1), 0.667 */
+    s.params[1] = 1.8;
+    double c[3];
+    margules_coef(1.2, 1.8, 0.4, c);
+    double x0, x1;
+    assert_int_equal(gsl_poly_solve_quadratic(c[2], c[1], c[0], &x0, &x1), 2);
+    const double root = x0 > 0.0 && x0 < 1.0 ? x0 : x1;
+    for (int e = 9; e <= 15; e++) {
+        for (int side = 0; side < 2; side++) {
+            pw_az_options o = pw_azeotrope_default_options();
+            double d = pow(10.0, -e);
+            if (side == 0) { /* a sliver left of the interval */
+                o.skip_x1[0] = X_EDGE + d;
+                o.skip_x1[1] = 0.05;
+            } else { /* and right of it */
+                o.skip_x1[0] = 0.95;
+                o.skip_x1[1] = 1.0 - X_EDGE - d;
+            }
+            pw_az_result r;
+            assert_int_equal(pw_azeotrope_find(&s, PW_AZ_ISOTHERMAL, 350.0, &o, &r), PW_OK);
+            assert_int_equal(r.n, 1);
+            pw_assert_close(r.az[0].x1, root, 1e-10, 0.0, "root beside a sliver");
+            if (r.n_evals > 400)
+                fail_msg("sliver 1e-%d on side %d: %zu evaluations", e, side, r.n_evals);
+        }
+    }
 }
 
 /* Bad skip intervals are refused. */
@@ -320,6 +361,7 @@ int main(void)
         cmocka_unit_test(margules_random),
         cmocka_unit_test(margules_skip_random),
         cmocka_unit_test(skip_options_checked),
+        cmocka_unit_test(sliver_part),
         cmocka_unit_test(nrtl_random),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
