@@ -78,8 +78,12 @@ typedef struct pw_screen_result {
     double xd, xb, zf, P_Pa;       /* zf: as given, or the default used */
     bool zf_default;
     double alpha_min, x_alpha_min; /* lowest alpha (overhead component to the other) between
-                                    * the products, and its x1 */
-    double alpha_top, alpha_bottom, alpha_mean; /* at xd, at xb, geometric mean */
+                                    * the products, and its x1, over the profile's points
+                                    * outside the three-phase layers (NAN when none is) */
+    double alpha_top, alpha_bottom, alpha_mean; /* at xd, at xb, geometric mean; NAN where that
+                                    * product lies inside the three-phase layers (two liquids:
+                                    * no one-liquid volatility) */
+    size_t alpha_points_in_layers; /* profile points left out as inside those layers */
     pw_az_result az;               /* azeotropes at P */
     pw_three_phase het;            /* the three-phase state at P (exists false when none or
                                     * the model cannot split); a heterogeneous azeotrope when

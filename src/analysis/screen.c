@@ -96,11 +96,14 @@ static pw_status alpha_profile(const pw_system *s, const pw_three_phase *tp, pw_
                                size_t n)
 {
     r->alpha_min = INFINITY;
-    r->alpha_bottom = r->alpha_top = NAN;
+    r->x_alpha_min = r->alpha_bottom = r->alpha_top = NAN;
+    r->alpha_points_in_layers = 0;
     for (size_t i = 0; i < n; i++) {
         double x = r->xb + (r->xd - r->xb) * (double)i / (double)(n - 1), f;
-        if (tp->exists && x > tp->x[0] && x < tp->x[1])
+        if (tp->exists && x > tp->x[0] && x < tp->x[1]) {
+            r->alpha_points_in_layers++;
             continue;
+        }
         pw_eq_point eq;
         pw_status st = pw_azeotrope_ln_alpha(s, PW_AZ_ISOBARIC, r->P_Pa, x, &f, &eq);
         if (st != PW_OK)
@@ -111,11 +114,14 @@ static pw_status alpha_profile(const pw_system *s, const pw_three_phase *tp, pw_
             r->alpha_min = a;
             r->x_alpha_min = x;
         }
-        if (isnan(r->alpha_bottom))
+        if (i == 0)
             r->alpha_bottom = a;
-        r->alpha_top = a;
+        if (i + 1 == n)
+            r->alpha_top = a;
     }
-    r->alpha_mean = sqrt(r->alpha_top * r->alpha_bottom);
+    if (isinf(r->alpha_min)) /* every point inside the layers */
+        r->alpha_min = NAN;
+    r->alpha_mean = sqrt(r->alpha_top * r->alpha_bottom); /* NAN when either end is */
     return PW_OK;
 }
 

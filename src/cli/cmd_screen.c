@@ -159,8 +159,18 @@ static void print_text(const pw_fit_result *fit, const pw_screen_result *r,
     printf("  verdict: %s\n", pw_verdict_name(r->verdict));
     for (size_t i = 0; i < r->n_reasons; i++)
         printf("   - %s\n", pw_units_display_text(u, r->reasons[i].text, b, sizeof b));
-    printf("  relative volatility: lowest %.4f at x1 = %.4f; %.4f at xd, %.4f at xb\n",
-           r->alpha_min, r->x_alpha_min, r->alpha_top, r->alpha_bottom);
+    if (isnan(r->alpha_min))
+        printf("  relative volatility: not computed: every point between the targets lies inside "
+               "the liquid layers\n");
+    else
+        printf("  relative volatility: lowest %.4f at x1 = %.4f; %.4f at xd, %.4f at xb\n",
+               r->alpha_min, r->x_alpha_min, r->alpha_top, r->alpha_bottom);
+    if (r->alpha_points_in_layers)
+        printf("  (%zu profile points inside the liquid layers left out%s)\n",
+               r->alpha_points_in_layers,
+               isnan(r->alpha_top) || isnan(r->alpha_bottom)
+                   ? "; nan: that product is two liquids, with no one-liquid volatility"
+                   : "");
     if (r->column_ran && r->column.feasible)
         printf("  rough minimum reflux (q = 1): %.4g (%s pinch); stages at total reflux %.3g\n",
                r->column.r_min, r->column.pinch.kind == PW_PINCH_FEED ? "feed" : "tangent",

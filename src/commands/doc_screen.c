@@ -29,6 +29,8 @@ json_t *pw_screen_doc(const pw_system *sys, const pw_screen_result *r, const pw_
     json_object_set_new(j, "x_alpha_min", pw_json_num(r->x_alpha_min));
     json_object_set_new(j, "alpha_top", pw_json_num(r->alpha_top));
     json_object_set_new(j, "alpha_bottom", pw_json_num(r->alpha_bottom));
+    json_object_set_new(j, "alpha_points_in_layers",
+                        json_integer((json_int_t)r->alpha_points_in_layers));
     json_object_set_new(j, "azeotropes", pw_azeotrope_list_json(&r->az, &r->het));
     json_object_set_new(j, "barrier_x1", pw_json_num(r->x_barrier));
     json_object_set_new(

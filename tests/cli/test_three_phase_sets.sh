@@ -80,6 +80,13 @@ for sys_, (n3, T3, y3, dT, dy) in cases.items():
     assert r["feasible"] is False and "decanter" in r["reason"], r["reason"]
     s = J(sys_ + ".screen.json")
     assert s["verdict"] == "infeasible" and any("decanter" in x["text"] for x in s["reasons"]), s["reasons"]
+    # the volatility profile leaves out the points inside the layers: none of its values may
+    # come from there (null where a product itself is two liquids)
+    lo3, hi3 = J(sys_ + ".az.json")["three_phase"]["x1_liquids"]
+    assert s["alpha_points_in_layers"] > 0, s
+    for key, x in (("alpha_top", s["xd"]), ("alpha_bottom", s["xb"])):
+        assert (s[key] is None) == (lo3 < x < hi3), (key, x, s[key], lo3, hi3)
+    assert s["x_alpha_min"] is None or not (lo3 < s["x_alpha_min"] < hi3), s
     d = J(sys_ + ".dec.json")
     assert d["feasible"] and abs(d["balance_closure"]) < 1e-12, d
     B = d["bottoms_per_mol_feed"]
