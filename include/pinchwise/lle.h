@@ -168,6 +168,9 @@ pw_status pw_azeotrope_heterogeneous(const pw_system *s, int mode, double fixed,
  * azeotrope lies there, and a strongly non-ideal model may have no one-liquid bubble point
  * inside them); then the roots whose liquid lies inside the two-liquid region at its own
  * temperature dropped from r and counted in *n_removed, as pw_azeotrope_heterogeneous does.
+ * A one-liquid root inside the three-phase layers is never seen, even where its own
+ * temperature lies beyond a critical solution point (a gap closing with T): a liquid there
+ * boils as two layers at the three-phase condition first.
  * tp is cleared first (tp->exists false). *het_failed (may be NULL) is set true when the
  * failure came from a three-phase or liquid-liquid step (r then holds the homogeneous roots,
  * unfiltered; over the whole range when the three-phase state failed); a failure of the

@@ -413,9 +413,9 @@ static void consistency_section(pw_sbuf *b, const pw_report_curves *c)
     pw_sbuf_puts(b, "</table>\n");
     if (isfinite(k->gap_bridge))
         pw_sbuf_printf(b, "<p class=\"note\" id=\"gap-bridge\">The area test bridges the "
-                          "two-liquid gap between x<sub>1</sub> = %.4g and %.4g exactly, by the "
-                          "step of G<sup>E</sup>/RT there (%.4g); each liquid branch is smoothed "
-                          "on its own (docs/consistency.md).</p>\n",
+                          "two-liquid gap between x<sub>1</sub> = %.4g and %.4g by the step of "
+                          "G<sup>E</sup>/RT there (%.4g; exact at constant temperature); each "
+                          "liquid branch is smoothed on its own (docs/consistency.md).</p>\n",
                        k->gap_bridge_x1[0], k->gap_bridge_x1[1], k->gap_bridge);
     if (k->n_reasons) {
         pw_sbuf_puts(b, "<ul>\n");
@@ -627,8 +627,6 @@ static void energy_section(pw_sbuf *b, const pw_report_curves *c)
                     "per local codes under licensed review.</p>\n");
 }
 
-/* The decanter scheme (pinchwise/decanter.h) drawn when a heterogeneous azeotrope blocks the
- * single column. */
 /* A note when constant molal overflow is doubtful for these components (pw_cmo_doubtful);
  * remedy says what the reader can do instead. */
 static void cmo_note(pw_sbuf *b, const pw_report_curves *c, const char *remedy)
@@ -647,6 +645,8 @@ static void cmo_note(pw_sbuf *b, const pw_report_curves *c, const char *remedy)
     pw_sbuf_puts(b, "</p>\n");
 }
 
+/* The decanter scheme (pinchwise/decanter.h) drawn when a heterogeneous azeotrope blocks the
+ * single column. */
 static void decanter_section(pw_sbuf *b, const pw_report_curves *c)
 {
     const pw_draw_decanter *d = &c->dc.decanter;

@@ -91,8 +91,22 @@ static void bubble(const gapset *g, double x1, double *P, double *y1)
     *y1 = p1 / *P;
 }
 
-/* n_lo points on (0, x_I), n_hi on (x_II, 1), n_gap three-phase points inside, pure rows. */
+/* The bubble temperature of x1 at P (isobaric data), by bisection to 1e-12 K. */
+static double bubble_T(const gapset *g, double x1, double P, double *y1);
+
+/* n_lo points on (0, x_I), n_hi on (x_II, 1), n_gap three-phase points inside, pure rows;
+ * isothermal at T_K, or isobaric at 101.325 kPa. ln gamma does not depend on T (H^E = 0), so
+ * the isobaric data obey the constant-T identity exactly too. */
+static void make_kind(gapset *g, const layers *l, size_t n_lo, size_t n_hi, size_t n_gap,
+                      bool isobaric);
+
 static void make(gapset *g, const layers *l, size_t n_lo, size_t n_hi, size_t n_gap)
+{
+    make_kind(g, l, n_lo, n_hi, n_gap, false);
+}
+
+static void make_kind(gapset *g, const layers *l, size_t n_lo, size_t n_hi, size_t n_gap,
+                      bool isobaric)
 {
     memset(g, 0, sizeof *g);
     g->c[0] = pw_test_svna("1-propanol");
@@ -102,10 +116,10 @@ static void make(gapset *g, const layers *l, size_t n_lo, size_t n_hi, size_t n_
     snprintf(ds->path, sizeof ds->path, "invented-gap.csv");
     snprintf(ds->names[0], PW_NAME_MAX, "1-propanol");
     snprintf(ds->names[1], PW_NAME_MAX, "water");
-    ds->kind = PW_DATA_ISOTHERMAL;
+    ds->kind = isobaric ? PW_DATA_ISOBARIC : PW_DATA_ISOTHERMAL;
     ds->has_y = true;
-    ds->T_fixed_K = T_K;
-    ds->P_fixed_Pa = NAN;
+    ds->T_fixed_K = isobaric ? NAN : T_K;
+    ds->P_fixed_Pa = isobaric ? 101325.0 : NAN;
     ds->sigma_T_K = 0.1;
     ds->sigma_P_rel = 1e-4; /* noise-free data: the detection's floors (0.01 %, 0.002) */
     ds->sigma_P_abs_Pa = NAN;
@@ -115,31 +129,66 @@ static void make(gapset *g, const layers *l, size_t n_lo, size_t n_hi, size_t n_
     ds->pts = calloc(ds->n, sizeof *ds->pts);
     assert_non_null(ds->pts);
     size_t k = 0;
-    double P, y;
-    bubble(g, 0.0, &P, &y);
-    ds->pts[k++] = (pw_point){0.0, 0.0, T_K, P, 6};
+    /* one row: isothermal (T_K, bubble P) or isobaric (bubble T, 101.325 kPa) */
+#define ROW(xv, line)                                                                          \
+    do {                                                                                       \
+        double P_, y_, T_ = T_K;                                                               \
+        if (isobaric) {                                                                        \
+            T_ = bubble_T(g, (xv), 101325.0, &y_);                                             \
+            P_ = 101325.0;                                                                     \
+        } else {                                                                               \
+            bubble(g, (xv), &P_, &y_);                                                         \
+        }                                                                                      \
+        ds->pts[k++] = (pw_point){(xv), (xv) == 0.0 || (xv) == 1.0 ? (xv) : y_, T_, P_, (line)}; \
+    } while (0)
+    ROW(0.0, 6);
     for (size_t i = 0; i < n_lo; i++) { /* up to 0.9 x_I, geometric: dilute points as measured */
-        double x = l->x_I * 0.9 * pow(0.05, (double)(n_lo - 1 - i) / (double)(n_lo - 1));
-        bubble(g, x, &P, &y);
-        ds->pts[k++] = (pw_point){x, y, T_K, P, (long)k + 6};
+        double f = n_lo > 1 ? (double)(n_lo - 1 - i) / (double)(n_lo - 1) : 0.5;
+        double x = l->x_I * 0.9 * pow(0.05, f);
+        ROW(x, (long)k + 7);
         g->x_a = x;
     }
-    double P3, y3;
-    bubble(g, l->x_I, &P3, &y3);
+    /* the three-phase state: both layers boil at it with one vapor */
+    double P3 = 101325.0, y3, T3 = T_K;
+    if (isobaric)
+        T3 = bubble_T(g, l->x_I, 101325.0, &y3);
+    else
+        bubble(g, l->x_I, &P3, &y3);
     for (size_t i = 0; i < n_gap; i++) {
         double x = l->x_I + (l->x_II - l->x_I) * (double)(i + 1) / (double)(n_gap + 1);
-        ds->pts[k++] = (pw_point){x, y3, T_K, P3, (long)k + 6};
+        ds->pts[k++] = (pw_point){x, y3, T3, P3, (long)k + 7};
     }
     for (size_t i = 0; i < n_hi; i++) {
-        double x = l->x_II + (0.98 - l->x_II) * (0.1 + 0.9 * (double)i / (double)(n_hi - 1));
-        bubble(g, x, &P, &y);
-        ds->pts[k++] = (pw_point){x, y, T_K, P, (long)k + 6};
+        double f = n_hi > 1 ? (double)i / (double)(n_hi - 1) : 0.5;
+        double x = l->x_II + (0.98 - l->x_II) * (0.1 + 0.9 * f);
+        ROW(x, (long)k + 7);
         if (i == 0)
             g->x_b = x;
     }
-    bubble(g, 1.0, &P, &y);
-    ds->pts[k++] = (pw_point){1.0, 1.0, T_K, P, (long)k + 6};
+    ROW(1.0, (long)k + 7);
+#undef ROW
     assert_int_equal(k, ds->n);
+}
+
+static double bubble_T(const gapset *g, double x1, double P, double *y1)
+{
+    double lg[2];
+    nrtl(g->tau, x1, lg);
+    double lo = 250.0, hi = 450.0, Ps[2];
+    for (int it = 0; it < 200 && hi - lo > 1e-12; it++) {
+        double mid = 0.5 * (lo + hi);
+        for (int c = 0; c < 2; c++)
+            assert_int_equal(pw_psat(&g->c[c], mid, &Ps[c], NULL), PW_OK);
+        if (x1 * exp(lg[0]) * Ps[0] + (1.0 - x1) * exp(lg[1]) * Ps[1] > P)
+            hi = mid;
+        else
+            lo = mid;
+    }
+    double T = 0.5 * (lo + hi);
+    for (int c = 0; c < 2; c++)
+        assert_int_equal(pw_psat(&g->c[c], T, &Ps[c], NULL), PW_OK);
+    *y1 = x1 * exp(lg[0]) * Ps[0] / P;
+    return T;
 }
 
 static double g_of(const gapset *g, double x)
@@ -251,6 +300,67 @@ static void point_inside_gap_not_bridged(void **state)
     pw_dataset_free(&g.ds);
 }
 
+/* Isobaric noise-free data (ln gamma independent of T, H^E = 0): Herington's D is at the
+ * smoothing level once the gap is bridged, and the step is exact. */
+static void isobaric_bridged(void **state)
+{
+    (void)state;
+    layers l = {0.03, 0.6};
+    gapset g;
+    make_kind(&g, &l, 8, 10, 4, true);
+    pw_het_check het;
+    pw_consistency_result r;
+    pw_error err;
+    if (pw_check_data(&g.ds, &g.c[0], &g.c[1], NULL, &het, &r, &err) != PW_OK)
+        fail_msg("pw_check_data: %s", err.msg);
+    assert_int_equal(het.n, 4);
+    pw_het_check_free(&het, NULL);
+    assert_true(r.tests[PW_CTEST_HERINGTON].ran);
+    pw_assert_close(r.gap_bridge, g_of(&g, g.x_b) - g_of(&g, g.x_a), 1e-9, 1e-9, "step");
+    if (!(r.herington_D < 0.01))
+        fail_msg("isobaric bridged D = %g %%", r.herington_D);
+    pw_consistency_result_free(&r);
+    pw_dataset_free(&g.ds);
+}
+
+/* Short branches (1 to 4 points: an interpolating polynomial, a constant for one point, as
+ * both shipped partly miscible sets need) and a branch with two points at one x: the bridge
+ * is still the exact step, the degrees are n - 1, and the test runs. With so few points the
+ * smoothing itself is rough, so only D's being finite is asked. */
+static void short_branches(void **state)
+{
+    (void)state;
+    layers l = {0.04, 0.55};
+    for (size_t n_lo = 1; n_lo <= 4; n_lo++)
+        for (size_t n_hi = 1; n_hi <= 4; n_hi++) {
+            if (n_lo + n_hi < 5) /* the area test needs 5 points in all */
+                continue;
+            gapset g;
+            make(&g, &l, n_lo, n_hi, 3);
+            pw_consistency_result r = checked(&g, 3);
+            assert_true(r.tests[PW_CTEST_AREA].ran);
+            assert_true(isfinite(r.tests[PW_CTEST_AREA].value));
+            assert_int_equal(r.area_degree, (int)n_lo - 1);
+            assert_int_equal(r.area_degree_upper, (int)n_hi - 1);
+            pw_assert_close(r.gap_bridge, g_of(&g, g.x_b) - g_of(&g, g.x_a), 1e-9, 1e-9,
+                            "step");
+            pw_consistency_result_free(&r);
+            pw_dataset_free(&g.ds);
+        }
+    /* two points of the upper branch at one x (a repeated measurement) */
+    gapset g;
+    make(&g, &l, 6, 3, 3);
+    g.ds.pts[g.ds.n - 2].x1 = g.ds.pts[g.ds.n - 3].x1;
+    g.ds.pts[g.ds.n - 2].y1 = g.ds.pts[g.ds.n - 3].y1;
+    g.ds.pts[g.ds.n - 2].P_Pa = g.ds.pts[g.ds.n - 3].P_Pa;
+    pw_consistency_result r = checked(&g, 3);
+    assert_true(r.tests[PW_CTEST_AREA].ran);
+    assert_true(isfinite(r.tests[PW_CTEST_AREA].value));
+    assert_true(isfinite(r.gap_bridge));
+    pw_consistency_result_free(&r);
+    pw_dataset_free(&g.ds);
+}
+
 int main(void)
 {
     pw_test_init();
@@ -258,6 +368,8 @@ int main(void)
         cmocka_unit_test(bridged_against_single_polynomial),
         cmocka_unit_test(random_gaps),
         cmocka_unit_test(point_inside_gap_not_bridged),
+        cmocka_unit_test(isobaric_bridged),
+        cmocka_unit_test(short_branches),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
