@@ -78,6 +78,9 @@ typedef struct pw_consistency_options {
      * step of G^E/RT between the one-liquid points beside it (docs/consistency.md). NAN
      * (default): no gap, one polynomial over [0, 1]. */
     double gap_x1[2];
+    /* The temperatures of those three-phase points (lowest, highest; NAN: none): Herington's
+     * theta spans the whole system's boiling range, the three-phase line included. */
+    double gap_T_K[2];
     bool strict_verdict;        /* false (default): the verdict rests on legendre_point and
                                    pure_endpoints (the area and Kojima tests when the point test
                                    cannot run), other failures are warnings; true: every test that

@@ -33,6 +33,7 @@ pw_consistency_options pw_consistency_default_options(void)
         .sigma_P_rel = NAN,
         .point_confidence = 0.99,
         .gap_x1 = {NAN, NAN},
+        .gap_T_K = {NAN, NAN},
         .strict_verdict = false,
     };
 }

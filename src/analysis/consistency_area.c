@@ -194,6 +194,8 @@ pw_status pw_cs_herington_test(const cs_data *d, pw_consistency_result *r)
         Tmin = fmin(Tmin, d->ds->pts[i].T_K);
         Tmax = fmax(Tmax, d->ds->pts[i].T_K);
     }
+    for (int k = 0; k < 2; k++) /* the three-phase points left out (fmin/fmax skip NAN) */
+        Tmin = fmin(Tmin, d->opt->gap_T_K[k]), Tmax = fmax(Tmax, d->opt->gap_T_K[k]);
     for (int c = 0; c < 2; c++) {
         double Tb;
         if (pw_tsat(d->comp[c], d->ds->P_fixed_Pa, &Tb) == PW_OK) {

@@ -86,9 +86,12 @@ pw_status pw_check_data(const pw_dataset *ds, const pw_component *c1, const pw_c
     pw_consistency_options use = o ? *o : pw_consistency_default_options();
     if (het->n) { /* the area tests bridge the gap the three-phase points span */
         use.gap_x1[0] = use.gap_x1[1] = het->pts[0].x1;
+        use.gap_T_K[0] = use.gap_T_K[1] = het->pts[0].T_K;
         for (size_t i = 1; i < het->n; i++) {
             use.gap_x1[0] = fmin(use.gap_x1[0], het->pts[i].x1);
             use.gap_x1[1] = fmax(use.gap_x1[1], het->pts[i].x1);
+            use.gap_T_K[0] = fmin(use.gap_T_K[0], het->pts[i].T_K);
+            use.gap_T_K[1] = fmax(use.gap_T_K[1], het->pts[i].T_K);
         }
     }
     pw_status st = pw_consistency_run(het->n ? &one : ds, c1, c2, &use, r, err);

@@ -439,6 +439,9 @@ gb = her["details"]["gap_bridge"]
 assert gb["x1"] == [0.015, 0.494] and gb["branch_degrees"] == [4, 4], gb
 assert her["details"]["D"] < 2.0 and her["pass"], her   # 0.74 %; one polynomial gave 19.3 %
 assert 0.0 < gb["gE_RT_step"] < 1.0, gb
+# theta spans the whole system: the three-phase points' 365.85 K (lines 15-21) is the lowest T,
+# below every one-liquid point's (366.55 K)
+assert her["details"]["T_min_K"] == 365.85, her["details"]
 open(sys.argv[1] + ".step", "w").write("%.4g" % gb["gE_RT_step"])
 PY
 "$PW" check "$SRC/datasets/butanol_water_1atm.csv" > "$TMP/chk.txt" 2> /dev/null || fail "check text"
