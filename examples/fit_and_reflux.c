@@ -96,9 +96,8 @@ int main(int argc, char **argv)
     else
         printf("not feasible: %s\n", col.reason);
 
-    json_t *doc = pw_reflux_design_doc(&col, &design, NULL, P_Pa, &spec, T_top, T_bottom);
-    if (doc) /* whether constant molal overflow is doubtful here, as `reflux --json` says */
-        json_object_set_new(doc, "overflow_check", pw_overflow_check_doc(&fit.sys, true));
+    json_t *doc = pw_reflux_command_doc(&fit.sys, &col, &design, NULL, P_Pa, &spec, T_top,
+                                        T_bottom);
     pw_design_table_free(&design);
     char *text = pw_json_text(doc);
     json_decref(doc);

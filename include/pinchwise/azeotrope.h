@@ -152,6 +152,11 @@ typedef struct pw_az_scan {
     pw_az_boundary *boundaries;
     double x1_shift;             /* max minus min x1 of the azeotrope over the points that have
                                   * exactly one; NAN when fewer than two such points */
+    struct pw_three_phase *three_phase; /* n_points entries: the three-phase state at each point,
+                                  * valid where three_phase_known[k] (set by pw_azeotrope_scan
+                                  * for a model that can split; its layers were left out of the
+                                  * point's search), reused by pw_azeotrope_scan_heterogeneous */
+    bool *three_phase_known;
     pw_progress_fn progress;     /* set by the caller (NULL after pw_az_scan_alloc): called after
                                   * each point with (points done, n_points); a status other than
                                   * PW_OK stops the scan with it */

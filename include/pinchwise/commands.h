@@ -142,9 +142,15 @@ pw_status pw_decanter_run(const pw_system *sys, const pw_decanter_spec *spec,
                           const pw_column_options *opt, const char *where, pw_decanter_result *r,
                           pw_error *err);
 
-/* The `decanter --json` document (CONTRACT keys, each column's pinch, q and the caution); the
- * command adds "overflow_check" (pw_overflow_check_doc, design_doc.h). */
+/* The `decanter --json` document (CONTRACT keys, each column's pinch, q and the caution); what
+ * the command prints is pw_decanter_command_doc. */
 json_t *pw_decanter_doc(const pw_decanter_result *r, const pw_decanter_spec *spec);
+
+/* The whole `decanter --json` document (without --uncertainty's keys): pw_decanter_doc and
+ * "overflow_check" for sys (pw_overflow_check_doc, design_doc.h; both columns use constant
+ * molal overflow). */
+json_t *pw_decanter_command_doc(const pw_system *sys, const pw_decanter_result *r,
+                                const pw_decanter_spec *spec);
 
 /* ---- rate ---- */
 

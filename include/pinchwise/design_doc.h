@@ -36,8 +36,8 @@ json_t *pw_design_doc(const pw_design_table *t);
 json_t *pw_energy_doc(const pw_energy_result *e, double r_min_cmo);
 
 /* The `reflux --json` document with the design rows and "balance" (and with e != NULL the
- * energy balance's headline, "energy" and its caution): pw_reflux_doc extended. The command
- * adds "overflow_check" (pw_overflow_check_doc). */
+ * energy balance's headline, "energy" and its caution): pw_reflux_doc extended. What the command
+ * prints is pw_reflux_command_doc. */
 json_t *pw_reflux_design_doc(const pw_column_result *col, const pw_design_table *t,
                              const pw_energy_result *e, double P_Pa, const pw_column_spec *spec,
                              double T_top_K, double T_bottom_K);
@@ -47,6 +47,12 @@ json_t *pw_reflux_design_doc(const pw_column_result *col, const pw_design_table 
  * used (cmo_used) and the mismatch exceeds the limit, "basis": "common practice"}; reflux
  * (cmo_used: without an energy balance) and decanter (always) carry it. */
 json_t *pw_overflow_check_doc(const pw_system *sys, bool cmo_used);
+
+/* The whole `reflux --json` document (without --uncertainty's keys): pw_reflux_design_doc and
+ * "overflow_check" for sys. */
+json_t *pw_reflux_command_doc(const pw_system *sys, const pw_column_result *col,
+                              const pw_design_table *t, const pw_energy_result *e, double P_Pa,
+                              const pw_column_spec *spec, double T_top_K, double T_bottom_K);
 
 /* The "energy" object of screen --energy. */
 json_t *pw_screen_energy_doc(const pw_energy_result *e, double r_min_cmo);

@@ -161,6 +161,10 @@ pw_status pw_azeotrope_heterogeneous(const pw_system *s, int mode, double fixed,
                                      struct pw_az_result *r, pw_three_phase *tp,
                                      size_t *n_removed);
 
+/* The three-phase state at a fixed pressure (mode 0, at = P in Pa: pw_three_phase_at_P) or
+ * temperature (mode 1, at = T in K: pw_three_phase_at_T); mode as pw_az_mode. */
+pw_status pw_three_phase_at(const pw_system *s, int mode, double at, pw_three_phase *tp);
+
 /* Every azeotrope at one condition: the one search that every place listing azeotropes uses
  * (the azeotrope command, the ranking of fit --model all, study and the report). The
  * three-phase state at the condition into tp; the homogeneous roots of pw_azeotrope_find into

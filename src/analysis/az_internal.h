@@ -30,6 +30,11 @@ pw_status pw_az_brent_root(pw_az_ctx *c, double a, double b, double *root);
 pw_status pw_az_end_ln_alpha(const pw_system *s, pw_az_mode mode, double fixed, int end,
                              double *ln_alpha, double *T_K, double *P_Pa);
 
+/* Drops the roots of r whose liquid lies inside the two-liquid region at its own temperature,
+ * adding their count to *n_removed (may be NULL). All or nothing: on a failure (of
+ * pw_lle_solve) r and *n_removed are left as they were. */
+pw_status pw_az_drop_inside(const pw_system *s, pw_az_result *r, size_t *n_removed);
+
 /* Resets a result to "nothing found" (NAN for unknown numbers). */
 void pw_az_result_clear(pw_az_result *out, pw_az_mode mode, double fixed);
 

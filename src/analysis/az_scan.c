@@ -22,7 +22,9 @@ pw_az_scan *pw_az_scan_alloc(size_t n_points)
     sc->at = calloc(n_points, sizeof *sc->at);
     sc->points = calloc(n_points, sizeof *sc->points);
     sc->boundaries = calloc(sc->max_boundaries, sizeof *sc->boundaries);
-    if (!sc->at || !sc->points || !sc->boundaries) {
+    sc->three_phase = calloc(n_points, sizeof *sc->three_phase);
+    sc->three_phase_known = calloc(n_points, sizeof *sc->three_phase_known);
+    if (!sc->at || !sc->points || !sc->boundaries || !sc->three_phase || !sc->three_phase_known) {
         pw_az_scan_free(sc);
         return NULL;
     }
@@ -56,6 +58,8 @@ void pw_az_scan_free(pw_az_scan *scan)
     free(scan->at);
     free(scan->points);
     free(scan->boundaries);
+    free(scan->three_phase);
+    free(scan->three_phase_known);
     free(scan);
 }
 
@@ -140,15 +144,16 @@ pw_status pw_azeotrope_scan(const pw_system *s, pw_az_mode mode, double from, do
     scan->at[n - 1] = to;
     for (size_t k = 0; k < n; k++) {
         /* a model that splits: the three-phase layers at the point are left out of the search,
-         * as pw_azeotrope_search does (no one-liquid azeotrope lies there) */
+         * as pw_azeotrope_search does (no one-liquid azeotrope lies there); the state is kept
+         * for pw_azeotrope_scan_heterogeneous */
         pw_az_options ok = o;
-        pw_three_phase tp;
-        if (pw_model_can_split(s->model) &&
-            (mode == PW_AZ_ISOBARIC ? pw_three_phase_at_P(s, scan->at[k], &tp)
-                                    : pw_three_phase_at_T(s, scan->at[k], &tp)) == PW_OK &&
-            tp.exists) {
-            ok.skip_x1[0] = tp.x[0];
-            ok.skip_x1[1] = tp.x[1];
+        const pw_three_phase *tp = &scan->three_phase[k];
+        scan->three_phase_known[k] =
+            pw_model_can_split(s->model) &&
+            pw_three_phase_at(s, (int)mode, scan->at[k], &scan->three_phase[k]) == PW_OK;
+        if (scan->three_phase_known[k] && tp->exists) {
+            ok.skip_x1[0] = tp->x[0];
+            ok.skip_x1[1] = tp->x[1];
         }
         pw_status st = pw_azeotrope_find(s, mode, scan->at[k], &ok, &scan->points[k]);
         if (st == PW_OK && scan->progress)

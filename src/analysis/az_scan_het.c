@@ -10,6 +10,7 @@
 #include <math.h>
 #include <string.h>
 
+#include "analysis/az_internal.h"
 #include "base/solve1d.h"
 
 /* Relative width in P (or T) to which a change of label is located. The three-phase temperature
@@ -45,16 +46,11 @@ typedef struct het_ctx {
     het_eval ev[HET_MAX_EVALS];
 } het_ctx;
 
-static pw_status three_phase(const pw_system *s, pw_az_mode mode, double v, pw_three_phase *tp)
-{
-    return mode == PW_AZ_ISOBARIC ? pw_three_phase_at_P(s, v, tp) : pw_three_phase_at_T(s, v, tp);
-}
-
 static pw_status het_fn(void *params, double v, double *f)
 {
     het_ctx *c = params;
     pw_three_phase tp;
-    pw_status st = three_phase(c->s, c->mode, v, &tp);
+    pw_status st = pw_three_phase_at(c->s, (int)c->mode, v, &tp);
     if (st != PW_OK)
         return st;
     *f = het_G(&tp);
@@ -144,8 +140,14 @@ pw_status pw_azeotrope_scan_heterogeneous(const pw_system *s, pw_az_scan *scan,
         return PW_EINVAL;
     const size_t n = scan->n_points;
     for (size_t k = 0; k < n; k++) {
-        pw_status st = pw_azeotrope_heterogeneous(s, (int)scan->mode, scan->at[k],
-                                                  &scan->points[k], &tps[k], NULL);
+        pw_status st;
+        if (scan->three_phase_known[k]) { /* pw_azeotrope_scan's, at the same condition */
+            tps[k] = scan->three_phase[k];
+            st = pw_az_drop_inside(s, &scan->points[k], NULL);
+        } else {
+            st = pw_azeotrope_heterogeneous(s, (int)scan->mode, scan->at[k], &scan->points[k],
+                                            &tps[k], NULL);
+        }
         if (st != PW_OK)
             return st;
     }

@@ -5,15 +5,14 @@
 
 #include <string.h>
 
-static pw_status three_phase_at(const pw_system *s, int mode, double fixed, pw_three_phase *tp)
+#include "analysis/az_internal.h"
+
+pw_status pw_three_phase_at(const pw_system *s, int mode, double at, pw_three_phase *tp)
 {
-    return mode == PW_AZ_ISOBARIC ? pw_three_phase_at_P(s, fixed, tp)
-                                  : pw_three_phase_at_T(s, fixed, tp);
+    return mode == PW_AZ_ISOBARIC ? pw_three_phase_at_P(s, at, tp) : pw_three_phase_at_T(s, at, tp);
 }
 
-/* Drops the roots of r whose liquid lies inside the two-liquid region at its own temperature.
- * All or nothing: on a failure r and *n_removed are left as they were. */
-static pw_status drop_inside(const pw_system *s, struct pw_az_result *r, size_t *n_removed)
+pw_status pw_az_drop_inside(const pw_system *s, struct pw_az_result *r, size_t *n_removed)
 {
     bool drop[PW_AZ_MAX] = {false};
     size_t n_drop = 0;
@@ -47,8 +46,8 @@ pw_status pw_azeotrope_heterogeneous(const pw_system *s, int mode, double fixed,
         return PW_EINVAL;
     if (n_removed)
         *n_removed = 0;
-    pw_status st = three_phase_at(s, mode, fixed, tp);
-    return st != PW_OK ? st : drop_inside(s, r, n_removed);
+    pw_status st = pw_three_phase_at(s, mode, fixed, tp);
+    return st != PW_OK ? st : pw_az_drop_inside(s, r, n_removed);
 }
 
 pw_status pw_azeotrope_search(const pw_system *s, int mode, double fixed, struct pw_az_result *r,
@@ -72,7 +71,7 @@ pw_status pw_azeotrope_search_opt(const pw_system *s, int mode, double fixed,
     /* the three-phase state first: its layers are left out of the one-liquid search (no
      * azeotrope can lie there, and a strongly non-ideal model may have no one-liquid bubble
      * point inside them) */
-    pw_status st_tp = three_phase_at(s, mode, fixed, tp);
+    pw_status st_tp = pw_three_phase_at(s, mode, fixed, tp);
     if (st_tp == PW_OK && tp->exists) {
         o.skip_x1[0] = tp->x[0];
         o.skip_x1[1] = tp->x[1];
@@ -81,7 +80,7 @@ pw_status pw_azeotrope_search_opt(const pw_system *s, int mode, double fixed,
     if (st != PW_OK)
         return st;
     if (st_tp == PW_OK)
-        st_tp = drop_inside(s, r, n_removed);
+        st_tp = pw_az_drop_inside(s, r, n_removed);
     if (st_tp != PW_OK && het_failed)
         *het_failed = true;
     return st_tp;

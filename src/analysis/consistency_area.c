@@ -3,10 +3,11 @@
  * for 5-7 points, 4 for 8 or more), integrated over [0, 1] piecewise between its real roots:
  * A = area above the axis, B = |area below|, D = 100 |A - B| / (A + B).
  * Across a two-liquid gap (three-phase points left out, options.gap_x1) each liquid branch is
- * smoothed on its own and the gap is bridged exactly: the integral of ln(gamma1/gamma2) over
+ * smoothed on its own and the gap is bridged: the integral of ln(gamma1/gamma2) over
  * [x_a, x_b] is g(x_b) - g(x_a), g = G^E/RT = x1 ln gamma1 + x2 ln gamma2 (d g/dx1 =
- * ln(gamma1/gamma2) at constant T and P; across the gap both are those of the three-phase
- * line), measured at the one-liquid points x_a, x_b beside the gap. */
+ * ln(gamma1/gamma2) at constant T and P: exact for isothermal data; for isobaric data the
+ * H^E dT part is left out, as docs/consistency.md says), measured at the one-liquid points x_a,
+ * x_b beside the gap. */
 #include "consistency_internal.h"
 
 #include <math.h>
@@ -45,6 +46,17 @@ static pw_status branch_areas(const double *x, const double *v, size_t m, double
     return st;
 }
 
+/* The points (x, v) of one liquid branch, below or above cut, into (bx, bv); their count. */
+static size_t branch(const double *x, const double *v, size_t n, bool below, double cut,
+                     double *bx, double *bv)
+{
+    size_t m = 0;
+    for (size_t i = 0; i < n; i++)
+        if (below ? x[i] < cut : x[i] > cut)
+            bx[m] = x[i], bv[m++] = v[i];
+    return m;
+}
+
 /* The areas with options.gap_x1 bridged (see the top of the file); *bridged false, and nothing
  * set, when there is no gap, a branch has no point or a one-liquid point lies inside the gap. */
 static pw_status bridged_areas(const cs_data *d, const double *x, const double *lr,
@@ -76,17 +88,11 @@ static pw_status bridged_areas(const cs_data *d, const double *x, const double *
     }
     double Aa = 0, Ba = 0, Ab = 0, Bb = 0;
     int deg_a = -1, deg_b = -1;
-    size_t m = 0;
-    for (size_t i = 0; i < n; i++)
-        if (x[i] < gap[0])
-            bx[m] = x[i], bv[m++] = lr[i];
-    pw_status st = branch_areas(bx, bv, m, 0.0, x[ia], &deg_a, &Aa, &Ba);
-    m = 0;
-    for (size_t i = 0; i < n; i++)
-        if (x[i] > gap[1])
-            bx[m] = x[i], bv[m++] = lr[i];
+    pw_status st = branch_areas(bx, bv, branch(x, lr, n, true, gap[0], bx, bv), 0.0, x[ia],
+                                &deg_a, &Aa, &Ba);
     if (st == PW_OK)
-        st = branch_areas(bx, bv, m, x[ib], 1.0, &deg_b, &Ab, &Bb);
+        st = branch_areas(bx, bv, branch(x, lr, n, false, gap[1], bx, bv), x[ib], 1.0, &deg_b,
+                          &Ab, &Bb);
     free(bx), free(bv);
     if (st != PW_OK)
         return st;

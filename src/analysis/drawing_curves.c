@@ -36,7 +36,8 @@ static void azeotropes(const pw_system *s, bool isothermal, double fixed, const 
         a->status = PW_OK;
         a->found = *known;
         a->three_phase = *known_tp;
-    } else if (pw_model_can_split(s->model)) { /* the azeotrope command's search */
+    } else { /* the azeotrope command's search (no three-phase state for a model that cannot
+              * split) */
         pw_three_phase tp;
         bool het_failed;
         a->status = pw_azeotrope_search(s, mode, fixed, &a->found, &tp, NULL, &het_failed);
@@ -44,8 +45,6 @@ static void azeotropes(const pw_system *s, bool isothermal, double fixed, const 
             a->three_phase = tp;
         else if (het_failed) /* the one-liquid roots without the two-liquid region */
             a->status = PW_OK;
-    } else {
-        a->status = pw_azeotrope_find(s, mode, fixed, NULL, &a->found);
     }
     if (a->status != PW_OK)
         return;

@@ -238,12 +238,8 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
     out->zf_default = zf_default;
     /* partly miscible liquids: the search leaves out the three-phase layers and drops the
      * crossings inside the two-liquid region, which are no azeotropes (pw_azeotrope_search) */
-    pw_three_phase het;
-    memset(&het, 0, sizeof het);
-    const bool can_split = pw_model_can_split(s->model);
-    st = can_split ? pw_azeotrope_search_opt(s, PW_AZ_ISOBARIC, P_Pa, &o.az, &out->az, &het,
-                                             NULL, NULL)
-                   : pw_azeotrope_find(s, PW_AZ_ISOBARIC, P_Pa, &o.az, &out->az);
+    pw_three_phase het; /* exists false for a model that cannot split */
+    st = pw_azeotrope_search_opt(s, PW_AZ_ISOBARIC, P_Pa, &o.az, &out->az, &het, NULL, NULL);
     if (st == PW_OK)
         st = alpha_profile(s, &het, out, o.grid);
     if (st != PW_OK)
@@ -254,16 +250,14 @@ pw_status pw_screen_run(const pw_system *s, double P_Pa, double xd, double xb, d
     const bool down = xd < xb; /* component 1 leaves with the bottoms */
     const char *an = down ? "alpha21" : "alpha12";
     /* a heterogeneous azeotrope between the targets calls for the decanter scheme */
-    if (can_split) {
-        if (het.exists && het.heterogeneous_azeotrope && het.y1 > lo && het.y1 < hi) {
-            out->barrier = true;
-            out->x_barrier = het.y1;
-            reason(out, PW_REASON_BARRIER,
-                   "heterogeneous azeotrope at x1 = %.4f (T = " PW_TEXT_T(".2f")
-                   ", liquid layers %.4f and %.4f) "
-                   "lies between xb and xd: use the decanter scheme (pinchwise decanter)",
-                   het.y1, het.T_K, het.x[0], het.x[1]);
-        }
+    if (het.exists && het.heterogeneous_azeotrope && het.y1 > lo && het.y1 < hi) {
+        out->barrier = true;
+        out->x_barrier = het.y1;
+        reason(out, PW_REASON_BARRIER,
+               "heterogeneous azeotrope at x1 = %.4f (T = " PW_TEXT_T(".2f")
+               ", liquid layers %.4f and %.4f) "
+               "lies between xb and xd: use the decanter scheme (pinchwise decanter)",
+               het.y1, het.T_K, het.x[0], het.x[1]);
     }
     out->het = het;
     /* a model that cannot split, on data that show two liquids between the targets: its

@@ -8,7 +8,6 @@
 
 #include <math.h>
 #include <pinchwise/commands.h>
-#include <pinchwise/design_doc.h>
 #include <pinchwise/decanter.h>
 #include <stdio.h>
 #include <string.h>
@@ -207,9 +206,7 @@ pw_status cli_decanter(int argc, char **argv)
         }
     }
     if (a.json) {
-        json_t *doc = pw_decanter_doc(&r, &a.spec);
-        if (doc) /* both columns use constant molal overflow */
-            json_object_set_new(doc, "overflow_check", pw_overflow_check_doc(&fit.sys, true));
+        json_t *doc = pw_decanter_command_doc(&fit.sys, &r, &a.spec);
         if (doc && minimum) /* the minimum used, as azeotrope records it */
             json_object_set_new(doc, "minimum", json_integer((json_int_t)minimum));
         if (unc)

@@ -25,12 +25,9 @@ static pw_column_result headline(const cli_column_run *run)
 
 json_t *cli_column_json(const cli_column_run *run)
 {
-    json_t *o = pw_reflux_design_doc(&run->col, &run->design,
-                                     run->energy ? &run->energy_res : NULL, run->P_Pa, &run->spec,
-                                     run->T_top_K, run->T_bottom_K);
-    if (o)
-        json_object_set_new(o, "overflow_check", pw_overflow_check_doc(&run->fit.sys, !run->energy));
-    return o;
+    return pw_reflux_command_doc(&run->fit.sys, &run->col, &run->design,
+                                 run->energy ? &run->energy_res : NULL, run->P_Pa, &run->spec,
+                                 run->T_top_K, run->T_bottom_K);
 }
 
 static void print_table(const cli_column_run *run)

@@ -372,10 +372,8 @@ pw_status pw_api_reflux_ex(const char *fit_path, const char *fit_text, const cha
         st = pw_reflux_unc_run(&fit, &uc, &uo, fit_where(fit_path, name), &as, err);
     }
     if (st == PW_OK) {
-        json_t *o = pw_reflux_design_doc(&col, &design, energy ? &eres : NULL, P_Pa, &spec, T_top_K,
-                                         T_bottom_K);
-        if (o)
-            json_object_set_new(o, "overflow_check", pw_overflow_check_doc(&fit.sys, !energy));
+        json_t *o = pw_reflux_command_doc(&fit.sys, &col, &design, energy ? &eres : NULL, P_Pa,
+                                          &spec, T_top_K, T_bottom_K);
         if (o && unc)
             pw_reflux_unc_doc(o, &as.res, &uo, uc.factor, as.plan_status, &as.plan);
         st = finish(o, doc, err);
@@ -549,9 +547,7 @@ pw_status pw_api_decanter_ex2(const char *fit_path, const char *fit_text, const 
         st = pw_het_unc_run(&fit, &hc, &uo, &res, err);
     }
     if (st == PW_OK) {
-        json_t *o = pw_decanter_doc(&r, &spec);
-        if (o) /* both columns use constant molal overflow */
-            json_object_set_new(o, "overflow_check", pw_overflow_check_doc(&fit.sys, true));
+        json_t *o = pw_decanter_command_doc(&fit.sys, &r, &spec);
         if (o && unc)
             pw_decanter_unc_doc(o, &res, uo.seed);
         st = finish(o, doc, err);

@@ -1,6 +1,7 @@
 /* The decanter command's computation and its `--json` document (moved from
  * src/cli/cmd_decanter.c). */
 #include <pinchwise/commands.h>
+#include <pinchwise/design_doc.h>
 
 pw_status pw_decanter_run(const pw_system *sys, const pw_decanter_spec *spec,
                           const pw_column_options *opt, const char *where, pw_decanter_result *r,
@@ -110,5 +111,14 @@ json_t *pw_decanter_doc(const pw_decanter_result *r, const pw_decanter_spec *spe
     }
     json_object_set_new(o, "q", pw_json_num(spec->q));
     json_object_set_new(o, "caution", json_string(pw_caution_text()));
+    return o;
+}
+
+json_t *pw_decanter_command_doc(const pw_system *sys, const pw_decanter_result *r,
+                                const pw_decanter_spec *spec)
+{
+    json_t *o = pw_decanter_doc(r, spec);
+    if (o)
+        json_object_set_new(o, "overflow_check", pw_overflow_check_doc(sys, true));
     return o;
 }

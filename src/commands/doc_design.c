@@ -151,6 +151,16 @@ json_t *pw_overflow_check_doc(const pw_system *sys, bool cmo_used)
                      cmo_used && pw_cmo_doubtful(sys), "basis", "common practice");
 }
 
+json_t *pw_reflux_command_doc(const pw_system *sys, const pw_column_result *col,
+                              const pw_design_table *t, const pw_energy_result *e, double P_Pa,
+                              const pw_column_spec *spec, double T_top_K, double T_bottom_K)
+{
+    json_t *o = pw_reflux_design_doc(col, t, e, P_Pa, spec, T_top_K, T_bottom_K);
+    if (o)
+        json_object_set_new(o, "overflow_check", pw_overflow_check_doc(sys, e == NULL));
+    return o;
+}
+
 json_t *pw_screen_energy_doc(const pw_energy_result *e, double r_min_cmo)
 {
     return json_pack("{s:b,s:o,s:o,s:s,s:o}", "feasible", e->feasible, "r_min",

@@ -1,6 +1,7 @@
 #include "pw_test.h"
 
 #include <gsl/gsl_errno.h>
+#include <gsl/gsl_multiroots.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -115,4 +116,51 @@ void pw_test_invented_isobaric(pw_dataset *ds, const pw_system *s, size_t n)
                                 .P_Pa = 101325.0,
                                 .line = (long)i + 4};
     }
+}
+
+void pw_test_nrtl_ln_gamma(double tau12, double tau21, double alpha, double x1, double lg[2])
+{
+    double x2 = 1.0 - x1;
+    double G12 = exp(-alpha * tau12), G21 = exp(-alpha * tau21);
+    double D1 = x1 + x2 * G21, D2 = x2 + x1 * G12;
+    lg[0] = x2 * x2 * (tau21 * G21 * G21 / (D1 * D1) + tau12 * G12 / (D2 * D2));
+    lg[1] = x1 * x1 * (tau12 * G12 * G12 / (D2 * D2) + tau21 * G21 / (D1 * D1));
+}
+
+typedef struct nrtl_layers {
+    double x_I, x_II, alpha;
+} nrtl_layers;
+
+static int nrtl_equal_activities(const gsl_vector *v, void *p, gsl_vector *f)
+{
+    const nrtl_layers *l = p;
+    double t12 = gsl_vector_get(v, 0), t21 = gsl_vector_get(v, 1), a[2], b[2];
+    pw_test_nrtl_ln_gamma(t12, t21, l->alpha, l->x_I, a);
+    pw_test_nrtl_ln_gamma(t12, t21, l->alpha, l->x_II, b);
+    gsl_vector_set(f, 0, log(l->x_I) + a[0] - log(l->x_II) - b[0]);
+    gsl_vector_set(f, 1, log1p(-l->x_I) + a[1] - log1p(-l->x_II) - b[1]);
+    return GSL_SUCCESS;
+}
+
+void pw_test_nrtl_tau_from_layers(double x_I, double x_II, double alpha, double tau[2])
+{
+    nrtl_layers l = {x_I, x_II, alpha};
+    gsl_multiroot_function F = {nrtl_equal_activities, 2, &l};
+    gsl_multiroot_fsolver *s = gsl_multiroot_fsolver_alloc(gsl_multiroot_fsolver_hybrids, 2);
+    gsl_vector *x0 = gsl_vector_alloc(2);
+    assert_true(s && x0);
+    gsl_vector_set(x0, 0, -log1p(-x_II));
+    gsl_vector_set(x0, 1, -log(x_I));
+    gsl_multiroot_fsolver_set(s, &F, x0);
+    int status = GSL_CONTINUE;
+    for (int it = 0; it < 500 && status == GSL_CONTINUE; it++) {
+        if (gsl_multiroot_fsolver_iterate(s) != GSL_SUCCESS)
+            break;
+        status = gsl_multiroot_test_residual(s->f, 1e-13);
+    }
+    assert_int_equal(status, GSL_SUCCESS);
+    tau[0] = gsl_vector_get(s->x, 0);
+    tau[1] = gsl_vector_get(s->x, 1);
+    gsl_vector_free(x0);
+    gsl_multiroot_fsolver_free(s);
 }

@@ -40,6 +40,15 @@ pw_component pw_test_svna(const char *name);
  * 0 on success, -1 (lib freed, the reason printed) on failure. */
 int pw_test_read_complib(pw_complib *lib);
 
+/* NRTL ln gamma (Renon & Prausnitz 1968) at x1 for tau12, tau21 and alpha, written out here,
+ * independently of src/thermo, for tests that need the model outside the library. */
+void pw_test_nrtl_ln_gamma(double tau12, double tau21, double alpha, double x1, double lg[2]);
+
+/* tau12, tau21 of the NRTL above with which layers x_I and x_II coexist (equal activities of
+ * both components), by GSL's hybrid solver to a residual of 1e-13, started from the nearly
+ * immiscible estimate tau21 ~ ln(1/x_I), tau12 ~ ln(1/(1 - x_II)); fails the test otherwise. */
+void pw_test_nrtl_tau_from_layers(double x_I, double x_II, double alpha, double tau[2]);
+
 /* Invented isobaric data at 101.325 kPa: n points of system s from x1 0.05 to 0.95 (bubble
  * points, with small deterministic deviations in y and T), stated sigmas, lines 4.. ; for
  * round-trip tests. The caller frees with pw_dataset_free. */

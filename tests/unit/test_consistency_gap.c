@@ -7,14 +7,13 @@
  * gap is bridged by that step, whatever the one-liquid function does inside the gap, which no
  * point measures.
  *
- * The data: NRTL (Renon & Prausnitz 1968, alpha 0.3, written out here, independent of
+ * The data: NRTL (Renon & Prausnitz 1968, alpha 0.3, written out in pw_test.c, independent of
  * src/thermo) whose two parameters are solved (GSL hybrid solver) so that chosen layers x_I,
  * x_II coexist at 330 K; one-liquid points outside the layers, three-phase points (the layers'
  * pressure and vapor) inside. Vapor pressures: the Antoine rows of 1-propanol and water of
  * Smith, Van Ness & Abbott 7th ed. Table B.2 (pw_test_svna). INVENTED round-trip data, seeded. */
 #include "pw_test.h"
 
-#include <gsl/gsl_multiroots.h>
 #include <gsl/gsl_rng.h>
 #include <math.h>
 #include <pinchwise/hetcheck.h>
@@ -31,45 +30,13 @@ typedef struct {
 
 static void nrtl(const double tau[2], double x1, double lg[2])
 {
-    double x2 = 1.0 - x1, t12 = tau[0], t21 = tau[1];
-    double G12 = exp(-ALPHA * t12), G21 = exp(-ALPHA * t21);
-    double D1 = x1 + x2 * G21, D2 = x2 + x1 * G12;
-    lg[0] = x2 * x2 * (t21 * G21 * G21 / (D1 * D1) + t12 * G12 / (D2 * D2));
-    lg[1] = x1 * x1 * (t12 * G12 * G12 / (D2 * D2) + t21 * G21 / (D1 * D1));
+    pw_test_nrtl_ln_gamma(tau[0], tau[1], ALPHA, x1, lg);
 }
 
-static int equal_activities(const gsl_vector *v, void *p, gsl_vector *f)
-{
-    const layers *l = p;
-    double tau[2] = {gsl_vector_get(v, 0), gsl_vector_get(v, 1)}, a[2], b[2];
-    nrtl(tau, l->x_I, a);
-    nrtl(tau, l->x_II, b);
-    gsl_vector_set(f, 0, log(l->x_I) + a[0] - log(l->x_II) - b[0]);
-    gsl_vector_set(f, 1, log1p(-l->x_I) + a[1] - log1p(-l->x_II) - b[1]);
-    return GSL_SUCCESS;
-}
-
-/* tau12, tau21 with x_I and x_II coexisting; started from the nearly immiscible estimate. */
+/* tau12, tau21 with x_I and x_II coexisting (pw_test.c). */
 static void tau_from_layers(const layers *l, double tau[2])
 {
-    gsl_multiroot_function F = {equal_activities, 2, (void *)l};
-    gsl_multiroot_fsolver *s = gsl_multiroot_fsolver_alloc(gsl_multiroot_fsolver_hybrids, 2);
-    gsl_vector *x0 = gsl_vector_alloc(2);
-    assert_true(s && x0);
-    gsl_vector_set(x0, 0, -log1p(-l->x_II));
-    gsl_vector_set(x0, 1, -log(l->x_I));
-    gsl_multiroot_fsolver_set(s, &F, x0);
-    int status = GSL_CONTINUE;
-    for (int it = 0; it < 500 && status == GSL_CONTINUE; it++) {
-        if (gsl_multiroot_fsolver_iterate(s) != GSL_SUCCESS)
-            break;
-        status = gsl_multiroot_test_residual(s->f, 1e-13);
-    }
-    assert_int_equal(status, GSL_SUCCESS);
-    tau[0] = gsl_vector_get(s->x, 0);
-    tau[1] = gsl_vector_get(s->x, 1);
-    gsl_vector_free(x0);
-    gsl_multiroot_fsolver_free(s);
+    pw_test_nrtl_tau_from_layers(l->x_I, l->x_II, ALPHA, tau);
 }
 
 typedef struct gapset {

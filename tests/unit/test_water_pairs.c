@@ -26,8 +26,8 @@
  *
  * The model: NRTL (Renon & Prausnitz 1968) with alpha fixed at 0.2 (the value they suggest for
  * partly miscible pairs, from memory) and tau_ij = dg_ij/T; equal activities of both components
- * in both layers are two equations in dg12, dg21, solved with GSL's hybrid solver on ln gamma
- * written out in this file (not the library's model code). Identity: the library's LLE solver
+ * in both layers are two equations in tau12, tau21, solved with GSL's hybrid solver on ln gamma
+ * written out in the tests' own pw_test.c (not the library's model code). Identity: the library's LLE solver
  * (pw_lle_solve) returns the given layers for those parameters, and its tangent-plane test
  * passes.
  *
@@ -50,8 +50,6 @@
 #include "pw_test.h"
 
 #include <gsl/gsl_errno.h>
-#include <gsl/gsl_multiroots.h>
-#include <gsl/gsl_vector.h>
 #include <math.h>
 #include <pinchwise/azeotrope.h>
 #include <pinchwise/decanter.h>
@@ -68,49 +66,15 @@ typedef struct {
     double T_K, x_I, x_II;
 } layers;
 
-/* NRTL ln gamma (Renon & Prausnitz 1968), written out independently of src/thermo. */
-static void nrtl_ln_gamma(double b12, double b21, double T, double x1, double lg[2])
-{
-    double x2 = 1.0 - x1, t12 = b12 / T, t21 = b21 / T;
-    double G12 = exp(-ALPHA * t12), G21 = exp(-ALPHA * t21);
-    double D1 = x1 + x2 * G21, D2 = x2 + x1 * G12;
-    lg[0] = x2 * x2 * (t21 * G21 * G21 / (D1 * D1) + t12 * G12 / (D2 * D2));
-    lg[1] = x1 * x1 * (t12 * G12 * G12 / (D2 * D2) + t21 * G21 / (D1 * D1));
-}
-
-static int equal_activities(const gsl_vector *v, void *p, gsl_vector *f)
-{
-    const layers *t = p;
-    double b12 = gsl_vector_get(v, 0), b21 = gsl_vector_get(v, 1), a[2], b[2];
-    nrtl_ln_gamma(b12, b21, t->T_K, t->x_I, a);
-    nrtl_ln_gamma(b12, b21, t->T_K, t->x_II, b);
-    gsl_vector_set(f, 0, log(t->x_I) + a[0] - log(t->x_II) - b[0]);
-    gsl_vector_set(f, 1, log1p(-t->x_I) + a[1] - log1p(-t->x_II) - b[1]);
-    return GSL_SUCCESS;
-}
-
-/* Start from the infinite-dilution estimate of nearly immiscible layers (each component's
- * activity in its own layer close to 1): tau21 ~ ln(1/x_I), tau12 ~ ln(1/(1 - x_II)). */
+/* NRTL (Renon & Prausnitz 1968, written out in pw_test.c independently of src/thermo) with
+ * the given layers coexisting at t->T_K: tau_ij from pw_test_nrtl_tau_from_layers, dg_ij =
+ * tau_ij T. */
 static void parameters_from_layers(const layers *t, double *b12, double *b21)
 {
-    gsl_multiroot_function F = {equal_activities, 2, (void *)t};
-    gsl_multiroot_fsolver *s = gsl_multiroot_fsolver_alloc(gsl_multiroot_fsolver_hybrids, 2);
-    assert_non_null(s);
-    gsl_vector *x0 = gsl_vector_alloc(2);
-    gsl_vector_set(x0, 0, -t->T_K * log1p(-t->x_II));
-    gsl_vector_set(x0, 1, -t->T_K * log(t->x_I));
-    gsl_multiroot_fsolver_set(s, &F, x0);
-    int status = GSL_CONTINUE;
-    for (int it = 0; it < 500 && status == GSL_CONTINUE; it++) {
-        if (gsl_multiroot_fsolver_iterate(s) != GSL_SUCCESS)
-            break;
-        status = gsl_multiroot_test_residual(s->f, 1e-13);
-    }
-    assert_int_equal(status, GSL_SUCCESS);
-    *b12 = gsl_vector_get(s->x, 0);
-    *b21 = gsl_vector_get(s->x, 1);
-    gsl_vector_free(x0);
-    gsl_multiroot_fsolver_free(s);
+    double tau[2];
+    pw_test_nrtl_tau_from_layers(t->x_I, t->x_II, ALPHA, tau);
+    *b12 = tau[0] * t->T_K;
+    *b21 = tau[1] * t->T_K;
 }
 
 static pw_system nrtl_with_water(const char *organic, double b12, double b21, double T_ref)
